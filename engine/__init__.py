@@ -1,0 +1,64 @@
+"""strutscope's engine: the exact second-order analysis of one member under axial force and bending.
+
+Pure numerics (numpy and scipy). SI units throughout: m, N, N·m, Pa. See ``conventions.md`` for signs and the
+case-file schema, and the README for the method and its references.
+"""
+
+from engine.analysis import solve, sweep
+from engine.buckling import Buckling, critical_loads
+from engine.case import (
+    Case,
+    CoupleLoad,
+    EndSupport,
+    Imperfection,
+    LinearLoad,
+    PointLoad,
+    UniformLoad,
+    load_case,
+    save_case,
+)
+from engine.errors import CaseError
+from engine.results import (
+    Amplification,
+    Approximation,
+    Equilibrium,
+    Governing,
+    Peak,
+    Reactions,
+    Result,
+    SweepResult,
+)
+
+__all__ = [
+    "Amplification",
+    "Approximation",
+    "Buckling",
+    "Case",
+    "CaseError",
+    "CoupleLoad",
+    "EndSupport",
+    "Equilibrium",
+    "Governing",
+    "Imperfection",
+    "LinearLoad",
+    "Peak",
+    "PointLoad",
+    "Reactions",
+    "Result",
+    "SweepResult",
+    "UniformLoad",
+    "clear_caches",
+    "critical_loads",
+    "load_case",
+    "save_case",
+    "solve",
+    "sweep",
+]
+
+
+def clear_caches() -> None:
+    """Forget cached critical loads, so a benchmark can time the uncached path."""
+    from engine import analysis, buckling
+
+    buckling.clear_cache()
+    analysis.clear_cache()

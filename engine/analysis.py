@@ -1,0 +1,327 @@
+"""The engine's entry points: :func:`solve` one case, :func:`sweep` many axial forces."""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from engine.amplification import approximations
+from engine.buckling import critical_loads
+from engine.errors import CaseError
+from engine.imperfections import bow_for
+from engine.results import Amplification, Equilibrium, Governing, Peak, Reactions, Result, SweepResult
+from engine.solution import Batch, Model, Points, base_stations, refine_peaks, strongest_tension_kappa
+
+__all__ = ["solve", "sweep"]
+
+#: |P/Pcr_n - 1| below this counts as at the critical load (no equilibrium) [-].
+CRITICAL_TOLERANCE = 1e-10
+_FIELDS = ("w", "rotation", "M", "T", "V", "w0")
+_MAX_STATIONS = 100_000
+
+
+def _check_stations(stations) -> int:
+    if isinstance(stations, bool) or not isinstance(stations, (int, np.integer)):
+        raise CaseError(f"stations: {stations!r} must be a whole number from 2 to {_MAX_STATIONS}")
+    if not 2 <= int(stations) <= _MAX_STATIONS:
+        raise CaseError(f"stations: {stations} must be from 2 to {_MAX_STATIONS}")
+    return int(stations)
+
+
+def _at_critical(P: np.ndarray, pcr: np.ndarray) -> np.ndarray:
+    P = np.atleast_1d(P)
+    return (P[:, None] > 0) & (np.abs(P[:, None] / pcr[None, :] - 1.0) < CRITICAL_TOLERANCE)
+
+
+class _Prepared:
+    """What a case keeps between solves at different axial forces: its critical loads, model, stations and
+    first-order solution. The page drags the axial force, so these are built once per case."""
+
+    def __init__(self, case):
+        self.buckling = critical_loads(case, 5)
+        self.model = Model(case, bow_for(case, self.buckling))
+        self._stations: dict = {}
+        self._first: dict = {}
+
+    def stations(self, count, kappa):
+        """Base stations (seg, xi, shown) and their Points, cached."""
+        key = (count, kappa)
+        if key not in self._stations:
+            seg, xi, shown = base_stations(self.model, count, kappa)
+            every = np.arange(self.model.nseg)
+            ends = np.stack([np.searchsorted(seg, every), np.searchsorted(seg, every, side="right") - 1], 1).ravel()
+            pts = Points(self.model, seg, xi, ends=ends)
+            shown_idx = np.nonzero(shown)[0]
+            pts.order_key = (shown_idx, seg[shown_idx] * 2.0 * self.model.L + xi[shown_idx])
+            self._stations[key] = (seg, xi, shown, pts)
+        return self._stations[key]
+
+    def first_order(self, count):
+        """The P = 0 solution: its batch, exact peak points, largest |M| and |w + w0|, and end moments."""
+        if count not in self._first:
+            batch = Batch(self.model, [0.0])
+            seg, xi, shown, pts = self.stations(count, 0.0)
+            st = batch.states(0, pts)
+            _, ps, px, pk = refine_peaks(batch, 0, pts, *batch.targets(st, pts))
+            m = max(float(np.abs(st["M"]).max()), float(np.abs(pk["M"]).max(initial=0.0)))
+            d = max(float(np.abs(st["w"] + st["w0"]).max()), float(np.abs(pk["w"] + pk["w0"]).max(initial=0.0)))
+            ends = (float(st["M"][0]), float(st["M"][-1]))
+            self._first[count] = (batch, ps, px, m, d, ends)
+        return self._first[count]
+
+
+_MODELS: dict = {}
+_MODEL_CACHE_SIZE = 32
+
+
+def _prepare(case) -> _Prepared:
+    key = (case.length, case.EI, case.left, case.right, case.loads, case.imperfection)
+    hit = _MODELS.get(key)
+    if hit is None:
+        hit = _Prepared(case)
+        if len(_MODELS) >= _MODEL_CACHE_SIZE:
+            _MODELS.pop(next(iter(_MODELS)))
+        _MODELS[key] = hit
+    return hit
+
+
+def clear_cache() -> None:
+    """Forget cached models (the critical loads have their own cache)."""
+    _MODELS.clear()
+
+
+def _merged_order(pts, extra_seg, extra_xi, L):
+    """Indices into [base stations, extra points] that list the shown base stations and the extra points
+    along the member, dropping an extra point that repeats a station or another extra point."""
+    base_idx, base_key = pts.order_key
+    key = extra_seg * 2.0 * L + extra_xi
+    eo = np.argsort(key, kind="stable")
+    key = key[eo]
+    pos = np.searchsorted(base_key, key)
+    tol = 1e-11 * L
+    last = base_key.size - 1
+    dup = (np.abs(key - base_key[np.maximum(pos - 1, 0)]) <= tol) | (np.abs(base_key[np.minimum(pos, last)] - key) <= tol)
+    dup[1:] |= np.diff(key) <= tol
+    keep = ~dup
+    return np.insert(base_idx, pos[keep], pts.size + eo[keep])
+
+
+def _peak(x, values) -> Peak:
+    i = int(np.argmax(np.abs(values)))
+    return Peak(value=float(values[i]), x=float(x[i]))
+
+
+def _ratio(num: float, den: float) -> float | None:
+    return None if den <= 1e-300 else num / den
+
+
+def _message(status, P, pcr, n_crit) -> str:
+    kN = 1e-3
+    if status == "critical":
+        return (f"The axial force {P * kN:.6g} kN equals critical load {n_crit} ({pcr[n_crit - 1] * kN:.6g} kN): "
+                "no equilibrium exists and the response is unbounded.")
+    if status == "unstable":
+        between = int(np.searchsorted(pcr, P))
+        return (f"The axial force {P * kN:.6g} kN exceeds the first critical load {pcr[0] * kN:.6g} kN "
+                f"(P/Pcr1 = {P / pcr[0]:.4g}, between critical loads {between} and {between + 1}): this "
+                "equilibrium is unstable; the member buckles before it is reached.")
+    if P > 0:
+        return (f"Compression {P * kN:.6g} kN, P/Pcr1 = {P / pcr[0]:.4g} (alpha_cr = {pcr[0] / P:.4g}); "
+                "stable equilibrium.")
+    if P < 0:
+        return f"Tension {-P * kN:.6g} kN; stable equilibrium, no buckling."
+    return "No axial force: first-order solution."
+
+
+def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, first_order=False) -> Result:
+    model, buckling = prep.model, prep.buckling
+    pcr = buckling.critical_loads
+    w0 = st["w0"]
+    if status == "critical":
+        w = rot = M = T = V = np.full(x.size, np.inf)
+    else:
+        w, rot, M, T, V = st["w"], st["rotation"], st["M"], st["T"], st["V"]
+    total = w + w0
+    governing = Governing(deflection=_peak(x, w), total_offset=_peak(x, total), moment=_peak(x, M),
+                          shear=_peak(x, V), transverse_force=_peak(x, T))
+    source = None
+    if not first_order:
+        def source(result, seg=seg, xi=xi):
+            batch = prep.first_order(count)[0]
+            st0 = batch.states(0, Points(prep.model, seg, xi))
+            return _build(case, prep, count, 0.0, st0, result.x, seg, xi, first_order=True)
+
+    if status == "critical":
+        reactions = Reactions(left_T=math.inf, left_M=math.inf, right_T=math.inf, right_M=math.inf)
+        equilibrium = None
+        amplification = Amplification(moment=math.inf, deflection=math.inf)
+    else:
+        # Support-side end values: state(0-) = state(0+) - jump(0), state(L+) = state(L-) + jump(L).
+        last = model.nodes.size - 1
+        tl = float(T[0] + model.force[0])
+        ml = float(M[0] - model.couple[0])
+        tr = float(T[-1] - model.force[last])
+        mr = float(M[-1] + model.couple[last])
+        reactions = Reactions(left_T=tl, left_M=ml, right_T=tr, right_M=mr)
+        L = model.L
+        scale_t = model.load_scale + abs(tl) + abs(tr)
+        res_t = (tl - tr - model.total_load) / scale_t if scale_t > 0 else 0.0
+        drift = float(total[-1] - total[0])
+        lhs = mr - ml - model.total_couple
+        rhs = L * tl - model.total_moment + P * drift
+        scale_m = abs(ml) + abs(mr) + np.abs(model.couple).sum() + L * (abs(tl) + model.load_scale) + abs(P * drift)
+        res_m = (lhs - rhs) / scale_m if scale_m > 0 else 0.0
+        equilibrium = Equilibrium(transverse=float(res_t), moment=float(res_m))
+        if first_order:
+            amplification = Amplification(moment=1.0 if governing.moment.magnitude > 0 else None,
+                                          deflection=1.0 if governing.total_offset.magnitude > 0 else None)
+        else:
+            _, _, _, m1, d1, ends = prep.first_order(count)
+            m_exact = _ratio(governing.moment.magnitude, m1)
+            amplification = Amplification(moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
+                                          approximations=approximations(case, P, pcr[0], m_exact, ends))
+    return Result(
+        case=case, axial_force=float(P), x=x, deflection=w, rotation=rot, moment=M, shear=V, transverse_force=T,
+        initial_bow=w0, total_offset=total, status=status, stable=status == "stable",
+        message=_message(status, P, pcr, n_crit), critical_loads=pcr.copy(), buckling=buckling,
+        alpha_cr=float(pcr[0] / P) if P > 0 else math.inf, governing=governing,
+        reactions=reactions, amplification=amplification, equilibrium=equilibrium, _first_order_source=source,
+    )
+
+
+def solve(case, stations: int = 401) -> Result:
+    """Solve one case exactly: deflection, rotation, moment, shear and transverse force at the stations.
+
+    Parameters
+    ----------
+    case : Case
+        The member (:class:`engine.Case`).
+    stations : int
+        Number of uniformly spaced stations (2 to 100 000). Nodes, doubled jump points and exact interior
+        peaks are added, so ``result.x`` is longer.
+
+    Returns
+    -------
+    Result
+        With ``first_order`` (P = 0) at the same stations. At a critical load ``status == "critical"`` and the
+        response is +inf; above the first critical load ``stable`` is False.
+
+    Examples
+    --------
+    >>> import engine
+    >>> case = engine.Case.from_dict({"schema": 1, "length": 4.0, "EI": 1e6,
+    ...     "supports": {"left": "pinned", "right": "pinned"}, "loads": [{"type": "uniform", "q": 1e3}]})
+    >>> r = engine.solve(case)
+    >>> round(r.governing.moment.value, 6), r.governing.moment.x       # qL²/8 at mid-span
+    (2000.0, 2.0)
+    """
+    n = _check_stations(stations)
+    prep = _prepare(case)
+    model, pcr = prep.model, prep.buckling.critical_loads
+    P = float(case.axial_force)
+    crit = _at_critical(np.array([P]), pcr)[0]
+    seg, xi, shown, pts = prep.stations(n, strongest_tension_kappa(model, [P]))
+    batch = Batch(model, [P], at=pts)
+    status, n_crit = "stable", 0
+    if crit.any() or batch.singular[0]:
+        status = "critical"
+        n_crit = int(np.argmax(crit)) + 1 if crit.any() else int(np.searchsorted(pcr, P)) + 1
+    elif P > pcr[0]:
+        status = "unstable"
+    _, first_seg, first_xi, _, _, _ = prep.first_order(n)
+    if status == "critical":
+        ps, px = np.empty(0, dtype=int), np.empty(0)
+    else:
+        st = batch.states(0, pts)
+        _, ps, px, ext = refine_peaks(batch, 0, pts, *batch.targets(st, pts), also=(first_seg, first_xi))
+    # The peaks of both orders become stations, so that first_order shares x and both are exact there.
+    extra_seg, extra_xi = np.concatenate([ps, first_seg]), np.concatenate([px, first_xi])
+    all_seg, all_xi = np.concatenate([seg, extra_seg]), np.concatenate([xi, extra_xi])
+    order = _merged_order(pts, extra_seg, extra_xi, model.L)
+    seg, xi = all_seg[order], all_xi[order]
+    x = model.xa[seg] + xi
+    x[-1] = model.L
+    if status == "critical":
+        values = {"w0": model.bow.derivatives(x)[0]}
+    else:
+        values = {name: np.concatenate([st[name], ext[name]])[order] for name in _FIELDS}
+    return _build(case, prep, n, P, values, x, seg, xi, status=status, n_crit=n_crit)
+
+
+def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
+    """Governing values of ``case`` for many axial forces at once (the other loads as given).
+
+    Parameters
+    ----------
+    case : Case
+        Its own ``axial_force`` is ignored.
+    axial_forces : array_like
+        Axial forces [N], compression positive, finite.
+    stations : int
+        Uniform stations used to bracket the exact peaks.
+
+    Returns
+    -------
+    SweepResult
+        Arrays in the order of ``axial_forces``.
+    """
+    n = _check_stations(stations)
+    P = np.atleast_1d(np.asarray(axial_forces, dtype=float)).ravel()
+    if P.size == 0 or not np.isfinite(P).all():
+        raise CaseError("axial_forces: give at least one finite axial force [N]")
+    prep = _prepare(case)
+    model, pcr = prep.model, prep.buckling.critical_loads
+    allP = np.concatenate([P, [0.0]])
+    batch = Batch(model, allP)
+    critical = _at_critical(P, pcr).any(axis=1) | batch.singular[:-1]
+    seg, xi, _, _ = prep.stations(n, strongest_tension_kappa(model, P))
+    nP = allP.size
+    iP = np.repeat(np.arange(nP), seg.size)
+    pts = Points(model, np.tile(seg, nP), np.tile(xi, nP))
+    st = batch.states(iP, pts)
+    pi, ps, px, pk = refine_peaks(batch, iP, pts, *batch.targets(st, pts))
+    nb = seg.size
+    x_base = model.xa[seg] + xi
+    x_peak = model.xa[ps] + px
+
+    def peaks(base, peak):
+        """Largest |value| per axial force and where, from the stations and the refined peaks."""
+        b = np.abs(base).reshape(nP, nb)
+        i = np.argmax(b, axis=1)
+        val, at = b[np.arange(nP), i], x_base[i]
+        if peak.size:
+            pv = np.abs(peak)
+            order = np.argsort(pv)  # ascending, so the largest of each axial force is written last
+            best = np.full(nP, -1.0)
+            where = np.zeros(nP)
+            best[pi[order]] = pv[order]
+            where[pi[order]] = x_peak[order]
+            better = best > val
+            val, at = np.where(better, best, val), np.where(better, where, at)
+        return val, at
+
+    out = {}
+    for key, arrays in {"deflection": (st["w"], pk["w"]), "total_offset": (st["w"] + st["w0"], pk["w"] + pk["w0"]),
+                        "moment": (st["M"], pk["M"]), "shear": (st["V"], pk["V"])}.items():
+        out[key] = peaks(*arrays)
+    t_first = np.abs(st["T"][-nb:])
+    first = Governing(**{k: Peak(value=float(v[0][-1]), x=float(v[1][-1])) for k, v in out.items()},
+                      transverse_force=Peak(value=float(t_first.max()), x=float(x_base[np.argmax(t_first)])))
+    result = {}
+    for key, (vals, xs) in out.items():
+        v, xv = vals[:-1].copy(), xs[:-1].copy()
+        v[critical] = np.inf
+        result[key] = (v, xv)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        m1, d1 = out["moment"][0][-1], out["total_offset"][0][-1]
+        amp_m = result["moment"][0] / m1 if m1 > 0 else np.full(P.size, np.nan)
+        amp_d = result["total_offset"][0] / d1 if d1 > 0 else np.full(P.size, np.nan)
+    return SweepResult(
+        axial_force=P, peak_deflection=result["deflection"][0], peak_deflection_x=result["deflection"][1],
+        peak_total_offset=result["total_offset"][0], peak_total_offset_x=result["total_offset"][1],
+        peak_moment=result["moment"][0], peak_moment_x=result["moment"][1],
+        peak_shear=result["shear"][0], peak_shear_x=result["shear"][1],
+        moment_amplification=amp_m, deflection_amplification=amp_d,
+        stable=(P < pcr[0]) & ~critical, critical=critical, critical_loads=pcr.copy(), first_order=first,
+    )

@@ -1,0 +1,246 @@
+"""Result objects: the solution at stations, governing values, reactions, amplification and equilibrium.
+
+All values are SI: m, rad, N, N·m. Arrays are numpy float arrays at the stations ``x``.
+"""
+
+from __future__ import annotations
+
+import functools
+from dataclasses import dataclass, field
+
+import numpy as np
+
+__all__ = ["Peak", "Governing", "Reactions", "Approximation", "Amplification", "Equilibrium", "Result",
+           "SweepResult"]
+
+
+@dataclass(frozen=True, kw_only=True)
+class Peak:
+    """A governing value: the signed value where |value| is largest, and where.
+
+    Attributes
+    ----------
+    value : float
+        Signed value at the peak of its magnitude [its unit].
+    x : float
+        Position [m].
+    """
+
+    value: float
+    x: float
+
+    @property
+    def magnitude(self) -> float:
+        """``abs(value)``."""
+        return abs(self.value)
+
+
+@dataclass(frozen=True, kw_only=True)
+class Governing:
+    """The governing values of one solution.
+
+    Attributes
+    ----------
+    deflection : Peak
+        Largest |w|, the deflection caused by loading [m].
+    total_offset : Peak
+        Largest |w + w0|, the offset from the straight line [m].
+    moment : Peak
+        Largest |M| [N·m].
+    shear : Peak
+        Largest |V|, normal to the deformed axis [N].
+    transverse_force : Peak
+        Largest |T|, perpendicular to the undeformed axis [N].
+    """
+
+    deflection: Peak
+    total_offset: Peak
+    moment: Peak
+    shear: Peak
+    transverse_force: Peak
+
+
+@dataclass(frozen=True, kw_only=True)
+class Reactions:
+    """Support-side end values of T [N] and M [N·m] (conventions.md signs).
+
+    The force the left support exerts on the member in the +w direction is ``-left_T``; at the right end it is
+    ``+right_T``. Where no load or couple acts exactly at an end these equal the end values of the arrays.
+    """
+
+    left_T: float
+    left_M: float
+    right_T: float
+    right_M: float
+
+
+@dataclass(frozen=True, kw_only=True)
+class Approximation:
+    """One practitioner's approximation of the moment amplification.
+
+    Attributes
+    ----------
+    name : str
+        Short formula name.
+    value : float
+        The approximate amplification [-].
+    source : str
+        Where the formula is published.
+    error : float or None
+        ``(value - exact) / exact`` against the exact moment amplification [-].
+    """
+
+    name: str
+    value: float
+    source: str
+    error: float | None
+
+
+@dataclass(frozen=True, kw_only=True)
+class Amplification:
+    """Exact second-order / first-order ratios and the approximations beside them.
+
+    Attributes
+    ----------
+    moment : float or None
+        max|M| / max|M_1| [-]; None when the first-order moment is zero.
+    deflection : float or None
+        max|w + w0| / max|w_1 + w0| [-]; None when the first-order offset is zero.
+    approximations : tuple of Approximation
+    """
+
+    moment: float | None
+    deflection: float | None
+    approximations: tuple = ()
+
+
+@dataclass(frozen=True, kw_only=True)
+class Equilibrium:
+    """Relative residuals of whole-member equilibrium, recomputed from the end values and the loads.
+
+    Attributes
+    ----------
+    transverse : float
+        ``(T(0) - T(L) - total load) / scale`` [-].
+    moment : float
+        Moment about the right end, including the axial force times the end offset difference, over its scale [-].
+    """
+
+    transverse: float
+    moment: float
+
+
+@dataclass(frozen=True, kw_only=True, eq=False)
+class Result:
+    """The solution of one case.
+
+    Attributes
+    ----------
+    case : Case
+    axial_force : float
+        [N], compression positive.
+    x : ndarray
+        Stations [m]: both ends, every node (twice where a point load or couple acts), the uniform grid and the
+        interior peaks of w, w + w0, M and V.
+    deflection, rotation : ndarray
+        w [m] and w' [rad] of the deflection caused by loading.
+    initial_bow, total_offset : ndarray
+        w0 and w + w0 [m].
+    moment, shear, transverse_force : ndarray
+        M [N·m], V [N] and T [N].
+    status : str
+        ``"stable"``, ``"unstable"`` (above the first critical load) or ``"critical"`` (at a critical load:
+        no equilibrium exists and every response value is +inf).
+    stable : bool
+    message : str
+    critical_loads : ndarray
+        The first five elastic critical loads [N].
+    buckling : Buckling
+    alpha_cr : float
+        ``Pcr1 / P`` for compression, inf otherwise [-].
+    governing : Governing
+    reactions : Reactions
+    amplification : Amplification
+    equilibrium : Equilibrium or None
+        None at a critical load.
+    first_order : Result or None
+        The same case with P = 0, at the same stations (None for the first-order result itself); built on
+        first access.
+    """
+
+    case: object
+    axial_force: float
+    x: np.ndarray
+    deflection: np.ndarray
+    rotation: np.ndarray
+    moment: np.ndarray
+    shear: np.ndarray
+    transverse_force: np.ndarray
+    initial_bow: np.ndarray
+    total_offset: np.ndarray
+    status: str
+    stable: bool
+    message: str
+    critical_loads: np.ndarray
+    buckling: object = field(repr=False)
+    alpha_cr: float
+    governing: Governing
+    reactions: Reactions
+    amplification: Amplification
+    equilibrium: Equilibrium | None
+    _first_order_source: object = field(repr=False, default=None)
+
+    @functools.cached_property
+    def first_order(self) -> "Result | None":
+        """The same case with P = 0, at the same stations (None for the first-order result itself)."""
+        return None if self._first_order_source is None else self._first_order_source(self)
+
+    @functools.cached_property
+    def modes(self) -> np.ndarray:
+        """The first five buckling mode shapes at ``x``, shape (5, len(x)), each with largest value +1 [-]."""
+        return self.buckling.mode_shapes(self.x)
+
+
+@dataclass(frozen=True, kw_only=True, eq=False)
+class SweepResult:
+    """Governing values for many axial forces (exact peaks, as in :class:`Result`).
+
+    Attributes
+    ----------
+    axial_force : ndarray
+        [N].
+    peak_deflection, peak_deflection_x : ndarray
+        max |w| [m] and where [m].
+    peak_total_offset, peak_total_offset_x : ndarray
+        max |w + w0| [m] and where.
+    peak_moment, peak_moment_x : ndarray
+        max |M| [N·m] and where.
+    peak_shear, peak_shear_x : ndarray
+        max |V| [N] and where.
+    moment_amplification, deflection_amplification : ndarray
+        Exact ratios to the first-order values [-] (NaN only where the first-order value is zero).
+    stable : ndarray of bool
+        Below the first critical load.
+    critical : ndarray of bool
+        At a critical load: the values there are +inf.
+    critical_loads : ndarray
+        [N].
+    first_order : Governing
+        Of the P = 0 solution.
+    """
+
+    axial_force: np.ndarray
+    peak_deflection: np.ndarray
+    peak_deflection_x: np.ndarray
+    peak_total_offset: np.ndarray
+    peak_total_offset_x: np.ndarray
+    peak_moment: np.ndarray
+    peak_moment_x: np.ndarray
+    peak_shear: np.ndarray
+    peak_shear_x: np.ndarray
+    moment_amplification: np.ndarray
+    deflection_amplification: np.ndarray
+    stable: np.ndarray
+    critical: np.ndarray
+    critical_loads: np.ndarray
+    first_order: Governing
