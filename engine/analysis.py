@@ -8,6 +8,8 @@ import numpy as np
 
 from engine.amplification import approximations
 from engine.buckling import critical_loads
+from engine.cautions import assess
+from engine.checks import check_member
 from engine.errors import CaseError
 from engine.imperfections import bow_for
 from engine.results import Amplification, Equilibrium, Governing, Peak, Reactions, Result, SweepResult
@@ -39,10 +41,30 @@ class _Prepared:
     first-order solution. The page drags the axial force, so these are built once per case."""
 
     def __init__(self, case):
-        self.buckling = critical_loads(case, 5)
-        self.model = Model(case, bow_for(case, self.buckling))
+        plain = (case.section is None and case.material is None and case.imperfection.preset is None
+                 and case.stiffness_factor == 1.0)
+        if plain:
+            self.member, analysis_case = None, case
+        else:
+            from engine.member import resolve
+
+            self.member, analysis_case = resolve(case)
+        self.analysis_case = analysis_case
+        self.buckling = critical_loads(analysis_case, 5)
+        self.model = Model(analysis_case, bow_for(analysis_case, self.buckling))
         self._stations: dict = {}
         self._first: dict = {}
+
+    def bow_facts(self) -> dict:
+        """What the cautions need to know of the bow."""
+        if self.member is None:
+            imp = self.analysis_case.imperfection
+            return {"amplitude": imp.amplitude if imp.shape != "none" else 0.0, "code_amplitude": None,
+                    "opposes_load": False, "shape": imp.shape}
+        bow = self.member.bow
+        return {"amplitude": bow.amplitude if bow.shape != "none" else 0.0, "code_amplitude": bow.code_amplitude,
+                "code_label": bow.code_label, "code_source": bow.code_source, "opposes_load": bow.opposes_load,
+                "shape": bow.shape}
 
     def stations(self, count, kappa):
         """Base stations (seg, xi, shown) and their Points, cached."""
@@ -76,7 +98,8 @@ _MODEL_CACHE_SIZE = 32
 
 
 def _prepare(case) -> _Prepared:
-    key = (case.length, case.EI, case.left, case.right, case.loads, case.imperfection)
+    key = (case.length, case.EI, case.left, case.right, case.loads, case.imperfection, case.section, case.axis,
+           case.material, case.stiffness_factor, case.check)
     hit = _MODELS.get(key)
     if hit is None:
         hit = _Prepared(case)
@@ -127,7 +150,7 @@ def _message(status, P, pcr, n_crit) -> str:
                 f"(P/Pcr1 = {P / pcr[0]:.4g}, between critical loads {between} and {between + 1}): this "
                 "equilibrium is unstable; the member buckles before it is reached.")
     if P > 0:
-        return (f"Compression {P * kN:.6g} kN, P/Pcr1 = {P / pcr[0]:.4g} (alpha_cr = {pcr[0] / P:.4g}); "
+        return (f"Compression {P * kN:.6g} kN, P/Pcr1 = {P / pcr[0]:.4g} (alpha_cr = {float(pcr[0]) / P:.4g}); "
                 "stable equilibrium.")
     if P < 0:
         return f"Tension {-P * kN:.6g} kN; stable equilibrium, no buckling."
@@ -165,7 +188,10 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
         mr = float(M[-1] + model.couple[last])
         reactions = Reactions(left_T=tl, left_M=ml, right_T=tr, right_M=mr)
         L = model.L
-        scale_t = model.load_scale + abs(tl) + abs(tr)
+        # Judge the residual against every force in play: loads, reactions, couples over the span, and the
+        # largest shear and transverse force (a couple alone has reactions of rounding size).
+        scale_t = (model.load_scale + abs(tl) + abs(tr) + np.abs(model.couple).sum() / model.L
+                   + float(np.abs(V).max()) + float(np.abs(T).max()))
         res_t = (tl - tr - model.total_load) / scale_t if scale_t > 0 else 0.0
         drift = float(total[-1] - total[0])
         lhs = mr - ml - model.total_couple
@@ -181,12 +207,28 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
             m_exact = _ratio(governing.moment.magnitude, m1)
             amplification = Amplification(moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
                                           approximations=approximations(case, P, pcr[0], m_exact, ends))
+    member = prep.member
+    section = member.section if member is not None else None
+    material = member.material if member is not None else None
+    check, cautions = None, ()
+    if not first_order:
+        if section is not None and material is not None and status != "critical":
+            check = check_member(x=x, axial_force=P, moment=M, shear=V, deflection=w, length=model.L,
+                                 section=section, material=material, axis=case.axis, settings=case.check)
+        slender = buckling.effective_length_factor * model.L / section.i if section is not None else None
+        cautions = tuple(assess(P=P, pcr1=float(pcr[0]), alpha_cr_limit=10.0 if case.check.method == "elastic"
+                                else 15.0, status=status, slenderness=slender, section=section,
+                                material=material, axis=case.axis, check=check, bow=prep.bow_facts()))
     return Result(
         case=case, axial_force=float(P), x=x, deflection=w, rotation=rot, moment=M, shear=V, transverse_force=T,
         initial_bow=w0, total_offset=total, status=status, stable=status == "stable",
         message=_message(status, P, pcr, n_crit), critical_loads=pcr.copy(), buckling=buckling,
-        alpha_cr=float(pcr[0] / P) if P > 0 else math.inf, governing=governing,
+        alpha_cr=float(pcr[0]) / P if P > 0 else math.inf, governing=governing,
         reactions=reactions, amplification=amplification, equilibrium=equilibrium, _first_order_source=source,
+        EI=model.EI, section=section, material=material, bow=member.bow if member is not None else None,
+        check=check, utilization=(check.utilization if check is not None else
+                                  (math.inf if status == "critical" and section is not None else None)),
+        cautions=cautions,
     )
 
 
@@ -240,8 +282,7 @@ def solve(case, stations: int = 401) -> Result:
     all_seg, all_xi = np.concatenate([seg, extra_seg]), np.concatenate([xi, extra_xi])
     order = _merged_order(pts, extra_seg, extra_xi, model.L)
     seg, xi = all_seg[order], all_xi[order]
-    x = model.xa[seg] + xi
-    x[-1] = model.L
+    x = model.position(seg, xi)
     if status == "critical":
         values = {"w0": model.bow.derivatives(x)[0]}
     else:
@@ -282,8 +323,8 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
     st = batch.states(iP, pts)
     pi, ps, px, pk = refine_peaks(batch, iP, pts, *batch.targets(st, pts))
     nb = seg.size
-    x_base = model.xa[seg] + xi
-    x_peak = model.xa[ps] + px
+    x_base = model.position(seg, xi)
+    x_peak = model.position(ps, px)
 
     def peaks(base, peak):
         """Largest |value| per axial force and where, from the stations and the refined peaks."""

@@ -32,6 +32,7 @@ __all__ = [
     "CoupleLoad",
     "Case",
     "EndSupport",
+    "IMPERFECTION_PRESETS",
     "IMPERFECTION_SHAPES",
     "Imperfection",
     "LinearLoad",
@@ -39,6 +40,7 @@ __all__ = [
     "PointLoad",
     "SCHEMA_VERSION",
     "SUPPORT_NAMES",
+    "Spec",
     "UniformLoad",
     "load_case",
     "save_case",
@@ -60,6 +62,13 @@ SUPPORT_NAMES: tuple[str, ...] = tuple(_NAMED_SUPPORTS)
 
 #: The initial-bow shapes a case may use.
 IMPERFECTION_SHAPES: tuple[str, ...] = ("none", "sine", "parabola", "sway", "mode")
+
+#: The code presets for the bow amplitude (engine.member explains each).
+IMPERFECTION_PRESETS: tuple[str, ...] = ("en1993-table-5.1", "en1993-eq-5.9", "aisc-l/1000", "span")
+_CURVES = ("auto", "a0", "a", "b", "c", "d")
+_ANALYSES = ("elastic", "plastic")
+_DIRECTIONS = ("load", "positive", "negative")
+_AXES = ("major", "minor")
 
 _RESTRAINTS = ("fixed", "free")
 
@@ -228,6 +237,61 @@ def _expect_mapping(path: str, value: Any, what: str) -> Mapping:
     if not isinstance(value, Mapping):
         raise CaseError(f"{path}: {_show(value)} is not an object; expected {what}")
     return value
+
+
+# ----------------------------------------------------------------------------- nested specs
+
+
+class Spec(Mapping):
+    """An immutable, hashable copy of a case-file object (a section or material specification).
+
+    Parameters
+    ----------
+    mapping : Mapping
+        Keys are strings; values are numbers or strings.
+    path : str
+        Field path for error messages.
+    """
+
+    __slots__ = ("_items",)
+
+    def __init__(self, mapping: Mapping, path: str = "spec") -> None:
+        if not isinstance(mapping, Mapping):
+            raise CaseError(f"{path}: {_show(mapping)} is not an object")
+        items = []
+        for key, value in mapping.items():
+            if not isinstance(key, str):
+                raise CaseError(f"{path}: key {_show(key)} is not text")
+            if _is_bool(value) or not isinstance(value, (str, numbers.Real)):
+                raise CaseError(f"{path}.{key}: {_show(value)} must be a number or a name")
+            items.append((key, value if isinstance(value, str) else float(value)))
+        object.__setattr__(self, "_items", tuple(sorted(items)))
+
+    def __setattr__(self, name, value):  # frozen
+        raise AttributeError("Spec is immutable")
+
+    def __getitem__(self, key):
+        for k, v in self._items:
+            if k == key:
+                return v
+        raise KeyError(key)
+
+    def __iter__(self):
+        return (k for k, _ in self._items)
+
+    def __len__(self) -> int:
+        return len(self._items)
+
+    def __hash__(self) -> int:
+        return hash(self._items)
+
+    def __eq__(self, other) -> bool:
+        if isinstance(other, Spec):
+            return self._items == other._items
+        return isinstance(other, Mapping) and dict(self._items) == dict(other)
+
+    def __repr__(self) -> str:
+        return f"Spec({dict(self._items)!r})"
 
 
 # ----------------------------------------------------------------------------- supports
@@ -567,10 +631,28 @@ class Imperfection:
     amplitude : float
         a [m], the largest |w0|; may be negative. The case checks
         |a| <= L / 10. With shape ``"none"`` it is kept as given and ignored.
+    preset : str or None
+        A code value for the amplitude instead: ``"en1993-table-5.1"``, ``"en1993-eq-5.9"``,
+        ``"aisc-l/1000"`` or ``"span"`` (see :mod:`engine.member`). ``shape`` then defaults to
+        ``"sine"`` (``"mode"`` for eq. 5.9), and ``amplitude`` must be left at 0.
+    curve : str
+        Buckling curve for the EN 1993-1-1 presets: ``"auto"`` (from EN 1993-1-1 Table 6.2) or
+        ``"a0"``, ``"a"``, ``"b"``, ``"c"``, ``"d"``.
+    analysis : str
+        Table 5.1 column: ``"elastic"`` or ``"plastic"``.
+    ratio : float or None
+        n of L/n for preset ``"span"``.
+    direction : str
+        For presets: ``"load"`` (the way the loads deflect the member), ``"positive"`` or ``"negative"``.
     """
 
     shape: str = "none"
     amplitude: float = 0.0
+    preset: str | None = None
+    curve: str = "auto"
+    analysis: str = "elastic"
+    ratio: float | None = None
+    direction: str = "load"
 
     def __post_init__(self) -> None:
         if not isinstance(self.shape, str) or self.shape not in IMPERFECTION_SHAPES:
@@ -580,13 +662,54 @@ class Imperfection:
                 f"allowed: {_quoted(IMPERFECTION_SHAPES)}"
             )
         _set(self, "amplitude", _real("amplitude", self.amplitude, "m"))
+        for name, allowed in (("curve", _CURVES), ("analysis", _ANALYSES), ("direction", _DIRECTIONS)):
+            value = getattr(self, name)
+            if not isinstance(value, str) or value not in allowed:
+                raise CaseError(f"{name}: {_show(value)} is not allowed{_suggestion(value, allowed)}; "
+                                f"allowed: {_quoted(allowed)}")
+        if self.preset is not None:
+            if not isinstance(self.preset, str) or self.preset not in IMPERFECTION_PRESETS:
+                raise CaseError(f"preset: {_show(self.preset)} is not a bow preset"
+                                f"{_suggestion(self.preset, IMPERFECTION_PRESETS)}; "
+                                f"allowed: {_quoted(IMPERFECTION_PRESETS)}")
+            if self.amplitude != 0.0:
+                raise CaseError(f"amplitude: {self.amplitude!r} m cannot be given with preset "
+                                f"{self.preset!r}, which sets the amplitude; give one or the other")
+            if self.preset == "en1993-eq-5.9" and self.shape not in ("none", "mode"):
+                raise CaseError(f"shape: {self.shape!r} does not go with preset 'en1993-eq-5.9', whose bow "
+                                "has the shape of the first buckling mode; use 'mode' or leave it out")
+            if self.shape in ("sway",) and self.preset != "span":
+                raise CaseError(f"shape: 'sway' does not go with preset {self.preset!r}, a member bow; "
+                                "use 'sine', 'parabola' or 'mode'")
+        if self.preset == "span":
+            if self.ratio is None:
+                raise CaseError("ratio: required with preset 'span' (the n of L/n)")
+            _set(self, "ratio", _real("ratio", self.ratio, "", minimum=10.0, maximum=100000.0))
+        elif self.ratio is not None:
+            raise CaseError(f"ratio: {_show(self.ratio)} only goes with preset 'span'")
+        if self.preset is None:
+            for name, default in (("curve", "auto"), ("analysis", "elastic"), ("direction", "load")):
+                if getattr(self, name) != default:
+                    raise CaseError(f"{name}: {getattr(self, name)!r} only goes with a preset; "
+                                    f"allowed presets: {_quoted(IMPERFECTION_PRESETS)}")
+
+    def to_data(self) -> dict[str, Any]:
+        """The case-file form: shape and amplitude, and the preset's keys when there is one."""
+        data: dict[str, Any] = {"shape": self.shape, "amplitude": self.amplitude}
+        if self.preset is not None:
+            data.update(preset=self.preset, curve=self.curve, analysis=self.analysis, direction=self.direction)
+            if self.ratio is not None:
+                data["ratio"] = self.ratio
+        return data
 
 
 # ----------------------------------------------------------------------------- case
 
 _CASE_KEYS = ("schema", "title", "length", "EI", "supports", "axial_force", "loads",
-              "imperfection")
-_CASE_REQUIRED = ("length", "EI", "supports")
+              "imperfection", "section", "axis", "material", "stiffness_factor", "check")
+_CASE_REQUIRED = ("length", "supports")
+_IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction")
+_CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit")
 
 
 def _snap_position(path: str, value: float, length: float) -> float:
@@ -636,8 +759,9 @@ class Case:
     ----------
     length : float
         L [m], 0 < L <= 1000.
-    EI : float
-        Bending stiffness [N·m²], 0 < EI <= 1e16.
+    EI : float or None
+        Bending stiffness [N·m²], 0 < EI <= 1e16. It may be left out when ``section`` and
+        ``material`` give it (E·I); when given it overrides them.
     left, right : EndSupport
         The supports at x = 0 and x = L.
     axial_force : float
@@ -654,6 +778,16 @@ class Case:
         Free text of at most 200 characters.
     schema : int
         Case-file schema version; only 1 is known.
+    section : Spec or mapping, optional
+        ``{"name": "HEB 200"}`` or a parametric shape (:func:`engine.sections.section_from_spec`).
+    axis : str
+        ``"major"`` or ``"minor"``: the axis the member bends about.
+    material : Spec or mapping, optional
+        ``{"name": "S355"}`` or ``{"E": ..., "fy": ...}`` (:func:`engine.materials.material_from_spec`).
+    stiffness_factor : float
+        Multiplies EI for the analysis only (0 < factor <= 1), e.g. 0.8·τ_b (AISC 360-16 direct analysis).
+    check : CheckSettings or mapping, optional
+        The member check's method, γ factors and deflection limit (:class:`engine.checks.CheckSettings`).
 
     Raises
     ------
@@ -675,14 +809,19 @@ class Case:
     """
 
     length: float
-    EI: float
     left: EndSupport
     right: EndSupport
+    EI: float | None = None
     axial_force: float = 0.0
     loads: tuple = ()
     imperfection: Imperfection = field(default_factory=Imperfection)
     title: str = ""
     schema: int = SCHEMA_VERSION
+    section: Spec | None = None
+    axis: str = "major"
+    material: Spec | None = None
+    stiffness_factor: float = 1.0
+    check: Any = None
 
     def __post_init__(self) -> None:
         if _is_bool(self.schema) or not isinstance(self.schema, int) \
@@ -704,8 +843,10 @@ class Case:
         length = _real("length", self.length, "m", minimum=0.0, minimum_exclusive=True,
                        maximum=_MAX_LENGTH)
         _set(self, "length", length)
-        _set(self, "EI", _real("EI", self.EI, "N·m²", minimum=0.0, minimum_exclusive=True,
-                               maximum=_MAX_EI))
+        if self.EI is not None:
+            _set(self, "EI", _real("EI", self.EI, "N·m²", minimum=0.0, minimum_exclusive=True,
+                                   maximum=_MAX_EI))
+        self._check_member()
         _set(self, "axial_force", _real("axial_force", self.axial_force, "N",
                                         magnitude=_MAX_AXIAL_FORCE))
         for end in ("left", "right"):
@@ -734,6 +875,41 @@ class Case:
         from engine.supports import check_stable
 
         check_stable(self)
+
+    def _check_member(self) -> None:
+        """Validate the section, material, axis, stiffness factor and check settings."""
+        from engine.checks import CheckSettings
+
+        if not isinstance(self.axis, str) or self.axis not in _AXES:
+            raise CaseError(f"axis: {_show(self.axis)} is not an axis{_suggestion(self.axis, _AXES)}; "
+                            f"allowed: {_quoted(_AXES)}")
+        _set(self, "stiffness_factor", _real("stiffness_factor", self.stiffness_factor, "", minimum=0.0,
+                                             minimum_exclusive=True, maximum=1.0))
+        if self.check is None:
+            _set(self, "check", CheckSettings())
+        elif isinstance(self.check, Mapping):
+            _check_keys("check", self.check, _CHECK_KEYS)
+            _set(self, "check", CheckSettings(**self.check))
+        elif not isinstance(self.check, CheckSettings):
+            raise CaseError(f"check: {_show(self.check)} is not check settings; expected an object with keys "
+                            f"{_quoted(_CHECK_KEYS)}")
+        section = None
+        if self.section is not None:
+            from engine.sections import section_from_spec
+
+            if not isinstance(self.section, Spec):
+                _set(self, "section", Spec(self.section, "section"))
+            section = section_from_spec(dict(self.section), self.axis)
+        if self.material is not None:
+            from engine.materials import material_from_spec
+
+            if not isinstance(self.material, Spec):
+                _set(self, "material", Spec(self.material, "material"))
+            material_from_spec(dict(self.material), section.t_max if section is not None else None)
+        if self.EI is None and (self.section is None or self.material is None):
+            missing = [name for name in ("section", "material") if getattr(self, name) is None]
+            raise CaseError(f"EI: required key is missing (or give both section and material; "
+                            f"{' and '.join(missing)} missing)")
 
     # ------------------------------------------------------------------ case files
 
@@ -786,12 +962,16 @@ class Case:
 
         raw_bow = _expect_mapping("imperfection", mapping.get("imperfection", {}),
                                   '{"shape": ..., "amplitude": ...}')
-        _check_keys("imperfection", raw_bow, ("shape", "amplitude"))
+        _check_keys("imperfection", raw_bow, _IMPERFECTION_KEYS)
         with _within("imperfection"):
             imperfection = Imperfection(**raw_bow)
 
-        arguments = {name: mapping[name] for name in ("title", "length", "EI", "axial_force")
+        arguments = {name: mapping[name] for name in ("title", "length", "EI", "axial_force", "axis",
+                                                       "stiffness_factor")
                      if name in mapping}
+        for name in ("section", "material", "check"):
+            if name in mapping:
+                arguments[name] = _expect_mapping(name, mapping[name], "an object")
         return cls(schema=schema, left=left, right=right, loads=loads,
                    imperfection=imperfection, **arguments)
 
@@ -805,17 +985,33 @@ class Case:
             and a load's ``start`` and ``end`` are left out when they are None.
             ``Case.from_dict(case.to_dict()) == case``.
         """
-        return {
+        data: dict[str, Any] = {
             "schema": self.schema,
             "title": self.title,
             "length": self.length,
-            "EI": self.EI,
+        }
+        if self.EI is not None:
+            data["EI"] = self.EI
+        data.update({
             "supports": {"left": self.left.to_data(), "right": self.right.to_data()},
             "axial_force": self.axial_force,
             "loads": [_load_to_data(load) for load in self.loads],
-            "imperfection": {"shape": self.imperfection.shape,
-                             "amplitude": self.imperfection.amplitude},
-        }
+            "imperfection": self.imperfection.to_data(),
+        })
+        if self.section is not None:
+            data["section"] = dict(self.section)
+            data["axis"] = self.axis
+        elif self.axis != "major":
+            data["axis"] = self.axis
+        if self.material is not None:
+            data["material"] = dict(self.material)
+        if self.stiffness_factor != 1.0:
+            data["stiffness_factor"] = self.stiffness_factor
+        from engine.checks import CheckSettings
+
+        if self.check != CheckSettings():
+            data["check"] = self.check.to_dict()
+        return data
 
     @classmethod
     def from_json(cls, text: str | bytes) -> Case:

@@ -28,7 +28,7 @@ import math
 
 import numpy as np
 
-__all__ = ["SERIES_LIMIT", "phi_series", "phi_closed", "phi"]
+__all__ = ["SERIES_LIMIT", "phi_series", "phi_closed", "phi", "xi_powers"]
 
 #: The series is used where |s| ξ² is at most this value [-] (|k ξ| <= 2).
 SERIES_LIMIT = 4.0
@@ -48,7 +48,17 @@ def _terms_for(zmax: float) -> int:
     return _TERMS
 
 
-def phi_series(s, xi):
+def xi_powers(xi) -> np.ndarray:
+    """ξ^(2j), j = 0 … terms − 1, at each point: shape (n, terms). Cached by callers that reuse points."""
+    xi = np.atleast_1d(np.asarray(xi, dtype=float)).ravel()
+    powers = np.empty((xi.size, _TERMS))
+    powers[:, 0] = 1.0
+    powers[:, 1:] = (xi * xi)[:, None]
+    np.cumprod(powers, axis=1, out=powers)
+    return powers
+
+
+def phi_series(s, xi, powers=None):
     r"""The functions :math:`\varphi_0 \ldots \varphi_5` by their series, for :math:`|s|\xi^2 \le 4`.
 
     Parameters
@@ -57,6 +67,8 @@ def phi_series(s, xi):
         Axial-force parameter :math:`P/EI` [1/m²], compression positive.
     xi : float or ndarray
         Distance from the start of the segment [m]; broadcast against ``s``.
+    powers : ndarray, optional
+        :func:`xi_powers` of ``xi``, for a scalar ``s``: the series is then one matrix product.
 
     Returns
     -------
@@ -79,7 +91,9 @@ def phi_series(s, xi):
     z = -s * xi2
     zflat = np.atleast_1d(z).ravel()
     n = _terms_for(float(np.abs(zflat).max(initial=0.0)))
-    if zflat.size <= 2000:
+    if powers is not None and s.ndim == 0:
+        sums = powers[:, :n] @ (_COEF45[:n] * ((-float(s)) ** np.arange(n))[:, None])
+    elif zflat.size <= 2000:
         # Few points: the powers of z by one running product, then both series by one matrix product.
         powers = np.empty((zflat.size, n))
         powers[:, 0] = 1.0

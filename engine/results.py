@@ -166,6 +166,19 @@ class Result:
     first_order : Result or None
         The same case with P = 0, at the same stations (None for the first-order result itself); built on
         first access.
+    EI : float
+        The bending stiffness the analysis used [N·m²] (stiffness factor applied).
+    section : Section or None
+        The section's properties about the chosen axis, when the case gives a section.
+    material : Material or None
+    bow : BowChoice or None
+        The initial bow used and why (code preset, curve), when the case gives a section, material or preset.
+    check : MemberCheck or None
+        The member check along the member with these second-order forces (section and material needed).
+    utilization : float or None
+        The governing utilisation of ``check`` [-]; +inf at a critical load; None without a section.
+    cautions : tuple of Caution
+        Most severe first; the general caution is always there (not on ``first_order``).
     """
 
     case: object
@@ -189,6 +202,13 @@ class Result:
     amplification: Amplification
     equilibrium: Equilibrium | None
     _first_order_source: object = field(repr=False, default=None)
+    EI: float = 0.0
+    section: object = None
+    material: object = None
+    bow: object = None
+    check: object = None
+    utilization: float | None = None
+    cautions: tuple = ()
 
     @functools.cached_property
     def first_order(self) -> "Result | None":

@@ -35,7 +35,7 @@ import math
 
 import numpy as np
 
-from engine.functions import SERIES_LIMIT, phi_series
+from engine.functions import SERIES_LIMIT, phi_series, xi_powers
 from engine.supports import boundary_rows
 
 __all__ = ["Model", "Batch", "Points", "base_stations", "refine_peaks"]
@@ -75,6 +75,14 @@ class Points:
         self.bow = model.bow.derivatives(self.x)
         self.waves = tuple((F, beta, psi, np.sin(beta * self.x + psi), np.cos(beta * self.x + psi))
                            for F, beta, psi in model.bow.terms)
+        self._powers = None
+
+    @property
+    def powers(self) -> np.ndarray:
+        """ξ^(2j) for the series, computed on first use and kept (the points do not move)."""
+        if self._powers is None:
+            self._powers = xi_powers(self.xi)
+        return self._powers
 
 
 class Model:
@@ -148,6 +156,13 @@ class Model:
         self.end_points = Points(self, np.repeat(np.arange(nseg), 2), np.stack([np.zeros(nseg), self.h], 1).ravel(),
                                  ends=np.arange(2 * nseg))
 
+    def position(self, seg: np.ndarray, xi: np.ndarray) -> np.ndarray:
+        """x = start of the segment + ξ, exactly the node where ξ is the segment's length [m]."""
+        x = self.xa[seg] + xi
+        at_end = xi == self.h[seg]
+        x[at_end] = self.nodes[seg[at_end] + 1]
+        return x
+
     def segment_of(self, x: np.ndarray) -> np.ndarray:
         """The segment holding each x (a node belongs to the segment on its right, L to the last)."""
         return np.clip(np.searchsorted(self.nodes, x, side="right") - 1, 0, self.nseg - 1)
@@ -183,7 +198,7 @@ class Model:
             z = s * pts.h2
             zlo, zhi = (float(z.min()), float(z.max())) if z.size else (0.0, 0.0)
         if -SERIES_LIMIT <= zlo and zhi <= SERIES_LIMIT:
-            out = _series_columns(EI, P, s, xi, h, q0, q1)
+            out = _series_columns(EI, P, s, xi, h, q0, q1, pts.powers if z is None else None)
         elif zlo > SERIES_LIMIT:
             out = _trig_columns(EI, P, s, xi, h, q0, q1)
         elif zhi < -SERIES_LIMIT:
@@ -238,8 +253,8 @@ class Model:
         return np.array([0.0, 0.0, self.couple[node], -self.force[node]])
 
 
-def _series_columns(EI, P, s, xi, h, q0, q1):
-    f0, f1, f2, f3, f4, f5 = phi_series(s, xi)
+def _series_columns(EI, P, s, xi, h, q0, q1, powers=None):
+    f0, f1, f2, f3, f4, f5 = phi_series(s, xi, powers)
     return (f2, f1, -EI * f0, f3, f2, -EI * f1, np.full(xi.size, -EI),
             (q0 * f4 + q1 * f5) / EI, (q0 * f3 + q1 * f4) / EI, -(q0 * f2 + q1 * f3), -q0 * xi - 0.5 * q1 * xi * xi)
 

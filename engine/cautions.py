@@ -1,0 +1,162 @@
+"""Cautions: where this elastic, single-member analysis stops, as structured objects.
+
+Each caution has a level (``info``, ``warning`` or ``danger``), a short identifier of strutscope's own, a message
+in words and the source of the rule it applies. The general caution is always first.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+__all__ = ["Caution", "GENERAL", "LEVELS", "assess"]
+
+LEVELS = ("info", "warning", "danger")
+
+
+@dataclass(frozen=True, kw_only=True)
+class Caution:
+    """One caution.
+
+    Attributes
+    ----------
+    level : str
+        ``"info"``, ``"warning"`` or ``"danger"``.
+    code : str
+        strutscope's own short identifier, stable between versions (for filters and tests).
+    message : str
+        What holds and what to do about it, with the numbers.
+    source : str
+        The rule's source, "from memory" where the clause number is recalled.
+    """
+
+    level: str
+    code: str
+    message: str
+    source: str
+
+
+GENERAL = Caution(
+    level="info",
+    code="scope",
+    message=("Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, "
+             "local buckling, connections and load combinations are not checked. Check the results against "
+             "your local codes and have them reviewed by a licensed engineer."),
+    source="strutscope's scope (common practice, no source)",
+)
+
+_CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
+
+
+def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, axis, check, bow) -> list:
+    """The cautions for one solved case, most severe first; the general caution is always there.
+
+    Parameters
+    ----------
+    P : float
+        Axial force [N], compression positive.
+    pcr1 : float
+        First critical load [N].
+    alpha_cr_limit : float
+        10 for an elastic check, 15 for a plastic one (EN 1993-1-1 §5.2.1(3)).
+    status : str
+        The result's status.
+    slenderness : float or None
+        K·L/i [-], None without a section.
+    section, material : Section or None, Material or None
+    axis : str
+        ``"major"`` or ``"minor"``.
+    check : MemberCheck or None
+        The member check, when a section and material are given.
+    bow : dict
+        ``amplitude`` [m] used, ``code_amplitude`` [m] or None, ``opposes_load`` (bool), ``shape``.
+    """
+    out = [GENERAL]
+    alpha_cr = pcr1 / P if P > 0 else float("inf")
+    if status == "critical":
+        out.append(Caution(level="danger", code="at-critical-load",
+                           message="The axial force equals an elastic critical load: no equilibrium exists.",
+                           source="Euler; Timoshenko & Gere (1961) ch. 2"))
+    elif status == "unstable":
+        out.append(Caution(level="danger", code="beyond-critical-load",
+                           message=(f"The axial force is {P / pcr1:.3g} times the first critical load: the member "
+                                    "buckles before it carries it. The curves shown are the unstable linear "
+                                    "solution."),
+                           source="Euler; Timoshenko & Gere (1961) ch. 2"))
+    elif P > 0 and alpha_cr < alpha_cr_limit:
+        out.append(Caution(level="warning", code="second-order-matters",
+                           message=(f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g}: second-order effects "
+                                    "must be taken into account (this analysis includes them)."),
+                           source="EN 1993-1-1:2005 §5.2.1(3), eq. (5.1) (clause from memory)"))
+    if P < 0:
+        out.append(Caution(level="info", code="tension",
+                           message=("The member is in tension: buckling does not apply, and the axial force "
+                                    "reduces the bending moments."),
+                           source="Timoshenko & Gere (1961) ch. 1 (tension beam-columns)"))
+    if slenderness is not None:
+        limit = 200.0 if P >= 0 else 300.0
+        if slenderness > limit:
+            kind = "compression" if P >= 0 else "tension"
+            out.append(Caution(level="warning", code="slender",
+                               message=(f"Slenderness K·L/i = {slenderness:.0f} exceeds the {limit:.0f} recommended "
+                                        f"for members in {kind}."),
+                               source="AISC 360-16 §E2 and §D1 user notes (recommendations; from memory)"))
+    if section is not None:
+        if section.open_section and axis == "major":
+            out.append(Caution(level="warning", code="lateral-torsional-buckling",
+                               message=("Major-axis bending of an open section: lateral-torsional buckling is not "
+                                        "checked. Check it, or make sure the compression flange is restrained."),
+                               source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F"))
+        out.append(Caution(level="warning", code="section-class",
+                           message=("Section class and local buckling are not checked: the section's plates are "
+                                    "assumed able to reach the stresses used (class 1 or 2 for the plastic check, "
+                                    "class 3 for the elastic one)."),
+                           source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1"))
+    if material is not None:
+        name = (material.name or "").lower()
+        if material.kind == "custom" and any(word in name for word in _CRACKING):
+            out.append(Caution(level="danger", code="cracking-material",
+                               message=(f"'{material.name}' cracks or crushes: this linear elastic analysis does not "
+                                        "apply to concrete, masonry or other cracking materials."),
+                               source="common practice, no source"))
+        elif material.kind == "custom":
+            out.append(Caution(level="info", code="custom-material",
+                               message=("A custom material is taken as linear elastic up to its given strength. "
+                                        "Concrete, masonry and other cracking materials are out of scope."),
+                               source="common practice, no source"))
+        if material.kind == "timber":
+            out.append(Caution(level="warning", code="timber-factors",
+                               message=("Timber strengths are characteristic values: k_mod, γ_M, size and "
+                                        "service-class factors are not applied unless you set γ_M0 to include them."),
+                               source="EN 1995-1-1 §2.4 and §3.2 (from memory)"))
+    if check is not None:
+        if check.utilization > 1.0:
+            out.append(Caution(level="danger", code="overstressed",
+                               message=(f"Utilisation {check.utilization:.3f} > 1 ({check.kind} at "
+                                        f"x = {check.x:.3f} m): the member does not work as analysed."),
+                               source=check.source))
+        if check.deflection_utilization > 1.0:
+            out.append(Caution(level="warning", code="deflection",
+                               message=(f"Deflection {check.max_deflection * 1e3:.1f} mm exceeds the limit "
+                                        f"span/{check.settings.deflection_limit:g} = "
+                                        f"{check.deflection_allowed * 1e3:.1f} mm."),
+                               source="span/n limits: national annexes; span/250 common practice, no source"))
+        for note in check.notes:
+            out.append(Caution(level="info", code="check-note", message=note, source=check.source))
+    if P > 0 and bow.get("code_amplitude") is not None and abs(bow["amplitude"]) < bow["code_amplitude"] * (1 - 1e-9):
+        out.append(Caution(level="warning", code="bow-below-code",
+                           message=(f"The initial bow {abs(bow['amplitude']) * 1e3:.2f} mm is smaller than the code "
+                                    f"value {bow['code_amplitude'] * 1e3:.2f} mm ({bow['code_label']})."),
+                           source=bow["code_source"]))
+    elif P > 0 and bow.get("code_amplitude") is None and bow["amplitude"] == 0.0:
+        out.append(Caution(level="warning", code="no-bow",
+                           message=("No initial bow in a compressed member: codes require an equivalent "
+                                    "imperfection (EN 1993-1-1 Table 5.1, or AISC L/1000)."),
+                           source="EN 1993-1-1:2005 §5.3.2; AISC 303-16 §7.13.1.1"))
+    if P > 0 and bow.get("opposes_load"):
+        out.append(Caution(level="warning", code="bow-opposes-load",
+                           message=("The initial bow points against the deflection the loads cause, which reduces "
+                                    "the second-order moments: codes take the imperfection in the unfavourable "
+                                    "direction."),
+                           source="EN 1993-1-1:2005 §5.3.2(1) (from memory)"))
+    order = {"danger": 0, "warning": 1, "info": 2}
+    return sorted(out, key=lambda c: order[c.level])  # stable: the general caution leads the infos

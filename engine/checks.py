@@ -1,0 +1,206 @@
+r"""The cross-section check along the member with the second-order forces (EN 1993-1-1 §5.2.2(7)a route).
+
+With the code's equivalent bow in an elastic second-order analysis, EN 1993-1-1:2005 §5.2.2(7)a asks only for
+cross-section checks along the member (clause from memory; the route is described in Simões da Silva et al.,
+*Design of Steel Structures*, ECCS 2010). At every station this module computes:
+
+- **elastic** (any section): :math:`|N|/(A f_c) + |M|/(W_{el} f_y) \le 1/\gamma_{M0}`, the linear form of the
+  elastic criterion of EN 1993-1-1 §6.2.1(7), eq. (6.2) (clause from memory). For steel :math:`f_c = f_y`, so
+  it is :math:`\sigma = N/A + M/W_{el}` against :math:`f_y/\gamma_{M0}`;
+- **plastic** N–M interaction for doubly symmetric I/H and hollow sections, EN 1993-1-1 §6.2.9.1 (from memory),
+  and :math:`M_{N} = M_{pl}(1 - n^2)` for a solid rectangle [derived]; where the shear exceeds half the plastic
+  shear resistance, the plastic moment is reduced by :math:`(1-\rho)` over the whole section (§6.2.8, applied
+  conservatively to the whole section rather than the shear area);
+- **shear**: :math:`|V| / (A_v f_y/(\sqrt{3}\gamma_{M0}))`, EN 1993-1-1 §6.2.6 eq. (6.18) (from memory);
+- **deflection**: :math:`\max|w| / (L/n)`, the limit span/n of the check settings (span/250 by default, common
+  practice, no source; national annexes rule).
+
+The governing utilisation is the largest of these; the strength checks alone set the capacity.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from engine.errors import CaseError
+
+__all__ = ["CheckSettings", "MemberCheck", "check_member", "METHODS"]
+
+METHODS = ("elastic", "plastic")
+_PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle")
+
+_SOURCES = {
+    "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form (clause from memory)",
+    "plastic": "EN 1993-1-1:2005 §6.2.9.1 and §6.2.8 (clause numbers from memory)",
+    "shear": "EN 1993-1-1:2005 §6.2.6, eq. (6.18) (from memory)",
+    "deflection": "span/n deflection limit: national annexes; span/250 common practice, no source",
+}
+
+
+@dataclass(frozen=True, kw_only=True)
+class CheckSettings:
+    """How the member is checked.
+
+    Attributes
+    ----------
+    method : str
+        ``"elastic"`` or ``"plastic"`` (cross-section resistance to N and M).
+    gamma_M0, gamma_M1 : float
+        Partial factors [-], 1.0 by default (EN 1993-1-1 recommends 1.0; national annexes may differ).
+    deflection_limit : float
+        n of the limit span/n [-], 250 by default.
+    """
+
+    method: str = "elastic"
+    gamma_M0: float = 1.0
+    gamma_M1: float = 1.0
+    deflection_limit: float = 250.0
+
+    def __post_init__(self) -> None:
+        if self.method not in METHODS:
+            raise CaseError(f"check.method: {self.method!r} is not a check method; allowed: 'elastic', 'plastic'")
+        for name, low, high in (("gamma_M0", 0.5, 3.0), ("gamma_M1", 0.5, 3.0), ("deflection_limit", 1.0, 10000.0)):
+            value = getattr(self, name)
+            if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
+                raise CaseError(f"check.{name}: {value!r} must be a finite number from {low:g} to {high:g}")
+            if not low <= value <= high:
+                raise CaseError(f"check.{name}: {value!r} must be from {low:g} to {high:g}")
+            object.__setattr__(self, name, float(value))
+
+    def to_dict(self) -> dict:
+        """The case-file form."""
+        return {"method": self.method, "gamma_M0": self.gamma_M0, "gamma_M1": self.gamma_M1,
+                "deflection_limit": self.deflection_limit}
+
+
+@dataclass(frozen=True, kw_only=True, eq=False)
+class MemberCheck:
+    """The member check at every station, and what governs.
+
+    Attributes
+    ----------
+    settings : CheckSettings
+    utilization : float
+        The governing utilisation over all checks, deflection included [-].
+    kind : str
+        Which check governs: ``"elastic stress"``, ``"plastic N–M"``, ``"shear"`` or ``"deflection"``.
+    x : float
+        Where it governs [m].
+    source : str
+        The governing check's clause.
+    strength_utilization : float
+        The governing utilisation of the strength checks alone (what the capacity finder drives to 1) [-].
+    strength_kind : str
+    stations : ndarray
+        The governing strength utilisation at each station of the result [-].
+    axial_bending, shear : ndarray
+        The N–M (elastic or plastic) and the shear utilisation at each station [-].
+    deflection_utilization : float
+        max|w| / (L/n) [-].
+    max_deflection, deflection_allowed : float
+        [m].
+    resistances : dict
+        N_Rd [N], M_Rd [N·m] (elastic or plastic), V_Rd [N] (None where not checked).
+    notes : tuple of str
+        What was not checked, or checked another way than asked.
+    """
+
+    settings: CheckSettings
+    utilization: float
+    kind: str
+    x: float
+    source: str
+    strength_utilization: float
+    strength_kind: str
+    stations: np.ndarray
+    axial_bending: np.ndarray
+    shear: np.ndarray
+    deflection_utilization: float
+    max_deflection: float
+    deflection_allowed: float
+    resistances: dict = field(default_factory=dict)
+    notes: tuple = ()
+
+
+def check_member(*, x, axial_force, moment, shear, deflection, length, section, material, axis,
+                 settings: CheckSettings) -> MemberCheck:
+    """Check the cross-section at every station with the second-order forces.
+
+    Parameters
+    ----------
+    x : ndarray
+        Stations [m].
+    axial_force : float
+        N [N], compression positive (the check uses |N|).
+    moment, shear, deflection : ndarray
+        M [N·m], V [N] and w [m] at the stations.
+    length : float
+        L [m], for the deflection limit.
+    section : Section
+    material : Material
+    axis : str
+    settings : CheckSettings
+
+    Returns
+    -------
+    MemberCheck
+    """
+    from engine.codes import plastic_interaction, shear_reduction
+
+    g0 = settings.gamma_M0
+    N = abs(float(axial_force))
+    M = np.abs(np.asarray(moment, dtype=float))
+    V = np.abs(np.asarray(shear, dtype=float))
+    notes = []
+    fy, fc = material.fy, material.f_c
+    steel_like = material.kind in ("steel", "aluminium", "custom")
+    method = settings.method
+    if method == "plastic" and (section.shape not in _PLASTIC_SHAPES or material.kind == "timber"):
+        notes.append(f"The plastic check does not apply to a {section.shape} section of {material.kind}; "
+                     "the elastic check is used instead.")
+        method = "elastic"
+    V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
+    with np.errstate(divide="ignore", invalid="ignore"):
+        if method == "elastic":
+            N_Rd = section.A * fc / g0
+            M_Rd = section.W_el * fy / g0
+            ab = N / N_Rd + M / M_Rd
+            kind_ab = "elastic stress"
+        else:
+            N_Rd = section.A * fy / g0
+            M_Rd = section.W_pl * fy / g0
+            n = N / N_Rd
+            if section.shape == "rectangle":
+                reduced = max(0.0, 1.0 - n * n)
+            else:
+                reduced = plastic_interaction(shape=section.shape, axis=axis, n=n, a=section.interaction_a)
+            rho = shear_reduction(V, V_Rd) if V_Rd is not None else np.zeros_like(V)
+            capacity = M_Rd * reduced * (1.0 - rho)
+            ab = np.where(M > 0, np.maximum(n, M / capacity), n)
+            ab = np.where(np.isnan(ab), np.inf, ab)
+            kind_ab = "plastic N–M"
+        sh = V / V_Rd if V_Rd is not None else np.zeros_like(V)
+    if V_Rd is None:
+        notes.append("Shear is not checked for timber (no shear strength is given for it).")
+    strength = np.maximum(ab, sh)
+    i = int(np.argmax(strength))
+    s_kind = kind_ab if ab[i] >= sh[i] else "shear"
+    s_value = float(strength[i])
+    w_abs = np.abs(np.asarray(deflection, dtype=float))
+    j = int(np.argmax(w_abs))
+    allowed = length / settings.deflection_limit
+    d_util = float(w_abs[j] / allowed)
+    if d_util > s_value:
+        kind, value, where, source = "deflection", d_util, float(x[j]), _SOURCES["deflection"]
+    else:
+        kind, value, where = s_kind, s_value, float(x[i])
+        source = _SOURCES["shear"] if s_kind == "shear" else _SOURCES[method]
+    return MemberCheck(
+        settings=settings, utilization=value, kind=kind, x=where, source=source,
+        strength_utilization=s_value, strength_kind=s_kind, stations=strength, axial_bending=ab, shear=sh,
+        deflection_utilization=d_util, max_deflection=float(w_abs[j]), deflection_allowed=allowed,
+        resistances={"N_Rd": N_Rd, "M_Rd": M_Rd, "V_Rd": V_Rd}, notes=tuple(notes),
+    )
