@@ -6,6 +6,9 @@ case-file schema, and the README for the method and its references.
 
 from engine.analysis import solve, sweep
 from engine.buckling import Buckling, critical_loads
+from engine.capacity import Capacity, capacity
+from engine.cautions import Caution
+from engine.checks import CheckSettings, MemberCheck
 from engine.case import (
     Case,
     CoupleLoad,
@@ -13,6 +16,7 @@ from engine.case import (
     Imperfection,
     LinearLoad,
     PointLoad,
+    Spec,
     UniformLoad,
     load_case,
     save_case,
@@ -33,20 +37,26 @@ __all__ = [
     "Amplification",
     "Approximation",
     "Buckling",
+    "Capacity",
     "Case",
     "CaseError",
+    "Caution",
+    "CheckSettings",
     "CoupleLoad",
     "EndSupport",
     "Equilibrium",
     "Governing",
     "Imperfection",
     "LinearLoad",
+    "MemberCheck",
     "Peak",
     "PointLoad",
     "Reactions",
     "Result",
+    "Spec",
     "SweepResult",
     "UniformLoad",
+    "capacity",
     "clear_caches",
     "critical_loads",
     "load_case",

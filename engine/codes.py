@@ -47,7 +47,7 @@ __all__ = [
 ]
 
 #: Imperfection factor :math:`\alpha` of each buckling curve: EN 1993-1-1:2005 Table 6.1 [text].
-IMPERFECTION_FACTORS = MappingProxyType({"a0": 0.13, "a": 0.21, "b": 0.35, "c": 0.49, "d": 0.76})
+IMPERFECTION_FACTORS = MappingProxyType({"a0": 0.13, "a": 0.21, "b": 0.34, "c": 0.49, "d": 0.76})
 
 #: The buckling curves, from the least to the most imperfect.
 BUCKLING_CURVES: tuple[str, ...] = tuple(IMPERFECTION_FACTORS)

@@ -296,7 +296,7 @@ def _corner_radii(t: float, manufacture: str) -> tuple[float, float]:
     if t <= 0.006 + slack:
         outer = 2.0 * t
     elif t <= 0.010 + slack:
-        outer = 2.0 * t
+        outer = 2.5 * t
     else:
         outer = 3.0 * t
     return outer, outer - t
@@ -657,8 +657,9 @@ def catalogue_names() -> tuple[str, ...]:
     return (*_ROLLED_I, *_HOLLOW_RECTANGULAR, *_HOLLOW_CIRCULAR, *_TIMBER)
 
 
-_HE_LETTER_LAST = re.compile(r"HE(\d+)([ABM])")
-_FAMILY_SIZE = re.compile(r"([A-Z]+)(\d+(?:\.\d+)?(?:X\d+(?:\.\d+)?)*)")
+# Patterns of a compacted name (re caches them on first use, so nothing is compiled at import).
+_HE_LETTER_LAST = r"HE(\d+)([ABM])"
+_FAMILY_SIZE = r"([A-Z]+)(\d+(?:\.\d+)?(?:X\d+(?:\.\d+)?)*)"
 
 
 def normalise_name(name: str) -> str:
@@ -692,10 +693,10 @@ def normalise_name(name: str) -> str:
     if not isinstance(name, str):
         raise TypeError(f"a section name must be a string, not {type(name).__name__}")
     compact = re.sub(r"[\s\-_]+", "", name.upper().replace("×", "X"))
-    letter_last = _HE_LETTER_LAST.fullmatch(compact)
+    letter_last = re.fullmatch(_HE_LETTER_LAST, compact)
     if letter_last:
         return f"HE{letter_last.group(2)} {letter_last.group(1)}"
-    family_size = _FAMILY_SIZE.fullmatch(compact)
+    family_size = re.fullmatch(_FAMILY_SIZE, compact)
     if family_size:
         sizes = "x".join(f"{float(part):g}" for part in family_size.group(2).split("X"))
         return f"{family_size.group(1)} {sizes}"

@@ -1,0 +1,144 @@
+r"""The capacity finder: the largest axial compression the member carries at a strength utilisation of 1.
+
+Two ways to load the member up:
+
+- ``mode="axial"``: the transverse loads stay as given and only the axial force grows;
+- ``mode="proportional"``: every load, axial and transverse, grows by one factor :math:`\lambda` (a load-factor
+  sweep); the case's own axial force is the reference and must be compression.
+
+Either way the bow stays as the case resolves it (a code bow depends on the member, not on the load). The
+strength checks of :mod:`engine.checks` set the capacity; the deflection check (serviceability) does not.
+The search brackets the first crossing of utilisation 1 on a grid below the first critical load and refines it
+by Brent's method; if the utilisation never reaches 1 below the critical load, elastic buckling governs and the
+capacity is the critical load itself.
+
+On the EN 1993-1-1 route with the eq. (5.9) bow and the elastic check, the capacity of a pin-ended strut is
+exactly :math:`\chi A f_y` of eq. (6.49), the Ayrton–Perry identity; the tests check it.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+from dataclasses import dataclass
+
+import numpy as np
+from scipy.optimize import brentq
+
+from engine.errors import CaseError
+
+__all__ = ["Capacity", "capacity"]
+
+MODES = ("axial", "proportional")
+
+
+@dataclass(frozen=True, kw_only=True)
+class Capacity:
+    """The largest axial compression at strength utilisation 1.
+
+    Attributes
+    ----------
+    axial_force : float
+        [N].
+    load_factor : float
+        The factor on the case's loads (``proportional``), or ``axial_force / case.axial_force`` when that is
+        compression, else NaN [-].
+    check : str
+        The check that governs there (``"elastic stress"``, ``"plastic N–M"``, ``"shear"``), or
+        ``"elastic buckling"`` when the critical load comes first, or ``"transverse loads alone"`` when the member
+        fails with no axial force at all (then ``axial_force`` is 0).
+    x : float or None
+        Where it governs [m].
+    critical_load : float
+        Pcr1 [N], for comparison.
+    mode : str
+    message : str
+    """
+
+    axial_force: float
+    load_factor: float
+    check: str
+    x: float | None
+    critical_load: float
+    mode: str
+    message: str
+
+
+def _scaled(case, factor, mode, reference):
+    if mode == "axial":
+        return dataclasses.replace(case, axial_force=factor)
+    loads = []
+    for load in case.loads:
+        if load.type == "uniform":
+            loads.append(dataclasses.replace(load, q=load.q * factor))
+        elif load.type == "linear":
+            loads.append(dataclasses.replace(load, q_start=load.q_start * factor, q_end=load.q_end * factor))
+        elif load.type == "point":
+            loads.append(dataclasses.replace(load, P=load.P * factor))
+        else:
+            loads.append(dataclasses.replace(load, C=load.C * factor))
+    return dataclasses.replace(case, axial_force=reference * factor, loads=tuple(loads))
+
+
+def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
+    """The largest axial compression at which the governing strength utilisation reaches 1.
+
+    Parameters
+    ----------
+    case : Case
+        With a section and material (the check needs them).
+    mode : {"axial", "proportional"}
+        Grow the axial force alone, or all loads by one factor.
+    stations : int
+        Stations of each trial solve (the peaks are exact whatever the number).
+
+    Returns
+    -------
+    Capacity
+    """
+    from engine.analysis import solve
+
+    if mode not in MODES:
+        raise CaseError(f"mode: {mode!r} is not a capacity mode; allowed: 'axial', 'proportional'")
+    if case.section is None or case.material is None:
+        raise CaseError("section: the capacity needs a section and a material for the member check")
+    reference = float(case.axial_force)
+    if mode == "proportional" and reference <= 0:
+        raise CaseError(f"axial_force: {reference!r} N must be compression (> 0) for a proportional capacity: "
+                        "it is the load the factor multiplies")
+    probe = solve(dataclasses.replace(case, axial_force=0.0), stations=stations)
+    pcr1 = float(probe.critical_loads[0])
+    if mode == "axial":
+        top = pcr1
+    else:
+        top = pcr1 / reference
+
+    def utilisation(t: float) -> float:
+        r = solve(_scaled(case, t, mode, reference), stations=stations)
+        return math.inf if r.check is None else r.check.strength_utilization
+
+    def found(t, check, x, message):
+        force = t if mode == "axial" else t * reference
+        factor = t if mode == "proportional" else (force / reference if reference > 0 else math.nan)
+        return Capacity(axial_force=float(force), load_factor=float(factor), check=check, x=x,
+                        critical_load=pcr1, mode=mode, message=message)
+
+    u0 = utilisation(0.0) if mode == "axial" else 0.0
+    if mode == "axial" and u0 >= 1.0:
+        return found(0.0, "transverse loads alone", probe.check.x if probe.check else None,
+                     f"The transverse loads alone give utilisation {u0:.3f} ≥ 1: no axial force can be carried.")
+    # Bracket the first crossing: finer towards the critical load, where the amplification runs away.
+    grid = top * (1.0 - np.geomspace(1.0, 1e-9, 48))
+    grid[0] = 0.0
+    prev_t, prev_u = 0.0, u0
+    for t in grid[1:]:
+        u = utilisation(float(t))
+        if u >= 1.0:
+            root = brentq(lambda s: utilisation(s) - 1.0, prev_t, float(t), xtol=1e-12 * top, rtol=1e-13)
+            r = solve(_scaled(case, root, mode, reference), stations=stations)
+            return found(root, r.check.strength_kind, r.check.x,
+                         f"Strength governs: utilisation 1 by {r.check.strength_kind} at x = {r.check.x:.3f} m.")
+        prev_t, prev_u = float(t), u
+    return found(top, "elastic buckling", None,
+                 f"Utilisation stays below 1 up to the first critical load ({pcr1 * 1e-3:.6g} kN): elastic "
+                 "buckling governs.")

@@ -1,0 +1,140 @@
+"""Each caution fires exactly when its condition holds (and the general one always)."""
+
+import math
+
+import pytest
+
+import engine
+
+PINNED = {"left": "pinned", "right": "pinned"}
+
+
+def _codes(mapping):
+    r = engine.solve(engine.Case.from_dict(dict({"schema": 1, "length": 4.0, "supports": PINNED}, **mapping)))
+    return [c.code for c in r.cautions], r
+
+
+def _steel(**extra):
+    base = {"section": {"name": "IPE 200"}, "material": {"name": "S355"}, "axial_force": 1.0e5,
+            "loads": [{"type": "uniform", "q": 2.0e3}], "imperfection": {"preset": "en1993-table-5.1"}}
+    base.update(extra)
+    return base
+
+
+def test_general_caution_is_always_there():
+    """The scope caution (elastic, single member, not a code check, licensed review) is on every result."""
+    for mapping in ({"EI": 1e6}, {"EI": 1e6, "axial_force": -1e3}, _steel()):
+        codes, r = _codes(mapping)
+        assert "scope" in codes
+        general = next(c for c in r.cautions if c.code == "scope")
+        assert "licensed engineer" in general.message and "lateral-torsional" in general.message
+
+
+def test_alpha_cr_below_ten_fires_only_below_ten():
+    """EN 1993-1-1 §5.2.1(3) (from memory): the caution fires for α_cr = 9.9 and not for 10.1."""
+    pcr = math.pi**2 * 1e6 / 16.0
+    assert "second-order-matters" in _codes({"EI": 1e6, "axial_force": pcr / 9.9})[0]
+    assert "second-order-matters" not in _codes({"EI": 1e6, "axial_force": pcr / 10.1})[0]
+
+
+def test_plastic_check_uses_fifteen():
+    """With the plastic check the α_cr limit is 15 (EN 1993-1-1 §5.2.1(3), from memory)."""
+    codes, r = _codes(_steel(check={"method": "plastic"}))
+    alpha = r.alpha_cr
+    assert ("second-order-matters" in codes) == (alpha < 15)
+
+
+def test_at_and_beyond_the_critical_load_are_danger():
+    """At Pcr1 the 'at-critical-load' danger fires; between Pcr1 and Pcr2 'beyond-critical-load'."""
+    pcr = math.pi**2 * 1e6 / 16.0
+    codes, r = _codes({"EI": 1e6, "axial_force": pcr})
+    assert "at-critical-load" in codes and r.cautions[0].level == "danger"
+    assert "beyond-critical-load" in _codes({"EI": 1e6, "axial_force": 2 * pcr})[0]
+    assert not {"at-critical-load", "beyond-critical-load"} & set(_codes({"EI": 1e6, "axial_force": 0.5 * pcr})[0])
+
+
+def test_tension_caution():
+    """A tension member gets the 'tension' info and no compression cautions."""
+    codes, _ = _codes({"EI": 1e6, "axial_force": -5e4})
+    assert "tension" in codes and "no-bow" not in codes
+
+
+def test_slenderness_limits():
+    """K·L/i > 200 in compression and > 300 in tension warn (AISC 360-16 user notes, from memory)."""
+    # IPE 200 minor axis: i_z = 22.4 mm (references §5), so L = 5 m pinned gives 223 > 200.
+    codes, r = _codes(_steel(length=5.0, axis="minor", axial_force=1e3, loads=[]))
+    assert "slender" in codes
+    codes, _ = _codes(_steel(length=4.0, axis="minor", axial_force=1e3, loads=[]))  # 179
+    assert "slender" not in codes
+    codes, _ = _codes(_steel(length=6.5, axis="minor", axial_force=-1e3, loads=[]))  # 290 in tension
+    assert "slender" not in codes
+    codes, _ = _codes(_steel(length=7.0, axis="minor", axial_force=-1e3, loads=[]))  # 312 in tension
+    assert "slender" in codes
+
+
+def test_lateral_torsional_buckling_for_major_axis_open_sections_only():
+    """Major-axis bending of an I warns of LTB; minor-axis bending or a hollow section does not."""
+    assert "lateral-torsional-buckling" in _codes(_steel(axis="major"))[0]
+    assert "lateral-torsional-buckling" not in _codes(_steel(axis="minor"))[0]
+    assert "lateral-torsional-buckling" not in _codes(_steel(section={"name": "SHS 100x100x5"}))[0]
+
+
+def test_section_class_caution_with_any_section():
+    """Section class and local buckling are never checked, so any section carries that warning."""
+    assert "section-class" in _codes(_steel())[0]
+    assert "section-class" not in _codes({"EI": 1e6})[0]
+
+
+def test_overstress_and_deflection_fire_with_their_checks():
+    """Utilisation > 1 is danger 'overstressed'; deflection over span/n warns; neither below the limit."""
+    codes, r = _codes(_steel(loads=[{"type": "uniform", "q": 4.0e4}]))
+    assert r.utilization > 1 and "overstressed" in codes
+    codes, r = _codes(_steel(loads=[{"type": "uniform", "q": 1.0e3}], axial_force=1e3))
+    assert r.check.strength_utilization < 1 and "overstressed" not in codes
+    assert ("deflection" in codes) == (r.check.deflection_utilization > 1)
+    codes, r = _codes(_steel(loads=[{"type": "uniform", "q": 1.0e3}], axial_force=1e3,
+                             check={"deflection_limit": 5000}))
+    assert r.check.deflection_utilization > 1 and "deflection" in codes
+
+
+def test_bow_below_code_and_no_bow():
+    """A given bow smaller than EN 1993-1-1 Table 5.1's warns; no bow at all in compression warns too."""
+    small = _steel(imperfection={"shape": "sine", "amplitude": 0.001})
+    assert "bow-below-code" in _codes(small)[0]
+    big = _steel(imperfection={"shape": "sine", "amplitude": 0.03})
+    assert "bow-below-code" not in _codes(big)[0]
+    assert "no-bow" in _codes({"EI": 1e6, "axial_force": 1e3})[0]
+    assert "no-bow" not in _codes({"EI": 1e6, "axial_force": 1e3,
+                                   "imperfection": {"shape": "sine", "amplitude": 0.004}})[0]
+
+
+def test_bow_opposing_the_load():
+    """A user's bow against the loads' deflection warns; the same bow with the load warns not."""
+    against = _steel(imperfection={"shape": "sine", "amplitude": -0.02})
+    assert "bow-opposes-load" in _codes(against)[0]
+    along = _steel(imperfection={"shape": "sine", "amplitude": 0.02})
+    assert "bow-opposes-load" not in _codes(along)[0]
+
+
+def test_cracking_and_custom_materials():
+    """A custom material named concrete is danger 'cracking-material'; another custom one an info."""
+    bow = {"shape": "sine", "amplitude": 0.01}  # a code curve needs steel, so give the bow
+    concrete = _steel(material={"name": "concrete C30", "E": 3.3e10, "fy": 3.0e7}, imperfection=bow)
+    assert "cracking-material" in _codes(concrete)[0]
+    custom = _steel(material={"name": "my alloy", "E": 2.0e11, "fy": 3.0e8}, imperfection=bow)
+    codes = _codes(custom)[0]
+    assert "custom-material" in codes and "cracking-material" not in codes
+
+
+def test_timber_factors_caution():
+    """Timber gets the k_mod / γ_M caution."""
+    timber = {"section": {"name": "TIMBER 45x195"}, "material": {"name": "C24"}, "axial_force": 1e3}
+    assert "timber-factors" in _codes(timber)[0]
+
+
+def test_cautions_are_ordered_by_severity():
+    """Danger first, then warnings, then infos."""
+    _, r = _codes(_steel(loads=[{"type": "uniform", "q": 4.0e4}]))
+    levels = [c.level for c in r.cautions]
+    rank = {"danger": 0, "warning": 1, "info": 2}
+    assert levels == sorted(levels, key=rank.get)
