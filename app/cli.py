@@ -205,7 +205,13 @@ def format_summary(source: str, case, result) -> str:
     add(f"  case:         {source}")
     add(f"  title:        {case.title or '(untitled)'}")
     add(f"  length:       {_m(case.length)}")
-    add(f"  EI:           {_quantity(case.EI, 1e-3, 'kN·m²')}")
+    if result.section is not None:
+        add(f"  section:      {result.section.name}, {case.axis} axis (A = {result.section.A * 1e4:.2f} cm², "
+            f"I = {result.section.I * 1e8:.0f} cm⁴)")
+    if result.material is not None:
+        add(f"  material:     {result.material.name} (E = {result.material.E * 1e-6:.0f} MPa, "
+            f"fy = {result.material.fy * 1e-6:.0f} MPa)")
+    add(f"  EI:           {_quantity(result.EI, 1e-3, 'kN·m²')}")
     add(f"  supports:     left {_support(case.left)}; right {_support(case.right)}")
     add(f"  axial force:  {_axial(result.axial_force)}")
     if case.loads:
@@ -213,7 +219,10 @@ def format_summary(source: str, case, result) -> str:
         lines.extend(f"    {_load(load, case.length)}" for load in case.loads)
     else:
         add("  loads:        none")
-    add(f"  initial bow:  {_imperfection(case.imperfection, case.length)}")
+    if result.bow is not None:
+        add(f"  initial bow:  {result.bow.label}" + (" (against the loads)" if result.bow.opposes_load else ""))
+    else:
+        add(f"  initial bow:  {_imperfection(case.imperfection, case.length)}")
 
     add("")
     add("Elastic critical loads")
@@ -272,6 +281,24 @@ def format_summary(source: str, case, result) -> str:
             f"transverse {_scientific(equilibrium.transverse)}, moment {_scientific(equilibrium.moment)}"
         )
 
+    check = result.check
+    if check is not None:
+        add("")
+        add(f"Member check ({check.settings.method}, gamma_M0 = {check.settings.gamma_M0:g}), second-order forces")
+        add(f"  utilisation:  {_ratio(check.utilization)} ({check.kind} at x = {_m(check.x)}; {check.source})")
+        add(f"  strength:     {_ratio(check.strength_utilization)} ({check.strength_kind})")
+        add(f"  deflection:   {_mm(check.max_deflection)} against span/{check.settings.deflection_limit:g} = "
+            f"{_mm(check.deflection_allowed)} ({_ratio(check.deflection_utilization)})")
+    elif result.utilization is not None:
+        add("")
+        add(f"Member check: utilisation {_ratio(result.utilization)}")
+
+    add("")
+    add("Cautions")
+    for caution in result.cautions:
+        if caution.code == "scope":
+            continue  # printed last, always
+        add(f"  [{caution.level}] {caution.message} ({caution.source})")
     add("")
     add(f"Caution: {CAUTION}")
     return "\n".join(lines)

@@ -84,7 +84,8 @@ def test_printed_first_critical_load_matches_engine_and_euler(tmp_path):
     assert printed_kN == pytest.approx(expected_kN, rel=1e-4)
     # The demo is pinned–pinned, so Pcr1 is the Euler load π²EI/L² (Timoshenko & Gere, Theory of Elastic
     # Stability, 2nd ed., 1961, ch. 2; chapter number from memory; design/references.md §2). Same tolerance.
-    assert printed_kN == pytest.approx(math.pi**2 * case.EI / case.length**2 / 1e3, rel=1e-4)
+    EI = engine.solve(case).EI  # E·I of the demo's section and material
+    assert printed_kN == pytest.approx(math.pi**2 * EI / case.length**2 / 1e3, rel=1e-4)
 
 
 def test_solve_case_file_and_stations_option(tmp_path):

@@ -189,7 +189,6 @@ def test_catalogue_names_are_canonical(name):
 @pytest.fixture(scope="module")
 def fe():
     """Return a function computing A, I, W_el and W_pl (both axes, mm units) with sectionproperties."""
-    pytest.importorskip("sectionproperties")
     from sectionproperties.analysis import Section as FESection
 
     def properties(geometry):
