@@ -36,6 +36,16 @@ def _at_critical(P: np.ndarray, pcr: np.ndarray) -> np.ndarray:
     return (P[:, None] > 0) & (np.abs(P[:, None] / pcr[None, :] - 1.0) < CRITICAL_TOLERANCE)
 
 
+def _critical_index(P: float, pcr) -> int:
+    """1-based index of the critical load P is at, or 0 (one axial force: plain floats are quicker)."""
+    if P <= 0:
+        return 0
+    for n, value in enumerate(pcr.tolist(), start=1):
+        if abs(P / value - 1.0) < CRITICAL_TOLERANCE:
+            return n
+    return 0
+
+
 class _Prepared:
     """What a case keeps between solves at different axial forces: its critical loads, model, stations and
     first-order solution. The page drags the axial force, so these are built once per case."""
@@ -262,13 +272,13 @@ def solve(case, stations: int = 401) -> Result:
     prep = _prepare(case)
     model, pcr = prep.model, prep.buckling.critical_loads
     P = float(case.axial_force)
-    crit = _at_critical(np.array([P]), pcr)[0]
-    seg, xi, shown, pts = prep.stations(n, strongest_tension_kappa(model, [P]))
+    n_crit = _critical_index(P, pcr)
+    seg, xi, shown, pts = prep.stations(n, math.sqrt(-P / model.EI) if P < 0 else 0.0)
     batch = Batch(model, [P], at=pts)
-    status, n_crit = "stable", 0
-    if crit.any() or batch.singular[0]:
+    status = "stable"
+    if n_crit or batch.singular[0]:
         status = "critical"
-        n_crit = int(np.argmax(crit)) + 1 if crit.any() else int(np.searchsorted(pcr, P)) + 1
+        n_crit = n_crit or int(np.searchsorted(pcr, P)) + 1
     elif P > pcr[0]:
         status = "unstable"
     _, first_seg, first_xi, _, _, _ = prep.first_order(n)

@@ -76,6 +76,14 @@ class Points:
         self.waves = tuple((F, beta, psi, np.sin(beta * self.x + psi), np.cos(beta * self.x + psi))
                            for F, beta, psi in model.bow.terms)
         self._powers = None
+        self._same = None
+
+    @property
+    def same_segment(self) -> np.ndarray:
+        """Whether each pair of consecutive points lies in one segment (for bracketing), kept."""
+        if self._same is None:
+            self._same = self.seg[1:] == self.seg[:-1]
+        return self._same
 
     @property
     def powers(self) -> np.ndarray:
@@ -152,6 +160,8 @@ class Model:
         self.rows_left = boundary_rows(case.left, "left")
         self.rows_right = boundary_rows(case.right, "right")
         self.jumps = np.stack([self.jump(i) for i in range(self.nodes.size)])
+        j = np.arange(nseg - 1)[:, None, None]
+        self.interface_index = (2 + 4 * j + np.arange(4)[None, :, None], 4 * j + np.arange(8)[None, None, :])
         # Both ends of every segment, for the continuity and end conditions.
         self.end_points = Points(self, np.repeat(np.arange(nseg), 2), np.stack([np.zeros(nseg), self.h], 1).ravel(),
                                  ends=np.arange(2 * nseg))
@@ -226,10 +236,11 @@ class Model:
             part[3] = part[3] - P * pts.bow[1]
         return cols, part
 
-    def basis(self, P, pts, columns=None):
+    def basis(self, P, pts, columns=None, index=None):
         """The state rows (w, w', M, T) of the four basis functions and of the particular solution.
 
-        ``columns`` may pass in what :meth:`columns` already returned for these points.
+        ``columns`` may pass in what :meth:`columns` already returned for these points, and ``index`` pick some
+        of them.
 
         Returns
         -------
@@ -238,12 +249,18 @@ class Model:
         p : ndarray, shape (n, 4)
             The particular solution's state.
         """
-        (w3, t3, m3, w4, t4, m4, T4), part = self.columns(P, pts) if columns is None else columns
-        B = np.zeros((pts.size, 4, 4))
+        cols, part = self.columns(P, pts) if columns is None else columns
+        xi = pts.xi
+        if index is not None:
+            cols = tuple(c[index] for c in cols)
+            part = [np.broadcast_to(p, xi.shape)[index] for p in part]
+            xi = xi[index]
+        w3, t3, m3, w4, t4, m4, T4 = cols
+        B = np.zeros((xi.size, 4, 4))
         B[:, 0, 0] = 1.0
-        B[:, 0, 1] = pts.xi
+        B[:, 0, 1] = xi
         B[:, 1, 1] = 1.0
-        B[:, 3, 1] = -P
+        B[:, 3, 1] = -P if np.ndim(P) == 0 or index is None else np.asarray(P)[index]
         B[:, 0, 2], B[:, 1, 2], B[:, 2, 2] = w3, t3, m3
         B[:, 0, 3], B[:, 1, 3], B[:, 2, 3], B[:, 3, 3] = w4, t4, m4, T4
         return B, np.stack(np.broadcast_arrays(*part), axis=1)
@@ -364,8 +381,7 @@ class Batch:
             # One evaluation serves both the assembly (at the segment ends) and the stations themselves.
             cols, part = model.columns(P[0], at)
             self._reuse = (at, cols, part)
-            B, p = model.basis(P[0], at, (cols, part))
-            B, p = B[at.ends], p[at.ends]
+            B, p = model.basis(P[0], at, (cols, part), index=at.ends)
         elif nP == 1:
             B, p = model.basis(P[0], ends)
         else:
@@ -379,11 +395,10 @@ class Batch:
         jumps = model.jumps
         A[:, 0:2, 0:4] = rl @ B[:, 0, 0]
         rhs[:, 0:2] = (jumps[0][None, :] - p[:, 0, 0]) @ rl.T
-        for j in range(nseg - 1):
-            r = 2 + 4 * j
-            A[:, r:r + 4, 4 * j:4 * j + 4] = -B[:, j, 1]
-            A[:, r:r + 4, 4 * j + 4:4 * j + 8] = B[:, j + 1, 0]
         if nseg > 1:
+            # Every interface block at once: [-B(end of j) | B(start of j+1)] in rows 2 + 4j.
+            rows, cols_ = model.interface_index
+            A[:, rows, cols_] = np.concatenate([-B[:, :-1, 1], B[:, 1:, 0]], axis=3)
             rhs[:, 2:m - 2] = (jumps[None, 1:nseg] - p[:, 1:, 0] + p[:, :-1, 1]).reshape(nP, -1)
         A[:, m - 2:m, m - 4:m] = rr @ B[:, nseg - 1, 1]
         rhs[:, m - 2:m] = -(p[:, nseg - 1, 1] + jumps[nseg][None, :]) @ rr.T
@@ -517,29 +532,39 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None):
         w, rotation, M, T, V and w0 there, followed by those at ``also``.
     """
     seg, xi = pts.seg, pts.xi
-    iP = np.broadcast_to(np.asarray(iP), seg.shape)
-    same = (iP[1:] == iP[:-1]) & (seg[1:] == seg[:-1])
+    single = np.ndim(iP) == 0
+    if single:  # one axial force: "same segment" depends on the stations only, so keep it with them
+        same = pts.same_segment
+        iP = np.zeros(seg.size, dtype=int)
+    else:
+        iP = np.asarray(iP)
+        same = (iP[1:] == iP[:-1]) & (seg[1:] == seg[:-1])
     mag = np.abs(f)
     zero = mag <= 1e-13 * mag.max(axis=1, keepdims=True)
-    left_side = np.where(zero, df, f)[:, :-1]  # just right of the left station
-    right_side = np.where(zero, -df, f)[:, 1:]  # just left of the right station
-    sign_change = (left_side * right_side < 0) & same[None, :]
+    left_side = np.where(zero, df, f)  # just right of a station
+    right_side = np.where(zero, -df, f)  # just left of it
+    sign_change = (left_side[:, :-1] * right_side[:, 1:] < 0) & same[None, :]
     fid, k = np.nonzero(sign_change)
+    # One gather for everything the start needs, at the left (k) and right (k + 1) station of each bracket.
+    both = np.concatenate([k, k + 1])
+    fid2 = np.concatenate([fid, fid])
+    flo, fhi = left_side[fid, k], right_side[fid, k + 1]
+    g_f, g_df, g_zero = f[fid2, both], df[fid2, both], zero[fid2, both]
+    n_roots = k.size
     lo, hi = xi[k], xi[k + 1]
-    flo, fhi = left_side[fid, k], right_side[fid, k]
     bi, bs = iP[k], seg[k]
     # Start from the secant; beside a zero station, from the parabola through that zero with its slope and the
     # other end's value. Either start is within O(Δx²) of the root, so one Newton step leaves O(Δx⁴).
     width = hi - lo
-    z_lo, z_hi = zero[fid, k], zero[fid, k + 1]
-    with np.errstate(divide="ignore", invalid="ignore"):
-        secant = lo - flo * width / (fhi - flo)
-        d_lo, d_hi = df[fid, k], df[fid, k + 1]
-        from_lo = lo - d_lo / ((f[fid, k + 1] - d_lo * width) / width**2)
-        from_hi = hi - d_hi / ((f[fid, k] + d_hi * width) / width**2)
-    x0 = np.where(z_lo, from_lo, np.where(z_hi, from_hi, secant))
-    x0 = np.where(np.isfinite(x0) & (x0 > lo) & (x0 < hi), x0, 0.5 * (lo + hi))
-    n_roots = k.size
+    x0 = lo - flo * width / (fhi - flo)  # the secant; flo and fhi have opposite signs, so no division by zero
+    if g_zero.any():
+        z_lo, z_hi = g_zero[:n_roots], g_zero[n_roots:]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            d_lo, d_hi = g_df[:n_roots], g_df[n_roots:]
+            from_lo = lo - d_lo / ((g_f[n_roots:] - d_lo * width) / width**2)
+            from_hi = hi - d_hi / ((g_f[:n_roots] + d_hi * width) / width**2)
+        x0 = np.where(z_lo, from_lo, np.where(z_hi, from_hi, x0))
+        x0 = np.where(np.isfinite(x0) & (x0 > lo) & (x0 < hi), x0, 0.5 * (lo + hi))
     if also is not None:
         trial = Points(batch.model, np.concatenate([bs, also[0]]), np.concatenate([x0, also[1]]))
         which = 0
@@ -550,12 +575,14 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None):
     fv, dv = batch.targets(st, trial)
     sel = np.arange(n_roots)
     fx, dx = fv[fid, sel], dv[fid, sel]
-    with np.errstate(divide="ignore", invalid="ignore"):
-        step = -fx / dx
+    flat = dx == 0.0
+    step = -fx / np.where(flat, 1.0, dx)
+    step[flat] = np.inf  # no slope: the bracket check below bisects instead
     # The Taylor step below is exact to rounding when the step is below 1e-4 of the shortest length of the
     # solution there (the segment, or the wavelength 1/k). Coarse stations may need more Newton steps first.
     P_at = batch.P[bi] if batch.P.size > 1 else batch.P[0]
     scale = np.minimum(trial.h[:n_roots], 1.0 / np.sqrt(np.abs(P_at) / batch.model.EI + 1e-300))
+    q_at = trial.q[:n_roots].copy()  # the load intensity where each root's state was last evaluated
     for _ in range(8):
         loose = ~(np.abs(step) <= 1e-4 * scale)
         if not loose.any():
@@ -578,15 +605,14 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None):
         for name in st:
             if isinstance(st[name], np.ndarray) and st[name].ndim == 1 and st[name].size == trial.size:
                 st[name][sub] = st_sub[name]
-        trial.x[sub], trial.xi[sub] = trial.xa[sub] + xs, xs
-        trial.q[sub] = trial.q0[sub] + trial.q1[sub] * xs
+        q_at[sub] = trial.q0[sub] + trial.q1[sub] * xs
     x1 = x0 + step
     ok = np.isfinite(x1) & (x1 >= lo) & (x1 <= hi)
     if not ok.all():  # a flat or odd bracket: bisect the half with the sign change and evaluate it exactly
         left = np.sign(fx) == np.sign(flo)
         x1 = np.where(ok, x1, np.where(left, 0.5 * (x0 + hi), 0.5 * (lo + x0)))
         step = np.where(ok, step, 0.0)
-    out = _taylor(batch, st, trial, n_roots, step)
+    out = _taylor(batch, st, q_at, trial.q1[:n_roots], n_roots, step)
     if not ok.all():
         bad = np.nonzero(~ok)[0]
         again = Points(batch.model, bs[bad], x1[bad])
@@ -599,14 +625,16 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None):
 _STATE_FIELDS = ("w", "rotation", "M", "T", "V", "w0")
 
 
-def _taylor(batch, st, pts, n, h):
-    """The state moved by h along the first n points (third order), the rest unchanged."""
+def _taylor(batch, st, q, q1, n, h):
+    """The state moved by h along the first n points (third order), the rest unchanged.
+
+    ``q`` and ``q1`` are the load intensity [N/m] and its slope [N/m²] at those n points.
+    """
     EI = batch.model.EI
     P = st["P"]
     P = P[:n] if np.ndim(P) else P
     w, th, M, T, V = (st[k][:n] for k in ("w", "rotation", "M", "T", "V"))
     w0, d1, d2, d3 = (st[k][:n] for k in ("w0", "w0_1", "w0_2", "w0_3"))
-    q, q1 = pts.q[:n], pts.q1[:n]
     dV = -q + P * (d2 - M / EI)
     ddV = -q1 + P * (d3 - V / EI)
     h2, h3 = h * h / 2, h * h * h / 6
