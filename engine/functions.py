@@ -58,7 +58,10 @@ def xi_powers(xi) -> np.ndarray:
     return powers
 
 
-def phi_series(s, xi, powers=None):
+_J = np.arange(_TERMS, dtype=float)
+
+
+def phi_series(s, xi, powers=None, xi2_max=None):
     r"""The functions :math:`\varphi_0 \ldots \varphi_5` by their series, for :math:`|s|\xi^2 \le 4`.
 
     Parameters
@@ -69,6 +72,8 @@ def phi_series(s, xi, powers=None):
         Distance from the start of the segment [m]; broadcast against ``s``.
     powers : ndarray, optional
         :func:`xi_powers` of ``xi``, for a scalar ``s``: the series is then one matrix product.
+    xi2_max : float, optional
+        An upper bound of ξ² over the points, with ``powers``; it sets the number of terms.
 
     Returns
     -------
@@ -85,6 +90,21 @@ def phi_series(s, xi, powers=None):
     >>> bool(np.isclose(phi_series(k * k, 1.3)[0], np.cos(k * 1.3), rtol=1e-15, atol=0))
     True
     """
+    if powers is not None and xi2_max is not None and np.ndim(s) == 0:
+        # One axial force at known points: the number of terms from the bound, and one matrix product.
+        s = float(s)
+        xi = np.asarray(xi, dtype=float)
+        xi2 = powers[:, 1]
+        n = _terms_for(abs(s) * xi2_max)
+        sums = powers[:, :n] @ (_COEF45[:n] * np.power(-s, _J[:n])[:, None])
+        x4 = powers[:, 2]
+        p4 = x4 * sums[:, 0]
+        p5 = x4 * xi * sums[:, 1]
+        p3 = xi2 * xi / 6.0 - s * p5
+        p2 = 0.5 * xi2 - s * p4
+        p1 = xi - s * p3
+        p0 = 1.0 - s * p2
+        return p0, p1, p2, p3, p4, p5
     s = np.asarray(s, dtype=float)
     xi = np.asarray(xi, dtype=float)
     xi2 = xi * xi
@@ -92,7 +112,7 @@ def phi_series(s, xi, powers=None):
     zflat = np.atleast_1d(z).ravel()
     n = _terms_for(float(np.abs(zflat).max(initial=0.0)))
     if powers is not None and s.ndim == 0:
-        sums = powers[:, :n] @ (_COEF45[:n] * ((-float(s)) ** np.arange(n))[:, None])
+        sums = powers[:, :n] @ (_COEF45[:n] * np.power(-float(s), _J[:n])[:, None])
     elif zflat.size <= 2000:
         # Few points: the powers of z by one running product, then both series by one matrix product.
         powers = np.empty((zflat.size, n))

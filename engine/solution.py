@@ -208,7 +208,8 @@ class Model:
             z = s * pts.h2
             zlo, zhi = (float(z.min()), float(z.max())) if z.size else (0.0, 0.0)
         if -SERIES_LIMIT <= zlo and zhi <= SERIES_LIMIT:
-            out = _series_columns(EI, P, s, xi, h, q0, q1, pts.powers if z is None else None)
+            out = (_series_columns(EI, P, s, xi, h, q0, q1, pts.powers, pts.h2_range[1]) if z is None
+                   else _series_columns(EI, P, s, xi, h, q0, q1))
         elif zlo > SERIES_LIMIT:
             out = _trig_columns(EI, P, s, xi, h, q0, q1)
         elif zhi < -SERIES_LIMIT:
@@ -270,8 +271,8 @@ class Model:
         return np.array([0.0, 0.0, self.couple[node], -self.force[node]])
 
 
-def _series_columns(EI, P, s, xi, h, q0, q1, powers=None):
-    f0, f1, f2, f3, f4, f5 = phi_series(s, xi, powers)
+def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
+    f0, f1, f2, f3, f4, f5 = phi_series(s, xi, powers, xi2_max)
     return (f2, f1, -EI * f0, f3, f2, -EI * f1, np.full(xi.size, -EI),
             (q0 * f4 + q1 * f5) / EI, (q0 * f3 + q1 * f4) / EI, -(q0 * f2 + q1 * f3), -q0 * xi - 0.5 * q1 * xi * xi)
 
