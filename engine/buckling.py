@@ -213,13 +213,10 @@ def _null_vector(ch: _Characteristic, lam: float) -> np.ndarray:
     return vt[-1]
 
 
-def _normalise(lam: float, c: np.ndarray) -> np.ndarray:
-    """Scale mode coefficients so the largest |mode| over the member is 1 and that extreme is positive."""
-    xi = np.linspace(0.0, 1.0, 2001)
-    w = _mode_value(lam, c, xi)
-    i = int(np.argmax(np.abs(w)))
+def _refined_extreme(lam: float, c: np.ndarray, xi: np.ndarray, w: np.ndarray, i: int) -> float:
+    """The mode's value at the extreme nearest sample i (Newton on the slope for an interior one)."""
     x0 = xi[i]
-    if 0 < i < xi.size - 1:  # refine the interior peak by Newton on the slope
+    if 0 < i < xi.size - 1:
         for _ in range(8):
             p0, p1, p2, _ = phi(lam * lam, x0)
             slope = c[1] + c[2] * p1 + c[3] * p2
@@ -227,10 +224,30 @@ def _normalise(lam: float, c: np.ndarray) -> np.ndarray:
             if curv == 0:
                 break
             x0 = float(np.clip(x0 - slope / curv, xi[i - 1], xi[i + 1]))
-    peak = float(_mode_value(lam, c, np.array([x0]))[0])
-    if abs(peak) < np.abs(w).max():
-        peak = float(w[i])
-    return c / peak
+    value = float(_mode_value(lam, c, np.array([x0]))[0])
+    return value if abs(value) >= abs(w[i]) else float(w[i])
+
+
+def _normalise(lam: float, c: np.ndarray) -> np.ndarray:
+    """Scale mode coefficients so the largest |mode| over the member is 1 and that extreme is positive.
+
+    Where two extremes are equally large (equal springs at both ends make them equal and opposite), the one
+    nearest the left end is made positive, so that rounding never decides the direction of a mode or a bow.
+    """
+    xi = np.linspace(0.0, 1.0, 2001)
+    w = _mode_value(lam, c, xi)
+    mag = np.abs(w)
+    top = mag.max()
+    # Local maxima of |w| (ends included) within a sampling margin of the largest; refine each.
+    interior = (mag[1:-1] >= mag[:-2]) & (mag[1:-1] >= mag[2:])
+    local = np.concatenate([[mag[0] >= mag[1]], interior, [mag[-1] >= mag[-2]]])
+    candidates = np.nonzero(local & (mag >= (1 - 1e-4) * top))[0]
+    values = [_refined_extreme(lam, c, xi, w, int(i)) for i in candidates]
+    largest = max(abs(v) for v in values)
+    for v in values:  # left to right
+        if abs(v) >= (1 - 1e-9) * largest:
+            return c / (abs(v) if v > 0 else -abs(v)) if v != 0 else c
+    return c / values[0]  # pragma: no cover - the loop always returns
 
 
 @functools.lru_cache(maxsize=256)

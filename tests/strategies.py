@@ -69,7 +69,7 @@ def is_stable_pattern(left: Sequence[str], right: Sequence[str]) -> bool:
     return sum(restraints) >= 2
 
 
-#: Every stable pair of end patterns, ((left translation, left rotation), (right translation, right rotation)).
+#: Every stable pair of end patterns, each ((translation, rotation) left, (translation, rotation) right).
 STABLE_PATTERNS = tuple(
     (left, right)
     for left in itertools.product(RESTRAINTS, RESTRAINTS)
@@ -195,7 +195,7 @@ def loads(draw, length: float, *, types: Sequence[str] = LOAD_TYPES, min_size: i
     fractions = iter(draw(positions(needed)))
     free_ends = [0.0, 1.0]
     result = []
-    for kind, span in zip(kinds, spans):
+    for kind, span in zip(kinds, spans, strict=True):
         if kind in ("point", "couple"):
             where = next(fractions)
             if allow_ends and free_ends and draw(st.integers(0, 3)) == 0:

@@ -92,3 +92,14 @@ def test_effective_length_factor_is_pi_over_the_first_wavenumber():
     b = engine.critical_loads(_case("fixed", "pinned", L=4.0, EI=9.0))
     assert b.effective_length_factor == pytest.approx(math.pi / 4.493409457909064, rel=1e-12)
     assert round(b.effective_length_factor, 3) == 0.699
+
+
+def test_equal_extremes_make_the_left_one_positive():
+    """Equal translation springs at both ends give a rigid-rotation mode with equal and opposite end values;
+    the tie is broken by making the extreme nearest the left end +1, so rounding never flips a mode bow."""
+    for scale in (1.0, 1.5, 2.0):
+        case = _case({"translation": 37.0, "rotation": "free"}, {"translation": 37.0, "rotation": "free"},
+                     L=3.0 * scale, EI=1.0)
+        x = np.linspace(0.0, case.length, 11)
+        shape = engine.critical_loads(case).mode_shapes(x)[0]
+        assert shape[0] == pytest.approx(1.0, abs=1e-9) and shape[-1] == pytest.approx(-1.0, abs=1e-9)

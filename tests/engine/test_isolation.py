@@ -14,7 +14,6 @@ import subprocess
 import sys
 from pathlib import Path
 
-
 REPO = Path(__file__).resolve().parents[2]
 ENGINE = REPO / "engine"
 FORBIDDEN = ("panel", "bokeh", "param")
@@ -67,12 +66,12 @@ def _engine_sources() -> list[Path]:
 
 
 def test_importing_and_using_the_engine_loads_no_page_library():
-    """A fresh interpreter that imports and uses the engine neither tries to import nor holds panel, bokeh or param."""
+    """A fresh interpreter using the engine neither tries to import nor holds panel, bokeh or param."""
     assert _loaded_forbidden_modules() == []
 
 
 def test_the_probe_sees_an_attempted_import_of_a_page_library():
-    """The probe reports param when something tries to import it, installed or not, so the check above can fail."""
+    """The probe reports param when something tries to import it, installed or not, so the check can fail."""
     preamble = "try:\n    import param\nexcept ImportError:\n    pass"
     assert "param" in _loaded_forbidden_modules(preamble=preamble)
 

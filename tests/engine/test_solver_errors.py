@@ -1,4 +1,4 @@
-"""Support sets without stability are refused; cases at and beyond the critical loads are reported, not raised.
+"""Unstable support sets are refused; cases at and beyond the critical loads are reported, not raised.
 
 Sources: the named critical loads are Euler's, as listed in /work/shared/design/references.md §2
 (pinned–pinned π²EI/L², fixed–guided π²EI/L²: Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed.
@@ -87,7 +87,7 @@ def test_a_support_set_with_a_mechanism_is_a_case_error_naming_supports(left, ri
 @settings(max_examples=40, deadline=None, database=None)
 @given(data=st.data())
 def test_every_stable_support_set_of_the_strategies_is_accepted(data):
-    """Every support pair the strategies call stable, springs included, builds a case with a positive P_cr1."""
+    """Every support pair the strategies call stable, springs included, builds a case with P_cr1 > 0."""
     length, rigidity = data.draw(lengths()), data.draw(flexural_rigidities())
     left, right = data.draw(supports(length, rigidity))
     case = engine.Case.from_dict(dict(_mapping(left, right), length=length, EI=rigidity,
@@ -151,7 +151,7 @@ def test_a_case_at_the_second_critical_load_is_reported_critical_without_nan():
 
 @pytest.mark.parametrize(("left", "right"), CRITICAL_SETS)
 def test_a_case_between_the_first_two_critical_loads_is_unstable_with_finite_arrays(left, right):
-    """Half-way between P_cr1 and P_cr2 the solve returns stable False, status "unstable" and finite arrays."""
+    """Half-way between P_cr1 and P_cr2 the solve returns stable False, "unstable" and finite arrays."""
     base = engine.Case.from_dict(_mapping(left, right))
     loads = engine.critical_loads(base).critical_loads
     P = 0.5 * float(loads[0] + loads[1])
