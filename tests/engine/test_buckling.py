@@ -98,8 +98,10 @@ def test_equal_extremes_make_the_left_one_positive():
     """Equal translation springs at both ends give a rigid-rotation mode with equal and opposite end values;
     the tie is broken by making the extreme nearest the left end +1, so rounding never flips a mode bow."""
     for scale in (1.0, 1.5, 2.0):
-        case = _case({"translation": 37.0, "rotation": "free"}, {"translation": 37.0, "rotation": "free"},
+        k = 0.1 / (3.0 * scale) ** 3  # soft: k L³/EI = 0.1, so the first mode is the near-rigid rotation
+        case = _case({"translation": k, "rotation": "free"}, {"translation": k, "rotation": "free"},
                      L=3.0 * scale, EI=1.0)
         x = np.linspace(0.0, case.length, 11)
         shape = engine.critical_loads(case).mode_shapes(x)[0]
         assert shape[0] == pytest.approx(1.0, abs=1e-9) and shape[-1] == pytest.approx(-1.0, abs=1e-9)
+        assert shape[5] == pytest.approx(0.0, abs=1e-9)
