@@ -268,6 +268,15 @@ def _dimensionless(left, right, EI, L, count):
     return lams, coefs
 
 
+def _scaled(support, EI, L):
+    """The end support with its springs made dimensionless (k_t L³/EI, k_r L/EI)."""
+    t, r = support.translation, support.rotation
+    if isinstance(t, str) and isinstance(r, str):
+        return support
+    return type(support)(translation=t if isinstance(t, str) else float(t) * L**3 / EI,
+                         rotation=r if isinstance(r, str) else float(r) * L / EI)
+
+
 def critical_loads(case, count: int = 5) -> Buckling:
     """The first elastic critical compressive loads and modes of the member in ``case``.
 
@@ -293,8 +302,10 @@ def critical_loads(case, count: int = 5) -> Buckling:
     """
     if not 1 <= count <= _MAX_COUNT:
         raise ValueError(f"count: {count} must be between 1 and {_MAX_COUNT}")
-    lams, coefs = _dimensionless(case.left, case.right, float(case.EI), float(case.length), int(count))
-    L = float(case.length)
+    EI, L = float(case.EI), float(case.length)
+    # The dimensionless problem depends only on the springs made dimensionless, so one search serves every
+    # member with the same end conditions (a batch of pinned struts searches once).
+    lams, coefs = _dimensionless(_scaled(case.left, EI, L), _scaled(case.right, EI, L), 1.0, 1.0, int(count))
     return Buckling(
         critical_loads=lams**2 * case.EI / L**2,
         wavenumbers=lams.copy(),

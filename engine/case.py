@@ -248,7 +248,7 @@ class Spec(Mapping):
     Parameters
     ----------
     mapping : Mapping
-        Keys are strings; values are numbers or strings.
+        Keys are strings; values are numbers, strings or booleans.
     path : str
         Field path for error messages.
     """
@@ -262,8 +262,11 @@ class Spec(Mapping):
         for key, value in mapping.items():
             if not isinstance(key, str):
                 raise CaseError(f"{path}: key {_show(key)} is not text")
-            if _is_bool(value) or not isinstance(value, (str, numbers.Real)):
-                raise CaseError(f"{path}.{key}: {_show(value)} must be a number or a name")
+            if _is_bool(value):
+                items.append((key, bool(value)))  # a flag, e.g. a custom section's open_section
+                continue
+            if not isinstance(value, (str, numbers.Real)):
+                raise CaseError(f"{path}.{key}: {_show(value)} must be a number, a name or true/false")
             items.append((key, value if isinstance(value, str) else float(value)))
         object.__setattr__(self, "_items", tuple(sorted(items)))
 

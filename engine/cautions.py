@@ -129,11 +129,12 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                         "service-class factors are not applied unless you set γ_M0 to include them."),
                                source="EN 1995-1-1 §2.4 and §3.2 (from memory)"))
     if check is not None:
-        if check.utilization > 1.0:
+        if check.strength_utilization > 1.0:
             out.append(Caution(level="danger", code="overstressed",
-                               message=(f"Utilisation {check.utilization:.3f} > 1 ({check.kind} at "
-                                        f"x = {check.x:.3f} m): the member does not work as analysed."),
-                               source=check.source))
+                               message=(f"Strength utilisation {check.strength_utilization:.3f} > 1 "
+                                        f"({check.strength_kind}): the member does not work as analysed."),
+                               source=check.source if check.kind != "deflection" else
+                               "EN 1993-1-1:2005 §6.2 (clause numbers from memory)"))
         if check.deflection_utilization > 1.0:
             out.append(Caution(level="warning", code="deflection",
                                message=(f"Deflection {check.max_deflection * 1e3:.1f} mm exceeds the limit "

@@ -1,0 +1,189 @@
+"""Serving the member explorer: ``strutscope serve [CASE] [--port N] [--no-browser] [--host H]``.
+
+Each browser session gets its own :class:`app.state.MemberState` and :class:`app.page.MemberPage`, built by
+a function that Panel calls per session (a served object would share its state between tabs). The page is
+served on 127.0.0.1 by default; another address is an explicit choice, with a printed warning. Every
+resource (Bokeh's and Panel's scripts and styles) comes from the server's own ``/static``: the page needs no
+internet connection. Ctrl+C (or SIGTERM) stops the server cleanly.
+"""
+
+from __future__ import annotations
+
+import ipaddress
+import signal
+import socket
+import sys
+from importlib import resources
+
+__all__ = ["DEFAULT_PORT", "add_arguments", "make_page", "run", "serve"]
+
+#: The port used when none is given.
+DEFAULT_PORT = 5006
+_LOOPBACK = ("127.0.0.1", "localhost", "::1")
+_DEMO_CASE = "demo_wind_post.json"
+
+
+def _demo_case():
+    import engine
+
+    return engine.Case.from_json(resources.files("assets").joinpath(_DEMO_CASE).read_text(encoding="utf-8"))
+
+
+def make_page(case=None):
+    """Build one session's page on `case` (an :class:`engine.Case`; the invented demo case when None).
+
+    The settled inputs and the units are mirrored into the URL, so a copied link reopens the same case.
+    """
+    import panel as pn
+
+    from app.page import MemberPage
+    from app.state import MemberState
+
+    state = MemberState.from_case(case if case is not None else _demo_case())
+    page = MemberPage(state)
+    if pn.state.location is not None:
+        # The link is the settled case (never the axial force while it is dragged); see MemberState.link.
+        pn.state.location.sync(state, {"link": "case", "units": "units"})
+    return page
+
+
+def _free_port(host: str) -> int:
+    family = socket.AF_INET6 if ":" in host else socket.AF_INET
+    with socket.socket(family, socket.SOCK_STREAM) as probe:
+        probe.bind((host, 0))
+        return probe.getsockname()[1]
+
+
+def _is_loopback(host: str) -> bool:
+    if host in _LOOPBACK:
+        return True
+    try:
+        return ipaddress.ip_address(host).is_loopback
+    except ValueError:
+        return False
+
+
+def serve(
+    case_path=None, port: int = DEFAULT_PORT, open_browser: bool = True, host: str = "127.0.0.1"
+) -> int:
+    """Serve the page until Ctrl+C; return the exit code (0 when stopped, 2 for a case or port problem).
+
+    Parameters
+    ----------
+    case_path : str or path-like, optional
+        A case file (JSON, schema 1) to open; the invented demo case when None.
+    port : int
+        The port; 0 picks a free one. The URL is printed either way.
+    open_browser : bool
+        Open the page in the default browser once the server listens.
+    host : str
+        The address to listen on: 127.0.0.1 by default. Any other address shares the page (and the
+        machine's CPU) with the network it is on, with no login: a warning is printed.
+    """
+    import engine
+
+    case = None
+    if case_path is not None:
+        try:
+            case = engine.load_case(case_path)
+        except engine.CaseError as error:
+            print(f"error: {case_path}: {error}", file=sys.stderr)
+            return 2
+        except OSError as error:
+            print(f"error: {case_path}: cannot read the file: {error.strerror or error}", file=sys.stderr)
+            return 2
+    try:
+        if port == 0:
+            port = _free_port(host)
+        import panel as pn
+
+        from app.page import page_stylesheet
+
+        pn.config.raw_css = [*pn.config.raw_css, page_stylesheet()]
+        origins = [f"127.0.0.1:{port}", f"localhost:{port}"]
+        if not _is_loopback(host):
+            origins.append(f"{host}:{port}" if host not in ("0.0.0.0", "::") else f"*:{port}")
+        server = pn.serve(
+            lambda: make_page(case),
+            port=port,
+            address=host,
+            websocket_origin=origins,
+            show=open_browser,
+            start=False,
+            title="strutscope · member explorer",
+            verbose=False,
+        )
+        server.start()
+    except OSError as error:
+        print(f"error: cannot listen on {host}:{port}: {error.strerror or error}", file=sys.stderr)
+        return 2
+    shown_host = f"[{host}]" if ":" in host else host
+    if not _is_loopback(host):
+        print(
+            f"warning: serving on {host}, not only this computer: anyone who can reach this address can open "
+            "the page and run analyses on this machine; there is no login.",
+            file=sys.stderr,
+        )
+    source = case_path if case_path is not None else f"{_DEMO_CASE} (invented demo)"
+    print(f"strutscope: serving the member explorer on {source} at http://{shown_host}:{port}/", flush=True)
+    if host in ("0.0.0.0", "::"):
+        print(f"strutscope: on this computer, open it at http://127.0.0.1:{port}/", flush=True)
+    print("strutscope: press Ctrl+C to stop", flush=True)
+
+    def stop(signum, frame):
+        raise KeyboardInterrupt
+
+    previous = signal.signal(signal.SIGTERM, stop)
+    try:
+        server.io_loop.start()
+    except KeyboardInterrupt:
+        pass
+    finally:
+        signal.signal(signal.SIGTERM, previous)
+        server.stop()
+        print("strutscope: stopped", flush=True)
+    return 0
+
+
+def add_arguments(parser) -> None:
+    """Add the ``serve`` options to `parser` (an argparse parser for the subcommand)."""
+    parser.add_argument(
+        "case", nargs="?", metavar="CASE.json", help="a case file to open (default: the invented demo case)"
+    )
+    parser.add_argument(
+        "--port",
+        type=_port,
+        default=DEFAULT_PORT,
+        metavar="N",
+        help=f"port to serve on (default {DEFAULT_PORT}; 0 picks a free one)",
+    )
+    parser.add_argument("--no-browser", action="store_true", help="do not open a browser")
+    parser.add_argument(
+        "--host",
+        default="127.0.0.1",
+        metavar="H",
+        help="address to listen on (default 127.0.0.1, this computer only; another address "
+        "shares the page with the network, with a warning)",
+    )
+
+
+def _port(text: str) -> int:
+    import argparse
+
+    try:
+        port = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"{text!r} is not a whole number") from None
+    if not 0 <= port <= 65535:
+        raise argparse.ArgumentTypeError(f"{port} must be from 0 to 65535")
+    return port
+
+
+def run(args) -> int:
+    """Run ``strutscope serve`` with parsed `args` (``case``, ``port``, ``no_browser``, ``host``)."""
+    return serve(
+        getattr(args, "case", None),
+        port=getattr(args, "port", DEFAULT_PORT),
+        open_browser=not getattr(args, "no_browser", False),
+        host=getattr(args, "host", "127.0.0.1"),
+    )

@@ -1,0 +1,190 @@
+"""The case file's JSON Schema (app.schema), checked with the general-purpose `jsonschema` package.
+
+Reference: JSON Schema draft 2020-12 (json-schema.org, "JSON Schema Core" and "Validation", 2020-12), as the
+`jsonschema` package implements it. The schema's rules come from the README's case file (schema 1); every
+check below also asks the engine, so that the schema and the engine agree in both directions.
+"""
+
+import copy
+import json
+import re
+from importlib import resources
+from pathlib import Path
+
+import jsonschema
+import pytest
+from hypothesis import HealthCheck, given, settings
+
+import engine
+from app.schema import SCHEMA_ID, case_schema, schema_text
+from tests.app.test_cli import run_cli
+from tests.strategies import cases
+
+REPO_ROOT = Path(__file__).resolve().parents[2]
+
+
+@pytest.fixture(scope="module")
+def validator():
+    """A draft 2020-12 validator of the case-file schema."""
+    return jsonschema.Draft202012Validator(case_schema())
+
+
+def demo_mapping():
+    """The demo case file as JSON data."""
+    return json.loads(resources.files("assets").joinpath("demo_wind_post.json").read_text(encoding="utf-8"))
+
+
+def readme_example():
+    """The case-file example of the README ("Case file (JSON, schema 1)")."""
+    text = (REPO_ROOT / "README.md").read_text(encoding="utf-8")
+    block = re.search(r"\*\*Case file \(JSON, schema 1\)\.\*\*\s*```json\n(.*?)```", text, re.DOTALL)
+    assert block is not None, "the README's case-file example was not found"
+    return json.loads(block.group(1))
+
+
+def engine_accepts(mapping) -> bool:
+    """Whether the engine reads `mapping` as a case."""
+    try:
+        engine.Case.from_dict(mapping)
+    except engine.CaseError:
+        return False
+    return True
+
+
+def full_case():
+    """A case using every top-level key and a preset bow (invented values)."""
+    return {
+        "schema": 1,
+        "title": "Invented: every key",
+        "length": 5.0,
+        "EI": 5.0e6,
+        "supports": {"left": {"translation": "fixed", "rotation": 2.0e6}, "right": "pinned"},
+        "axial_force": 150e3,
+        "loads": [
+            {"type": "uniform", "q": 1.0e3, "start": 0.5, "end": 4.0},
+            {"type": "linear", "q_start": 0.0, "q_end": 2.0e3},
+            {"type": "point", "P": 3.0e3, "x": 2.0},
+            {"type": "couple", "C": -1.0e3, "x": 5.0},
+        ],
+        "imperfection": {"preset": "span", "ratio": 300, "shape": "parabola", "direction": "negative"},
+        "section": {"shape": "rhs", "h": 0.2, "b": 0.1, "t": 0.008, "manufacture": "cold-formed"},
+        "axis": "minor",
+        "material": {"E": 2.1e11, "fy": 3.55e8, "density": 7850, "name": "invented steel"},
+        "stiffness_factor": 0.8,
+        "check": {"method": "plastic", "gamma_M0": 1.05, "gamma_M1": 1.1, "deflection_limit": 300},
+    }
+
+
+def test_schema_is_a_valid_draft_2020_12_schema():
+    """The schema itself passes the draft 2020-12 meta-schema and names its draft and identifier."""
+    schema = case_schema()
+    jsonschema.Draft202012Validator.check_schema(schema)
+    assert schema["$schema"] == "https://json-schema.org/draft/2020-12/schema"
+    assert schema["$id"] == SCHEMA_ID
+
+
+def test_demo_case_and_readme_example_validate(validator):
+    """The shipped demo case and the README's example both pass the schema (and the engine reads both)."""
+    for mapping in (demo_mapping(), readme_example()):
+        assert list(validator.iter_errors(mapping)) == []
+        assert engine_accepts(mapping)
+
+
+def test_case_using_every_key_validates_and_round_trips(validator):
+    """A case with every key, and the engine's own to_dict() of it, both pass the schema."""
+    mapping = full_case()
+    assert engine_accepts(mapping)
+    assert list(validator.iter_errors(mapping)) == []
+    assert list(validator.iter_errors(engine.Case.from_dict(mapping).to_dict())) == []
+
+
+@pytest.mark.parametrize("section", [
+    {"name": "IPE 300"},
+    {"shape": "rolled_i", "h": 0.2, "b": 0.1, "tw": 0.0056, "tf": 0.0085, "r": 0.012},
+    {"shape": "welded_i", "h": 0.4, "b": 0.2, "tw": 0.008, "tf": 0.012, "a": 0.004},
+    {"shape": "chs", "D": 0.1143, "t": 0.005},
+    {"shape": "rectangle", "b": 0.045, "h": 0.195},
+    {"shape": "round", "D": 0.05},
+    {"shape": "custom", "A": 3.0e-3, "I": 2.0e-5, "W_el": 2.0e-4, "W_pl": 2.3e-4, "A_v": 1.5e-3},
+])
+def test_every_section_form_validates(validator, section):
+    """Each section form of the README passes the schema with a catalogued material, as in the engine."""
+    mapping = {"length": 4.0, "supports": {"left": "pinned", "right": "pinned"}, "section": section,
+               "material": {"name": "S355"}}
+    assert engine_accepts(mapping)
+    assert list(validator.iter_errors(mapping)) == []
+
+
+def broken(change):
+    """The valid `full_case` with `change` applied to a copy."""
+    mapping = copy.deepcopy(full_case())
+    change(mapping)
+    return mapping
+
+
+BROKEN = {
+    "unknown top-level key": broken(lambda m: m.update(lenght=5.0)),
+    "unknown load key": broken(lambda m: m["loads"][0].update(qq=1.0)),
+    "unknown section key": broken(lambda m: m["section"].update(depth=0.2)),
+    "length as text": broken(lambda m: m.update(length="5.0")),
+    "negative length": broken(lambda m: m.update(length=-5.0)),
+    "axial force as a boolean": broken(lambda m: m.update(axial_force=True)),
+    "misspelt support": broken(lambda m: m["supports"].update(right="pined")),
+    "negative spring": broken(lambda m: m["supports"]["left"].update(rotation=-1.0)),
+    "missing supports": broken(lambda m: m.pop("supports")),
+    "unknown load type": broken(lambda m: m["loads"][2].update(type="force")),
+    "point load without x": broken(lambda m: m["loads"][2].pop("x")),
+    "loads not a list": broken(lambda m: m.update(loads={"type": "uniform", "q": 1.0})),
+    "preset with an amplitude": broken(lambda m: m["imperfection"].update(amplitude=0.01)),
+    "span preset without ratio": broken(lambda m: m["imperfection"].pop("ratio")),
+    "ratio without the span preset": broken(lambda m: m.update(imperfection={"shape": "sine", "ratio": 300})),
+    "curve without a preset": broken(lambda m: m.update(imperfection={"shape": "sine", "amplitude": 0.01,
+                                                                     "curve": "b"})),
+    "no stiffness at all": broken(lambda m: [m.pop(k) for k in ("EI", "section")]),
+    "unknown check method": broken(lambda m: m["check"].update(method="ultimate")),
+    "stiffness factor above 1": broken(lambda m: m.update(stiffness_factor=1.2)),
+    "schema 2": broken(lambda m: m.update(schema=2)),
+    "title too long": broken(lambda m: m.update(title="x" * 201)),
+}
+
+
+@pytest.mark.parametrize("name", list(BROKEN))
+def test_broken_case_is_rejected_by_schema_and_engine(validator, name):
+    """Each broken case (unknown key, wrong type, range, combination) fails both the schema and the engine."""
+    mapping = BROKEN[name]
+    assert list(validator.iter_errors(mapping)) != [], name
+    assert not engine_accepts(mapping), name
+
+
+@settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(case=cases())
+def test_schema_accepts_every_case_the_engine_accepts(validator, case):
+    """Generated cases the engine reads pass the schema: it is never stricter than the engine."""
+    mapping = engine.Case.from_dict(case).to_dict()
+    assert list(validator.iter_errors(case)) == []
+    assert list(validator.iter_errors(mapping)) == []
+
+
+def test_schema_names_match_the_engine():
+    """The schema's lists of names (supports, loads, bows, shapes, kinds, methods) are the engine's own."""
+    import app.schema as schema
+    from engine import case, checks, materials, sections
+
+    assert schema.SUPPORT_NAMES == case.SUPPORT_NAMES
+    assert schema.BOW_SHAPES == case.IMPERFECTION_SHAPES
+    assert schema.BOW_PRESETS == case.IMPERFECTION_PRESETS
+    assert schema.SECTION_SHAPES == sections.SHAPES
+    assert schema.AXES == sections.AXES
+    assert schema.MATERIAL_KINDS == materials.MATERIAL_KINDS
+    assert schema.CHECK_METHODS == checks.METHODS
+    assert set(schema.LOAD_TYPES) == {"uniform", "linear", "point", "couple"}
+    described = case_schema()["$defs"]["section"]["oneOf"]
+    assert [entry["properties"]["shape"]["const"] for entry in described[1:]] == list(sections.SHAPES)
+
+
+def test_schema_command_prints_the_schema(tmp_path):
+    """`strutscope schema` exits 0 and prints exactly the schema app.schema builds."""
+    done = run_cli("schema", cwd=tmp_path)
+    assert done.returncode == 0, done.stderr
+    assert json.loads(done.stdout) == case_schema()
+    assert json.loads(schema_text()) == case_schema()
