@@ -323,9 +323,12 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
         raise CaseError("axial_forces: give at least one finite axial force [N]")
     prep = _prepare(case)
     model, pcr = prep.model, prep.buckling.critical_loads
-    allP = np.concatenate([P, [0.0]])
+    at_critical = _at_critical(P, pcr).any(axis=1)
+    # A force exactly at a critical load has no solution; solve a neighbour instead (its values become inf
+    # below), so that the batched solve does not fall back to one force at a time.
+    allP = np.concatenate([np.where(at_critical, P * (1.0 - 1e-6), P), [0.0]])
     batch = Batch(model, allP)
-    critical = _at_critical(P, pcr).any(axis=1) | batch.singular[:-1]
+    critical = at_critical | batch.singular[:-1]
     seg, xi, _, _ = prep.stations(n, strongest_tension_kappa(model, P))
     nP = allP.size
     iP = np.repeat(np.arange(nP), seg.size)
@@ -374,5 +377,6 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
         peak_moment=result["moment"][0], peak_moment_x=result["moment"][1],
         peak_shear=result["shear"][0], peak_shear_x=result["shear"][1],
         moment_amplification=amp_m, deflection_amplification=amp_d,
+        simple_amplification=np.where(P < pcr[0], 1.0 / np.where(P < pcr[0], 1.0 - P / pcr[0], 1.0), np.nan),
         stable=(P < pcr[0]) & ~critical, critical=critical, critical_loads=pcr.copy(), first_order=first,
     )

@@ -302,6 +302,10 @@ def critical_loads(case, count: int = 5) -> Buckling:
     """
     if not 1 <= count <= _MAX_COUNT:
         raise ValueError(f"count: {count} must be between 1 and {_MAX_COUNT}")
+    if case.EI is None or case.stiffness_factor != 1.0:
+        from engine.member import resolve  # EI from section × material, times the stiffness factor
+
+        case = resolve(case)[1]
     EI, L = float(case.EI), float(case.length)
     # The dimensionless problem depends only on the springs made dimensionless, so one search serves every
     # member with the same end conditions (a batch of pinned struts searches once).

@@ -109,7 +109,8 @@ def _first_order_projection(case, EI, shape_values, x):
     """∫ w1 · w0 dx of the loads' first-order deflection onto a bow shape (its sign is all that matters)."""
     from engine.solution import Batch, Model, Points
 
-    plain = dataclasses.replace(case, EI=EI, imperfection=Imperfection(), section=None, material=None)
+    plain = dataclasses.replace(case, EI=EI, imperfection=Imperfection(), section=None, material=None,
+                                stiffness_factor=1.0)
     model = Model(plain, Bow(shape="none", amplitude=0.0, length=plain.length))
     batch = Batch(model, [0.0])
     pts = Points(model, model.segment_of(x), x - model.xa[model.segment_of(x)])
@@ -155,7 +156,8 @@ def resolve(case):
         code_amp = L / ratio
         code_label = f"EN 1993-1-1 Table 5.1, curve {curve}, {method} analysis: L/{ratio}"
         code_source = "EN 1993-1-1:2005 Table 5.1 [text: Simões da Silva et al., ECCS 2010, table 2.20]"
-    plain = dataclasses.replace(case, EI=EI, imperfection=Imperfection(), section=None, material=None)
+    plain = dataclasses.replace(case, EI=EI, imperfection=Imperfection(), section=None, material=None,
+                                stiffness_factor=1.0)
     if imp.preset is None:
         shape, amplitude = imp.shape, imp.amplitude
         label = f"{shape}, amplitude {amplitude * 1e3:.2f} mm (given)" if shape != "none" else "no initial bow"

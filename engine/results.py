@@ -239,6 +239,8 @@ class SweepResult:
         max |V| [N] and where.
     moment_amplification, deflection_amplification : ndarray
         Exact ratios to the first-order values [-] (NaN only where the first-order value is zero).
+    simple_amplification : ndarray
+        The approximation 1/(1 − P/Pcr1) beside them [-]; NaN at and above Pcr1, where it means nothing.
     stable : ndarray of bool
         Below the first critical load.
     critical : ndarray of bool
@@ -260,6 +262,7 @@ class SweepResult:
     peak_shear_x: np.ndarray
     moment_amplification: np.ndarray
     deflection_amplification: np.ndarray
+    simple_amplification: np.ndarray
     stable: np.ndarray
     critical: np.ndarray
     critical_loads: np.ndarray

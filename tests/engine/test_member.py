@@ -108,3 +108,10 @@ def test_member_case_round_trips():
     again = engine.Case.from_dict(case.to_dict())
     assert again == case and hash(again) == hash(case)
     assert engine.Case.from_json(case.to_json()) == case
+
+
+def test_critical_loads_of_a_case_without_ei():
+    """engine.critical_loads takes its EI from section × material and the stiffness factor, like solve."""
+    case = engine.Case.from_dict(dict(BASE, stiffness_factor=0.8))
+    assert engine.critical_loads(case).critical_loads[0] == pytest.approx(engine.solve(case).critical_loads[0],
+                                                                          rel=1e-12)

@@ -52,3 +52,13 @@ def test_sweep_rejects_non_finite_forces():
     """NaN or inf axial forces raise CaseError naming axial_forces."""
     with pytest.raises(engine.CaseError, match="axial_forces"):
         engine.sweep(engine.Case.from_dict(CASE), [1.0, float("nan")])
+
+
+def test_sweep_gives_the_simple_amplification_beside_the_exact():
+    """simple_amplification is 1/(1 − P/Pcr1) below Pcr1 (Timoshenko & Gere 1961 ch. 1) and NaN from Pcr1 on."""
+    case = engine.Case.from_dict(CASE)
+    pcr1 = engine.critical_loads(case).critical_loads[0]
+    forces = np.array([-pcr1, 0.0, 0.5 * pcr1, pcr1, 1.5 * pcr1])
+    s = engine.sweep(case, forces)
+    np.testing.assert_allclose(s.simple_amplification[:3], 1.0 / (1.0 - forces[:3] / pcr1), rtol=1e-14)
+    assert np.isnan(s.simple_amplification[3:]).all()
