@@ -9,24 +9,56 @@ internet connection. Ctrl+C (or SIGTERM) stops the server cleanly.
 
 from __future__ import annotations
 
+import gc
 import ipaddress
+import os
 import signal
 import socket
 import sys
+import weakref
 from importlib import resources
 
-__all__ = ["DEFAULT_PORT", "add_arguments", "make_page", "run", "serve"]
+__all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", "serve"]
 
 #: The port used when none is given.
 DEFAULT_PORT = 5006
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
 _DEMO_CASE = "demo_wind_post.json"
+#: Shown on the page when the connection to the server is lost.
+DISCONNECTED = (
+    "strutscope lost its connection to the server. Start strutscope again and reload this page: "
+    "its address keeps the case."
+)
 
 
 def _demo_case():
     import engine
 
     return engine.Case.from_json(resources.files("assets").joinpath(_DEMO_CASE).read_text(encoding="utf-8"))
+
+
+#: Set (to anything) in a test or the reliability report to have the server log its live pages per session.
+DEBUG_SESSIONS_ENV = "STRUTSCOPE_DEBUG_SESSIONS"
+_PAGES: weakref.WeakSet = weakref.WeakSet()
+
+
+def _log_sessions(page) -> None:
+    """With STRUTSCOPE_DEBUG_SESSIONS set, print how many pages are still alive at each open and close.
+
+    Added for issue 6 (memory over many sessions): whether closed sessions' pages are released can only be
+    seen from inside the server, and the issue forbids a debug endpoint; the count goes to the server's log.
+    """
+    import panel as pn
+
+    _PAGES.add(page)
+    gc.collect()
+    print(f"strutscope-debug: session opened; pages alive {len(_PAGES)}", flush=True)
+
+    def closed(session_context) -> None:
+        gc.collect()
+        print(f"strutscope-debug: session closed; pages alive {len(_PAGES)}", flush=True)
+
+    pn.state.on_session_destroyed(closed)
 
 
 def make_page(case=None):
@@ -44,6 +76,8 @@ def make_page(case=None):
     if pn.state.location is not None:
         # The link is the settled case (never the axial force while it is dragged); see MemberState.link.
         pn.state.location.sync(state, {"link": "case", "units": "units"})
+    if os.environ.get(DEBUG_SESSIONS_ENV):
+        _log_sessions(page)
     return page
 
 
@@ -100,6 +134,9 @@ def serve(
         from app.page import page_stylesheet
 
         pn.config.raw_css = [*pn.config.raw_css, page_stylesheet()]
+        # Issue 6 found that a stopped server went unreported: the page stayed as it was and ignored input.
+        # Panel shows this message (in its notification area) when the websocket is lost.
+        pn.config.disconnect_notification = DISCONNECTED
         origins = [f"127.0.0.1:{port}", f"localhost:{port}"]
         if not _is_loopback(host):
             origins.append(f"{host}:{port}" if host not in ("0.0.0.0", "::") else f"*:{port}")

@@ -75,6 +75,9 @@ _RESTRAINTS = ("fixed", "free")
 # Bounds that keep every input inside what the solver handles in double precision.
 _MAX_LENGTH = 1000.0  # [m]
 _MAX_EI = 1e16  # [N·m²]
+# [N·m²]: below any structural member (a 1 mm steel wire has about 1e-2); smaller values only reach
+# the limits of double precision (found by fuzzing: EI = 1e-308 overflowed the spring scaling).
+_MIN_EI = 1e-3
 _MAX_AXIAL_FORCE = 1e12  # [N]
 _MAX_FORCE = 1e12  # [N/m] for line loads, [N] for point loads
 _MAX_COUPLE = 1e13  # [N·m]
@@ -763,7 +766,7 @@ class Case:
     length : float
         L [m], 0 < L <= 1000.
     EI : float or None
-        Bending stiffness [N·m²], 0 < EI <= 1e16. It may be left out when ``section`` and
+        Bending stiffness [N·m²], 1e-3 <= EI <= 1e16. It may be left out when ``section`` and
         ``material`` give it (E·I); when given it overrides them.
     left, right : EndSupport
         The supports at x = 0 and x = L.
@@ -847,8 +850,7 @@ class Case:
                        maximum=_MAX_LENGTH)
         _set(self, "length", length)
         if self.EI is not None:
-            _set(self, "EI", _real("EI", self.EI, "N·m²", minimum=0.0, minimum_exclusive=True,
-                                   maximum=_MAX_EI))
+            _set(self, "EI", _real("EI", self.EI, "N·m²", minimum=_MIN_EI, maximum=_MAX_EI))
         self._check_member()
         _set(self, "axial_force", _real("axial_force", self.axial_force, "N",
                                         magnitude=_MAX_AXIAL_FORCE))

@@ -142,6 +142,11 @@ def resolve(case):
     else:
         EI = material.E * section.I
         EI_source = f"E·I of {material.name} and {section.name} ({case.axis} axis)"
+    if EI < 1e-3:
+        from engine.errors import CaseError
+
+        raise CaseError(f"section: E·I = {EI!r} N·m² of this section and material is below 1e-3 N·m², "
+                        "smaller than any structural member")
     if case.stiffness_factor != 1.0:
         EI *= case.stiffness_factor
         EI_source += f", times the stiffness factor {case.stiffness_factor:g}"
