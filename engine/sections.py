@@ -49,6 +49,7 @@ from contextlib import contextmanager
 from dataclasses import dataclass, field
 from typing import Any
 
+from engine.case import _is_bool, _quoted, _show  # one wording for every field message
 from engine.errors import CaseError
 
 __all__ = [
@@ -72,7 +73,6 @@ _HOLLOW_MANUFACTURES = ("hot-finished", "cold-formed")
 
 # Dimensions above this are almost surely millimetres typed as metres; the message says so.
 _MAX_DIMENSION = 10.0  # [m]
-_REPR_LIMIT = 60
 # Relative slack for the consistency checks of a section's properties (rounding in a file or a formula).
 _RELATIVE_SLACK = 1e-9
 
@@ -90,27 +90,6 @@ _SPEC_KEYS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
 
 
 # ----------------------------------------------------------------------------- helpers
-
-
-def _show(value: Any) -> str:
-    """Return a short repr of a received value for an error message."""
-    if isinstance(value, numbers.Integral) and not _is_bool(value):
-        text = repr(int(value))
-    elif isinstance(value, numbers.Real) and not _is_bool(value):
-        try:
-            text = repr(float(value))
-        except (OverflowError, ValueError):
-            text = repr(value)
-    else:
-        text = repr(value)
-    if len(text) > _REPR_LIMIT:
-        text = text[: _REPR_LIMIT - 3] + "..."
-    return text
-
-
-def _is_bool(value: Any) -> bool:
-    # numpy.bool_ is not a subclass of bool, so match it by name too.
-    return isinstance(value, bool) or type(value).__name__ in ("bool_", "bool")
 
 
 def _g(value: float) -> str:
@@ -163,10 +142,6 @@ def _suggestion(word: Any, choices: tuple[str, ...] | list[str], n: int = 1) -> 
     if not matches:
         return ""
     return f" (did you mean {' or '.join(repr(lowered[m]) for m in matches)}?)"
-
-
-def _quoted(choices: tuple[str, ...] | list[str]) -> str:
-    return ", ".join(repr(choice) for choice in choices)
 
 
 def _mm(value: float) -> str:
