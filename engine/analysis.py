@@ -21,6 +21,7 @@ __all__ = ["solve", "sweep"]
 CRITICAL_TOLERANCE = 1e-10
 _FIELDS = ("w", "rotation", "M", "T", "V", "w0")
 _MAX_STATIONS = 100_000
+_FIVE = np.arange(5)
 
 
 def _check_stations(stations) -> int:
@@ -86,6 +87,7 @@ class _Prepared:
             pts = Points(self.model, seg, xi, ends=ends)
             shown_idx = np.nonzero(shown)[0]
             pts.order_key = (shown_idx, seg[shown_idx] * 2.0 * self.model.L + xi[shown_idx])
+            pts.x_exact = self.model.position(seg, xi)  # x, exactly the node at a segment's end
             self._stations[key] = (seg, xi, shown, pts)
         return self._stations[key]
 
@@ -95,7 +97,7 @@ class _Prepared:
             batch = Batch(self.model, [0.0])
             seg, xi, shown, pts = self.stations(count, 0.0)
             st = batch.states(0, pts)
-            _, ps, px, pk = refine_peaks(batch, 0, pts, *batch.targets(st, pts))
+            _, ps, px, pk = refine_peaks(batch, 0, pts, *batch.targets(st, pts), states=st)
             m = max(float(np.abs(st["M"]).max()), float(np.abs(pk["M"]).max(initial=0.0)))
             d = max(float(np.abs(st["w"] + st["w0"]).max()), float(np.abs(pk["w"] + pk["w0"]).max(initial=0.0)))
             ends = (float(st["M"][0]), float(st["M"][-1]))
@@ -128,16 +130,24 @@ def _merged_order(pts, extra_seg, extra_xi, L):
     """Indices into [base stations, extra points] that list the shown base stations and the extra points
     along the member, dropping an extra point that repeats a station or another extra point."""
     base_idx, base_key = pts.order_key
-    key = extra_seg * 2.0 * L + extra_xi
+    padded = pts.__dict__.get("_padded_key")
+    if padded is None:  # the shown stations' keys between -inf and +inf, so that both neighbours always exist
+        padded = pts._padded_key = np.concatenate([[-np.inf], base_key, [np.inf]])
+    key = extra_seg * (2.0 * L) + extra_xi
     eo = np.argsort(key, kind="stable")
     key = key[eo]
     pos = np.searchsorted(base_key, key)
     tol = 1e-11 * L
-    last = base_key.size - 1
-    dup = (np.abs(key - base_key[np.maximum(pos - 1, 0)]) <= tol) | (np.abs(base_key[np.minimum(pos, last)] - key) <= tol)
-    dup[1:] |= np.diff(key) <= tol
-    keep = ~dup
-    return np.insert(base_idx, pos[keep], pts.size + eo[keep])
+    keep = np.minimum(key - padded[pos], padded[pos + 1] - key) > tol
+    keep[1:] &= np.diff(key) > tol
+    pos = pos[keep]
+    out = np.empty(base_idx.size + pos.size, dtype=base_idx.dtype)
+    at = pos + np.arange(pos.size)  # where each kept extra point lands (pos is sorted)
+    rest = np.ones(out.size, dtype=bool)
+    rest[at] = False
+    out[at] = pts.size + eo[keep]
+    out[rest] = base_idx
+    return out
 
 
 def _peak(x, values) -> Peak:
@@ -176,8 +186,13 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
     else:
         w, rot, M, T, V = st["w"], st["rotation"], st["M"], st["T"], st["V"]
     total = w + w0
-    governing = Governing(deflection=_peak(x, w), total_offset=_peak(x, total), moment=_peak(x, M),
-                          shear=_peak(x, V), transverse_force=_peak(x, T))
+    # The five governing values with one pass over a stacked array (no NaN here: critical values are +inf).
+    stacked = np.stack((w, total, M, V, T))
+    at = np.abs(stacked).argmax(axis=1)
+    values, where = stacked[_FIVE, at].tolist(), x[at].tolist()
+    governing = Governing(deflection=Peak(value=values[0], x=where[0]), total_offset=Peak(value=values[1], x=where[1]),
+                          moment=Peak(value=values[2], x=where[2]), shear=Peak(value=values[3], x=where[3]),
+                          transverse_force=Peak(value=values[4], x=where[4]))
     source = None
     if not first_order:
         def source(result, seg=seg, xi=xi):
@@ -200,13 +215,13 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
         L = model.L
         # Judge the residual against every force in play: loads, reactions, couples over the span, and the
         # largest shear and transverse force (a couple alone has reactions of rounding size).
-        scale_t = (model.load_scale + abs(tl) + abs(tr) + np.abs(model.couple).sum() / model.L
-                   + float(np.abs(V).max()) + float(np.abs(T).max()))
+        couples = model.couple_scale
+        scale_t = model.load_scale + abs(tl) + abs(tr) + couples / model.L + abs(values[3]) + abs(values[4])
         res_t = (tl - tr - model.total_load) / scale_t if scale_t > 0 else 0.0
         drift = float(total[-1] - total[0])
         lhs = mr - ml - model.total_couple
         rhs = L * tl - model.total_moment + P * drift
-        scale_m = abs(ml) + abs(mr) + np.abs(model.couple).sum() + L * (abs(tl) + model.load_scale) + abs(P * drift)
+        scale_m = abs(ml) + abs(mr) + couples + L * (abs(tl) + model.load_scale) + abs(P * drift)
         res_m = (lhs - rhs) / scale_m if scale_m > 0 else 0.0
         equilibrium = Equilibrium(transverse=float(res_t), moment=float(res_m))
         if first_order:
@@ -286,17 +301,21 @@ def solve(case, stations: int = 401) -> Result:
         ps, px = np.empty(0, dtype=int), np.empty(0)
     else:
         st = batch.states(0, pts)
-        _, ps, px, ext = refine_peaks(batch, 0, pts, *batch.targets(st, pts), also=(first_seg, first_xi))
+        _, ps, px, ext = refine_peaks(batch, 0, pts, *batch.targets(st, pts), also=(first_seg, first_xi),
+                                       states=st)
     # The peaks of both orders become stations, so that first_order shares x and both are exact there.
     extra_seg, extra_xi = np.concatenate([ps, first_seg]), np.concatenate([px, first_xi])
-    all_seg, all_xi = np.concatenate([seg, extra_seg]), np.concatenate([xi, extra_xi])
     order = _merged_order(pts, extra_seg, extra_xi, model.L)
-    seg, xi = all_seg[order], all_xi[order]
-    x = model.position(seg, xi)
+    seg, xi = np.concatenate([seg, extra_seg])[order], np.concatenate([xi, extra_xi])[order]
+    x = np.concatenate([pts.x_exact, model.position(extra_seg, extra_xi)])[order]
     if status == "critical":
         values = {"w0": model.bow.derivatives(x)[0]}
     else:
-        values = {name: np.concatenate([st[name], ext[name]])[order] for name in _FIELDS}
+        # One gather for all six fields: rows of one array (each row is contiguous).
+        base = st["_table"][0][:6] if "_table" in st else np.stack([st[name] for name in _FIELDS])
+        extra = ext["_rows"] if "_rows" in ext else np.stack([ext[name] for name in _FIELDS])
+        both = np.concatenate([base, extra], axis=1)[:, order]
+        values = dict(zip(_FIELDS, both))
     return _build(case, prep, n, P, values, x, seg, xi, status=status, n_crit=n_crit)
 
 

@@ -55,20 +55,26 @@ def percentile(values: list[float], share: float) -> float:
     return ordered[min(len(ordered) - 1, max(0, round(share * len(ordered)) - 1))]
 
 
+def open_and_close(browser, url: str, count: int) -> None:
+    """Open `count` sessions (each its own browser context, drawn), then close them all."""
+    contexts = []
+    for _ in range(count):
+        context = browser.new_context(viewport=VIEWPORT)
+        context.set_default_timeout(TIMEOUT_MS)
+        contexts.append(context)
+        open_page(context, url)
+    for context in contexts:
+        context.close()
+
+
 def churn(browser, url: str, total: int, batch: int, server: Server) -> dict:
     """Open and close `total` sessions, `batch` at a time; RSS after the first 20 and after all."""
     figures = {}
     done = 0
     while done < total:
-        contexts = []
-        for _ in range(min(batch, total - done)):
-            context = browser.new_context(viewport=VIEWPORT)
-            context.set_default_timeout(TIMEOUT_MS)
-            contexts.append(context)
-            open_page(context, url)
-        for context in contexts:
-            context.close()
-        done += len(contexts)
+        step = min(batch, total - done)
+        open_and_close(browser, url, step)
+        done += step
         if done == 20:
             figures["rss_after_20"] = rss_mb(server.process.pid)
     figures["rss_after_all"] = rss_mb(server.process.pid)
