@@ -99,7 +99,7 @@ COLUMNS: tuple[Column, ...] = (
     Column(name="id", required=True,
            description="The member's identifier: letters, digits, '.', '_' and '-', up to 64 characters, "
                        "unique in the table (it names the calc sheet <id>.pdf)."),
-    Column(name="length_m", required=True, description="Length L [m], > 0 and <= 1000."),
+    Column(name="length_m", required=True, description="Length L [m], 0.001 to 1000."),
     Column(name="left", required=True,
            description="Support at x = 0 (the bottom of a vertical member): pinned, fixed, free or guided."),
     Column(name="right", required=True, description="Support at x = L: pinned, fixed, free or guided."),

@@ -276,7 +276,7 @@ def _build() -> dict[str, Any]:
     properties = {
         "schema": {"const": 1, "description": "Case-file schema version; only 1 is known. Default 1."},
         "title": {"type": "string", "maxLength": 200, "description": "Free text, at most 200 characters."},
-        "length": _number("L [m], > 0 and <= 1000", exclusiveMinimum=0, maximum=1000),
+        "length": _number("L [m], 0.001 to 1000", minimum=0.001, maximum=1000),
         "EI": _number("Bending stiffness [N·m²], > 0 and <= 1e16. May be left out when 'section' and "
                       "'material' give it; overrides them when given.", exclusiveMinimum=0, maximum=1e16),
         "supports": _closed({"left": _end("left", "0"), "right": _end("right", "L")}, ("left", "right"),

@@ -211,7 +211,7 @@ class MemberState(param.Parameterized):
         default=6.0,
         softbounds=(0.5, 30.0),
         doc="Span L [m], from the left end (x = 0, the bottom of a post) to the right end; "
-        "the engine allows 0 < L <= 1000 m.",
+        "the engine allows 0.001 <= L <= 1000 m.",
     )
 
     left_end = param.Selector(

@@ -74,6 +74,8 @@ _RESTRAINTS = ("fixed", "free")
 
 # Bounds that keep every input inside what the solver handles in double precision.
 _MAX_LENGTH = 1000.0  # [m]
+# [m]: shorter than any member; fuzzing found L = 1e-200, whose L² underflows to zero in the critical loads.
+_MIN_LENGTH = 1e-3
 _MAX_EI = 1e16  # [N·m²]
 # [N·m²]: below any structural member (a 1 mm steel wire has about 1e-2); smaller values only reach
 # the limits of double precision (found by fuzzing: EI = 1e-308 overflowed the spring scaling).
@@ -764,7 +766,7 @@ class Case:
     Parameters
     ----------
     length : float
-        L [m], 0 < L <= 1000.
+        L [m], 0.001 <= L <= 1000.
     EI : float or None
         Bending stiffness [N·m²], 1e-3 <= EI <= 1e16. It may be left out when ``section`` and
         ``material`` give it (E·I); when given it overrides them.
@@ -846,8 +848,7 @@ class Case:
                 f"title: text of {len(self.title)} characters is too long; at most "
                 f"{_MAX_TITLE} characters are allowed"
             )
-        length = _real("length", self.length, "m", minimum=0.0, minimum_exclusive=True,
-                       maximum=_MAX_LENGTH)
+        length = _real("length", self.length, "m", minimum=_MIN_LENGTH, maximum=_MAX_LENGTH)
         _set(self, "length", length)
         if self.EI is not None:
             _set(self, "EI", _real("EI", self.EI, "N·m²", minimum=_MIN_EI, maximum=_MAX_EI))

@@ -198,7 +198,7 @@ def test_every_bad_row_is_reported_with_its_row_number_and_column(mixed_run):
             assert got["Pcr1_kN"] == ""
     messages = {key: got["message"] for key, got in zip(ORDER, rows, strict=True)}
     assert "'HEB 990' is not in the catalogue" in messages["B1"]
-    assert "-3.0 m must be > 0" in messages["B2"]
+    assert "-3.0 m must be >= 0.001" in messages["B2"]
     assert "'7-2.0' is not a point load" in messages["B3"]
     assert "mechanism" in messages["B4"]
     assert "loads[2].x: 9.0 m lies outside the member" in messages["B5"]

@@ -105,7 +105,7 @@ def test_bad_input_shows_the_engine_message_and_keeps_the_plots(page):
     before = dict(page.stations.data)
     page.length_input.value = -1.0
     errors = visible_errors(page)
-    assert any("length: -1.0 m must be &gt; 0 and &lt;= 1000 m" in text for text in errors)
+    assert any("length: -1.0 m must be &gt;= 0.001 and &lt;= 1000 m" in text for text in errors)
     assert page.stale.visible
     np.testing.assert_array_equal(page.stations.data["M2"], before["M2"])
     page.length_input.value = 6.0

@@ -148,7 +148,7 @@ def test_bad_input_shows_the_engines_message_and_keeps_the_plots(app):
     page = app.page
     before = stations(page)
     set_number(page, "Span L [m]", -1)
-    expect(page.get_by_text("length: -1.0 m must be > 0 and <= 1000 m").first).to_be_visible()
+    expect(page.get_by_text("length: -1.0 m must be >= 0.001 and <= 1000 m").first).to_be_visible()
     expect(page.get_by_text("Input not accepted")).to_be_visible()
     assert stations(page) == before
     assert app.errors == []

@@ -305,9 +305,9 @@ def delete_path(mapping, path):
 # (mutation of the conventions example, text the CaseError message must contain).
 # Loads of the example: 0 uniform, 1 uniform 1.0-3.5, 2 linear 0-6, 3 point at 2, 4 couple at 6.
 BAD_INPUT = [
-    (("set", "length", -1.0), "length: -1.0 m must be > 0 and <= 1000 m"),
-    (("set", "length", 0), "length: 0.0 m must be > 0 and <= 1000 m"),
-    (("set", "length", 1000.5), "length: 1000.5 m must be > 0 and <= 1000 m"),
+    (("set", "length", -1.0), "length: -1.0 m must be >= 0.001 and <= 1000 m"),
+    (("set", "length", 0), "length: 0.0 m must be >= 0.001 and <= 1000 m"),
+    (("set", "length", 1000.5), "length: 1000.5 m must be >= 0.001 and <= 1000 m"),
     (("set", "EI", 0.0), "EI: 0.0 N·m² must be >= 0.001 and <= 1e+16 N·m²"),
     (("set", "EI", 2e16), "EI: 2e+16 N·m² must be >= 0.001 and <= 1e+16"),
     (("set", "EI", 1e-4), "EI: 0.0001 N·m² must be >= 0.001"),
@@ -558,7 +558,7 @@ def test_positions_at_the_ends_are_accepted():
         (lambda: simple_case(imperfection="sine"), "imperfection: 'sine' is not an Imperfection"),
         (lambda: simple_case(schema=2), "schema: 2 is not a known case-file schema version"),
         (lambda: simple_case(title=None), "title: None is not text"),
-        (lambda: simple_case(length=-1.0), "length: -1.0 m must be > 0 and <= 1000 m"),
+        (lambda: simple_case(length=-1.0), "length: -1.0 m must be >= 0.001 and <= 1000 m"),
     ],
     ids=lambda item: item if isinstance(item, str) else None,
 )
