@@ -231,6 +231,12 @@ def _esc(text) -> str:
     return html.escape(str(text), quote=True)
 
 
+
+def _download(callback, suffix: str, label: str, width: int, margin=(10, 3)):
+    """A download button of the page: the file strutscope-case.<suffix>, written by `callback` on click."""
+    return pn.widgets.FileDownload(callback=callback, filename=f"strutscope-case.{suffix}", label=label,
+                                   color="light", width=width, margin=margin, stylesheets=[_WIDGET_CSS])
+
 class MemberPage(pn.viewable.Viewer):
     """The member explorer for one session: inputs, the axial-force control, plots, values and cautions.
 
@@ -702,42 +708,10 @@ class MemberPage(pn.viewable.Viewer):
             stylesheets=[_WIDGET_CSS],
         )
         self.units_switch.param.watch(lambda event: setattr(self.model, "units", event.new), "value")
-        self.download_png = pn.widgets.FileDownload(
-            callback=self._png,
-            filename="strutscope-case.png",
-            label="Figure PNG",
-            color="light",
-            width=104,
-            margin=(10, 3),
-            stylesheets=[_WIDGET_CSS],
-        )
-        self.download_csv = pn.widgets.FileDownload(
-            callback=self._csv,
-            filename="strutscope-case.csv",
-            label="Stations CSV",
-            color="light",
-            width=112,
-            margin=(10, 3),
-            stylesheets=[_WIDGET_CSS],
-        )
-        self.download_pdf = pn.widgets.FileDownload(
-            callback=self._pdf,
-            filename="strutscope-case.pdf",
-            label="Calc sheet PDF",
-            color="light",
-            width=124,
-            margin=(10, 3),
-            stylesheets=[_WIDGET_CSS],
-        )
-        self.download_json = pn.widgets.FileDownload(
-            callback=self._json,
-            filename="strutscope-case.json",
-            label="Save this case as JSON",
-            color="light",
-            width=180,
-            margin=(2, 4, 4, 6),
-            stylesheets=[_WIDGET_CSS],
-        )
+        self.download_png = _download(self._png, "png", "Figure PNG", 104)
+        self.download_csv = _download(self._csv, "csv", "Stations CSV", 112)
+        self.download_pdf = _download(self._pdf, "pdf", "Calc sheet PDF", 124)
+        self.download_json = _download(self._json, "json", "Save this case as JSON", 180, margin=(2, 4, 4, 6))
         self.upload = pn.widgets.FileInput(
             accept=".json,application/json",
             width=280,

@@ -281,7 +281,7 @@ class MemberState(param.Parameterized):
         allow_None=True,
         default=4.2e6,
         softbounds=(1.0e4, 1.0e9),
-        doc="Bending stiffness EI [N·m²] when given directly; the engine allows 0 < EI <= 1e16.",
+        doc="Bending stiffness EI [N·m²] when given directly; the engine allows 1e-3 <= EI <= 1e16.",
     )
     stiffness_factor = param.Number(
         allow_None=True,

@@ -28,13 +28,13 @@ import math
 
 import numpy as np
 
-__all__ = ["SERIES_LIMIT", "phi_series", "phi_closed", "phi", "xi_powers"]
+__all__ = ["SERIES_LIMIT", "SERIES_TERMS", "phi_series", "phi_closed", "phi", "xi_powers"]
 
 #: The series is used where |s| ξ² is at most this value [-] (|k ξ| <= 2).
 SERIES_LIMIT = 4.0
 
 # At most 13 terms: the truncation error is below 4**13 / 30! ~ 3e-25 relative for |s xi^2| <= 4.
-_TERMS = 13
+_TERMS = SERIES_TERMS = 13
 _COEF45 = np.array([[1.0 / math.factorial(4 + 2 * j), 1.0 / math.factorial(5 + 2 * j)] for j in range(_TERMS)])
 
 

@@ -35,7 +35,7 @@ import math
 
 import numpy as np
 
-from engine.functions import SERIES_LIMIT, phi_series, xi_powers
+from engine.functions import SERIES_LIMIT, SERIES_TERMS, phi_series, xi_powers
 from engine.supports import boundary_rows
 
 __all__ = ["Model", "Batch", "Points", "base_stations", "refine_peaks"]
@@ -368,7 +368,6 @@ def _resonant_series(sigma, theta, t):
     return out
 
 
-_TABLE_TERMS = 13  # series terms of the station table; as functions.py: enough for |s| h² <= 4
 
 
 def _table_coefficients(model, pts, J):
@@ -423,7 +422,7 @@ class _StationTable:
     """
 
     def __init__(self, model, pts):
-        J = _TABLE_TERMS
+        J = SERIES_TERMS
         EI = model.EI
         with np.errstate(over="ignore", under="ignore"):
             full = _table_coefficients(model, pts, J)
@@ -567,7 +566,7 @@ class Batch:
         if rows is not None:
             # The rows at the segment ends and the stations' columns, from the stations' table.
             B, p, columns = rows
-            self._table = (at, columns)
+            self._table = (at, at.table(model), columns)
         elif nP == 1 and at is not None and at.ends is not None:
             # One evaluation serves both the assembly (at the segment ends) and the stations themselves.
             cols, part = model.columns(P[0], at)
@@ -666,10 +665,11 @@ class Batch:
         model = self.model
         P = self.P[iP]
         if self._table is not None and self._table[0] is pts and np.ndim(iP) == 0:
-            out = pts.table(model).state(float(P), self.coefficients[iP], self._table[1])
+            _, table, columns = self._table
+            out = table.state(float(P), self.coefficients[iP], columns)
             w0, d1, d2, d3 = pts.bow
             st = {"w": out[0], "rotation": out[1], "M": out[2], "T": out[3], "V": out[4], "w0": w0, "w0_1": d1,
-                  "w0_2": d2, "w0_3": d3, "P": P, "_table": (out, self._table[1][0])}
+                  "w0_2": d2, "w0_3": d3, "P": P, "_table": (out, columns[0])}
             self._targets = (st, out[_TARGET_ROWS], out[_TARGET_SLOPE_ROWS])
             return st
         if self._reuse is not None and self._reuse[0] is pts:

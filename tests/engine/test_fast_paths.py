@@ -50,7 +50,6 @@ def _exact_states(case, result):
     first_of_pair = np.zeros(x.size, dtype=bool)
     first_of_pair[:-1] = x[:-1] == x[1:]
     seg = np.where(first_of_pair, np.maximum(seg - 1, 0), seg)
-    # The last station (x = L) and any node that ends the listing belong to the segment on their left.
     xi = x - model.xa[seg]
     batch = solution.Batch(model, [case.axial_force])
     return batch.states(0, solution.Points(model, seg, xi)), model
@@ -88,24 +87,22 @@ def test_interior_peaks_are_zeros_of_their_targets(left, right, fraction):
         assert at_node or abs(target[i]) <= 1e-9 * float(np.abs(target).max()), (name, peak.x)
 
 
-def test_the_fast_paths_are_the_ones_used_on_the_benchmark_like_case():
+def test_the_fast_paths_are_the_ones_used_on_the_benchmark_like_case(monkeypatch):
     """Guard against a silent fallback: the table and the series both apply to an ordinary spring case."""
     case = _case(*SUPPORTS[-1], "sine", 0.5)
-    prep = analysis._prepare(case)
-    seg, xi, shown, pts = prep.stations(401, 0.0)
-    batch = solution.Batch(prep.model, [case.axial_force], at=pts)
-    assert batch._table is not None
-    st_ = batch.states(0, pts)
-    f, df = batch.targets(st_, pts)
-    _, first_seg, first_xi, *_ = prep.first_order(401)
-    mag = np.abs(f)
-    zero = mag <= 1e-13 * mag.max(axis=1, keepdims=True)
-    left_side, right_side = np.where(zero, df, f), np.where(zero, -df, f)
-    fid, k = np.nonzero((left_side[:, :-1] * right_side[:, 1:] < 0) & pts.same_segment[None, :])
-    lo, hi = pts.xi[k], pts.xi[k + 1]
-    x0 = lo - left_side[fid, k] * (hi - lo) / (right_side[fid, k + 1] - left_side[fid, k])
-    fast = solution._refine_by_series(batch, pts, st_, fid, k, lo, hi, x0, (first_seg, first_xi))
-    assert fast is not None and fast[2].size == k.size
+    engine.clear_caches()
+    calls = []
+    series = solution._refine_by_series
+
+    def spy(batch, pts, st_, fid, k, *rest):
+        fast = series(batch, pts, st_, fid, k, *rest)
+        calls.append((batch._table is not None, fast is not None and fast[2].size == k.size))
+        return fast
+
+    monkeypatch.setattr(solution, "_refine_by_series", spy)
+    engine.solve(case)
+    # Every refinement (the first order's, then the solve's) took the series; the solve's batch used the table.
+    assert calls and all(fast for _, fast in calls) and calls[-1][0], calls
 
 
 def test_strong_tension_falls_back_and_still_matches():
