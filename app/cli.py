@@ -788,15 +788,35 @@ def main(argv: Sequence[str] | None = None) -> int:
     _allow_any_text(sys.stdout)
     _allow_any_text(sys.stderr)
     parser = _build_parser()
+    argv = list(sys.argv[1:] if argv is None else argv)
+    if _means_serve(argv):
+        # A bare `strutscope`, `strutscope --port 8123 --no-browser` or `strutscope post.json` serve the page.
+        argv = ["serve", *argv]
     try:
         args = parser.parse_args(argv)
     except SystemExit as stop:  # argparse exits for --help, --version and usage errors
         return stop.code if isinstance(stop.code, int) else (0 if stop.code is None else 2)
-    handler = getattr(args, "handler", None)
-    if handler is None:
-        # A bare `strutscope` serves the page on the demo case.
-        return _serve(parser.parse_args(["serve"]))
-    return handler(args)
+    return args.handler(args)
+
+
+_COMMANDS = ("solve", "batch", "schema", "serve")
+
+
+def _means_serve(argv: list[str]) -> bool:
+    """Whether the arguments are the `serve` command's without its name.
+
+    Nothing, a serve option (``--port``, ``--no-browser``, ``--host``) or a case file first mean `serve`;
+    ``--help`` and ``--version`` stay the program's own, and an unknown word that is not a file is left to
+    argparse, which names the commands.
+    """
+    if not argv:
+        return True
+    first = argv[0]
+    if first in _COMMANDS or first in ("-h", "--help", "--version"):
+        return False
+    if first.startswith("-"):
+        return True
+    return first.lower().endswith(".json") or os.path.exists(first)
 
 
 if __name__ == "__main__":

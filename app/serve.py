@@ -20,8 +20,12 @@ from importlib import resources
 
 __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", "serve"]
 
-#: The port used when none is given.
-DEFAULT_PORT = 5006
+#: The port used when none is given: one of our own (S-T-R-U on a phone keypad), not Panel's 5006, so that
+#: strutscope does not collide with another Panel app the user already runs. When it is taken, the next free
+#: port above it is used and the one line printed at start-up says so.
+DEFAULT_PORT = 7878
+#: How many ports above the default are tried when it is taken.
+_PORT_TRIES = 20
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
 _DEMO_CASE = "demo_wind_post.json"
 #: Shown on the page when the connection to the server is lost.
@@ -120,6 +124,53 @@ def _free_port(host: str) -> int:
         return probe.getsockname()[1]
 
 
+def _port_is_free(host: str, port: int) -> bool:
+    """Whether a listening socket could bind `host`:`port` now (with SO_REUSEADDR, as the server binds)."""
+    family = socket.AF_INET6 if ":" in host else socket.AF_INET
+    with socket.socket(family, socket.SOCK_STREAM) as probe:
+        probe.setsockopt(socket.SOL_SOCKET, socket.SO_REUSEADDR, 1)
+        try:
+            probe.bind((host, port))
+        except OSError:
+            return False
+    return True
+
+
+def _next_free_port(host: str, port: int) -> int | None:
+    """The first free port above `port` (within a few tries), or None."""
+    for candidate in range(port + 1, min(port + 1 + _PORT_TRIES, 65536)):
+        if _port_is_free(host, candidate):
+            return candidate
+    return None
+
+
+def choose_port(host: str, port: int | None) -> tuple[int | None, str | None]:
+    """The port to serve on, and a one-line note (or an error when the port was asked for and is taken).
+
+    Parameters
+    ----------
+    host : str
+    port : int or None
+        The port the user asked for; None for the default. 0 picks any free port.
+
+    Returns
+    -------
+    port : int or None
+        None when the asked-for port is taken (the note is then the error message).
+    note : str or None
+    """
+    if port == 0:
+        return _free_port(host), None
+    wanted = DEFAULT_PORT if port is None else port
+    if _port_is_free(host, wanted):
+        return wanted, None
+    spare = _next_free_port(host, wanted)
+    if port is None and spare is not None:
+        return spare, f"port {wanted} is in use (another program is serving there); using port {spare}"
+    offer = f"; port {spare} is free: strutscope --port {spare}" if spare is not None else ""
+    return None, f"port {wanted} on {host} is in use by another program{offer}"
+
+
 def _is_loopback(host: str) -> bool:
     if host in _LOOPBACK:
         return True
@@ -130,7 +181,7 @@ def _is_loopback(host: str) -> bool:
 
 
 def serve(
-    case_path=None, port: int = DEFAULT_PORT, open_browser: bool = True, host: str = "127.0.0.1"
+    case_path=None, port: int | None = None, open_browser: bool = True, host: str = "127.0.0.1"
 ) -> int:
     """Serve the page until Ctrl+C; return the exit code (0 when stopped, 2 for a case or port problem).
 
@@ -138,8 +189,10 @@ def serve(
     ----------
     case_path : str or path-like, optional
         A case file (JSON, schema 1) to open; the invented demo case when None.
-    port : int
-        The port; 0 picks a free one. The URL is printed either way.
+    port : int, optional
+        The port; 0 picks a free one; None is :data:`DEFAULT_PORT`, or the next free port above it when it is
+        taken. A port asked for that is taken is an error that names the next free one. The URL is printed
+        either way.
     open_browser : bool
         Open the page in the default browser once the server listens.
     host : str
@@ -158,9 +211,13 @@ def serve(
         except OSError as error:
             print(f"error: {case_path}: cannot read the file: {error.strerror or error}", file=sys.stderr)
             return 2
+    port, note = choose_port(host, port)
+    if port is None:
+        print(f"error: {note}", file=sys.stderr)
+        return 2
+    if note is not None:
+        print(f"strutscope: {note}", flush=True)
     try:
-        if port == 0:
-            port = _free_port(host)
         import panel as pn
 
         from app.page import page_stylesheet
@@ -222,9 +279,9 @@ def add_arguments(parser) -> None:
     parser.add_argument(
         "--port",
         type=_port,
-        default=DEFAULT_PORT,
+        default=None,
         metavar="N",
-        help=f"port to serve on (default {DEFAULT_PORT}; 0 picks a free one)",
+        help=f"port to serve on (default {DEFAULT_PORT}, or the next free one above it; 0 picks any free one)",
     )
     parser.add_argument("--no-browser", action="store_true", help="do not open a browser")
     parser.add_argument(
@@ -252,7 +309,7 @@ def run(args) -> int:
     """Run ``strutscope serve`` with parsed `args` (``case``, ``port``, ``no_browser``, ``host``)."""
     return serve(
         getattr(args, "case", None),
-        port=getattr(args, "port", DEFAULT_PORT),
+        port=getattr(args, "port", None),
         open_browser=not getattr(args, "no_browser", False),
         host=getattr(args, "host", "127.0.0.1"),
     )

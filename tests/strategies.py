@@ -1,7 +1,7 @@
 """Shared hypothesis strategies for strutscope's property tests.
 
 Every strategy here builds plain schema-1 case data as the contract writes it
-(``/work/shared/design/conventions.md``), ready for ``engine.Case.from_dict``. Nothing here imports the
+(DEVELOPERS.md, "Conventions"), ready for ``engine.Case.from_dict``. Nothing here imports the
 engine, so the strategies stay usable while the engine changes.
 
 The axial force is left at zero on purpose. A strategy cannot know the first critical load before the case

@@ -85,7 +85,7 @@ def test_printed_first_critical_load_matches_engine_and_euler(tmp_path):
     # Printed to 5 significant figures, so within half a unit in the fifth figure.
     assert printed_kN == pytest.approx(expected_kN, rel=1e-4)
     # The demo is pinned–pinned, so Pcr1 is the Euler load π²EI/L² (Timoshenko & Gere, Theory of Elastic
-    # Stability, 2nd ed., 1961, ch. 2; chapter number from memory; design/references.md §2). Same tolerance.
+    # Stability, 2nd ed., 1961, ch. 2; chapter number from memory; tests/REFERENCES.md §2). Same tolerance.
     EI = engine.solve(case).EI  # E·I of the demo's section and material
     assert printed_kN == pytest.approx(math.pi**2 * EI / case.length**2 / 1e3, rel=1e-4)
 
@@ -103,7 +103,7 @@ def test_case_at_critical_load_prints_unbounded_values(tmp_path):
     """At P = Pcr1 the summary shows "critical" and "unbounded" (no NaN), with exit code 0 and the caution."""
     length, EI = 6.0, 4.2e6
     # Euler load of a pinned–pinned member, π²EI/L² (Timoshenko & Gere, Theory of Elastic Stability, 2nd ed.,
-    # 1961, ch. 2; chapter number from memory; design/references.md §2).
+    # 1961, ch. 2; chapter number from memory; tests/REFERENCES.md §2).
     euler = math.pi**2 * EI / length**2
     path = write_case(tmp_path / "critical.json", length=length, EI=EI, axial_force=euler)
     done = run_cli("solve", str(path), cwd=tmp_path)

@@ -27,6 +27,21 @@ CHROMIUM_ARGS = [
     "--no-first-run",
 ]
 TIMEOUT_MS = 45_000  # a generous limit for any one wait on the page
+
+
+def use_suite_timeout() -> None:
+    """Make Playwright's `expect` wait up to :data:`TIMEOUT_MS` too (its own default is 5 s).
+
+    Locator actions take the context's default timeout (set in the `context` fixture), but `expect` has a
+    separate one: a busy machine made `expect` calls fail after 5 s while everything else waited 45 s.
+    Applied at import, so every module that imports this one (the reliability tests do) gets it.
+    """
+    from playwright.sync_api import expect
+
+    expect.set_options(timeout=TIMEOUT_MS)
+
+
+use_suite_timeout()
 VIEWPORT = {"width": 1280, "height": 720}
 _URL = re.compile(r"at (http://127\.0\.0\.1:\d+/)")
 
@@ -44,12 +59,12 @@ def serve_command() -> list[str]:
 class Server:
     """A running `strutscope serve` subprocess and the URL it printed."""
 
-    def __init__(self, *args: str, cwd) -> None:
+    def __init__(self, *args: str, cwd, command: tuple[str, ...] = ("serve", "--no-browser", "--port", "0")) -> None:
         env = dict(os.environ, PYTHONIOENCODING="utf-8", PYTHONUNBUFFERED="1")
         # The checkout under test goes first on the path, whatever copy of the package is installed.
         env["PYTHONPATH"] = os.pathsep.join(filter(None, [str(REPO_ROOT), env.get("PYTHONPATH")]))
         self.process = subprocess.Popen(
-            [*serve_command(), "serve", "--no-browser", "--port", "0", *args],
+            [*serve_command(), *command, *args],
             cwd=cwd,
             env=env,
             stdout=subprocess.PIPE,

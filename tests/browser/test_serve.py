@@ -79,11 +79,95 @@ def test_serving_beyond_this_computer_prints_a_warning(tmp_path):
 
 
 def test_bare_command_serves_the_demo(monkeypatch):
-    """A bare `strutscope` runs `serve` with its defaults: the demo case, 127.0.0.1, a browser."""
+    """A bare `strutscope` runs `serve` with its defaults: the demo case, the default port, 127.0.0.1, a browser."""
     calls = []
     monkeypatch.setattr(app.serve, "serve", lambda *args, **kwargs: calls.append((args, kwargs)) or 0)
     assert app.cli.main([]) == 0
-    assert calls == [((None,), {"port": app.serve.DEFAULT_PORT, "open_browser": True, "host": "127.0.0.1"})]
+    assert calls == [((None,), {"port": None, "open_browser": True, "host": "127.0.0.1"})]
+
+
+@pytest.mark.parametrize(
+    ("argv", "expected"),
+    [
+        (["--no-browser"], ((None,), {"port": None, "open_browser": False, "host": "127.0.0.1"})),
+        (["--port", "8123"], ((None,), {"port": 8123, "open_browser": True, "host": "127.0.0.1"})),
+        (["--no-browser", "--port", "8123"], ((None,), {"port": 8123, "open_browser": False, "host": "127.0.0.1"})),
+        (["post.json", "--port", "0"], (("post.json",), {"port": 0, "open_browser": True, "host": "127.0.0.1"})),
+    ],
+)
+def test_bare_command_takes_the_serve_options(monkeypatch, argv, expected):
+    """`strutscope --no-browser`, `--port N` and `strutscope CASE.json` do what `strutscope serve ...` does."""
+    calls = []
+    monkeypatch.setattr(app.serve, "serve", lambda *args, **kwargs: calls.append((args, kwargs)) or 0)
+    assert app.cli.main(argv) == 0
+    assert calls == [expected]
+    calls.clear()
+    assert app.cli.main(["serve", *argv]) == 0
+    assert calls == [expected]
+
+
+def test_an_unknown_command_word_is_still_a_usage_error(capsys):
+    """A misspelt command that is no file is refused by argparse, naming the commands, not taken as a case."""
+    assert app.cli.main(["sovle", "--demo"]) == 2
+    assert "invalid choice" in capsys.readouterr().err
+
+
+def test_the_default_port_is_not_panels(monkeypatch):
+    """The default port is strutscope's own, not Panel's 5006, so it does not collide with another Panel app."""
+    assert app.serve.DEFAULT_PORT != 5006
+    monkeypatch.setattr(app.serve, "_port_is_free", lambda host, port: True)
+    assert app.serve.choose_port("127.0.0.1", None) == (app.serve.DEFAULT_PORT, None)
+
+
+def test_a_taken_default_port_moves_to_the_next_free_one_and_says_so(monkeypatch):
+    """When the default port is in use the next free one is taken, with a one-line note naming both."""
+    taken = {app.serve.DEFAULT_PORT, app.serve.DEFAULT_PORT + 1}
+    monkeypatch.setattr(app.serve, "_port_is_free", lambda host, port: port not in taken)
+    port, note = app.serve.choose_port("127.0.0.1", None)
+    assert port == app.serve.DEFAULT_PORT + 2
+    assert note == f"port {app.serve.DEFAULT_PORT} is in use (another program is serving there); using port {port}"
+
+
+def test_a_taken_port_asked_for_is_an_error_that_offers_the_next_free_one(monkeypatch):
+    """A port given with --port that is in use is refused in one line that offers the next free port."""
+    monkeypatch.setattr(app.serve, "_port_is_free", lambda host, port: port != 8123)
+    assert app.serve.choose_port("127.0.0.1", 8123) == (
+        None,
+        "port 8123 on 127.0.0.1 is in use by another program; port 8124 is free: strutscope --port 8124",
+    )
+
+
+def test_serving_on_a_port_that_is_really_taken_exits_with_one_line(tmp_path):
+    """The real command, asked for a port another socket listens on, exits 2 with one line and no traceback."""
+    import socket
+
+    with socket.socket() as other:
+        other.bind(("127.0.0.1", 0))
+        other.listen()
+        port = other.getsockname()[1]
+        done = subprocess.run(
+            [*serve_command(), "--no-browser", "--port", str(port)],
+            cwd=tmp_path,
+            capture_output=True,
+            text=True,
+            timeout=120,
+            env={"PYTHONPATH": str(REPO_ROOT), "PATH": "/usr/bin:/bin:/usr/local/bin", "PYTHONIOENCODING": "utf-8"},
+        )
+    assert done.returncode == 2
+    assert done.stderr.startswith(f"error: port {port} on 127.0.0.1 is in use by another program")
+    assert len(done.stderr.strip().splitlines()) == 1
+    assert "Traceback" not in done.stderr
+
+
+def test_the_bare_command_with_serve_options_serves_the_page(tmp_path):
+    """The real `strutscope --no-browser --port 0` (no `serve`) answers with the page and stops on Ctrl+C."""
+    server = Server(cwd=tmp_path, command=("--no-browser", "--port", "0"))
+    try:
+        with urllib.request.urlopen(server.url, timeout=60) as response:
+            assert response.status == 200
+            assert "strutscope" in response.read().decode("utf-8")
+    finally:
+        assert server.stop() == 0
 
 
 @pytest.mark.parametrize("port", ["-1", "70000", "eighty"])

@@ -2,7 +2,7 @@
 
 The reference is checked against closed forms so that the engine comparisons built on it mean something.
 Sources: Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed. (1961), ch. 1 (article numbers from
-memory); the check-value table of /work/shared/design/references.md §1 ([derived] there).
+memory); the check-value table of tests/REFERENCES.md §1 ([derived] there).
 """
 
 import math

@@ -1,7 +1,7 @@
 """Tests of engine.case: the case data model, its validation and JSON case files.
 
 The expected file layout, key names, support names and defaults come from the project's
-contract, shared/design/conventions.md, "Case file (JSON, schema 1)"; the ranges come from
+contract, DEVELOPERS.md, "Conventions", "Case file (JSON, schema 1)"; the ranges come from
 the engine API spec. The end conditions of the named supports are common practice, no source.
 Support stability is engine.supports' business and is only checked here for being called.
 """

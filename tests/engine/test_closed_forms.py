@@ -1,7 +1,7 @@
 """engine.solve against the beam-column closed forms of references.md §1.
 
 Source of every closed form here unless said otherwise: Timoshenko & Gere, *Theory of Elastic Stability*,
-2nd ed. (1961), ch. 1 (article numbers from memory), as written in /work/shared/design/references.md §1,
+2nd ed. (1961), ch. 1 (article numbers from memory), as written in tests/REFERENCES.md §1,
 where the forms are flagged [derived] (re-derived from the governing equation). The tabulated check
 values are that page's table, to 7 significant figures, so they are compared with abs 1e-6; the forms
 evaluated by mpmath at 30 significant digits (tests/support/closed_forms.py) are compared with rel 1e-10.

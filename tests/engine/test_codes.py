@@ -1,6 +1,6 @@
 """Tests of engine.codes: the EN 1993-1-1 and AISC rules the member check uses.
 
-Reference values come from shared/design/references.md §3 and §4 with its flags ("[text]" seen in a published
+Reference values come from tests/REFERENCES.md §3 and §4 with its flags ("[text]" seen in a published
 text, "from memory" recalled, "[derived]" re-derived from the governing equation). Closed forms are also
 checked against an independent solve in arbitrary precision (mpmath) and against their limiting cases.
 """

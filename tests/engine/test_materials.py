@@ -1,6 +1,6 @@
 """Tests of engine.materials: the catalogue of grades, their sources, and custom materials.
 
-Reference values come from shared/design/references.md §6 and carry its flags: "[text]" values were seen in a
+Reference values come from tests/REFERENCES.md §6 and carry its flags: "[text]" values were seen in a
 published text, "from memory" values were recalled. Catalogue values are stored exactly, so they are compared
 exactly (tolerance 0) after the MPa to Pa conversion.
 """

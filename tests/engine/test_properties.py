@@ -4,7 +4,7 @@ The cases come from ``tests/strategies.py``. Each test draws a stable case, asks
 critical load ``P_cr1`` and draws the axial force as a fraction of it, so soft springs are covered too.
 
 Sources of the properties (each is a consequence of the governing equation and end conditions in
-``/work/shared/design/conventions.md``, ``EI w'''' + P w'' = q − P w0''``):
+DEVELOPERS.md, "Conventions", ``EI w'''' + P w'' = q − P w0''``):
 
 - Equilibrium and the differential relations ``dM/dx = V``, ``dT/dx = −q``, ``T = V − P(w + w0)'``:
   Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed. (1961), ch. 1, the beam-column equations

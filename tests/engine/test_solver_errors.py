@@ -1,6 +1,6 @@
 """Unstable support sets are refused; cases at and beyond the critical loads are reported, not raised.
 
-Sources: the named critical loads are Euler's, as listed in /work/shared/design/references.md §2
+Sources: the named critical loads are Euler's, as listed in tests/REFERENCES.md §2
 (pinned–pinned π²EI/L², fixed–guided π²EI/L²: Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed.
 (1961), ch. 2, from memory). The near-critical bow amplification a/(1 − P/P_E) is references.md §1
 (same book, ch. 1, from memory; exact for a sine bow on a pinned–pinned member). Which support sets form a

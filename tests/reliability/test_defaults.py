@@ -1,6 +1,6 @@
 """Safe defaults of the served page: who can reach it, what an upload may be, what the page touches on disk.
 
-The defaults are those of issue 6 and the serving notes (design/app-notes.md, "Serving"): bind 127.0.0.1,
+The defaults are those of issue 6 and the serving rules in DEVELOPERS.md ("Decisions log"): bind 127.0.0.1,
 share only with an explicit ``--host`` and a warning, websocket origins limited to the served host and port,
 uploads parsed in memory, at most 1 MB, JSON only, no code evaluated (common practice, no source).
 """

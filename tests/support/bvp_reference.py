@@ -1,6 +1,6 @@
 """Independent numerical reference for the second-order beam-column problem.
 
-This module is written from the contract alone (``/work/shared/design/conventions.md``): it reads a
+This module is written from the contract alone (DEVELOPERS.md, "Conventions"): it reads a
 schema-1 case dictionary and solves
 
 .. math::

@@ -1,7 +1,7 @@
 """Beam-column amplification functions in arbitrary precision, for tests.
 
 Source: Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed. (1961), ch. 1 (article numbers from memory);
-the forms as written in /work/shared/design/references.md §1 ([derived] there). Simply supported span,
+the forms as written in tests/REFERENCES.md §1 ([derived] there). Simply supported span,
 ``u = kL/2``, ``k = √(|P|/EI)``.
 
 The forms cancel catastrophically as u → 0 (η loses about 4·|log10 u| digits), so each function raises the
