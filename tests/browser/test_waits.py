@@ -5,9 +5,12 @@ A busy machine once made `expect(...)` calls fail after 5 s while the locator ac
 self-contained page, without a server.
 """
 
+import pytest
 from playwright.sync_api import expect
 
 from tests.browser.conftest import TIMEOUT_MS
+
+pytestmark = pytest.mark.browser
 
 
 def test_expect_waits_longer_than_playwrights_default(context):

@@ -45,8 +45,12 @@ def _ayrton_perry_chi(lam: float, alpha: float) -> float:
     """The smaller root of χ²λ̄² − χ(1 + α(λ̄ − 0.2) + λ̄²) + 1 = 0, solved by mpmath at 40 digits [derived]."""
     with mpmath.workdps(40):
         lam_m, alpha_m = mpmath.mpf(lam), mpmath.mpf(alpha)
-        roots = mpmath.polyroots([lam_m**2, -(1 + alpha_m * (lam_m - mpmath.mpf("0.2")) + lam_m**2), 1])
-        return float(min(mpmath.re(r) for r in roots))
+        a, b = lam_m**2, -(1 + alpha_m * (lam_m - mpmath.mpf("0.2")) + lam_m**2)
+        # Both roots by the quadratic formula at 40 digits (no cancellation matters there). Not polyroots:
+        # mpmath 1.4 deprecates its coefficient order, and the test must not depend on the version.
+        discriminant = mpmath.sqrt(b**2 - 4 * a)
+        roots = ((-b - discriminant) / (2 * a), (-b + discriminant) / (2 * a))
+        return float(min(roots))
 
 
 # ----------------------------------------------------------------------------- Table 6.1 and eq. (6.49)
