@@ -439,7 +439,7 @@ class MemberPage(pn.viewable.Viewer):
             ]
             if kind == "w":
                 fig.line("x", "w0", source=self.stations, line_color=_BOW, line_width=1.6, line_dash="dotted")
-            fig.line("x", first, source=self.stations, line_color=_FIRST, line_width=1.8, line_dash=[6, 4])
+            fig.line("x", first, source=self.stations, line_color=_FIRST, line_width=1.8, line_dash="6 4")
             main = fig.line("x", second, source=self.stations, line_color=_SECOND, line_width=2.6)
             extra = None
             if kind == "V":
@@ -520,7 +520,7 @@ class MemberPage(pn.viewable.Viewer):
             8,
             source=self.critical_source,
             line_color="#a3261b",
-            line_dash=[4, 3],
+            line_dash="4 3",
             line_width=1.2,
         )
         amp.add_layout(
@@ -555,7 +555,7 @@ class MemberPage(pn.viewable.Viewer):
             source=self.approximation_source,
             line_color=_FIRST,
             line_width=1.8,
-            line_dash=[6, 4],
+            line_dash="6 4",
         )
         r_now_m = amp.scatter(
             "n", "moment", source=self.current, size=11, fill_color=_SECOND, line_color="#fff"
@@ -615,7 +615,7 @@ class MemberPage(pn.viewable.Viewer):
         )
         self.mode_items = []
         for n, (colour, dash) in enumerate(
-            ((_SECOND, "solid"), (_BOW, [7, 3]), (_TRANSVERSE, [2, 3])), start=1
+            ((_SECOND, "solid"), (_BOW, "7 3"), (_TRANSVERSE, "2 3")), start=1
         ):
             r = modes.line(
                 "x", f"m{n}", source=self.modes_source, line_color=colour, line_width=2.4, line_dash=dash
@@ -966,7 +966,7 @@ class MemberPage(pn.viewable.Viewer):
             loads_tab,
             bow_tab,
             check_tab,
-            dynamic=False,
+            dynamic=True,  # only the shown tab is built and sent: the first page draws sooner
             width=318,
             sizing_mode="stretch_height",
             margin=(0, 4, 0, 6),
@@ -1131,7 +1131,7 @@ class MemberPage(pn.viewable.Viewer):
             amplification,
             modes,
             variants,
-            dynamic=False,
+            dynamic=True,  # only the shown tab is built and sent: the first page draws sooner
             sizing_mode="stretch_width",
             margin=0,
             stylesheets=[_WIDGET_CSS],
