@@ -226,7 +226,7 @@ def _message(status, P, pcr, n_crit) -> str:
 
 
 def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, first_order=False,
-           bow_free=None, cautions=True) -> Result:
+           bow_free=None, cautions=True, amplify=True) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
     w0 = st["w0"]
@@ -277,23 +277,10 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
             one = 1.0 if governing.moment.magnitude > 0 else None
             amplification = Amplification(moment=one, deflection=1.0 if governing.total_offset.magnitude > 0
                                           else None, moment_first_order=one)
-        else:
-            _, _, _, m1, d1, ends = prep.first_order(count)
-            if prep.has_bow and P != 0.0:
-                ref, ref_x = reference_peak(prep.reference(count), P)
-            else:  # no bow's moment: the reference is the first-order moment itself
-                ref, ref_x = m1, None
-            m2 = governing.moment.magnitude
-            m_exact, m_first = _ratio(m2, ref), _ratio(m2, m1)
-            if bow_free is not None:
-                m_free = _ratio(bow_free["moment"], m1)
-            else:
-                m_free = None if prep.has_bow and P != 0.0 else m_first
-            amplification = Amplification(
-                moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
-                approximations=approximations(case, P, pcr[0], m_exact, ends, bow_free=m_free),
-                moment_first_order=m_first, moment_bow_free=m_free, reference_moment=ref,
-                reference_moment_x=ref_x)
+        elif amplify:
+            amplification = _amplification(case, prep, count, P, governing, bow_free)
+        else:  # filled in by _choose for the direction kept
+            amplification = Amplification(moment=None, deflection=None)
     member = prep.member
     section = member.section if member is not None else None
     material = member.material if member is not None else None
@@ -328,6 +315,25 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
     if not first_order and cautions:
         result = _with_cautions(result, prep, favourable=False)
     return result
+
+
+def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
+    """The exact amplifications (both definitions, and the bow-free one where known) and the approximations."""
+    _, _, _, m1, d1, ends = prep.first_order(count)
+    if prep.has_bow and P != 0.0:
+        ref, ref_x = reference_peak(prep.reference(count), P)
+    else:  # no bow's moment: the reference is the first-order moment itself
+        ref, ref_x = m1, None
+    m2 = governing.moment.magnitude
+    m_exact, m_first = _ratio(m2, ref), _ratio(m2, m1)
+    if bow_free is not None:
+        m_free = _ratio(bow_free["moment"], m1)
+    else:
+        m_free = None if prep.has_bow and P != 0.0 else m_first
+    return Amplification(
+        moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
+        approximations=approximations(case, P, prep.buckling.critical_loads[0], m_exact, ends, bow_free=m_free),
+        moment_first_order=m_first, moment_bow_free=m_free, reference_moment=ref, reference_moment_x=ref_x)
 
 
 def _with_cautions(result, prep, favourable: bool) -> Result:
@@ -411,6 +417,11 @@ def solve(case, stations: int = 401) -> Result:
     return _solve(case, _prepare(case), _check_stations(stations))
 
 
+def strength_solve(case, stations: int = 401) -> Result:
+    """:func:`solve` without what does not bear on the strength utilisation (for the capacity finder)."""
+    return _solve(case, _prepare(case), _check_stations(stations), details=False)
+
+
 def _solve(case, prep, n: int, details: bool = True) -> Result:
     """:func:`solve` on a prepared case; ``details=False`` (the capacity finder) leaves out what does not
     bear on the strength utilisation: the bow-free solve (service check, B1) and the favourable-bow check."""
@@ -426,14 +437,14 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
             bow_free = _bow_free_peaks(prep.variant("bow_free"), n, P)
     result = _build(case, prep, n, P, values, x, seg, xi, status=status, n_crit=n_crit, bow_free=bow_free,
-                    cautions=not reverse)
+                    cautions=not reverse, amplify=not reverse)
     if not reverse:
         return result
     other_prep = prep.variant("reversed")
     o_status, o_crit, o_values, o_x, o_seg, o_xi = _raw(other_prep, n, P)
     other = _build(case, other_prep, n, P, o_values, o_x, o_seg, o_xi, status=o_status, n_crit=o_crit,
-                   bow_free=bow_free, cautions=False)
-    return _choose(result, prep, other, other_prep)
+                   bow_free=bow_free, cautions=False, amplify=False)
+    return _choose(result, prep, other, other_prep, n, bow_free)
 
 
 def _bow_free_peaks(prep, n, P) -> dict:
@@ -452,7 +463,7 @@ def _severity(result) -> tuple:
     return strength, result.governing.moment.magnitude
 
 
-def _choose(result, prep, other, other_prep) -> Result:
+def _choose(result, prep, other, other_prep, n, bow_free) -> Result:
     """Of the two directions of the bow, the worse (automatic) or the case's own (fixed), annotated."""
     a, b = _severity(result), _severity(other)
     tol = 1e-9
@@ -477,7 +488,8 @@ def _choose(result, prep, other, other_prep) -> Result:
         text = f"{result.bow.direction}, as the case fixes it" + (
             f" (the favourable way: {other.bow.direction} gives {said(other)})" if favourable else "")
     bow = dataclasses.replace(chosen.bow, direction_governing=text, directions=facts, favourable=favourable)
-    chosen = dataclasses.replace(chosen, bow=bow)
+    amplification = _amplification(chosen.case, chosen_prep, n, chosen.axial_force, chosen.governing, bow_free)
+    chosen = dataclasses.replace(chosen, bow=bow, amplification=amplification)
     return _with_cautions(chosen, chosen_prep, favourable=favourable)
 
 

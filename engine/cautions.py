@@ -147,10 +147,9 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                source=service.source))
         if service is not None:
             out.append(Caution(level="info", code="deflection-basis",
-                               message=(f"The deflection check (utilisation {service.utilization:.3f}) is a "
-                                        "serviceability check kept apart from the strength utilisation. It "
-                                        "is made on the loads as given, in second order at this axial force "
-                                        "and without the initial bow: enter service loads for it."),
+                               message=(f"Deflection utilisation {service.utilization:.3f}: a service check "
+                                        "apart from the strength one, on the loads as given and without the "
+                                        "bow. Enter service loads for it."),
                                source="EN 1990 §3.4 and §6.5 serviceability (from memory)"))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))

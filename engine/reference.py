@@ -11,9 +11,8 @@ here is the moment the loads and the bow give before the member deflects further
 the form practitioners amplify, :math:`(M_I + N e_0)/(1 - N/N_{cr})`, and the one the deflection amplification
 already uses (:math:`\max|w + w_0| / \max|w_I + w_0|`). For a sine bow on a pin-ended member the bow's part
 amplifies by exactly :math:`1/(1 - \alpha)` (Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed. 1961,
-ch. 1, derived). Its largest magnitude is found from the stations by a Newton step on
-:math:`(M_I + N w_0)' = V_I + N w_0'`, evaluated exactly (one solve) or by its quadratic Taylor model (a
-sweep, where it serves a plot).
+ch. 1, derived). Its largest magnitude is found from the stations by Newton's iteration on
+:math:`(M_I + N w_0)' = V_I + N w_0'`, on the exact cubic of :math:`M_I` in each segment.
 """
 
 from __future__ import annotations
@@ -26,62 +25,78 @@ __all__ = ["ReferenceData", "reference_peak", "reference_peaks"]
 
 
 class ReferenceData:
-    """M_I, V_I, −q and w0, w0', w0'' at some stations of a model (P = 0), for the reference of any P."""
+    """M_I, V_I, q, q' and the bow at some stations of a model (P = 0), for the reference of any P.
+
+    At P = 0, V' = -q and M'' = -q with q linear in each segment, so M_I is a cubic there and
+    :math:`M_I(s + d) = M_I + V_I d - q d^2/2 - q' d^3/6` holds exactly; the bow is evaluated directly.
+    """
 
     def __init__(self, model, seg, xi):
         self.model = model
-        self.batch = Batch(model, [0.0])
         pts = Points(model, seg, xi)
-        st = self.batch.states(0, pts)
-        self.seg, self.xi, self.x, self.h = pts.seg, pts.xi, pts.x, pts.h
-        self.M, self.V, self.dV = st["M"], st["V"], -pts.q  # at P = 0, V = T and V' = -q
-        self.w0, self.d1, self.d2 = pts.bow[0], pts.bow[1], pts.bow[2]
+        st = Batch(model, [0.0]).states(0, pts)
+        self.bow = model.bow
+        self.x, self.xi, self.h = pts.x, pts.xi, pts.h
+        self.M, self.V, self.q, self.q1 = st["M"], st["V"], pts.q, pts.q1  # at P = 0, V = T
+        self.w0 = pts.bow[0]
         self.spacing = float(np.diff(np.unique(self.x)).max()) if self.x.size > 1 else float(model.L)
 
 
-def _value_at(data: ReferenceData, seg: int, xi: float, P: float):
-    """M_I + P w0 and its first two derivatives at one point, exactly."""
-    pts = Points(data.model, np.array([seg]), np.array([xi]))
-    st = data.batch.states(0, pts)
-    w0, d1, d2, _ = pts.bow
-    return (float(st["M"][0] + P * w0[0]), float(st["V"][0] + P * d1[0]), float(-pts.q[0] + P * d2[0]))
+def _refined(data: ReferenceData, i: np.ndarray, P: np.ndarray) -> np.ndarray:
+    """|M_I + P w0| at the peak near station i (Newton on the slope, kept in the segment and near the
+    station), never below the station's own value."""
+    M, V, q, q1 = data.M[i], data.V[i], data.q[i], data.q1[i]
+    x, low, high = data.x[i], -data.xi[i], data.h[i] - data.xi[i]
+    low, high = np.maximum(low, -data.spacing), np.minimum(high, data.spacing)
+    d = np.zeros_like(x)
+    for _ in range(6):
+        _, d1, d2, _ = data.bow.derivatives(x + d)
+        slope = V - q * d - 0.5 * q1 * d * d + P * d1
+        curv = -q - q1 * d + P * d2
+        with np.errstate(divide="ignore", invalid="ignore"):
+            step = np.where(curv != 0.0, -slope / curv, 0.0)
+        moved = np.clip(d + step, low, high)
+        if np.all(np.abs(moved - d) <= 1e-13 * data.spacing):
+            d = moved
+            break
+        d = moved
+    w0 = data.bow.derivatives(x + d)[0]
+    value = M + V * d - 0.5 * q * d * d - q1 * d**3 / 6.0 + P * w0
+    station = M + P * data.w0[i]
+    return np.maximum(np.abs(station), np.abs(value)), np.where(np.abs(value) > np.abs(station), x + d, x)
 
 
 def reference_peak(data: ReferenceData, P: float) -> tuple[float, float]:
-    """max|M_I + P w0| [N·m] and where [m], for one axial force (exact to rounding)."""
+    """max|M_I + P w0| [N·m] and where [m], for one axial force (exact to rounding; plain floats, quicker
+    than arrays of one)."""
     f = data.M + P * data.w0
     i = int(np.argmax(np.abs(f)))
-    best, where = abs(float(f[i])), float(data.x[i])
-    if P == 0.0 or not np.any(data.w0):
-        return best, where
-    seg, xi, h = int(data.seg[i]), float(data.xi[i]), float(data.h[i])
-    slope, curv = float(data.V[i] + P * data.d1[i]), float(data.dV[i] + P * data.d2[i])
-    for _ in range(3):  # Newton on the slope, kept in the segment and near the station
+    station, x = float(f[i]), float(data.x[i])
+    M, V, q, q1 = float(data.M[i]), float(data.V[i]), float(data.q[i]), float(data.q1[i])
+    low = max(-float(data.xi[i]), -data.spacing)
+    high = min(float(data.h[i] - data.xi[i]), data.spacing)
+    d, value = 0.0, station
+    derivatives = data.bow.derivatives
+    for _ in range(8):
+        _, d1, d2, _ = derivatives(np.array([x + d]))
+        slope = V - q * d - 0.5 * q1 * d * d + P * float(d1[0])
+        curv = -q - q1 * d + P * float(d2[0])
         if curv == 0.0:
             break
-        step = float(np.clip(-slope / curv, -data.spacing, data.spacing))
-        trial = min(max(xi + step, 0.0), h)
-        if trial == xi:
+        moved = min(max(d - slope / curv, low), high)
+        done = abs(moved - d) <= 1e-13 * data.spacing
+        d = moved
+        if done:
             break
-        value, s1, c1 = _value_at(data, seg, trial, P)
-        if abs(value) <= best:
-            break
-        best, where, xi, slope, curv = abs(value), float(data.model.xa[seg] + trial), trial, s1, c1
-    return best, where
+    if d != 0.0:
+        value = M + V * d - 0.5 * q * d * d - q1 * d**3 / 6.0 + P * float(derivatives(np.array([x + d]))[0][0])
+    if abs(value) > abs(station):
+        return abs(value), x + d
+    return abs(station), x
 
 
 def reference_peaks(data: ReferenceData, P: np.ndarray) -> np.ndarray:
-    """max|M_I + P w0| [N·m] for many axial forces (quadratic Taylor model about the best station)."""
+    """max|M_I + P w0| [N·m] for many axial forces."""
     P = np.asarray(P, dtype=float)
-    f = data.M[None, :] + P[:, None] * data.w0[None, :]
-    i = np.argmax(np.abs(f), axis=1)
-    rows = np.arange(P.size)
-    value = f[rows, i]
-    slope = data.V[i] + P * data.d1[i]
-    curv = data.dV[i] + P * data.d2[i]
-    with np.errstate(divide="ignore", invalid="ignore"):
-        step = np.where(curv != 0.0, -slope / curv, 0.0)
-    step = np.clip(step, -data.xi[i], data.h[i] - data.xi[i])
-    step = np.clip(step, -data.spacing, data.spacing)
-    model_value = value + slope * step + 0.5 * curv * step * step
-    return np.maximum(np.abs(value), np.abs(model_value))
+    i = np.argmax(np.abs(data.M[None, :] + P[:, None] * data.w0[None, :]), axis=1)
+    return _refined(data, i, P)[0]

@@ -22,20 +22,19 @@ from __future__ import annotations
 
 import math
 
-from engine.errors import CaseError
+from engine import codes
 
 __all__ = ["AISC_OUT_OF_PLUMB", "can_sway", "sway_anchor", "sway_phi"]
 
 #: AISC 303-16 §7.13.1.1 column out-of-plumbness 1/500 (from memory).
 AISC_OUT_OF_PLUMB = 1.0 / 500.0
-#: φ0 of EN 1993-1-1 §5.3.2(3)a (from memory).
-PHI_0 = 1.0 / 200.0
 SOURCE_EN = "EN 1993-1-1:2005 §5.3.2(3)a, eq. (5.5) (from memory)"
 SOURCE_AISC = "AISC 303-16 §7.13.1.1, out of plumb 1/500 (from memory)"
 
 
 def sway_phi(height: float, columns: int = 1) -> tuple[float, float, float]:
-    r"""φ, α_h and α_m of EN 1993-1-1 eq. (5.5) for a structure of ``height`` [m] and ``columns`` m.
+    r"""φ (:func:`engine.codes.sway_imperfection`), α_h and α_m of EN 1993-1-1 eq. (5.5) for a structure of
+    ``height`` [m] and ``columns`` m.
 
     >>> phi, a_h, a_m = sway_phi(4.0)
     >>> round(1 / phi, 6), a_h, a_m
@@ -43,13 +42,10 @@ def sway_phi(height: float, columns: int = 1) -> tuple[float, float, float]:
     >>> round(sway_phi(36.0)[1], 12)        # 2/sqrt(36) = 1/3, held at the lower limit 2/3
     0.666666666667
     """
-    if not (isinstance(height, (int, float)) and math.isfinite(height) and height > 0):
-        raise CaseError(f"height: {height!r} m must be a positive length")
-    if isinstance(columns, bool) or not isinstance(columns, int) or columns < 1:
-        raise CaseError(f"imperfection.columns: {columns!r} must be a whole number of columns, 1 or more")
+    phi = codes.sway_imperfection(h=height, m=columns)
     alpha_h = min(1.0, max(2.0 / 3.0, 2.0 / math.sqrt(height)))
     alpha_m = math.sqrt(0.5 * (1.0 + 1.0 / columns))
-    return PHI_0 * alpha_h * alpha_m, alpha_h, alpha_m
+    return phi, alpha_h, alpha_m
 
 
 def can_sway(case) -> bool:
