@@ -267,8 +267,8 @@ def resolve(case):
                          "translate: the bow takes the shape of the member's first buckling mode instead "
                          "(EN 1993-1-1 §5.3.2(11), from memory).")
             shape = "mode"
-        if imp.preset != "en1993-eq-5.9":
-            anchor, sign = sway_anchor(plain)
+        if imp.preset != "en1993-eq-5.9" and shape != "sway":  # a sway shape is a sway already
+            anchor = sway_anchor(plain)
             if imp.preset == "aisc-l/1000":
                 phi = AISC_OUT_OF_PLUMB
                 sway_label, sway_source = "sway 1/500 (AISC out of plumb)", SOURCE_AISC
@@ -277,7 +277,7 @@ def resolve(case):
                 sway_label = (f"sway phi = phi0·alpha_h·alpha_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
                               f"= 1/{1 / phi:.0f} (h = L = {L:g} m, m = {imp.columns})")
                 sway_source = SOURCE_EN
-            sway = sign * phi
+            sway = phi
     direction = "+w"
     opposes = False
     if (shape != "none" and amplitude != 0.0) or sway != 0.0:

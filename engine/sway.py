@@ -53,9 +53,9 @@ def can_sway(case) -> bool:
     return case.left.translation != "fixed" or case.right.translation != "fixed"
 
 
-def sway_anchor(case) -> tuple[float, float]:
-    """(anchor [m], sign): the sway is zero at the end held against translation (the left one when neither
-    is held) and grows towards the other, positive there for a positive sign."""
+def sway_anchor(case) -> float:
+    """Where the sway is zero [m]: the end held against translation (the left one when neither is held); the
+    sway grows away from it, w0 += φ·|x - anchor|."""
     if case.left.translation == "fixed" or case.right.translation != "fixed":
-        return 0.0, 1.0
-    return float(case.length), -1.0
+        return 0.0
+    return float(case.length)

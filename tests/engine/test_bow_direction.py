@@ -4,6 +4,8 @@ import dataclasses
 from pathlib import Path
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 import engine
 
@@ -84,3 +86,20 @@ def test_capacity_uses_the_worse_direction():
     both = [engine.capacity(_direction(case, d)).axial_force for d in ("positive", "negative")]
     assert auto == pytest.approx(min(both), rel=1e-9)
     assert max(both) > 1.01 * min(both)  # the two directions do differ here
+
+
+@settings(max_examples=25, deadline=None)
+@given(q=st.floats(-5e3, 5e3), ratio=st.floats(-2.0, 0.95),
+       ends=st.sampled_from([("pinned", "pinned"), ("fixed", "pinned"), ("fixed", "fixed"), ("fixed", "free"),
+                             ("pinned", "guided")]))
+def test_automatic_direction_is_never_the_favourable_one(q, ratio, ends):
+    """For any uniform load and axial force from strong tension to 0.95 Pcr1, the automatic direction's
+    utilisation is the larger of the two fixed directions' (the code's unfavourable direction, EN 1993-1-1
+    §5.3.2, from memory)."""
+    case = _demo(loads=(engine.UniformLoad(q=q),), left=engine.EndSupport.named(ends[0]),
+                 right=engine.EndSupport.named(ends[1]))
+    pcr1 = engine.solve(case).critical_loads[0]
+    case = dataclasses.replace(case, axial_force=ratio * pcr1)
+    auto = engine.solve(case).utilization
+    fixed = [engine.solve(_direction(case, d)).utilization for d in ("positive", "negative")]
+    assert auto == max(fixed)

@@ -122,3 +122,15 @@ def test_sway_rules_by_preset_and_supports():
         engine.Case.from_dict(dict(base, imperfection={"preset": "en1993-table-5.1", "columns": 0}))
     case = engine.Case.from_dict(dict(base, imperfection={"preset": "en1993-table-5.1", "columns": 3}))
     assert engine.Case.from_dict(case.to_dict()) == case
+
+
+def test_mirrored_cantilever_gives_the_same_base_moment():
+    """Free–fixed is fixed–free seen from the other end (mirror symmetry, common practice, no source): the same
+    base moment, the sway zero at the held end and growing to the free one."""
+    case = _cantilever(loads=(engine.UniformLoad(q=2.5e3),))
+    mirrored = dataclasses.replace(case, left=engine.EndSupport.named("free"),
+                                   right=engine.EndSupport.named("fixed"))
+    r, m = engine.solve(case), engine.solve(mirrored)
+    assert abs(m.moment[-1]) == pytest.approx(abs(r.moment[0]), rel=1e-9)
+    assert m.initial_bow[0] == pytest.approx(r.initial_bow[-1], rel=1e-9)
+    assert abs(m.initial_bow[-1]) <= 1e-12 and abs(r.initial_bow[0]) <= 1e-12
