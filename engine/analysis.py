@@ -318,7 +318,7 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
 
 
 def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
-    """The exact amplifications (both definitions, and the bow-free one where known) and the approximations."""
+    """The exact amplifications (both definitions, the bow-free one where known) and the approximations."""
     _, _, _, m1, d1, ends = prep.first_order(count)
     if prep.has_bow and P != 0.0:
         ref, ref_x = reference_peak(prep.reference(count), P)
@@ -332,7 +332,8 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
         m_free = None if prep.has_bow and P != 0.0 else m_first
     return Amplification(
         moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
-        approximations=approximations(case, P, prep.buckling.critical_loads[0], m_exact, ends, bow_free=m_free),
+        approximations=approximations(case, P, prep.buckling.critical_loads[0], m_exact, ends,
+                                      bow_free=m_free),
         moment_first_order=m_first, moment_bow_free=m_free, reference_moment=ref, reference_moment_x=ref_x)
 
 
@@ -426,7 +427,8 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
     """:func:`solve` on a prepared case; ``details=False`` (the capacity finder) leaves out what does not
     bear on the strength utilisation: the bow-free solve (service check, B1) and the favourable-bow check."""
     P = float(case.axial_force)
-    status, n_crit, values, x, seg, xi = _raw(prep, n, P)
+    raw = _raw(prep, n, P)
+    status = raw[0]
     choice = prep.member.bow if prep.member is not None else None
     reverse = (choice is not None and prep.has_bow and P != 0.0 and status != "critical"
                and (choice.automatic or details))
@@ -436,15 +438,34 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
         checked = member is not None and member.section is not None and member.material is not None
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
             bow_free = _bow_free_peaks(prep.variant("bow_free"), n, P)
-    result = _build(case, prep, n, P, values, x, seg, xi, status=status, n_crit=n_crit, bow_free=bow_free,
-                    cautions=not reverse, amplify=not reverse)
     if not reverse:
-        return result
+        return _build(case, prep, n, P, *raw[2:], status=status, n_crit=raw[1], bow_free=bow_free)
     other_prep = prep.variant("reversed")
-    o_status, o_crit, o_values, o_x, o_seg, o_xi = _raw(other_prep, n, P)
-    other = _build(case, other_prep, n, P, o_values, o_x, o_seg, o_xi, status=o_status, n_crit=o_crit,
-                   bow_free=bow_free, cautions=False, amplify=False)
-    return _choose(result, prep, other, other_prep, n, bow_free)
+    other = _raw(other_prep, n, P)
+    a, b = _severity(case, prep, P, raw), _severity(case, other_prep, P, other)
+    sa, sb = (-1.0 if a[0] is None else a[0]), (-1.0 if b[0] is None else b[0])
+    tol = 1e-9 * max(1.0, abs(sa))
+    worse_b = sb > sa + tol or (abs(sb - sa) <= tol and b[1] > a[1] * (1.0 + 1e-9))
+    facts = ((choice.direction, *a), (other_prep.member.bow.direction, *b))
+
+    def said(direction, strength, moment):
+        text = f"max|M| {moment * 1e-3:.4g} kN·m"
+        return f"{direction}: strength utilisation {strength:.3f}, {text}" if strength is not None else \
+            f"{direction}: {text}"
+
+    if choice.automatic:
+        (chosen_prep, chosen_raw, kept, rest) = ((other_prep, other, facts[1], facts[0]) if worse_b
+                                                 else (prep, raw, facts[0], facts[1]))
+        text = f"{kept[0]}: the worse of the two directions solved ({said(*kept)}; {said(*rest)})"
+        favourable = False
+    else:
+        chosen_prep, chosen_raw, favourable = prep, raw, worse_b
+        text = f"{choice.direction}, as the case fixes it" + (
+            f" (the favourable way: reversed, {said(*facts[1])})" if favourable else "")
+    result = _build(case, chosen_prep, n, P, *chosen_raw[2:], status=chosen_raw[0], n_crit=chosen_raw[1],
+                    bow_free=bow_free, cautions=False)
+    bow = dataclasses.replace(result.bow, direction_governing=text, directions=facts, favourable=favourable)
+    return _with_cautions(dataclasses.replace(result, bow=bow), chosen_prep, favourable=favourable)
 
 
 def _bow_free_peaks(prep, n, P) -> dict:
@@ -457,40 +478,19 @@ def _bow_free_peaks(prep, n, P) -> dict:
             "deflection": Peak(value=float(values["w"][j]), x=float(x[j]))}
 
 
-def _severity(result) -> tuple:
-    """What decides the worse direction: the strength utilisation (where checked), then the largest |M|."""
-    strength = result.check.strength_utilization if result.check is not None else -1.0
-    return strength, result.governing.moment.magnitude
-
-
-def _choose(result, prep, other, other_prep, n, bow_free) -> Result:
-    """Of the two directions of the bow, the worse (automatic) or the case's own (fixed), annotated."""
-    a, b = _severity(result), _severity(other)
-    tol = 1e-9
-    worse_b = b[0] > a[0] + tol * max(1.0, abs(a[0])) or (
-        abs(b[0] - a[0]) <= tol * max(1.0, abs(a[0])) and b[1] > a[1] * (1.0 + tol))
-    facts = tuple((r.bow.direction, r.check.strength_utilization if r.check is not None else None,
-                   r.governing.moment.magnitude) for r in (result, other))
-
-    def said(r):
-        if r.check is not None:
-            return (f"strength utilisation {r.check.strength_utilization:.3f}, "
-                    f"max|M| {r.governing.moment.magnitude * 1e-3:.4g} kN·m")
-        return f"max|M| {r.governing.moment.magnitude * 1e-3:.4g} kN·m"
-
-    if result.bow.automatic:
-        chosen, chosen_prep, rest = (other, other_prep, result) if worse_b else (result, prep, other)
-        text = (f"{chosen.bow.direction}: the worse of the two directions solved ({said(chosen)}; "
-                f"{rest.bow.direction}: {said(rest)})")
-        favourable = False
-    else:
-        chosen, chosen_prep, favourable = result, prep, worse_b
-        text = f"{result.bow.direction}, as the case fixes it" + (
-            f" (the favourable way: {other.bow.direction} gives {said(other)})" if favourable else "")
-    bow = dataclasses.replace(chosen.bow, direction_governing=text, directions=facts, favourable=favourable)
-    amplification = _amplification(chosen.case, chosen_prep, n, chosen.axial_force, chosen.governing, bow_free)
-    chosen = dataclasses.replace(chosen, bow=bow, amplification=amplification)
-    return _with_cautions(chosen, chosen_prep, favourable=favourable)
+def _severity(case, prep, P, raw) -> tuple:
+    """What decides the worse direction: the strength utilisation (None where unchecked), then max|M|."""
+    status, _, values, x, _, _ = raw
+    moment = float(np.abs(values["M"]).max()) if status != "critical" else math.inf
+    member = prep.member
+    if member.section is None or member.material is None:
+        return None, moment
+    if status == "critical":
+        return math.inf, moment
+    check = check_member(x=x, axial_force=P, moment=values["M"], shear=values["V"], deflection=np.zeros(1),
+                         length=prep.model.L, section=member.section, material=member.material,
+                         axis=case.axis, settings=case.check)
+    return check.strength_utilization, moment
 
 
 def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
