@@ -88,7 +88,7 @@ def test_tension_lowers_the_moment():
     assert r.amplification.approximations[0].value == pytest.approx(1 / 1.7, rel=1e-12)
 
 
-# --- issue 12, item 5: the reference moment includes the bow's moment N·w0 ------------------------------------
+# --- issue 12, item 5: the reference moment includes the bow's moment N·w0 -----------------------------
 
 _Q, _E0 = 2.0e3, L / 250
 
@@ -109,9 +109,10 @@ def _udl_factor(alpha):
 
 @pytest.mark.parametrize("alpha", [0.1, 0.3, 0.6])
 def test_moment_amplification_over_m1_plus_n_w0(alpha):
-    """Pinned–pinned, UDL and sine bow e0: M_II(L/2) = (qL²/8)·2(sec u − 1)/u² + N e0/(1 − α) and the reference is
-    M_I + N e0 = qL²/8 + N e0, both at mid-span (Timoshenko & Gere 1961 ch. 1: the sine bow amplifies by exactly
-    1/(1 − α), derived); amplification.moment is their ratio to 1e-10 and 1/(1 − α) lies within 3 % of it."""
+    """Pinned–pinned, UDL and sine bow e0: M_II(L/2) = (qL²/8)·2(sec u − 1)/u² + N e0/(1 − α) and the
+    reference is M_I + N e0 = qL²/8 + N e0, both at mid-span (Timoshenko & Gere 1961 ch. 1: the sine bow
+    amplifies by exactly 1/(1 − α), derived); amplification.moment is their ratio to 1e-10 and 1/(1 − α) lies
+    within 3 % of it."""
     r = _bowed(alpha)
     N, m1 = alpha * PE, _Q * L**2 / 8
     exact = (m1 * _udl_factor(alpha) + N * _E0 / (1 - alpha)) / (m1 + N * _E0)
@@ -152,5 +153,5 @@ def test_demo_amplification_definitions():
     simple, b1 = _by_name(r, "1/(1 - P/Pcr1)"), _by_name(r, "AISC B1")
     assert abs(simple.error) < 0.01 and abs(b1.error) < 0.01
     assert simple.value / r.amplification.moment_first_order - 1 < -0.3
-    assert set(engine.results.AMPLIFICATION_DEFINITIONS) == {"moment", "moment_first_order", "moment_bow_free",
-                                                             "deflection"}
+    definitions = engine.results.AMPLIFICATION_DEFINITIONS
+    assert set(definitions) == {"moment", "moment_first_order", "moment_bow_free", "deflection"}

@@ -29,7 +29,8 @@ def test_tension_takes_the_reversed_bow():
     r = engine.solve(case)
     with_loads = engine.solve(_direction(case, "positive")).governing.moment.magnitude
     reversed_ = engine.solve(_direction(case, "negative"))
-    no_bow = engine.solve(dataclasses.replace(case, imperfection=engine.Imperfection())).governing.moment.magnitude
+    no_bow = engine.solve(dataclasses.replace(case, imperfection=engine.Imperfection()))
+    no_bow = no_bow.governing.moment.magnitude
     assert with_loads == pytest.approx(6.8e3, abs=0.05e3)
     assert no_bow == pytest.approx(12.5e3, abs=0.05e3)
     assert r.governing.moment.magnitude == pytest.approx(30.4e3, abs=0.05e3)
@@ -37,7 +38,8 @@ def test_tension_takes_the_reversed_bow():
     assert r.utilization == reversed_.utilization >= engine.solve(_direction(case, "positive")).utilization
     assert r.bow.direction == "against the loads' deflection"
     assert r.bow.direction_governing.startswith("against the loads' deflection: the worse")
-    assert [d for d, _, _ in r.bow.directions] == ["with the loads' deflection", "against the loads' deflection"]
+    directions = [d for d, _, _ in r.bow.directions]
+    assert directions == ["with the loads' deflection", "against the loads' deflection"]
     assert r.bow.amplitude < 0 and not r.bow.favourable
     assert "bow-opposes-load" not in [c.code for c in r.cautions]
 
@@ -102,4 +104,4 @@ def test_automatic_direction_is_never_the_favourable_one(q, ratio, ends):
     case = dataclasses.replace(case, axial_force=ratio * pcr1)
     auto = engine.solve(case).utilization
     fixed = [engine.solve(_direction(case, d)).utilization for d in ("positive", "negative")]
-    assert auto == max(fixed)
+    assert auto == pytest.approx(max(fixed), rel=1e-9)  # ties within 1e-9 keep the with-the-loads one

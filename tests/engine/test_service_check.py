@@ -16,9 +16,9 @@ def _demo(**changes):
 
 
 def test_demo_headline_is_strength_not_deflection():
-    """Demo (invented) at 1500 kN: issue 12 reports the headline "1.218 deflection" (span/250 on the factored force
-    with the amplified code bow); the headline is now the strength utilisation, σ = N/A + M/W_el over f_y (EN
-    1993-1-1 §6.2.1, linear form, from memory), and the deflection is reported apart."""
+    """Demo (invented) at 1500 kN: issue 12 reports the headline "1.218 deflection" (span/250 on the factored
+    force with the amplified code bow); the headline is now the strength utilisation, σ = N/A + M/W_el over
+    f_y (EN 1993-1-1 §6.2.1, linear form, from memory), and the deflection is reported apart."""
     r = engine.solve(_demo(axial_force=1500e3))
     assert r.check.kind == "elastic stress"
     assert r.utilization == r.check.strength_utilization
@@ -35,7 +35,8 @@ def test_service_deflection_is_the_bow_free_deflection():
     free = engine.solve(dataclasses.replace(case, imperfection=engine.Imperfection()))
     assert r.service.deflection == free.governing.deflection.value
     assert r.service.x == free.governing.deflection.x
-    assert r.service.utilization == pytest.approx(free.governing.deflection.magnitude / (6.0 / 250), rel=1e-12)
+    expected = free.governing.deflection.magnitude / (6.0 / 250)
+    assert r.service.utilization == pytest.approx(expected, rel=1e-12)
     assert r.service.allowed == pytest.approx(6.0 / 250, rel=1e-15) and r.service.limit == 250
     assert r.check.deflection_utilization == r.service.utilization
     assert "loads as given" in r.service.basis and "service loads" in r.service.basis

@@ -16,8 +16,8 @@ DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo_wind_post.json"
 
 def _cantilever(**changes):
     case = engine.Case.from_json(DEMO.read_text(encoding="utf-8"))
-    return dataclasses.replace(case, left=engine.EndSupport.named("fixed"), right=engine.EndSupport.named("free"),
-                               **changes)
+    return dataclasses.replace(case, left=engine.EndSupport.named("fixed"),
+                               right=engine.EndSupport.named("free"), **changes)
 
 
 @pytest.mark.parametrize(("h", "m", "alpha_h", "alpha_m"), [
@@ -39,8 +39,9 @@ def test_sway_phi_of_eq_5_5(h, m, alpha_h, alpha_m):
 
 def test_demo_cantilever_base_moment():
     """Demo member made fixed–free, default Table 5.1 preset: issue 12 found the base moment 71.5 kN·m (half
-    sine with the loads) against 76.6 without a bow and 91.3 with the first-mode bow; it is now at least the
-    first-mode value, the bow follows the mode and the eq. (5.5) sway (h = L = 6 m) is there, same direction."""
+    sine with the loads) against 76.6 without a bow and 91.3 with the first-mode bow; it is now at least
+    the first-mode value, the bow follows the mode and the eq. (5.5) sway (h = L = 6 m) is there, same
+    direction."""
     case = _cantilever()
     r = engine.solve(case)
     no_bow = engine.solve(dataclasses.replace(case, imperfection=engine.Imperfection()))
@@ -55,9 +56,10 @@ def test_demo_cantilever_base_moment():
 
 
 def test_cantilever_closed_form_with_bow_and_sway():
-    """Fixed–free, axial force only, first-mode bow e0 and sway φ: the base moment is N e0/(1 − α) + N φ tan(kL)/k,
-    k = √(N/EI) (Timoshenko & Gere 1961 ch. 1–2, derived: a first-mode bow amplifies by exactly 1/(1 − α), and
-    an inclination φ acts as a lateral tip force N φ, whose base moment is N φ tan(kL)/k)."""
+    """Fixed–free, axial force only, first-mode bow e0 and sway φ: the base moment is
+    N e0/(1 − α) + N φ tan(kL)/k, k = √(N/EI) (Timoshenko & Gere 1961 ch. 1–2, derived: a first-mode bow
+    amplifies by exactly 1/(1 − α), and an inclination φ acts as a lateral tip force N φ, whose base moment
+    is N φ tan(kL)/k)."""
     case = engine.Case.from_dict({
         "schema": 1, "length": 3.0, "supports": {"left": "fixed", "right": "free"},
         "section": {"name": "SHS 100x100x5"}, "material": {"name": "S355"},
@@ -75,8 +77,8 @@ def test_cantilever_closed_form_with_bow_and_sway():
 
 @pytest.mark.parametrize("length", [1.0, 1.25, 1.5, 2.0])
 def test_shs_cantilever_capacity_within_chi_a_fy(length):
-    """SHS 100×100×5 S355 cantilevers, Table 5.1 preset, elastic check: capacity ≤ χ·A·f_y with χ of EN 1993-1-1
-    eq. (6.49) at the cantilever's λ̄ (issue 12 found 0.5–5 % above it without the sway)."""
+    """SHS 100×100×5 S355 cantilevers, Table 5.1 preset, elastic check: capacity ≤ χ·A·f_y with χ of
+    EN 1993-1-1 eq. (6.49) at the cantilever's λ̄ (issue 12 found 0.5–5 % above it without the sway)."""
     case = engine.Case.from_dict({
         "schema": 1, "length": length, "supports": {"left": "fixed", "right": "free"}, "axial_force": 1e5,
         "section": {"name": "SHS 100x100x5"}, "material": {"name": "S355"},
@@ -88,8 +90,8 @@ def test_shs_cantilever_capacity_within_chi_a_fy(length):
 
 
 def test_caution_on_the_favourable_cantilever_bow_only():
-    """Issue 12: the 'bow-opposes-load' caution fired on the safer reversed bow. Now it fires where the case fixes
-    the favourable direction, and the automatic direction equals the unfavourable fixed one."""
+    """Issue 12: the 'bow-opposes-load' caution fired on the safer reversed bow. Now it fires where the case
+    fixes the favourable direction, and the automatic direction equals the unfavourable fixed one."""
     case = _cantilever()
     auto = engine.solve(case)
     signs = {d: engine.solve(dataclasses.replace(case, imperfection=dataclasses.replace(case.imperfection,
@@ -125,8 +127,8 @@ def test_sway_rules_by_preset_and_supports():
 
 
 def test_mirrored_cantilever_gives_the_same_base_moment():
-    """Free–fixed is fixed–free seen from the other end (mirror symmetry, common practice, no source): the same
-    base moment, the sway zero at the held end and growing to the free one."""
+    """Free–fixed is fixed–free seen from the other end (mirror symmetry, common practice, no source): the
+    same base moment, the sway zero at the held end and growing to the free one."""
     case = _cantilever(loads=(engine.UniformLoad(q=2.5e3),))
     mirrored = dataclasses.replace(case, left=engine.EndSupport.named("free"),
                                    right=engine.EndSupport.named("fixed"))
