@@ -257,7 +257,8 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     add(f"  moment over M_I:    {_ratio(amplification.moment_first_order)}  "
         f"({definitions['moment_first_order']})")
     if amplification.moment_bow_free is not None:
-        add(f"  moment, no bow:     {_ratio(amplification.moment_bow_free)}  ({definitions['moment_bow_free']})")
+        add(f"  moment, no bow:     {_ratio(amplification.moment_bow_free)}  "
+            f"({definitions['moment_bow_free']})")
     add(f"  deflection, exact:  {_ratio(amplification.deflection)}  ({definitions['deflection']})")
     for approximation in amplification.approximations:
         against = "exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact"

@@ -86,11 +86,11 @@ _METHOD = (
 )
 
 _DEFINITIONS_TEXT = (
-    "Definitions: moment amplification = max|M_II| / max|M_I + N·w0| (the reference holds the bow's moment, as "
-    "the deflection's holds w0); AISC B1 is compared on the member without its bow. A preset bow with automatic "
-    "direction is solved both ways and the worse kept; with a free or guided end it follows the first mode, "
-    "plus the sway of EN 1993-1-1 eq. (5.5). Utilisation = strength and stability; deflection = a separate "
-    "service check on the loads as given, without the bow."
+    "Definitions: moment amplification = max|M_II| / max|M_I + N·w0| (the reference holds the bow's moment, "
+    "as the deflection's holds w0); AISC B1 is compared on the member without its bow. A preset bow with "
+    "automatic direction is solved both ways and the worse kept; with a free or guided end it follows the "
+    "first mode, plus the sway of EN 1993-1-1 eq. (5.5). Utilisation = strength and stability; deflection = "
+    "a separate service check on the loads as given, without the bow."
 )
 
 _FALLBACK_CAUTION = (
@@ -1211,8 +1211,8 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     free = ("" if amplification.moment_bow_free is None
             else f"; {_ratio(amplification.moment_bow_free)} without the bow")
     item("Amplification, exact", f"moment {_ratio(amplification.moment)} over M_I + N·w0 "
-                                 f"({_ratio(amplification.moment_first_order)} over M_I alone{free}); deflection "
-                                 f"{_ratio(amplification.deflection)} ({words['deflection']})")
+                                 f"({_ratio(amplification.moment_first_order)} over M_I alone{free}); "
+                                 f"deflection {_ratio(amplification.deflection)} ({words['deflection']})")
     if amplification.approximations:
         for approximation in amplification.approximations:
             against = ("exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact")
@@ -1241,9 +1241,9 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         service = result.service
         if service is not None:
             allowed = U.show("small_length", service.allowed)
-            item("Deflection (service)", f"max|w| = {U.show('small_length', abs(service.deflection))} against "
-                                         f"span/{service.limit:g} = {allowed} ({_ratio(service.utilization)}); "
-                                         "loads as given, no bow")
+            shown = U.show("small_length", abs(service.deflection))
+            item("Deflection (service)", f"max|w| = {shown} against span/{service.limit:g} = {allowed} "
+                                         f"({_ratio(service.utilization)}); loads as given, no bow")
         resistances = check.resistances or {}
         parts = []
         for key, kind in (("N_Rd", "force"), ("M_Rd", "moment"), ("V_Rd", "force")):

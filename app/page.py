@@ -2143,7 +2143,8 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
         row("M, member without bow", _ratio_text(amplification.moment_bow_free), "B1 is compared with it")
     for approximation in amplification.approximations:
         against = " (no bow)" if approximation.compared_with == "moment_bow_free" else ""
-        row(_esc(approximation.name), _ratio_text(approximation.value), _percent(approximation.error) + against)
+        error = _percent(approximation.error) + against
+        row(_esc(approximation.name), _ratio_text(approximation.value), error)
     if not amplification.approximations:
         row("approximations", "none at or beyond Pcr1")
     check = result.check

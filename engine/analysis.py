@@ -226,7 +226,7 @@ def _message(status, P, pcr, n_crit) -> str:
 
 
 def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, first_order=False,
-           bow_free=None, cautions=True, amplify=True) -> Result:
+           bow_free=None, cautions=True) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
     w0 = st["w0"]
@@ -277,10 +277,8 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
             one = 1.0 if governing.moment.magnitude > 0 else None
             amplification = Amplification(moment=one, deflection=1.0 if governing.total_offset.magnitude > 0
                                           else None, moment_first_order=one)
-        elif amplify:
+        else:
             amplification = _amplification(case, prep, count, P, governing, bow_free)
-        else:  # filled in by _choose for the direction kept
-            amplification = Amplification(moment=None, deflection=None)
     member = prep.member
     section = member.section if member is not None else None
     material = member.material if member is not None else None

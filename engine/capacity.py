@@ -6,9 +6,9 @@ Two ways to load the member up:
 - ``mode="proportional"``: every load, axial and transverse, grows by one factor :math:`\lambda` (a load-factor
   sweep); the case's own axial force is the reference and must be compression.
 
-Either way the bow stays as the case resolves it (a code bow depends on the member, not on the load), and where
-its direction is automatic each trial solves both directions and keeps the worse. The
-strength checks of :mod:`engine.checks` set the capacity; the deflection check (serviceability) does not.
+Either way the bow stays as the case resolves it (a code bow depends on the member, not on the load), and
+where its direction is automatic each trial solves both directions and keeps the worse. The strength checks
+of :mod:`engine.checks` set the capacity; the deflection check (serviceability) does not.
 The search brackets the first crossing of utilisation 1 on a grid below the first critical load and refines it
 by Brent's method; if the utilisation never reaches 1 below the critical load, elastic buckling governs and the
 capacity is the critical load itself.
