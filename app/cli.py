@@ -208,7 +208,7 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         against = " (against the loads)" if result.bow.opposes_load else ""
         add(f"  initial bow:  {result.bow.label}{against}")
         if result.bow.direction_governing:
-            add(f"  bow direction: {result.bow.direction_governing}")
+            add(f"  bow direction: {_bow_direction(shown, result.bow)}")
     else:
         add(f"  initial bow:  {_imperfection(shown, case.imperfection, case.length)}")
 
@@ -334,6 +334,19 @@ def _peak_data(peak) -> dict:
 def _governing_data(governing) -> dict:
     return {name: _peak_data(getattr(governing, name))
             for name in ("deflection", "total_offset", "moment", "shear")}
+
+
+def _bow_direction(shown, bow) -> str:
+    """Which direction of the bow governed, with both directions' values in the display units."""
+    if not bow.automatic:
+        return bow.direction_governing
+
+    def said(direction, strength, moment):
+        util = "" if strength is None else f"strength utilisation {_ratio(strength)}, "
+        return f"{direction}: {util}max|M| {shown.show('moment', moment)}"
+
+    both = "; ".join(said(*d) for d in bow.directions)
+    return f"{bow.direction}, the worse of both directions solved ({both})"
 
 
 def _definitions() -> dict:

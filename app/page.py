@@ -1685,7 +1685,14 @@ class MemberPage(pn.viewable.Viewer):
             text = f"In use: {_esc(bow.label)}"
             if bow.curve_reason:
                 text += f"<br>Curve: {_esc(bow.curve_reason)}"
-            if bow.direction_governing:
+            if bow.direction_governing and bow.automatic:
+                both = "; ".join(
+                    ("" if u is None else f"{d}: utilisation {_ratio_text(u)}, max|M| ")
+                    + ("" if u is not None else f"{d}: max|M| ") + U.show("moment", m)
+                    for d, u, m in bow.directions
+                )
+                text += f"<br>Direction: {_esc(bow.direction)}, the worse of both solved ({_esc(both)})"
+            elif bow.direction_governing:
                 text += f"<br>Direction: {_esc(bow.direction_governing)}"
             if bow.favourable:
                 text += "<br><b>The bow points the favourable way: reversed, it gives more.</b>"
