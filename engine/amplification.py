@@ -11,6 +11,10 @@ With :math:`\alpha = P/P_{cr,1}`, :math:`P_{cr,1}` the member's exact first elas
   :math:`C_m = 0.6 - 0.4 M_1/M_2` when only end moments act, :math:`1 + \psi\alpha` where the table fits,
   and conservatively 1.0 otherwise; :math:`\alpha_{LRFD} = 1`, and :math:`P_{e1}` taken as the exact critical load
   (the Appendix allows an analysis to justify it). Only for members braced at both ends.
+
+The first two are compared with the exact amplification over the reference :math:`M_I + N w_0`
+(:mod:`engine.reference`); B1 with the exact amplification of the member without its bow, since AISC keeps the
+out-of-straightness inside :math:`P_c` (from memory).
 """
 
 from __future__ import annotations
