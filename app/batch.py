@@ -141,7 +141,8 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("id", None), ("row", None), ("status", None), ("field", None), ("message", None), ("stability", None),
     ("Pcr1", "force"), ("alpha_cr", None), ("M_max", "moment"), ("x_M", "length"), ("V_max", "force"),
     ("x_V", "length"), ("w_max", "small_length"), ("x_w", "length"), ("amplification_moment", None),
-    ("utilization", None), ("governing_check", None), ("capacity", "force"), ("capacity_check", None),
+    ("utilization", None), ("deflection_utilization", None), ("governing_check", None), ("capacity", "force"),
+    ("capacity_check", None),
     ("cautions", None),
 )
 _SUFFIXES = {
@@ -162,8 +163,9 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
     -------
     tuple of str
         ``id, row, status, field, message, stability, Pcr1_kN, alpha_cr, M_max_kNm, x_M_m, V_max_kN, x_V_m,
-        w_max_mm, x_w_m, amplification_moment, utilization, governing_check, capacity_kN, capacity_check,
-        cautions`` in SI.
+        w_max_mm, x_w_m, amplification_moment, utilization, deflection_utilization, governing_check,
+        capacity_kN, capacity_check, cautions`` in SI. ``utilization`` is strength and stability;
+        ``deflection_utilization`` the separate service check (loads as given, no bow).
     """
     suffixes = _SUFFIXES[units]
     return tuple(name if kind is None else f"{name}_{suffixes[kind]}" for name, kind in _RESULT_LAYOUT)
@@ -524,6 +526,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         _cell(governing.shear.value, force), _cell(governing.shear.x, length),
         _cell(governing.deflection.value, small), _cell(governing.deflection.x, length),
         _cell(result.amplification.moment), _cell(result.utilization),
+        _cell(None if result.service is None else result.service.utilization),
         "" if check is None else check.kind,
         _cell(capacity_force, force), capacity_check or "",
         ";".join(caution.code for caution in result.cautions),

@@ -207,6 +207,8 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     if result.bow is not None:
         against = " (against the loads)" if result.bow.opposes_load else ""
         add(f"  initial bow:  {result.bow.label}{against}")
+        if result.bow.direction_governing:
+            add(f"  bow direction: {_bow_direction(shown, result.bow)}")
     else:
         add(f"  initial bow:  {_imperfection(shown, case.imperfection, case.length)}")
 
@@ -250,11 +252,18 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     amplification = result.amplification
     add("")
     add("Amplification (second order / first order)")
-    add(f"  moment, exact:      {_ratio(amplification.moment)}")
-    add(f"  deflection, exact:  {_ratio(amplification.deflection)}")
+    from engine.results import AMPLIFICATION_DEFINITIONS as definitions
+    add(f"  moment, exact:      {_ratio(amplification.moment)}  ({definitions['moment']})")
+    add(f"  moment over M_I:    {_ratio(amplification.moment_first_order)}  "
+        f"({definitions['moment_first_order']})")
+    if amplification.moment_bow_free is not None:
+        add(f"  moment, no bow:     {_ratio(amplification.moment_bow_free)}  "
+            f"({definitions['moment_bow_free']})")
+    add(f"  deflection, exact:  {_ratio(amplification.deflection)}  ({definitions['deflection']})")
     for approximation in amplification.approximations:
+        against = "exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact"
         add(f"  {approximation.name + ':':<19} {_ratio(approximation.value)}"
-            f"  (error {_relative_error(approximation.error)} against exact; {approximation.source})")
+            f"  (error {_relative_error(approximation.error)} against {against}; {approximation.source})")
 
     equilibrium = result.equilibrium
     add("")
@@ -273,9 +282,15 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add(f"  utilisation:  {_ratio(check.utilization)} ({check.kind} at x = {_position(shown, check.x)}; "
             f"{check.source})")
         add(f"  strength:     {_ratio(check.strength_utilization)} ({check.strength_kind})")
-        allowed = shown.show("small_length", check.deflection_allowed)
-        add(f"  deflection:   {shown.show('small_length', check.max_deflection)} against "
-            f"span/{check.settings.deflection_limit:g} = {allowed} ({_ratio(check.deflection_utilization)})")
+    service = result.service
+    if service is not None:
+        add("")
+        add("Service check (deflection; apart from the strength utilisation)")
+        allowed = shown.show("small_length", service.allowed)
+        add(f"  deflection:   {shown.show('small_length', abs(service.deflection))} at x = "
+            f"{_position(shown, service.x)} against span/{service.limit:g} = {allowed} "
+            f"({_ratio(service.utilization)})")
+        add(f"  basis:        {service.basis}")
     elif result.utilization is not None:
         add("")
         add(f"Member check: utilisation {_ratio(result.utilization)}")
@@ -319,6 +334,26 @@ def _peak_data(peak) -> dict:
 def _governing_data(governing) -> dict:
     return {name: _peak_data(getattr(governing, name))
             for name in ("deflection", "total_offset", "moment", "shear")}
+
+
+def _bow_direction(shown, bow) -> str:
+    """Which direction of the bow governed, with both directions' values in the display units."""
+    if not bow.automatic:
+        return bow.direction_governing
+
+    def said(direction, strength, moment):
+        util = "" if strength is None else f"strength utilisation {_ratio(strength)}, "
+        return f"{direction}: {util}max|M| {shown.show('moment', moment)}"
+
+    both = "; ".join(said(*d) for d in bow.directions)
+    return f"{bow.direction}, the worse of both directions solved ({both})"
+
+
+def _definitions() -> dict:
+    """What each amplification ratio divides by what (the engine's words)."""
+    from engine.results import AMPLIFICATION_DEFINITIONS
+
+    return dict(AMPLIFICATION_DEFINITIONS)
 
 
 def summary_data(source: str, case, result, capacity=None) -> dict:
@@ -368,8 +403,13 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "amplification": {
             "moment": _finite(amplification.moment),
             "deflection": _finite(amplification.deflection),
+            "moment_first_order": _finite(amplification.moment_first_order),
+            "moment_bow_free": _finite(amplification.moment_bow_free),
+            "reference_moment": _finite(amplification.reference_moment),
+            "definitions": _definitions(),
             "approximations": [
-                {"name": a.name, "value": _finite(a.value), "source": a.source, "error": _finite(a.error)}
+                {"name": a.name, "value": _finite(a.value), "source": a.source, "error": _finite(a.error),
+                 "compared_with": a.compared_with}
                 for a in amplification.approximations
             ],
         },
@@ -380,6 +420,12 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "section": None if result.section is None else result.section.name,
         "material": None if result.material is None else result.material.name,
         "bow": None if result.bow is None else result.bow.label,
+        "bow_direction": None if result.bow is None else {
+            "used": result.bow.direction, "governing": result.bow.direction_governing,
+            "favourable": bool(result.bow.favourable), "sway": _finite(result.bow.sway),
+            "compared": [{"direction": d, "strength_utilization": _finite(u), "max_moment": _finite(m)}
+                         for d, u, m in result.bow.directions],
+        },
         "utilization": _finite(result.utilization),
         "check": None if check is None else {
             "method": check.settings.method,
@@ -392,6 +438,12 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "max_deflection": _finite(check.max_deflection),
             "deflection_allowed": _finite(check.deflection_allowed),
             "source": check.source,
+        },
+        "service": None if result.service is None else {
+            "deflection_utilization": _finite(result.service.utilization),
+            "deflection": _finite(result.service.deflection), "x": _finite(result.service.x),
+            "allowed": _finite(result.service.allowed), "basis": result.service.basis,
+            "source": result.service.source,
         },
         "capacity": None if capacity is None else {
             "mode": capacity.mode,

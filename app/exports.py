@@ -85,6 +85,14 @@ _METHOD = (
     "EN 1993-1-1 §5.2.2(7)a with the initial bow in the analysis."
 )
 
+_DEFINITIONS_TEXT = (
+    "Definitions: moment amplification = max|M_II| / max|M_I + N·w0| (the reference holds the bow's moment, "
+    "as the deflection's holds w0); AISC B1 is compared on the member without its bow. A preset bow with "
+    "automatic direction is solved both ways and the worse kept; with a free or guided end it follows the "
+    "first mode, plus the sway of EN 1993-1-1 eq. (5.5). Utilisation = strength and stability; deflection = "
+    "a separate service check on the loads as given, without the bow."
+)
+
 _FALLBACK_CAUTION = (
     "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, local "
     "buckling, connections and load combinations are not checked. Check the results against your local codes "
@@ -832,7 +840,7 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
         flow.para(f"Pcr1 = {_pcr_text(result, U)}, K = {_ratio(result.buckling.effective_length_factor)}, "
                   f"α_cr = {_alpha_text(result)}")
         amplification = result.amplification
-        flow.para(f"Amplification, exact: moment {_ratio(amplification.moment)}, "
+        flow.para(f"Amplification, exact: moment {_ratio(amplification.moment)} (over M_I + N·w0), "
                   f"deflection {_ratio(amplification.deflection)}", hanging=0.15)
         utilisation = _utilisation_text(result, U)
         if utilisation:
@@ -1020,6 +1028,19 @@ def _number_text(value: float) -> str:
     return repr(float(value))
 
 
+def _amplification_comments(result) -> list:
+    """The CSV's comment lines for the exact amplifications, each with its definition."""
+    from engine.results import AMPLIFICATION_DEFINITIONS as words
+
+    amp = result.amplification
+    lines = []
+    for key in ("moment", "moment_first_order", "moment_bow_free", "deflection"):
+        value = getattr(amp, key)
+        if value is not None:
+            lines.append(f"amplification {key} [-]: {_number_text(value)} ({words[key]})")
+    return lines
+
+
 def csv_text(result, *, units="si") -> str:
     """Return the stations of `result` as CSV text, one row per station, with units in the header.
 
@@ -1051,8 +1072,14 @@ def csv_text(result, *, units="si") -> str:
         "(compression positive)",
         f"Pcr1 [{U.label('force')}]: {_number_text(U.convert('force', pcr1))}",
         f"status: {_status_text(result, U)}",
-        *([f"utilisation [-]: {_number_text(result.utilization)} (governing, deflection included)"]
+        *([f"utilisation [-]: {_number_text(result.utilization)} (strength and stability; the deflection "
+           "check is apart)"]
           if result.utilization is not None else []),
+        *([f"deflection utilisation [-]: {_number_text(result.service.utilization)} (service check: "
+           f"{result.service.basis})"] if result.service is not None else []),
+        *_amplification_comments(result),
+        *([f"bow direction: {result.bow.direction_governing}"]
+          if result.bow is not None and result.bow.direction_governing else []),
         "columns ending in 1 are first order (P = 0) at the same stations; a station at a point load or "
         "couple appears twice; inf marks a value that is unbounded at a critical load",
         f"caution: {_general_caution(result)}",
@@ -1127,6 +1154,11 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         item("", f"source: {bow.source}", scale=0.85, color=_GREY)
     if bow is not None and bow.curve_reason:
         item("", f"buckling curve: {bow.curve_reason}", scale=0.85, color=_GREY)
+    if bow is not None and bow.sway_source:
+        item("", f"sway: {bow.sway_source}", scale=0.85, color=_GREY)
+    if bow is not None and bow.direction_governing:
+        item("Bow direction", f"{bow.direction}, the worse of both directions solved" if bow.automatic
+             else bow.direction_governing)
     if result.check is not None:
         settings = result.check.settings
         item("Member check", f"{settings.method}, γ_M0 = {settings.gamma_M0:g}, "
@@ -1136,6 +1168,8 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
 
     flow.heading("2  Method and references")
     flow.para(_METHOD)
+    flow.space(2)
+    flow.para(_DEFINITIONS_TEXT, scale=0.9)
     flow.space(2)
     for n, reference in enumerate(_REFERENCES, start=1):
         flow.para(f"[{n}]  {reference}", scale=0.9, hanging=0.3)
@@ -1172,12 +1206,18 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     item("", "T(0) − T(L) = total transverse load; the left support pushes the member by −T(0), the right by "
              "+T(L), along +w", scale=0.85, color=_GREY)
     amplification = result.amplification
-    item("Amplification, exact", f"moment {_ratio(amplification.moment)} (max|M| / max|M1|), deflection "
-                                 f"{_ratio(amplification.deflection)} (max|w + w0| / max|w1 + w0|)")
+    from engine.results import AMPLIFICATION_DEFINITIONS as words
+
+    free = ("" if amplification.moment_bow_free is None
+            else f"; {_ratio(amplification.moment_bow_free)} without the bow")
+    item("Amplification, exact", f"moment {_ratio(amplification.moment)} over M_I + N·w0 "
+                                 f"({_ratio(amplification.moment_first_order)} over M_I alone{free}); "
+                                 f"deflection {_ratio(amplification.deflection)} ({words['deflection']})")
     if amplification.approximations:
         for approximation in amplification.approximations:
+            against = ("exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact")
             item("", f"{approximation.name} = {_ratio(approximation.value)}, error "
-                     f"{_percent(approximation.error)} against exact; {approximation.source}", scale=0.92)
+                     f"{_percent(approximation.error)} against {against}; {approximation.source}", scale=0.92)
     else:
         item("", "no approximations (none applies at or above Pcr1)", scale=0.92, color=_GREY)
     equilibrium = result.equilibrium
@@ -1198,10 +1238,12 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         item("Utilisation", _utilisation_text(result, U), weight="bold")
         item("", f"source: {check.source}", scale=0.85, color=_GREY)
         item("Strength alone", f"{_ratio(check.strength_utilization)} ({check.strength_kind})")
-        allowed = U.show("small_length", check.deflection_allowed)
-        item("Deflection", f"max|w| = {U.show('small_length', check.max_deflection)} against span/"
-                           f"{check.settings.deflection_limit:g} = {allowed} "
-                           f"({_ratio(check.deflection_utilization)})")
+        service = result.service
+        if service is not None:
+            allowed = U.show("small_length", service.allowed)
+            shown = U.show("small_length", abs(service.deflection))
+            item("Deflection (service)", f"max|w| = {shown} against span/{service.limit:g} = {allowed} "
+                                         f"({_ratio(service.utilization)}); loads as given, no bow")
         resistances = check.resistances or {}
         parts = []
         for key, kind in (("N_Rd", "force"), ("M_Rd", "moment"), ("V_Rd", "force")):

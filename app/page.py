@@ -572,7 +572,7 @@ class MemberPage(pn.viewable.Viewer):
         amp.add_layout(
             Legend(
                 items=[
-                    LegendItem(label=value("moment, exact: max|M| / max|M₁|"), renderers=[r_exact_m]),
+                    LegendItem(label=value("moment, exact: max|M| / max|M₁ + N·w0|"), renderers=[r_exact_m]),
                     LegendItem(
                         label=value("deflection, exact: max|w+w0| / max|w₁+w0|"), renderers=[r_exact_w]
                     ),
@@ -1685,8 +1685,17 @@ class MemberPage(pn.viewable.Viewer):
             text = f"In use: {_esc(bow.label)}"
             if bow.curve_reason:
                 text += f"<br>Curve: {_esc(bow.curve_reason)}"
-            if bow.opposes_load:
-                text += "<br><b>The bow points against the loads' deflection.</b>"
+            if bow.direction_governing and bow.automatic:
+                both = "; ".join(
+                    ("" if u is None else f"{d}: utilisation {_ratio_text(u)}, max|M| ")
+                    + ("" if u is not None else f"{d}: max|M| ") + U.show("moment", m)
+                    for d, u, m in bow.directions
+                )
+                text += f"<br>Direction: {_esc(bow.direction)}, the worse of both solved ({_esc(both)})"
+            elif bow.direction_governing:
+                text += f"<br>Direction: {_esc(bow.direction_governing)}"
+            if bow.favourable:
+                text += "<br><b>The bow points the favourable way: reversed, it gives more.</b>"
         else:
             imperfection = result.case.imperfection
             text = (
@@ -2134,9 +2143,15 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
     )
     head("Amplification · error of approximation")
     amplification = result.amplification
-    row("exact, M · w+w0", f"{_ratio_text(amplification.moment)} · {_ratio_text(amplification.deflection)}")
+    row("exact, M · w+w0", f"{_ratio_text(amplification.moment)} · {_ratio_text(amplification.deflection)}",
+        "M over M_I + N·w0")
+    row("M over M_I alone", _ratio_text(amplification.moment_first_order), "bow's moment counted in")
+    if amplification.moment_bow_free is not None:
+        row("M, member without bow", _ratio_text(amplification.moment_bow_free), "B1 is compared with it")
     for approximation in amplification.approximations:
-        row(_esc(approximation.name), _ratio_text(approximation.value), _percent(approximation.error))
+        against = " (no bow)" if approximation.compared_with == "moment_bow_free" else ""
+        error = _percent(approximation.error) + against
+        row(_esc(approximation.name), _ratio_text(approximation.value), error)
     if not amplification.approximations:
         row("approximations", "none at or beyond Pcr1")
     check = result.check
@@ -2154,6 +2169,15 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
             "",
             check.strength_utilization > 1,
         )
+        service = result.service
+        if service is not None:
+            row(
+                "deflection (service)",
+                f"{_ratio_text(service.utilization)} {U.show('small_length', abs(service.deflection))}",
+                "loads as given, no bow",
+                False,
+                service.utilization > 1,
+            )
         if capacity is not None:
             row(
                 "capacity N",

@@ -173,6 +173,9 @@ def _build() -> dict[str, Any]:
                           "description": "Which way a preset's bow points: 'load' (the way the loads deflect "
                                          "the member, the unfavourable way), 'positive' or 'negative'. Only "
                                          "with a preset; default 'load'."},
+            "columns": {"type": "integer", "minimum": 1, "maximum": 1000,
+                        "description": "m of EN 1993-1-1 eq. (5.5), for the sway a preset adds on a member "
+                                       "with an end that can translate; only with a preset; default 1."},
         },
         description="The initial bow w0(x), a stress-free initial shape measured like w: a shape and an "
                     "amplitude, or a code preset.",
@@ -182,7 +185,8 @@ def _build() -> dict[str, Any]:
             # Curve, analysis and direction are a preset's settings.
             {"if": no_preset, "then": {"properties": {"curve": {"const": "auto"},
                                                       "analysis": {"const": "elastic"},
-                                                      "direction": {"const": "load"}}}},
+                                                      "direction": {"const": "load"},
+                                                      "columns": {"const": 1}}}},
             # The ratio goes with preset 'span', and 'span' needs it.
             {"if": preset_is("span"), "then": {"required": ["ratio"]},
              "else": {"not": {"required": ["ratio"]}}},

@@ -11,6 +11,10 @@ With :math:`\alpha = P/P_{cr,1}`, :math:`P_{cr,1}` the member's exact first elas
   :math:`C_m = 0.6 - 0.4 M_1/M_2` when only end moments act, :math:`1 + \psi\alpha` where the table fits,
   and conservatively 1.0 otherwise; :math:`\alpha_{LRFD} = 1`, and :math:`P_{e1}` taken as the exact critical load
   (the Appendix allows an analysis to justify it). Only for members braced at both ends.
+
+The first two are compared with the exact amplification over the reference :math:`M_I + N w_0`
+(:mod:`engine.reference`); B1 with the exact amplification of the member without its bow, since AISC keeps the
+out-of-straightness inside :math:`P_c` (from memory).
 """
 
 from __future__ import annotations
@@ -19,7 +23,7 @@ import numpy as np
 
 from engine.results import Approximation
 
-__all__ = ["approximations", "psi_for"]
+__all__ = ["approximations", "braced", "psi_for"]
 
 _SOURCE_SIMPLE = "Timoshenko & Gere (1961) ch. 1, sinusoidal amplification 1/(1 - P/Pcr) (article from memory)"
 _SOURCE_PSI = "AISC 360-16 Commentary Table C-A-8.1, psi after Iwankiw (1984) (case matching from memory)"
@@ -34,7 +38,8 @@ _PSI = {
 }
 
 
-def _braced(case) -> bool:
+def braced(case) -> bool:
+    """Both ends held against translation (B1 is for such members)."""
     return case.left.translation == "fixed" and case.right.translation == "fixed"
 
 
@@ -71,7 +76,7 @@ def _end_moment_cm(case, end_moments) -> float | None:
     return 0.6 + 0.4 * (small / big)
 
 
-def approximations(case, axial_force, pcr1, exact, end_moments) -> tuple:
+def approximations(case, axial_force, pcr1, exact, end_moments, bow_free=None) -> tuple:
     """The approximations that apply to ``case`` at ``axial_force``, each with its error against ``exact``.
 
     Parameters
@@ -82,7 +87,11 @@ def approximations(case, axial_force, pcr1, exact, end_moments) -> tuple:
     pcr1 : float
         First critical load [N].
     exact : float or None
-        Exact moment amplification [-].
+        Exact moment amplification against the reference M_I + N·w0 [-] (1/(1 - α) and the ψ form are
+        compared with it).
+    bow_free : float or None
+        Exact moment amplification of the member without its bow [-]: AISC B1 is compared with it, since
+        AISC keeps the out-of-straightness inside P_c (AISC 360-16 Appendix 8 / Chapter E, from memory).
     end_moments : tuple of float
         First-order member-end moments M(0) and M(L) [N·m], for the C_m of end moments.
 
@@ -96,9 +105,9 @@ def approximations(case, axial_force, pcr1, exact, end_moments) -> tuple:
         return ()
     alpha = P / pcr1
 
-    def item(name, value, source):
-        err = None if exact is None or exact == 0 else float((value - exact) / exact)
-        return Approximation(name=name, value=float(value), source=source, error=err)
+    def item(name, value, source, against=exact, key="moment"):
+        err = None if against is None or against == 0 else float((value - against) / against)
+        return Approximation(name=name, value=float(value), source=source, error=err, compared_with=key)
 
     out = [item("1/(1 - P/Pcr1)", 1.0 / (1.0 - alpha), _SOURCE_SIMPLE)]
     if P <= 0:
@@ -106,9 +115,10 @@ def approximations(case, axial_force, pcr1, exact, end_moments) -> tuple:
     psi = psi_for(case)
     if psi is not None:
         out.append(item(f"(1 + psi P/Pcr1)/(1 - P/Pcr1), psi = {psi:g}", (1 + psi * alpha) / (1 - alpha), _SOURCE_PSI))
-    if _braced(case):
+    if braced(case):
         cm = _end_moment_cm(case, end_moments)
         if cm is None:
             cm = 1.0 + psi * alpha if psi is not None else 1.0
-        out.append(item(f"AISC B1, Cm = {cm:.3f}", max(cm / (1.0 - alpha), 1.0), _SOURCE_B1))
+        out.append(item(f"AISC B1, Cm = {cm:.3f}", max(cm / (1.0 - alpha), 1.0), _SOURCE_B1, bow_free,
+                        "moment_bow_free"))
     return tuple(out)

@@ -2,17 +2,20 @@
 
 from __future__ import annotations
 
+import dataclasses
 import math
 
 import numpy as np
 
-from engine.amplification import approximations
+from engine.amplification import approximations, braced
 from engine.buckling import critical_loads
 from engine.cautions import assess
 from engine.checks import check_member
 from engine.errors import CaseError
 from engine.imperfections import bow_for
-from engine.results import Amplification, Equilibrium, Governing, Peak, Reactions, Result, SweepResult
+from engine.reference import reference_peak, reference_peaks
+from engine.results import (Amplification, Equilibrium, Governing, Peak, Reactions, Result, ServiceCheck,
+                            SweepResult)
 from engine.solution import Batch, Model, Points, base_stations, refine_peaks, strongest_tension_kappa
 
 __all__ = ["solve", "sweep"]
@@ -62,9 +65,54 @@ class _Prepared:
             self.member, analysis_case = resolve(case)
         self.analysis_case = analysis_case
         self.buckling = critical_loads(analysis_case, 5)
-        self.model = Model(analysis_case, bow_for(analysis_case, self.buckling))
+        self._start(self.member.bow if self.member is not None else None)
+
+    def _start(self, choice) -> None:
+        """The model of ``self.analysis_case`` with the sway of ``choice`` (a BowChoice or None)."""
+        if choice is not None and choice.sway != 0.0:
+            bow = bow_for(self.analysis_case, self.buckling, choice.sway_slope, choice.sway_anchor)
+        else:
+            bow = bow_for(self.analysis_case, self.buckling)
+        self.model = Model(self.analysis_case, bow)
         self._stations: dict = {}
         self._first: dict = {}
+        self._reference: dict = {}
+        self._variants: dict = {}
+
+    @property
+    def has_bow(self) -> bool:
+        """The model has an initial bow or sway."""
+        return self.model.bow.shape != "none"
+
+    def variant(self, kind: str) -> _Prepared:
+        """The member with its bow reversed (``"reversed"``) or without it (``"bow_free"``), cached."""
+        hit = self._variants.get(kind)
+        if hit is None:
+            from engine.case import Imperfection
+
+            hit = object.__new__(_Prepared)
+            hit.buckling = self.buckling
+            choice = None
+            if kind == "reversed":
+                choice = self.member.bow.reversed()
+                hit.member = dataclasses.replace(self.member, bow=choice)
+                imperfection = Imperfection(shape=choice.shape, amplitude=choice.amplitude)
+            else:
+                hit.member = self.member
+                imperfection = Imperfection()
+            hit.analysis_case = dataclasses.replace(self.analysis_case, imperfection=imperfection)
+            hit._start(choice)
+            self._variants[kind] = hit
+        return hit
+
+    def reference(self, count):
+        """M_I, V_I and the bow at the base stations, for the reference moment M_I + N·w0 (cached)."""
+        if count not in self._reference:
+            from engine.reference import ReferenceData
+
+            seg, xi, _, _ = self.stations(count, 0.0)
+            self._reference[count] = ReferenceData(self.model, seg, xi)
+        return self._reference[count]
 
     def bow_facts(self) -> dict:
         """What the cautions need to know of the bow."""
@@ -74,8 +122,8 @@ class _Prepared:
                     "opposes_load": False, "shape": imp.shape}
         bow = self.member.bow
         return {"amplitude": bow.amplitude if bow.shape != "none" else 0.0, "code_amplitude": bow.code_amplitude,
-                "code_label": bow.code_label, "code_source": bow.code_source, "opposes_load": bow.opposes_load,
-                "shape": bow.shape}
+                "code_label": bow.code_label, "code_source": bow.code_source, "opposes_load": bow.favourable,
+                "shape": bow.shape, "notes": bow.notes, "sway": bow.sway}
 
     def stations(self, count, kappa):
         """Base stations (seg, xi, shown) and their Points, cached."""
@@ -177,7 +225,8 @@ def _message(status, P, pcr, n_crit) -> str:
     return "No axial force: first-order solution."
 
 
-def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, first_order=False) -> Result:
+def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, first_order=False,
+           bow_free=None, cautions=True) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
     w0 = st["w0"]
@@ -203,7 +252,7 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
     if status == "critical":
         reactions = Reactions(left_T=math.inf, left_M=math.inf, right_T=math.inf, right_M=math.inf)
         equilibrium = None
-        amplification = Amplification(moment=math.inf, deflection=math.inf)
+        amplification = Amplification(moment=math.inf, deflection=math.inf, moment_first_order=math.inf)
     else:
         # Support-side end values: state(0-) = state(0+) - jump(0), state(L+) = state(L-) + jump(L).
         last = model.nodes.size - 1
@@ -225,26 +274,32 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
         res_m = (lhs - rhs) / scale_m if scale_m > 0 else 0.0
         equilibrium = Equilibrium(transverse=float(res_t), moment=float(res_m))
         if first_order:
-            amplification = Amplification(moment=1.0 if governing.moment.magnitude > 0 else None,
-                                          deflection=1.0 if governing.total_offset.magnitude > 0 else None)
+            one = 1.0 if governing.moment.magnitude > 0 else None
+            amplification = Amplification(moment=one, deflection=1.0 if governing.total_offset.magnitude > 0
+                                          else None, moment_first_order=one)
         else:
-            _, _, _, m1, d1, ends = prep.first_order(count)
-            m_exact = _ratio(governing.moment.magnitude, m1)
-            amplification = Amplification(moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
-                                          approximations=approximations(case, P, pcr[0], m_exact, ends))
+            amplification = _amplification(case, prep, count, P, governing, bow_free)
     member = prep.member
     section = member.section if member is not None else None
     material = member.material if member is not None else None
-    check, cautions = None, ()
-    if not first_order:
-        if section is not None and material is not None and status != "critical":
-            check = check_member(x=x, axial_force=P, moment=M, shear=V, deflection=w, length=model.L,
-                                 section=section, material=material, axis=case.axis, settings=case.check)
-        slender = buckling.effective_length_factor * model.L / section.i if section is not None else None
-        cautions = tuple(assess(P=P, pcr1=float(pcr[0]), alpha_cr_limit=10.0 if case.check.method == "elastic"
-                                else 15.0, status=status, slenderness=slender, section=section,
-                                material=material, axis=case.axis, check=check, bow=prep.bow_facts()))
-    return Result(
+    check = service = None
+    if not first_order and section is not None and material is not None and status != "critical":
+        # The deflection check is a service check: on the loads as given, without the code's bow.
+        if bow_free is not None:
+            w_service = bow_free["deflection"]
+        elif not prep.has_bow:
+            w_service = governing.deflection
+        else:
+            w_service = None
+        check = check_member(x=x, axial_force=P, moment=M, shear=V,
+                             deflection=np.array([w_service.value if w_service is not None else values[0]]),
+                             length=model.L, section=section, material=material, axis=case.axis,
+                             settings=case.check)
+        if w_service is not None:
+            service = ServiceCheck(utilization=check.deflection_utilization, deflection=w_service.value,
+                                   x=w_service.x, allowed=check.deflection_allowed,
+                                   limit=check.settings.deflection_limit)
+    result = Result(
         case=case, axial_force=float(P), x=x, deflection=w, rotation=rot, moment=M, shear=V, transverse_force=T,
         initial_bow=w0, total_offset=total, status=status, stable=status == "stable",
         message=_message(status, P, pcr, n_crit), critical_loads=pcr.copy(), buckling=buckling,
@@ -253,40 +308,49 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
         EI=model.EI, section=section, material=material, bow=member.bow if member is not None else None,
         check=check, utilization=(check.utilization if check is not None else
                                   (math.inf if status == "critical" and section is not None else None)),
-        cautions=cautions,
+        service=service,
     )
+    if not first_order and cautions:
+        result = _with_cautions(result, prep, favourable=False)
+    return result
 
 
-def solve(case, stations: int = 401) -> Result:
-    """Solve one case exactly: deflection, rotation, moment, shear and transverse force at the stations.
+def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
+    """The exact amplifications (both definitions, the bow-free one where known) and the approximations."""
+    _, _, _, m1, d1, ends = prep.first_order(count)
+    if prep.has_bow and P != 0.0:
+        ref, ref_x = reference_peak(prep.reference(count), P)
+    else:  # no bow's moment: the reference is the first-order moment itself
+        ref, ref_x = m1, None
+    m2 = governing.moment.magnitude
+    m_exact, m_first = _ratio(m2, ref), _ratio(m2, m1)
+    if bow_free is not None:
+        m_free = _ratio(bow_free["moment"], m1)
+    else:
+        m_free = None if prep.has_bow and P != 0.0 else m_first
+    return Amplification(
+        moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
+        approximations=approximations(case, P, prep.buckling.critical_loads[0], m_exact, ends,
+                                      bow_free=m_free),
+        moment_first_order=m_first, moment_bow_free=m_free, reference_moment=ref, reference_moment_x=ref_x)
 
-    Parameters
-    ----------
-    case : Case
-        The member (:class:`engine.Case`).
-    stations : int
-        Number of uniformly spaced stations (2 to 100 000). Nodes, doubled jump points and exact interior
-        peaks are added, so ``result.x`` is longer.
 
-    Returns
-    -------
-    Result
-        With ``first_order`` (P = 0) at the same stations. At a critical load ``status == "critical"`` and the
-        response is +inf; above the first critical load ``stable`` is False.
+def _with_cautions(result, prep, favourable: bool) -> Result:
+    """``result`` with its cautions (``favourable``: the bow used is the favourable way)."""
+    case, section, buckling = result.case, result.section, prep.buckling
+    pcr1 = float(buckling.critical_loads[0])
+    slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
+    facts = dict(prep.bow_facts(), opposes_load=favourable)
+    limit = 10.0 if case.check.method == "elastic" else 15.0
+    cautions = tuple(assess(P=result.axial_force, pcr1=pcr1, alpha_cr_limit=limit, status=result.status,
+                            slenderness=slender, section=section, material=result.material, axis=case.axis,
+                            check=result.check, bow=facts, service=result.service))
+    return dataclasses.replace(result, cautions=cautions)
 
-    Examples
-    --------
-    >>> import engine
-    >>> case = engine.Case.from_dict({"schema": 1, "length": 4.0, "EI": 1e6,
-    ...     "supports": {"left": "pinned", "right": "pinned"}, "loads": [{"type": "uniform", "q": 1e3}]})
-    >>> r = engine.solve(case)
-    >>> round(r.governing.moment.value, 6), r.governing.moment.x       # qL²/8 at mid-span
-    (2000.0, 2.0)
-    """
-    n = _check_stations(stations)
-    prep = _prepare(case)
+
+def _raw(prep, n: int, P: float):
+    """One prepared member at one axial force: status, critical index and the state at the stations."""
     model, pcr = prep.model, prep.buckling.critical_loads
-    P = float(case.axial_force)
     n_crit = _critical_index(P, pcr)
     seg, xi, shown, pts = prep.stations(n, math.sqrt(-P / model.EI) if P < 0 else 0.0)
     batch = Batch(model, [P], at=pts)
@@ -316,11 +380,122 @@ def solve(case, stations: int = 401) -> Result:
         extra = ext["_rows"] if "_rows" in ext else np.stack([ext[name] for name in _FIELDS])
         both = np.concatenate([base, extra], axis=1)[:, order]
         values = dict(zip(_FIELDS, both))
-    return _build(case, prep, n, P, values, x, seg, xi, status=status, n_crit=n_crit)
+    return status, n_crit, values, x, seg, xi
+
+
+def solve(case, stations: int = 401) -> Result:
+    """Solve one case exactly: deflection, rotation, moment, shear and transverse force at the stations.
+
+    Where a code preset leaves the bow's direction automatic, both directions are solved and the worse is
+    returned (``result.bow.direction_governing`` says which). The deflection check (``result.service``) is
+    made on the loads as given without the bow.
+
+    Parameters
+    ----------
+    case : Case
+        The member (:class:`engine.Case`).
+    stations : int
+        Number of uniformly spaced stations (2 to 100 000). Nodes, doubled jump points and exact interior
+        peaks are added, so ``result.x`` is longer.
+
+    Returns
+    -------
+    Result
+        With ``first_order`` (P = 0) at the same stations. At a critical load ``status == "critical"`` and the
+        response is +inf; above the first critical load ``stable`` is False.
+
+    Examples
+    --------
+    >>> import engine
+    >>> case = engine.Case.from_dict({"schema": 1, "length": 4.0, "EI": 1e6,
+    ...     "supports": {"left": "pinned", "right": "pinned"}, "loads": [{"type": "uniform", "q": 1e3}]})
+    >>> r = engine.solve(case)
+    >>> round(r.governing.moment.value, 6), r.governing.moment.x       # qL²/8 at mid-span
+    (2000.0, 2.0)
+    """
+    return _solve(case, _prepare(case), _check_stations(stations))
+
+
+def strength_solve(case, stations: int = 401) -> Result:
+    """:func:`solve` without what does not bear on the strength utilisation (for the capacity finder)."""
+    return _solve(case, _prepare(case), _check_stations(stations), details=False)
+
+
+def _solve(case, prep, n: int, details: bool = True) -> Result:
+    """:func:`solve` on a prepared case; ``details=False`` (the capacity finder) leaves out what does not
+    bear on the strength utilisation: the bow-free solve (service check, B1) and the favourable-bow check."""
+    P = float(case.axial_force)
+    raw = _raw(prep, n, P)
+    status = raw[0]
+    choice = prep.member.bow if prep.member is not None else None
+    reverse = (choice is not None and prep.has_bow and P != 0.0 and status != "critical"
+               and (choice.automatic or details))
+    bow_free = None
+    if details and prep.has_bow and P != 0.0 and status != "critical":
+        member = prep.member
+        checked = member is not None and member.section is not None and member.material is not None
+        if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
+            bow_free = _bow_free_peaks(prep.variant("bow_free"), n, P)
+    if not reverse:
+        return _build(case, prep, n, P, *raw[2:], status=status, n_crit=raw[1], bow_free=bow_free)
+    other_prep = prep.variant("reversed")
+    other = _raw(other_prep, n, P)
+    a, b = _severity(case, prep, P, raw), _severity(case, other_prep, P, other)
+    sa, sb = (-1.0 if a[0] is None else a[0]), (-1.0 if b[0] is None else b[0])
+    tol = 1e-9 * max(1.0, abs(sa))
+    worse_b = sb > sa + tol or (abs(sb - sa) <= tol and b[1] > a[1] * (1.0 + 1e-9))
+    facts = ((choice.direction, *a), (other_prep.member.bow.direction, *b))
+
+    def said(direction, strength, moment):
+        text = f"max|M| {moment * 1e-3:.4g} kN·m"
+        return f"{direction}: strength utilisation {strength:.3f}, {text}" if strength is not None else \
+            f"{direction}: {text}"
+
+    if choice.automatic:
+        (chosen_prep, chosen_raw, kept, rest) = ((other_prep, other, facts[1], facts[0]) if worse_b
+                                                 else (prep, raw, facts[0], facts[1]))
+        text = f"{kept[0]}: the worse of the two directions solved ({said(*kept)}; {said(*rest)})"
+        favourable = False
+    else:
+        chosen_prep, chosen_raw, favourable = prep, raw, worse_b
+        text = f"{choice.direction}, as the case fixes it" + (
+            f" (the favourable way: reversed, {said(*facts[1])})" if favourable else "")
+    result = _build(case, chosen_prep, n, P, *chosen_raw[2:], status=chosen_raw[0], n_crit=chosen_raw[1],
+                    bow_free=bow_free, cautions=False)
+    bow = dataclasses.replace(result.bow, direction_governing=text, directions=facts, favourable=favourable)
+    return _with_cautions(dataclasses.replace(result, bow=bow), chosen_prep, favourable=favourable)
+
+
+def _bow_free_peaks(prep, n, P) -> dict:
+    """The largest |M| and |w| (with where) of the member without its bow, at one axial force."""
+    status, _, values, x, _, _ = _raw(prep, n, P)
+    if status == "critical":
+        return {"moment": math.inf, "deflection": Peak(value=math.inf, x=0.0)}
+    i, j = int(np.argmax(np.abs(values["M"]))), int(np.argmax(np.abs(values["w"])))
+    return {"moment": abs(float(values["M"][i])),
+            "deflection": Peak(value=float(values["w"][j]), x=float(x[j]))}
+
+
+def _severity(case, prep, P, raw) -> tuple:
+    """What decides the worse direction: the strength utilisation (None where unchecked), then max|M|."""
+    status, _, values, x, _, _ = raw
+    moment = float(np.abs(values["M"]).max()) if status != "critical" else math.inf
+    member = prep.member
+    if member.section is None or member.material is None:
+        return None, moment
+    if status == "critical":
+        return math.inf, moment
+    check = check_member(x=x, axial_force=P, moment=values["M"], shear=values["V"], deflection=np.zeros(1),
+                         length=prep.model.L, section=member.section, material=member.material,
+                         axis=case.axis, settings=case.check)
+    return check.strength_utilization, moment
 
 
 def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
     """Governing values of ``case`` for many axial forces at once (the other loads as given).
+
+    Where a code preset leaves the bow's direction automatic, both directions are swept and each value is the
+    worse of the two at each force.
 
     Parameters
     ----------
@@ -341,6 +516,33 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
     if P.size == 0 or not np.isfinite(P).all():
         raise CaseError("axial_forces: give at least one finite axial force [N]")
     prep = _prepare(case)
+    out, first, critical = _sweep_arrays(prep, P, n)
+    choice = prep.member.bow if prep.member is not None else None
+    if choice is not None and choice.automatic and prep.has_bow:
+        other, _, _ = _sweep_arrays(prep.variant("reversed"), P, n)
+        for key in ("deflection", "total_offset", "shear"):
+            better = other[key][0] > out[key][0]
+            out[key] = tuple(np.where(better, o, v) for o, v in zip(other[key], out[key], strict=True))
+        better = other["moment"][0] > out["moment"][0]  # the moment and its amplifications go together
+        for key in ("moment", "amp_m", "amp_m1"):
+            out[key] = tuple(np.where(better, o, v) for o, v in zip(other[key], out[key], strict=True))
+    pcr = prep.buckling.critical_loads
+    return SweepResult(
+        axial_force=P, peak_deflection=out["deflection"][0], peak_deflection_x=out["deflection"][1],
+        peak_total_offset=out["total_offset"][0], peak_total_offset_x=out["total_offset"][1],
+        peak_moment=out["moment"][0], peak_moment_x=out["moment"][1],
+        peak_shear=out["shear"][0], peak_shear_x=out["shear"][1],
+        moment_amplification=out["amp_m"][0], moment_amplification_first_order=out["amp_m1"][0],
+        deflection_amplification=(out["total_offset"][0] / out["d1"] if out["d1"] > 0
+                                  else np.full(P.size, np.nan)),
+        simple_amplification=np.where(P < pcr[0], 1.0 / np.where(P < pcr[0], 1.0 - P / pcr[0], 1.0), np.nan),
+        stable=(P < pcr[0]) & ~critical, critical=critical, critical_loads=pcr.copy(), first_order=first,
+    )
+
+
+def _sweep_arrays(prep, P, n):
+    """The peaks of one prepared member at many axial forces: ({field: (values, x)}, first order,
+    critical)."""
     model, pcr = prep.model, prep.buckling.critical_loads
     at_critical = _at_critical(P, pcr).any(axis=1)
     # A force exactly at a critical load has no solution; solve a neighbour instead (its values become inf
@@ -386,16 +588,10 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
         v, xv = vals[:-1].copy(), xs[:-1].copy()
         v[critical] = np.inf
         result[key] = (v, xv)
+    m1 = out["moment"][0][-1]
+    ref = reference_peaks(prep.reference(n), P) if prep.has_bow else np.full(P.size, m1)
     with np.errstate(divide="ignore", invalid="ignore"):
-        m1, d1 = out["moment"][0][-1], out["total_offset"][0][-1]
-        amp_m = result["moment"][0] / m1 if m1 > 0 else np.full(P.size, np.nan)
-        amp_d = result["total_offset"][0] / d1 if d1 > 0 else np.full(P.size, np.nan)
-    return SweepResult(
-        axial_force=P, peak_deflection=result["deflection"][0], peak_deflection_x=result["deflection"][1],
-        peak_total_offset=result["total_offset"][0], peak_total_offset_x=result["total_offset"][1],
-        peak_moment=result["moment"][0], peak_moment_x=result["moment"][1],
-        peak_shear=result["shear"][0], peak_shear_x=result["shear"][1],
-        moment_amplification=amp_m, deflection_amplification=amp_d,
-        simple_amplification=np.where(P < pcr[0], 1.0 / np.where(P < pcr[0], 1.0 - P / pcr[0], 1.0), np.nan),
-        stable=(P < pcr[0]) & ~critical, critical=critical, critical_loads=pcr.copy(), first_order=first,
-    )
+        result["amp_m"] = (np.where(ref > 1e-300, result["moment"][0] / ref, np.nan),)
+        result["amp_m1"] = (result["moment"][0] / m1 if m1 > 0 else np.full(P.size, np.nan),)
+    result["d1"] = out["total_offset"][0][-1]
+    return result, first, critical

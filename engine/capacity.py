@@ -6,8 +6,9 @@ Two ways to load the member up:
 - ``mode="proportional"``: every load, axial and transverse, grows by one factor :math:`\lambda` (a load-factor
   sweep); the case's own axial force is the reference and must be compression.
 
-Either way the bow stays as the case resolves it (a code bow depends on the member, not on the load). The
-strength checks of :mod:`engine.checks` set the capacity; the deflection check (serviceability) does not.
+Either way the bow stays as the case resolves it (a code bow depends on the member, not on the load), and
+where its direction is automatic each trial solves both directions and keeps the worse. The strength checks
+of :mod:`engine.checks` set the capacity; the deflection check (serviceability) does not.
 The search brackets the first crossing of utilisation 1 on a grid below the first critical load and refines it
 by Brent's method; if the utilisation never reaches 1 below the critical load, elastic buckling governs and the
 capacity is the critical load itself.
@@ -96,7 +97,7 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
     -------
     Capacity
     """
-    from engine.analysis import solve
+    from engine.analysis import solve, strength_solve
 
     if mode not in MODES:
         raise CaseError(f"mode: {mode!r} is not a capacity mode; allowed: 'axial', 'proportional'")
@@ -114,7 +115,8 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         top = pcr1 / reference
 
     def utilisation(t: float) -> float:
-        r = solve(_scaled(case, t, mode, reference), stations=stations)
+        # Both directions of an automatic bow, the worse kept; no service check (strength only).
+        r = strength_solve(_scaled(case, t, mode, reference), stations=stations)
         return math.inf if r.check is None else r.check.strength_utilization
 
     def found(t, check, x, message):

@@ -651,7 +651,11 @@ class Imperfection:
     ratio : float or None
         n of L/n for preset ``"span"``.
     direction : str
-        For presets: ``"load"`` (the way the loads deflect the member), ``"positive"`` or ``"negative"``.
+        For presets: ``"load"`` (automatic: both directions are solved and the unfavourable one is used),
+        ``"positive"`` or ``"negative"``.
+    columns : int
+        m of EN 1993-1-1 eq. (5.5), for the sway a preset adds on a member with an end that can translate
+        (:mod:`engine.sway`): 1 to 1000, default 1. Only with a preset.
     """
 
     shape: str = "none"
@@ -661,6 +665,7 @@ class Imperfection:
     analysis: str = "elastic"
     ratio: float | None = None
     direction: str = "load"
+    columns: int = 1
 
     def __post_init__(self) -> None:
         if not isinstance(self.shape, str) or self.shape not in IMPERFECTION_SHAPES:
@@ -695,8 +700,15 @@ class Imperfection:
             _set(self, "ratio", _real("ratio", self.ratio, "", minimum=10.0, maximum=100000.0))
         elif self.ratio is not None:
             raise CaseError(f"ratio: {_show(self.ratio)} only goes with preset 'span'")
+        if (isinstance(self.columns, bool) or not isinstance(self.columns, (int, float))
+                or not math.isfinite(self.columns) or self.columns != int(self.columns)
+                or not 1 <= self.columns <= 1000):
+            raise CaseError(f"columns: {_show(self.columns)} must be a whole number of columns from 1 "
+                            "to 1000 (m of EN 1993-1-1 eq. (5.5))")
+        _set(self, "columns", int(self.columns))
         if self.preset is None:
-            for name, default in (("curve", "auto"), ("analysis", "elastic"), ("direction", "load")):
+            for name, default in (("curve", "auto"), ("analysis", "elastic"), ("direction", "load"),
+                                  ("columns", 1)):
                 if getattr(self, name) != default:
                     raise CaseError(f"{name}: {getattr(self, name)!r} only goes with a preset; "
                                     f"allowed presets: {_quoted(IMPERFECTION_PRESETS)}")
@@ -708,6 +720,8 @@ class Imperfection:
             data.update(preset=self.preset, curve=self.curve, analysis=self.analysis, direction=self.direction)
             if self.ratio is not None:
                 data["ratio"] = self.ratio
+            if self.columns != 1:
+                data["columns"] = self.columns
         return data
 
 
@@ -716,7 +730,7 @@ class Imperfection:
 _CASE_KEYS = ("schema", "title", "length", "EI", "supports", "axial_force", "loads",
               "imperfection", "section", "axis", "material", "stiffness_factor", "check")
 _CASE_REQUIRED = ("length", "supports")
-_IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction")
+_IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
 _CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit")
 
 

@@ -47,7 +47,8 @@ GENERAL = Caution(
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
 
 
-def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, axis, check, bow) -> list:
+def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, axis, check, bow,
+           service=None) -> list:
     """The cautions for one solved case, most severe first; the general caution is always there.
 
     Parameters
@@ -68,7 +69,10 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
     check : MemberCheck or None
         The member check, when a section and material are given.
     bow : dict
-        ``amplitude`` [m] used, ``code_amplitude`` [m] or None, ``opposes_load`` (bool), ``shape``.
+        ``amplitude`` [m] used, ``code_amplitude`` [m] or None, ``opposes_load`` (bool: the bow used is the
+        favourable way, which the solve found by reversing it), ``shape``, ``notes``.
+    service : ServiceCheck or None
+        The deflection check (loads as given, no bow).
     """
     out = [GENERAL]
     alpha_cr = pcr1 / P if P > 0 else float("inf")
@@ -135,12 +139,18 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                         f"({check.strength_kind}): the member does not work as analysed."),
                                source=check.source if check.kind != "deflection" else
                                "EN 1993-1-1:2005 §6.2 (clause numbers from memory)"))
-        if check.deflection_utilization > 1.0:
+        if service is not None and service.utilization > 1.0:
             out.append(Caution(level="warning", code="deflection",
-                               message=(f"Deflection {check.max_deflection * 1e3:.1f} mm exceeds the limit "
-                                        f"span/{check.settings.deflection_limit:g} = "
-                                        f"{check.deflection_allowed * 1e3:.1f} mm."),
-                               source="span/n limits: national annexes; span/250 common practice, no source"))
+                               message=(f"Deflection {abs(service.deflection) * 1e3:.1f} mm exceeds the "
+                                        f"limit span/{service.limit:g} = {service.allowed * 1e3:.1f} mm "
+                                        "(service check on the loads as given, without the bow)."),
+                               source=service.source))
+        if service is not None:
+            out.append(Caution(level="info", code="deflection-basis",
+                               message=(f"Deflection utilisation {service.utilization:.3f}: a service check "
+                                        "apart from the strength one, on the loads as given and without the "
+                                        "bow. Enter service loads for it."),
+                               source="EN 1990 §3.4 and §6.5 serviceability (from memory)"))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))
     if P > 0 and bow.get("code_amplitude") is not None and abs(bow["amplitude"]) < bow["code_amplitude"] * (1 - 1e-9):
@@ -153,11 +163,15 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                            message=("No initial bow in a compressed member: codes require an equivalent "
                                     "imperfection (EN 1993-1-1 Table 5.1, or AISC L/1000)."),
                            source="EN 1993-1-1:2005 §5.3.2; AISC 303-16 §7.13.1.1"))
-    if P > 0 and bow.get("opposes_load"):
+    if P != 0 and bow.get("opposes_load"):
         out.append(Caution(level="warning", code="bow-opposes-load",
-                           message=("The initial bow points against the deflection the loads cause, which reduces "
-                                    "the second-order moments: codes take the imperfection in the unfavourable "
-                                    "direction."),
+                           message=("The initial bow points the favourable way at this axial force: "
+                                    "reversed, it gives a larger utilisation or moment. Codes take the "
+                                    "imperfection in the unfavourable direction: set the direction to "
+                                    "automatic ('load'), which solves both and keeps the worse."),
                            source="EN 1993-1-1:2005 §5.3.2(1) (from memory)"))
+    for note in bow.get("notes", ()):
+        out.append(Caution(level="info", code="bow-shape", message=note,
+                           source="EN 1993-1-1:2005 §5.3.2(11) (from memory)"))
     order = {"danger": 0, "warning": 1, "info": 2}
     return sorted(out, key=lambda c: order[c.level])  # stable: the general caution leads the infos

@@ -13,9 +13,11 @@ cross-section checks along the member (clause from memory; the route is describe
   conservatively to the whole section rather than the shear area);
 - **shear**: :math:`|V| / (A_v f_y/(\sqrt{3}\gamma_{M0}))`, EN 1993-1-1 §6.2.6 eq. (6.18) (from memory);
 - **deflection**: :math:`\max|w| / (L/n)`, the limit span/n of the check settings (span/250 by default, common
-  practice, no source; national annexes rule).
+  practice, no source; national annexes rule). A serviceability check: the caller passes the deflection of the
+  loads as given without the bow (:class:`engine.results.ServiceCheck`), and it never enters the governing
+  utilisation.
 
-The governing utilisation is the largest of these; the strength checks alone set the capacity.
+The governing utilisation is the largest of the strength checks, which also set the capacity.
 """
 
 from __future__ import annotations
@@ -84,9 +86,9 @@ class MemberCheck:
     ----------
     settings : CheckSettings
     utilization : float
-        The governing utilisation over all checks, deflection included [-].
+        The governing strength utilisation [-] (the deflection check is a separate service check).
     kind : str
-        Which check governs: ``"elastic stress"``, ``"plastic N–M"``, ``"shear"`` or ``"deflection"``.
+        Which check governs: ``"elastic stress"``, ``"plastic N–M"`` or ``"shear"``.
     x : float
         Where it governs [m].
     source : str
@@ -135,8 +137,10 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
         Stations [m].
     axial_force : float
         N [N], compression positive (the check uses |N|).
-    moment, shear, deflection : ndarray
-        M [N·m], V [N] and w [m] at the stations.
+    moment, shear : ndarray
+        M [N·m] and V [N] at the stations.
+    deflection : ndarray
+        w [m] for the deflection check: the caller's service deflection (any length; its largest |w| counts).
     length : float
         L [m], for the deflection limit.
     section : Section
@@ -193,11 +197,9 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
     j = int(np.argmax(w_abs))
     allowed = length / settings.deflection_limit
     d_util = float(w_abs[j] / allowed)
-    if d_util > s_value:
-        kind, value, where, source = "deflection", d_util, float(x[j]), _SOURCES["deflection"]
-    else:
-        kind, value, where = s_kind, s_value, float(x[i])
-        source = _SOURCES["shear"] if s_kind == "shear" else _SOURCES[method]
+    # Serviceability stays out of the headline: the governing utilisation is strength (and stability).
+    kind, value, where = s_kind, s_value, float(x[i])
+    source = _SOURCES["shear"] if s_kind == "shear" else _SOURCES[method]
     return MemberCheck(
         settings=settings, utilization=value, kind=kind, x=where, source=source,
         strength_utilization=s_value, strength_kind=s_kind, stations=strength, axial_bending=ab, shear=sh,

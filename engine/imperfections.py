@@ -8,10 +8,16 @@ exactly. ``amplitude`` is always the largest :math:`|w_0|` over the member (conv
 - ``parabola``: :math:`4 a x (L - x)/L^2`;
 - ``sway``: :math:`a x / L`, an initial inclination;
 - ``mode``: the first elastic buckling mode of the actual supports, scaled so its largest value is :math:`a`.
+
+Any of these may carry a global sway on top, :math:`w_0 \mathrel{+}= \varphi\,(x - x_a)` (``slope`` φ and
+``anchor`` :math:`x_a`, the end that cannot translate), for a member with a free or guided end
+(EN 1993-1-1 §5.3.2(3)a, eq. (5.5), from memory). A sway is straight, :math:`w_0'' = 0`: it puts no load along
+the member and acts only through :math:`-P w_0'` in the transverse force T, so the solution stays exact.
 """
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
@@ -44,8 +50,18 @@ class Bow:
     uniform: float = 0.0
     terms: tuple = ()
     _mode: object = None  # (Buckling, scale) for the mode shape
+    slope: float = 0.0  # a sway φ [rad] on top of the shape: w0 += slope (x - anchor)
+    anchor: float = 0.0  # [m], where the sway part is zero
 
     def derivatives(self, x):
+        """w0, w0', w0'', w0''' at ``x`` [m] ([m], [-], [1/m], [1/m²]), the sway included."""
+        w0, d1, d2, d3 = self._shape_derivatives(x)
+        if self.slope != 0.0:
+            x = np.asarray(x, dtype=float)
+            w0, d1 = w0 + self.slope * (x - self.anchor), d1 + self.slope
+        return w0, d1, d2, d3
+
+    def _shape_derivatives(self, x):
         """:math:`w_0, w_0', w_0'', w_0'''` at ``x`` [m]: [m], [-], [1/m], [1/m²]."""
         x = np.asarray(x, dtype=float)
         a, L = self.amplitude, self.length
@@ -64,7 +80,7 @@ class Bow:
         return zero, zero, zero, zero
 
 
-def bow_for(case, buckling=None) -> Bow:
+def bow_for(case, buckling=None, slope: float = 0.0, anchor: float = 0.0) -> Bow:
     """The bow of ``case`` (its ``imperfection``), with the first mode from ``buckling`` for shape ``mode``.
 
     Parameters
@@ -73,11 +89,22 @@ def bow_for(case, buckling=None) -> Bow:
         The member.
     buckling : Buckling, optional
         Needed for the ``mode`` shape.
+    slope, anchor : float
+        A global sway φ [rad] added on top, zero at ``anchor`` [m] (0: none).
 
     Returns
     -------
     Bow
     """
+    bow = _shape_bow(case, buckling)
+    if slope == 0.0:
+        return bow
+    if bow.shape == "none":  # a sway alone: shape "sway" with no a·x/L part of its own
+        bow = Bow(shape="sway", amplitude=0.0, length=bow.length)
+    return dataclasses.replace(bow, slope=float(slope), anchor=float(anchor))
+
+
+def _shape_bow(case, buckling) -> Bow:
     imp = case.imperfection
     a, L = float(imp.amplitude), float(case.length)
     shape = imp.shape

@@ -13,8 +13,17 @@ r"""From a case to the member the solver analyses: the stiffness, the section an
   - ``span``: :math:`L/n` with the case's ``ratio``.
 
   The curve is chosen from the section, axis, thickness and manufacture by EN 1993-1-1 Table 6.2 unless the case
-  names one. A preset's bow points the way the loads deflect the member (``direction: "load"``, the
-  unfavourable way) unless the case says ``positive`` or ``negative``.
+  names one.
+- **Direction.** The code asks for the imperfection in the unfavourable direction (EN 1993-1-1 §5.3.2, from
+  memory), which depends on the axial force (a bow with the loads straightens under tension). With a preset's
+  ``direction: "load"`` (automatic, the default) the analysis solves the member with the bow (and sway) both
+  ways and keeps the worse (:func:`engine.analysis.solve`); ``amplitude`` here is the sign that points with
+  the loads' first-order deflection. ``positive`` or ``negative`` fix it.
+- **Members with an end that can translate** (free, guided, or a translational spring): a preset's bow takes
+  the shape of the member's first buckling mode (a half sine between the ends does not fit a cantilever), and
+  the Table 5.1, span and AISC presets add the global sway of :mod:`engine.sway` (EN 1993-1-1 eq. (5.5), or
+  AISC's 1/500), pointing the same way as the bow. The eq. (5.9) bow has none: EN 1993-1-1 §5.3.2(11) makes
+  the first-mode imperfection the unique global and local one (from memory).
 """
 
 from __future__ import annotations
@@ -31,6 +40,7 @@ from engine.case import Imperfection
 from engine.imperfections import Bow, bow_for
 from engine.materials import material_from_spec
 from engine.sections import section_from_spec
+from engine.sway import AISC_OUT_OF_PLUMB, SOURCE_AISC, SOURCE_EN, can_sway, sway_anchor, sway_phi
 
 __all__ = ["BowChoice", "Member", "resolve"]
 
@@ -56,6 +66,26 @@ class BowChoice:
     code_label, code_source : str
     opposes_load : bool
         The bow points against the first-order deflection of the loads.
+    sway : float
+        Signed global sway φ [rad] on top of the bow (0 for none): w0 += sway · |x - sway_anchor|.
+    sway_anchor : float
+        The end held against translation, where the sway is zero [m].
+    sway_label, sway_source : str
+    automatic : bool
+        The direction is the case's automatic one: the analysis solves both and keeps the worse.
+    direction : str
+        This bow's direction in words: "with the loads' deflection", "against the loads' deflection", or
+        "+w"/"-w" when the loads give no direction.
+    direction_governing : str or None
+        On a result's bow: which direction governed and why, when both were solved.
+    directions : tuple
+        On a result's bow: ``(direction, strength utilisation or None, max|M| [N·m])`` of each direction
+        solved, the one used first.
+    favourable : bool
+        On a result's bow: the direction used is the favourable one (reversed, it gives a larger utilisation
+        or moment); only possible where the case fixes the direction.
+    notes : tuple of str
+        How the bow was adapted to the member (a shape replaced by the first mode).
     """
 
     shape: str
@@ -68,6 +98,29 @@ class BowChoice:
     code_label: str = ""
     code_source: str = ""
     opposes_load: bool = False
+    sway: float = 0.0
+    sway_anchor: float = 0.0
+    sway_label: str = ""
+    sway_source: str = ""
+    automatic: bool = False
+    direction: str = ""
+    direction_governing: str | None = None
+    directions: tuple = ()
+    favourable: bool = False
+    notes: tuple = ()
+
+    @property
+    def sway_slope(self) -> float:
+        """dw0/dx of the sway part [-] (the sway grows away from its anchor)."""
+        return self.sway if self.sway_anchor == 0.0 else -self.sway
+
+    def reversed(self) -> BowChoice:
+        """The same bow and sway pointing the other way."""
+        word = {"with the loads' deflection": "against the loads' deflection",
+                "against the loads' deflection": "with the loads' deflection", "+w": "-w", "-w": "+w"}
+        return dataclasses.replace(self, amplitude=-self.amplitude, sway=-self.sway,
+                                   opposes_load=not self.opposes_load if self.direction.endswith("deflection")
+                                   else False, direction=word.get(self.direction, self.direction))
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -205,26 +258,63 @@ def resolve(case):
             label = f"L/{imp.ratio:g}"
             source = "given in the case as a span ratio"
         amplitude = min(amplitude, L / 10)
+    notes = []
+    sway = anchor = 0.0
+    sway_label = sway_source = ""
+    if imp.preset is not None and can_sway(plain):
+        if shape in ("sine", "parabola"):
+            notes.append(f"The {shape} bow between the ends does not fit a member with an end that can "
+                         "translate: the bow takes the shape of the member's first buckling mode instead "
+                         "(EN 1993-1-1 §5.3.2(11), from memory).")
+            shape = "mode"
+        if imp.preset != "en1993-eq-5.9" and shape != "sway":  # a sway shape is a sway already
+            anchor = sway_anchor(plain)
+            if imp.preset == "aisc-l/1000":
+                phi = AISC_OUT_OF_PLUMB
+                sway_label, sway_source = "sway 1/500 (AISC out of plumb)", SOURCE_AISC
+            else:
+                phi, a_h, a_m = sway_phi(L, imp.columns)
+                sway_label = (f"sway phi = phi0·alpha_h·alpha_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
+                              f"= 1/{1 / phi:.0f} (h = L = {L:g} m, m = {imp.columns})")
+                sway_source = SOURCE_EN
+            sway = phi
+    direction = "+w"
     opposes = False
-    if shape != "none" and amplitude != 0.0 and case.loads:
-        trial = dataclasses.replace(plain, imperfection=Imperfection(shape=shape, amplitude=1.0 * L / 1000))
-        buckling = critical_loads(trial, 1) if shape == "mode" else None
-        bow = bow_for(trial, buckling)
-        x = np.linspace(0.0, L, 201)
-        projection, w_scale = _first_order_projection(case, EI, bow.derivatives(x)[0], x)
-        if w_scale > 0 and abs(projection) > 1e-12 * w_scale * L * L / 1000:
-            if imp.preset is not None:
-                if imp.direction == "load":
-                    amplitude = math.copysign(abs(amplitude), projection)
-                elif imp.direction == "negative":
-                    amplitude = -abs(amplitude)
-            opposes = projection * amplitude < 0
-    elif imp.preset is not None and imp.direction == "negative":
-        amplitude = -abs(amplitude)
+    if (shape != "none" and amplitude != 0.0) or sway != 0.0:
+        factor = 1.0 if imp.preset is None or imp.direction != "negative" else -1.0
+        if imp.preset is not None:
+            amplitude = abs(amplitude)
+        if case.loads:
+            # The sign of the projection of the loads' first-order deflection on bow + sway says which way
+            # is "with the loads" (the real sizes of both parts, the bow's sign as the case gives it).
+            trial = dataclasses.replace(plain, imperfection=Imperfection(shape=shape, amplitude=amplitude)
+                                        if shape != "none" and amplitude != 0.0 else Imperfection())
+            buckling = critical_loads(trial, 1) if trial.imperfection.shape == "mode" else None
+            x = np.linspace(0.0, L, 201)
+            values = bow_for(trial, buckling, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
+            projection, w_scale = _first_order_projection(case, EI, values, x)
+            if w_scale > 0 and abs(projection) > 1e-12 * w_scale * float(np.abs(values).max()) * L:
+                if imp.preset is not None and imp.direction == "load":
+                    factor = math.copysign(1.0, projection)
+                opposes = projection * factor < 0
+                direction = "against the loads' deflection" if opposes else "with the loads' deflection"
+            else:
+                direction = ""
+        else:
+            direction = ""
+        amplitude, sway = amplitude * factor, sway * factor
+        if not direction:
+            direction = "+w" if (amplitude if amplitude != 0.0 else sway) >= 0 else "-w"
     if imp.preset is not None and shape != "none":
         label += f" = {abs(amplitude) * 1e3:.2f} mm" if "mm" not in label else ""
+        if notes:
+            label += ", first-mode shape"
+    if sway_label:
+        label += f"; {sway_label}"
     bow = BowChoice(shape=shape, amplitude=float(amplitude), label=label, source=source, curve=curve,
                     curve_reason=reason, code_amplitude=code_amp, code_label=code_label, code_source=code_source,
-                    opposes_load=opposes)
+                    opposes_load=opposes, sway=float(sway), sway_anchor=float(anchor), sway_label=sway_label,
+                    sway_source=sway_source, automatic=imp.preset is not None and imp.direction == "load",
+                    direction=direction, notes=tuple(notes))
     analysis_case = dataclasses.replace(plain, imperfection=Imperfection(shape=shape, amplitude=float(amplitude)))
     return Member(EI=EI, EI_source=EI_source, section=section, material=material, bow=bow), analysis_case

@@ -10,8 +10,18 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-__all__ = ["Peak", "Governing", "Reactions", "Approximation", "Amplification", "Equilibrium", "Result",
-           "SweepResult"]
+__all__ = ["Peak", "Governing", "Reactions", "Approximation", "Amplification", "AMPLIFICATION_DEFINITIONS",
+           "Equilibrium", "Result", "ServiceCheck", "SweepResult"]
+
+#: What each amplification ratio divides by what, in words (shown beside every value).
+AMPLIFICATION_DEFINITIONS = {
+    "moment": "max|M_II| / max|M_I + N·w0| (the first-order moment plus the bow's moment N·w0)",
+    "moment_first_order": "max|M_II| / max|M_I| (the first-order moment alone; the bow's moment counts as "
+                          "amplification)",
+    "moment_bow_free": "max|M_II| / max|M_I| of the member without its bow (the basis of AISC B1, whose P_c "
+                       "holds the out-of-straightness)",
+    "deflection": "max|w + w0| / max|w_I + w0|",
+}
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -87,31 +97,85 @@ class Approximation:
     source : str
         Where the formula is published.
     error : float or None
-        ``(value - exact) / exact`` against the exact moment amplification [-].
+        ``(value - exact) / exact`` against the exact amplification named by ``compared_with`` [-].
+    compared_with : str
+        The key in :data:`AMPLIFICATION_DEFINITIONS` of the exact value it is compared with: ``"moment"``
+        (reference M_I + N·w0), or ``"moment_bow_free"`` for AISC B1.
     """
 
     name: str
     value: float
     source: str
     error: float | None
+    compared_with: str = "moment"
 
 
 @dataclass(frozen=True, kw_only=True)
 class Amplification:
     """Exact second-order / first-order ratios and the approximations beside them.
 
+    Each ratio's definition is in :data:`AMPLIFICATION_DEFINITIONS`.
+
     Attributes
     ----------
     moment : float or None
-        max|M| / max|M_1| [-]; None when the first-order moment is zero.
+        max|M_II| / max|M_I + N·w0| [-]: the reference includes the bow's moment N·w0 (the same footing as the
+        deflection's); None when the reference is zero.
     deflection : float or None
-        max|w + w0| / max|w_1 + w0| [-]; None when the first-order offset is zero.
+        max|w + w0| / max|w_I + w0| [-]; None when the first-order offset is zero.
     approximations : tuple of Approximation
+    moment_first_order : float or None
+        max|M_II| / max|M_I| [-], the first-order moment alone as the reference.
+    moment_bow_free : float or None
+        max|M_II| / max|M_I| of the member without its bow [-] (AISC B1 is compared with it); equal to
+        ``moment_first_order`` without a bow, None where it was not computed (a bow, and neither a member
+        check nor B1).
+    reference_moment : float or None
+        max|M_I + N·w0| [N·m].
+    reference_moment_x : float or None
+        Where [m] (None when it is the first-order peak, without a bow).
     """
 
     moment: float | None
     deflection: float | None
     approximations: tuple = ()
+    moment_first_order: float | None = None
+    moment_bow_free: float | None = None
+    reference_moment: float | None = None
+    reference_moment_x: float | None = None
+
+
+@dataclass(frozen=True, kw_only=True)
+class ServiceCheck:
+    """The deflection check, a serviceability check kept apart from the strength utilisation.
+
+    Made on the loads as given (strutscope has no load combinations yet), in second order at the case's axial
+    force, without the code's equivalent bow (an ultimate-state device). Give service loads for it.
+
+    Attributes
+    ----------
+    utilization : float
+        max|w| / (L/n) [-].
+    deflection : float
+        Signed w where |w| is largest [m].
+    x : float
+        Where [m].
+    allowed : float
+        L/n [m].
+    limit : float
+        n [-].
+    basis : str
+    source : str
+    """
+
+    utilization: float
+    deflection: float
+    x: float
+    allowed: float
+    limit: float
+    basis: str = ("second order at the axial force given, on the loads as given (no load combinations), "
+                  "without the initial bow; use service loads")
+    source: str = "span/n deflection limit: national annexes; span/250 common practice, no source"
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -176,7 +240,10 @@ class Result:
     check : MemberCheck or None
         The member check along the member with these second-order forces (section and material needed).
     utilization : float or None
-        The governing utilisation of ``check`` [-]; +inf at a critical load; None without a section.
+        The governing strength and stability utilisation of ``check`` [-] (the deflection check is apart, in
+        ``service``); +inf at a critical load; None without a section.
+    service : ServiceCheck or None
+        The deflection check on the loads as given without the bow (section and material needed).
     cautions : tuple of Caution
         Most severe first; the general caution is always there (not on ``first_order``).
     """
@@ -208,6 +275,7 @@ class Result:
     bow: object = None
     check: object = None
     utilization: float | None = None
+    service: ServiceCheck | None = None
     cautions: tuple = ()
 
     @functools.cached_property
@@ -238,7 +306,10 @@ class SweepResult:
     peak_shear, peak_shear_x : ndarray
         max |V| [N] and where.
     moment_amplification, deflection_amplification : ndarray
-        Exact ratios to the first-order values [-] (NaN only where the first-order value is zero).
+        Exact ratios [-]: max|M_II| / max|M_I + N·w0| and max|w + w0| / max|w_I + w0| (NaN only where the
+        reference is zero); the moment reference's peak comes from a quadratic model about the best station.
+    moment_amplification_first_order : ndarray
+        max|M_II| / max|M_I| [-].
     simple_amplification : ndarray
         The approximation 1/(1 − P/Pcr1) beside them [-]; NaN at and above Pcr1, where it means nothing.
     stable : ndarray of bool
@@ -262,6 +333,7 @@ class SweepResult:
     peak_shear_x: np.ndarray
     moment_amplification: np.ndarray
     deflection_amplification: np.ndarray
+    moment_amplification_first_order: np.ndarray
     simple_amplification: np.ndarray
     stable: np.ndarray
     critical: np.ndarray

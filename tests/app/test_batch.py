@@ -153,6 +153,8 @@ def assert_matches_engine(got, mapping):
     assert number(got["utilization"]) == (None if result.utilization is None else exact(result.utilization,
                                                                                          rel=1e-12))
     assert got["governing_check"] == ("" if result.check is None else result.check.kind)
+    assert number(got["deflection_utilization"]) == (
+        None if result.service is None else exact(result.service.utilization, rel=1e-12))
     if case.section is not None and case.material is not None:
         capacity = engine.capacity(case)
         assert number(got["capacity_kN"]) == exact(capacity.axial_force / 1e3, rel=1e-12)

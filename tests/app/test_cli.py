@@ -181,7 +181,7 @@ SUMMARY_KEYS = {
     "summary_version", "source", "title", "units", "status", "stable", "message", "length", "EI",
     "axial_force", "critical_loads", "alpha_cr", "effective_length_factor", "governing", "first_order",
     "reactions", "amplification", "equilibrium", "section", "material", "bow", "utilization", "check",
-    "capacity", "cautions",
+    "capacity", "cautions", "bow_direction", "service",
 }
 
 # 1 kip = 1000 lbf = 4448.2216152605 N, exact by definition (NIST SP 811 (2008) Appendix B; from memory).
@@ -230,6 +230,14 @@ def test_json_summary_matches_engine_solve(tmp_path):
     assert data["check"]["x"] == result.check.x
     assert data["check"]["strength_utilization"] == result.check.strength_utilization
     assert data["check"]["deflection_utilization"] == result.check.deflection_utilization
+    assert data["service"]["deflection_utilization"] == result.service.utilization
+    assert data["amplification"]["moment_first_order"] == result.amplification.moment_first_order
+    assert data["amplification"]["moment_bow_free"] == result.amplification.moment_bow_free
+    assert set(data["amplification"]["definitions"]) == {"moment", "moment_first_order", "moment_bow_free",
+                                                        "deflection"}
+    assert [a["compared_with"] for a in data["amplification"]["approximations"]] == [
+        a.compared_with for a in result.amplification.approximations]
+    assert data["bow_direction"]["governing"] == result.bow.direction_governing
     assert data["capacity"] is None
     assert [(c["level"], c["code"]) for c in data["cautions"]] == [(c.level, c.code) for c in result.cautions]
     assert "scope" in [c["code"] for c in data["cautions"]]  # the general caution, always

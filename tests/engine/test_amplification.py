@@ -86,3 +86,72 @@ def test_tension_lowers_the_moment():
     u = math.pi / 2 * math.sqrt(0.7)
     assert r.amplification.moment == pytest.approx(2 * (1 - 1 / math.cosh(u)) / u**2, rel=1e-12)
     assert r.amplification.approximations[0].value == pytest.approx(1 / 1.7, rel=1e-12)
+
+
+# --- issue 12, item 5: the reference moment includes the bow's moment N·w0 -----------------------------
+
+_Q, _E0 = 2.0e3, L / 250
+
+
+def _bowed(factor, bow=True):
+    return engine.solve(engine.Case.from_dict({
+        "schema": 1, "length": L, "EI": EI, "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": factor * PE, "loads": [{"type": "uniform", "q": _Q}],
+        "imperfection": {"shape": "sine", "amplitude": _E0} if bow else {"shape": "none"}}))
+
+
+def _udl_factor(alpha):
+    """2(sec u − 1)/u², u = (π/2)√α: mid-span moment of a pin-ended UDL beam-column over qL²/8 (Timoshenko &
+    Gere 1961 ch. 1, derived from the governing equation)."""
+    u = math.pi / 2 * math.sqrt(alpha)
+    return 2 * (1 / math.cos(u) - 1) / u**2
+
+
+@pytest.mark.parametrize("alpha", [0.1, 0.3, 0.6])
+def test_moment_amplification_over_m1_plus_n_w0(alpha):
+    """Pinned–pinned, UDL and sine bow e0: M_II(L/2) = (qL²/8)·2(sec u − 1)/u² + N e0/(1 − α) and the
+    reference is M_I + N e0 = qL²/8 + N e0, both at mid-span (Timoshenko & Gere 1961 ch. 1: the sine bow
+    amplifies by exactly 1/(1 − α), derived); amplification.moment is their ratio to 1e-10 and 1/(1 − α) lies
+    within 3 % of it."""
+    r = _bowed(alpha)
+    N, m1 = alpha * PE, _Q * L**2 / 8
+    exact = (m1 * _udl_factor(alpha) + N * _E0 / (1 - alpha)) / (m1 + N * _E0)
+    amp = r.amplification
+    assert amp.reference_moment == pytest.approx(m1 + N * _E0, rel=1e-12)
+    assert amp.reference_moment_x == pytest.approx(L / 2, abs=1e-9)
+    assert amp.moment == pytest.approx(exact, rel=1e-10)
+    assert amp.moment_first_order == pytest.approx(r.governing.moment.magnitude / m1, rel=1e-12)
+    simple = _by_name(r, "1/(1 - P/Pcr1)")
+    assert simple.compared_with == "moment"
+    assert simple.error == pytest.approx((1 / (1 - alpha)) / exact - 1, rel=1e-9)
+    assert abs(simple.error) < 0.03
+
+
+def test_b1_is_compared_with_the_member_without_its_bow():
+    """AISC B1 with Cm = 1 + ψα, ψ = 0 for a pinned UDL (AISC 360-16 App. 8, Commentary Table C-A-8.1, from
+    memory) is compared with the bow-free exact amplification 2(sec u − 1)/u² (Timoshenko & Gere 1961 ch. 1,
+    derived), since AISC keeps the out-of-straightness inside P_c; it agrees within 1 %."""
+    alpha = 0.3
+    r = _bowed(alpha)
+    free = _udl_factor(alpha)
+    assert r.amplification.moment_bow_free == pytest.approx(free, rel=1e-10)
+    assert _bowed(alpha, bow=False).amplification.moment == pytest.approx(free, rel=1e-10)
+    b1 = _by_name(r, "AISC B1")
+    assert b1.compared_with == "moment_bow_free"
+    assert b1.error == pytest.approx(b1.value / free - 1, rel=1e-9)
+    assert abs(b1.error) < 0.01
+
+
+def test_demo_amplification_definitions():
+    """The invented demo (HEB 200, 350 kN, UDL, point load, Table 5.1 bow): 1/(1 − α) within 1 % of the
+    amplification over M_I + N·w0 and B1 within 1 % of the bow-free one (issue 12 reports −34 % against M_I
+    alone, the definition still shown beside as moment_first_order)."""
+    from pathlib import Path
+
+    demo = Path(__file__).resolve().parents[2] / "assets" / "demo_wind_post.json"
+    r = engine.solve(engine.Case.from_json(demo.read_text(encoding="utf-8")))
+    simple, b1 = _by_name(r, "1/(1 - P/Pcr1)"), _by_name(r, "AISC B1")
+    assert abs(simple.error) < 0.01 and abs(b1.error) < 0.01
+    assert simple.value / r.amplification.moment_first_order - 1 < -0.3
+    definitions = engine.results.AMPLIFICATION_DEFINITIONS
+    assert set(definitions) == {"moment", "moment_first_order", "moment_bow_free", "deflection"}

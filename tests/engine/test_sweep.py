@@ -41,11 +41,17 @@ def test_sweep_marks_critical_loads_and_keeps_order():
 
 
 def test_sweep_amplification_is_relative_to_first_order():
-    """moment_amplification = peak |M| / first-order peak |M|, and is 1 at zero force."""
+    """moment_amplification_first_order is peak |M| / first-order peak |M|; moment_amplification (reference
+    M_I + N·w0) agrees with engine.solve's to 1e-12."""
     case = engine.Case.from_dict(CASE)
-    s = engine.sweep(case, [0.0, 1e5])
+    s = engine.sweep(case, [0.0, 1e5, -2e5])
+    assert s.moment_amplification_first_order[0] == pytest.approx(1.0, rel=1e-14)
     assert s.moment_amplification[0] == pytest.approx(1.0, rel=1e-14)
-    assert s.peak_moment[1] / s.first_order.moment.value == pytest.approx(s.moment_amplification[1], rel=1e-14)
+    ratio = s.peak_moment[1] / s.first_order.moment.value
+    assert ratio == pytest.approx(s.moment_amplification_first_order[1], rel=1e-14)
+    for i, P in ((1, 1e5), (2, -2e5)):
+        r = engine.solve(engine.Case.from_dict(dict(CASE, axial_force=P)))
+        assert s.moment_amplification[i] == pytest.approx(r.amplification.moment, rel=1e-12)
 
 
 def test_sweep_rejects_non_finite_forces():
