@@ -65,6 +65,17 @@ class _Prepared:
         self.model = Model(analysis_case, bow_for(analysis_case, self.buckling))
         self._stations: dict = {}
         self._first: dict = {}
+        self._classes: dict = {}
+
+    def section_class(self, compression: bool):
+        """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached."""
+        if compression not in self._classes:
+            from engine.classification import classify
+
+            member = self.member
+            self._classes[compression] = None if member is None else classify(member.section, member.material,
+                                                                               compression=compression)
+        return self._classes[compression]
 
     def bow_facts(self) -> dict:
         """What the cautions need to know of the bow."""
@@ -239,7 +250,10 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
     if not first_order:
         if section is not None and material is not None and status != "critical":
             check = check_member(x=x, axial_force=P, moment=M, shear=V, deflection=w, length=model.L,
-                                 section=section, material=material, axis=case.axis, settings=case.check)
+                                 section=section, material=material, axis=case.axis, settings=case.check,
+                                 route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
+                                 section_class=prep.section_class(P > 0),
+                                 beyond_critical=status == "unstable")
         slender = buckling.effective_length_factor * model.L / section.i if section is not None else None
         cautions = tuple(assess(P=P, pcr1=float(pcr[0]), alpha_cr_limit=10.0 if case.check.method == "elastic"
                                 else 15.0, status=status, slenderness=slender, section=section,

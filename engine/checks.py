@@ -27,7 +27,10 @@ import numpy as np
 
 from engine.errors import CaseError
 
-__all__ = ["CheckSettings", "MemberCheck", "check_member", "METHODS"]
+__all__ = ["CheckSettings", "EQ_5_9_KIND", "MemberCheck", "check_member", "METHODS"]
+
+#: The kind of the linear member check of the eq. (5.9) route.
+EQ_5_9_KIND = "linear N–M, eq. (5.9) route"
 
 METHODS = ("elastic", "plastic")
 _PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle")
@@ -36,6 +39,8 @@ _SOURCES = {
     "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form (clause from memory)",
     "plastic": "EN 1993-1-1:2005 §6.2.9.1 and §6.2.8 (clause numbers from memory)",
     "shear": "EN 1993-1-1:2005 §6.2.6, eq. (6.18) (from memory)",
+    "eq-5.9": ("EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9)–(5.10), with N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 "
+               "(from memory)"),
     "deflection": "span/n deflection limit: national annexes; span/250 common practice, no source",
 }
 
@@ -106,6 +111,11 @@ class MemberCheck:
         N_Rd [N], M_Rd [N·m] (elastic or plastic), V_Rd [N] (None where not checked).
     notes : tuple of str
         What was not checked, or checked another way than asked.
+    section_class : SectionClass or None
+        EN 1993-1-1 Table 5.2 class (:mod:`engine.classification`), None where not classified.
+    valid : bool
+        False when the result cannot stand: a class 4 section in compression (its gross-section resistance
+        does not apply) or an axial force above the first critical load; the utilisation is then +inf.
     """
 
     settings: CheckSettings
@@ -123,10 +133,13 @@ class MemberCheck:
     deflection_allowed: float
     resistances: dict = field(default_factory=dict)
     notes: tuple = ()
+    section_class: object = None
+    valid: bool = True
 
 
 def check_member(*, x, axial_force, moment, shear, deflection, length, section, material, axis,
-                 settings: CheckSettings) -> MemberCheck:
+                 settings: CheckSettings, route: str | None = None, section_class=None,
+                 beyond_critical: bool = False) -> MemberCheck:
     """Check the cross-section at every station with the second-order forces.
 
     Parameters
@@ -143,6 +156,12 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
     material : Material
     axis : str
     settings : CheckSettings
+    route : str or None
+        ``"eq-5.9"`` when the bow is the eq. (5.9) preset: the linear member check with γ_M1 is added.
+    section_class : SectionClass or None
+        The section's class (:func:`engine.classification.classify`), None when not classified.
+    beyond_critical : bool
+        The axial force is above the first critical load: the check fails (utilisation +inf).
 
     Returns
     -------
@@ -161,6 +180,11 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
     if method == "plastic" and (section.shape not in _PLASTIC_SHAPES or material.kind == "timber"):
         notes.append(f"The plastic check does not apply to a {section.shape} section of {material.kind}; "
                      "the elastic check is used instead.")
+        method = "elastic"
+    klass = section_class.klass if section_class is not None else None
+    if method == "plastic" and klass is not None and klass >= 3:
+        notes.append(f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
+                     "so the elastic check is used instead.")
         method = "elastic"
     V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -183,11 +207,20 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
             ab = np.where(np.isnan(ab), np.inf, ab)
             kind_ab = "plastic N–M"
         sh = V / V_Rd if V_Rd is not None else np.zeros_like(V)
+        linear = None
+        if route == "eq-5.9":
+            linear = _eq_5_9_linear(N, M, section, material, settings)
+            ab_section = ab
+            ab = np.maximum(ab, linear)
+    if linear is not None:
+        notes.append(_eq_5_9_note(settings.method, method, settings.gamma_M1))
     if V_Rd is None:
         notes.append("Shear is not checked for timber (no shear strength is given for it).")
     strength = np.maximum(ab, sh)
     i = int(np.argmax(strength))
     s_kind = kind_ab if ab[i] >= sh[i] else "shear"
+    if linear is not None and s_kind != "shear" and linear[i] >= ab_section[i]:
+        s_kind = EQ_5_9_KIND
     s_value = float(strength[i])
     w_abs = np.abs(np.asarray(deflection, dtype=float))
     j = int(np.argmax(w_abs))
@@ -198,9 +231,47 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
     else:
         kind, value, where = s_kind, s_value, float(x[i])
         source = _SOURCES["shear"] if s_kind == "shear" else _SOURCES[method]
+        if s_kind == EQ_5_9_KIND:
+            source = _SOURCES["eq-5.9"]
+    valid = True
+    if klass == 4 and N > 0:
+        notes.append(f"The section is {section_class.describe()} under this compression: its gross-section "
+                     "resistance is not valid (effective properties, EN 1993-1-5, are not computed).")
+        kind = s_kind = "class 4 section"
+        value = s_value = math.inf
+        source = section_class.source
+        valid = False
+    if beyond_critical:
+        kind = s_kind = "elastic buckling"
+        value = s_value = math.inf
+        source = "Euler; Timoshenko & Gere (1961) ch. 2: no stable equilibrium above the first critical load"
+        valid = False
     return MemberCheck(
         settings=settings, utilization=value, kind=kind, x=where, source=source,
         strength_utilization=s_value, strength_kind=s_kind, stations=strength, axial_bending=ab, shear=sh,
         deflection_utilization=d_util, max_deflection=float(w_abs[j]), deflection_allowed=allowed,
         resistances={"N_Rd": N_Rd, "M_Rd": M_Rd, "V_Rd": V_Rd}, notes=tuple(notes),
+        section_class=section_class, valid=valid,
     )
+
+
+def _eq_5_9_linear(N, M, section, material, settings):
+    """N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) at every station, with the M_Rk of eq. (5.10) [-]."""
+    from engine.classification import eq_5_9_modulus
+
+    g1 = settings.gamma_M1
+    W = eq_5_9_modulus(section, material, settings.method)
+    return N * g1 / (section.A * material.fy) + M * g1 / (W * material.fy)
+
+
+def _eq_5_9_note(asked: str, used: str, g1: float) -> str:
+    if asked == "plastic" and used == "plastic":
+        extra = ("The plastic §6.2.9 interaction is not used for this member check: eq. (5.10)'s e0 is "
+                 "derived for the linear interaction (with M_Rk = W_pl f_y), which reproduces chi·N_Rk/γ_M1 "
+                 "exactly, whereas the plastic interaction would overshoot it; the plastic check is kept for "
+                 "the cross-section with γ_M0.")
+    else:
+        extra = "The cross-section check with γ_M0 is made as well."
+    return ("Eq. (5.9) route: the member is checked with the linear interaction "
+            f"N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 (γ_M1 = {g1:g}), which reaches 1 at "
+            "N_b,Rd = chi·A·f_y/γ_M1 for the bow alone. " + extra)
