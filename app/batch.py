@@ -212,6 +212,9 @@ class BatchSummary:
     error_count : int
     failing : int
         Solved members with a utilisation above 1 or a danger caution.
+    beyond_critical : int
+        Solved members at or above their first critical load (``stability`` unstable or critical, utilisation
+        inf): the command line exits with 1 for them even without ``--strict``.
     workers : int
         Processes used (1: solved in this process).
     pdfs : int
@@ -224,6 +227,7 @@ class BatchSummary:
     errors: list = field(default_factory=list)
     error_count: int = 0
     failing: int = 0
+    beyond_critical: int = 0
     workers: int = 1
     pdfs: int = 0
 
@@ -757,6 +761,7 @@ def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, worke
                     if record[2] == "ok":
                         summary.solved += 1
                         summary.failing += failing
+                        summary.beyond_critical += record[5] in ("unstable", "critical")
                         summary.pdfs += wrote
                     else:
                         summary.error_count += 1

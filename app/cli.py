@@ -10,7 +10,8 @@ Commands:
 - ``strutscope batch MEMBERS.csv --out DIR`` solves a table of members (:mod:`app.batch`).
 - ``strutscope schema`` prints the case file's JSON Schema (:mod:`app.schema`).
 
-Exit codes: 0 when done; 1 with ``--strict`` when a member fails its check (utilisation above 1) or a danger
+Exit codes: 0 when done; 1 when a member's axial force is at or above its first critical load (with or without
+``--strict``), 1 with ``--strict`` when a member fails its check (utilisation above 1) or a danger
 caution fires, for ``batch`` also when a row of the table is invalid, and when the output pipe was closed
 early; 2 when the input is invalid (:class:`engine.CaseError`, named with the file), a file cannot be read or
 written, or the command line is wrong.
@@ -270,15 +271,15 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add("")
         add(f"Member check ({check.settings.method}, gamma_M0 = {check.settings.gamma_M0:g}), "
             "second-order forces")
-        add(f"  utilisation:  {_ratio(check.utilization)} ({check.kind} at x = {_position(shown, check.x)}; "
-            f"{check.source})")
-        add(f"  strength:     {_ratio(check.strength_utilization)} ({check.strength_kind})")
+        add(f"  utilisation:  {_utilisation(check.utilization)} ({check.kind} at "
+            f"x = {_position(shown, check.x)}; {check.source})")
+        add(f"  strength:     {_utilisation(check.strength_utilization)} ({check.strength_kind})")
         allowed = shown.show("small_length", check.deflection_allowed)
         add(f"  deflection:   {shown.show('small_length', check.max_deflection)} against "
             f"span/{check.settings.deflection_limit:g} = {allowed} ({_ratio(check.deflection_utilization)})")
     elif result.utilization is not None:
         add("")
-        add(f"Member check: utilisation {_ratio(result.utilization)}")
+        add(f"Member check: utilisation {_utilisation(result.utilization)}")
 
     if capacity is not None:
         add("")
@@ -388,6 +389,8 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "utilization": _finite(check.utilization),
             "strength_utilization": _finite(check.strength_utilization),
             "strength_kind": check.strength_kind,
+            "valid": check.valid,
+            "fails": bool(check.utilization > 1.0),
             "deflection_utilization": _finite(check.deflection_utilization),
             "max_deflection": _finite(check.max_deflection),
             "deflection_allowed": _finite(check.deflection_allowed),
@@ -495,6 +498,17 @@ def _print(text: str) -> bool:
     return True
 
 
+def _beyond_critical(result) -> bool:
+    """At or above the first critical load (no stable equilibrium): exit code 1 even without ``--strict``."""
+    return result.status in ("unstable", "critical")
+
+
+def _utilisation(value: float | None) -> str:
+    """A utilisation, with "fails" beside an infinite one (above Pcr1, or a class 4 section)."""
+    text = _ratio(value)
+    return f"{text} (fails)" if value is not None and math.isinf(float(value)) else text
+
+
 def _failing(result) -> bool:
     """A failed member check or a danger caution (what ``--strict`` turns into exit code 1)."""
     return (result.utilization is not None and result.utilization > 1.0) or any(
@@ -512,8 +526,8 @@ def _add_solve(commands) -> None:
         description="Solve a case file (JSON, schema 1; SI units) and print a summary of the critical "
                     "loads, the governing values with their positions, the reactions, the amplification "
                     "factors, the member check and the cautions. Exit code 0 when solved, 2 for an invalid "
-                    "case or a file that cannot be read or written, 1 with --strict when the member fails "
-                    "its check.",
+                    "case or a file that cannot be read or written, 1 when the axial force is at or above "
+                    "the first critical load, and 1 with --strict when the member fails its check.",
         examples=["strutscope solve --demo",
                   "strutscope solve post.json --units us",
                   "strutscope solve post.json --json > post-summary.json",
@@ -611,6 +625,8 @@ def _solve(args) -> int:
         text = format_summary(source, case, result, units=args.units, capacity=capacity)
     if not _print(text):
         return 1
+    if _beyond_critical(result):
+        return 1  # at or above the first critical load the member fails, --strict or not
     return 1 if args.strict and _failing(result) else 0
 
 
@@ -626,7 +642,8 @@ def _add_batch(commands) -> None:
                     "README and in assets/example_members.csv) and write DIR/results.csv, one row per member "
                     "in the input order. A row that cannot be solved is reported there with its row number, "
                     "column and message, and does not stop the run. Exit code 0 when every row was solved, "
-                    "1 when some rows were invalid (or, with --strict, a member fails its check), 2 when the "
+                    "1 when some rows were invalid or a member is at or above its first critical load (or, "
+                    "with --strict, a member fails its check), 2 when the "
                     "table cannot be read.",
         examples=["strutscope batch members.csv --out results",
                   "strutscope batch members.csv --out results --pdf --prepared-by 'A. Engineer'",
@@ -686,7 +703,7 @@ def _batch(args) -> int:
     lines.append(f"Caution: {CAUTION}")
     if not _print("\n".join(lines)):
         return 1
-    if summary.error_count or (args.strict and summary.failing):
+    if summary.error_count or summary.beyond_critical or (args.strict and summary.failing):
         return 1
     return 0
 

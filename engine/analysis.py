@@ -10,6 +10,7 @@ from engine.amplification import approximations
 from engine.buckling import critical_loads
 from engine.cautions import assess
 from engine.checks import check_member
+from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
 from engine.imperfections import bow_for
 from engine.results import Amplification, Equilibrium, Governing, Peak, Reactions, Result, SweepResult
@@ -255,9 +256,10 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
                                  section_class=prep.section_class(P > 0),
                                  beyond_critical=status == "unstable")
         slender = buckling.effective_length_factor * model.L / section.i if section is not None else None
-        cautions = tuple(assess(P=P, pcr1=float(pcr[0]), alpha_cr_limit=10.0 if case.check.method == "elastic"
-                                else 15.0, status=status, slenderness=slender, section=section,
-                                material=material, axis=case.axis, check=check, bow=prep.bow_facts()))
+        # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
+        cautions = tuple(assess(P=P, pcr1=float(pcr[0]), alpha_cr_limit=alpha_cr_limit("elastic"),
+                                status=status, slenderness=slender, section=section, material=material,
+                                axis=case.axis, check=check, bow=prep.bow_facts()))
     return Result(
         case=case, axial_force=float(P), x=x, deflection=w, rotation=rot, moment=M, shear=V, transverse_force=T,
         initial_bow=w0, total_offset=total, status=status, stable=status == "stable",

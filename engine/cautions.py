@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from engine.codes import ALPHA_CR_SOURCE
+
 __all__ = ["Caution", "GENERAL", "LEVELS", "assess"]
 
 LEVELS = ("info", "warning", "danger")
@@ -44,6 +46,32 @@ GENERAL = Caution(
     source="strutscope's scope (common practice, no source)",
 )
 
+_UNCLASSIFIED = Caution(
+    level="warning", code="section-class",
+    message=("Section class and local buckling are not checked for this section and material: its plates are "
+             "assumed able to reach the stresses used (class 1 or 2 for the plastic check, class 3 for the "
+             "elastic one)."),
+    source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1")
+
+
+def _class_cautions(check) -> list:
+    """The section class of EN 1993-1-1 Table 5.2: stated, and a danger for class 4."""
+    found = None if check is None else check.section_class
+    if found is None:
+        return [_UNCLASSIFIED]
+    if found.klass == 4:
+        return [Caution(level="danger", code="section-class-4",
+                        message=(f"The section is {found.describe()}: local buckling governs, and the "
+                                 "gross-section result is not valid (the utilisation is shown as unbounded). "
+                                 "Effective properties (EN 1993-1-5) are not computed: choose a stockier "
+                                 "section or check it by other means."),
+                        source=found.source)]
+    return [Caution(level="info", code="section-class",
+                    message=(f"Section {found.describe()}, under the forces as analysed; flange "
+                             "outstands classified in uniform compression."),
+                    source=found.source)]
+
+
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
 
 
@@ -57,7 +85,8 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
     pcr1 : float
         First critical load [N].
     alpha_cr_limit : float
-        10 for an elastic check, 15 for a plastic one (EN 1993-1-1 §5.2.1(3)).
+        :func:`engine.codes.alpha_cr_limit`: 10 for the elastic global analysis strutscope makes (15 would be
+        for a plastic global analysis, EN 1993-1-1 §5.2.1(3), whatever the cross-section check).
     status : str
         The result's status.
     slenderness : float or None
@@ -84,9 +113,10 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                            source="Euler; Timoshenko & Gere (1961) ch. 2"))
     elif P > 0 and alpha_cr < alpha_cr_limit:
         out.append(Caution(level="warning", code="second-order-matters",
-                           message=(f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g}: second-order effects "
-                                    "must be taken into account (this analysis includes them)."),
-                           source="EN 1993-1-1:2005 §5.2.1(3), eq. (5.1) (clause from memory)"))
+                           message=(f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g} (the limit "
+                                    "for an elastic global analysis): second-order effects must be taken "
+                                    "into account (this analysis includes them)."),
+                           source=ALPHA_CR_SOURCE))
     if P < 0:
         out.append(Caution(level="info", code="tension",
                            message=("The member is in tension: buckling does not apply, and the axial force "
@@ -106,11 +136,7 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                message=("Major-axis bending of an open section: lateral-torsional buckling is not "
                                         "checked. Check it, or make sure the compression flange is restrained."),
                                source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F"))
-        out.append(Caution(level="warning", code="section-class",
-                           message=("Section class and local buckling are not checked: the section's plates are "
-                                    "assumed able to reach the stresses used (class 1 or 2 for the plastic check, "
-                                    "class 3 for the elastic one)."),
-                           source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1"))
+        out.extend(_class_cautions(check))
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):
@@ -129,7 +155,7 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                         "service-class factors are not applied unless you set γ_M0 to include them."),
                                source="EN 1995-1-1 §2.4 and §3.2 (from memory)"))
     if check is not None:
-        if check.strength_utilization > 1.0:
+        if check.strength_utilization > 1.0 and check.valid:
             out.append(Caution(level="danger", code="overstressed",
                                message=(f"Strength utilisation {check.strength_utilization:.3f} > 1 "
                                         f"({check.strength_kind}): the member does not work as analysed."),
