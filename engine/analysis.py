@@ -13,6 +13,7 @@ from engine.checks import check_member
 from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
 from engine.imperfections import bow_for
+from engine.out_of_plane import utilisation as out_of_plane_utilisation
 from engine.results import Amplification, Equilibrium, Governing, Peak, Reactions, Result, SweepResult
 from engine.solution import Batch, Model, Points, base_stations, refine_peaks, strongest_tension_kappa
 
@@ -62,6 +63,7 @@ class _Prepared:
 
             self.member, analysis_case = resolve(case)
         self.analysis_case = analysis_case
+        self.case = case
         self.buckling = critical_loads(analysis_case, 5)
         self.model = Model(analysis_case, bow_for(analysis_case, self.buckling))
         self._stations: dict = {}
@@ -77,6 +79,15 @@ class _Prepared:
             self._classes[compression] = None if member is None else classify(member.section, member.material,
                                                                                compression=compression)
         return self._classes[compression]
+
+    def out_of_plane(self):
+        """The out-of-plane buckling resistance (independent of the axial force), cached."""
+        if "out_of_plane" not in self._classes:
+            from engine.out_of_plane import resistance
+
+            member = self.member
+            self._classes["out_of_plane"] = resistance(self.case, member.section, member.material)
+        return self._classes["out_of_plane"]
 
     def bow_facts(self) -> dict:
         """What the cautions need to know of the bow."""
@@ -123,7 +134,7 @@ _MODEL_CACHE_SIZE = 32
 
 def _prepare(case) -> _Prepared:
     key = (case.length, case.EI, case.left, case.right, case.loads, case.imperfection, case.section, case.axis,
-           case.material, case.stiffness_factor, case.check)
+           case.material, case.stiffness_factor, case.check, case.out_of_plane)
     hit = _MODELS.get(key)
     if hit is None:
         hit = _Prepared(case)
@@ -254,7 +265,8 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
                                  section=section, material=material, axis=case.axis, settings=case.check,
                                  route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
                                  section_class=prep.section_class(P > 0),
-                                 beyond_critical=status == "unstable")
+                                 beyond_critical=status == "unstable",
+                                 out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P))
         slender = buckling.effective_length_factor * model.L / section.i if section is not None else None
         # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
         cautions = tuple(assess(P=P, pcr1=float(pcr[0]), alpha_cr_limit=alpha_cr_limit("elastic"),

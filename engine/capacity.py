@@ -28,6 +28,7 @@ import numpy as np
 from scipy.optimize import brentq
 
 from engine.errors import CaseError
+from engine.out_of_plane import KIND as OUT_OF_PLANE
 
 __all__ = ["Capacity", "capacity"]
 
@@ -148,6 +149,11 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         if u >= 1.0:
             root = brentq(lambda s: utilisation(s) - 1.0, prev_t, float(t), xtol=1e-12 * top, rtol=1e-13)
             r = solve(_scaled(case, root, mode, reference), stations=stations)
+            if r.check.strength_kind == OUT_OF_PLANE:
+                n_b = r.check.out_of_plane.N_b_Rd  # exactly: N/N_b,Rd is linear in N
+                return found(n_b if mode == "axial" else n_b / reference, OUT_OF_PLANE, None,
+                             f"Out-of-plane flexural buckling governs: N_b,Rd = chi·A·f_y/γ_M1 = "
+                             f"{n_b * 1e-3:.6g} kN ({r.check.out_of_plane.describe()}).")
             return found(root, r.check.strength_kind, r.check.x,
                          f"Strength governs: utilisation 1 by {r.check.strength_kind} at x = {r.check.x:.3f} m.")
         prev_t, prev_u = float(t), u

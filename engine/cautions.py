@@ -72,6 +72,28 @@ def _class_cautions(check) -> list:
                     source=found.source)]
 
 
+def _out_of_plane_cautions(found) -> list:
+    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, else what is checked."""
+    if found is None:
+        return []
+    if not found.checked:
+        restrained = found.reason.startswith("restrained")
+        return [Caution(level="info" if restrained else "warning", code="out-of-plane-not-checked",
+                        message=f"Out-of-plane flexural buckling ({found.axis} axis): {found.reason}.",
+                        source=found.source)]
+    if found.utilization > 1.0:
+        return [Caution(level="danger", code="out-of-plane-buckling",
+                        message=(f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
+                                 f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
+                                 "buckling length) or choose a larger section."),
+                        source=found.source)]
+    return [Caution(level="info", code="out-of-plane-buckling",
+                    message=(f"Out-of-plane flexural buckling checked: N/N_b,Rd = {found.utilization:.3f}, "
+                             f"{found.describe()}. Lateral-torsional buckling and the interaction of bending "
+                             "about both axes (EN 1993-1-1 §6.3.3) are not checked."),
+                    source=found.source)]
+
+
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
 
 
@@ -155,10 +177,10 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                         "service-class factors are not applied unless you set γ_M0 to include them."),
                                source="EN 1995-1-1 §2.4 and §3.2 (from memory)"))
     if check is not None:
-        if check.strength_utilization > 1.0 and check.valid:
+        if check.in_plane_utilization > 1.0 and check.valid:
             out.append(Caution(level="danger", code="overstressed",
-                               message=(f"Strength utilisation {check.strength_utilization:.3f} > 1 "
-                                        f"({check.strength_kind}): the member does not work as analysed."),
+                               message=(f"Strength utilisation {check.in_plane_utilization:.3f} > 1 "
+                                        f"({check.in_plane_kind}): the member does not work as analysed."),
                                source=check.source if check.kind != "deflection" else
                                "EN 1993-1-1:2005 §6.2 (clause numbers from memory)"))
         if check.deflection_utilization > 1.0:
@@ -167,6 +189,8 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                         f"span/{check.settings.deflection_limit:g} = "
                                         f"{check.deflection_allowed * 1e3:.1f} mm."),
                                source="span/n limits: national annexes; span/250 common practice, no source"))
+        if P > 0:
+            out.extend(_out_of_plane_cautions(check.out_of_plane))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))
     if P > 0 and bow.get("code_amplitude") is not None and abs(bow["amplitude"]) < bow["code_amplitude"] * (1 - 1e-9):

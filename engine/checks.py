@@ -113,6 +113,12 @@ class MemberCheck:
         What was not checked, or checked another way than asked.
     section_class : SectionClass or None
         EN 1993-1-1 Table 5.2 class (:mod:`engine.classification`), None where not classified.
+    out_of_plane : OutOfPlane or None
+        Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): N/N_b,Rd in ``utilization``, or why it
+        was not checked; it is part of ``strength_utilization`` (kind ``"out-of-plane buckling"``).
+    in_plane_utilization : float
+        The in-plane strength utilisation alone (cross-section checks along the member) [-].
+    in_plane_kind : str
     valid : bool
         False when the result cannot stand: a class 4 section in compression (its gross-section resistance
         does not apply) or an axial force above the first critical load; the utilisation is then +inf.
@@ -135,11 +141,14 @@ class MemberCheck:
     notes: tuple = ()
     section_class: object = None
     valid: bool = True
+    out_of_plane: object = None
+    in_plane_utilization: float | None = None
+    in_plane_kind: str = ""
 
 
 def check_member(*, x, axial_force, moment, shear, deflection, length, section, material, axis,
                  settings: CheckSettings, route: str | None = None, section_class=None,
-                 beyond_critical: bool = False) -> MemberCheck:
+                 beyond_critical: bool = False, out_of_plane=None) -> MemberCheck:
     """Check the cross-section at every station with the second-order forces.
 
     Parameters
@@ -162,6 +171,9 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
         The section's class (:func:`engine.classification.classify`), None when not classified.
     beyond_critical : bool
         The axial force is above the first critical load: the check fails (utilisation +inf).
+    out_of_plane : OutOfPlane or None
+        The out-of-plane flexural buckling check at this axial force (:mod:`engine.out_of_plane`); its
+        N/N_b,Rd joins the strength utilisation.
 
     Returns
     -------
@@ -233,6 +245,14 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
         source = _SOURCES["shear"] if s_kind == "shear" else _SOURCES[method]
         if s_kind == EQ_5_9_KIND:
             source = _SOURCES["eq-5.9"]
+    in_plane_value, in_plane_kind = s_value, s_kind
+    u_out = None if out_of_plane is None else out_of_plane.utilization
+    if u_out is not None and u_out > s_value:
+        from engine.out_of_plane import KIND
+
+        s_value, s_kind = out_of_plane.utilization, KIND
+        if s_value >= value:  # the member check about the other axis governs (x: mid-length, member-level)
+            kind, value, where, source = KIND, s_value, 0.5 * length, out_of_plane.source
     valid = True
     if klass == 4 and N > 0:
         notes.append(f"The section is {section_class.describe()} under this compression: its gross-section "
@@ -251,7 +271,8 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
         strength_utilization=s_value, strength_kind=s_kind, stations=strength, axial_bending=ab, shear=sh,
         deflection_utilization=d_util, max_deflection=float(w_abs[j]), deflection_allowed=allowed,
         resistances={"N_Rd": N_Rd, "M_Rd": M_Rd, "V_Rd": V_Rd}, notes=tuple(notes),
-        section_class=section_class, valid=valid,
+        section_class=section_class, valid=valid, out_of_plane=out_of_plane,
+        in_plane_utilization=in_plane_value, in_plane_kind=in_plane_kind,
     )
 
 

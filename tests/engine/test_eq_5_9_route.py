@@ -44,7 +44,8 @@ def _case(supports, length, curve, gamma=1.0, method="elastic", section="HEB 200
         "supports": {"left": left, "right": right}, "axial_force": axial,
         "section": {"name": section}, "material": {"name": grade}, "axis": axis,
         "imperfection": {"preset": "en1993-eq-5.9", "curve": curve},
-        "check": {"method": method, "gamma_M1": gamma}})
+        "check": {"method": method, "gamma_M1": gamma},
+        "out_of_plane": {"restrained": True}})  # the in-plane identity alone (see test_out_of_plane.py)
 
 
 def _chi_load(case):
