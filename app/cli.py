@@ -274,6 +274,15 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add(f"  utilisation:  {_utilisation(check.utilization)} ({check.kind} at "
             f"x = {_position(shown, check.x)}; {check.source})")
         add(f"  strength:     {_utilisation(check.strength_utilization)} ({check.strength_kind})")
+        out = check.out_of_plane
+        if out is not None and out.checked:
+            add(f"  out of plane: {_ratio(out.utilization)} (N/N_b,Rd about the {out.axis} axis; L_cr = "
+                f"{shown.show('length', out.buckling_length)}, lambda_bar = {out.lambda_bar:.3f}, curve "
+                f"{out.curve}, chi = {out.chi:.3f}, N_b,Rd = {shown.show('force', out.N_b_Rd, 5)})")
+        elif out is not None:
+            add(f"  out of plane: not checked ({out.reason})")
+        if check.section_class is not None:
+            add(f"  section:      {check.section_class.describe()}")
         allowed = shown.show("small_length", check.deflection_allowed)
         add(f"  deflection:   {shown.show('small_length', check.max_deflection)} against "
             f"span/{check.settings.deflection_limit:g} = {allowed} ({_ratio(check.deflection_utilization)})")
@@ -391,6 +400,8 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "strength_kind": check.strength_kind,
             "valid": check.valid,
             "fails": bool(check.utilization > 1.0),
+            "section_class": None if check.section_class is None else check.section_class.klass,
+            "out_of_plane": _out_of_plane_data(check.out_of_plane),
             "deflection_utilization": _finite(check.deflection_utilization),
             "max_deflection": _finite(check.max_deflection),
             "deflection_allowed": _finite(check.deflection_allowed),
@@ -496,6 +507,16 @@ def _print(text: str) -> bool:
         os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
         return False
     return True
+
+
+def _out_of_plane_data(out) -> dict | None:
+    """The out-of-plane buckling check for the JSON summary (SI)."""
+    if out is None:
+        return None
+    return {"checked": out.checked, "axis": out.axis, "reason": out.reason,
+            "buckling_length": _finite(out.buckling_length), "N_cr": _finite(out.N_cr),
+            "lambda_bar": _finite(out.lambda_bar), "chi": _finite(out.chi), "curve": out.curve,
+            "N_b_Rd": _finite(out.N_b_Rd), "utilization": _finite(out.utilization)}
 
 
 def _beyond_critical(result) -> bool:

@@ -67,13 +67,12 @@ def _class_cautions(check) -> list:
                                  "section or check it by other means."),
                         source=found.source)]
     return [Caution(level="info", code="section-class",
-                    message=(f"Section {found.describe()}, under the forces as analysed; flange "
-                             "outstands classified in uniform compression."),
+                    message=f"Section {found.describe()} by Table 5.2; {found.basis}.",
                     source=found.source)]
 
 
 def _out_of_plane_cautions(found) -> list:
-    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, else what is checked."""
+    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made."""
     if found is None:
         return []
     if not found.checked:
@@ -87,11 +86,7 @@ def _out_of_plane_cautions(found) -> list:
                                  f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
                                  "buckling length) or choose a larger section."),
                         source=found.source)]
-    return [Caution(level="info", code="out-of-plane-buckling",
-                    message=(f"Out-of-plane flexural buckling checked: N/N_b,Rd = {found.utilization:.3f}, "
-                             f"{found.describe()}. Lateral-torsional buckling and the interaction of bending "
-                             "about both axes (EN 1993-1-1 §6.3.3) are not checked."),
-                    source=found.source)]
+    return []  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
 
 
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")

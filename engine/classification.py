@@ -104,15 +104,14 @@ class SectionClass:
         return max(self.parts, key=lambda p: p.klass) if self.parts else None
 
     def describe(self) -> str:
-        """One line, e.g. ``class 1 (web c/t = 14.9 <= 26.8, pure compression)``."""
+        """One line, e.g. ``class 1 (web c/t = 14.9 <= 26.8)``."""
         part = self.governing
         if part is None:
             return f"class {self.klass} ({self.basis})"
         bound = part.limits[min(part.klass, 3) - 1]
         sign = "<=" if part.klass < 4 else ">"
         what = "d/t" if part.stress == "chs" else "c/t"
-        return (f"class {self.klass} ({part.name} {what} = {part.ratio:.1f} {sign} {bound:.1f}, "
-                f"{part.stress}; {self.basis})")
+        return f"class {self.klass} ({part.name} {what} = {part.ratio:.1f} {sign} {bound:.1f})"
 
 
 def epsilon(fy: float) -> float:
@@ -155,8 +154,8 @@ def classify(section, material, *, compression: bool) -> SectionClass | None:
     eps = epsilon(material.fy)
     shape, dims = section.shape, dict(section.dimensions or {})
     web_stress = "internal compression" if compression else "internal bending"
-    basis = ("with axial compression: webs in pure compression (conservative)" if compression
-             else "without axial compression: webs in pure bending")
+    basis = ("webs taken in pure compression under axial compression (conservative)" if compression
+             else "webs taken in pure bending without axial compression")
     parts = []
     try:
         if shape in ("rolled_i", "welded_i"):
