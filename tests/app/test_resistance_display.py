@@ -48,7 +48,8 @@ def test_batch_marks_a_member_above_critical(tmp_path):
         over = f"{1.5 * pcr / 1e3:.3f}"
         writer.writerow(["over", "10", "pinned", "pinned", "SHS 100x100x5", "S355", over, "en1993-table-5.1",
                          "", ""])
-        writer.writerow(["post", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "", ""])
+        writer.writerow(["post", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "",
+                         ""])
         writer.writerow(["braced", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "",
                          "restrained"])
         writer.writerow(["half", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "3",
