@@ -220,7 +220,7 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
             kind_ab = "plastic N–M"
         sh = V / V_Rd if V_Rd is not None else np.zeros_like(V)
         linear = None
-        if route == "eq-5.9":
+        if route == "eq-5.9" and float(axial_force) > 0:  # a stability check: compression only
             linear = _eq_5_9_linear(N, M, section, material, settings)
             ab_section = ab
             ab = np.maximum(ab, linear)

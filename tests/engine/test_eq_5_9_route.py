@@ -177,3 +177,15 @@ def test_report_worst_identity_error():
     """Prints the worst |u − 1| of the identity test above (a record, run after it in file order)."""
     print(f"worst |utilisation - 1| at N_b,Rd: {WORST['value']:.3g}")
     assert WORST["value"] < 1e-9 or math.isclose(WORST["value"], 0.0)
+
+
+def test_linear_member_check_is_for_compression_only():
+    """In tension the eq. (5.9) route's member-stability check does not apply: only the cross-section check
+    (EN 1993-1-1 §6.2) governs, with γ_M0."""
+    case = _case(SUPPORTS["fixed-pinned"], 5.0, "c", 1.1, axial=-5e5)
+    r = engine.solve(case)
+    assert r.check.strength_kind != engine.checks.EQ_5_9_KIND
+    assert r.check.strength_kind == "elastic stress"
+    fy = r.material.fy
+    expected = 5e5 / (r.section.A * fy) + abs(r.governing.moment.value) / (r.section.W_el * fy)
+    assert r.check.strength_utilization == pytest.approx(expected, rel=1e-9)
