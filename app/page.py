@@ -2093,6 +2093,14 @@ def _ratio_text(value) -> str:
     return f"{value:.3f}"
 
 
+# Short forms of long check kinds, so that the values column does not wrap.
+_SHORT_KINDS = {"out-of-plane buckling": "out of plane", "linear N–M, eq. (5.9) route": "eq. (5.9) N–M"}
+
+
+def _kind_text(kind: str) -> str:
+    return _SHORT_KINDS.get(kind, kind)
+
+
 def _utilisation_text(value) -> str:
     """A utilisation; an unbounded one (above Pcr1, a class 4 section) reads "∞ fails"."""
     if value is not None and math.isinf(float(value)):
@@ -2159,29 +2167,28 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
     if check is not None:
         row(
             "utilisation",
-            f"{_utilisation_text(check.utilization)} {check.kind}",
+            f"{_utilisation_text(check.utilization)} {_kind_text(check.kind)}",
             f"@ {U.show('length', check.x)}",
             check.utilization > 1,
         )
         row(
             "strength only",
-            f"{_utilisation_text(check.strength_utilization)} {check.strength_kind}",
-            "",
+            f"{_utilisation_text(check.strength_utilization)} {_kind_text(check.strength_kind)}",
+            "" if check.section_class is None else f"class {check.section_class.klass}",
             check.strength_utilization > 1,
         )
         out = check.out_of_plane
         if out is not None and out.checked:
             row(
-                f"N/N<sub>b,Rd</sub> out of plane ({out.axis})",
+                "N/N<sub>b,Rd</sub> out of plane",
                 _ratio_text(out.utilization),
-                f"χ = {out.chi:.3f}, λ̄ = {out.lambda_bar:.3f}, L_cr {U.show('length', out.buckling_length)}",
+                f"{out.axis}, χ {out.chi:.3f}",
                 out.utilization > 1,
             )
         elif out is not None:
-            row("out of plane", "not checked", out.reason)
-        if check.section_class is not None:
-            row("section class", str(check.section_class.klass), "EN 1993-1-1 Table 5.2",
-                check.section_class.klass == 4)
+            row("out of plane", "not checked", "restrained" if out.reason.startswith("restrained") else
+                "see cautions")
+
         if capacity is not None:
             row(
                 "capacity N",

@@ -109,7 +109,7 @@ def test_page_values_table_shows_the_new_rows():
 
     result = engine.solve(demo_case())
     html = _values_table(result, None, "", units("si"))
-    assert "N/N<sub>b,Rd</sub> out of plane (minor)" in html and "section class" in html
+    assert "N/N<sub>b,Rd</sub> out of plane" in html and "minor, χ 0.299" in html and "class 1" in html
     over = engine.solve(engine.Case.from_dict(_shs_above_critical()))
     assert "∞ fails" in _values_table(over, None, "", units("si"))
     assert math.isinf(over.utilization)
