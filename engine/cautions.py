@@ -69,8 +69,8 @@ def _class_cautions(check) -> list:
                         source=found.source)]
     if found.klass == 3:
         return [Caution(level="info", code="section-class",
-                        message=(f"Section {found.describe()} by Table 5.2 ({found.basis}): elastic resistance "
-                                 "only."),
+                        message=(f"Section {found.describe()} by Table 5.2 ({found.basis}): elastic "
+                                 "resistance only."),
                         source=found.source)]
     return []  # class 1 or 2: reported with the member check (check.section_class), nothing to caution
 
