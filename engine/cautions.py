@@ -84,13 +84,17 @@ def _out_of_plane_cautions(found) -> list:
         return [Caution(level="info" if restrained else "warning", code="out-of-plane-not-checked",
                         message=f"Out-of-plane flexural buckling ({found.axis} axis): {found.reason}.",
                         source=found.source)]
+    extra = []
+    if found.note:
+        extra.append(Caution(level="warning", code="out-of-plane-length", message=found.note,
+                             source=found.source))
     if found.utilization > 1.0:
-        return [Caution(level="danger", code="out-of-plane-buckling",
+        return extra + [Caution(level="danger", code="out-of-plane-buckling",
                         message=(f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
                                  f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
                                  "buckling length) or choose a larger section."),
                         source=found.source)]
-    return []  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
+    return extra  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
 
 
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")

@@ -109,6 +109,8 @@ class OutOfPlane:
     utilization : float or None
         N_Ed/N_b,Rd [-] (0 without compression), None when not checked.
     source : str
+    note : str
+        A doubt about the default buckling length (an end free to translate in the plane analysed), else "".
     """
 
     checked: bool
@@ -123,6 +125,7 @@ class OutOfPlane:
     curve_reason: str | None = None
     utilization: float | None = None
     source: str = SOURCE
+    note: str = ""
 
     def describe(self) -> str:
         """One line with the numbers, e.g. for the cautions and the calc sheet."""
@@ -167,12 +170,18 @@ def resistance(case, section, material) -> OutOfPlane:
     if curve is None:  # pragma: no cover - every steel shape but custom has a curve
         return OutOfPlane(checked=False, axis=other, reason=f"no buckling curve: {why}")
     length = settings.buckling_length if settings.buckling_length is not None else case.length
+    note = ""
+    sways = any(end.translation != "fixed" for end in (case.left, case.right))
+    if settings.buckling_length is None and sways:
+        note = ("L_cr is taken as the member length, but an end is free to translate in the plane analysed: "
+                "if it is free out of plane too, L_cr is up to 2L (a cantilever). Give "
+                "out_of_plane.buckling_length.")
     n_cr = math.pi**2 * material.E * turned.I / length**2
     lam = codes.slenderness(turned.A, material.fy, n_cr)
     chi = codes.reduction_factor(lam, curve)
     return OutOfPlane(checked=True, axis=other, buckling_length=length, N_cr=n_cr, lambda_bar=lam, chi=chi,
                       N_b_Rd=chi * turned.A * material.fy / case.check.gamma_M1, curve=curve,
-                      curve_reason=why,
+                      curve_reason=why, note=note,
                       reason=("given" if settings.buckling_length is not None
                               else "the member length (default)"))
 

@@ -122,6 +122,18 @@ def test_custom_section_cannot_be_checked_out_of_plane():
     assert warning and warning[0].level == "warning" and "custom" in warning[0].message
 
 
+def test_default_length_on_a_cantilever_warns():
+    """A fixed–free member with the default L_cr = L gets a warning that L_cr may be up to 2L (Euler's
+    cantilever, Timoshenko & Gere 1961 §2.1); with a given length there is none."""
+    supports = {"left": "fixed", "right": "free"}
+    r = engine.solve(_demo(supports=supports, axial_force=50e3, loads=[]))
+    assert "out-of-plane-length" in [c.code for c in r.cautions if c.level == "warning"]
+    given = engine.solve(_demo(supports=supports, axial_force=50e3, loads=[],
+                               out_of_plane={"buckling_length": 12.0}))
+    assert "out-of-plane-length" not in [c.code for c in given.cautions]
+    assert "out-of-plane-length" not in [c.code for c in engine.solve(_demo()).cautions]
+
+
 def test_tension_has_no_out_of_plane_utilisation():
     """In tension N/N_b,Rd is 0 and no out-of-plane caution is given."""
     r = engine.solve(_demo(axial_force=-200e3))
