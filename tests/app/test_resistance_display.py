@@ -128,3 +128,22 @@ def test_calc_sheet_states_the_definitions():
     assert len(reader.pages) == 2
     assert "N/N_b,Rd = 0.423 about the minor axis" in text
     assert "EN 1993-1-1 Table 5.2" in text and "e0·N_cr/(EI·|η''|max)" in text
+
+
+def test_schema_knows_the_out_of_plane_key():
+    """The JSON Schema (draft 2020-12, checked by jsonschema) accepts the out_of_plane forms the engine accepts
+    and refuses an unknown key inside it, as the engine does."""
+    import jsonschema
+
+    from app.schema import case_schema
+
+    validator = jsonschema.Draft202012Validator(case_schema())
+    base = demo_case().to_dict()
+    for value in ({"buckling_length": 3.0}, {"restrained": True}, {}):
+        mapping = dict(base, out_of_plane=value)
+        engine.Case.from_dict(mapping)
+        validator.validate(mapping)
+    bad = dict(base, out_of_plane={"length": 3.0})
+    assert not validator.is_valid(bad)
+    with pytest.raises(engine.CaseError, match=r"^out_of_plane\.length"):
+        engine.Case.from_dict(bad)
