@@ -131,8 +131,8 @@ def test_calc_sheet_states_the_definitions():
 
 
 def test_schema_knows_the_out_of_plane_key():
-    """The JSON Schema (draft 2020-12, checked by jsonschema) accepts the out_of_plane forms the engine accepts
-    and refuses an unknown key inside it, as the engine does."""
+    """The JSON Schema (draft 2020-12, checked by jsonschema) accepts the out_of_plane forms the engine
+    accepts and refuses an unknown key inside it, as the engine does."""
     import jsonschema
 
     from app.schema import case_schema
