@@ -55,8 +55,7 @@ _UNCLASSIFIED = Caution(
 
 
 def _class_cautions(check) -> list:
-    """The section class of EN 1993-1-1 Table 5.2: a warning when not classified, a note for class 3, a
-    danger for class 4 (class 1 and 2 are reported with the member check)."""
+    """The section class of EN 1993-1-1 Table 5.2: a warning when not classified, a danger for class 4."""
     found = None if check is None else check.section_class
     if found is None:
         return [_UNCLASSIFIED]
@@ -67,12 +66,9 @@ def _class_cautions(check) -> list:
                                  "Effective properties (EN 1993-1-5) are not computed: choose a stockier "
                                  "section or check it by other means."),
                         source=found.source)]
-    if found.klass == 3:
-        return [Caution(level="info", code="section-class",
-                        message=(f"Section {found.describe()} by Table 5.2 ({found.basis}): elastic "
-                                 "resistance only."),
-                        source=found.source)]
-    return []  # class 1 or 2: reported with the member check (check.section_class), nothing to caution
+    # Classes 1 to 3 are reported with the member check (check.section_class); class 3 with the plastic method
+    # adds the check's own note that the elastic check was used.
+    return []
 
 
 def _out_of_plane_cautions(found) -> list:

@@ -254,9 +254,7 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
         if s_value >= value:  # the member check about the other axis governs (x: mid-length, member-level)
             kind, value, where, source = KIND, s_value, 0.5 * length, out_of_plane.source
     valid = True
-    if klass == 4 and N > 0:
-        notes.append(f"The section is {section_class.describe()} under this compression: its gross-section "
-                     "resistance is not valid (effective properties, EN 1993-1-5, are not computed).")
+    if klass == 4 and N > 0:  # the danger caution section-class-4 says why
         kind = s_kind = "class 4 section"
         value = s_value = math.inf
         source = section_class.source
