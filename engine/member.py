@@ -214,6 +214,13 @@ def resolve(case):
             # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1.
             factor = pcr1 / (EI * mode_curvature_peak(first))
             amplitude = e0 * factor
+            if amplitude > L / 10:
+                # Capping it would make the route unconservative (capacity above χ A f_y / γ_M1): refuse.
+                raise CaseError(f"imperfection.preset: the eq. (5.9) bow e0·N_cr/(EI·|η''|max) = "
+                                f"{amplitude * 1e3:.0f} mm exceeds L/10 = {L / 10 * 1e3:.0f} mm: the first "
+                                "buckling mode of these supports is nearly a rigid-body sway with little "
+                                "curvature (soft translational springs); use the Table 5.1 preset with a "
+                                "sway imperfection, or stiffer supports")
             label = (f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, lambda_bar = {lam:.3f}, "
                      f"e0 = {e0 * 1e3:.2f} mm, first-mode bow e0·N_cr/(EI·|η''|max) = e0 × {factor:.4g} "
                      f"= {abs(amplitude) * 1e3:.2f} mm")
