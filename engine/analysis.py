@@ -68,26 +68,26 @@ class _Prepared:
         self.model = Model(analysis_case, bow_for(analysis_case, self.buckling))
         self._stations: dict = {}
         self._first: dict = {}
-        self._classes: dict = {}
+        self._design: dict = {}
 
     def section_class(self, compression: bool):
         """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached."""
-        if compression not in self._classes:
+        if compression not in self._design:
             from engine.classification import classify
 
             member = self.member
-            self._classes[compression] = None if member is None else classify(member.section, member.material,
+            self._design[compression] = None if member is None else classify(member.section, member.material,
                                                                                compression=compression)
-        return self._classes[compression]
+        return self._design[compression]
 
     def out_of_plane(self):
         """The out-of-plane buckling resistance (independent of the axial force), cached."""
-        if "out_of_plane" not in self._classes:
+        if "out_of_plane" not in self._design:
             from engine.out_of_plane import resistance
 
             member = self.member
-            self._classes["out_of_plane"] = resistance(self.case, member.section, member.material)
-        return self._classes["out_of_plane"]
+            self._design["out_of_plane"] = resistance(self.case, member.section, member.material)
+        return self._design["out_of_plane"]
 
     def bow_facts(self) -> dict:
         """What the cautions need to know of the bow."""
