@@ -129,6 +129,12 @@ COLUMNS: tuple[Column, ...] = (
            description="Member check: elastic or plastic. Empty: elastic."),
     Column(name="deflection_limit", required=False,
            description="n of the deflection limit span/n. Empty: 250."),
+    Column(name="Lcr_out_m", required=False,
+           description="Out-of-plane buckling length L_cr [m] (flexural buckling about the other axis, EN "
+                       "1993-1-1 §6.3.1). Empty: the member length."),
+    Column(name="out_of_plane", required=False,
+           description="restrained when out-of-plane buckling is prevented (no check about the other axis). "
+                       "Empty: checked."),
     Column(name="comment", required=False,
            description="Free text, not read (it goes into the case title)."),
 )
@@ -141,8 +147,8 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("id", None), ("row", None), ("status", None), ("field", None), ("message", None), ("stability", None),
     ("Pcr1", "force"), ("alpha_cr", None), ("M_max", "moment"), ("x_M", "length"), ("V_max", "force"),
     ("x_V", "length"), ("w_max", "small_length"), ("x_w", "length"), ("amplification_moment", None),
-    ("utilization", None), ("deflection_utilization", None), ("governing_check", None), ("capacity", "force"),
-    ("capacity_check", None),
+    ("utilization", None), ("deflection_utilization", None), ("governing_check", None),
+    ("out_of_plane_utilization", None), ("section_class", None), ("capacity", "force"), ("capacity_check", None),
     ("cautions", None),
 )
 _SUFFIXES = {
@@ -164,8 +170,9 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
     tuple of str
         ``id, row, status, field, message, stability, Pcr1_kN, alpha_cr, M_max_kNm, x_M_m, V_max_kN, x_V_m,
         w_max_mm, x_w_m, amplification_moment, utilization, deflection_utilization, governing_check,
-        capacity_kN, capacity_check, cautions`` in SI. ``utilization`` is strength and stability;
-        ``deflection_utilization`` the separate service check (loads as given, no bow).
+        out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions`` in SI. ``utilization``
+        is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
+        bow).
     """
     suffixes = _SUFFIXES[units]
     return tuple(name if kind is None else f"{name}_{suffixes[kind]}" for name, kind in _RESULT_LAYOUT)
@@ -214,6 +221,9 @@ class BatchSummary:
     error_count : int
     failing : int
         Solved members with a utilisation above 1 or a danger caution.
+    beyond_critical : int
+        Solved members at or above their first critical load (``stability`` unstable or critical, utilisation
+        inf): the command line exits with 1 for them even without ``--strict``.
     workers : int
         Processes used (1: solved in this process).
     pdfs : int
@@ -226,6 +236,7 @@ class BatchSummary:
     errors: list = field(default_factory=list)
     error_count: int = 0
     failing: int = 0
+    beyond_critical: int = 0
     workers: int = 1
     pdfs: int = 0
 
@@ -372,6 +383,8 @@ def _column_of(path: str, row: Mapping[str, str], load_columns: list[str]) -> st
         if row.get("EI_kNm2"):
             return "EI_kNm2"
         return "section" if not row.get("section") else "material"
+    if head == "out_of_plane":
+        return "out_of_plane" if "restrained" in path else "Lcr_out_m"
     if head == "check":
         return "deflection_limit" if "deflection_limit" in path else "check_method"
     return {"length": "length_m", "axial_force": "axial_kN", "imperfection": "bow", "section": "section",
@@ -456,6 +469,15 @@ def member_case(row: Mapping[str, str]):
                                             "250")
     if check:
         data["check"] = check
+    state = cell("out_of_plane").lower()
+    if state not in ("", "restrained", "checked"):
+        raise RowError("out_of_plane", f"out_of_plane: {cell('out_of_plane')!r} is not allowed; allowed: "
+                                       "'restrained', 'checked' or empty (checked)")
+    if state == "restrained":
+        data["out_of_plane"] = {"restrained": True}
+    if cell("Lcr_out_m"):
+        length = _number("Lcr_out_m", cell("Lcr_out_m"), "metres", "3.0")
+        data["out_of_plane"] = {**data.get("out_of_plane", {}), "buckling_length": length}
     try:
         return engine.Case.from_dict(data)
     except engine.CaseError as error:
@@ -528,6 +550,8 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         _cell(result.amplification.moment), _cell(result.utilization),
         _cell(None if result.service is None else result.service.utilization),
         "" if check is None else check.kind,
+        "" if check is None or check.out_of_plane is None else _cell(check.out_of_plane.utilization),
+        "" if check is None or check.section_class is None else str(check.section_class.klass),
         _cell(capacity_force, force), capacity_check or "",
         ";".join(caution.code for caution in result.cautions),
     ]
@@ -760,6 +784,7 @@ def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, worke
                     if record[2] == "ok":
                         summary.solved += 1
                         summary.failing += failing
+                        summary.beyond_critical += record[5] in ("unstable", "critical")
                         summary.pdfs += wrote
                     else:
                         summary.error_count += 1

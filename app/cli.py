@@ -10,7 +10,8 @@ Commands:
 - ``strutscope batch MEMBERS.csv --out DIR`` solves a table of members (:mod:`app.batch`).
 - ``strutscope schema`` prints the case file's JSON Schema (:mod:`app.schema`).
 
-Exit codes: 0 when done; 1 with ``--strict`` when a member fails its check (utilisation above 1) or a danger
+Exit codes: 0 when done; 1 when a member's axial force is at or above its first critical load (with or without
+``--strict``), 1 with ``--strict`` when a member fails its check (utilisation above 1) or a danger
 caution fires, for ``batch`` also when a row of the table is invalid, and when the output pipe was closed
 early; 2 when the input is invalid (:class:`engine.CaseError`, named with the file), a file cannot be read or
 written, or the command line is wrong.
@@ -279,9 +280,18 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add("")
         add(f"Member check ({check.settings.method}, gamma_M0 = {check.settings.gamma_M0:g}), "
             "second-order forces")
-        add(f"  utilisation:  {_ratio(check.utilization)} ({check.kind} at x = {_position(shown, check.x)}; "
-            f"{check.source})")
-        add(f"  strength:     {_ratio(check.strength_utilization)} ({check.strength_kind})")
+        add(f"  utilisation:  {_utilisation(check.utilization)} ({check.kind} at "
+            f"x = {_position(shown, check.x)}; {check.source})")
+        add(f"  strength:     {_utilisation(check.strength_utilization)} ({check.strength_kind})")
+        out = check.out_of_plane
+        if out is not None and out.checked:
+            add(f"  out of plane: {_ratio(out.utilization)} (N/N_b,Rd about the {out.axis} axis; L_cr = "
+                f"{shown.show('length', out.buckling_length)}, lambda_bar = {out.lambda_bar:.3f}, curve "
+                f"{out.curve}, chi = {out.chi:.3f}, N_b,Rd = {shown.show('force', out.N_b_Rd, 5)})")
+        elif out is not None:
+            add(f"  out of plane: not checked ({out.reason})")
+        if check.section_class is not None:
+            add(f"  section:      {check.section_class.describe()}")
     service = result.service
     if service is not None:
         add("")
@@ -293,7 +303,7 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add(f"  basis:        {service.basis}")
     elif result.utilization is not None:
         add("")
-        add(f"Member check: utilisation {_ratio(result.utilization)}")
+        add(f"Member check: utilisation {_utilisation(result.utilization)}")
 
     if capacity is not None:
         add("")
@@ -434,6 +444,10 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "utilization": _finite(check.utilization),
             "strength_utilization": _finite(check.strength_utilization),
             "strength_kind": check.strength_kind,
+            "valid": check.valid,
+            "fails": bool(check.utilization > 1.0),
+            "section_class": None if check.section_class is None else check.section_class.klass,
+            "out_of_plane": _out_of_plane_data(check.out_of_plane),
             "deflection_utilization": _finite(check.deflection_utilization),
             "max_deflection": _finite(check.max_deflection),
             "deflection_allowed": _finite(check.deflection_allowed),
@@ -547,6 +561,27 @@ def _print(text: str) -> bool:
     return True
 
 
+def _out_of_plane_data(out) -> dict | None:
+    """The out-of-plane buckling check for the JSON summary (SI)."""
+    if out is None:
+        return None
+    return {"checked": out.checked, "axis": out.axis, "reason": out.reason,
+            "buckling_length": _finite(out.buckling_length), "N_cr": _finite(out.N_cr),
+            "lambda_bar": _finite(out.lambda_bar), "chi": _finite(out.chi), "curve": out.curve,
+            "N_b_Rd": _finite(out.N_b_Rd), "utilization": _finite(out.utilization)}
+
+
+def _beyond_critical(result) -> bool:
+    """At or above the first critical load (no stable equilibrium): exit code 1 even without ``--strict``."""
+    return result.status in ("unstable", "critical")
+
+
+def _utilisation(value: float | None) -> str:
+    """A utilisation, with "fails" beside an infinite one (above Pcr1, or a class 4 section)."""
+    text = _ratio(value)
+    return f"{text} (fails)" if value is not None and math.isinf(float(value)) else text
+
+
 def _failing(result) -> bool:
     """A failed member check or a danger caution (what ``--strict`` turns into exit code 1)."""
     return (result.utilization is not None and result.utilization > 1.0) or any(
@@ -564,8 +599,8 @@ def _add_solve(commands) -> None:
         description="Solve a case file (JSON, schema 1; SI units) and print a summary of the critical "
                     "loads, the governing values with their positions, the reactions, the amplification "
                     "factors, the member check and the cautions. Exit code 0 when solved, 2 for an invalid "
-                    "case or a file that cannot be read or written, 1 with --strict when the member fails "
-                    "its check.",
+                    "case or a file that cannot be read or written, 1 when the axial force is at or above "
+                    "the first critical load, and 1 with --strict when the member fails its check.",
         examples=["strutscope solve --demo",
                   "strutscope solve post.json --units us",
                   "strutscope solve post.json --json > post-summary.json",
@@ -663,6 +698,8 @@ def _solve(args) -> int:
         text = format_summary(source, case, result, units=args.units, capacity=capacity)
     if not _print(text):
         return 1
+    if _beyond_critical(result):
+        return 1  # at or above the first critical load the member fails, --strict or not
     return 1 if args.strict and _failing(result) else 0
 
 
@@ -678,7 +715,8 @@ def _add_batch(commands) -> None:
                     "README and in assets/example_members.csv) and write DIR/results.csv, one row per member "
                     "in the input order. A row that cannot be solved is reported there with its row number, "
                     "column and message, and does not stop the run. Exit code 0 when every row was solved, "
-                    "1 when some rows were invalid (or, with --strict, a member fails its check), 2 when the "
+                    "1 when some rows were invalid or a member is at or above its first critical load (or, "
+                    "with --strict, a member fails its check), 2 when the "
                     "table cannot be read.",
         examples=["strutscope batch members.csv --out results",
                   "strutscope batch members.csv --out results --pdf --prepared-by 'A. Engineer'",
@@ -738,7 +776,7 @@ def _batch(args) -> int:
     lines.append(f"Caution: {CAUTION}")
     if not _print("\n".join(lines)):
         return 1
-    if summary.error_count or (args.strict and summary.failing):
+    if summary.error_count or summary.beyond_critical or (args.strict and summary.failing):
         return 1
     return 0
 

@@ -93,6 +93,13 @@ _DEFINITIONS_TEXT = (
     "a separate service check on the loads as given, without the bow."
 )
 
+# How the resistance side is defined (issue 12), printed under the method on the calc sheet.
+_RESISTANCE_DEFINITIONS = (
+    "Eq. (5.9) bow: first mode of amplitude e0·N_cr/(EI·|η''|max), checked by N/(N_Rk/γ_M1) + "
+    "M/(M_Rk/γ_M1) ≤ 1 (reaches χ·A·f_y/γ_M1). Out of plane: N/N_b,Rd, eq. (6.47). Class by Table 5.2; "
+    "class 4 or N ≥ Pcr1: no valid result, utilisation unbounded (fails). α_cr limit 10 (elastic analysis)."
+)
+
 _FALLBACK_CAUTION = (
     "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, local "
     "buckling, connections and load combinations are not checked. Check the results against your local codes "
@@ -309,7 +316,8 @@ def _utilisation_text(result, U: Units) -> str | None:
     check = result.check
     if check is not None:
         where = f" at x = {U.show('length', check.x)}" if _finite(check.x) else ""
-        return f"{_ratio(check.utilization)} ({check.kind}{where})"
+        fails = " fails" if math.isinf(check.utilization) else ""
+        return f"{_ratio(check.utilization)}{fails} ({check.kind}{where})"
     if result.utilization is not None:
         return _ratio(result.utilization)
     return None
@@ -1168,6 +1176,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
 
     flow.heading("2  Method and references")
     flow.para(_METHOD)
+    flow.para(_RESISTANCE_DEFINITIONS, scale=0.92)
     flow.space(2)
     flow.para(_DEFINITIONS_TEXT, scale=0.9)
     flow.space(2)
@@ -1238,6 +1247,17 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         item("Utilisation", _utilisation_text(result, U), weight="bold")
         item("", f"source: {check.source}", scale=0.85, color=_GREY)
         item("Strength alone", f"{_ratio(check.strength_utilization)} ({check.strength_kind})")
+        out = check.out_of_plane
+        if out is not None and out.checked:
+            item("Out of plane", f"N/N_b,Rd = {_ratio(out.utilization)} about the {out.axis} axis: "
+                                 f"L_cr = {U.show('length', out.buckling_length)}, "
+                                 f"N_cr = {U.show('force', out.N_cr)}, lambda_bar = {out.lambda_bar:.3f}, "
+                                 f"curve {out.curve}, chi = {out.chi:.3f}, N_b,Rd = chi·A·f_y/γ_M1 = "
+                                 f"{U.show('force', out.N_b_Rd)} (EN 1993-1-1 §6.3.1)")
+        elif out is not None:
+            item("Out of plane", f"not checked: {out.reason}")
+        if check.section_class is not None:
+            item("Section", f"{check.section_class.describe()}, EN 1993-1-1 Table 5.2")
         service = result.service
         if service is not None:
             allowed = U.show("small_length", service.allowed)

@@ -941,6 +941,12 @@ class MemberPage(pn.viewable.Viewer):
         self.gamma0_input = self._number("gamma_M0", "γ_M0", None, width=90)
         self.gamma1_input = self._number("gamma_M1", "γ_M1", None, width=90)
         self.limit_input = self._number("deflection_limit", "deflection limit span/n: n", None, width=170)
+        self.out_of_plane_select = self._select(
+            "out_of_plane", "out of plane", {"buckles (checked)": "buckles", "restrained": "restrained"},
+            width=140,
+        )
+        self.out_of_plane_input = self._number("out_of_plane_length", "out-of-plane L_cr (empty: L)",
+                                               "length", width=150)
         self.prepared_input = pn.widgets.TextInput(
             label="prepared by (calc sheet)", width=140, max_length=60, stylesheets=[_WIDGET_CSS]
         )
@@ -952,7 +958,9 @@ class MemberPage(pn.viewable.Viewer):
             self.method_select,
             pn.Row(self.gamma0_input, self.gamma1_input, margin=0),
             self.limit_input,
+            pn.Row(self.out_of_plane_select, self.out_of_plane_input, margin=0),
             self._error_pane("check"),
+            self._error_pane("out_of_plane"),
             self.check_facts,
             pn.Row(self.prepared_input, self.checked_input, margin=0),
             name="Check",
@@ -2094,6 +2102,21 @@ def _ratio_text(value) -> str:
     return f"{value:.3f}"
 
 
+# Short forms of long check kinds, so that the values column does not wrap.
+_SHORT_KINDS = {"out-of-plane buckling": "out of plane", "linear N–M, eq. (5.9) route": "eq. (5.9) N–M"}
+
+
+def _kind_text(kind: str) -> str:
+    return _SHORT_KINDS.get(kind, kind)
+
+
+def _utilisation_text(value) -> str:
+    """A utilisation; an unbounded one (above Pcr1, a class 4 section) reads "∞ fails"."""
+    if value is not None and math.isinf(float(value)):
+        return "∞ fails"
+    return _ratio_text(value)
+
+
 def _percent(error) -> str:
     if error is None or not math.isfinite(float(error)):
         return "n/a"
@@ -2159,16 +2182,27 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
     if check is not None:
         row(
             "utilisation",
-            f"{_ratio_text(check.utilization)} {check.kind}",
+            f"{_utilisation_text(check.utilization)} {_kind_text(check.kind)}",
             f"@ {U.show('length', check.x)}",
             check.utilization > 1,
         )
         row(
             "strength only",
-            f"{_ratio_text(check.strength_utilization)} {check.strength_kind}",
-            "",
+            f"{_utilisation_text(check.strength_utilization)} {_kind_text(check.strength_kind)}",
+            "" if check.section_class is None else f"class {check.section_class.klass}",
             check.strength_utilization > 1,
         )
+        out = check.out_of_plane
+        if out is not None and out.checked:
+            row(
+                "N/N<sub>b,Rd</sub> out of plane",
+                _ratio_text(out.utilization),
+                f"{out.axis}, χ {out.chi:.3f}",
+                out.utilization > 1,
+            )
+        elif out is not None:
+            row("out of plane", "not checked", "restrained" if out.reason.startswith("restrained") else
+                "see cautions")
         service = result.service
         if service is not None:
             row(

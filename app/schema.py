@@ -299,6 +299,18 @@ def _build() -> dict[str, Any]:
                                     "the AISC 360-16 direct analysis method). Default 1.",
                                     exclusiveMinimum=0, maximum=1),
         "check": {"$ref": "#/$defs/check"},
+        "out_of_plane": _closed(
+            {
+                "buckling_length": _number("Out-of-plane buckling length L_cr [m], 0.001 to 10000: "
+                                           "flexural buckling about the axis the member does not bend about "
+                                           "(EN 1993-1-1 §6.3.1). Default: the member length.",
+                                           minimum=0.001, maximum=10000),
+                "restrained": {"type": "boolean",
+                               "description": "true when out-of-plane buckling is prevented (the check is "
+                                              "not made); not together with buckling_length. Default false."},
+            },
+            description="Flexural buckling out of the plane analysed (needs a steel section and material).",
+        ),
     }
     return {
         "$schema": _DRAFT,

@@ -145,6 +145,8 @@ INPUTS = (
     "gamma_M0",
     "gamma_M1",
     "deflection_limit",
+    "out_of_plane",
+    "out_of_plane_length",
 )
 
 # The amplification chart runs from this much tension (in units of Pcr1) to past the third critical load.
@@ -451,6 +453,16 @@ class MemberState(param.Parameterized):
         softbounds=(100.0, 1000.0),
         doc="Deflection limit span/n: n [-], 1 to 10000 (250 by default).",
     )
+    out_of_plane = param.Selector(
+        objects=["buckles", "restrained"],
+        default="buckles",
+        doc="Flexural buckling about the other axis: checked ('buckles') or prevented ('restrained').",
+    )
+    out_of_plane_length = param.Number(
+        allow_None=True,
+        default=None,
+        doc="Out-of-plane buckling length L_cr [m]; empty: the member length.",
+    )
 
     # ------------------------------------------------------------------ display and solver settings
     units = param.Selector(
@@ -585,6 +597,10 @@ class MemberState(param.Parameterized):
             "gamma_M1": self.gamma_M1,
             "deflection_limit": self.deflection_limit,
         }
+        if self.out_of_plane == "restrained":
+            data["out_of_plane"] = {"restrained": True}
+        elif self.out_of_plane_length is not None:
+            data["out_of_plane"] = {"buckling_length": self.out_of_plane_length}
         data.update(overrides)
         return data
 
@@ -857,4 +873,7 @@ def values_from_mapping(mapping: Mapping) -> dict:
     values["gamma_M0"] = _number_or(check.get("gamma_M0"), 1.0)
     values["gamma_M1"] = _number_or(check.get("gamma_M1"), 1.0)
     values["deflection_limit"] = _number_or(check.get("deflection_limit"), 250.0)
+    out_of_plane = mapping.get("out_of_plane") or {}
+    values["out_of_plane"] = "restrained" if out_of_plane.get("restrained") is True else "buckles"
+    values["out_of_plane_length"] = out_of_plane.get("buckling_length")
     return values

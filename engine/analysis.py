@@ -11,8 +11,10 @@ from engine.amplification import approximations, braced
 from engine.buckling import critical_loads
 from engine.cautions import assess
 from engine.checks import check_member
+from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
 from engine.imperfections import bow_for
+from engine.out_of_plane import utilisation as out_of_plane_utilisation
 from engine.reference import reference_peak, reference_peaks
 from engine.results import (Amplification, Equilibrium, Governing, Peak, Reactions, Result, ServiceCheck,
                             SweepResult)
@@ -64,6 +66,8 @@ class _Prepared:
 
             self.member, analysis_case = resolve(case)
         self.analysis_case = analysis_case
+        self.case = case
+        self._design: dict = {}  # section class and out-of-plane resistance: independent of the bow
         self.buckling = critical_loads(analysis_case, 5)
         self._start(self.member.bow if self.member is not None else None)
 
@@ -92,6 +96,7 @@ class _Prepared:
 
             hit = object.__new__(_Prepared)
             hit.buckling = self.buckling
+            hit.case, hit._design = self.case, self._design
             choice = None
             if kind == "reversed":
                 choice = self.member.bow.reversed()
@@ -113,6 +118,25 @@ class _Prepared:
             seg, xi, _, _ = self.stations(count, 0.0)
             self._reference[count] = ReferenceData(self.model, seg, xi)
         return self._reference[count]
+
+    def section_class(self, compression: bool):
+        """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached."""
+        if compression not in self._design:
+            from engine.classification import classify
+
+            member = self.member
+            self._design[compression] = None if member is None else classify(member.section, member.material,
+                                                                               compression=compression)
+        return self._design[compression]
+
+    def out_of_plane(self):
+        """The out-of-plane buckling resistance (independent of the axial force), cached."""
+        if "out_of_plane" not in self._design:
+            from engine.out_of_plane import resistance
+
+            member = self.member
+            self._design["out_of_plane"] = resistance(self.case, member.section, member.material)
+        return self._design["out_of_plane"]
 
     def bow_facts(self) -> dict:
         """What the cautions need to know of the bow."""
@@ -159,7 +183,7 @@ _MODEL_CACHE_SIZE = 32
 
 def _prepare(case) -> _Prepared:
     key = (case.length, case.EI, case.left, case.right, case.loads, case.imperfection, case.section, case.axis,
-           case.material, case.stiffness_factor, case.check)
+           case.material, case.stiffness_factor, case.check, case.out_of_plane)
     hit = _MODELS.get(key)
     if hit is None:
         hit = _Prepared(case)
@@ -294,7 +318,11 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
         check = check_member(x=x, axial_force=P, moment=M, shear=V,
                              deflection=np.array([w_service.value if w_service is not None else values[0]]),
                              length=model.L, section=section, material=material, axis=case.axis,
-                             settings=case.check)
+                             settings=case.check,
+                             route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
+                             section_class=prep.section_class(P > 0),
+                             beyond_critical=status == "unstable",
+                             out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P))
         if w_service is not None:
             service = ServiceCheck(utilization=check.deflection_utilization, deflection=w_service.value,
                                    x=w_service.x, allowed=check.deflection_allowed,
@@ -341,10 +369,10 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
     pcr1 = float(buckling.critical_loads[0])
     slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
     facts = dict(prep.bow_facts(), opposes_load=favourable)
-    limit = 10.0 if case.check.method == "elastic" else 15.0
-    cautions = tuple(assess(P=result.axial_force, pcr1=pcr1, alpha_cr_limit=limit, status=result.status,
-                            slenderness=slender, section=section, material=result.material, axis=case.axis,
-                            check=result.check, bow=facts, service=result.service))
+    # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
+    cautions = tuple(assess(P=result.axial_force, pcr1=pcr1, alpha_cr_limit=alpha_cr_limit("elastic"),
+                            status=result.status, slenderness=slender, section=section, material=result.material,
+                            axis=case.axis, check=result.check, bow=facts, service=result.service))
     return dataclasses.replace(result, cautions=cautions)
 
 

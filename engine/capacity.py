@@ -13,8 +13,10 @@ The search brackets the first crossing of utilisation 1 on a grid below the firs
 by Brent's method; if the utilisation never reaches 1 below the critical load, elastic buckling governs and the
 capacity is the critical load itself.
 
-On the EN 1993-1-1 route with the eq. (5.9) bow and the elastic check, the capacity of a pin-ended strut is
-exactly :math:`\chi A f_y` of eq. (6.49), the Ayrton–Perry identity; the tests check it.
+On the EN 1993-1-1 route with the eq. (5.9) bow, the capacity is exactly
+:math:`N_{b,Rd} = \chi A f_y/\gamma_{M1}` of eqs. (6.47) and (6.49) for every support set, springs included,
+with the elastic or the plastic check method (the route's linear member check; the Ayrton–Perry identity); the
+tests check it.
 """
 
 from __future__ import annotations
@@ -27,6 +29,7 @@ import numpy as np
 from scipy.optimize import brentq
 
 from engine.errors import CaseError
+from engine.out_of_plane import KIND as OUT_OF_PLANE
 
 __all__ = ["Capacity", "capacity"]
 
@@ -45,9 +48,11 @@ class Capacity:
         The factor on the case's loads (``proportional``), or ``axial_force / case.axial_force`` when that is
         compression, else NaN [-].
     check : str
-        The check that governs there (``"elastic stress"``, ``"plastic N–M"``, ``"shear"``), or
-        ``"elastic buckling"`` when the critical load comes first, or ``"transverse loads alone"`` when the member
-        fails with no axial force at all (then ``axial_force`` is 0).
+        The check that governs there (``"elastic stress"``, ``"plastic N–M"``, ``"shear"``, the eq. (5.9)
+        route's linear member check), or ``"elastic buckling"`` when the critical load comes first, or
+        ``"transverse loads alone"`` when the member fails with no axial force at all, or
+        ``"class 4 section"`` when the section is class 4 in compression (EN 1993-1-1 Table 5.2; then
+        ``axial_force`` is 0).
     x : float or None
         Where it governs [m].
     critical_load : float
@@ -125,6 +130,14 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         return Capacity(axial_force=float(force), load_factor=float(factor), check=check, x=x,
                         critical_load=pcr1, mode=mode, message=message)
 
+    from engine.classification import classify
+
+    compressed_class = classify(probe.section, probe.material, compression=True)
+    if compressed_class is not None and compressed_class.klass == 4:
+        return found(0.0, "class 4 section", None,
+                     f"The section is {compressed_class.describe()} in compression: its gross-section "
+                     "resistance is not valid, so no axial compression capacity is given (effective "
+                     "properties, EN 1993-1-5, are not computed).")
     u0 = utilisation(0.0) if mode == "axial" else 0.0
     if mode == "axial" and u0 >= 1.0:
         return found(0.0, "transverse loads alone", probe.check.x if probe.check else None,
@@ -138,6 +151,11 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         if u >= 1.0:
             root = brentq(lambda s: utilisation(s) - 1.0, prev_t, float(t), xtol=1e-12 * top, rtol=1e-13)
             r = solve(_scaled(case, root, mode, reference), stations=stations)
+            if r.check.strength_kind == OUT_OF_PLANE:
+                n_b = r.check.out_of_plane.N_b_Rd  # exactly: N/N_b,Rd is linear in N
+                return found(n_b if mode == "axial" else n_b / reference, OUT_OF_PLANE, None,
+                             f"Out-of-plane flexural buckling governs: N_b,Rd = chi·A·f_y/γ_M1 = "
+                             f"{n_b * 1e-3:.6g} kN ({r.check.out_of_plane.describe()}).")
             return found(root, r.check.strength_kind, r.check.x,
                          f"Strength governs: utilisation 1 by {r.check.strength_kind} at x = {r.check.x:.3f} m.")
         prev_t, prev_u = float(t), u

@@ -728,7 +728,7 @@ class Imperfection:
 # ----------------------------------------------------------------------------- case
 
 _CASE_KEYS = ("schema", "title", "length", "EI", "supports", "axial_force", "loads",
-              "imperfection", "section", "axis", "material", "stiffness_factor", "check")
+              "imperfection", "section", "axis", "material", "stiffness_factor", "check", "out_of_plane")
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
 _CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit")
@@ -810,6 +810,9 @@ class Case:
         Multiplies EI for the analysis only (0 < factor <= 1), e.g. 0.8·τ_b (AISC 360-16 direct analysis).
     check : CheckSettings or mapping, optional
         The member check's method, γ factors and deflection limit (:class:`engine.checks.CheckSettings`).
+    out_of_plane : OutOfPlaneSettings or mapping, optional
+        ``{"buckling_length": L_cr}`` or ``{"restrained": true}`` for flexural buckling about the other axis
+        (:mod:`engine.out_of_plane`); default: the member length, not restrained.
 
     Raises
     ------
@@ -844,6 +847,7 @@ class Case:
     material: Spec | None = None
     stiffness_factor: float = 1.0
     check: Any = None
+    out_of_plane: Any = None
 
     def __post_init__(self) -> None:
         if _is_bool(self.schema) or not isinstance(self.schema, int) \
@@ -913,6 +917,11 @@ class Case:
         elif not isinstance(self.check, CheckSettings):
             raise CaseError(f"check: {_show(self.check)} is not check settings; expected an object with keys "
                             f"{_quoted(_CHECK_KEYS)}")
+        if self.out_of_plane is not None:
+            from engine.out_of_plane import OutOfPlaneSettings
+
+            settings = OutOfPlaneSettings.from_data(self.out_of_plane)
+            _set(self, "out_of_plane", None if settings == OutOfPlaneSettings() else settings)
         section = None
         if self.section is not None:
             from engine.sections import section_from_spec
@@ -989,7 +998,7 @@ class Case:
         arguments = {name: mapping[name] for name in ("title", "length", "EI", "axial_force", "axis",
                                                        "stiffness_factor")
                      if name in mapping}
-        for name in ("section", "material", "check"):
+        for name in ("section", "material", "check", "out_of_plane"):
             if name in mapping:
                 arguments[name] = _expect_mapping(name, mapping[name], "an object")
         return cls(schema=schema, left=left, right=right, loads=loads,
@@ -1031,6 +1040,8 @@ class Case:
 
         if self.check != CheckSettings():
             data["check"] = self.check.to_dict()
+        if self.out_of_plane is not None:
+            data["out_of_plane"] = self.out_of_plane.to_dict()
         return data
 
     @classmethod

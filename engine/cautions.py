@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from engine.codes import ALPHA_CR_SOURCE
+
 __all__ = ["Caution", "GENERAL", "LEVELS", "assess"]
 
 LEVELS = ("info", "warning", "danger")
@@ -44,6 +46,53 @@ GENERAL = Caution(
     source="strutscope's scope (common practice, no source)",
 )
 
+_UNCLASSIFIED = Caution(
+    level="warning", code="section-class",
+    message=("Section class and local buckling are not checked for this section and material: its plates are "
+             "assumed able to reach the stresses used (class 1 or 2 for the plastic check, class 3 for the "
+             "elastic one)."),
+    source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1")
+
+
+def _class_cautions(check) -> list:
+    """The section class of EN 1993-1-1 Table 5.2: a warning when not classified, a danger for class 4."""
+    found = None if check is None else check.section_class
+    if found is None:
+        return [_UNCLASSIFIED]
+    if found.klass == 4:
+        return [Caution(level="danger", code="section-class-4",
+                        message=(f"The section is {found.describe()}: local buckling governs, and the "
+                                 "gross-section result is not valid (the utilisation is shown as unbounded). "
+                                 "Effective properties (EN 1993-1-5) are not computed: choose a stockier "
+                                 "section or check it by other means."),
+                        source=found.source)]
+    # Classes 1 to 3 are reported with the member check (check.section_class); class 3 with the plastic method
+    # adds the check's own note that the elastic check was used.
+    return []
+
+
+def _out_of_plane_cautions(found) -> list:
+    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made."""
+    if found is None:
+        return []
+    if not found.checked:
+        restrained = found.reason.startswith("restrained")
+        return [Caution(level="info" if restrained else "warning", code="out-of-plane-not-checked",
+                        message=f"Out-of-plane flexural buckling ({found.axis} axis): {found.reason}.",
+                        source=found.source)]
+    extra = []
+    if found.note:
+        extra.append(Caution(level="warning", code="out-of-plane-length", message=found.note,
+                             source=found.source))
+    if found.utilization > 1.0:
+        return extra + [Caution(level="danger", code="out-of-plane-buckling",
+                        message=(f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
+                                 f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
+                                 "buckling length) or choose a larger section."),
+                        source=found.source)]
+    return extra  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
+
+
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
 
 
@@ -58,7 +107,8 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
     pcr1 : float
         First critical load [N].
     alpha_cr_limit : float
-        10 for an elastic check, 15 for a plastic one (EN 1993-1-1 §5.2.1(3)).
+        :func:`engine.codes.alpha_cr_limit`: 10 for the elastic global analysis strutscope makes (15 would be
+        for a plastic global analysis, EN 1993-1-1 §5.2.1(3), whatever the cross-section check).
     status : str
         The result's status.
     slenderness : float or None
@@ -88,9 +138,10 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                            source="Euler; Timoshenko & Gere (1961) ch. 2"))
     elif P > 0 and alpha_cr < alpha_cr_limit:
         out.append(Caution(level="warning", code="second-order-matters",
-                           message=(f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g}: second-order effects "
-                                    "must be taken into account (this analysis includes them)."),
-                           source="EN 1993-1-1:2005 §5.2.1(3), eq. (5.1) (clause from memory)"))
+                           message=(f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g} (the limit "
+                                    "for an elastic global analysis): second-order effects must be taken "
+                                    "into account (this analysis includes them)."),
+                           source=ALPHA_CR_SOURCE))
     if P < 0:
         out.append(Caution(level="info", code="tension",
                            message=("The member is in tension: buckling does not apply, and the axial force "
@@ -110,11 +161,7 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                message=("Major-axis bending of an open section: lateral-torsional buckling is not "
                                         "checked. Check it, or make sure the compression flange is restrained."),
                                source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F"))
-        out.append(Caution(level="warning", code="section-class",
-                           message=("Section class and local buckling are not checked: the section's plates are "
-                                    "assumed able to reach the stresses used (class 1 or 2 for the plastic check, "
-                                    "class 3 for the elastic one)."),
-                           source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1"))
+        out.extend(_class_cautions(check))
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):
@@ -133,10 +180,10 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                         "service-class factors are not applied unless you set γ_M0 to include them."),
                                source="EN 1995-1-1 §2.4 and §3.2 (from memory)"))
     if check is not None:
-        if check.strength_utilization > 1.0:
+        if check.in_plane_utilization > 1.0 and check.valid:
             out.append(Caution(level="danger", code="overstressed",
-                               message=(f"Strength utilisation {check.strength_utilization:.3f} > 1 "
-                                        f"({check.strength_kind}): the member does not work as analysed."),
+                               message=(f"Strength utilisation {check.in_plane_utilization:.3f} > 1 "
+                                        f"({check.in_plane_kind}): the member does not work as analysed."),
                                source=check.source if check.kind != "deflection" else
                                "EN 1993-1-1:2005 §6.2 (clause numbers from memory)"))
         if service is not None and service.utilization > 1.0:
@@ -151,6 +198,8 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
                                         "apart from the strength one, on the loads as given and without the "
                                         "bow. Enter service loads for it."),
                                source="EN 1990 §3.4 and §6.5 serviceability (from memory)"))
+        if P > 0:
+            out.extend(_out_of_plane_cautions(check.out_of_plane))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))
     if P > 0 and bow.get("code_amplitude") is not None and abs(bow["amplitude"]) < bow["code_amplitude"] * (1 - 1e-9):

@@ -29,7 +29,10 @@ import numpy as np
 
 from engine.errors import CaseError
 
-__all__ = ["CheckSettings", "MemberCheck", "check_member", "METHODS"]
+__all__ = ["CheckSettings", "EQ_5_9_KIND", "MemberCheck", "check_member", "METHODS"]
+
+#: The kind of the linear member check of the eq. (5.9) route.
+EQ_5_9_KIND = "linear N–M, eq. (5.9) route"
 
 METHODS = ("elastic", "plastic")
 _PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle")
@@ -38,6 +41,8 @@ _SOURCES = {
     "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form (clause from memory)",
     "plastic": "EN 1993-1-1:2005 §6.2.9.1 and §6.2.8 (clause numbers from memory)",
     "shear": "EN 1993-1-1:2005 §6.2.6, eq. (6.18) (from memory)",
+    "eq-5.9": ("EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9)–(5.10), with N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 "
+               "(from memory)"),
     "deflection": "span/n deflection limit: national annexes; span/250 common practice, no source",
 }
 
@@ -108,6 +113,17 @@ class MemberCheck:
         N_Rd [N], M_Rd [N·m] (elastic or plastic), V_Rd [N] (None where not checked).
     notes : tuple of str
         What was not checked, or checked another way than asked.
+    section_class : SectionClass or None
+        EN 1993-1-1 Table 5.2 class (:mod:`engine.classification`), None where not classified.
+    out_of_plane : OutOfPlane or None
+        Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): N/N_b,Rd in ``utilization``, or why it
+        was not checked; it is part of ``strength_utilization`` (kind ``"out-of-plane buckling"``).
+    in_plane_utilization : float
+        The in-plane strength utilisation alone (cross-section checks along the member) [-].
+    in_plane_kind : str
+    valid : bool
+        False when the result cannot stand: a class 4 section in compression (its gross-section resistance
+        does not apply) or an axial force above the first critical load; the utilisation is then +inf.
     """
 
     settings: CheckSettings
@@ -125,10 +141,16 @@ class MemberCheck:
     deflection_allowed: float
     resistances: dict = field(default_factory=dict)
     notes: tuple = ()
+    section_class: object = None
+    valid: bool = True
+    out_of_plane: object = None
+    in_plane_utilization: float | None = None
+    in_plane_kind: str = ""
 
 
 def check_member(*, x, axial_force, moment, shear, deflection, length, section, material, axis,
-                 settings: CheckSettings) -> MemberCheck:
+                 settings: CheckSettings, route: str | None = None, section_class=None,
+                 beyond_critical: bool = False, out_of_plane=None) -> MemberCheck:
     """Check the cross-section at every station with the second-order forces.
 
     Parameters
@@ -147,6 +169,15 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
     material : Material
     axis : str
     settings : CheckSettings
+    route : str or None
+        ``"eq-5.9"`` when the bow is the eq. (5.9) preset: the linear member check with γ_M1 is added.
+    section_class : SectionClass or None
+        The section's class (:func:`engine.classification.classify`), None when not classified.
+    beyond_critical : bool
+        The axial force is above the first critical load: the check fails (utilisation +inf).
+    out_of_plane : OutOfPlane or None
+        The out-of-plane flexural buckling check at this axial force (:mod:`engine.out_of_plane`); its
+        N/N_b,Rd joins the strength utilisation.
 
     Returns
     -------
@@ -165,6 +196,11 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
     if method == "plastic" and (section.shape not in _PLASTIC_SHAPES or material.kind == "timber"):
         notes.append(f"The plastic check does not apply to a {section.shape} section of {material.kind}; "
                      "the elastic check is used instead.")
+        method = "elastic"
+    klass = section_class.klass if section_class is not None else None
+    if method == "plastic" and klass is not None and klass >= 3:
+        notes.append(f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
+                     "so the elastic check is used instead.")
         method = "elastic"
     V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -187,22 +223,76 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
             ab = np.where(np.isnan(ab), np.inf, ab)
             kind_ab = "plastic N–M"
         sh = V / V_Rd if V_Rd is not None else np.zeros_like(V)
+        linear = None
+        if route == "eq-5.9" and float(axial_force) > 0:  # a stability check: compression only
+            linear = _eq_5_9_linear(N, M, section, material, settings)
+            ab_section = ab
+            ab = np.maximum(ab, linear)
+    if linear is not None:
+        notes.append(_eq_5_9_note(settings.method, method, settings.gamma_M1))
     if V_Rd is None:
         notes.append("Shear is not checked for timber (no shear strength is given for it).")
     strength = np.maximum(ab, sh)
     i = int(np.argmax(strength))
     s_kind = kind_ab if ab[i] >= sh[i] else "shear"
+    if linear is not None and s_kind != "shear" and linear[i] >= ab_section[i]:
+        s_kind = EQ_5_9_KIND
     s_value = float(strength[i])
     w_abs = np.abs(np.asarray(deflection, dtype=float))
     j = int(np.argmax(w_abs))
     allowed = length / settings.deflection_limit
     d_util = float(w_abs[j] / allowed)
-    # Serviceability stays out of the headline: the governing utilisation is strength (and stability).
+    # Serviceability stays out of the headline: the governing utilisation is strength and stability.
     kind, value, where = s_kind, s_value, float(x[i])
     source = _SOURCES["shear"] if s_kind == "shear" else _SOURCES[method]
+    if s_kind == EQ_5_9_KIND:
+        source = _SOURCES["eq-5.9"]
+    in_plane_value, in_plane_kind = s_value, s_kind
+    u_out = None if out_of_plane is None else out_of_plane.utilization
+    if u_out is not None and u_out > s_value:
+        from engine.out_of_plane import KIND
+
+        # The member check about the other axis governs (x: mid-length, a member-level check).
+        s_value, s_kind = u_out, KIND
+        kind, value, where, source = KIND, s_value, 0.5 * length, out_of_plane.source
+    valid = True
+    if klass == 4 and N > 0:  # the danger caution section-class-4 says why
+        kind = s_kind = "class 4 section"
+        value = s_value = math.inf
+        source = section_class.source
+        valid = False
+    if beyond_critical:
+        kind = s_kind = "elastic buckling"
+        value = s_value = math.inf
+        source = "Euler; Timoshenko & Gere (1961) ch. 2: no stable equilibrium above the first critical load"
+        valid = False
     return MemberCheck(
         settings=settings, utilization=value, kind=kind, x=where, source=source,
         strength_utilization=s_value, strength_kind=s_kind, stations=strength, axial_bending=ab, shear=sh,
         deflection_utilization=d_util, max_deflection=float(w_abs[j]), deflection_allowed=allowed,
         resistances={"N_Rd": N_Rd, "M_Rd": M_Rd, "V_Rd": V_Rd}, notes=tuple(notes),
+        section_class=section_class, valid=valid, out_of_plane=out_of_plane,
+        in_plane_utilization=in_plane_value, in_plane_kind=in_plane_kind,
     )
+
+
+def _eq_5_9_linear(N, M, section, material, settings):
+    """N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) at every station, with the M_Rk of eq. (5.10) [-]."""
+    from engine.classification import eq_5_9_modulus
+
+    g1 = settings.gamma_M1
+    W = eq_5_9_modulus(section, material, settings.method)
+    return N * g1 / (section.A * material.fy) + M * g1 / (W * material.fy)
+
+
+def _eq_5_9_note(asked: str, used: str, g1: float) -> str:
+    if asked == "plastic" and used == "plastic":
+        extra = ("The plastic §6.2.9 interaction is not used for this member check: eq. (5.10)'s e0 is "
+                 "derived for the linear interaction (with M_Rk = W_pl f_y), which reproduces chi·N_Rk/γ_M1 "
+                 "exactly, whereas the plastic interaction would overshoot it; the plastic check is kept for "
+                 "the cross-section with γ_M0.")
+    else:
+        extra = "The cross-section check with γ_M0 is made as well."
+    return ("Eq. (5.9) route: the member is checked with the linear interaction "
+            f"N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 (γ_M1 = {g1:g}), which reaches 1 at "
+            "N_b,Rd = chi·A·f_y/γ_M1 for the bow alone. " + extra)

@@ -31,11 +31,14 @@ from engine.errors import CaseError
 __all__ = [
     "AISC_OUT_OF_PLUMB",
     "AISC_OUT_OF_STRAIGHTNESS",
+    "ALPHA_CR_LIMITS",
+    "ALPHA_CR_SOURCE",
     "AXES",
     "BUCKLING_CURVES",
     "IMPERFECTION_FACTORS",
     "MANUFACTURES",
     "SHAPES",
+    "alpha_cr_limit",
     "bow_ratio",
     "buckling_curve",
     "eq_5_9_amplitude",
@@ -70,6 +73,26 @@ MANUFACTURES: tuple[str, ...] = ("rolled", "welded", "hot_finished", "cold_forme
 #: EN 1993-1-1.
 AXES: tuple[str, ...] = ("y", "z", "major", "minor")
 _AXIS = {"y": "y", "z": "z", "major": "y", "minor": "z"}
+
+#: α_cr = F_cr/F_Ed below which second-order effects must be taken into account, by the type of GLOBAL
+#: analysis: EN 1993-1-1:2005 §5.2.1(3), eq. (5.1) (from memory). The limit 15 is for a plastic global
+#: analysis, not for a plastic cross-section check after an elastic analysis (strutscope's analysis is
+#: always elastic).
+ALPHA_CR_LIMITS = MappingProxyType({"elastic": 10.0, "plastic": 15.0})
+ALPHA_CR_SOURCE = "EN 1993-1-1:2005 §5.2.1(3), eq. (5.1) (clause from memory)"
+
+
+def alpha_cr_limit(global_analysis: str = "elastic") -> float:
+    """The α_cr limit of EN 1993-1-1 §5.2.1(3): 10 for an elastic, 15 for a plastic global analysis.
+
+    Examples
+    --------
+    >>> alpha_cr_limit(), alpha_cr_limit("plastic")
+    (10.0, 15.0)
+    """
+    _choice("global_analysis", global_analysis, tuple(ALPHA_CR_LIMITS))
+    return ALPHA_CR_LIMITS[global_analysis]
+
 
 # Table 5.1, e0/L = 1/ratio [text: ECCS 2010 table 2.20, reproducing EN 1993-1-1:2005 Table 5.1].
 _BOW_RATIOS = {

@@ -37,6 +37,7 @@ import numpy as np
 from engine import codes
 from engine.buckling import critical_loads
 from engine.case import Imperfection
+from engine.classification import eq_5_9_modulus
 from engine.imperfections import Bow, bow_for
 from engine.materials import material_from_spec
 from engine.sections import section_from_spec
@@ -158,6 +159,24 @@ def _curve(case, section, material):
                                 h_over_b=section.h_over_b, t_max=section.t_max, grade=grade)
 
 
+def mode_curvature_peak(buckling) -> float:
+    r""":math:`|\eta''_{cr}|_{max}` [1/m²] of the first mode, normalised to max|η| = 1, found exactly.
+
+    The mode is :math:`c_0 + c_1\xi + c_2\varphi_2 + c_3\varphi_3` in ξ = x/L (:mod:`engine.buckling`), so
+    :math:`L^2\eta'' = c_2\cos\lambda\xi + (c_3/\lambda)\sin\lambda\xi = R\cos(\lambda\xi - \theta)`:
+    the peak is R where :math:`\lambda\xi - \theta` is a multiple of π inside the member, else at an end.
+    """
+    lam = float(buckling.wavenumbers[0])
+    c = buckling._coefficients[0]
+    a, b = float(c[2]), float(c[3]) / lam
+    R = math.hypot(a, b)
+    theta = math.atan2(b, a)
+    k_low = math.ceil((0.0 - theta) / math.pi - 1e-12)
+    inside = (theta + k_low * math.pi) <= lam * (1 + 1e-12)
+    ends = max(abs(a), abs(a * math.cos(lam) + b * math.sin(lam)))
+    return (R if inside else ends) / buckling.length**2
+
+
 def _first_order_projection(case, EI, shape_values, x):
     """∫ w1 · w0 dx of the loads' first-order deflection onto a bow shape (its sign is all that matters)."""
     from engine.solution import Batch, Model, Points
@@ -239,14 +258,27 @@ def resolve(case):
             if section is None or material is None or curve is None:
                 raise CaseError("imperfection.preset: 'en1993-eq-5.9' needs a section and a steel material "
                                 "(or a curve), for the slenderness and M_Rk/N_Rk of eq. (5.9)")
-            pcr1 = float(critical_loads(plain, 1).critical_loads[0])
+            first = critical_loads(plain, 1)
+            pcr1 = float(first.critical_loads[0])
             lam = codes.slenderness(section.A, material.fy, pcr1)
-            W = section.W_el if method == "elastic" else section.W_pl
-            amplitude = codes.eq_5_9_amplitude(curve=curve, lambda_bar=lam, M_Rk=W * material.fy,
-                                               N_Rk=section.A * material.fy, gamma_M1=case.check.gamma_M1)
-            label = (f"EN 1993-1-1 eq. (5.9), curve {curve}, lambda_bar = {lam:.3f}, first-mode bow "
-                     f"e0 = {amplitude * 1e3:.2f} mm")
-            source = "EN 1993-1-1:2005 §5.3.2(11), eq. (5.9) (from memory)"
+            W = eq_5_9_modulus(section, material, method)
+            e0 = codes.eq_5_9_amplitude(curve=curve, lambda_bar=lam, M_Rk=W * material.fy,
+                                        N_Rk=section.A * material.fy, gamma_M1=case.check.gamma_M1)
+            # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1.
+            factor = pcr1 / (EI * mode_curvature_peak(first))
+            amplitude = e0 * factor
+            if amplitude > L / 10:
+                # Capping it would make the route unconservative (capacity above χ A f_y / γ_M1): refuse.
+                raise CaseError(f"imperfection.preset: the eq. (5.9) bow e0·N_cr/(EI·|η''|max) = "
+                                f"{amplitude * 1e3:.0f} mm exceeds L/10 = {L / 10 * 1e3:.0f} mm: the first "
+                                "buckling mode of these supports is nearly a rigid-body sway with little "
+                                "curvature (soft translational springs); use the Table 5.1 preset with a "
+                                "sway imperfection, or stiffer supports")
+            label = (f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, lambda_bar = {lam:.3f}, "
+                     f"e0 = {e0 * 1e3:.2f} mm, first-mode bow e0·N_cr/(EI·|η''|max) = e0 × {factor:.4g} "
+                     f"= {abs(amplitude) * 1e3:.2f} mm")
+            source = ("EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9) and (5.10) (from memory); checked on this "
+                      "route by the linear N–M interaction with γ_M1")
             code_amp = None
         elif imp.preset == "aisc-l/1000":
             amplitude = L / codes.AISC_OUT_OF_STRAIGHTNESS

@@ -100,14 +100,15 @@ def test_solve_case_file_and_stations_option(tmp_path):
 
 
 def test_case_at_critical_load_prints_unbounded_values(tmp_path):
-    """At P = Pcr1 the summary shows "critical" and "unbounded" (no NaN), with exit code 0 and the caution."""
+    """At P = Pcr1 the summary shows "critical" and "unbounded" (no NaN), with the caution, and exits with 1
+    without --strict (issue 12: at or above the first critical load the member fails)."""
     length, EI = 6.0, 4.2e6
     # Euler load of a pinned–pinned member, π²EI/L² (Timoshenko & Gere, Theory of Elastic Stability, 2nd ed.,
     # 1961, ch. 2; chapter number from memory; tests/REFERENCES.md §2).
     euler = math.pi**2 * EI / length**2
     path = write_case(tmp_path / "critical.json", length=length, EI=EI, axial_force=euler)
     done = run_cli("solve", str(path), cwd=tmp_path)
-    assert done.returncode == 0, done.stderr
+    assert done.returncode == 1, done.stderr
     assert "Status: critical" in done.stdout
     assert re.search(r"^\s*largest \|M\|\s+unbounded", done.stdout, re.MULTILINE), done.stdout
     assert not re.search(r"\bnan\b", done.stdout, re.IGNORECASE), done.stdout
@@ -251,7 +252,7 @@ def test_json_at_critical_load_writes_null_and_status_critical(tmp_path):
     euler = math.pi**2 * EI / length**2
     path = write_case(tmp_path / "critical.json", length=length, EI=EI, axial_force=euler)
     done = run_cli("solve", str(path), "--json", cwd=tmp_path)
-    assert done.returncode == 0, done.stderr
+    assert done.returncode == 1, done.stderr  # at the critical load the member fails (issue 12)
     data = strict_json(done.stdout)
     assert data["status"] == "critical"
     assert data["stable"] is False

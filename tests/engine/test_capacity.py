@@ -33,7 +33,7 @@ def test_eq_5_9_route_reproduces_chi_times_squash_load(curve, length):
         assert cap.axial_force == pytest.approx(A * fy, rel=1e-9)
     else:
         assert cap.axial_force == pytest.approx(chi * A * fy, rel=1e-9)
-    assert cap.check == "elastic stress"
+    assert cap.check == engine.checks.EQ_5_9_KIND  # the linear member check with γ_M1 (issue 12)
 
 
 def test_capacity_is_where_the_utilisation_reaches_one():

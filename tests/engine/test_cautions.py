@@ -79,9 +79,13 @@ def test_lateral_torsional_buckling_for_major_axis_open_sections_only():
     assert "lateral-torsional-buckling" not in _codes(_steel(section={"name": "SHS 100x100x5"}))[0]
 
 
-def test_section_class_caution_with_any_section():
-    """Section class and local buckling are never checked, so any section carries that warning."""
-    assert "section-class" in _codes(_steel())[0]
+def test_section_class_caution_where_it_matters():
+    """The class (EN 1993-1-1 Table 5.2) is computed for steel I/H and hollow sections: class 1–2 need no
+    caution, an unclassified section (custom) keeps the warning, and EI alone has none (issue 12)."""
+    codes, r = _codes(_steel())
+    assert "section-class" not in codes and r.check.section_class.klass <= 2
+    custom = {"shape": "custom", "A": 5e-3, "I": 2e-5, "W_el": 2e-4, "W_pl": 2.3e-4}
+    assert "section-class" in _codes(_steel(section=custom))[0]
     assert "section-class" not in _codes({"EI": 1e6})[0]
 
 

@@ -9,7 +9,9 @@ import engine
 
 BASE = {"schema": 1, "length": 4.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 3.0e5,
         "section": {"name": "HEB 200"}, "material": {"name": "S355"},
-        "loads": [{"type": "uniform", "q": 1.5e4}], "imperfection": {"shape": "sine", "amplitude": 0.01}}
+        "loads": [{"type": "uniform", "q": 1.5e4}], "imperfection": {"shape": "sine", "amplitude": 0.01},
+        # these tests check the in-plane criteria: out-of-plane buckling (test_out_of_plane.py) is braced here
+        "out_of_plane": {"restrained": True}}
 
 
 def _solve(**changes):

@@ -514,7 +514,8 @@ def test_shear_reduction_rejects_bad_input(args, field):
 def test_public_names():
     """The module exports exactly its documented names."""
     assert set(codes.__all__) == {
-        "AISC_OUT_OF_PLUMB", "AISC_OUT_OF_STRAIGHTNESS", "AXES", "BUCKLING_CURVES", "IMPERFECTION_FACTORS",
+        "AISC_OUT_OF_PLUMB", "AISC_OUT_OF_STRAIGHTNESS", "ALPHA_CR_LIMITS", "ALPHA_CR_SOURCE",
+        "alpha_cr_limit", "AXES", "BUCKLING_CURVES", "IMPERFECTION_FACTORS",
         "MANUFACTURES", "SHAPES", "bow_ratio", "buckling_curve", "eq_5_9_amplitude", "plastic_interaction",
         "reduction_factor", "shear_reduction", "slenderness", "sway_imperfection"}
     assert all(hasattr(codes, name) for name in codes.__all__)

@@ -1,0 +1,195 @@
+r"""Flexural buckling out of the plane of bending, EN 1993-1-1:2005 §6.3.1 (eqs. 6.46–6.49).
+
+strutscope analyses one plane. A compressed member can also buckle about its OTHER axis (for bending about the
+major axis of an I/H, the minor one), and until both planes are analysed this module makes the code's member
+check for it:
+
+.. math::
+
+    N_{cr,o} = \frac{\pi^2 E I_o}{L_{cr,o}^2}, \quad
+    \bar\lambda_o = \sqrt{\frac{A f_y}{N_{cr,o}}}, \quad
+    N_{b,o,Rd} = \frac{\chi_o A f_y}{\gamma_{M1}}, \quad \frac{N_{Ed}}{N_{b,o,Rd}} \le 1
+
+with :math:`\chi_o` of eq. (6.49) for the buckling curve of EN 1993-1-1 Table 6.2 about that axis, and
+:math:`L_{cr,o}` the case's ``out_of_plane.buckling_length`` (default: the member length, pin-ended about the
+other axis). ``{"restrained": true}`` says that out-of-plane buckling is prevented (the check is then left
+out, and the result says so). The stiffness factor of the case is not applied: it belongs to the in-plane
+analysis.
+
+Only steel sections with a buckling curve are checked: a custom section (its properties are given about one
+axis) or another material gets a warning that the check was not made. Circular sections are the same about
+every axis. Lateral-torsional buckling and the N–M interaction about both axes (§6.3.3) are not covered.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Any
+
+from engine.errors import CaseError
+
+__all__ = ["KIND", "OutOfPlane", "OutOfPlaneSettings", "resistance", "utilisation"]
+
+#: The check's kind in the member check.
+KIND = "out-of-plane buckling"
+
+SOURCE = "EN 1993-1-1:2005 §6.3.1.1–6.3.1.2, eqs. (6.46)–(6.49); curve by Table 6.2 (cells from memory)"
+
+_MAX_LENGTH = 10_000.0
+
+
+@dataclass(frozen=True, kw_only=True)
+class OutOfPlaneSettings:
+    """The case's ``out_of_plane`` key.
+
+    Parameters
+    ----------
+    buckling_length : float or None
+        L_cr about the other axis [m], 1 mm to 10 000 m; None: the member length.
+    restrained : bool
+        True when out-of-plane buckling is prevented (by bracing, a wall, ...): the check is not made.
+    """
+
+    buckling_length: float | None = None
+    restrained: bool = False
+
+    def __post_init__(self) -> None:
+        if not isinstance(self.restrained, bool):
+            raise CaseError(f"out_of_plane.restrained: {self.restrained!r} must be true or false")
+        if self.buckling_length is not None:
+            value = self.buckling_length
+            if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value) \
+                    or not 0.001 <= value <= _MAX_LENGTH:
+                raise CaseError(f"out_of_plane.buckling_length: {value!r} m must be a number from 0.001 to "
+                                f"{_MAX_LENGTH:g} m")
+            if self.restrained:
+                raise CaseError("out_of_plane.buckling_length: not allowed with 'restrained': true (a "
+                                "restrained member does not buckle out of plane); give one or the other")
+            object.__setattr__(self, "buckling_length", float(value))
+
+    @classmethod
+    def from_data(cls, data: Any) -> OutOfPlaneSettings:
+        """From the case file's mapping, naming unknown keys."""
+        if isinstance(data, OutOfPlaneSettings):
+            return data
+        if not hasattr(data, "keys"):
+            raise CaseError(f"out_of_plane: {data!r} is not an object; expected "
+                            '{"buckling_length": ...} or {"restrained": true}')
+        unknown = [key for key in data if key not in ("buckling_length", "restrained")]
+        if unknown:
+            raise CaseError(f"out_of_plane.{unknown[0]}: unknown key; allowed: 'buckling_length', "
+                            "'restrained'")
+        return cls(**dict(data))
+
+    def to_dict(self) -> dict:
+        """The case-file form."""
+        data: dict = {}
+        if self.buckling_length is not None:
+            data["buckling_length"] = self.buckling_length
+        if self.restrained:
+            data["restrained"] = True
+        return data
+
+
+@dataclass(frozen=True, kw_only=True)
+class OutOfPlane:
+    """The out-of-plane flexural buckling check (or why it was not made).
+
+    Attributes
+    ----------
+    checked : bool
+        False when restrained or when it cannot be made (``reason`` says why).
+    reason : str
+    axis : str
+        The axis buckled about (``"minor"`` for major-axis bending, and the other way round).
+    buckling_length, N_cr, lambda_bar, chi, N_b_Rd : float or None
+        L_cr [m], N_cr [N], λ̄ [-], χ [-], N_b,Rd = χ A f_y/γ_M1 [N].
+    curve, curve_reason : str or None
+    utilization : float or None
+        N_Ed/N_b,Rd [-] (0 without compression), None when not checked.
+    source : str
+    note : str
+        A doubt about the default buckling length (an end free to translate in the plane analysed), else "".
+    """
+
+    checked: bool
+    reason: str = ""
+    axis: str = "minor"
+    buckling_length: float | None = None
+    N_cr: float | None = None
+    lambda_bar: float | None = None
+    chi: float | None = None
+    N_b_Rd: float | None = None
+    curve: str | None = None
+    curve_reason: str | None = None
+    utilization: float | None = None
+    source: str = SOURCE
+    note: str = ""
+
+    def describe(self) -> str:
+        """One line with the numbers, e.g. for the cautions and the calc sheet."""
+        if not self.checked:
+            return self.reason
+        return (f"about the {self.axis} axis: L_cr = {self.buckling_length:.3f} m, "
+                f"N_cr = {self.N_cr * 1e-3:.1f} kN, "
+                f"lambda_bar = {self.lambda_bar:.3f}, curve {self.curve}, chi = {self.chi:.3f}, "
+                f"N_b,Rd = {self.N_b_Rd * 1e-3:.1f} kN")
+
+
+def resistance(case, section, material) -> OutOfPlane:
+    """N_b,Rd about the axis the member does not bend about (independent of the axial force).
+
+    Parameters
+    ----------
+    case : Case
+        Its ``axis``, ``length``, ``out_of_plane`` and ``check.gamma_M1``.
+    section, material : Section, Material
+        As resolved for the in-plane analysis (None when the case gives EI only).
+    """
+    from engine import codes
+    from engine.sections import section_from_spec
+
+    settings = case.out_of_plane or OutOfPlaneSettings()
+    other = "minor" if case.axis == "major" else "major"
+    if settings.restrained:
+        return OutOfPlane(checked=False, axis=other, reason="restrained: out-of-plane buckling is prevented "
+                          "(given in the case)")
+    if section is None or material is None:
+        return OutOfPlane(checked=False, axis=other, reason="no section and material: not checked")
+    if section.shape == "custom":
+        return OutOfPlane(checked=False, axis=other, reason="a custom section has properties about one axis "
+                          "only: out-of-plane buckling cannot be checked")
+    if material.kind != "steel":
+        return OutOfPlane(checked=False, axis=other, reason=f"{material.kind} material: the buckling curves "
+                          "of EN 1993-1-1 do not apply, out-of-plane buckling is not checked")
+    turned = section_from_spec(dict(case.section), other)
+    grade = material.name if material.name.upper().startswith("S") else None
+    curve, why = codes.buckling_curve(shape=turned.shape, manufacture=turned.manufacture, axis=other,
+                                      h_over_b=turned.h_over_b, t_max=turned.t_max, grade=grade)
+    if curve is None:  # pragma: no cover - every steel shape but custom has a curve
+        return OutOfPlane(checked=False, axis=other, reason=f"no buckling curve: {why}")
+    length = settings.buckling_length if settings.buckling_length is not None else case.length
+    note = ""
+    sways = any(end.translation != "fixed" for end in (case.left, case.right))
+    if settings.buckling_length is None and sways:
+        note = ("L_cr is taken as the member length, but an end is free to translate in the plane analysed: "
+                "if it is free out of plane too, L_cr is up to 2L (a cantilever). Give "
+                "out_of_plane.buckling_length.")
+    n_cr = math.pi**2 * material.E * turned.I / length**2
+    lam = codes.slenderness(turned.A, material.fy, n_cr)
+    chi = codes.reduction_factor(lam, curve)
+    return OutOfPlane(checked=True, axis=other, buckling_length=length, N_cr=n_cr, lambda_bar=lam, chi=chi,
+                      N_b_Rd=chi * turned.A * material.fy / case.check.gamma_M1, curve=curve,
+                      curve_reason=why, note=note,
+                      reason=("given" if settings.buckling_length is not None
+                              else "the member length (default)"))
+
+
+def utilisation(template: OutOfPlane, axial_force: float) -> OutOfPlane:
+    """The check at one axial force (compression positive): N_Ed/N_b,Rd, 0 in tension."""
+    import dataclasses
+
+    if not template.checked:
+        return template
+    return dataclasses.replace(template, utilization=max(float(axial_force), 0.0) / template.N_b_Rd)
