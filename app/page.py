@@ -1153,14 +1153,19 @@ class MemberPage(pn.viewable.Viewer):
             margin=(0, 4),
             styles={"background": "#ffffff"},
         )
+        # The values and the cautions each scroll in their own box, so that both stay in view however many rows
+        # the checks add (the member check heads the values); the general caution stays pinned below them.
+        self.values_box = pn.Column(
+            self.values_pane, scroll=True, sizing_mode="stretch_both", margin=0, min_height=200
+        )
         self.cautions_box = pn.Column(
-            self.cautions_pane, scroll=True, sizing_mode="stretch_both", margin=0, min_height=120
+            self.cautions_pane, scroll=True, sizing_mode="stretch_both", margin=0, min_height=150
         )
         right = pn.Column(
             pn.pane.HTML(
                 "<div class='ss-heading'>Governing values</div>", stylesheets=[_CSS], margin=(4, 4, 0, 4)
             ),
-            self.values_pane,
+            self.values_box,
             self.cautions_heading,
             self.cautions_box,
             self.general_pane,
@@ -2137,46 +2142,6 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
             f"<td class='f'>{_esc(note)}</td></tr>"
         )
 
-    first = result.first_order
-    unstable = result.status != "stable"
-    head("Second order · at x · first order")
-    for label, field, kind in (
-        ("max |w|", "deflection", "small_length"),
-        ("max |w + w0|", "total_offset", "small_length"),
-        ("max |M|", "moment", "moment"),
-        ("max |V|", "shear", "force"),
-    ):
-        peak = getattr(result.governing, field)
-        fpeak = getattr(first.governing, field)
-        where = f" @ {U.show('length', peak.x)}" if math.isfinite(peak.value) else ""
-        row(label, f"{U.show(kind, peak.magnitude)}{where}", U.show(kind, fpeak.magnitude), unstable)
-    reactions = result.reactions
-    head("End values, support side (T, M)")
-    row("left end", f"{U.show('force', reactions.left_T)}, {U.show('moment', reactions.left_M)}")
-    row("right end", f"{U.show('force', reactions.right_T)}, {U.show('moment', reactions.right_M)}")
-    head("Buckling")
-    pcr = result.critical_loads
-    row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")
-    row(
-        "α<sub>cr</sub> = Pcr1/N",
-        _ratio_text(result.alpha_cr),
-        "",
-        result.alpha_cr <= 1,
-        result.axial_force > 0 and result.alpha_cr < 10,
-    )
-    head("Amplification · error of approximation")
-    amplification = result.amplification
-    row("exact, M · w+w0", f"{_ratio_text(amplification.moment)} · {_ratio_text(amplification.deflection)}",
-        "M over M_I + N·w0")
-    row("M over M_I alone", _ratio_text(amplification.moment_first_order), "bow's moment counted in")
-    if amplification.moment_bow_free is not None:
-        row("M, member without bow", _ratio_text(amplification.moment_bow_free), "B1 is compared with it")
-    for approximation in amplification.approximations:
-        against = " (no bow)" if approximation.compared_with == "moment_bow_free" else ""
-        error = _percent(approximation.error) + against
-        row(_esc(approximation.name), _ratio_text(approximation.value), error)
-    if not amplification.approximations:
-        row("approximations", "none at or beyond Pcr1")
     check = result.check
     head("Member check (second-order forces)")
     if check is not None:
@@ -2224,6 +2189,46 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
             row("capacity N", "n/a", capacity_note)
     else:
         row("utilisation", "n/a", "needs a section and material")
+    first = result.first_order
+    unstable = result.status != "stable"
+    head("Second order · at x · first order")
+    for label, field, kind in (
+        ("max |w|", "deflection", "small_length"),
+        ("max |w + w0|", "total_offset", "small_length"),
+        ("max |M|", "moment", "moment"),
+        ("max |V|", "shear", "force"),
+    ):
+        peak = getattr(result.governing, field)
+        fpeak = getattr(first.governing, field)
+        where = f" @ {U.show('length', peak.x)}" if math.isfinite(peak.value) else ""
+        row(label, f"{U.show(kind, peak.magnitude)}{where}", U.show(kind, fpeak.magnitude), unstable)
+    reactions = result.reactions
+    head("End values, support side (T, M)")
+    row("left end", f"{U.show('force', reactions.left_T)}, {U.show('moment', reactions.left_M)}")
+    row("right end", f"{U.show('force', reactions.right_T)}, {U.show('moment', reactions.right_M)}")
+    head("Buckling")
+    pcr = result.critical_loads
+    row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")
+    row(
+        "α<sub>cr</sub> = Pcr1/N",
+        _ratio_text(result.alpha_cr),
+        "",
+        result.alpha_cr <= 1,
+        result.axial_force > 0 and result.alpha_cr < 10,
+    )
+    head("Amplification · error of approximation")
+    amplification = result.amplification
+    row("M ÷ (M<sub>I</sub> + N·w0)", _ratio_text(amplification.moment),
+        f"w: {_ratio_text(amplification.deflection)}")
+    row("M ÷ M<sub>I</sub>", _ratio_text(amplification.moment_first_order), "bow not in M_I")
+    if amplification.moment_bow_free is not None:
+        row("M ÷ M<sub>I</sub>, no bow", _ratio_text(amplification.moment_bow_free), "for B1")
+    for approximation in amplification.approximations:
+        against = " (no bow)" if approximation.compared_with == "moment_bow_free" else ""
+        error = _percent(approximation.error) + against
+        row(_esc(approximation.name), _ratio_text(approximation.value), error)
+    if not amplification.approximations:
+        row("approximations", "none at or beyond Pcr1")
     return "<table class='ss-values'>" + "".join(rows) + "</table>"
 
 

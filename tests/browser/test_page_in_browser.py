@@ -280,8 +280,8 @@ def test_every_part_is_inside_a_1280_by_720_screen(app, tmp_path):
         "span": page.get_by_label("Span L [m]", exact=True),
         "slider": page.locator(".noUi-handle").first,
         "force entry": page.get_by_label("N [kN]", exact=True),
-        "values": page.locator("table.ss-values"),
-        "cautions": page.locator("ul.ss-cautions").first,
+        "values": page.locator("table.ss-values tr").filter(has_text="utilisation").first,
+        "cautions": page.locator("ul.ss-cautions li").first,
         "general caution": page.locator("li[data-code='scope']"),
         "variant button": page.get_by_role("button", name=re.compile("^Keep as variant")),
     }
@@ -300,3 +300,32 @@ def test_every_part_is_inside_a_1280_by_720_screen(app, tmp_path):
     width = page.evaluate("() => document.documentElement.scrollWidth")
     assert width <= VIEWPORT["width"]
     page.screenshot(path=tmp_path / "page.png")
+
+
+def _uncovered(page, locator) -> bool:
+    """Whether the element's centre, once scrolled into view, is the element itself (nothing lies over it)."""
+    locator.scroll_into_view_if_needed()
+    return locator.evaluate(
+        """(el) => { const r = el.getBoundingClientRect();
+                     const root = el.getRootNode();
+                     const hit = (root.elementFromPoint ? root : document).elementFromPoint(
+                         r.left + r.width / 2, r.top + Math.min(r.height / 2, 12));
+                     return hit !== null && (el === hit || el.contains(hit)); }"""
+    )
+
+
+def test_every_caution_can_be_read_at_1280_by_720(app):
+    """Each caution, scrolled into view in its box, lies inside the screen and is not covered by anything."""
+    page = app.page
+    items = page.locator("ul.ss-cautions li")
+    expect(items.first).to_be_visible()
+    assert items.count() >= 3  # the demo: two warnings, a note, and the general caution
+    for i in range(items.count()):
+        item = items.nth(i)
+        assert _uncovered(page, item), item.inner_text()
+        box = item.bounding_box()
+        assert box["y"] >= 0 and box["y"] + min(box["height"], 24) <= VIEWPORT["height"] + 0.5, box
+        assert box["x"] >= 0 and box["x"] + box["width"] <= VIEWPORT["width"] + 0.5, box
+    general = page.locator("li[data-code='scope']")
+    box = general.bounding_box()
+    assert box["y"] + box["height"] <= VIEWPORT["height"] + 0.5, box  # pinned: always in view, no scrolling
