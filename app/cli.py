@@ -39,9 +39,10 @@ __all__ = ["CAUTION", "DEMO_CASE", "SUMMARY_VERSION", "format_summary", "main", 
 
 #: Printed with every summary, whatever the result.
 CAUTION = (
-    "Elastic analysis of one member only. Not a full code check: lateral-torsional buckling, local buckling, "
-    "connections and load combinations are not checked. Check against your local codes and have a licensed "
-    "engineer review."
+    "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, "
+    "biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 sections, "
+    "connections and load combinations are not checked. Check the results against your local codes "
+    "and have them reviewed by a licensed engineer."
 )
 
 #: The invented demo case, package data of :mod:`assets`.

@@ -101,8 +101,9 @@ _RESISTANCE_DEFINITIONS = (
 )
 
 _FALLBACK_CAUTION = (
-    "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, local "
-    "buckling, connections and load combinations are not checked. Check the results against your local codes "
+    "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, "
+    "biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 sections, "
+    "connections and load combinations are not checked. Check the results against your local codes "
     "and have them reviewed by a licensed engineer."
 )
 

@@ -40,9 +40,10 @@ class Caution:
 GENERAL = Caution(
     level="info",
     code="scope",
-    message=("Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, "
-             "local buckling, connections and load combinations are not checked. Check the results against "
-             "your local codes and have them reviewed by a licensed engineer."),
+    message=("Elastic analysis of one member in one plane. Not a full code check: lateral-torsional "
+             "buckling, biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class "
+             "4 sections, connections and load combinations are not checked. Check the results "
+             "against your local codes and have them reviewed by a licensed engineer."),
     source="strutscope's scope (common practice, no source)",
 )
 
