@@ -12,7 +12,6 @@ plots and written as ``inf`` in the CSV.
 
 from __future__ import annotations
 
-import csv
 import datetime as _datetime
 import functools
 import io
@@ -29,6 +28,7 @@ from matplotlib.patches import Polygon, Rectangle
 from matplotlib.textpath import TextToPath
 from matplotlib.ticker import MaxNLocator
 
+from app.safe_text import csv_comment, csv_writer
 from app.units import KINDS, UNIT_SYSTEMS, Units, format_number
 from app.units import units as _units_of
 
@@ -1058,8 +1058,8 @@ def csv_text(result, *, units="si") -> str:
         f"caution: {_general_caution(result)}",
     ]
     for line in comments:
-        out.write(f"# {line}\n")
-    writer = csv.writer(out, lineterminator="\n")
+        out.write(csv_comment(line) + "\n")
+    writer = csv_writer(out, lineterminator="\n")
     writer.writerow([header for header, _, _ in columns])
     data = []
     for _, values, kind in columns:
