@@ -21,6 +21,7 @@ import engine
 from app import exports
 from app.outdir import LOCK_FILE, locked
 from app.safe_text import FORMULA_PREFIXES, csv_cell, csv_comment, terminal
+from engine import limits
 from tests.app.test_batch import HEADER, read_results, row, write_table
 from tests.app.test_cli import run_cli
 
@@ -123,14 +124,14 @@ def test_batch_printout_escapes_control_characters(tmp_path):
 
 def test_batch_point_loads_are_bounded(tmp_path):
     """More point loads in a row than a case may have are refused naming point_loads and the limit."""
-    many = ";".join(f"1@{0.01 * (i + 1):.2f}" for i in range(engine.limits.MAX_LOADS + 1))
+    many = ";".join(f"1@{0.01 * (i + 1):.2f}" for i in range(limits.MAX_LOADS + 1))
     table = write_table(tmp_path / "members.csv", [row("P1", EI="4200", points=many)])
     done = run_cli("batch", str(table), "--out", "out", cwd=tmp_path)
     assert done.returncode == 1
     result = read_results(tmp_path / "out")[0]
     assert result["field"] == "point_loads"
-    assert f"{engine.limits.MAX_LOADS + 1} point loads given" in result["message"]
-    assert f"at most {engine.limits.MAX_LOADS}" in result["message"]
+    assert f"{limits.MAX_LOADS + 1} point loads given" in result["message"]
+    assert f"at most {limits.MAX_LOADS}" in result["message"]
 
 
 # ---------------------------------------------------------------------------------------------- malformed CSV
