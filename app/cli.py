@@ -597,6 +597,9 @@ def _exports(args, result) -> None:
 
 @clean_exit("solve")
 def _solve(args) -> int:
+    from app.workers import one_thread_here
+
+    one_thread_here()  # before numpy loads
     import engine
 
     try:
@@ -664,6 +667,9 @@ def _add_batch(commands) -> None:
 def _batch(args) -> int:
     from concurrent.futures.process import BrokenProcessPool
 
+    from app.workers import one_thread_here
+
+    one_thread_here()  # before numpy loads (the workers get one thread each anyway)
     from app import batch
     from app.outdir import FolderError
 

@@ -45,7 +45,7 @@ CHECK_METHODS = ("elastic", "plastic")
 
 # The limits of engine.limits, written out here too (tests/app/test_schema.py compares them with the engine).
 MAX_LOADS = 50
-MAX_SEGMENTS = 100
+MAX_SEGMENTS = 60
 MAX_TITLE = 200
 # A title is one line of printable text: no control characters (the engine also refuses lone surrogates,
 # which a JSON Schema pattern cannot name portably).

@@ -17,13 +17,24 @@ from collections.abc import Iterator
 
 from app.interrupt import worker_start
 
-__all__ = ["stop_workers", "worker_pool"]
+__all__ = ["one_thread_here", "stop_workers", "worker_pool"]
 
 # Each worker is one process on one core: let its linear algebra use one thread, or two workers on two cores
 # run four threads and the share-out gains little (measured: 1.05x instead of 1.75x on two cores). The
 # variables are read when numpy loads, so they are set for the worker processes only, and a value the user
 # set is kept.
 _THREAD_VARIABLES = ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS")
+
+
+def one_thread_here() -> None:
+    """One thread of linear algebra for this process, unless the user chose otherwise (before numpy loads).
+
+    The systems of one member are small (4 unknowns per segment): threads only contend. On the shared
+    two-core machine a capacity search of 50 point loads took 4.7 s with OpenBLAS's threads and 0.03 s with
+    one (tests/benchmarks/case_limits.py, 2026-12-02).
+    """
+    for name in _THREAD_VARIABLES:
+        os.environ.setdefault(name, "1")
 
 
 @contextlib.contextmanager

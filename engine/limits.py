@@ -44,12 +44,14 @@ __all__ = [
     "text_problem",
 ]
 
-#: Transverse loads per case. A member in practice carries a few; 50 point loads solve on the command line
-#: in about 0.1 s, where 1 000 took 14 s and 350 MB (issue 11).
+#: Transverse loads per case. A member in practice carries a few; 50 point loads solve in well under a
+#: second (tests/benchmarks/case_limits.py), where 1 000 took 14 s and 350 MB (issue 11).
 MAX_LOADS = 50
 
-#: Segments per case: the member is cut at every point load, couple and end of a partial load.
-MAX_SEGMENTS = 100
+#: Segments per case: the member is cut at every point load, couple and end of a partial load. The
+#: amplification sweep of the page solves one dense system of 4 unknowns per segment for each of its ~340
+#: forces, so its cost grows with the cube of this number (60 segments: about 1.5 s on one core).
+MAX_SEGMENTS = 60
 
 #: Reserved: intermediate restraints per case (schema 1 has none; the limit is checked when they come).
 MAX_RESTRAINTS = 20
