@@ -112,6 +112,13 @@ def test_deeply_nested_json_is_a_message_not_a_recursion_error():
     assert "nests objects and arrays more than" in refused(nested)
 
 
+@pytest.mark.parametrize("text", ['"\\' * 400_000, '["' + "\\\\" * 400_000 + '"]', '"' * 900_000,
+                                  "[]" * 450_000, '{"title": "' + "x" * 900_000])
+def test_pathological_text_near_the_size_limit_is_a_message(text):
+    """Runs of quotes and backslashes near 1 MB are scanned in linear time and refused with a message."""
+    assert refused(text).startswith("case: ")
+
+
 def test_nesting_inside_strings_does_not_count():
     """Brackets inside strings (a title of '[[[[') are text, not nesting."""
     case = Case.from_json(json.dumps(base() | {"title": "[" * 150 + "\\\"{"}))
