@@ -551,6 +551,7 @@ def _add_solve(commands) -> None:
 def _read_case(args):
     """Return ``(source, case)`` for the parsed `args`; raise _InputError when it cannot be had."""
     import engine
+    from engine.limits import MAX_CASE_BYTES
 
     if args.demo:
         source = f"{DEMO_CASE} (invented demo)"
@@ -560,7 +561,7 @@ def _read_case(args):
         try:
             with open(args.case, "rb") as file:
                 # One byte past the limit is enough for the engine to refuse a larger file.
-                text = file.read(engine.limits.MAX_CASE_BYTES + 1)
+                text = file.read(MAX_CASE_BYTES + 1)
         except OSError as error:
             raise _InputError(source, f"cannot read the file: {error.strerror or error}") from None
     try:

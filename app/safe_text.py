@@ -9,7 +9,7 @@ Two helpers, used by every writer of CSV and every printout of user text:
   and :func:`csv_writer` wraps :func:`csv.writer` so that no row escapes it.
 - :func:`terminal` makes a title, an id, a file name or a message echoed from the input safe to print:
   control characters (escape sequences, carriage returns, line breaks, bells, C1 controls) and the
-  invisible bidirectional controls are shown as visible escapes such as ``\\x1b``, so that they neither run
+  invisible bidirectional controls are shown as visible escapes such as ``\\u001b``, so that they neither run
   in the terminal nor add fake lines to a summary. Lone surrogates are shown the same way.
 """
 
@@ -96,8 +96,8 @@ def csv_comment(text: str) -> str:
 
 
 def _escaped(char: str) -> str:
-    code = ord(char)
-    return f"\\x{code:02x}" if code < 0x100 else f"\\u{code:04x}"
+    # \uXXXX for every character, so that a JSON text passed through stays valid JSON.
+    return f"\\u{ord(char):04x}"
 
 
 def terminal(text: Any, *, keep_newlines: bool = False) -> str:
@@ -106,8 +106,8 @@ def terminal(text: Any, *, keep_newlines: bool = False) -> str:
     With ``keep_newlines`` the line breaks of a text strutscope composed itself are kept; every other
     control character is still escaped. User text (titles, ids, messages) is passed without it.
 
-    >>> terminal("Post A\\x1b[2J\\rok: 0 invalid")
-    'Post A\\\\x1b[2J\\\\rok: 0 invalid'
+    >>> print(terminal("Post A\\x1b[2J\\rok: 0 invalid"))
+    Post A\\u001b[2J\\rok: 0 invalid
     """
     text = str(text)
     if text.isprintable():

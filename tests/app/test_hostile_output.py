@@ -61,9 +61,10 @@ def test_comment_lines_never_split_into_a_formula(title):
 
 
 @pytest.mark.parametrize(("text", "shown"), [
-    ("Post A\x1b[2J", "Post A\\x1b[2J"), ("ok\rfake: 0 invalid", "ok\\rfake: 0 invalid"),
-    ("two\nlines", "two\\nlines"), ("bidi\u202eevil", "bidi\\u202eevil"), ("bell\x07", "bell\\x07"),
-    ("c1\x9b31m", "c1\\x9b31m"), ("lone \ud800", "lone \\ud800"), ("façade 柱 🏗", "façade 柱 🏗"),
+    ("Post A\x1b[2J", "Post A\\u001b[2J"), ("ok\rfake: 0 invalid", "ok\\rfake: 0 invalid"),
+    ("two\nlines", "two\\nlines"), ("bidi\u202eevil", "bidi\\u202eevil"), ("bell\x07", "bell\\u0007"),
+    ("c1\x9b31m", "c1\\u009b31m"), ("del\x7f", "del\\u007f"), ("lone \ud800", "lone \\ud800"),
+    ("façade 柱 🏗", "façade 柱 🏗"),
 ])
 def test_terminal_escapes_control_characters(text, shown):
     """Escape sequences, CR, LF, bidi controls, bells, C1 controls and lone surrogates print as escapes."""
@@ -119,7 +120,7 @@ def test_batch_printout_escapes_control_characters(tmp_path):
     done = run_cli("batch", str(table), "--out", "out", cwd=tmp_path)
     assert done.returncode == 1
     assert "\x1b" not in done.stdout + done.stderr and "\r" not in done.stdout + done.stderr
-    assert "(A\\x1b[2J\\x1b[1;1H)" in done.stdout
+    assert "(A\\u001b[2J\\u001b[1;1H)" in done.stdout
 
 
 def test_batch_point_loads_are_bounded(tmp_path):
