@@ -240,7 +240,7 @@ def parse_json(text: str | bytes, object_pairs_hook: Callable | None = None) -> 
             try:
                 text = bytes(text).decode(json.detect_encoding(text))
             except UnicodeDecodeError as error:
-                raise CaseError(f"case: the bytes are not UTF-8 text ({error.reason} at byte "
+                raise CaseError(f"case: the bytes cannot be decoded as UTF-8 text ({error.reason} at byte "
                                 f"{error.start + 1})") from None
         _check_depth(text)
         try:
