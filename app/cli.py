@@ -13,7 +13,9 @@ Commands:
 Exit codes: 0 when done; 1 with ``--strict`` when a member fails its check (utilisation above 1) or a danger
 caution fires, for ``batch`` also when a row of the table is invalid, and when the output pipe was closed
 early; 2 when the input is invalid (:class:`engine.CaseError`, named with the file), a file cannot be read or
-written, or the command line is wrong.
+written, the batch's ``--out`` folder is in use or would overwrite the input, or the command line is wrong;
+130 and 143 when ``solve`` or ``batch`` is stopped by Ctrl-C (SIGINT) or SIGTERM (:mod:`app.interrupt`).
+Text from the input is printed with its control characters escaped (:func:`app.safe_text.terminal`).
 
 This module does no mechanics: every figure it prints comes from the engine's result. The engine, the units
 and the exports are imported only when needed, so ``strutscope --help`` works on its own and nothing happens
