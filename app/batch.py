@@ -23,18 +23,20 @@ This module does no mechanics: every number in the results comes from the engine
 from __future__ import annotations
 
 import collections
-import concurrent.futures
 import contextlib
 import csv
 import difflib
 import math
-import multiprocessing
 import os
 import re
 import sys
 import tempfile
 from collections.abc import Callable, Iterable, Iterator, Mapping
 from dataclasses import dataclass, field
+
+from app import outdir
+from app.safe_text import csv_writer
+from app.workers import worker_pool
 
 __all__ = [
     "COLUMNS",
@@ -228,6 +230,8 @@ class BatchSummary:
         Processes used (1: solved in this process).
     pdfs : int
         Calc sheets written.
+    stale : list of str
+        Calc sheets of the previous run into the folder that this run did not write, removed.
     """
 
     results: str
@@ -239,6 +243,7 @@ class BatchSummary:
     beyond_critical: int = 0
     workers: int = 1
     pdfs: int = 0
+    stale: list = field(default_factory=list)
 
 
 # --------------------------------------------------------------------------------------------------------
@@ -289,12 +294,24 @@ def _header(reader) -> list[str]:
 def _records(path: str) -> Iterator[tuple[int, dict[str, str] | RowError]]:
     """Yield ``(row, cells)`` for every non-blank row, or ``(row, RowError)`` for a row of the wrong width."""
     with _open_table(path) as stream:
-        reader = csv.reader(stream)
+        # strict: a quote left open or a stray quote is an error naming the line, never rows run together.
+        reader = csv.reader(stream, strict=True)
+        start = 1  # the line the next row starts on
         try:
             names = _header(reader)
+            start = reader.line_num + 1
             for cells in reader:
-                row = reader.line_num
+                row, start = start, reader.line_num + 1
                 if not any(cell.strip() for cell in cells):
+                    continue
+                broken = [name for name, cell in zip(names, cells, strict=False)
+                          if name != "comment" and ("\n" in cell or "\r" in cell)]
+                if broken:  # a quote closed lines later: the rows between ran into one cell
+                    padded = cells + [""] * len(names)
+                    identifier = "" if "id" in broken else padded[names.index("id")].strip()
+                    yield row, RowError(broken[0], f"{broken[0]}: the cell runs over lines {row} to "
+                                                   f"{reader.line_num}: a quote (\") in it is probably not "
+                                                   "closed", identifier)
                     continue
                 extra = [cell for cell in cells[len(names):] if cell.strip()]
                 if extra:
@@ -305,7 +322,12 @@ def _records(path: str) -> Iterator[tuple[int, dict[str, str] | RowError]]:
                 padded = cells + [""] * (len(names) - len(cells))  # spreadsheets drop empty trailing cells
                 yield row, {name: padded[i].strip() for i, name in enumerate(names)}
         except csv.Error as error:
-            raise TableError(f"line {reader.line_num}: not readable as CSV: {error}") from None
+            if "unexpected end of data" in str(error):
+                raise TableError(f"line {start}: a quoted cell that starts on this line is never closed (a "
+                                 f"quote \" is missing); the table is not read, so that no rows are lost") \
+                    from None
+            raise TableError(f"line {start}: not readable as CSV ({error}); check the quotes (\") on this "
+                             "line") from None
         except UnicodeDecodeError as error:
             raise TableError(f"not UTF-8 text ({error.reason}); save the table as CSV UTF-8") from None
 
@@ -332,8 +354,14 @@ def _number(column: str, text: str, unit: str, example: str) -> float:
 
 
 def _point_loads(text: str) -> list[tuple[float, float]]:
+    from engine.limits import MAX_LOADS
+
+    parts = [part for part in text.split(";") if part.strip()]
+    if len(parts) > MAX_LOADS:  # refused before any is read, as the engine refuses a case file's loads
+        raise RowError("point_loads", f"point_loads: {len(parts)} point loads given; a member may have at "
+                                      f"most {MAX_LOADS} loads")
     loads = []
-    for part in text.split(";"):
+    for part in parts:
         if not part.strip():
             continue
         match = _POINT_LOAD.fullmatch(part)
@@ -342,6 +370,11 @@ def _point_loads(text: str) -> list[tuple[float, float]]:
                                           f"force_kN@position_m, separated by ';', e.g. '7@2.0;3.5@4'")
         loads.append((float(match.group(1)), float(match.group(2))))
     return loads
+
+
+def _plain(text: str) -> str:
+    """A comment as one line of printable text for the title (a spreadsheet cell may hold line breaks)."""
+    return " ".join("".join(char if char.isprintable() else " " for char in text).split())
 
 
 def _bow(text: str) -> dict:
@@ -434,7 +467,7 @@ def member_case(row: Mapping[str, str]):
                              f"<id>.pdf")
     data: dict = {
         "schema": 1,
-        "title": f"{identifier}: {cell('comment')}"[:200] if cell("comment") else identifier,
+        "title": f"{identifier}: {_plain(cell('comment'))}"[:200] if _plain(cell("comment")) else identifier,
         "length": _number("length_m", cell("length_m"), "metres", "6.0"),
         "supports": {"left": cell("left").lower(), "right": cell("right").lower()},
     }
@@ -512,7 +545,7 @@ def _cell(value: float | None, factor: float = 1.0) -> str:
 
 def _write_atomically(path: str, data: bytes) -> None:
     directory = os.path.dirname(path) or "."
-    handle, temporary = tempfile.mkstemp(dir=directory, prefix=".", suffix=".part")
+    handle, temporary = tempfile.mkstemp(dir=directory, prefix=outdir.TEMPORARY_PREFIX, suffix=".part")
     try:
         with os.fdopen(handle, "wb") as stream:
             stream.write(data)
@@ -633,49 +666,6 @@ def _checked_ids(records: Iterable[tuple[int, object]]) -> Iterator[tuple[int, o
         yield row, cells
 
 
-# Each worker is one process on one core: let its linear algebra use one thread, or two workers on two cores
-# run four threads and the share-out gains little (measured: 1.05x instead of 1.75x on two cores). The
-# variables are read when numpy loads, so they are set for the worker processes only, and a value the user
-# set is kept.
-_THREAD_VARIABLES = ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS")
-
-
-@contextlib.contextmanager
-def _one_thread_each() -> Iterator[None]:
-    saved = {name: os.environ.get(name) for name in _THREAD_VARIABLES}
-    for name in _THREAD_VARIABLES:
-        os.environ.setdefault(name, "1")
-    try:
-        yield
-    finally:
-        for name, value in saved.items():
-            if value is None:
-                os.environ.pop(name, None)
-            else:
-                os.environ[name] = value
-
-
-@contextlib.contextmanager
-def _worker_pool(workers: int, pdf: bool) -> Iterator[concurrent.futures.ProcessPoolExecutor]:
-    """A process pool whose workers have the engine loaded and one thread of linear algebra each."""
-    if "forkserver" in multiprocessing.get_all_start_methods():
-        from multiprocessing import forkserver  # POSIX only
-
-        # A fork server imports the engine once and forks the workers from it: cheap starts, and no fork of
-        # this process with its threads (the progress bar has one). It keeps the environment it started with.
-        context = multiprocessing.get_context("forkserver")
-        preload = ["engine", "app.batch", "app.units"] + (["app.exports"] if pdf else [])
-        context.set_forkserver_preload(preload)
-        with _one_thread_each():
-            forkserver.ensure_running()
-        with concurrent.futures.ProcessPoolExecutor(max_workers=workers, mp_context=context) as pool:
-            yield pool
-    else:  # Windows: spawned workers copy the environment as each one starts
-        with _one_thread_each(), concurrent.futures.ProcessPoolExecutor(
-                max_workers=workers, mp_context=multiprocessing.get_context("spawn")) as pool:
-            yield pool
-
-
 def _solved_in_order(chunks: Iterator[list], options: _Options, workers: int) -> Iterator[list]:
     """Yield each chunk's results in the input order, keeping a bounded window of chunks in flight."""
     if workers <= 1:
@@ -683,7 +673,7 @@ def _solved_in_order(chunks: Iterator[list], options: _Options, workers: int) ->
             yield _solve_chunk(chunk, options)
         return
     window = 3 * workers
-    with _worker_pool(workers, options.pdf_dir is not None) as pool:
+    with worker_pool(workers, options.pdf_dir is not None) as pool:
         pending: collections.deque = collections.deque()
         try:
             for chunk in chunks:
@@ -748,7 +738,23 @@ def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, worke
     total = _count_rows(table)  # also checks the header before anything is written
     if os.path.exists(out_dir) and not os.path.isdir(out_dir):
         raise TableError(f"--out: {out_dir!r} exists and is not a folder")
+    outdir.check_not_input(table, out_dir, RESULTS_FILE)
     os.makedirs(out_dir, exist_ok=True)
+    with outdir.locked(out_dir):
+        try:
+            return _run_locked(table, out_dir, total, units=units, pdf=pdf, workers=workers,
+                               stations=stations, capacity=capacity, progress=progress,
+                               prepared_by=prepared_by, checked_by=checked_by, error_limit=error_limit,
+                               on_progress=on_progress)
+        except BaseException:
+            outdir.remove_temporaries(out_dir)  # what stopped workers may have left
+            raise
+
+
+def _run_locked(table: str, out_dir: str, total: int, *, units, pdf, workers, stations, capacity, progress,
+                prepared_by, checked_by, error_limit, on_progress) -> BatchSummary:
+    """:func:`run` once the folder is locked."""
+    manifest = outdir.Manifest(out_dir)
     workers = default_workers() if workers is None else max(1, int(workers))
     used = workers if workers > 1 and total > PARALLEL_MIN_ROWS else 1
     # Chunks of a few dozen rows keep the cost of passing work between processes small beside the solves,
@@ -771,10 +777,11 @@ def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, worke
         if tqdm is not None:
             bar = tqdm(total=total, unit="member", file=sys.stderr, dynamic_ncols=True, leave=False)
 
-    handle, temporary = tempfile.mkstemp(dir=out_dir, prefix=".results-", suffix=".csv.part")
+    handle, temporary = tempfile.mkstemp(dir=out_dir, prefix=f"{outdir.TEMPORARY_PREFIX}results-",
+                                         suffix=".csv.part")
     try:
         with os.fdopen(handle, "w", encoding="utf-8", newline="") as stream:
-            writer = csv.writer(stream)
+            writer = csv_writer(stream)  # every cell neutralised against formulas (app.safe_text)
             writer.writerow(result_columns(units))
             chunks = _chunks(_checked_ids(_records(table)), size)
             for results in _solved_in_order(chunks, options, used):
@@ -786,6 +793,8 @@ def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, worke
                         summary.failing += failing
                         summary.beyond_critical += record[5] in ("unstable", "critical")
                         summary.pdfs += wrote
+                        if wrote:
+                            manifest.add(f"{record[0]}.pdf")
                     else:
                         summary.error_count += 1
                         if len(summary.errors) < error_limit:
@@ -798,6 +807,7 @@ def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, worke
             os.fsync(stream.fileno())
         os.chmod(temporary, _file_mode())
         os.replace(temporary, target)
+        summary.stale = manifest.complete()
     except BaseException:
         with contextlib.suppress(OSError):
             os.unlink(temporary)

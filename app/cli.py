@@ -14,7 +14,9 @@ Exit codes: 0 when done; 1 when a member's axial force is at or above its first 
 ``--strict``), 1 with ``--strict`` when a member fails its check (utilisation above 1) or a danger
 caution fires, for ``batch`` also when a row of the table is invalid, and when the output pipe was closed
 early; 2 when the input is invalid (:class:`engine.CaseError`, named with the file), a file cannot be read or
-written, or the command line is wrong.
+written, the batch's ``--out`` folder is in use or would overwrite the input, or the command line is wrong;
+130 and 143 when ``solve`` or ``batch`` is stopped by Ctrl-C (SIGINT) or SIGTERM (:mod:`app.interrupt`).
+Text from the input is printed with its control characters escaped (:func:`app.safe_text.terminal`).
 
 This module does no mechanics: every figure it prints comes from the engine's result. The engine, the units
 and the exports are imported only when needed, so ``strutscope --help`` works on its own and nothing happens
@@ -34,6 +36,9 @@ import tempfile
 import textwrap
 from collections.abc import Sequence
 from importlib import metadata, resources
+
+from app.interrupt import clean_exit
+from app.safe_text import terminal
 
 __all__ = ["CAUTION", "DEMO_CASE", "SUMMARY_VERSION", "format_summary", "main", "summary_data"]
 
@@ -188,8 +193,8 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     lines: list[str] = []
     add = lines.append
     add("strutscope: exact second-order analysis of one member")
-    add(f"  case:         {source}")
-    add(f"  title:        {case.title or '(untitled)'}")
+    add(f"  case:         {terminal(source)}")
+    add(f"  title:        {terminal(case.title) or '(untitled)'}")
     add(f"  length:       {_position(shown, case.length)}")
     if result.section is not None:
         section = result.section
@@ -550,10 +555,15 @@ def _umask() -> int:
     return mask
 
 
+def _error(text: str) -> None:
+    """Print an error line on stderr, control characters from the input escaped (app.safe_text.terminal)."""
+    print(terminal(text), file=sys.stderr)
+
+
 def _print(text: str) -> bool:
-    """Print `text`; return False when the reader went away (``strutscope ... | head``)."""
+    """Print `text` (control characters escaped); return False when the reader went away (``... | head``)."""
     try:
-        print(text)
+        print(terminal(text, keep_newlines=True))
         sys.stdout.flush()
     except BrokenPipeError:
         # As the Python docs advise, point stdout at devnull so that the flush at exit does not raise again.
@@ -631,6 +641,7 @@ def _add_solve(commands) -> None:
 def _read_case(args):
     """Return ``(source, case)`` for the parsed `args`; raise _InputError when it cannot be had."""
     import engine
+    from engine.limits import MAX_CASE_BYTES
 
     if args.demo:
         source = f"{DEMO_CASE} (invented demo)"
@@ -638,18 +649,15 @@ def _read_case(args):
     else:
         source = args.case
         try:
-            with open(args.case, encoding="utf-8") as file:
-                text = file.read()
+            with open(args.case, "rb") as file:
+                # One byte past the limit is enough for the engine to refuse a larger file.
+                text = file.read(MAX_CASE_BYTES + 1)
         except OSError as error:
             raise _InputError(source, f"cannot read the file: {error.strerror or error}") from None
-        except UnicodeDecodeError as error:
-            raise _InputError(source, f"cannot read the file: not UTF-8 text ({error.reason})") from None
     try:
-        return source, engine.Case.from_json(text)
+        return source, engine.Case.from_json(text)  # every problem is a CaseError (engine.limits)
     except engine.CaseError as error:
         raise _InputError(source, str(error)) from None
-    except json.JSONDecodeError as error:
-        raise _InputError(source, f"not valid JSON: {error}") from None
 
 
 def _exports(args, result) -> None:
@@ -678,7 +686,11 @@ def _exports(args, result) -> None:
             raise _InputError(path, f"cannot write the file: {error.strerror or error}") from None
 
 
+@clean_exit("solve")
 def _solve(args) -> int:
+    from app.workers import one_thread_here
+
+    one_thread_here()  # before numpy loads
     import engine
 
     try:
@@ -688,9 +700,11 @@ def _solve(args) -> int:
             capacity = engine.capacity(case) if args.capacity else None
         except engine.CaseError as error:
             raise _InputError(source, str(error)) from None
+        except MemoryError:
+            raise _InputError(source, "not enough memory to solve this case") from None
         _exports(args, result)
     except _InputError as error:
-        print(f"error: {error.source}: {error}", file=sys.stderr)
+        _error(f"error: {error.source}: {error}")
         return 2
     if args.json:
         text = json.dumps(summary_data(source, case, result, capacity), indent=2, ensure_ascii=False,
@@ -743,37 +757,53 @@ def _add_batch(commands) -> None:
     batch.set_defaults(handler=_batch)
 
 
+@clean_exit("batch")
 def _batch(args) -> int:
     from concurrent.futures.process import BrokenProcessPool
 
+    from app.workers import one_thread_here
+
+    one_thread_here()  # before numpy loads (the workers get one thread each anyway)
     from app import batch
+    from app.outdir import FolderError
 
     try:
         summary = batch.run(args.table, args.out, units=args.units, pdf=args.pdf, workers=args.workers,
                             stations=args.stations, capacity=args.capacity, progress=args.progress,
                             prepared_by=args.prepared_by, checked_by=args.checked_by)
     except batch.TableError as error:
-        print(f"error: {args.table}: {error}", file=sys.stderr)
+        _error(f"error: {args.table}: {error}")
+        return 2
+    except FolderError as error:
+        _error(f"error: {args.out}: {error}")
         return 2
     except OSError as error:
-        print(f"error: {args.out}: cannot write the results: {error.strerror or error}", file=sys.stderr)
+        _error(f"error: {args.out}: cannot write the results: {error.strerror or error}")
         return 2
     except BrokenProcessPool as error:
-        print(f"error: {args.table}: a worker process stopped ({error}); no results were written. "
-              "Try --workers 1", file=sys.stderr)
+        _error(f"error: {args.table}: a worker process stopped ({error}); no results were written. "
+               "Try --workers 1")
+        return 2
+    except MemoryError:
+        _error(f"error: {args.table}: not enough memory; no results were written. Try --workers 1")
         return 2
     failing = f", {summary.failing} failing their check or with a danger caution" if summary.failing else ""
     lines = [f"strutscope batch: {summary.members} member{'s' if summary.members != 1 else ''} from "
-             f"{args.table}: {summary.solved} solved, {summary.error_count} invalid{failing} "
+             f"{terminal(args.table)}: {summary.solved} solved, {summary.error_count} invalid{failing} "
              f"({summary.workers} process{'es' if summary.workers != 1 else ''})"]
     for row, identifier, _column, message in summary.errors:
-        lines.append(f"  row {row}{f' ({identifier})' if identifier else ''}: {message}")
+        lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {terminal(message)}")
     if summary.error_count > len(summary.errors):
         more = summary.error_count - len(summary.errors)
         lines.append(f"  ... and {more} more invalid row{'s' if more != 1 else ''} (see {summary.results})")
     lines.append(f"results: {summary.results}")
     if args.pdf:
-        lines.append(f"calc sheets: {summary.pdfs} PDF file{'s' if summary.pdfs != 1 else ''} in {args.out}")
+        lines.append(f"calc sheets: {summary.pdfs} PDF file{'s' if summary.pdfs != 1 else ''} in "
+                     f"{terminal(args.out)}")
+    if summary.stale:
+        stale = len(summary.stale)
+        lines.append(f"removed {stale} calc sheet{'s' if stale != 1 else ''} of the previous run that this "
+                     "run did not write")
     lines.append(f"Caution: {CAUTION}")
     if not _print("\n".join(lines)):
         return 1

@@ -12,7 +12,6 @@ plots and written as ``inf`` in the CSV.
 
 from __future__ import annotations
 
-import csv
 import datetime as _datetime
 import functools
 import io
@@ -29,12 +28,15 @@ from matplotlib.patches import Polygon, Rectangle
 from matplotlib.textpath import TextToPath
 from matplotlib.ticker import MaxNLocator
 
+from app.fonts import drawable, families
+from app.safe_text import csv_comment, csv_writer
 from app.units import KINDS, UNIT_SYSTEMS, Units, format_number
 from app.units import units as _units_of
 
 __all__ = [
     "A4_LANDSCAPE",
     "A4_PORTRAIT",
+    "calc_sheet_figures",
     "case_json",
     "csv_text",
     "pdf_bytes",
@@ -335,7 +337,8 @@ class _Measure:
 
     def __init__(self) -> None:
         self._path = TextToPath()
-        self._props = {weight: FontProperties(family=_FONT, size=self._REFERENCE_SIZE, weight=weight)
+        # DejaVu Sans, then installed fonts for other scripts (app.fonts): measured as they are drawn.
+        self._props = {weight: FontProperties(family=families(), size=self._REFERENCE_SIZE, weight=weight)
                        for weight in ("normal", "bold")}
         self._cache: dict = {}
 
@@ -359,6 +362,9 @@ class _Measure:
                 groups.extend([word] for word in group)
             else:
                 groups.append(group)
+        # A word wider than a line (a long title without spaces) is broken between characters.
+        groups = [[piece] for group in groups for piece in
+                  (self._pieces(group[0], width_pt, size, weight) if len(group) == 1 else [" ".join(group)])]
         if not groups:
             return [""]
         words = [" ".join(group) for group in groups]
@@ -374,6 +380,28 @@ class _Measure:
                 line, used = [word], w
         lines.append(" ".join(line))
         return lines
+
+
+    def _pieces(self, word: str, width_pt: float, size: float, weight: str) -> list[str]:
+        """`word` in pieces no wider than `width_pt` (one piece when it fits)."""
+        if self.width(word, size, weight) <= width_pt:
+            return [word]
+        # Hinting at screen resolutions widens a run of glyphs by up to about 4 % (digits in bold at 100 dpi,
+        # measured with the Agg renderer): a line cut between characters has no space to absorb it.
+        width_pt *= 0.95
+        pieces, piece = [], ""
+        for char in word:
+            if piece and self.width(piece + char, size, weight) > width_pt:
+                pieces.append(piece)
+                piece = ""
+            piece += char
+        return pieces + [piece]
+
+    def shorten(self, line: str, width_pt: float, size: float, weight: str = "normal") -> str:
+        """`line` cut to end with an ellipsis within `width_pt`."""
+        while line and self.width(line + "…", size, weight) > width_pt:
+            line = line[:-1]
+        return line.rstrip() + "…"
 
 
 @functools.cache
@@ -433,19 +461,26 @@ class _Flow:
         if self.draw:
             w, h = self.fig.get_size_inches()
             self.fig.text(x / w, self.y / h, text, fontsize=size, fontweight=weight, color=color, ha=ha,
-                          va="top", family=_FONT, parse_math=False)
+                          va="top", family=families(), parse_math=False)
 
     def space(self, points: float) -> None:
         self.y -= points / 72
 
-    def para(self, text, *, scale=1.0, weight="normal", color=_INK, indent=0.0, hanging=0.0, keep=1) -> None:
-        """A wrapped paragraph; `hanging` indents the lines after the first [in]."""
+    def para(self, text, *, scale=1.0, weight="normal", color=_INK, indent=0.0, hanging=0.0, keep=1,
+             max_lines=None) -> None:
+        """A wrapped paragraph; `hanging` indents the lines after the first [in]; beyond `max_lines` lines
+        the last one shown ends with an ellipsis."""
         size = self.size * scale
         step = self._line_height(size)
         width_pt = (self.width - indent) * 72 * self._SAFETY
+        text = drawable(text)  # characters no export font has become '?' (app.fonts)
         first, *rest = self.measure.wrap(text, width_pt, size, weight) if text else [""]
         rest = self.measure.wrap(" ".join(rest), width_pt - hanging * 72, size, weight) if rest else []
         lines = [(indent, first)] + [(indent + hanging, line) for line in rest]
+        if max_lines is not None and len(lines) > max_lines:
+            x, last = lines[max_lines - 1]
+            room = width_pt - (x - indent) * 72
+            lines = lines[:max_lines - 1] + [(x, self.measure.shorten(last, room, size, weight))]
         self._room(step * min(keep, len(lines)))
         for x, line in lines:
             self._room(step)
@@ -467,7 +502,8 @@ class _Flow:
         columns = []
         for cell, width in zip(cells, widths, strict=True):
             width = (self.right - x) if width is None else width
-            columns.append((x, self.measure.wrap(cell, (width - 0.06) * 72 * self._SAFETY, size, weight)))
+            columns.append((x, self.measure.wrap(drawable(cell), (width - 0.06) * 72 * self._SAFETY, size,
+                                                 weight)))
             x += width
         lines = max(len(text) for _, text in columns)
         self._room(step * lines)
@@ -818,7 +854,7 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
     def render(size, draw, detail=True):
         flow = _Flow(fig, measure, left=left + 0.12, right=right - 0.12, top=top - 0.12, bottom=bottom + 0.1,
                      size=size, draw=draw)
-        flow.para(_title(result), scale=1.35, weight="bold")
+        flow.para(_title(result), scale=1.35, weight="bold", max_lines=3)
         flow.para("strutscope · exact second-order analysis of one member", scale=0.9, color=_GREY)
         flow.para(f"Date: {date} · units: {_SYSTEM_NAMES.get(U.system, U.system)}", scale=0.9, color=_GREY)
         flow.heading("Inputs")
@@ -1094,8 +1130,8 @@ def csv_text(result, *, units="si") -> str:
         f"caution: {_general_caution(result)}",
     ]
     for line in comments:
-        out.write(f"# {line}\n")
-    writer = csv.writer(out, lineterminator="\n")
+        out.write(csv_comment(line) + "\n")
+    writer = csv_writer(out, lineterminator="\n")
     writer.writerow([header for header, _, _ in columns])
     data = []
     for _, values, kind in columns:
@@ -1123,7 +1159,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     first = result.first_order
     label_w = 1.75  # [in] width of the label column
 
-    flow.para(_title(result), scale=1.45, weight="bold")
+    flow.para(_title(result), scale=1.45, weight="bold", max_lines=3)
     flow.para("Exact second-order (P-delta) analysis of one member under axial force and bending, by "
               f"strutscope {_version()}", scale=0.9, color=_GREY)
     flow.space(4)
@@ -1309,6 +1345,21 @@ def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -
     bytes
         The PDF file (no creation date in its metadata, so the same inputs give the same bytes).
     """
+    pages = calc_sheet_figures(result, units=units, prepared_by=prepared_by, checked_by=checked_by, date=date)
+    buffer = io.BytesIO()
+    metadata_ = {"Title": _title(result), "Subject": "strutscope calculation sheet", "Creator": "strutscope",
+                 "CreationDate": None}
+    prepared_by = _name("prepared_by", prepared_by)
+    if prepared_by:
+        metadata_["Author"] = prepared_by
+    with PdfPages(buffer, metadata=metadata_) as pdf:
+        for fig in pages:
+            pdf.savefig(fig)
+    return buffer.getvalue()
+
+
+def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", date=None) -> list[Figure]:
+    """The pages of :func:`pdf_bytes` as matplotlib figures (text pages, then :func:`result_figure`)."""
     U = _units(units)
     date_text = _date_text(date)
     prepared_by = _name("prepared_by", prepared_by)
@@ -1341,17 +1392,7 @@ def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -
     figure = result_figure(result, units=U, date=date_text)
     figure.text(0.985, 0.008, f"page {total} of {total}", ha="right", va="bottom", fontsize=6.5, color=_GREY,
                 family=_FONT, parse_math=False)
-
-    buffer = io.BytesIO()
-    metadata_ = {"Title": _title(result), "Subject": "strutscope calculation sheet", "Creator": "strutscope",
-                 "CreationDate": None}
-    if prepared_by:
-        metadata_["Author"] = prepared_by
-    with PdfPages(buffer, metadata=metadata_) as pdf:
-        for fig in pages:
-            pdf.savefig(fig)
-        pdf.savefig(figure)
-    return buffer.getvalue()
+    return pages + [figure]
 
 
 def _sheet_frame(fig, number: int, total: int, margin: float) -> None:

@@ -43,6 +43,14 @@ HOLLOW_MANUFACTURES = ("hot-finished", "cold-formed")
 MATERIAL_KINDS = ("steel", "timber", "aluminium", "custom")
 CHECK_METHODS = ("elastic", "plastic")
 
+# The limits of engine.limits, written out here too (tests/app/test_schema.py compares them with the engine).
+MAX_LOADS = 50
+MAX_SEGMENTS = 60
+MAX_TITLE = 200
+# A title is one line of printable text: no control characters (the engine also refuses lone surrogates,
+# which a JSON Schema pattern cannot name portably).
+_PRINTABLE = "^[^\\u0000-\\u001f\\u007f-\\u009f]*$"
+
 
 def _number(description: str, **bounds: float) -> dict[str, Any]:
     return {"type": "number", "description": description, **bounds}
@@ -278,8 +286,13 @@ def _build() -> dict[str, Any]:
     )
 
     properties = {
-        "schema": {"const": 1, "description": "Case-file schema version; only 1 is known. Default 1."},
-        "title": {"type": "string", "maxLength": 200, "description": "Free text, at most 200 characters."},
+        # JSON Schema counts 1.0 as the integer 1 (draft 2020-12 "integer": a number with a zero fractional
+        # part), and so does the engine; 1.5, 2, true and "1" are refused by both.
+        "schema": {"const": 1, "type": "integer",
+                   "description": "Case-file schema version: the integer 1, the only one known. Default 1."},
+        "title": {"type": "string", "maxLength": MAX_TITLE, "pattern": _PRINTABLE,
+                  "description": f"Free text, one line of at most {MAX_TITLE} printable characters (no "
+                                 "control characters such as tabs, line breaks or escape sequences)."},
         "length": _number("L [m], 0.001 to 1000", minimum=0.001, maximum=1000),
         "EI": _number("Bending stiffness [N·m²], > 0 and <= 1e16. May be left out when 'section' and "
                       "'material' give it; overrides them when given.", exclusiveMinimum=0, maximum=1e16),
@@ -288,8 +301,11 @@ def _build() -> dict[str, Any]:
                                         "(free–free, pinned–free, guided–guided) is refused by strutscope."),
         "axial_force": _number("P [N], compression positive, |P| <= 1e12; constant along the member. "
                                "Default 0.", minimum=-1e12, maximum=1e12),
-        "loads": {"type": "array", "items": {"$ref": "#/$defs/load"},
-                  "description": "Transverse loads. Default none."},
+        "loads": {"type": "array", "items": {"$ref": "#/$defs/load"}, "maxItems": MAX_LOADS,
+                  "description": f"Transverse loads, at most {MAX_LOADS}; together they may cut the member "
+                                 f"into at most {MAX_SEGMENTS} segments (every point load, couple and end of "
+                                 "a partial load is a cut; checked by strutscope, not by this schema). "
+                                 "Default none."},
         "imperfection": {"$ref": "#/$defs/imperfection"},
         "section": {"$ref": "#/$defs/section"},
         "axis": {"enum": list(AXES),

@@ -22,10 +22,11 @@ import math
 import numbers
 import os
 from collections.abc import Iterator, Mapping
-from contextlib import contextmanager
+from contextlib import contextmanager, suppress
 from dataclasses import dataclass, field
 from typing import Any, ClassVar
 
+from engine import limits
 from engine.errors import CaseError
 
 __all__ = [
@@ -272,6 +273,8 @@ class Spec(Mapping):
                 continue
             if not isinstance(value, (str, numbers.Real)):
                 raise CaseError(f"{path}.{key}: {_show(value)} must be a number, a name or true/false")
+            if isinstance(value, str):
+                limits.check_text(f"{path}.{key}", value)
             items.append((key, value if isinstance(value, str) else float(value)))
         object.__setattr__(self, "_items", tuple(sorted(items)))
 
@@ -734,6 +737,16 @@ _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "rati
 _CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit")
 
 
+def _schema_version(value: Any) -> int:
+    """The schema version as the integer 1; 1.0 is the same JSON number (JSON Schema counts it an integer)."""
+    if not _is_bool(value) and isinstance(value, numbers.Real) and value == SCHEMA_VERSION:
+        return SCHEMA_VERSION
+    raise CaseError(
+        f"schema: {_show(value)} is not a known case-file schema version; "
+        f"this version of strutscope reads schema {SCHEMA_VERSION} (the integer 1)"
+    )
+
+
 def _snap_position(path: str, value: float, length: float) -> float:
     """Check 0 <= value <= length (with a small tolerance) and return it snapped onto the member."""
     tolerance = _POSITION_TOLERANCE * length
@@ -850,12 +863,7 @@ class Case:
     out_of_plane: Any = None
 
     def __post_init__(self) -> None:
-        if _is_bool(self.schema) or not isinstance(self.schema, int) \
-                or self.schema != SCHEMA_VERSION:
-            raise CaseError(
-                f"schema: {_show(self.schema)} is not a known case-file schema version; "
-                f"this version of strutscope reads schema {SCHEMA_VERSION}"
-            )
+        _set(self, "schema", _schema_version(self.schema))
         if not isinstance(self.title, str):
             raise CaseError(
                 f"title: {_show(self.title)} is not text; it must be a string of at most "
@@ -866,6 +874,7 @@ class Case:
                 f"title: text of {len(self.title)} characters is too long; at most "
                 f"{_MAX_TITLE} characters are allowed"
             )
+        limits.check_text("title", self.title)
         length = _real("length", self.length, "m", minimum=_MIN_LENGTH, maximum=_MAX_LENGTH)
         _set(self, "length", length)
         if self.EI is not None:
@@ -883,8 +892,10 @@ class Case:
             raise CaseError(
                 f"loads: {_show(self.loads)} is not a tuple or list of load objects"
             )
+        limits.check_load_count(len(self.loads))
         _set(self, "loads", tuple(_placed_load(index, load, length)
                                   for index, load in enumerate(self.loads)))
+        limits.check_work(length, self.loads)
         if not isinstance(self.imperfection, Imperfection):
             raise CaseError(
                 f"imperfection: {_show(self.imperfection)} is not an Imperfection"
@@ -969,12 +980,7 @@ class Case:
         mapping = _expect_mapping("case", mapping, "a case object with keys "
                                   f"{_quoted(_CASE_KEYS)}")
         # The schema comes first: another version may have other keys.
-        schema = mapping.get("schema", SCHEMA_VERSION)
-        if _is_bool(schema) or not isinstance(schema, int) or schema != SCHEMA_VERSION:
-            raise CaseError(
-                f"schema: {_show(schema)} is not a known case-file schema version; "
-                f"this version of strutscope reads schema {SCHEMA_VERSION}"
-            )
+        schema = _schema_version(mapping.get("schema", SCHEMA_VERSION))
         _check_keys("case", mapping, _CASE_KEYS, _CASE_REQUIRED)
 
         supports = _expect_mapping("supports", mapping["supports"],
@@ -986,6 +992,7 @@ class Case:
         raw_loads = mapping.get("loads", [])
         if isinstance(raw_loads, (str, bytes)) or not isinstance(raw_loads, (list, tuple)):
             raise CaseError(f"loads: {_show(raw_loads)} is not a list of load objects")
+        limits.check_load_count(len(raw_loads))  # before any load is built
         loads = tuple(_load_from_data(f"loads[{index}]", data)
                       for index, data in enumerate(raw_loads))
 
@@ -1051,7 +1058,7 @@ class Case:
         Parameters
         ----------
         text : str or bytes
-            JSON text (UTF-8 when bytes).
+            JSON text (UTF-8 when bytes), at most ``engine.limits.MAX_CASE_BYTES``.
 
         Returns
         -------
@@ -1060,19 +1067,12 @@ class Case:
         Raises
         ------
         CaseError
-            For text that is not JSON (with line and column), a repeated key,
-            or any problem :meth:`from_dict` finds.
+            For text that is not JSON (with line and column), a repeated key, text
+            beyond the limits of :mod:`engine.limits` (size, nesting, digits), bytes
+            that are not UTF-8, a lone surrogate anywhere, or any problem
+            :meth:`from_dict` finds. Never another exception: the case is refused whole.
         """
-        try:
-            mapping = json.loads(text, object_pairs_hook=_unique_keys)
-        except json.JSONDecodeError as error:
-            raise CaseError(
-                f"case: not valid JSON: {error.msg} at line {error.lineno} column {error.colno}"
-            ) from None
-        except UnicodeDecodeError as error:
-            raise CaseError(f"case: the bytes cannot be decoded as text ({error.reason})") from None
-        except TypeError:
-            raise CaseError(f"case: {_show(text)} is not JSON text") from None
+        mapping = limits.parse_json(text, object_pairs_hook=_unique_keys)
         return cls.from_dict(mapping)
 
     def to_json(self, indent: int | None = 2) -> str:
@@ -1121,7 +1121,8 @@ def load_case(path: str | os.PathLike) -> Case:
         When the file cannot be read.
     """
     with open(path, "rb") as stream:
-        return Case.from_json(stream.read())
+        # One byte more than the limit is enough to refuse a larger file without reading it all.
+        return Case.from_json(stream.read(limits.MAX_CASE_BYTES + 1))
 
 
 def save_case(case: Case, path: str | os.PathLike) -> None:
@@ -1132,12 +1133,29 @@ def save_case(case: Case, path: str | os.PathLike) -> None:
     case : Case
         The case to write.
     path : str or path-like
-        Destination; an existing file is replaced.
+        Destination; an existing file is replaced atomically: the text goes to a temporary file in the same
+        folder, which then replaces the destination, so a reader never sees a half-written file.
 
     Raises
     ------
     OSError
         When the file cannot be written.
     """
-    with open(path, "w", encoding="utf-8", newline="\n") as stream:
-        stream.write(case.to_json(indent=2) + "\n")
+    import tempfile
+
+    data = (case.to_json(indent=2) + "\n").encode("utf-8")
+    folder = os.path.dirname(os.path.abspath(os.fspath(path)))
+    handle, temporary = tempfile.mkstemp(dir=folder, prefix=".", suffix=".json.part")
+    try:
+        with os.fdopen(handle, "wb") as stream:
+            stream.write(data)
+            stream.flush()
+            os.fsync(stream.fileno())
+        mask = os.umask(0)
+        os.umask(mask)
+        os.chmod(temporary, 0o666 & ~mask)
+        os.replace(temporary, path)
+    except BaseException:
+        with suppress(OSError):
+            os.unlink(temporary)
+        raise

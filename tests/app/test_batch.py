@@ -14,6 +14,7 @@ import pytest
 
 import engine
 from app import batch
+from app.outdir import LOCK_FILE, MANIFEST_FILE
 from tests.app.test_cli import run_cli
 
 # 1 kip = 4448.2216152605 N and 1 ft = 0.3048 m, exact by definition (NIST SP 811 (2008) Appendix B;
@@ -123,6 +124,11 @@ def read_results(folder):
         return list(csv.DictReader(stream))
 
 
+def listing(folder):
+    """The files of an output folder, without the run lock and the calc-sheet manifest (app.outdir)."""
+    return sorted(name for name in os.listdir(folder) if name not in (LOCK_FILE, MANIFEST_FILE))
+
+
 def number(text):
     """A results cell as a float (None for an empty cell)."""
     return None if text == "" else float(text)
@@ -218,7 +224,7 @@ def test_results_keep_the_input_order_and_run_reports_invalid_rows(mixed_run):
     assert f"{len(ORDER)} members" in done.stdout and f"{len(GOOD)} solved" in done.stdout
     assert "row 3 (B1): section = 'HEB 990'" in done.stdout
     assert done.stderr == ""  # no progress bar when stderr is not a terminal
-    assert sorted(os.listdir(folder)) == ["results.csv"]  # no temporary file left behind
+    assert listing(folder) == ["results.csv"]  # no temporary file left behind
 
 
 def test_parallel_run_gives_the_same_results_in_the_same_order(tmp_path):
@@ -252,7 +258,7 @@ def test_pdf_calc_sheet_for_each_good_row(tmp_path):
     done = run_cli("batch", str(table), "--out", "out", "--pdf", "--prepared-by", "Invented Engineer",
                    cwd=tmp_path)
     assert done.returncode == 1, done.stderr
-    assert sorted(os.listdir(tmp_path / "out")) == ["G1.pdf", "G3.pdf", "results.csv"]
+    assert listing(tmp_path / "out") == ["G1.pdf", "G3.pdf", "results.csv"]
     for name in ("G1", "G3"):
         reader = PdfReader(tmp_path / "out" / f"{name}.pdf")
         text = "".join(page.extract_text() for page in reader.pages)
@@ -309,7 +315,7 @@ def test_interrupted_run_leaves_the_previous_results_untouched(tmp_path):
     with pytest.raises(KeyboardInterrupt):
         batch.run(str(table), str(out), workers=1, capacity=False, on_progress=stop)
     assert (out / "results.csv").read_text(encoding="utf-8") == "previous results\n"
-    assert sorted(os.listdir(out)) == ["results.csv"]
+    assert listing(out) == ["results.csv"]
 
 
 def test_progress_bar_shows_when_asked(tmp_path, capsys):

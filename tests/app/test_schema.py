@@ -144,8 +144,38 @@ BROKEN = {
     "unknown check method": broken(lambda m: m["check"].update(method="ultimate")),
     "stiffness factor above 1": broken(lambda m: m.update(stiffness_factor=1.2)),
     "schema 2": broken(lambda m: m.update(schema=2)),
+    "schema 1.5": broken(lambda m: m.update(schema=1.5)),
+    "schema as text": broken(lambda m: m.update(schema="1")),
+    "schema true": broken(lambda m: m.update(schema=True)),
     "title too long": broken(lambda m: m.update(title="x" * 201)),
+    "title with an escape sequence": broken(lambda m: m.update(title="\x1b[31mred")),
+    "title with a line break": broken(lambda m: m.update(title="one\ntwo")),
+    "one load too many": broken(lambda m: m.update(loads=[{"type": "point", "P": 1.0, "x": 0.1 * (i + 1)}
+                                                          for i in range(51)])),
 }
+
+
+def test_schema_one_point_zero_is_accepted_by_both(validator):
+    """"schema": 1.0 is the integer 1 for JSON Schema 2020-12 (zero fractional part) and the engine alike."""
+    mapping = full_case() | {"schema": 1.0}
+    assert case_schema()["properties"]["schema"] == {**case_schema()["properties"]["schema"],
+                                                     "const": 1, "type": "integer"}
+    assert list(validator.iter_errors(mapping)) == []
+    assert engine_accepts(mapping)
+
+
+def test_schema_limits_are_the_engine_limits():
+    """The schema's loads and title limits are engine.limits' (and the engine's title length)."""
+    import app.schema as schema
+    from engine import case, limits
+
+    assert schema.MAX_LOADS == limits.MAX_LOADS
+    assert schema.MAX_SEGMENTS == limits.MAX_SEGMENTS
+    assert schema.MAX_TITLE == case._MAX_TITLE
+    loads = case_schema()["properties"]["loads"]
+    assert loads["maxItems"] == limits.MAX_LOADS
+    assert f"at most {limits.MAX_LOADS}" in loads["description"]
+    assert f"at most {limits.MAX_SEGMENTS} segments" in loads["description"]
 
 
 @pytest.mark.parametrize("name", list(BROKEN))

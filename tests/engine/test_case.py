@@ -488,7 +488,7 @@ def test_key_suggestion_ignores_case():
     assert "unknown key 'ei' (did you mean 'EI'?)" in error_of(mapping)
 
 
-@pytest.mark.parametrize("schema", [2, 0, "1", 1.0, True, None], ids=repr)
+@pytest.mark.parametrize("schema", [2, 0, "1", 1.5, 1.0000001, True, None, float("nan")], ids=repr)
 def test_unknown_schema_is_refused(schema):
     """Any schema other than the integer 1 is refused before the other keys are looked at."""
     mapping = example()
@@ -496,6 +496,15 @@ def test_unknown_schema_is_refused(schema):
     mapping["future_key"] = 1
     assert error_of(mapping).startswith("schema: ")
     assert "not a known case-file schema version" in error_of(mapping)
+
+
+def test_schema_one_point_zero_is_the_integer_one():
+    """"schema": 1.0 is read as 1, as JSON Schema draft 2020-12 counts it (the published schema agrees)."""
+    mapping = example()
+    mapping["schema"] = 1.0
+    case = Case.from_dict(mapping)
+    assert case.schema == 1 and type(case.schema) is int
+    assert Case.from_json(json.dumps(mapping)).to_dict()["schema"] == 1
 
 
 @pytest.mark.parametrize("mapping", [[], "case", None, 6.0], ids=repr)

@@ -18,6 +18,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 import engine
+from engine import limits
 
 TOP_KEYS = ("schema", "title", "length", "EI", "supports", "axial_force", "loads", "imperfection", "section",
             "axis", "material", "stiffness_factor", "check")
@@ -263,3 +264,143 @@ def test_uploaded_files_load_or_are_refused_with_a_message(upload_page, data, na
         case = engine.Case.from_json(page.upload.value)
         if not page.model.errors:
             assert page.model.result.case == case
+
+
+# ----------------------------------------------------------------------------------------------- hostile text
+# Issue 11: lone surrogates, control characters (escape sequences, CR, LF), bidirectional controls and formula
+# prefixes in any text a case or a table holds; nesting, size and thousands of digits in the file's structure.
+
+_HOSTILE_PIECES = ("\ud800", "\udfff", "\ud83d", "\x00", "\x1b[2J", "\x1b]0;pwned\x07", "\r", "\n", "\t",
+                   "\x7f", "\x9b", "\u202e", "\u2066", "=HYPERLINK(\"x\")", "+cmd|' /C calc'!A0", "@SUM(1+1)",
+                   "-2+3", "=", "柱", "🏗", "é", "'", '"', ",", ";")
+_hostile_text = st.one_of(
+    st.lists(st.sampled_from(_HOSTILE_PIECES), min_size=1, max_size=6).map("".join),
+    st.text(st.characters(exclude_categories=()), max_size=12),  # surrogates included
+)
+
+
+def _formula_cells(text: str) -> list[str]:
+    """Cells of CSV `text` that a spreadsheet would run as formulas (see tests/app/test_hostile_output.py)."""
+    import csv
+    import io
+    import re
+
+    number = re.compile(r"[-+]?(?:(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?|inf|nan)", re.IGNORECASE)
+    return [cell for cells in csv.reader(io.StringIO(text, newline="")) for cell in cells
+            if cell[:1] in ("=", "+", "-", "@", "\t", "\r") and not number.fullmatch(cell)]
+
+
+def _shows_no_controls(text: str) -> bool:
+    """Whether `text` holds no control, surrogate or bidirectional-control character (terminals run them)."""
+    import unicodedata
+
+    return not any(unicodedata.category(char) in ("Cc", "Cs") or char in "\u202a\u202b\u202c\u202d\u202e"
+                   "\u2066\u2067\u2068\u2069\u200e\u200f\u061c" for char in text)
+
+
+def _read_json(text) -> str:
+    """Read case-file JSON; return 'read' or 'refused', failing on anything but a CaseError naming a field."""
+    try:
+        engine.Case.from_json(text)
+    except engine.CaseError as error:
+        field = str(error).split(":", 1)[0].strip()
+        root = field.split(".")[0].split("[")[0]
+        assert root in (*TOP_KEYS, "case"), f"message names no field: {error}"
+        return "refused"
+    return "read"
+
+
+@settings(max_examples=400, deadline=None, database=None, suppress_health_check=list(HealthCheck))
+@given(case=valid_case(), text=_hostile_text,
+       where=st.sampled_from(("title", "section", "material", "key", "support", "load type")))
+def test_hostile_text_is_refused_naming_its_field_or_exports_safely(case, text, where):
+    """Hostile text anywhere in a case file is refused naming the field, or the case exports a safe CSV."""
+    from app.exports import csv_text
+    from app.safe_text import terminal
+
+    case["supports"] = {"left": "pinned", "right": "pinned"}  # stable, so the export can be checked
+    if where == "title":
+        case["title"] = text
+    elif where == "section":
+        case["section"] = {"name": text}
+        case["material"] = {"name": "S355"}
+    elif where == "material":
+        case["material"] = {"E": 2.1e11, "fy": 3.55e8, "name": text}
+        case["section"] = {"name": "HEB 200"}
+    elif where == "key":
+        case[text] = 1.0
+    elif where == "support":
+        case["supports"]["left"] = text
+    else:
+        case["loads"] = [{"type": text, "q": 1.0}]
+    for encoded in (json.dumps(case), json.dumps(case, ensure_ascii=False).encode("utf-8", "surrogatepass")):
+        if _read_json(encoded) == "read":
+            read = engine.Case.from_json(encoded)
+            assert _shows_no_controls(read.title) and _shows_no_controls(terminal(read.title))
+            assert _formula_cells(csv_text(engine.solve(read, stations=11))) == []
+
+
+@st.composite
+def hostile_structure(draw) -> str:
+    """Case-file text with deep nesting, long arrays, long strings or numbers of thousands of digits."""
+    case = draw(valid_case())
+    kind = draw(st.sampled_from(("nesting", "loads", "string", "digits", "exponent", "size")))
+    text = json.dumps(case)
+    if kind == "nesting":
+        depth = draw(st.integers(1, 3000))
+        return text.replace('"title"', '"x": ' + "[" * depth + "]" * depth + ', "title"', 1)
+    if kind == "loads":
+        count = draw(st.integers(0, 400))
+        case["loads"] = [{"type": "point", "P": 1.0, "x": case["length"] * (i + 1) / (count + 1)}
+                         for i in range(count)]
+        return json.dumps(case)
+    if kind == "string":
+        case["title"] = "x" * draw(st.integers(150, 200_000))
+        return json.dumps(case)
+    if kind == "digits":
+        digits = "7" * draw(st.integers(1, 6000))
+        return text.replace(f'"length": {case["length"]!r}', f'"length": {digits}', 1)
+    if kind == "exponent":
+        return text.replace(f'"length": {case["length"]!r}', f'"length": 1e{draw(st.integers(-400, 400))}', 1)
+    return text + " " * draw(st.integers(0, 1_200_000))
+
+
+@settings(max_examples=200, deadline=None, database=None, suppress_health_check=list(HealthCheck))
+@given(text=hostile_structure())
+def test_hostile_structure_is_read_or_refused_with_a_message(text):
+    """Nesting, long arrays and strings, huge numbers and sizes: a case, or a CaseError naming a field."""
+    outcome = _read_json(text)
+    if outcome == "read":
+        case = engine.Case.from_json(text)
+        assert len(case.loads) <= limits.MAX_LOADS and len(text) <= limits.MAX_CASE_BYTES
+
+
+@settings(max_examples=150, deadline=None, database=None, suppress_health_check=list(HealthCheck))
+@given(identifier=_hostile_text, comment=_hostile_text, extra=st.booleans())
+def test_hostile_batch_ids_and_comments_reach_results_neutralised(identifier, comment, extra):
+    """A row with a hostile id or comment (or one cell too many) gives a results.csv with no formula cell."""
+    import csv
+    import os
+    import tempfile
+
+    from app import batch
+    from app.safe_text import terminal
+
+    identifier, comment = (text.encode("utf-8", "replace").decode("utf-8") for text in (identifier, comment))
+    with tempfile.TemporaryDirectory() as folder:
+        table = os.path.join(folder, "members.csv")
+        with open(table, "w", encoding="utf-8", newline="") as stream:
+            writer = csv.writer(stream)  # a table as any other program writes it
+            writer.writerow(["id", "length_m", "left", "right", "EI_kNm2", "comment"])
+            writer.writerow([identifier, "6", "pinned", "pinned", "4200", comment]
+                            + (["=X()"] if extra else []))
+        try:
+            summary = batch.run(table, os.path.join(folder, "out"), workers=1, capacity=False)
+        except batch.TableError as error:  # a lone CR in a cell can make the table unreadable as CSV
+            assert str(error).startswith("line "), error
+            return
+        with open(summary.results, encoding="utf-8", newline="") as stream:
+            text = stream.read()
+    assert _formula_cells(text) == []
+    for _, identifier_, _, message in summary.errors:
+        assert _shows_no_controls(terminal(identifier_)) and _shows_no_controls(terminal(message))

@@ -1,0 +1,148 @@
+"""Ctrl-C (SIGINT) and SIGTERM end `strutscope batch` and `strutscope solve` cleanly (issue 11).
+
+Each test runs the real command line in its own session (so that its worker processes can be found by their
+session id in /proc, and SIGINT can go to the whole process group as a terminal sends it), waits until the
+command has installed its handlers (the SIGTERM bit of SigCgt in /proc/PID/status, proc(5)), sends the
+signal and checks: exit code 128 + the signal number (130, 143: the shell's convention, common practice, no
+source), no traceback, no `.part` file, and no process of the session left. Members are invented.
+"""
+
+from __future__ import annotations
+
+import csv
+import os
+import signal
+import subprocess
+import sys
+import time
+from pathlib import Path
+
+import pytest
+
+from tests.app.test_cli import REPO_ROOT, write_case
+
+pytestmark = pytest.mark.skipif(not Path("/proc/self/stat").exists(), reason="needs Linux /proc")
+
+
+def session_processes(session: int) -> list[int]:
+    """The ids of live (non-zombie) processes whose session id is `session` (proc(5): stat fields 3, 6)."""
+    found = []
+    for entry in os.listdir("/proc"):
+        if not entry.isdigit():
+            continue
+        try:
+            stat = Path(f"/proc/{entry}/stat").read_text()
+        except OSError:
+            continue
+        fields = stat[stat.rindex(")") + 2:].split()
+        if fields[0] != "Z" and int(fields[3]) == session:
+            found.append(int(entry))
+    return found
+
+
+def catches_sigterm(pid: int) -> bool:
+    """Whether process `pid` has a handler for SIGTERM installed (bit 15 of SigCgt)."""
+    try:
+        for line in Path(f"/proc/{pid}/status").read_text().splitlines():
+            if line.startswith("SigCgt:"):
+                return bool(int(line.split()[1], 16) >> (signal.SIGTERM - 1) & 1)
+    except OSError:
+        pass
+    return False
+
+
+def start(args, cwd) -> subprocess.Popen:
+    """Start the command line in a new session, as `strutscope ARGS` from `cwd`."""
+    env = dict(os.environ, PYTHONIOENCODING="utf-8")
+    env["PYTHONPATH"] = os.pathsep.join(filter(None, [str(REPO_ROOT), env.get("PYTHONPATH")]))
+    return subprocess.Popen([sys.executable, "-m", "app.cli", *args], cwd=cwd, env=env,
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True, encoding="utf-8",
+                            start_new_session=True)
+
+
+def wait_for(condition, timeout=90.0) -> None:
+    """Poll `condition` until it holds (fails the test after `timeout` s)."""
+    deadline = time.monotonic() + timeout
+    while not condition():
+        assert time.monotonic() < deadline, "timed out waiting"
+        time.sleep(0.05)
+
+
+def interrupt(process: subprocess.Popen, signum: int) -> tuple[int, str, str]:
+    """Send `signum` (SIGINT to the whole group, as a terminal does); return (code, stdout, stderr)."""
+    if signum == signal.SIGINT:
+        os.killpg(process.pid, signum)
+    else:
+        os.kill(process.pid, signum)
+    try:
+        out, err = process.communicate(timeout=60)
+    except subprocess.TimeoutExpired:
+        os.killpg(process.pid, signal.SIGKILL)
+        raise
+    return process.returncode, out, err
+
+
+def members_table(path: Path, rows: int) -> Path:
+    """A table of `rows` invented members with a section and material (so each gets a calc sheet)."""
+    with open(path, "w", encoding="utf-8", newline="") as stream:
+        writer = csv.writer(stream)
+        writer.writerow(["id", "length_m", "left", "right", "section", "material", "axial_kN",
+                         "udl_kN_per_m"])
+        for i in range(rows):
+            writer.writerow([f"M{i}", 6.0, "pinned", "pinned", "HEB 200", "S355", 300, 2.5])
+    return path
+
+
+def assert_clean(process, code, err, expected, folder) -> None:
+    """Exit code, one message and no traceback, no .part file in `folder`, no process of the session."""
+    assert code == expected, err
+    assert "Traceback" not in err and "KeyboardInterrupt" not in err, err
+    assert "stopped by" in err
+    assert [name for name in os.listdir(folder) if name.endswith(".part")] == []
+    deadline = time.monotonic() + 10  # the fork server notices its parent's end within moments
+    while session_processes(process.pid) and time.monotonic() < deadline:
+        time.sleep(0.1)
+    assert session_processes(process.pid) == [], "processes of the run outlived it"
+
+
+@pytest.mark.parametrize(("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)],
+                         ids=["SIGTERM", "SIGINT"])
+def test_batch_with_workers_ends_cleanly_on_a_signal(tmp_path, signum, expected):
+    """A batch shared over two workers, stopped mid-run: 143/130, no traceback, no .part, no worker left."""
+    table = members_table(tmp_path / "members.csv", 400)
+    out = tmp_path / "out"
+    out.mkdir()
+    (out / "results.csv").write_text("previous results\n", encoding="utf-8")
+    process = start(["batch", str(table), "--out", str(out), "--pdf", "--workers", "2"], tmp_path)
+    wait_for(lambda: any(name.endswith(".pdf") for name in os.listdir(out)))  # workers busy with sheets
+    assert len(session_processes(process.pid)) >= 3  # the command, the fork server and its workers
+    code, _, err = interrupt(process, signum)
+    assert_clean(process, code, err, expected, out)
+    assert (out / "results.csv").read_text(encoding="utf-8") == "previous results\n"
+
+
+@pytest.mark.parametrize(("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)],
+                         ids=["SIGTERM", "SIGINT"])
+def test_batch_in_one_process_ends_cleanly_on_a_signal(tmp_path, signum, expected):
+    """A short batch solved in one process, stopped mid-run: 143/130, no traceback, no .part file."""
+    table = members_table(tmp_path / "members.csv", 40)
+    out = tmp_path / "out"
+    process = start(["batch", str(table), "--out", str(out), "--pdf"], tmp_path)
+    wait_for(lambda: out.is_dir() and any(name.endswith(".pdf") for name in os.listdir(out)))
+    code, _, err = interrupt(process, signum)
+    assert_clean(process, code, err, expected, out)
+    assert not (out / "results.csv").exists()
+
+
+@pytest.mark.parametrize(("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)],
+                         ids=["SIGTERM", "SIGINT"])
+def test_solve_ends_cleanly_on_a_signal(tmp_path, signum, expected):
+    """`solve` with a calc sheet, stopped while it works: 143/130, no traceback, no .part, no sheet."""
+    case = write_case(tmp_path / "case.json")
+    process = start(["solve", str(case), "--pdf", "sheet.pdf", "--png", "figure.png", "--capacity"], tmp_path)
+    wait_for(lambda: catches_sigterm(process.pid))  # the command is running (its handlers are in place)
+    code, _, err = interrupt(process, signum)
+    if code == 0:
+        pytest.skip("the solve finished before the signal arrived")
+    assert_clean(process, code, err, expected, tmp_path)
+    assert not (tmp_path / "sheet.pdf").exists()
