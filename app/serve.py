@@ -16,6 +16,7 @@ import signal
 import socket
 import sys
 import weakref
+from functools import partial
 from importlib import resources
 
 __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", "serve"]
@@ -101,16 +102,59 @@ def make_page(case=None):
     from app.page import MemberPage
     from app.state import MemberState
 
-    state = MemberState.from_case(case if case is not None else _demo_case())
-    page = MemberPage(state)
+    runner = None
+    document = pn.state.curdoc
+    if document is not None and document.session_context is not None:
+        # Served: nothing is solved while the page is built (a GET does bounded work); the runner starts
+        # once the page is live in the browser and solves off the event loop (issue 11).
+        from app.work import Runner
+
+        runner = Runner(document)
+        pn.state.onload(runner.start)
+        pn.state.on_session_destroyed(lambda session_context: runner.close())
+    state = MemberState.from_case(case if case is not None else _demo_case(), runner=runner)
     if pn.state.location is not None:
         # The link is the settled case (never the axial force while it is dragged); see MemberState.link.
-        pn.state.location.sync(state, {"link": "case", "units": "units"})
+        # Synced before the page is built, so that the page opens on the link's case.
+        # A bad value is named in the page's notice (issue 11: it silently opened the demo case).
+        units = _link_units(pn.state.session_args)
+        pn.state.location.sync(
+            state, {"link": "case", "units": "units"}, on_error=partial(_link_refused, state, units)
+        )
+        if units and units not in _UNITS:
+            _link_refused(state, units, {})
+    page = MemberPage(state)
     if os.environ.get(DEBUG_SESSIONS_ENV):
         _log_sessions(page)
     if pn.state.curdoc is not None:
         pn.state.on_session_destroyed(_release_memory)
     return page
+
+
+_UNITS = ("si", "us")
+
+
+def _link_units(args) -> str:
+    """The ``units`` of the page's address, as text ('' when none)."""
+    values = (args or {}).get("units") or []
+    if not values:
+        return ""
+    value = values[-1]
+    text = value.decode("utf-8", "replace") if isinstance(value, bytes) else str(value)
+    return text.strip('"')
+
+
+def _link_refused(state, units: str, mapped: dict) -> None:
+    """Panel could not apply the link's values together: apply the case alone and name what was wrong."""
+    from app.intake import clean_text
+
+    if "link" in mapped:
+        state.link = mapped["link"]  # the case on its own (its own problems are named by the state)
+    if units and units not in _UNITS:
+        shown = clean_text(units)[:40]
+        message = f"units: {shown!r} in the link is not si or us; the page shows {state.units.upper()} units"
+        if message not in state.notice:
+            state._notify(f"{state.notice}; {message}" if state.notice else message)
 
 
 def _free_port(host: str) -> int:
@@ -130,7 +174,11 @@ def _is_loopback(host: str) -> bool:
 
 
 def serve(
-    case_path=None, port: int = DEFAULT_PORT, open_browser: bool = True, host: str = "127.0.0.1"
+    case_path=None,
+    port: int = DEFAULT_PORT,
+    open_browser: bool = True,
+    host: str = "127.0.0.1",
+    allow_origin=(),
 ) -> int:
     """Serve the page until Ctrl+C; return the exit code (0 when stopped, 2 for a case or port problem).
 
@@ -145,6 +193,9 @@ def serve(
     host : str
         The address to listen on: 127.0.0.1 by default. Any other address shares the page (and the
         machine's CPU) with the network it is on, with no login: a warning is printed.
+    allow_origin : sequence of str
+        Further addresses (``http://name:port``, ``name:port`` or ``name``) by which other computers open
+        the page; only these, the loopback names and `host` are answered (see :mod:`app.guard`).
     """
     import engine
 
@@ -169,9 +220,11 @@ def serve(
         # Issue 6 found that a stopped server went unreported: the page stayed as it was and ignored input.
         # Panel shows this message (in its notification area) when the websocket is lost.
         pn.config.disconnect_notification = DISCONNECTED
-        origins = [f"127.0.0.1:{port}", f"localhost:{port}"]
-        if not _is_loopback(host):
-            origins.append(f"{host}:{port}" if host not in ("0.0.0.0", "::") else f"*:{port}")
+        from app import guard, work
+
+        # Only the names served, for plain requests and the websocket alike; never a wildcard (issue 11).
+        hosts = guard.allowed_hosts(host, port, allow_origin)
+        origins = [entry for entry in hosts if not entry.startswith("[")]  # Bokeh cannot match IPv6 origins
         server = pn.serve(
             lambda: make_page(case),
             port=port,
@@ -182,7 +235,9 @@ def serve(
             title="strutscope · member explorer",
             verbose=False,
         )
+        guard.install(server, hosts)
         server.start()
+        work.start_workers()
     except OSError as error:
         print(f"error: cannot listen on {host}:{port}: {error.strerror or error}", file=sys.stderr)
         return 2
@@ -197,6 +252,14 @@ def serve(
     print(f"strutscope: serving the member explorer on {source} at http://{shown_host}:{port}/", flush=True)
     if host in ("0.0.0.0", "::"):
         print(f"strutscope: on this computer, open it at http://127.0.0.1:{port}/", flush=True)
+    others = hosts[len(guard.LOOPBACK_NAMES):]
+    if not _is_loopback(host):
+        print(
+            "strutscope: other computers can open it at "
+            + (", ".join(f"http://{entry}/" for entry in others) if others else "no address yet")
+            + " (name each address they use with --allow-origin)",
+            flush=True,
+        )
     print("strutscope: press Ctrl+C to stop", flush=True)
 
     def stop(signum, frame):
@@ -210,6 +273,7 @@ def serve(
     finally:
         signal.signal(signal.SIGTERM, previous)
         server.stop()
+        work.shutdown()
         print("strutscope: stopped", flush=True)
     return 0
 
@@ -234,6 +298,26 @@ def add_arguments(parser) -> None:
         help="address to listen on (default 127.0.0.1, this computer only; another address "
         "shares the page with the network, with a warning)",
     )
+    parser.add_argument(
+        "--allow-origin",
+        action="append",
+        type=_origin,
+        metavar="URL",
+        help="an address other computers use to open the page, e.g. http://workstation.local:5006 (repeat "
+        "for more); with --host, only these, the --host address and this computer's own names are answered",
+    )
+
+
+def _origin(text: str) -> str:
+    import argparse
+
+    from app.guard import origin_entry
+
+    try:
+        origin_entry(text, 0)
+    except ValueError as error:
+        raise argparse.ArgumentTypeError(str(error)) from None
+    return text
 
 
 def _port(text: str) -> int:
@@ -255,4 +339,5 @@ def run(args) -> int:
         port=getattr(args, "port", DEFAULT_PORT),
         open_browser=not getattr(args, "no_browser", False),
         host=getattr(args, "host", "127.0.0.1"),
+        allow_origin=getattr(args, "allow_origin", None) or (),
     )
