@@ -124,6 +124,8 @@ def make_page(case=None):
         if units and units not in _UNITS:
             _link_refused(state, units, {})
     page = MemberPage(state)
+    if document is not None and document.session_context is not None:
+        _guard_upload_size(document)
     if os.environ.get(DEBUG_SESSIONS_ENV):
         _log_sessions(page)
     if pn.state.curdoc is not None:
@@ -132,6 +134,54 @@ def make_page(case=None):
 
 
 _UNITS = ("si", "us")
+
+# In the browser, before anything is sent: a file over the upload cap is refused next to the upload control.
+# Bokeh's file input sends a whole file in one websocket message, and a message over the server's limit
+# closes the connection (issue 11: over about 20 MB the session died). The listener sits on the control's
+# shadow root in the capture phase, so it runs before the control reads the file.
+_UPLOAD_GUARD_JS = """
+const LIMIT = %(limit)d;
+function attach() {
+  for (const view of Bokeh.index.query((v) => v.model != null && v.model.type === "FileInput")) {
+    const root = view.shadow_el;
+    if (root == null || root.__ssSizeGuard) { continue; }
+    root.__ssSizeGuard = true;
+    root.addEventListener("change", (event) => {
+      const input = event.target;
+      const files = input != null ? input.files : null;
+      let note = root.querySelector(".ss-upload-refused");
+      if (files != null && files.length > 0 && files[0].size > LIMIT) {
+        event.stopImmediatePropagation();
+        const size = (files[0].size / 1e6).toFixed(1);
+        const name = files[0].name;
+        input.value = "";
+        if (note == null) {
+          note = document.createElement("div");
+          note.className = "ss-upload-refused";
+          note.style.cssText = "color:#a3261b;font-size:12px;margin:2px 0 0 2px";
+          root.appendChild(note);
+        }
+        note.textContent = "upload: " + name + " is " + size +
+          " MB; a case file may be at most 1 MB (not sent)";
+      } else if (note != null) {
+        note.textContent = "";
+      }
+    }, true);
+  }
+}
+attach();
+document.addEventListener("pointerdown", attach, true);
+document.addEventListener("dragenter", attach, true);
+setInterval(attach, 2000);
+"""
+
+
+def _guard_upload_size(document) -> None:
+    from bokeh.models import CustomJS
+
+    from app.page import UPLOAD_LIMIT
+
+    document.js_on_event("document_ready", CustomJS(code=_UPLOAD_GUARD_JS % {"limit": UPLOAD_LIMIT}))
 
 
 def _link_units(args) -> str:
@@ -214,7 +264,7 @@ def serve(
             port = _free_port(host)
         import panel as pn
 
-        from app.page import page_stylesheet
+        from app.page import UPLOAD_LIMIT, page_stylesheet
 
         pn.config.raw_css = [*pn.config.raw_css, page_stylesheet()]
         # Issue 6 found that a stopped server went unreported: the page stayed as it was and ignored input.
@@ -234,6 +284,9 @@ def serve(
             start=False,
             title="strutscope · member explorer",
             verbose=False,
+            # Just above what a page needs (an upload of at most 1 MB is 1.4 MB of base64 in one message);
+            # the browser refuses larger files before sending them.
+            websocket_max_message_size=4 * UPLOAD_LIMIT,
         )
         guard.install(server, hosts)
         server.start()

@@ -47,6 +47,8 @@ SOLVE_BUDGET = 10.0
 #: Cases with more loads than this have their first solve tried in a worker process under SOLVE_BUDGET.
 PROBE_LOADS = 16
 
+# Seconds a new worker process may take to start and import the engine (a busy machine: several seconds).
+_START_TIMEOUT = 60.0
 _SOLVES = ThreadPoolExecutor(max_workers=4, thread_name_prefix="strutscope-solve")
 _WAITS = ThreadPoolExecutor(max_workers=8, thread_name_prefix="strutscope-chart")
 
@@ -86,6 +88,7 @@ class _Worker:
         self._connection = None
 
     def _ensure(self) -> None:
+        """Start the process when it is not running, and wait for its imports (not part of any budget)."""
         if self._process is not None and self._process.is_alive():
             return
         context = multiprocessing.get_context("spawn")  # never fork a threaded server
@@ -94,6 +97,11 @@ class _Worker:
         process.start()
         child.close()
         self._process, self._connection = process, parent
+        parent.send((_import_engine, ()))
+        if not parent.poll(_START_TIMEOUT):
+            self._stop()
+            raise RuntimeError("the worker process did not start")
+        parent.recv()
 
     def _stop(self) -> None:
         process, connection = self._process, self._connection
@@ -105,14 +113,13 @@ class _Worker:
             process.join(5)
 
     def run(self, function, args: tuple, deadline: float):
-        """``function(*args)`` in the worker; BudgetExceeded past `deadline` seconds (queueing included)."""
-        start = time.monotonic()
-        if not self._lock.acquire(timeout=deadline):
+        """``function(*args)`` in the worker; BudgetExceeded past `deadline` s of work (or of queueing)."""
+        if not self._lock.acquire(timeout=deadline):  # another session's job ran its whole budget
             raise BudgetExceeded
         try:
             self._ensure()
             self._connection.send((function, args))
-            if not self._connection.poll(max(deadline - (time.monotonic() - start), 0.0)):
+            if not self._connection.poll(deadline):
                 self._stop()
                 raise BudgetExceeded
             ok, value = self._connection.recv()
@@ -139,13 +146,14 @@ def run_in_worker(kind: str, function, args: tuple, deadline: float):
 
 
 def start_workers() -> None:
-    """Start the chart worker ahead of the first session (its imports take a second or two)."""
-    _WAITS.submit(_warm)
+    """Start the worker processes ahead of the first session (their imports take a second or more)."""
+    for kind in _WORKERS:
+        _WAITS.submit(_warm, kind)
 
 
-def _warm() -> None:
+def _warm(kind: str) -> None:
     with contextlib.suppress(Exception):  # started again on first use
-        run_in_worker("chart", _import_engine, (), CHART_BUDGET)
+        run_in_worker(kind, _import_engine, (), CHART_BUDGET)
 
 
 def _import_engine() -> bool:
