@@ -251,9 +251,12 @@ def serve(
 
     case = None
     if case_path is not None:
+        from app.intake import IntakeError, check_case
+
         try:
             case = engine.load_case(case_path)
-        except engine.CaseError as error:
+            check_case(case)  # a lone surrogate in the title failed every session (issue 11)
+        except (engine.CaseError, IntakeError) as error:
             print(f"error: {case_path}: {error}", file=sys.stderr)
             return 2
         except OSError as error:

@@ -161,3 +161,23 @@ def test_a_heavy_case_link_is_answered_without_holding_up_another_request(served
     assert status == 200 and "strutscope" in body
     thread.join(_WAIT_S)
     assert answers.get("heavy") == 200, answers
+
+
+def test_serving_a_case_with_a_lone_surrogate_in_its_title_is_refused(tmp_path):
+    """`serve CASE` whose title holds "\\ud800" exits with 2 and names the title (it failed every session)."""
+    import subprocess
+
+    from tests.browser.conftest import REPO_ROOT, serve_command
+
+    case = tmp_path / "surrogate.json"
+    case.write_text('{"schema": 1, "title": "Post \\ud800", "length": 6, "EI": 1e6, '
+                    '"supports": {"left": "pinned", "right": "pinned"}}', encoding="ascii")
+    done = subprocess.run(
+        [*serve_command(), "serve", str(case), "--no-browser", "--port", "0"],
+        cwd=tmp_path, capture_output=True, text=True, timeout=120,
+        env={"PYTHONPATH": str(REPO_ROOT), "PATH": "/usr/bin:/bin:/usr/local/bin",
+             "PYTHONIOENCODING": "utf-8"},
+    )
+    assert done.returncode == 2
+    assert done.stderr.startswith(f"error: {case}: title: holds a lone surrogate")
+    assert "Traceback" not in done.stderr
