@@ -16,7 +16,6 @@ visible.
 
 from __future__ import annotations
 
-import contextlib
 import html
 import io
 import logging
@@ -1422,25 +1421,22 @@ class MemberPage(pn.viewable.Viewer):
             # Served: each row is a dozen widgets and their Bokeh models, about 0.1 s of the event loop that
             # every session shares (issue 11). The first rows go now and the rest on a later tick, so other
             # sessions' events run in between.
-            self._append_rows_later(runner.document, now, self._row_generation)
+            self._append_rows_later(runner, now, self._row_generation)
         self._show_errors()
 
-    def _append_rows_later(self, document, start: int, generation: int) -> None:
+    def _append_rows_later(self, runner, start: int, generation: int) -> None:
         def append() -> None:
-            from panel.io.state import set_curdoc
-
             loads = self.model.loads[:MAX_LOAD_ROWS]
             if generation != self._row_generation:
                 return  # the rows were built again since
-            with set_curdoc(document), pn.io.hold():
+            with pn.io.hold():
                 widgets = [self._make_row(index, loads[index]) for index in range(start, len(loads))]
                 for row, load in zip(self._load_rows[start:], loads[start:], strict=False):
                     self._fill_row(row, load)
                 self.loads_column.extend(widgets)  # one change: Bokeh walks the whole document per change
                 self._show_errors()
 
-        with contextlib.suppress(Exception):  # the session has gone
-            document.add_next_tick_callback(append)
+        runner.later(append)
 
     def _make_row(self, index: int, load: dict):
         """The widgets of load row `index` (appended to ``_load_rows``); returns its column."""

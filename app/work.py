@@ -256,13 +256,26 @@ class Runner:
     def __init__(self, document) -> None:
         self.document = document
         self.closed = False
+        self.started = False
+        self._waiting: list = []
         self._solves = _Lane(_SOLVES, self._deliver)
         self._charts = _Lane(_WAITS, self._deliver)
 
     def start(self) -> None:
         """Begin working (the page calls this once it is live in the browser)."""
+        self.started = True
+        waiting, self._waiting = self._waiting, []
+        for callback in waiting:
+            self._deliver(callback)
         self._solves.resume()
         self._charts.resume()
+
+    def later(self, callback) -> None:
+        """Run `callback` on the event loop on a later tick, once the page is live (never for a bare GET)."""
+        if self.started:
+            self._deliver(callback)
+        else:
+            self._waiting.append(callback)
 
     def close(self) -> None:
         self.closed = True
