@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import html
 import io
+import logging
 import math
 import re
 from functools import partial
@@ -40,6 +41,7 @@ from bokeh.models import (
 )
 from bokeh.plotting import figure
 
+from app.intake import clean_text
 from app.state import (
     BOW_PRESETS,
     INPUTS,
@@ -49,10 +51,16 @@ from app.state import (
 )
 from app.units import Unit, units
 
-__all__ = ["MAX_VARIANTS", "MemberPage", "UPLOAD_LIMIT", "page_stylesheet"]
+__all__ = ["MAX_LOAD_ROWS", "MAX_VARIANTS", "MemberPage", "UPLOAD_LIMIT", "page_stylesheet"]
+
+_log = logging.getLogger(__name__)
 
 #: Variants kept at most.
 MAX_VARIANTS = 4
+#: Load rows listed for editing at most: each row is a dozen widgets, and building hundreds of them held
+#: the server for seconds (issue 11); further loads are analysed and drawn, and edited in the case file.
+MAX_LOAD_ROWS = 12
+_ROWS_AT_ONCE = 2
 #: Largest case file accepted for upload [bytes].
 UPLOAD_LIMIT = 1_000_000
 
@@ -260,6 +268,8 @@ class MemberPage(pn.viewable.Viewer):
         self._errors: list[tuple[pn.pane.HTML, tuple[str, ...], bool]] = []
         self._row_errors: list[tuple[pn.pane.HTML, tuple[str, ...], bool]] = []
         self._load_rows: list[dict] = []
+        self._row_generation = 0
+        self._row_types: list | None = None  # the load types the rows are (being) built for
         self._variants: list[dict] = []
         self._shown_cautions = None
         self._build_sources()
@@ -268,8 +278,9 @@ class MemberPage(pn.viewable.Viewer):
         self._build_outputs()
         self._layout = self._build_layout()
         self.model.param.watch(self._on_result, ["result", "errors"])
-        self.model.param.watch(self._on_chart, ["sweep", "approximation", "capacity"])
+        self.model.param.watch(self._on_chart, ["sweep", "approximation", "capacity", "chart_note"])
         self.model.param.watch(self._on_units, ["units"])
+        self.model.param.watch(self._on_notice, ["notice"])
         self.model.param.watch(self._on_inputs, list(INPUTS))
         self.param.watch(self._on_transverse, ["show_transverse"])
         self._push_inputs()
@@ -277,6 +288,34 @@ class MemberPage(pn.viewable.Viewer):
         self._apply_units_to_figures()
         self._redraw(full=True)
         self._draw_chart()
+        self._on_notice()
+        if self.model.result is None:
+            self._prescale_slider()
+
+    def _prescale_slider(self) -> None:
+        """Served, the first result comes after the page is sent: scale the slider from Pcr1 alone now.
+
+        Only the critical loads are computed (they do not depend on the loads, so this is bounded work); the
+        slider's range then need not change under the user's hand once the first result arrives.
+        """
+        import engine
+
+        m = self.model
+        try:
+            pcr1 = float(engine.critical_loads(m.to_case(), count=1).critical_loads[0])
+        except Exception:  # noqa: BLE001 - the first result scales it instead, and shows any message
+            return
+        force = m.axial_force if m.axial_force is not None else 0.0
+        if not (math.isfinite(pcr1) and pcr1 > 0 and math.isfinite(force)):
+            return
+        self._syncing = True
+        try:
+            self._scale_slider(pcr1, force)
+            shown = self._U.force.from_si(force)
+            self.force_slider.value = min(max(shown, self.force_slider.start), self.force_slider.end)
+            self.force_input.value = shown
+        finally:
+            self._syncing = False
 
     def __panel__(self):
         return self._layout
@@ -1057,6 +1096,7 @@ class MemberPage(pn.viewable.Viewer):
         )
         self.transverse_toggle.link(self, value="show_transverse")
         self.general_error = self._error_pane("case", "schema", "stations", exact=True)
+        self.notice = pn.pane.HTML("", stylesheets=[_CSS], sizing_mode="stretch_width", margin=(0, 5))
         self.header_title = pn.pane.HTML(
             "", stylesheets=[_CSS], sizing_mode="stretch_width", min_width=80, margin=(18, 10, 0, 4)
         )
@@ -1149,6 +1189,7 @@ class MemberPage(pn.viewable.Viewer):
             force,
             self.stale,
             self.general_error,
+            self.notice,
             self.centre_tabs,
             sizing_mode="stretch_both",
             margin=(0, 4),
@@ -1201,8 +1242,17 @@ class MemberPage(pn.viewable.Viewer):
             self.model.param.update({name: event.new})
 
     def _title_edited(self, event) -> None:
-        if not self._syncing:
-            self.model.title = event.new
+        if self._syncing:
+            return
+        title = clean_text(event.new) if isinstance(event.new, str) else event.new
+        if title is not event.new and title != event.new:
+            # A lone surrogate is not text (it could not be sent back to any browser): replaced, not kept.
+            self._syncing = True
+            try:
+                self.title_input.value = title
+            finally:
+                self._syncing = False
+        self.model.title = title
 
     def _catalogue_edited(self, event) -> None:
         if not self._syncing and event.new is not None:
@@ -1335,91 +1385,123 @@ class MemberPage(pn.viewable.Viewer):
         return []
 
     def _sync_load_rows(self) -> None:
-        loads = self.model.loads
+        loads = self.model.loads[:MAX_LOAD_ROWS]
         types = [load.get("type") for load in loads]
-        if types != [row["type"] for row in self._load_rows]:
+        if types != self._row_types:
             self._build_load_rows()
-        self._syncing = True
-        try:
-            for row, load in zip(self._load_rows, loads, strict=False):
-                for key, widget, kind in row["inputs"]:
-                    unit = self._unit(kind)
-                    value = load.get(key)
-                    shown = None if value is None or isinstance(value, str) else unit.from_si(value)
-                    widget.label = self._label(widget._ss_text, kind)
-                    if (
-                        shown is None
-                        or widget.value is None
-                        or not math.isclose(widget.value, shown, rel_tol=1e-12)
-                    ):
-                        widget.value = shown
-        finally:
-            self._syncing = False
+        for row, load in zip(self._load_rows, loads, strict=False):
+            self._fill_row(row, load)
+        hidden = len(self.model.loads) - len(loads)
         self.loads_note.object = (
-            "<div class='ss-note'>Positive loads act along +w (drawn downwards). Empty <i>from</i>/<i>to</i> "
-            "means the member's end. A couple C makes M jump by +C.</div>"
+            (
+                f"<div class='ss-note'>Loads {MAX_LOAD_ROWS + 1} to {len(self.model.loads)} are analysed and "
+                f"drawn but not listed here (the page lists the first {MAX_LOAD_ROWS}): edit them in the "
+                "case file.</div>"
+                if hidden
+                else ""
+            )
+            + "<div class='ss-note'>Positive loads act along +w (drawn downwards). Empty <i>from</i>/"
+            "<i>to</i> means the member's end. A couple C makes M jump by +C.</div>"
             if loads
             else "<div class='ss-note'>No transverse loads: add one above.</div>"
         )
 
+    def _fill_row(self, row: dict, load: dict) -> None:
+        """Show `load`'s values (SI in the state) in its row's inputs, in display units."""
+        self._syncing = True
+        try:
+            for key, widget, kind in row["inputs"]:
+                unit = self._unit(kind)
+                value = load.get(key)
+                shown = None if value is None or isinstance(value, str) else unit.from_si(value)
+                widget.label = self._label(widget._ss_text, kind)
+                old = widget.value
+                if shown is None or old is None or not math.isclose(old, shown, rel_tol=1e-12):
+                    widget.value = shown
+        finally:
+            self._syncing = False
+
     def _build_load_rows(self) -> None:
-        rows = []
-        widgets = []
+        loads = self.model.loads[:MAX_LOAD_ROWS]
+        self._row_types = [load.get("type") for load in loads]
+        self._row_generation += 1
         self._row_errors = []  # the rows' error panes go with the rows
-        for index, load in enumerate(self.model.loads):
-            kind = load.get("type")
-            type_select = pn.widgets.Select(
-                label="",
-                options={v: k for k, v in _LOAD_LABELS.items()},
-                value=kind if kind in LOAD_TYPES else None,
-                width=100,
-                margin=(2, 4),
-                stylesheets=[_WIDGET_CSS],
-            )
-            type_select.param.watch(partial(self._load_type_changed, index), "value")
-            remove = pn.widgets.Button(
-                label="Remove",
-                width=74,
-                margin=(2, 4),
-                color="light",
-                stylesheets=[_WIDGET_CSS],
-                description=f"remove load {index + 1}",
-            )
-            remove.on_click(partial(self._remove_load, index))
-            inputs = []
-            for key, text, unit_kind in self._load_row_spec(load):
-                widget = pn.widgets.FloatInput(
-                    label=self._label(text, unit_kind),
-                    value=None,
-                    width=68,
-                    format="0[.][000000]",
-                    margin=(0, 3),
-                    stylesheets=[_WIDGET_CSS],
-                    placeholder="end" if key in ("start", "end") else "",
-                )
-                widget._ss_text = text
-                widget.param.watch(partial(self._load_edited, index, key, unit_kind), "value")
-                inputs.append((key, widget, unit_kind))
-            header = pn.pane.HTML(
-                f"<div class='ss-heading'>Load {index + 1}</div>",
-                stylesheets=[_CSS],
-                width=66,
-                margin=(8, 2, 0, 4),
-            )
-            error = self._error_pane(f"loads[{index}]", rows=True)
-            widgets.append(
-                pn.Column(
-                    pn.Row(header, type_select, remove, margin=0),
-                    pn.Row(*[widget for _, widget, _ in inputs], margin=0),
-                    error,
-                    margin=(0, 0, 6, 0),
-                    styles={"border-bottom": "1px solid #e4e7e1"},
-                )
-            )
-            rows.append({"type": kind, "inputs": inputs, "error": error})
-        self._load_rows = rows
+        self._load_rows = []
+        runner = self.model._runner
+        now = len(loads) if runner is None else min(len(loads), _ROWS_AT_ONCE)
+        widgets = [self._make_row(index, loads[index]) for index in range(now)]
         self.loads_column.objects = widgets
+        if now < len(loads):
+            # Served: each row is a dozen widgets and their Bokeh models, about 0.1 s of the event loop that
+            # every session shares (issue 11). The first rows go now and the rest on a later tick, so other
+            # sessions' events run in between.
+            self._append_rows_later(runner, now, self._row_generation)
         self._show_errors()
+
+    def _append_rows_later(self, runner, start: int, generation: int) -> None:
+        def append() -> None:
+            loads = self.model.loads[:MAX_LOAD_ROWS]
+            if generation != self._row_generation:
+                return  # the rows were built again since
+            with pn.io.hold():
+                widgets = [self._make_row(index, loads[index]) for index in range(start, len(loads))]
+                for row, load in zip(self._load_rows[start:], loads[start:], strict=False):
+                    self._fill_row(row, load)
+                self.loads_column.extend(widgets)  # one change: Bokeh walks the whole document per change
+                self._show_errors()
+
+        runner.later(append)
+
+    def _make_row(self, index: int, load: dict):
+        """The widgets of load row `index` (appended to ``_load_rows``); returns its column."""
+        kind = load.get("type")
+        type_select = pn.widgets.Select(
+            label="",
+            options={v: k for k, v in _LOAD_LABELS.items()},
+            value=kind if kind in LOAD_TYPES else None,
+            width=100,
+            margin=(2, 4),
+            stylesheets=[_WIDGET_CSS],
+        )
+        type_select.param.watch(partial(self._load_type_changed, index), "value")
+        remove = pn.widgets.Button(
+            label="Remove",
+            width=74,
+            margin=(2, 4),
+            color="light",
+            stylesheets=[_WIDGET_CSS],
+            description=f"remove load {index + 1}",
+        )
+        remove.on_click(partial(self._remove_load, index))
+        inputs = []
+        for key, text, unit_kind in self._load_row_spec(load):
+            widget = pn.widgets.FloatInput(
+                label=self._label(text, unit_kind),
+                value=None,
+                width=68,
+                format="0[.][000000]",
+                margin=(0, 3),
+                stylesheets=[_WIDGET_CSS],
+                placeholder="end" if key in ("start", "end") else "",
+            )
+            widget._ss_text = text
+            widget.param.watch(partial(self._load_edited, index, key, unit_kind), "value")
+            inputs.append((key, widget, unit_kind))
+        header = pn.pane.HTML(
+            f"<div class='ss-heading'>Load {index + 1}</div>",
+            stylesheets=[_CSS],
+            width=66,
+            margin=(8, 2, 0, 4),
+        )
+        error = self._error_pane(f"loads[{index}]", rows=True)
+        self._load_rows.append({"type": kind, "inputs": inputs, "error": error})
+        return pn.Column(
+            pn.Row(header, type_select, remove, margin=0),
+            pn.Row(*[widget for _, widget, _ in inputs], margin=0),
+            error,
+            margin=(0, 0, 6, 0),
+            styles={"border-bottom": "1px solid #e4e7e1"},
+        )
 
     def _load_type_changed(self, index: int, event) -> None:
         if not self._syncing and event.new is not None:
@@ -1438,6 +1520,10 @@ class MemberPage(pn.viewable.Viewer):
             return
         result = self.model.result
         self._redraw(full=result is None or _case_identity(result.case) != self._drawn_case)
+
+    def _on_notice(self, event=None) -> None:
+        message = self.model.notice
+        self.notice.object = f"<div class='ss-error ss-notice'>{_esc(message)}</div>" if message else ""
 
     def _on_chart(self, *events) -> None:
         with pn.io.hold():
@@ -1580,11 +1666,15 @@ class MemberPage(pn.viewable.Viewer):
         try:
             self._scale_slider(pcr1, P)
             shown = U.force.from_si(P)
-            if not math.isclose(self.force_slider.value, shown, rel_tol=1e-9, abs_tol=1e-12):
+            # Served, a result can arrive after the slider has moved on (solves run off the event loop):
+            # the widgets then keep the newer force rather than jump back.
+            behind = self.model.axial_force is not None and self.model.axial_force != P
+            if behind:
+                pass
+            elif not math.isclose(self.force_slider.value, shown, rel_tol=1e-9, abs_tol=1e-12):
                 self.force_slider.value = min(max(shown, self.force_slider.start), self.force_slider.end)
-            if self.force_input.value is None or not math.isclose(
-                self.force_input.value, shown, rel_tol=1e-12
-            ):
+            typed = self.force_input.value
+            if not behind and (typed is None or not math.isclose(typed, shown, rel_tol=1e-12)):
                 self.force_input.value = shown
         finally:
             self._syncing = False
@@ -1917,16 +2007,21 @@ class MemberPage(pn.viewable.Viewer):
                 "deflection": _finite(sweep.deflection_amplification),
             }
             self.fig_amp.x_range.update(start=float(n[0]) - 0.05, end=float(n[-1]))
+        else:  # never the curves of another case
+            self.sweep_source.data = {"n": [], "moment": [], "deflection": []}
         if approximation is not None:
             forces, values = approximation
             self.approximation_source.data = {"n": np.asarray(forces) / pcr[0], "value": _finite(values)}
+        else:
+            self.approximation_source.data = {"n": [], "value": []}
         U = self._U
         self.critical_source.data = {
             "n": list(pcr[:3] / pcr[0]),
             "y": [7.1, 6.6, 6.1],
             "text": [f"Pcr{k + 1} = {U.show('force', pcr[k])}" for k in range(3)],
         }
-        self.amp_note.object = (
+        note = f"<div class='ss-error'>{_esc(m.chart_note)}</div>" if m.chart_note else ""
+        self.amp_note.object = note + (
             "<div class='ss-note'>Exact curves from the engine's sweep of the axial force (exact peaks "
             "at every force); the dashed line is the textbook 1/(1 − N/Pcr1) (Timoshenko &amp; Gere 1961, "
             "ch. 1), given below Pcr1 only. Vertical lines: the critical loads. Shaded: beyond Pcr1, "
@@ -2061,28 +2156,43 @@ class MemberPage(pn.viewable.Viewer):
         return io.StringIO(case_json(self.model.result.case))
 
     def _uploaded(self, event) -> None:
-        import engine
+        """Load an uploaded case file whole, or refuse it whole with a message naming what was wrong.
+
+        The server log gets one line per refusal, naming its kind only (never the file's contents).
+        """
+        from app.intake import IntakeError, case_from_bytes
 
         data, filename = event.new, self.upload.filename or "the file"
         if data is None:
             return
-        message = ""
-        if not str(filename).lower().endswith(".json"):
-            message = f"upload: {filename} is not a .json case file"
+        name = clean_text(str(filename))
+        kind = ""
+        if not name.lower().endswith(".json"):
+            message, kind = f"upload: {name} is not a .json case file", "name"
         elif len(data) > UPLOAD_LIMIT:
-            message = f"upload: {filename} is {len(data) / 1e6:.1f} MB; a case file may be at most 1 MB"
+            message = f"upload: {name} is {len(data) / 1e6:.1f} MB; a case file may be at most 1 MB"
+            kind = "size"
         else:
             try:
-                case = engine.Case.from_json(data)
-            except engine.CaseError as error:
-                message = f"upload: {filename}: {error}"
-        if message:
+                case = case_from_bytes(data, f"upload: {name}")
+            except IntakeError as error:
+                message, kind = str(error), error.kind
+            except Exception as error:  # noqa: BLE001 - never a traceback: say it, keep the case
+                message, kind = f"upload: {name} could not be read ({type(error).__name__})", "error"
+        if kind:
+            _log.warning("strutscope: an upload was refused (%s)", kind)
             self.upload_message.object = f"<div class='ss-error'>{_esc(message)}</div>"
             return
-        self.model.load_case(case)
-        self.upload_message.object = (
-            f"<div class='ss-note' style='color:#cfe3e6'>loaded {_esc(filename)}</div>"
-        )
+        before = self.model.case_mapping()
+        try:
+            self.model.load_case(case)
+        except Exception as error:  # noqa: BLE001 - never half applied: put the previous case back
+            _log.warning("strutscope: an upload was refused (%s while loading)", type(error).__name__)
+            self.model.load_mapping(before)
+            message = f"upload: {name} could not be loaded ({type(error).__name__}); the previous case stays"
+            self.upload_message.object = f"<div class='ss-error'>{_esc(message)}</div>"
+            return
+        self.upload_message.object = f"<div class='ss-note' style='color:#cfe3e6'>loaded {_esc(name)}</div>"
 
 
 # ====================================================================== text of the value tables

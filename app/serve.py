@@ -16,6 +16,7 @@ import signal
 import socket
 import sys
 import weakref
+from functools import partial
 from importlib import resources
 
 __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", "serve"]
@@ -105,16 +106,109 @@ def make_page(case=None):
     from app.page import MemberPage
     from app.state import MemberState
 
-    state = MemberState.from_case(case if case is not None else _demo_case())
-    page = MemberPage(state)
+    runner = None
+    document = pn.state.curdoc
+    if document is not None and document.session_context is not None:
+        # Served: nothing is solved while the page is built (a GET does bounded work); the runner starts
+        # once the page is live in the browser and solves off the event loop (issue 11).
+        from app.work import Runner
+
+        runner = Runner(document)
+        pn.state.onload(runner.start)
+        pn.state.on_session_destroyed(lambda session_context: runner.close())
+    state = MemberState.from_case(case if case is not None else _demo_case(), runner=runner)
     if pn.state.location is not None:
         # The link is the settled case (never the axial force while it is dragged); see MemberState.link.
-        pn.state.location.sync(state, {"link": "case", "units": "units"})
+        # Synced before the page is built, so that the page opens on the link's case.
+        # A bad value is named in the page's notice (issue 11: it silently opened the demo case).
+        units = _link_units(pn.state.session_args)
+        pn.state.location.sync(
+            state, {"link": "case", "units": "units"}, on_error=partial(_link_refused, state, units)
+        )
+        if units and units not in _UNITS:
+            _link_refused(state, units, {})
+    page = MemberPage(state)
+    if document is not None and document.session_context is not None:
+        _guard_upload_size(document)
     if os.environ.get(DEBUG_SESSIONS_ENV):
         _log_sessions(page)
     if pn.state.curdoc is not None:
         pn.state.on_session_destroyed(_release_memory)
     return page
+
+
+_UNITS = ("si", "us")
+
+# In the browser, before anything is sent: a file over the upload cap is refused next to the upload control.
+# Bokeh's file input sends a whole file in one websocket message, and a message over the server's limit
+# closes the connection (issue 11: over about 20 MB the session died). The listener sits on the control's
+# shadow root in the capture phase, so it runs before the control reads the file.
+_UPLOAD_GUARD_JS = """
+const LIMIT = %(limit)d;
+function attach() {
+  for (const view of Bokeh.index.query((v) => v.model != null && v.model.type === "FileInput")) {
+    const root = view.shadow_el;
+    if (root == null || root.__ssSizeGuard) { continue; }
+    root.__ssSizeGuard = true;
+    root.addEventListener("change", (event) => {
+      const input = event.target;
+      const files = input != null ? input.files : null;
+      let note = root.querySelector(".ss-upload-refused");
+      if (files != null && files.length > 0 && files[0].size > LIMIT) {
+        event.stopImmediatePropagation();
+        const size = (files[0].size / 1e6).toFixed(1);
+        const name = files[0].name;
+        input.value = "";
+        if (note == null) {
+          note = document.createElement("div");
+          note.className = "ss-upload-refused";
+          note.style.cssText = "color:#a3261b;font-size:12px;margin:2px 0 0 2px";
+          root.appendChild(note);
+        }
+        note.textContent = "upload: " + name + " is " + size +
+          " MB; a case file may be at most 1 MB (not sent)";
+      } else if (note != null) {
+        note.textContent = "";
+      }
+    }, true);
+  }
+}
+attach();
+document.addEventListener("pointerdown", attach, true);
+document.addEventListener("dragenter", attach, true);
+setInterval(attach, 2000);
+"""
+
+
+def _guard_upload_size(document) -> None:
+    from bokeh.models import CustomJS
+
+    from app.page import UPLOAD_LIMIT
+
+    document.js_on_event("document_ready", CustomJS(code=_UPLOAD_GUARD_JS % {"limit": UPLOAD_LIMIT}))
+
+
+def _link_units(args) -> str:
+    """The ``units`` of the page's address, as text ('' when none)."""
+    values = (args or {}).get("units") or []
+    if not values:
+        return ""
+    value = values[-1]
+    text = value.decode("utf-8", "replace") if isinstance(value, bytes) else str(value)
+    return text.strip('"')
+
+
+def _link_refused(state, units: str, mapped: dict) -> None:
+    """Panel could not apply the link's values together: apply the case alone and name what was wrong."""
+    from app.intake import clean_text
+
+    if "link" in mapped:
+        state.link = mapped["link"]  # the case on its own (its own problems are named by the state)
+    if units and units not in _UNITS:
+        shown = clean_text(units)[:40]
+        message = f"units: {shown!r} in the link is not si or us; the page shows {state.units.upper()} units"
+        if message not in state.notice:
+            state._notify(f"{state.notice}; {message}" if state.notice else message)
 
 
 def _free_port(host: str) -> int:
@@ -181,7 +275,11 @@ def _is_loopback(host: str) -> bool:
 
 
 def serve(
-    case_path=None, port: int | None = None, open_browser: bool = True, host: str = "127.0.0.1"
+    case_path=None,
+    port: int | None = None,
+    open_browser: bool = True,
+    host: str = "127.0.0.1",
+    allow_origin=(),
 ) -> int:
     """Serve the page until Ctrl+C; return the exit code (0 when stopped, 2 for a case or port problem).
 
@@ -198,14 +296,20 @@ def serve(
     host : str
         The address to listen on: 127.0.0.1 by default. Any other address shares the page (and the
         machine's CPU) with the network it is on, with no login: a warning is printed.
+    allow_origin : sequence of str
+        Further addresses (``http://name:port``, ``name:port`` or ``name``) by which other computers open
+        the page; only these, the loopback names and `host` are answered (see :mod:`app.guard`).
     """
     import engine
 
     case = None
     if case_path is not None:
+        from app.intake import IntakeError, check_case
+
         try:
             case = engine.load_case(case_path)
-        except engine.CaseError as error:
+            check_case(case)  # a lone surrogate in the title failed every session (issue 11)
+        except (engine.CaseError, IntakeError) as error:
             print(f"error: {case_path}: {error}", file=sys.stderr)
             return 2
         except OSError as error:
@@ -220,15 +324,17 @@ def serve(
     try:
         import panel as pn
 
-        from app.page import page_stylesheet
+        from app.page import UPLOAD_LIMIT, page_stylesheet
 
         pn.config.raw_css = [*pn.config.raw_css, page_stylesheet()]
         # Issue 6 found that a stopped server went unreported: the page stayed as it was and ignored input.
         # Panel shows this message (in its notification area) when the websocket is lost.
         pn.config.disconnect_notification = DISCONNECTED
-        origins = [f"127.0.0.1:{port}", f"localhost:{port}"]
-        if not _is_loopback(host):
-            origins.append(f"{host}:{port}" if host not in ("0.0.0.0", "::") else f"*:{port}")
+        from app import guard, work
+
+        # Only the names served, for plain requests and the websocket alike; never a wildcard (issue 11).
+        hosts = guard.allowed_hosts(host, port, allow_origin)
+        origins = [entry for entry in hosts if not entry.startswith("[")]  # Bokeh cannot match IPv6 origins
         server = pn.serve(
             lambda: make_page(case),
             port=port,
@@ -238,8 +344,13 @@ def serve(
             start=False,
             title="strutscope · member explorer",
             verbose=False,
+            # Just above what a page needs (an upload of at most 1 MB is 1.4 MB of base64 in one message);
+            # the browser refuses larger files before sending them.
+            websocket_max_message_size=4 * UPLOAD_LIMIT,
         )
+        guard.install(server, hosts)
         server.start()
+        work.start_workers()
     except OSError as error:
         print(f"error: cannot listen on {host}:{port}: {error.strerror or error}", file=sys.stderr)
         return 2
@@ -254,6 +365,14 @@ def serve(
     print(f"strutscope: serving the member explorer on {source} at http://{shown_host}:{port}/", flush=True)
     if host in ("0.0.0.0", "::"):
         print(f"strutscope: on this computer, open it at http://127.0.0.1:{port}/", flush=True)
+    others = hosts[len(guard.LOOPBACK_NAMES):]
+    if not _is_loopback(host):
+        print(
+            "strutscope: other computers can open it at "
+            + (", ".join(f"http://{entry}/" for entry in others) if others else "no address yet")
+            + " (name each address they use with --allow-origin)",
+            flush=True,
+        )
     print("strutscope: press Ctrl+C to stop", flush=True)
 
     def stop(signum, frame):
@@ -267,6 +386,7 @@ def serve(
     finally:
         signal.signal(signal.SIGTERM, previous)
         server.stop()
+        work.shutdown()
         print("strutscope: stopped", flush=True)
     return 0
 
@@ -291,6 +411,26 @@ def add_arguments(parser) -> None:
         help="address to listen on (default 127.0.0.1, this computer only; another address "
         "shares the page with the network, with a warning)",
     )
+    parser.add_argument(
+        "--allow-origin",
+        action="append",
+        type=_origin,
+        metavar="URL",
+        help="an address other computers use to open the page, e.g. http://workstation.local:5006 (repeat "
+        "for more); with --host, only these, the --host address and this computer's own names are answered",
+    )
+
+
+def _origin(text: str) -> str:
+    import argparse
+
+    from app.guard import origin_entry
+
+    try:
+        origin_entry(text, 0)
+    except ValueError as error:
+        raise argparse.ArgumentTypeError(str(error)) from None
+    return text
 
 
 def _port(text: str) -> int:
@@ -312,4 +452,5 @@ def run(args) -> int:
         port=getattr(args, "port", None),
         open_browser=not getattr(args, "no_browser", False),
         host=getattr(args, "host", "127.0.0.1"),
+        allow_origin=getattr(args, "allow_origin", None) or (),
     )

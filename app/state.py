@@ -37,6 +37,7 @@ import json
 import logging
 import math
 from collections.abc import Mapping
+from functools import partial
 from typing import Any
 
 import numpy as np
@@ -492,6 +493,12 @@ class MemberState(param.Parameterized):
         doc="engine.capacity of the case (axial mode), or None without a section.",
     )
     capacity_note = param.String(default="", constant=True, doc="Why no capacity is given, when none is.")
+    notice = param.String(
+        default="", constant=True, doc="A message about the link or the served case, shown above the plots."
+    )
+    chart_note = param.String(
+        default="", constant=True, doc="Why the amplification chart is not shown (yet), when it is not."
+    )
     errors = param.Dict(
         default={}, constant=True, doc="The engine's message per field path; empty when the inputs are valid."
     )
@@ -502,8 +509,14 @@ class MemberState(param.Parameterized):
         "read as the case too.",
     )
 
-    def __init__(self, **params: Any) -> None:
+    #: Served pages solve off the event loop through an :class:`app.work.Runner`; None solves at once.
+    _runner = None
+    _refresh_id = 0
+    _failed_at = 0
+
+    def __init__(self, runner=None, **params: Any) -> None:
         super().__init__(**params)
+        self._runner = runner
         self._settled_axial_force = self.axial_force
         self._base_key: str | None = None
         self._base_case = None
@@ -663,13 +676,18 @@ class MemberState(param.Parameterized):
         self._write_link()
 
     def _write_link(self) -> None:
-        text = json.dumps(
-            self.case_mapping(axial_force=self._settled_axial_force),
-            separators=(",", ":"),
-            ensure_ascii=False,
-            allow_nan=False,
-            sort_keys=True,
-        )
+        try:
+            text = json.dumps(
+                self.case_mapping(axial_force=self._settled_axial_force),
+                separators=(",", ":"),
+                ensure_ascii=False,
+                allow_nan=False,
+                sort_keys=True,
+            )
+        except (ValueError, TypeError):
+            # A refused value (1e400 typed is infinite): the engine's message names it next to the input; the
+            # link keeps the last case it could hold (issue 11: this logged a traceback with the whole case).
+            return
         self._written_link = text
         if text != self.link:
             self.link = text
@@ -678,14 +696,31 @@ class MemberState(param.Parameterized):
         if event.new == self._written_link or not event.new:
             return
         # A link from the URL: restore its inputs even when they were invalid when it was made (the engine
-        # then shows the same message again), so that no input is lost.
+        # then shows the same message again), so that no input is lost. A link that cannot be read at all
+        # leaves the case as it was, and says why in the notice (issue 11: it silently opened the demo).
+        from app.intake import IntakeError, case_from_link
+
+        before = self.case_mapping()
         try:
-            mapping = event.new if isinstance(event.new, Mapping) else json.loads(event.new)
-            if not isinstance(mapping, Mapping):
-                raise ValueError("not a JSON object")
+            mapping = case_from_link(event.new, "link")
             self.load_mapping(mapping)
-        except (ValueError, TypeError, KeyError) as error:
-            self._fail(f"case: the link does not hold a case this page can read ({error})")
+        except IntakeError as error:
+            _log.warning("strutscope: a link was refused (%s)", error.kind)
+            self._link_failed(str(error).split(": ", 1)[-1])
+        except Exception as error:  # noqa: BLE001 - never half applied: put the previous case back
+            _log.warning("strutscope: a link was refused (%s)", type(error).__name__)
+            self.load_mapping(before)
+            self._link_failed(f"it could not be read, {type(error).__name__}")
+
+    def _link_failed(self, reason: str) -> None:
+        # Served, a solve of the case kept may still be running: it must not clear this message.
+        self._failed_at = self._refresh_id + 1
+        self._fail(f"case: the link does not hold a case this page can read ({reason}); the page keeps the "
+                   "case it had")
+
+    def _notify(self, message: str) -> None:
+        with param.edit_constant(self):
+            self.notice = message
 
     def _preset_changed(self, event) -> None:
         # The eq. (5.9) bow has the shape of the first buckling mode, and a member bow is never a sway: pick
@@ -707,31 +742,68 @@ class MemberState(param.Parameterized):
             self.errors = {_field_of(message): message}
 
     def _refresh(self, full: bool) -> None:
-        """Solve the current inputs; on bad input keep every output and record the engine's message."""
+        """Solve the current inputs; on bad input keep every output and record the engine's message.
+
+        Served, with a runner (:mod:`app.work`), only the validation happens here: the solve runs off the
+        event loop and :meth:`_solved` applies it when it is done.
+        """
         import engine
 
+        self._refresh_id += 1
         try:
             if full or self._base_case is None:
                 case = self.to_case()
             else:
                 case = dataclasses.replace(self._base_case, axial_force=self.axial_force)
-            result = engine.solve(case, stations=self.stations)
         except engine.CaseError as error:
             self._base_case = None  # the next change validates the whole case again
+            self._failed_at = self._refresh_id
             self._fail(str(error))
             return
         except Exception as error:  # never a traceback on the page: say what failed, keep the last result
-            _log.exception("solve failed")
             self._base_case = None
-            self._fail(f"case: the engine could not solve these inputs ({type(error).__name__}: {error})")
+            self._failed_at = self._refresh_id
+            self._fail(_engine_failure(error))
+            return
+        if self._runner is None:
+            self._solved(case, full, *solve_outcome(case, self.stations))
+            return
+        self._base_case = case
+        self._runner.solve(partial(_solve_job, self, case, self._refresh_id), full)
+
+    def _solved(self, case, full: bool, result, message: str, refresh_id: int | None = None) -> None:
+        """Apply a solve: its result, or its message with every output kept.
+
+        Served, a solve can finish after a later input was refused: its result is then only the last good
+        result (the refusal's message stays), and its failure is dropped.
+        """
+        if refresh_id is not None and refresh_id < self._failed_at:
+            if result is not None:
+                with param.edit_constant(self):
+                    self.result = result
+            return
+        if result is None:
+            self._base_case = None
+            self._fail(message)
             return
         self._base_case = case
         outputs: dict[str, Any] = {"result": result, "errors": {}}
         if full:
-            key = json.dumps(self.case_mapping(axial_force=0.0), sort_keys=True, default=str)
+            key = _case_key(case)
             if key != self._base_key:
-                outputs.update(self._chart_outputs(case, result))
                 self._base_key = key
+                if self._runner is None:
+                    outputs.update(self._chart_outputs(case, result))
+                else:
+                    outputs.update(sweep=None, approximation=None, chart_note="computing the chart …")
+                    self._runner.chart(partial(_chart_job, self, case, key, result.critical_loads))
+        with param.edit_constant(self):
+            self.param.update(**outputs)
+
+    def _charted(self, key: str, outputs: dict) -> None:
+        """Apply chart outputs computed off the loop, unless the case has changed since."""
+        if key != self._base_key:
+            return
         with param.edit_constant(self):
             self.param.update(**outputs)
 
@@ -746,9 +818,15 @@ class MemberState(param.Parameterized):
             outputs["sweep"] = sweep
             # The engine's 1/(1 - N/Pcr1) at the same forces (NaN from Pcr1 on).
             outputs["approximation"] = (sweep.axial_force, sweep.simple_amplification)
-        except Exception:  # the chart is secondary: keep the result, log what failed
-            _log.exception("amplification sweep failed")
-            outputs.update(sweep=None, approximation=None)
+        except Exception as error:  # the chart is secondary: keep the result, log one line without the case
+            _log.error("strutscope: amplification sweep failed (%s)", type(error).__name__)
+            outputs.update(
+                sweep=None,
+                approximation=None,
+                chart_note=f"the amplification chart could not be computed ({type(error).__name__})",
+            )
+        else:
+            outputs["chart_note"] = ""
         if case.section is not None and case.material is not None:
             try:
                 outputs.update(capacity=engine.capacity(case), capacity_note="")
@@ -767,6 +845,69 @@ class MemberState(param.Parameterized):
                 if path == prefix or path.startswith(prefix + ".") or path.startswith(prefix + "["):
                     return message
         return ""
+
+
+def solve_outcome(case, stations: int):
+    """``(result, "")`` for `case`, or ``(None, message)`` when the engine refuses or fails."""
+    import engine
+
+    try:
+        return engine.solve(case, stations=stations), ""
+    except engine.CaseError as error:
+        return None, str(error)
+    except Exception as error:  # never a traceback on the page: say what failed, keep the last result
+        return None, _engine_failure(error)
+
+
+def _engine_failure(error: BaseException) -> str:
+    """The page's words for an engine failure, and one log line without the case (issue 11)."""
+    text = " ".join(str(error).split())
+    text = text if len(text) <= 120 else text[:117] + "..."
+    _log.error("strutscope: the engine could not solve a case (%s)", type(error).__name__)
+    return f"case: the engine could not solve these inputs ({type(error).__name__}: {text})"
+
+
+def _case_key(case) -> str:
+    """A key of the case without its axial force: the chart is recomputed only when it changes."""
+    return json.dumps({**case.to_dict(), "axial_force": 0.0}, sort_keys=True, default=str)
+
+
+def _solve_job(state: MemberState, case, refresh_id: int, full: bool):
+    """Off the event loop: solve `case` (a first solve of a big case in a worker, under the budget)."""
+    from app import work
+
+    if full and len(case.loads) > work.PROBE_LOADS:
+        try:
+            work.run_in_worker("probe", work.probe_solve, (case.to_json(), state.stations), work.SOLVE_BUDGET)
+        except work.BudgetExceeded:
+            _log.warning("strutscope: a case was refused: its solve took longer than %g s", work.SOLVE_BUDGET)
+            message = (
+                f"case: solving this case takes longer than the server's budget of {work.SOLVE_BUDGET:g} s "
+                f"({len(case.loads)} loads); the previous result is kept"
+            )
+            return partial(state._solved, case, full, None, message, refresh_id)
+        except Exception:  # noqa: BLE001 - the solve below reports the engine's own message
+            pass
+    return partial(state._solved, case, full, *solve_outcome(case, state.stations), refresh_id)
+
+
+def _chart_job(state: MemberState, case, key: str, critical_loads):
+    """Off the event loop: the chart outputs from the worker process, or a note when over the budget."""
+    from app import work
+
+    try:
+        outputs = work.run_in_worker(
+            "chart", work.chart_job, (case.to_json(), chart_forces(critical_loads)), work.CHART_BUDGET
+        )
+    except work.BudgetExceeded:
+        _log.warning("strutscope: a chart was not computed: over its budget of %g s", work.CHART_BUDGET)
+        note = f"the amplification chart takes longer than the server's budget of {work.CHART_BUDGET:g} s"
+        outputs = {"sweep": None, "approximation": None, "chart_note": note}
+    except Exception as error:  # noqa: BLE001 - the chart is secondary
+        _log.error("strutscope: a chart was not computed (%s)", type(error).__name__)
+        outputs = {"sweep": None, "approximation": None,
+                   "chart_note": f"the amplification chart could not be computed ({type(error).__name__})"}
+    return partial(state._charted, key, outputs)
 
 
 def chart_forces(critical_loads) -> np.ndarray:

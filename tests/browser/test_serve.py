@@ -83,16 +83,16 @@ def test_bare_command_serves_the_demo(monkeypatch):
     calls = []
     monkeypatch.setattr(app.serve, "serve", lambda *args, **kwargs: calls.append((args, kwargs)) or 0)
     assert app.cli.main([]) == 0
-    assert calls == [((None,), {"port": None, "open_browser": True, "host": "127.0.0.1"})]
+    assert calls == [((None,), {"port": None, "open_browser": True, "host": "127.0.0.1", "allow_origin": ()})]
 
 
 @pytest.mark.parametrize(
     ("argv", "expected"),
     [
-        (["--no-browser"], ((None,), {"port": None, "open_browser": False, "host": "127.0.0.1"})),
-        (["--port", "8123"], ((None,), {"port": 8123, "open_browser": True, "host": "127.0.0.1"})),
-        (["--no-browser", "--port", "8123"], ((None,), {"port": 8123, "open_browser": False, "host": "127.0.0.1"})),
-        (["post.json", "--port", "0"], (("post.json",), {"port": 0, "open_browser": True, "host": "127.0.0.1"})),
+        (["--no-browser"], ((None,), {"port": None, "open_browser": False, "host": "127.0.0.1", "allow_origin": ()})),
+        (["--port", "8123"], ((None,), {"port": 8123, "open_browser": True, "host": "127.0.0.1", "allow_origin": ()})),
+        (["--no-browser", "--port", "8123"], ((None,), {"port": 8123, "open_browser": False, "host": "127.0.0.1", "allow_origin": ()})),
+        (["post.json", "--port", "0"], (("post.json",), {"port": 0, "open_browser": True, "host": "127.0.0.1", "allow_origin": ()})),
     ],
 )
 def test_bare_command_takes_the_serve_options(monkeypatch, argv, expected):

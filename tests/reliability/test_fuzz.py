@@ -229,10 +229,50 @@ def _demo_json() -> str:
     return _DEMO
 
 
+# Hostile strings (issue 11): lone surrogates, control characters and escape sequences, spreadsheet formula
+# prefixes, long and foreign text. Hostile structure: deep nesting, huge numbers, many loads, big files.
+_HOSTILE_TEXT = ("\ud800", "\udfff x", "a\ud83d", "\x1b[2J\x1b[31mFAKE", "line\rsummary: ok\n",
+                 "\x00\x07\x08", "=HYPERLINK(\"http://x.invalid\")", "+cmd|' /C calc'!A0", "@SUM(1+1)",
+                 "-2+3", "\tTAB", "\rCR", "x" * 5000, "梁の座屈 🏗️", "\u202eRTL")
+
+
+@st.composite
+def hostile_bytes(draw) -> bytes:
+    """A case file made hostile: strings in its title or ids, deep nesting, huge numbers or sheer size."""
+    mapping = json.loads(_demo_json())
+    kind = draw(st.sampled_from(("text", "nesting", "digits", "loads", "pad")))
+    if kind == "text":
+        text = draw(st.sampled_from(_HOSTILE_TEXT)) + draw(st.text(max_size=5))
+        where = draw(st.sampled_from(("title", "key", "load type", "support")))
+        if where == "title":
+            mapping["title"] = text
+        elif where == "key":
+            mapping[text] = 1
+        elif where == "load type":
+            mapping["loads"][0]["type"] = text
+        else:
+            mapping["supports"]["left"] = text
+        return json.dumps(mapping, ensure_ascii=draw(st.booleans())).encode("utf-8", "surrogatepass")
+    if kind == "nesting":
+        depth = draw(st.sampled_from((40, 1000, 100_000)))
+        mapping["title"] = "@@"
+        return json.dumps(mapping).replace('"@@"', "[" * depth + "]" * depth).encode()
+    if kind == "digits":
+        digits = draw(st.sampled_from((4299, 4301, 20_000)))
+        return json.dumps(mapping).replace("6.0", "1" + "0" * digits, 1).encode()
+    if kind == "loads":
+        count = draw(st.sampled_from((13, 30)))  # more rows than the page lists; the solve stays short
+        mapping["loads"] = [{"type": "point", "P": 1.0, "x": 6.0 * i / count} for i in range(count)]
+        return json.dumps(mapping).encode()
+    return json.dumps(mapping).encode() + b" " * draw(st.sampled_from((10, 999_000, 1_000_001)))
+
+
 @st.composite
 def uploaded_bytes(draw) -> bytes:
-    """File contents: a fuzzed case as JSON, the demo case cut short, or arbitrary bytes."""
-    kind = draw(st.sampled_from(("case", "case", "cut", "bytes", "text")))
+    """File contents: a fuzzed case as JSON, the demo case cut short, arbitrary bytes, or a hostile file."""
+    kind = draw(st.sampled_from(("case", "case", "cut", "bytes", "text", "hostile", "hostile")))
+    if kind == "hostile":
+        return draw(hostile_bytes())
     if kind == "case":
         return json.dumps(draw(fuzzed_case()), allow_nan=True).encode()
     if kind == "cut":
@@ -404,3 +444,6 @@ def test_hostile_batch_ids_and_comments_reach_results_neutralised(identifier, co
     assert _formula_cells(text) == []
     for _, identifier_, _, message in summary.errors:
         assert _shows_no_controls(terminal(identifier_)) and _shows_no_controls(terminal(message))
+    # whatever came in, everything the page sends on is text (a lone surrogate would fail every message)
+    page.model.link.encode("utf-8")
+    message.encode("utf-8")
