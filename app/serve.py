@@ -401,7 +401,7 @@ def add_arguments(parser) -> None:
         type=_port,
         default=None,
         metavar="N",
-        help=f"port to serve on (default {DEFAULT_PORT}, or the next free one above it; 0 picks any free one)",
+        help=f"port to serve on (default {DEFAULT_PORT}, else the next free one above it; 0: any free one)",
     )
     parser.add_argument("--no-browser", action="store_true", help="do not open a browser")
     parser.add_argument(

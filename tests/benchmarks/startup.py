@@ -37,8 +37,14 @@ from pathlib import Path
 REPO_ROOT = Path(__file__).resolve().parents[2]
 _URL = re.compile(r"at (http://127\.0\.0\.1:\d+/)")
 _CHROMIUM = "/usr/bin/chromium"
-_CHROMIUM_ARGS = ["--no-sandbox", "--disable-gpu", "--disable-background-networking",
-                  "--disable-component-update", "--disable-sync", "--no-first-run"]
+_CHROMIUM_ARGS = [
+    "--no-sandbox",
+    "--disable-gpu",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+    "--no-first-run",
+]
 
 _PIECES = r"""
 import json, time
@@ -48,7 +54,8 @@ start = t(); import numpy, scipy.linalg, scipy.optimize; out["import numpy and s
 start = t(); import engine; out["import engine"] = t() - start
 start = t(); import panel, bokeh.plotting; out["import panel and bokeh"] = t() - start
 start = t(); import app.page, app.state, app.serve; out["import the page modules"] = t() - start
-start = t(); case = app.serve._demo_case(); result = engine.solve(case); out["first solve of the demo (cold)"] = t() - start
+case = app.serve._demo_case()
+start = t(); result = engine.solve(case); out["first solve of the demo (cold)"] = t() - start
 engine.clear_caches()
 start = t(); page = app.serve.make_page(); out["build one page (solve included)"] = t() - start
 start = t(); page2 = app.serve.make_page(); out["build a second page (caches warm)"] = t() - start
@@ -71,8 +78,15 @@ def one_run(browser) -> dict:
     """Start the command once; return the seconds to the URL, the first 200 and the values drawn."""
     times: dict[str, float] = {}
     start = time.perf_counter()
-    process = subprocess.Popen([*_command(), "--no-browser", "--port", "0"], cwd=REPO_ROOT, env=_env(),
-                               stdout=subprocess.PIPE, stderr=subprocess.STDOUT, text=True, encoding="utf-8")
+    process = subprocess.Popen(
+        [*_command(), "--no-browser", "--port", "0"],
+        cwd=REPO_ROOT,
+        env=_env(),
+        stdout=subprocess.PIPE,
+        stderr=subprocess.STDOUT,
+        text=True,
+        encoding="utf-8",
+    )
     found = threading.Event()
     url: list[str] = []
 
@@ -112,8 +126,9 @@ def one_run(browser) -> dict:
 
 def pieces() -> dict:
     """Time the imports, one page build and the first solve in a fresh interpreter."""
-    done = subprocess.run([sys.executable, "-c", _PIECES], cwd=REPO_ROOT, env=_env(), capture_output=True,
-                          text=True, check=True)
+    done = subprocess.run(
+        [sys.executable, "-c", _PIECES], cwd=REPO_ROOT, env=_env(), capture_output=True, text=True, check=True
+    )
     return json.loads(done.stdout.strip().splitlines()[-1])
 
 
@@ -128,8 +143,10 @@ def main(argv=None) -> int:
         browser = playwright.chromium.launch(executable_path=_CHROMIUM, args=_CHROMIUM_ARGS)
         for index in range(args.runs):
             runs.append(one_run(browser))
-            print(f"run {index + 1}: " + ", ".join(f"{key} {value:.2f} s" for key, value in runs[-1].items()),
-                  flush=True)
+            print(
+                f"run {index + 1}: " + ", ".join(f"{key} {value:.2f} s" for key, value in runs[-1].items()),
+                flush=True,
+            )
         browser.close()
     print("\nmedians over", len(runs), "runs (from the process start):")
     for key in runs[0]:

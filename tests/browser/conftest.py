@@ -59,7 +59,7 @@ def serve_command() -> list[str]:
 class Server:
     """A running `strutscope serve` subprocess and the URL it printed."""
 
-    def __init__(self, *args: str, cwd, command: tuple[str, ...] = ("serve", "--no-browser", "--port", "0")) -> None:
+    def __init__(self, *args: str, cwd, command: tuple[str, ...] = ("serve", "--no-browser", "--port", "0")):
         env = dict(os.environ, PYTHONIOENCODING="utf-8", PYTHONUNBUFFERED="1")
         # The checkout under test goes first on the path, whatever copy of the package is installed.
         env["PYTHONPATH"] = os.pathsep.join(filter(None, [str(REPO_ROOT), env.get("PYTHONPATH")]))

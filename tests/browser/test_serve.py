@@ -79,24 +79,29 @@ def test_serving_beyond_this_computer_prints_a_warning(tmp_path):
 
 
 def test_bare_command_serves_the_demo(monkeypatch):
-    """A bare `strutscope` runs `serve` with its defaults: the demo case, the default port, 127.0.0.1, a browser."""
+    """A bare `strutscope` runs `serve` with its defaults: the demo, default port, 127.0.0.1, a browser."""
     calls = []
     monkeypatch.setattr(app.serve, "serve", lambda *args, **kwargs: calls.append((args, kwargs)) or 0)
     assert app.cli.main([]) == 0
-    assert calls == [((None,), {"port": None, "open_browser": True, "host": "127.0.0.1", "allow_origin": ()})]
+    assert calls == [_served()]
+
+
+def _served(case=None, port=None, open_browser=True):
+    """The call `strutscope serve` makes with these options (and the defaults of the others)."""
+    return ((case,), {"port": port, "open_browser": open_browser, "host": "127.0.0.1", "allow_origin": ()})
 
 
 @pytest.mark.parametrize(
     ("argv", "expected"),
     [
-        (["--no-browser"], ((None,), {"port": None, "open_browser": False, "host": "127.0.0.1", "allow_origin": ()})),
-        (["--port", "8123"], ((None,), {"port": 8123, "open_browser": True, "host": "127.0.0.1", "allow_origin": ()})),
-        (["--no-browser", "--port", "8123"], ((None,), {"port": 8123, "open_browser": False, "host": "127.0.0.1", "allow_origin": ()})),
-        (["post.json", "--port", "0"], (("post.json",), {"port": 0, "open_browser": True, "host": "127.0.0.1", "allow_origin": ()})),
+        (["--no-browser"], _served(open_browser=False)),
+        (["--port", "8123"], _served(port=8123)),
+        (["--no-browser", "--port", "8123"], _served(port=8123, open_browser=False)),
+        (["post.json", "--port", "0"], _served("post.json", port=0)),
     ],
 )
 def test_bare_command_takes_the_serve_options(monkeypatch, argv, expected):
-    """`strutscope --no-browser`, `--port N` and `strutscope CASE.json` do what `strutscope serve ...` does."""
+    """`strutscope --no-browser`, `--port N` and `strutscope CASE.json` act as `strutscope serve ...` does."""
     calls = []
     monkeypatch.setattr(app.serve, "serve", lambda *args, **kwargs: calls.append((args, kwargs)) or 0)
     assert app.cli.main(argv) == 0
@@ -113,7 +118,7 @@ def test_an_unknown_command_word_is_still_a_usage_error(capsys):
 
 
 def test_the_default_port_is_not_panels(monkeypatch):
-    """The default port is strutscope's own, not Panel's 5006, so it does not collide with another Panel app."""
+    """The default port is strutscope's own, not Panel's 5006, so as not to collide with another Panel app."""
     assert app.serve.DEFAULT_PORT != 5006
     monkeypatch.setattr(app.serve, "_port_is_free", lambda host, port: True)
     assert app.serve.choose_port("127.0.0.1", None) == (app.serve.DEFAULT_PORT, None)
@@ -125,7 +130,10 @@ def test_a_taken_default_port_moves_to_the_next_free_one_and_says_so(monkeypatch
     monkeypatch.setattr(app.serve, "_port_is_free", lambda host, port: port not in taken)
     port, note = app.serve.choose_port("127.0.0.1", None)
     assert port == app.serve.DEFAULT_PORT + 2
-    assert note == f"port {app.serve.DEFAULT_PORT} is in use (another program is serving there); using port {port}"
+    assert (
+        note
+        == f"port {app.serve.DEFAULT_PORT} is in use (another program is serving there); using port {port}"
+    )
 
 
 def test_a_taken_port_asked_for_is_an_error_that_offers_the_next_free_one(monkeypatch):
@@ -138,7 +146,7 @@ def test_a_taken_port_asked_for_is_an_error_that_offers_the_next_free_one(monkey
 
 
 def test_serving_on_a_port_that_is_really_taken_exits_with_one_line(tmp_path):
-    """The real command, asked for a port another socket listens on, exits 2 with one line and no traceback."""
+    """The real command, asked for a port another socket holds, exits 2 with one line and no traceback."""
     import socket
 
     with socket.socket() as other:
@@ -151,7 +159,11 @@ def test_serving_on_a_port_that_is_really_taken_exits_with_one_line(tmp_path):
             capture_output=True,
             text=True,
             timeout=120,
-            env={"PYTHONPATH": str(REPO_ROOT), "PATH": "/usr/bin:/bin:/usr/local/bin", "PYTHONIOENCODING": "utf-8"},
+            env={
+                "PYTHONPATH": str(REPO_ROOT),
+                "PATH": "/usr/bin:/bin:/usr/local/bin",
+                "PYTHONIOENCODING": "utf-8",
+            },
         )
     assert done.returncode == 2
     assert done.stderr.startswith(f"error: port {port} on 127.0.0.1 is in use by another program")
