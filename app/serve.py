@@ -359,7 +359,7 @@ def add_arguments(parser) -> None:
         action="append",
         type=_origin,
         metavar="URL",
-        help="an address other computers use to open the page, e.g. http://workstation.local:5006 (repeat "
+        help="an address other computers use to open the page, e.g. http://workstation.local:8080 (repeat "
         "for more); with --host, only these, the --host address and this computer's own names are answered",
     )
 
