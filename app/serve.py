@@ -390,10 +390,11 @@ def _port(text: str) -> int:
 
 def run(args) -> int:
     """Run ``strutscope serve`` with parsed `args` (``case``, ``port``, ``no_browser``, ``host``)."""
+    extra = {"allow_origin": args.allow_origin} if getattr(args, "allow_origin", None) else {}
     return serve(
         getattr(args, "case", None),
         port=getattr(args, "port", DEFAULT_PORT),
         open_browser=not getattr(args, "no_browser", False),
         host=getattr(args, "host", "127.0.0.1"),
-        allow_origin=getattr(args, "allow_origin", None) or (),
+        **extra,
     )
