@@ -416,7 +416,7 @@ def add_arguments(parser) -> None:
         action="append",
         type=_origin,
         metavar="URL",
-        help="an address other computers use to open the page, e.g. http://workstation.local:5006 (repeat "
+        help="an address other computers use to open the page, e.g. http://workstation.local:8080 (repeat "
         "for more); with --host, only these, the --host address and this computer's own names are answered",
     )
 
@@ -447,10 +447,11 @@ def _port(text: str) -> int:
 
 def run(args) -> int:
     """Run ``strutscope serve`` with parsed `args` (``case``, ``port``, ``no_browser``, ``host``)."""
+    extra = {"allow_origin": args.allow_origin} if getattr(args, "allow_origin", None) else {}
     return serve(
         getattr(args, "case", None),
         port=getattr(args, "port", None),
         open_browser=not getattr(args, "no_browser", False),
         host=getattr(args, "host", "127.0.0.1"),
-        allow_origin=getattr(args, "allow_origin", None) or (),
+        **extra,
     )
