@@ -88,7 +88,7 @@ def test_bare_command_serves_the_demo(monkeypatch):
 
 def _served(case=None, port=None, open_browser=True):
     """The call `strutscope serve` makes with these options (and the defaults of the others)."""
-    return ((case,), {"port": port, "open_browser": open_browser, "host": "127.0.0.1", "allow_origin": ()})
+    return ((case,), {"port": port, "open_browser": open_browser, "host": "127.0.0.1"})
 
 
 @pytest.mark.parametrize(
