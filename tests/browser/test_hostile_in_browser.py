@@ -16,6 +16,7 @@ from importlib import resources
 import pytest
 from playwright.sync_api import expect
 
+from engine.limits import MAX_LOADS
 from tests.browser.conftest import CHROMIUM, CHROMIUM_ARGS, TIMEOUT_MS, VIEWPORT, Server, open_page
 
 pytestmark = pytest.mark.browser
@@ -65,13 +66,13 @@ def test_the_page_does_not_work_under_a_rebinding_host_name(server):
 
 
 def test_a_heavy_upload_in_one_session_does_not_hold_another_sessions_slider(browser, server, tmp_path):
-    """Session B uploads 300 point loads; session A's slider steps are still answered meanwhile.
+    """Session B uploads the largest allowed case (`MAX_LOADS` point loads); A's slider answers meanwhile.
 
     Before issue 11, B's upload held the server for about two minutes (the amplification sweep of 300 loads
     ran on the event loop), and A's step waited behind it.
     """
     path = tmp_path / "heavy.json"
-    path.write_text(json.dumps(heavy_case(300)), encoding="utf-8")
+    path.write_text(json.dumps(heavy_case(MAX_LOADS)), encoding="utf-8")
     contexts = [browser.new_context(viewport=VIEWPORT) for _ in range(2)]
     try:
         for context in contexts:
@@ -87,7 +88,7 @@ def test_a_heavy_upload_in_one_session_does_not_hold_another_sessions_slider(bro
             handle.press("PageUp")
             expect(readout(a)).not_to_have_text(before, timeout=TIMEOUT_MS)
         # B shows its own case (or the server's budget message), never a dead page
-        expect(b.get_by_label("Case title")).to_have_value("Invented heavy case, 300 point loads",
+        expect(b.get_by_label("Case title")).to_have_value(f"Invented heavy case, {MAX_LOADS} point loads",
                                                            timeout=TIMEOUT_MS)
         expect(b.get_by_text("lost its connection")).to_have_count(0, timeout=TIMEOUT_MS)
     finally:

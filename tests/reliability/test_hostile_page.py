@@ -54,7 +54,7 @@ _HUGE = b'"length": ' + b"7" * 5000
 HOSTILE = [
     ("nesting", ("[" * 50_000 + "]" * 50_000).encode(), "nested"),
     ("nesting-in-a-case", _with_title(_DEEP), "nested"),
-    ("digits", _with_title(json.dumps(SECRET)).replace(b'"length": 6.0', _HUGE), "4300 digits"),
+    ("digits", _with_title(json.dumps(SECRET)).replace(b'"length": 6.0', _HUGE), "digits"),
     ("surrogate", _with_title('"\\ud800 ' + SECRET + '"'), "lone surrogate"),
     ("raw surrogate", _with_title('"\ud800' + SECRET + '"'), "UTF-8"),
     ("invalid utf-8", b'{"title": "' + SECRET.encode() + b'\xc3\x28"}', "UTF-8"),
