@@ -88,7 +88,9 @@ def text_problem(value: str) -> str | None:
     """Describe the first character of `value` that is not plain, printable text; None when there is none.
 
     Lone surrogates (U+D800 to U+DFFF: half of a pair, which no UTF-8 file, PDF or terminal can hold) and
-    control characters (tabs, line breaks, escape sequences, U+0000 to U+001F, U+007F to U+009F) are found.
+    control characters (tabs, line breaks, escape sequences, U+0000 to U+001F, U+007F to U+009F) are found, and
+    so are the bidirectional controls (U+202A to U+202E, U+2066 to U+2069, U+200E, U+200F, U+061C), which reorder
+    the text around them when it is shown and can make a title or an id read as something else.
 
     >>> text_problem("Post A")
     >>> text_problem("Post \\ud800")
@@ -99,10 +101,13 @@ def text_problem(value: str) -> str | None:
         if 0xD800 <= code <= 0xDFFF:
             return (f"contains a character that is not valid text (U+{code:04X}, a lone surrogate) "
                     f"at position {position}")
-        if unicodedata.category(char) == "Cc":
+        if unicodedata.category(char) == "Cc" or char in _BIDI_CONTROLS:
             return (f"contains a control character (U+{code:04X}) at position {position}; "
                     "only printable text is allowed")
     return None
+
+
+_BIDI_CONTROLS = frozenset("\u202a\u202b\u202c\u202d\u202e\u2066\u2067\u2068\u2069\u200e\u200f\u061c")
 
 
 def check_text(path: str, value: str) -> None:

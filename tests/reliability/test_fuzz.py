@@ -304,6 +304,9 @@ def test_uploaded_files_load_or_are_refused_with_a_message(upload_page, data, na
         case = engine.Case.from_json(page.upload.value)
         if not page.model.errors:
             assert page.model.result.case == case
+    # whatever came in, everything the page sends on is text (a lone surrogate would fail every message)
+    page.model.link.encode("utf-8")
+    message.encode("utf-8")
 
 
 # ----------------------------------------------------------------------------------------------- hostile text
@@ -444,6 +447,3 @@ def test_hostile_batch_ids_and_comments_reach_results_neutralised(identifier, co
     assert _formula_cells(text) == []
     for _, identifier_, _, message in summary.errors:
         assert _shows_no_controls(terminal(identifier_)) and _shows_no_controls(terminal(message))
-    # whatever came in, everything the page sends on is text (a lone surrogate would fail every message)
-    page.model.link.encode("utf-8")
-    message.encode("utf-8")
