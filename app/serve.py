@@ -25,6 +25,8 @@ __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", 
 #: strutscope does not collide with another Panel app the user already runs. When it is taken, the next free
 #: port above it is used and the one line printed at start-up says so.
 DEFAULT_PORT = 7878
+#: Seconds after start-up before the worker processes are warmed (see :func:`serve`).
+_WARM_DELAY_S = 8.0
 #: How many ports above the default are tried when it is taken.
 _PORT_TRIES = 20
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
@@ -350,7 +352,9 @@ def serve(
         )
         guard.install(server, hosts)
         server.start()
-        work.start_workers()
+        # Warm the worker processes once the first page has had the machine to itself (their imports compete
+        # with it for the CPU: start-up, issue 10); a job before then starts its worker itself.
+        server.io_loop.call_later(_WARM_DELAY_S, work.start_workers)
     except OSError as error:
         print(f"error: cannot listen on {host}:{port}: {error.strerror or error}", file=sys.stderr)
         return 2
