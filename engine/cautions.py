@@ -185,7 +185,8 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
             out.append(Caution(level="danger", code="overstressed",
                                message=(f"Strength utilisation {check.in_plane_utilization:.3f} > 1 "
                                         f"({check.in_plane_kind}): the member does not work as analysed."),
-                               source=check.source if check.kind != "deflection" else
+                               # check.source is the governing check's, which may be the out-of-plane one
+                               source=check.source if check.kind == check.in_plane_kind else
                                "EN 1993-1-1:2005 §6.2 (clause numbers from memory)"))
         if service is not None and service.utilization > 1.0:
             out.append(Caution(level="warning", code="deflection",

@@ -142,3 +142,17 @@ def test_cautions_are_ordered_by_severity():
     levels = [c.level for c in r.cautions]
     rank = {"danger": 0, "warning": 1, "info": 2}
     assert levels == sorted(levels, key=rank.get)
+
+
+def test_the_in_plane_overstress_cites_the_cross_section_clause_when_out_of_plane_governs():
+    """Demo (invented) at 1500 kN fails in plane (1.014) and out of plane (1.81): the in-plane caution cites
+    EN 1993-1-1 §6.2 (cross-section), not the out-of-plane member check's §6.3.1 that governs the headline."""
+    import dataclasses
+    from importlib import resources
+
+    demo = engine.Case.from_json(resources.files("assets").joinpath("demo_wind_post.json").read_text("utf-8"))
+    result = engine.solve(dataclasses.replace(demo, axial_force=1500e3))
+    assert result.check.kind == "out-of-plane buckling"
+    overstressed = [c for c in result.cautions if c.code == "overstressed"]
+    assert len(overstressed) == 1
+    assert "§6.2" in overstressed[0].source and "6.3.1" not in overstressed[0].source
