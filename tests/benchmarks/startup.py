@@ -34,17 +34,10 @@ import time
 import urllib.request
 from pathlib import Path
 
+from tests.browser.conftest import CHROMIUM, CHROMIUM_ARGS
+
 REPO_ROOT = Path(__file__).resolve().parents[2]
 _URL = re.compile(r"at (http://127\.0\.0\.1:\d+/)")
-_CHROMIUM = "/usr/bin/chromium"
-_CHROMIUM_ARGS = [
-    "--no-sandbox",
-    "--disable-gpu",
-    "--disable-background-networking",
-    "--disable-component-update",
-    "--disable-sync",
-    "--no-first-run",
-]
 
 _PIECES = r"""
 import json, time
@@ -140,7 +133,7 @@ def main(argv=None) -> int:
 
     runs = []
     with sync_playwright() as playwright:
-        browser = playwright.chromium.launch(executable_path=_CHROMIUM, args=_CHROMIUM_ARGS)
+        browser = playwright.chromium.launch(executable_path=CHROMIUM, args=CHROMIUM_ARGS)
         for index in range(args.runs):
             runs.append(one_run(browser))
             print(

@@ -12,6 +12,19 @@ import app.serve
 from tests.browser.conftest import REPO_ROOT, Server, serve_command
 
 
+def run_serve(args: list[str], cwd) -> subprocess.CompletedProcess:
+    """Run the real command with `args` until it exits (a refusal), with a plain environment."""
+    return subprocess.run(
+        [*serve_command(), *args],
+        cwd=cwd,
+        capture_output=True,
+        text=True,
+        timeout=120,
+        env={"PYTHONPATH": str(REPO_ROOT), "PATH": "/usr/bin:/bin:/usr/local/bin",
+             "PYTHONIOENCODING": "utf-8"},
+    )
+
+
 def test_serve_prints_its_url_serves_the_page_and_stops_cleanly(tmp_path):
     """The command prints the URL, answers on it with the page, and exits with 0 on Ctrl+C."""
     case = tmp_path / "invented.json"
@@ -52,18 +65,7 @@ def test_serve_refuses_an_invalid_case_with_the_engines_message(tmp_path):
         ),
         encoding="utf-8",
     )
-    done = subprocess.run(
-        [*serve_command(), "serve", str(case), "--no-browser", "--port", "0"],
-        cwd=tmp_path,
-        capture_output=True,
-        text=True,
-        timeout=120,
-        env={
-            "PYTHONPATH": str(REPO_ROOT),
-            "PATH": "/usr/bin:/bin:/usr/local/bin",
-            "PYTHONIOENCODING": "utf-8",
-        },
-    )
+    done = run_serve(["serve", str(case), "--no-browser", "--port", "0"], tmp_path)
     assert done.returncode == 2
     assert done.stderr.startswith(f"error: {case}: loads[0].x: 4.0 m lies outside the member")
     assert "Traceback" not in done.stderr
@@ -153,18 +155,7 @@ def test_serving_on_a_port_that_is_really_taken_exits_with_one_line(tmp_path):
         other.bind(("127.0.0.1", 0))
         other.listen()
         port = other.getsockname()[1]
-        done = subprocess.run(
-            [*serve_command(), "--no-browser", "--port", str(port)],
-            cwd=tmp_path,
-            capture_output=True,
-            text=True,
-            timeout=120,
-            env={
-                "PYTHONPATH": str(REPO_ROOT),
-                "PATH": "/usr/bin:/bin:/usr/local/bin",
-                "PYTHONIOENCODING": "utf-8",
-            },
-        )
+        done = run_serve(["--no-browser", "--port", str(port)], tmp_path)
     assert done.returncode == 2
     assert done.stderr.startswith(f"error: port {port} on 127.0.0.1 is in use by another program")
     assert len(done.stderr.strip().splitlines()) == 1

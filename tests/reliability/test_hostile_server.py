@@ -21,13 +21,9 @@ import pytest
 
 from engine.limits import MAX_LOADS
 from tests.browser.conftest import TIMEOUT_MS, Server
+from tests.reliability.test_defaults import port_of
 
 _WAIT_S = TIMEOUT_MS / 1000  # the suite's limit for any one wait (a hang check, not a speed check)
-
-
-def port_of(url: str) -> int:
-    """The port in a served URL."""
-    return int(re.search(r":(\d+)/", url).group(1))
 
 
 @pytest.fixture(scope="module")
@@ -105,8 +101,9 @@ def test_every_address_never_makes_a_wildcard_origin(tmp_path):
     running = Server("--host", "0.0.0.0", "--allow-origin", "workstation.example", cwd=tmp_path)
     try:
         port = port_of(running.url)
-        text = "".join(running.output)
-        assert f"http://workstation.example:{port}/" in text
+        # The addresses are printed after the URL: wait for that line rather than read what has come so far.
+        line = running.wait_for(re.compile(r"other computers can open it at .*"))
+        assert f"http://workstation.example:{port}/" in line.group(0)
         assert get(port, f"10.1.2.3:{port}")[0] == 403
         assert get(port, f"evil.example:{port}")[0] == 403
         assert get(port, f"workstation.example:{port}")[0] == 200
