@@ -106,7 +106,9 @@ def step_all(sessions: list[Session], steps: int) -> list[float]:
     latencies = []
     for _ in range(steps):
         for session in sessions:
-            session.page.keyboard.press("ArrowRight")
+            # Press on the handle itself (it takes the focus first): a late first result rescales the slider,
+            # and a re-rendered handle loses the keyboard focus it was given when the sessions were opened.
+            session.page.locator(".noUi-handle").first.press("ArrowRight")
         for session in sessions:
             session.count += 1
             session.page.wait_for_function("n => window.ssProbe.count >= n", arg=session.count)
