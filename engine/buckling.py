@@ -26,7 +26,7 @@ import math
 from dataclasses import dataclass, field
 
 import numpy as np
-from scipy.optimize import brentq
+from engine.roots import brentq
 
 from engine.functions import phi
 from engine.supports import boundary_rows

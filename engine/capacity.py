@@ -26,7 +26,7 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.optimize import brentq
+from engine.roots import brentq
 
 from engine.errors import CaseError
 from engine.out_of_plane import KIND as OUT_OF_PLANE
