@@ -98,47 +98,80 @@ class Column:
 
 #: The columns of the members table, in the order the README lists them.
 COLUMNS: tuple[Column, ...] = (
-    Column(name="id", required=True,
-           description="The member's identifier: letters, digits, '.', '_' and '-', up to 64 characters, "
-                       "unique in the table (it names the calc sheet <id>.pdf)."),
+    Column(
+        name="id",
+        required=True,
+        description="The member's identifier: letters, digits, '.', '_' and '-', up to 64 characters, "
+        "unique in the table (it names the calc sheet <id>.pdf).",
+    ),
     Column(name="length_m", required=True, description="Length L [m], 0.001 to 1000."),
-    Column(name="left", required=True,
-           description="Support at x = 0 (the bottom of a vertical member): pinned, fixed, free or guided."),
+    Column(
+        name="left",
+        required=True,
+        description="Support at x = 0 (the bottom of a vertical member): pinned, fixed, free or guided.",
+    ),
     Column(name="right", required=True, description="Support at x = L: pinned, fixed, free or guided."),
-    Column(name="section", required=False,
-           description="A catalogue section such as 'HEB 200', 'IPE 300', 'SHS 100x100x5' or 'TIMBER 45x195' "
-                       "(case- and space-insensitive). Empty: give EI_kNm2."),
-    Column(name="material", required=False,
-           description="A catalogued material: S235, S275, S355, S460, ASTM A992, ASTM A36, C24, GL24h or "
-                       "EN AW-6082 T6. Empty: give EI_kNm2 (no member check)."),
-    Column(name="EI_kNm2", required=False,
-           description="Bending stiffness EI [kN·m²], > 0; overrides the section and material when given."),
-    Column(name="axis", required=False,
-           description="Axis of bending: major or minor. Empty: major."),
-    Column(name="axial_kN", required=False,
-           description="Axial force P [kN], compression positive, tension negative. Empty: 0."),
-    Column(name="udl_kN_per_m", required=False,
-           description="Uniform transverse load q over the whole length [kN/m]. Empty: none."),
-    Column(name="point_loads", required=False,
-           description="Transverse point loads as force@position in kN@m, separated by ';': "
-                       "'7@2.0;3.5@4'. Empty: none."),
-    Column(name="bow", required=False,
-           description="Initial bow: none; a code preset en1993-table-5.1, en1993-eq-5.9 or aisc-l/1000, the "
-                       "EN 1993-1-1 ones optionally with a buckling curve after a colon (en1993-table-5.1:c; "
-                       "otherwise the curve follows from the section and material); L/n such as L/300; or an "
-                       "amplitude such as 12mm (a half sine wave). Empty: none."),
-    Column(name="check_method", required=False,
-           description="Member check: elastic or plastic. Empty: elastic."),
-    Column(name="deflection_limit", required=False,
-           description="n of the deflection limit span/n. Empty: 250."),
-    Column(name="Lcr_out_m", required=False,
-           description="Out-of-plane buckling length L_cr [m] (flexural buckling about the other axis, EN "
-                       "1993-1-1 §6.3.1). Empty: the member length."),
-    Column(name="out_of_plane", required=False,
-           description="restrained when out-of-plane buckling is prevented (no check about the other axis). "
-                       "Empty: checked."),
-    Column(name="comment", required=False,
-           description="Free text, not read (it goes into the case title)."),
+    Column(
+        name="section",
+        required=False,
+        description="A catalogue section such as 'HEB 200', 'IPE 300', 'SHS 100x100x5' or 'TIMBER 45x195' "
+        "(case- and space-insensitive). Empty: give EI_kNm2.",
+    ),
+    Column(
+        name="material",
+        required=False,
+        description="A catalogued material: S235, S275, S355, S460, ASTM A992, ASTM A36, C24, GL24h or "
+        "EN AW-6082 T6. Empty: give EI_kNm2 (no member check).",
+    ),
+    Column(
+        name="EI_kNm2",
+        required=False,
+        description="Bending stiffness EI [kN·m²], > 0; overrides the section and material when given.",
+    ),
+    Column(name="axis", required=False, description="Axis of bending: major or minor. Empty: major."),
+    Column(
+        name="axial_kN",
+        required=False,
+        description="Axial force P [kN], compression positive, tension negative. Empty: 0.",
+    ),
+    Column(
+        name="udl_kN_per_m",
+        required=False,
+        description="Uniform transverse load q over the whole length [kN/m]. Empty: none.",
+    ),
+    Column(
+        name="point_loads",
+        required=False,
+        description="Transverse point loads as force@position in kN@m, separated by ';': "
+        "'7@2.0;3.5@4'. Empty: none.",
+    ),
+    Column(
+        name="bow",
+        required=False,
+        description="Initial bow: none; a code preset en1993-table-5.1, en1993-eq-5.9 or aisc-l/1000, the "
+        "EN 1993-1-1 ones optionally with a buckling curve after a colon (en1993-table-5.1:c; "
+        "otherwise the curve follows from the section and material); L/n such as L/300; or an "
+        "amplitude such as 12mm (a half sine wave). Empty: none.",
+    ),
+    Column(
+        name="check_method", required=False, description="Member check: elastic or plastic. Empty: elastic."
+    ),
+    Column(
+        name="deflection_limit", required=False, description="n of the deflection limit span/n. Empty: 250."
+    ),
+    Column(
+        name="Lcr_out_m",
+        required=False,
+        description="Out-of-plane buckling length L_cr [m] (flexural buckling about the other axis, EN "
+        "1993-1-1 §6.3.1). Empty: the member length.",
+    ),
+    Column(
+        name="out_of_plane",
+        required=False,
+        description="restrained when out-of-plane buckling is prevented (no check about the other axis). "
+        "Empty: checked.",
+    ),
+    Column(name="comment", required=False, description="Free text, not read (it goes into the case title)."),
 )
 
 _BY_KEY = {column.name.lower(): column for column in COLUMNS}
@@ -146,11 +179,28 @@ _REQUIRED = tuple(column.name for column in COLUMNS if column.required)
 
 # The results table's columns; the unit-bearing ones get their unit suffix from the units system.
 _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
-    ("id", None), ("row", None), ("status", None), ("field", None), ("message", None), ("stability", None),
-    ("Pcr1", "force"), ("alpha_cr", None), ("M_max", "moment"), ("x_M", "length"), ("V_max", "force"),
-    ("x_V", "length"), ("w_max", "small_length"), ("x_w", "length"), ("amplification_moment", None),
-    ("utilization", None), ("deflection_utilization", None), ("governing_check", None),
-    ("out_of_plane_utilization", None), ("section_class", None), ("capacity", "force"), ("capacity_check", None),
+    ("id", None),
+    ("row", None),
+    ("status", None),
+    ("field", None),
+    ("message", None),
+    ("stability", None),
+    ("Pcr1", "force"),
+    ("alpha_cr", None),
+    ("M_max", "moment"),
+    ("x_M", "length"),
+    ("V_max", "force"),
+    ("x_V", "length"),
+    ("w_max", "small_length"),
+    ("x_w", "length"),
+    ("amplification_moment", None),
+    ("utilization", None),
+    ("deflection_utilization", None),
+    ("governing_check", None),
+    ("out_of_plane_utilization", None),
+    ("section_class", None),
+    ("capacity", "force"),
+    ("capacity_check", None),
     ("cautions", None),
 )
 _SUFFIXES = {
@@ -172,7 +222,8 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
     tuple of str
         ``id, row, status, field, message, stability, Pcr1_kN, alpha_cr, M_max_kNm, x_M_m, V_max_kN, x_V_m,
         w_max_mm, x_w_m, amplification_moment, utilization, deflection_utilization, governing_check,
-        out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions`` in SI. ``utilization``
+        out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions`` in SI.
+        ``utilization``
         is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
         bow).
     """
@@ -262,32 +313,39 @@ def _header(reader) -> list[str]:
     try:
         cells = next(reader)
     except StopIteration:
-        raise TableError("the file is empty; the first row must name the columns, e.g. "
-                         f"{','.join(_REQUIRED)}") from None
+        raise TableError(
+            f"the file is empty; the first row must name the columns, e.g. {','.join(_REQUIRED)}"
+        ) from None
     names: list[str] = []
     for position, cell in enumerate(cells, start=1):
         key = cell.strip().lower()
-        if key == "" and all(not c.strip() for c in cells[position - 1:]):
+        if key == "" and all(not c.strip() for c in cells[position - 1 :]):
             break  # trailing empty header cells, as spreadsheets write them
         column = _BY_KEY.get(key)
         if column is None:
             hint = ""
             if ";" in cell or "\t" in cell:
-                hint = (" (the columns seem to be separated by ';' or tabs; strutscope reads comma-separated "
-                        "values: export as CSV with commas)")
+                hint = (
+                    " (the columns seem to be separated by ';' or tabs; strutscope reads comma-separated "
+                    "values: export as CSV with commas)"
+                )
             else:
                 near = difflib.get_close_matches(key, list(_BY_KEY), n=1, cutoff=0.6)
                 if near:
                     hint = f" (did you mean {_BY_KEY[near[0]].name!r}?)"
-            raise TableError(f"column {position}: unknown column {cell.strip()!r}{hint}; allowed columns: "
-                             f"{', '.join(c.name for c in COLUMNS)}")
+            raise TableError(
+                f"column {position}: unknown column {cell.strip()!r}{hint}; allowed columns: "
+                f"{', '.join(c.name for c in COLUMNS)}"
+            )
         if column.name in names:
             raise TableError(f"column {position}: {column.name!r} is given twice")
         names.append(column.name)
     missing = [name for name in _REQUIRED if name not in names]
     if missing:
-        raise TableError(f"required column{'s' if len(missing) > 1 else ''} missing: {', '.join(missing)} "
-                         f"(the header row names the columns)")
+        raise TableError(
+            f"required column{'s' if len(missing) > 1 else ''} missing: {', '.join(missing)} "
+            f"(the header row names the columns)"
+        )
     return names
 
 
@@ -304,30 +362,49 @@ def _records(path: str) -> Iterator[tuple[int, dict[str, str] | RowError]]:
                 row, start = start, reader.line_num + 1
                 if not any(cell.strip() for cell in cells):
                     continue
-                broken = [name for name, cell in zip(names, cells, strict=False)
-                          if name != "comment" and ("\n" in cell or "\r" in cell)]
+                broken = [
+                    name
+                    for name, cell in zip(names, cells, strict=False)
+                    if name != "comment" and ("\n" in cell or "\r" in cell)
+                ]
                 if broken:  # a quote closed lines later: the rows between ran into one cell
                     padded = cells + [""] * len(names)
                     identifier = "" if "id" in broken else padded[names.index("id")].strip()
-                    yield row, RowError(broken[0], f"{broken[0]}: the cell runs over lines {row} to "
-                                                   f"{reader.line_num}: a quote (\") in it is probably not "
-                                                   "closed", identifier)
+                    yield (
+                        row,
+                        RowError(
+                            broken[0],
+                            f"{broken[0]}: the cell runs over lines {row} to "
+                            f'{reader.line_num}: a quote (") in it is probably not '
+                            "closed",
+                            identifier,
+                        ),
+                    )
                     continue
-                extra = [cell for cell in cells[len(names):] if cell.strip()]
+                extra = [cell for cell in cells[len(names) :] if cell.strip()]
                 if extra:
                     identifier = cells[names.index("id")].strip()
-                    yield row, RowError("", f"the row has {len(names) + len(extra)} or more filled cells but "
-                                            f"the header names {len(names)} columns", identifier)
+                    yield (
+                        row,
+                        RowError(
+                            "",
+                            f"the row has {len(names) + len(extra)} or more filled cells but "
+                            f"the header names {len(names)} columns",
+                            identifier,
+                        ),
+                    )
                     continue
                 padded = cells + [""] * (len(names) - len(cells))  # spreadsheets drop empty trailing cells
                 yield row, {name: padded[i].strip() for i, name in enumerate(names)}
         except csv.Error as error:
             if "unexpected end of data" in str(error):
-                raise TableError(f"line {start}: a quoted cell that starts on this line is never closed (a "
-                                 f"quote \" is missing); the table is not read, so that no rows are lost") \
-                    from None
-            raise TableError(f"line {start}: not readable as CSV ({error}); check the quotes (\") on this "
-                             "line") from None
+                raise TableError(
+                    f"line {start}: a quoted cell that starts on this line is never closed (a "
+                    f'quote " is missing); the table is not read, so that no rows are lost'
+                ) from None
+            raise TableError(
+                f'line {start}: not readable as CSV ({error}); check the quotes (") on this line'
+            ) from None
         except UnicodeDecodeError as error:
             raise TableError(f"not UTF-8 text ({error.reason}); save the table as CSV UTF-8") from None
 
@@ -346,8 +423,9 @@ def _number(column: str, text: str, unit: str, example: str) -> float:
         value = float(text)
     except ValueError:
         hint = " (use a decimal point, not a comma)" if re.fullmatch(r"[-+]?\d+,\d+", text) else ""
-        raise RowError(column, f"{column}: {text!r} is not a number{hint}; give {unit}, e.g. "
-                               f"{example}") from None
+        raise RowError(
+            column, f"{column}: {text!r} is not a number{hint}; give {unit}, e.g. {example}"
+        ) from None
     if not math.isfinite(value):
         raise RowError(column, f"{column}: {text!r} is not a finite number; give {unit}, e.g. {example}")
     return value
@@ -358,16 +436,21 @@ def _point_loads(text: str) -> list[tuple[float, float]]:
 
     parts = [part for part in text.split(";") if part.strip()]
     if len(parts) > MAX_LOADS:  # refused before any is read, as the engine refuses a case file's loads
-        raise RowError("point_loads", f"point_loads: {len(parts)} point loads given; a member may have at "
-                                      f"most {MAX_LOADS} loads")
+        raise RowError(
+            "point_loads",
+            f"point_loads: {len(parts)} point loads given; a member may have at most {MAX_LOADS} loads",
+        )
     loads = []
     for part in parts:
         if not part.strip():
             continue
         match = _POINT_LOAD.fullmatch(part)
         if match is None:
-            raise RowError("point_loads", f"point_loads: {part.strip()!r} is not a point load; write each as "
-                                          f"force_kN@position_m, separated by ';', e.g. '7@2.0;3.5@4'")
+            raise RowError(
+                "point_loads",
+                f"point_loads: {part.strip()!r} is not a point load; write each as "
+                f"force_kN@position_m, separated by ';', e.g. '7@2.0;3.5@4'",
+            )
         loads.append((float(match.group(1)), float(match.group(2))))
     return loads
 
@@ -393,9 +476,12 @@ def _bow(text: str) -> dict:
     match = _MM_BOW.fullmatch(text)
     if match is not None:
         return {"shape": "sine", "amplitude": float(match.group(1)) * _MILLI}
-    raise RowError("bow", f"bow: {text!r} is not a bow; allowed: none, {', '.join(_PRESET_BOWS)} (the "
-                          f"EN 1993-1-1 ones with a buckling curve after a colon if wanted, e.g. "
-                          f"en1993-table-5.1:c), L/n such as L/300, or an amplitude in mm such as 12mm")
+    raise RowError(
+        "bow",
+        f"bow: {text!r} is not a bow; allowed: none, {', '.join(_PRESET_BOWS)} (the "
+        f"EN 1993-1-1 ones with a buckling curve after a colon if wanted, e.g. "
+        f"en1993-table-5.1:c), L/n such as L/300, or an amplitude in mm such as 12mm",
+    )
 
 
 def _column_of(path: str, row: Mapping[str, str], load_columns: list[str]) -> str:
@@ -420,8 +506,15 @@ def _column_of(path: str, row: Mapping[str, str], load_columns: list[str]) -> st
         return "out_of_plane" if "restrained" in path else "Lcr_out_m"
     if head == "check":
         return "deflection_limit" if "deflection_limit" in path else "check_method"
-    return {"length": "length_m", "axial_force": "axial_kN", "imperfection": "bow", "section": "section",
-            "material": "material", "axis": "axis", "case": "id"}.get(head, head)
+    return {
+        "length": "length_m",
+        "axial_force": "axial_kN",
+        "imperfection": "bow",
+        "section": "section",
+        "material": "material",
+        "axis": "axis",
+        "case": "id",
+    }.get(head, head)
 
 
 def _engine_error(error: Exception, row: Mapping[str, str], load_columns: list[str]) -> RowError:
@@ -462,9 +555,12 @@ def member_case(row: Mapping[str, str]):
             raise RowError(name, f"{name}: the cell is empty; {_BY_KEY[name.lower()].description}")
     identifier = cell("id")
     if not _ID_PATTERN.fullmatch(identifier):
-        raise RowError("id", f"id: {identifier!r} may hold only letters, digits, '.', '_' and '-' (up to "
-                             f"64 characters, starting with a letter or digit): it names the calc sheet "
-                             f"<id>.pdf")
+        raise RowError(
+            "id",
+            f"id: {identifier!r} may hold only letters, digits, '.', '_' and '-' (up to "
+            f"64 characters, starting with a letter or digit): it names the calc sheet "
+            f"<id>.pdf",
+        )
     data: dict = {
         "schema": 1,
         "title": f"{identifier}: {_plain(cell('comment'))}"[:200] if _plain(cell("comment")) else identifier,
@@ -498,14 +594,18 @@ def member_case(row: Mapping[str, str]):
     if cell("check_method"):
         check["method"] = cell("check_method").lower()
     if cell("deflection_limit"):
-        check["deflection_limit"] = _number("deflection_limit", cell("deflection_limit"), "the n of span/n",
-                                            "250")
+        check["deflection_limit"] = _number(
+            "deflection_limit", cell("deflection_limit"), "the n of span/n", "250"
+        )
     if check:
         data["check"] = check
     state = cell("out_of_plane").lower()
     if state not in ("", "restrained", "checked"):
-        raise RowError("out_of_plane", f"out_of_plane: {cell('out_of_plane')!r} is not allowed; allowed: "
-                                       "'restrained', 'checked' or empty (checked)")
+        raise RowError(
+            "out_of_plane",
+            f"out_of_plane: {cell('out_of_plane')!r} is not allowed; allowed: "
+            "'restrained', 'checked' or empty (checked)",
+        )
     if state == "restrained":
         data["out_of_plane"] = {"restrained": True}
     if cell("Lcr_out_m"):
@@ -573,28 +673,43 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         found = engine.capacity(case)
         capacity_force, capacity_check = found.axial_force, found.check
     failing = (result.utilization is not None and result.utilization > 1.0) or any(
-        caution.level == "danger" for caution in result.cautions)
+        caution.level == "danger" for caution in result.cautions
+    )
     record = [
-        identifier, str(row), "ok", "", result.message, result.status,
-        _cell(result.critical_loads[0], force), _cell(result.alpha_cr),
-        _cell(governing.moment.value, moment), _cell(governing.moment.x, length),
-        _cell(governing.shear.value, force), _cell(governing.shear.x, length),
-        _cell(governing.deflection.value, small), _cell(governing.deflection.x, length),
-        _cell(result.amplification.moment), _cell(result.utilization),
+        identifier,
+        str(row),
+        "ok",
+        "",
+        result.message,
+        result.status,
+        _cell(result.critical_loads[0], force),
+        _cell(result.alpha_cr),
+        _cell(governing.moment.value, moment),
+        _cell(governing.moment.x, length),
+        _cell(governing.shear.value, force),
+        _cell(governing.shear.x, length),
+        _cell(governing.deflection.value, small),
+        _cell(governing.deflection.x, length),
+        _cell(result.amplification.moment),
+        _cell(result.utilization),
         _cell(None if result.service is None else result.service.utilization),
         "" if check is None else check.kind,
         "" if check is None or check.out_of_plane is None else _cell(check.out_of_plane.utilization),
         "" if check is None or check.section_class is None else str(check.section_class.klass),
-        _cell(capacity_force, force), capacity_check or "",
+        _cell(capacity_force, force),
+        capacity_check or "",
         ";".join(caution.code for caution in result.cautions),
     ]
     wrote = False
     if options.pdf_dir is not None:
         from app.exports import pdf_bytes
 
-        _write_atomically(os.path.join(options.pdf_dir, f"{identifier}.pdf"),
-                          pdf_bytes(result, units=options.units, prepared_by=options.prepared_by,
-                                    checked_by=options.checked_by))
+        _write_atomically(
+            os.path.join(options.pdf_dir, f"{identifier}.pdf"),
+            pdf_bytes(
+                result, units=options.units, prepared_by=options.prepared_by, checked_by=options.checked_by
+            ),
+        )
         wrote = True
     return record, failing, wrote
 
@@ -622,8 +737,10 @@ def _solve_chunk(chunk: list[tuple[int, object]], options: _Options) -> list[tup
         except RowError as error:
             out.append((_error_record(row, identifier, error.column, str(error)), False, False))
         except Exception as error:  # noqa: BLE001 -- one member's failure must not stop the table
-            message = (f"unexpected error while solving this member ({type(error).__name__}: {error}); "
-                       "please report it with the row")
+            message = (
+                f"unexpected error while solving this member ({type(error).__name__}: {error}); "
+                "please report it with the row"
+            )
             out.append((_error_record(row, identifier, "", message), False, False))
     return out
 
@@ -658,8 +775,15 @@ def _checked_ids(records: Iterable[tuple[int, object]]) -> Iterator[tuple[int, o
         if isinstance(cells, dict):
             identifier = cells.get("id", "")
             if identifier and identifier in seen:
-                yield row, RowError("id", f"id: {identifier!r} is already used on row {seen[identifier]}; "
-                                          f"ids must be unique (they name the calc sheets)", identifier)
+                yield (
+                    row,
+                    RowError(
+                        "id",
+                        f"id: {identifier!r} is already used on row {seen[identifier]}; "
+                        f"ids must be unique (they name the calc sheets)",
+                        identifier,
+                    ),
+                )
                 continue
             if identifier:
                 seen[identifier] = row
@@ -687,10 +811,21 @@ def _solved_in_order(chunks: Iterator[list], options: _Options, workers: int) ->
                 future.cancel()
 
 
-def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, workers: int | None = None,
-        stations: int = 401, capacity: bool = True, progress: bool | None = None, prepared_by: str = "",
-        checked_by: str = "", error_limit: int = 20,
-        on_progress: Callable[[int], None] | None = None) -> BatchSummary:
+def run(
+    table: str,
+    out_dir: str,
+    *,
+    units: str = "si",
+    pdf: bool = False,
+    workers: int | None = None,
+    stations: int = 401,
+    capacity: bool = True,
+    progress: bool | None = None,
+    prepared_by: str = "",
+    checked_by: str = "",
+    error_limit: int = 20,
+    on_progress: Callable[[int], None] | None = None,
+) -> BatchSummary:
     """Solve every member of a table and write ``out_dir/results.csv`` (and the calc sheets).
 
     Parameters
@@ -742,17 +877,42 @@ def run(table: str, out_dir: str, *, units: str = "si", pdf: bool = False, worke
     os.makedirs(out_dir, exist_ok=True)
     with outdir.locked(out_dir):
         try:
-            return _run_locked(table, out_dir, total, units=units, pdf=pdf, workers=workers,
-                               stations=stations, capacity=capacity, progress=progress,
-                               prepared_by=prepared_by, checked_by=checked_by, error_limit=error_limit,
-                               on_progress=on_progress)
+            return _run_locked(
+                table,
+                out_dir,
+                total,
+                units=units,
+                pdf=pdf,
+                workers=workers,
+                stations=stations,
+                capacity=capacity,
+                progress=progress,
+                prepared_by=prepared_by,
+                checked_by=checked_by,
+                error_limit=error_limit,
+                on_progress=on_progress,
+            )
         except BaseException:
             outdir.remove_temporaries(out_dir)  # what stopped workers may have left
             raise
 
 
-def _run_locked(table: str, out_dir: str, total: int, *, units, pdf, workers, stations, capacity, progress,
-                prepared_by, checked_by, error_limit, on_progress) -> BatchSummary:
+def _run_locked(
+    table: str,
+    out_dir: str,
+    total: int,
+    *,
+    units,
+    pdf,
+    workers,
+    stations,
+    capacity,
+    progress,
+    prepared_by,
+    checked_by,
+    error_limit,
+    on_progress,
+) -> BatchSummary:
     """:func:`run` once the folder is locked."""
     manifest = outdir.Manifest(out_dir)
     workers = default_workers() if workers is None else max(1, int(workers))
@@ -760,9 +920,14 @@ def _run_locked(table: str, out_dir: str, total: int, *, units, pdf, workers, st
     # Chunks of a few dozen rows keep the cost of passing work between processes small beside the solves,
     # while leaving enough chunks to keep every worker busy to the end.
     size = max(1, min(64, total // (used * 8))) if used > 1 else 16
-    options = _Options(units=units, stations=stations, capacity=capacity,
-                       pdf_dir=os.path.abspath(out_dir) if pdf else None, prepared_by=prepared_by,
-                       checked_by=checked_by)
+    options = _Options(
+        units=units,
+        stations=stations,
+        capacity=capacity,
+        pdf_dir=os.path.abspath(out_dir) if pdf else None,
+        prepared_by=prepared_by,
+        checked_by=checked_by,
+    )
     target = os.path.join(out_dir, RESULTS_FILE)
     summary = BatchSummary(results=target, workers=used)
 
@@ -777,8 +942,9 @@ def _run_locked(table: str, out_dir: str, total: int, *, units, pdf, workers, st
         if tqdm is not None:
             bar = tqdm(total=total, unit="member", file=sys.stderr, dynamic_ncols=True, leave=False)
 
-    handle, temporary = tempfile.mkstemp(dir=out_dir, prefix=f"{outdir.TEMPORARY_PREFIX}results-",
-                                         suffix=".csv.part")
+    handle, temporary = tempfile.mkstemp(
+        dir=out_dir, prefix=f"{outdir.TEMPORARY_PREFIX}results-", suffix=".csv.part"
+    )
     try:
         with os.fdopen(handle, "w", encoding="utf-8", newline="") as stream:
             writer = csv_writer(stream)  # every cell neutralised against formulas (app.safe_text)

@@ -126,12 +126,16 @@ def _load(shown, load, length: float) -> str:
     kind = getattr(load, "type", type(load).__name__)
     if kind == "uniform":
         a, b = load.span(length)
-        return (f"uniform q = {shown.show('line_load', load.q)} from x = {_position(shown, a)} "
-                f"to {_position(shown, b)}")
+        return (
+            f"uniform q = {shown.show('line_load', load.q)} from x = {_position(shown, a)} "
+            f"to {_position(shown, b)}"
+        )
     if kind == "linear":
         a, b = load.span(length)
-        return (f"linear q = {shown.show('line_load', load.q_start)} to {shown.show('line_load', load.q_end)}"
-                f" from x = {_position(shown, a)} to {_position(shown, b)}")
+        return (
+            f"linear q = {shown.show('line_load', load.q_start)} to {shown.show('line_load', load.q_end)}"
+            f" from x = {_position(shown, a)} to {_position(shown, b)}"
+        )
     if kind == "point":
         return f"point P = {shown.show('force', load.P)} at x = {_position(shown, load.x)}"
     if kind == "couple":
@@ -151,8 +155,10 @@ def _imperfection(shown, imperfection, length: float) -> str:
     if imperfection.shape == "none" or imperfection.amplitude == 0:
         return "none"
     # L/|a| is how bows are specified in practice (EN 1993-1-1 table 5.1 gives e0/L as 1/300 and so on).
-    return (f"{imperfection.shape}, amplitude {shown.show('small_length', imperfection.amplitude)}"
-            f" (L/{length / abs(imperfection.amplitude):.0f})")
+    return (
+        f"{imperfection.shape}, amplitude {shown.show('small_length', imperfection.amplitude)}"
+        f" (L/{length / abs(imperfection.amplitude):.0f})"
+    )
 
 
 # --------------------------------------------------------------------------------------------------------
@@ -198,11 +204,15 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     add(f"  length:       {_position(shown, case.length)}")
     if result.section is not None:
         section = result.section
-        add(f"  section:      {section.name}, {case.axis} axis (A = {shown.show('area', section.A)}, "
-            f"I = {shown.show('second_moment', section.I)})")
+        add(
+            f"  section:      {section.name}, {case.axis} axis (A = {shown.show('area', section.A)}, "
+            f"I = {shown.show('second_moment', section.I)})"
+        )
     if result.material is not None:
-        add(f"  material:     {result.material.name} (E = {shown.show('stress', result.material.E, 5)}, "
-            f"fy = {shown.show('stress', result.material.fy, 3)})")
+        add(
+            f"  material:     {result.material.name} (E = {shown.show('stress', result.material.E, 5)}, "
+            f"fy = {shown.show('stress', result.material.fy, 3)})"
+        )
     add(f"  EI:           {shown.show('stiffness', result.EI)}")
     add(f"  supports:     left {_support(shown, case.left)}; right {_support(shown, case.right)}")
     add(f"  axial force:  {_axial(shown, result.axial_force)}")
@@ -251,26 +261,37 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     reactions = result.reactions
     add("")
     add("Reactions (end values of T and M, support side; T(0) - T(L) = total transverse load)")
-    add(f"  left end:   T = {shown.show('force', reactions.left_T)}, "
-        f"M = {shown.show('moment', reactions.left_M)}")
-    add(f"  right end:  T = {shown.show('force', reactions.right_T)}, "
-        f"M = {shown.show('moment', reactions.right_M)}")
+    add(
+        f"  left end:   T = {shown.show('force', reactions.left_T)}, "
+        f"M = {shown.show('moment', reactions.left_M)}"
+    )
+    add(
+        f"  right end:  T = {shown.show('force', reactions.right_T)}, "
+        f"M = {shown.show('moment', reactions.right_M)}"
+    )
 
     amplification = result.amplification
     add("")
     add("Amplification (second order / first order)")
     from engine.results import AMPLIFICATION_DEFINITIONS as definitions
+
     add(f"  moment, exact:      {_ratio(amplification.moment)}  ({definitions['moment']})")
-    add(f"  moment over M_I:    {_ratio(amplification.moment_first_order)}  "
-        f"({definitions['moment_first_order']})")
+    add(
+        f"  moment over M_I:    {_ratio(amplification.moment_first_order)}  "
+        f"({definitions['moment_first_order']})"
+    )
     if amplification.moment_bow_free is not None:
-        add(f"  moment, no bow:     {_ratio(amplification.moment_bow_free)}  "
-            f"({definitions['moment_bow_free']})")
+        add(
+            f"  moment, no bow:     {_ratio(amplification.moment_bow_free)}  "
+            f"({definitions['moment_bow_free']})"
+        )
     add(f"  deflection, exact:  {_ratio(amplification.deflection)}  ({definitions['deflection']})")
     for approximation in amplification.approximations:
         against = "exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact"
-        add(f"  {approximation.name + ':':<19} {_ratio(approximation.value)}"
-            f"  (error {_relative_error(approximation.error)} against {against}; {approximation.source})")
+        add(
+            f"  {approximation.name + ':':<19} {_ratio(approximation.value)}"
+            f"  (error {_relative_error(approximation.error)} against {against}; {approximation.source})"
+        )
 
     equilibrium = result.equilibrium
     add("")
@@ -278,22 +299,30 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         # The engine gives none at a critical load, where no equilibrium exists.
         add("Equilibrium residuals (relative): n/a (no equilibrium state)")
     else:
-        add("Equilibrium residuals (relative): "
-            f"transverse {_scientific(equilibrium.transverse)}, moment {_scientific(equilibrium.moment)}")
+        add(
+            "Equilibrium residuals (relative): "
+            f"transverse {_scientific(equilibrium.transverse)}, moment {_scientific(equilibrium.moment)}"
+        )
 
     check = result.check
     if check is not None:
         add("")
-        add(f"Member check ({check.settings.method}, gamma_M0 = {check.settings.gamma_M0:g}), "
-            "second-order forces")
-        add(f"  utilisation:  {_utilisation(check.utilization)} ({check.kind} at "
-            f"x = {_position(shown, check.x)}; {check.source})")
+        add(
+            f"Member check ({check.settings.method}, gamma_M0 = {check.settings.gamma_M0:g}), "
+            "second-order forces"
+        )
+        add(
+            f"  utilisation:  {_utilisation(check.utilization)} ({check.kind} at "
+            f"x = {_position(shown, check.x)}; {check.source})"
+        )
         add(f"  strength:     {_utilisation(check.strength_utilization)} ({check.strength_kind})")
         out = check.out_of_plane
         if out is not None and out.checked:
-            add(f"  out of plane: {_ratio(out.utilization)} (N/N_b,Rd about the {out.axis} axis; L_cr = "
+            add(
+                f"  out of plane: {_ratio(out.utilization)} (N/N_b,Rd about the {out.axis} axis; L_cr = "
                 f"{shown.show('length', out.buckling_length)}, lambda_bar = {out.lambda_bar:.3f}, curve "
-                f"{out.curve}, chi = {out.chi:.3f}, N_b,Rd = {shown.show('force', out.N_b_Rd, 5)})")
+                f"{out.curve}, chi = {out.chi:.3f}, N_b,Rd = {shown.show('force', out.N_b_Rd, 5)})"
+            )
         elif out is not None:
             add(f"  out of plane: not checked ({out.reason})")
         if check.section_class is not None:
@@ -303,9 +332,11 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add("")
         add("Service check (deflection; apart from the strength utilisation)")
         allowed = shown.show("small_length", service.allowed)
-        add(f"  deflection:   {shown.show('small_length', abs(service.deflection))} at x = "
+        add(
+            f"  deflection:   {shown.show('small_length', abs(service.deflection))} at x = "
             f"{_position(shown, service.x)} against span/{service.limit:g} = {allowed} "
-            f"({_ratio(service.utilization)})")
+            f"({_ratio(service.utilization)})"
+        )
         add(f"  basis:        {service.basis}")
     elif result.utilization is not None:
         add("")
@@ -316,8 +347,10 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add(f"Capacity ({capacity.mode}: the largest axial compression at strength utilisation 1)")
         where = "" if capacity.x is None else f" at x = {_position(shown, capacity.x)}"
         add(f"  axial force:  {shown.show('force', capacity.axial_force, 5)} ({capacity.check}{where})")
-        add(f"  load factor:  {_ratio(capacity.load_factor)} on the given axial force; "
-            f"Pcr1 = {shown.show('force', capacity.critical_load, 5)}")
+        add(
+            f"  load factor:  {_ratio(capacity.load_factor)} on the given axial force; "
+            f"Pcr1 = {shown.show('force', capacity.critical_load, 5)}"
+        )
         add(f"  {capacity.message}")
 
     add("")
@@ -348,8 +381,10 @@ def _peak_data(peak) -> dict:
 
 
 def _governing_data(governing) -> dict:
-    return {name: _peak_data(getattr(governing, name))
-            for name in ("deflection", "total_offset", "moment", "shear")}
+    return {
+        name: _peak_data(getattr(governing, name))
+        for name in ("deflection", "total_offset", "moment", "shear")
+    }
 
 
 def _bow_direction(shown, bow) -> str:
@@ -414,8 +449,10 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "effective_length_factor": _finite(result.buckling.effective_length_factor),
         "governing": _governing_data(result.governing),
         "first_order": None if first is None else _governing_data(first.governing),
-        "reactions": {name: _finite(getattr(result.reactions, name))
-                      for name in ("left_T", "left_M", "right_T", "right_M")},
+        "reactions": {
+            name: _finite(getattr(result.reactions, name))
+            for name in ("left_T", "left_M", "right_T", "right_M")
+        },
         "amplification": {
             "moment": _finite(amplification.moment),
             "deflection": _finite(amplification.deflection),
@@ -424,26 +461,41 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "reference_moment": _finite(amplification.reference_moment),
             "definitions": _definitions(),
             "approximations": [
-                {"name": a.name, "value": _finite(a.value), "source": a.source, "error": _finite(a.error),
-                 "compared_with": a.compared_with}
+                {
+                    "name": a.name,
+                    "value": _finite(a.value),
+                    "source": a.source,
+                    "error": _finite(a.error),
+                    "compared_with": a.compared_with,
+                }
                 for a in amplification.approximations
             ],
         },
-        "equilibrium": None if result.equilibrium is None else {
+        "equilibrium": None
+        if result.equilibrium is None
+        else {
             "transverse": _finite(result.equilibrium.transverse),
             "moment": _finite(result.equilibrium.moment),
         },
         "section": None if result.section is None else result.section.name,
         "material": None if result.material is None else result.material.name,
         "bow": None if result.bow is None else result.bow.label,
-        "bow_direction": None if result.bow is None else {
-            "used": result.bow.direction, "governing": result.bow.direction_governing,
-            "favourable": bool(result.bow.favourable), "sway": _finite(result.bow.sway),
-            "compared": [{"direction": d, "strength_utilization": _finite(u), "max_moment": _finite(m)}
-                         for d, u, m in result.bow.directions],
+        "bow_direction": None
+        if result.bow is None
+        else {
+            "used": result.bow.direction,
+            "governing": result.bow.direction_governing,
+            "favourable": bool(result.bow.favourable),
+            "sway": _finite(result.bow.sway),
+            "compared": [
+                {"direction": d, "strength_utilization": _finite(u), "max_moment": _finite(m)}
+                for d, u, m in result.bow.directions
+            ],
         },
         "utilization": _finite(result.utilization),
-        "check": None if check is None else {
+        "check": None
+        if check is None
+        else {
             "method": check.settings.method,
             "kind": check.kind,
             "x": _finite(check.x),
@@ -459,13 +511,19 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "deflection_allowed": _finite(check.deflection_allowed),
             "source": check.source,
         },
-        "service": None if result.service is None else {
+        "service": None
+        if result.service is None
+        else {
             "deflection_utilization": _finite(result.service.utilization),
-            "deflection": _finite(result.service.deflection), "x": _finite(result.service.x),
-            "allowed": _finite(result.service.allowed), "basis": result.service.basis,
+            "deflection": _finite(result.service.deflection),
+            "x": _finite(result.service.x),
+            "allowed": _finite(result.service.allowed),
+            "basis": result.service.basis,
             "source": result.service.source,
         },
-        "capacity": None if capacity is None else {
+        "capacity": None
+        if capacity is None
+        else {
             "mode": capacity.mode,
             "axial_force": _finite(capacity.axial_force),
             "load_factor": _finite(capacity.load_factor),
@@ -474,8 +532,10 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "critical_load": _finite(capacity.critical_load),
             "message": capacity.message,
         },
-        "cautions": [{"level": c.level, "code": c.code, "message": c.message, "source": c.source}
-                     for c in result.cautions],
+        "cautions": [
+            {"level": c.level, "code": c.code, "message": c.message, "source": c.source}
+            for c in result.cautions
+        ],
     }
 
 
@@ -518,15 +578,22 @@ def _epilog(*examples: str) -> str:
 
 def _add_parser(commands, name: str, *, help: str, description: str, examples: Sequence[str]):
     # Raw formatting keeps the examples one to a line, so the description is wrapped here.
-    return commands.add_parser(name, help=help, description=textwrap.fill(description, width=100),
-                               epilog=_epilog(*examples),
-                               formatter_class=argparse.RawDescriptionHelpFormatter)
+    return commands.add_parser(
+        name,
+        help=help,
+        description=textwrap.fill(description, width=100),
+        epilog=_epilog(*examples),
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
 
 
 def _add_units(parser, what: str) -> None:
-    parser.add_argument("--units", choices=("si", "us"), default="si",
-                        help=f"display units of {what}: si (kN, m, mm, kN·m; the default) or us (kip, ft, "
-                             "in, kip·ft)")
+    parser.add_argument(
+        "--units",
+        choices=("si", "us"),
+        default="si",
+        help=f"display units of {what}: si (kN, m, mm, kN·m; the default) or us (kip, ft, in, kip·ft)",
+    )
 
 
 def _add_signatures(parser) -> None:
@@ -576,10 +643,18 @@ def _out_of_plane_data(out) -> dict | None:
     """The out-of-plane buckling check for the JSON summary (SI)."""
     if out is None:
         return None
-    return {"checked": out.checked, "axis": out.axis, "reason": out.reason,
-            "buckling_length": _finite(out.buckling_length), "N_cr": _finite(out.N_cr),
-            "lambda_bar": _finite(out.lambda_bar), "chi": _finite(out.chi), "curve": out.curve,
-            "N_b_Rd": _finite(out.N_b_Rd), "utilization": _finite(out.utilization)}
+    return {
+        "checked": out.checked,
+        "axis": out.axis,
+        "reason": out.reason,
+        "buckling_length": _finite(out.buckling_length),
+        "N_cr": _finite(out.N_cr),
+        "lambda_bar": _finite(out.lambda_bar),
+        "chi": _finite(out.chi),
+        "curve": out.curve,
+        "N_b_Rd": _finite(out.N_b_Rd),
+        "utilization": _finite(out.utilization),
+    }
 
 
 def _beyond_critical(result) -> bool:
@@ -596,7 +671,8 @@ def _utilisation(value: float | None) -> str:
 def _failing(result) -> bool:
     """A failed member check or a danger caution (what ``--strict`` turns into exit code 1)."""
     return (result.utilization is not None and result.utilization > 1.0) or any(
-        caution.level == "danger" for caution in result.cautions)
+        caution.level == "danger" for caution in result.cautions
+    )
 
 
 # --------------------------------------------------------------------------------------------------------
@@ -605,36 +681,53 @@ def _failing(result) -> bool:
 
 def _add_solve(commands) -> None:
     solve = _add_parser(
-        commands, "solve",
+        commands,
+        "solve",
         help="solve a case file and print a summary",
         description="Solve a case file (JSON, schema 1; SI units) and print a summary of the critical "
-                    "loads, the governing values with their positions, the reactions, the amplification "
-                    "factors, the member check and the cautions. Exit code 0 when solved, 2 for an invalid "
-                    "case or a file that cannot be read or written, 1 when the axial force is at or above "
-                    "the first critical load, and 1 with --strict when the member fails its check.",
-        examples=["strutscope solve --demo",
-                  "strutscope solve post.json --units us",
-                  "strutscope solve post.json --json > post-summary.json",
-                  "strutscope solve post.json --pdf post.pdf --prepared-by 'A. Engineer' --strict"],
+        "loads, the governing values with their positions, the reactions, the amplification "
+        "factors, the member check and the cautions. Exit code 0 when solved, 2 for an invalid "
+        "case or a file that cannot be read or written, 1 when the axial force is at or above "
+        "the first critical load, and 1 with --strict when the member fails its check.",
+        examples=[
+            "strutscope solve --demo",
+            "strutscope solve post.json --units us",
+            "strutscope solve post.json --json > post-summary.json",
+            "strutscope solve post.json --pdf post.pdf --prepared-by 'A. Engineer' --strict",
+        ],
     )
     which = solve.add_mutually_exclusive_group(required=True)
     which.add_argument("case", nargs="?", metavar="CASE.json", help="the case file to solve")
     which.add_argument("--demo", action="store_true", help=f"solve the invented demo case ({DEMO_CASE})")
-    solve.add_argument("--stations", type=_station_count, default=DEFAULT_STATIONS, metavar="N",
-                       help=f"number of stations along the member (default {DEFAULT_STATIONS}); the engine "
-                            "adds the load points and the exact peaks")
+    solve.add_argument(
+        "--stations",
+        type=_station_count,
+        default=DEFAULT_STATIONS,
+        metavar="N",
+        help=f"number of stations along the member (default {DEFAULT_STATIONS}); the engine "
+        "adds the load points and the exact peaks",
+    )
     _add_units(solve, "the summary and the exports")
-    solve.add_argument("--json", action="store_true",
-                       help="print a machine-readable summary (JSON, SI units) instead of the text")
-    solve.add_argument("--capacity", action="store_true",
-                       help="also find the largest axial compression at strength utilisation 1 "
-                            "(needs a section and a material)")
+    solve.add_argument(
+        "--json",
+        action="store_true",
+        help="print a machine-readable summary (JSON, SI units) instead of the text",
+    )
+    solve.add_argument(
+        "--capacity",
+        action="store_true",
+        help="also find the largest axial compression at strength utilisation 1 "
+        "(needs a section and a material)",
+    )
     solve.add_argument("--csv", metavar="FILE", help="write the results along the member as CSV")
     solve.add_argument("--png", metavar="FILE", help="write the diagrams as a PNG image")
     solve.add_argument("--pdf", metavar="FILE", help="write a calc sheet as PDF")
     _add_signatures(solve)
-    solve.add_argument("--strict", action="store_true",
-                       help="exit with 1 when the utilisation exceeds 1 or a danger caution fires")
+    solve.add_argument(
+        "--strict",
+        action="store_true",
+        help="exit with 1 when the utilisation exceeds 1 or a danger caution fires",
+    )
     solve.set_defaults(handler=_solve)
 
 
@@ -678,8 +771,9 @@ def _exports(args, result) -> None:
         elif kind == "png":
             data = exports.png_bytes(result, units=args.units)
         else:
-            data = exports.pdf_bytes(result, units=args.units, prepared_by=args.prepared_by,
-                                     checked_by=args.checked_by)
+            data = exports.pdf_bytes(
+                result, units=args.units, prepared_by=args.prepared_by, checked_by=args.checked_by
+            )
         try:
             _write_file(path, data)
         except OSError as error:
@@ -707,8 +801,9 @@ def _solve(args) -> int:
         _error(f"error: {error.source}: {error}")
         return 2
     if args.json:
-        text = json.dumps(summary_data(source, case, result, capacity), indent=2, ensure_ascii=False,
-                          allow_nan=False)
+        text = json.dumps(
+            summary_data(source, case, result, capacity), indent=2, ensure_ascii=False, allow_nan=False
+        )
     else:
         text = format_summary(source, case, result, units=args.units, capacity=capacity)
     if not _print(text):
@@ -724,36 +819,62 @@ def _solve(args) -> int:
 
 def _add_batch(commands) -> None:
     batch = _add_parser(
-        commands, "batch",
+        commands,
+        "batch",
         help="solve a table of members (CSV) into a table of results",
         description="Solve every member of a CSV table (one member per row; the columns are listed in the "
-                    "README and in assets/example_members.csv) and write DIR/results.csv, one row per member "
-                    "in the input order. A row that cannot be solved is reported there with its row number, "
-                    "column and message, and does not stop the run. Exit code 0 when every row was solved, "
-                    "1 when some rows were invalid or a member is at or above its first critical load (or, "
-                    "with --strict, a member fails its check), 2 when the "
-                    "table cannot be read.",
-        examples=["strutscope batch members.csv --out results",
-                  "strutscope batch members.csv --out results --pdf --prepared-by 'A. Engineer'",
-                  "strutscope batch members.csv --out results --workers 4 --units us"],
+        "README and in assets/example_members.csv) and write DIR/results.csv, one row per member "
+        "in the input order. A row that cannot be solved is reported there with its row number, "
+        "column and message, and does not stop the run. Exit code 0 when every row was solved, "
+        "1 when some rows were invalid or a member is at or above its first critical load (or, "
+        "with --strict, a member fails its check), 2 when the "
+        "table cannot be read.",
+        examples=[
+            "strutscope batch members.csv --out results",
+            "strutscope batch members.csv --out results --pdf --prepared-by 'A. Engineer'",
+            "strutscope batch members.csv --out results --workers 4 --units us",
+        ],
     )
     batch.add_argument("table", metavar="MEMBERS.csv", help="the table of members")
-    batch.add_argument("--out", required=True, metavar="DIR",
-                       help="folder for results.csv (created if missing)")
+    batch.add_argument(
+        "--out", required=True, metavar="DIR", help="folder for results.csv (created if missing)"
+    )
     batch.add_argument("--pdf", action="store_true", help="also write a calc sheet DIR/<id>.pdf per member")
     _add_signatures(batch)
-    batch.add_argument("--workers", type=_worker_count, default=None, metavar="N",
-                       help="processes to share the rows out to (default: every core); tables of up to 50 "
-                            "rows are solved in one process")
+    batch.add_argument(
+        "--workers",
+        type=_worker_count,
+        default=None,
+        metavar="N",
+        help="processes to share the rows out to (default: every core); tables of up to 50 "
+        "rows are solved in one process",
+    )
     _add_units(batch, "results.csv and the calc sheets (the input columns keep their stated units)")
-    batch.add_argument("--stations", type=_station_count, default=DEFAULT_STATIONS, metavar="N",
-                       help=f"stations per member (default {DEFAULT_STATIONS})")
-    batch.add_argument("--no-capacity", dest="capacity", action="store_false",
-                       help="skip the capacity search (faster; the capacity columns stay empty)")
-    batch.add_argument("--no-progress", dest="progress", action="store_false", default=None,
-                       help="no progress bar (it shows only on a terminal and for long tables anyway)")
-    batch.add_argument("--strict", action="store_true",
-                       help="exit with 1 when any member fails its check or a danger caution fires")
+    batch.add_argument(
+        "--stations",
+        type=_station_count,
+        default=DEFAULT_STATIONS,
+        metavar="N",
+        help=f"stations per member (default {DEFAULT_STATIONS})",
+    )
+    batch.add_argument(
+        "--no-capacity",
+        dest="capacity",
+        action="store_false",
+        help="skip the capacity search (faster; the capacity columns stay empty)",
+    )
+    batch.add_argument(
+        "--no-progress",
+        dest="progress",
+        action="store_false",
+        default=None,
+        help="no progress bar (it shows only on a terminal and for long tables anyway)",
+    )
+    batch.add_argument(
+        "--strict",
+        action="store_true",
+        help="exit with 1 when any member fails its check or a danger caution fires",
+    )
     batch.set_defaults(handler=_batch)
 
 
@@ -768,9 +889,18 @@ def _batch(args) -> int:
     from app.outdir import FolderError
 
     try:
-        summary = batch.run(args.table, args.out, units=args.units, pdf=args.pdf, workers=args.workers,
-                            stations=args.stations, capacity=args.capacity, progress=args.progress,
-                            prepared_by=args.prepared_by, checked_by=args.checked_by)
+        summary = batch.run(
+            args.table,
+            args.out,
+            units=args.units,
+            pdf=args.pdf,
+            workers=args.workers,
+            stations=args.stations,
+            capacity=args.capacity,
+            progress=args.progress,
+            prepared_by=args.prepared_by,
+            checked_by=args.checked_by,
+        )
     except batch.TableError as error:
         _error(f"error: {args.table}: {error}")
         return 2
@@ -781,16 +911,20 @@ def _batch(args) -> int:
         _error(f"error: {args.out}: cannot write the results: {error.strerror or error}")
         return 2
     except BrokenProcessPool as error:
-        _error(f"error: {args.table}: a worker process stopped ({error}); no results were written. "
-               "Try --workers 1")
+        _error(
+            f"error: {args.table}: a worker process stopped ({error}); no results were written. "
+            "Try --workers 1"
+        )
         return 2
     except MemoryError:
         _error(f"error: {args.table}: not enough memory; no results were written. Try --workers 1")
         return 2
     failing = f", {summary.failing} failing their check or with a danger caution" if summary.failing else ""
-    lines = [f"strutscope batch: {summary.members} member{'s' if summary.members != 1 else ''} from "
-             f"{terminal(args.table)}: {summary.solved} solved, {summary.error_count} invalid{failing} "
-             f"({summary.workers} process{'es' if summary.workers != 1 else ''})"]
+    lines = [
+        f"strutscope batch: {summary.members} member{'s' if summary.members != 1 else ''} from "
+        f"{terminal(args.table)}: {summary.solved} solved, {summary.error_count} invalid{failing} "
+        f"({summary.workers} process{'es' if summary.workers != 1 else ''})"
+    ]
     for row, identifier, _column, message in summary.errors:
         lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {terminal(message)}")
     if summary.error_count > len(summary.errors):
@@ -798,12 +932,15 @@ def _batch(args) -> int:
         lines.append(f"  ... and {more} more invalid row{'s' if more != 1 else ''} (see {summary.results})")
     lines.append(f"results: {summary.results}")
     if args.pdf:
-        lines.append(f"calc sheets: {summary.pdfs} PDF file{'s' if summary.pdfs != 1 else ''} in "
-                     f"{terminal(args.out)}")
+        lines.append(
+            f"calc sheets: {summary.pdfs} PDF file{'s' if summary.pdfs != 1 else ''} in {terminal(args.out)}"
+        )
     if summary.stale:
         stale = len(summary.stale)
-        lines.append(f"removed {stale} calc sheet{'s' if stale != 1 else ''} of the previous run that this "
-                     "run did not write")
+        lines.append(
+            f"removed {stale} calc sheet{'s' if stale != 1 else ''} of the previous run that this "
+            "run did not write"
+        )
     lines.append(f"Caution: {CAUTION}")
     if not _print("\n".join(lines)):
         return 1
@@ -818,12 +955,13 @@ def _batch(args) -> int:
 
 def _add_schema(commands) -> None:
     schema = _add_parser(
-        commands, "schema",
+        commands,
+        "schema",
         help="print the case file's JSON Schema",
         description="Print the JSON Schema (draft 2020-12) of the case file, schema 1, so that other tools "
-                    "can check case files. strutscope itself checks more than a schema can (positions "
-                    "against the length, supports that make a mechanism, a section's plates against its "
-                    "depth).",
+        "can check case files. strutscope itself checks more than a schema can (positions "
+        "against the length, supports that make a mechanism, a section's plates against its "
+        "depth).",
         examples=["strutscope schema > strutscope-case.schema.json"],
     )
     schema.set_defaults(handler=_schema)
@@ -842,12 +980,19 @@ def _schema(args) -> int:
 def _build_parser() -> argparse.ArgumentParser:
     parser = argparse.ArgumentParser(
         prog="strutscope",
-        description=textwrap.fill("Exact second-order analysis of one member under axial force and bending: "
-                                  "deflection, moment and shear amplification under compression, and the "
-                                  "elastic critical loads.", width=100),
-        epilog=_epilog("strutscope solve --demo", "strutscope solve post.json --json",
-                       "strutscope batch members.csv --out results --pdf", "strutscope schema",
-                       "strutscope COMMAND --help"),
+        description=textwrap.fill(
+            "Exact second-order analysis of one member under axial force and bending: "
+            "deflection, moment and shear amplification under compression, and the "
+            "elastic critical loads.",
+            width=100,
+        ),
+        epilog=_epilog(
+            "strutscope solve --demo",
+            "strutscope solve post.json --json",
+            "strutscope batch members.csv --out results --pdf",
+            "strutscope schema",
+            "strutscope COMMAND --help",
+        ),
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
     parser.add_argument("--version", action="version", version=f"strutscope {_version()}")
@@ -866,12 +1011,13 @@ def _add_serve(commands) -> None:
     from app import serve
 
     page = _add_parser(
-        commands, "serve",
+        commands,
+        "serve",
         help="serve the member explorer page (what a bare `strutscope` does)",
         description="Serve the interactive member explorer on this computer and open it in the browser: "
-                    "set up the member, drag the axial force towards the critical load and watch the "
-                    "second-order deflection, moment and shear; export a figure, the stations, a calc sheet "
-                    "and the case. Opens the invented demo case unless a case file is given.",
+        "set up the member, drag the axial force towards the critical load and watch the "
+        "second-order deflection, moment and shear; export a figure, the stations, a calc sheet "
+        "and the case. Opens the invented demo case unless a case file is given.",
         examples=["strutscope serve", "strutscope serve post.json --port 8080 --no-browser"],
     )
     serve.add_arguments(page)

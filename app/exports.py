@@ -194,8 +194,10 @@ def _support_text(end, U: Units, sep: str = ", ") -> str:
     if end.name is not None:
         return end.name
     parts = []
-    for part, kind, symbol in (("translation", "translational_spring", "k_t"),
-                               ("rotation", "rotational_spring", "k_r")):
+    for part, kind, symbol in (
+        ("translation", "translational_spring", "k_t"),
+        ("rotation", "rotational_spring", "k_r"),
+    ):
         value = getattr(end, part)
         if isinstance(value, str):
             parts.append(f"{part} {value}")
@@ -208,12 +210,16 @@ def _load_text(load, length: float, U: Units) -> str:
     kind = getattr(load, "type", type(load).__name__)
     if kind == "uniform":
         a, b = load.span(length)
-        return (f"uniform q = {U.show('line_load', load.q)} "
-                f"from x = {U.show('length', a)} to {U.show('length', b)}")
+        return (
+            f"uniform q = {U.show('line_load', load.q)} "
+            f"from x = {U.show('length', a)} to {U.show('length', b)}"
+        )
     if kind == "linear":
         a, b = load.span(length)
-        return (f"linear q = {U.show('line_load', load.q_start)} to {U.show('line_load', load.q_end)} "
-                f"from x = {U.show('length', a)} to {U.show('length', b)}")
+        return (
+            f"linear q = {U.show('line_load', load.q_start)} to {U.show('line_load', load.q_end)} "
+            f"from x = {U.show('length', a)} to {U.show('length', b)}"
+        )
     if kind == "point":
         # F, as conventions.md names a point load, so that P stays the axial force.
         return f"point load F = {U.show('force', load.P)} at x = {U.show('length', load.x)}"
@@ -279,8 +285,10 @@ def _section_text(result, U: Units) -> str | None:
     section = result.section
     if section is None:
         return None
-    return (f"{section.name}, {section.axis} axis: A = {U.show('area', section.A)}, "
-            f"I = {U.show('second_moment', section.I)}")
+    return (
+        f"{section.name}, {section.axis} axis: A = {U.show('area', section.A)}, "
+        f"I = {U.show('second_moment', section.I)}"
+    )
 
 
 def _material_text(result, U: Units) -> str | None:
@@ -338,8 +346,10 @@ class _Measure:
     def __init__(self) -> None:
         self._path = TextToPath()
         # DejaVu Sans, then installed fonts for other scripts (app.fonts): measured as they are drawn.
-        self._props = {weight: FontProperties(family=families(), size=self._REFERENCE_SIZE, weight=weight)
-                       for weight in ("normal", "bold")}
+        self._props = {
+            weight: FontProperties(family=families(), size=self._REFERENCE_SIZE, weight=weight)
+            for weight in ("normal", "bold")
+        }
         self._cache: dict = {}
 
     def width(self, text: str, size: float, weight: str = "normal") -> float:
@@ -363,8 +373,13 @@ class _Measure:
             else:
                 groups.append(group)
         # A word wider than a line (a long title without spaces) is broken between characters.
-        groups = [[piece] for group in groups for piece in
-                  (self._pieces(group[0], width_pt, size, weight) if len(group) == 1 else [" ".join(group)])]
+        groups = [
+            [piece]
+            for group in groups
+            for piece in (
+                self._pieces(group[0], width_pt, size, weight) if len(group) == 1 else [" ".join(group)]
+            )
+        ]
         if not groups:
             return [""]
         words = [" ".join(group) for group in groups]
@@ -380,7 +395,6 @@ class _Measure:
                 line, used = [word], w
         lines.append(" ".join(line))
         return lines
-
 
     def _pieces(self, word: str, width_pt: float, size: float, weight: str) -> list[str]:
         """`word` in pieces no wider than `width_pt` (one piece when it fits)."""
@@ -460,14 +474,25 @@ class _Flow:
     def _put(self, x, text, size, weight, color, ha="left") -> None:
         if self.draw:
             w, h = self.fig.get_size_inches()
-            self.fig.text(x / w, self.y / h, text, fontsize=size, fontweight=weight, color=color, ha=ha,
-                          va="top", family=families(), parse_math=False)
+            self.fig.text(
+                x / w,
+                self.y / h,
+                text,
+                fontsize=size,
+                fontweight=weight,
+                color=color,
+                ha=ha,
+                va="top",
+                family=families(),
+                parse_math=False,
+            )
 
     def space(self, points: float) -> None:
         self.y -= points / 72
 
-    def para(self, text, *, scale=1.0, weight="normal", color=_INK, indent=0.0, hanging=0.0, keep=1,
-             max_lines=None) -> None:
+    def para(
+        self, text, *, scale=1.0, weight="normal", color=_INK, indent=0.0, hanging=0.0, keep=1, max_lines=None
+    ) -> None:
         """A wrapped paragraph; `hanging` indents the lines after the first [in]; beyond `max_lines` lines
         the last one shown ends with an ellipsis."""
         size = self.size * scale
@@ -480,7 +505,7 @@ class _Flow:
         if max_lines is not None and len(lines) > max_lines:
             x, last = lines[max_lines - 1]
             room = width_pt - (x - indent) * 72
-            lines = lines[:max_lines - 1] + [(x, self.measure.shorten(last, room, size, weight))]
+            lines = lines[: max_lines - 1] + [(x, self.measure.shorten(last, room, size, weight))]
         self._room(step * min(keep, len(lines)))
         for x, line in lines:
             self._room(step)
@@ -502,8 +527,9 @@ class _Flow:
         columns = []
         for cell, width in zip(cells, widths, strict=True):
             width = (self.right - x) if width is None else width
-            columns.append((x, self.measure.wrap(drawable(cell), (width - 0.06) * 72 * self._SAFETY, size,
-                                                 weight)))
+            columns.append(
+                (x, self.measure.wrap(drawable(cell), (width - 0.06) * 72 * self._SAFETY, size, weight))
+            )
             x += width
         lines = max(len(text) for _, text in columns)
         self._room(step * lines)
@@ -516,8 +542,15 @@ class _Flow:
     def rule(self, color=_LIGHT) -> None:
         if self.draw:
             w, h = self.fig.get_size_inches()
-            self.fig.add_artist(Line2D([self.left / w, self.right / w], [self.y / h, self.y / h], color=color,
-                                       lw=0.6, transform=self.fig.transFigure))
+            self.fig.add_artist(
+                Line2D(
+                    [self.left / w, self.right / w],
+                    [self.y / h, self.y / h],
+                    color=color,
+                    lw=0.6,
+                    transform=self.fig.transFigure,
+                )
+            )
         self.space(3)
 
 
@@ -606,8 +639,16 @@ def _draw_support(ax, s, end, xe, outward, U: Units):
         return label
     if translation == "fixed":
         depth, half = s.dy(0.22), s.dx(0.12)
-        ax.add_patch(Polygon([[xe, 0.0], [xe - half, -depth], [xe + half, -depth]], closed=True, fc="white",
-                             ec=_INK, lw=0.9, zorder=3))
+        ax.add_patch(
+            Polygon(
+                [[xe, 0.0], [xe - half, -depth], [xe + half, -depth]],
+                closed=True,
+                fc="white",
+                ec=_INK,
+                lw=0.9,
+                zorder=3,
+            )
+        )
         ax.plot([xe - 1.5 * half, xe + 1.5 * half], [-depth] * 2, color=_INK, lw=1.0)
         _hatch(ax, s, xe - 1.5 * half, xe + 1.5 * half, -depth, -depth, direction="down")
     elif not isinstance(translation, str):
@@ -623,9 +664,18 @@ def _draw_support(ax, s, end, xe, outward, U: Units):
 
 
 def _arrow(ax, x0, y0, x1, y1, *, color=_INK, lw=0.9, head=6):
-    ax.annotate("", xy=(x1, y1), xytext=(x0, y0),
-                arrowprops=dict(arrowstyle=f"-|>,head_length={head / 10:.2f},head_width={head / 20:.2f}",
-                                color=color, lw=lw, shrinkA=0, shrinkB=0))
+    ax.annotate(
+        "",
+        xy=(x1, y1),
+        xytext=(x0, y0),
+        arrowprops=dict(
+            arrowstyle=f"-|>,head_length={head / 10:.2f},head_width={head / 20:.2f}",
+            color=color,
+            lw=lw,
+            shrinkA=0,
+            shrinkB=0,
+        ),
+    )
 
 
 def _draw_loads(ax, s, result, U: Units, L_si: float):
@@ -664,9 +714,17 @@ def _draw_loads(ax, s, result, U: Units, L_si: float):
             text = f"q = {U.show('line_load', load.q)}"
         else:
             text = f"q = {U.show('line_load', load.q_start)} to {U.show('line_load', load.q_end)}"
-        ax.text(0.5 * (a + b) * f, y0 + 0.85 * tier + 0.02, text, ha="center", va="bottom", fontsize=6.5,
-                color=_INK, parse_math=False,
-                bbox=dict(fc="white", ec="none", alpha=0.75, pad=0.3))
+        ax.text(
+            0.5 * (a + b) * f,
+            y0 + 0.85 * tier + 0.02,
+            text,
+            ha="center",
+            va="bottom",
+            fontsize=6.5,
+            color=_INK,
+            parse_math=False,
+            bbox=dict(fc="white", ec="none", alpha=0.75, pad=0.3),
+        )
     for load in case.loads:
         # Labels near an end lean inward, clear of the axial-force label beyond the end.
         where = load.x / L_si if load.type in ("point", "couple") else 0.5
@@ -678,8 +736,16 @@ def _draw_loads(ax, s, result, U: Units, L_si: float):
             else:
                 _arrow(ax, xp, 0.02, xp, 0.95, lw=1.2, head=7)
             xt = xp + {"left": -s.dx(0.05), "right": s.dx(0.05), "center": 0.0}[ha]
-            ax.text(xt, 0.98, f"F = {U.show('force', load.P)}", ha=ha, va="bottom", fontsize=6.5,
-                    color=_INK, parse_math=False)
+            ax.text(
+                xt,
+                0.98,
+                f"F = {U.show('force', load.P)}",
+                ha=ha,
+                va="bottom",
+                fontsize=6.5,
+                color=_INK,
+                parse_math=False,
+            )
         elif load.type == "couple":
             xc = load.x * f
             # A positive couple makes M jump up by C (conventions.md); with + load drawn downward that is a
@@ -694,8 +760,16 @@ def _draw_loads(ax, s, result, U: Units, L_si: float):
             ys = s.dy(r * np.sin(theta))
             ax.plot(xs[:-1], ys[:-1], color=_INK, lw=1.1)
             _arrow(ax, xs[-4], ys[-4], xs[-1], ys[-1], lw=1.1, head=6)
-            ax.text(xc, s.dy(r) + 0.04, f"C = {U.show('moment', load.C)}", ha=ha, va="bottom",
-                    fontsize=6.5, color=_INK, parse_math=False)
+            ax.text(
+                xc,
+                s.dy(r) + 0.04,
+                f"C = {U.show('moment', load.C)}",
+                ha=ha,
+                va="bottom",
+                fontsize=6.5,
+                color=_INK,
+                parse_math=False,
+            )
 
 
 def _draw_sketch(ax, result, U: Units):
@@ -732,9 +806,17 @@ def _draw_sketch(ax, result, U: Units):
                 _arrow(ax, near, 0.0, far, 0.0, lw=1.6, head=8)
         label_x = L + s.dx(gap[1]) if (L, +1, gap[1]) in ends else -s.dx(gap[0] + length)
         sense = "compression" if P > 0 else "tension"
-        ax.text(label_x, s.dy(0.09), f"P = {U.show('force', abs(P), 5)}\n{sense}", ha="left", va="bottom",
-                fontsize=6.8, color=_INK, parse_math=False,
-                linespacing=1.1)
+        ax.text(
+            label_x,
+            s.dy(0.09),
+            f"P = {U.show('force', abs(P), 5)}\n{sense}",
+            ha="left",
+            va="bottom",
+            fontsize=6.8,
+            color=_INK,
+            parse_math=False,
+            linespacing=1.1,
+        )
 
     if _has_bow(result):
         bow = np.asarray(result.initial_bow, dtype=float)
@@ -746,24 +828,55 @@ def _draw_sketch(ax, result, U: Units):
         where = x[i] / L if L > 0 else 0.5
         ha = "left" if where < 0.3 else ("right" if where > 0.7 else "center")
         xt = x[i] + (s.dx(0.35) if ha == "left" else (-s.dx(0.35) if ha == "right" else 0.0))
-        ax.text(xt, -bow[i] * scale - np.sign(bow[i]) * 0.05, f"initial bow w0, largest "
-                f"{U.show('small_length', largest)} (drawn exaggerated)", ha=ha,
-                va="top" if bow[i] > 0 else "bottom", fontsize=6.5, color=_ACCENT, parse_math=False)
+        ax.text(
+            xt,
+            -bow[i] * scale - np.sign(bow[i]) * 0.05,
+            f"initial bow w0, largest {U.show('small_length', largest)} (drawn exaggerated)",
+            ha=ha,
+            va="top" if bow[i] > 0 else "bottom",
+            fontsize=6.5,
+            color=_ACCENT,
+            parse_math=False,
+        )
 
     if result.status != "stable":
-        ax.text(ax.get_xlim()[1], 1.28,
-                f"{result.status}: P at or above Pcr1, a state the member never reaches",
-                ha="right", va="top", fontsize=7, color=_DANGER, fontweight="bold", parse_math=False)
+        ax.text(
+            ax.get_xlim()[1],
+            1.28,
+            f"{result.status}: P at or above Pcr1, a state the member never reaches",
+            ha="right",
+            va="top",
+            fontsize=7,
+            color=_DANGER,
+            fontweight="bold",
+            parse_math=False,
+        )
 
     # Dimension line: the sketch is to scale along the member.
     y_dim = -1.05
     ax.plot([0, L], [y_dim, y_dim], color=_GREY, lw=0.6)
     for xe in (0.0, L):
         ax.plot([xe, xe], [y_dim - 0.06, y_dim + 0.06], color=_GREY, lw=0.6)
-    ax.text(L / 2, y_dim + 0.03, f"L = {U.show('length', L_si)}", ha="center", va="bottom", fontsize=6.8,
-            color=_GREY, parse_math=False)
-    ax.text(ax.get_xlim()[0], 1.28, "Member (to scale along x; + load and + w point down here)", ha="left",
-            va="top", fontsize=7, color=_GREY, parse_math=False)
+    ax.text(
+        L / 2,
+        y_dim + 0.03,
+        f"L = {U.show('length', L_si)}",
+        ha="center",
+        va="bottom",
+        fontsize=6.8,
+        color=_GREY,
+        parse_math=False,
+    )
+    ax.text(
+        ax.get_xlim()[0],
+        1.28,
+        "Member (to scale along x; + load and + w point down here)",
+        ha="left",
+        va="top",
+        fontsize=7,
+        color=_GREY,
+        parse_math=False,
+    )
 
 
 def _finite_array(values) -> np.ndarray | None:
@@ -776,8 +889,17 @@ def _mark_peak(ax, peak, kind, U: Units, *, color, first, inverted, length, oute
         return
     xd = U.length.from_si(peak.x)
     yd = U.convert(kind, peak.value)
-    ax.plot([xd], [yd], ls="none", marker="o", ms=4.2, mfc="white" if first else color, mec=color, mew=1.0,
-            zorder=6)
+    ax.plot(
+        [xd],
+        [yd],
+        ls="none",
+        marker="o",
+        ms=4.2,
+        mfc="white" if first else color,
+        mec=color,
+        mew=1.0,
+        zorder=6,
+    )
     # The larger of the two peaks is labelled away from zero, the other on the side of zero.
     outward = 1.0 if yd >= 0 else -1.0
     if not outer:
@@ -786,9 +908,19 @@ def _mark_peak(ax, peak, kind, U: Units, *, color, first, inverted, length, oute
         outward = -outward
     left = xd <= 0.5 * length
     text = ("first order " if first else "") + f"{U.show(kind, peak.value)} at x = {U.show('length', peak.x)}"
-    ax.annotate(text, (xd, yd), xytext=(5 if left else -5, 6 * outward), textcoords="offset points",
-                ha="left" if left else "right", va="bottom" if outward > 0 else "top", fontsize=6.6,
-                color=color, parse_math=False, zorder=7, bbox=dict(fc="white", ec="none", alpha=0.8, pad=0.2))
+    ax.annotate(
+        text,
+        (xd, yd),
+        xytext=(5 if left else -5, 6 * outward),
+        textcoords="offset points",
+        ha="left" if left else "right",
+        va="bottom" if outward > 0 else "top",
+        fontsize=6.6,
+        color=color,
+        parse_math=False,
+        zorder=7,
+        bbox=dict(fc="white", ec="none", alpha=0.8, pad=0.2),
+    )
 
 
 def _limits(ax, arrays, *, inverted=False):
@@ -803,8 +935,18 @@ def _limits(ax, arrays, *, inverted=False):
 
 
 def _unbounded_note(ax, text):
-    ax.text(0.5, 0.5, text, transform=ax.transAxes, ha="center", va="center", fontsize=7.5, color=_DANGER,
-            parse_math=False, bbox=dict(fc="white", ec=_DANGER, lw=0.6, pad=3))
+    ax.text(
+        0.5,
+        0.5,
+        text,
+        transform=ax.transAxes,
+        ha="center",
+        va="center",
+        fontsize=7.5,
+        color=_DANGER,
+        parse_math=False,
+        bbox=dict(fc="white", ec=_DANGER, lw=0.6, pad=3),
+    )
 
 
 def _diagram(ax, result, U: Units, specs, *, kind, ylabel, inverted=False, fill=False):
@@ -829,11 +971,29 @@ def _diagram(ax, result, U: Units, specs, *, kind, ylabel, inverted=False, fill=
         both = second is not None and first is not None and peak2 is not None and peak1 is not None
         second_outer = not both or peak2.magnitude >= peak1.magnitude
         if second is not None and peak2 is not None:
-            _mark_peak(ax, peak2, kind, U, color=color, first=False, inverted=inverted, length=length,
-                       outer=second_outer)
+            _mark_peak(
+                ax,
+                peak2,
+                kind,
+                U,
+                color=color,
+                first=False,
+                inverted=inverted,
+                length=length,
+                outer=second_outer,
+            )
         if first is not None and peak1 is not None:
-            _mark_peak(ax, peak1, kind, U, color=color, first=True, inverted=inverted, length=length,
-                       outer=not second_outer)
+            _mark_peak(
+                ax,
+                peak1,
+                kind,
+                U,
+                color=color,
+                first=True,
+                inverted=inverted,
+                length=length,
+                outer=not second_outer,
+            )
     _limits(ax, plotted, inverted=inverted)
     if skipped:
         _unbounded_note(ax, "second order unbounded: the axial force is at a critical load (not plotted)")
@@ -852,8 +1012,16 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
     first = result.first_order
 
     def render(size, draw, detail=True):
-        flow = _Flow(fig, measure, left=left + 0.12, right=right - 0.12, top=top - 0.12, bottom=bottom + 0.1,
-                     size=size, draw=draw)
+        flow = _Flow(
+            fig,
+            measure,
+            left=left + 0.12,
+            right=right - 0.12,
+            top=top - 0.12,
+            bottom=bottom + 0.1,
+            size=size,
+            draw=draw,
+        )
         flow.para(_title(result), scale=1.35, weight="bold", max_lines=3)
         flow.para("strutscope · exact second-order analysis of one member", scale=0.9, color=_GREY)
         flow.para(f"Date: {date} · units: {_SYSTEM_NAMES.get(U.system, U.system)}", scale=0.9, color=_GREY)
@@ -882,17 +1050,26 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
             if first is not None:
                 text += f"  ({U.show(kind, getattr(first.governing, field).value)})"
             flow.para(text, hanging=0.15)
-        flow.para(f"Pcr1 = {_pcr_text(result, U)}, K = {_ratio(result.buckling.effective_length_factor)}, "
-                  f"α_cr = {_alpha_text(result)}")
+        flow.para(
+            f"Pcr1 = {_pcr_text(result, U)}, K = {_ratio(result.buckling.effective_length_factor)}, "
+            f"α_cr = {_alpha_text(result)}"
+        )
         amplification = result.amplification
-        flow.para(f"Amplification, exact: moment {_ratio(amplification.moment)} (over M_I + N·w0), "
-                  f"deflection {_ratio(amplification.deflection)}", hanging=0.15)
+        flow.para(
+            f"Amplification, exact: moment {_ratio(amplification.moment)} (over M_I + N·w0), "
+            f"deflection {_ratio(amplification.deflection)}",
+            hanging=0.15,
+        )
         utilisation = _utilisation_text(result, U)
         if utilisation:
             flow.para(f"Utilisation: {utilisation}", hanging=0.15)
         danger = result.status != "stable"
-        flow.para(f"Status: {_status_text(result, U) if danger else result.status}",
-                  weight="bold" if danger else "normal", color=_DANGER if danger else _INK, hanging=0.15)
+        flow.para(
+            f"Status: {_status_text(result, U) if danger else result.status}",
+            weight="bold" if danger else "normal",
+            color=_DANGER if danger else _INK,
+            hanging=0.15,
+        )
         # The status already says the axial force is at or beyond a critical load.
         said = ("scope", "at-critical-load", "beyond-critical-load")
         shown = [c for c in result.cautions if c.code not in said]
@@ -902,12 +1079,18 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
             flow.heading("Cautions", scale=1.0)
         for caution in shown:
             danger = caution.level == "danger"
-            flow.para(f"{caution.level}: {caution.message}", scale=0.92, color=_DANGER if danger else _INK,
-                      hanging=0.15)
+            flow.para(
+                f"{caution.level}: {caution.message}",
+                scale=0.92,
+                color=_DANGER if danger else _INK,
+                hanging=0.15,
+            )
         others = sum(1 for c in result.cautions if c.code != "scope") - len(shown)
         if not detail and others:
-            flow.para(f"{others} further caution{'s' if others > 1 else ''}: see the calculation sheet.",
-                      color=_GREY)
+            flow.para(
+                f"{others} further caution{'s' if others > 1 else ''}: see the calculation sheet.",
+                color=_GREY,
+            )
         flow.heading("Caution", scale=1.0)
         flow.para(_general_caution(result), weight="bold")
         return flow.bottom - flow.y if not flow.overflow else 1.0
@@ -919,8 +1102,17 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
         size = _fit(lambda size, draw: render(size, draw, False), (7.8, 7.4, 7.0, 6.6, 6.2, 5.8, 5.4))
     render(size, True, detail)
     w, h = fig.get_size_inches()
-    fig.add_artist(Rectangle((left / w, bottom / h), (right - left) / w, (top - bottom) / h, fill=False,
-                             ec=_GREY, lw=0.8, transform=fig.transFigure))
+    fig.add_artist(
+        Rectangle(
+            (left / w, bottom / h),
+            (right - left) / w,
+            (top - bottom) / h,
+            fill=False,
+            ec=_GREY,
+            lw=0.8,
+            transform=fig.transFigure,
+        )
+    )
 
 
 def result_figure(result, *, units="si", date=None) -> Figure:
@@ -952,8 +1144,16 @@ def result_figure(result, *, units="si", date=None) -> Figure:
     FigureCanvasAgg(fig)
     fig_w, fig_h = A4_LANDSCAPE
     plot_left, plot_right = 0.075, 0.655
-    grid = fig.add_gridspec(4, 1, left=plot_left, right=plot_right, top=0.92, bottom=0.075,
-                            height_ratios=(1.35, 1.0, 1.0, 1.0), hspace=0.14)
+    grid = fig.add_gridspec(
+        4,
+        1,
+        left=plot_left,
+        right=plot_right,
+        top=0.92,
+        bottom=0.075,
+        height_ratios=(1.35, 1.0, 1.0, 1.0),
+        hspace=0.14,
+    )
     sketch = fig.add_subplot(grid[0])
     axes = [fig.add_subplot(grid[i], sharex=sketch) for i in (1, 2, 3)]
 
@@ -977,12 +1177,32 @@ def result_figure(result, *, units="si", date=None) -> Figure:
     _diagram(deflection_ax, result, U, specs, kind="small_length", ylabel=ylabel, inverted=True)
     if _has_bow(result):
         x = U.length.from_si(np.asarray(result.x, dtype=float))
-        deflection_ax.plot(x, U.convert("small_length", np.asarray(result.initial_bow, dtype=float)),
-                           color=_ACCENT, lw=0.8, ls=(0, (1, 2)), zorder=2)
-    _diagram(moment_ax, result, U, [(result.moment, fo("moment"), _INK, g.moment, fog("moment"))],
-             kind="moment", ylabel=f"bending moment M\n[{U.label('moment')}]", fill=True)
-    _diagram(shear_ax, result, U, [(result.shear, fo("shear"), _INK, g.shear, fog("shear"))],
-             kind="force", ylabel=f"shear force V\n[{U.label('force')}]", fill=True)
+        deflection_ax.plot(
+            x,
+            U.convert("small_length", np.asarray(result.initial_bow, dtype=float)),
+            color=_ACCENT,
+            lw=0.8,
+            ls=(0, (1, 2)),
+            zorder=2,
+        )
+    _diagram(
+        moment_ax,
+        result,
+        U,
+        [(result.moment, fo("moment"), _INK, g.moment, fog("moment"))],
+        kind="moment",
+        ylabel=f"bending moment M\n[{U.label('moment')}]",
+        fill=True,
+    )
+    _diagram(
+        shear_ax,
+        result,
+        U,
+        [(result.shear, fo("shear"), _INK, g.shear, fog("shear"))],
+        kind="force",
+        ylabel=f"shear force V\n[{U.label('force')}]",
+        fill=True,
+    )
     for ax in axes[:-1]:
         ax.tick_params(labelbottom=False)
     shear_ax.set_xlabel(f"x [{U.label('length')}] from the left end", fontsize=7.5, color=_INK)
@@ -995,16 +1215,36 @@ def result_figure(result, *, units="si", date=None) -> Figure:
         Line2D([], [], color=_INK, lw=1.0, ls=(0, (4, 2.5)), label="first order (P = 0)"),
     ]
     if _has_bow(result):
-        handles += [Line2D([], [], color=_ACCENT, lw=1.4, label="total offset w + w0"),
-                    Line2D([], [], color=_ACCENT, lw=0.8, ls=(0, (1, 2)), label="initial bow w0")]
-    handles += [Line2D([], [], ls="none", marker="o", ms=4.2, color=_INK, label="peak, second order"),
-                Line2D([], [], ls="none", marker="o", ms=4.2, mfc="white", color=_INK,
-                       label="peak, first order")]
-    fig.legend(handles=handles, loc="lower left", bbox_to_anchor=(plot_left, 0.93), ncol=3,
-               fontsize=6.6, frameon=False, handlelength=2.4, columnspacing=1.2, borderaxespad=0.0)
+        handles += [
+            Line2D([], [], color=_ACCENT, lw=1.4, label="total offset w + w0"),
+            Line2D([], [], color=_ACCENT, lw=0.8, ls=(0, (1, 2)), label="initial bow w0"),
+        ]
+    handles += [
+        Line2D([], [], ls="none", marker="o", ms=4.2, color=_INK, label="peak, second order"),
+        Line2D([], [], ls="none", marker="o", ms=4.2, mfc="white", color=_INK, label="peak, first order"),
+    ]
+    fig.legend(
+        handles=handles,
+        loc="lower left",
+        bbox_to_anchor=(plot_left, 0.93),
+        ncol=3,
+        fontsize=6.6,
+        frameon=False,
+        handlelength=2.4,
+        columnspacing=1.2,
+        borderaxespad=0.0,
+    )
 
-    _title_block(fig, result, U, date_text, left=0.685 * fig_w, right=0.985 * fig_w, top=0.975 * fig_h,
-                 bottom=0.03 * fig_h)
+    _title_block(
+        fig,
+        result,
+        U,
+        date_text,
+        left=0.685 * fig_w,
+        right=0.985 * fig_w,
+        top=0.975 * fig_h,
+        bottom=0.03 * fig_h,
+    )
     return fig
 
 
@@ -1043,24 +1283,34 @@ def _csv_columns(result, U: Units):
     """(header, SI array, unit kind or None) for every CSV column."""
     first = result.first_order
     sl, rot, mom, frc = (U.label(k) for k in ("small_length", "rotation", "moment", "force"))
-    columns = [(f"x [{U.label('length')}]", result.x, "length"),
-               (f"w [{sl}]", result.deflection, "small_length")]
+    columns = [
+        (f"x [{U.label('length')}]", result.x, "length"),
+        (f"w [{sl}]", result.deflection, "small_length"),
+    ]
     if first is not None:
         columns.append((f"w1 [{sl}]", first.deflection, "small_length"))
-    columns += [(f"w0 [{sl}]", result.initial_bow, "small_length"), (f"w+w0 [{sl}]", result.total_offset,
-                                                                      "small_length")]
+    columns += [
+        (f"w0 [{sl}]", result.initial_bow, "small_length"),
+        (f"w+w0 [{sl}]", result.total_offset, "small_length"),
+    ]
     if first is not None:
         columns.append((f"w1+w0 [{sl}]", first.total_offset, "small_length"))
-    for name, field, kind, unit in (("rotation", "rotation", "rotation", rot), ("M", "moment", "moment", mom),
-                                    ("V", "shear", "force", frc), ("T", "transverse_force", "force", frc)):
+    for name, field, kind, unit in (
+        ("rotation", "rotation", "rotation", rot),
+        ("M", "moment", "moment", mom),
+        ("V", "shear", "force", frc),
+        ("T", "transverse_force", "force", frc),
+    ):
         columns.append((f"{name} [{unit}]", getattr(result, field), kind))
         if first is not None:
             columns.append((f"{name}1 [{unit}]", getattr(first, field), kind))
     check = result.check
     if check is not None:
-        columns += [("utilisation [-]", check.stations, None),
-                    ("utilisation axial+bending [-]", check.axial_bending, None),
-                    ("utilisation shear [-]", check.shear, None)]
+        columns += [
+            ("utilisation [-]", check.stations, None),
+            ("utilisation axial+bending [-]", check.axial_bending, None),
+            ("utilisation shear [-]", check.shear, None),
+        ]
     elif result.utilization is not None:
         # At a critical load the engine gives no check along the member, only the governing utilisation
         # (+inf), which then holds at every station.
@@ -1117,14 +1367,28 @@ def csv_text(result, *, units="si") -> str:
         "(compression positive)",
         f"Pcr1 [{U.label('force')}]: {_number_text(U.convert('force', pcr1))}",
         f"status: {_status_text(result, U)}",
-        *([f"utilisation [-]: {_number_text(result.utilization)} (strength and stability; the deflection "
-           "check is apart)"]
-          if result.utilization is not None else []),
-        *([f"deflection utilisation [-]: {_number_text(result.service.utilization)} (service check: "
-           f"{result.service.basis})"] if result.service is not None else []),
+        *(
+            [
+                f"utilisation [-]: {_number_text(result.utilization)} (strength and stability; "
+                "the deflection check is apart)"
+            ]
+            if result.utilization is not None
+            else []
+        ),
+        *(
+            [
+                f"deflection utilisation [-]: {_number_text(result.service.utilization)} (service check: "
+                f"{result.service.basis})"
+            ]
+            if result.service is not None
+            else []
+        ),
         *_amplification_comments(result),
-        *([f"bow direction: {result.bow.direction_governing}"]
-          if result.bow is not None and result.bow.direction_governing else []),
+        *(
+            [f"bow direction: {result.bow.direction_governing}"]
+            if result.bow is not None and result.bow.direction_governing
+            else []
+        ),
         "columns ending in 1 are first order (P = 0) at the same stations; a station at a point load or "
         "couple appears twice; inf marks a value that is unbounded at a critical load",
         f"caution: {_general_caution(result)}",
@@ -1160,15 +1424,32 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     label_w = 1.75  # [in] width of the label column
 
     flow.para(_title(result), scale=1.45, weight="bold", max_lines=3)
-    flow.para("Exact second-order (P-delta) analysis of one member under axial force and bending, by "
-              f"strutscope {_version()}", scale=0.9, color=_GREY)
+    flow.para(
+        "Exact second-order (P-delta) analysis of one member under axial force and bending, by "
+        f"strutscope {_version()}",
+        scale=0.9,
+        color=_GREY,
+    )
     flow.space(4)
     flow.rule()
     third = flow.width / 3
-    flow.row([f"Date: {date}", f"Prepared by: {prepared_by or '________________'}",
-              f"Checked by: {checked_by or '________________'}"], [third, third, None])
-    flow.row([f"Units: {_SYSTEM_NAMES.get(U.system, U.system)}", "Signature: ________________",
-              "Signature: ________________"], [third, third, None], color=_GREY)
+    flow.row(
+        [
+            f"Date: {date}",
+            f"Prepared by: {prepared_by or '________________'}",
+            f"Checked by: {checked_by or '________________'}",
+        ],
+        [third, third, None],
+    )
+    flow.row(
+        [
+            f"Units: {_SYSTEM_NAMES.get(U.system, U.system)}",
+            "Signature: ________________",
+            "Signature: ________________",
+        ],
+        [third, third, None],
+        color=_GREY,
+    )
     flow.rule()
 
     def item(label, value, **kw):
@@ -1202,13 +1483,20 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     if bow is not None and bow.sway_source:
         item("", f"sway: {bow.sway_source}", scale=0.85, color=_GREY)
     if bow is not None and bow.direction_governing:
-        item("Bow direction", f"{bow.direction}, the worse of both directions solved" if bow.automatic
-             else bow.direction_governing)
+        item(
+            "Bow direction",
+            f"{bow.direction}, the worse of both directions solved"
+            if bow.automatic
+            else bow.direction_governing,
+        )
     if result.check is not None:
         settings = result.check.settings
-        item("Member check", f"{settings.method}, γ_M0 = {settings.gamma_M0:g}, "
-                             f"γ_M1 = {settings.gamma_M1:g}, "
-                             f"deflection limit span/{settings.deflection_limit:g}")
+        item(
+            "Member check",
+            f"{settings.method}, γ_M0 = {settings.gamma_M0:g}, "
+            f"γ_M1 = {settings.gamma_M1:g}, "
+            f"deflection limit span/{settings.deflection_limit:g}",
+        )
     item("Stations", f"{len(result.x)} (uniform grid, load positions and the exact peaks)")
 
     flow.heading("2  Method and references")
@@ -1228,12 +1516,16 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     pcr = ", ".join(f"Pcr{n} = {_pcr_text(result, U, n)}" for n in shown)
     item("Elastic critical loads", pcr)
     ratio = _load_ratio(result)
-    item("", f"effective length factor K = {_ratio(result.buckling.effective_length_factor)}; "
-             f"α_cr = Pcr1/P = {_alpha_text(result)}" + (f"; {ratio}" if ratio else ""))
+    item(
+        "",
+        f"effective length factor K = {_ratio(result.buckling.effective_length_factor)}; "
+        f"α_cr = Pcr1/P = {_alpha_text(result)}" + (f"; {ratio}" if ratio else ""),
+    )
     flow.space(3)
     widths = [1.75, 1.4, 0.95, 1.4, None]
-    flow.row(["Governing value", "second order", "at x", "first order (P = 0)", "at x"], widths,
-             weight="bold")
+    flow.row(
+        ["Governing value", "second order", "at x", "first order (P = 0)", "at x"], widths, weight="bold"
+    )
     rows = _governing_rows(result) + [("largest |T|", "transverse_force", "force")]
     for label, field, kind in rows:
         peak = getattr(result.governing, field)
@@ -1246,32 +1538,52 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         flow.row(cells, widths)
     flow.space(3)
     reactions = result.reactions
-    item("Reactions (support side)",
-         f"left T = {U.show('force', reactions.left_T)}, M = {U.show('moment', reactions.left_M)}; "
-         f"right T = {U.show('force', reactions.right_T)}, M = {U.show('moment', reactions.right_M)}")
-    item("", "T(0) − T(L) = total transverse load; the left support pushes the member by −T(0), the right by "
-             "+T(L), along +w", scale=0.85, color=_GREY)
+    item(
+        "Reactions (support side)",
+        f"left T = {U.show('force', reactions.left_T)}, M = {U.show('moment', reactions.left_M)}; "
+        f"right T = {U.show('force', reactions.right_T)}, M = {U.show('moment', reactions.right_M)}",
+    )
+    item(
+        "",
+        "T(0) − T(L) = total transverse load; the left support pushes the member by −T(0), the right by "
+        "+T(L), along +w",
+        scale=0.85,
+        color=_GREY,
+    )
     amplification = result.amplification
     from engine.results import AMPLIFICATION_DEFINITIONS as words
 
-    free = ("" if amplification.moment_bow_free is None
-            else f"; {_ratio(amplification.moment_bow_free)} without the bow")
-    item("Amplification, exact", f"moment {_ratio(amplification.moment)} over M_I + N·w0 "
-                                 f"({_ratio(amplification.moment_first_order)} over M_I alone{free}); "
-                                 f"deflection {_ratio(amplification.deflection)} ({words['deflection']})")
+    free = (
+        ""
+        if amplification.moment_bow_free is None
+        else f"; {_ratio(amplification.moment_bow_free)} without the bow"
+    )
+    item(
+        "Amplification, exact",
+        f"moment {_ratio(amplification.moment)} over M_I + N·w0 "
+        f"({_ratio(amplification.moment_first_order)} over M_I alone{free}); "
+        f"deflection {_ratio(amplification.deflection)} ({words['deflection']})",
+    )
     if amplification.approximations:
         for approximation in amplification.approximations:
-            against = ("exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact")
-            item("", f"{approximation.name} = {_ratio(approximation.value)}, error "
-                     f"{_percent(approximation.error)} against {against}; {approximation.source}", scale=0.92)
+            against = "exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact"
+            item(
+                "",
+                f"{approximation.name} = {_ratio(approximation.value)}, error "
+                f"{_percent(approximation.error)} against {against}; {approximation.source}",
+                scale=0.92,
+            )
     else:
         item("", "no approximations (none applies at or above Pcr1)", scale=0.92, color=_GREY)
     equilibrium = result.equilibrium
     if equilibrium is None:
         item("Equilibrium residuals", "n/a (no equilibrium state at a critical load)")
     else:
-        item("Equilibrium residuals", f"transverse {_scientific(equilibrium.transverse)}, moment "
-                                      f"{_scientific(equilibrium.moment)} (relative)")
+        item(
+            "Equilibrium residuals",
+            f"transverse {_scientific(equilibrium.transverse)}, moment "
+            f"{_scientific(equilibrium.moment)} (relative)",
+        )
 
     flow.heading("4  Member check (second-order forces)")
     check = result.check
@@ -1286,11 +1598,14 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         item("Strength alone", f"{_ratio(check.strength_utilization)} ({check.strength_kind})")
         out = check.out_of_plane
         if out is not None and out.checked:
-            item("Out of plane", f"N/N_b,Rd = {_ratio(out.utilization)} about the {out.axis} axis: "
-                                 f"L_cr = {U.show('length', out.buckling_length)}, "
-                                 f"N_cr = {U.show('force', out.N_cr)}, lambda_bar = {out.lambda_bar:.3f}, "
-                                 f"curve {out.curve}, chi = {out.chi:.3f}, N_b,Rd = chi·A·f_y/γ_M1 = "
-                                 f"{U.show('force', out.N_b_Rd)} (EN 1993-1-1 §6.3.1)")
+            item(
+                "Out of plane",
+                f"N/N_b,Rd = {_ratio(out.utilization)} about the {out.axis} axis: "
+                f"L_cr = {U.show('length', out.buckling_length)}, "
+                f"N_cr = {U.show('force', out.N_cr)}, lambda_bar = {out.lambda_bar:.3f}, "
+                f"curve {out.curve}, chi = {out.chi:.3f}, N_b,Rd = chi·A·f_y/γ_M1 = "
+                f"{U.show('force', out.N_b_Rd)} (EN 1993-1-1 §6.3.1)",
+            )
         elif out is not None:
             item("Out of plane", f"not checked: {out.reason}")
         if check.section_class is not None:
@@ -1299,8 +1614,11 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         if service is not None:
             allowed = U.show("small_length", service.allowed)
             shown = U.show("small_length", abs(service.deflection))
-            item("Deflection (service)", f"max|w| = {shown} against span/{service.limit:g} = {allowed} "
-                                         f"({_ratio(service.utilization)}); loads as given, no bow")
+            item(
+                "Deflection (service)",
+                f"max|w| = {shown} against span/{service.limit:g} = {allowed} "
+                f"({_ratio(service.utilization)}); loads as given, no bow",
+            )
         resistances = check.resistances or {}
         parts = []
         for key, kind in (("N_Rd", "force"), ("M_Rd", "moment"), ("V_Rd", "force")):
@@ -1319,8 +1637,12 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         flow.para(f"[info] {_general_caution(result)}", hanging=0.2)
     for caution in cautions:
         danger = caution.level == "danger"
-        flow.para(f"[{caution.level}] {caution.message} ({caution.source})", hanging=0.2,
-                  color=_DANGER if danger else _INK, weight="bold" if danger else "normal")
+        flow.para(
+            f"[{caution.level}] {caution.message} ({caution.source})",
+            hanging=0.2,
+            color=_DANGER if danger else _INK,
+            weight="bold" if danger else "normal",
+        )
 
 
 def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -> bytes:
@@ -1347,8 +1669,12 @@ def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -
     """
     pages = calc_sheet_figures(result, units=units, prepared_by=prepared_by, checked_by=checked_by, date=date)
     buffer = io.BytesIO()
-    metadata_ = {"Title": _title(result), "Subject": "strutscope calculation sheet", "Creator": "strutscope",
-                 "CreationDate": None}
+    metadata_ = {
+        "Title": _title(result),
+        "Subject": "strutscope calculation sheet",
+        "Creator": "strutscope",
+        "CreationDate": None,
+    }
     prepared_by = _name("prepared_by", prepared_by)
     if prepared_by:
         metadata_["Author"] = prepared_by
@@ -1376,8 +1702,17 @@ def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", dat
             pages.append(fig)
             return fig
 
-        flow = _Flow(new_page() if draw else None, measure, left=margin, right=width - margin,
-                     top=height - margin - 0.2, bottom=margin + 0.25, size=size, draw=draw, new_page=new_page)
+        flow = _Flow(
+            new_page() if draw else None,
+            measure,
+            left=margin,
+            right=width - margin,
+            top=height - margin - 0.2,
+            bottom=margin + 0.25,
+            size=size,
+            draw=draw,
+            new_page=new_page,
+        )
         _sheet(flow, result, U, date=date_text, prepared_by=prepared_by, checked_by=checked_by)
         return flow.pages, pages
 
@@ -1390,8 +1725,17 @@ def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", dat
     for number, fig in enumerate(pages, start=1):
         _sheet_frame(fig, number, total, margin)
     figure = result_figure(result, units=U, date=date_text)
-    figure.text(0.985, 0.008, f"page {total} of {total}", ha="right", va="bottom", fontsize=6.5, color=_GREY,
-                family=_FONT, parse_math=False)
+    figure.text(
+        0.985,
+        0.008,
+        f"page {total} of {total}",
+        ha="right",
+        va="bottom",
+        fontsize=6.5,
+        color=_GREY,
+        family=_FONT,
+        parse_math=False,
+    )
     return pages + [figure]
 
 
@@ -1399,15 +1743,45 @@ def _sheet_frame(fig, number: int, total: int, margin: float) -> None:
     """Running header and footer of a calc-sheet page."""
     w, h = fig.get_size_inches()
     top = (h - margin + 0.05) / h
-    fig.text(margin / w, top, "strutscope · calculation sheet", ha="left", va="bottom", fontsize=7.5,
-             color=_GREY, family=_FONT, parse_math=False)
-    fig.text(1 - margin / w, top, f"page {number} of {total}", ha="right", va="bottom", fontsize=7.5,
-             color=_GREY, family=_FONT, parse_math=False)
-    fig.add_artist(Line2D([margin / w, 1 - margin / w], [top - 0.004] * 2, color=_LIGHT, lw=0.6,
-                          transform=fig.transFigure))
-    fig.text(margin / w, (margin - 0.05) / h, "Elastic analysis of one member; not a full code check — see "
-             "the cautions. Check against your local codes and have it reviewed by a licensed engineer.",
-             ha="left", va="top", fontsize=6.5, color=_GREY, family=_FONT, parse_math=False)
+    fig.text(
+        margin / w,
+        top,
+        "strutscope · calculation sheet",
+        ha="left",
+        va="bottom",
+        fontsize=7.5,
+        color=_GREY,
+        family=_FONT,
+        parse_math=False,
+    )
+    fig.text(
+        1 - margin / w,
+        top,
+        f"page {number} of {total}",
+        ha="right",
+        va="bottom",
+        fontsize=7.5,
+        color=_GREY,
+        family=_FONT,
+        parse_math=False,
+    )
+    fig.add_artist(
+        Line2D(
+            [margin / w, 1 - margin / w], [top - 0.004] * 2, color=_LIGHT, lw=0.6, transform=fig.transFigure
+        )
+    )
+    fig.text(
+        margin / w,
+        (margin - 0.05) / h,
+        "Elastic analysis of one member; not a full code check — see "
+        "the cautions. Check against your local codes and have it reviewed by a licensed engineer.",
+        ha="left",
+        va="top",
+        fontsize=6.5,
+        color=_GREY,
+        family=_FONT,
+        parse_math=False,
+    )
 
 
 def case_json(case) -> str:

@@ -20,9 +20,19 @@ PRIMARY = "DejaVu Sans"
 #: Fonts tried after DejaVu Sans when installed (CJK first, then wide-coverage and symbol fonts). Colour
 #: emoji fonts are left out: matplotlib draws outlines only.
 FALLBACK_FAMILIES = (
-    "Noto Sans CJK JP", "Noto Sans CJK SC", "Noto Sans CJK TC", "Noto Sans CJK KR", "Source Han Sans",
-    "WenQuanYi Zen Hei", "WenQuanYi Micro Hei", "Droid Sans Fallback", "Noto Sans", "Noto Sans Symbols",
-    "Noto Sans Symbols2", "Noto Emoji", "Symbola",
+    "Noto Sans CJK JP",
+    "Noto Sans CJK SC",
+    "Noto Sans CJK TC",
+    "Noto Sans CJK KR",
+    "Source Han Sans",
+    "WenQuanYi Zen Hei",
+    "WenQuanYi Micro Hei",
+    "Droid Sans Fallback",
+    "Noto Sans",
+    "Noto Sans Symbols",
+    "Noto Sans Symbols2",
+    "Noto Emoji",
+    "Symbola",
 )
 
 
@@ -37,8 +47,9 @@ def _installed() -> tuple[tuple[str, frozenset], ...]:
         with warnings.catch_warnings():
             warnings.simplefilter("ignore")
             try:
-                path = font_manager.findfont(font_manager.FontProperties(family=family),
-                                             fallback_to_default=False)
+                path = font_manager.findfont(
+                    font_manager.FontProperties(family=family), fallback_to_default=False
+                )
             except ValueError:  # not installed
                 continue
         if any(path == seen for _, seen, _ in found):
@@ -64,5 +75,6 @@ def drawable(text: str) -> str:
     if text.isascii():
         return text
     fonts = _installed()
-    return "".join(char if char.isspace() or any(ord(char) in covered for _, covered in fonts) else "?"
-                   for char in text)
+    return "".join(
+        char if char.isspace() or any(ord(char) in covered for _, covered in fonts) else "?" for char in text
+    )

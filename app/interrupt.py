@@ -43,6 +43,7 @@ def _on_signal(signum, frame) -> None:
 
 def clean_exit(command: str) -> Callable:
     """Decorate the handler of `command` so that SIGINT and SIGTERM end it cleanly (see the module)."""
+
     def decorate(handler: Callable[..., int]) -> Callable[..., int]:
         @functools.wraps(handler)
         def run(*args, **kwargs) -> int:
@@ -62,14 +63,19 @@ def clean_exit(command: str) -> Callable:
             finally:
                 for number, previous in installed.items():
                     signal.signal(number, previous)
+
         return run
+
     return decorate
 
 
 def _stopped(command: str, what: str, code: int) -> int:
     with contextlib.suppress(OSError, ValueError):  # stderr closed
-        print(f"strutscope {command}: stopped by {what}; no half-written file was left", file=sys.stderr,
-              flush=True)
+        print(
+            f"strutscope {command}: stopped by {what}; no half-written file was left",
+            file=sys.stderr,
+            flush=True,
+        )
     return code
 
 

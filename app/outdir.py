@@ -19,8 +19,16 @@ import json
 import os
 from collections.abc import Iterator
 
-__all__ = ["LOCK_FILE", "MANIFEST_FILE", "FolderError", "Manifest", "check_not_input", "locked",
-           "remove_temporaries", "TEMPORARY_PREFIX"]
+__all__ = [
+    "LOCK_FILE",
+    "MANIFEST_FILE",
+    "FolderError",
+    "Manifest",
+    "check_not_input",
+    "locked",
+    "remove_temporaries",
+    "TEMPORARY_PREFIX",
+]
 
 LOCK_FILE = ".strutscope.lock"
 MANIFEST_FILE = ".strutscope-manifest.json"
@@ -37,8 +45,10 @@ class FolderError(Exception):
 def locked(folder: str) -> Iterator[None]:
     """Hold the folder's run lock; raise :class:`FolderError` when another run holds it."""
     path = os.path.join(folder, LOCK_FILE)
-    busy = (f"another strutscope batch is writing into this folder (it holds {LOCK_FILE}); wait for it to "
-            "finish or choose another --out folder")
+    busy = (
+        f"another strutscope batch is writing into this folder (it holds {LOCK_FILE}); wait for it to "
+        "finish or choose another --out folder"
+    )
     try:
         import fcntl
     except ImportError:  # not POSIX: a file that exists while a run goes on
@@ -75,8 +85,10 @@ def check_not_input(table: str, folder: str, results_name: str) -> None:
     except OSError:  # the results file does not exist yet: compare the paths
         same = os.path.realpath(table) == os.path.realpath(target)
     if same:
-        raise FolderError(f"--out would write {results_name} over the input table {table}; choose another "
-                          "folder for the results")
+        raise FolderError(
+            f"--out would write {results_name} over the input table {table}; choose another "
+            "folder for the results"
+        )
 
 
 def remove_temporaries(folder: str) -> None:
@@ -103,8 +115,14 @@ class Manifest:
         except (OSError, ValueError, AttributeError):
             return set()
         # Only plain file names of calc sheets: never a path out of the folder.
-        return {name for name in names if isinstance(name, str) and name.endswith(".pdf")
-                and os.path.basename(name) == name and not name.startswith(".")}
+        return {
+            name
+            for name in names
+            if isinstance(name, str)
+            and name.endswith(".pdf")
+            and os.path.basename(name) == name
+            and not name.startswith(".")
+        }
 
     def add(self, name: str) -> None:
         self.written.add(name)

@@ -240,11 +240,18 @@ def _esc(text) -> str:
     return html.escape(str(text), quote=True)
 
 
-
 def _download(callback, suffix: str, label: str, width: int, margin=(10, 3)):
     """A download button of the page: the file strutscope-case.<suffix>, written by `callback` on click."""
-    return pn.widgets.FileDownload(callback=callback, filename=f"strutscope-case.{suffix}", label=label,
-                                   color="light", width=width, margin=margin, stylesheets=[_WIDGET_CSS])
+    return pn.widgets.FileDownload(
+        callback=callback,
+        filename=f"strutscope-case.{suffix}",
+        label=label,
+        color="light",
+        width=width,
+        margin=margin,
+        stylesheets=[_WIDGET_CSS],
+    )
+
 
 class MemberPage(pn.viewable.Viewer):
     """The member explorer for one session: inputs, the axial-force control, plots, values and cautions.
@@ -982,11 +989,14 @@ class MemberPage(pn.viewable.Viewer):
         self.gamma1_input = self._number("gamma_M1", "γ_M1", None, width=90)
         self.limit_input = self._number("deflection_limit", "deflection limit span/n: n", None, width=170)
         self.out_of_plane_select = self._select(
-            "out_of_plane", "out of plane", {"buckles (checked)": "buckles", "restrained": "restrained"},
+            "out_of_plane",
+            "out of plane",
+            {"buckles (checked)": "buckles", "restrained": "restrained"},
             width=140,
         )
-        self.out_of_plane_input = self._number("out_of_plane_length", "out-of-plane L_cr (empty: L)",
-                                               "length", width=150)
+        self.out_of_plane_input = self._number(
+            "out_of_plane_length", "out-of-plane L_cr (empty: L)", "length", width=150
+        )
         self.prepared_input = pn.widgets.TextInput(
             label="prepared by (calc sheet)", width=140, max_length=60, stylesheets=[_WIDGET_CSS]
         )
@@ -1195,7 +1205,8 @@ class MemberPage(pn.viewable.Viewer):
             margin=(0, 4),
             styles={"background": "#ffffff"},
         )
-        # The values and the cautions each scroll in their own box, so that both stay in view however many rows
+        # The values and the cautions each scroll in their own box, so that both stay in view however
+        # many rows
         # the checks add (the member check heads the values); the general caution stays pinned below them.
         self.values_box = pn.Column(
             self.values_pane, scroll=True, sizing_mode="stretch_both", margin=0, min_height=200
@@ -1792,7 +1803,8 @@ class MemberPage(pn.viewable.Viewer):
             if bow.direction_governing and bow.automatic:
                 both = "; ".join(
                     ("" if u is None else f"{d}: utilisation {_ratio_text(u)}, max|M| ")
-                    + ("" if u is not None else f"{d}: max|M| ") + U.show("moment", m)
+                    + ("" if u is not None else f"{d}: max|M| ")
+                    + U.show("moment", m)
                     for d, u, m in bow.directions
                 )
                 text += f"<br>Direction: {_esc(bow.direction)}, the worse of both solved ({_esc(both)})"
@@ -2277,8 +2289,11 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
                 out.utilization > 1,
             )
         elif out is not None:
-            row("out of plane", "not checked", "restrained" if out.reason.startswith("restrained") else
-                "see cautions")
+            row(
+                "out of plane",
+                "not checked",
+                "restrained" if out.reason.startswith("restrained") else "see cautions",
+            )
         service = result.service
         if service is not None:
             row(
@@ -2329,8 +2344,11 @@ def _values_table(result, capacity, capacity_note: str, U) -> str:
     )
     head("Amplification · error of approximation")
     amplification = result.amplification
-    row("M ÷ (M<sub>I</sub> + N·w0)", _ratio_text(amplification.moment),
-        f"w: {_ratio_text(amplification.deflection)}")
+    row(
+        "M ÷ (M<sub>I</sub> + N·w0)",
+        _ratio_text(amplification.moment),
+        f"w: {_ratio_text(amplification.deflection)}",
+    )
     row("M ÷ M<sub>I</sub>", _ratio_text(amplification.moment_first_order), "bow not in M_I")
     if amplification.moment_bow_free is not None:
         row("M ÷ M<sub>I</sub>, no bow", _ratio_text(amplification.moment_bow_free), "for B1")

@@ -396,7 +396,7 @@ def serve(
     print(f"strutscope: serving the member explorer on {source} at http://{shown_host}:{port}/", flush=True)
     if host in ("0.0.0.0", "::"):
         print(f"strutscope: on this computer, open it at http://127.0.0.1:{port}/", flush=True)
-    others = hosts[len(guard.LOOPBACK_NAMES):]
+    others = hosts[len(guard.LOOPBACK_NAMES) :]
     if not _is_loopback(host):
         print(
             "strutscope: other computers can open it at "

@@ -715,8 +715,10 @@ class MemberState(param.Parameterized):
     def _link_failed(self, reason: str) -> None:
         # Served, a solve of the case kept may still be running: it must not clear this message.
         self._failed_at = self._refresh_id + 1
-        self._fail(f"case: the link does not hold a case this page can read ({reason}); the page keeps the "
-                   "case it had")
+        self._fail(
+            f"case: the link does not hold a case this page can read ({reason}); the page keeps the "
+            "case it had"
+        )
 
     def _notify(self, message: str) -> None:
         with param.edit_constant(self):
@@ -905,8 +907,11 @@ def _chart_job(state: MemberState, case, key: str, critical_loads):
         outputs = {"sweep": None, "approximation": None, "chart_note": note}
     except Exception as error:  # noqa: BLE001 - the chart is secondary
         _log.error("strutscope: a chart was not computed (%s)", type(error).__name__)
-        outputs = {"sweep": None, "approximation": None,
-                   "chart_note": f"the amplification chart could not be computed ({type(error).__name__})"}
+        outputs = {
+            "sweep": None,
+            "approximation": None,
+            "chart_note": f"the amplification chart could not be computed ({type(error).__name__})",
+        }
     return partial(state._charted, key, outputs)
 
 

@@ -192,8 +192,9 @@ def format_number(value: float | None, digits: int = 4, max_decimals: int = _MAX
 
 
 def _system(system: str, **units: tuple[str, float]) -> Units:
-    return Units(system=system,
-                 **{kind: Unit(label=label, factor=factor) for kind, (label, factor) in units.items()})
+    return Units(
+        system=system, **{kind: Unit(label=label, factor=factor) for kind, (label, factor) in units.items()}
+    )
 
 
 def units(system: str = "si") -> Units:

@@ -190,8 +190,11 @@ def chart_job(case_text: str, forces) -> dict:
         sweep = engine.sweep(case, forces)
         outputs.update(sweep=sweep, approximation=(sweep.axial_force, sweep.simple_amplification))
     except Exception as error:  # noqa: BLE001 - the chart is secondary
-        outputs.update(sweep=None, approximation=None,
-                       chart_note=f"the amplification chart could not be computed ({type(error).__name__})")
+        outputs.update(
+            sweep=None,
+            approximation=None,
+            chart_note=f"the amplification chart could not be computed ({type(error).__name__})",
+        )
     if case.section is not None and case.material is not None:
         try:
             outputs.update(capacity=engine.capacity(case), capacity_note="")

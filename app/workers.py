@@ -65,13 +65,14 @@ def worker_pool(workers: int, pdf: bool) -> Iterator[concurrent.futures.ProcessP
         context.set_forkserver_preload(preload)
         with _one_thread_each():
             forkserver.ensure_running()
-        pool = concurrent.futures.ProcessPoolExecutor(max_workers=workers, mp_context=context,
-                                                      initializer=worker_start)
+        pool = concurrent.futures.ProcessPoolExecutor(
+            max_workers=workers, mp_context=context, initializer=worker_start
+        )
     else:  # Windows: spawned workers copy the environment as each one starts
         with _one_thread_each():
             pool = concurrent.futures.ProcessPoolExecutor(
-                max_workers=workers, mp_context=multiprocessing.get_context("spawn"),
-                initializer=worker_start)
+                max_workers=workers, mp_context=multiprocessing.get_context("spawn"), initializer=worker_start
+            )
     try:
         yield pool
     except BaseException:

@@ -7,8 +7,6 @@ case-file schema, and the README for the method and its references.
 from engine.analysis import solve, sweep
 from engine.buckling import Buckling, critical_loads
 from engine.capacity import Capacity, capacity
-from engine.cautions import Caution
-from engine.checks import CheckSettings, MemberCheck
 from engine.case import (
     Case,
     CoupleLoad,
@@ -21,6 +19,8 @@ from engine.case import (
     load_case,
     save_case,
 )
+from engine.cautions import Caution
+from engine.checks import CheckSettings, MemberCheck
 from engine.errors import CaseError
 from engine.results import (
     Amplification,

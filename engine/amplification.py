@@ -5,11 +5,13 @@ With :math:`\alpha = P/P_{cr,1}`, :math:`P_{cr,1}` the member's exact first elas
 - :math:`1/(1-\alpha)`: the classical amplification of a sinusoidal first-order shape
   (Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed. 1961, ch. 1, article number from memory);
 - :math:`(1+\psi\alpha)/(1-\alpha)`: the moment-gradient form with :math:`\psi` from AISC 360-16 Commentary
-  Table C-A-8.1 (after Iwankiw, AISC Engineering Journal 1984; the matching of support cases to :math:`\psi` is
+  Table C-A-8.1 (after Iwankiw, AISC Engineering Journal 1984; the matching of support cases to
+  :math:`\psi` is
   from memory), given only where the case is one of the table's;
 - :math:`B_1 = C_m/(1-\alpha) \ge 1`: AISC 360-16 Appendix 8, §8.2.1 (equation numbers from memory), with
   :math:`C_m = 0.6 - 0.4 M_1/M_2` when only end moments act, :math:`1 + \psi\alpha` where the table fits,
-  and conservatively 1.0 otherwise; :math:`\alpha_{LRFD} = 1`, and :math:`P_{e1}` taken as the exact critical load
+  and conservatively 1.0 otherwise; :math:`\alpha_{LRFD} = 1`, and :math:`P_{e1}` taken as the exact
+  critical load
   (the Appendix allows an analysis to justify it). Only for members braced at both ends.
 
 The first two are compared with the exact amplification over the reference :math:`M_I + N w_0`
@@ -25,9 +27,13 @@ from engine.results import Approximation
 
 __all__ = ["approximations", "braced", "psi_for"]
 
-_SOURCE_SIMPLE = "Timoshenko & Gere (1961) ch. 1, sinusoidal amplification 1/(1 - P/Pcr) (article from memory)"
+_SOURCE_SIMPLE = (
+    "Timoshenko & Gere (1961) ch. 1, sinusoidal amplification 1/(1 - P/Pcr) (article from memory)"
+)
 _SOURCE_PSI = "AISC 360-16 Commentary Table C-A-8.1, psi after Iwankiw (1984) (case matching from memory)"
-_SOURCE_B1 = "AISC 360-16 Appendix 8 §8.2.1, B1 = Cm/(1 - P/Pe1) >= 1, Pe1 = exact Pcr1 (eq. numbers from memory)"
+_SOURCE_B1 = (
+    "AISC 360-16 Appendix 8 §8.2.1, B1 = Cm/(1 - P/Pe1) >= 1, Pe1 = exact Pcr1 (eq. numbers from memory)"
+)
 
 # (left, right) named supports -> (psi for a full uniform load, psi for a central point load)
 _PSI = {
@@ -114,11 +120,22 @@ def approximations(case, axial_force, pcr1, exact, end_moments, bow_free=None) -
         return tuple(out)
     psi = psi_for(case)
     if psi is not None:
-        out.append(item(f"(1 + psi P/Pcr1)/(1 - P/Pcr1), psi = {psi:g}", (1 + psi * alpha) / (1 - alpha), _SOURCE_PSI))
+        out.append(
+            item(
+                f"(1 + psi P/Pcr1)/(1 - P/Pcr1), psi = {psi:g}", (1 + psi * alpha) / (1 - alpha), _SOURCE_PSI
+            )
+        )
     if braced(case):
         cm = _end_moment_cm(case, end_moments)
         if cm is None:
             cm = 1.0 + psi * alpha if psi is not None else 1.0
-        out.append(item(f"AISC B1, Cm = {cm:.3f}", max(cm / (1.0 - alpha), 1.0), _SOURCE_B1, bow_free,
-                        "moment_bow_free"))
+        out.append(
+            item(
+                f"AISC B1, Cm = {cm:.3f}",
+                max(cm / (1.0 - alpha), 1.0),
+                _SOURCE_B1,
+                bow_free,
+                "moment_bow_free",
+            )
+        )
     return tuple(out)

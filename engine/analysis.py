@@ -16,8 +16,16 @@ from engine.errors import CaseError
 from engine.imperfections import bow_for
 from engine.out_of_plane import utilisation as out_of_plane_utilisation
 from engine.reference import reference_peak, reference_peaks
-from engine.results import (Amplification, Equilibrium, Governing, Peak, Reactions, Result, ServiceCheck,
-                            SweepResult)
+from engine.results import (
+    Amplification,
+    Equilibrium,
+    Governing,
+    Peak,
+    Reactions,
+    Result,
+    ServiceCheck,
+    SweepResult,
+)
 from engine.solution import Batch, Model, Points, base_stations, refine_peaks, strongest_tension_kappa
 
 __all__ = ["solve", "sweep"]
@@ -57,8 +65,12 @@ class _Prepared:
     first-order solution. The page drags the axial force, so these are built once per case."""
 
     def __init__(self, case):
-        plain = (case.section is None and case.material is None and case.imperfection.preset is None
-                 and case.stiffness_factor == 1.0)
+        plain = (
+            case.section is None
+            and case.material is None
+            and case.imperfection.preset is None
+            and case.stiffness_factor == 1.0
+        )
         if plain:
             self.member, analysis_case = None, case
         else:
@@ -125,8 +137,9 @@ class _Prepared:
             from engine.classification import classify
 
             member = self.member
-            self._design[compression] = None if member is None else classify(member.section, member.material,
-                                                                               compression=compression)
+            self._design[compression] = (
+                None if member is None else classify(member.section, member.material, compression=compression)
+            )
         return self._design[compression]
 
     def out_of_plane(self):
@@ -142,12 +155,23 @@ class _Prepared:
         """What the cautions need to know of the bow."""
         if self.member is None:
             imp = self.analysis_case.imperfection
-            return {"amplitude": imp.amplitude if imp.shape != "none" else 0.0, "code_amplitude": None,
-                    "opposes_load": False, "shape": imp.shape}
+            return {
+                "amplitude": imp.amplitude if imp.shape != "none" else 0.0,
+                "code_amplitude": None,
+                "opposes_load": False,
+                "shape": imp.shape,
+            }
         bow = self.member.bow
-        return {"amplitude": bow.amplitude if bow.shape != "none" else 0.0, "code_amplitude": bow.code_amplitude,
-                "code_label": bow.code_label, "code_source": bow.code_source, "opposes_load": bow.favourable,
-                "shape": bow.shape, "notes": bow.notes, "sway": bow.sway}
+        return {
+            "amplitude": bow.amplitude if bow.shape != "none" else 0.0,
+            "code_amplitude": bow.code_amplitude,
+            "code_label": bow.code_label,
+            "code_source": bow.code_source,
+            "opposes_load": bow.favourable,
+            "shape": bow.shape,
+            "notes": bow.notes,
+            "sway": bow.sway,
+        }
 
     def stations(self, count, kappa):
         """Base stations (seg, xi, shown) and their Points, cached."""
@@ -155,7 +179,9 @@ class _Prepared:
         if key not in self._stations:
             seg, xi, shown = base_stations(self.model, count, kappa)
             every = np.arange(self.model.nseg)
-            ends = np.stack([np.searchsorted(seg, every), np.searchsorted(seg, every, side="right") - 1], 1).ravel()
+            ends = np.stack(
+                [np.searchsorted(seg, every), np.searchsorted(seg, every, side="right") - 1], 1
+            ).ravel()
             pts = Points(self.model, seg, xi, ends=ends)
             shown_idx = np.nonzero(shown)[0]
             pts.order_key = (shown_idx, seg[shown_idx] * 2.0 * self.model.L + xi[shown_idx])
@@ -171,7 +197,9 @@ class _Prepared:
             st = batch.states(0, pts)
             _, ps, px, pk = refine_peaks(batch, 0, pts, *batch.targets(st, pts), states=st)
             m = max(float(np.abs(st["M"]).max()), float(np.abs(pk["M"]).max(initial=0.0)))
-            d = max(float(np.abs(st["w"] + st["w0"]).max()), float(np.abs(pk["w"] + pk["w0"]).max(initial=0.0)))
+            d = max(
+                float(np.abs(st["w"] + st["w0"]).max()), float(np.abs(pk["w"] + pk["w0"]).max(initial=0.0))
+            )
             ends = (float(st["M"][0]), float(st["M"][-1]))
             self._first[count] = (batch, ps, px, m, d, ends)
         return self._first[count]
@@ -182,8 +210,20 @@ _MODEL_CACHE_SIZE = 32
 
 
 def _prepare(case) -> _Prepared:
-    key = (case.length, case.EI, case.left, case.right, case.loads, case.imperfection, case.section, case.axis,
-           case.material, case.stiffness_factor, case.check, case.out_of_plane)
+    key = (
+        case.length,
+        case.EI,
+        case.left,
+        case.right,
+        case.loads,
+        case.imperfection,
+        case.section,
+        case.axis,
+        case.material,
+        case.stiffness_factor,
+        case.check,
+        case.out_of_plane,
+    )
     hit = _MODELS.get(key)
     if hit is None:
         hit = _Prepared(case)
@@ -234,23 +274,42 @@ def _ratio(num: float, den: float) -> float | None:
 def _message(status, P, pcr, n_crit) -> str:
     kN = 1e-3
     if status == "critical":
-        return (f"The axial force {P * kN:.6g} kN equals critical load {n_crit} ({pcr[n_crit - 1] * kN:.6g} kN): "
-                "no equilibrium exists and the response is unbounded.")
+        return (
+            f"The axial force {P * kN:.6g} kN equals critical load {n_crit} ({pcr[n_crit - 1] * kN:.6g} kN): "
+            "no equilibrium exists and the response is unbounded."
+        )
     if status == "unstable":
         between = int(np.searchsorted(pcr, P))
-        return (f"The axial force {P * kN:.6g} kN exceeds the first critical load {pcr[0] * kN:.6g} kN "
-                f"(P/Pcr1 = {P / pcr[0]:.4g}, between critical loads {between} and {between + 1}): this "
-                "equilibrium is unstable; the member buckles before it is reached.")
+        return (
+            f"The axial force {P * kN:.6g} kN exceeds the first critical load {pcr[0] * kN:.6g} kN "
+            f"(P/Pcr1 = {P / pcr[0]:.4g}, between critical loads {between} and {between + 1}): this "
+            "equilibrium is unstable; the member buckles before it is reached."
+        )
     if P > 0:
-        return (f"Compression {P * kN:.6g} kN, P/Pcr1 = {P / pcr[0]:.4g} (alpha_cr = {float(pcr[0]) / P:.4g}); "
-                "stable equilibrium.")
+        return (
+            f"Compression {P * kN:.6g} kN, P/Pcr1 = {P / pcr[0]:.4g} (alpha_cr = {float(pcr[0]) / P:.4g}); "
+            "stable equilibrium."
+        )
     if P < 0:
         return f"Tension {-P * kN:.6g} kN; stable equilibrium, no buckling."
     return "No axial force: first-order solution."
 
 
-def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, first_order=False,
-           bow_free=None, cautions=True) -> Result:
+def _build(
+    case,
+    prep,
+    count,
+    P,
+    st,
+    x,
+    seg,
+    xi,
+    status="stable",
+    n_crit=0,
+    first_order=False,
+    bow_free=None,
+    cautions=True,
+) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
     w0 = st["w0"]
@@ -263,11 +322,16 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
     stacked = np.stack((w, total, M, V, T))
     at = np.abs(stacked).argmax(axis=1)
     values, where = stacked[_FIVE, at].tolist(), x[at].tolist()
-    governing = Governing(deflection=Peak(value=values[0], x=where[0]), total_offset=Peak(value=values[1], x=where[1]),
-                          moment=Peak(value=values[2], x=where[2]), shear=Peak(value=values[3], x=where[3]),
-                          transverse_force=Peak(value=values[4], x=where[4]))
+    governing = Governing(
+        deflection=Peak(value=values[0], x=where[0]),
+        total_offset=Peak(value=values[1], x=where[1]),
+        moment=Peak(value=values[2], x=where[2]),
+        shear=Peak(value=values[3], x=where[3]),
+        transverse_force=Peak(value=values[4], x=where[4]),
+    )
     source = None
     if not first_order:
+
         def source(result, seg=seg, xi=xi):
             batch = prep.first_order(count)[0]
             st0 = batch.states(0, Points(prep.model, seg, xi))
@@ -299,8 +363,11 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
         equilibrium = Equilibrium(transverse=float(res_t), moment=float(res_m))
         if first_order:
             one = 1.0 if governing.moment.magnitude > 0 else None
-            amplification = Amplification(moment=one, deflection=1.0 if governing.total_offset.magnitude > 0
-                                          else None, moment_first_order=one)
+            amplification = Amplification(
+                moment=one,
+                deflection=1.0 if governing.total_offset.magnitude > 0 else None,
+                moment_first_order=one,
+            )
         else:
             amplification = _amplification(case, prep, count, P, governing, bow_free)
     member = prep.member
@@ -315,27 +382,62 @@ def _build(case, prep, count, P, st, x, seg, xi, status="stable", n_crit=0, firs
             w_service = governing.deflection
         else:
             w_service = None
-        check = check_member(x=x, axial_force=P, moment=M, shear=V,
-                             deflection=np.array([w_service.value if w_service is not None else values[0]]),
-                             length=model.L, section=section, material=material, axis=case.axis,
-                             settings=case.check,
-                             route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
-                             section_class=prep.section_class(P > 0),
-                             beyond_critical=status == "unstable",
-                             out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P))
+        check = check_member(
+            x=x,
+            axial_force=P,
+            moment=M,
+            shear=V,
+            deflection=np.array([w_service.value if w_service is not None else values[0]]),
+            length=model.L,
+            section=section,
+            material=material,
+            axis=case.axis,
+            settings=case.check,
+            route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
+            section_class=prep.section_class(P > 0),
+            beyond_critical=status == "unstable",
+            out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P),
+        )
         if w_service is not None:
-            service = ServiceCheck(utilization=check.deflection_utilization, deflection=w_service.value,
-                                   x=w_service.x, allowed=check.deflection_allowed,
-                                   limit=check.settings.deflection_limit)
+            service = ServiceCheck(
+                utilization=check.deflection_utilization,
+                deflection=w_service.value,
+                x=w_service.x,
+                allowed=check.deflection_allowed,
+                limit=check.settings.deflection_limit,
+            )
     result = Result(
-        case=case, axial_force=float(P), x=x, deflection=w, rotation=rot, moment=M, shear=V, transverse_force=T,
-        initial_bow=w0, total_offset=total, status=status, stable=status == "stable",
-        message=_message(status, P, pcr, n_crit), critical_loads=pcr.copy(), buckling=buckling,
-        alpha_cr=float(pcr[0]) / P if P > 0 else math.inf, governing=governing,
-        reactions=reactions, amplification=amplification, equilibrium=equilibrium, _first_order_source=source,
-        EI=model.EI, section=section, material=material, bow=member.bow if member is not None else None,
-        check=check, utilization=(check.utilization if check is not None else
-                                  (math.inf if status == "critical" and section is not None else None)),
+        case=case,
+        axial_force=float(P),
+        x=x,
+        deflection=w,
+        rotation=rot,
+        moment=M,
+        shear=V,
+        transverse_force=T,
+        initial_bow=w0,
+        total_offset=total,
+        status=status,
+        stable=status == "stable",
+        message=_message(status, P, pcr, n_crit),
+        critical_loads=pcr.copy(),
+        buckling=buckling,
+        alpha_cr=float(pcr[0]) / P if P > 0 else math.inf,
+        governing=governing,
+        reactions=reactions,
+        amplification=amplification,
+        equilibrium=equilibrium,
+        _first_order_source=source,
+        EI=model.EI,
+        section=section,
+        material=material,
+        bow=member.bow if member is not None else None,
+        check=check,
+        utilization=(
+            check.utilization
+            if check is not None
+            else (math.inf if status == "critical" and section is not None else None)
+        ),
         service=service,
     )
     if not first_order and cautions:
@@ -357,10 +459,16 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
     else:
         m_free = None if prep.has_bow and P != 0.0 else m_first
     return Amplification(
-        moment=m_exact, deflection=_ratio(governing.total_offset.magnitude, d1),
-        approximations=approximations(case, P, prep.buckling.critical_loads[0], m_exact, ends,
-                                      bow_free=m_free),
-        moment_first_order=m_first, moment_bow_free=m_free, reference_moment=ref, reference_moment_x=ref_x)
+        moment=m_exact,
+        deflection=_ratio(governing.total_offset.magnitude, d1),
+        approximations=approximations(
+            case, P, prep.buckling.critical_loads[0], m_exact, ends, bow_free=m_free
+        ),
+        moment_first_order=m_first,
+        moment_bow_free=m_free,
+        reference_moment=ref,
+        reference_moment_x=ref_x,
+    )
 
 
 def _with_cautions(result, prep, favourable: bool) -> Result:
@@ -370,9 +478,21 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
     slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
     facts = dict(prep.bow_facts(), opposes_load=favourable)
     # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
-    cautions = tuple(assess(P=result.axial_force, pcr1=pcr1, alpha_cr_limit=alpha_cr_limit("elastic"),
-                            status=result.status, slenderness=slender, section=section, material=result.material,
-                            axis=case.axis, check=result.check, bow=facts, service=result.service))
+    cautions = tuple(
+        assess(
+            P=result.axial_force,
+            pcr1=pcr1,
+            alpha_cr_limit=alpha_cr_limit("elastic"),
+            status=result.status,
+            slenderness=slender,
+            section=section,
+            material=result.material,
+            axis=case.axis,
+            check=result.check,
+            bow=facts,
+            service=result.service,
+        )
+    )
     return dataclasses.replace(result, cautions=cautions)
 
 
@@ -393,8 +513,9 @@ def _raw(prep, n: int, P: float):
         ps, px = np.empty(0, dtype=int), np.empty(0)
     else:
         st = batch.states(0, pts)
-        _, ps, px, ext = refine_peaks(batch, 0, pts, *batch.targets(st, pts), also=(first_seg, first_xi),
-                                       states=st)
+        _, ps, px, ext = refine_peaks(
+            batch, 0, pts, *batch.targets(st, pts), also=(first_seg, first_xi), states=st
+        )
     # The peaks of both orders become stations, so that first_order shares x and both are exact there.
     extra_seg, extra_xi = np.concatenate([ps, first_seg]), np.concatenate([px, first_xi])
     order = _merged_order(pts, extra_seg, extra_xi, model.L)
@@ -407,7 +528,7 @@ def _raw(prep, n: int, P: float):
         base = st["_table"][0][:6] if "_table" in st else np.stack([st[name] for name in _FIELDS])
         extra = ext["_rows"] if "_rows" in ext else np.stack([ext[name] for name in _FIELDS])
         both = np.concatenate([base, extra], axis=1)[:, order]
-        values = dict(zip(_FIELDS, both))
+        values = dict(zip(_FIELDS, both, strict=True))
     return status, n_crit, values, x, seg, xi
 
 
@@ -456,8 +577,13 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
     raw = _raw(prep, n, P)
     status = raw[0]
     choice = prep.member.bow if prep.member is not None else None
-    reverse = (choice is not None and prep.has_bow and P != 0.0 and status != "critical"
-               and (choice.automatic or details))
+    reverse = (
+        choice is not None
+        and prep.has_bow
+        and P != 0.0
+        and status != "critical"
+        and (choice.automatic or details)
+    )
     bow_free = None
     if details and prep.has_bow and P != 0.0 and status != "critical":
         member = prep.member
@@ -476,20 +602,34 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
 
     def said(direction, strength, moment):
         text = f"max|M| {moment * 1e-3:.4g} kN·m"
-        return f"{direction}: strength utilisation {strength:.3f}, {text}" if strength is not None else \
-            f"{direction}: {text}"
+        return (
+            f"{direction}: strength utilisation {strength:.3f}, {text}"
+            if strength is not None
+            else f"{direction}: {text}"
+        )
 
     if choice.automatic:
-        (chosen_prep, chosen_raw, kept, rest) = ((other_prep, other, facts[1], facts[0]) if worse_b
-                                                 else (prep, raw, facts[0], facts[1]))
+        (chosen_prep, chosen_raw, kept, rest) = (
+            (other_prep, other, facts[1], facts[0]) if worse_b else (prep, raw, facts[0], facts[1])
+        )
         text = f"{kept[0]}: the worse of the two directions solved ({said(*kept)}; {said(*rest)})"
         favourable = False
     else:
         chosen_prep, chosen_raw, favourable = prep, raw, worse_b
         text = f"{choice.direction}, as the case fixes it" + (
-            f" (the favourable way: reversed, {said(*facts[1])})" if favourable else "")
-    result = _build(case, chosen_prep, n, P, *chosen_raw[2:], status=chosen_raw[0], n_crit=chosen_raw[1],
-                    bow_free=bow_free, cautions=False)
+            f" (the favourable way: reversed, {said(*facts[1])})" if favourable else ""
+        )
+    result = _build(
+        case,
+        chosen_prep,
+        n,
+        P,
+        *chosen_raw[2:],
+        status=chosen_raw[0],
+        n_crit=chosen_raw[1],
+        bow_free=bow_free,
+        cautions=False,
+    )
     bow = dataclasses.replace(result.bow, direction_governing=text, directions=facts, favourable=favourable)
     return _with_cautions(dataclasses.replace(result, bow=bow), chosen_prep, favourable=favourable)
 
@@ -500,8 +640,10 @@ def _bow_free_peaks(prep, n, P) -> dict:
     if status == "critical":
         return {"moment": math.inf, "deflection": Peak(value=math.inf, x=0.0)}
     i, j = int(np.argmax(np.abs(values["M"]))), int(np.argmax(np.abs(values["w"])))
-    return {"moment": abs(float(values["M"][i])),
-            "deflection": Peak(value=float(values["w"][j]), x=float(x[j]))}
+    return {
+        "moment": abs(float(values["M"][i])),
+        "deflection": Peak(value=float(values["w"][j]), x=float(x[j])),
+    }
 
 
 def _severity(case, prep, P, raw) -> tuple:
@@ -513,9 +655,18 @@ def _severity(case, prep, P, raw) -> tuple:
         return None, moment
     if status == "critical":
         return math.inf, moment
-    check = check_member(x=x, axial_force=P, moment=values["M"], shear=values["V"], deflection=np.zeros(1),
-                         length=prep.model.L, section=member.section, material=member.material,
-                         axis=case.axis, settings=case.check)
+    check = check_member(
+        x=x,
+        axial_force=P,
+        moment=values["M"],
+        shear=values["V"],
+        deflection=np.zeros(1),
+        length=prep.model.L,
+        section=member.section,
+        material=member.material,
+        axis=case.axis,
+        settings=case.check,
+    )
     return check.strength_utilization, moment
 
 
@@ -556,15 +707,25 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
             out[key] = tuple(np.where(better, o, v) for o, v in zip(other[key], out[key], strict=True))
     pcr = prep.buckling.critical_loads
     return SweepResult(
-        axial_force=P, peak_deflection=out["deflection"][0], peak_deflection_x=out["deflection"][1],
-        peak_total_offset=out["total_offset"][0], peak_total_offset_x=out["total_offset"][1],
-        peak_moment=out["moment"][0], peak_moment_x=out["moment"][1],
-        peak_shear=out["shear"][0], peak_shear_x=out["shear"][1],
-        moment_amplification=out["amp_m"][0], moment_amplification_first_order=out["amp_m1"][0],
-        deflection_amplification=(out["total_offset"][0] / out["d1"] if out["d1"] > 0
-                                  else np.full(P.size, np.nan)),
+        axial_force=P,
+        peak_deflection=out["deflection"][0],
+        peak_deflection_x=out["deflection"][1],
+        peak_total_offset=out["total_offset"][0],
+        peak_total_offset_x=out["total_offset"][1],
+        peak_moment=out["moment"][0],
+        peak_moment_x=out["moment"][1],
+        peak_shear=out["shear"][0],
+        peak_shear_x=out["shear"][1],
+        moment_amplification=out["amp_m"][0],
+        moment_amplification_first_order=out["amp_m1"][0],
+        deflection_amplification=(
+            out["total_offset"][0] / out["d1"] if out["d1"] > 0 else np.full(P.size, np.nan)
+        ),
         simple_amplification=np.where(P < pcr[0], 1.0 / np.where(P < pcr[0], 1.0 - P / pcr[0], 1.0), np.nan),
-        stable=(P < pcr[0]) & ~critical, critical=critical, critical_loads=pcr.copy(), first_order=first,
+        stable=(P < pcr[0]) & ~critical,
+        critical=critical,
+        critical_loads=pcr.copy(),
+        first_order=first,
     )
 
 
@@ -605,12 +766,18 @@ def _sweep_arrays(prep, P, n):
         return val, at
 
     out = {}
-    for key, arrays in {"deflection": (st["w"], pk["w"]), "total_offset": (st["w"] + st["w0"], pk["w"] + pk["w0"]),
-                        "moment": (st["M"], pk["M"]), "shear": (st["V"], pk["V"])}.items():
+    for key, arrays in {
+        "deflection": (st["w"], pk["w"]),
+        "total_offset": (st["w"] + st["w0"], pk["w"] + pk["w0"]),
+        "moment": (st["M"], pk["M"]),
+        "shear": (st["V"], pk["V"]),
+    }.items():
         out[key] = peaks(*arrays)
     t_first = np.abs(st["T"][-nb:])
-    first = Governing(**{k: Peak(value=float(v[0][-1]), x=float(v[1][-1])) for k, v in out.items()},
-                      transverse_force=Peak(value=float(t_first.max()), x=float(x_base[np.argmax(t_first)])))
+    first = Governing(
+        **{k: Peak(value=float(v[0][-1]), x=float(v[1][-1])) for k, v in out.items()},
+        transverse_force=Peak(value=float(t_first.max()), x=float(x_base[np.argmax(t_first)])),
+    )
     result = {}
     for key, (vals, xs) in out.items():
         v, xv = vals[:-1].copy(), xs[:-1].copy()

@@ -2,18 +2,23 @@ r"""Elastic critical loads and buckling modes of one member, springs included.
 
 The critical loads are the roots of the exact characteristic equation :math:`\det D(\lambda) = 0`, where
 :math:`\lambda = L\sqrt{P/EI}` and :math:`D` holds the four end conditions applied to the homogeneous solution
-:math:`1, \xi, \varphi_2, \varphi_3` (:mod:`engine.functions`). No root is missed: the number of critical loads
+:math:`1, \xi, \varphi_2, \varphi_3` (:mod:`engine.functions`). No root is missed: the number of critical
+loads
 below any trial :math:`\lambda` is counted exactly by the Wittrick–Williams algorithm
-(W. H. Wittrick and F. W. Williams, *A general algorithm for computing natural frequencies of elastic structures*,
-Q. J. Mech. Appl. Math. 24 (1971) 263–284, and its buckling form, Williams & Wittrick, Int. J. Mech. Sci. 12 (1970)),
+(W. H. Wittrick and F. W. Williams, *A general algorithm for computing natural frequencies of elastic
+structures*,
+Q. J. Mech. Appl. Math. 24 (1971) 263–284, and its buckling form, Williams & Wittrick, Int. J. Mech. Sci.
+12 (1970)),
 
 .. math::
 
     J(\lambda) = J_0(\lambda) + s\{K(\lambda)\},
 
-with :math:`s\{K\}` the number of negative eigenvalues of the member's exact end stiffness matrix (springs added,
+with :math:`s\{K\}` the number of negative eigenvalues of the member's exact end stiffness matrix
+(springs added,
 fixed freedoms removed) and :math:`J_0` the number of clamped–clamped critical loads below :math:`\lambda`
-(:math:`\lambda = 2\pi n` and :math:`\lambda = 2\mu`, :math:`\tan\mu = \mu`). Each counted root is then polished by
+(:math:`\lambda = 2\pi n` and :math:`\lambda = 2\mu`, :math:`\tan\mu = \mu`). Each counted root is then
+polished by
 Brent's method on the determinant.
 
 Everything is computed on the member made dimensionless (:math:`L = EI = 1`) and cached per support set.
@@ -26,9 +31,9 @@ import math
 from dataclasses import dataclass, field
 
 import numpy as np
-from engine.roots import brentq
 
 from engine.functions import phi
+from engine.roots import brentq
 from engine.supports import boundary_rows
 
 __all__ = ["Buckling", "critical_loads", "clear_cache"]
@@ -63,10 +68,12 @@ class Buckling:
     def mode_shapes(self, x) -> np.ndarray:
         """The normalised mode shapes at ``x`` [m]: shape (count, len(x)), largest value +1 [-]."""
         xi = np.asarray(x, dtype=float) / self.length
-        return np.stack([_mode_value(lam, c, xi) for lam, c in zip(self.wavenumbers, self._coefficients)])
+        return np.stack(
+            [_mode_value(lam, c, xi) for lam, c in zip(self.wavenumbers, self._coefficients, strict=True)]
+        )
 
     def mode_derivatives(self, n: int, x):
-        """Mode ``n`` (0-based) and its first three derivatives in x at ``x`` [m]: [-], [1/m], [1/m²], [1/m³]."""
+        """Mode ``n`` (0-based) and its first three x-derivatives at ``x`` [m]: [-], [1/m], [1/m²], [1/m³]."""
         lam, c = self.wavenumbers[n], self._coefficients[n]
         xi = np.asarray(x, dtype=float) / self.length
         p0, p1, p2, p3 = phi(lam * lam, xi)
@@ -84,7 +91,7 @@ def _mode_value(lam, c, xi):
 
 
 def _end_states(lam: np.ndarray):
-    """State rows (w, w', M, T) of the basis 1, ξ, φ2, φ3 at ξ = 0 and ξ = 1, dimensionless: (n, 4, 4) each."""
+    """State rows (w, w', M, T) of the basis 1, ξ, φ2, φ3 at ξ = 0 and 1, dimensionless: (n, 4, 4) each."""
     lam = np.asarray(lam, dtype=float)
     s = lam * lam
     n = lam.shape[0]
@@ -116,8 +123,12 @@ def _clamped_roots(limit: float) -> np.ndarray:
     roots = [2 * math.pi * n for n in range(1, int(limit / (2 * math.pi)) + 2)]
     m = 1
     while 2 * m * math.pi < limit + 2 * math.pi:
-        mu = brentq(lambda t: math.sin(t) - t * math.cos(t), m * math.pi + 1e-9, m * math.pi + math.pi / 2 - 1e-12,
-                    xtol=1e-15)
+        mu = brentq(
+            lambda t: math.sin(t) - t * math.cos(t),
+            m * math.pi + 1e-9,
+            m * math.pi + math.pi / 2 - 1e-12,
+            xtol=1e-15,
+        )
         roots.append(2 * mu)
         m += 1
     return np.sort(np.array(roots))
@@ -273,8 +284,10 @@ def _scaled(support, EI, L):
     t, r = support.translation, support.rotation
     if isinstance(t, str) and isinstance(r, str):
         return support
-    return type(support)(translation=t if isinstance(t, str) else float(t) * L**3 / EI,
-                         rotation=r if isinstance(r, str) else float(r) * L / EI)
+    return type(support)(
+        translation=t if isinstance(t, str) else float(t) * L**3 / EI,
+        rotation=r if isinstance(r, str) else float(r) * L / EI,
+    )
 
 
 def critical_loads(case, count: int = 5) -> Buckling:

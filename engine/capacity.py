@@ -3,14 +3,16 @@ r"""The capacity finder: the largest axial compression the member carries at a s
 Two ways to load the member up:
 
 - ``mode="axial"``: the transverse loads stay as given and only the axial force grows;
-- ``mode="proportional"``: every load, axial and transverse, grows by one factor :math:`\lambda` (a load-factor
+- ``mode="proportional"``: every load, axial and transverse, grows by one factor :math:`\lambda` (a
+  load-factor
   sweep); the case's own axial force is the reference and must be compression.
 
 Either way the bow stays as the case resolves it (a code bow depends on the member, not on the load), and
 where its direction is automatic each trial solves both directions and keeps the worse. The strength checks
 of :mod:`engine.checks` set the capacity; the deflection check (serviceability) does not.
 The search brackets the first crossing of utilisation 1 on a grid below the first critical load and refines it
-by Brent's method; if the utilisation never reaches 1 below the critical load, elastic buckling governs and the
+by Brent's method; if the utilisation never reaches 1 below the critical load, elastic buckling governs
+and the
 capacity is the critical load itself.
 
 On the EN 1993-1-1 route with the eq. (5.9) bow, the capacity is exactly
@@ -26,10 +28,10 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from engine.roots import brentq
 
 from engine.errors import CaseError
 from engine.out_of_plane import KIND as OUT_OF_PLANE
+from engine.roots import brentq
 
 __all__ = ["Capacity", "capacity"]
 
@@ -110,8 +112,10 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         raise CaseError("section: the capacity needs a section and a material for the member check")
     reference = float(case.axial_force)
     if mode == "proportional" and reference <= 0:
-        raise CaseError(f"axial_force: {reference!r} N must be compression (> 0) for a proportional capacity: "
-                        "it is the load the factor multiplies")
+        raise CaseError(
+            f"axial_force: {reference!r} N must be compression (> 0) for a proportional capacity: "
+            "it is the load the factor multiplies"
+        )
     probe = solve(dataclasses.replace(case, axial_force=0.0), stations=stations)
     pcr1 = float(probe.critical_loads[0])
     if mode == "axial":
@@ -127,25 +131,40 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
     def found(t, check, x, message):
         force = t if mode == "axial" else t * reference
         factor = t if mode == "proportional" else (force / reference if reference > 0 else math.nan)
-        return Capacity(axial_force=float(force), load_factor=float(factor), check=check, x=x,
-                        critical_load=pcr1, mode=mode, message=message)
+        return Capacity(
+            axial_force=float(force),
+            load_factor=float(factor),
+            check=check,
+            x=x,
+            critical_load=pcr1,
+            mode=mode,
+            message=message,
+        )
 
     from engine.classification import classify
 
     compressed_class = classify(probe.section, probe.material, compression=True)
     if compressed_class is not None and compressed_class.klass == 4:
-        return found(0.0, "class 4 section", None,
-                     f"The section is {compressed_class.describe()} in compression: its gross-section "
-                     "resistance is not valid, so no axial compression capacity is given (effective "
-                     "properties, EN 1993-1-5, are not computed).")
+        return found(
+            0.0,
+            "class 4 section",
+            None,
+            f"The section is {compressed_class.describe()} in compression: its gross-section "
+            "resistance is not valid, so no axial compression capacity is given (effective "
+            "properties, EN 1993-1-5, are not computed).",
+        )
     u0 = utilisation(0.0) if mode == "axial" else 0.0
     if mode == "axial" and u0 >= 1.0:
-        return found(0.0, "transverse loads alone", probe.check.x if probe.check else None,
-                     f"The transverse loads alone give utilisation {u0:.3f} ≥ 1: no axial force can be carried.")
+        return found(
+            0.0,
+            "transverse loads alone",
+            probe.check.x if probe.check else None,
+            f"The transverse loads alone give utilisation {u0:.3f} ≥ 1: no axial force can be carried.",
+        )
     # Bracket the first crossing: finer towards the critical load, where the amplification runs away.
     grid = top * (1.0 - np.geomspace(1.0, 1e-9, 48))
     grid[0] = 0.0
-    prev_t, prev_u = 0.0, u0
+    prev_t = 0.0
     for t in grid[1:]:
         u = utilisation(float(t))
         if u >= 1.0:
@@ -153,12 +172,24 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             r = solve(_scaled(case, root, mode, reference), stations=stations)
             if r.check.strength_kind == OUT_OF_PLANE:
                 n_b = r.check.out_of_plane.N_b_Rd  # exactly: N/N_b,Rd is linear in N
-                return found(n_b if mode == "axial" else n_b / reference, OUT_OF_PLANE, None,
-                             f"Out-of-plane flexural buckling governs: N_b,Rd = chi·A·f_y/γ_M1 = "
-                             f"{n_b * 1e-3:.6g} kN ({r.check.out_of_plane.describe()}).")
-            return found(root, r.check.strength_kind, r.check.x,
-                         f"Strength governs: utilisation 1 by {r.check.strength_kind} at x = {r.check.x:.3f} m.")
-        prev_t, prev_u = float(t), u
-    return found(top, "elastic buckling", None,
-                 f"Utilisation stays below 1 up to the first critical load ({pcr1 * 1e-3:.6g} kN): elastic "
-                 "buckling governs.")
+                return found(
+                    n_b if mode == "axial" else n_b / reference,
+                    OUT_OF_PLANE,
+                    None,
+                    f"Out-of-plane flexural buckling governs: N_b,Rd = chi·A·f_y/γ_M1 = "
+                    f"{n_b * 1e-3:.6g} kN ({r.check.out_of_plane.describe()}).",
+                )
+            return found(
+                root,
+                r.check.strength_kind,
+                r.check.x,
+                f"Strength governs: utilisation 1 by {r.check.strength_kind} at x = {r.check.x:.3f} m.",
+            )
+        prev_t = float(t)
+    return found(
+        top,
+        "elastic buckling",
+        None,
+        f"Utilisation stays below 1 up to the first critical load ({pcr1 * 1e-3:.6g} kN): elastic "
+        "buckling governs.",
+    )

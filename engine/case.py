@@ -117,8 +117,9 @@ def _is_bool(value: Any) -> bool:
     return isinstance(value, bool) or type(value).__name__ in ("bool_", "bool")
 
 
-def _requirement(unit: str, minimum: float | None, minimum_exclusive: bool,
-                 maximum: float | None, magnitude: float | None) -> str:
+def _requirement(
+    unit: str, minimum: float | None, minimum_exclusive: bool, maximum: float | None, magnitude: float | None
+) -> str:
     """Describe a range in words, e.g. ``> 0 and <= 1000 m``; empty when unbounded."""
     suffix = f" {unit}" if unit else ""
     if magnitude is not None:
@@ -131,9 +132,16 @@ def _requirement(unit: str, minimum: float | None, minimum_exclusive: bool,
     return " and ".join(parts) + suffix if parts else ""
 
 
-def _real(path: str, value: Any, unit: str = "", *, minimum: float | None = None,
-          minimum_exclusive: bool = False, maximum: float | None = None,
-          magnitude: float | None = None) -> float:
+def _real(
+    path: str,
+    value: Any,
+    unit: str = "",
+    *,
+    minimum: float | None = None,
+    minimum_exclusive: bool = False,
+    maximum: float | None = None,
+    magnitude: float | None = None,
+) -> float:
     """Check that ``value`` is a finite real number in range and return it as a float.
 
     Parameters
@@ -221,8 +229,9 @@ def _within(prefix: str) -> Iterator[None]:
         raise CaseError(f"{prefix}.{error}") from None
 
 
-def _check_keys(path: str, mapping: Mapping, allowed: tuple[str, ...],
-                required: tuple[str, ...] = ()) -> None:
+def _check_keys(
+    path: str, mapping: Mapping, allowed: tuple[str, ...], required: tuple[str, ...] = ()
+) -> None:
     """Reject unknown keys (with a near-match suggestion) and name a missing required key."""
     for key in mapping:
         if key not in allowed:
@@ -310,13 +319,11 @@ class Spec(Mapping):
 
 def _restraint(path: str, value: Any, spring: str, unit: str) -> str | float:
     """Check one restraint of an end: ``"fixed"``, ``"free"`` or a spring stiffness."""
-    allowed = (f"it must be 'fixed', 'free' or a spring stiffness {spring} "
-               f">= 0 and <= {_MAX_SPRING:g} {unit}")
+    allowed = f"it must be 'fixed', 'free' or a spring stiffness {spring} >= 0 and <= {_MAX_SPRING:g} {unit}"
     if isinstance(value, str):
         if value not in _RESTRAINTS:
             raise CaseError(
-                f"{path}: {_show(value)} is not a restraint{_suggestion(value, _RESTRAINTS)}; "
-                f"{allowed}"
+                f"{path}: {_show(value)} is not a restraint{_suggestion(value, _RESTRAINTS)}; {allowed}"
             )
         return value
     if _is_bool(value) or not isinstance(value, numbers.Real):
@@ -429,8 +436,7 @@ def _named_support(path: str, name: Any) -> EndSupport:
     allowed = f"allowed: {_quoted(SUPPORT_NAMES)}"
     if not isinstance(name, str) or name not in _NAMED_SUPPORTS:
         raise CaseError(
-            f"{path}: {_show(name)} is not a support name{_suggestion(name, SUPPORT_NAMES)}; "
-            f"{allowed}"
+            f"{path}: {_show(name)} is not a support name{_suggestion(name, SUPPORT_NAMES)}; {allowed}"
         )
     translation, rotation = _NAMED_SUPPORTS[name]
     return EndSupport(translation=translation, rotation=rotation)
@@ -590,9 +596,7 @@ class CoupleLoad:
 #: Any load object a case may hold.
 Load = UniformLoad | LinearLoad | PointLoad | CoupleLoad
 
-_LOAD_CLASSES: dict[str, type] = {
-    cls.type: cls for cls in (UniformLoad, LinearLoad, PointLoad, CoupleLoad)
-}
+_LOAD_CLASSES: dict[str, type] = {cls.type: cls for cls in (UniformLoad, LinearLoad, PointLoad, CoupleLoad)}
 _LOAD_TYPES: tuple[str, ...] = tuple(_LOAD_CLASSES)
 
 
@@ -619,8 +623,7 @@ def _load_from_data(path: str, data: Any) -> Load:
         )
     cls = _LOAD_CLASSES[kind]
     names = tuple(item.name for item in dataclasses.fields(cls))
-    required = tuple(item.name for item in dataclasses.fields(cls)
-                     if item.default is dataclasses.MISSING)
+    required = tuple(item.name for item in dataclasses.fields(cls) if item.default is dataclasses.MISSING)
     _check_keys(path, data, ("type", *names), required)
     with _within(path):
         return cls(**{name: data[name] for name in names if name in data})
@@ -681,46 +684,70 @@ class Imperfection:
         for name, allowed in (("curve", _CURVES), ("analysis", _ANALYSES), ("direction", _DIRECTIONS)):
             value = getattr(self, name)
             if not isinstance(value, str) or value not in allowed:
-                raise CaseError(f"{name}: {_show(value)} is not allowed{_suggestion(value, allowed)}; "
-                                f"allowed: {_quoted(allowed)}")
+                raise CaseError(
+                    f"{name}: {_show(value)} is not allowed{_suggestion(value, allowed)}; "
+                    f"allowed: {_quoted(allowed)}"
+                )
         if self.preset is not None:
             if not isinstance(self.preset, str) or self.preset not in IMPERFECTION_PRESETS:
-                raise CaseError(f"preset: {_show(self.preset)} is not a bow preset"
-                                f"{_suggestion(self.preset, IMPERFECTION_PRESETS)}; "
-                                f"allowed: {_quoted(IMPERFECTION_PRESETS)}")
+                raise CaseError(
+                    f"preset: {_show(self.preset)} is not a bow preset"
+                    f"{_suggestion(self.preset, IMPERFECTION_PRESETS)}; "
+                    f"allowed: {_quoted(IMPERFECTION_PRESETS)}"
+                )
             if self.amplitude != 0.0:
-                raise CaseError(f"amplitude: {self.amplitude!r} m cannot be given with preset "
-                                f"{self.preset!r}, which sets the amplitude; give one or the other")
+                raise CaseError(
+                    f"amplitude: {self.amplitude!r} m cannot be given with preset "
+                    f"{self.preset!r}, which sets the amplitude; give one or the other"
+                )
             if self.preset == "en1993-eq-5.9" and self.shape not in ("none", "mode"):
-                raise CaseError(f"shape: {self.shape!r} does not go with preset 'en1993-eq-5.9', whose bow "
-                                "has the shape of the first buckling mode; use 'mode' or leave it out")
+                raise CaseError(
+                    f"shape: {self.shape!r} does not go with preset 'en1993-eq-5.9', whose bow "
+                    "has the shape of the first buckling mode; use 'mode' or leave it out"
+                )
             if self.shape in ("sway",) and self.preset != "span":
-                raise CaseError(f"shape: 'sway' does not go with preset {self.preset!r}, a member bow; "
-                                "use 'sine', 'parabola' or 'mode'")
+                raise CaseError(
+                    f"shape: 'sway' does not go with preset {self.preset!r}, a member bow; "
+                    "use 'sine', 'parabola' or 'mode'"
+                )
         if self.preset == "span":
             if self.ratio is None:
                 raise CaseError("ratio: required with preset 'span' (the n of L/n)")
             _set(self, "ratio", _real("ratio", self.ratio, "", minimum=10.0, maximum=100000.0))
         elif self.ratio is not None:
             raise CaseError(f"ratio: {_show(self.ratio)} only goes with preset 'span'")
-        if (isinstance(self.columns, bool) or not isinstance(self.columns, (int, float))
-                or not math.isfinite(self.columns) or self.columns != int(self.columns)
-                or not 1 <= self.columns <= 1000):
-            raise CaseError(f"columns: {_show(self.columns)} must be a whole number of columns from 1 "
-                            "to 1000 (m of EN 1993-1-1 eq. (5.5))")
+        if (
+            isinstance(self.columns, bool)
+            or not isinstance(self.columns, (int, float))
+            or not math.isfinite(self.columns)
+            or self.columns != int(self.columns)
+            or not 1 <= self.columns <= 1000
+        ):
+            raise CaseError(
+                f"columns: {_show(self.columns)} must be a whole number of columns from 1 "
+                "to 1000 (m of EN 1993-1-1 eq. (5.5))"
+            )
         _set(self, "columns", int(self.columns))
         if self.preset is None:
-            for name, default in (("curve", "auto"), ("analysis", "elastic"), ("direction", "load"),
-                                  ("columns", 1)):
+            for name, default in (
+                ("curve", "auto"),
+                ("analysis", "elastic"),
+                ("direction", "load"),
+                ("columns", 1),
+            ):
                 if getattr(self, name) != default:
-                    raise CaseError(f"{name}: {getattr(self, name)!r} only goes with a preset; "
-                                    f"allowed presets: {_quoted(IMPERFECTION_PRESETS)}")
+                    raise CaseError(
+                        f"{name}: {getattr(self, name)!r} only goes with a preset; "
+                        f"allowed presets: {_quoted(IMPERFECTION_PRESETS)}"
+                    )
 
     def to_data(self) -> dict[str, Any]:
         """The case-file form: shape and amplitude, and the preset's keys when there is one."""
         data: dict[str, Any] = {"shape": self.shape, "amplitude": self.amplitude}
         if self.preset is not None:
-            data.update(preset=self.preset, curve=self.curve, analysis=self.analysis, direction=self.direction)
+            data.update(
+                preset=self.preset, curve=self.curve, analysis=self.analysis, direction=self.direction
+            )
             if self.ratio is not None:
                 data["ratio"] = self.ratio
             if self.columns != 1:
@@ -730,8 +757,22 @@ class Imperfection:
 
 # ----------------------------------------------------------------------------- case
 
-_CASE_KEYS = ("schema", "title", "length", "EI", "supports", "axial_force", "loads",
-              "imperfection", "section", "axis", "material", "stiffness_factor", "check", "out_of_plane")
+_CASE_KEYS = (
+    "schema",
+    "title",
+    "length",
+    "EI",
+    "supports",
+    "axial_force",
+    "loads",
+    "imperfection",
+    "section",
+    "axis",
+    "material",
+    "stiffness_factor",
+    "check",
+    "out_of_plane",
+)
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
 _CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit")
@@ -760,8 +801,7 @@ def _placed_load(index: int, load: Any, length: float) -> Load:
     path = f"loads[{index}]"
     if not isinstance(load, (UniformLoad, LinearLoad, PointLoad, CoupleLoad)):
         raise CaseError(
-            f"{path}: {_show(load)} is not a load; expected UniformLoad, LinearLoad, "
-            "PointLoad or CoupleLoad"
+            f"{path}: {_show(load)} is not a load; expected UniformLoad, LinearLoad, PointLoad or CoupleLoad"
         )
     if isinstance(load, (PointLoad, CoupleLoad)):
         x = _snap_position(f"{path}.x", load.x, length)
@@ -779,8 +819,7 @@ def _placed_load(index: int, load: Any, length: float) -> Load:
     if not a < b:
         if load.start is not None and load.end is None:
             raise CaseError(
-                f"{path}.start: {a!r} m must be less than the end of the load "
-                f"({b:g} m, the member's length)"
+                f"{path}.start: {a!r} m must be less than the end of the load ({b:g} m, the member's length)"
             )
         raise CaseError(f"{path}.end: {b!r} m must be greater than the start ({a!r} m)")
     return load
@@ -880,8 +919,7 @@ class Case:
         if self.EI is not None:
             _set(self, "EI", _real("EI", self.EI, "N·m²", minimum=_MIN_EI, maximum=_MAX_EI))
         self._check_member()
-        _set(self, "axial_force", _real("axial_force", self.axial_force, "N",
-                                        magnitude=_MAX_AXIAL_FORCE))
+        _set(self, "axial_force", _real("axial_force", self.axial_force, "N", magnitude=_MAX_AXIAL_FORCE))
         for end in ("left", "right"):
             if not isinstance(getattr(self, end), EndSupport):
                 raise CaseError(
@@ -889,17 +927,12 @@ class Case:
                     f"EndSupport.named(...) or EndSupport(translation=..., rotation=...)"
                 )
         if not isinstance(self.loads, (tuple, list)):
-            raise CaseError(
-                f"loads: {_show(self.loads)} is not a tuple or list of load objects"
-            )
+            raise CaseError(f"loads: {_show(self.loads)} is not a tuple or list of load objects")
         limits.check_load_count(len(self.loads))
-        _set(self, "loads", tuple(_placed_load(index, load, length)
-                                  for index, load in enumerate(self.loads)))
+        _set(self, "loads", tuple(_placed_load(index, load, length) for index, load in enumerate(self.loads)))
         limits.check_work(length, self.loads)
         if not isinstance(self.imperfection, Imperfection):
-            raise CaseError(
-                f"imperfection: {_show(self.imperfection)} is not an Imperfection"
-            )
+            raise CaseError(f"imperfection: {_show(self.imperfection)} is not an Imperfection")
         if abs(self.imperfection.amplitude) > length / 10:
             raise CaseError(
                 f"imperfection.amplitude: {self.imperfection.amplitude!r} m is too large; "
@@ -916,18 +949,32 @@ class Case:
         from engine.checks import CheckSettings
 
         if not isinstance(self.axis, str) or self.axis not in _AXES:
-            raise CaseError(f"axis: {_show(self.axis)} is not an axis{_suggestion(self.axis, _AXES)}; "
-                            f"allowed: {_quoted(_AXES)}")
-        _set(self, "stiffness_factor", _real("stiffness_factor", self.stiffness_factor, "", minimum=0.0,
-                                             minimum_exclusive=True, maximum=1.0))
+            raise CaseError(
+                f"axis: {_show(self.axis)} is not an axis{_suggestion(self.axis, _AXES)}; "
+                f"allowed: {_quoted(_AXES)}"
+            )
+        _set(
+            self,
+            "stiffness_factor",
+            _real(
+                "stiffness_factor",
+                self.stiffness_factor,
+                "",
+                minimum=0.0,
+                minimum_exclusive=True,
+                maximum=1.0,
+            ),
+        )
         if self.check is None:
             _set(self, "check", CheckSettings())
         elif isinstance(self.check, Mapping):
             _check_keys("check", self.check, _CHECK_KEYS)
             _set(self, "check", CheckSettings(**self.check))
         elif not isinstance(self.check, CheckSettings):
-            raise CaseError(f"check: {_show(self.check)} is not check settings; expected an object with keys "
-                            f"{_quoted(_CHECK_KEYS)}")
+            raise CaseError(
+                f"check: {_show(self.check)} is not check settings; expected an object with keys "
+                f"{_quoted(_CHECK_KEYS)}"
+            )
         if self.out_of_plane is not None:
             from engine.out_of_plane import OutOfPlaneSettings
 
@@ -948,8 +995,10 @@ class Case:
             material_from_spec(dict(self.material), section.t_max if section is not None else None)
         if self.EI is None and (self.section is None or self.material is None):
             missing = [name for name in ("section", "material") if getattr(self, name) is None]
-            raise CaseError(f"EI: required key is missing (or give both section and material; "
-                            f"{' and '.join(missing)} missing)")
+            raise CaseError(
+                f"EI: required key is missing (or give both section and material; "
+                f"{' and '.join(missing)} missing)"
+            )
 
     # ------------------------------------------------------------------ case files
 
@@ -977,14 +1026,12 @@ class Case:
             ``imperfection.shape``), the value received and what is allowed; unknown
             keys are named with the nearest known key.
         """
-        mapping = _expect_mapping("case", mapping, "a case object with keys "
-                                  f"{_quoted(_CASE_KEYS)}")
+        mapping = _expect_mapping("case", mapping, f"a case object with keys {_quoted(_CASE_KEYS)}")
         # The schema comes first: another version may have other keys.
         schema = _schema_version(mapping.get("schema", SCHEMA_VERSION))
         _check_keys("case", mapping, _CASE_KEYS, _CASE_REQUIRED)
 
-        supports = _expect_mapping("supports", mapping["supports"],
-                                   '{"left": ..., "right": ...}')
+        supports = _expect_mapping("supports", mapping["supports"], '{"left": ..., "right": ...}')
         _check_keys("supports", supports, ("left", "right"), ("left", "right"))
         left = _support_from_data("supports.left", supports["left"])
         right = _support_from_data("supports.right", supports["right"])
@@ -993,23 +1040,24 @@ class Case:
         if isinstance(raw_loads, (str, bytes)) or not isinstance(raw_loads, (list, tuple)):
             raise CaseError(f"loads: {_show(raw_loads)} is not a list of load objects")
         limits.check_load_count(len(raw_loads))  # before any load is built
-        loads = tuple(_load_from_data(f"loads[{index}]", data)
-                      for index, data in enumerate(raw_loads))
+        loads = tuple(_load_from_data(f"loads[{index}]", data) for index, data in enumerate(raw_loads))
 
-        raw_bow = _expect_mapping("imperfection", mapping.get("imperfection", {}),
-                                  '{"shape": ..., "amplitude": ...}')
+        raw_bow = _expect_mapping(
+            "imperfection", mapping.get("imperfection", {}), '{"shape": ..., "amplitude": ...}'
+        )
         _check_keys("imperfection", raw_bow, _IMPERFECTION_KEYS)
         with _within("imperfection"):
             imperfection = Imperfection(**raw_bow)
 
-        arguments = {name: mapping[name] for name in ("title", "length", "EI", "axial_force", "axis",
-                                                       "stiffness_factor")
-                     if name in mapping}
+        arguments = {
+            name: mapping[name]
+            for name in ("title", "length", "EI", "axial_force", "axis", "stiffness_factor")
+            if name in mapping
+        }
         for name in ("section", "material", "check", "out_of_plane"):
             if name in mapping:
                 arguments[name] = _expect_mapping(name, mapping[name], "an object")
-        return cls(schema=schema, left=left, right=right, loads=loads,
-                   imperfection=imperfection, **arguments)
+        return cls(schema=schema, left=left, right=right, loads=loads, imperfection=imperfection, **arguments)
 
     def to_dict(self) -> dict[str, Any]:
         """Return the case-file mapping (schema 1), ready for :func:`json.dumps`.
@@ -1028,12 +1076,14 @@ class Case:
         }
         if self.EI is not None:
             data["EI"] = self.EI
-        data.update({
-            "supports": {"left": self.left.to_data(), "right": self.right.to_data()},
-            "axial_force": self.axial_force,
-            "loads": [_load_to_data(load) for load in self.loads],
-            "imperfection": self.imperfection.to_data(),
-        })
+        data.update(
+            {
+                "supports": {"left": self.left.to_data(), "right": self.right.to_data()},
+                "axial_force": self.axial_force,
+                "loads": [_load_to_data(load) for load in self.loads],
+                "imperfection": self.imperfection.to_data(),
+            }
+        )
         if self.section is not None:
             data["section"] = dict(self.section)
             data["axis"] = self.axis

@@ -1,6 +1,7 @@
 """Cautions: where this elastic, single-member analysis stops, as structured objects.
 
-Each caution has a level (``info``, ``warning`` or ``danger``), a short identifier of strutscope's own, a message
+Each caution has a level (``info``, ``warning`` or ``danger``), a short identifier of strutscope's own, a
+message
 in words and the source of the rule it applies. The general caution is always first.
 """
 
@@ -40,19 +41,25 @@ class Caution:
 GENERAL = Caution(
     level="info",
     code="scope",
-    message=("Elastic analysis of one member in one plane. Not a full code check: lateral-torsional "
-             "buckling, biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class "
-             "4 sections, connections and load combinations are not checked. Check the results "
-             "against your local codes and have them reviewed by a licensed engineer."),
+    message=(
+        "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional "
+        "buckling, biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class "
+        "4 sections, connections and load combinations are not checked. Check the results "
+        "against your local codes and have them reviewed by a licensed engineer."
+    ),
     source="strutscope's scope (common practice, no source)",
 )
 
 _UNCLASSIFIED = Caution(
-    level="warning", code="section-class",
-    message=("Section class and local buckling are not checked for this section and material: its plates are "
-             "assumed able to reach the stresses used (class 1 or 2 for the plastic check, class 3 for the "
-             "elastic one)."),
-    source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1")
+    level="warning",
+    code="section-class",
+    message=(
+        "Section class and local buckling are not checked for this section and material: its plates are "
+        "assumed able to reach the stresses used (class 1 or 2 for the plastic check, class 3 for the "
+        "elastic one)."
+    ),
+    source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1",
+)
 
 
 def _class_cautions(check) -> list:
@@ -61,12 +68,19 @@ def _class_cautions(check) -> list:
     if found is None:
         return [_UNCLASSIFIED]
     if found.klass == 4:
-        return [Caution(level="danger", code="section-class-4",
-                        message=(f"The section is {found.describe()}: local buckling governs, and the "
-                                 "gross-section result is not valid (the utilisation is shown as unbounded). "
-                                 "Effective properties (EN 1993-1-5) are not computed: choose a stockier "
-                                 "section or check it by other means."),
-                        source=found.source)]
+        return [
+            Caution(
+                level="danger",
+                code="section-class-4",
+                message=(
+                    f"The section is {found.describe()}: local buckling governs, and the "
+                    "gross-section result is not valid (the utilisation is shown as unbounded). "
+                    "Effective properties (EN 1993-1-5) are not computed: choose a stockier "
+                    "section or check it by other means."
+                ),
+                source=found.source,
+            )
+        ]
     # Classes 1 to 3 are reported with the member check (check.section_class); class 3 with the plastic method
     # adds the check's own note that the elastic check was used.
     return []
@@ -78,27 +92,41 @@ def _out_of_plane_cautions(found) -> list:
         return []
     if not found.checked:
         restrained = found.reason.startswith("restrained")
-        return [Caution(level="info" if restrained else "warning", code="out-of-plane-not-checked",
-                        message=f"Out-of-plane flexural buckling ({found.axis} axis): {found.reason}.",
-                        source=found.source)]
+        return [
+            Caution(
+                level="info" if restrained else "warning",
+                code="out-of-plane-not-checked",
+                message=f"Out-of-plane flexural buckling ({found.axis} axis): {found.reason}.",
+                source=found.source,
+            )
+        ]
     extra = []
     if found.note:
-        extra.append(Caution(level="warning", code="out-of-plane-length", message=found.note,
-                             source=found.source))
+        extra.append(
+            Caution(level="warning", code="out-of-plane-length", message=found.note, source=found.source)
+        )
     if found.utilization > 1.0:
-        return extra + [Caution(level="danger", code="out-of-plane-buckling",
-                        message=(f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
-                                 f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
-                                 "buckling length) or choose a larger section."),
-                        source=found.source)]
+        return extra + [
+            Caution(
+                level="danger",
+                code="out-of-plane-buckling",
+                message=(
+                    f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
+                    f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
+                    "buckling length) or choose a larger section."
+                ),
+                source=found.source,
+            )
+        ]
     return extra  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
 
 
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
 
 
-def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, axis, check, bow,
-           service=None) -> list:
+def assess(
+    *, P, pcr1, alpha_cr_limit, status, slenderness, section, material, axis, check, bow, service=None
+) -> list:
     """The cautions for one solved case, most severe first; the general caution is always there.
 
     Parameters
@@ -128,101 +156,215 @@ def assess(*, P, pcr1, alpha_cr_limit, status, slenderness, section, material, a
     out = [GENERAL]
     alpha_cr = pcr1 / P if P > 0 else float("inf")
     if status == "critical":
-        out.append(Caution(level="danger", code="at-critical-load",
-                           message="The axial force equals an elastic critical load: no equilibrium exists.",
-                           source="Euler; Timoshenko & Gere (1961) ch. 2"))
+        out.append(
+            Caution(
+                level="danger",
+                code="at-critical-load",
+                message="The axial force equals an elastic critical load: no equilibrium exists.",
+                source="Euler; Timoshenko & Gere (1961) ch. 2",
+            )
+        )
     elif status == "unstable":
-        out.append(Caution(level="danger", code="beyond-critical-load",
-                           message=(f"The axial force is {P / pcr1:.3g} times the first critical load: the member "
-                                    "buckles before it carries it. The curves shown are the unstable linear "
-                                    "solution."),
-                           source="Euler; Timoshenko & Gere (1961) ch. 2"))
+        out.append(
+            Caution(
+                level="danger",
+                code="beyond-critical-load",
+                message=(
+                    f"The axial force is {P / pcr1:.3g} times the first critical load: the member "
+                    "buckles before it carries it. The curves shown are the unstable linear "
+                    "solution."
+                ),
+                source="Euler; Timoshenko & Gere (1961) ch. 2",
+            )
+        )
     elif P > 0 and alpha_cr < alpha_cr_limit:
-        out.append(Caution(level="warning", code="second-order-matters",
-                           message=(f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g} (the limit "
-                                    "for an elastic global analysis): second-order effects must be taken "
-                                    "into account (this analysis includes them)."),
-                           source=ALPHA_CR_SOURCE))
+        out.append(
+            Caution(
+                level="warning",
+                code="second-order-matters",
+                message=(
+                    f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g} (the limit "
+                    "for an elastic global analysis): second-order effects must be taken "
+                    "into account (this analysis includes them)."
+                ),
+                source=ALPHA_CR_SOURCE,
+            )
+        )
     if P < 0:
-        out.append(Caution(level="info", code="tension",
-                           message=("The member is in tension: buckling does not apply, and the axial force "
-                                    "reduces the bending moments."),
-                           source="Timoshenko & Gere (1961) ch. 1 (tension beam-columns)"))
+        out.append(
+            Caution(
+                level="info",
+                code="tension",
+                message=(
+                    "The member is in tension: buckling does not apply, and the axial force "
+                    "reduces the bending moments."
+                ),
+                source="Timoshenko & Gere (1961) ch. 1 (tension beam-columns)",
+            )
+        )
     if slenderness is not None:
         limit = 200.0 if P >= 0 else 300.0
         if slenderness > limit:
             kind = "compression" if P >= 0 else "tension"
-            out.append(Caution(level="warning", code="slender",
-                               message=(f"Slenderness K·L/i = {slenderness:.0f} exceeds the {limit:.0f} recommended "
-                                        f"for members in {kind}."),
-                               source="AISC 360-16 §E2 and §D1 user notes (recommendations; from memory)"))
+            out.append(
+                Caution(
+                    level="warning",
+                    code="slender",
+                    message=(
+                        f"Slenderness K·L/i = {slenderness:.0f} exceeds the {limit:.0f} recommended "
+                        f"for members in {kind}."
+                    ),
+                    source="AISC 360-16 §E2 and §D1 user notes (recommendations; from memory)",
+                )
+            )
     if section is not None:
         if section.open_section and axis == "major":
-            out.append(Caution(level="warning", code="lateral-torsional-buckling",
-                               message=("Major-axis bending of an open section: lateral-torsional buckling is not "
-                                        "checked. Check it, or make sure the compression flange is restrained."),
-                               source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F"))
+            out.append(
+                Caution(
+                    level="warning",
+                    code="lateral-torsional-buckling",
+                    message=(
+                        "Major-axis bending of an open section: lateral-torsional buckling is not "
+                        "checked. Check it, or make sure the compression flange is restrained."
+                    ),
+                    source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F",
+                )
+            )
         out.extend(_class_cautions(check))
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):
-            out.append(Caution(level="danger", code="cracking-material",
-                               message=(f"'{material.name}' cracks or crushes: this linear elastic analysis does not "
-                                        "apply to concrete, masonry or other cracking materials."),
-                               source="common practice, no source"))
+            out.append(
+                Caution(
+                    level="danger",
+                    code="cracking-material",
+                    message=(
+                        f"'{material.name}' cracks or crushes: this linear elastic analysis does not "
+                        "apply to concrete, masonry or other cracking materials."
+                    ),
+                    source="common practice, no source",
+                )
+            )
         elif material.kind == "custom":
-            out.append(Caution(level="info", code="custom-material",
-                               message=("A custom material is taken as linear elastic up to its given strength. "
-                                        "Concrete, masonry and other cracking materials are out of scope."),
-                               source="common practice, no source"))
+            out.append(
+                Caution(
+                    level="info",
+                    code="custom-material",
+                    message=(
+                        "A custom material is taken as linear elastic up to its given strength. "
+                        "Concrete, masonry and other cracking materials are out of scope."
+                    ),
+                    source="common practice, no source",
+                )
+            )
         if material.kind == "timber":
-            out.append(Caution(level="warning", code="timber-factors",
-                               message=("Timber strengths are characteristic values: k_mod, γ_M, size and "
-                                        "service-class factors are not applied unless you set γ_M0 to include them."),
-                               source="EN 1995-1-1 §2.4 and §3.2 (from memory)"))
+            out.append(
+                Caution(
+                    level="warning",
+                    code="timber-factors",
+                    message=(
+                        "Timber strengths are characteristic values: k_mod, γ_M, size and "
+                        "service-class factors are not applied unless you set γ_M0 to include them."
+                    ),
+                    source="EN 1995-1-1 §2.4 and §3.2 (from memory)",
+                )
+            )
     if check is not None:
         if check.in_plane_utilization > 1.0 and check.valid:
-            out.append(Caution(level="danger", code="overstressed",
-                               message=(f"Strength utilisation {check.in_plane_utilization:.3f} > 1 "
-                                        f"({check.in_plane_kind}): the member does not work as analysed."),
-                               # check.source is the governing check's, which may be the out-of-plane one
-                               source=check.source if check.kind == check.in_plane_kind else
-                               "EN 1993-1-1:2005 §6.2 (clause numbers from memory)"))
+            out.append(
+                Caution(
+                    level="danger",
+                    code="overstressed",
+                    message=(
+                        f"Strength utilisation {check.in_plane_utilization:.3f} > 1 "
+                        f"({check.in_plane_kind}): the member does not work as analysed."
+                    ),
+                    # check.source is the governing check's, which may be the out-of-plane one
+                    source=check.source
+                    if check.kind == check.in_plane_kind
+                    else "EN 1993-1-1:2005 §6.2 (clause numbers from memory)",
+                )
+            )
         if service is not None and service.utilization > 1.0:
-            out.append(Caution(level="warning", code="deflection",
-                               message=(f"Deflection {abs(service.deflection) * 1e3:.1f} mm exceeds the "
-                                        f"limit span/{service.limit:g} = {service.allowed * 1e3:.1f} mm "
-                                        "(service check on the loads as given, without the bow)."),
-                               source=service.source))
+            out.append(
+                Caution(
+                    level="warning",
+                    code="deflection",
+                    message=(
+                        f"Deflection {abs(service.deflection) * 1e3:.1f} mm exceeds the "
+                        f"limit span/{service.limit:g} = {service.allowed * 1e3:.1f} mm "
+                        "(service check on the loads as given, without the bow)."
+                    ),
+                    source=service.source,
+                )
+            )
         if service is not None:
-            out.append(Caution(level="info", code="deflection-basis",
-                               message=(f"Deflection utilisation {service.utilization:.3f}: a service check "
-                                        "apart from the strength one, on the loads as given and without the "
-                                        "bow. Enter service loads for it."),
-                               source="EN 1990 §3.4 and §6.5 serviceability (from memory)"))
+            out.append(
+                Caution(
+                    level="info",
+                    code="deflection-basis",
+                    message=(
+                        f"Deflection utilisation {service.utilization:.3f}: a service check "
+                        "apart from the strength one, on the loads as given and without the "
+                        "bow. Enter service loads for it."
+                    ),
+                    source="EN 1990 §3.4 and §6.5 serviceability (from memory)",
+                )
+            )
         if P > 0:
             out.extend(_out_of_plane_cautions(check.out_of_plane))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))
-    if P > 0 and bow.get("code_amplitude") is not None and abs(bow["amplitude"]) < bow["code_amplitude"] * (1 - 1e-9):
-        out.append(Caution(level="warning", code="bow-below-code",
-                           message=(f"The initial bow {abs(bow['amplitude']) * 1e3:.2f} mm is smaller than the code "
-                                    f"value {bow['code_amplitude'] * 1e3:.2f} mm ({bow['code_label']})."),
-                           source=bow["code_source"]))
+    if (
+        P > 0
+        and bow.get("code_amplitude") is not None
+        and abs(bow["amplitude"]) < bow["code_amplitude"] * (1 - 1e-9)
+    ):
+        out.append(
+            Caution(
+                level="warning",
+                code="bow-below-code",
+                message=(
+                    f"The initial bow {abs(bow['amplitude']) * 1e3:.2f} mm is smaller than the code "
+                    f"value {bow['code_amplitude'] * 1e3:.2f} mm ({bow['code_label']})."
+                ),
+                source=bow["code_source"],
+            )
+        )
     elif P > 0 and bow.get("code_amplitude") is None and bow["amplitude"] == 0.0:
-        out.append(Caution(level="warning", code="no-bow",
-                           message=("No initial bow in a compressed member: codes require an equivalent "
-                                    "imperfection (EN 1993-1-1 Table 5.1, or AISC L/1000)."),
-                           source="EN 1993-1-1:2005 §5.3.2; AISC 303-16 §7.13.1.1"))
+        out.append(
+            Caution(
+                level="warning",
+                code="no-bow",
+                message=(
+                    "No initial bow in a compressed member: codes require an equivalent "
+                    "imperfection (EN 1993-1-1 Table 5.1, or AISC L/1000)."
+                ),
+                source="EN 1993-1-1:2005 §5.3.2; AISC 303-16 §7.13.1.1",
+            )
+        )
     if P != 0 and bow.get("opposes_load"):
-        out.append(Caution(level="warning", code="bow-opposes-load",
-                           message=("The initial bow points the favourable way at this axial force: "
-                                    "reversed, it gives a larger utilisation or moment. Codes take the "
-                                    "imperfection in the unfavourable direction: set the direction to "
-                                    "automatic ('load'), which solves both and keeps the worse."),
-                           source="EN 1993-1-1:2005 §5.3.2(1) (from memory)"))
+        out.append(
+            Caution(
+                level="warning",
+                code="bow-opposes-load",
+                message=(
+                    "The initial bow points the favourable way at this axial force: "
+                    "reversed, it gives a larger utilisation or moment. Codes take the "
+                    "imperfection in the unfavourable direction: set the direction to "
+                    "automatic ('load'), which solves both and keeps the worse."
+                ),
+                source="EN 1993-1-1:2005 §5.3.2(1) (from memory)",
+            )
+        )
     for note in bow.get("notes", ()):
-        out.append(Caution(level="info", code="bow-shape", message=note,
-                           source="EN 1993-1-1:2005 §5.3.2(11) (from memory)"))
+        out.append(
+            Caution(
+                level="info",
+                code="bow-shape",
+                message=note,
+                source="EN 1993-1-1:2005 §5.3.2(11) (from memory)",
+            )
+        )
     order = {"danger": 0, "warning": 1, "info": 2}
     return sorted(out, key=lambda c: order[c.level])  # stable: the general caution leads the infos

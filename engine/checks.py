@@ -7,8 +7,10 @@ cross-section checks along the member (clause from memory; the route is describe
 - **elastic** (any section): :math:`|N|/(A f_c) + |M|/(W_{el} f_y) \le 1/\gamma_{M0}`, the linear form of the
   elastic criterion of EN 1993-1-1 §6.2.1(7), eq. (6.2) (clause from memory). For steel :math:`f_c = f_y`, so
   it is :math:`\sigma = N/A + M/W_{el}` against :math:`f_y/\gamma_{M0}`;
-- **plastic** N–M interaction for doubly symmetric I/H and hollow sections, EN 1993-1-1 §6.2.9.1 (from memory),
-  and :math:`M_{N} = M_{pl}(1 - n^2)` for a solid rectangle [derived]; where the shear exceeds half the plastic
+- **plastic** N–M interaction for doubly symmetric I/H and hollow sections, EN 1993-1-1 §6.2.9.1 (from
+  memory),
+  and :math:`M_{N} = M_{pl}(1 - n^2)` for a solid rectangle [derived]; where the shear exceeds half the
+  plastic
   shear resistance, the plastic moment is reduced by :math:`(1-\rho)` over the whole section (§6.2.8, applied
   conservatively to the whole section rather than the shear area);
 - **shear**: :math:`|V| / (A_v f_y/(\sqrt{3}\gamma_{M0}))`, EN 1993-1-1 §6.2.6 eq. (6.18) (from memory);
@@ -41,8 +43,10 @@ _SOURCES = {
     "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form (clause from memory)",
     "plastic": "EN 1993-1-1:2005 §6.2.9.1 and §6.2.8 (clause numbers from memory)",
     "shear": "EN 1993-1-1:2005 §6.2.6, eq. (6.18) (from memory)",
-    "eq-5.9": ("EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9)–(5.10), with N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 "
-               "(from memory)"),
+    "eq-5.9": (
+        "EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9)–(5.10), with N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 "
+        "(from memory)"
+    ),
     "deflection": "span/n deflection limit: national annexes; span/250 common practice, no source",
 }
 
@@ -68,8 +72,14 @@ class CheckSettings:
 
     def __post_init__(self) -> None:
         if self.method not in METHODS:
-            raise CaseError(f"check.method: {self.method!r} is not a check method; allowed: 'elastic', 'plastic'")
-        for name, low, high in (("gamma_M0", 0.5, 3.0), ("gamma_M1", 0.5, 3.0), ("deflection_limit", 1.0, 10000.0)):
+            raise CaseError(
+                f"check.method: {self.method!r} is not a check method; allowed: 'elastic', 'plastic'"
+            )
+        for name, low, high in (
+            ("gamma_M0", 0.5, 3.0),
+            ("gamma_M1", 0.5, 3.0),
+            ("deflection_limit", 1.0, 10000.0),
+        ):
             value = getattr(self, name)
             if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
                 raise CaseError(f"check.{name}: {value!r} must be a finite number from {low:g} to {high:g}")
@@ -79,8 +89,12 @@ class CheckSettings:
 
     def to_dict(self) -> dict:
         """The case-file form."""
-        return {"method": self.method, "gamma_M0": self.gamma_M0, "gamma_M1": self.gamma_M1,
-                "deflection_limit": self.deflection_limit}
+        return {
+            "method": self.method,
+            "gamma_M0": self.gamma_M0,
+            "gamma_M1": self.gamma_M1,
+            "deflection_limit": self.deflection_limit,
+        }
 
 
 @dataclass(frozen=True, kw_only=True, eq=False)
@@ -148,9 +162,23 @@ class MemberCheck:
     in_plane_kind: str = ""
 
 
-def check_member(*, x, axial_force, moment, shear, deflection, length, section, material, axis,
-                 settings: CheckSettings, route: str | None = None, section_class=None,
-                 beyond_critical: bool = False, out_of_plane=None) -> MemberCheck:
+def check_member(
+    *,
+    x,
+    axial_force,
+    moment,
+    shear,
+    deflection,
+    length,
+    section,
+    material,
+    axis,
+    settings: CheckSettings,
+    route: str | None = None,
+    section_class=None,
+    beyond_critical: bool = False,
+    out_of_plane=None,
+) -> MemberCheck:
     """Check the cross-section at every station with the second-order forces.
 
     Parameters
@@ -194,13 +222,17 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
     steel_like = material.kind in ("steel", "aluminium", "custom")
     method = settings.method
     if method == "plastic" and (section.shape not in _PLASTIC_SHAPES or material.kind == "timber"):
-        notes.append(f"The plastic check does not apply to a {section.shape} section of {material.kind}; "
-                     "the elastic check is used instead.")
+        notes.append(
+            f"The plastic check does not apply to a {section.shape} section of {material.kind}; "
+            "the elastic check is used instead."
+        )
         method = "elastic"
     klass = section_class.klass if section_class is not None else None
     if method == "plastic" and klass is not None and klass >= 3:
-        notes.append(f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
-                     "so the elastic check is used instead.")
+        notes.append(
+            f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
+            "so the elastic check is used instead."
+        )
         method = "elastic"
     V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
@@ -267,12 +299,26 @@ def check_member(*, x, axial_force, moment, shear, deflection, length, section, 
         source = "Euler; Timoshenko & Gere (1961) ch. 2: no stable equilibrium above the first critical load"
         valid = False
     return MemberCheck(
-        settings=settings, utilization=value, kind=kind, x=where, source=source,
-        strength_utilization=s_value, strength_kind=s_kind, stations=strength, axial_bending=ab, shear=sh,
-        deflection_utilization=d_util, max_deflection=float(w_abs[j]), deflection_allowed=allowed,
-        resistances={"N_Rd": N_Rd, "M_Rd": M_Rd, "V_Rd": V_Rd}, notes=tuple(notes),
-        section_class=section_class, valid=valid, out_of_plane=out_of_plane,
-        in_plane_utilization=in_plane_value, in_plane_kind=in_plane_kind,
+        settings=settings,
+        utilization=value,
+        kind=kind,
+        x=where,
+        source=source,
+        strength_utilization=s_value,
+        strength_kind=s_kind,
+        stations=strength,
+        axial_bending=ab,
+        shear=sh,
+        deflection_utilization=d_util,
+        max_deflection=float(w_abs[j]),
+        deflection_allowed=allowed,
+        resistances={"N_Rd": N_Rd, "M_Rd": M_Rd, "V_Rd": V_Rd},
+        notes=tuple(notes),
+        section_class=section_class,
+        valid=valid,
+        out_of_plane=out_of_plane,
+        in_plane_utilization=in_plane_value,
+        in_plane_kind=in_plane_kind,
     )
 
 
@@ -287,12 +333,16 @@ def _eq_5_9_linear(N, M, section, material, settings):
 
 def _eq_5_9_note(asked: str, used: str, g1: float) -> str:
     if asked == "plastic" and used == "plastic":
-        extra = ("The plastic §6.2.9 interaction is not used for this member check: eq. (5.10)'s e0 is "
-                 "derived for the linear interaction (with M_Rk = W_pl f_y), which reproduces chi·N_Rk/γ_M1 "
-                 "exactly, whereas the plastic interaction would overshoot it; the plastic check is kept for "
-                 "the cross-section with γ_M0.")
+        extra = (
+            "The plastic §6.2.9 interaction is not used for this member check: eq. (5.10)'s e0 is "
+            "derived for the linear interaction (with M_Rk = W_pl f_y), which reproduces chi·N_Rk/γ_M1 "
+            "exactly, whereas the plastic interaction would overshoot it; the plastic check is kept for "
+            "the cross-section with γ_M0."
+        )
     else:
         extra = "The cross-section check with γ_M0 is made as well."
-    return ("Eq. (5.9) route: the member is checked with the linear interaction "
-            f"N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 (γ_M1 = {g1:g}), which reaches 1 at "
-            "N_b,Rd = chi·A·f_y/γ_M1 for the bow alone. " + extra)
+    return (
+        "Eq. (5.9) route: the member is checked with the linear interaction "
+        f"N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 (γ_M1 = {g1:g}), which reaches 1 at "
+        "N_b,Rd = chi·A·f_y/γ_M1 for the bow alone. " + extra
+    )

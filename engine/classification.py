@@ -154,8 +154,11 @@ def classify(section, material, *, compression: bool) -> SectionClass | None:
     eps = epsilon(material.fy)
     shape, dims = section.shape, dict(section.dimensions or {})
     web_stress = "internal compression" if compression else "internal bending"
-    basis = ("webs taken in pure compression under axial compression (conservative)" if compression
-             else "webs taken in pure bending without axial compression")
+    basis = (
+        "webs taken in pure compression under axial compression (conservative)"
+        if compression
+        else "webs taken in pure bending without axial compression"
+    )
     parts = []
     try:
         if shape in ("rolled_i", "welded_i"):
@@ -177,8 +180,12 @@ def classify(section, material, *, compression: bool) -> SectionClass | None:
             parts.append(_part("tube", "chs", dims["D"] / dims["t"], eps))
             basis = "d/t limit, the same for compression and bending"
         elif shape in ("rectangle", "round"):
-            return SectionClass(klass=1, parts=(), epsilon=eps,
-                                basis="solid section: no local buckling (common practice, no source)")
+            return SectionClass(
+                klass=1,
+                parts=(),
+                epsilon=eps,
+                basis="solid section: no local buckling (common practice, no source)",
+            )
         else:
             return None
     except KeyError:

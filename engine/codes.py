@@ -122,8 +122,9 @@ _TABLE_6_2 = "EN 1993-1-1:2005 Table 6.2 (cells from memory)"
 # ----------------------------------------------------------------------------- buckling curves
 
 
-def buckling_curve(*, shape: str, manufacture: str, axis: str, h_over_b: float | None, t_max: float | None,
-                   grade: str | None) -> tuple[str, str]:
+def buckling_curve(
+    *, shape: str, manufacture: str, axis: str, h_over_b: float | None, t_max: float | None, grade: str | None
+) -> tuple[str, str]:
     r"""The flexural buckling curve of a section, EN 1993-1-1:2005 Table 6.2.
 
     =====================================================  ============  ============
@@ -192,12 +193,15 @@ def buckling_curve(*, shape: str, manufacture: str, axis: str, h_over_b: float |
     axis = _AXIS[axis]
     allowed = _SHAPE_MANUFACTURES[shape]
     if manufacture not in allowed:
-        raise CaseError(f"manufacture: {given_manufacture!r} does not fit shape {shape!r}; "
-                        f"allowed: {_quoted(allowed)}")
+        raise CaseError(
+            f"manufacture: {given_manufacture!r} does not fit shape {shape!r}; allowed: {_quoted(allowed)}"
+        )
     if t_max is None:
         if shape in ("rolled_i", "welded_i"):
-            raise CaseError(f"t_max: required for shape {shape!r} (the flange thickness); it must be a "
-                            f"finite number > 0 m")
+            raise CaseError(
+                f"t_max: required for shape {shape!r} (the flange thickness); it must be a "
+                f"finite number > 0 m"
+            )
     else:
         t_max = _positive("t_max", t_max, "m")
     if grade is not None and not isinstance(grade, str):
@@ -220,9 +224,11 @@ def buckling_curve(*, shape: str, manufacture: str, axis: str, h_over_b: float |
             elif _at_most(t_mm, 100.0):
                 curves, row = (("b", "c"), ("a", "a")), "40 < t_f <= 100 mm"
             else:
-                return "d", (f"rolled I section, h/b = {h_over_b:.3g} > 1.2 with t_f = {t_mm:g} mm > 100 mm "
-                             f"is not in {_TABLE_6_2}: curve d assumed, as for the thickest rolled "
-                             f"sections (common practice, no source)")
+                return "d", (
+                    f"rolled I section, h/b = {h_over_b:.3g} > 1.2 with t_f = {t_mm:g} mm > 100 mm "
+                    f"is not in {_TABLE_6_2}: curve d assumed, as for the thickest rolled "
+                    f"sections (common practice, no source)"
+                )
             shape_text = f"rolled I section, h/b = {h_over_b:.3g} > 1.2, {row} (t_f = {t_mm:g} mm)"
         else:
             if _at_most(t_mm, 100.0):
@@ -243,8 +249,10 @@ def buckling_curve(*, shape: str, manufacture: str, axis: str, h_over_b: float |
             curve = "a0" if s460 else "a"
         else:
             curve = "c"
-        shape_text = f"{'rectangular' if shape == 'rhs' else 'circular'} hollow section, " \
-                     f"{manufacture.replace('_', ' ')}"
+        shape_text = (
+            f"{'rectangular' if shape == 'rhs' else 'circular'} hollow section, "
+            f"{manufacture.replace('_', ' ')}"
+        )
     else:  # rectangle, round
         curve = "c"
         shape_text = f"solid {'rectangular' if shape == 'rectangle' else 'round'} section"
@@ -358,8 +366,9 @@ def reduction_factor(lambda_bar: float, curve: str) -> float:
     return min(1.0, 1.0 / (phi + math.sqrt(phi * phi - lam * lam)))
 
 
-def eq_5_9_amplitude(*, curve: str, lambda_bar: float, M_Rk: float, N_Rk: float,
-                     gamma_M1: float = 1.0) -> float:
+def eq_5_9_amplitude(
+    *, curve: str, lambda_bar: float, M_Rk: float, N_Rk: float, gamma_M1: float = 1.0
+) -> float:
     r"""Amplitude :math:`e_0` of an imperfection in the shape of the first buckling mode,
     EN 1993-1-1:2005 §5.3.2(11), eq. (5.9) (from memory).
 
@@ -499,8 +508,9 @@ def plastic_interaction(*, shape: str, axis: str, n, a: float | None = None):
             raise CaseError(f"a: required for shape {shape!r}; it must be a number >= 0 and < 1")
         a = _finite("a", a)
         if not 0.0 <= a < 1.0:
-            raise CaseError(f"a: {a!r} must be >= 0 and < 1 (the share of the area outside the flanges or "
-                            f"webs)")
+            raise CaseError(
+                f"a: {a!r} must be >= 0 and < 1 (the share of the area outside the flanges or webs)"
+            )
         a = min(a, 0.5)
     if shape == "rectangle":
         result = 1.0 - n * n
@@ -582,17 +592,23 @@ def _finite(path: str, value: Any) -> float:
     return number
 
 
-def _positive(path: str, value: Any, unit: str, *, allow_zero: bool = False,
-              allow_infinite: bool = False) -> float:
+def _positive(
+    path: str, value: Any, unit: str, *, allow_zero: bool = False, allow_infinite: bool = False
+) -> float:
     """A number > 0 (>= 0 with ``allow_zero``; finite unless ``allow_infinite``), else a CaseError."""
     requirement = f"{'>=' if allow_zero else '>'} 0"
     unit_text = f" {unit}" if unit else ""
     if isinstance(value, bool) or not isinstance(value, numbers.Real):
-        raise CaseError(f"{path}: {_show(value)} is not a number; "
-                        f"it must be a number {requirement}{unit_text}")
+        raise CaseError(
+            f"{path}: {_show(value)} is not a number; it must be a number {requirement}{unit_text}"
+        )
     number = float(value)
-    bad = math.isnan(number) or (math.isinf(number) and not allow_infinite) or number < 0 or (
-        number == 0 and not allow_zero)
+    bad = (
+        math.isnan(number)
+        or (math.isinf(number) and not allow_infinite)
+        or number < 0
+        or (number == 0 and not allow_zero)
+    )
     if bad:
         finite = "" if allow_infinite else "finite and "
         raise CaseError(f"{path}: {number!r}{unit_text} must be {finite}{requirement}")
@@ -602,8 +618,9 @@ def _positive(path: str, value: Any, unit: str, *, allow_zero: bool = False,
 def _choice(path: str, value: Any, choices: tuple[str, ...], *, shown: Any = None) -> None:
     if not isinstance(value, str) or value not in choices:
         shown = value if shown is None else shown
-        raise CaseError(f"{path}: {_show(shown)} is not allowed{_suggestion(value, choices)}; "
-                        f"allowed: {_quoted(choices)}")
+        raise CaseError(
+            f"{path}: {_show(shown)} is not allowed{_suggestion(value, choices)}; allowed: {_quoted(choices)}"
+        )
 
 
 def _show(value: Any) -> str:

@@ -12,13 +12,15 @@ For a member with axial force :math:`P` (compression positive) and stiffness :ma
 
 So :math:`\varphi_0 = \cos k\xi`, :math:`\varphi_1 = \sin k\xi / k`, :math:`\varphi_2 = (1-\cos k\xi)/k^2`,
 :math:`\varphi_3 = (\xi - \sin k\xi/k)/k^2` in compression (:math:`k^2 = s`), the hyperbolic forms in tension,
-and the polynomials :math:`\xi^n/n!` at :math:`s = 0`. Being entire in :math:`s`, they pass through zero axial force
+and the polynomials :math:`\xi^n/n!` at :math:`s = 0`. Being entire in :math:`s`, they pass through zero
+axial force
 without a switch of formula. These are the functions of the transfer-matrix method for beam-columns
 (Pestel & Leckie, *Matrix Methods in Elastomechanics*, 1963, ch. 6) written in series form, which removes the
 cancellation of the closed forms as :math:`k\xi \to 0` (the trap noted for Timoshenko & Gere's
 :math:`\eta, \lambda, \chi` functions).
 
-The series is evaluated only where :math:`|s|\xi^2 \le 4`; beyond that the solver uses the closed trigonometric
+The series is evaluated only where :math:`|s|\xi^2 \le 4`; beyond that the solver uses the closed
+trigonometric
 or decaying-exponential forms (see :mod:`engine.solution`).
 """
 
@@ -35,7 +37,9 @@ SERIES_LIMIT = 4.0
 
 # At most 13 terms: the truncation error is below 4**13 / 30! ~ 3e-25 relative for |s xi^2| <= 4.
 _TERMS = SERIES_TERMS = 13
-_COEF45 = np.array([[1.0 / math.factorial(4 + 2 * j), 1.0 / math.factorial(5 + 2 * j)] for j in range(_TERMS)])
+_COEF45 = np.array(
+    [[1.0 / math.factorial(4 + 2 * j), 1.0 / math.factorial(5 + 2 * j)] for j in range(_TERMS)]
+)
 
 
 def _terms_for(zmax: float) -> int:
@@ -123,7 +127,7 @@ def phi_series(s, xi, powers=None, xi2_max=None):
     else:  # many points (a sweep): Horner's rule, which allocates less
         zz = zflat[:, None]
         sums = np.broadcast_to(_COEF45[n - 1], (zflat.size, 2))
-        for c in _COEF45[n - 2::-1]:
+        for c in _COEF45[n - 2 :: -1]:
             sums = sums * zz + c
     x4 = xi2 * xi2
     p4 = x4 * sums[:, 0].reshape(np.shape(z))
@@ -191,4 +195,4 @@ def phi(s, xi):
     series = phi_series(np.where(small, s, 0.0), np.where(small, xi, 0.0))[:4]
     safe_s = np.where(small, 1.0, s)
     closed = phi_closed(safe_s, np.where(small, 0.0, xi))
-    return tuple(np.where(small, a, b) for a, b in zip(series, closed))
+    return tuple(np.where(small, a, b) for a, b in zip(series, closed, strict=True))

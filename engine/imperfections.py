@@ -125,4 +125,6 @@ def _shape_bow(case, buckling) -> Bow:
         F = math.hypot(g_cos, g_sin)
         psi = math.atan2(g_cos, g_sin)
         return Bow(shape=shape, amplitude=a, length=L, terms=((F, lam / L, psi),), _mode=(buckling, a))
-    raise ValueError(f"imperfection.shape: unknown shape {shape!r}")  # pragma: no cover - the case validates it
+    raise ValueError(
+        f"imperfection.shape: unknown shape {shape!r}"
+    )  # pragma: no cover - the case validates it

@@ -88,8 +88,10 @@ def text_problem(value: str) -> str | None:
     """Describe the first character of `value` that is not plain, printable text; None when there is none.
 
     Lone surrogates (U+D800 to U+DFFF: half of a pair, which no UTF-8 file, PDF or terminal can hold) and
-    control characters (tabs, line breaks, escape sequences, U+0000 to U+001F, U+007F to U+009F) are found, and
-    so are the bidirectional controls (U+202A to U+202E, U+2066 to U+2069, U+200E, U+200F, U+061C), which reorder
+    control characters (tabs, line breaks, escape sequences, U+0000 to U+001F, U+007F to U+009F) are
+    found, and
+    so are the bidirectional controls (U+202A to U+202E, U+2066 to U+2069, U+200E, U+200F, U+061C), which
+    reorder
     the text around them when it is shown and can make a title or an id read as something else.
 
     >>> text_problem("Post A")
@@ -99,11 +101,15 @@ def text_problem(value: str) -> str | None:
     for position, char in enumerate(value, start=1):
         code = ord(char)
         if 0xD800 <= code <= 0xDFFF:
-            return (f"contains a character that is not valid text (U+{code:04X}, a lone surrogate) "
-                    f"at position {position}")
+            return (
+                f"contains a character that is not valid text (U+{code:04X}, a lone surrogate) "
+                f"at position {position}"
+            )
         if unicodedata.category(char) == "Cc" or char in _BIDI_CONTROLS:
-            return (f"contains a control character (U+{code:04X}) at position {position}; "
-                    "only printable text is allowed")
+            return (
+                f"contains a control character (U+{code:04X}) at position {position}; "
+                "only printable text is allowed"
+            )
     return None
 
 
@@ -142,8 +148,10 @@ def segment_count(length: float, loads) -> int:
 def check_load_count(count: int) -> None:
     """Refuse more than :data:`MAX_LOADS` loads, before any is built."""
     if count > MAX_LOADS:
-        raise CaseError(f"loads: {count} loads given; a case may have at most {MAX_LOADS} "
-                        f"(the limit bounds the work of one case)")
+        raise CaseError(
+            f"loads: {count} loads given; a case may have at most {MAX_LOADS} "
+            f"(the limit bounds the work of one case)"
+        )
 
 
 def check_work(length: float, loads) -> None:
@@ -151,8 +159,10 @@ def check_work(length: float, loads) -> None:
     check_load_count(len(loads))
     segments = segment_count(length, loads)
     if segments > MAX_SEGMENTS:
-        raise CaseError(f"loads: the loads cut the member into {segments} segments; a case may have at most "
-                        f"{MAX_SEGMENTS} (every point load, couple and end of a partial load is a cut)")
+        raise CaseError(
+            f"loads: the loads cut the member into {segments} segments; a case may have at most "
+            f"{MAX_SEGMENTS} (every point load, couple and end of a partial load is a cut)"
+        )
 
 
 # ----------------------------------------------------------------------------- JSON
@@ -188,8 +198,10 @@ def _check_depth(text: str) -> None:
         elif char in "[{":
             depth += 1
             if depth > MAX_JSON_DEPTH:
-                raise CaseError(f"case: the JSON nests objects and arrays more than {MAX_JSON_DEPTH} levels "
-                                f"deep (at {_position(text, index)}); a case file needs 4")
+                raise CaseError(
+                    f"case: the JSON nests objects and arrays more than {MAX_JSON_DEPTH} levels "
+                    f"deep (at {_position(text, index)}); a case file needs 4"
+                )
         elif char in "]}":
             depth -= 1
 
@@ -197,8 +209,10 @@ def _check_depth(text: str) -> None:
 def _integer(digits: str) -> int:
     count = len(digits.lstrip("-"))
     if count > MAX_NUMBER_DIGITS:
-        raise CaseError(f"case: a number of {count} digits is too long; numbers in a case file have at most "
-                        f"{MAX_NUMBER_DIGITS} digits")
+        raise CaseError(
+            f"case: a number of {count} digits is too long; numbers in a case file have at most "
+            f"{MAX_NUMBER_DIGITS} digits"
+        )
     return int(digits)
 
 
@@ -238,26 +252,32 @@ def parse_json(text: str | bytes, object_pairs_hook: Callable | None = None) -> 
     if not isinstance(text, (str, bytes, bytearray)):
         raise CaseError(f"case: a {type(text).__name__} is not JSON text")
     if len(text) > MAX_CASE_BYTES:
-        raise CaseError(f"case: {len(text)} bytes is too large; a case file may have at most "
-                        f"{MAX_CASE_BYTES} bytes")
+        raise CaseError(
+            f"case: {len(text)} bytes is too large; a case file may have at most {MAX_CASE_BYTES} bytes"
+        )
     try:
         if isinstance(text, (bytes, bytearray)):
             try:
                 text = bytes(text).decode(json.detect_encoding(text))
             except UnicodeDecodeError as error:
-                raise CaseError(f"case: the bytes cannot be decoded as UTF-8 text ({error.reason} at byte "
-                                f"{error.start + 1})") from None
+                raise CaseError(
+                    f"case: the bytes cannot be decoded as UTF-8 text ({error.reason} at byte "
+                    f"{error.start + 1})"
+                ) from None
         _check_depth(text)
         try:
             data = json.loads(text, object_pairs_hook=object_pairs_hook, parse_int=_integer)
         except json.JSONDecodeError as error:
-            raise CaseError(f"case: not valid JSON: {error.msg} at line {error.lineno} column "
-                            f"{error.colno}") from None
+            raise CaseError(
+                f"case: not valid JSON: {error.msg} at line {error.lineno} column {error.colno}"
+            ) from None
         except CaseError:
             raise
         except RecursionError:
-            raise CaseError(f"case: the JSON nests objects and arrays too deeply; a case file needs 4 levels "
-                            f"(at most {MAX_JSON_DEPTH})") from None
+            raise CaseError(
+                f"case: the JSON nests objects and arrays too deeply; a case file needs 4 levels "
+                f"(at most {MAX_JSON_DEPTH})"
+            ) from None
         except ValueError as error:  # an integer-conversion limit, or a number Python cannot read
             raise CaseError(f"case: a number cannot be read ({str(error).split(';')[0]})") from None
         _check_strings(data)

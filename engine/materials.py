@@ -49,8 +49,13 @@ _STEEL_DENSITY_SOURCE = "density 7850 kg/m³: EN 1991-1-1 Table A.4 (from memory
 # 63 < t <= 80, 80 < t <= 100 (references.md §6, [text]). A thickness exactly on an edge belongs to the
 # thinner band ("t <= 16 mm").
 _BAND_EDGES_MM: tuple[float, ...] = (16.0, 40.0, 63.0, 80.0, 100.0)
-_BAND_TEXT: tuple[str, ...] = ("t <= 16 mm", "16 < t <= 40 mm", "40 < t <= 63 mm", "63 < t <= 80 mm",
-                               "80 < t <= 100 mm")
+_BAND_TEXT: tuple[str, ...] = (
+    "t <= 16 mm",
+    "16 < t <= 40 mm",
+    "40 < t <= 63 mm",
+    "63 < t <= 80 mm",
+    "80 < t <= 100 mm",
+)
 # Rounding in a thickness given in metres (0.016 m read back as 16.000000000000004 mm) is not a new band.
 _EDGE_TOLERANCE_MM = 1e-9
 
@@ -60,9 +65,11 @@ _EN_STEEL_FY: dict[str, tuple[tuple[float, ...], str]] = {
     "S235": ((235, 225, 215, 215, 215), _EN_10025_2),
     "S275": ((275, 265, 255, 245, 235), _EN_10025_2),
     "S355": ((355, 345, 335, 325, 315), _EN_10025_2),
-    "S460": ((460, 440, 430, 410, 400),
-             "f_y: EN 10025-3 (S460N) and EN 10025-4 (S460M), minimum yield strength by nominal thickness "
-             "(from memory)"),
+    "S460": (
+        (460, 440, 430, 410, 400),
+        "f_y: EN 10025-3 (S460N) and EN 10025-4 (S460M), minimum yield strength by nominal thickness "
+        "(from memory)",
+    ),
 }
 
 
@@ -116,8 +123,10 @@ class Material:
     def __post_init__(self) -> None:
         path = "material"
         if self.kind not in MATERIAL_KINDS:
-            raise CaseError(f"{path}.kind: {_show(self.kind)} is not a material kind"
-                            f"{_suggestion(self.kind, MATERIAL_KINDS)}; allowed: {_quoted(MATERIAL_KINDS)}")
+            raise CaseError(
+                f"{path}.kind: {_show(self.kind)} is not a material kind"
+                f"{_suggestion(self.kind, MATERIAL_KINDS)}; allowed: {_quoted(MATERIAL_KINDS)}"
+            )
         for attribute in ("name", "thickness_band", "source"):
             if not isinstance(getattr(self, attribute), str):
                 raise CaseError(f"{path}.{attribute}: {_show(getattr(self, attribute))} must be a string")
@@ -126,10 +135,12 @@ class Material:
             object.__setattr__(self, attribute, value)
         for attribute in ("G", "E_05"):
             if getattr(self, attribute) is not None:
-                object.__setattr__(self, attribute,
-                                   _positive(f"{path}.{attribute}", getattr(self, attribute), "Pa"))
-        object.__setattr__(self, "density",
-                           _positive(f"{path}.density", self.density, "kg/m³", allow_zero=True))
+                object.__setattr__(
+                    self, attribute, _positive(f"{path}.{attribute}", getattr(self, attribute), "Pa")
+                )
+        object.__setattr__(
+            self, "density", _positive(f"{path}.density", self.density, "kg/m³", allow_zero=True)
+        )
 
 
 # ----------------------------------------------------------------------------- catalogue
@@ -152,55 +163,91 @@ def _en_steel(grade: str, thickness: float | None, path: str) -> Material:
         band_text = _BAND_TEXT[band]
     fy = values[band] * _MPA
     return Material(
-        name=grade, kind="steel", E=_EN_STEEL_E, G=_EN_STEEL_G, fy=fy, f_c=fy, density=_STEEL_DENSITY,
-        E_05=None, thickness_band=band_text,
+        name=grade,
+        kind="steel",
+        E=_EN_STEEL_E,
+        G=_EN_STEEL_G,
+        fy=fy,
+        f_c=fy,
+        density=_STEEL_DENSITY,
+        E_05=None,
+        thickness_band=band_text,
         source=f"{fy_source}, {band_text}: {values[band]:g} MPa; f_c = f_y; {_EN_STEEL_ELASTIC}; "
-               f"{_STEEL_DENSITY_SOURCE}",
+        f"{_STEEL_DENSITY_SOURCE}",
     )
 
 
 def _astm_steel(grade: str, fy_mpa: float, fy_source: str) -> Material:
     """An ASTM steel; AISC 360-16 takes E = 29 000 ksi and G = 11 200 ksi (from memory)."""
     return Material(
-        name=grade, kind="steel", E=200_000 * _MPA, G=77_200 * _MPA, fy=fy_mpa * _MPA, f_c=fy_mpa * _MPA,
-        density=_STEEL_DENSITY, E_05=None, thickness_band="",
+        name=grade,
+        kind="steel",
+        E=200_000 * _MPA,
+        G=77_200 * _MPA,
+        fy=fy_mpa * _MPA,
+        f_c=fy_mpa * _MPA,
+        density=_STEEL_DENSITY,
+        E_05=None,
+        thickness_band="",
         source=f"{fy_source}; f_c = F_y; E = 200 000 MPa (29 000 ksi) and G = 77 200 MPa (11 200 ksi): "
-               f"AISC 360-16 (from memory); density 7850 kg/m³ (490 lb/ft³): common practice, no source",
+        f"AISC 360-16 (from memory); density 7850 kg/m³ (490 lb/ft³): common practice, no source",
     )
 
 
 def _c24(thickness: float | None, path: str) -> Material:
     return Material(
-        name="C24", kind="timber", E=11_000 * _MPA, G=690 * _MPA, fy=24 * _MPA, f_c=21 * _MPA, density=420.0,
-        E_05=7_400 * _MPA, thickness_band="",
+        name="C24",
+        kind="timber",
+        E=11_000 * _MPA,
+        G=690 * _MPA,
+        fy=24 * _MPA,
+        f_c=21 * _MPA,
+        density=420.0,
+        E_05=7_400 * _MPA,
+        thickness_band="",
         source="EN 338, strength class C24: f_m,k = 24 MPa, f_c,0,k = 21 MPa, E_0,mean = 11 000 MPa, "
-               "E_0,05 = 7 400 MPa [text]; G_mean = 690 MPa and mean density 420 kg/m³ (from memory)",
+        "E_0,05 = 7 400 MPa [text]; G_mean = 690 MPa and mean density 420 kg/m³ (from memory)",
     )
 
 
 def _gl24h(thickness: float | None, path: str) -> Material:
     return Material(
-        name="GL24h", kind="timber", E=11_500 * _MPA, G=650 * _MPA, fy=24 * _MPA, f_c=24 * _MPA,
-        density=420.0, E_05=9_600 * _MPA, thickness_band="",
+        name="GL24h",
+        kind="timber",
+        E=11_500 * _MPA,
+        G=650 * _MPA,
+        fy=24 * _MPA,
+        f_c=24 * _MPA,
+        density=420.0,
+        E_05=9_600 * _MPA,
+        thickness_band="",
         source="EN 14080, homogeneous glulam GL24h: f_m,g,k = 24 MPa, f_c,0,g,k = 24 MPa, "
-               "E_0,g,mean = 11 500 MPa, E_0,g,05 = 9 600 MPa, G_g,mean = 650 MPa, mean density 420 kg/m³ "
-               "(all from memory)",
+        "E_0,g,mean = 11 500 MPa, E_0,g,05 = 9 600 MPa, G_g,mean = 650 MPa, mean density 420 kg/m³ "
+        "(all from memory)",
     )
 
 
 def _aluminium_6082_t6(thickness: float | None, path: str) -> Material:
     return Material(
-        name="EN AW-6082 T6", kind="aluminium", E=70_000 * _MPA, G=27_000 * _MPA, fy=250 * _MPA,
-        f_c=250 * _MPA, density=2700.0, E_05=None, thickness_band="",
+        name="EN AW-6082 T6",
+        kind="aluminium",
+        E=70_000 * _MPA,
+        G=27_000 * _MPA,
+        fy=250 * _MPA,
+        f_c=250 * _MPA,
+        density=2700.0,
+        E_05=None,
+        thickness_band="",
         source="E = 70 000 MPa, G = 27 000 MPa: EN 1999-1-1 §3.2.5 [text]; f_0.2 = 250 MPa: EN 1999-1-1 "
-               "Table 3.2b, extruded profiles t <= 5 mm, used here for every thickness (from memory); "
-               "f_c = f_0.2; density 2700 kg/m³: EN 1999-1-1 §3.2.5 (from memory)",
+        "Table 3.2b, extruded profiles t <= 5 mm, used here for every thickness (from memory); "
+        "f_c = f_0.2; density 2700 kg/m³: EN 1999-1-1 §3.2.5 (from memory)",
     )
 
 
 def _steel_maker(grade: str):
     def make(thickness: float | None, path: str) -> Material:
         return _en_steel(grade, thickness, path)
+
     return make
 
 
@@ -211,9 +258,11 @@ _CATALOGUE = {
     "S355": _steel_maker("S355"),
     "S460": _steel_maker("S460"),
     "ASTM A992": lambda thickness, path: _astm_steel(
-        "ASTM A992", 345, "F_y = 345 MPa (50 ksi): ASTM A992 [text]"),
+        "ASTM A992", 345, "F_y = 345 MPa (50 ksi): ASTM A992 [text]"
+    ),
     "ASTM A36": lambda thickness, path: _astm_steel(
-        "ASTM A36", 250, "F_y = 250 MPa (36 ksi): ASTM A36 (from memory)"),
+        "ASTM A36", 250, "F_y = 250 MPa (36 ksi): ASTM A36 (from memory)"
+    ),
     "C24": _c24,
     "GL24h": _gl24h,
     "EN AW-6082 T6": _aluminium_6082_t6,
@@ -238,12 +287,18 @@ def _normalise(name: str) -> str:
 
 # Quality (sub-grade) suffixes name the impact toughness, not the strength: S355J2 has the f_y of S355
 # (EN 10025-2 and EN 10027-1, from memory). S460 takes the N/NL (EN 10025-3) and M/ML (EN 10025-4) ones.
-_SUBGRADES = {"S235": ("JR", "J0", "J2"), "S275": ("JR", "J0", "J2"), "S355": ("JR", "J0", "J2", "K2"),
-              "S460": ("N", "NL", "M", "ML")}
+_SUBGRADES = {
+    "S235": ("JR", "J0", "J2"),
+    "S275": ("JR", "J0", "J2"),
+    "S355": ("JR", "J0", "J2", "K2"),
+    "S460": ("N", "NL", "M", "ML"),
+}
 
-_LOOKUP = {_normalise(name): name for name in _CATALOGUE} | {
-    _normalise(alias): name for alias, name in _ALIASES.items()} | {
-    grade + suffix: grade for grade, suffixes in _SUBGRADES.items() for suffix in suffixes}
+_LOOKUP = (
+    {_normalise(name): name for name in _CATALOGUE}
+    | {_normalise(alias): name for alias, name in _ALIASES.items()}
+    | {grade + suffix: grade for grade, suffixes in _SUBGRADES.items() for suffix in suffixes}
+)
 
 
 def material_names() -> tuple[str, ...]:
@@ -298,53 +353,68 @@ def material_from_spec(spec: Mapping, thickness: float | None = None, path: str 
     300000000.0
     """
     if not isinstance(spec, Mapping):
-        raise CaseError(f"{path}: {_show(spec)} is not an object; expected {{'name': grade}} with a grade of "
-                        f"{_quoted(material_names())}, or custom values {{'E': ..., 'fy': ...}} [Pa]")
+        raise CaseError(
+            f"{path}: {_show(spec)} is not an object; expected {{'name': grade}} with a grade of "
+            f"{_quoted(material_names())}, or custom values {{'E': ..., 'fy': ...}} [Pa]"
+        )
     for key in spec:
         if key not in _CUSTOM_KEYS:
-            raise CaseError(f"{path}.{key}: unknown key{_suggestion(key, _CUSTOM_KEYS)}; "
-                            f"allowed keys: {_quoted(_CUSTOM_KEYS)}")
+            raise CaseError(
+                f"{path}.{key}: unknown key{_suggestion(key, _CUSTOM_KEYS)}; "
+                f"allowed keys: {_quoted(_CUSTOM_KEYS)}"
+            )
     if thickness is not None:
         thickness = _positive(f"{path}.thickness", thickness, "m")
     custom_keys = [key for key in spec if key != "name"]
     if not custom_keys:
         if "name" not in spec:
-            raise CaseError(f"{path}.name: required key is missing; give a grade of "
-                            f"{_quoted(material_names())}, or custom values 'E' and 'fy' [Pa]")
+            raise CaseError(
+                f"{path}.name: required key is missing; give a grade of "
+                f"{_quoted(material_names())}, or custom values 'E' and 'fy' [Pa]"
+            )
         return _catalogued(spec["name"], thickness, path)
     return _custom(spec, path)
 
 
 def _catalogued(name: Any, thickness: float | None, path: str) -> Material:
     if not isinstance(name, str):
-        raise CaseError(f"{path}.name: {_show(name)} is not a string; it must be one of "
-                        f"{_quoted(material_names())}")
+        raise CaseError(
+            f"{path}.name: {_show(name)} is not a string; it must be one of {_quoted(material_names())}"
+        )
     canonical = _LOOKUP.get(_normalise(name))
     if canonical is None:
         hint = ""
         match = difflib.get_close_matches(_normalise(name), list(_LOOKUP), n=1, cutoff=0.6)
         if match:
             hint = f" (did you mean {_LOOKUP[match[0]]!r}?)"
-        raise CaseError(f"{path}.name: {name!r} is not a catalogued material{hint}; it must be one of "
-                        f"{_quoted(material_names())}, or give custom values 'E' and 'fy' [Pa]")
+        raise CaseError(
+            f"{path}.name: {name!r} is not a catalogued material{hint}; it must be one of "
+            f"{_quoted(material_names())}, or give custom values 'E' and 'fy' [Pa]"
+        )
     return _CATALOGUE[canonical](thickness, path)
 
 
 def _custom(spec: Mapping, path: str) -> Material:
     for key in ("E", "fy"):
         if key not in spec:
-            raise CaseError(f"{path}.{key}: required key is missing; a custom material needs 'E' and 'fy' "
-                            f"[Pa] (or give only 'name' for a catalogued grade)")
+            raise CaseError(
+                f"{path}.{key}: required key is missing; a custom material needs 'E' and 'fy' "
+                f"[Pa] (or give only 'name' for a catalogued grade)"
+            )
     name = spec.get("name", "custom")
     if not isinstance(name, str):
         raise CaseError(f"{path}.name: {_show(name)} is not a string")
     if _normalise(name) in _LOOKUP:
-        raise CaseError(f"{path}.name: {name!r} is a catalogued grade, whose values are fixed; give "
-                        f"{{'name': {name!r}}} alone, or name the custom material differently")
+        raise CaseError(
+            f"{path}.name: {name!r} is a catalogued grade, whose values are fixed; give "
+            f"{{'name': {name!r}}} alone, or name the custom material differently"
+        )
     kind = spec.get("kind", "custom")
     if kind not in MATERIAL_KINDS:
-        raise CaseError(f"{path}.kind: {_show(kind)} is not a material kind"
-                        f"{_suggestion(kind, MATERIAL_KINDS)}; allowed: {_quoted(MATERIAL_KINDS)}")
+        raise CaseError(
+            f"{path}.kind: {_show(kind)} is not a material kind"
+            f"{_suggestion(kind, MATERIAL_KINDS)}; allowed: {_quoted(MATERIAL_KINDS)}"
+        )
     E = _positive(f"{path}.E", spec["E"], "Pa")
     fy = _positive(f"{path}.fy", spec["fy"], "Pa")
     f_c = _positive(f"{path}.f_c", spec["f_c"], "Pa") if "f_c" in spec else fy
@@ -357,9 +427,18 @@ def _custom(spec: Mapping, path: str) -> Material:
         density = _STEEL_DENSITY
         density_source = "density not given: 7850 kg/m³ (steel) assumed"
     f_c_source = "f_c given" if "f_c" in spec else "f_c = fy"
-    return Material(name=name, kind=kind, E=E, G=G, fy=fy, f_c=f_c, density=density, E_05=E_05,
-                    thickness_band="",
-                    source=f"custom values given in the case; {f_c_source}; {density_source}")
+    return Material(
+        name=name,
+        kind=kind,
+        E=E,
+        G=G,
+        fy=fy,
+        f_c=f_c,
+        density=density,
+        E_05=E_05,
+        thickness_band="",
+        source=f"custom values given in the case; {f_c_source}; {density_source}",
+    )
 
 
 # ----------------------------------------------------------------------------- helpers
@@ -369,8 +448,9 @@ def _positive(path: str, value: Any, unit: str, *, allow_zero: bool = False) -> 
     """A finite number > 0 (or >= 0 with ``allow_zero``) as a float, else a CaseError naming ``path``."""
     requirement = f"{'>=' if allow_zero else '>'} 0"
     if isinstance(value, bool) or not isinstance(value, numbers.Real):
-        raise CaseError(f"{path}: {_show(value)} is not a number; "
-                        f"it must be a finite number {requirement} {unit}")
+        raise CaseError(
+            f"{path}: {_show(value)} is not a number; it must be a finite number {requirement} {unit}"
+        )
     number = float(value)
     if not math.isfinite(number) or number < 0 or (number == 0 and not allow_zero):
         raise CaseError(f"{path}: {number!r} {unit} must be finite and {requirement}")

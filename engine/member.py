@@ -1,18 +1,22 @@
 r"""From a case to the member the solver analyses: the stiffness, the section and material, and the bow.
 
-- **Stiffness.** :math:`EI` is the case's ``EI`` when given, else :math:`E I` of the material and section about
-  the chosen axis; either way multiplied by ``stiffness_factor`` (for example :math:`0.8\tau_b` of the AISC 360-16
+- **Stiffness.** :math:`EI` is the case's ``EI`` when given, else :math:`E I` of the material and section
+  about
+  the chosen axis; either way multiplied by ``stiffness_factor`` (for example :math:`0.8\tau_b` of the
+  AISC 360-16
   direct analysis method, Appendix 1/Chapter C, from memory), which changes the analysis only.
 - **Bow.** An explicit ``shape`` and ``amplitude``, or a code preset:
 
   - ``en1993-table-5.1``: :math:`e_0 = L/n` of EN 1993-1-1:2005 Table 5.1 for the buckling curve and the
     analysis type (elastic or plastic) [text: Simões da Silva et al., ECCS 2010, table 2.20];
   - ``en1993-eq-5.9``: the first-mode-shaped bow of EN 1993-1-1 §5.3.2(11), eq. (5.9) (from memory), whose
-    elastic second-order cross-section check reproduces :math:`\chi N_{Rk}` exactly (the Ayrton–Perry identity);
+    elastic second-order cross-section check reproduces :math:`\chi N_{Rk}` exactly (the Ayrton–Perry
+    identity);
   - ``aisc-l/1000``: :math:`L/1000`, AISC 303-16 §7.13.1.1 [text];
   - ``span``: :math:`L/n` with the case's ``ratio``.
 
-  The curve is chosen from the section, axis, thickness and manufacture by EN 1993-1-1 Table 6.2 unless the case
+  The curve is chosen from the section, axis, thickness and manufacture by EN 1993-1-1 Table 6.2 unless
+  the case
   names one.
 - **Direction.** The code asks for the imperfection in the unfavourable direction (EN 1993-1-1 §5.3.2, from
   memory), which depends on the axial force (a bow with the loads straightens under tension). With a preset's
@@ -117,11 +121,19 @@ class BowChoice:
 
     def reversed(self) -> BowChoice:
         """The same bow and sway pointing the other way."""
-        word = {"with the loads' deflection": "against the loads' deflection",
-                "against the loads' deflection": "with the loads' deflection", "+w": "-w", "-w": "+w"}
-        return dataclasses.replace(self, amplitude=-self.amplitude, sway=-self.sway,
-                                   opposes_load=not self.opposes_load if self.direction.endswith("deflection")
-                                   else False, direction=word.get(self.direction, self.direction))
+        word = {
+            "with the loads' deflection": "against the loads' deflection",
+            "against the loads' deflection": "with the loads' deflection",
+            "+w": "-w",
+            "-w": "+w",
+        }
+        return dataclasses.replace(
+            self,
+            amplitude=-self.amplitude,
+            sway=-self.sway,
+            opposes_load=not self.opposes_load if self.direction.endswith("deflection") else False,
+            direction=word.get(self.direction, self.direction),
+        )
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -155,8 +167,14 @@ def _curve(case, section, material):
     if section is None or material is None or material.kind not in _STEEL_LIKE:
         return None, None
     grade = material.name if material.name.upper().startswith("S") else None
-    return codes.buckling_curve(shape=section.shape, manufacture=section.manufacture, axis=case.axis,
-                                h_over_b=section.h_over_b, t_max=section.t_max, grade=grade)
+    return codes.buckling_curve(
+        shape=section.shape,
+        manufacture=section.manufacture,
+        axis=case.axis,
+        h_over_b=section.h_over_b,
+        t_max=section.t_max,
+        grade=grade,
+    )
 
 
 def mode_curvature_peak(buckling) -> float:
@@ -181,8 +199,9 @@ def _first_order_projection(case, EI, shape_values, x):
     """∫ w1 · w0 dx of the loads' first-order deflection onto a bow shape (its sign is all that matters)."""
     from engine.solution import Batch, Model, Points
 
-    plain = dataclasses.replace(case, EI=EI, imperfection=Imperfection(), section=None, material=None,
-                                stiffness_factor=1.0)
+    plain = dataclasses.replace(
+        case, EI=EI, imperfection=Imperfection(), section=None, material=None, stiffness_factor=1.0
+    )
     model = Model(plain, Bow(shape="none", amplitude=0.0, length=plain.length))
     batch = Batch(model, [0.0])
     pts = Points(model, model.segment_of(x), x - model.xa[model.segment_of(x)])
@@ -217,8 +236,10 @@ def resolve(case):
     if EI < 1e-3:
         from engine.errors import CaseError
 
-        raise CaseError(f"section: E·I = {EI!r} N·m² of this section and material is below 1e-3 N·m², "
-                        "smaller than any structural member")
+        raise CaseError(
+            f"section: E·I = {EI!r} N·m² of this section and material is below 1e-3 N·m², "
+            "smaller than any structural member"
+        )
     if case.stiffness_factor != 1.0:
         EI *= case.stiffness_factor
         EI_source += f", times the stiffness factor {case.stiffness_factor:g}"
@@ -233,11 +254,14 @@ def resolve(case):
         code_amp = L / ratio
         code_label = f"EN 1993-1-1 Table 5.1, curve {curve}, {method} analysis: L/{ratio}"
         code_source = "EN 1993-1-1:2005 Table 5.1 [text: Simões da Silva et al., ECCS 2010, table 2.20]"
-    plain = dataclasses.replace(case, EI=EI, imperfection=Imperfection(), section=None, material=None,
-                                stiffness_factor=1.0)
+    plain = dataclasses.replace(
+        case, EI=EI, imperfection=Imperfection(), section=None, material=None, stiffness_factor=1.0
+    )
     if imp.preset is None:
         shape, amplitude = imp.shape, imp.amplitude
-        label = f"{shape}, amplitude {amplitude * 1e3:.2f} mm (given)" if shape != "none" else "no initial bow"
+        label = (
+            f"{shape}, amplitude {amplitude * 1e3:.2f} mm (given)" if shape != "none" else "no initial bow"
+        )
         source = "given in the case"
     else:
         shape = imp.shape if imp.shape != "none" else ("mode" if imp.preset == "en1993-eq-5.9" else "sine")
@@ -245,8 +269,10 @@ def resolve(case):
             if curve is None:
                 from engine.errors import CaseError
 
-                raise CaseError("imperfection.curve: the EN 1993-1-1 Table 5.1 preset needs a buckling curve: "
-                                "give 'curve' (a0, a, b, c or d) or a steel section and material")
+                raise CaseError(
+                    "imperfection.curve: the EN 1993-1-1 Table 5.1 preset needs a buckling curve: "
+                    "give 'curve' (a0, a, b, c or d) or a steel section and material"
+                )
             ratio = codes.bow_ratio(curve, imp.analysis)
             amplitude = L / ratio
             label = f"EN 1993-1-1 Table 5.1, curve {curve}, {imp.analysis} analysis: e0 = L/{ratio}"
@@ -256,29 +282,42 @@ def resolve(case):
             from engine.errors import CaseError
 
             if section is None or material is None or curve is None:
-                raise CaseError("imperfection.preset: 'en1993-eq-5.9' needs a section and a steel material "
-                                "(or a curve), for the slenderness and M_Rk/N_Rk of eq. (5.9)")
+                raise CaseError(
+                    "imperfection.preset: 'en1993-eq-5.9' needs a section and a steel material "
+                    "(or a curve), for the slenderness and M_Rk/N_Rk of eq. (5.9)"
+                )
             first = critical_loads(plain, 1)
             pcr1 = float(first.critical_loads[0])
             lam = codes.slenderness(section.A, material.fy, pcr1)
             W = eq_5_9_modulus(section, material, method)
-            e0 = codes.eq_5_9_amplitude(curve=curve, lambda_bar=lam, M_Rk=W * material.fy,
-                                        N_Rk=section.A * material.fy, gamma_M1=case.check.gamma_M1)
+            e0 = codes.eq_5_9_amplitude(
+                curve=curve,
+                lambda_bar=lam,
+                M_Rk=W * material.fy,
+                N_Rk=section.A * material.fy,
+                gamma_M1=case.check.gamma_M1,
+            )
             # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1.
             factor = pcr1 / (EI * mode_curvature_peak(first))
             amplitude = e0 * factor
             if amplitude > L / 10:
                 # Capping it would make the route unconservative (capacity above χ A f_y / γ_M1): refuse.
-                raise CaseError(f"imperfection.preset: the eq. (5.9) bow e0·N_cr/(EI·|η''|max) = "
-                                f"{amplitude * 1e3:.0f} mm exceeds L/10 = {L / 10 * 1e3:.0f} mm: the first "
-                                "buckling mode of these supports is nearly a rigid-body sway with little "
-                                "curvature (soft translational springs); use the Table 5.1 preset with a "
-                                "sway imperfection, or stiffer supports")
-            label = (f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, lambda_bar = {lam:.3f}, "
-                     f"e0 = {e0 * 1e3:.2f} mm, first-mode bow e0·N_cr/(EI·|η''|max) = e0 × {factor:.4g} "
-                     f"= {abs(amplitude) * 1e3:.2f} mm")
-            source = ("EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9) and (5.10) (from memory); checked on this "
-                      "route by the linear N–M interaction with γ_M1")
+                raise CaseError(
+                    f"imperfection.preset: the eq. (5.9) bow e0·N_cr/(EI·|η''|max) = "
+                    f"{amplitude * 1e3:.0f} mm exceeds L/10 = {L / 10 * 1e3:.0f} mm: the first "
+                    "buckling mode of these supports is nearly a rigid-body sway with little "
+                    "curvature (soft translational springs); use the Table 5.1 preset with a "
+                    "sway imperfection, or stiffer supports"
+                )
+            label = (
+                f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, lambda_bar = {lam:.3f}, "
+                f"e0 = {e0 * 1e3:.2f} mm, first-mode bow e0·N_cr/(EI·|η''|max) = e0 × {factor:.4g} "
+                f"= {abs(amplitude) * 1e3:.2f} mm"
+            )
+            source = (
+                "EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9) and (5.10) (from memory); checked on this "
+                "route by the linear N–M interaction with γ_M1"
+            )
             code_amp = None
         elif imp.preset == "aisc-l/1000":
             amplitude = L / codes.AISC_OUT_OF_STRAIGHTNESS
@@ -295,9 +334,11 @@ def resolve(case):
     sway_label = sway_source = ""
     if imp.preset is not None and can_sway(plain):
         if shape in ("sine", "parabola"):
-            notes.append(f"The {shape} bow between the ends does not fit a member with an end that can "
-                         "translate: the bow takes the shape of the member's first buckling mode instead "
-                         "(EN 1993-1-1 §5.3.2(11), from memory).")
+            notes.append(
+                f"The {shape} bow between the ends does not fit a member with an end that can "
+                "translate: the bow takes the shape of the member's first buckling mode instead "
+                "(EN 1993-1-1 §5.3.2(11), from memory)."
+            )
             shape = "mode"
         if imp.preset != "en1993-eq-5.9" and shape != "sway":  # a sway shape is a sway already
             anchor = sway_anchor(plain)
@@ -306,8 +347,10 @@ def resolve(case):
                 sway_label, sway_source = "sway 1/500 (AISC out of plumb)", SOURCE_AISC
             else:
                 phi, a_h, a_m = sway_phi(L, imp.columns)
-                sway_label = (f"sway phi = phi0·alpha_h·alpha_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
-                              f"= 1/{1 / phi:.0f} (h = L = {L:g} m, m = {imp.columns})")
+                sway_label = (
+                    f"sway phi = phi0·alpha_h·alpha_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
+                    f"= 1/{1 / phi:.0f} (h = L = {L:g} m, m = {imp.columns})"
+                )
                 sway_source = SOURCE_EN
             sway = phi
     direction = "+w"
@@ -319,8 +362,12 @@ def resolve(case):
         if case.loads:
             # The sign of the projection of the loads' first-order deflection on bow + sway says which way
             # is "with the loads" (the real sizes of both parts, the bow's sign as the case gives it).
-            trial = dataclasses.replace(plain, imperfection=Imperfection(shape=shape, amplitude=amplitude)
-                                        if shape != "none" and amplitude != 0.0 else Imperfection())
+            trial = dataclasses.replace(
+                plain,
+                imperfection=Imperfection(shape=shape, amplitude=amplitude)
+                if shape != "none" and amplitude != 0.0
+                else Imperfection(),
+            )
             buckling = critical_loads(trial, 1) if trial.imperfection.shape == "mode" else None
             x = np.linspace(0.0, L, 201)
             values = bow_for(trial, buckling, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
@@ -343,10 +390,26 @@ def resolve(case):
             label += ", first-mode shape"
     if sway_label:
         label += f"; {sway_label}"
-    bow = BowChoice(shape=shape, amplitude=float(amplitude), label=label, source=source, curve=curve,
-                    curve_reason=reason, code_amplitude=code_amp, code_label=code_label, code_source=code_source,
-                    opposes_load=opposes, sway=float(sway), sway_anchor=float(anchor), sway_label=sway_label,
-                    sway_source=sway_source, automatic=imp.preset is not None and imp.direction == "load",
-                    direction=direction, notes=tuple(notes))
-    analysis_case = dataclasses.replace(plain, imperfection=Imperfection(shape=shape, amplitude=float(amplitude)))
+    bow = BowChoice(
+        shape=shape,
+        amplitude=float(amplitude),
+        label=label,
+        source=source,
+        curve=curve,
+        curve_reason=reason,
+        code_amplitude=code_amp,
+        code_label=code_label,
+        code_source=code_source,
+        opposes_load=opposes,
+        sway=float(sway),
+        sway_anchor=float(anchor),
+        sway_label=sway_label,
+        sway_source=sway_source,
+        automatic=imp.preset is not None and imp.direction == "load",
+        direction=direction,
+        notes=tuple(notes),
+    )
+    analysis_case = dataclasses.replace(
+        plain, imperfection=Imperfection(shape=shape, amplitude=float(amplitude))
+    )
     return Member(EI=EI, EI_source=EI_source, section=section, material=material, bow=bow), analysis_case

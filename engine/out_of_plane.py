@@ -59,13 +59,21 @@ class OutOfPlaneSettings:
             raise CaseError(f"out_of_plane.restrained: {self.restrained!r} must be true or false")
         if self.buckling_length is not None:
             value = self.buckling_length
-            if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value) \
-                    or not 0.001 <= value <= _MAX_LENGTH:
-                raise CaseError(f"out_of_plane.buckling_length: {value!r} m must be a number from 0.001 to "
-                                f"{_MAX_LENGTH:g} m")
+            if (
+                isinstance(value, bool)
+                or not isinstance(value, (int, float))
+                or not math.isfinite(value)
+                or not 0.001 <= value <= _MAX_LENGTH
+            ):
+                raise CaseError(
+                    f"out_of_plane.buckling_length: {value!r} m must be a number from 0.001 to "
+                    f"{_MAX_LENGTH:g} m"
+                )
             if self.restrained:
-                raise CaseError("out_of_plane.buckling_length: not allowed with 'restrained': true (a "
-                                "restrained member does not buckle out of plane); give one or the other")
+                raise CaseError(
+                    "out_of_plane.buckling_length: not allowed with 'restrained': true (a "
+                    "restrained member does not buckle out of plane); give one or the other"
+                )
             object.__setattr__(self, "buckling_length", float(value))
 
     @classmethod
@@ -74,12 +82,15 @@ class OutOfPlaneSettings:
         if isinstance(data, OutOfPlaneSettings):
             return data
         if not hasattr(data, "keys"):
-            raise CaseError(f"out_of_plane: {data!r} is not an object; expected "
-                            '{"buckling_length": ...} or {"restrained": true}')
+            raise CaseError(
+                f"out_of_plane: {data!r} is not an object; expected "
+                '{"buckling_length": ...} or {"restrained": true}'
+            )
         unknown = [key for key in data if key not in ("buckling_length", "restrained")]
         if unknown:
-            raise CaseError(f"out_of_plane.{unknown[0]}: unknown key; allowed: 'buckling_length', "
-                            "'restrained'")
+            raise CaseError(
+                f"out_of_plane.{unknown[0]}: unknown key; allowed: 'buckling_length', 'restrained'"
+            )
         return cls(**dict(data))
 
     def to_dict(self) -> dict:
@@ -131,10 +142,12 @@ class OutOfPlane:
         """One line with the numbers, e.g. for the cautions and the calc sheet."""
         if not self.checked:
             return self.reason
-        return (f"about the {self.axis} axis: L_cr = {self.buckling_length:.3f} m, "
-                f"N_cr = {self.N_cr * 1e-3:.1f} kN, "
-                f"lambda_bar = {self.lambda_bar:.3f}, curve {self.curve}, chi = {self.chi:.3f}, "
-                f"N_b,Rd = {self.N_b_Rd * 1e-3:.1f} kN")
+        return (
+            f"about the {self.axis} axis: L_cr = {self.buckling_length:.3f} m, "
+            f"N_cr = {self.N_cr * 1e-3:.1f} kN, "
+            f"lambda_bar = {self.lambda_bar:.3f}, curve {self.curve}, chi = {self.chi:.3f}, "
+            f"N_b,Rd = {self.N_b_Rd * 1e-3:.1f} kN"
+        )
 
 
 def resistance(case, section, material) -> OutOfPlane:
@@ -153,37 +166,64 @@ def resistance(case, section, material) -> OutOfPlane:
     settings = case.out_of_plane or OutOfPlaneSettings()
     other = "minor" if case.axis == "major" else "major"
     if settings.restrained:
-        return OutOfPlane(checked=False, axis=other, reason="restrained: out-of-plane buckling is prevented "
-                          "(given in the case)")
+        return OutOfPlane(
+            checked=False,
+            axis=other,
+            reason="restrained: out-of-plane buckling is prevented (given in the case)",
+        )
     if section is None or material is None:
         return OutOfPlane(checked=False, axis=other, reason="no section and material: not checked")
     if section.shape == "custom":
-        return OutOfPlane(checked=False, axis=other, reason="a custom section has properties about one axis "
-                          "only: out-of-plane buckling cannot be checked")
+        return OutOfPlane(
+            checked=False,
+            axis=other,
+            reason="a custom section has properties about one axis "
+            "only: out-of-plane buckling cannot be checked",
+        )
     if material.kind != "steel":
-        return OutOfPlane(checked=False, axis=other, reason=f"{material.kind} material: the buckling curves "
-                          "of EN 1993-1-1 do not apply, out-of-plane buckling is not checked")
+        return OutOfPlane(
+            checked=False,
+            axis=other,
+            reason=f"{material.kind} material: the buckling curves "
+            "of EN 1993-1-1 do not apply, out-of-plane buckling is not checked",
+        )
     turned = section_from_spec(dict(case.section), other)
     grade = material.name if material.name.upper().startswith("S") else None
-    curve, why = codes.buckling_curve(shape=turned.shape, manufacture=turned.manufacture, axis=other,
-                                      h_over_b=turned.h_over_b, t_max=turned.t_max, grade=grade)
+    curve, why = codes.buckling_curve(
+        shape=turned.shape,
+        manufacture=turned.manufacture,
+        axis=other,
+        h_over_b=turned.h_over_b,
+        t_max=turned.t_max,
+        grade=grade,
+    )
     if curve is None:  # pragma: no cover - every steel shape but custom has a curve
         return OutOfPlane(checked=False, axis=other, reason=f"no buckling curve: {why}")
     length = settings.buckling_length if settings.buckling_length is not None else case.length
     note = ""
     sways = any(end.translation != "fixed" for end in (case.left, case.right))
     if settings.buckling_length is None and sways:
-        note = ("L_cr is taken as the member length, but an end is free to translate in the plane analysed: "
-                "if it is free out of plane too, L_cr is up to 2L (a cantilever). Give "
-                "out_of_plane.buckling_length.")
+        note = (
+            "L_cr is taken as the member length, but an end is free to translate in the plane analysed: "
+            "if it is free out of plane too, L_cr is up to 2L (a cantilever). Give "
+            "out_of_plane.buckling_length."
+        )
     n_cr = math.pi**2 * material.E * turned.I / length**2
     lam = codes.slenderness(turned.A, material.fy, n_cr)
     chi = codes.reduction_factor(lam, curve)
-    return OutOfPlane(checked=True, axis=other, buckling_length=length, N_cr=n_cr, lambda_bar=lam, chi=chi,
-                      N_b_Rd=chi * turned.A * material.fy / case.check.gamma_M1, curve=curve,
-                      curve_reason=why, note=note,
-                      reason=("given" if settings.buckling_length is not None
-                              else "the member length (default)"))
+    return OutOfPlane(
+        checked=True,
+        axis=other,
+        buckling_length=length,
+        N_cr=n_cr,
+        lambda_bar=lam,
+        chi=chi,
+        N_b_Rd=chi * turned.A * material.fy / case.check.gamma_M1,
+        curve=curve,
+        curve_reason=why,
+        note=note,
+        reason=("given" if settings.buckling_length is not None else "the member length (default)"),
+    )
 
 
 def utilisation(template: OutOfPlane, axial_force: float) -> OutOfPlane:

@@ -75,8 +75,14 @@ def _refined(data: ReferenceData, i, P):
 def _refined_one(data: ReferenceData, i: int, P: float) -> tuple[float, float]:
     """:func:`_refined` for one station and one force, in plain floats (quicker than arrays of one)."""
     M, V, q, q1 = float(data.M[i]), float(data.V[i]), float(data.q[i]), float(data.q1[i])
-    w0, d1, d2, d3, d4, d5 = (float(data.w0[i]), float(data.d1[i]), float(data.d2[i]), float(data.d3[i]),
-                              float(data.d4[i]), float(data.d5[i]))
+    w0, d1, d2, d3, d4, d5 = (
+        float(data.w0[i]),
+        float(data.d1[i]),
+        float(data.d2[i]),
+        float(data.d3[i]),
+        float(data.d4[i]),
+        float(data.d5[i]),
+    )
     low = max(-float(data.xi[i]), -data.spacing)
     high = min(float(data.h[i] - data.xi[i]), data.spacing)
     d = 0.0

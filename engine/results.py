@@ -10,16 +10,26 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-__all__ = ["Peak", "Governing", "Reactions", "Approximation", "Amplification", "AMPLIFICATION_DEFINITIONS",
-           "Equilibrium", "Result", "ServiceCheck", "SweepResult"]
+__all__ = [
+    "Peak",
+    "Governing",
+    "Reactions",
+    "Approximation",
+    "Amplification",
+    "AMPLIFICATION_DEFINITIONS",
+    "Equilibrium",
+    "Result",
+    "ServiceCheck",
+    "SweepResult",
+]
 
 #: What each amplification ratio divides by what, in words (shown beside every value).
 AMPLIFICATION_DEFINITIONS = {
     "moment": "max|M_II| / max|M_I + N·w0| (the first-order moment plus the bow's moment N·w0)",
     "moment_first_order": "max|M_II| / max|M_I| (the first-order moment alone; the bow's moment counts as "
-                          "amplification)",
+    "amplification)",
     "moment_bow_free": "max|M_II| / max|M_I| of the member without its bow (the basis of AISC B1, whose P_c "
-                       "holds the out-of-straightness)",
+    "holds the out-of-straightness)",
     "deflection": "max|w + w0| / max|w_I + w0|",
 }
 
@@ -173,8 +183,10 @@ class ServiceCheck:
     x: float
     allowed: float
     limit: float
-    basis: str = ("second order at the axial force given, on the loads as given (no load combinations), "
-                  "without the initial bow; use service loads")
+    basis: str = (
+        "second order at the axial force given, on the loads as given (no load combinations), "
+        "without the initial bow; use service loads"
+    )
     source: str = "span/n deflection limit: national annexes; span/250 common practice, no source"
 
 
@@ -187,7 +199,8 @@ class Equilibrium:
     transverse : float
         ``(T(0) - T(L) - total load) / scale`` [-].
     moment : float
-        Moment about the right end, including the axial force times the end offset difference, over its scale [-].
+        Moment about the right end, including the axial force times the end offset difference, over its
+        scale [-].
     """
 
     transverse: float
@@ -204,7 +217,8 @@ class Result:
     axial_force : float
         [N], compression positive.
     x : ndarray
-        Stations [m]: both ends, every node (twice where a point load or couple acts), the uniform grid and the
+        Stations [m]: both ends, every node (twice where a point load or couple acts), the uniform grid
+        and the
         interior peaks of w, w + w0, M and V.
     deflection, rotation : ndarray
         w [m] and w' [rad] of the deflection caused by loading.
@@ -279,7 +293,7 @@ class Result:
     cautions: tuple = ()
 
     @functools.cached_property
-    def first_order(self) -> "Result | None":
+    def first_order(self) -> Result | None:
         """The same case with P = 0, at the same stations (None for the first-order result itself)."""
         return None if self._first_order_source is None else self._first_order_source(self)
 

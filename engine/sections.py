@@ -84,8 +84,10 @@ _SPEC_KEYS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
     "chs": (("D", "t"), ("manufacture",)),
     "rectangle": (("b", "h"), ()),
     "round": (("D",), ()),
-    "custom": (("A", "I", "W_el", "W_pl"),
-               ("A_v", "t_max", "depth", "width", "doubly_symmetric", "open_section")),
+    "custom": (
+        ("A", "I", "W_el", "W_pl"),
+        ("A_v", "t_max", "depth", "width", "doubly_symmetric", "open_section"),
+    ),
 }
 
 
@@ -115,8 +117,10 @@ def _positive(path: str, value: Any, unit: str, maximum: float | None = None) ->
     if number <= 0.0:
         raise CaseError(f"{path}: {number!r} {unit} must be > 0")
     if maximum is not None and number > maximum:
-        raise CaseError(f"{path}: {number!r} {unit} must be <= {maximum:g} {unit} "
-                        f"(dimensions are in metres: 200 mm is 0.2)")
+        raise CaseError(
+            f"{path}: {number!r} {unit} must be <= {maximum:g} {unit} "
+            f"(dimensions are in metres: 200 mm is 0.2)"
+        )
     return number
 
 
@@ -128,8 +132,9 @@ def _flag(path: str, value: Any) -> bool:
 
 def _choice(path: str, value: Any, choices: tuple[str, ...], what: str) -> str:
     if not isinstance(value, str) or value not in choices:
-        raise CaseError(f"{path}: {_show(value)} is not {what}{_suggestion(value, choices)}; "
-                        f"allowed: {_quoted(choices)}")
+        raise CaseError(
+            f"{path}: {_show(value)} is not {what}{_suggestion(value, choices)}; allowed: {_quoted(choices)}"
+        )
     return value
 
 
@@ -205,8 +210,9 @@ class _AxisProperties:
     interaction_a: float | None
 
 
-def _i_section(h: float, b: float, tw: float, tf: float, r: float, rolled: bool
-               ) -> tuple[float, _AxisProperties, _AxisProperties]:
+def _i_section(
+    h: float, b: float, tw: float, tf: float, r: float, rolled: bool
+) -> tuple[float, _AxisProperties, _AxisProperties]:
     """Area [m²] and major- and minor-axis properties of a doubly symmetric I/H section.
 
     Two flanges b × tf, a web tw × (h − 2tf) and four root-radius spandrels of radius r (r = 0 for a welded
@@ -221,8 +227,11 @@ def _i_section(h: float, b: float, tw: float, tf: float, r: float, rolled: bool
 
     flange_arm = h / 2.0 - tf / 2.0
     fillet_arm_y = h / 2.0 - tf - offset  # fillets hang below the inner face of each flange
-    I_y = (2.0 * (b * tf**3 / 12.0 + b * tf * flange_arm**2) + tw * hw**3 / 12.0
-           + 4.0 * (fillet_own + fillet * fillet_arm_y**2))
+    I_y = (
+        2.0 * (b * tf**3 / 12.0 + b * tf * flange_arm**2)
+        + tw * hw**3 / 12.0
+        + 4.0 * (fillet_own + fillet * fillet_arm_y**2)
+    )
     half_y = b * tf * flange_arm + tw * (hw / 2.0) ** 2 / 2.0 + 2.0 * fillet * fillet_arm_y
 
     fillet_arm_z = tw / 2.0 + offset  # fillets stand beside each face of the web
@@ -237,10 +246,12 @@ def _i_section(h: float, b: float, tw: float, tf: float, r: float, rolled: bool
     shear_z = area - hw * tw
     # EN 1993-1-1 §6.2.9.1(5): a = (A − 2btf)/A <= 0.5 (from memory).
     a = min((area - 2.0 * b * tf) / area, 0.5)
-    major = _AxisProperties(I=I_y, W_el=I_y / (h / 2.0), W_pl=2.0 * half_y, A_v=shear_y,
-                            depth=h, width=b, interaction_a=a)
-    minor = _AxisProperties(I=I_z, W_el=I_z / (b / 2.0), W_pl=2.0 * half_z, A_v=shear_z,
-                            depth=b, width=h, interaction_a=a)
+    major = _AxisProperties(
+        I=I_y, W_el=I_y / (h / 2.0), W_pl=2.0 * half_y, A_v=shear_y, depth=h, width=b, interaction_a=a
+    )
+    minor = _AxisProperties(
+        I=I_z, W_el=I_z / (b / 2.0), W_pl=2.0 * half_z, A_v=shear_z, depth=b, width=h, interaction_a=a
+    )
     return area, major, minor
 
 
@@ -277,8 +288,9 @@ def _corner_radii(t: float, manufacture: str) -> tuple[float, float]:
     return outer, outer - t
 
 
-def _rectangular_hollow(h: float, b: float, t: float, manufacture: str
-                        ) -> tuple[float, _AxisProperties, _AxisProperties]:
+def _rectangular_hollow(
+    h: float, b: float, t: float, manufacture: str
+) -> tuple[float, _AxisProperties, _AxisProperties]:
     """Area [m²] and major- and minor-axis properties of a rectangular hollow section.
 
     Outer rounded rectangle h × b (radius r_o) less the inner one (h − 2t) × (b − 2t) (radius r_i).
@@ -294,12 +306,24 @@ def _rectangular_hollow(h: float, b: float, t: float, manufacture: str
     area = area_o - area_i
     I_y = I_y_o - I_y_i
     I_z = I_z_o - I_z_i
-    major = _AxisProperties(I=I_y, W_el=I_y / (h / 2.0), W_pl=2.0 * (half_y_o - half_y_i),
-                            A_v=area * h / (b + h), depth=h, width=b,
-                            interaction_a=min((area - 2.0 * b * t) / area, 0.5))
-    minor = _AxisProperties(I=I_z, W_el=I_z / (b / 2.0), W_pl=2.0 * (half_z_o - half_z_i),
-                            A_v=area * b / (b + h), depth=b, width=h,
-                            interaction_a=min((area - 2.0 * h * t) / area, 0.5))
+    major = _AxisProperties(
+        I=I_y,
+        W_el=I_y / (h / 2.0),
+        W_pl=2.0 * (half_y_o - half_y_i),
+        A_v=area * h / (b + h),
+        depth=h,
+        width=b,
+        interaction_a=min((area - 2.0 * b * t) / area, 0.5),
+    )
+    minor = _AxisProperties(
+        I=I_z,
+        W_el=I_z / (b / 2.0),
+        W_pl=2.0 * (half_z_o - half_z_i),
+        A_v=area * b / (b + h),
+        depth=b,
+        width=h,
+        interaction_a=min((area - 2.0 * h * t) / area, 0.5),
+    )
     return area, major, minor
 
 
@@ -316,8 +340,15 @@ def _circular_hollow(D: float, t: float) -> tuple[float, _AxisProperties]:
     d = D - 2.0 * t
     area = math.pi / 4.0 * (D * D - d * d)
     I = math.pi / 64.0 * (D**4 - d**4)
-    props = _AxisProperties(I=I, W_el=I / (D / 2.0), W_pl=(D**3 - d**3) / 6.0, A_v=2.0 * area / math.pi,
-                            depth=D, width=D, interaction_a=None)
+    props = _AxisProperties(
+        I=I,
+        W_el=I / (D / 2.0),
+        W_pl=(D**3 - d**3) / 6.0,
+        A_v=2.0 * area / math.pi,
+        depth=D,
+        width=D,
+        interaction_a=None,
+    )
     return area, props
 
 
@@ -329,8 +360,15 @@ def _solid_rectangle(depth: float, width: float) -> _AxisProperties:
     """
     area = depth * width
     I = width * depth**3 / 12.0
-    return _AxisProperties(I=I, W_el=I / (depth / 2.0), W_pl=width * depth**2 / 4.0, A_v=2.0 * area / 3.0,
-                           depth=depth, width=width, interaction_a=None)
+    return _AxisProperties(
+        I=I,
+        W_el=I / (depth / 2.0),
+        W_pl=width * depth**2 / 4.0,
+        A_v=2.0 * area / 3.0,
+        depth=depth,
+        width=width,
+        interaction_a=None,
+    )
 
 
 def _solid_round(D: float) -> tuple[float, _AxisProperties]:
@@ -340,8 +378,9 @@ def _solid_round(D: float) -> tuple[float, _AxisProperties]:
     """
     area = math.pi * D * D / 4.0
     I = math.pi * D**4 / 64.0
-    props = _AxisProperties(I=I, W_el=I / (D / 2.0), W_pl=D**3 / 6.0, A_v=0.75 * area,
-                            depth=D, width=D, interaction_a=None)
+    props = _AxisProperties(
+        I=I, W_el=I / (D / 2.0), W_pl=D**3 / 6.0, A_v=0.75 * area, depth=D, width=D, interaction_a=None
+    )
     return area, props
 
 
@@ -450,8 +489,9 @@ class Section:
         if self.interaction_a is not None:
             a = self.interaction_a
             if _is_bool(a) or not isinstance(a, numbers.Real) or not 0.0 <= float(a) <= 0.5:
-                raise CaseError(f"interaction_a: {_show(a)} is not allowed; "
-                                f"it must be a number from 0 to 0.5")
+                raise CaseError(
+                    f"interaction_a: {_show(a)} is not allowed; it must be a number from 0 to 0.5"
+                )
             object.__setattr__(self, "interaction_a", float(a))
         _flag("doubly_symmetric", self.doubly_symmetric)
         _flag("open_section", self.open_section)
@@ -473,12 +513,16 @@ class Section:
             raise CaseError(f"A_v: {self.A_v!r} m² must be <= A = {_g(self.A)} m²")
         if self.W_pl < down * self.W_el:
             # Full plasticity carries at least the first-yield moment.
-            raise CaseError(f"W_pl: {self.W_pl!r} m³ must be >= W_el = {_g(self.W_el)} m³ "
-                            f"(the plastic modulus is never less than the elastic one)")
+            raise CaseError(
+                f"W_pl: {self.W_pl!r} m³ must be >= W_el = {_g(self.W_el)} m³ "
+                f"(the plastic modulus is never less than the elastic one)"
+            )
         if self.W_pl > up * self.A * self.i:
             # W_pl = min over the axis of the integral of |y| dA <= sqrt(A·I) by Cauchy–Schwarz.
-            raise CaseError(f"W_pl: {self.W_pl!r} m³ must be <= A·i = sqrt(A·I) = {_g(self.A * self.i)} m³ "
-                            f"(no section has more; check the units)")
+            raise CaseError(
+                f"W_pl: {self.W_pl!r} m³ must be <= A·i = sqrt(A·I) = {_g(self.A * self.i)} m³ "
+                f"(no section has more; check the units)"
+            )
         if self.depth is not None and self.W_el > up * 2.0 * self.I / self.depth:
             # One extreme fibre is at least depth/2 from the axis.
             bound = 2.0 * self.I / self.depth
@@ -701,22 +745,29 @@ def _from_catalogue(path: str, spec: Mapping, axis: str) -> Section:
     for key in spec:
         if key != "name":
             if key == "shape":
-                raise CaseError(f"{path}: give either 'name' (a catalogue section) or 'shape' with its "
-                                f"dimensions, not both")
-            raise CaseError(f"{path}.{key}: unknown key{_suggestion(key, ('name',))}; a catalogue section "
-                            f"takes only 'name'")
+                raise CaseError(
+                    f"{path}: give either 'name' (a catalogue section) or 'shape' with its "
+                    f"dimensions, not both"
+                )
+            raise CaseError(
+                f"{path}.{key}: unknown key{_suggestion(key, ('name',))}; a catalogue section "
+                f"takes only 'name'"
+            )
     name = spec["name"]
     if not isinstance(name, str):
-        raise CaseError(f"{path}.name: {_show(name)} is not a section name; it must be a string such as "
-                        f"'HEB 200'")
+        raise CaseError(
+            f"{path}.name: {_show(name)} is not a section name; it must be a string such as 'HEB 200'"
+        )
     canonical = normalise_name(name)
     names = catalogue_names()
     if canonical not in names:
         near = _near_names(canonical, names)
         hint = f" (did you mean {', '.join(repr(n) for n in near)}?)" if near else ""
-        raise CaseError(f"{path}.name: {name!r} is not in the catalogue{hint}; it holds IPE 80 to 600, "
-                        f"HEA and HEB 100 to 600, some hot-finished SHS, RHS and CHS and sawn-timber sizes "
-                        f"(engine.sections.catalogue_names() lists them), or give 'shape' with dimensions")
+        raise CaseError(
+            f"{path}.name: {name!r} is not in the catalogue{hint}; it holds IPE 80 to 600, "
+            f"HEA and HEB 100 to 600, some hot-finished SHS, RHS and CHS and sawn-timber sizes "
+            f"(engine.sections.catalogue_names() lists them), or give 'shape' with dimensions"
+        )
     checked = "; checked against references.md §5" if canonical in _REFERENCES_S5 else ""
     computed = "; properties computed exactly from the dimensions"
     if canonical in _ROLLED_I:
@@ -727,8 +778,10 @@ def _from_catalogue(path: str, spec: Mapping, axis: str) -> Section:
     if canonical in _HOLLOW_RECTANGULAR:
         h, b, t = (value / 1000.0 for value in _HOLLOW_RECTANGULAR[canonical][0])
         dims = {"h": h, "b": b, "t": t}
-        source = (f"a size of the EN 10210-2 range (from memory), hot-finished, corner radii r_o = 1.5t, "
-                  f"r_i = t (references.md §5){computed}{checked}")
+        source = (
+            f"a size of the EN 10210-2 range (from memory), hot-finished, corner radii r_o = 1.5t, "
+            f"r_i = t (references.md §5){computed}{checked}"
+        )
         return _build(path, "rhs", "hot-finished", dims, axis, canonical, source)
     if canonical in _HOLLOW_CIRCULAR:
         D, t = (value / 1000.0 for value in _HOLLOW_CIRCULAR[canonical][0])
@@ -755,11 +808,15 @@ def _check_geometry(path: str, shape: str, dims: dict[str, float], manufacture: 
             between_flanges = (h - 2.0 * tf) / 2.0
             beside_web = (b - tw) / 2.0
             if r > between_flanges:
-                raise CaseError(f"{path}.r: {r!r} m is too large to fit between the flanges; "
-                                f"it must be <= (h - 2tf)/2 = {_g(between_flanges)} m")
+                raise CaseError(
+                    f"{path}.r: {r!r} m is too large to fit between the flanges; "
+                    f"it must be <= (h - 2tf)/2 = {_g(between_flanges)} m"
+                )
             if r > beside_web:
-                raise CaseError(f"{path}.r: {r!r} m is too large to fit beside the web; "
-                                f"it must be <= (b - tw)/2 = {_g(beside_web)} m")
+                raise CaseError(
+                    f"{path}.r: {r!r} m is too large to fit beside the web; "
+                    f"it must be <= (b - tw)/2 = {_g(beside_web)} m"
+                )
     elif shape == "rhs":
         h, b, t = dims["h"], dims["b"], dims["t"]
         smaller = min(h, b)
@@ -767,18 +824,22 @@ def _check_geometry(path: str, shape: str, dims: dict[str, float], manufacture: 
             raise CaseError(f"{path}.t: {t!r} m must be less than min(h, b)/2 = {_g(smaller / 2.0)} m")
         outer, _ = _corner_radii(t, manufacture)
         if 2.0 * outer > smaller:
-            raise CaseError(f"{path}.t: {t!r} m is too thick for a {manufacture} section of this size: "
-                            f"its outer corner radius {_g(outer)} m must be <= min(h, b)/2 = "
-                            f"{_g(smaller / 2.0)} m")
+            raise CaseError(
+                f"{path}.t: {t!r} m is too thick for a {manufacture} section of this size: "
+                f"its outer corner radius {_g(outer)} m must be <= min(h, b)/2 = "
+                f"{_g(smaller / 2.0)} m"
+            )
     elif shape == "chs":
         D, t = dims["D"], dims["t"]
         if t >= D / 2.0:
-            raise CaseError(f"{path}.t: {t!r} m must be less than D/2 = {_g(D / 2.0)} m "
-                            f"(a solid bar is shape 'round')")
+            raise CaseError(
+                f"{path}.t: {t!r} m must be less than D/2 = {_g(D / 2.0)} m (a solid bar is shape 'round')"
+            )
 
 
-def _build(path: str, shape: str, manufacture: str, dims: dict[str, float], axis: str, name: str,
-           source: str) -> Section:
+def _build(
+    path: str, shape: str, manufacture: str, dims: dict[str, float], axis: str, name: str, source: str
+) -> Section:
     """Compute the properties of a checked parametric shape and make the section about ``axis``."""
     _check_geometry(path, shape, dims, manufacture)
     h_over_b = None
@@ -810,18 +871,36 @@ def _build(path: str, shape: str, manufacture: str, dims: dict[str, float], axis
         t_max = dims["D"]
     props = major if axis == "major" else minor
     with _within(path):
-        return Section(name=name, shape=shape, manufacture=manufacture, axis=axis, A=area, I=props.I,
-                       W_el=props.W_el, W_pl=props.W_pl, i=math.sqrt(props.I / area), A_v=props.A_v,
-                       depth=props.depth, width=props.width, t_max=t_max, doubly_symmetric=True,
-                       open_section=open_section, h_over_b=h_over_b, interaction_a=props.interaction_a,
-                       dimensions=dims, source=source)
+        return Section(
+            name=name,
+            shape=shape,
+            manufacture=manufacture,
+            axis=axis,
+            A=area,
+            I=props.I,
+            W_el=props.W_el,
+            W_pl=props.W_pl,
+            i=math.sqrt(props.I / area),
+            A_v=props.A_v,
+            depth=props.depth,
+            width=props.width,
+            t_max=t_max,
+            doubly_symmetric=True,
+            open_section=open_section,
+            h_over_b=h_over_b,
+            interaction_a=props.interaction_a,
+            dimensions=dims,
+            source=source,
+        )
 
 
 def _describe(shape: str, manufacture: str, dims: dict[str, float]) -> str:
     """A section's description in millimetres, e.g. ``rolled I 200×100×5.6×8.5 r12``."""
     if shape == "rolled_i":
-        return (f"rolled I {_mm(dims['h'])}×{_mm(dims['b'])}×{_mm(dims['tw'])}×{_mm(dims['tf'])} "
-                f"r{_mm(dims['r'])}")
+        return (
+            f"rolled I {_mm(dims['h'])}×{_mm(dims['b'])}×{_mm(dims['tw'])}×{_mm(dims['tf'])} "
+            f"r{_mm(dims['r'])}"
+        )
     if shape == "welded_i":
         return f"welded I {_mm(dims['h'])}×{_mm(dims['b'])}×{_mm(dims['tw'])}×{_mm(dims['tf'])}"
     if shape == "rhs":
@@ -835,22 +914,42 @@ def _describe(shape: str, manufacture: str, dims: dict[str, float]) -> str:
 
 
 def _custom(path: str, spec: Mapping, axis: str) -> Section:
-    values = {key: _positive(f"{path}.{key}", spec[key], unit)
-              for key, unit in (("A", "m²"), ("I", "m⁴"), ("W_el", "m³"), ("W_pl", "m³"))}
+    values = {
+        key: _positive(f"{path}.{key}", spec[key], unit)
+        for key, unit in (("A", "m²"), ("I", "m⁴"), ("W_el", "m³"), ("W_pl", "m³"))
+    }
     A_v = _positive(f"{path}.A_v", spec["A_v"], "m²") if "A_v" in spec else values["A"]
-    extents = {key: _positive(f"{path}.{key}", spec[key], "m", maximum=_MAX_DIMENSION)
-               for key in ("depth", "width", "t_max") if key in spec}
+    extents = {
+        key: _positive(f"{path}.{key}", spec[key], "m", maximum=_MAX_DIMENSION)
+        for key in ("depth", "width", "t_max")
+        if key in spec
+    }
     doubly_symmetric = _flag(f"{path}.doubly_symmetric", spec.get("doubly_symmetric", False))
     # Unknown means lateral-torsional buckling may matter: the cautious reading.
     open_section = _flag(f"{path}.open_section", spec.get("open_section", True))
     source = "properties given in the case, taken as about the chosen axis"
     with _within(path):
-        return Section(name="custom", shape="custom", manufacture="custom", axis=axis, A=values["A"],
-                       I=values["I"], W_el=values["W_el"], W_pl=values["W_pl"],
-                       i=math.sqrt(values["I"] / values["A"]), A_v=A_v, depth=extents.get("depth"),
-                       width=extents.get("width"), t_max=extents.get("t_max"),
-                       doubly_symmetric=doubly_symmetric, open_section=open_section, h_over_b=None,
-                       interaction_a=None, dimensions=extents, source=source)
+        return Section(
+            name="custom",
+            shape="custom",
+            manufacture="custom",
+            axis=axis,
+            A=values["A"],
+            I=values["I"],
+            W_el=values["W_el"],
+            W_pl=values["W_pl"],
+            i=math.sqrt(values["I"] / values["A"]),
+            A_v=A_v,
+            depth=extents.get("depth"),
+            width=extents.get("width"),
+            t_max=extents.get("t_max"),
+            doubly_symmetric=doubly_symmetric,
+            open_section=open_section,
+            h_over_b=None,
+            interaction_a=None,
+            dimensions=extents,
+            source=source,
+        )
 
 
 def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section") -> Section:
@@ -904,11 +1003,14 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
     engine.errors.CaseError: section.tf: 0.3 m must be less than h/2 = 0.1 m
     """
     if not isinstance(axis, str) or axis not in AXES:
-        raise CaseError(f"axis: {_show(axis)} is not an axis{_suggestion(axis, AXES)}; "
-                        f"allowed: {_quoted(AXES)}")
+        raise CaseError(
+            f"axis: {_show(axis)} is not an axis{_suggestion(axis, AXES)}; allowed: {_quoted(AXES)}"
+        )
     if not isinstance(spec, Mapping):
-        raise CaseError(f"{path}: {_show(spec)} is not an object; expected {{'name': ...}} or "
-                        f"{{'shape': ..., <dimensions>}}")
+        raise CaseError(
+            f"{path}: {_show(spec)} is not an object; expected {{'name': ...}} or "
+            f"{{'shape': ..., <dimensions>}}"
+        )
     if "name" in spec:
         return _from_catalogue(path, spec, axis)
     if "shape" not in spec:
@@ -919,8 +1021,10 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
     for key in spec:
         if key not in allowed:
             shown = key if isinstance(key, str) else _show(key)
-            raise CaseError(f"{path}.{shown}: unknown key{_suggestion(key, allowed)}; shape {shape!r} takes "
-                            f"{_quoted(allowed)}")
+            raise CaseError(
+                f"{path}.{shown}: unknown key{_suggestion(key, allowed)}; shape {shape!r} takes "
+                f"{_quoted(allowed)}"
+            )
     for key in required:
         if key not in spec:
             raise CaseError(f"{path}.{key}: required key is missing for shape {shape!r}")
@@ -928,25 +1032,38 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
         return _custom(path, spec, axis)
 
     if shape == "rhs":
-        manufacture = _choice(f"{path}.manufacture", spec["manufacture"], _HOLLOW_MANUFACTURES,
-                              "a manufacture for a hollow section")
+        manufacture = _choice(
+            f"{path}.manufacture",
+            spec["manufacture"],
+            _HOLLOW_MANUFACTURES,
+            "a manufacture for a hollow section",
+        )
     elif shape == "chs":
-        manufacture = _choice(f"{path}.manufacture", spec.get("manufacture", "cold-formed"),
-                              _HOLLOW_MANUFACTURES, "a manufacture for a hollow section")
+        manufacture = _choice(
+            f"{path}.manufacture",
+            spec.get("manufacture", "cold-formed"),
+            _HOLLOW_MANUFACTURES,
+            "a manufacture for a hollow section",
+        )
     else:
         manufacture = {"rolled_i": "rolled", "welded_i": "welded"}.get(shape, "solid")
-    dims = {key: _positive(f"{path}.{key}", spec[key], "m", maximum=_MAX_DIMENSION)
-            for key in required if key != "manufacture"}
+    dims = {
+        key: _positive(f"{path}.{key}", spec[key], "m", maximum=_MAX_DIMENSION)
+        for key in required
+        if key != "manufacture"
+    }
     if "a" in spec:
         _positive(f"{path}.a", spec["a"], "m", maximum=_MAX_DIMENSION)
     source = "dimensions given in the case; properties computed exactly from them"
     if shape == "rolled_i":
         source += ", root radii included"
     elif shape == "rhs":
-        source += (", corner radii r_o = 1.5t, r_i = t per EN 10210-2 (references.md §5)"
-                   if manufacture == "hot-finished" else
-                   ", corner radii per EN 10219-2: r_o = 2t (t <= 6 mm), 2.5t (6 < t <= 10 mm), "
-                   "3t (t > 10 mm), r_i = r_o - t (from memory)")
+        source += (
+            ", corner radii r_o = 1.5t, r_i = t per EN 10210-2 (references.md §5)"
+            if manufacture == "hot-finished"
+            else ", corner radii per EN 10219-2: r_o = 2t (t <= 6 mm), 2.5t (6 < t <= 10 mm), "
+            "3t (t > 10 mm), r_i = r_o - t (from memory)"
+        )
     elif shape == "welded_i":
         source += ", fillet welds left out"
     return _build(path, shape, manufacture, dims, axis, _describe(shape, manufacture, dims), source)

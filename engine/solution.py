@@ -10,7 +10,8 @@ polynomial of degree one and the bow curvature a constant plus one sinusoid, so
 has the exact solution :math:`w = c_0 + c_1\xi + c_2 B_2(\xi) + c_3 B_3(\xi) + w_p(\xi)`. The pair
 :math:`B_2, B_3` is chosen per segment so that it is accurate and cannot overflow:
 
-- :math:`|P| h^2/EI \le 4`: the series functions :math:`\varphi_2, \varphi_3` (:mod:`engine.functions`), with the
+- :math:`|P| h^2/EI \le 4`: the series functions :math:`\varphi_2, \varphi_3` (:mod:`engine.functions`),
+  with the
   particular solution :math:`(q_0\varphi_4 + q_1\varphi_5)/EI`, entire in :math:`P` and so continuous through
   :math:`P = 0`;
 - compression beyond that: :math:`\cos k\xi, \sin k\xi`, with :math:`w_p = q_0\xi^2/2P + q_1\xi^3/6P`;
@@ -19,7 +20,8 @@ has the exact solution :math:`w = c_0 + c_1\xi + c_2 B_2(\xi) + c_3 B_3(\xi) + w
 
 The bow's sinusoid :math:`F\sin(\beta x + \psi)` has the particular solution
 :math:`sF\sin(\beta x+\psi)/(\beta^2(\beta^2 - s))`, :math:`s = P/EI`; within 2 % of resonance
-(:math:`s \approx \beta^2`, which is not a critical load unless the supports make it one) the zero-initial-value
+(:math:`s \approx \beta^2`, which is not a critical load unless the supports make it one) the
+zero-initial-value
 particular solution is used instead, by its Taylor series, which passes smoothly through resonance.
 
 The coefficients of all segments follow from one linear system: the end conditions (:mod:`engine.supports`)
@@ -73,8 +75,10 @@ class Points:
         self.h2 = self.h * self.h
         self.h2_range = (float(self.h2.min()), float(self.h2.max())) if self.size else (0.0, 0.0)
         self.bow = model.bow.derivatives(self.x)
-        self.waves = tuple((F, beta, psi, np.sin(beta * self.x + psi), np.cos(beta * self.x + psi))
-                           for F, beta, psi in model.bow.terms)
+        self.waves = tuple(
+            (F, beta, psi, np.sin(beta * self.x + psi), np.cos(beta * self.x + psi))
+            for F, beta, psi in model.bow.terms
+        )
         self._powers = None
         self._same = None
         self._table = None
@@ -86,8 +90,8 @@ class Points:
             self._same = self.seg[1:] == self.seg[:-1]
         return self._same
 
-    def table(self, model) -> "_StationTable":
-        """The state rows here as polynomials in -P/EI (:class:`_StationTable`), built on first use and kept."""
+    def table(self, model) -> _StationTable:
+        """The state rows here as polynomials in -P/EI (:class:`_StationTable`), built when first used."""
         if self._table is None:
             self._table = _StationTable(model, self)
         return self._table
@@ -171,8 +175,12 @@ class Model:
         j = np.arange(nseg - 1)[:, None, None]
         self.interface_index = (2 + 4 * j + np.arange(4)[None, :, None], 4 * j + np.arange(8)[None, None, :])
         # Both ends of every segment, for the continuity and end conditions.
-        self.end_points = Points(self, np.repeat(np.arange(nseg), 2), np.stack([np.zeros(nseg), self.h], 1).ravel(),
-                                 ends=np.arange(2 * nseg))
+        self.end_points = Points(
+            self,
+            np.repeat(np.arange(nseg), 2),
+            np.stack([np.zeros(nseg), self.h], 1).ravel(),
+            ends=np.arange(2 * nseg),
+        )
 
     def position(self, seg: np.ndarray, xi: np.ndarray) -> np.ndarray:
         """x = start of the segment + ξ, exactly the node where ξ is the segment's length [m]."""
@@ -216,8 +224,11 @@ class Model:
             z = s * pts.h2
             zlo, zhi = (float(z.min()), float(z.max())) if z.size else (0.0, 0.0)
         if -SERIES_LIMIT <= zlo and zhi <= SERIES_LIMIT:
-            out = (_series_columns(EI, P, s, xi, h, q0, q1, pts.powers, pts.h2_range[1]) if z is None
-                   else _series_columns(EI, P, s, xi, h, q0, q1))
+            out = (
+                _series_columns(EI, P, s, xi, h, q0, q1, pts.powers, pts.h2_range[1])
+                if z is None
+                else _series_columns(EI, P, s, xi, h, q0, q1)
+            )
         elif zlo > SERIES_LIMIT:
             out = _trig_columns(EI, P, s, xi, h, q0, q1)
         elif zhi < -SERIES_LIMIT:
@@ -228,11 +239,14 @@ class Model:
             q0 = np.broadcast_to(q0, (n,))
             z = s * pts.h2 if z is None else z
             out = [np.zeros(n) for _ in range(11)]
-            for mask, fn in ((np.abs(z) <= SERIES_LIMIT, _series_columns), (z > SERIES_LIMIT, _trig_columns),
-                             (z < -SERIES_LIMIT, _exp_columns)):
+            for mask, fn in (
+                (np.abs(z) <= SERIES_LIMIT, _series_columns),
+                (z > SERIES_LIMIT, _trig_columns),
+                (z < -SERIES_LIMIT, _exp_columns),
+            ):
                 if mask.any():
                     values = fn(EI, P[mask], s[mask], xi[mask], h[mask], q0[mask], q1[mask])
-                    for target, v in zip(out, values):
+                    for target, v in zip(out, values, strict=True):
                         target[mask] = v
         cols, part = tuple(out[:7]), list(out[7:])
         for F, beta, psi, sn, cs in pts.waves:
@@ -248,7 +262,8 @@ class Model:
     def basis(self, P, pts, columns=None, index=None):
         """The state rows (w, w', M, T) of the four basis functions and of the particular solution.
 
-        ``columns`` may pass in what :meth:`columns` already returned for these points, and ``index`` pick some
+        ``columns`` may pass in what :meth:`columns` already returned for these points, and ``index``
+        pick some
         of them.
 
         Returns
@@ -281,28 +296,46 @@ class Model:
 
 def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
     f0, f1, f2, f3, f4, f5 = phi_series(s, xi, powers, xi2_max)
-    return (f2, f1, -EI * f0, f3, f2, -EI * f1, np.full(xi.size, -EI),
-            (q0 * f4 + q1 * f5) / EI, (q0 * f3 + q1 * f4) / EI, -(q0 * f2 + q1 * f3), -q0 * xi - 0.5 * q1 * xi * xi)
+    return (
+        f2,
+        f1,
+        -EI * f0,
+        f3,
+        f2,
+        -EI * f1,
+        np.full(xi.size, -EI),
+        (q0 * f4 + q1 * f5) / EI,
+        (q0 * f3 + q1 * f4) / EI,
+        -(q0 * f2 + q1 * f3),
+        -q0 * xi - 0.5 * q1 * xi * xi,
+    )
 
 
 def _polynomial_particular(EI, P, xi, q0, q1):
-    return ((q0 * xi * xi / 2 + q1 * xi**3 / 6) / P, (q0 * xi + q1 * xi * xi / 2) / P, -EI * (q0 + q1 * xi) / P,
-            -EI * q1 / P - q0 * xi - 0.5 * q1 * xi * xi)
+    return (
+        (q0 * xi * xi / 2 + q1 * xi**3 / 6) / P,
+        (q0 * xi + q1 * xi * xi / 2) / P,
+        -EI * (q0 + q1 * xi) / P,
+        -EI * q1 / P - q0 * xi - 0.5 * q1 * xi * xi,
+    )
 
 
 def _trig_columns(EI, P, s, xi, h, q0, q1):
     k = np.sqrt(s)
     c, sn = np.cos(k * xi), np.sin(k * xi)
     ek2 = EI * k * k
-    return (c, -k * sn, ek2 * c, sn, k * c, ek2 * sn, np.zeros(xi.size)) + _polynomial_particular(EI, P, xi, q0, q1)
+    return (c, -k * sn, ek2 * c, sn, k * c, ek2 * sn, np.zeros(xi.size)) + _polynomial_particular(
+        EI, P, xi, q0, q1
+    )
 
 
 def _exp_columns(EI, P, s, xi, h, q0, q1):
     kap = np.sqrt(-s)
     e1, e2 = np.exp(-kap * xi), np.exp(-kap * (h - xi))
     ek2 = -EI * kap * kap
-    return ((e1, -kap * e1, ek2 * e1, e2, kap * e2, ek2 * e2, np.zeros(xi.size))
-            + _polynomial_particular(EI, P, xi, q0, q1))
+    return (e1, -kap * e1, ek2 * e1, e2, kap * e2, ek2 * e2, np.zeros(xi.size)) + _polynomial_particular(
+        EI, P, xi, q0, q1
+    )
 
 
 def _bow_particular(s, F, beta, psi, pts, sn, cs):
@@ -337,7 +370,7 @@ def _bow_particular(s, F, beta, psi, pts, sn, cs):
 
 
 def _resonant_series(sigma, theta, t):
-    r"""Zero-initial-value solution R(t) of R'''' + σ R'' = sin(θ + t) and R', R'', R''' in t, by Taylor series.
+    r"""Zero-initial-value solution R(t) of R'''' + σ R'' = sin(θ + t), and R', R'', R''', by Taylor series.
 
     Used only for t <= 2π·1.2 or so and σ near 1, where the series converges fast and loses no more than two
     digits to alternating terms.
@@ -366,8 +399,6 @@ def _resonant_series(sigma, theta, t):
         m = coef.shape[1]
         coef = coef[:, 1:] * np.arange(1, m)[None, :]
     return out
-
-
 
 
 def _table_coefficients(model, pts, J):
@@ -409,13 +440,18 @@ def _table_coefficients(model, pts, J):
 class _StationTable:
     r"""The state at fixed stations as polynomials in :math:`\sigma = -P/EI`, for one axial force at a time.
 
-    In the series regime (:math:`|s| h^2 \le 4` in every segment) each entry of :math:`B` and of the particular
-    solution's state (:meth:`Model.basis`) is :math:`\sum_j \sigma^j c_j`, with coefficients that depend on the
-    point only: :math:`\varphi_n = \sum_j \sigma^j \xi^{n+2j}/(n+2j)!`, and the bow's uniform curvature and slope
-    enter through :math:`P = -EI\sigma`. For one axial force the rows at every station are then one product with
+    In the series regime (:math:`|s| h^2 \le 4` in every segment) each entry of :math:`B` and of the
+    particular
+    solution's state (:meth:`Model.basis`) is :math:`\sum_j \sigma^j c_j`, with coefficients that depend
+    on the
+    point only: :math:`\varphi_n = \sum_j \sigma^j \xi^{n+2j}/(n+2j)!`, and the bow's uniform curvature
+    and slope
+    enter through :math:`P = -EI\sigma`. For one axial force the rows at every station are then one
+    product with
     the powers of :math:`\sigma` (the series of :func:`engine.functions.phi_series`, summed directly). The
     state there, and the targets whose zeros are peaks, are then one small matrix (built from the segment's
-    coefficients) times the stations' columns ``Y`` per segment: 1, ξ, φ0 … φ3, the particular state, the bow's
+    coefficients) times the stations' columns ``Y`` per segment: 1, ξ, φ0 … φ3, the particular state, the
+    bow's
     derivatives, q, q' and the bow sinusoid. The bow's sinusoid adds its particular solution
     :math:`A(s)\,(\ldots)`, :math:`A = sF/(\beta^2(\beta^2 - s))`; within the resonance band, or outside the
     series regime, :meth:`evaluate` returns None and the caller evaluates the basis functions instead.
@@ -427,8 +463,18 @@ class _StationTable:
         with np.errstate(over="ignore", under="ignore"):
             full = _table_coefficients(model, pts, J)
         n = pts.size
-        poly = np.stack([full[:, 10] / -EI, full[:, 6], full[:, 2], full[:, 3], full[:, 16], full[:, 17], full[:, 18],
-                         full[:, 19]])  # φ0, φ1, φ2, φ3, p_w, p_θ, p_M, p_T: (8, n, J + 1)
+        poly = np.stack(
+            [
+                full[:, 10] / -EI,
+                full[:, 6],
+                full[:, 2],
+                full[:, 3],
+                full[:, 16],
+                full[:, 17],
+                full[:, 18],
+                full[:, 19],
+            ]
+        )  # φ0, φ1, φ2, φ3, p_w, p_θ, p_M, p_T: (8, n, J + 1)
         self.poly = np.ascontiguousarray(poly).reshape(-1, J + 1)
         self.ends = np.ascontiguousarray(full[pts.ends]).reshape(-1, J + 1)
         self.exponents = np.arange(J + 1, dtype=float)
@@ -465,7 +511,8 @@ class _StationTable:
             self.base_a[4, 0, 15], self.base_a[4, 1, 16] = 1.0, beta
             self.base_a[4, 2, 15], self.base_a[4, 3, 16] = EI * beta * beta, EI * beta**3
             self.base_ap[4, 3, 16] = -beta
-        # The constant columns of the derived rows (see state): P w0' in V, w0' in the total slope, -q + P w0''
+        # The constant columns of the derived rows (see state): P w0' in V, w0' in the total slope, -q +
+        # P w0''
         # in dV, w0'' in the total curvature, -q' + P w0''' - (P²/EI) w0' in d²V.
         self.extra0 = np.zeros((11, 18))
         self.extra_p = np.zeros((11, 18))
@@ -512,7 +559,8 @@ class _StationTable:
     def state(self, P: float, coefficients: np.ndarray, columns) -> np.ndarray:
         """Rows w, θ, M, T, V, w0, θ + w0', dV/dx, -M/EI, -M/EI + w0'', d²V/dx² at the stations: (11, n).
 
-        ``coefficients`` (nseg, 4) are the solved basis coefficients, ``columns`` what :meth:`evaluate` returned.
+        ``coefficients`` (nseg, 4) are the solved basis coefficients, ``columns`` what :meth:`evaluate`
+        returned.
         """
         Y, A = columns
         EI = self.EI
@@ -524,10 +572,21 @@ class _StationTable:
         G4 = coefficients @ base[:4].reshape(4, -1) + base[4].reshape(-1)
         # The derived rows: V = T + P(θ + w0'), θ + w0', dV = -q + P w0'' - (P/EI) M, -M/EI, -M/EI + w0'' and
         # d²V = -q' + P w0''' - (P/EI) V, from w, θ, M, T and the constant columns (self.extra*).
-        mix = np.array([[1.0, 0.0, 0.0, 0.0], [0.0, 1.0, 0.0, 0.0], [0.0, 0.0, 1.0, 0.0], [0.0, 0.0, 0.0, 1.0],
-                        [0.0, P, 0.0, 1.0], [0.0, 0.0, 0.0, 0.0], [0.0, 1.0, 0.0, 0.0], [0.0, 0.0, -r, 0.0],
-                        [0.0, 0.0, -1.0 / EI, 0.0],
-                        [0.0, 0.0, -1.0 / EI, 0.0], [0.0, -r * P, 0.0, -r]])
+        mix = np.array(
+            [
+                [1.0, 0.0, 0.0, 0.0],
+                [0.0, 1.0, 0.0, 0.0],
+                [0.0, 0.0, 1.0, 0.0],
+                [0.0, 0.0, 0.0, 1.0],
+                [0.0, P, 0.0, 1.0],
+                [0.0, 0.0, 0.0, 0.0],
+                [0.0, 1.0, 0.0, 0.0],
+                [0.0, 0.0, -r, 0.0],
+                [0.0, 0.0, -1.0 / EI, 0.0],
+                [0.0, 0.0, -1.0 / EI, 0.0],
+                [0.0, -r * P, 0.0, -r],
+            ]
+        )
         G = mix @ G4.reshape(-1, 4, 18) + (self.extra0 + P * self.extra_p + (r * P) * self.extra_rp)
         out = np.empty((11, self.size))
         for j, (a, b) in enumerate(self.ranges):
@@ -592,9 +651,9 @@ class Batch:
             # Every interface block at once: [-B(end of j) | B(start of j+1)] in rows 2 + 4j.
             rows, cols_ = model.interface_index
             A[:, rows, cols_] = np.concatenate([-B[:, :-1, 1], B[:, 1:, 0]], axis=3)
-            rhs[:, 2:m - 2] = (jumps[None, 1:nseg] - p[:, 1:, 0] + p[:, :-1, 1]).reshape(nP, -1)
-        A[:, m - 2:m, m - 4:m] = rr @ B[:, nseg - 1, 1]
-        rhs[:, m - 2:m] = -(p[:, nseg - 1, 1] + jumps[nseg][None, :]) @ rr.T
+            rhs[:, 2 : m - 2] = (jumps[None, 1:nseg] - p[:, 1:, 0] + p[:, :-1, 1]).reshape(nP, -1)
+        A[:, m - 2 : m, m - 4 : m] = rr @ B[:, nseg - 1, 1]
+        rhs[:, m - 2 : m] = -(p[:, nseg - 1, 1] + jumps[nseg][None, :]) @ rr.T
         # Equilibrate rows, then columns, so that stiff springs and strong tension keep the pivots honest.
         row = np.abs(A).max(axis=2, keepdims=True)
         row[row == 0] = 1.0
@@ -631,9 +690,9 @@ class Batch:
         if nseg > 1:
             rows, cols_ = model.interface_index
             A[rows, cols_] = np.concatenate([-B[:-1, 1], B[1:, 0]], axis=2)
-            rhs[2:m - 2] = (jumps[1:nseg] - p[1:, 0] + p[:-1, 1]).ravel()
-        A[m - 2:m, m - 4:m] = rr @ B[nseg - 1, 1]
-        rhs[m - 2:m] = -(rr @ (p[nseg - 1, 1] + jumps[nseg]))
+            rhs[2 : m - 2] = (jumps[1:nseg] - p[1:, 0] + p[:-1, 1]).ravel()
+        A[m - 2 : m, m - 4 : m] = rr @ B[nseg - 1, 1]
+        rhs[m - 2 : m] = -(rr @ (p[nseg - 1, 1] + jumps[nseg]))
         # Equilibrate rows, then columns, as for many forces.
         row = np.abs(A).max(axis=1)
         row[row == 0] = 1.0
@@ -668,8 +727,19 @@ class Batch:
             _, table, columns = self._table
             out = table.state(float(P), self.coefficients[iP], columns)
             w0, d1, d2, d3 = pts.bow
-            st = {"w": out[0], "rotation": out[1], "M": out[2], "T": out[3], "V": out[4], "w0": w0, "w0_1": d1,
-                  "w0_2": d2, "w0_3": d3, "P": P, "_table": (out, columns[0])}
+            st = {
+                "w": out[0],
+                "rotation": out[1],
+                "M": out[2],
+                "T": out[3],
+                "V": out[4],
+                "w0": w0,
+                "w0_1": d1,
+                "w0_2": d2,
+                "w0_3": d3,
+                "P": P,
+                "_table": (out, columns[0]),
+            }
             self._targets = (st, out[_TARGET_ROWS], out[_TARGET_SLOPE_ROWS])
             return st
         if self._reuse is not None and self._reuse[0] is pts:
@@ -682,8 +752,18 @@ class Batch:
         rot = c1 + c2 * t3 + c3 * t4 + pt
         T = c3 * T4 - P * c1 + pT
         w0, d1, d2, d3 = pts.bow
-        return {"w": c0 + c1 * pts.xi + c2 * w3 + c3 * w4 + pw, "rotation": rot, "M": c2 * m3 + c3 * m4 + pm,
-                "T": T, "V": T + P * (rot + d1), "w0": w0, "w0_1": d1, "w0_2": d2, "w0_3": d3, "P": P}
+        return {
+            "w": c0 + c1 * pts.xi + c2 * w3 + c3 * w4 + pw,
+            "rotation": rot,
+            "M": c2 * m3 + c3 * m4 + pm,
+            "T": T,
+            "V": T + P * (rot + d1),
+            "w0": w0,
+            "w0_1": d1,
+            "w0_2": d2,
+            "w0_3": d3,
+            "P": P,
+        }
 
     def targets(self, states, pts):
         """Values and slopes of the four functions whose interior zeros are peaks.
@@ -895,10 +975,12 @@ _TARGET_OFFSET = np.array([1, 1, 3, 4])  # the targets are w', (w + w0)', -EI w'
 class _SeriesTables:
     r"""What the derivative recursion of the governing equation needs that does not depend on P.
 
-    Differentiating :math:`w^{(4)} + s\,w'' = g(x)`, :math:`g = (q + P u + P F \sin(\beta x + \psi))/EI`, gives
+    Differentiating :math:`w^{(4)} + s\,w'' = g(x)`, :math:`g = (q + P u + P F \sin(\beta x + \psi))/EI`,
+    gives
     :math:`w^{(m+4)} = -s\,w^{(m+2)} + g^{(m)}`. Unrolled, every derivative is linear in
     :math:`v = (w, w', w'', w''', (q + P u)/EI, q'/EI, F\sin\theta, F\cos\theta)` at the station:
-    :math:`w^{(j)} = \sum_b (-s)^b g^{(j-4-2b)} + (-s)^{a} w^{(j-2a)}` with :math:`j - 2a \in \{2, 3\}`, that is
+    :math:`w^{(j)} = \sum_b (-s)^b g^{(j-4-2b)} + (-s)^{a} w^{(j-2a)}` with :math:`j - 2a \in \{2, 3\}`,
+    that is
     :math:`K(s)\,G(s)\,v`, K holding powers of :math:`-s` and G the derivatives of g (and two rows that pass
     :math:`w''` and :math:`w'''` through).
     """
@@ -989,7 +1071,8 @@ def _refine_by_series(batch, pts, st, fid, k, lo, hi, x0, also):
     At a station the state gives :math:`w, w', w'', w'''`, and the governing equation gives every higher
     derivative (:class:`_SeriesTables`), so the solution between stations is its Taylor series about the
     station: exact to rounding when the distance times the largest wavenumber (:math:`\sqrt{|P|/EI}` or the
-    bow's :math:`\beta`) is at most 0.5, with 18 terms. Each zero is found by Halley's iteration on that series
+    bow's :math:`\beta`) is at most 0.5, with 18 terms. Each zero is found by Halley's iteration on that
+    series
     from the secant start, inside its bracket. This gives what an exact evaluation at the zero gives (a test
     checks it) without evaluating the basis functions again. Returns None where it does not apply (coarse
     stations for the wavenumber, strong tension, more than one bow sinusoid, a zero that does not settle
@@ -1040,7 +1123,7 @@ def _refine_by_series(batch, pts, st, fid, k, lo, hi, x0, also):
         else:
             v[:, 6:] = 0.0
         bow4 = np.stack([st[name][kk] for name in ("w0", "w0_1", "w0_2", "w0_3")], axis=1)
-    D, N = _SERIES_DERIVATIVES, _SERIES_TERMS
+    D = _SERIES_DERIVATIVES
     both = np.empty((n, 2 * D))
     d, w0 = both[:, :D], both[:, D:]  # w, w', w'', ... and w0, w0', ... at each station
     d[:, :4] = v[:, :4]
@@ -1081,7 +1164,7 @@ def _refine_by_series(batch, pts, st, fid, k, lo, hi, x0, also):
     to_rows[2, 2] = to_rows[3, 3] = to_rows[4, 3] = -EI
     to_rows[3, 1] = to_rows[3, 5] = -P
     rows = to_rows @ series.T
-    out = dict(zip(_STATE_FIELDS, rows))
+    out = dict(zip(_STATE_FIELDS, rows, strict=True))
     out["_rows"] = rows
     return np.zeros(n_roots, dtype=int), pts.seg[k], lo + t, out
 

@@ -22,11 +22,30 @@ from collections.abc import Mapping, Sequence
 from hypothesis import strategies as st
 
 __all__ = [
-    "LENGTH_RANGE", "EI_RANGE", "LOAD_TYPES", "BOW_SHAPES", "RESTRAINTS", "NAMED_SUPPORTS",
-    "STABLE_PATTERNS", "STABLE_NAMED_PAIRS", "UNSTABLE_NAMED_PAIRS", "MIN_GAP",
-    "is_stable_pattern", "log_uniform", "lengths", "flexural_rigidities", "end_support", "supports",
-    "named_supports", "positions", "loads", "imperfections", "cases", "axial_fractions",
-    "with_axial_force", "support_restraints",
+    "LENGTH_RANGE",
+    "EI_RANGE",
+    "LOAD_TYPES",
+    "BOW_SHAPES",
+    "RESTRAINTS",
+    "NAMED_SUPPORTS",
+    "STABLE_PATTERNS",
+    "STABLE_NAMED_PAIRS",
+    "UNSTABLE_NAMED_PAIRS",
+    "MIN_GAP",
+    "is_stable_pattern",
+    "log_uniform",
+    "lengths",
+    "flexural_rigidities",
+    "end_support",
+    "supports",
+    "named_supports",
+    "positions",
+    "loads",
+    "imperfections",
+    "cases",
+    "axial_fractions",
+    "with_axial_force",
+    "support_restraints",
 ]
 
 #: Member lengths drawn by :func:`lengths` [m].
@@ -174,8 +193,17 @@ def _signed_magnitude() -> st.SearchStrategy[float]:
 
 
 @st.composite
-def loads(draw, length: float, *, types: Sequence[str] = LOAD_TYPES, min_size: int = 1, max_size: int = 4,
-          partial: bool | None = None, allow_ends: bool = False, scale: float = 1e4):
+def loads(
+    draw,
+    length: float,
+    *,
+    types: Sequence[str] = LOAD_TYPES,
+    min_size: int = 1,
+    max_size: int = 4,
+    partial: bool | None = None,
+    allow_ends: bool = False,
+    scale: float = 1e4,
+):
     """A list of schema-1 load mappings on a member of ``length`` [m].
 
     Distributed loads run over the whole member or over a part of it (``partial`` forces the choice).
@@ -232,9 +260,18 @@ def imperfections(draw, length: float, *, shapes: Sequence[str] = BOW_SHAPES, ma
 
 
 @st.composite
-def cases(draw, *, load_types: Sequence[str] = LOAD_TYPES, bow_shapes: Sequence[str] = BOW_SHAPES,
-          springs: bool = True, patterns=None, min_loads: int = 1, max_loads: int = 4,
-          allow_end_loads: bool = False, partial: bool | None = None):
+def cases(
+    draw,
+    *,
+    load_types: Sequence[str] = LOAD_TYPES,
+    bow_shapes: Sequence[str] = BOW_SHAPES,
+    springs: bool = True,
+    patterns=None,
+    min_loads: int = 1,
+    max_loads: int = 4,
+    allow_end_loads: bool = False,
+    partial: bool | None = None,
+):
     """A whole schema-1 case mapping with stable supports, loads and a bow; ``axial_force`` is 0.
 
     Set the axial force from the case's own first critical load with :func:`with_axial_force`.
@@ -242,8 +279,16 @@ def cases(draw, *, load_types: Sequence[str] = LOAD_TYPES, bow_shapes: Sequence[
     length = draw(lengths())
     EI = draw(flexural_rigidities())
     left, right = draw(supports(length, EI, springs=springs, patterns=patterns))
-    case_loads = draw(loads(length, types=load_types, min_size=min_loads, max_size=max_loads,
-                            allow_ends=allow_end_loads, partial=partial))
+    case_loads = draw(
+        loads(
+            length,
+            types=load_types,
+            min_size=min_loads,
+            max_size=max_loads,
+            allow_ends=allow_end_loads,
+            partial=partial,
+        )
+    )
     return {
         "schema": 1,
         "title": "Generated case (invented)",

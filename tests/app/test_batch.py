@@ -22,59 +22,203 @@ from tests.app.test_cli import run_cli
 KIP = 4448.2216152605
 FOOT = 0.3048
 
-HEADER = ["id", "length_m", "left", "right", "section", "material", "EI_kNm2", "axis", "axial_kN",
-          "udl_kN_per_m", "point_loads", "bow", "check_method", "deflection_limit", "comment"]
+HEADER = [
+    "id",
+    "length_m",
+    "left",
+    "right",
+    "section",
+    "material",
+    "EI_kNm2",
+    "axis",
+    "axial_kN",
+    "udl_kN_per_m",
+    "point_loads",
+    "bow",
+    "check_method",
+    "deflection_limit",
+    "comment",
+]
 
 
-def row(identifier, length="6.0", left="pinned", right="pinned", section="", material="", EI="", axis="",
-        axial="", udl="", points="", bow="", method="", limit="", comment=""):
+def row(
+    identifier,
+    length="6.0",
+    left="pinned",
+    right="pinned",
+    section="",
+    material="",
+    EI="",
+    axis="",
+    axial="",
+    udl="",
+    points="",
+    bow="",
+    method="",
+    limit="",
+    comment="",
+):
     """One row of the members table, cells as text in the order of HEADER."""
-    return [identifier, length, left, right, section, material, EI, axis, axial, udl, points, bow, method,
-            limit, comment]
+    return [
+        identifier,
+        length,
+        left,
+        right,
+        section,
+        material,
+        EI,
+        axis,
+        axial,
+        udl,
+        points,
+        bow,
+        method,
+        limit,
+        comment,
+    ]
 
 
 # Good rows and the case each one means, written out here in SI (m, N, N/m, N·m²) independently of app.batch.
 GOOD = {
-    "G1": (row("G1", section="HEB 200", material="S355", axial="350", udl="2.5", points="4@2.2",
-               bow="en1993-table-5.1", comment="invented wind post"),
-           {"length": 6.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 350e3,
+    "G1": (
+        row(
+            "G1",
+            section="HEB 200",
+            material="S355",
+            axial="350",
+            udl="2.5",
+            points="4@2.2",
+            bow="en1993-table-5.1",
+            comment="invented wind post",
+        ),
+        {
+            "length": 6.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 350e3,
             "loads": [{"type": "uniform", "q": 2.5e3}, {"type": "point", "P": 4e3, "x": 2.2}],
-            "imperfection": {"preset": "en1993-table-5.1"}, "section": {"name": "HEB 200"},
-            "material": {"name": "S355"}}),
-    "G2": (row("G2", length="2.5", left="fixed", right="free", section="SHS 100x100x5", material="S355",
-               axial="60", points="3@2.5", bow="L/300", method="plastic", limit="150"),
-           {"length": 2.5, "supports": {"left": "fixed", "right": "free"}, "axial_force": 60e3,
+            "imperfection": {"preset": "en1993-table-5.1"},
+            "section": {"name": "HEB 200"},
+            "material": {"name": "S355"},
+        },
+    ),
+    "G2": (
+        row(
+            "G2",
+            length="2.5",
+            left="fixed",
+            right="free",
+            section="SHS 100x100x5",
+            material="S355",
+            axial="60",
+            points="3@2.5",
+            bow="L/300",
+            method="plastic",
+            limit="150",
+        ),
+        {
+            "length": 2.5,
+            "supports": {"left": "fixed", "right": "free"},
+            "axial_force": 60e3,
             "loads": [{"type": "point", "P": 3e3, "x": 2.5}],
             "imperfection": {"preset": "span", "ratio": 300},
-            "section": {"name": "SHS 100x100x5"}, "material": {"name": "S355"},
-            "check": {"method": "plastic", "deflection_limit": 150}}),
-    "G3": (row("G3", length="4.0", right="fixed", EI="4200", axial="100", udl="1.0", bow="12mm"),
-           {"length": 4.0, "supports": {"left": "pinned", "right": "fixed"}, "axial_force": 100e3,
+            "section": {"name": "SHS 100x100x5"},
+            "material": {"name": "S355"},
+            "check": {"method": "plastic", "deflection_limit": 150},
+        },
+    ),
+    "G3": (
+        row("G3", length="4.0", right="fixed", EI="4200", axial="100", udl="1.0", bow="12mm"),
+        {
+            "length": 4.0,
+            "supports": {"left": "pinned", "right": "fixed"},
+            "axial_force": 100e3,
             "EI": 4.2e6,
-            "loads": [{"type": "uniform", "q": 1e3}], "imperfection": {"shape": "sine", "amplitude": 0.012}}),
-    "G4": (row("G4", length="5.0", section="IPE 300", material="S275", axis="minor", axial="-200", udl="3",
-               points="2@1;1.5@4.0"),
-           {"length": 5.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": -200e3,
-            "loads": [{"type": "uniform", "q": 3e3}, {"type": "point", "P": 2e3, "x": 1.0},
-                      {"type": "point", "P": 1.5e3, "x": 4.0}],
-            "section": {"name": "IPE 300"}, "material": {"name": "S275"}, "axis": "minor"}),
-    "G5": (row("G5", length="3.0", section="TIMBER 45x195", material="C24", axial="8", udl="1.2",
-               bow="aisc-l/1000", limit="300"),
-           {"length": 3.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 8e3,
-            "loads": [{"type": "uniform", "q": 1.2e3}], "imperfection": {"preset": "aisc-l/1000"},
-            "section": {"name": "TIMBER 45x195"}, "material": {"name": "C24"},
-            "check": {"deflection_limit": 300}}),
-    "G6": (row("G6", length="4.5", section="CHS 114.3x5", material="S355", axial="120", bow="en1993-eq-5.9"),
-           {"length": 4.5, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 120e3,
+            "loads": [{"type": "uniform", "q": 1e3}],
+            "imperfection": {"shape": "sine", "amplitude": 0.012},
+        },
+    ),
+    "G4": (
+        row(
+            "G4",
+            length="5.0",
+            section="IPE 300",
+            material="S275",
+            axis="minor",
+            axial="-200",
+            udl="3",
+            points="2@1;1.5@4.0",
+        ),
+        {
+            "length": 5.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": -200e3,
+            "loads": [
+                {"type": "uniform", "q": 3e3},
+                {"type": "point", "P": 2e3, "x": 1.0},
+                {"type": "point", "P": 1.5e3, "x": 4.0},
+            ],
+            "section": {"name": "IPE 300"},
+            "material": {"name": "S275"},
+            "axis": "minor",
+        },
+    ),
+    "G5": (
+        row(
+            "G5",
+            length="3.0",
+            section="TIMBER 45x195",
+            material="C24",
+            axial="8",
+            udl="1.2",
+            bow="aisc-l/1000",
+            limit="300",
+        ),
+        {
+            "length": 3.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 8e3,
+            "loads": [{"type": "uniform", "q": 1.2e3}],
+            "imperfection": {"preset": "aisc-l/1000"},
+            "section": {"name": "TIMBER 45x195"},
+            "material": {"name": "C24"},
+            "check": {"deflection_limit": 300},
+        },
+    ),
+    "G6": (
+        row("G6", length="4.5", section="CHS 114.3x5", material="S355", axial="120", bow="en1993-eq-5.9"),
+        {
+            "length": 4.5,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 120e3,
             "loads": [],
-            "imperfection": {"preset": "en1993-eq-5.9"}, "section": {"name": "CHS 114.3x5"},
-            "material": {"name": "S355"}}),
-    "G7": (row("G7", length="3.5", left="fixed", section="IPE 200", material="S355", axial="150", udl="0.8",
-               bow="en1993-table-5.1:c", method="plastic"),
-           {"length": 3.5, "supports": {"left": "fixed", "right": "pinned"}, "axial_force": 150e3,
+            "imperfection": {"preset": "en1993-eq-5.9"},
+            "section": {"name": "CHS 114.3x5"},
+            "material": {"name": "S355"},
+        },
+    ),
+    "G7": (
+        row(
+            "G7",
+            length="3.5",
+            left="fixed",
+            section="IPE 200",
+            material="S355",
+            axial="150",
+            udl="0.8",
+            bow="en1993-table-5.1:c",
+            method="plastic",
+        ),
+        {
+            "length": 3.5,
+            "supports": {"left": "fixed", "right": "pinned"},
+            "axial_force": 150e3,
             "loads": [{"type": "uniform", "q": 0.8e3}],
             "imperfection": {"preset": "en1993-table-5.1", "curve": "c"},
-            "section": {"name": "IPE 200"}, "material": {"name": "S355"}, "check": {"method": "plastic"}}),
+            "section": {"name": "IPE 200"},
+            "material": {"name": "S355"},
+            "check": {"method": "plastic"},
+        },
+    ),
 }
 
 # Bad rows and the column each must be reported against.
@@ -93,8 +237,26 @@ BAD = {
 }
 
 # Good and bad rows interleaved: the results must come back in this order.
-ORDER = ["G1", "B1", "B2", "G2", "B3", "B4", "G3", "B5", "B6", "G4", "B7", "B8", "G5", "B9", "B10", "G6",
-         "B11", "G7"]
+ORDER = [
+    "G1",
+    "B1",
+    "B2",
+    "G2",
+    "B3",
+    "B4",
+    "G3",
+    "B5",
+    "B6",
+    "G4",
+    "B7",
+    "B8",
+    "G5",
+    "B9",
+    "B10",
+    "G6",
+    "B11",
+    "G7",
+]
 
 
 def table_rows(copies=1):
@@ -155,12 +317,15 @@ def assert_matches_engine(got, mapping):
     assert number(got["x_w_m"]) == exact(governing.deflection.x, rel=1e-12, abs=1e-12)
     moment_amplification = result.amplification.moment
     assert number(got["amplification_moment"]) == (
-        None if moment_amplification is None else exact(moment_amplification, rel=1e-12))
-    assert number(got["utilization"]) == (None if result.utilization is None else exact(result.utilization,
-                                                                                         rel=1e-12))
+        None if moment_amplification is None else exact(moment_amplification, rel=1e-12)
+    )
+    assert number(got["utilization"]) == (
+        None if result.utilization is None else exact(result.utilization, rel=1e-12)
+    )
     assert got["governing_check"] == ("" if result.check is None else result.check.kind)
     assert number(got["deflection_utilization"]) == (
-        None if result.service is None else exact(result.service.utilization, rel=1e-12))
+        None if result.service is None else exact(result.service.utilization, rel=1e-12)
+    )
     if case.section is not None and case.material is not None:
         capacity = engine.capacity(case)
         assert number(got["capacity_kN"]) == exact(capacity.axial_force / 1e3, rel=1e-12)
@@ -232,10 +397,10 @@ def test_parallel_run_gives_the_same_results_in_the_same_order(tmp_path):
     rows = table_rows(copies=4)
     assert len(rows) > batch.PARALLEL_MIN_ROWS
     table = write_table(tmp_path / "members.csv", [cells for _, cells in rows])
-    serial = run_cli("batch", str(table), "--out", "serial", "--workers", "1", "--no-capacity",
-                     cwd=tmp_path)
-    parallel = run_cli("batch", str(table), "--out", "parallel", "--workers", "2", "--no-capacity",
-                       cwd=tmp_path)
+    serial = run_cli("batch", str(table), "--out", "serial", "--workers", "1", "--no-capacity", cwd=tmp_path)
+    parallel = run_cli(
+        "batch", str(table), "--out", "parallel", "--workers", "2", "--no-capacity", cwd=tmp_path
+    )
     assert serial.returncode == parallel.returncode == 1, parallel.stderr
     assert "(2 processes)" in parallel.stdout and "(1 process)" in serial.stdout
     serial_bytes = (tmp_path / "serial" / "results.csv").read_bytes()
@@ -255,8 +420,9 @@ def test_pdf_calc_sheet_for_each_good_row(tmp_path):
     from pypdf import PdfReader
 
     table = write_table(tmp_path / "members.csv", [GOOD["G1"][0], BAD["B2"][0], GOOD["G3"][0]])
-    done = run_cli("batch", str(table), "--out", "out", "--pdf", "--prepared-by", "Invented Engineer",
-                   cwd=tmp_path)
+    done = run_cli(
+        "batch", str(table), "--out", "out", "--pdf", "--prepared-by", "Invented Engineer", cwd=tmp_path
+    )
     assert done.returncode == 1, done.stderr
     assert listing(tmp_path / "out") == ["G1.pdf", "G3.pdf", "results.csv"]
     for name in ("G1", "G3"):
@@ -280,14 +446,17 @@ def test_us_units_name_and_convert_the_result_columns(tmp_path):
     assert number(got["x_M_ft"]) == pytest.approx(result.governing.moment.x / FOOT, rel=1e-12)
 
 
-@pytest.mark.parametrize(("header", "expected"), [
-    (HEADER[:1] + ["lenght_m"] + HEADER[2:], "unknown column 'lenght_m' (did you mean 'length_m'?)"),
-    ([name for name in HEADER if name != "right"], "required column missing: right"),
-    ([";".join(HEADER)], "separated by ';'"),
-])
+@pytest.mark.parametrize(
+    ("header", "expected"),
+    [
+        (HEADER[:1] + ["lenght_m"] + HEADER[2:], "unknown column 'lenght_m' (did you mean 'length_m'?)"),
+        ([name for name in HEADER if name != "right"], "required column missing: right"),
+        ([";".join(HEADER)], "separated by ';'"),
+    ],
+)
 def test_unusable_header_exits_two_and_writes_nothing(tmp_path, header, expected):
     """An unknown, missing or ';'-joined header exits with 2, names the problem and writes no results."""
-    table = write_table(tmp_path / "members.csv", [GOOD["G3"][0][:len(header)]], header=header)
+    table = write_table(tmp_path / "members.csv", [GOOD["G3"][0][: len(header)]], header=header)
     done = run_cli("batch", str(table), "--out", "out", cwd=tmp_path)
     assert done.returncode == 2
     assert done.stderr.startswith(f"error: {table}: ")

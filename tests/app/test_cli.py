@@ -18,7 +18,8 @@ from app.cli import main
 
 REPO_ROOT = Path(__file__).resolve().parents[2]
 
-# The exact wording every summary must carry (project rule for the command line): the engine's general caution.
+# The exact wording every summary must carry (project rule for the command line): the engine's general
+# caution.
 CAUTION = (
     "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, "
     "biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 sections, "
@@ -180,10 +181,33 @@ def test_installed_entry_point_runs_demo(tmp_path):
 
 # The keys `solve --json` documents (README, "Command line").
 SUMMARY_KEYS = {
-    "summary_version", "source", "title", "units", "status", "stable", "message", "length", "EI",
-    "axial_force", "critical_loads", "alpha_cr", "effective_length_factor", "governing", "first_order",
-    "reactions", "amplification", "equilibrium", "section", "material", "bow", "utilization", "check",
-    "capacity", "cautions", "bow_direction", "service",
+    "summary_version",
+    "source",
+    "title",
+    "units",
+    "status",
+    "stable",
+    "message",
+    "length",
+    "EI",
+    "axial_force",
+    "critical_loads",
+    "alpha_cr",
+    "effective_length_factor",
+    "governing",
+    "first_order",
+    "reactions",
+    "amplification",
+    "equilibrium",
+    "section",
+    "material",
+    "bow",
+    "utilization",
+    "check",
+    "capacity",
+    "cautions",
+    "bow_direction",
+    "service",
 }
 
 # 1 kip = 1000 lbf = 4448.2216152605 N, exact by definition (NIST SP 811 (2008) Appendix B; from memory).
@@ -193,8 +217,10 @@ FOOT = 0.3048  # [m], exact by definition (same source)
 
 def strict_json(text):
     """Parse JSON, refusing the non-standard NaN and Infinity that Python's json module would accept."""
+
     def refuse(name):
         raise ValueError(f"non-standard JSON constant {name}")
+
     return json.loads(text, parse_constant=refuse)
 
 
@@ -217,16 +243,21 @@ def test_json_summary_matches_engine_solve(tmp_path):
         assert data["governing"][name] == {"value": peak.value, "x": peak.x}
         first = getattr(result.first_order.governing, name)
         assert data["first_order"][name] == {"value": first.value, "x": first.x}
-    assert data["reactions"] == {name: getattr(result.reactions, name)
-                                 for name in ("left_T", "left_M", "right_T", "right_M")}
+    assert data["reactions"] == {
+        name: getattr(result.reactions, name) for name in ("left_T", "left_M", "right_T", "right_M")
+    }
     assert data["amplification"]["moment"] == result.amplification.moment
     assert data["amplification"]["deflection"] == result.amplification.deflection
     assert [a["name"] for a in data["amplification"]["approximations"]] == [
-        a.name for a in result.amplification.approximations]
+        a.name for a in result.amplification.approximations
+    ]
     assert [a["error"] for a in data["amplification"]["approximations"]] == [
-        a.error for a in result.amplification.approximations]
-    assert data["equilibrium"] == {"transverse": result.equilibrium.transverse,
-                                   "moment": result.equilibrium.moment}
+        a.error for a in result.amplification.approximations
+    ]
+    assert data["equilibrium"] == {
+        "transverse": result.equilibrium.transverse,
+        "moment": result.equilibrium.moment,
+    }
     assert data["utilization"] == result.utilization
     assert data["check"]["kind"] == result.check.kind
     assert data["check"]["x"] == result.check.x
@@ -235,10 +266,15 @@ def test_json_summary_matches_engine_solve(tmp_path):
     assert data["service"]["deflection_utilization"] == result.service.utilization
     assert data["amplification"]["moment_first_order"] == result.amplification.moment_first_order
     assert data["amplification"]["moment_bow_free"] == result.amplification.moment_bow_free
-    assert set(data["amplification"]["definitions"]) == {"moment", "moment_first_order", "moment_bow_free",
-                                                        "deflection"}
+    assert set(data["amplification"]["definitions"]) == {
+        "moment",
+        "moment_first_order",
+        "moment_bow_free",
+        "deflection",
+    }
     assert [a["compared_with"] for a in data["amplification"]["approximations"]] == [
-        a.compared_with for a in result.amplification.approximations]
+        a.compared_with for a in result.amplification.approximations
+    ]
     assert data["bow_direction"]["governing"] == result.bow.direction_governing
     assert data["capacity"] is None
     assert [(c["level"], c["code"]) for c in data["cautions"]] == [(c.level, c.code) for c in result.cautions]
@@ -279,12 +315,26 @@ def test_exports_are_written_and_parse(tmp_path):
     from PIL import Image
     from pypdf import PdfReader
 
-    done = run_cli("solve", "--demo", "--csv", "out.csv", "--png", "out.png", "--pdf", "out.pdf",
-                   "--prepared-by", "Invented Engineer", cwd=tmp_path)
+    done = run_cli(
+        "solve",
+        "--demo",
+        "--csv",
+        "out.csv",
+        "--png",
+        "out.png",
+        "--pdf",
+        "out.pdf",
+        "--prepared-by",
+        "Invented Engineer",
+        cwd=tmp_path,
+    )
     assert done.returncode == 0, done.stderr
     assert CAUTION in done.stdout
-    lines = [line for line in (tmp_path / "out.csv").read_text(encoding="utf-8").splitlines()
-             if not line.startswith("#")]
+    lines = [
+        line
+        for line in (tmp_path / "out.csv").read_text(encoding="utf-8").splitlines()
+        if not line.startswith("#")
+    ]
     rows = list(csv.reader(lines))
     assert rows[0][0].startswith("x [m]")
     body = [[float(cell) for cell in row] for row in rows[1:]]
@@ -333,8 +383,14 @@ def test_strict_exit_codes(tmp_path):
     assert run_cli("solve", "--demo", "--strict", cwd=tmp_path).returncode == 0
     # An invented HEB 200 in S355 under a wind load far beyond its strength: qL²/8 = 200·36/8 = 900 kN·m
     # against W_el·fy ≈ 570e-6 · 355e6 ≈ 202 kN·m (section values from memory), so utilisation > 1.
-    overloaded = write_case(tmp_path / "overloaded.json", EI=None, section={"name": "HEB 200"},
-                            material={"name": "S355"}, length=6.0, loads=[{"type": "uniform", "q": 200e3}])
+    overloaded = write_case(
+        tmp_path / "overloaded.json",
+        EI=None,
+        section={"name": "HEB 200"},
+        material={"name": "S355"},
+        length=6.0,
+        loads=[{"type": "uniform", "q": 200e3}],
+    )
     assert engine.solve(engine.load_case(overloaded)).utilization > 1.0
     assert run_cli("solve", str(overloaded), cwd=tmp_path).returncode == 0
     assert run_cli("solve", str(overloaded), "--strict", cwd=tmp_path).returncode == 1

@@ -20,15 +20,27 @@ LONG_TITLES = {
     "words": " ".join(["Invented façade wind post on grid line"] * 6)[:200],
     "digits": "1234567890" * 20,
 }
-FOREIGN_TITLES = {"CJK": "外壁 風柱 A-1 (invented)", "emoji": "Post 🏗 A 🙂 (invented)",
-                  "mixed": "柱 ☃ α ≤ 10 (invented)"}
+FOREIGN_TITLES = {
+    "CJK": "外壁 風柱 A-1 (invented)",
+    "emoji": "Post 🏗 A 🙂 (invented)",
+    "mixed": "柱 ☃ α ≤ 10 (invented)",
+}
 
 
 def solved(title: str):
     """A small invented case with `title`, solved."""
-    return engine.solve(engine.Case.from_dict({
-        "title": title, "length": 4.0, "EI": 2.0e6, "supports": {"left": "pinned", "right": "pinned"},
-        "axial_force": 1e5, "loads": [{"type": "uniform", "q": 1e3}]}))
+    return engine.solve(
+        engine.Case.from_dict(
+            {
+                "title": title,
+                "length": 4.0,
+                "EI": 2.0e6,
+                "supports": {"left": "pinned", "right": "pinned"},
+                "axial_force": 1e5,
+                "loads": [{"type": "uniform", "q": 1e3}],
+            }
+        )
+    )
 
 
 def text_boxes(figure):

@@ -66,13 +66,18 @@ def demo(demo_case):
 @pytest.fixture(scope="module")
 def springs():
     """An invented case with springs, a guided end, a linear load, couples, an upward point load and a bow."""
-    return engine.solve(small_case(
-        title="Invented springs case",
-        supports={"left": {"translation": 5e6, "rotation": 2e5}, "right": "guided"},
-        loads=[{"type": "linear", "q_start": 2e3, "q_end": -1e3}, {"type": "couple", "C": 3e3, "x": 1.0},
-               {"type": "point", "P": -2e3, "x": 2.5}],
-        imperfection={"shape": "parabola", "amplitude": 0.01},
-    ))
+    return engine.solve(
+        small_case(
+            title="Invented springs case",
+            supports={"left": {"translation": 5e6, "rotation": 2e5}, "right": "guided"},
+            loads=[
+                {"type": "linear", "q_start": 2e3, "q_end": -1e3},
+                {"type": "couple", "C": 3e3, "x": 1.0},
+                {"type": "point", "P": -2e3, "x": 2.5},
+            ],
+            imperfection={"shape": "parabola", "amplitude": 0.01},
+        )
+    )
 
 
 @pytest.fixture(scope="module")
@@ -195,8 +200,11 @@ def test_figure_at_critical_load_skips_unbounded_curves(critical):
     lines = [line for ax in fig.axes[1:] for line in ax.get_lines()]
     assert lines and all(np.all(np.isfinite(np.asarray(line.get_ydata(), dtype=float))) for line in lines)
     first_moment = critical.first_order.moment / 1e3
-    assert any(np.allclose(line.get_ydata(), first_moment) for line in fig.axes[2].get_lines()
-               if len(line.get_ydata()) == len(first_moment))
+    assert any(
+        np.allclose(line.get_ydata(), first_moment)
+        for line in fig.axes[2].get_lines()
+        if len(line.get_ydata()) == len(first_moment)
+    )
     assert "unbounded" in figure_text(fig)
 
 
@@ -215,18 +223,22 @@ def test_exports_use_no_pyplot(tmp_path):
     )
     path = os.pathsep.join(filter(None, [str(REPO_ROOT), os.environ.get("PYTHONPATH")]))
     env = dict(os.environ, PYTHONPATH=path)
-    done = subprocess.run([sys.executable, "-c", code], cwd=tmp_path, env=env, capture_output=True,
-                          text=True, timeout=120)
+    done = subprocess.run(
+        [sys.executable, "-c", code], cwd=tmp_path, env=env, capture_output=True, text=True, timeout=120
+    )
     assert done.returncode == 0, done.stderr
 
 
 # ----------------------------------------------------------------------------------------------------- CSV
 
 
-@pytest.mark.parametrize(("system", "factors", "labels"), [
-    ("si", SI, {"x": "m", "w": "mm", "M": "kN·m", "V": "kN"}),
-    ("us", US, {"x": "ft", "w": "in", "M": "kip·ft", "V": "kip"}),
-])
+@pytest.mark.parametrize(
+    ("system", "factors", "labels"),
+    [
+        ("si", SI, {"x": "m", "w": "mm", "M": "kN·m", "V": "kN"}),
+        ("us", US, {"x": "ft", "w": "in", "M": "kip·ft", "V": "kip"}),
+    ],
+)
 def test_csv_matches_engine_arrays(demo, system, factors, labels):
     """Each CSV column is the engine's array times the unit factor (to 1e-9 relative); headers carry units."""
     _, rows = read_csv(exports.csv_text(demo, units=system))
@@ -288,8 +300,16 @@ def test_csv_without_first_order_or_check():
     result = engine.solve(small_case()).first_order  # the P = 0 solution has no first order of its own
     assert result.first_order is None and result.check is None
     comments, rows = read_csv(exports.csv_text(result))
-    assert rows[0] == ["x [m]", "w [mm]", "w0 [mm]", "w+w0 [mm]", "rotation [mrad]", "M [kN·m]", "V [kN]",
-                       "T [kN]"]
+    assert rows[0] == [
+        "x [m]",
+        "w [mm]",
+        "w0 [mm]",
+        "w+w0 [mm]",
+        "rotation [mrad]",
+        "M [kN·m]",
+        "V [kN]",
+        "T [kN]",
+    ]
     np.testing.assert_allclose(column(rows, "M [kN·m]"), result.moment * 1e-3, rtol=1e-9, atol=1e-15)
     assert any(line.startswith("# caution: Elastic analysis of one member") for line in comments)
 
@@ -299,8 +319,9 @@ def test_csv_at_critical_load_writes_inf(critical):
     _, rows = read_csv(exports.csv_text(critical))
     assert np.all(np.isinf(column(rows, "M [kN·m]")))
     assert np.all(np.isinf(column(rows, "utilisation [-]")))
-    np.testing.assert_allclose(column(rows, "M1 [kN·m]"), critical.first_order.moment * 1e-3, rtol=1e-9,
-                               atol=1e-12)
+    np.testing.assert_allclose(
+        column(rows, "M1 [kN·m]"), critical.first_order.moment * 1e-3, rtol=1e-9, atol=1e-12
+    )
 
 
 # ----------------------------------------------------------------------------------------------------- PDF
@@ -326,8 +347,16 @@ def test_pdf_carries_cautions_names_and_references(demo, demo_pdf):
         assert " ".join(caution.source.split()) in text, caution.code
     assert "Prepared by: A. Engineer" in text and "Checked by: B. Checker" in text
     assert f"Date: {DATE}" in text
-    for reference in ("Timoshenko and J. M. Gere", "Pestel and F. A. Leckie", "Wittrick and F. W. Williams",
-                      "§5.2.2(7)a", "Table 5.1", "§6.2", "AISC 360-16", "Appendix 8"):
+    for reference in (
+        "Timoshenko and J. M. Gere",
+        "Pestel and F. A. Leckie",
+        "Wittrick and F. W. Williams",
+        "§5.2.2(7)a",
+        "Table 5.1",
+        "§6.2",
+        "AISC 360-16",
+        "Appendix 8",
+    ):
         assert reference in text
 
 

@@ -19,8 +19,14 @@ from tests.app.test_cli import run_cli
 
 def case_text(**changes) -> str:
     """A small valid case file's JSON text with `changes` applied."""
-    mapping = {"schema": 1, "title": "Invented", "length": 4.0, "EI": 2.0e6,
-               "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 1e5}
+    mapping = {
+        "schema": 1,
+        "title": "Invented",
+        "length": 4.0,
+        "EI": 2.0e6,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 1e5,
+    }
     mapping.update(changes)
     return json.dumps(mapping)
 
@@ -29,11 +35,14 @@ HOSTILE = {
     "deep nesting": ("[" * 50_000 + "]" * 50_000).encode(),
     "5000 digits": case_text().replace('"length": 4.0', '"length": ' + "9" * 5_000).encode(),
     "lone surrogate in the title": case_text(title="post \ud800").encode(),
-    "raw surrogate bytes": case_text().replace("Invented", "post \\ud800").encode().replace(
-        b"\\ud800", "\ud800".encode("utf-8", "surrogatepass")),
+    "raw surrogate bytes": case_text()
+    .replace("Invented", "post \\ud800")
+    .encode()
+    .replace(b"\\ud800", "\ud800".encode("utf-8", "surrogatepass")),
     "invalid UTF-8": case_text().encode().replace(b"Invented", b"Inv\xffented"),
-    "1000 point loads": case_text(loads=[{"type": "point", "P": 1e3, "x": 4.0 * (i + 1) / 1001}
-                                         for i in range(1000)]).encode(),
+    "1000 point loads": case_text(
+        loads=[{"type": "point", "P": 1e3, "x": 4.0 * (i + 1) / 1001} for i in range(1000)]
+    ).encode(),
     "2 MB of whitespace": b" " * 2_000_000 + case_text().encode(),
     "NaN": case_text().replace("100000.0", "NaN").encode(),
     "escape sequence in the title": case_text(title="\x1b[2J\x1b[31mfake").encode(),
@@ -67,10 +76,13 @@ def test_hostile_case_files_exit_two_with_one_message(tmp_path, name):
 
 def test_the_largest_allowed_case_solves_on_the_command_line(tmp_path):
     """A case with the most loads allowed is solved (exit 0) with its capacity."""
-    loads = [{"type": "point", "P": 1e3, "x": 4.0 * (i + 1) / (limits.MAX_LOADS + 1)}
-             for i in range(limits.MAX_LOADS)]
-    (tmp_path / "case.json").write_text(case_text(loads=loads, section={"name": "HEB 200"},
-                                                  material={"name": "S355"}), encoding="utf-8")
+    loads = [
+        {"type": "point", "P": 1e3, "x": 4.0 * (i + 1) / (limits.MAX_LOADS + 1)}
+        for i in range(limits.MAX_LOADS)
+    ]
+    (tmp_path / "case.json").write_text(
+        case_text(loads=loads, section={"name": "HEB 200"}, material={"name": "S355"}), encoding="utf-8"
+    )
     done = run_cli("solve", "case.json", "--capacity", cwd=tmp_path)
     assert done.returncode == 0, done.stderr
 

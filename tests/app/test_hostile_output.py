@@ -27,14 +27,24 @@ from tests.app.test_cli import run_cli
 
 NUMBER = re.compile(r"[-+]?(?:(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?|inf|nan)", re.IGNORECASE)
 
-HOSTILE = ['=HYPERLINK("http://example.invalid","click")', "+cmd|' /C calc'!A0", "@SUM(1+1)", "-2+3+cmd|x",
-           "\t=1+1", "\r=1+1"]
+HOSTILE = [
+    '=HYPERLINK("http://example.invalid","click")',
+    "+cmd|' /C calc'!A0",
+    "@SUM(1+1)",
+    "-2+3+cmd|x",
+    "\t=1+1",
+    "\r=1+1",
+]
 
 
 def formula_cells(text: str) -> list[str]:
     """Every cell of CSV `text` (comment lines included) that a spreadsheet would run as a formula."""
-    return [cell for cells in csv.reader(io.StringIO(text, newline="")) for cell in cells
-            if cell.startswith(FORMULA_PREFIXES) and not NUMBER.fullmatch(cell)]
+    return [
+        cell
+        for cells in csv.reader(io.StringIO(text, newline=""))
+        for cell in cells
+        if cell.startswith(FORMULA_PREFIXES) and not NUMBER.fullmatch(cell)
+    ]
 
 
 # ---------------------------------------------------------------------------------------------- helpers
@@ -52,7 +62,7 @@ def test_numbers_and_plain_text_are_kept(text):
     assert csv_cell(text) == text
 
 
-@pytest.mark.parametrize("title", ['a,=1+1', 'a, b,"@x",+y', 'a,"=1"', "façade post, level 2"])
+@pytest.mark.parametrize("title", ["a,=1+1", 'a, b,"@x",+y', 'a,"=1"', "façade post, level 2"])
 def test_comment_lines_never_split_into_a_formula(title):
     """A '# title: ...' line split at its commas by a spreadsheet gives no formula cell, and stays '# '."""
     line = csv_comment(f"title: {title}")
@@ -60,12 +70,20 @@ def test_comment_lines_never_split_into_a_formula(title):
     assert formula_cells(line) == []
 
 
-@pytest.mark.parametrize(("text", "shown"), [
-    ("Post A\x1b[2J", "Post A\\u001b[2J"), ("ok\rfake: 0 invalid", "ok\\rfake: 0 invalid"),
-    ("two\nlines", "two\\nlines"), ("bidi\u202eevil", "bidi\\u202eevil"), ("bell\x07", "bell\\u0007"),
-    ("c1\x9b31m", "c1\\u009b31m"), ("del\x7f", "del\\u007f"), ("lone \ud800", "lone \\ud800"),
-    ("façade 柱 🏗", "façade 柱 🏗"),
-])
+@pytest.mark.parametrize(
+    ("text", "shown"),
+    [
+        ("Post A\x1b[2J", "Post A\\u001b[2J"),
+        ("ok\rfake: 0 invalid", "ok\\rfake: 0 invalid"),
+        ("two\nlines", "two\\nlines"),
+        ("bidi\u202eevil", "bidi\\u202eevil"),
+        ("bell\x07", "bell\\u0007"),
+        ("c1\x9b31m", "c1\\u009b31m"),
+        ("del\x7f", "del\\u007f"),
+        ("lone \ud800", "lone \\ud800"),
+        ("façade 柱 🏗", "façade 柱 🏗"),
+    ],
+)
 def test_terminal_escapes_control_characters(text, shown):
     """Escape sequences, CR, LF, bidi controls, bells, C1 controls and lone surrogates print as escapes."""
     assert terminal(text) == shown
@@ -76,8 +94,17 @@ def test_terminal_escapes_control_characters(text, shown):
 
 def test_station_csv_neutralises_a_formula_title():
     """The station CSV (solve --csv and the page) has no formula cell, whatever the title says."""
-    base = json.loads(json.dumps({"length": 4.0, "EI": 2e6, "supports": {"left": "pinned", "right": "pinned"},
-                                  "loads": [{"type": "uniform", "q": -1e3}], "axial_force": -1e5}))
+    base = json.loads(
+        json.dumps(
+            {
+                "length": 4.0,
+                "EI": 2e6,
+                "supports": {"left": "pinned", "right": "pinned"},
+                "loads": [{"type": "uniform", "q": -1e3}],
+                "axial_force": -1e5,
+            }
+        )
+    )
     for title in HOSTILE[:4] + ['x,=1+1,"@SUM(1)"', "+1,-2"]:
         if any(char in title for char in "\t\r"):
             continue  # not valid titles (control characters are refused by the engine)
@@ -115,8 +142,10 @@ def test_batch_results_have_no_formula_cells(tmp_path):
 
 def test_batch_printout_escapes_control_characters(tmp_path):
     """An id with an escape sequence or a carriage return prints escaped: it cannot fake a summary line."""
-    table = write_table(tmp_path / "members.csv", [row("A\x1b[2J\x1b[1;1H", EI="4200"),
-                                                   row("B\rstrutscope batch: 0 invalid", EI="4200")])
+    table = write_table(
+        tmp_path / "members.csv",
+        [row("A\x1b[2J\x1b[1;1H", EI="4200"), row("B\rstrutscope batch: 0 invalid", EI="4200")],
+    )
     done = run_cli("batch", str(table), "--out", "out", cwd=tmp_path)
     assert done.returncode == 1
     assert "\x1b" not in done.stdout + done.stderr and "\r" not in done.stdout + done.stderr
@@ -145,8 +174,9 @@ def test_an_unterminated_quote_is_an_error_naming_its_line(tmp_path):
     (tmp_path / "members.csv").write_text("\n".join(lines) + "\n", encoding="utf-8")
     done = run_cli("batch", "members.csv", "--out", "out", cwd=tmp_path)
     assert done.returncode == 2, done.stdout
-    assert done.stderr.startswith("error: members.csv: line 3: a quoted cell that starts on this line is "
-                                  "never closed")
+    assert done.stderr.startswith(
+        "error: members.csv: line 3: a quoted cell that starts on this line is never closed"
+    )
     assert not (tmp_path / "out").exists()
 
 

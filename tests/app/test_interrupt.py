@@ -34,7 +34,7 @@ def session_processes(session: int) -> list[int]:
             stat = Path(f"/proc/{entry}/stat").read_text()
         except OSError:
             continue
-        fields = stat[stat.rindex(")") + 2:].split()
+        fields = stat[stat.rindex(")") + 2 :].split()
         if fields[0] != "Z" and int(fields[3]) == session:
             found.append(int(entry))
     return found
@@ -55,9 +55,16 @@ def start(args, cwd) -> subprocess.Popen:
     """Start the command line in a new session, as `strutscope ARGS` from `cwd`."""
     env = dict(os.environ, PYTHONIOENCODING="utf-8")
     env["PYTHONPATH"] = os.pathsep.join(filter(None, [str(REPO_ROOT), env.get("PYTHONPATH")]))
-    return subprocess.Popen([sys.executable, "-m", "app.cli", *args], cwd=cwd, env=env,
-                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True, encoding="utf-8",
-                            start_new_session=True)
+    return subprocess.Popen(
+        [sys.executable, "-m", "app.cli", *args],
+        cwd=cwd,
+        env=env,
+        stdout=subprocess.PIPE,
+        stderr=subprocess.PIPE,
+        text=True,
+        encoding="utf-8",
+        start_new_session=True,
+    )
 
 
 def wait_for(condition, timeout=90.0) -> None:
@@ -86,8 +93,9 @@ def members_table(path: Path, rows: int) -> Path:
     """A table of `rows` invented members with a section and material (so each gets a calc sheet)."""
     with open(path, "w", encoding="utf-8", newline="") as stream:
         writer = csv.writer(stream)
-        writer.writerow(["id", "length_m", "left", "right", "section", "material", "axial_kN",
-                         "udl_kN_per_m"])
+        writer.writerow(
+            ["id", "length_m", "left", "right", "section", "material", "axial_kN", "udl_kN_per_m"]
+        )
         for i in range(rows):
             writer.writerow([f"M{i}", 6.0, "pinned", "pinned", "HEB 200", "S355", 300, 2.5])
     return path
@@ -105,8 +113,9 @@ def assert_clean(process, code, err, expected, folder) -> None:
     assert session_processes(process.pid) == [], "processes of the run outlived it"
 
 
-@pytest.mark.parametrize(("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)],
-                         ids=["SIGTERM", "SIGINT"])
+@pytest.mark.parametrize(
+    ("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)], ids=["SIGTERM", "SIGINT"]
+)
 def test_batch_with_workers_ends_cleanly_on_a_signal(tmp_path, signum, expected):
     """A batch shared over two workers, stopped mid-run: 143/130, no traceback, no .part, no worker left."""
     table = members_table(tmp_path / "members.csv", 400)
@@ -121,8 +130,9 @@ def test_batch_with_workers_ends_cleanly_on_a_signal(tmp_path, signum, expected)
     assert (out / "results.csv").read_text(encoding="utf-8") == "previous results\n"
 
 
-@pytest.mark.parametrize(("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)],
-                         ids=["SIGTERM", "SIGINT"])
+@pytest.mark.parametrize(
+    ("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)], ids=["SIGTERM", "SIGINT"]
+)
 def test_batch_in_one_process_ends_cleanly_on_a_signal(tmp_path, signum, expected):
     """A short batch solved in one process, stopped mid-run: 143/130, no traceback, no .part file."""
     table = members_table(tmp_path / "members.csv", 40)
@@ -134,8 +144,9 @@ def test_batch_in_one_process_ends_cleanly_on_a_signal(tmp_path, signum, expecte
     assert not (out / "results.csv").exists()
 
 
-@pytest.mark.parametrize(("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)],
-                         ids=["SIGTERM", "SIGINT"])
+@pytest.mark.parametrize(
+    ("signum", "expected"), [(signal.SIGTERM, 143), (signal.SIGINT, 130)], ids=["SIGTERM", "SIGINT"]
+)
 def test_solve_ends_cleanly_on_a_signal(tmp_path, signum, expected):
     """`solve` with a calc sheet, stopped while it works: 143/130, no traceback, no .part, no sheet."""
     case = write_case(tmp_path / "case.json")

@@ -12,9 +12,15 @@ from app.cli import format_summary, summary_data
 from app.state import MemberState, values_from_mapping
 from tests.app.test_cli import demo_case, run_cli
 
-SHS = {"schema": 1, "title": "Invented SHS strut above Pcr1", "length": 10.0,
-       "supports": {"left": "pinned", "right": "pinned"}, "section": {"name": "SHS 100x100x5"},
-       "material": {"name": "S355"}, "imperfection": {"preset": "en1993-table-5.1"}}
+SHS = {
+    "schema": 1,
+    "title": "Invented SHS strut above Pcr1",
+    "length": 10.0,
+    "supports": {"left": "pinned", "right": "pinned"},
+    "section": {"name": "SHS 100x100x5"},
+    "material": {"name": "S355"},
+    "imperfection": {"preset": "en1993-table-5.1"},
+}
 
 
 def _shs_above_critical():
@@ -43,17 +49,44 @@ def test_batch_marks_a_member_above_critical(tmp_path):
     table = tmp_path / "members.csv"
     with open(table, "w", encoding="utf-8", newline="") as stream:
         writer = csv.writer(stream)
-        writer.writerow(["id", "length_m", "left", "right", "section", "material", "axial_kN", "bow",
-                         "Lcr_out_m", "out_of_plane"])
+        writer.writerow(
+            [
+                "id",
+                "length_m",
+                "left",
+                "right",
+                "section",
+                "material",
+                "axial_kN",
+                "bow",
+                "Lcr_out_m",
+                "out_of_plane",
+            ]
+        )
         over = f"{1.5 * pcr / 1e3:.3f}"
-        writer.writerow(["over", "10", "pinned", "pinned", "SHS 100x100x5", "S355", over, "en1993-table-5.1",
-                         "", ""])
-        writer.writerow(["post", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "",
-                         ""])
-        writer.writerow(["braced", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "",
-                         "restrained"])
-        writer.writerow(["half", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "3",
-                         ""])
+        writer.writerow(
+            ["over", "10", "pinned", "pinned", "SHS 100x100x5", "S355", over, "en1993-table-5.1", "", ""]
+        )
+        writer.writerow(
+            ["post", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "", ""]
+        )
+        writer.writerow(
+            [
+                "braced",
+                "6",
+                "pinned",
+                "pinned",
+                "HEB 200",
+                "S355",
+                "350",
+                "en1993-table-5.1",
+                "",
+                "restrained",
+            ]
+        )
+        writer.writerow(
+            ["half", "6", "pinned", "pinned", "HEB 200", "S355", "350", "en1993-table-5.1", "3", ""]
+        )
     done = run_cli("batch", str(table), "--out", str(tmp_path / "out"), "--workers", "1", cwd=tmp_path)
     assert done.returncode == 1, done.stdout + done.stderr
     with open(tmp_path / "out" / "results.csv", encoding="utf-8", newline="") as stream:

@@ -98,19 +98,26 @@ def test_case_using_every_key_validates_and_round_trips(validator):
     assert list(validator.iter_errors(engine.Case.from_dict(mapping).to_dict())) == []
 
 
-@pytest.mark.parametrize("section", [
-    {"name": "IPE 300"},
-    {"shape": "rolled_i", "h": 0.2, "b": 0.1, "tw": 0.0056, "tf": 0.0085, "r": 0.012},
-    {"shape": "welded_i", "h": 0.4, "b": 0.2, "tw": 0.008, "tf": 0.012, "a": 0.004},
-    {"shape": "chs", "D": 0.1143, "t": 0.005},
-    {"shape": "rectangle", "b": 0.045, "h": 0.195},
-    {"shape": "round", "D": 0.05},
-    {"shape": "custom", "A": 3.0e-3, "I": 2.0e-5, "W_el": 2.0e-4, "W_pl": 2.3e-4, "A_v": 1.5e-3},
-])
+@pytest.mark.parametrize(
+    "section",
+    [
+        {"name": "IPE 300"},
+        {"shape": "rolled_i", "h": 0.2, "b": 0.1, "tw": 0.0056, "tf": 0.0085, "r": 0.012},
+        {"shape": "welded_i", "h": 0.4, "b": 0.2, "tw": 0.008, "tf": 0.012, "a": 0.004},
+        {"shape": "chs", "D": 0.1143, "t": 0.005},
+        {"shape": "rectangle", "b": 0.045, "h": 0.195},
+        {"shape": "round", "D": 0.05},
+        {"shape": "custom", "A": 3.0e-3, "I": 2.0e-5, "W_el": 2.0e-4, "W_pl": 2.3e-4, "A_v": 1.5e-3},
+    ],
+)
 def test_every_section_form_validates(validator, section):
     """Each section form of the README passes the schema with a catalogued material, as in the engine."""
-    mapping = {"length": 4.0, "supports": {"left": "pinned", "right": "pinned"}, "section": section,
-               "material": {"name": "S355"}}
+    mapping = {
+        "length": 4.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "section": section,
+        "material": {"name": "S355"},
+    }
     assert engine_accepts(mapping)
     assert list(validator.iter_errors(mapping)) == []
 
@@ -138,8 +145,9 @@ BROKEN = {
     "preset with an amplitude": broken(lambda m: m["imperfection"].update(amplitude=0.01)),
     "span preset without ratio": broken(lambda m: m["imperfection"].pop("ratio")),
     "ratio without the span preset": broken(lambda m: m.update(imperfection={"shape": "sine", "ratio": 300})),
-    "curve without a preset": broken(lambda m: m.update(imperfection={"shape": "sine", "amplitude": 0.01,
-                                                                     "curve": "b"})),
+    "curve without a preset": broken(
+        lambda m: m.update(imperfection={"shape": "sine", "amplitude": 0.01, "curve": "b"})
+    ),
     "no stiffness at all": broken(lambda m: [m.pop(k) for k in ("EI", "section")]),
     "unknown check method": broken(lambda m: m["check"].update(method="ultimate")),
     "stiffness factor above 1": broken(lambda m: m.update(stiffness_factor=1.2)),
@@ -150,16 +158,20 @@ BROKEN = {
     "title too long": broken(lambda m: m.update(title="x" * 201)),
     "title with an escape sequence": broken(lambda m: m.update(title="\x1b[31mred")),
     "title with a line break": broken(lambda m: m.update(title="one\ntwo")),
-    "one load too many": broken(lambda m: m.update(loads=[{"type": "point", "P": 1.0, "x": 0.1 * (i + 1)}
-                                                          for i in range(51)])),
+    "one load too many": broken(
+        lambda m: m.update(loads=[{"type": "point", "P": 1.0, "x": 0.1 * (i + 1)} for i in range(51)])
+    ),
 }
 
 
 def test_schema_one_point_zero_is_accepted_by_both(validator):
-    """"schema": 1.0 is the integer 1 for JSON Schema 2020-12 (zero fractional part) and the engine alike."""
+    """ "schema": 1.0 is the integer 1 for JSON Schema 2020-12 (zero fractional part) and the engine alike."""
     mapping = full_case() | {"schema": 1.0}
-    assert case_schema()["properties"]["schema"] == {**case_schema()["properties"]["schema"],
-                                                     "const": 1, "type": "integer"}
+    assert case_schema()["properties"]["schema"] == {
+        **case_schema()["properties"]["schema"],
+        "const": 1,
+        "type": "integer",
+    }
     assert list(validator.iter_errors(mapping)) == []
     assert engine_accepts(mapping)
 

@@ -38,9 +38,17 @@ EXACT_US = [
 # SI prefixes (BIPM, The International System of Units, 9th ed. (2019), Table 7; from memory): the display
 # value of 1 SI base-unit value.
 SI_FACTORS = {
-    "force": ("kN", 1e-3), "length": ("m", 1.0), "small_length": ("mm", 1e3), "moment": ("kN·m", 1e-3),
-    "line_load": ("kN/m", 1e-3), "stress": ("MPa", 1e-6), "stiffness": ("kN·m²", 1e-3), "area": ("cm²", 1e4),
-    "second_moment": ("cm⁴", 1e8), "rotation": ("mrad", 1e3), "translational_spring": ("kN/m", 1e-3),
+    "force": ("kN", 1e-3),
+    "length": ("m", 1.0),
+    "small_length": ("mm", 1e3),
+    "moment": ("kN·m", 1e-3),
+    "line_load": ("kN/m", 1e-3),
+    "stress": ("MPa", 1e-6),
+    "stiffness": ("kN·m²", 1e-3),
+    "area": ("cm²", 1e4),
+    "second_moment": ("cm⁴", 1e8),
+    "rotation": ("mrad", 1e3),
+    "translational_spring": ("kN/m", 1e-3),
     "rotational_spring": ("kN·m/rad", 1e-3),
 }
 
@@ -71,9 +79,20 @@ def test_si_labels_and_factors():
 def test_us_labels():
     """The US system shows kip, ft, in, kip·ft, kip/ft, ksi, kip·ft², in², in⁴ (common practice, no source)"""
     us = units("us")
-    assert [us.label(k) for k in ("force", "length", "small_length", "moment", "line_load", "stress",
-                                  "stiffness", "area", "second_moment")] == [
-        "kip", "ft", "in", "kip·ft", "kip/ft", "ksi", "kip·ft²", "in²", "in⁴"]
+    assert [
+        us.label(k)
+        for k in (
+            "force",
+            "length",
+            "small_length",
+            "moment",
+            "line_load",
+            "stress",
+            "stiffness",
+            "area",
+            "second_moment",
+        )
+    ] == ["kip", "ft", "in", "kip·ft", "kip/ft", "ksi", "kip·ft²", "in²", "in⁴"]
 
 
 @pytest.mark.parametrize("system", UNIT_SYSTEMS)

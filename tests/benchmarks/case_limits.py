@@ -25,18 +25,27 @@ ROUNDS = 5
 
 def _cases() -> dict[str, engine.Case]:
     demo = engine.Case.from_json(resources.files("assets").joinpath("demo_wind_post.json").read_bytes())
-    base = {"schema": 1, "length": 6.0, "supports": {"left": "pinned", "right": "pinned"},
-            "axial_force": 350e3, "section": {"name": "HEB 200"}, "material": {"name": "S355"}}
+    base = {
+        "schema": 1,
+        "length": 6.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 350e3,
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S355"},
+    }
     count = limits.MAX_LOADS
     points = [{"type": "point", "P": 1e3, "x": 6.0 * (i + 1) / (count + 1)} for i in range(count)]
     partial_count = (limits.MAX_SEGMENTS - 1) // 2
-    partial = [{"type": "uniform", "q": 1e2, "start": 0.05 + 0.05 * i, "end": 3.0 + 0.05 * i}
-               for i in range(partial_count)]
+    partial = [
+        {"type": "uniform", "q": 1e2, "start": 0.05 + 0.05 * i, "end": 3.0 + 0.05 * i}
+        for i in range(partial_count)
+    ]
     return {
         "demo (invented)": demo,
         f"{count} point loads": engine.Case.from_dict(base | {"title": "invented", "loads": points}),
-        f"{partial_count} partial loads ({2 * partial_count + 1} segments)":
-            engine.Case.from_dict(base | {"title": "invented", "loads": partial}),
+        f"{partial_count} partial loads ({2 * partial_count + 1} segments)": engine.Case.from_dict(
+            base | {"title": "invented", "loads": partial}
+        ),
     }
 
 
@@ -59,8 +68,12 @@ def main() -> None:
             capacity = _time(lambda case=case: engine.capacity(case))
             pcr = engine.solve(case).critical_loads
             sweep = _time(lambda case=case, pcr=pcr: engine.sweep(case, chart_forces(pcr)))
-            for key, value in (("first solve", first), ("solve", again), ("capacity", capacity),
-                               ("sweep", sweep)):
+            for key, value in (
+                ("first solve", first),
+                ("solve", again),
+                ("capacity", capacity),
+                ("sweep", sweep),
+            ):
                 figures[name].setdefault(key, []).append(value)
     demo = next(iter(figures.values()))
     print(f"median of {ROUNDS} rounds, seconds (ratio to the demo)")

@@ -22,9 +22,11 @@ CASE = {
     "title": "Invented benchmark: spring-supported strut, four loads",
     "length": 6.0,
     "EI": 4.2e6,
-    "supports": {"left": {"translation": 5.0e6, "rotation": 2.0e6},
-                 "right": {"translation": 8.0e6, "rotation": 5.0e5}},
-    "axial_force": 0.0,   # set to half the first critical load below
+    "supports": {
+        "left": {"translation": 5.0e6, "rotation": 2.0e6},
+        "right": {"translation": 8.0e6, "rotation": 5.0e5},
+    },
+    "axial_force": 0.0,  # set to half the first critical load below
     "loads": [
         {"type": "uniform", "q": 2.5e3},
         {"type": "linear", "q_start": 0.0, "q_end": 4.0e3, "start": 1.0, "end": 4.5},
@@ -58,7 +60,8 @@ def main() -> None:
     case = engine.Case.from_dict(data)
 
     # Engine and reference are timed in alternation, a block of engine solves beside each reference solve, so
-    # that a change in the machine's speed during the run (a shared machine drifts by tens of per cent) acts on
+    # that a change in the machine's speed during the run (a shared machine drifts by tens of per cent)
+    # acts on
     # both: the ratio is the median of the paired ratios.
     engine_times, reference_times = [], []
 
@@ -74,7 +77,7 @@ def main() -> None:
         reference_times.append(_median_time(lambda: reference_solution(data, x), runs=1, warmup=0))
     t_solve = statistics.median(engine_times)
     t_ref = statistics.median(reference_times)
-    paired = sorted(r / e for r, e in zip(reference_times, engine_times))
+    paired = sorted(r / e for r, e in zip(reference_times, engine_times, strict=True))
     ref = reference_solution(data, x)
     dis_w = np.max(np.abs(np.asarray(result.deflection) - ref["w"])) / np.max(np.abs(ref["w"]))
     dis_m = np.max(np.abs(np.asarray(result.moment) - ref["M"])) / np.max(np.abs(ref["M"]))
@@ -82,15 +85,22 @@ def main() -> None:
     forces = np.linspace(-3.0 * pcr[0], 1.2 * pcr[2], 200)
     t_sweep = _median_time(lambda: engine.sweep(case, forces), runs=30, warmup=3)
 
-    print("strutscope engine benchmark (invented case: springs both ends,"
-          " uniform + partial linear + point + couple)")
-    print(f"  P = 0.5 Pcr1 = {data['axial_force']:.6g} N;"
-          f" Pcr1..3 = {pcr[0]:.6g}, {pcr[1]:.6g}, {pcr[2]:.6g} N")
-    print(f"  engine.solve(stations=401), median of {ROUNDS} medians of {BLOCK}: {t_solve * 1e3:9.4f} ms"
-          "   (target <= 1 ms)")
+    print(
+        "strutscope engine benchmark (invented case: springs both ends,"
+        " uniform + partial linear + point + couple)"
+    )
+    print(
+        f"  P = 0.5 Pcr1 = {data['axial_force']:.6g} N; Pcr1..3 = {pcr[0]:.6g}, {pcr[1]:.6g}, {pcr[2]:.6g} N"
+    )
+    print(
+        f"  engine.solve(stations=401), median of {ROUNDS} medians of {BLOCK}: {t_solve * 1e3:9.4f} ms"
+        "   (target <= 1 ms)"
+    )
     print(f"  solve_bvp reference, median of {ROUNDS}            : {t_ref * 1e3:9.2f} ms")
-    print(f"  speed ratio reference / engine, median of {ROUNDS} paired: {statistics.median(paired):6.0f} x"
-          f"    (target >= 200 x; paired range {paired[0]:.0f}-{paired[-1]:.0f} x)")
+    print(
+        f"  speed ratio reference / engine, median of {ROUNDS} paired: {statistics.median(paired):6.0f} x"
+        f"    (target >= 200 x; paired range {paired[0]:.0f}-{paired[-1]:.0f} x)"
+    )
     print(f"  max rel. disagreement at {x.size} stations  w : {dis_w:9.2e}      (target <= 1e-8)")
     print(f"                                            M : {dis_m:9.2e}      (target <= 1e-8)")
     print(f"  engine.sweep(200 forces), median of 30      : {t_sweep * 1e3:9.3f} ms   (target <= 20 ms)")

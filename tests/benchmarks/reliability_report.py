@@ -101,14 +101,20 @@ def main() -> None:
             elapsed = time.perf_counter() - started
             rss_loaded = rss_mb(server.process.pid)
             close_sessions(sessions)
-            print(f"load: {args.sessions} concurrent sessions x {args.steps} steps of the axial force, "
-                  f"{len(latencies)} steps completed and checked against engine.solve (no cross-talk), "
-                  f"{elapsed:.1f} s")
+            print(
+                f"load: {args.sessions} concurrent sessions x {args.steps} steps of the axial force, "
+                f"{len(latencies)} steps completed and checked against engine.solve (no cross-talk), "
+                f"{elapsed:.1f} s"
+            )
             median = statistics.median(latencies)
-            print(f"  step latency (key press to new plot data): median {median:.0f} ms, "
-                  f"p95 {percentile(latencies, 0.95):.0f} ms, max {max(latencies):.0f} ms")
-            print(f"  server RSS: {rss_start:.0f} MB at start, {rss_loaded:.0f} MB with {args.sessions} "
-                  "sessions open")
+            print(
+                f"  step latency (key press to new plot data): median {median:.0f} ms, "
+                f"p95 {percentile(latencies, 0.95):.0f} ms, max {max(latencies):.0f} ms"
+            )
+            print(
+                f"  server RSS: {rss_start:.0f} MB at start, {rss_loaded:.0f} MB with {args.sessions} "
+                "sessions open"
+            )
             figures = churn(browser, server.url, args.churn, 10, server)
             # Bokeh drops a closed session after its unused-session lifetime (about 15 s, checked every 17 s).
             deadline = time.monotonic() + 90
@@ -120,12 +126,16 @@ def main() -> None:
             opened, closed, alive = debug_counts(server)
             rss_final = rss_mb(server.process.pid)
             print(f"memory: {args.churn} sessions opened and closed, 10 at a time")
-            print(f"  server RSS after the first 20: {figures['rss_after_20']:.0f} MB; after {args.churn}: "
-                  f"{figures['rss_after_all']:.0f} MB "
-                  f"({figures['rss_after_all'] - figures['rss_after_20']:+.0f} MB); "
-                  f"after the closed sessions were dropped: {rss_final:.0f} MB")
-            print(f"  sessions: {opened} opened, {closed} destroyed by the server; pages still alive after "
-                  f"gc: {alive}")
+            print(
+                f"  server RSS after the first 20: {figures['rss_after_20']:.0f} MB; after {args.churn}: "
+                f"{figures['rss_after_all']:.0f} MB "
+                f"({figures['rss_after_all'] - figures['rss_after_20']:+.0f} MB); "
+                f"after the closed sessions were dropped: {rss_final:.0f} MB"
+            )
+            print(
+                f"  sessions: {opened} opened, {closed} destroyed by the server; pages still alive after "
+                f"gc: {alive}"
+            )
         finally:
             browser.close()
             server.stop()

@@ -143,14 +143,21 @@ def main(argv=None) -> int:
     print(f"session A's slider step to new plot data, while session B loads {args.loads} point loads:")
     for name in ("idle", "loading"):
         f = figures[name]
-        print(f"  {name:<8} median {f['median_ms']:7.1f} ms   p95 {f['p95_ms']:7.1f} ms   "
-              f"max {f['max_ms']:7.1f} ms   ({f['n']} steps)")
-    print(f"  ratio    median {figures['ratio_median']:7.2f}      p95 {figures['ratio_p95']:7.2f}"
-          "      (target <= 2)")
+        print(
+            f"  {name:<8} median {f['median_ms']:7.1f} ms   p95 {f['p95_ms']:7.1f} ms   "
+            f"max {f['max_ms']:7.1f} ms   ({f['n']} steps)"
+        )
+    print(
+        f"  ratio    median {figures['ratio_median']:7.2f}      p95 {figures['ratio_p95']:7.2f}"
+        "      (target <= 2)"
+    )
     got = figures["case_link_get_s"]
     print(f"GET of the ?case= link with the same case: {got:.2f} s" if got is not None else "GET unfinished")
-    print("session B shows:", " | ".join(text.strip().replace("\n", " ")[:160] for text in chart_note) or
-          shown.strip().replace("\n", " ")[:160])
+    print(
+        "session B shows:",
+        " | ".join(text.strip().replace("\n", " ")[:160] for text in chart_note)
+        or shown.strip().replace("\n", " ")[:160],
+    )
     print(f"means: idle steps {statistics.mean(idle):.1f} ms; while loading {statistics.mean(loaded):.1f} ms")
     if args.json:
         Path(args.json).write_text(json.dumps(figures, indent=2) + "\n", encoding="utf-8")

@@ -88,8 +88,9 @@ def test_a_heavy_upload_in_one_session_does_not_hold_another_sessions_slider(bro
             handle.press("PageUp")
             expect(readout(a)).not_to_have_text(before, timeout=TIMEOUT_MS)
         # B shows its own case (or the server's budget message), never a dead page
-        expect(b.get_by_label("Case title")).to_have_value(f"Invented heavy case, {MAX_LOADS} point loads",
-                                                           timeout=TIMEOUT_MS)
+        expect(b.get_by_label("Case title")).to_have_value(
+            f"Invented heavy case, {MAX_LOADS} point loads", timeout=TIMEOUT_MS
+        )
         expect(b.get_by_text("lost its connection")).to_have_count(0, timeout=TIMEOUT_MS)
     finally:
         for context in contexts:
@@ -120,8 +121,13 @@ def test_an_upload_over_the_cap_is_refused_before_sending_and_the_session_lives(
     [
         ("case=garbage", "not valid JSON"),
         ("units=klingon", "'klingon' in the link is not si or us"),
-        ("case=" + urllib.parse.quote('{"schema": 1, "length": -1, "EI": 1e6, '
-                                      '"supports": {"left": "pinned", "right": "pinned"}}'), "length: -1"),
+        (
+            "case="
+            + urllib.parse.quote(
+                '{"schema": 1, "length": -1, "EI": 1e6, "supports": {"left": "pinned", "right": "pinned"}}'
+            ),
+            "length: -1",
+        ),
     ],
     ids=["bad-json", "bad-units", "bad-case"],
 )

@@ -20,8 +20,11 @@ def run_serve(args: list[str], cwd) -> subprocess.CompletedProcess:
         capture_output=True,
         text=True,
         timeout=120,
-        env={"PYTHONPATH": str(REPO_ROOT), "PATH": "/usr/bin:/bin:/usr/local/bin",
-             "PYTHONIOENCODING": "utf-8"},
+        env={
+            "PYTHONPATH": str(REPO_ROOT),
+            "PATH": "/usr/bin:/bin:/usr/local/bin",
+            "PYTHONIOENCODING": "utf-8",
+        },
     )
 
 

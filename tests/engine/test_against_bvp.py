@@ -12,14 +12,13 @@ import numpy as np
 import pytest
 from scipy.optimize import brentq
 
+import engine
 from tests.support.bvp_reference import reference_solution
 
-import engine
-
-L = 6.0            # [m], invented
-EI = 4.2e6         # [N·m²], invented
+L = 6.0  # [m], invented
+EI = 4.2e6  # [N·m²], invented
 P_E = math.pi**2 * EI / L**2
-REL = 1e-7         # of the largest |value| of each quantity
+REL = 1e-7  # of the largest |value| of each quantity
 
 MIXED_LOADS = [
     {"type": "uniform", "q": 2.5e3},
@@ -31,62 +30,127 @@ MIXED_LOADS = [
 
 CASES = {
     # name: (left, right, P as a fraction of the case's first critical load (negative: tension), loads, bow)
-    "pinned-pinned compression, all load types, sine bow":
-        ("pinned", "pinned", 0.6, MIXED_LOADS, {"shape": "sine", "amplitude": 0.02}),
-    "fixed-free compression, tip load and end couple, sway bow":
-        ("fixed", "free", 0.7,
-         [{"type": "point", "P": 3.0e3, "x": L}, {"type": "couple", "C": 2.0e3, "x": L},
-          {"type": "uniform", "q": 1.5e3, "start": 2.0}],
-         {"shape": "sway", "amplitude": 0.015}),
-    "fixed-pinned tension, partial load and couple, parabola bow":
-        ("fixed", "pinned", -2.0,
-         [{"type": "uniform", "q": -3.0e3, "start": 0.0, "end": 4.0},
-          {"type": "couple", "C": 5.0e3, "x": 1.5}],
-         {"shape": "parabola", "amplitude": -0.01}),
-    "fixed-fixed compression, point and linear loads":
-        ("fixed", "fixed", 0.8,
-         [{"type": "point", "P": 4.0e3, "x": 1.2}, {"type": "point", "P": -2.0e3, "x": 4.5},
-          {"type": "linear", "q_start": 3.0e3, "q_end": -1.0e3}],
-         None),
-    "fixed-guided compression, uniform load, sway bow":
-        ("fixed", "guided", 0.5, [{"type": "uniform", "q": 2.0e3}, {"type": "point", "P": 1.0e3, "x": L}],
-         {"shape": "sway", "amplitude": 0.02}),
-    "guided-pinned compression, couple at the guided end":
-        ("guided", "pinned", 0.4,
-         [{"type": "couple", "C": 3.0e3, "x": 0.0}, {"type": "linear", "q_start": 2.0e3, "q_end": 0.0,
-                                                     "start": 1.0, "end": 6.0}],
-         {"shape": "parabola", "amplitude": 0.01}),
-    "springs both ends compression, all load types":
-        ({"translation": 5.0e6, "rotation": 2.0e6}, {"translation": 8.0e6, "rotation": 5.0e5}, 0.75,
-         MIXED_LOADS, {"shape": "sine", "amplitude": -0.01}),
-    "mixed springs tension, concentrated loads at both ends":
-        ({"translation": "fixed", "rotation": 3.0e6}, {"translation": 2.0e6, "rotation": "free"}, -0.8,
-         [{"type": "couple", "C": 4.0e3, "x": 0.0}, {"type": "point", "P": 5.0e3, "x": L},
-          {"type": "point", "P": -2.0e3, "x": 0.0},
-          {"type": "uniform", "q": 1.0e3, "start": 3.0, "end": 6.0}],
-         {"shape": "sine", "amplitude": 0.01}),
-    "free-fixed compression (cantilever reversed), point at free end":
-        ("free", "fixed", 0.9, [{"type": "point", "P": 2.0e3, "x": 0.0}, {"type": "uniform", "q": 1.0e3}],
-         {"shape": "sway", "amplitude": -0.02}),
-    "springs at zero force":
-        ({"translation": 1.0e6, "rotation": "free"}, {"translation": 3.0e6, "rotation": 1.0e6}, 0.0,
-         MIXED_LOADS, None),
-    "pinned-fixed near critical (0.98 Pcr1), sine bow":
-        ("pinned", "fixed", 0.98, [{"type": "uniform", "q": 1.0e3}], {"shape": "sine", "amplitude": 0.005}),
+    "pinned-pinned compression, all load types, sine bow": (
+        "pinned",
+        "pinned",
+        0.6,
+        MIXED_LOADS,
+        {"shape": "sine", "amplitude": 0.02},
+    ),
+    "fixed-free compression, tip load and end couple, sway bow": (
+        "fixed",
+        "free",
+        0.7,
+        [
+            {"type": "point", "P": 3.0e3, "x": L},
+            {"type": "couple", "C": 2.0e3, "x": L},
+            {"type": "uniform", "q": 1.5e3, "start": 2.0},
+        ],
+        {"shape": "sway", "amplitude": 0.015},
+    ),
+    "fixed-pinned tension, partial load and couple, parabola bow": (
+        "fixed",
+        "pinned",
+        -2.0,
+        [
+            {"type": "uniform", "q": -3.0e3, "start": 0.0, "end": 4.0},
+            {"type": "couple", "C": 5.0e3, "x": 1.5},
+        ],
+        {"shape": "parabola", "amplitude": -0.01},
+    ),
+    "fixed-fixed compression, point and linear loads": (
+        "fixed",
+        "fixed",
+        0.8,
+        [
+            {"type": "point", "P": 4.0e3, "x": 1.2},
+            {"type": "point", "P": -2.0e3, "x": 4.5},
+            {"type": "linear", "q_start": 3.0e3, "q_end": -1.0e3},
+        ],
+        None,
+    ),
+    "fixed-guided compression, uniform load, sway bow": (
+        "fixed",
+        "guided",
+        0.5,
+        [{"type": "uniform", "q": 2.0e3}, {"type": "point", "P": 1.0e3, "x": L}],
+        {"shape": "sway", "amplitude": 0.02},
+    ),
+    "guided-pinned compression, couple at the guided end": (
+        "guided",
+        "pinned",
+        0.4,
+        [
+            {"type": "couple", "C": 3.0e3, "x": 0.0},
+            {"type": "linear", "q_start": 2.0e3, "q_end": 0.0, "start": 1.0, "end": 6.0},
+        ],
+        {"shape": "parabola", "amplitude": 0.01},
+    ),
+    "springs both ends compression, all load types": (
+        {"translation": 5.0e6, "rotation": 2.0e6},
+        {"translation": 8.0e6, "rotation": 5.0e5},
+        0.75,
+        MIXED_LOADS,
+        {"shape": "sine", "amplitude": -0.01},
+    ),
+    "mixed springs tension, concentrated loads at both ends": (
+        {"translation": "fixed", "rotation": 3.0e6},
+        {"translation": 2.0e6, "rotation": "free"},
+        -0.8,
+        [
+            {"type": "couple", "C": 4.0e3, "x": 0.0},
+            {"type": "point", "P": 5.0e3, "x": L},
+            {"type": "point", "P": -2.0e3, "x": 0.0},
+            {"type": "uniform", "q": 1.0e3, "start": 3.0, "end": 6.0},
+        ],
+        {"shape": "sine", "amplitude": 0.01},
+    ),
+    "free-fixed compression (cantilever reversed), point at free end": (
+        "free",
+        "fixed",
+        0.9,
+        [{"type": "point", "P": 2.0e3, "x": 0.0}, {"type": "uniform", "q": 1.0e3}],
+        {"shape": "sway", "amplitude": -0.02},
+    ),
+    "springs at zero force": (
+        {"translation": 1.0e6, "rotation": "free"},
+        {"translation": 3.0e6, "rotation": 1.0e6},
+        0.0,
+        MIXED_LOADS,
+        None,
+    ),
+    "pinned-fixed near critical (0.98 Pcr1), sine bow": (
+        "pinned",
+        "fixed",
+        0.98,
+        [{"type": "uniform", "q": 1.0e3}],
+        {"shape": "sine", "amplitude": 0.005},
+    ),
 }
 
 
 def _data(left, right, P, loads, bow):
-    data = {"schema": 1, "length": L, "EI": EI, "supports": {"left": left, "right": right},
-            "axial_force": P, "loads": loads}
+    data = {
+        "schema": 1,
+        "length": L,
+        "EI": EI,
+        "supports": {"left": left, "right": right},
+        "axial_force": P,
+        "loads": loads,
+    }
     if bow is not None:
         data["imperfection"] = bow
     return data
 
 
 def _first_critical(left, right):
-    return float(np.asarray(engine.critical_loads(
-        engine.Case.from_dict(_data(left, right, 0.0, [], None)), count=5).critical_loads)[0])
+    return float(
+        np.asarray(
+            engine.critical_loads(
+                engine.Case.from_dict(_data(left, right, 0.0, [], None)), count=5
+            ).critical_loads
+        )[0]
+    )
 
 
 def _couple_positions(loads):
@@ -96,8 +160,14 @@ def _couple_positions(loads):
 def _compare(result, ref, loads):
     """Assert engine arrays equal the reference at the stations, 1e-7 of each quantity's largest |value|."""
     x = np.asarray(result.x)
-    pairs = {"w": result.deflection, "rotation": result.rotation, "M": result.moment,
-             "V": result.shear, "T": result.transverse_force, "w0": result.initial_bow}
+    pairs = {
+        "w": result.deflection,
+        "rotation": result.rotation,
+        "M": result.moment,
+        "V": result.shear,
+        "T": result.transverse_force,
+        "w0": result.initial_bow,
+    }
     # M jumps at an interior couple; if the engine lists that station once, which side it holds is not in
     # the contract, so M is not compared there (w, rotation, V and T are continuous at a couple).
     skip_m = np.zeros(x.size, bool)
@@ -127,15 +197,18 @@ def test_engine_matches_reference(name):
 
 # ---------------------------------------------------------------- mode-shaped bow
 
+
 def _engine_mode_bow(left, right, amplitude):
     """(w0, dw0, d2w0) callables of the engine's first mode scaled to the amplitude, or None."""
     b = engine.critical_loads(engine.Case.from_dict(_data(left, right, 0.0, [], None)), count=5)
     if not hasattr(b, "mode_derivatives"):
         return None
     # the spec normalises the mode to a largest value of +1, so amplitude·mode has largest value +a
-    return (lambda x: amplitude * b.mode_derivatives(0, x)[0],
-            lambda x: amplitude * b.mode_derivatives(0, x)[1],
-            lambda x: amplitude * b.mode_derivatives(0, x)[2])
+    return (
+        lambda x: amplitude * b.mode_derivatives(0, x)[0],
+        lambda x: amplitude * b.mode_derivatives(0, x)[1],
+        lambda x: amplitude * b.mode_derivatives(0, x)[2],
+    )
 
 
 def _exact_mode(left, right):
@@ -147,16 +220,26 @@ def _exact_mode(left, right):
     if (left, right) == ("fixed", "pinned"):
         # w(0) = w'(0) = 0, w(L) = w''(L) = 0 on A sin zξ + B cos zξ + Cξ + D give tan z = z and
         # w = sin zξ + z(1 − ξ − cos zξ) [derived]; the peak is where w' = z cos zξ − z + z² sin zξ = 0.
-        z = brentq(lambda t: math.sin(t) - t * math.cos(t), math.pi + 1e-9, 1.5 * math.pi - 1e-9,
-                   xtol=1e-15, rtol=1e-15)
+        z = brentq(
+            lambda t: math.sin(t) - t * math.cos(t),
+            math.pi + 1e-9,
+            1.5 * math.pi - 1e-9,
+            xtol=1e-15,
+            rtol=1e-15,
+        )
 
         def raw(xi):
             return np.sin(z * xi) + z * (1 - xi - np.cos(z * xi))
 
         grid = np.linspace(0.0, 1.0, 2001)
         j = int(np.argmax(np.abs(raw(grid))))
-        xi_peak = brentq(lambda t: z * math.cos(z * t) - z + z * z * math.sin(z * t),
-                         grid[j - 1], grid[j + 1], xtol=1e-15, rtol=1e-15)
+        xi_peak = brentq(
+            lambda t: z * math.cos(z * t) - z + z * z * math.sin(z * t),
+            grid[j - 1],
+            grid[j + 1],
+            xtol=1e-15,
+            rtol=1e-15,
+        )
         peak = float(raw(xi_peak))
         return lambda x: raw(np.asarray(x) / L) / peak
     raise KeyError((left, right))

@@ -1,4 +1,4 @@
-"""The practitioners' approximations beside the exact amplification, each checked against its published form."""
+"""The practitioners' approximations beside the exact amplification, each checked against its source."""
 
 import math
 
@@ -11,9 +11,18 @@ PE = math.pi**2 * EI / L**2
 
 
 def _solve(left, right, loads, factor):
-    return engine.solve(engine.Case.from_dict({
-        "schema": 1, "length": L, "EI": EI, "supports": {"left": left, "right": right},
-        "axial_force": factor * PE, "loads": loads}))
+    return engine.solve(
+        engine.Case.from_dict(
+            {
+                "schema": 1,
+                "length": L,
+                "EI": EI,
+                "supports": {"left": left, "right": right},
+                "axial_force": factor * PE,
+                "loads": loads,
+            }
+        )
+    )
 
 
 def _by_name(result, start):
@@ -24,7 +33,9 @@ def test_equal_end_moments_single_curvature():
     """Single curvature: Cm = 1 (AISC 360-16 App. 8 eq. for Cm, from memory); exact amplification is sec u
     (Timoshenko & Gere 1961 ch. 1, article number from memory)."""
     M0 = 10e3
-    r = _solve("pinned", "pinned", [{"type": "couple", "C": M0, "x": 0.0}, {"type": "couple", "C": -M0, "x": L}], 0.5)
+    r = _solve(
+        "pinned", "pinned", [{"type": "couple", "C": M0, "x": 0.0}, {"type": "couple", "C": -M0, "x": L}], 0.5
+    )
     u = math.pi / 2 * math.sqrt(0.5)
     assert r.amplification.moment == pytest.approx(1 / math.cos(u), rel=1e-12)
     b1 = _by_name(r, "AISC B1")
@@ -34,24 +45,31 @@ def test_equal_end_moments_single_curvature():
 
 
 def test_equal_end_moments_reverse_curvature_floor():
-    """Reverse curvature: Cm = 0.6 − 0.4·(M1/M2) = 0.2 and B1 ≥ 1 holds it at 1 (AISC 360-16 App. 8, from memory)."""
+    """Reverse curvature: Cm = 0.6 − 0.4·(M1/M2) = 0.2; B1 ≥ 1 holds it at 1.
+
+    AISC 360-16 App. 8, from memory."""
     M0 = 10e3
-    r = _solve("pinned", "pinned", [{"type": "couple", "C": M0, "x": 0.0}, {"type": "couple", "C": M0, "x": L}], 0.3)
+    r = _solve(
+        "pinned", "pinned", [{"type": "couple", "C": M0, "x": 0.0}, {"type": "couple", "C": M0, "x": L}], 0.3
+    )
     b1 = _by_name(r, "AISC B1")
     assert "Cm = 0.200" in b1.name
     assert b1.value == 1.0
     assert r.amplification.moment == pytest.approx(1.0, abs=1e-12)  # the end moments govern
 
 
-@pytest.mark.parametrize(("left", "right", "load", "psi"), [
-    ("pinned", "pinned", {"type": "uniform", "q": 1e3}, 0.0),
-    ("fixed", "pinned", {"type": "uniform", "q": 1e3}, -0.4),
-    ("pinned", "fixed", {"type": "uniform", "q": 1e3}, -0.4),
-    ("fixed", "fixed", {"type": "uniform", "q": 1e3}, -0.4),
-    ("pinned", "pinned", {"type": "point", "P": 1e3, "x": L / 2}, -0.2),
-    ("fixed", "pinned", {"type": "point", "P": 1e3, "x": L / 2}, -0.3),
-    ("fixed", "fixed", {"type": "point", "P": 1e3, "x": L / 2}, -0.2),
-])
+@pytest.mark.parametrize(
+    ("left", "right", "load", "psi"),
+    [
+        ("pinned", "pinned", {"type": "uniform", "q": 1e3}, 0.0),
+        ("fixed", "pinned", {"type": "uniform", "q": 1e3}, -0.4),
+        ("pinned", "fixed", {"type": "uniform", "q": 1e3}, -0.4),
+        ("fixed", "fixed", {"type": "uniform", "q": 1e3}, -0.4),
+        ("pinned", "pinned", {"type": "point", "P": 1e3, "x": L / 2}, -0.2),
+        ("fixed", "pinned", {"type": "point", "P": 1e3, "x": L / 2}, -0.3),
+        ("fixed", "fixed", {"type": "point", "P": 1e3, "x": L / 2}, -0.2),
+    ],
+)
 def test_moment_gradient_form_uses_the_tabulated_psi(left, right, load, psi):
     """(1 + ψα)/(1 − α) with ψ of AISC 360-16 Commentary Table C-A-8.1 (case matching from memory), and its
     error against the exact amplification stays within the few per cent the table is known for."""
@@ -94,10 +112,19 @@ _Q, _E0 = 2.0e3, L / 250
 
 
 def _bowed(factor, bow=True):
-    return engine.solve(engine.Case.from_dict({
-        "schema": 1, "length": L, "EI": EI, "supports": {"left": "pinned", "right": "pinned"},
-        "axial_force": factor * PE, "loads": [{"type": "uniform", "q": _Q}],
-        "imperfection": {"shape": "sine", "amplitude": _E0} if bow else {"shape": "none"}}))
+    return engine.solve(
+        engine.Case.from_dict(
+            {
+                "schema": 1,
+                "length": L,
+                "EI": EI,
+                "supports": {"left": "pinned", "right": "pinned"},
+                "axial_force": factor * PE,
+                "loads": [{"type": "uniform", "q": _Q}],
+                "imperfection": {"shape": "sine", "amplitude": _E0} if bow else {"shape": "none"},
+            }
+        )
+    )
 
 
 def _udl_factor(alpha):

@@ -81,9 +81,14 @@ def test_sweep_takes_the_worse_direction_at_every_force():
 def test_capacity_uses_the_worse_direction():
     """The capacity with the automatic direction is the smaller of the two fixed directions' capacities (the
     utilisation at each trial force is the worse of both)."""
-    case = _demo(left=engine.EndSupport.named("fixed"), right=engine.EndSupport.named("free"),
-                 section={"name": "SHS 100x100x5"}, material={"name": "S355"},
-                 loads=(engine.PointLoad(P=-1.0e3, x=6.0),), axial_force=50e3)
+    case = _demo(
+        left=engine.EndSupport.named("fixed"),
+        right=engine.EndSupport.named("free"),
+        section={"name": "SHS 100x100x5"},
+        material={"name": "S355"},
+        loads=(engine.PointLoad(P=-1.0e3, x=6.0),),
+        axial_force=50e3,
+    )
     auto = engine.capacity(case).axial_force
     both = [engine.capacity(_direction(case, d)).axial_force for d in ("positive", "negative")]
     assert auto == pytest.approx(min(both), rel=1e-9)
@@ -91,15 +96,28 @@ def test_capacity_uses_the_worse_direction():
 
 
 @settings(max_examples=25, deadline=None)
-@given(q=st.floats(-5e3, 5e3), ratio=st.floats(-2.0, 0.95),
-       ends=st.sampled_from([("pinned", "pinned"), ("fixed", "pinned"), ("fixed", "fixed"), ("fixed", "free"),
-                             ("pinned", "guided")]))
+@given(
+    q=st.floats(-5e3, 5e3),
+    ratio=st.floats(-2.0, 0.95),
+    ends=st.sampled_from(
+        [
+            ("pinned", "pinned"),
+            ("fixed", "pinned"),
+            ("fixed", "fixed"),
+            ("fixed", "free"),
+            ("pinned", "guided"),
+        ]
+    ),
+)
 def test_automatic_direction_is_never_the_favourable_one(q, ratio, ends):
     """For any uniform load and axial force from strong tension to 0.95 Pcr1, the automatic direction's
     utilisation is the larger of the two fixed directions' (the code's unfavourable direction, EN 1993-1-1
     §5.3.2, from memory)."""
-    case = _demo(loads=(engine.UniformLoad(q=q),), left=engine.EndSupport.named(ends[0]),
-                 right=engine.EndSupport.named(ends[1]))
+    case = _demo(
+        loads=(engine.UniformLoad(q=q),),
+        left=engine.EndSupport.named(ends[0]),
+        right=engine.EndSupport.named(ends[1]),
+    )
     pcr1 = engine.solve(case).critical_loads[0]
     case = dataclasses.replace(case, axial_force=ratio * pcr1)
     auto = engine.solve(case).utilization

@@ -18,7 +18,9 @@ SPRING_SETS = [
 
 
 def _case(left, right, L=1.0, EI=1.0):
-    return engine.Case.from_dict({"schema": 1, "length": L, "EI": EI, "supports": {"left": left, "right": right}})
+    return engine.Case.from_dict(
+        {"schema": 1, "length": L, "EI": EI, "supports": {"left": left, "right": right}}
+    )
 
 
 @pytest.mark.parametrize(("left", "right"), SPRING_SETS)
@@ -47,7 +49,9 @@ def test_end_stiffness_is_symmetric():
 
 
 def test_zero_force_stiffness_is_the_textbook_beam_matrix():
-    """At λ → 0 the end stiffness is 12, 6, 4, 2 (EI/L³ units) of the classical beam element (common practice)."""
+    """At λ → 0 the end stiffness is 12, 6, 4, 2 (EI/L³ units) of the classical beam element.
+
+    Common practice, no source."""
     s0, s1 = _end_states(np.array([0.0]))
     disp = np.stack([s0[:, 0], s0[:, 1], s1[:, 0], s1[:, 1]], axis=1)
     force = np.stack([-s0[:, 3], s0[:, 2], s1[:, 3], -s1[:, 2]], axis=1)
@@ -99,8 +103,12 @@ def test_equal_extremes_make_the_left_one_positive():
     the tie is broken by making the extreme nearest the left end +1, so rounding never flips a mode bow."""
     for scale in (1.0, 1.5, 2.0):
         k = 0.1 / (3.0 * scale) ** 3  # soft: k L³/EI = 0.1, so the first mode is the near-rigid rotation
-        case = _case({"translation": k, "rotation": "free"}, {"translation": k, "rotation": "free"},
-                     L=3.0 * scale, EI=1.0)
+        case = _case(
+            {"translation": k, "rotation": "free"},
+            {"translation": k, "rotation": "free"},
+            L=3.0 * scale,
+            EI=1.0,
+        )
         x = np.linspace(0.0, case.length, 11)
         shape = engine.critical_loads(case).mode_shapes(x)[0]
         assert shape[0] == pytest.approx(1.0, abs=1e-9) and shape[-1] == pytest.approx(-1.0, abs=1e-9)

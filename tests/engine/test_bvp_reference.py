@@ -15,14 +15,20 @@ from tests.support.bvp_reference import reference_solution
 
 mpmath.mp.dps = 30
 
-L = 6.0            # [m], invented
-EI = 4.2e6         # [N·m²], invented
+L = 6.0  # [m], invented
+EI = 4.2e6  # [N·m²], invented
 P_E = math.pi**2 * EI / L**2
 
 
 def _case(left, right, P=0.0, loads=(), imperfection=None):
-    case = {"schema": 1, "length": L, "EI": EI, "supports": {"left": left, "right": right},
-            "axial_force": P, "loads": list(loads)}
+    case = {
+        "schema": 1,
+        "length": L,
+        "EI": EI,
+        "supports": {"left": left, "right": right},
+        "axial_force": P,
+        "loads": list(loads),
+    }
     if imperfection is not None:
         case["imperfection"] = imperfection
     return case
@@ -46,8 +52,9 @@ def test_udl_midspan_deflection_first_order():
 def test_udl_amplification_at_0p3_euler_load():
     """At P = 0.3 P_E the reference's mid-span deflection ratio is η(u), u = (π/2)√0.3."""
     q = 2.5e3
-    r = reference_solution(_case("pinned", "pinned", P=0.3 * P_E, loads=[{"type": "uniform", "q": q}]),
-                           [L / 2])
+    r = reference_solution(
+        _case("pinned", "pinned", P=0.3 * P_E, loads=[{"type": "uniform", "q": q}]), [L / 2]
+    )
     ratio = r["w"][0] / (5 * q * L**4 / (384 * EI))
     u = math.pi / 2 * math.sqrt(0.3)
     # η(u) = 12(2 sec u − 2 − u²)/(5u⁴), Timoshenko & Gere ch. 1 [derived in references.md §1]; rel 1e-8
@@ -108,13 +115,15 @@ def test_stiff_springs_tend_to_named_supports():
     xs = np.linspace(0.0, L, 13)
     fixed = reference_solution(_case("fixed", "pinned", P=0.4 * P_E, loads=loads), xs)
     springs = reference_solution(
-        _case({"translation": 1e18, "rotation": 1e18}, "pinned", P=0.4 * P_E, loads=loads), xs)
+        _case({"translation": 1e18, "rotation": 1e18}, "pinned", P=0.4 * P_E, loads=loads), xs
+    )
     # limit k → ∞ (conventions.md spring conditions); error ~ EI/(k L): rel 1e-8 of the peak
     np.testing.assert_allclose(springs["w"], fixed["w"], atol=1e-8 * np.max(np.abs(fixed["w"])))
     np.testing.assert_allclose(springs["M"], fixed["M"], atol=1e-8 * np.max(np.abs(fixed["M"])))
     free = reference_solution(_case("fixed", "free", P=0.1 * P_E, loads=loads), xs)
     zero = reference_solution(
-        _case("fixed", {"translation": 0.0, "rotation": 0.0}, P=0.1 * P_E, loads=loads), xs)
+        _case("fixed", {"translation": 0.0, "rotation": 0.0}, P=0.1 * P_E, loads=loads), xs
+    )
     # k = 0 is the free end exactly; rel 1e-10
     np.testing.assert_allclose(zero["w"], free["w"], rtol=1e-10)
 
@@ -123,21 +132,29 @@ def test_sine_bow_total_offset():
     """An initial sine bow a·sin(πx/L) gives total offset a/(1−α) in compression and a/(1+α) in tension."""
     a = 0.01
     for alpha, expected in [(0.3, a / 0.7), (-0.3, a / 1.3)]:
-        r = reference_solution(_case("pinned", "pinned", P=alpha * P_E,
-                                     imperfection={"shape": "sine", "amplitude": a}), [L / 2])
+        r = reference_solution(
+            _case("pinned", "pinned", P=alpha * P_E, imperfection={"shape": "sine", "amplitude": a}), [L / 2]
+        )
         # references.md §1 "initial sine bow" [memory; exact]; rel 1e-8
         assert r["w"][0] + r["w0"][0] == pytest.approx(expected, rel=1e-8)
 
 
 def test_transverse_equilibrium_with_mixed_loads():
     """T(0) − T(L) equals the total transverse load for springs, partial and linear loads and a couple."""
-    loads = [{"type": "uniform", "q": 2.0e3},
-             {"type": "linear", "q_start": 0.0, "q_end": 4.0e3, "start": 1.0, "end": 5.0},
-             {"type": "point", "P": 5.0e3, "x": 2.5},
-             {"type": "couple", "C": -3.0e3, "x": 4.0}]
+    loads = [
+        {"type": "uniform", "q": 2.0e3},
+        {"type": "linear", "q_start": 0.0, "q_end": 4.0e3, "start": 1.0, "end": 5.0},
+        {"type": "point", "P": 5.0e3, "x": 2.5},
+        {"type": "couple", "C": -3.0e3, "x": 4.0},
+    ]
     total = 2.0e3 * L + 0.5 * 4.0e3 * 4.0 + 5.0e3
-    case = _case({"translation": 2e6, "rotation": 1e6}, {"translation": "fixed", "rotation": 5e5},
-                 P=0.2 * P_E, loads=loads, imperfection={"shape": "parabola", "amplitude": 0.01})
+    case = _case(
+        {"translation": 2e6, "rotation": 1e6},
+        {"translation": "fixed", "rotation": 5e5},
+        P=0.2 * P_E,
+        loads=loads,
+        imperfection={"shape": "parabola", "amplitude": 0.01},
+    )
     r = reference_solution(case, [0.0, L])
     # conventions.md: T(0) − T(L) = total transverse load; rel 1e-9
     assert r["T"][0] - r["T"][1] == pytest.approx(total, rel=1e-9)
@@ -149,7 +166,10 @@ def test_transverse_equilibrium_with_mixed_loads():
 
 def test_reaches_requested_tolerance():
     """The reference reaches tol = 1e-10 on a multi-segment case without relaxing it."""
-    loads = [{"type": "point", "P": 5.0e3, "x": 1.0}, {"type": "couple", "C": 2.0e3, "x": 3.0},
-             {"type": "linear", "q_start": 1.0e3, "q_end": -2.0e3, "start": 2.0, "end": 5.5}]
+    loads = [
+        {"type": "point", "P": 5.0e3, "x": 1.0},
+        {"type": "couple", "C": 2.0e3, "x": 3.0},
+        {"type": "linear", "q_start": 1.0e3, "q_end": -2.0e3, "start": 2.0, "end": 5.5},
+    ]
     r = reference_solution(_case("fixed", "guided", P=0.8 * P_E, loads=loads), np.linspace(0, L, 11))
-    assert r["tol"] == 1e-10   # the requested tolerance, not a relaxed one
+    assert r["tol"] == 1e-10  # the requested tolerance, not a relaxed one

@@ -11,11 +11,20 @@ CURVES = ("a0", "a", "b", "c", "d")
 
 
 def _strut(length, curve, axis="minor", section="HEB 200"):
-    return engine.Case.from_dict({
-        "schema": 1, "title": "Invented check strut", "length": length,
-        "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 1.0e5,
-        "section": {"name": section}, "material": {"name": "S355"}, "axis": axis,
-        "imperfection": {"preset": "en1993-eq-5.9", "curve": curve}, "check": {"method": "elastic"}})
+    return engine.Case.from_dict(
+        {
+            "schema": 1,
+            "title": "Invented check strut",
+            "length": length,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 1.0e5,
+            "section": {"name": section},
+            "material": {"name": "S355"},
+            "axis": axis,
+            "imperfection": {"preset": "en1993-eq-5.9", "curve": curve},
+            "check": {"method": "elastic"},
+        }
+    )
 
 
 @pytest.mark.parametrize("curve", CURVES)
@@ -38,10 +47,18 @@ def test_eq_5_9_route_reproduces_chi_times_squash_load(curve, length):
 
 def test_capacity_is_where_the_utilisation_reaches_one():
     """Solving at the capacity found gives a strength utilisation of 1 to 1e-9; 1 % more exceeds 1."""
-    case = engine.Case.from_dict({
-        "schema": 1, "length": 6.0, "supports": {"left": "pinned", "right": "fixed"}, "axial_force": 2.0e5,
-        "section": {"name": "IPE 300"}, "material": {"name": "S275"},
-        "loads": [{"type": "uniform", "q": 4.0e3}], "imperfection": {"preset": "en1993-table-5.1"}})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 6.0,
+            "supports": {"left": "pinned", "right": "fixed"},
+            "axial_force": 2.0e5,
+            "section": {"name": "IPE 300"},
+            "material": {"name": "S275"},
+            "loads": [{"type": "uniform", "q": 4.0e3}],
+            "imperfection": {"preset": "en1993-table-5.1"},
+        }
+    )
     cap = engine.capacity(case)
     at = engine.solve(dataclasses.replace(case, axial_force=cap.axial_force))
     assert at.check.strength_utilization == pytest.approx(1.0, abs=1e-9)
@@ -51,30 +68,47 @@ def test_capacity_is_where_the_utilisation_reaches_one():
 
 def test_proportional_capacity_scales_every_load():
     """In proportional mode the factor λ on all loads gives utilisation 1 when applied to the whole case."""
-    case = engine.Case.from_dict({
-        "schema": 1, "length": 4.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 3.0e5,
-        "section": {"name": "HEA 200"}, "material": {"name": "S355"},
-        "loads": [{"type": "point", "P": 1.0e4, "x": 2.0}], "imperfection": {"preset": "aisc-l/1000"}})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 4.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 3.0e5,
+            "section": {"name": "HEA 200"},
+            "material": {"name": "S355"},
+            "loads": [{"type": "point", "P": 1.0e4, "x": 2.0}],
+            "imperfection": {"preset": "aisc-l/1000"},
+        }
+    )
     cap = engine.capacity(case, mode="proportional")
     assert cap.axial_force == pytest.approx(cap.load_factor * 3.0e5, rel=1e-12)
-    scaled = dataclasses.replace(case, axial_force=cap.axial_force,
-                                 loads=(engine.PointLoad(P=1.0e4 * cap.load_factor, x=2.0),))
+    scaled = dataclasses.replace(
+        case, axial_force=cap.axial_force, loads=(engine.PointLoad(P=1.0e4 * cap.load_factor, x=2.0),)
+    )
     assert engine.solve(scaled).check.strength_utilization == pytest.approx(1.0, abs=1e-9)
 
 
 def test_transverse_loads_alone_can_fail_the_member():
     """When the member is overstressed with no axial force the capacity is 0 and says why."""
-    case = engine.Case.from_dict({
-        "schema": 1, "length": 6.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 1.0e5,
-        "section": {"name": "IPE 200"}, "material": {"name": "S235"},
-        "loads": [{"type": "uniform", "q": 1.0e5}]})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 6.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 1.0e5,
+            "section": {"name": "IPE 200"},
+            "material": {"name": "S235"},
+            "loads": [{"type": "uniform", "q": 1.0e5}],
+        }
+    )
     cap = engine.capacity(case)
     assert cap.axial_force == 0.0 and cap.check == "transverse loads alone"
 
 
 def test_capacity_needs_a_section_and_material():
     """Without a section the capacity is a CaseError naming section."""
-    case = engine.Case.from_dict({"schema": 1, "length": 3.0, "EI": 1e6,
-                                  "supports": {"left": "pinned", "right": "pinned"}})
+    case = engine.Case.from_dict(
+        {"schema": 1, "length": 3.0, "EI": 1e6, "supports": {"left": "pinned", "right": "pinned"}}
+    )
     with pytest.raises(engine.CaseError, match="section"):
         engine.capacity(case)

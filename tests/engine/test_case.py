@@ -109,8 +109,7 @@ def test_from_dict_leaves_the_mapping_alone():
 def test_optional_keys_take_their_defaults():
     """A file with only length, EI and supports gets schema 1, no title, P = 0, no loads, no bow."""
     case = Case.from_dict({"length": 3, "EI": 1e6, "supports": {"left": "fixed", "right": "free"}})
-    assert case == Case(length=3.0, EI=1e6, left=FIXED,
-                        right=EndSupport(translation="free", rotation="free"))
+    assert case == Case(length=3.0, EI=1e6, left=FIXED, right=EndSupport(translation="free", rotation="free"))
     assert (case.schema, case.title, case.axial_force, case.loads) == (1, "", 0.0, ())
     assert case.imperfection == Imperfection(shape="none", amplitude=0.0)
 
@@ -223,8 +222,12 @@ def test_null_start_and_end_mean_the_member_ends():
 
 def test_load_types_are_class_attributes():
     """Each load class names its type, and the type is not a dataclass field."""
-    assert [cls.type for cls in (UniformLoad, LinearLoad, PointLoad, CoupleLoad)] == \
-        ["uniform", "linear", "point", "couple"]
+    assert [cls.type for cls in (UniformLoad, LinearLoad, PointLoad, CoupleLoad)] == [
+        "uniform",
+        "linear",
+        "point",
+        "couple",
+    ]
     assert "type" not in {f.name for f in dataclasses.fields(UniformLoad)}
 
 
@@ -320,27 +323,43 @@ BAD_INPUT = [
     (("set", "supports", "pinned"), "supports: 'pinned' is not an object"),
     (("delete", "supports.right"), "supports.right: required key is missing"),
     (("set", "supports.rigth", "pinned"), "supports: unknown key 'rigth' (did you mean 'right'?)"),
-    (("set", "supports.left", "pined"),
-     "supports.left: 'pined' is not a support name (did you mean 'pinned'?)"),
+    (
+        ("set", "supports.left", "pined"),
+        "supports.left: 'pined' is not a support name (did you mean 'pinned'?)",
+    ),
     (("set", "supports.left", 3), "supports.left: 3 is not allowed; it must be a support name"),
-    (("set", "supports.left", {"translation": "fix", "rotation": "free"}),
-     "supports.left.translation: 'fix' is not a restraint (did you mean 'fixed'?)"),
-    (("set", "supports.left", {"translation": -1, "rotation": "free"}),
-     "supports.left.translation: -1.0 N/m must be >= 0 and <= 1e+18 N/m"),
-    (("set", "supports.right", {"translation": "fixed", "rotation": 1e19}),
-     "supports.right.rotation: 1e+19 N·m/rad must be >= 0 and <= 1e+18 N·m/rad"),
-    (("set", "supports.right", {"translation": "fixed", "rotation": None}),
-     "supports.right.rotation: None is not allowed; it must be 'fixed', 'free' or a spring"),
+    (
+        ("set", "supports.left", {"translation": "fix", "rotation": "free"}),
+        "supports.left.translation: 'fix' is not a restraint (did you mean 'fixed'?)",
+    ),
+    (
+        ("set", "supports.left", {"translation": -1, "rotation": "free"}),
+        "supports.left.translation: -1.0 N/m must be >= 0 and <= 1e+18 N/m",
+    ),
+    (
+        ("set", "supports.right", {"translation": "fixed", "rotation": 1e19}),
+        "supports.right.rotation: 1e+19 N·m/rad must be >= 0 and <= 1e+18 N·m/rad",
+    ),
+    (
+        ("set", "supports.right", {"translation": "fixed", "rotation": None}),
+        "supports.right.rotation: None is not allowed; it must be 'fixed', 'free' or a spring",
+    ),
     (("set", "supports.right", {"translation": "fixed"}), "supports.right.rotation: required key is missing"),
-    (("set", "supports.right", {"translation": "fixed", "rotaton": "free"}),
-     "supports.right: unknown key 'rotaton' (did you mean 'rotation'?)"),
+    (
+        ("set", "supports.right", {"translation": "fixed", "rotaton": "free"}),
+        "supports.right: unknown key 'rotaton' (did you mean 'rotation'?)",
+    ),
     (("set", "loads", {"type": "uniform", "q": 1.0}), "loads: {'type': 'uniform', 'q': 1.0} is not a list"),
     (("set", "loads.1", 5), "loads[1]: 5 is not an object"),
     (("delete", "loads.0.type"), "loads[0].type: required key is missing"),
-    (("set", "loads.0.type", "unifrom"),
-     "loads[0].type: 'unifrom' is not a load type (did you mean 'uniform'?)"),
-    (("set", "loads.0.type", "distributed"),
-     "loads[0].type: 'distributed' is not a load type; allowed: 'uniform'"),
+    (
+        ("set", "loads.0.type", "unifrom"),
+        "loads[0].type: 'unifrom' is not a load type (did you mean 'uniform'?)",
+    ),
+    (
+        ("set", "loads.0.type", "distributed"),
+        "loads[0].type: 'distributed' is not a load type; allowed: 'uniform'",
+    ),
     (("delete", "loads.0.q"), "loads[0].q: required key is missing"),
     (("delete", "loads.2.q_end"), "loads[2].q_end: required key is missing"),
     (("delete", "loads.3.x"), "loads[3].x: required key is missing"),
@@ -360,14 +379,20 @@ BAD_INPUT = [
     (("set", "loads.2.start", 6.0), "loads[2].start: 6.0 m must be less than end (6.0 m)"),
     (("set", "loads.1.end", 0.5), "loads[1].start: 1.0 m must be less than end (0.5 m)"),
     (("set", "imperfection", "sine"), "imperfection: 'sine' is not an object"),
-    (("set", "imperfection.shape", "sin"),
-     "imperfection.shape: 'sin' is not a bow shape (did you mean 'sine'?)"),
+    (
+        ("set", "imperfection.shape", "sin"),
+        "imperfection.shape: 'sin' is not a bow shape (did you mean 'sine'?)",
+    ),
     (("set", "imperfection.shape", 1), "imperfection.shape: 1 is not a bow shape"),
-    (("set", "imperfection.amplitude", 0.7),
-     "imperfection.amplitude: 0.7 m is too large; |amplitude| must be <= length/10 = 0.6 m"),
+    (
+        ("set", "imperfection.amplitude", 0.7),
+        "imperfection.amplitude: 0.7 m is too large; |amplitude| must be <= length/10 = 0.6 m",
+    ),
     (("set", "imperfection.amplitude", "0.02"), "imperfection.amplitude: '0.02' is not a number"),
-    (("set", "imperfection.amplitud", 0.01),
-     "imperfection: unknown key 'amplitud' (did you mean 'amplitude'?)"),
+    (
+        ("set", "imperfection.amplitud", 0.01),
+        "imperfection: unknown key 'amplitud' (did you mean 'amplitude'?)",
+    ),
 ]
 
 
@@ -391,8 +416,11 @@ def test_bad_input_names_the_field(mutation, expected):
 def test_error_message_of_the_spec_example():
     """A point load beyond the end reads exactly like the example message of the spec."""
     mapping = example()
-    mapping["loads"] = [{"type": "uniform", "q": 1.0}, {"type": "uniform", "q": 2.0},
-                        {"type": "point", "P": 1.0, "x": 7.5}]
+    mapping["loads"] = [
+        {"type": "uniform", "q": 1.0},
+        {"type": "uniform", "q": 2.0},
+        {"type": "point", "P": 1.0, "x": 7.5},
+    ]
     assert error_of(mapping) == "loads[2].x: 7.5 m lies outside the member (0 to 6 m)"
 
 
@@ -499,7 +527,7 @@ def test_unknown_schema_is_refused(schema):
 
 
 def test_schema_one_point_zero_is_the_integer_one():
-    """"schema": 1.0 is read as 1, as JSON Schema draft 2020-12 counts it (the published schema agrees)."""
+    """ "schema": 1.0 is read as 1, as JSON Schema draft 2020-12 counts it (the published schema agrees)."""
     mapping = example()
     mapping["schema"] = 1.0
     case = Case.from_dict(mapping)
@@ -552,18 +580,26 @@ def test_positions_at_the_ends_are_accepted():
         (lambda: LinearLoad(q_start="1", q_end=2.0), "q_start: '1' is not a number"),
         (lambda: PointLoad(P=1.0, x=True), "x: True is a boolean, not a number"),
         (lambda: CoupleLoad(C=math.inf, x=1.0), "C: inf N·m is not finite"),
-        (lambda: EndSupport(translation="pinned", rotation="free"),
-         "translation: 'pinned' is not a restraint"),
+        (
+            lambda: EndSupport(translation="pinned", rotation="free"),
+            "translation: 'pinned' is not a restraint",
+        ),
         (lambda: EndSupport(translation="fixed", rotation=-5.0), "rotation: -5.0 N·m/rad must be >= 0"),
         (lambda: Imperfection(shape="bow"), "shape: 'bow' is not a bow shape"),
         (lambda: Imperfection(shape="sine", amplitude=math.nan), "amplitude: nan m is not finite"),
         (lambda: simple_case(left="pinned"), "left: 'pinned' is not an EndSupport"),
-        (lambda: simple_case(loads=PointLoad(P=1.0, x=1.0)),
-         "loads: PointLoad(P=1.0, x=1.0) is not a tuple or list"),
-        (lambda: simple_case(loads=(PointLoad(P=1.0, x=1.0), {"type": "point"})),
-         "loads[1]: {'type': 'point'} is not a load"),
-        (lambda: simple_case(loads=(PointLoad(P=1.0, x=9.0),)),
-         "loads[0].x: 9.0 m lies outside the member (0 to 6 m)"),
+        (
+            lambda: simple_case(loads=PointLoad(P=1.0, x=1.0)),
+            "loads: PointLoad(P=1.0, x=1.0) is not a tuple or list",
+        ),
+        (
+            lambda: simple_case(loads=(PointLoad(P=1.0, x=1.0), {"type": "point"})),
+            "loads[1]: {'type': 'point'} is not a load",
+        ),
+        (
+            lambda: simple_case(loads=(PointLoad(P=1.0, x=9.0),)),
+            "loads[0].x: 9.0 m lies outside the member (0 to 6 m)",
+        ),
         (lambda: simple_case(imperfection="sine"), "imperfection: 'sine' is not an Imperfection"),
         (lambda: simple_case(schema=2), "schema: 2 is not a known case-file schema version"),
         (lambda: simple_case(title=None), "title: None is not text"),

@@ -2,8 +2,6 @@
 
 import math
 
-import pytest
-
 import engine
 
 PINNED = {"left": "pinned", "right": "pinned"}
@@ -15,8 +13,13 @@ def _codes(mapping):
 
 
 def _steel(**extra):
-    base = {"section": {"name": "IPE 200"}, "material": {"name": "S355"}, "axial_force": 1.0e5,
-            "loads": [{"type": "uniform", "q": 2.0e3}], "imperfection": {"preset": "en1993-table-5.1"}}
+    base = {
+        "section": {"name": "IPE 200"},
+        "material": {"name": "S355"},
+        "axial_force": 1.0e5,
+        "loads": [{"type": "uniform", "q": 2.0e3}],
+        "imperfection": {"preset": "en1993-table-5.1"},
+    }
     base.update(extra)
     return base
 
@@ -50,7 +53,9 @@ def test_at_and_beyond_the_critical_load_are_danger():
     codes, r = _codes({"EI": 1e6, "axial_force": pcr})
     assert "at-critical-load" in codes and r.cautions[0].level == "danger"
     assert "beyond-critical-load" in _codes({"EI": 1e6, "axial_force": 2 * pcr})[0]
-    assert not {"at-critical-load", "beyond-critical-load"} & set(_codes({"EI": 1e6, "axial_force": 0.5 * pcr})[0])
+    assert not {"at-critical-load", "beyond-critical-load"} & set(
+        _codes({"EI": 1e6, "axial_force": 0.5 * pcr})[0]
+    )
 
 
 def test_tension_caution():
@@ -96,8 +101,9 @@ def test_overstress_and_deflection_fire_with_their_checks():
     codes, r = _codes(_steel(loads=[{"type": "uniform", "q": 1.0e3}], axial_force=1e3))
     assert r.check.strength_utilization < 1 and "overstressed" not in codes
     assert ("deflection" in codes) == (r.check.deflection_utilization > 1)
-    codes, r = _codes(_steel(loads=[{"type": "uniform", "q": 1.0e3}], axial_force=1e3,
-                             check={"deflection_limit": 5000}))
+    codes, r = _codes(
+        _steel(loads=[{"type": "uniform", "q": 1.0e3}], axial_force=1e3, check={"deflection_limit": 5000})
+    )
     assert r.check.deflection_utilization > 1 and "deflection" in codes
 
 
@@ -108,8 +114,12 @@ def test_bow_below_code_and_no_bow():
     big = _steel(imperfection={"shape": "sine", "amplitude": 0.03})
     assert "bow-below-code" not in _codes(big)[0]
     assert "no-bow" in _codes({"EI": 1e6, "axial_force": 1e3})[0]
-    assert "no-bow" not in _codes({"EI": 1e6, "axial_force": 1e3,
-                                   "imperfection": {"shape": "sine", "amplitude": 0.004}})[0]
+    assert (
+        "no-bow"
+        not in _codes({"EI": 1e6, "axial_force": 1e3, "imperfection": {"shape": "sine", "amplitude": 0.004}})[
+            0
+        ]
+    )
 
 
 def test_bow_opposing_the_load():

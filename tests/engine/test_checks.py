@@ -7,11 +7,18 @@ import pytest
 
 import engine
 
-BASE = {"schema": 1, "length": 4.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 3.0e5,
-        "section": {"name": "HEB 200"}, "material": {"name": "S355"},
-        "loads": [{"type": "uniform", "q": 1.5e4}], "imperfection": {"shape": "sine", "amplitude": 0.01},
-        # these tests check the in-plane criteria: out-of-plane buckling (test_out_of_plane.py) is braced here
-        "out_of_plane": {"restrained": True}}
+BASE = {
+    "schema": 1,
+    "length": 4.0,
+    "supports": {"left": "pinned", "right": "pinned"},
+    "axial_force": 3.0e5,
+    "section": {"name": "HEB 200"},
+    "material": {"name": "S355"},
+    "loads": [{"type": "uniform", "q": 1.5e4}],
+    "imperfection": {"shape": "sine", "amplitude": 0.01},
+    # these tests check the in-plane criteria: out-of-plane buckling (test_out_of_plane.py) is braced here
+    "out_of_plane": {"restrained": True},
+}
 
 
 def _solve(**changes):
@@ -53,12 +60,14 @@ def test_deflection_check_against_span_over_n():
     source), and as set."""
     no_bow = _solve(imperfection={"shape": "none"})
     r = _solve()
-    assert r.check.deflection_utilization == pytest.approx(np.abs(no_bow.deflection).max() / (4.0 / 250),
-                                                           rel=1e-12)
+    assert r.check.deflection_utilization == pytest.approx(
+        np.abs(no_bow.deflection).max() / (4.0 / 250), rel=1e-12
+    )
     assert r.service.utilization == r.check.deflection_utilization
     r = _solve(check={"deflection_limit": 500})
-    assert r.check.deflection_utilization == pytest.approx(np.abs(no_bow.deflection).max() / (4.0 / 500),
-                                                           rel=1e-12)
+    assert r.check.deflection_utilization == pytest.approx(
+        np.abs(no_bow.deflection).max() / (4.0 / 500), rel=1e-12
+    )
 
 
 def test_governing_value_position_and_kind():
@@ -73,16 +82,30 @@ def test_governing_value_position_and_kind():
 
 def test_plastic_check_falls_back_for_timber():
     """The plastic N–M rules are for steel sections: a timber case is checked elastically and says so."""
-    r = engine.solve(engine.Case.from_dict({
-        "schema": 1, "length": 3.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 2e4,
-        "section": {"name": "TIMBER 45x195"}, "material": {"name": "C24"}, "check": {"method": "plastic"},
-        "loads": [{"type": "uniform", "q": 1e3}], "imperfection": {"shape": "sine", "amplitude": 0.01}}))
+    r = engine.solve(
+        engine.Case.from_dict(
+            {
+                "schema": 1,
+                "length": 3.0,
+                "supports": {"left": "pinned", "right": "pinned"},
+                "axial_force": 2e4,
+                "section": {"name": "TIMBER 45x195"},
+                "material": {"name": "C24"},
+                "check": {"method": "plastic"},
+                "loads": [{"type": "uniform", "q": 1e3}],
+                "imperfection": {"shape": "sine", "amplitude": 0.01},
+            }
+        )
+    )
     assert r.check.strength_kind == "elastic stress" or r.check.kind == "deflection"
     assert any("elastic check is used instead" in note for note in r.check.notes)
 
 
 def test_no_check_without_a_section():
     """A case given only EI has no member check: utilization and check are None."""
-    r = engine.solve(engine.Case.from_dict({"schema": 1, "length": 3.0, "EI": 1e6,
-                                            "supports": {"left": "pinned", "right": "pinned"}}))
+    r = engine.solve(
+        engine.Case.from_dict(
+            {"schema": 1, "length": 3.0, "EI": 1e6, "supports": {"left": "pinned", "right": "pinned"}}
+        )
+    )
     assert r.check is None and r.utilization is None

@@ -30,8 +30,9 @@ def test_table_5_2_limits():
     assert epsilon(275e6) == pytest.approx(0.9244, abs=1e-4)
 
 
-@pytest.mark.parametrize(("ratio", "expected"), [(32.9, 1), (33.0, 1), (33.1, 2), (38.0, 2), (41.9, 3),
-                                                  (42.0, 3), (42.1, 4)])
+@pytest.mark.parametrize(
+    ("ratio", "expected"), [(32.9, 1), (33.0, 1), (33.1, 2), (38.0, 2), (41.9, 3), (42.0, 3), (42.1, 4)]
+)
 def test_class_boundaries_of_a_web_in_compression(ratio, expected):
     """A welded I web with c/t either side of 33ε/38ε/42ε (S235, ε = 1) is class 1/2/3/4 (Table 5.2)."""
     tw = 0.01
@@ -60,13 +61,16 @@ def test_web_in_bending_without_compression():
     assert _classes(spec, "S235", compression=True).parts[0].klass == 4
 
 
-@pytest.mark.parametrize(("name", "grade", "expected"), [
-    ("HEB 200", "S355", 1),      # c/t web 14.9, flange 5.2: stocky (common practice, no source)
-    ("IPE 200", "S355", 2),      # web c/t = 28.4 between 33ε = 26.8 and 38ε = 30.9
-    ("IPE 600", "S355", 4),      # web c/t = 42.8 > 42ε = 34.7 (f_y 345 MPa for t_f 19 mm): class 4
-    ("IPE 600", "S235", 3),      # f_y 225 MPa for t_f 19 mm: 42ε = 42.9 just above 42.8
-    ("CHS 114.3x5", "S355", 1),  # d/t = 22.9 <= 50ε² = 33.1
-])
+@pytest.mark.parametrize(
+    ("name", "grade", "expected"),
+    [
+        ("HEB 200", "S355", 1),  # c/t web 14.9, flange 5.2: stocky (common practice, no source)
+        ("IPE 200", "S355", 2),  # web c/t = 28.4 between 33ε = 26.8 and 38ε = 30.9
+        ("IPE 600", "S355", 4),  # web c/t = 42.8 > 42ε = 34.7 (f_y 345 MPa for t_f 19 mm): class 4
+        ("IPE 600", "S235", 3),  # f_y 225 MPa for t_f 19 mm: 42ε = 42.9 just above 42.8
+        ("CHS 114.3x5", "S355", 1),  # d/t = 22.9 <= 50ε² = 33.1
+    ],
+)
 def test_catalogue_sections_in_compression(name, grade, expected):
     """Catalogue sections in compression get the class Table 5.2 gives by hand (ratios worked beside)."""
     assert _classes({"name": name}, grade).klass == expected
@@ -85,12 +89,19 @@ def test_chs_limit_uses_epsilon_squared():
 def test_class_4_is_not_a_pass():
     """A class 4 section in compression: utilisation +inf, check not valid, a danger caution, capacity 0 with
     'class 4 section' (issue 12 item 10)."""
-    case = engine.Case.from_dict({
-        "schema": 1, "title": "Invented class 4 beam-column", "length": 4.0,
-        "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 50e3,
-        "loads": [{"type": "uniform", "q": 2e3}], "section": {"name": "IPE 600"},
-        "material": {"name": "S355"},
-        "imperfection": {"preset": "en1993-table-5.1"}})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "title": "Invented class 4 beam-column",
+            "length": 4.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 50e3,
+            "loads": [{"type": "uniform", "q": 2e3}],
+            "section": {"name": "IPE 600"},
+            "material": {"name": "S355"},
+            "imperfection": {"preset": "en1993-table-5.1"},
+        }
+    )
     r = engine.solve(case)
     assert r.check.section_class.klass == 4
     assert math.isinf(r.utilization) and not r.check.valid
@@ -107,10 +118,18 @@ def test_class_3_with_the_plastic_method_falls_back_to_elastic():
     """A class 3 section with the plastic method is checked elastically, and a note says so (EN 1993-1-1
     §6.2.9, plastic resistance needs class 1 or 2)."""
     spec = {"shape": "welded_i", "h": 0.424, "b": 0.2, "tw": 0.01, "tf": 0.012}  # web c/t = 40: class 3
-    case = engine.Case.from_dict({
-        "schema": 1, "length": 4.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 100e3,
-        "loads": [{"type": "uniform", "q": 5e3}], "section": spec, "material": {"name": "S235"},
-        "check": {"method": "plastic"}})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 4.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 100e3,
+            "loads": [{"type": "uniform", "q": 5e3}],
+            "section": spec,
+            "material": {"name": "S235"},
+            "check": {"method": "plastic"},
+        }
+    )
     r = engine.solve(case)
     assert r.check.section_class.klass == 3
     assert r.check.in_plane_kind == "elastic stress"
@@ -122,8 +141,14 @@ def test_alpha_cr_limit_is_ten_for_an_elastic_analysis():
     """EN 1993-1-1 §5.2.1(3) eq. (5.1) (from memory): 10 for elastic, 15 for plastic GLOBAL analysis; the
     caution uses 10 with the plastic cross-section check too (strutscope's analysis is elastic)."""
     assert codes.alpha_cr_limit("elastic") == 10.0 and codes.alpha_cr_limit("plastic") == 15.0
-    base = {"schema": 1, "length": 6.0, "supports": {"left": "pinned", "right": "pinned"},
-            "section": {"name": "HEB 200"}, "material": {"name": "S355"}, "check": {"method": "plastic"}}
+    base = {
+        "schema": 1,
+        "length": 6.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S355"},
+        "check": {"method": "plastic"},
+    }
     pcr = engine.solve(engine.Case.from_dict(base)).critical_loads[0]
     r = engine.solve(engine.Case.from_dict({**base, "axial_force": pcr / 12}))  # α_cr = 12: 10 < 12 < 15
     assert "second-order-matters" not in [c.code for c in r.cautions]
@@ -135,9 +160,14 @@ def test_alpha_cr_limit_is_ten_for_an_elastic_analysis():
 def test_above_the_critical_load_the_member_fails():
     """Issue 12 item 4: SHS 100×100×5, 10 m, N = 1.5 Pcr1: utilisation +inf (not 0.50), check not valid, kind
     'elastic buckling' (Euler: no stable equilibrium above Pcr1, Timoshenko & Gere 1961 ch. 2)."""
-    base = {"schema": 1, "length": 10.0, "supports": {"left": "pinned", "right": "pinned"},
-            "section": {"name": "SHS 100x100x5"}, "material": {"name": "S355"},
-            "imperfection": {"preset": "en1993-table-5.1"}}
+    base = {
+        "schema": 1,
+        "length": 10.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "section": {"name": "SHS 100x100x5"},
+        "material": {"name": "S355"},
+        "imperfection": {"preset": "en1993-table-5.1"},
+    }
     pcr = engine.solve(engine.Case.from_dict(base)).critical_loads[0]
     r = engine.solve(engine.Case.from_dict({**base, "axial_force": 1.5 * pcr}))
     assert r.status == "unstable"

@@ -15,19 +15,18 @@ import math
 import numpy as np
 import pytest
 
+import engine
 from tests.support import closed_forms as cf
 
-import engine
-
-L = 6.0            # [m], invented
-EI = 4.2e6         # [N·m²], invented
+L = 6.0  # [m], invented
+EI = 4.2e6  # [N·m²], invented
 P_E = math.pi**2 * EI / L**2
-Q = 1.0e4          # [N], invented
-q = 2.5e3          # [N/m], invented
-M0 = 2.0e4         # [N·m], invented
+Q = 1.0e4  # [N], invented
+q = 2.5e3  # [N/m], invented
+M0 = 2.0e4  # [N·m], invented
 
-TABLE_ABS = 1e-6   # table of references.md §1 is given to 6 decimals
-MP_REL = 1e-10     # against the mpmath forms
+TABLE_ABS = 1e-6  # table of references.md §1 is given to 6 decimals
+MP_REL = 1e-10  # against the mpmath forms
 
 # references.md §1 check values [derived]: P/P_E -> (u, η, λ, χ, sec u, η_t, λ_t, χ_t, sech u)
 TABLE = {
@@ -37,8 +36,14 @@ TABLE = {
 
 
 def _case(P, loads, left="pinned", right="pinned", imperfection=None, length=L, EI_=EI):
-    data = {"schema": 1, "length": length, "EI": EI_, "supports": {"left": left, "right": right},
-            "axial_force": P, "loads": loads}
+    data = {
+        "schema": 1,
+        "length": length,
+        "EI": EI_,
+        "supports": {"left": left, "right": right},
+        "axial_force": P,
+        "loads": loads,
+    }
     if imperfection is not None:
         data["imperfection"] = imperfection
     return engine.Case.from_dict(data)
@@ -78,6 +83,7 @@ def _ratios(P):
 
 # ---------------------------------------------------------------- first-order (P = 0)
 
+
 def test_first_order_uniform_load():
     """At P = 0 a uniform load gives 5qL⁴/384EI and qL²/8 at mid-span."""
     r = _uniform(0.0)
@@ -111,8 +117,11 @@ def test_first_order_off_centre_point_load():
     x = np.asarray(r.x)
     left = x <= a
     # simply supported beam, point load, common practice, no source; atol 1e-12 of the peak
-    w_ref = np.where(left, Q * b * x * (L**2 - b**2 - x**2) / (6 * L * EI),
-                     Q * a * (L - x) * (L**2 - a**2 - (L - x)**2) / (6 * L * EI))
+    w_ref = np.where(
+        left,
+        Q * b * x * (L**2 - b**2 - x**2) / (6 * L * EI),
+        Q * a * (L - x) * (L**2 - a**2 - (L - x) ** 2) / (6 * L * EI),
+    )
     m_ref = np.where(left, Q * b * x / L, Q * a * (L - x) / L)
     np.testing.assert_allclose(r.deflection, w_ref, rtol=0, atol=1e-12 * np.max(np.abs(w_ref)))
     np.testing.assert_allclose(r.moment, m_ref, rtol=0, atol=1e-12 * np.max(np.abs(m_ref)))
@@ -132,6 +141,7 @@ def test_first_order_result_is_the_zero_force_solve():
 
 
 # ---------------------------------------------------------------- the check-value table
+
 
 @pytest.mark.parametrize("ratio", [0.3, 0.7])
 def test_compression_table(ratio):
@@ -184,8 +194,9 @@ def test_tension_table_mpmath(ratio):
     got = _ratios(P)
     want = (cf.eta_t(u), cf.lam_t(u), cf.chi_t(u), cf.tanh_ratio(u), cf.lam_t(u), cf.sech(u))
     # Timoshenko & Gere ch. 1 forms with u → iu, mpmath 30 digits; rel 1e-10
-    for name, g, w in zip(("eta_t", "lam_t", "chi_t", "tanh u/u", "lam_t (end M)", "sech u"), got, want,
-                          strict=True):
+    for name, g, w in zip(
+        ("eta_t", "lam_t", "chi_t", "tanh u/u", "lam_t (end M)", "sech u"), got, want, strict=True
+    ):
         assert g == pytest.approx(float(w), rel=MP_REL), name
 
 
@@ -200,6 +211,7 @@ def test_amplification_factors_of_uniform_load():
 
 
 # ---------------------------------------------------------------- whole diagrams
+
 
 @pytest.mark.parametrize("sign", [1.0, -1.0], ids=["compression", "tension"])
 def test_uniform_load_moment_diagram(sign):
@@ -230,7 +242,7 @@ def test_off_centre_point_load_diagrams(sign):
     r = engine.solve(_case(P, [{"type": "point", "P": Q, "x": a}]), stations=401)
     x = np.asarray(r.x)
     left = x <= a
-    xx = np.where(left, x, L - x)         # mirror for x ≥ a: swap a and b [derived]
+    xx = np.where(left, x, L - x)  # mirror for x ≥ a: swap a and b [derived]
     cc = np.where(left, b, a)
     if sign > 0:
         # references.md §1: w = Q sin kb sin kx /(P k sin kL) − Qbx/(PL), M = Q sin kb sin kx /(k sin kL)
@@ -243,10 +255,12 @@ def test_off_centre_point_load_diagrams(sign):
     np.testing.assert_allclose(r.moment, m_ref, rtol=0, atol=1e-10 * np.max(np.abs(m_ref)))
     np.testing.assert_allclose(r.deflection, w_ref, rtol=0, atol=1e-10 * np.max(np.abs(w_ref)))
     i = _at(r, a)
-    assert r.moment[i] == pytest.approx(Q * math.sin(k * b) * math.sin(k * a) / (k * math.sin(k * L))
-                                        if sign > 0 else
-                                        Q * math.sinh(k * b) * math.sinh(k * a) / (k * math.sinh(k * L)),
-                                        rel=1e-10)
+    assert r.moment[i] == pytest.approx(
+        Q * math.sin(k * b) * math.sin(k * a) / (k * math.sin(k * L))
+        if sign > 0
+        else Q * math.sinh(k * b) * math.sinh(k * a) / (k * math.sinh(k * L)),
+        rel=1e-10,
+    )
 
 
 def test_off_centre_point_load_peak_away_from_load():
@@ -266,10 +280,11 @@ def test_off_centre_point_load_peak_away_from_load():
     # the peak is a station (conventions.md: stations include V = 0), so the array maximum equals it;
     # rel 1e-12
     assert np.max(np.abs(r.moment)) == pytest.approx(abs(peak.value), rel=1e-12)
-    assert abs(b * k) > math.pi / 2   # precondition of the statement in references.md §1
+    assert abs(b * k) > math.pi / 2  # precondition of the statement in references.md §1
 
 
 # ---------------------------------------------------------------- initial sine bow
+
 
 def test_sine_bow_compression():
     """A sine bow a·sin(πx/L) under P = αP_E gives total offset a/(1 − α) and moment Pa/(1 − α) mid-span."""
@@ -282,8 +297,9 @@ def test_sine_bow_compression():
     assert r.governing.total_offset.value == pytest.approx(a / (1 - alpha), rel=MP_REL)
     assert r.governing.moment.value == pytest.approx(P * a / (1 - alpha), rel=MP_REL)
     # the whole shape stays a sine [derived]; atol 1e-10·a
-    np.testing.assert_allclose(r.total_offset, a / (1 - alpha) * np.sin(np.pi * np.asarray(r.x) / L),
-                               rtol=0, atol=1e-10 * a)
+    np.testing.assert_allclose(
+        r.total_offset, a / (1 - alpha) * np.sin(np.pi * np.asarray(r.x) / L), rtol=0, atol=1e-10 * a
+    )
     np.testing.assert_allclose(r.initial_bow, a * np.sin(np.pi * np.asarray(r.x) / L), rtol=0, atol=1e-14 * a)
 
 
@@ -331,17 +347,17 @@ def test_near_critical():
     for name, g, w in zip(("eta", "lam", "chi", "tan", "lam end", "sec"), got, want, strict=True):
         assert g == pytest.approx(float(w), rel=1e-9), name
     r = _uniform(P)
-    assert r.status == "stable" and r.stable   # conventions/spec: stable below the first critical load
+    assert r.status == "stable" and r.stable  # conventions/spec: stable below the first critical load
 
 
 STRONG_U = [10.0, 100.0, 709.0, 711.0, 1000.0, 1e4]
-L_T, EI_T = 10.0, 1.0e5   # [m], [N·m²] invented, so that |P| = 4u²EI/L² stays within 1e12 N at u = 1e4
+L_T, EI_T = 10.0, 1.0e5  # [m], [N·m²] invented, so that |P| = 4u²EI/L² stays within 1e12 N at u = 1e4
 
 
 @pytest.mark.parametrize("u", STRONG_U)
 def test_strong_tension(u):
     """In strong tension (u to 1e4; cosh overflows past 710) η_t, λ_t, χ_t, sech u stay finite, accurate."""
-    P = -(2 * u / L_T) ** 2 * EI_T
+    P = -((2 * u / L_T) ** 2) * EI_T
     uu = cf.u_of(P, EI_T, L_T)
     kw = {"length": L_T, "EI_": EI_T}
     ru = engine.solve(_case(P, [{"type": "uniform", "q": q}], **kw), stations=401)
@@ -357,8 +373,14 @@ def test_strong_tension(u):
         "lam_t end": rm.deflection[im] / (M0 * L_T**2 / (8 * EI_T)),
         "sech u": rm.moment[im] / M0,
     }
-    want = {"eta_t": cf.eta_t(uu), "lam_t": cf.lam_t(uu), "chi_t": cf.chi_t(uu),
-            "tanh u/u": cf.tanh_ratio(uu), "lam_t end": cf.lam_t(uu), "sech u": cf.sech(uu)}
+    want = {
+        "eta_t": cf.eta_t(uu),
+        "lam_t": cf.lam_t(uu),
+        "chi_t": cf.chi_t(uu),
+        "tanh u/u": cf.tanh_ratio(uu),
+        "lam_t end": cf.lam_t(uu),
+        "sech u": cf.sech(uu),
+    }
     for r in (ru, rc, rm):
         for arr in (r.deflection, r.rotation, r.moment, r.shear, r.transverse_force):
             assert np.all(np.isfinite(arr))

@@ -107,8 +107,10 @@ def test_curves_are_ordered():
         assert all(b < a for a, b in zip(chis, chis[1:], strict=False))
 
 
-@pytest.mark.parametrize(("lam", "curve", "field"), [(-0.1, "b", "lambda_bar"), (math.nan, "b", "lambda_bar"),
-                                                     (1.0, "e", "curve"), (1.0, "B", "curve")])
+@pytest.mark.parametrize(
+    ("lam", "curve", "field"),
+    [(-0.1, "b", "lambda_bar"), (math.nan, "b", "lambda_bar"), (1.0, "e", "curve"), (1.0, "B", "curve")],
+)
 def test_reduction_factor_rejects_bad_input(lam, curve, field):
     """A negative or NaN slenderness or an unknown curve is a CaseError naming the argument."""
     with pytest.raises(CaseError, match=rf"^{field}: "):
@@ -135,8 +137,15 @@ def test_slenderness_of_an_unbuckling_member_is_zero():
     assert slenderness(1e-3, 3.55e8, math.inf) == 0.0
 
 
-@pytest.mark.parametrize(("args", "field"), [((0.0, 3.55e8, 1e6), "A"), ((1e-3, -3.55e8, 1e6), "fy"),
-                                             ((1e-3, 3.55e8, 0.0), "N_cr"), ((1e-3, "355", 1e6), "fy")])
+@pytest.mark.parametrize(
+    ("args", "field"),
+    [
+        ((0.0, 3.55e8, 1e6), "A"),
+        ((1e-3, -3.55e8, 1e6), "fy"),
+        ((1e-3, 3.55e8, 0.0), "N_cr"),
+        ((1e-3, "355", 1e6), "fy"),
+    ],
+)
 def test_slenderness_rejects_bad_input(args, field):
     """Area, yield strength and critical force must be > 0; the message names the argument."""
     with pytest.raises(CaseError, match=rf"^{field}: "):
@@ -163,38 +172,47 @@ def test_bow_ratio_rejects_unknown_analysis():
 
 
 def _curve(**kwargs):
-    arguments = {"shape": "rolled_i", "manufacture": "rolled", "axis": "y", "h_over_b": 2.0, "t_max": 0.0107,
-                 "grade": "S355"}
+    arguments = {
+        "shape": "rolled_i",
+        "manufacture": "rolled",
+        "axis": "y",
+        "h_over_b": 2.0,
+        "t_max": 0.0107,
+        "grade": "S355",
+    }
     arguments.update(kwargs)
     return buckling_curve(**arguments)
 
 
-@pytest.mark.parametrize(("kwargs", "expected"), [
-    # IPE 300: h/b = 300/150 = 2.0, t_f = 10.7 mm (references.md §5).
-    ({"h_over_b": 2.0, "t_max": 0.0107}, ("a", "b")),
-    ({"h_over_b": 2.0, "t_max": 0.0107, "grade": "S460"}, ("a0", "a0")),
-    # Rolled h/b > 1.2, 40 < t_f <= 100 mm.
-    ({"h_over_b": 1.5, "t_max": 0.050}, ("b", "c")),
-    ({"h_over_b": 1.5, "t_max": 0.050, "grade": "S460"}, ("a", "a")),
-    # HEB 200: h/b = 200/200 = 1.0, t_f = 15 mm (references.md §5).
-    ({"h_over_b": 1.0, "t_max": 0.015}, ("b", "c")),
-    ({"h_over_b": 1.0, "t_max": 0.015, "grade": "S460"}, ("a", "a")),
-    # Rolled h/b <= 1.2, t_f > 100 mm.
-    ({"h_over_b": 1.1, "t_max": 0.110}, ("d", "d")),
-    ({"h_over_b": 1.1, "t_max": 0.110, "grade": "S460"}, ("c", "c")),
-    # Welded I.
-    ({"shape": "welded_i", "manufacture": "welded", "t_max": 0.020, "h_over_b": None}, ("b", "c")),
-    ({"shape": "welded_i", "manufacture": "welded", "t_max": 0.060, "h_over_b": None}, ("c", "d")),
-    ({"shape": "welded_i", "manufacture": "", "t_max": 0.060, "grade": "S460"}, ("c", "d")),
-    # Hollow sections.
-    ({"shape": "rhs", "manufacture": "hot_finished", "t_max": 0.005}, ("a", "a")),
-    ({"shape": "chs", "manufacture": "hot_finished", "t_max": 0.005, "grade": "S460"}, ("a0", "a0")),
-    ({"shape": "rhs", "manufacture": "cold_formed", "t_max": 0.005}, ("c", "c")),
-    ({"shape": "chs", "manufacture": "cold_formed", "t_max": 0.005, "grade": "S460"}, ("c", "c")),
-    # Solid sections.
-    ({"shape": "rectangle", "manufacture": "", "t_max": 0.040, "grade": "S460"}, ("c", "c")),
-    ({"shape": "round", "manufacture": "rolled", "t_max": 0.040}, ("c", "c")),
-])
+@pytest.mark.parametrize(
+    ("kwargs", "expected"),
+    [
+        # IPE 300: h/b = 300/150 = 2.0, t_f = 10.7 mm (references.md §5).
+        ({"h_over_b": 2.0, "t_max": 0.0107}, ("a", "b")),
+        ({"h_over_b": 2.0, "t_max": 0.0107, "grade": "S460"}, ("a0", "a0")),
+        # Rolled h/b > 1.2, 40 < t_f <= 100 mm.
+        ({"h_over_b": 1.5, "t_max": 0.050}, ("b", "c")),
+        ({"h_over_b": 1.5, "t_max": 0.050, "grade": "S460"}, ("a", "a")),
+        # HEB 200: h/b = 200/200 = 1.0, t_f = 15 mm (references.md §5).
+        ({"h_over_b": 1.0, "t_max": 0.015}, ("b", "c")),
+        ({"h_over_b": 1.0, "t_max": 0.015, "grade": "S460"}, ("a", "a")),
+        # Rolled h/b <= 1.2, t_f > 100 mm.
+        ({"h_over_b": 1.1, "t_max": 0.110}, ("d", "d")),
+        ({"h_over_b": 1.1, "t_max": 0.110, "grade": "S460"}, ("c", "c")),
+        # Welded I.
+        ({"shape": "welded_i", "manufacture": "welded", "t_max": 0.020, "h_over_b": None}, ("b", "c")),
+        ({"shape": "welded_i", "manufacture": "welded", "t_max": 0.060, "h_over_b": None}, ("c", "d")),
+        ({"shape": "welded_i", "manufacture": "", "t_max": 0.060, "grade": "S460"}, ("c", "d")),
+        # Hollow sections.
+        ({"shape": "rhs", "manufacture": "hot_finished", "t_max": 0.005}, ("a", "a")),
+        ({"shape": "chs", "manufacture": "hot_finished", "t_max": 0.005, "grade": "S460"}, ("a0", "a0")),
+        ({"shape": "rhs", "manufacture": "cold_formed", "t_max": 0.005}, ("c", "c")),
+        ({"shape": "chs", "manufacture": "cold_formed", "t_max": 0.005, "grade": "S460"}, ("c", "c")),
+        # Solid sections.
+        ({"shape": "rectangle", "manufacture": "", "t_max": 0.040, "grade": "S460"}, ("c", "c")),
+        ({"shape": "round", "manufacture": "rolled", "t_max": 0.040}, ("c", "c")),
+    ],
+)
 def test_buckling_curve_table_6_2(kwargs, expected):
     """Curves about y–y and z–z for representative sections (EN 1993-1-1 Table 6.2, cells from memory)."""
     got = tuple(_curve(axis=axis, **kwargs)[0] for axis in ("y", "z"))
@@ -204,8 +222,9 @@ def test_buckling_curve_table_6_2(kwargs, expected):
     assert reason.endswith(f"buckling about z–z: curve {expected[1]}")
 
 
-@pytest.mark.parametrize(("t_max", "expected"), [(0.040, ("a", "b")), (0.0401, ("b", "c")),
-                                                 (0.100, ("b", "c"))])
+@pytest.mark.parametrize(
+    ("t_max", "expected"), [(0.040, ("a", "b")), (0.0401, ("b", "c")), (0.100, ("b", "c"))]
+)
 def test_buckling_curve_flange_thickness_edges(t_max, expected):
     """t_f = 40 mm is in the 't_f <= 40 mm' row and 100 mm in the '<= 100 mm' row (Table 6.2, from memory)."""
     assert tuple(_curve(h_over_b=2.0, t_max=t_max, axis=axis)[0] for axis in ("y", "z")) == expected
@@ -239,15 +258,19 @@ def test_buckling_curve_other_grades_take_the_ordinary_column(grade):
     assert "S235 to S420" in reason
 
 
-@pytest.mark.parametrize(("kwargs", "expected"), [
-    ({"axis": "major"}, "a"), ({"axis": "minor"}, "b"),
-    ({"shape": "rhs", "manufacture": "hot-finished", "t_max": None}, "a"),
-    ({"shape": "chs", "manufacture": "cold-formed", "t_max": None}, "c"),
-    ({"shape": "rectangle", "manufacture": "solid", "t_max": None}, "c"),
-    ({"shape": "round", "manufacture": "solid", "t_max": 0.03}, "c"),
-    ({"shape": "custom", "manufacture": "custom", "t_max": None, "h_over_b": None}, "c"),
-    ({"shape": "rolled_i", "manufacture": "custom"}, "a"),
-])
+@pytest.mark.parametrize(
+    ("kwargs", "expected"),
+    [
+        ({"axis": "major"}, "a"),
+        ({"axis": "minor"}, "b"),
+        ({"shape": "rhs", "manufacture": "hot-finished", "t_max": None}, "a"),
+        ({"shape": "chs", "manufacture": "cold-formed", "t_max": None}, "c"),
+        ({"shape": "rectangle", "manufacture": "solid", "t_max": None}, "c"),
+        ({"shape": "round", "manufacture": "solid", "t_max": 0.03}, "c"),
+        ({"shape": "custom", "manufacture": "custom", "t_max": None, "h_over_b": None}, "c"),
+        ({"shape": "rolled_i", "manufacture": "custom"}, "a"),
+    ],
+)
 def test_buckling_curve_reads_the_section_vocabulary(kwargs, expected):
     """'major'/'minor', hyphenated manufactures, 'solid' and 'custom' are read; t_max may be None off I."""
     assert _curve(**kwargs)[0] == expected
@@ -265,19 +288,28 @@ def test_buckling_curve_reads_s460_subgrades():
     assert _curve(grade="s460 m", axis="z")[0] == "a0"
 
 
-@pytest.mark.parametrize(("kwargs", "pattern"), [
-    ({"shape": "rolled_I"}, r"^shape: 'rolled_I' is not allowed \(did you mean 'rolled_i'\?\)"),
-    ({"axis": "x"}, r"^axis: 'x' is not allowed; allowed: 'y', 'z', 'major', 'minor'"),
-    ({"shape": "welded_i", "manufacture": "welded", "t_max": None}, r"^t_max: required for shape 'welded_i'"),
-    ({"manufacture": "hot-rolled"}, r"^manufacture: 'hot-rolled' is not allowed"),
-    ({"manufacture": "welded"}, r"^manufacture: 'welded' does not fit shape 'rolled_i'"),
-    ({"shape": "rhs", "manufacture": ""}, r"^manufacture: '' does not fit shape 'rhs'; "
-                                          r"allowed: 'hot_finished', 'cold_formed'"),
-    ({"h_over_b": None}, r"^h_over_b: required for shape 'rolled_i'"),
-    ({"h_over_b": -2.0}, r"^h_over_b: -2\.0 must be finite and > 0"),
-    ({"t_max": 0.0}, r"^t_max: 0\.0 m must be finite and > 0"),
-    ({"grade": 355}, r"^grade: 355 must be a string"),
-])
+@pytest.mark.parametrize(
+    ("kwargs", "pattern"),
+    [
+        ({"shape": "rolled_I"}, r"^shape: 'rolled_I' is not allowed \(did you mean 'rolled_i'\?\)"),
+        ({"axis": "x"}, r"^axis: 'x' is not allowed; allowed: 'y', 'z', 'major', 'minor'"),
+        (
+            {"shape": "welded_i", "manufacture": "welded", "t_max": None},
+            r"^t_max: required for shape 'welded_i'",
+        ),
+        ({"manufacture": "hot-rolled"}, r"^manufacture: 'hot-rolled' is not allowed"),
+        ({"manufacture": "welded"}, r"^manufacture: 'welded' does not fit shape 'rolled_i'"),
+        (
+            {"shape": "rhs", "manufacture": ""},
+            r"^manufacture: '' does not fit shape 'rhs'; "
+            r"allowed: 'hot_finished', 'cold_formed'",
+        ),
+        ({"h_over_b": None}, r"^h_over_b: required for shape 'rolled_i'"),
+        ({"h_over_b": -2.0}, r"^h_over_b: -2\.0 must be finite and > 0"),
+        ({"t_max": 0.0}, r"^t_max: 0\.0 m must be finite and > 0"),
+        ({"grade": 355}, r"^grade: 355 must be a string"),
+    ],
+)
 def test_buckling_curve_rejects_bad_input(kwargs, pattern):
     """Unknown names (with suggestions), contradictions and bad numbers are CaseErrors naming the argument."""
     with pytest.raises(CaseError, match=pattern):
@@ -324,9 +356,16 @@ def test_eq_5_9_reproduces_the_buckling_resistance(curve, lam, gamma):
     assert utilisation == pytest.approx(1.0, rel=1e-12)
 
 
-@pytest.mark.parametrize(("kwargs", "field"), [({"gamma_M1": 0.9}, "gamma_M1"), ({"M_Rk": 0.0}, "M_Rk"),
-                                               ({"N_Rk": -1.0}, "N_Rk"), ({"lambda_bar": -1.0}, "lambda_bar"),
-                                               ({"curve": "f"}, "curve")])
+@pytest.mark.parametrize(
+    ("kwargs", "field"),
+    [
+        ({"gamma_M1": 0.9}, "gamma_M1"),
+        ({"M_Rk": 0.0}, "M_Rk"),
+        ({"N_Rk": -1.0}, "N_Rk"),
+        ({"lambda_bar": -1.0}, "lambda_bar"),
+        ({"curve": "f"}, "curve"),
+    ],
+)
 def test_eq_5_9_rejects_bad_input(kwargs, field):
     """A partial factor below 1, a resistance <= 0, a negative slenderness or an unknown curve is refused."""
     arguments = {"curve": "b", "lambda_bar": 1.0, "M_Rk": 5e4, "N_Rk": 1e6} | kwargs
@@ -337,22 +376,27 @@ def test_eq_5_9_rejects_bad_input(kwargs, field):
 # ----------------------------------------------------------------------------- sway and AISC
 
 
-@pytest.mark.parametrize(("h", "m", "expected"), [
-    (4.0, 1, 1 / 200),                      # α_h = 2/√4 = 1
-    (1.0, 1, 1 / 200),                      # α_h = 2, capped at 1
-    (6.25, 1, 0.8 / 200),                   # α_h = 2/2.5 = 0.8
-    (9.0, 1, (2 / 3) / 200),                # α_h = 2/3, the lower bound
-    (25.0, 1, (2 / 3) / 200),               # α_h = 0.4, raised to 2/3
-    (4.0, 2, math.sqrt(0.75) / 200),        # α_m = √(0.5·1.5)
-    (4.0, 10**9, math.sqrt(0.5) / 200),     # α_m → √0.5 for many columns
-])
+@pytest.mark.parametrize(
+    ("h", "m", "expected"),
+    [
+        (4.0, 1, 1 / 200),  # α_h = 2/√4 = 1
+        (1.0, 1, 1 / 200),  # α_h = 2, capped at 1
+        (6.25, 1, 0.8 / 200),  # α_h = 2/2.5 = 0.8
+        (9.0, 1, (2 / 3) / 200),  # α_h = 2/3, the lower bound
+        (25.0, 1, (2 / 3) / 200),  # α_h = 0.4, raised to 2/3
+        (4.0, 2, math.sqrt(0.75) / 200),  # α_m = √(0.5·1.5)
+        (4.0, 10**9, math.sqrt(0.5) / 200),  # α_m → √0.5 for many columns
+    ],
+)
 def test_sway_imperfection(h, m, expected):
     """φ = φ0 α_h α_m with φ0 = 1/200 and the bounds on α_h (EN 1993-1-1 §5.3.2(3), from memory; rel 1e-9)."""
     assert sway_imperfection(h=h, m=m) == pytest.approx(expected, rel=1e-9)
 
 
-@pytest.mark.parametrize(("kwargs", "field"), [({"h": 0.0}, "h"), ({"h": 4.0, "m": 0}, "m"),
-                                               ({"h": 4.0, "m": 2.5}, "m"), ({"h": 4.0, "m": True}, "m")])
+@pytest.mark.parametrize(
+    ("kwargs", "field"),
+    [({"h": 0.0}, "h"), ({"h": 4.0, "m": 0}, "m"), ({"h": 4.0, "m": 2.5}, "m"), ({"h": 4.0, "m": True}, "m")],
+)
 def test_sway_imperfection_rejects_bad_input(kwargs, field):
     """The height must be > 0 and the number of columns a whole number >= 1."""
     with pytest.raises(CaseError, match=rf"^{field}: "):
@@ -368,33 +412,36 @@ def test_aisc_tolerances():
 # ----------------------------------------------------------------------------- §6.2.9.1
 
 
-@pytest.mark.parametrize(("shape", "axis", "n", "a", "expected"), [
-    # Doubly symmetric I, major axis, eq. (6.36) (from memory): (1 − n)/(1 − 0.5a) <= 1.
-    ("rolled_i", "y", 0.0, 0.4, 1.0),
-    ("rolled_i", "y", 0.2, 0.4, 1.0),          # 0.8/0.8 = 1: no reduction up to n = 0.5a
-    ("rolled_i", "y", 0.5, 0.4, 0.625),        # 0.5/0.8
-    ("welded_i", "y", 0.5, 0.4, 0.625),
-    ("rolled_i", "y", 1.0, 0.4, 0.0),
-    # Minor axis, eqs. (6.37)–(6.38) (from memory).
-    ("rolled_i", "z", 0.0, 0.4, 1.0),
-    ("rolled_i", "z", 0.4, 0.4, 1.0),
-    ("rolled_i", "z", 0.5, 0.4, 1 - (0.1 / 0.6) ** 2),
-    ("rolled_i", "z", 1.0, 0.4, 0.0),
-    # RHS, eqs. (6.39)–(6.40) (from memory), a = a_w or a_f.
-    ("rhs", "y", 0.0, 0.3, 1.0),
-    ("rhs", "y", 0.5, 0.3, 0.5 / 0.85),
-    ("rhs", "z", 0.5, 0.2, 0.5 / 0.9),
-    ("rhs", "z", 1.0, 0.2, 0.0),
-    # CHS (from memory): 1 − n^1.7.
-    ("chs", "y", 0.0, 0.0, 1.0),
-    ("chs", "z", 0.5, 0.0, 1 - 0.5**1.7),
-    ("chs", "y", 1.0, 0.0, 0.0),
-    # Solid rectangle, eq. (6.32): 1 − n², the exact plastic interaction [derived].
-    ("rectangle", "y", 0.5, 0.0, 0.75),
-    # No rule: the straight line [derived].
-    ("custom", "y", 0.5, 0.0, 0.5),
-    ("round", "z", 0.25, 0.0, 0.75),
-])
+@pytest.mark.parametrize(
+    ("shape", "axis", "n", "a", "expected"),
+    [
+        # Doubly symmetric I, major axis, eq. (6.36) (from memory): (1 − n)/(1 − 0.5a) <= 1.
+        ("rolled_i", "y", 0.0, 0.4, 1.0),
+        ("rolled_i", "y", 0.2, 0.4, 1.0),  # 0.8/0.8 = 1: no reduction up to n = 0.5a
+        ("rolled_i", "y", 0.5, 0.4, 0.625),  # 0.5/0.8
+        ("welded_i", "y", 0.5, 0.4, 0.625),
+        ("rolled_i", "y", 1.0, 0.4, 0.0),
+        # Minor axis, eqs. (6.37)–(6.38) (from memory).
+        ("rolled_i", "z", 0.0, 0.4, 1.0),
+        ("rolled_i", "z", 0.4, 0.4, 1.0),
+        ("rolled_i", "z", 0.5, 0.4, 1 - (0.1 / 0.6) ** 2),
+        ("rolled_i", "z", 1.0, 0.4, 0.0),
+        # RHS, eqs. (6.39)–(6.40) (from memory), a = a_w or a_f.
+        ("rhs", "y", 0.0, 0.3, 1.0),
+        ("rhs", "y", 0.5, 0.3, 0.5 / 0.85),
+        ("rhs", "z", 0.5, 0.2, 0.5 / 0.9),
+        ("rhs", "z", 1.0, 0.2, 0.0),
+        # CHS (from memory): 1 − n^1.7.
+        ("chs", "y", 0.0, 0.0, 1.0),
+        ("chs", "z", 0.5, 0.0, 1 - 0.5**1.7),
+        ("chs", "y", 1.0, 0.0, 0.0),
+        # Solid rectangle, eq. (6.32): 1 − n², the exact plastic interaction [derived].
+        ("rectangle", "y", 0.5, 0.0, 0.75),
+        # No rule: the straight line [derived].
+        ("custom", "y", 0.5, 0.0, 0.5),
+        ("round", "z", 0.25, 0.0, 0.75),
+    ],
+)
 def test_plastic_interaction_values(shape, axis, n, a, expected):
     """M_N,Rd/M_pl,Rd at n = 0, 0.5 and 1 for each rule of EN 1993-1-1 §6.2.9.1 (rel 1e-12)."""
     value = plastic_interaction(shape=shape, axis=axis, n=n, a=a)
@@ -413,8 +460,9 @@ def test_minor_axis_interaction_is_continuous_at_n_equal_a(a):
     assert above < 1.0
 
 
-@pytest.mark.parametrize(("shape", "expected"), [("chs", 1 - 0.4**1.7), ("rectangle", 1 - 0.16),
-                                                 ("round", 0.6), ("custom", 0.6)])
+@pytest.mark.parametrize(
+    ("shape", "expected"), [("chs", 1 - 0.4**1.7), ("rectangle", 1 - 0.16), ("round", 0.6), ("custom", 0.6)]
+)
 def test_plastic_interaction_needs_no_a_where_the_rule_has_none(shape, expected):
     """CHS, solid and custom rules take a = None (their formulas have no a; values as above, rel 1e-12)."""
     assert plastic_interaction(shape=shape, axis="major", n=0.4) == pytest.approx(expected, rel=1e-12)
@@ -458,8 +506,16 @@ def test_plastic_interaction_is_within_the_safe_bounds(shape, axis):
             assert plastic_interaction(shape=shape, axis=axis, n=n, a=a) == 0.0
 
 
-@pytest.mark.parametrize(("kwargs", "field"), [({"a": -0.1}, "a"), ({"a": 1.0}, "a"), ({"n": math.nan}, "n"),
-                                               ({"shape": "I"}, "shape"), ({"axis": "x"}, "axis")])
+@pytest.mark.parametrize(
+    ("kwargs", "field"),
+    [
+        ({"a": -0.1}, "a"),
+        ({"a": 1.0}, "a"),
+        ({"n": math.nan}, "n"),
+        ({"shape": "I"}, "shape"),
+        ({"axis": "x"}, "axis"),
+    ],
+)
 def test_plastic_interaction_rejects_bad_input(kwargs, field):
     """a must lie in [0, 1), n must be finite and shape and axis must be known."""
     arguments = {"shape": "rolled_i", "axis": "y", "n": 0.3, "a": 0.4} | kwargs
@@ -470,14 +526,19 @@ def test_plastic_interaction_rejects_bad_input(kwargs, field):
 # ----------------------------------------------------------------------------- §6.2.8
 
 
-@pytest.mark.parametrize(("V", "expected"), [
-    (0.0, 0.0), (0.3e5, 0.0), (0.5e5, 0.0),   # no reduction up to half the plastic shear resistance
-    (0.75e5, 0.25),                            # (2·0.75 − 1)² = 0.25
-    (0.9e5, 0.64),                             # (2·0.9 − 1)² = 0.64
-    (1.0e5, 1.0),
-    (1.3e5, 1.0),                              # held at 1 beyond the shear resistance
-    (-0.75e5, 0.25),                           # the sign of V does not matter
-])
+@pytest.mark.parametrize(
+    ("V", "expected"),
+    [
+        (0.0, 0.0),
+        (0.3e5, 0.0),
+        (0.5e5, 0.0),  # no reduction up to half the plastic shear resistance
+        (0.75e5, 0.25),  # (2·0.75 − 1)² = 0.25
+        (0.9e5, 0.64),  # (2·0.9 − 1)² = 0.64
+        (1.0e5, 1.0),
+        (1.3e5, 1.0),  # held at 1 beyond the shear resistance
+        (-0.75e5, 0.25),  # the sign of V does not matter
+    ],
+)
 def test_shear_reduction(V, expected):
     """ρ = 0 for V <= 0.5 V_pl, else (2V/V_pl − 1)² (EN 1993-1-1 §6.2.8(3), from memory; rel 1e-12)."""
     assert shear_reduction(V, 1.0e5) == pytest.approx(expected, rel=1e-12, abs=1e-15)
@@ -503,8 +564,10 @@ def test_shear_reduction_is_continuous_at_half():
     assert 0.0 < shear_reduction(0.5e5 * (1 + 1e-6), 1e5) < 1e-11
 
 
-@pytest.mark.parametrize(("args", "field"), [((1e4, 0.0), "V_pl_Rd"), ((1e4, -1e5), "V_pl_Rd"),
-                                             ((math.inf, 1e5), "V_Ed"), (("10 kN", 1e5), "V_Ed")])
+@pytest.mark.parametrize(
+    ("args", "field"),
+    [((1e4, 0.0), "V_pl_Rd"), ((1e4, -1e5), "V_pl_Rd"), ((math.inf, 1e5), "V_Ed"), (("10 kN", 1e5), "V_Ed")],
+)
 def test_shear_reduction_rejects_bad_input(args, field):
     """V_pl,Rd must be > 0 and V_Ed finite; the message names the argument."""
     with pytest.raises(CaseError, match=rf"^{field}: "):
@@ -514,8 +577,23 @@ def test_shear_reduction_rejects_bad_input(args, field):
 def test_public_names():
     """The module exports exactly its documented names."""
     assert set(codes.__all__) == {
-        "AISC_OUT_OF_PLUMB", "AISC_OUT_OF_STRAIGHTNESS", "ALPHA_CR_LIMITS", "ALPHA_CR_SOURCE",
-        "alpha_cr_limit", "AXES", "BUCKLING_CURVES", "IMPERFECTION_FACTORS",
-        "MANUFACTURES", "SHAPES", "bow_ratio", "buckling_curve", "eq_5_9_amplitude", "plastic_interaction",
-        "reduction_factor", "shear_reduction", "slenderness", "sway_imperfection"}
+        "AISC_OUT_OF_PLUMB",
+        "AISC_OUT_OF_STRAIGHTNESS",
+        "ALPHA_CR_LIMITS",
+        "ALPHA_CR_SOURCE",
+        "alpha_cr_limit",
+        "AXES",
+        "BUCKLING_CURVES",
+        "IMPERFECTION_FACTORS",
+        "MANUFACTURES",
+        "SHAPES",
+        "bow_ratio",
+        "buckling_curve",
+        "eq_5_9_amplitude",
+        "plastic_interaction",
+        "reduction_factor",
+        "shear_reduction",
+        "slenderness",
+        "sway_imperfection",
+    }
     assert all(hasattr(codes, name) for name in codes.__all__)

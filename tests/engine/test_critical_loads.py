@@ -17,16 +17,21 @@ from scipy.optimize import brentq
 
 import engine
 
-L = 6.0            # [m], invented
-EI = 4.2e6         # [N·m²], invented
-UNIT = EI / L**2   # critical loads below are c·EI/L²
-EXACT_REL = 1e-9   # engine vs roots computed here with brentq (xtol 1e-15)
+L = 6.0  # [m], invented
+EI = 4.2e6  # [N·m²], invented
+UNIT = EI / L**2  # critical loads below are c·EI/L²
+EXACT_REL = 1e-9  # engine vs roots computed here with brentq (xtol 1e-15)
 
-NAMED = {"pinned": ("fixed", "free"), "fixed": ("fixed", "fixed"),
-         "free": ("free", "free"), "guided": ("free", "fixed")}
+NAMED = {
+    "pinned": ("fixed", "free"),
+    "fixed": ("fixed", "fixed"),
+    "free": ("free", "free"),
+    "guided": ("free", "fixed"),
+}
 
 
 # ---------------------------------------------------------------- independent characteristic determinant
+
 
 def _support(spec):
     return NAMED[spec] if isinstance(spec, str) else (spec["translation"], spec["rotation"])
@@ -47,8 +52,8 @@ def _rows(spec, side, z):
     xi = 0.0 if side == "left" else 1.0
     w = np.array([s, c, xi, 1.0])
     dw = np.array([z * c, -z * s, 1.0, 0.0])
-    m = np.array([z * z * s, z * z * c, 0.0, 0.0])          # M̂ = −w''
-    t = np.array([0.0, 0.0, -z * z, 0.0])                   # T̂
+    m = np.array([z * z * s, z * z * c, 0.0, 0.0])  # M̂ = −w''
+    t = np.array([0.0, 0.0, -z * z, 0.0])  # T̂
     sgn = 1.0 if side == "left" else -1.0
     rows = []
     if trans == "fixed":
@@ -79,8 +84,9 @@ def independent_roots(left, right, count=5, z_max=40.0, step=2e-3):
     d = np.array([characteristic(left, right, z) for z in zs])
     roots = []
     for i in np.flatnonzero(np.sign(d[:-1]) * np.sign(d[1:]) < 0):
-        roots.append(brentq(lambda z: characteristic(left, right, z), zs[i], zs[i + 1],
-                            xtol=1e-15, rtol=1e-15))
+        roots.append(
+            brentq(lambda z: characteristic(left, right, z), zs[i], zs[i + 1], xtol=1e-15, rtol=1e-15)
+        )
         if len(roots) == count:
             break
     assert len(roots) == count, "scan range too short"
@@ -88,8 +94,16 @@ def independent_roots(left, right, count=5, z_max=40.0, step=2e-3):
 
 
 def _case(left, right, P=0.0):
-    return engine.Case.from_dict({"schema": 1, "length": L, "EI": EI,
-                                  "supports": {"left": left, "right": right}, "axial_force": P, "loads": []})
+    return engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": L,
+            "EI": EI,
+            "supports": {"left": left, "right": right},
+            "axial_force": P,
+            "loads": [],
+        }
+    )
 
 
 def _engine_loads(left, right, count=5):
@@ -98,11 +112,17 @@ def _engine_loads(left, right, count=5):
 
 def _tan_root(n):
     """n-th positive root of tan z = z, by brentq on sin z − z cos z in (nπ, (n + ½)π)."""
-    return brentq(lambda z: math.sin(z) - z * math.cos(z), n * math.pi + 1e-9, (n + 0.5) * math.pi - 1e-9,
-                  xtol=1e-15, rtol=1e-15)
+    return brentq(
+        lambda z: math.sin(z) - z * math.cos(z),
+        n * math.pi + 1e-9,
+        (n + 0.5) * math.pi - 1e-9,
+        xtol=1e-15,
+        rtol=1e-15,
+    )
 
 
 # ---------------------------------------------------------------- the table of references.md §2
+
 
 def _fixed_fixed_exact(count=5):
     # symmetric modes z = 2nπ; antisymmetric tan(z/2) = z/2, so z = 2·(root of tan μ = μ) [derived]
@@ -119,8 +139,14 @@ EXACT = {
     ("fixed", "guided"): np.array([n * n * math.pi**2 for n in range(1, 6)]) * UNIT,
     ("pinned", "guided"): np.array([(2 * n - 1) ** 2 * math.pi**2 / 4 for n in range(1, 6)]) * UNIT,
 }
-K_THEORETICAL = {("pinned", "pinned"): 1.0, ("fixed", "free"): 2.0, ("fixed", "pinned"): 0.699,
-                 ("fixed", "fixed"): 0.5, ("fixed", "guided"): 1.0, ("pinned", "guided"): 2.0}
+K_THEORETICAL = {
+    ("pinned", "pinned"): 1.0,
+    ("fixed", "free"): 2.0,
+    ("fixed", "pinned"): 0.699,
+    ("fixed", "fixed"): 0.5,
+    ("fixed", "guided"): 1.0,
+    ("pinned", "guided"): 2.0,
+}
 PAIRS = list(EXACT)
 
 
@@ -179,9 +205,16 @@ def test_named_supports_match_determinant(pair):
 
 def test_solve_reports_the_same_critical_loads():
     """result.critical_loads of engine.solve equals engine.critical_loads for the same case."""
-    case = engine.Case.from_dict({"schema": 1, "length": L, "EI": EI,
-                                  "supports": {"left": "fixed", "right": "pinned"}, "axial_force": 1.0e5,
-                                  "loads": [{"type": "uniform", "q": 1.0e3}]})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": L,
+            "EI": EI,
+            "supports": {"left": "fixed", "right": "pinned"},
+            "axial_force": 1.0e5,
+            "loads": [{"type": "uniform", "q": 1.0e3}],
+        }
+    )
     r = engine.solve(case, stations=101)
     # same computation, two entry points; rel 1e-12
     direct = np.asarray(engine.critical_loads(case, count=5).critical_loads)
@@ -191,8 +224,10 @@ def test_solve_reports_the_same_critical_loads():
 
 def test_first_modes_are_euler_shapes():
     """result.modes[0] is sin(πx/L) (pinned–pinned) or 1 − cos(πx/2L) (fixed–free) at stations."""
-    for (left, right), shape in [(("pinned", "pinned"), lambda x: np.sin(np.pi * x / L)),
-                                 (("fixed", "free"), lambda x: 1 - np.cos(np.pi * x / (2 * L)))]:
+    for (left, right), shape in [
+        (("pinned", "pinned"), lambda x: np.sin(np.pi * x / L)),
+        (("fixed", "free"), lambda x: 1 - np.cos(np.pi * x / (2 * L))),
+    ]:
         r = engine.solve(_case(left, right, P=0.1 * EI / L**2), stations=201)
         x = np.asarray(r.x)
         modes = np.asarray(r.modes)
@@ -205,8 +240,10 @@ def test_first_modes_are_euler_shapes():
 def test_mode_shapes_method_gives_euler_shapes():
     """Buckling.mode_shapes(x) gives sin(πx/L) (pinned–pinned) and 1 − cos(πx/2L) (fixed–free)."""
     x = np.linspace(0.0, L, 201)
-    for (left, right), shape in [(("pinned", "pinned"), lambda x: np.sin(np.pi * x / L)),
-                                 (("fixed", "free"), lambda x: 1 - np.cos(np.pi * x / (2 * L)))]:
+    for (left, right), shape in [
+        (("pinned", "pinned"), lambda x: np.sin(np.pi * x / L)),
+        (("fixed", "free"), lambda x: 1 - np.cos(np.pi * x / (2 * L))),
+    ]:
         b = engine.critical_loads(_case(left, right), count=5)
         # Euler buckled shapes, common practice, no source; abs 1e-9
         np.testing.assert_allclose(np.asarray(b.mode_shapes(x))[0], shape(x), rtol=0, atol=1e-9)
@@ -253,8 +290,13 @@ def test_rotation_spring_characteristic_equation(beta):
     # z² sin z = β(z cos z − sin z), β = k_r L/EI, z = kL. β → 0: z = π; β → ∞: tan z = z (Timoshenko & Gere
     # ch. 2 treats the elastically restrained end; article from memory).
     k_r = beta * EI / L
-    z1 = brentq(lambda z: (z * z + beta) * math.sin(z) - beta * z * math.cos(z), math.pi, _tan_root(1),
-                xtol=1e-15, rtol=1e-15)
+    z1 = brentq(
+        lambda z: (z * z + beta) * math.sin(z) - beta * z * math.cos(z),
+        math.pi,
+        _tan_root(1),
+        xtol=1e-15,
+        rtol=1e-15,
+    )
     right = {"translation": "fixed", "rotation": k_r}
     got = _engine_loads("pinned", right)
     # rel 1e-9

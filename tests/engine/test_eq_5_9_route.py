@@ -30,24 +30,45 @@ SUPPORTS = {
     "fixed-free": ("fixed", "free"),
     "pinned-guided": ("pinned", "guided"),
     "fixed-guided": ("fixed", "guided"),
-    "rotational springs": ({"translation": "fixed", "rotation": 2.0e6},
-                           {"translation": "fixed", "rotation": 5.0e5}),
+    "rotational springs": (
+        {"translation": "fixed", "rotation": 2.0e6},
+        {"translation": "fixed", "rotation": 5.0e5},
+    ),
     "translational spring at the top": ("fixed", {"translation": 3.0e5, "rotation": "free"}),
-    "translational springs, both ends": ({"translation": 2.0e6, "rotation": "fixed"},
-                                         {"translation": 4.0e5, "rotation": "fixed"}),
+    "translational springs, both ends": (
+        {"translation": 2.0e6, "rotation": "fixed"},
+        {"translation": 4.0e5, "rotation": "fixed"},
+    ),
 }
 
 
-def _case(supports, length, curve, gamma=1.0, method="elastic", section="HEB 200", axis="minor",
-          grade="S235", axial=0.0):
+def _case(
+    supports,
+    length,
+    curve,
+    gamma=1.0,
+    method="elastic",
+    section="HEB 200",
+    axis="minor",
+    grade="S235",
+    axial=0.0,
+):
     left, right = supports
-    return engine.Case.from_dict({
-        "schema": 1, "title": "Invented check strut", "length": length,
-        "supports": {"left": left, "right": right}, "axial_force": axial,
-        "section": {"name": section}, "material": {"name": grade}, "axis": axis,
-        "imperfection": {"preset": "en1993-eq-5.9", "curve": curve},
-        "check": {"method": method, "gamma_M1": gamma},
-        "out_of_plane": {"restrained": True}})  # the in-plane identity alone (see test_out_of_plane.py)
+    return engine.Case.from_dict(
+        {
+            "schema": 1,
+            "title": "Invented check strut",
+            "length": length,
+            "supports": {"left": left, "right": right},
+            "axial_force": axial,
+            "section": {"name": section},
+            "material": {"name": grade},
+            "axis": axis,
+            "imperfection": {"preset": "en1993-eq-5.9", "curve": curve},
+            "check": {"method": method, "gamma_M1": gamma},
+            "out_of_plane": {"restrained": True},
+        }
+    )  # the in-plane identity alone (see test_out_of_plane.py)
 
 
 def _chi_load(case):
@@ -85,8 +106,17 @@ def test_utilisation_is_one_at_the_buckling_resistance(name, curve, length, gamm
     assert below < 1.0
 
 
-@pytest.mark.parametrize("name", ["fixed-fixed", "fixed-pinned", "rotational springs",
-                                  "translational spring at the top", "fixed-free", "pinned-pinned"])
+@pytest.mark.parametrize(
+    "name",
+    [
+        "fixed-fixed",
+        "fixed-pinned",
+        "rotational springs",
+        "translational spring at the top",
+        "fixed-free",
+        "pinned-pinned",
+    ],
+)
 @pytest.mark.parametrize("gamma", [1.0, 1.1])
 @pytest.mark.parametrize("method", ["elastic", "plastic"])
 def test_capacity_equals_the_buckling_resistance(name, gamma, method):
@@ -137,8 +167,9 @@ def test_plastic_route_is_capped_at_the_buckling_resistance():
     assert eq_5_9_modulus(r.section, r.material, "plastic") == r.section.W_pl
 
 
-@pytest.mark.parametrize(("name", "factor"),
-                         [("pinned-pinned", 1.0), ("fixed-fixed", 2.0), ("fixed-free", 1.0)])
+@pytest.mark.parametrize(
+    ("name", "factor"), [("pinned-pinned", 1.0), ("fixed-fixed", 2.0), ("fixed-free", 1.0)]
+)
 def test_amplitude_factor_of_known_modes(name, factor):
     """N_cr/(EI |η''|max) of the first mode: 1 for a half sine and a cantilever's 1 − cos, 2 for the
     fixed–fixed ½(1 − cos 2πx/L), whose |η''|max = 2π²/L² with N_cr = 4π²EI/L² (Timoshenko & Gere 1961,
@@ -167,8 +198,9 @@ def test_bow_amplitude_is_scaled_by_the_curvature():
     times EI equals e0·N_cr (eq. 5.9)."""
     r = engine.solve(_case(SUPPORTS["fixed-fixed"], 8.0, "c"))
     lam = codes.slenderness(r.section.A, r.material.fy, float(r.critical_loads[0]))
-    e0 = codes.eq_5_9_amplitude(curve="c", lambda_bar=lam, M_Rk=r.section.W_el * r.material.fy,
-                                N_Rk=r.section.A * r.material.fy)
+    e0 = codes.eq_5_9_amplitude(
+        curve="c", lambda_bar=lam, M_Rk=r.section.W_el * r.material.fy, N_Rk=r.section.A * r.material.fy
+    )
     assert abs(r.bow.amplitude) == pytest.approx(2 * e0, rel=1e-10)
     x = np.linspace(0, 8.0, 20001)
     curvature = abs(r.bow.amplitude) * np.abs(r.buckling.mode_derivatives(0, x)[2]).max()
@@ -204,17 +236,24 @@ def test_a_bow_beyond_l_over_10_is_refused():
 
 _ENDS = st.one_of(
     st.sampled_from(["pinned", "fixed", "guided", "free"]),
-    st.builds(lambda kt, kr: {"translation": kt, "rotation": kr},
-              st.one_of(st.just("fixed"), st.floats(1e5, 1e9)),
-              st.one_of(st.sampled_from(["fixed", "free"]), st.floats(1e3, 1e8))),
+    st.builds(
+        lambda kt, kr: {"translation": kt, "rotation": kr},
+        st.one_of(st.just("fixed"), st.floats(1e5, 1e9)),
+        st.one_of(st.sampled_from(["fixed", "free"]), st.floats(1e3, 1e8)),
+    ),
 )
 
 
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-@given(left=_ENDS, right=_ENDS, length=st.floats(1.0, 12.0),
-       curve=st.sampled_from(CURVES), gamma=st.sampled_from([1.0, 1.05, 1.1, 1.25]),
-       method=st.sampled_from(["elastic", "plastic"]),
-       section=st.sampled_from(["HEB 200", "IPE 200", "SHS 100x100x5", "CHS 114.3x5"]))
+@given(
+    left=_ENDS,
+    right=_ENDS,
+    length=st.floats(1.0, 12.0),
+    curve=st.sampled_from(CURVES),
+    gamma=st.sampled_from([1.0, 1.05, 1.1, 1.25]),
+    method=st.sampled_from(["elastic", "plastic"]),
+    section=st.sampled_from(["HEB 200", "IPE 200", "SHS 100x100x5", "CHS 114.3x5"]),
+)
 def test_identity_for_any_supports(left, right, length, curve, gamma, method, section):
     """Invariant (hypothesis): for any stable supports, springs included, the eq. (5.9) route's strength
     utilisation at N = χ A f_y/γ_M1 (EN 1993-1-1 eqs. 6.47, 6.49) is 1 to 1e-9 (Ayrton–Perry [derived])."""

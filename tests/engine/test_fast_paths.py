@@ -25,16 +25,30 @@ import engine
 from engine import analysis, solution
 from tests import strategies as cs
 
-_FIELDS = (("deflection", "w"), ("rotation", "rotation"), ("moment", "M"), ("shear", "V"),
-           ("transverse_force", "T"), ("initial_bow", "w0"))
+_FIELDS = (
+    ("deflection", "w"),
+    ("rotation", "rotation"),
+    ("moment", "M"),
+    ("shear", "V"),
+    ("transverse_force", "T"),
+    ("initial_bow", "w0"),
+)
 
 
 def _case(left, right, shape, fraction, **extra):
-    data = {"schema": 1, "length": 5.0, "EI": 2.0e6, "supports": {"left": left, "right": right},
-            "loads": [{"type": "uniform", "q": 1.0e3}, {"type": "point", "P": 3.0e3, "x": 1.7},
-                      {"type": "couple", "C": 2.0e3, "x": 3.1},
-                      {"type": "linear", "q_start": 500.0, "q_end": -800.0, "start": 0.5, "end": 4.0}],
-            "imperfection": {"shape": shape, "amplitude": 0.01 if shape != "none" else 0.0}}
+    data = {
+        "schema": 1,
+        "length": 5.0,
+        "EI": 2.0e6,
+        "supports": {"left": left, "right": right},
+        "loads": [
+            {"type": "uniform", "q": 1.0e3},
+            {"type": "point", "P": 3.0e3, "x": 1.7},
+            {"type": "couple", "C": 2.0e3, "x": 3.1},
+            {"type": "linear", "q_start": 500.0, "q_end": -800.0, "start": 0.5, "end": 4.0},
+        ],
+        "imperfection": {"shape": shape, "amplitude": 0.01 if shape != "none" else 0.0},
+    }
     data.update(extra)
     pcr1 = engine.critical_loads(engine.Case.from_dict(data), 1).critical_loads[0]
     data["axial_force"] = fraction * float(pcr1)
@@ -55,8 +69,14 @@ def _exact_states(case, result):
     return batch.states(0, solution.Points(model, seg, xi)), model
 
 
-SUPPORTS = [("pinned", "pinned"), ("fixed", "free"), ("fixed", "guided"), ("fixed", "pinned"), ("fixed", "fixed"),
-            ({"translation": 5.0e6, "rotation": 2.0e6}, {"translation": 8.0e6, "rotation": 5.0e5})]
+SUPPORTS = [
+    ("pinned", "pinned"),
+    ("fixed", "free"),
+    ("fixed", "guided"),
+    ("fixed", "pinned"),
+    ("fixed", "fixed"),
+    ({"translation": 5.0e6, "rotation": 2.0e6}, {"translation": 8.0e6, "rotation": 5.0e5}),
+]
 
 
 @pytest.mark.parametrize("left, right", SUPPORTS)
@@ -101,14 +121,21 @@ def test_the_fast_paths_are_the_ones_used_on_the_benchmark_like_case(monkeypatch
 
     monkeypatch.setattr(solution, "_refine_by_series", spy)
     engine.solve(case)
-    # Every refinement (the first order's, then the solve's) took the series; the solve's batch used the table.
+    # Every refinement (the first order's, then the solve's) took the series; the solve's batch used the
+    # table.
     assert calls and all(fast for _, fast in calls) and calls[-1][0], calls
 
 
 def test_strong_tension_falls_back_and_still_matches():
     """u = sqrt(|P|/EI) L = 2000: beyond the series' reach; the general path gives the states."""
-    data = {"schema": 1, "length": 4.0, "EI": 1.0e6, "supports": {"left": "fixed", "right": "fixed"},
-            "loads": [{"type": "uniform", "q": 1.0e3}], "axial_force": -((2000.0 / 4.0) ** 2) * 1.0e6}
+    data = {
+        "schema": 1,
+        "length": 4.0,
+        "EI": 1.0e6,
+        "supports": {"left": "fixed", "right": "fixed"},
+        "loads": [{"type": "uniform", "q": 1.0e3}],
+        "axial_force": -((2000.0 / 4.0) ** 2) * 1.0e6,
+    }
     case = engine.Case.from_dict(data)
     result = engine.solve(case)
     exact, _ = _exact_states(case, result)
@@ -147,7 +174,7 @@ def test_derivative_recursion_matches_the_equation_differentiated(s, beta, data)
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(data=st.data())
 def test_random_cases_match_the_general_evaluation(data):
-    """Hypothesis cases (springs, partial and linear loads, couples, every bow), P from tension to 0.95 Pcr1."""
+    """Hypothesis cases (springs, partial and linear loads, couples, every bow), tension to 0.95 Pcr1."""
     mapping = data.draw(cs.cases())
     case0 = engine.Case.from_dict(mapping)
     pcr1 = float(engine.critical_loads(case0, 1).critical_loads[0])
@@ -159,8 +186,14 @@ def test_random_cases_match_the_general_evaluation(data):
     L, EI = model.L, model.EI
     force = model.load_scale + model.couple_scale / L
     moment = force * L
-    floor = {"w": moment * L * L / EI, "rotation": moment * L / EI, "M": moment, "V": force, "T": force,
-             "w0": abs(case.imperfection.amplitude)}
+    floor = {
+        "w": moment * L * L / EI,
+        "rotation": moment * L / EI,
+        "M": moment,
+        "V": force,
+        "T": force,
+        "w0": abs(case.imperfection.amplitude),
+    }
     for name, key in _FIELDS:
         got, want = np.asarray(getattr(result, name)), exact[key]
         scale = max(float(np.abs(want).max()), floor[key], 1e-300)
@@ -170,7 +203,7 @@ def test_random_cases_match_the_general_evaluation(data):
 @pytest.mark.parametrize("left, right", SUPPORTS)
 @pytest.mark.parametrize("shape", ["none", "sine", "parabola", "mode"])
 def test_station_table_targets_equal_the_general_targets(left, right, shape):
-    """The targets and their slopes at the stations (which bracket the peaks) from the table and in general."""
+    """The targets and their slopes at the stations (bracketing the peaks), by the table and in general."""
     case = _case(left, right, shape, 0.45)
     prep = analysis._prepare(case)
     seg, xi, shown, pts = prep.stations(401, 0.0)

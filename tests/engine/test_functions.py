@@ -45,7 +45,7 @@ def test_hybrid_is_continuous_at_the_series_limit():
     for sign in (1.0, -1.0):
         below = phi(sign * SERIES_LIMIT * (1 - 1e-12), xi)
         above = phi(sign * SERIES_LIMIT * (1 + 1e-12), xi)
-        for a, b in zip(below, above):
+        for a, b in zip(below, above, strict=True):
             assert a == pytest.approx(b, rel=1e-11)
 
 
@@ -53,7 +53,7 @@ def test_series_is_entire_through_zero_force():
     """φ_4 and φ_5 are smooth through s = 0: the one-sided values at ±1e-12 straddle the polynomial value."""
     xi = 2.0
     at0 = phi_series(0.0, xi)
-    for n, exact in zip(range(6), [1.0, 2.0, 2.0, 8 / 6, 16 / 24, 32 / 120]):
+    for n, exact in zip(range(6), [1.0, 2.0, 2.0, 8 / 6, 16 / 24, 32 / 120], strict=True):
         assert at0[n] == exact or at0[n] == pytest.approx(exact, rel=1e-16)
     up, down = phi_series(1e-12, xi), phi_series(-1e-12, xi)
     for n in range(6):

@@ -53,8 +53,9 @@ print(json.dumps(sorted(loaded | watch.tried)))
 
 def _loaded_forbidden_modules(preamble: str = "") -> list[str]:
     code = _PROBE.format(preamble=preamble, forbidden=FORBIDDEN)
-    completed = subprocess.run([sys.executable, "-c", code], cwd=REPO, capture_output=True, text=True,
-                               timeout=120, check=False)
+    completed = subprocess.run(
+        [sys.executable, "-c", code], cwd=REPO, capture_output=True, text=True, timeout=120, check=False
+    )
     assert completed.returncode == 0, completed.stderr
     return json.loads(completed.stdout.strip().splitlines()[-1])
 
@@ -127,9 +128,12 @@ def test_importing_the_engine_leaves_scipy_optimize_until_a_root_is_needed():
         "first = float(engine.critical_loads(case).critical_loads[0])\n"
         "print(json.dumps([before, first / (2.0e6 * math.pi ** 2 / 16.0)]))\n"
     )
-    completed = subprocess.run([sys.executable, "-c", code], cwd=REPO, capture_output=True, text=True,
-                               timeout=120, check=False)
+    completed = subprocess.run(
+        [sys.executable, "-c", code], cwd=REPO, capture_output=True, text=True, timeout=120, check=False
+    )
     assert completed.returncode == 0, completed.stderr
     before, ratio = json.loads(completed.stdout.strip().splitlines()[-1])
     assert before is False
-    assert abs(ratio - 1.0) < 1e-9  # Euler, pinned-pinned (Timoshenko & Gere, Theory of Elastic Stability, §2.1)
+    assert (
+        abs(ratio - 1.0) < 1e-9
+    )  # Euler, pinned-pinned (Timoshenko & Gere, Theory of Elastic Stability, §2.1)

@@ -22,8 +22,14 @@ from engine.errors import CaseError
 
 def base() -> dict:
     """A plain pinned–pinned case file (invented)."""
-    return {"schema": 1, "title": "Invented", "length": 6.0, "EI": 4.2e6,
-            "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 350e3}
+    return {
+        "schema": 1,
+        "title": "Invented",
+        "length": 6.0,
+        "EI": 4.2e6,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 350e3,
+    }
 
 
 def refused(text) -> str:
@@ -68,14 +74,17 @@ def test_a_thousand_loads_are_refused_before_any_is_built(monkeypatch):
 def test_too_many_segments_are_refused():
     """Partial loads whose ends cut the member into more than MAX_SEGMENTS segments are refused."""
     count = limits.MAX_SEGMENTS // 2 + 1 - 1  # each load has two interior ends, all distinct
-    loads = [{"type": "uniform", "q": 1e3, "start": 0.05 + 0.01 * i, "end": 3.0 + 0.01 * i}
-             for i in range(count)]
+    loads = [
+        {"type": "uniform", "q": 1e3, "start": 0.05 + 0.01 * i, "end": 3.0 + 0.01 * i} for i in range(count)
+    ]
     assert Case.from_dict(base() | {"loads": loads[:-1]})  # 2·(count − 1) + 1 segments: allowed
     with pytest.raises(CaseError) as caught:
         Case.from_dict(base() | {"loads": loads})
-    assert str(caught.value) == (f"loads: the loads cut the member into {2 * count + 1} segments; a case may "
-                                 f"have at most {limits.MAX_SEGMENTS} (every point load, couple and end of "
-                                 "a partial load is a cut)")
+    assert str(caught.value) == (
+        f"loads: the loads cut the member into {2 * count + 1} segments; a case may "
+        f"have at most {limits.MAX_SEGMENTS} (every point load, couple and end of "
+        "a partial load is a cut)"
+    )
 
 
 def test_segment_count_agrees_with_the_solver():
@@ -83,10 +92,18 @@ def test_segment_count_agrees_with_the_solver():
     from engine.imperfections import bow_for
     from engine.solution import Model
 
-    case = Case.from_dict(base() | {"loads": [
-        {"type": "point", "P": 1e3, "x": 2.0}, {"type": "point", "P": 1e3, "x": 2.0},
-        {"type": "uniform", "q": 1e3, "start": 1.0, "end": 2.0}, {"type": "couple", "C": 1e3, "x": 6.0},
-        {"type": "linear", "q_start": 0.0, "q_end": 1e3}]})
+    case = Case.from_dict(
+        base()
+        | {
+            "loads": [
+                {"type": "point", "P": 1e3, "x": 2.0},
+                {"type": "point", "P": 1e3, "x": 2.0},
+                {"type": "uniform", "q": 1e3, "start": 1.0, "end": 2.0},
+                {"type": "couple", "C": 1e3, "x": 6.0},
+                {"type": "linear", "q_start": 0.0, "q_end": 1e3},
+            ]
+        }
+    )
     model = Model(case, bow_for(case))
     assert limits.segment_count(case.length, case.loads) == model.nseg == 3
 
@@ -95,25 +112,41 @@ def test_python_built_cases_are_bounded_too():
     """A case built in Python (as the page builds it) meets the same limits."""
     loads = [PointLoad(P=1.0, x=0.1 * (i + 1)) for i in range(limits.MAX_LOADS + 1)]
     with pytest.raises(CaseError, match=rf"^loads: {limits.MAX_LOADS + 1} loads given"):
-        Case(length=6.0, EI=1e6, left=EndSupport.named("pinned"), right=EndSupport.named("pinned"),
-             loads=loads)
+        Case(
+            length=6.0, EI=1e6, left=EndSupport.named("pinned"), right=EndSupport.named("pinned"), loads=loads
+        )
     case = Case(length=6.0, EI=1e6, left=EndSupport.named("pinned"), right=EndSupport.named("pinned"))
     with pytest.raises(CaseError, match="^loads: "):
-        dataclasses.replace(case, loads=[UniformLoad(q=1.0, start=0.01 * i + 0.01, end=5.0 - 0.01 * i)
-                                         for i in range(limits.MAX_SEGMENTS // 2)])
+        dataclasses.replace(
+            case,
+            loads=[
+                UniformLoad(q=1.0, start=0.01 * i + 0.01, end=5.0 - 0.01 * i)
+                for i in range(limits.MAX_SEGMENTS // 2)
+            ],
+        )
 
 
 def test_deeply_nested_json_is_a_message_not_a_recursion_error():
     """100 000 nested arrays are refused naming the nesting limit and the place (was RecursionError)."""
     message = refused("[" * 100_000 + "]" * 100_000)
-    assert message == (f"case: the JSON nests objects and arrays more than {limits.MAX_JSON_DEPTH} levels "
-                       "deep (at line 1 column 21); a case file needs 4")
+    assert message == (
+        f"case: the JSON nests objects and arrays more than {limits.MAX_JSON_DEPTH} levels "
+        "deep (at line 1 column 21); a case file needs 4"
+    )
     nested = '{"length": 6, "section": ' + '{"a": ' * 5_000 + "1" + "}" * 5_000 + "}"
     assert "nests objects and arrays more than" in refused(nested)
 
 
-@pytest.mark.parametrize("text", ['"\\' * 400_000, '["' + "\\\\" * 400_000 + '"]', '"' * 900_000,
-                                  "[]" * 450_000, '{"title": "' + "x" * 900_000])
+@pytest.mark.parametrize(
+    "text",
+    [
+        '"\\' * 400_000,
+        '["' + "\\\\" * 400_000 + '"]',
+        '"' * 900_000,
+        "[]" * 450_000,
+        '{"title": "' + "x" * 900_000,
+    ],
+)
 def test_pathological_text_near_the_size_limit_is_a_message(text):
     """Runs of quotes and backslashes near 1 MB are scanned in linear time and refused with a message."""
     assert refused(text).startswith("case: ")
@@ -121,15 +154,17 @@ def test_pathological_text_near_the_size_limit_is_a_message(text):
 
 def test_nesting_inside_strings_does_not_count():
     """Brackets inside strings (a title of '[[[[') are text, not nesting."""
-    case = Case.from_json(json.dumps(base() | {"title": "[" * 150 + "\\\"{"}))
+    case = Case.from_json(json.dumps(base() | {"title": "[" * 150 + '\\"{'}))
     assert case.title.startswith("[[[")
 
 
 def test_a_number_of_thousands_of_digits_is_a_message():
     """An integer of 5 000 digits is refused naming the digit limit (was ValueError from int conversion)."""
     message = refused('{"length": ' + "7" * 5_000 + "}")
-    assert message == (f"case: a number of 5000 digits is too long; numbers in a case file have at most "
-                       f"{limits.MAX_NUMBER_DIGITS} digits")
+    assert message == (
+        f"case: a number of 5000 digits is too long; numbers in a case file have at most "
+        f"{limits.MAX_NUMBER_DIGITS} digits"
+    )
     assert refused('{"length": -' + "7" * 5_000 + "}").startswith("case: a number of 5000 digits")
 
 
@@ -148,6 +183,7 @@ def test_a_file_above_the_size_limit_is_refused_unread(tmp_path):
 
 def test_memory_error_while_parsing_is_a_message(monkeypatch):
     """A MemoryError while the JSON is read becomes a CaseError, never a traceback."""
+
     def exhausted(*args, **kwargs):
         raise MemoryError
 
@@ -157,12 +193,13 @@ def test_memory_error_while_parsing_is_a_message(monkeypatch):
 
 @pytest.mark.parametrize("where", ["title", "section", "key", "material"])
 def test_a_lone_surrogate_anywhere_is_refused_naming_the_field(where):
-    """"\\ud800" in the title, a name or a key is refused with the field named (it crashed every export)."""
+    """ "\\ud800" in the title, a name or a key is refused with the field named (it crashed every export)."""
     mapping = base()
     if where == "title":
         text = json.dumps(mapping | {"title": "Post \ud800 A"})
-        expected = ("title: contains a character that is not valid text (U+D800, a lone surrogate) at "
-                    "position 6")
+        expected = (
+            "title: contains a character that is not valid text (U+D800, a lone surrogate) at position 6"
+        )
     elif where == "section":
         text = json.dumps(mapping | {"section": {"name": "HEB \udfff"}})
         expected = "section.name: contains a character that is not valid text (U+DFFF"

@@ -29,8 +29,16 @@ S460 = (460, 440, 430, 410, 400)
 
 # Thicknesses [m] and the band each belongs to; the edges belong to the thinner band ("t <= 16 mm").
 BAND_CASES = [
-    (0.003, 0), (0.016, 0), (0.0161, 1), (0.040, 1), (0.0405, 2), (0.063, 2), (0.0631, 3), (0.080, 3),
-    (0.0801, 4), (0.100, 4),
+    (0.003, 0),
+    (0.016, 0),
+    (0.0161, 1),
+    (0.040, 1),
+    (0.0405, 2),
+    (0.063, 2),
+    (0.0631, 3),
+    (0.080, 3),
+    (0.0801, 4),
+    (0.100, 4),
 ]
 
 
@@ -51,10 +59,16 @@ def test_s460_yield_strength_by_thickness(thickness, band):
     assert "from memory" in material.source
 
 
-@pytest.mark.parametrize(("thickness", "text"), [
-    (0.016, "t <= 16 mm"), (0.020, "16 < t <= 40 mm"), (0.050, "40 < t <= 63 mm"), (0.070, "63 < t <= 80 mm"),
-    (0.090, "80 < t <= 100 mm"),
-])
+@pytest.mark.parametrize(
+    ("thickness", "text"),
+    [
+        (0.016, "t <= 16 mm"),
+        (0.020, "16 < t <= 40 mm"),
+        (0.050, "40 < t <= 63 mm"),
+        (0.070, "63 < t <= 80 mm"),
+        (0.090, "80 < t <= 100 mm"),
+    ],
+)
 def test_thickness_band_is_named(thickness, text):
     """The band that gave f_y is recorded in thickness_band and in the source."""
     material = material_from_spec({"name": "S355"}, thickness=thickness)
@@ -144,11 +158,24 @@ def test_aluminium_6082_t6():
     assert "EN 1999-1-1 §3.2.5 [text]" in material.source
 
 
-@pytest.mark.parametrize(("spelling", "name"), [
-    ("s355", "S355"), (" S 355 ", "S355"), ("astm a992", "ASTM A992"), ("A992", "ASTM A992"),
-    ("a36", "ASTM A36"), ("c24", "C24"), ("GL24H", "GL24h"), ("en aw-6082 t6", "EN AW-6082 T6"),
-    ("S355J2", "S355"), ("s235 jr", "S235"), ("S275J0", "S275"), ("S460NL", "S460"), ("S460M", "S460"),
-])
+@pytest.mark.parametrize(
+    ("spelling", "name"),
+    [
+        ("s355", "S355"),
+        (" S 355 ", "S355"),
+        ("astm a992", "ASTM A992"),
+        ("A992", "ASTM A992"),
+        ("a36", "ASTM A36"),
+        ("c24", "C24"),
+        ("GL24H", "GL24h"),
+        ("en aw-6082 t6", "EN AW-6082 T6"),
+        ("S355J2", "S355"),
+        ("s235 jr", "S235"),
+        ("S275J0", "S275"),
+        ("S460NL", "S460"),
+        ("S460M", "S460"),
+    ],
+)
 def test_names_ignore_case_and_spaces(spelling, name):
     """Catalogued names are read without regard to case, spaces, hyphens or a quality suffix (J2, NL, ...)."""
     assert material_from_spec({"name": spelling}).name == name
@@ -168,8 +195,9 @@ def test_every_catalogued_name_resolves_and_cites_its_source():
         assert 1e-4 < material.fy / material.E < 1e-2
 
 
-@pytest.mark.parametrize(("name", "suggestion"), [("S356", "S355"), ("S235JJ", "S235"), ("C42", "C24"),
-                                                    ("ASTM A922", "ASTM A992")])
+@pytest.mark.parametrize(
+    ("name", "suggestion"), [("S356", "S355"), ("S235JJ", "S235"), ("C42", "C24"), ("ASTM A922", "ASTM A992")]
+)
 def test_unknown_name_suggests_the_nearest(name, suggestion):
     """An unknown grade is a CaseError naming material.name, the value and the nearest catalogued name."""
     with pytest.raises(CaseError, match=r"^material\.name: ") as error:
@@ -186,8 +214,9 @@ def test_unknown_name_without_a_near_match_lists_the_grades():
         material_from_spec({"name": "unobtainium"})
 
 
-@pytest.mark.parametrize(("key", "suggestion"), [("fyy", "fy"), ("e", "E"), ("densty", "density"),
-                                                  ("fc", "f_c")])
+@pytest.mark.parametrize(
+    ("key", "suggestion"), [("fyy", "fy"), ("e", "E"), ("densty", "density"), ("fc", "f_c")]
+)
 def test_unknown_key_names_the_field_and_suggests(key, suggestion):
     """An unknown key is a CaseError naming material.<key> with the nearest allowed key."""
     with pytest.raises(CaseError, match=rf"^material\.{key}: unknown key \(did you mean {suggestion!r}\?\)"):
@@ -207,12 +236,29 @@ def test_custom_material_defaults():
 
 def test_custom_material_takes_every_given_value():
     """Every optional custom key is stored as given, and the thickness does not change it."""
-    spec = {"name": "test alloy (invented)", "kind": "aluminium", "E": 7.2e10, "G": 2.7e10, "fy": 2.0e8,
-            "f_c": 1.8e8, "density": 2800, "E_05": 6.0e10}
+    spec = {
+        "name": "test alloy (invented)",
+        "kind": "aluminium",
+        "E": 7.2e10,
+        "G": 2.7e10,
+        "fy": 2.0e8,
+        "f_c": 1.8e8,
+        "density": 2800,
+        "E_05": 6.0e10,
+    }
     material = material_from_spec(spec, thickness=0.3)
-    assert material == Material(name="test alloy (invented)", kind="aluminium", E=7.2e10, G=2.7e10, fy=2.0e8,
-                                f_c=1.8e8, density=2800.0, E_05=6.0e10, thickness_band="",
-                                source=material.source)
+    assert material == Material(
+        name="test alloy (invented)",
+        kind="aluminium",
+        E=7.2e10,
+        G=2.7e10,
+        fy=2.0e8,
+        f_c=1.8e8,
+        density=2800.0,
+        E_05=6.0e10,
+        thickness_band="",
+        source=material.source,
+    )
     assert "density given" in material.source
 
 
@@ -222,8 +268,19 @@ def test_negative_yield_is_an_error_naming_the_field():
         material_from_spec({"E": 2.1e11, "fy": -3e8})
 
 
-@pytest.mark.parametrize(("key", "value"), [("E", 0.0), ("E", math.inf), ("E", "210 GPa"), ("fy", math.nan),
-                                            ("f_c", -1.0), ("density", -7850.0), ("G", 0.0), ("E_05", True)])
+@pytest.mark.parametrize(
+    ("key", "value"),
+    [
+        ("E", 0.0),
+        ("E", math.inf),
+        ("E", "210 GPa"),
+        ("fy", math.nan),
+        ("f_c", -1.0),
+        ("density", -7850.0),
+        ("G", 0.0),
+        ("E_05", True),
+    ],
+)
 def test_bad_custom_value_names_its_field(key, value):
     """Each custom value must be a finite number > 0 (density >= 0); the message names material.<key>."""
     spec = {"E": 2.1e11, "fy": 3.55e8, key: value}
@@ -289,5 +346,15 @@ def test_material_is_frozen_and_keyword_only():
 def test_direct_construction_validates_the_kind():
     """A Material built in Python is checked like one from a spec: an unknown kind is refused."""
     with pytest.raises(CaseError, match=r"^material\.kind: 'concrete' is not a material kind"):
-        Material(name="x", kind="concrete", E=3e10, G=None, fy=3e7, f_c=3e7, density=2400.0, E_05=None,
-                 thickness_band="", source="invented")
+        Material(
+            name="x",
+            kind="concrete",
+            E=3e10,
+            G=None,
+            fy=3e7,
+            f_c=3e7,
+            density=2400.0,
+            E_05=None,
+            thickness_band="",
+            source="invented",
+        )

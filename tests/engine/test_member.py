@@ -7,9 +7,15 @@ import pytest
 
 import engine
 
-BASE = {"schema": 1, "length": 5.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 2.0e5,
-        "section": {"name": "IPE 300"}, "material": {"name": "S355"},
-        "loads": [{"type": "uniform", "q": 3.0e3}]}
+BASE = {
+    "schema": 1,
+    "length": 5.0,
+    "supports": {"left": "pinned", "right": "pinned"},
+    "axial_force": 2.0e5,
+    "section": {"name": "IPE 300"},
+    "material": {"name": "S355"},
+    "loads": [{"type": "uniform", "q": 3.0e3}],
+}
 
 
 def _solve(**changes):
@@ -41,11 +47,13 @@ def test_table_5_1_preset_amplitude_and_curve():
 def test_other_presets():
     """AISC L/1000 (AISC 303-16 §7.13.1.1 [text]) and a span ratio L/n."""
     assert abs(_solve(imperfection={"preset": "aisc-l/1000"}).bow.amplitude) == pytest.approx(5e-3, rel=1e-12)
-    assert abs(_solve(imperfection={"preset": "span", "ratio": 400}).bow.amplitude) == pytest.approx(5.0 / 400)
+    assert abs(_solve(imperfection={"preset": "span", "ratio": 400}).bow.amplitude) == pytest.approx(
+        5.0 / 400
+    )
 
 
 def test_preset_bow_follows_the_load():
-    """With direction 'load' the bow takes the sign of the loads' first-order deflection; 'negative' forces it."""
+    """Direction 'load': the bow takes the sign of the loads' first-order deflection; 'negative' forces it."""
     up = _solve(imperfection={"preset": "aisc-l/1000"})
     down = _solve(imperfection={"preset": "aisc-l/1000"}, loads=[{"type": "uniform", "q": -3.0e3}])
     assert up.bow.amplitude > 0 > down.bow.amplitude
@@ -63,30 +71,36 @@ def test_eq_5_9_bow_is_the_first_mode():
     np.testing.assert_allclose(r.initial_bow, mode, atol=1e-12)
 
 
-@pytest.mark.parametrize(("imperfection", "field"), [
-    ({"preset": "en1993-table5.1"}, "imperfection.preset"),
-    ({"preset": "span"}, "imperfection.ratio"),
-    ({"preset": "aisc-l/1000", "amplitude": 0.01}, "imperfection.amplitude"),
-    ({"preset": "en1993-eq-5.9", "shape": "sine"}, "imperfection.shape"),
-    ({"shape": "sine", "amplitude": 0.01, "curve": "b"}, "imperfection.curve"),
-    ({"preset": "en1993-table-5.1", "curve": "e"}, "imperfection.curve"),
-])
+@pytest.mark.parametrize(
+    ("imperfection", "field"),
+    [
+        ({"preset": "en1993-table5.1"}, "imperfection.preset"),
+        ({"preset": "span"}, "imperfection.ratio"),
+        ({"preset": "aisc-l/1000", "amplitude": 0.01}, "imperfection.amplitude"),
+        ({"preset": "en1993-eq-5.9", "shape": "sine"}, "imperfection.shape"),
+        ({"shape": "sine", "amplitude": 0.01, "curve": "b"}, "imperfection.curve"),
+        ({"preset": "en1993-table-5.1", "curve": "e"}, "imperfection.curve"),
+    ],
+)
 def test_bad_presets_name_their_field(imperfection, field):
     """Each inconsistent bow preset is a CaseError naming its field."""
     with pytest.raises(engine.CaseError, match=field.replace(".", r"\.")):
         engine.Case.from_dict(dict(BASE, imperfection=imperfection))
 
 
-@pytest.mark.parametrize(("changes", "field"), [
-    ({"axis": "diagonal"}, "axis"),
-    ({"stiffness_factor": 1.5}, "stiffness_factor"),
-    ({"stiffness_factor": 0.0}, "stiffness_factor"),
-    ({"check": {"method": "plastik"}}, "check.method"),
-    ({"check": {"gamma_M0": -1}}, "check.gamma_M0"),
-    ({"check": {"gama_M0": 1.0}}, "check"),
-    ({"section": {"name": "IPE 201"}}, "section"),
-    ({"material": {"name": "S356"}}, "material"),
-])
+@pytest.mark.parametrize(
+    ("changes", "field"),
+    [
+        ({"axis": "diagonal"}, "axis"),
+        ({"stiffness_factor": 1.5}, "stiffness_factor"),
+        ({"stiffness_factor": 0.0}, "stiffness_factor"),
+        ({"check": {"method": "plastik"}}, "check.method"),
+        ({"check": {"gamma_M0": -1}}, "check.gamma_M0"),
+        ({"check": {"gama_M0": 1.0}}, "check"),
+        ({"section": {"name": "IPE 201"}}, "section"),
+        ({"material": {"name": "S356"}}, "material"),
+    ],
+)
 def test_bad_member_input_names_its_field(changes, field):
     """Bad axis, stiffness factor, check settings, section or material: CaseError naming the field."""
     with pytest.raises(engine.CaseError, match=field):
@@ -102,9 +116,16 @@ def test_ei_needs_section_and_material():
 
 
 def test_member_case_round_trips():
-    """A case with section, material, axis, stiffness factor, check and a preset round-trips through its dict."""
-    case = engine.Case.from_dict(dict(BASE, axis="minor", stiffness_factor=0.8, check={"method": "plastic"},
-                                      imperfection={"preset": "en1993-table-5.1", "curve": "b"}))
+    """A case with section, material, axis, stiffness factor, check and preset round-trips via its dict."""
+    case = engine.Case.from_dict(
+        dict(
+            BASE,
+            axis="minor",
+            stiffness_factor=0.8,
+            check={"method": "plastic"},
+            imperfection={"preset": "en1993-table-5.1", "curve": "b"},
+        )
+    )
     again = engine.Case.from_dict(case.to_dict())
     assert again == case and hash(again) == hash(case)
     assert engine.Case.from_json(case.to_json()) == case
@@ -113,5 +134,6 @@ def test_member_case_round_trips():
 def test_critical_loads_of_a_case_without_ei():
     """engine.critical_loads takes its EI from section × material and the stiffness factor, like solve."""
     case = engine.Case.from_dict(dict(BASE, stiffness_factor=0.8))
-    assert engine.critical_loads(case).critical_loads[0] == pytest.approx(engine.solve(case).critical_loads[0],
-                                                                          rel=1e-12)
+    assert engine.critical_loads(case).critical_loads[0] == pytest.approx(
+        engine.solve(case).critical_loads[0], rel=1e-12
+    )

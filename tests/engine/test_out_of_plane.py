@@ -102,9 +102,16 @@ def test_minor_axis_bending_checks_the_major_axis():
 
 def test_circular_section_is_the_same_about_both_axes():
     """A CHS pinned at both ends: out-of-plane N_cr equals the in-plane Pcr1 (same I about every axis)."""
-    case = engine.Case.from_dict({"schema": 1, "length": 4.0, "axial_force": 1e5,
-                                  "supports": {"left": "pinned", "right": "pinned"},
-                                  "section": {"name": "CHS 114.3x5"}, "material": {"name": "S355"}})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 4.0,
+            "axial_force": 1e5,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "section": {"name": "CHS 114.3x5"},
+            "material": {"name": "S355"},
+        }
+    )
     r = engine.solve(case)
     assert r.check.out_of_plane.N_cr == pytest.approx(r.critical_loads[0], rel=1e-9)
 
@@ -112,10 +119,16 @@ def test_circular_section_is_the_same_about_both_axes():
 def test_custom_section_cannot_be_checked_out_of_plane():
     """A custom section has properties about one axis only: a warning says the out-of-plane check is not
     made."""
-    case = engine.Case.from_dict({
-        "schema": 1, "length": 4.0, "supports": {"left": "pinned", "right": "pinned"}, "axial_force": 1e5,
-        "section": {"shape": "custom", "A": 5e-3, "I": 2e-5, "W_el": 2e-4, "W_pl": 2.3e-4},
-        "material": {"name": "S355"}})
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 4.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 1e5,
+            "section": {"shape": "custom", "A": 5e-3, "I": 2e-5, "W_el": 2e-4, "W_pl": 2.3e-4},
+            "material": {"name": "S355"},
+        }
+    )
     r = engine.solve(case)
     assert not r.check.out_of_plane.checked
     warning = [c for c in r.cautions if c.code == "out-of-plane-not-checked"]
@@ -128,8 +141,9 @@ def test_default_length_on_a_cantilever_warns():
     supports = {"left": "fixed", "right": "free"}
     r = engine.solve(_demo(supports=supports, axial_force=50e3, loads=[]))
     assert "out-of-plane-length" in [c.code for c in r.cautions if c.level == "warning"]
-    given = engine.solve(_demo(supports=supports, axial_force=50e3, loads=[],
-                               out_of_plane={"buckling_length": 12.0}))
+    given = engine.solve(
+        _demo(supports=supports, axial_force=50e3, loads=[], out_of_plane={"buckling_length": 12.0})
+    )
     assert "out-of-plane-length" not in [c.code for c in given.cautions]
     assert "out-of-plane-length" not in [c.code for c in engine.solve(_demo()).cautions]
 
@@ -147,7 +161,8 @@ def test_chi_at_unit_slenderness_for_every_curve():
     for curve, expected in zip(codes.BUCKLING_CURVES, (0.7253, 0.6656, 0.5970, 0.5399, 0.4671), strict=True):
         assert codes.reduction_factor(1.0, curve) == pytest.approx(expected, abs=5e-5)
         assert codes.reduction_factor(1.0, curve) == pytest.approx(
-            _chi(1.0, codes.IMPERFECTION_FACTORS[curve]), rel=1e-14)
+            _chi(1.0, codes.IMPERFECTION_FACTORS[curve]), rel=1e-14
+        )
 
 
 def test_case_key_round_trip_and_errors():
@@ -155,10 +170,12 @@ def test_case_key_round_trip_and_errors():
     case = _demo(out_of_plane={"buckling_length": 3.0})
     assert engine.Case.from_dict(case.to_dict()) == case
     assert "out_of_plane" not in _demo().to_dict()
-    for bad, field in (({"buckling_length": 0}, "out_of_plane.buckling_length"),
-                       ({"restrained": "yes"}, "out_of_plane.restrained"),
-                       ({"length": 3}, "out_of_plane.length"),
-                       ({"restrained": True, "buckling_length": 2.0}, "out_of_plane.buckling_length")):
+    for bad, field in (
+        ({"buckling_length": 0}, "out_of_plane.buckling_length"),
+        ({"restrained": "yes"}, "out_of_plane.restrained"),
+        ({"length": 3}, "out_of_plane.length"),
+        ({"restrained": True, "buckling_length": 2.0}, "out_of_plane.buckling_length"),
+    ):
         with pytest.raises(CaseError, match=rf"^{field}"):
             _demo(out_of_plane=bad)
     replaced = dataclasses.replace(_demo(), out_of_plane={"restrained": True})

@@ -47,9 +47,13 @@ from tests.strategies import (
 # run is repeatable and writes nothing. For a longer hunt, STRUTSCOPE_PROPERTY_EXAMPLES raises the count and
 # STRUTSCOPE_PROPERTY_SEARCH=1 draws fresh examples.
 _EXAMPLES = int(os.environ.get("STRUTSCOPE_PROPERTY_EXAMPLES", "150"))
-PROPERTY = settings(max_examples=_EXAMPLES, deadline=None, database=None,
-                    derandomize=os.environ.get("STRUTSCOPE_PROPERTY_SEARCH") != "1",
-                    suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+PROPERTY = settings(
+    max_examples=_EXAMPLES,
+    deadline=None,
+    database=None,
+    derandomize=os.environ.get("STRUTSCOPE_PROPERTY_SEARCH") != "1",
+    suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large],
+)
 FEW = settings(PROPERTY, max_examples=max(1, _EXAMPLES // 2))
 
 FIELDS = ("deflection", "rotation", "moment", "shear", "transverse_force")
@@ -198,8 +202,13 @@ def _bow(imperfection, length, x):
         sin, cos = np.sin(c * x), np.cos(c * x)
         return a * sin, a * c * cos, -a * c**2 * sin, -a * c**3 * cos, a * c**4 * sin
     if shape == "parabola":
-        return (4 * a * x * (length - x) / length**2, 4 * a * (length - 2 * x) / length**2,
-                np.full_like(x, -8 * a / length**2), zero, zero)
+        return (
+            4 * a * x * (length - x) / length**2,
+            4 * a * (length - 2 * x) / length**2,
+            np.full_like(x, -8 * a / length**2),
+            zero,
+            zero,
+        )
     if shape == "sway":
         return a * x / length, np.full_like(x, a / length), zero, zero, zero
     raise ValueError(f"no closed form for bow shape {shape!r}")
@@ -224,13 +233,22 @@ def _scales(result, mapping):
     length, EI, P = mapping["length"], mapping["EI"], mapping.get("axial_force", 0.0)
     bow = abs(mapping.get("imperfection", {}).get("amplitude", 0.0))
     peak = {name: _peak(getattr(result, name)) for name in FIELDS}
-    force = (peak["shear"] + peak["transverse_force"] + peak["moment"] / length
-             + _load_magnitude(mapping["loads"], length)
-             + abs(P) * (peak["rotation"] + math.pi * bow / length))
+    force = (
+        peak["shear"]
+        + peak["transverse_force"]
+        + peak["moment"] / length
+        + _load_magnitude(mapping["loads"], length)
+        + abs(P) * (peak["rotation"] + math.pi * bow / length)
+    )
     moment = peak["moment"] + force * length
     displacement = peak["deflection"] + length * peak["rotation"] + moment * length**2 / EI + bow
-    return {"deflection": displacement, "rotation": displacement / length, "moment": moment,
-            "shear": force, "transverse_force": force}
+    return {
+        "deflection": displacement,
+        "rotation": displacement / length,
+        "moment": moment,
+        "shear": force,
+        "transverse_force": force,
+    }
 
 
 # ------------------------------------------------------------------------------------------ equilibrium
@@ -252,11 +270,19 @@ def test_reactions_balance_the_transverse_load_and_the_moments(data):
     # Moment balance from integrating M' = T + P (w + w0)' over the member, support side to support side:
     # M(L+) − M(0−) = L T(0−) − ∫(L − s) q ds − Σ F (L − x_F) + P [(w + w0)(L) − (w + w0)(0)] + Σ C.
     offset = np.asarray(result.total_offset, dtype=float)
-    expected = (length * reactions.left_T - _load_moment_about_right_end(loads, length)
-                + P * (offset[-1] - offset[0])
-                + sum(load["C"] for load in loads if load["type"] == "couple"))
-    moment_scale = (force_scale * length + _peak(result.moment) + abs(reactions.left_M)
-                    + abs(reactions.right_M) + abs(P) * _peak(offset))
+    expected = (
+        length * reactions.left_T
+        - _load_moment_about_right_end(loads, length)
+        + P * (offset[-1] - offset[0])
+        + sum(load["C"] for load in loads if load["type"] == "couple")
+    )
+    moment_scale = (
+        force_scale * length
+        + _peak(result.moment)
+        + abs(reactions.left_M)
+        + abs(reactions.right_M)
+        + abs(P) * _peak(offset)
+    )
     assert abs(reactions.right_M - reactions.left_M - expected) <= 1e-9 * moment_scale
 
 
@@ -317,7 +343,8 @@ def test_stations_run_in_order_from_end_to_end_through_every_load_position(data)
     assert x[0] == 0.0 and x[-1] == pytest.approx(length, rel=1e-15)
     steps = np.diff(x)
     assert np.all(steps >= 0.0), (
-        f"stations decrease by {-steps.min():.3g} m at x = {x[np.argmin(steps)]:.17g} m")
+        f"stations decrease by {-steps.min():.3g} m at x = {x[np.argmin(steps)]:.17g} m"
+    )
     for load in mapping["loads"]:
         wanted = [load["x"]] if "x" in load else [value for value in _span(load, length)]
         for where in wanted:
@@ -335,11 +362,17 @@ def test_fields_obey_the_differential_relations_between_stations(data):
 def test_differential_relations_hold_under_a_steep_short_linear_load():
     """A 0-to-10 kN/m linear load over 3 mm next to a fixed end still meets the differential relations."""
     # A shrunk example of the property above: it needs the h⁴ correction term (q' = 3.3e6 N/m² here).
-    _assert_differential_relations({
-        "schema": 1, "length": 1.0, "EI": 1.0e5, "supports": {"left": "fixed", "right": "fixed"},
-        "axial_force": 0.0, "imperfection": {"shape": "none", "amplitude": 0.0},
-        "loads": [{"type": "linear", "q_start": 0.0, "q_end": -1.0e4, "start": 0.001, "end": 0.004}],
-    })
+    _assert_differential_relations(
+        {
+            "schema": 1,
+            "length": 1.0,
+            "EI": 1.0e5,
+            "supports": {"left": "fixed", "right": "fixed"},
+            "axial_force": 0.0,
+            "imperfection": {"shape": "none", "amplitude": 0.0},
+            "loads": [{"type": "linear", "q_start": 0.0, "q_end": -1.0e4, "start": 0.001, "end": 0.004}],
+        }
+    )
 
 
 def _assert_differential_relations(mapping):
@@ -350,8 +383,9 @@ def _assert_differential_relations(mapping):
     x = np.asarray(result.x, dtype=float)
     f = _arrays(result)
     w, theta, M, V, T = (f[name] for name in FIELDS)
-    np.testing.assert_allclose(result.total_offset, w + result.initial_bow, rtol=0,
-                               atol=1e-12 * _peak(result.total_offset))
+    np.testing.assert_allclose(
+        result.total_offset, w + result.initial_bow, rtol=0, atol=1e-12 * _peak(result.total_offset)
+    )
 
     w0, dw0, ddw0, d3w0, d4w0 = _bow(mapping["imperfection"], length, x)
     np.testing.assert_allclose(result.initial_bow, w0, rtol=0, atol=1e-12 * length)
@@ -395,8 +429,9 @@ def _assert_differential_relations(mapping):
 
     theta_scale = _peak(theta) + length * _peak(M) / EI
     # f = −M/EI: f' = −V/EI, f‴ = −V''/EI.
-    dtheta_expected = corrected_trapezoid(-M[i0] / EI, -M[i1] / EI, -V[i0] / EI, -V[i1] / EI,
-                                          -ddV_a / EI, -ddV_b / EI)
+    dtheta_expected = corrected_trapezoid(
+        -M[i0] / EI, -M[i1] / EI, -V[i0] / EI, -V[i1] / EI, -ddV_a / EI, -ddV_b / EI
+    )
     np.testing.assert_allclose(theta[i1] - theta[i0], dtheta_expected, rtol=0, atol=1e-8 * theta_scale)
 
     M_scale = _peak(M) + length * _peak(V) + length * T_scale
@@ -415,8 +450,9 @@ def _assert_differential_relations(mapping):
         increments = np.zeros(x.size - 1)
         increments[interval] = predicted
         increments[jump] = jumps
-        np.testing.assert_allclose(field[1:] - field[0], np.cumsum(increments), rtol=0, atol=1e-8 * scale,
-                                   err_msg=what)
+        np.testing.assert_allclose(
+            field[1:] - field[0], np.cumsum(increments), rtol=0, atol=1e-8 * scale, err_msg=what
+        )
 
     assert_cumulative(T, -0.5 * h * (qa + qb), -point_jumps, T_scale, "T")
     assert_cumulative(w, dw_expected, 0.0, w_scale, "w")
@@ -428,8 +464,9 @@ def _assert_differential_relations(mapping):
 @given(data=st.data())
 def test_point_loads_and_couples_make_the_exact_jumps(data):
     """At a point load F, T and V jump by −F; at a couple C, M jumps by C; w and θ stay continuous there."""
-    mapping, _ = _draw_loaded_case(data, load_types=("point", "couple", "uniform"), allow_end_loads=True,
-                                   min_loads=2)
+    mapping, _ = _draw_loaded_case(
+        data, load_types=("point", "couple", "uniform"), allow_end_loads=True, min_loads=2
+    )
     result = _solve(mapping)
     length = mapping["length"]
     loads = mapping["loads"]
@@ -462,12 +499,14 @@ def test_point_loads_and_couples_make_the_exact_jumps(data):
         assert here.size >= 2, f"{load['type']} at x = {at} m: station given {here.size} time(s), not twice"
         left, right = here[0], here[-1]
         assert f["transverse_force"][right] - f["transverse_force"][left] == pytest.approx(
-            -F, abs=1e-9 * force_scale)
+            -F, abs=1e-9 * force_scale
+        )
         assert f["shear"][right] - f["shear"][left] == pytest.approx(-F, abs=1e-9 * force_scale)
         assert f["moment"][right] - f["moment"][left] == pytest.approx(C, abs=1e-9 * moment_scale)
         # Continuity to rounding: 1e-10 of the displacement scale (each side comes from its own segment).
-        assert f["deflection"][right] == pytest.approx(f["deflection"][left],
-                                                       abs=1e-10 * scales["deflection"])
+        assert f["deflection"][right] == pytest.approx(
+            f["deflection"][left], abs=1e-10 * scales["deflection"]
+        )
         assert f["rotation"][right] == pytest.approx(f["rotation"][left], abs=1e-10 * scales["rotation"])
 
 
@@ -496,8 +535,9 @@ def test_solutions_superpose_at_a_fixed_axial_force(data):
         scale = sum(item[name] for item in scales)
         for side in (0, 1):
             total = _sides(together, name, targets, tol_x)[side][mask]
-            summed = (_sides(alone_a, name, targets, tol_x)[side]
-                      + _sides(alone_b, name, targets, tol_x)[side])[mask]
+            summed = (
+                _sides(alone_a, name, targets, tol_x)[side] + _sides(alone_b, name, targets, tol_x)[side]
+            )[mask]
             # Tolerance 1e-9 of the scale: both sides come from the same double-precision solve.
             np.testing.assert_allclose(total, summed, rtol=0, atol=1e-9 * scale, err_msg=name)
 
@@ -506,8 +546,9 @@ def test_solutions_superpose_at_a_fixed_axial_force(data):
 @given(data=st.data())
 def test_displacements_are_reciprocal_at_a_fixed_axial_force(data):
     """Load 1 at x_i times the response to load 2 there equals load 2 times the response to load 1 at x_j."""
-    mapping = data.draw(cases(bow_shapes=("none",), load_types=("point",), min_loads=1, max_loads=1),
-                        label="case")
+    mapping = data.draw(
+        cases(bow_shapes=("none",), load_types=("point",), min_loads=1, max_loads=1), label="case"
+    )
     critical = _first_critical_load(mapping)
     mapping = with_axial_force(mapping, data.draw(axial_fractions(), label="P/P_cr1") * critical)
     length = mapping["length"]
@@ -542,8 +583,9 @@ def test_displacements_are_reciprocal_at_a_fixed_axial_force(data):
 
     w_01 = work(0, results[1])
     w_10 = work(1, results[0])
-    scale = (sizes[0] * (_peak(results[1].deflection) + length * _peak(results[1].rotation))
-             + sizes[1] * (_peak(results[0].deflection) + length * _peak(results[0].rotation)))
+    scale = sizes[0] * (_peak(results[1].deflection) + length * _peak(results[1].rotation)) + sizes[1] * (
+        _peak(results[0].deflection) + length * _peak(results[0].rotation)
+    )
     # Betti–Maxwell; tolerance 1e-8 of the largest work in play (stiff springs cost a few digits).
     assert w_01 == pytest.approx(w_10, abs=1e-8 * scale)
 
@@ -589,10 +631,12 @@ def test_mirroring_the_case_mirrors_the_response(data):
         image_left, image_right, _ = _sides(image, name, length - targets, tol_x)
         scale = _scales(original, mapping)[name] + _scales(image, mirrored)[name]
         # The value just left of x in the mirror image is the value just right of L − x here, and vice versa.
-        np.testing.assert_allclose(image_left[mask], sign * right[mask], rtol=0, atol=1e-9 * scale,
-                                   err_msg=name)
-        np.testing.assert_allclose(image_right[mask], sign * left[mask], rtol=0, atol=1e-9 * scale,
-                                   err_msg=name)
+        np.testing.assert_allclose(
+            image_left[mask], sign * right[mask], rtol=0, atol=1e-9 * scale, err_msg=name
+        )
+        np.testing.assert_allclose(
+            image_right[mask], sign * left[mask], rtol=0, atol=1e-9 * scale, err_msg=name
+        )
     for name in ("deflection", "moment", "shear"):
         peak, image_peak = getattr(original.governing, name).value, getattr(image.governing, name).value
         scale = _scales(original, mapping)[name]
@@ -622,8 +666,13 @@ def test_response_is_continuous_through_zero_axial_force(data, epsilon):
     # the change is of order ε times the response to the bow at P_cr1: a, a/L, P_cr1 a and P_cr1 a/L.
     a = abs(mapping["imperfection"]["amplitude"])
     bow_force = math.pi * critical * a / length
-    bow_scale = {"deflection": a, "rotation": math.pi * a / length, "moment": critical * a,
-                 "shear": bow_force, "transverse_force": bow_force}
+    bow_scale = {
+        "deflection": a,
+        "rotation": math.pi * a / length,
+        "moment": critical * a,
+        "shear": bow_force,
+        "transverse_force": bow_force,
+    }
     scales = _scales(zero, mapping)
     for name in FIELDS:
         scale = scales[name] + bow_scale[name]
@@ -653,8 +702,11 @@ def _scale_supports(supports, translation_factor, rotation_factor):
         if isinstance(spec, str):
             return spec
         t, r = spec["translation"], spec["rotation"]
-        return {"translation": t * translation_factor if not isinstance(t, str) else t,
-                "rotation": r * rotation_factor if not isinstance(r, str) else r}
+        return {
+            "translation": t * translation_factor if not isinstance(t, str) else t,
+            "rotation": r * rotation_factor if not isinstance(r, str) else r,
+        }
+
     return {side: scaled(spec) for side, spec in supports.items()}
 
 
@@ -665,8 +717,12 @@ def test_scaling_EI_and_P_together_scales_only_the_displacements(data, factor):
     # EI w'''' + P w'' = q stays the same equation for λ·w when EI, P and the springs are all multiplied by λ.
     # An initial bow would not scale (its load P w0'' grows with λ), so the class excludes it.
     mapping, _ = _draw_loaded_case(data, bow_shapes=("none",))
-    scaled = dict(mapping, EI=mapping["EI"] * factor, axial_force=mapping["axial_force"] * factor,
-                  supports=_scale_supports(mapping["supports"], factor, factor))
+    scaled = dict(
+        mapping,
+        EI=mapping["EI"] * factor,
+        axial_force=mapping["axial_force"] * factor,
+        supports=_scale_supports(mapping["supports"], factor, factor),
+    )
     original, other = _solve(mapping), _solve(scaled)
     np.testing.assert_allclose(other.critical_loads, np.asarray(original.critical_loads) * factor, rtol=1e-9)
     tol_x = 1e-9 * mapping["length"]
@@ -703,18 +759,28 @@ def test_scaling_the_length_at_fixed_P_L2_over_EI_follows_the_similarity_law(dat
         return out
 
     imperfection = dict(mapping["imperfection"], amplitude=mapping["imperfection"]["amplitude"] * s**4)
-    scaled = dict(mapping, length=length * s, axial_force=mapping["axial_force"] / s**2,
-                  loads=[scaled_load(load) for load in mapping["loads"]], imperfection=imperfection,
-                  supports=_scale_supports(mapping["supports"], s**-3, s**-1))
+    scaled = dict(
+        mapping,
+        length=length * s,
+        axial_force=mapping["axial_force"] / s**2,
+        loads=[scaled_load(load) for load in mapping["loads"]],
+        imperfection=imperfection,
+        supports=_scale_supports(mapping["supports"], s**-3, s**-1),
+    )
     original, other = _solve(mapping), _solve(scaled)
     np.testing.assert_allclose(other.critical_loads, np.asarray(original.critical_loads) / s**2, rtol=1e-9)
     bow, scaled_bow = np.asarray(original.initial_bow), np.asarray(other.initial_bow)
-    if mapping["imperfection"]["shape"] == "mode" and bow.size == scaled_bow.size and np.allclose(
-            scaled_bow, -bow * s**4, rtol=0, atol=1e-9 * _peak(scaled_bow)):
+    if (
+        mapping["imperfection"]["shape"] == "mode"
+        and bow.size == scaled_bow.size
+        and np.allclose(scaled_bow, -bow * s**4, rtol=0, atol=1e-9 * _peak(scaled_bow))
+    ):
         # The mode is made positive at its largest |value|. When two extremes tie (equal translational
         # springs force w(L) = −w(0) in the mode), rounding picks the sign, so compare with the bow used.
-        mapping = dict(mapping, imperfection=dict(mapping["imperfection"],
-                                                  amplitude=-mapping["imperfection"]["amplitude"]))
+        mapping = dict(
+            mapping,
+            imperfection=dict(mapping["imperfection"], amplitude=-mapping["imperfection"]["amplitude"]),
+        )
         original = _solve(mapping)
     tol_xi = 1e-9
     xi = np.unique(np.asarray(original.x) / length)
@@ -731,8 +797,17 @@ def test_scaling_the_length_at_fixed_P_L2_over_EI_follows_the_similarity_law(dat
 # ------------------------------------------------------------------------------------- amplification
 def _braced_uniform_case(data):
     """A case of the class where the bounds hold: translations fixed, one full-length uniform load, no bow."""
-    return data.draw(cases(load_types=("uniform",), min_loads=1, max_loads=1, partial=False,
-                           bow_shapes=("none",), patterns=BRACED_PATTERNS), label="case")
+    return data.draw(
+        cases(
+            load_types=("uniform",),
+            min_loads=1,
+            max_loads=1,
+            partial=False,
+            bow_shapes=("none",),
+            patterns=BRACED_PATTERNS,
+        ),
+        label="case",
+    )
 
 
 @PROPERTY
@@ -769,8 +844,13 @@ def test_tension_reduces_the_moment(data, fraction):
 # Shrunk falsifying examples of the properties above, kept as fixed cases so that every run checks them.
 def test_a_couple_alone_reports_a_small_transverse_residual():
     """Guided–fixed, a couple only, P = 0.25 P_cr1: equilibrium.transverse is below 1e-8 (reactions ≈ 0)."""
-    mapping = {"schema": 1, "length": 1.0, "EI": 1.0e5, "supports": {"left": "guided", "right": "fixed"},
-               "loads": [{"type": "couple", "C": -1.0e4, "x": 0.3}]}
+    mapping = {
+        "schema": 1,
+        "length": 1.0,
+        "EI": 1.0e5,
+        "supports": {"left": "guided", "right": "fixed"},
+        "loads": [{"type": "couple", "C": -1.0e4, "x": 0.3}],
+    }
     mapping = with_axial_force(mapping, 0.25 * _first_critical_load(mapping))
     result = _solve(mapping)
     # The transverse load is zero, so both reactions are rounding noise; a relative residual must judge them
@@ -781,8 +861,13 @@ def test_a_couple_alone_reports_a_small_transverse_residual():
 
 def test_the_repeated_station_at_a_point_load_is_the_load_position_twice():
     """Pinned–pinned with point loads at 0.16 m and 0.45 m: both copies of each load's station equal its x."""
-    mapping = {"schema": 1, "length": 1.0, "EI": 1.0e5, "supports": {"left": "pinned", "right": "pinned"},
-               "loads": [{"type": "point", "P": 1.0e3, "x": 0.16}, {"type": "point", "P": 1.0e3, "x": 0.45}]}
+    mapping = {
+        "schema": 1,
+        "length": 1.0,
+        "EI": 1.0e5,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "loads": [{"type": "point", "P": 1.0e3, "x": 0.16}, {"type": "point", "P": 1.0e3, "x": 0.45}],
+    }
     x = np.asarray(_solve(mapping).x)
     for where in (0.16, 0.45):
         copies = x[np.abs(x - where) <= 1e-12]

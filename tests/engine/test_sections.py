@@ -96,8 +96,11 @@ REFERENCE_VALUES += [
 ]
 
 
-@pytest.mark.parametrize(("label", "spec", "axis", "prop", "expected"), REFERENCE_VALUES,
-                         ids=[f"{r[0]}-{r[2]}-{r[3]}" for r in REFERENCE_VALUES])
+@pytest.mark.parametrize(
+    ("label", "spec", "axis", "prop", "expected"),
+    REFERENCE_VALUES,
+    ids=[f"{r[0]}-{r[2]}-{r[3]}" for r in REFERENCE_VALUES],
+)
 def test_properties_match_references_section_5(label, spec, axis, prop, expected):
     """Each property of the references.md §5 sections agrees with the published value to 0.5 %."""
     section = section_from_spec(spec, axis=axis)
@@ -169,10 +172,15 @@ def test_catalogue_names_agree_with_their_dimensions(name):
 def test_catalogue_covers_the_sizes_asked_for():
     """The catalogue holds IPE 80 to 600, HEA and HEB 100 to 400 at least, and the §5 hollow sections."""
     names = set(catalogue_names())
-    ipe = {f"IPE {n}" for n in (80, 100, 120, 140, 160, 180, 200, 220, 240, 270, 300, 330, 360, 400, 450, 500,
-                                 550, 600)}
-    he = {f"HE{letter} {n}" for letter in "AB"
-          for n in (100, 120, 140, 160, 180, 200, 220, 240, 260, 280, 300, 320, 340, 360, 400)}
+    ipe = {
+        f"IPE {n}"
+        for n in (80, 100, 120, 140, 160, 180, 200, 220, 240, 270, 300, 330, 360, 400, 450, 500, 550, 600)
+    }
+    he = {
+        f"HE{letter} {n}"
+        for letter in "AB"
+        for n in (100, 120, 140, 160, 180, 200, 220, 240, 260, 280, 300, 320, 340, 360, 400)
+    }
     assert ipe | he | {"SHS 100x100x5", "CHS 114.3x5", "TIMBER 45x195"} <= names
     assert len(names) == len(catalogue_names())
 
@@ -201,10 +209,14 @@ def fe():
         zxx_plus, zxx_minus, zyy_plus, zyy_minus = analysis.get_z()
         sxx, syy = analysis.get_s()
         return {
-            ("major", "A"): analysis.get_area(), ("minor", "A"): analysis.get_area(),
-            ("major", "I"): ixx, ("minor", "I"): iyy,
-            ("major", "W_el"): min(zxx_plus, zxx_minus), ("minor", "W_el"): min(zyy_plus, zyy_minus),
-            ("major", "W_pl"): sxx, ("minor", "W_pl"): syy,
+            ("major", "A"): analysis.get_area(),
+            ("minor", "A"): analysis.get_area(),
+            ("major", "I"): ixx,
+            ("minor", "I"): iyy,
+            ("major", "W_el"): min(zxx_plus, zxx_minus),
+            ("minor", "W_el"): min(zyy_plus, zyy_minus),
+            ("major", "W_pl"): sxx,
+            ("minor", "W_pl"): syy,
         }
 
     return properties
@@ -244,14 +256,34 @@ FE_SPECS = {
     "rolled IPE 200": IPE_200,
     "rolled HEB 200": HEB_200,
     "welded I 600x250x8x15": {"shape": "welded_i", "h": 0.6, "b": 0.25, "tw": 0.008, "tf": 0.015},
-    "RHS 150x100x6.3 hot-finished": {"shape": "rhs", "h": 0.15, "b": 0.1, "t": 0.0063,
-                                     "manufacture": "hot-finished"},
-    "RHS 200x120x5 cold-formed (r_o = 2t)": {"shape": "rhs", "h": 0.2, "b": 0.12, "t": 0.005,
-                                             "manufacture": "cold-formed"},
-    "RHS 200x120x8 cold-formed (r_o = 2.5t)": {"shape": "rhs", "h": 0.2, "b": 0.12, "t": 0.008,
-                                               "manufacture": "cold-formed"},
-    "SHS 200x200x12.5 cold-formed (r_o = 3t)": {"shape": "rhs", "h": 0.2, "b": 0.2, "t": 0.0125,
-                                                "manufacture": "cold-formed"},
+    "RHS 150x100x6.3 hot-finished": {
+        "shape": "rhs",
+        "h": 0.15,
+        "b": 0.1,
+        "t": 0.0063,
+        "manufacture": "hot-finished",
+    },
+    "RHS 200x120x5 cold-formed (r_o = 2t)": {
+        "shape": "rhs",
+        "h": 0.2,
+        "b": 0.12,
+        "t": 0.005,
+        "manufacture": "cold-formed",
+    },
+    "RHS 200x120x8 cold-formed (r_o = 2.5t)": {
+        "shape": "rhs",
+        "h": 0.2,
+        "b": 0.12,
+        "t": 0.008,
+        "manufacture": "cold-formed",
+    },
+    "SHS 200x200x12.5 cold-formed (r_o = 3t)": {
+        "shape": "rhs",
+        "h": 0.2,
+        "b": 0.2,
+        "t": 0.0125,
+        "manufacture": "cold-formed",
+    },
     "CHS 114.3x5": CHS_114,
     "rectangle 45x195": {"shape": "rectangle", "b": 0.045, "h": 0.195},
     "round 30": {"shape": "round", "D": 0.03},
@@ -321,13 +353,21 @@ def test_minor_axis_takes_the_minor_axis_values(name):
     assert minor.A == major.A and minor.t_max == major.t_max and minor.h_over_b == major.h_over_b
 
 
-@pytest.mark.parametrize(("spec", "swapped"), [
-    ({"shape": "rectangle", "b": 0.045, "h": 0.195}, {"shape": "rectangle", "b": 0.195, "h": 0.045}),
-    ({"shape": "rhs", "h": 0.2, "b": 0.1, "t": 0.008, "manufacture": "hot-finished"},
-     {"shape": "rhs", "h": 0.1, "b": 0.2, "t": 0.008, "manufacture": "hot-finished"}),
-    ({"shape": "rhs", "h": 0.25, "b": 0.15, "t": 0.012, "manufacture": "cold-formed"},
-     {"shape": "rhs", "h": 0.15, "b": 0.25, "t": 0.012, "manufacture": "cold-formed"}),
-], ids=["rectangle", "rhs hot-finished", "rhs cold-formed"])
+@pytest.mark.parametrize(
+    ("spec", "swapped"),
+    [
+        ({"shape": "rectangle", "b": 0.045, "h": 0.195}, {"shape": "rectangle", "b": 0.195, "h": 0.045}),
+        (
+            {"shape": "rhs", "h": 0.2, "b": 0.1, "t": 0.008, "manufacture": "hot-finished"},
+            {"shape": "rhs", "h": 0.1, "b": 0.2, "t": 0.008, "manufacture": "hot-finished"},
+        ),
+        (
+            {"shape": "rhs", "h": 0.25, "b": 0.15, "t": 0.012, "manufacture": "cold-formed"},
+            {"shape": "rhs", "h": 0.15, "b": 0.25, "t": 0.012, "manufacture": "cold-formed"},
+        ),
+    ],
+    ids=["rectangle", "rhs hot-finished", "rhs cold-formed"],
+)
 def test_minor_axis_of_a_rectangular_shape_is_the_major_axis_turned_over(spec, swapped):
     """The minor axis of h × b has the properties of the major axis of b × h, interaction a included."""
     minor = section_from_spec(spec, axis="minor")
@@ -340,8 +380,9 @@ def test_minor_axis_of_a_rectangular_shape_is_the_major_axis_turned_over(spec, s
             assert getattr(minor, prop) == pytest.approx(expected, rel=1e-12), prop
 
 
-@pytest.mark.parametrize("spec", [CHS_114, {"shape": "round", "D": 0.03}, SHS_HOT],
-                         ids=["chs", "round", "shs"])
+@pytest.mark.parametrize(
+    "spec", [CHS_114, {"shape": "round", "D": 0.03}, SHS_HOT], ids=["chs", "round", "shs"]
+)
 def test_sections_symmetric_about_both_axes_give_the_same_values_about_each(spec):
     """A tube, a bar and a square hollow section have the same properties about either axis."""
     major, minor = section_from_spec(spec), section_from_spec(spec, axis="minor")
@@ -353,8 +394,9 @@ def test_sections_symmetric_about_both_axes_give_the_same_values_about_each(spec
 
 
 # A_v,z [cm²] for shear parallel to the web (from memory, handbook tables), to 0.5 %.
-@pytest.mark.parametrize(("name", "expected"), [("IPE 200", 14.00), ("IPE 300", 25.68), ("HEB 200", 24.83),
-                                                ("HEA 200", 18.08)])
+@pytest.mark.parametrize(
+    ("name", "expected"), [("IPE 200", 14.00), ("IPE 300", 25.68), ("HEB 200", 24.83), ("HEA 200", 18.08)]
+)
 def test_rolled_shear_area_parallel_to_the_web_matches_the_handbook(name, expected):
     """A rolled I/H's A_v for major-axis bending is A − 2btf + (tw + 2r)tf, as the handbook prints it."""
     assert _relative(section_from_spec({"name": name}).A_v / CM2, expected) <= REFERENCE_TOLERANCE
@@ -396,8 +438,9 @@ def test_interaction_a_follows_en_1993_1_1_6_2_9_1():
     assert section_from_spec({"name": "TIMBER 45x195"}).interaction_a is None
 
 
-@pytest.mark.parametrize(("t", "ratio"), [(0.004, 2.0), (0.006, 2.0), (0.0063, 2.5), (0.010, 2.5),
-                                          (0.0125, 3.0)])
+@pytest.mark.parametrize(
+    ("t", "ratio"), [(0.004, 2.0), (0.006, 2.0), (0.0063, 2.5), (0.010, 2.5), (0.0125, 3.0)]
+)
 def test_cold_formed_corner_radii_step_with_thickness(t, ratio):
     """Cold-formed RHS corners: r_o = 2t to 6 mm, 2.5t to 10 mm, 3t above (EN 10219-2, from memory)."""
     section = section_from_spec({"shape": "rhs", "h": 0.3, "b": 0.2, "t": t, "manufacture": "cold-formed"})
@@ -435,8 +478,13 @@ def test_custom_section_takes_its_values_as_given():
     """A custom section keeps A, I, W_el and W_pl, defaults A_v to A and leaves unknown extents as None."""
     spec = {"shape": "custom", "A": 2.8e-3, "I": 1.9e-5, "W_el": 1.9e-4, "W_pl": 2.2e-4}
     section = section_from_spec(spec, axis="minor")
-    assert (section.A, section.I, section.W_el, section.W_pl, section.A_v) == (2.8e-3, 1.9e-5, 1.9e-4, 2.2e-4,
-                                                                               2.8e-3)
+    assert (section.A, section.I, section.W_el, section.W_pl, section.A_v) == (
+        2.8e-3,
+        1.9e-5,
+        1.9e-4,
+        2.2e-4,
+        2.8e-3,
+    )
     assert section.i == pytest.approx(math.sqrt(1.9e-5 / 2.8e-3), rel=1e-12)
     assert (section.depth, section.width, section.t_max, section.axis) == (None, None, None, "minor")
     assert (section.doubly_symmetric, section.open_section) == (False, True)
@@ -469,13 +517,24 @@ def test_section_is_a_frozen_value_that_revalidates_on_replace():
 # ----------------------------------------------------------------------------- names
 
 
-@pytest.mark.parametrize(("written", "canonical"), [
-    ("heb200", "HEB 200"), ("HEB 200", "HEB 200"), ("  heb   200 ", "HEB 200"), ("HE 200 B", "HEB 200"),
-    ("he200a", "HEA 200"), ("Ipe 80", "IPE 80"), ("shs100x100x5", "SHS 100x100x5"),
-    ("SHS 100 × 100 × 5", "SHS 100x100x5"), ("shs 100X100X5.0", "SHS 100x100x5"),
-    ("chs 114.30×5", "CHS 114.3x5"),
-    ("rhs 200x100x8", "RHS 200x100x8"), ("timber 45 x 195", "TIMBER 45x195"), ("Some Beam", "SOME BEAM"),
-])
+@pytest.mark.parametrize(
+    ("written", "canonical"),
+    [
+        ("heb200", "HEB 200"),
+        ("HEB 200", "HEB 200"),
+        ("  heb   200 ", "HEB 200"),
+        ("HE 200 B", "HEB 200"),
+        ("he200a", "HEA 200"),
+        ("Ipe 80", "IPE 80"),
+        ("shs100x100x5", "SHS 100x100x5"),
+        ("SHS 100 × 100 × 5", "SHS 100x100x5"),
+        ("shs 100X100X5.0", "SHS 100x100x5"),
+        ("chs 114.30×5", "CHS 114.3x5"),
+        ("rhs 200x100x8", "RHS 200x100x8"),
+        ("timber 45 x 195", "TIMBER 45x195"),
+        ("Some Beam", "SOME BEAM"),
+    ],
+)
 def test_names_are_case_and_space_insensitive(written, canonical):
     """normalise_name reads case, spaces, × or x and trailing zeros away, and HE 200 B as HEB 200."""
     assert normalise_name(written) == canonical
@@ -489,11 +548,17 @@ def test_catalogue_lookup_accepts_any_spelling(written):
 
 def test_unknown_name_suggests_near_matches():
     """An unknown name is a CaseError at section.name that suggests catalogue names close to it."""
-    with pytest.raises(CaseError, match=r"^section\.name: 'IPE 210' is not in the catalogue \(did you mean "
-                                        r"'IPE 200', 'IPE 220'"):
+    with pytest.raises(
+        CaseError,
+        match=r"^section\.name: 'IPE 210' is not in the catalogue \(did you mean "
+        r"'IPE 200', 'IPE 220'",
+    ):
         section_from_spec({"name": "IPE 210"})
-    with pytest.raises(CaseError, match=r"^section\.name: 'rhs 100x200x8' is not in the catalogue "
-                                        r"\(did you mean 'RHS 200x100x8'\?\)"):
+    with pytest.raises(
+        CaseError,
+        match=r"^section\.name: 'rhs 100x200x8' is not in the catalogue "
+        r"\(did you mean 'RHS 200x100x8'\?\)",
+    ):
         section_from_spec({"name": "rhs 100x200x8"})
     with pytest.raises(CaseError, match=r"^section\.name: 'W14x90' is not in the catalogue;"):
         section_from_spec({"name": "W14x90"})
@@ -532,9 +597,11 @@ BAD_SPECS = [
     ({**WELDED, "r": 0.01}, r"section\.r: unknown key"),
     ({**RHS, "t": 0.05}, r"section\.t: 0\.05 m must be less than min\(h, b\)/2 = 0\.05 m"),
     ({**RHS, "b": 0.06, "t": 0.011, "manufacture": "cold-formed"}, r"section\.t: 0\.011 m is too thick"),
-    ({**RHS, "manufacture": "hot finished"},
-     r"section\.manufacture: 'hot finished' is not a manufacture for a hollow section "
-     r"\(did you mean 'hot-finished'"),
+    (
+        {**RHS, "manufacture": "hot finished"},
+        r"section\.manufacture: 'hot finished' is not a manufacture for a hollow section "
+        r"\(did you mean 'hot-finished'",
+    ),
     ({k: v for k, v in RHS.items() if k != "manufacture"}, r"section\.manufacture: required key is missing"),
     ({**RHS, "D": 0.1}, r"section\.D: unknown key"),
     ({"shape": "chs", "D": 0.1143, "t": 0.06}, r"section\.t: 0\.06 m must be less than D/2 = 0\.05715 m"),
@@ -556,8 +623,11 @@ BAD_SPECS = [
 ]
 
 
-@pytest.mark.parametrize(("spec", "message"), BAD_SPECS, ids=[m.split(":")[0].replace("\\", "") + f"-{n}"
-                                                              for n, (_, m) in enumerate(BAD_SPECS)])
+@pytest.mark.parametrize(
+    ("spec", "message"),
+    BAD_SPECS,
+    ids=[m.split(":")[0].replace("\\", "") + f"-{n}" for n, (_, m) in enumerate(BAD_SPECS)],
+)
 def test_bad_spec_is_a_case_error_naming_its_field(spec, message):
     """Each bad section spec is a CaseError whose message starts with the field path and the value."""
     with pytest.raises(CaseError, match="^" + message):
@@ -581,9 +651,13 @@ def test_bad_axis_is_a_case_error():
 def test_every_required_key_of_every_shape_is_checked_for():
     """Leaving out any one required key of any shape is a CaseError naming that key."""
     full = {
-        "rolled_i": ROLLED, "welded_i": WELDED,
-        "rhs": RHS, "chs": CHS_114, "rectangle": {"shape": "rectangle", "b": 0.045, "h": 0.195},
-        "round": {"shape": "round", "D": 0.03}, "custom": CUSTOM,
+        "rolled_i": ROLLED,
+        "welded_i": WELDED,
+        "rhs": RHS,
+        "chs": CHS_114,
+        "rectangle": {"shape": "rectangle", "b": 0.045, "h": 0.195},
+        "round": {"shape": "round", "D": 0.03},
+        "custom": CUSTOM,
     }
     assert set(full) == set(sections.SHAPES)
     for spec in full.values():

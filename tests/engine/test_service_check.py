@@ -58,7 +58,16 @@ def test_service_caution_says_what_it_is_made_on():
 
 def test_no_service_check_without_a_section():
     """A case given only EI has no member check and no service check."""
-    r = engine.solve(engine.Case.from_dict({"schema": 1, "length": 3.0, "EI": 1e6, "axial_force": 1e4,
-                                            "supports": {"left": "pinned", "right": "pinned"},
-                                            "imperfection": {"shape": "sine", "amplitude": 0.01}}))
+    r = engine.solve(
+        engine.Case.from_dict(
+            {
+                "schema": 1,
+                "length": 3.0,
+                "EI": 1e6,
+                "axial_force": 1e4,
+                "supports": {"left": "pinned", "right": "pinned"},
+                "imperfection": {"shape": "sine", "amplitude": 0.01},
+            }
+        )
+    )
     assert r.service is None and r.check is None

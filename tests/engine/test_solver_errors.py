@@ -90,8 +90,14 @@ def test_every_stable_support_set_of_the_strategies_is_accepted(data):
     """Every support pair the strategies call stable, springs included, builds a case with P_cr1 > 0."""
     length, rigidity = data.draw(lengths()), data.draw(flexural_rigidities())
     left, right = data.draw(supports(length, rigidity))
-    case = engine.Case.from_dict(dict(_mapping(left, right), length=length, EI=rigidity,
-                                      imperfection={"shape": "none", "amplitude": 0.0}))
+    case = engine.Case.from_dict(
+        dict(
+            _mapping(left, right),
+            length=length,
+            EI=rigidity,
+            imperfection={"shape": "none", "amplitude": 0.0},
+        )
+    )
     first = float(engine.critical_loads(case).critical_loads[0])
     assert math.isfinite(first) and first > 0.0
 
@@ -177,8 +183,13 @@ def test_just_below_the_euler_load_a_sine_bow_grows_as_one_over_one_minus_alpha(
     """Pinned–pinned, sine bow a, P = 0.99999 P_E: peak offset a/(1 − α) and moment P a/(1 − α), rel 1e-6."""
     a = L / 500
     P = 0.99999 * EULER
-    result = engine.solve(engine.Case.from_dict(_mapping(
-        "pinned", "pinned", axial_force=P, loads=[], imperfection={"shape": "sine", "amplitude": a})))
+    result = engine.solve(
+        engine.Case.from_dict(
+            _mapping(
+                "pinned", "pinned", axial_force=P, loads=[], imperfection={"shape": "sine", "amplitude": a}
+            )
+        )
+    )
     alpha = P / EULER
     # Timoshenko & Gere ch. 1 (from memory; references.md §1): total offset a/(1 − α), M = P a/(1 − α).
     assert result.governing.total_offset.value == pytest.approx(a / (1 - alpha), rel=1e-6)

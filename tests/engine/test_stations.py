@@ -6,10 +6,18 @@ import pytest
 import engine
 
 L = 6.0
-CASE = {"schema": 1, "length": L, "EI": 4e6, "supports": {"left": "pinned", "right": "fixed"},
-        "axial_force": 8e5,
-        "loads": [{"type": "point", "P": 5e3, "x": 1.3}, {"type": "couple", "C": 2e3, "x": 4.1},
-                  {"type": "uniform", "q": 1e3, "start": 2.0, "end": 3.5}]}
+CASE = {
+    "schema": 1,
+    "length": L,
+    "EI": 4e6,
+    "supports": {"left": "pinned", "right": "fixed"},
+    "axial_force": 8e5,
+    "loads": [
+        {"type": "point", "P": 5e3, "x": 1.3},
+        {"type": "couple", "C": 2e3, "x": 4.1},
+        {"type": "uniform", "q": 1e3, "start": 2.0, "end": 3.5},
+    ],
+}
 
 
 def test_stations_hold_ends_loads_and_boundaries():

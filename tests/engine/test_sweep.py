@@ -6,10 +6,16 @@ import pytest
 import engine
 
 CASE = {
-    "schema": 1, "title": "Invented check: propped strut with springs", "length": 5.0, "EI": 3.0e6,
+    "schema": 1,
+    "title": "Invented check: propped strut with springs",
+    "length": 5.0,
+    "EI": 3.0e6,
     "supports": {"left": {"translation": "fixed", "rotation": 4.0e6}, "right": "pinned"},
-    "loads": [{"type": "uniform", "q": 2e3}, {"type": "point", "P": 5e3, "x": 1.5},
-              {"type": "linear", "q_start": 0.0, "q_end": 3e3, "start": 2.0, "end": 5.0}],
+    "loads": [
+        {"type": "uniform", "q": 2e3},
+        {"type": "point", "P": 5e3, "x": 1.5},
+        {"type": "linear", "q_start": 0.0, "q_end": 3e3, "start": 2.0, "end": 5.0},
+    ],
     "imperfection": {"shape": "mode", "amplitude": 0.01},
 }
 
@@ -25,7 +31,9 @@ def test_sweep_matches_single_solves():
         r = engine.solve(engine.Case.from_dict(dict(CASE, axial_force=float(P))))
         assert s.stable[i] == r.stable
         for name in ("deflection", "total_offset", "moment", "shear"):
-            assert getattr(s, f"peak_{name}")[i] == pytest.approx(getattr(r.governing, name).magnitude, rel=1e-9)
+            assert getattr(s, f"peak_{name}")[i] == pytest.approx(
+                getattr(r.governing, name).magnitude, rel=1e-9
+            )
 
 
 def test_sweep_marks_critical_loads_and_keeps_order():
@@ -61,7 +69,7 @@ def test_sweep_rejects_non_finite_forces():
 
 
 def test_sweep_gives_the_simple_amplification_beside_the_exact():
-    """simple_amplification is 1/(1 − P/Pcr1) below Pcr1 (Timoshenko & Gere 1961 ch. 1) and NaN from Pcr1 on."""
+    """simple_amplification: 1/(1 − P/Pcr1) below Pcr1, NaN from Pcr1 on (Timoshenko & Gere 1961 ch. 1)."""
     case = engine.Case.from_dict(CASE)
     pcr1 = engine.critical_loads(case).critical_loads[0]
     forces = np.array([-pcr1, 0.0, 0.5 * pcr1, pcr1, 1.5 * pcr1])

@@ -121,8 +121,7 @@ def test_a_websocket_from_another_origin_is_refused(served):
     assert websocket_answer(served.url, f"http://127.0.0.1:{port}") == "open"
     assert websocket_answer(served.url, f"http://localhost:{port}") == "open"
     others = (f"http://attacker.invalid:{port}", f"http://127.0.0.1:{port + 1}")
-    for origin in ("http://attacker.invalid", *others,
-                   "null"):
+    for origin in ("http://attacker.invalid", *others, "null"):
         assert websocket_answer(served.url, origin) == "403", origin
 
 
@@ -210,8 +209,21 @@ def test_an_upload_is_never_evaluated_as_code(page, tmp_path):
 
 _EVENTS: list[tuple] = []
 _RECORDING = [False]
-_WATCHED = ("open", "os.remove", "os.rename", "os.mkdir", "os.rmdir", "shutil.rmtree", "shutil.move",
-            "os.truncate", "subprocess.Popen", "os.system", "os.exec", "os.posix_spawn", "socket.connect")
+_WATCHED = (
+    "open",
+    "os.remove",
+    "os.rename",
+    "os.mkdir",
+    "os.rmdir",
+    "shutil.rmtree",
+    "shutil.move",
+    "os.truncate",
+    "subprocess.Popen",
+    "os.system",
+    "os.exec",
+    "os.posix_spawn",
+    "socket.connect",
+)
 
 
 def _audit(event: str, args) -> None:
@@ -249,8 +261,11 @@ def _writes(events) -> list:
 
 
 def _reads_outside_the_installation(events) -> list:
-    allowed = tuple(str(Path(p).resolve()) for p in {sys.prefix, sys.base_prefix, REPO / "engine",
-                                                     REPO / "app", REPO / "assets", *sys.path} if p)
+    allowed = tuple(
+        str(Path(p).resolve())
+        for p in {sys.prefix, sys.base_prefix, REPO / "engine", REPO / "app", REPO / "assets", *sys.path}
+        if p
+    )
     out = []
     for event, args in events:
         if event == "open" and isinstance(args[0], (str, bytes, os.PathLike)):

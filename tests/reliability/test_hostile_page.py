@@ -88,8 +88,11 @@ def test_a_good_upload_after_a_hostile_one_loads(page):
 
 @pytest.mark.parametrize(
     "link, words",
-    [("{not json", "not valid JSON"), ("[1, 2]", "does not hold a case"),
-     ('{"title": "\\ud800"}', "lone surrogate")],
+    [
+        ("{not json", "not valid JSON"),
+        ("[1, 2]", "does not hold a case"),
+        ('{"title": "\\ud800"}', "lone surrogate"),
+    ],
 )
 def test_a_link_that_cannot_be_read_says_why_and_keeps_the_case(page, caplog, link, words):
     """A link's case that is not JSON, not an object or not text: a message naming it; the case stays."""

@@ -122,7 +122,9 @@ def test_a_wildcard_or_a_path_is_not_an_origin():
 
     parser = argparse.ArgumentParser(exit_on_error=False)
     add_arguments(parser)
-    assert parser.parse_args(["--allow-origin", "http://a.example:8080"]).allow_origin == ["http://a.example:8080"]
+    assert parser.parse_args(["--allow-origin", "http://a.example:8080"]).allow_origin == [
+        "http://a.example:8080"
+    ]
     for bad in ("*", "*:5006", "http://a.example/path", "http://"):
         with pytest.raises((argparse.ArgumentError, SystemExit)):
             parser.parse_args(["--allow-origin", bad])
@@ -168,13 +170,22 @@ def test_serving_a_case_with_a_lone_surrogate_in_its_title_is_refused(tmp_path):
     from tests.browser.conftest import REPO_ROOT, serve_command
 
     case = tmp_path / "surrogate.json"
-    case.write_text('{"schema": 1, "title": "Post \\ud800", "length": 6, "EI": 1e6, '
-                    '"supports": {"left": "pinned", "right": "pinned"}}', encoding="ascii")
+    case.write_text(
+        '{"schema": 1, "title": "Post \\ud800", "length": 6, "EI": 1e6, '
+        '"supports": {"left": "pinned", "right": "pinned"}}',
+        encoding="ascii",
+    )
     done = subprocess.run(
         [*serve_command(), "serve", str(case), "--no-browser", "--port", "0"],
-        cwd=tmp_path, capture_output=True, text=True, timeout=120,
-        env={"PYTHONPATH": str(REPO_ROOT), "PATH": "/usr/bin:/bin:/usr/local/bin",
-             "PYTHONIOENCODING": "utf-8"},
+        cwd=tmp_path,
+        capture_output=True,
+        text=True,
+        timeout=120,
+        env={
+            "PYTHONPATH": str(REPO_ROOT),
+            "PATH": "/usr/bin:/bin:/usr/local/bin",
+            "PYTHONIOENCODING": "utf-8",
+        },
     )
     assert done.returncode == 2
     assert done.stderr.startswith(f"error: {case}: title: ") and "lone surrogate" in done.stderr

@@ -94,8 +94,9 @@ def open_sessions(browser, url: str, count: int) -> list[Session]:
 def check_shown(session: Session, stations: int = 401) -> float:
     """Check the plotted stations against engine.solve of this session's inputs; return the latency."""
     shown = session.page.evaluate(_STATE)
-    expected = engine.solve(dataclasses.replace(session.case, axial_force=shown["force"] * 1e3),
-                            stations=stations)
+    expected = engine.solve(
+        dataclasses.replace(session.case, axial_force=shown["force"] * 1e3), stations=stations
+    )
     np.testing.assert_allclose(shown["x"], expected.x, rtol=1e-12, atol=1e-12)
     np.testing.assert_allclose(shown["M2"], expected.moment * 1e-3, rtol=1e-9, atol=1e-9)
     return shown["latency"]

@@ -54,8 +54,10 @@ def test_closed_sessions_are_released_and_memory_stays_bounded(browser, tmp_path
             time.sleep(1)  # polling the server's log
         opened, closed, alive = debug_counts(server)
         rss_last = rss_mb(server.process.pid)
-        print(f"{opened} sessions opened, {closed} destroyed, pages alive {alive}; "
-              f"RSS {rss_first:.0f} MB after 20, {rss_last:.0f} MB after {total}")
+        print(
+            f"{opened} sessions opened, {closed} destroyed, pages alive {alive}; "
+            f"RSS {rss_first:.0f} MB after 20, {rss_last:.0f} MB after {total}"
+        )
         assert opened >= total
         assert closed == opened, "".join(server.output[-20:])
         assert alive is not None and alive <= 2, f"{alive} pages still alive after every session closed"

@@ -73,14 +73,17 @@ def _bow_functions(imperfection: Mapping | None, length: float, bow):
         zero = lambda x: np.zeros_like(np.asarray(x, float))  # noqa: E731
         return zero, zero
     if shape == "sine":
-        return (lambda x: a * np.sin(np.pi * np.asarray(x, float) / L),
-                lambda x: a * np.pi / L * np.cos(np.pi * np.asarray(x, float) / L))
+        return (
+            lambda x: a * np.sin(np.pi * np.asarray(x, float) / L),
+            lambda x: a * np.pi / L * np.cos(np.pi * np.asarray(x, float) / L),
+        )
     if shape == "parabola":
-        return (lambda x: 4 * a * np.asarray(x, float) * (L - np.asarray(x, float)) / L**2,
-                lambda x: 4 * a * (L - 2 * np.asarray(x, float)) / L**2)
+        return (
+            lambda x: 4 * a * np.asarray(x, float) * (L - np.asarray(x, float)) / L**2,
+            lambda x: 4 * a * (L - 2 * np.asarray(x, float)) / L**2,
+        )
     if shape == "sway":
-        return (lambda x: a * np.asarray(x, float) / L,
-                lambda x: np.full_like(np.asarray(x, float), a / L))
+        return (lambda x: a * np.asarray(x, float) / L, lambda x: np.full_like(np.asarray(x, float), a / L))
     if shape == "mode":
         raise ValueError("imperfection 'mode' needs bow=(w0, dw0, d2w0) callables")
     raise ValueError(f"unknown imperfection shape {shape!r}")
@@ -182,8 +185,8 @@ def reference_solution(
         scale += abs(float(case_dict["imperfection"].get("amplitude", 0.0)))
     W = scale if scale > 0 else 1.0
 
-    p = P * L**2 / EI                                  # P L²/EI [-]
-    bounds = _breakpoints(case_dict, L) / L            # ξ at segment boundaries
+    p = P * L**2 / EI  # P L²/EI [-]
+    bounds = _breakpoints(case_dict, L) / L  # ξ at segment boundaries
     nseg = len(bounds) - 1
     h = np.diff(bounds)
 
@@ -222,7 +225,7 @@ def reference_solution(
         dy = np.empty_like(y)
         for j in range(nseg):
             xi = bounds[j] + h[j] * t
-            w, th, m, tt = y[4 * j:4 * j + 4]
+            w, th, m, tt = y[4 * j : 4 * j + 4]
             dw0 = dw0_fun(xi * L) * L / W
             dy[4 * j + 0] = h[j] * th
             dy[4 * j + 1] = -h[j] * m
@@ -259,13 +262,11 @@ def reference_solution(
         w, th, m, tt = ya[0:4]
         res += end_rows("left", left, w, th, m - C_hat[0], tt + F_hat[0])
         for j in range(nseg - 1):
-            yl = yb[4 * j:4 * j + 4]
-            yr = ya[4 * (j + 1):4 * (j + 1) + 4]
-            res += [yr[0] - yl[0], yr[1] - yl[1],
-                    yr[2] - yl[2] - C_hat[j + 1],
-                    yr[3] - yl[3] + F_hat[j + 1]]
+            yl = yb[4 * j : 4 * j + 4]
+            yr = ya[4 * (j + 1) : 4 * (j + 1) + 4]
+            res += [yr[0] - yl[0], yr[1] - yl[1], yr[2] - yl[2] - C_hat[j + 1], yr[3] - yl[3] + F_hat[j + 1]]
         # Right end: member side L-, support side L+: M(L+) = M(L-) + C, T(L+) = T(L-) - F.
-        w, th, m, tt = yb[4 * (nseg - 1):4 * nseg]
+        w, th, m, tt = yb[4 * (nseg - 1) : 4 * nseg]
         res += end_rows("right", right, w, th, m + C_hat[nseg], tt - F_hat[nseg])
         return np.asarray(res)
 
@@ -287,9 +288,9 @@ def reference_solution(
         elif i == nseg:
             seg_of[n], t_of[n] = nseg - 1, 1.0
         elif next_same and not prev_same:
-            seg_of[n], t_of[n] = i - 1, 1.0            # first of a repeated station: left value
+            seg_of[n], t_of[n] = i - 1, 1.0  # first of a repeated station: left value
         else:
-            seg_of[n], t_of[n] = i, 0.0                # last or single: right value
+            seg_of[n], t_of[n] = i, 0.0  # last or single: right value
     t_mesh = np.unique(np.concatenate([np.linspace(0.0, 1.0, nodes_per_segment), t_of]))
     # Drop mesh points closer than 1e-12 to each other (solve_bvp needs strictly increasing x).
     keep = np.concatenate([[True], np.diff(t_mesh) > 1e-12])
@@ -299,8 +300,15 @@ def reference_solution(
     with warnings.catch_warnings():
         warnings.simplefilter("ignore", RuntimeWarning)
         while True:
-            sol = solve_bvp(fun, bc, t_mesh, np.zeros((4 * nseg, len(t_mesh))),
-                            tol=tol_try, max_nodes=max_nodes, bc_tol=tol_try)
+            sol = solve_bvp(
+                fun,
+                bc,
+                t_mesh,
+                np.zeros((4 * nseg, len(t_mesh))),
+                tol=tol_try,
+                max_nodes=max_nodes,
+                bc_tol=tol_try,
+            )
             if sol.status == 0:
                 break
             if sol.status == 1 and tol_try < 1e-6:
@@ -308,7 +316,7 @@ def reference_solution(
                 continue
             raise RuntimeError(f"solve_bvp failed: {sol.message}")
 
-    Y = sol.sol(np.clip(t_of, 0.0, 1.0))               # (4 nseg, n)
+    Y = sol.sol(np.clip(t_of, 0.0, 1.0))  # (4 nseg, n)
     cols = np.arange(len(x_eval))
     w_h = Y[4 * seg_of + 0, cols]
     th_h = Y[4 * seg_of + 1, cols]
@@ -322,8 +330,15 @@ def reference_solution(
     T = EI * W / L**3 * t_h
     V = T + P * (rotation + dw0)
     return {
-        "x": x_eval.copy(), "w": w, "rotation": rotation, "M": M, "V": V, "T": T, "w0": w0,
-        "tol": float(tol_try), "nodes": float(sol.x.size),
+        "x": x_eval.copy(),
+        "w": w,
+        "rotation": rotation,
+        "M": M,
+        "V": V,
+        "T": T,
+        "w0": w0,
+        "tol": float(tol_try),
+        "nodes": float(sol.x.size),
         "max_rms_residual": float(np.max(sol.rms_residuals)) if sol.rms_residuals.size else 0.0,
     }
 

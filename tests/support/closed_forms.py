@@ -12,8 +12,20 @@ from __future__ import annotations
 
 import mpmath
 
-__all__ = ["eta", "lam", "chi", "sec", "tan_ratio", "eta_t", "lam_t", "chi_t", "sech", "tanh_ratio",
-           "u_of", "DIGITS"]
+__all__ = [
+    "eta",
+    "lam",
+    "chi",
+    "sec",
+    "tan_ratio",
+    "eta_t",
+    "lam_t",
+    "chi_t",
+    "sech",
+    "tanh_ratio",
+    "u_of",
+    "DIGITS",
+]
 
 #: Significant digits kept in every result.
 DIGITS = 30
