@@ -1,11 +1,12 @@
 """strutscope's engine: the exact second-order analysis of one member under axial force and bending.
 
 Pure numerics (numpy and scipy). SI units throughout: m, N, N·m, Pa. See ``conventions.md`` for signs and the
-case-file schema, and the README for the method and its references.
+case-file schema, and the README for the method and its references. This module is a façade: it re-exports
+the public names of the layers below it (DEVELOPERS.md, "How the engine is put together").
 """
 
-from engine.analysis import solve, sweep
-from engine.buckling import Buckling, critical_loads
+from engine import prepared, solver
+from engine.analysis import solve
 from engine.capacity import Capacity, capacity
 from engine.case import (
     Case,
@@ -22,6 +23,7 @@ from engine.case import (
 from engine.cautions import Caution
 from engine.checks import CheckSettings, MemberCheck
 from engine.errors import CaseError
+from engine.member import critical_loads
 from engine.results import (
     Amplification,
     Approximation,
@@ -32,6 +34,8 @@ from engine.results import (
     Result,
     SweepResult,
 )
+from engine.solver.buckling import Buckling
+from engine.sweeps import sweep
 
 __all__ = [
     "Amplification",
@@ -67,8 +71,6 @@ __all__ = [
 
 
 def clear_caches() -> None:
-    """Forget cached critical loads, so a benchmark can time the uncached path."""
-    from engine import analysis, buckling
-
-    buckling.clear_cache()
-    analysis.clear_cache()
+    """Forget cached critical loads and prepared cases, so a benchmark can time the uncached path."""
+    solver.buckling.clear_cache()
+    prepared.clear_cache()

@@ -8,14 +8,13 @@ import math
 import numpy as np
 
 from engine.amplification import approximations, braced
-from engine.buckling import critical_loads
 from engine.cautions import assess
 from engine.checks import check_member
 from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
-from engine.imperfections import bow_for
 from engine.out_of_plane import utilisation as out_of_plane_utilisation
-from engine.reference import reference_peak, reference_peaks
+from engine.prepared import prepare
+from engine.reference import reference_peak
 from engine.results import (
     Amplification,
     Equilibrium,
@@ -24,30 +23,25 @@ from engine.results import (
     Reactions,
     Result,
     ServiceCheck,
-    SweepResult,
 )
-from engine.solution import Batch, Model, Points, base_stations, refine_peaks, strongest_tension_kappa
+from engine.solver.batch import STATE_FIELDS, Batch
+from engine.solver.model import Points
+from engine.solver.peaks import refine_peaks
 
-__all__ = ["solve", "sweep"]
+__all__ = ["CRITICAL_TOLERANCE", "check_stations", "solve", "strength_solve"]
 
 #: |P/Pcr_n - 1| below this counts as at the critical load (no equilibrium) [-].
 CRITICAL_TOLERANCE = 1e-10
-_FIELDS = ("w", "rotation", "M", "T", "V", "w0")
 _MAX_STATIONS = 100_000
 _FIVE = np.arange(5)
 
 
-def _check_stations(stations) -> int:
+def check_stations(stations) -> int:
     if isinstance(stations, bool) or not isinstance(stations, (int, np.integer)):
         raise CaseError(f"stations: {stations!r} must be a whole number from 2 to {_MAX_STATIONS}")
     if not 2 <= int(stations) <= _MAX_STATIONS:
         raise CaseError(f"stations: {stations} must be from 2 to {_MAX_STATIONS}")
     return int(stations)
-
-
-def _at_critical(P: np.ndarray, pcr: np.ndarray) -> np.ndarray:
-    P = np.atleast_1d(P)
-    return (P[:, None] > 0) & (np.abs(P[:, None] / pcr[None, :] - 1.0) < CRITICAL_TOLERANCE)
 
 
 def _critical_index(P: float, pcr) -> int:
@@ -60,191 +54,13 @@ def _critical_index(P: float, pcr) -> int:
     return 0
 
 
-class _Prepared:
-    """What a case keeps between solves at different axial forces: its critical loads, model, stations and
-    first-order solution. The page drags the axial force, so these are built once per case."""
-
-    def __init__(self, case):
-        plain = (
-            case.section is None
-            and case.material is None
-            and case.imperfection.preset is None
-            and case.stiffness_factor == 1.0
-        )
-        if plain:
-            self.member, analysis_case = None, case
-        else:
-            from engine.member import resolve
-
-            self.member, analysis_case = resolve(case)
-        self.analysis_case = analysis_case
-        self.case = case
-        self._design: dict = {}  # section class and out-of-plane resistance: independent of the bow
-        self.buckling = critical_loads(analysis_case, 5)
-        self._start(self.member.bow if self.member is not None else None)
-
-    def _start(self, choice) -> None:
-        """The model of ``self.analysis_case`` with the sway of ``choice`` (a BowChoice or None)."""
-        if choice is not None and choice.sway != 0.0:
-            bow = bow_for(self.analysis_case, self.buckling, choice.sway_slope, choice.sway_anchor)
-        else:
-            bow = bow_for(self.analysis_case, self.buckling)
-        self.model = Model(self.analysis_case, bow)
-        self._stations: dict = {}
-        self._first: dict = {}
-        self._reference: dict = {}
-        self._variants: dict = {}
-
-    @property
-    def has_bow(self) -> bool:
-        """The model has an initial bow or sway."""
-        return self.model.bow.shape != "none"
-
-    def variant(self, kind: str) -> _Prepared:
-        """The member with its bow reversed (``"reversed"``) or without it (``"bow_free"``), cached."""
-        hit = self._variants.get(kind)
-        if hit is None:
-            from engine.case import Imperfection
-
-            hit = object.__new__(_Prepared)
-            hit.buckling = self.buckling
-            hit.case, hit._design = self.case, self._design
-            choice = None
-            if kind == "reversed":
-                choice = self.member.bow.reversed()
-                hit.member = dataclasses.replace(self.member, bow=choice)
-                imperfection = Imperfection(shape=choice.shape, amplitude=choice.amplitude)
-            else:
-                hit.member = self.member
-                imperfection = Imperfection()
-            hit.analysis_case = dataclasses.replace(self.analysis_case, imperfection=imperfection)
-            hit._start(choice)
-            self._variants[kind] = hit
-        return hit
-
-    def reference(self, count):
-        """M_I, V_I and the bow at the base stations, for the reference moment M_I + N·w0 (cached)."""
-        if count not in self._reference:
-            from engine.reference import ReferenceData
-
-            seg, xi, _, _ = self.stations(count, 0.0)
-            self._reference[count] = ReferenceData(self.model, seg, xi)
-        return self._reference[count]
-
-    def section_class(self, compression: bool):
-        """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached."""
-        if compression not in self._design:
-            from engine.classification import classify
-
-            member = self.member
-            self._design[compression] = (
-                None if member is None else classify(member.section, member.material, compression=compression)
-            )
-        return self._design[compression]
-
-    def out_of_plane(self):
-        """The out-of-plane buckling resistance (independent of the axial force), cached."""
-        if "out_of_plane" not in self._design:
-            from engine.out_of_plane import resistance
-
-            member = self.member
-            self._design["out_of_plane"] = resistance(self.case, member.section, member.material)
-        return self._design["out_of_plane"]
-
-    def bow_facts(self) -> dict:
-        """What the cautions need to know of the bow."""
-        if self.member is None:
-            imp = self.analysis_case.imperfection
-            return {
-                "amplitude": imp.amplitude if imp.shape != "none" else 0.0,
-                "code_amplitude": None,
-                "opposes_load": False,
-                "shape": imp.shape,
-            }
-        bow = self.member.bow
-        return {
-            "amplitude": bow.amplitude if bow.shape != "none" else 0.0,
-            "code_amplitude": bow.code_amplitude,
-            "code_label": bow.code_label,
-            "code_source": bow.code_source,
-            "opposes_load": bow.favourable,
-            "shape": bow.shape,
-            "notes": bow.notes,
-            "sway": bow.sway,
-        }
-
-    def stations(self, count, kappa):
-        """Base stations (seg, xi, shown) and their Points, cached."""
-        key = (count, kappa)
-        if key not in self._stations:
-            seg, xi, shown = base_stations(self.model, count, kappa)
-            every = np.arange(self.model.nseg)
-            ends = np.stack(
-                [np.searchsorted(seg, every), np.searchsorted(seg, every, side="right") - 1], 1
-            ).ravel()
-            pts = Points(self.model, seg, xi, ends=ends)
-            shown_idx = np.nonzero(shown)[0]
-            pts.order_key = (shown_idx, seg[shown_idx] * 2.0 * self.model.L + xi[shown_idx])
-            pts.x_exact = self.model.position(seg, xi)  # x, exactly the node at a segment's end
-            self._stations[key] = (seg, xi, shown, pts)
-        return self._stations[key]
-
-    def first_order(self, count):
-        """The P = 0 solution: its batch, exact peak points, largest |M| and |w + w0|, and end moments."""
-        if count not in self._first:
-            batch = Batch(self.model, [0.0])
-            seg, xi, shown, pts = self.stations(count, 0.0)
-            st = batch.states(0, pts)
-            _, ps, px, pk = refine_peaks(batch, 0, pts, *batch.targets(st, pts), states=st)
-            m = max(float(np.abs(st["M"]).max()), float(np.abs(pk["M"]).max(initial=0.0)))
-            d = max(
-                float(np.abs(st["w"] + st["w0"]).max()), float(np.abs(pk["w"] + pk["w0"]).max(initial=0.0))
-            )
-            ends = (float(st["M"][0]), float(st["M"][-1]))
-            self._first[count] = (batch, ps, px, m, d, ends)
-        return self._first[count]
-
-
-_MODELS: dict = {}
-_MODEL_CACHE_SIZE = 32
-
-
-def _prepare(case) -> _Prepared:
-    key = (
-        case.length,
-        case.EI,
-        case.left,
-        case.right,
-        case.loads,
-        case.imperfection,
-        case.section,
-        case.axis,
-        case.material,
-        case.stiffness_factor,
-        case.check,
-        case.out_of_plane,
-    )
-    hit = _MODELS.get(key)
-    if hit is None:
-        hit = _Prepared(case)
-        if len(_MODELS) >= _MODEL_CACHE_SIZE:
-            _MODELS.pop(next(iter(_MODELS)))
-        _MODELS[key] = hit
-    return hit
-
-
-def clear_cache() -> None:
-    """Forget cached models (the critical loads have their own cache)."""
-    _MODELS.clear()
-
-
 def _merged_order(pts, extra_seg, extra_xi, L):
     """Indices into [base stations, extra points] that list the shown base stations and the extra points
     along the member, dropping an extra point that repeats a station or another extra point."""
     base_idx, base_key = pts.order_key
-    padded = pts.__dict__.get("_padded_key")
+    padded = pts.padded_key
     if padded is None:  # the shown stations' keys between -inf and +inf, so that both neighbours always exist
-        padded = pts._padded_key = np.concatenate([[-np.inf], base_key, [np.inf]])
+        padded = pts.padded_key = np.concatenate([[-np.inf], base_key, [np.inf]])
     key = extra_seg * (2.0 * L) + extra_xi
     eo = np.argsort(key, kind="stable")
     key = key[eo]
@@ -525,10 +341,8 @@ def _raw(prep, n: int, P: float):
         values = {"w0": model.bow.derivatives(x)[0]}
     else:
         # One gather for all six fields: rows of one array (each row is contiguous).
-        base = st["_table"][0][:6] if "_table" in st else np.stack([st[name] for name in _FIELDS])
-        extra = ext["_rows"] if "_rows" in ext else np.stack([ext[name] for name in _FIELDS])
-        both = np.concatenate([base, extra], axis=1)[:, order]
-        values = dict(zip(_FIELDS, both, strict=True))
+        both = np.concatenate([st.stacked(), ext.stacked()], axis=1)[:, order]
+        values = dict(zip(STATE_FIELDS, both, strict=True))
     return status, n_crit, values, x, seg, xi
 
 
@@ -562,12 +376,12 @@ def solve(case, stations: int = 401) -> Result:
     >>> round(r.governing.moment.value, 6), r.governing.moment.x       # qL²/8 at mid-span
     (2000.0, 2.0)
     """
-    return _solve(case, _prepare(case), _check_stations(stations))
+    return _solve(case, prepare(case), check_stations(stations))
 
 
 def strength_solve(case, stations: int = 401) -> Result:
     """:func:`solve` without what does not bear on the strength utilisation (for the capacity finder)."""
-    return _solve(case, _prepare(case), _check_stations(stations), details=False)
+    return _solve(case, prepare(case), check_stations(stations), details=False)
 
 
 def _solve(case, prep, n: int, details: bool = True) -> Result:
@@ -668,125 +482,3 @@ def _severity(case, prep, P, raw) -> tuple:
         settings=case.check,
     )
     return check.strength_utilization, moment
-
-
-def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
-    """Governing values of ``case`` for many axial forces at once (the other loads as given).
-
-    Where a code preset leaves the bow's direction automatic, both directions are swept and each value is the
-    worse of the two at each force.
-
-    Parameters
-    ----------
-    case : Case
-        Its own ``axial_force`` is ignored.
-    axial_forces : array_like
-        Axial forces [N], compression positive, finite.
-    stations : int
-        Uniform stations used to bracket the exact peaks.
-
-    Returns
-    -------
-    SweepResult
-        Arrays in the order of ``axial_forces``.
-    """
-    n = _check_stations(stations)
-    P = np.atleast_1d(np.asarray(axial_forces, dtype=float)).ravel()
-    if P.size == 0 or not np.isfinite(P).all():
-        raise CaseError("axial_forces: give at least one finite axial force [N]")
-    prep = _prepare(case)
-    out, first, critical = _sweep_arrays(prep, P, n)
-    choice = prep.member.bow if prep.member is not None else None
-    if choice is not None and choice.automatic and prep.has_bow:
-        other, _, _ = _sweep_arrays(prep.variant("reversed"), P, n)
-        for key in ("deflection", "total_offset", "shear"):
-            better = other[key][0] > out[key][0]
-            out[key] = tuple(np.where(better, o, v) for o, v in zip(other[key], out[key], strict=True))
-        better = other["moment"][0] > out["moment"][0]  # the moment and its amplifications go together
-        for key in ("moment", "amp_m", "amp_m1"):
-            out[key] = tuple(np.where(better, o, v) for o, v in zip(other[key], out[key], strict=True))
-    pcr = prep.buckling.critical_loads
-    return SweepResult(
-        axial_force=P,
-        peak_deflection=out["deflection"][0],
-        peak_deflection_x=out["deflection"][1],
-        peak_total_offset=out["total_offset"][0],
-        peak_total_offset_x=out["total_offset"][1],
-        peak_moment=out["moment"][0],
-        peak_moment_x=out["moment"][1],
-        peak_shear=out["shear"][0],
-        peak_shear_x=out["shear"][1],
-        moment_amplification=out["amp_m"][0],
-        moment_amplification_first_order=out["amp_m1"][0],
-        deflection_amplification=(
-            out["total_offset"][0] / out["d1"] if out["d1"] > 0 else np.full(P.size, np.nan)
-        ),
-        simple_amplification=np.where(P < pcr[0], 1.0 / np.where(P < pcr[0], 1.0 - P / pcr[0], 1.0), np.nan),
-        stable=(P < pcr[0]) & ~critical,
-        critical=critical,
-        critical_loads=pcr.copy(),
-        first_order=first,
-    )
-
-
-def _sweep_arrays(prep, P, n):
-    """The peaks of one prepared member at many axial forces: ({field: (values, x)}, first order,
-    critical)."""
-    model, pcr = prep.model, prep.buckling.critical_loads
-    at_critical = _at_critical(P, pcr).any(axis=1)
-    # A force exactly at a critical load has no solution; solve a neighbour instead (its values become inf
-    # below), so that the batched solve does not fall back to one force at a time.
-    allP = np.concatenate([np.where(at_critical, P * (1.0 - 1e-6), P), [0.0]])
-    batch = Batch(model, allP)
-    critical = at_critical | batch.singular[:-1]
-    seg, xi, _, _ = prep.stations(n, strongest_tension_kappa(model, P))
-    nP = allP.size
-    iP = np.repeat(np.arange(nP), seg.size)
-    pts = Points(model, np.tile(seg, nP), np.tile(xi, nP))
-    st = batch.states(iP, pts)
-    pi, ps, px, pk = refine_peaks(batch, iP, pts, *batch.targets(st, pts))
-    nb = seg.size
-    x_base = model.position(seg, xi)
-    x_peak = model.position(ps, px)
-
-    def peaks(base, peak):
-        """Largest |value| per axial force and where, from the stations and the refined peaks."""
-        b = np.abs(base).reshape(nP, nb)
-        i = np.argmax(b, axis=1)
-        val, at = b[np.arange(nP), i], x_base[i]
-        if peak.size:
-            pv = np.abs(peak)
-            order = np.argsort(pv)  # ascending, so the largest of each axial force is written last
-            best = np.full(nP, -1.0)
-            where = np.zeros(nP)
-            best[pi[order]] = pv[order]
-            where[pi[order]] = x_peak[order]
-            better = best > val
-            val, at = np.where(better, best, val), np.where(better, where, at)
-        return val, at
-
-    out = {}
-    for key, arrays in {
-        "deflection": (st["w"], pk["w"]),
-        "total_offset": (st["w"] + st["w0"], pk["w"] + pk["w0"]),
-        "moment": (st["M"], pk["M"]),
-        "shear": (st["V"], pk["V"]),
-    }.items():
-        out[key] = peaks(*arrays)
-    t_first = np.abs(st["T"][-nb:])
-    first = Governing(
-        **{k: Peak(value=float(v[0][-1]), x=float(v[1][-1])) for k, v in out.items()},
-        transverse_force=Peak(value=float(t_first.max()), x=float(x_base[np.argmax(t_first)])),
-    )
-    result = {}
-    for key, (vals, xs) in out.items():
-        v, xv = vals[:-1].copy(), xs[:-1].copy()
-        v[critical] = np.inf
-        result[key] = (v, xv)
-    m1 = out["moment"][0][-1]
-    ref = reference_peaks(prep.reference(n), P) if prep.has_bow else np.full(P.size, m1)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        result["amp_m"] = (np.where(ref > 1e-300, result["moment"][0] / ref, np.nan),)
-        result["amp_m1"] = (result["moment"][0] / m1 if m1 > 0 else np.full(P.size, np.nan),)
-    result["d1"] = out["total_offset"][0][-1]
-    return result, first, critical

@@ -29,6 +29,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from engine.analysis import solve, strength_solve
+from engine.classification import classify
 from engine.errors import CaseError
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.roots import brentq
@@ -104,8 +106,6 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
     -------
     Capacity
     """
-    from engine.analysis import solve, strength_solve
-
     if mode not in MODES:
         raise CaseError(f"mode: {mode!r} is not a capacity mode; allowed: 'axial', 'proportional'")
     if case.section is None or case.material is None:
@@ -140,8 +140,6 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             mode=mode,
             message=message,
         )
-
-    from engine.classification import classify
 
     compressed_class = classify(probe.section, probe.material, compression=True)
     if compressed_class is not None and compressed_class.klass == 4:

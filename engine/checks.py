@@ -29,7 +29,10 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from engine.classification import eq_5_9_modulus
+from engine.codes import plastic_interaction, shear_reduction
 from engine.errors import CaseError
+from engine.out_of_plane import KIND
 
 __all__ = ["CheckSettings", "EQ_5_9_KIND", "MemberCheck", "check_member", "METHODS"]
 
@@ -211,8 +214,6 @@ def check_member(
     -------
     MemberCheck
     """
-    from engine.codes import plastic_interaction, shear_reduction
-
     g0 = settings.gamma_M0
     N = abs(float(axial_force))
     M = np.abs(np.asarray(moment, dtype=float))
@@ -282,8 +283,6 @@ def check_member(
     in_plane_value, in_plane_kind = s_value, s_kind
     u_out = None if out_of_plane is None else out_of_plane.utilization
     if u_out is not None and u_out > s_value:
-        from engine.out_of_plane import KIND
-
         # The member check about the other axis governs (x: mid-length, a member-level check).
         s_value, s_kind = u_out, KIND
         kind, value, where, source = KIND, s_value, 0.5 * length, out_of_plane.source
@@ -324,8 +323,6 @@ def check_member(
 
 def _eq_5_9_linear(N, M, section, material, settings):
     """N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) at every station, with the M_Rk of eq. (5.10) [-]."""
-    from engine.classification import eq_5_9_modulus
-
     g1 = settings.gamma_M1
     W = eq_5_9_modulus(section, material, settings.method)
     return N * g1 / (section.A * material.fy) + M * g1 / (W * material.fy)

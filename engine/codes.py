@@ -18,7 +18,6 @@ nothing of section tables.
 
 from __future__ import annotations
 
-import difflib
 import math
 import numbers
 from types import MappingProxyType
@@ -27,6 +26,11 @@ from typing import Any
 import numpy as np
 
 from engine.errors import CaseError
+from engine.validate import choice as _choice
+from engine.validate import positive as _positive
+from engine.validate import quoted as _quoted
+from engine.validate import real as _finite
+from engine.validate import show as _show
 
 __all__ = [
     "AISC_OUT_OF_PLUMB",
@@ -581,60 +585,3 @@ def _finite_values(path: str, value: Any, unit: str = "") -> tuple[np.ndarray, b
         unit_text = f" {unit}" if unit else ""
         raise CaseError(f"{path}: {bad!r}{unit_text} is not finite; every value must be a finite number")
     return array, array.ndim == 0
-
-
-def _finite(path: str, value: Any) -> float:
-    if isinstance(value, bool) or not isinstance(value, numbers.Real):
-        raise CaseError(f"{path}: {_show(value)} is not a number; it must be a finite number")
-    number = float(value)
-    if not math.isfinite(number):
-        raise CaseError(f"{path}: {number!r} is not finite; it must be a finite number")
-    return number
-
-
-def _positive(
-    path: str, value: Any, unit: str, *, allow_zero: bool = False, allow_infinite: bool = False
-) -> float:
-    """A number > 0 (>= 0 with ``allow_zero``; finite unless ``allow_infinite``), else a CaseError."""
-    requirement = f"{'>=' if allow_zero else '>'} 0"
-    unit_text = f" {unit}" if unit else ""
-    if isinstance(value, bool) or not isinstance(value, numbers.Real):
-        raise CaseError(
-            f"{path}: {_show(value)} is not a number; it must be a number {requirement}{unit_text}"
-        )
-    number = float(value)
-    bad = (
-        math.isnan(number)
-        or (math.isinf(number) and not allow_infinite)
-        or number < 0
-        or (number == 0 and not allow_zero)
-    )
-    if bad:
-        finite = "" if allow_infinite else "finite and "
-        raise CaseError(f"{path}: {number!r}{unit_text} must be {finite}{requirement}")
-    return number
-
-
-def _choice(path: str, value: Any, choices: tuple[str, ...], *, shown: Any = None) -> None:
-    if not isinstance(value, str) or value not in choices:
-        shown = value if shown is None else shown
-        raise CaseError(
-            f"{path}: {_show(shown)} is not allowed{_suggestion(value, choices)}; allowed: {_quoted(choices)}"
-        )
-
-
-def _show(value: Any) -> str:
-    text = repr(value)
-    return text if len(text) <= 60 else text[:57] + "..."
-
-
-def _suggestion(word: Any, choices: tuple[str, ...]) -> str:
-    if not isinstance(word, str):
-        return ""
-    lowered = {choice.lower(): choice for choice in choices if choice}
-    matches = difflib.get_close_matches(word.lower(), list(lowered), n=1, cutoff=0.6)
-    return f" (did you mean {lowered[matches[0]]!r}?)" if matches else ""
-
-
-def _quoted(choices: tuple[str, ...]) -> str:
-    return ", ".join(repr(choice) for choice in choices)

@@ -77,7 +77,7 @@ LIMITS: Mapping[str, tuple[int, str]] = {
     "number_digits": (MAX_NUMBER_DIGITS, "digits of one integer in a case file"),
 }
 
-# Positions closer than this fraction of the length are one cut (as engine.solution merges them).
+# Positions closer than this fraction of the length are one cut (as engine.solver.model merges them).
 _SAME_CUT = 1e-12
 
 
@@ -127,7 +127,8 @@ def check_text(path: str, value: str) -> None:
 
 
 def segment_count(length: float, loads) -> int:
-    """The number of segments `loads` cut a member of `length` into (as :mod:`engine.solution` cuts it)."""
+    """The number of segments `loads` cut a member of `length` into (as
+    :class:`engine.solver.model.Model` cuts it)."""
     cuts = [0.0, float(length)]
     for load in loads:
         if load.type in ("point", "couple"):

@@ -22,13 +22,12 @@ before any modification factor or partial factor of the timber code.
 from __future__ import annotations
 
 import difflib
-import math
-import numbers
 from collections.abc import Mapping
 from dataclasses import dataclass
 from typing import Any
 
 from engine.errors import CaseError
+from engine.validate import positive, quoted, show, suggestion
 
 __all__ = ["MATERIAL_KINDS", "Material", "material_from_spec", "material_names"]
 
@@ -124,22 +123,22 @@ class Material:
         path = "material"
         if self.kind not in MATERIAL_KINDS:
             raise CaseError(
-                f"{path}.kind: {_show(self.kind)} is not a material kind"
-                f"{_suggestion(self.kind, MATERIAL_KINDS)}; allowed: {_quoted(MATERIAL_KINDS)}"
+                f"{path}.kind: {show(self.kind)} is not a material kind"
+                f"{suggestion(self.kind, MATERIAL_KINDS)}; allowed: {quoted(MATERIAL_KINDS)}"
             )
         for attribute in ("name", "thickness_band", "source"):
             if not isinstance(getattr(self, attribute), str):
-                raise CaseError(f"{path}.{attribute}: {_show(getattr(self, attribute))} must be a string")
+                raise CaseError(f"{path}.{attribute}: {show(getattr(self, attribute))} must be a string")
         for attribute in ("E", "fy", "f_c"):
-            value = _positive(f"{path}.{attribute}", getattr(self, attribute), "Pa")
+            value = positive(f"{path}.{attribute}", getattr(self, attribute), "Pa")
             object.__setattr__(self, attribute, value)
         for attribute in ("G", "E_05"):
             if getattr(self, attribute) is not None:
                 object.__setattr__(
-                    self, attribute, _positive(f"{path}.{attribute}", getattr(self, attribute), "Pa")
+                    self, attribute, positive(f"{path}.{attribute}", getattr(self, attribute), "Pa")
                 )
         object.__setattr__(
-            self, "density", _positive(f"{path}.density", self.density, "kg/m³", allow_zero=True)
+            self, "density", positive(f"{path}.density", self.density, "kg/m³", allow_zero=True)
         )
 
 
@@ -354,23 +353,23 @@ def material_from_spec(spec: Mapping, thickness: float | None = None, path: str 
     """
     if not isinstance(spec, Mapping):
         raise CaseError(
-            f"{path}: {_show(spec)} is not an object; expected {{'name': grade}} with a grade of "
-            f"{_quoted(material_names())}, or custom values {{'E': ..., 'fy': ...}} [Pa]"
+            f"{path}: {show(spec)} is not an object; expected {{'name': grade}} with a grade of "
+            f"{quoted(material_names())}, or custom values {{'E': ..., 'fy': ...}} [Pa]"
         )
     for key in spec:
         if key not in _CUSTOM_KEYS:
             raise CaseError(
-                f"{path}.{key}: unknown key{_suggestion(key, _CUSTOM_KEYS)}; "
-                f"allowed keys: {_quoted(_CUSTOM_KEYS)}"
+                f"{path}.{key}: unknown key{suggestion(key, _CUSTOM_KEYS)}; "
+                f"allowed keys: {quoted(_CUSTOM_KEYS)}"
             )
     if thickness is not None:
-        thickness = _positive(f"{path}.thickness", thickness, "m")
+        thickness = positive(f"{path}.thickness", thickness, "m")
     custom_keys = [key for key in spec if key != "name"]
     if not custom_keys:
         if "name" not in spec:
             raise CaseError(
                 f"{path}.name: required key is missing; give a grade of "
-                f"{_quoted(material_names())}, or custom values 'E' and 'fy' [Pa]"
+                f"{quoted(material_names())}, or custom values 'E' and 'fy' [Pa]"
             )
         return _catalogued(spec["name"], thickness, path)
     return _custom(spec, path)
@@ -379,7 +378,7 @@ def material_from_spec(spec: Mapping, thickness: float | None = None, path: str 
 def _catalogued(name: Any, thickness: float | None, path: str) -> Material:
     if not isinstance(name, str):
         raise CaseError(
-            f"{path}.name: {_show(name)} is not a string; it must be one of {_quoted(material_names())}"
+            f"{path}.name: {show(name)} is not a string; it must be one of {quoted(material_names())}"
         )
     canonical = _LOOKUP.get(_normalise(name))
     if canonical is None:
@@ -389,7 +388,7 @@ def _catalogued(name: Any, thickness: float | None, path: str) -> Material:
             hint = f" (did you mean {_LOOKUP[match[0]]!r}?)"
         raise CaseError(
             f"{path}.name: {name!r} is not a catalogued material{hint}; it must be one of "
-            f"{_quoted(material_names())}, or give custom values 'E' and 'fy' [Pa]"
+            f"{quoted(material_names())}, or give custom values 'E' and 'fy' [Pa]"
         )
     return _CATALOGUE[canonical](thickness, path)
 
@@ -403,7 +402,7 @@ def _custom(spec: Mapping, path: str) -> Material:
             )
     name = spec.get("name", "custom")
     if not isinstance(name, str):
-        raise CaseError(f"{path}.name: {_show(name)} is not a string")
+        raise CaseError(f"{path}.name: {show(name)} is not a string")
     if _normalise(name) in _LOOKUP:
         raise CaseError(
             f"{path}.name: {name!r} is a catalogued grade, whose values are fixed; give "
@@ -412,16 +411,16 @@ def _custom(spec: Mapping, path: str) -> Material:
     kind = spec.get("kind", "custom")
     if kind not in MATERIAL_KINDS:
         raise CaseError(
-            f"{path}.kind: {_show(kind)} is not a material kind"
-            f"{_suggestion(kind, MATERIAL_KINDS)}; allowed: {_quoted(MATERIAL_KINDS)}"
+            f"{path}.kind: {show(kind)} is not a material kind"
+            f"{suggestion(kind, MATERIAL_KINDS)}; allowed: {quoted(MATERIAL_KINDS)}"
         )
-    E = _positive(f"{path}.E", spec["E"], "Pa")
-    fy = _positive(f"{path}.fy", spec["fy"], "Pa")
-    f_c = _positive(f"{path}.f_c", spec["f_c"], "Pa") if "f_c" in spec else fy
+    E = positive(f"{path}.E", spec["E"], "Pa")
+    fy = positive(f"{path}.fy", spec["fy"], "Pa")
+    f_c = positive(f"{path}.f_c", spec["f_c"], "Pa") if "f_c" in spec else fy
     G = _optional_positive(f"{path}.G", spec.get("G"), "Pa")
     E_05 = _optional_positive(f"{path}.E_05", spec.get("E_05"), "Pa")
     if "density" in spec:
-        density = _positive(f"{path}.density", spec["density"], "kg/m³", allow_zero=True)
+        density = positive(f"{path}.density", spec["density"], "kg/m³", allow_zero=True)
         density_source = "density given"
     else:
         density = _STEEL_DENSITY
@@ -441,39 +440,5 @@ def _custom(spec: Mapping, path: str) -> Material:
     )
 
 
-# ----------------------------------------------------------------------------- helpers
-
-
-def _positive(path: str, value: Any, unit: str, *, allow_zero: bool = False) -> float:
-    """A finite number > 0 (or >= 0 with ``allow_zero``) as a float, else a CaseError naming ``path``."""
-    requirement = f"{'>=' if allow_zero else '>'} 0"
-    if isinstance(value, bool) or not isinstance(value, numbers.Real):
-        raise CaseError(
-            f"{path}: {_show(value)} is not a number; it must be a finite number {requirement} {unit}"
-        )
-    number = float(value)
-    if not math.isfinite(number) or number < 0 or (number == 0 and not allow_zero):
-        raise CaseError(f"{path}: {number!r} {unit} must be finite and {requirement}")
-    return number
-
-
 def _optional_positive(path: str, value: Any, unit: str) -> float | None:
-    return None if value is None else _positive(path, value, unit)
-
-
-def _show(value: Any) -> str:
-    text = repr(value)
-    return text if len(text) <= 60 else text[:57] + "..."
-
-
-def _suggestion(word: Any, choices: tuple[str, ...]) -> str:
-    """`` (did you mean 'x'?)`` for the nearest choice, or an empty string."""
-    if not isinstance(word, str):
-        return ""
-    lowered = {choice.lower(): choice for choice in choices}
-    matches = difflib.get_close_matches(word.lower(), list(lowered), n=1, cutoff=0.6)
-    return f" (did you mean {lowered[matches[0]]!r}?)" if matches else ""
-
-
-def _quoted(choices: tuple[str, ...]) -> str:
-    return ", ".join(repr(choice) for choice in choices)
+    return None if value is None else positive(path, value, unit)

@@ -39,15 +39,19 @@ from dataclasses import dataclass
 import numpy as np
 
 from engine import codes
-from engine.buckling import critical_loads
 from engine.case import Imperfection
 from engine.classification import eq_5_9_modulus
+from engine.errors import CaseError
 from engine.imperfections import Bow, bow_for
 from engine.materials import material_from_spec
 from engine.sections import section_from_spec
+from engine.solver import buckling as solver_buckling
+from engine.solver.batch import Batch
+from engine.solver.buckling import Buckling
+from engine.solver.model import Model, Points
 from engine.sway import AISC_OUT_OF_PLUMB, SOURCE_AISC, SOURCE_EN, can_sway, sway_anchor, sway_phi
 
-__all__ = ["BowChoice", "Member", "resolve"]
+__all__ = ["BowChoice", "Member", "critical_loads", "resolve"]
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -180,7 +184,8 @@ def _curve(case, section, material):
 def mode_curvature_peak(buckling) -> float:
     r""":math:`|\eta''_{cr}|_{max}` [1/m²] of the first mode, normalised to max|η| = 1, found exactly.
 
-    The mode is :math:`c_0 + c_1\xi + c_2\varphi_2 + c_3\varphi_3` in ξ = x/L (:mod:`engine.buckling`), so
+    The mode is :math:`c_0 + c_1\xi + c_2\varphi_2 + c_3\varphi_3` in ξ = x/L
+    (:mod:`engine.solver.buckling`), so
     :math:`L^2\eta'' = c_2\cos\lambda\xi + (c_3/\lambda)\sin\lambda\xi = R\cos(\lambda\xi - \theta)`:
     the peak is R where :math:`\lambda\xi - \theta` is a multiple of π inside the member, else at an end.
     """
@@ -197,8 +202,6 @@ def mode_curvature_peak(buckling) -> float:
 
 def _first_order_projection(case, EI, shape_values, x):
     """∫ w1 · w0 dx of the loads' first-order deflection onto a bow shape (its sign is all that matters)."""
-    from engine.solution import Batch, Model, Points
-
     plain = dataclasses.replace(
         case, EI=EI, imperfection=Imperfection(), section=None, material=None, stiffness_factor=1.0
     )
@@ -208,6 +211,25 @@ def _first_order_projection(case, EI, shape_values, x):
     w1 = batch.states(0, pts)["w"]
     values = w1 * shape_values
     return float(np.sum(0.5 * (values[1:] + values[:-1]) * np.diff(x))), float(np.abs(w1).max())
+
+
+def critical_loads(case, count: int = 5) -> Buckling:
+    """The first elastic critical compressive loads and modes of the member in ``case``.
+
+    EI is the case's own, or E·I of its section and material, times the stiffness factor (:func:`resolve`);
+    the loads [N] are then those of :func:`engine.solver.buckling.critical_loads` for that EI.
+
+    Examples
+    --------
+    >>> from engine.case import Case, EndSupport
+    >>> pinned = EndSupport.named("pinned")
+    >>> case = Case(length=2.0, EI=2.0, stiffness_factor=0.5, left=pinned, right=pinned)
+    >>> round(float(critical_loads(case, 1).critical_loads[0] / (3.141592653589793**2 / 4)), 9)
+    1.0
+    """
+    if case.EI is None or case.stiffness_factor != 1.0:
+        case = resolve(case)[1]
+    return solver_buckling.critical_loads(case, count)
 
 
 def resolve(case):
@@ -234,8 +256,6 @@ def resolve(case):
         EI = material.E * section.I
         EI_source = f"E·I of {material.name} and {section.name} ({case.axis} axis)"
     if EI < 1e-3:
-        from engine.errors import CaseError
-
         raise CaseError(
             f"section: E·I = {EI!r} N·m² of this section and material is below 1e-3 N·m², "
             "smaller than any structural member"
@@ -267,8 +287,6 @@ def resolve(case):
         shape = imp.shape if imp.shape != "none" else ("mode" if imp.preset == "en1993-eq-5.9" else "sine")
         if imp.preset == "en1993-table-5.1":
             if curve is None:
-                from engine.errors import CaseError
-
                 raise CaseError(
                     "imperfection.curve: the EN 1993-1-1 Table 5.1 preset needs a buckling curve: "
                     "give 'curve' (a0, a, b, c or d) or a steel section and material"
@@ -279,8 +297,6 @@ def resolve(case):
             source = code_source or "EN 1993-1-1:2005 Table 5.1 [text: ECCS 2010, table 2.20]"
             code_amp = None  # the user chose the code value itself
         elif imp.preset == "en1993-eq-5.9":
-            from engine.errors import CaseError
-
             if section is None or material is None or curve is None:
                 raise CaseError(
                     "imperfection.preset: 'en1993-eq-5.9' needs a section and a steel material "

@@ -23,11 +23,14 @@ every axis. Lateral-torsional buckling and the N–M interaction about both axes
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 from typing import Any
 
+from engine import codes
 from engine.errors import CaseError
+from engine.sections import section_from_spec
 
 __all__ = ["KIND", "OutOfPlane", "OutOfPlaneSettings", "resistance", "utilisation"]
 
@@ -160,9 +163,6 @@ def resistance(case, section, material) -> OutOfPlane:
     section, material : Section, Material
         As resolved for the in-plane analysis (None when the case gives EI only).
     """
-    from engine import codes
-    from engine.sections import section_from_spec
-
     settings = case.out_of_plane or OutOfPlaneSettings()
     other = "minor" if case.axis == "major" else "major"
     if settings.restrained:
@@ -228,8 +228,6 @@ def resistance(case, section, material) -> OutOfPlane:
 
 def utilisation(template: OutOfPlane, axial_force: float) -> OutOfPlane:
     """The check at one axial force (compression positive): N_Ed/N_b,Rd, 0 in tension."""
-    import dataclasses
-
     if not template.checked:
         return template
     return dataclasses.replace(template, utilization=max(float(axial_force), 0.0) / template.N_b_Rd)

@@ -20,7 +20,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from engine.solution import Batch, Points
+from engine.solver.batch import Batch
+from engine.solver.model import Points
 
 __all__ = ["ReferenceData", "reference_peak", "reference_peaks"]
 

@@ -6,7 +6,7 @@ import numpy as np
 import pytest
 
 import engine
-from engine.buckling import _Characteristic, _end_states
+from engine.solver.buckling import _Characteristic, _end_states
 
 SPRING_SETS = [
     ("pinned", "pinned"),

@@ -3,7 +3,7 @@
 The expected file layout, key names, support names and defaults come from the project's
 contract, DEVELOPERS.md, "Conventions", "Case file (JSON, schema 1)"; the ranges come from
 the engine API spec. The end conditions of the named supports are common practice, no source.
-Support stability is engine.supports' business and is only checked here for being called.
+Support stability is engine.solver.supports' business and is only checked here for being called.
 """
 
 from __future__ import annotations
@@ -16,7 +16,7 @@ import math
 import numpy as np
 import pytest
 
-import engine.supports
+import engine.solver.supports
 from engine.case import (
     Case,
     CoupleLoad,
@@ -642,9 +642,9 @@ def test_equal_cases_hash_equal():
 
 
 def test_check_stable_is_called(monkeypatch):
-    """Case construction hands the finished case to engine.supports.check_stable."""
+    """Case construction hands the finished case to engine.solver.supports.check_stable."""
     seen = []
-    monkeypatch.setattr(engine.supports, "check_stable", seen.append)
+    monkeypatch.setattr(engine.solver.supports, "check_stable", seen.append)
     case = Case.from_dict(example())
     assert seen == [case]
     assert seen[0].loads == case.loads
@@ -656,7 +656,7 @@ def test_check_stable_error_passes_through(monkeypatch):
     def refuse(case):
         raise CaseError("supports: refused by the test")
 
-    monkeypatch.setattr(engine.supports, "check_stable", refuse)
+    monkeypatch.setattr(engine.solver.supports, "check_stable", refuse)
     assert error_of(example()) == "supports: refused by the test"
 
 

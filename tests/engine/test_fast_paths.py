@@ -1,8 +1,9 @@
 """The single-force fast paths of ``engine.solve`` give what the general evaluation gives.
 
 For one axial force ``engine.solve`` evaluates the stations from a table of polynomials in -P/EI
-(``_StationTable``) and finds the interior peaks by the Taylor series of the solution about the stations
-(``_refine_by_series``). Both are rearrangements of the exact solution, so the check here is against the
+(``engine.solver.table.StationTable``) and finds the interior peaks by the Taylor series of the solution about
+the stations (``engine.solver.series.refine_by_series``). Both are rearrangements of the exact solution, so
+the check here is against the
 engine's own general path, which the outside references check (solve_bvp in ``test_against_bvp.py``, mpmath
 and Timoshenko & Gere in ``test_closed_forms.py``; both run through these fast paths too):
 
@@ -22,7 +23,8 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 import engine
-from engine import analysis, solution
+from engine import prepared, solver
+from engine.solver import series
 from tests import strategies as cs
 
 _FIELDS = (
@@ -57,7 +59,7 @@ def _case(left, right, shape, fraction, **extra):
 
 def _exact_states(case, result):
     """The states at result.x by the general basis functions (no table, no series)."""
-    model = analysis._prepare(case).model
+    model = prepared.prepare(case).model
     x = np.asarray(result.x)
     seg = model.segment_of(x)
     # A node listed twice is the end of the left segment first, then the start of the right one.
@@ -65,8 +67,8 @@ def _exact_states(case, result):
     first_of_pair[:-1] = x[:-1] == x[1:]
     seg = np.where(first_of_pair, np.maximum(seg - 1, 0), seg)
     xi = x - model.xa[seg]
-    batch = solution.Batch(model, [case.axial_force])
-    return batch.states(0, solution.Points(model, seg, xi)), model
+    batch = solver.Batch(model, [case.axial_force])
+    return batch.states(0, solver.Points(model, seg, xi)), model
 
 
 SUPPORTS = [
@@ -112,14 +114,14 @@ def test_the_fast_paths_are_the_ones_used_on_the_benchmark_like_case(monkeypatch
     case = _case(*SUPPORTS[-1], "sine", 0.5)
     engine.clear_caches()
     calls = []
-    series = solution._refine_by_series
+    original = series.refine_by_series
 
     def spy(batch, pts, st_, fid, k, *rest):
-        fast = series(batch, pts, st_, fid, k, *rest)
-        calls.append((batch._table is not None, fast is not None and fast[2].size == k.size))
+        fast = original(batch, pts, st_, fid, k, *rest)
+        calls.append((batch.table_rows is not None, fast is not None and fast[2].size == k.size))
         return fast
 
-    monkeypatch.setattr(solution, "_refine_by_series", spy)
+    monkeypatch.setattr(series, "refine_by_series", spy)
     engine.solve(case)
     # Every refinement (the first order's, then the solve's) took the series; the solve's batch used the
     # table.
@@ -155,10 +157,10 @@ def test_derivative_recursion_matches_the_equation_differentiated(s, beta, data)
     class _Model:
         bow = _Bow()
 
-    tables = solution._SeriesTables(_Model())
+    tables = series.SeriesTables(_Model())
     v = np.array(data.draw(st.lists(st.floats(-10.0, 10.0), min_size=8, max_size=8)))
     R = tables.recursion(s)
-    D = solution._SERIES_DERIVATIVES
+    D = series.SERIES_DERIVATIVES
     d = np.zeros(D)
     d[:4] = v[:4]
     for m in range(D - 4):
@@ -205,13 +207,13 @@ def test_random_cases_match_the_general_evaluation(data):
 def test_station_table_targets_equal_the_general_targets(left, right, shape):
     """The targets and their slopes at the stations (bracketing the peaks), by the table and in general."""
     case = _case(left, right, shape, 0.45)
-    prep = analysis._prepare(case)
+    prep = prepared.prepare(case)
     seg, xi, shown, pts = prep.stations(401, 0.0)
-    fast = solution.Batch(prep.model, [case.axial_force], at=pts)
-    assert fast._table is not None
+    fast = solver.Batch(prep.model, [case.axial_force], at=pts)
+    assert fast.table_rows is not None
     f1, df1 = fast.targets(fast.states(0, pts), pts)
-    general = solution.Batch(prep.model, [case.axial_force])
-    plain = solution.Points(prep.model, seg, xi)
+    general = solver.Batch(prep.model, [case.axial_force])
+    plain = solver.Points(prep.model, seg, xi)
     f2, df2 = general.targets(general.states(0, plain), plain)
     for a, b in ((f1, f2), (df1, df2)):
         scale = np.maximum(np.abs(b).max(axis=1, keepdims=True), 1e-300)

@@ -6,7 +6,7 @@ import mpmath as mp
 import numpy as np
 import pytest
 
-from engine.functions import SERIES_LIMIT, phi, phi_closed, phi_series
+from engine.solver.functions import SERIES_LIMIT, phi, phi_closed, phi_series
 
 mp.mp.dps = 40
 

@@ -65,7 +65,7 @@ def test_one_load_too_many_is_refused_naming_the_limit_and_the_count():
 def test_a_thousand_loads_are_refused_before_any_is_built(monkeypatch):
     """24 000 loads (what a 1 MB upload holds) are refused on their count alone, quickly."""
     built = []
-    monkeypatch.setattr(engine.case, "_load_from_data", lambda path, data: built.append(path))
+    monkeypatch.setattr(engine.case, "load_from_data", lambda path, data: built.append(path))
     with pytest.raises(CaseError, match="24000 loads given"):
         Case.from_dict(base() | {"loads": point_loads(24_000)})
     assert built == []
@@ -88,9 +88,9 @@ def test_too_many_segments_are_refused():
 
 
 def test_segment_count_agrees_with_the_solver():
-    """engine.limits counts the segments exactly as engine.solution cuts the member."""
+    """engine.limits counts the segments exactly as engine.solver.model cuts the member."""
     from engine.imperfections import bow_for
-    from engine.solution import Model
+    from engine.solver.model import Model
 
     case = Case.from_dict(
         base()

@@ -22,7 +22,7 @@ import re
 import pytest
 from scipy import integrate
 
-from engine import sections
+from engine import catalogue, section_properties, sections
 from engine.errors import CaseError
 from engine.sections import Section, catalogue_names, normalise_name, section_from_spec
 
@@ -122,9 +122,9 @@ def test_catalogue_sections_equal_their_parametric_form(spec):
 # ----------------------------------------------------------------------------- the catalogue self-check
 
 _HANDBOOK_ENTRIES = (
-    [(name, "rolled_i", data) for name, data in sections._ROLLED_I.items()]
-    + [(name, "rhs", data) for name, data in sections._HOLLOW_RECTANGULAR.items()]
-    + [(name, "chs", (*data, None)) for name, data in sections._HOLLOW_CIRCULAR.items()]
+    [(name, "rolled_i", data) for name, data in catalogue.ROLLED_I.items()]
+    + [(name, "rhs", data) for name, data in catalogue.HOLLOW_RECTANGULAR.items()]
+    + [(name, "chs", (*data, None)) for name, data in catalogue.HOLLOW_CIRCULAR.items()]
 )
 
 
@@ -144,7 +144,7 @@ def test_every_catalogue_entry_is_checked_or_exact_by_formula():
     """Every catalogue name has handbook values to check, or is a timber size whose A and I are exact."""
     checked = {entry[0] for entry in _HANDBOOK_ENTRIES}
     unchecked = [name for name in catalogue_names() if name not in checked]
-    assert unchecked == list(sections._TIMBER)
+    assert unchecked == list(catalogue.TIMBER)
 
 
 def _sizes_in_name(name: str) -> list[float]:
@@ -320,7 +320,7 @@ def test_spandrel_constants_match_a_numerical_integration():
     first, _ = integrate.quad(lambda x: x * top(x), 0.0, r, epsabs=0, epsrel=1e-13)
     about_edge, _ = integrate.quad(lambda x: x * x * top(x), 0.0, r, epsabs=0, epsrel=1e-13)
     offset = first / area
-    got_area, got_offset, got_own = sections._spandrel(r)
+    got_area, got_offset, got_own = section_properties.spandrel(r)
     assert got_area == pytest.approx(area, rel=1e-9)
     assert got_offset == pytest.approx(offset, rel=1e-9)
     assert got_own == pytest.approx(about_edge - area * offset**2, rel=1e-9)

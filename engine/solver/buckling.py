@@ -2,7 +2,8 @@ r"""Elastic critical loads and buckling modes of one member, springs included.
 
 The critical loads are the roots of the exact characteristic equation :math:`\det D(\lambda) = 0`, where
 :math:`\lambda = L\sqrt{P/EI}` and :math:`D` holds the four end conditions applied to the homogeneous solution
-:math:`1, \xi, \varphi_2, \varphi_3` (:mod:`engine.functions`). No root is missed: the number of critical
+:math:`1, \xi, \varphi_2, \varphi_3` (:mod:`engine.solver.functions`). No root is missed: the number of
+critical
 loads
 below any trial :math:`\lambda` is counted exactly by the Wittrick–Williams algorithm
 (W. H. Wittrick and F. W. Williams, *A general algorithm for computing natural frequencies of elastic
@@ -32,9 +33,9 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from engine.functions import phi
 from engine.roots import brentq
-from engine.supports import boundary_rows
+from engine.solver.functions import phi
+from engine.solver.supports import boundary_rows
 
 __all__ = ["Buckling", "critical_loads", "clear_cache"]
 
@@ -296,7 +297,9 @@ def critical_loads(case, count: int = 5) -> Buckling:
     Parameters
     ----------
     case : Case
-        Only the length, EI and supports are used.
+        Only the length, EI and supports are used; EI must be given (the analysed member). For a case whose
+        EI comes from its section and material, or has a stiffness factor, use
+        :func:`engine.member.critical_loads` (``engine.critical_loads``).
     count : int
         How many critical loads, 1 to 12.
 
@@ -315,10 +318,10 @@ def critical_loads(case, count: int = 5) -> Buckling:
     """
     if not 1 <= count <= _MAX_COUNT:
         raise ValueError(f"count: {count} must be between 1 and {_MAX_COUNT}")
-    if case.EI is None or case.stiffness_factor != 1.0:
-        from engine.member import resolve  # EI from section × material, times the stiffness factor
-
-        case = resolve(case)[1]
+    if case.EI is None:
+        raise ValueError(
+            "case.EI: the solver needs EI; engine.member.critical_loads finds it from the section"
+        )
     EI, L = float(case.EI), float(case.length)
     # The dimensionless problem depends only on the springs made dimensionless, so one search serves every
     # member with the same end conditions (a batch of pinned struts searches once).

@@ -21,7 +21,7 @@ cancellation of the closed forms as :math:`k\xi \to 0` (the trap noted for Timos
 
 The series is evaluated only where :math:`|s|\xi^2 \le 4`; beyond that the solver uses the closed
 trigonometric
-or decaying-exponential forms (see :mod:`engine.solution`).
+or decaying-exponential forms (see :mod:`engine.solver.model`).
 """
 
 from __future__ import annotations

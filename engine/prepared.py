@@ -1,0 +1,184 @@
+"""What a case keeps between solves at different axial forces, and the cache of it per case.
+
+The page drags the axial force, so everything that does not depend on it is built once per case and kept:
+the member (EI, section, material, bow from :mod:`engine.member`), the critical loads, the solver's model,
+the stations, the first-order solution, the reference data for M_I + N·w0, the design data (section class,
+out-of-plane resistance) and the reversed-bow and bow-free variants. :func:`prepare` keeps the last 32
+cases, keyed by :meth:`engine.case.Case.without_axial_force` (the one definition of what a force-independent
+result depends on); :func:`clear_cache` forgets them.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+
+import numpy as np
+
+from engine.case import Imperfection
+from engine.classification import classify
+from engine.imperfections import bow_for
+from engine.member import resolve
+from engine.out_of_plane import resistance
+from engine.reference import ReferenceData
+from engine.solver.batch import Batch
+from engine.solver.buckling import critical_loads
+from engine.solver.model import Model, Points
+from engine.solver.peaks import base_stations, refine_peaks
+
+__all__ = ["Prepared", "clear_cache", "prepare"]
+
+
+class Prepared:
+    """What a case keeps between solves at different axial forces: its critical loads, model, stations and
+    first-order solution. The page drags the axial force, so these are built once per case."""
+
+    def __init__(self, case):
+        plain = (
+            case.section is None
+            and case.material is None
+            and case.imperfection.preset is None
+            and case.stiffness_factor == 1.0
+        )
+        if plain:
+            self.member, analysis_case = None, case
+        else:
+            self.member, analysis_case = resolve(case)
+        self.analysis_case = analysis_case
+        self.case = case
+        self._design: dict = {}  # section class and out-of-plane resistance: independent of the bow
+        self.buckling = critical_loads(analysis_case, 5)
+        self._start(self.member.bow if self.member is not None else None)
+
+    def _start(self, choice) -> None:
+        """The model of ``self.analysis_case`` with the sway of ``choice`` (a BowChoice or None)."""
+        if choice is not None and choice.sway != 0.0:
+            bow = bow_for(self.analysis_case, self.buckling, choice.sway_slope, choice.sway_anchor)
+        else:
+            bow = bow_for(self.analysis_case, self.buckling)
+        self.model = Model(self.analysis_case, bow)
+        self._stations: dict = {}
+        self._first: dict = {}
+        self._reference: dict = {}
+        self._variants: dict = {}
+
+    @property
+    def has_bow(self) -> bool:
+        """The model has an initial bow or sway."""
+        return self.model.bow.shape != "none"
+
+    def variant(self, kind: str) -> Prepared:
+        """The member with its bow reversed (``"reversed"``) or without it (``"bow_free"``), cached."""
+        hit = self._variants.get(kind)
+        if hit is None:
+            hit = object.__new__(Prepared)
+            hit.buckling = self.buckling
+            hit.case, hit._design = self.case, self._design
+            choice = None
+            if kind == "reversed":
+                choice = self.member.bow.reversed()
+                hit.member = dataclasses.replace(self.member, bow=choice)
+                imperfection = Imperfection(shape=choice.shape, amplitude=choice.amplitude)
+            else:
+                hit.member = self.member
+                imperfection = Imperfection()
+            hit.analysis_case = dataclasses.replace(self.analysis_case, imperfection=imperfection)
+            hit._start(choice)
+            self._variants[kind] = hit
+        return hit
+
+    def reference(self, count):
+        """M_I, V_I and the bow at the base stations, for the reference moment M_I + N·w0 (cached)."""
+        if count not in self._reference:
+            seg, xi, _, _ = self.stations(count, 0.0)
+            self._reference[count] = ReferenceData(self.model, seg, xi)
+        return self._reference[count]
+
+    def section_class(self, compression: bool):
+        """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached."""
+        if compression not in self._design:
+            member = self.member
+            self._design[compression] = (
+                None if member is None else classify(member.section, member.material, compression=compression)
+            )
+        return self._design[compression]
+
+    def out_of_plane(self):
+        """The out-of-plane buckling resistance (independent of the axial force), cached."""
+        if "out_of_plane" not in self._design:
+            member = self.member
+            self._design["out_of_plane"] = resistance(self.case, member.section, member.material)
+        return self._design["out_of_plane"]
+
+    def bow_facts(self) -> dict:
+        """What the cautions need to know of the bow."""
+        if self.member is None:
+            imp = self.analysis_case.imperfection
+            return {
+                "amplitude": imp.amplitude if imp.shape != "none" else 0.0,
+                "code_amplitude": None,
+                "opposes_load": False,
+                "shape": imp.shape,
+            }
+        bow = self.member.bow
+        return {
+            "amplitude": bow.amplitude if bow.shape != "none" else 0.0,
+            "code_amplitude": bow.code_amplitude,
+            "code_label": bow.code_label,
+            "code_source": bow.code_source,
+            "opposes_load": bow.favourable,
+            "shape": bow.shape,
+            "notes": bow.notes,
+            "sway": bow.sway,
+        }
+
+    def stations(self, count, kappa):
+        """Base stations (seg, xi, shown) and their Points, cached."""
+        key = (count, kappa)
+        if key not in self._stations:
+            seg, xi, shown = base_stations(self.model, count, kappa)
+            every = np.arange(self.model.nseg)
+            ends = np.stack(
+                [np.searchsorted(seg, every), np.searchsorted(seg, every, side="right") - 1], 1
+            ).ravel()
+            pts = Points(self.model, seg, xi, ends=ends)
+            shown_idx = np.nonzero(shown)[0]
+            pts.order_key = (shown_idx, seg[shown_idx] * 2.0 * self.model.L + xi[shown_idx])
+            pts.x_exact = self.model.position(seg, xi)  # x, exactly the node at a segment's end
+            self._stations[key] = (seg, xi, shown, pts)
+        return self._stations[key]
+
+    def first_order(self, count):
+        """The P = 0 solution: its batch, exact peak points, largest |M| and |w + w0|, and end moments."""
+        if count not in self._first:
+            batch = Batch(self.model, [0.0])
+            seg, xi, shown, pts = self.stations(count, 0.0)
+            st = batch.states(0, pts)
+            _, ps, px, pk = refine_peaks(batch, 0, pts, *batch.targets(st, pts), states=st)
+            m = max(float(np.abs(st["M"]).max()), float(np.abs(pk["M"]).max(initial=0.0)))
+            d = max(
+                float(np.abs(st["w"] + st["w0"]).max()), float(np.abs(pk["w"] + pk["w0"]).max(initial=0.0))
+            )
+            ends = (float(st["M"][0]), float(st["M"][-1]))
+            self._first[count] = (batch, ps, px, m, d, ends)
+        return self._first[count]
+
+
+_MODELS: dict = {}
+_MODEL_CACHE_SIZE = 32
+
+
+def prepare(case) -> Prepared:
+    """The prepared member of ``case``, built on first use and kept for the same case at any axial force."""
+    key = case.without_axial_force()
+    hit = _MODELS.get(key)
+    if hit is None:
+        hit = Prepared(case)
+        if len(_MODELS) >= _MODEL_CACHE_SIZE:
+            _MODELS.pop(next(iter(_MODELS)))
+        _MODELS[key] = hit
+    return hit
+
+
+def clear_cache() -> None:
+    """Forget cached models (the critical loads have their own cache)."""
+    _MODELS.clear()

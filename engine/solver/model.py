@@ -1,0 +1,408 @@
+r"""The member model of the solver: segments, loads and the exact basis of each segment (no axial force kept).
+
+The member is cut at every load position and load boundary into segments. In each segment the load is a
+polynomial of degree one and the bow curvature a constant plus one sinusoid, so
+
+.. math::
+
+    EI\,w'''' + P\,w'' = q_0 + q_1\xi - P\,w_0''(x)
+
+has the exact solution :math:`w = c_0 + c_1\xi + c_2 B_2(\xi) + c_3 B_3(\xi) + w_p(\xi)`. The pair
+:math:`B_2, B_3` is chosen per segment so that it is accurate and cannot overflow:
+
+- :math:`|P| h^2/EI \le 4`: the series functions :math:`\varphi_2, \varphi_3`
+  (:mod:`engine.solver.functions`), with the particular solution :math:`(q_0\varphi_4 +
+  q_1\varphi_5)/EI`, entire in :math:`P` and so continuous through
+  :math:`P = 0`;
+- compression beyond that: :math:`\cos k\xi, \sin k\xi`, with :math:`w_p = q_0\xi^2/2P + q_1\xi^3/6P`;
+- tension beyond that: the decaying exponentials :math:`e^{-\kappa\xi}, e^{-\kappa(h-\xi)}`, bounded for any
+  tension (no cosh overflow), with the same polynomial :math:`w_p`.
+
+The bow's sinusoid :math:`F\sin(\beta x + \psi)` has the particular solution
+:math:`sF\sin(\beta x+\psi)/(\beta^2(\beta^2 - s))`, :math:`s = P/EI`; within 2 % of resonance
+(:math:`s \approx \beta^2`, which is not a critical load unless the supports make it one) the
+zero-initial-value
+particular solution is used instead, by its Taylor series, which passes smoothly through resonance.
+
+The coefficients of all segments follow from one linear system: the end conditions
+(:mod:`engine.solver.supports`) and, at every cut, continuity of :math:`w, w'` and the jumps :math:`M^+ -
+M^- = C`, :math:`T^+ - T^- = -F`.
+This is the field-matrix method (Pestel & Leckie, *Matrix Methods in Elastomechanics*, 1963) solved as one
+global system rather than by chained products, which keeps strong tension well conditioned. The system is
+equilibrated and solved for many axial forces at once, so a sweep costs about as much as one solve.
+
+The assembly and solve are in :mod:`engine.solver.batch`, the stations' polynomial table in
+:mod:`engine.solver.table`, the peaks in :mod:`engine.solver.peaks` and :mod:`engine.solver.series`.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from engine.solver.functions import SERIES_LIMIT, phi_series, xi_powers
+from engine.solver.supports import boundary_rows
+
+__all__ = ["Model", "Points", "RESONANCE_BAND"]
+
+# |s/β² - 1| below which the resonance-safe particular solution is used. Outside it the plain form loses at
+# most log10(1/band) digits to the cancellation with the homogeneous part: 1.7 digits at 0.02.
+RESONANCE_BAND = 0.02
+_RESONANCE_TERMS = 46  # (1.12 · 2π)^46 / 46! < 1e-17: enough for any first-mode wavenumber
+
+
+class Points:
+    """Where the solution is evaluated, with everything there that does not depend on the axial force.
+
+    Parameters
+    ----------
+    model : Model
+    seg : ndarray of int
+        Segment of each point.
+    xi : ndarray
+        Distance of each point from its segment's start [m].
+    """
+
+    def __init__(self, model, seg, xi, ends=None):
+        #: indices of the start and end of every segment, in the order the assembly needs (or None)
+        self.ends = ends
+        self.seg = np.asarray(seg, dtype=int)
+        self.xi = np.asarray(xi, dtype=float)
+        self.size = self.xi.size
+        self.h = model.h[self.seg]
+        self.xa = model.xa[self.seg]
+        self.q0 = model.q0[self.seg]
+        self.q1 = model.q1[self.seg]
+        self.q = self.q0 + self.q1 * self.xi
+        self.x = self.xa + self.xi
+        self.h2 = self.h * self.h
+        self.h2_range = (float(self.h2.min()), float(self.h2.max())) if self.size else (0.0, 0.0)
+        self.bow = model.bow.derivatives(self.x)
+        self.waves = tuple(
+            (F, beta, psi, np.sin(beta * self.x + psi), np.cos(beta * self.x + psi))
+            for F, beta, psi in model.bow.terms
+        )
+        self._powers = None
+        self._same = None
+        #: the stations' polynomial table (engine.solver.table.station_table builds it when first needed)
+        self.station_table = None
+        #: (seg, xi, index, offset) of the last nearest-station query (engine.solver.series)
+        self.nearest = None
+        #: for base stations (engine.prepared): the listed stations' indices and sort keys, their exact x, and
+        #: those keys with sentinels at both ends (engine.analysis merges the peaks into the stations
+        #: with them)
+        self.order_key = None
+        self.x_exact = None
+        self.padded_key = None
+
+    @property
+    def same_segment(self) -> np.ndarray:
+        """Whether each pair of consecutive points lies in one segment (for bracketing), kept."""
+        if self._same is None:
+            self._same = self.seg[1:] == self.seg[:-1]
+        return self._same
+
+    @property
+    def powers(self) -> np.ndarray:
+        """ξ^(2j) for the series, computed on first use and kept (the points do not move)."""
+        if self._powers is None:
+            self._powers = xi_powers(self.xi)
+        return self._powers
+
+
+class Model:
+    """Everything about a case that does not depend on the axial force.
+
+    Parameters
+    ----------
+    case : Case
+        The member.
+    bow : Bow
+        Its initial bow, from :func:`engine.imperfections.bow_for`.
+    """
+
+    def __init__(self, case, bow):
+        L = float(case.length)
+        self.L, self.EI, self.bow = L, float(case.EI), bow
+        #: what the series refinement needs that does not depend on P (engine.solver.series builds it)
+        self.series_tables = None
+        tol = 1e-12 * L
+        cuts = [0.0, L]
+        for load in case.loads:
+            if load.type in ("point", "couple"):
+                cuts.append(float(load.x))
+            else:
+                cuts.extend(load.span(L))
+        cuts = np.sort(np.array(cuts))
+        nodes = [cuts[0]]
+        for c in cuts[1:]:
+            if c - nodes[-1] > tol:
+                nodes.append(float(c))
+        nodes[-1] = L
+        self.nodes = np.array(nodes)
+        self.xa = self.nodes[:-1]
+        self.h = np.diff(self.nodes)
+        nseg = self.h.size
+        self.nseg = nseg
+        self.q0 = np.zeros(nseg)
+        self.q1 = np.zeros(nseg)
+        self.force = np.zeros(self.nodes.size)  # point loads at the nodes [N]
+        self.couple = np.zeros(self.nodes.size)  # couples at the nodes [N·m]
+        self.total_load = 0.0  # Σ F + ∫ q [N]
+        self.total_moment = 0.0  # Σ F (L - x) + ∫ q (L - x) dx [N·m]
+        self.total_couple = 0.0
+        self.load_scale = 0.0
+        for load in case.loads:
+            if load.type in ("point", "couple"):
+                i = int(np.argmin(np.abs(self.nodes - load.x)))
+                if load.type == "point":
+                    self.force[i] += load.P
+                    self.total_load += load.P
+                    self.total_moment += load.P * (L - self.nodes[i])
+                    self.load_scale += abs(load.P)
+                else:
+                    self.couple[i] += load.C
+                    self.total_couple += load.C
+                continue
+            a, b = load.span(L)
+            qa, qb = (load.q, load.q) if load.type == "uniform" else (load.q_start, load.q_end)
+            slope = (qb - qa) / (b - a)
+            inside = (self.xa >= a - tol) & (self.xa + self.h <= b + tol)
+            self.q0[inside] += qa + slope * (self.xa[inside] - a)
+            self.q1[inside] += slope
+            span = b - a
+            self.total_load += 0.5 * (qa + qb) * span
+            # ∫ q (L - x) dx over [a, b] for linear q, exactly.
+            dq = qb - qa
+            self.total_moment += span * (qa * (L - a) - qa * span / 2 + dq * (L - a) / 2 - dq * span / 3)
+            self.load_scale += 0.5 * (abs(qa) + abs(qb)) * span
+        self.couple_scale = float(np.abs(self.couple).sum())  # Σ |C| [N·m]
+        self.rows_left = boundary_rows(case.left, "left")
+        self.rows_right = boundary_rows(case.right, "right")
+        self.jumps = np.stack([self.jump(i) for i in range(self.nodes.size)])
+        j = np.arange(nseg - 1)[:, None, None]
+        self.interface_index = (2 + 4 * j + np.arange(4)[None, :, None], 4 * j + np.arange(8)[None, None, :])
+        # Both ends of every segment, for the continuity and end conditions.
+        self.end_points = Points(
+            self,
+            np.repeat(np.arange(nseg), 2),
+            np.stack([np.zeros(nseg), self.h], 1).ravel(),
+            ends=np.arange(2 * nseg),
+        )
+
+    def position(self, seg: np.ndarray, xi: np.ndarray) -> np.ndarray:
+        """x = start of the segment + ξ, exactly the node where ξ is the segment's length [m]."""
+        x = self.xa[seg] + xi
+        at_end = xi == self.h[seg]
+        x[at_end] = self.nodes[seg[at_end] + 1]
+        return x
+
+    def segment_of(self, x: np.ndarray) -> np.ndarray:
+        """The segment holding each x (a node belongs to the segment on its right, L to the last)."""
+        return np.clip(np.searchsorted(self.nodes, x, side="right") - 1, 0, self.nseg - 1)
+
+    # ----------------------------------------------------------------------------------------------
+    def columns(self, P, pts):
+        """The states (w, w', M, T) of basis functions 3 and 4 and of the particular solution at points.
+
+        Basis functions 1 and 2 are 1 and ξ everywhere, with states (1, 0, 0, 0) and (ξ, 1, 0, -P).
+
+        Parameters
+        ----------
+        P : float or ndarray
+            Axial force [N], one for all points or one per point.
+        pts : Points
+
+        Returns
+        -------
+        cols : tuple of 7 arrays
+            w, w', M of function 3; w, w', M, T of function 4 (T of function 3 is zero in every form).
+        part : list of 4 arrays
+            w, w', M, T of the particular solution, including the bow's term ``-P w0'`` in T.
+        """
+        EI = self.EI
+        s = P / EI
+        xi, h = pts.xi, pts.h
+        q0 = pts.q0 + P * self.bow.uniform if self.bow.uniform else pts.q0
+        q1 = pts.q1
+        if np.ndim(s) == 0:
+            z = None
+            zlo, zhi = sorted((s * pts.h2_range[0], s * pts.h2_range[1]))
+        else:
+            z = s * pts.h2
+            zlo, zhi = (float(z.min()), float(z.max())) if z.size else (0.0, 0.0)
+        if -SERIES_LIMIT <= zlo and zhi <= SERIES_LIMIT:
+            out = (
+                _series_columns(EI, P, s, xi, h, q0, q1, pts.powers, pts.h2_range[1])
+                if z is None
+                else _series_columns(EI, P, s, xi, h, q0, q1)
+            )
+        elif zlo > SERIES_LIMIT:
+            out = _trig_columns(EI, P, s, xi, h, q0, q1)
+        elif zhi < -SERIES_LIMIT:
+            out = _exp_columns(EI, P, s, xi, h, q0, q1)
+        else:  # segments of different regimes
+            n = pts.size
+            P, s = np.broadcast_to(P, (n,)), np.broadcast_to(s, (n,))
+            q0 = np.broadcast_to(q0, (n,))
+            z = s * pts.h2 if z is None else z
+            out = [np.zeros(n) for _ in range(11)]
+            for mask, fn in (
+                (np.abs(z) <= SERIES_LIMIT, _series_columns),
+                (z > SERIES_LIMIT, _trig_columns),
+                (z < -SERIES_LIMIT, _exp_columns),
+            ):
+                if mask.any():
+                    values = fn(EI, P[mask], s[mask], xi[mask], h[mask], q0[mask], q1[mask])
+                    for target, v in zip(out, values, strict=True):
+                        target[mask] = v
+        cols, part = tuple(out[:7]), list(out[7:])
+        for F, beta, psi, sn, cs in pts.waves:
+            pw, p1, p2, p3 = _bow_particular(s, F, beta, psi, pts, sn, cs)
+            part[0] = part[0] + pw
+            part[1] = part[1] + p1
+            part[2] = part[2] - EI * p2
+            part[3] = part[3] - (EI * p3 + P * p1)
+        if self.bow.shape != "none":
+            part[3] = part[3] - P * pts.bow[1]
+        return cols, part
+
+    def basis(self, P, pts, columns=None, index=None):
+        """The state rows (w, w', M, T) of the four basis functions and of the particular solution.
+
+        ``columns`` may pass in what :meth:`columns` already returned for these points, and ``index``
+        pick some
+        of them.
+
+        Returns
+        -------
+        B : ndarray, shape (n, 4, 4)
+            ``B[:, i, j]`` is state quantity i of basis function j.
+        p : ndarray, shape (n, 4)
+            The particular solution's state.
+        """
+        cols, part = self.columns(P, pts) if columns is None else columns
+        xi = pts.xi
+        if index is not None:
+            cols = tuple(c[index] for c in cols)
+            part = [np.broadcast_to(p, xi.shape)[index] for p in part]
+            xi = xi[index]
+        w3, t3, m3, w4, t4, m4, T4 = cols
+        B = np.zeros((xi.size, 4, 4))
+        B[:, 0, 0] = 1.0
+        B[:, 0, 1] = xi
+        B[:, 1, 1] = 1.0
+        B[:, 3, 1] = -P if np.ndim(P) == 0 or index is None else np.asarray(P)[index]
+        B[:, 0, 2], B[:, 1, 2], B[:, 2, 2] = w3, t3, m3
+        B[:, 0, 3], B[:, 1, 3], B[:, 2, 3], B[:, 3, 3] = w4, t4, m4, T4
+        return B, np.stack(np.broadcast_arrays(*part), axis=1)
+
+    def jump(self, node: int) -> np.ndarray:
+        """state(x+) - state(x-) at a node: (0, 0, C, -F)."""
+        return np.array([0.0, 0.0, self.couple[node], -self.force[node]])
+
+
+def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
+    f0, f1, f2, f3, f4, f5 = phi_series(s, xi, powers, xi2_max)
+    return (
+        f2,
+        f1,
+        -EI * f0,
+        f3,
+        f2,
+        -EI * f1,
+        np.full(xi.size, -EI),
+        (q0 * f4 + q1 * f5) / EI,
+        (q0 * f3 + q1 * f4) / EI,
+        -(q0 * f2 + q1 * f3),
+        -q0 * xi - 0.5 * q1 * xi * xi,
+    )
+
+
+def _polynomial_particular(EI, P, xi, q0, q1):
+    return (
+        (q0 * xi * xi / 2 + q1 * xi**3 / 6) / P,
+        (q0 * xi + q1 * xi * xi / 2) / P,
+        -EI * (q0 + q1 * xi) / P,
+        -EI * q1 / P - q0 * xi - 0.5 * q1 * xi * xi,
+    )
+
+
+def _trig_columns(EI, P, s, xi, h, q0, q1):
+    k = np.sqrt(s)
+    c, sn = np.cos(k * xi), np.sin(k * xi)
+    ek2 = EI * k * k
+    return (c, -k * sn, ek2 * c, sn, k * c, ek2 * sn, np.zeros(xi.size)) + _polynomial_particular(
+        EI, P, xi, q0, q1
+    )
+
+
+def _exp_columns(EI, P, s, xi, h, q0, q1):
+    kap = np.sqrt(-s)
+    e1, e2 = np.exp(-kap * xi), np.exp(-kap * (h - xi))
+    ek2 = -EI * kap * kap
+    return (e1, -kap * e1, ek2 * e1, e2, kap * e2, ek2 * e2, np.zeros(xi.size)) + _polynomial_particular(
+        EI, P, xi, q0, q1
+    )
+
+
+def _bow_particular(s, F, beta, psi, pts, sn, cs):
+    """A particular solution of w'''' + s w'' = s F sin(β x + ψ) and its first three derivatives in ξ.
+
+    ``sn`` and ``cs`` are sin(βx + ψ) and cos(βx + ψ) at the points.
+    """
+    b2 = beta * beta
+    near = (s > 0) & (np.abs(s - b2) <= RESONANCE_BAND * b2)
+    if np.ndim(near) == 0:
+        if not near:
+            A = s * F / (b2 * (b2 - s))
+            return A * sn, (A * beta) * cs, (-A * b2) * sn, (-A * b2 * beta) * cs
+        near = np.ones(pts.size, dtype=bool)
+        s = np.full(pts.size, s)
+    out = [np.zeros(pts.size) for _ in range(4)]
+    far = ~near
+    if far.any():
+        sf = s[far]
+        A = sf * F / (b2 * (b2 - sf))
+        out[0][far] = A * sn[far]
+        out[1][far] = A * beta * cs[far]
+        out[2][far] = -A * b2 * sn[far]
+        out[3][far] = -A * b2 * beta * cs[far]
+    if near.any():
+        sn_ = s[near]
+        r = _resonant_series(sn_ / b2, beta * pts.xa[near] + psi, beta * pts.xi[near])
+        scale = sn_ * F / b2**2
+        for d in range(4):
+            out[d][near] = scale * r[d] * beta**d
+    return out
+
+
+def _resonant_series(sigma, theta, t):
+    r"""Zero-initial-value solution R(t) of R'''' + σ R'' = sin(θ + t), and R', R'', R''', by Taylor series.
+
+    Used only for t <= 2π·1.2 or so and σ near 1, where the series converges fast and loses no more than two
+    digits to alternating terms.
+    """
+    N = _RESONANCE_TERMS
+    n = t.size
+    g = np.empty((n, N))
+    phase = np.stack([np.sin(theta), np.cos(theta), -np.sin(theta), -np.cos(theta)], axis=1)
+    fact = 1.0
+    for j in range(N):
+        if j:
+            fact /= j
+        g[:, j] = phase[:, j % 4] * fact
+    r = np.zeros((n, N + 4))
+    for j in range(N):
+        prev = r[:, j + 2] if j + 2 < N + 4 else 0.0
+        r[:, j + 4] = (g[:, j] - sigma * (j + 2) * (j + 1) * prev) / ((j + 1) * (j + 2) * (j + 3) * (j + 4))
+    # Horner for the value and the first three derivatives.
+    out = []
+    coef = r
+    for _ in range(4):
+        acc = np.zeros(n)
+        for j in range(coef.shape[1] - 1, -1, -1):
+            acc = acc * t + coef[:, j]
+        out.append(acc)
+        m = coef.shape[1]
+        coef = coef[:, 1:] * np.arange(1, m)[None, :]
+    return out
