@@ -22,6 +22,10 @@ cancellation of the closed forms as :math:`k\xi \to 0` (the trap noted for Timos
 The series is evaluated only where :math:`|s|\xi^2 \le 4`; beyond that the solver uses the closed
 trigonometric
 or decaying-exponential forms (see :mod:`engine.solver.model`).
+
+Units: s [1/m²], ξ [m], :math:`\varphi_n` [m^n] (φ₀ is dimensionless, φ₁ a length, φ₂ an area, ...). The
+identities above follow from the series term by term; ``tests/engine/test_functions.py`` checks the series
+against the closed forms and against mpmath.
 """
 
 from __future__ import annotations
@@ -155,7 +159,9 @@ def phi_closed(s, xi):
     Returns
     -------
     tuple of ndarray
-        :math:`(\varphi_0, \varphi_1, \varphi_2, \varphi_3)`.
+        :math:`(\varphi_0, \varphi_1, \varphi_2, \varphi_3)` [-, m, m², m³]: :math:`\cos k\xi`,
+        :math:`\sin k\xi/k`, :math:`(1 - \cos k\xi)/k^2`, :math:`(\xi - \sin k\xi/k)/k^2` with
+        :math:`k^2 = s` in compression, cosh and sinh in tension.
     """
     s, xi = np.broadcast_arrays(np.asarray(s, dtype=float), np.asarray(xi, dtype=float))
     k = np.sqrt(np.abs(s))
@@ -181,7 +187,7 @@ def phi(s, xi):
     Returns
     -------
     tuple of ndarray
-        :math:`(\varphi_0, \varphi_1, \varphi_2, \varphi_3)`.
+        :math:`(\varphi_0, \varphi_1, \varphi_2, \varphi_3)` [-, m, m², m³].
 
     Examples
     --------

@@ -302,6 +302,14 @@ class Model:
 
 
 def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
+    r"""The columns of :meth:`Model.columns` where :math:`|s|\xi^2 \le 4`, from the series φ₀…φ₅.
+
+    Basis 3 is :math:`\varphi_2` (w [m²], w' [m], M = -EI φ₀ [N·m]), basis 4 is :math:`\varphi_3`
+    (w [m³], w' [m²], M [N·m²], T = -EI [N·m²]); the particular solution of :math:`q_0 + q_1\xi` [N/m, N/m²]
+    is :math:`w_p = (q_0\varphi_4 + q_1\varphi_5)/EI` [m], entire in P. Derived from the governing equation
+    (DEVELOPERS.md, conventions) with :mod:`engine.solver.functions`; EI [N·m²], P [N], s = P/EI [1/m²],
+    ξ and h [m].
+    """
     f0, f1, f2, f3, f4, f5 = phi_series(s, xi, powers, xi2_max)
     return (
         f2,
@@ -319,6 +327,8 @@ def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
 
 
 def _polynomial_particular(EI, P, xi, q0, q1):
+    r"""w, w', M, T of :math:`w_p = (q_0\xi^2/2 + q_1\xi^3/6)/P`, which solves :math:`EI w'''' + P w'' = q_0 +
+    q_1\xi` for P ≠ 0 (substitution; common practice, no source). Units: [m], [-], [N·m], [N]."""
     return (
         (q0 * xi * xi / 2 + q1 * xi**3 / 6) / P,
         (q0 * xi + q1 * xi * xi / 2) / P,
@@ -328,6 +338,9 @@ def _polynomial_particular(EI, P, xi, q0, q1):
 
 
 def _trig_columns(EI, P, s, xi, h, q0, q1):
+    r"""The columns in compression beyond the series, :math:`s\xi^2 > 4`: basis :math:`\cos k\xi, \sin k\xi`,
+    :math:`k = \sqrt{P/EI}` [1/m] (Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed., ch. 1, the
+    homogeneous solution of the beam-column; from memory), with :func:`_polynomial_particular`."""
     k = np.sqrt(s)
     c, sn = np.cos(k * xi), np.sin(k * xi)
     ek2 = EI * k * k
@@ -337,6 +350,10 @@ def _trig_columns(EI, P, s, xi, h, q0, q1):
 
 
 def _exp_columns(EI, P, s, xi, h, q0, q1):
+    r"""The columns in tension beyond the series, :math:`-s\xi^2 > 4`: basis :math:`e^{-\kappa\xi}` and
+    :math:`e^{-\kappa(h - \xi)}`, :math:`\kappa = \sqrt{-P/EI}` [1/m], the same span as cosh and sinh but
+    bounded by 1 on the segment, so that no tension overflows (common practice, no source); with
+    :func:`_polynomial_particular`."""
     kap = np.sqrt(-s)
     e1, e2 = np.exp(-kap * xi), np.exp(-kap * (h - xi))
     ek2 = -EI * kap * kap
@@ -348,7 +365,11 @@ def _exp_columns(EI, P, s, xi, h, q0, q1):
 def _bow_particular(s, F, beta, psi, pts, sn, cs):
     """A particular solution of w'''' + s w'' = s F sin(β x + ψ) and its first three derivatives in ξ.
 
-    ``sn`` and ``cs`` are sin(βx + ψ) and cos(βx + ψ) at the points.
+    ``sn`` and ``cs`` are sin(βx + ψ) and cos(βx + ψ) at the points; s [1/m²], F [1/m] (the bow's curvature
+    amplitude, -w0'' = F sin(βx + ψ)), β [1/m], ψ [rad]. Away from resonance it is A sin(βx + ψ) with
+    A = sF/(β²(β² - s)) [m], by substitution (common practice, no source); within the band it is the
+    zero-initial-value solution by its Taylor series (:func:`_resonant_series`). Returns w [m], w' [-],
+    w'' [1/m] and w''' [1/m²] at the points.
     """
     b2 = beta * beta
     near = (s > 0) & (np.abs(s - b2) <= RESONANCE_BAND * b2)
