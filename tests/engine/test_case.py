@@ -728,3 +728,21 @@ def test_load_case_of_a_missing_file_is_an_os_error(tmp_path):
     """load_case of a missing file raises the OSError of the file system, not a CaseError."""
     with pytest.raises(FileNotFoundError):
         load_case(tmp_path / "absent.json")
+
+
+# ----------------------------------------------------------------------------- cache key
+
+
+def test_without_axial_force_is_the_case_at_zero_force_and_the_cache_key():
+    """The case without its axial force equals the case rebuilt at N = 0; solves at any N share one entry."""
+    from engine import prepared
+
+    case = Case.from_dict(example())
+    assert case.axial_force != 0.0
+    twin = case.without_axial_force()
+    rebuilt = dataclasses.replace(case, axial_force=0.0)
+    assert twin == rebuilt and hash(twin) == hash(rebuilt) and twin.axial_force == 0.0
+    assert case.axial_force == Case.from_dict(example()).axial_force  # the original is untouched
+    assert rebuilt.without_axial_force() is rebuilt
+    assert prepared.prepare(case) is prepared.prepare(dataclasses.replace(case, axial_force=-1.0e3))
+    assert prepared.prepare(case) is not prepared.prepare(dataclasses.replace(case, length=case.length + 1.0))

@@ -218,3 +218,20 @@ def test_station_table_targets_equal_the_general_targets(left, right, shape):
     for a, b in ((f1, f2), (df1, df2)):
         scale = np.maximum(np.abs(b).max(axis=1, keepdims=True), 1e-300)
         assert np.all(np.abs(a - b) <= 1e-12 * scale)
+
+
+def test_the_fast_paths_keep_their_state_in_declared_attributes():
+    """Solving adds no attribute to the model or the stations: every cache is declared when they are built."""
+    case = _case(*SUPPORTS[-1], "sine", 0.5)
+    engine.clear_caches()
+    prep = prepared.prepare(case)
+    pts = prep.stations(401, 0.0)[3]
+    before = (set(vars(prep.model)), set(vars(pts)))
+    engine.solve(case)
+    assert (set(vars(prep.model)), set(vars(pts))) == before
+    assert pts.station_table is not None and prep.model.series_tables is not None  # both paths were taken
+    batch = solver.Batch(prep.model, [case.axial_force], at=pts)
+    state = batch.states(0, pts)
+    assert isinstance(state, solver.State) and state.rows is not None and state.columns is not None
+    fields = np.stack([state.w, state.rotation, state.M, state.T, state.V, state.w0])
+    assert np.array_equal(state.stacked(), fields)
