@@ -52,13 +52,13 @@ from engine.sections import AXES, section_from_spec
 from engine.solver import supports
 from engine.validate import (
     check_keys,
+    choice,
     expect_mapping,
     is_bool,
     quoted,
     real,
     set_field,
     show,
-    suggestion,
     within,
 )
 
@@ -248,11 +248,7 @@ class Case:
 
     def _check_member(self) -> None:
         """Validate the section, material, axis, stiffness factor and check settings."""
-        if not isinstance(self.axis, str) or self.axis not in AXES:
-            raise CaseError(
-                f"axis: {show(self.axis)} is not an axis{suggestion(self.axis, AXES)}; "
-                f"allowed: {quoted(AXES)}"
-            )
+        choice("axis", self.axis, AXES, "an axis")
         set_field(
             self,
             "stiffness_factor",

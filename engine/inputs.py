@@ -14,7 +14,7 @@ from typing import Any
 
 from engine import limits
 from engine.errors import CaseError
-from engine.validate import check_keys, is_bool, quoted, real, set_field, show, suggestion, within
+from engine.validate import check_keys, choice, is_bool, quoted, real, set_field, show, suggestion, within
 
 __all__ = [
     "EndSupport",
@@ -228,11 +228,7 @@ class EndSupport:
 
 
 def _named_support(path: str, name: Any) -> EndSupport:
-    allowed = f"allowed: {quoted(SUPPORT_NAMES)}"
-    if not isinstance(name, str) or name not in _NAMED_SUPPORTS:
-        raise CaseError(
-            f"{path}: {show(name)} is not a support name{suggestion(name, SUPPORT_NAMES)}; {allowed}"
-        )
+    choice(path, name, SUPPORT_NAMES, "a support name")
     translation, rotation = _NAMED_SUPPORTS[name]
     return EndSupport(translation=translation, rotation=rotation)
 
@@ -301,27 +297,12 @@ class Imperfection:
     columns: int = 1
 
     def __post_init__(self) -> None:
-        if not isinstance(self.shape, str) or self.shape not in IMPERFECTION_SHAPES:
-            raise CaseError(
-                f"shape: {show(self.shape)} is not a bow shape"
-                f"{suggestion(self.shape, IMPERFECTION_SHAPES)}; "
-                f"allowed: {quoted(IMPERFECTION_SHAPES)}"
-            )
+        choice("shape", self.shape, IMPERFECTION_SHAPES, "a bow shape")
         set_field(self, "amplitude", real("amplitude", self.amplitude, "m"))
         for name, allowed in (("curve", _CURVES), ("analysis", _ANALYSES), ("direction", _DIRECTIONS)):
-            value = getattr(self, name)
-            if not isinstance(value, str) or value not in allowed:
-                raise CaseError(
-                    f"{name}: {show(value)} is not allowed{suggestion(value, allowed)}; "
-                    f"allowed: {quoted(allowed)}"
-                )
+            choice(name, getattr(self, name), allowed)
         if self.preset is not None:
-            if not isinstance(self.preset, str) or self.preset not in IMPERFECTION_PRESETS:
-                raise CaseError(
-                    f"preset: {show(self.preset)} is not a bow preset"
-                    f"{suggestion(self.preset, IMPERFECTION_PRESETS)}; "
-                    f"allowed: {quoted(IMPERFECTION_PRESETS)}"
-                )
+            choice("preset", self.preset, IMPERFECTION_PRESETS, "a bow preset")
             if self.amplitude != 0.0:
                 raise CaseError(
                     f"amplitude: {self.amplitude!r} m cannot be given with preset "

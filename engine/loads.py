@@ -12,7 +12,16 @@ from dataclasses import dataclass
 from typing import Any, ClassVar
 
 from engine.errors import CaseError
-from engine.validate import check_keys, expect_mapping, quoted, real, set_field, show, suggestion, within
+from engine.validate import (
+    check_keys,
+    choice,
+    expect_mapping,
+    quoted,
+    real,
+    set_field,
+    show,
+    within,
+)
 
 __all__ = [
     "CoupleLoad",
@@ -192,11 +201,7 @@ def load_from_data(path: str, data: Any) -> Load:
     if "type" not in data:
         raise CaseError(f"{path}.type: required key is missing; allowed types: {quoted(LOAD_TYPES)}")
     kind = data["type"]
-    if not isinstance(kind, str) or kind not in _LOAD_CLASSES:
-        raise CaseError(
-            f"{path}.type: {show(kind)} is not a load type{suggestion(kind, LOAD_TYPES)}; "
-            f"allowed: {quoted(LOAD_TYPES)}"
-        )
+    choice(f"{path}.type", kind, LOAD_TYPES, "a load type")
     cls = _LOAD_CLASSES[kind]
     names = tuple(item.name for item in dataclasses.fields(cls))
     required = tuple(item.name for item in dataclasses.fields(cls) if item.default is dataclasses.MISSING)

@@ -27,7 +27,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from engine.errors import CaseError
-from engine.validate import positive, quoted, show, suggestion
+from engine.validate import choice, positive, quoted, show, suggestion
 
 __all__ = ["MATERIAL_KINDS", "Material", "material_from_spec", "material_names"]
 
@@ -121,11 +121,7 @@ class Material:
 
     def __post_init__(self) -> None:
         path = "material"
-        if self.kind not in MATERIAL_KINDS:
-            raise CaseError(
-                f"{path}.kind: {show(self.kind)} is not a material kind"
-                f"{suggestion(self.kind, MATERIAL_KINDS)}; allowed: {quoted(MATERIAL_KINDS)}"
-            )
+        choice(f"{path}.kind", self.kind, MATERIAL_KINDS, "a material kind")
         for attribute in ("name", "thickness_band", "source"):
             if not isinstance(getattr(self, attribute), str):
                 raise CaseError(f"{path}.{attribute}: {show(getattr(self, attribute))} must be a string")
@@ -409,11 +405,7 @@ def _custom(spec: Mapping, path: str) -> Material:
             f"{{'name': {name!r}}} alone, or name the custom material differently"
         )
     kind = spec.get("kind", "custom")
-    if kind not in MATERIAL_KINDS:
-        raise CaseError(
-            f"{path}.kind: {show(kind)} is not a material kind"
-            f"{suggestion(kind, MATERIAL_KINDS)}; allowed: {quoted(MATERIAL_KINDS)}"
-        )
+    choice(f"{path}.kind", kind, MATERIAL_KINDS, "a material kind")
     E = positive(f"{path}.E", spec["E"], "Pa")
     fy = positive(f"{path}.fy", spec["fy"], "Pa")
     f_c = positive(f"{path}.f_c", spec["f_c"], "Pa") if "f_c" in spec else fy

@@ -534,8 +534,7 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
     ...
     engine.errors.CaseError: section.tf: 0.3 m must be less than h/2 = 0.1 m
     """
-    if not isinstance(axis, str) or axis not in AXES:
-        raise CaseError(f"axis: {show(axis)} is not an axis{suggestion(axis, AXES)}; allowed: {quoted(AXES)}")
+    choice("axis", axis, AXES, "an axis")
     if not isinstance(spec, Mapping):
         raise CaseError(
             f"{path}: {show(spec)} is not an object; expected {{'name': ...}} or "
