@@ -1,0 +1,11 @@
+"""The code rules of the design layer, as pure functions of plain numbers (SI, or dimensionless).
+
+- :mod:`engine.design.annex_b`: the equivalent-member check of EN 1993-1-1:2005 §6.3.3, eqs. (6.61) and
+  (6.62), with the interaction factors of Annex B (method 2) and the equivalent uniform moment factors of its
+  Table B.3;
+- :mod:`engine.design.aisc360`: the compression strength of AISC 360-16 §E3 and the interaction of §H1.1,
+  eqs. (H1-1a) and (H1-1b).
+
+These functions take numbers the caller has already checked (the case's validation names the fields a user
+typed); they raise ``ValueError`` only for a number outside the range the formula is written for.
+"""
