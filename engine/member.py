@@ -184,9 +184,8 @@ def _curve(case, section, material):
 def mode_curvature_peak(buckling) -> float:
     r""":math:`|\eta''_{cr}|_{max}` [1/m²] of the first mode, normalised to max|η| = 1, found exactly.
 
-    The mode is :math:`c_0 + c_1\xi + c_2\varphi_2 + c_3\varphi_3` in ξ = x/L
-    (:mod:`engine.solver.buckling`), so
-    :math:`L^2\eta'' = c_2\cos\lambda\xi + (c_3/\lambda)\sin\lambda\xi = R\cos(\lambda\xi - \theta)`:
+    The mode is :math:`c_0 + c_1\xi + c_2\varphi_2 + c_3\varphi_3` in ξ = x/L (:mod:`engine.solver.buckling`),
+    so :math:`L^2\eta'' = c_2\cos\lambda\xi + (c_3/\lambda)\sin\lambda\xi = R\cos(\lambda\xi - \theta)`:
     the peak is R where :math:`\lambda\xi - \theta` is a multiple of π inside the member, else at an end.
     """
     lam = float(buckling.wavenumbers[0])

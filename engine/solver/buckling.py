@@ -3,26 +3,22 @@ r"""Elastic critical loads and buckling modes of one member, springs included.
 The critical loads are the roots of the exact characteristic equation :math:`\det D(\lambda) = 0`, where
 :math:`\lambda = L\sqrt{P/EI}` and :math:`D` holds the four end conditions applied to the homogeneous solution
 :math:`1, \xi, \varphi_2, \varphi_3` (:mod:`engine.solver.functions`). No root is missed: the number of
-critical
-loads
-below any trial :math:`\lambda` is counted exactly by the Wittrick–Williams algorithm
+critical loads below any trial :math:`\lambda` is counted exactly by the Wittrick–Williams algorithm
 (W. H. Wittrick and F. W. Williams, *A general algorithm for computing natural frequencies of elastic
-structures*,
-Q. J. Mech. Appl. Math. 24 (1971) 263–284, and its buckling form, Williams & Wittrick, Int. J. Mech. Sci.
-12 (1970)),
+structures*, Q. J. Mech. Appl. Math. 24 (1971) 263–284, and its buckling form, Williams & Wittrick, Int. J.
+Mech. Sci. 12 (1970)),
 
 .. math::
 
     J(\lambda) = J_0(\lambda) + s\{K(\lambda)\},
 
-with :math:`s\{K\}` the number of negative eigenvalues of the member's exact end stiffness matrix
-(springs added,
-fixed freedoms removed) and :math:`J_0` the number of clamped–clamped critical loads below :math:`\lambda`
-(:math:`\lambda = 2\pi n` and :math:`\lambda = 2\mu`, :math:`\tan\mu = \mu`). Each counted root is then
-polished by
-Brent's method on the determinant.
+with :math:`s\{K\}` the number of negative eigenvalues of the member's exact end stiffness matrix (springs
+added, fixed freedoms removed) and :math:`J_0` the number of clamped–clamped critical loads below
+:math:`\lambda` (:math:`\lambda = 2\pi n` and :math:`\lambda = 2\mu`, :math:`\tan\mu = \mu`). Each counted
+root is then polished by Brent's method on the determinant.
 
 Everything is computed on the member made dimensionless (:math:`L = EI = 1`) and cached per support set.
+Units: loads [N], lengths [m], EI [N·m²], λ and the mode shapes dimensionless.
 """
 
 from __future__ import annotations

@@ -12,16 +12,14 @@ For a member with axial force :math:`P` (compression positive) and stiffness :ma
 
 So :math:`\varphi_0 = \cos k\xi`, :math:`\varphi_1 = \sin k\xi / k`, :math:`\varphi_2 = (1-\cos k\xi)/k^2`,
 :math:`\varphi_3 = (\xi - \sin k\xi/k)/k^2` in compression (:math:`k^2 = s`), the hyperbolic forms in tension,
-and the polynomials :math:`\xi^n/n!` at :math:`s = 0`. Being entire in :math:`s`, they pass through zero
-axial force
-without a switch of formula. These are the functions of the transfer-matrix method for beam-columns
+and the polynomials :math:`\xi^n/n!` at :math:`s = 0`. Being entire in :math:`s`, they pass through zero axial
+force without a switch of formula. These are the functions of the transfer-matrix method for beam-columns
 (Pestel & Leckie, *Matrix Methods in Elastomechanics*, 1963, ch. 6) written in series form, which removes the
-cancellation of the closed forms as :math:`k\xi \to 0` (the trap noted for Timoshenko & Gere's
-:math:`\eta, \lambda, \chi` functions).
+cancellation of the closed forms as :math:`k\xi \to 0` (the trap noted for Timoshenko & Gere's :math:`\eta,
+\lambda, \chi` functions).
 
 The series is evaluated only where :math:`|s|\xi^2 \le 4`; beyond that the solver uses the closed
-trigonometric
-or decaying-exponential forms (see :mod:`engine.solver.model`).
+trigonometric or decaying-exponential forms (see :mod:`engine.solver.model`).
 
 Units: s [1/m²], ξ [m], :math:`\varphi_n` [m^n] (φ₀ is dimensionless, φ₁ a length, φ₂ an area, ...). The
 identities above follow from the series term by term; ``tests/engine/test_functions.py`` checks the series

@@ -11,9 +11,8 @@ has the exact solution :math:`w = c_0 + c_1\xi + c_2 B_2(\xi) + c_3 B_3(\xi) + w
 :math:`B_2, B_3` is chosen per segment so that it is accurate and cannot overflow:
 
 - :math:`|P| h^2/EI \le 4`: the series functions :math:`\varphi_2, \varphi_3`
-  (:mod:`engine.solver.functions`), with the particular solution :math:`(q_0\varphi_4 +
-  q_1\varphi_5)/EI`, entire in :math:`P` and so continuous through
-  :math:`P = 0`;
+  (:mod:`engine.solver.functions`), with the particular solution :math:`(q_0\varphi_4 + q_1\varphi_5)/EI`,
+  entire in :math:`P` and so continuous through :math:`P = 0`;
 - compression beyond that: :math:`\cos k\xi, \sin k\xi`, with :math:`w_p = q_0\xi^2/2P + q_1\xi^3/6P`;
 - tension beyond that: the decaying exponentials :math:`e^{-\kappa\xi}, e^{-\kappa(h-\xi)}`, bounded for any
   tension (no cosh overflow), with the same polynomial :math:`w_p`.
@@ -21,12 +20,12 @@ has the exact solution :math:`w = c_0 + c_1\xi + c_2 B_2(\xi) + c_3 B_3(\xi) + w
 The bow's sinusoid :math:`F\sin(\beta x + \psi)` has the particular solution
 :math:`sF\sin(\beta x+\psi)/(\beta^2(\beta^2 - s))`, :math:`s = P/EI`; within 2 % of resonance
 (:math:`s \approx \beta^2`, which is not a critical load unless the supports make it one) the
-zero-initial-value
-particular solution is used instead, by its Taylor series, which passes smoothly through resonance.
+zero-initial-value particular solution is used instead, by its Taylor series, which passes smoothly through
+resonance.
 
 The coefficients of all segments follow from one linear system: the end conditions
-(:mod:`engine.solver.supports`) and, at every cut, continuity of :math:`w, w'` and the jumps :math:`M^+ -
-M^- = C`, :math:`T^+ - T^- = -F`.
+(:mod:`engine.solver.supports`) and, at every cut, continuity of :math:`w, w'` and the jumps
+:math:`M^+ - M^- = C`, :math:`T^+ - T^- = -F`.
 This is the field-matrix method (Pestel & Leckie, *Matrix Methods in Elastomechanics*, 1963) solved as one
 global system rather than by chained products, which keeps strong tension well conditioned. The system is
 equilibrated and solved for many axial forces at once, so a sweep costs about as much as one solve.

@@ -82,18 +82,17 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
         still bracketed.
     also : tuple of (seg, xi), optional
         More points to evaluate in the same pass (a single axial force only).
-    states : dict, optional
+    states : State, optional
         The states at ``pts`` (what ``batch.states`` returned), for a single axial force: the zeros and the
         state there then come from the Taylor series of the exact solution about the stations
-        (:func:`engine.solver.series.refine_by_series`) wherever that series is short enough; otherwise,
-        or without ``states``,
-        from exact evaluations as above.
+        (:func:`engine.solver.series.refine_by_series`) wherever that series is short enough; otherwise, or
+        without ``states``, from exact evaluations as above.
 
     Returns
     -------
     iP, seg, xi : ndarray
         Where the zeros are.
-    states : dict of ndarray
+    states : State
         w, rotation, M, T, V and w0 there, followed by those at ``also``.
     """
     seg, xi = pts.seg, pts.xi

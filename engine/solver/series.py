@@ -136,9 +136,8 @@ def refine_by_series(batch, pts, st, fid, k, lo, hi, x0, also):
     derivative (:class:`SeriesTables`), so the solution between stations is its Taylor series about the
     station: exact to rounding when the distance times the largest wavenumber (:math:`\sqrt{|P|/EI}` or the
     bow's :math:`\beta`) is at most 0.5, with 18 terms. Each zero is found by Halley's iteration on that
-    series
-    from the secant start, inside its bracket. This gives what an exact evaluation at the zero gives (a test
-    checks it) without evaluating the basis functions again. Returns None where it does not apply (coarse
+    series from the secant start, inside its bracket. This gives what an exact evaluation at the zero gives (a
+    test checks it) without evaluating the basis functions again. Returns None where it does not apply (coarse
     stations for the wavenumber, strong tension, more than one bow sinusoid, a zero that does not settle
     inside its bracket); the caller then evaluates exactly.
     """

@@ -60,21 +60,16 @@ class StationTable:
     r"""The state at fixed stations as polynomials in :math:`\sigma = -P/EI`, for one axial force at a time.
 
     In the series regime (:math:`|s| h^2 \le 4` in every segment) each entry of :math:`B` and of the
-    particular
-    solution's state (:meth:`Model.basis`) is :math:`\sum_j \sigma^j c_j`, with coefficients that depend
-    on the
-    point only: :math:`\varphi_n = \sum_j \sigma^j \xi^{n+2j}/(n+2j)!`, and the bow's uniform curvature
-    and slope
-    enter through :math:`P = -EI\sigma`. For one axial force the rows at every station are then one
-    product with
-    the powers of :math:`\sigma` (the series of :func:`engine.solver.functions.phi_series`, summed
-    directly). The
-    state there, and the targets whose zeros are peaks, are then one small matrix (built from the segment's
-    coefficients) times the stations' columns ``Y`` per segment: 1, ξ, φ0 … φ3, the particular state, the
-    bow's
-    derivatives, q, q' and the bow sinusoid. The bow's sinusoid adds its particular solution
-    :math:`A(s)\,(\ldots)`, :math:`A = sF/(\beta^2(\beta^2 - s))`; within the resonance band, or outside the
-    series regime, :meth:`evaluate` returns None and the caller evaluates the basis functions instead.
+    particular solution's state (:meth:`Model.basis`) is :math:`\sum_j \sigma^j c_j`, with coefficients that
+    depend on the point only: :math:`\varphi_n = \sum_j \sigma^j \xi^{n+2j}/(n+2j)!`, and the bow's uniform
+    curvature and slope enter through :math:`P = -EI\sigma`. For one axial force the rows at every station
+    are then one product with the powers of :math:`\sigma` (the series of
+    :func:`engine.solver.functions.phi_series`, summed directly). The state there, and the targets whose
+    zeros are peaks, are then one small matrix (built from the segment's coefficients) times the stations'
+    columns ``Y`` per segment: 1, ξ, φ0 … φ3, the particular state, the bow's derivatives, q, q' and the bow
+    sinusoid. The bow's sinusoid adds its particular solution :math:`A(s)\,(\ldots)`,
+    :math:`A = sF/(\beta^2(\beta^2 - s))`; within the resonance band, or outside the series regime,
+    :meth:`evaluate` returns None and the caller evaluates the basis functions instead.
     """
 
     def __init__(self, model, pts):
