@@ -18,7 +18,6 @@ from __future__ import annotations
 import json
 import numbers
 import os
-import tempfile
 from collections.abc import Mapping
 from contextlib import suppress
 from dataclasses import dataclass, field
@@ -501,7 +500,7 @@ def save_case(case: Case, path: str | os.PathLike) -> None:
     """
     data = (case.to_json(indent=2) + "\n").encode("utf-8")
     folder = os.path.dirname(os.path.abspath(os.fspath(path)))
-    handle, temporary = tempfile.mkstemp(dir=folder, prefix=".", suffix=".json.part")
+    handle, temporary = _temporary_file(folder)
     try:
         with os.fdopen(handle, "wb") as stream:
             stream.write(data)
@@ -515,3 +514,20 @@ def save_case(case: Case, path: str | os.PathLike) -> None:
         with suppress(OSError):
             os.unlink(temporary)
         raise
+
+
+def _temporary_file(folder: str) -> tuple[int, str]:
+    """A new file ``.<random>.json.part`` in ``folder``, open for writing and readable by its owner only.
+
+    What :func:`tempfile.mkstemp` does (exclusive creation, a random name, no symbolic link followed), without
+    importing :mod:`tempfile`, which brings :mod:`shutil`, :mod:`random` and the compression modules into
+    every start of the engine.
+    """
+    flags = os.O_WRONLY | os.O_CREAT | os.O_EXCL | getattr(os, "O_NOFOLLOW", 0) | getattr(os, "O_BINARY", 0)
+    for _ in range(100):
+        name = os.path.join(folder, f".{os.urandom(8).hex()}.json.part")
+        try:
+            return os.open(name, flags, 0o600), name
+        except FileExistsError:
+            continue
+    raise FileExistsError(f"no free temporary name in {folder}")

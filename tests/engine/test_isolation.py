@@ -137,3 +137,30 @@ def test_importing_the_engine_leaves_scipy_optimize_until_a_root_is_needed():
     assert (
         abs(ratio - 1.0) < 1e-9
     )  # Euler, pinned-pinned (Timoshenko & Gere, Theory of Elastic Stability, §2.1)
+
+
+def test_importing_the_engine_leaves_tempfile_until_a_case_is_saved(tmp_path):
+    """`import engine` loads no `tempfile` (it brings shutil, random and the compression modules with it):
+    `save_case` makes its temporary file itself, and the file it writes reads back as the same case."""
+    code = (
+        "import sys, json, os\n"
+        "import engine\n"
+        "loaded = sorted(n for n in ('tempfile', 'shutil', 'bz2', 'lzma') if n in sys.modules)\n"
+        "case = engine.Case.from_dict({'schema': 1, 'length': 4.0, 'EI': 2.0e6,"
+        " 'supports': {'left': 'pinned', 'right': 'pinned'}, 'loads': []})\n"
+        "path = os.path.join(sys.argv[1], 'a.json')\n"
+        "engine.save_case(case, path)\n"
+        "print(json.dumps([loaded, engine.load_case(path) == case]))\n"
+    )
+    completed = subprocess.run(
+        [sys.executable, "-c", code, str(tmp_path)],
+        cwd=REPO,
+        capture_output=True,
+        text=True,
+        timeout=120,
+        check=False,
+    )
+    assert completed.returncode == 0, completed.stderr
+    loaded, same = json.loads(completed.stdout.strip().splitlines()[-1])
+    assert loaded == [] and same
+    assert sorted(path.name for path in tmp_path.iterdir()) == ["a.json"]  # no temporary file left behind
