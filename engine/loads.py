@@ -12,16 +12,7 @@ from dataclasses import dataclass
 from typing import Any, ClassVar
 
 from engine.errors import CaseError
-from engine.validate import (
-    check_keys,
-    choice,
-    expect_mapping,
-    quoted,
-    real,
-    set_field,
-    show,
-    within,
-)
+from engine.validate import check_keys, choice, expect_mapping, quoted, real, set_field, show, within
 
 __all__ = [
     "CoupleLoad",
