@@ -32,34 +32,39 @@ class Prepared:
     """What a case keeps between solves at different axial forces: its critical loads, model, stations and
     first-order solution. The page drags the axial force, so these are built once per case."""
 
-    def __init__(self, case):
+    def __init__(self, case, member, analysis_case, buckling, design: dict, choice) -> None:
+        """Every attribute, for a new case (:meth:`of`) and for its variants (:meth:`variant`).
+
+        ``member`` is the resolved member (None for a plain case), ``analysis_case`` the case the solver runs,
+        ``buckling`` its critical loads, ``design`` the cache shared with the variants (section class and
+        out-of-plane resistance, independent of the bow) and ``choice`` the bow (a BowChoice or None), whose
+        sway enters the model.
+        """
+        self.case, self.member, self.analysis_case = case, member, analysis_case
+        self.buckling = buckling
+        self._design = design
+        if choice is not None and choice.sway != 0.0:
+            bow = bow_for(analysis_case, buckling, choice.sway_slope, choice.sway_anchor)
+        else:
+            bow = bow_for(analysis_case, buckling)
+        self.model = Model(analysis_case, bow)
+        self._stations: dict = {}
+        self._first: dict = {}
+        self._reference: dict = {}
+        self._variants: dict = {}
+
+    @classmethod
+    def of(cls, case) -> Prepared:
+        """The prepared member of ``case``: resolved (EI, section, material, bow) unless it is plain."""
         plain = (
             case.section is None
             and case.material is None
             and case.imperfection.preset is None
             and case.stiffness_factor == 1.0
         )
-        if plain:
-            self.member, analysis_case = None, case
-        else:
-            self.member, analysis_case = resolve(case)
-        self.analysis_case = analysis_case
-        self.case = case
-        self._design: dict = {}  # section class and out-of-plane resistance: independent of the bow
-        self.buckling = critical_loads(analysis_case, 5)
-        self._start(self.member.bow if self.member is not None else None)
-
-    def _start(self, choice) -> None:
-        """The model of ``self.analysis_case`` with the sway of ``choice`` (a BowChoice or None)."""
-        if choice is not None and choice.sway != 0.0:
-            bow = bow_for(self.analysis_case, self.buckling, choice.sway_slope, choice.sway_anchor)
-        else:
-            bow = bow_for(self.analysis_case, self.buckling)
-        self.model = Model(self.analysis_case, bow)
-        self._stations: dict = {}
-        self._first: dict = {}
-        self._reference: dict = {}
-        self._variants: dict = {}
+        member, analysis_case = (None, case) if plain else resolve(case)
+        choice = member.bow if member is not None else None
+        return cls(case, member, analysis_case, critical_loads(analysis_case, 5), {}, choice)
 
     @property
     def has_bow(self) -> bool:
@@ -70,19 +75,16 @@ class Prepared:
         """The member with its bow reversed (``"reversed"``) or without it (``"bow_free"``), cached."""
         hit = self._variants.get(kind)
         if hit is None:
-            hit = object.__new__(Prepared)
-            hit.buckling = self.buckling
-            hit.case, hit._design = self.case, self._design
             choice = None
             if kind == "reversed":
                 choice = self.member.bow.reversed()
-                hit.member = dataclasses.replace(self.member, bow=choice)
+                member = dataclasses.replace(self.member, bow=choice)
                 imperfection = Imperfection(shape=choice.shape, amplitude=choice.amplitude)
             else:
-                hit.member = self.member
+                member = self.member
                 imperfection = Imperfection()
-            hit.analysis_case = dataclasses.replace(self.analysis_case, imperfection=imperfection)
-            hit._start(choice)
+            analysis_case = dataclasses.replace(self.analysis_case, imperfection=imperfection)
+            hit = Prepared(self.case, member, analysis_case, self.buckling, self._design, choice)
             self._variants[kind] = hit
         return hit
 
@@ -181,7 +183,7 @@ def prepare(case) -> Prepared:
     key = case.without_axial_force()
     hit = _MODELS.get(key)
     if hit is None:
-        hit = Prepared(case)
+        hit = Prepared.of(case)
         if len(_MODELS) >= _MODEL_CACHE_SIZE:
             _MODELS.pop(next(iter(_MODELS)))
         _MODELS[key] = hit
