@@ -33,7 +33,7 @@ SIMPLE = "1/(1 − N/Pcr1)"
 _SOURCE_SIMPLE = (
     "Timoshenko & Gere (1961) ch. 1, sinusoidal amplification 1/(1 − N/Pcr) (article from memory)"
 )
-_SOURCE_PSI = "AISC 360-16 Commentary Table C-A-8.1, psi after Iwankiw (1984) (case matching from memory)"
+_SOURCE_PSI = "AISC 360-16 Commentary Table C-A-8.1, ψ after Iwankiw (1984) (case matching from memory)"
 _SOURCE_B1 = (
     "AISC 360-16 Appendix 8 §8.2.1, B1 = Cm/(1 − N/Pe1) ≥ 1, Pe1 = exact Pcr1 (eq. numbers from memory)"
 )

@@ -322,7 +322,7 @@ def resolve(case):
                     "sway imperfection, or stiffer supports"
                 )
             label = (
-                f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, lambda_bar = {lam:.3f}, "
+                f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, λ̄ = {lam:.3f}, "
                 f"e0 = {{e0}}, first-mode bow e0·N_cr/(EI·|η''|max) = e0 × {factor:.4g} = {{amplitude}}"
             )
             label_values["e0"] = float(e0)
@@ -360,7 +360,7 @@ def resolve(case):
             else:
                 phi, a_h, a_m = sway_phi(L, imp.columns)
                 sway_label = (
-                    f"sway phi = phi0·alpha_h·alpha_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
+                    f"sway φ = φ0·α_h·α_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
                     f"= 1/{1 / phi:.0f} (h = L = {{h}}, m = {imp.columns})"
                 )
                 sway_source = SOURCE_EN

@@ -116,7 +116,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     if material:
         item("Material", material)
         if result.material.source:
-            item("", f"source: {source_text(result.material.source)}", scale=0.85, color=_GREY)
+            item("", f"source: {source_text(result.material.source, U)}", scale=0.85, color=_GREY)
     item("Bending stiffness", stiffness_text(result, U))
     item("Axial force", axial_text(result.axial_force, U) + " (constant along the member)")
     if case.loads:
@@ -127,11 +127,11 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     item("Initial bow", bow_text(result, U))
     bow = result.bow
     if bow is not None and bow.source:
-        item("", f"source: {source_text(bow.source)}", scale=0.85, color=_GREY)
+        item("", f"source: {source_text(bow.source, U)}", scale=0.85, color=_GREY)
     if bow is not None and bow.curve_reason:
-        item("", f"buckling curve: {source_text(bow.curve_reason)}", scale=0.85, color=_GREY)
+        item("", f"buckling curve: {source_text(bow.curve_reason, U)}", scale=0.85, color=_GREY)
     if bow is not None and bow.sway_source:
-        item("", f"sway: {source_text(bow.sway_source)}", scale=0.85, color=_GREY)
+        item("", f"sway: {source_text(bow.sway_source, U)}", scale=0.85, color=_GREY)
     if bow is not None and bow.direction_governing:
         item(
             "Bow direction",
@@ -212,7 +212,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             item(
                 "",
                 f"{approximation.name} = {ratio(approximation.value)}, error "
-                f"{percent(approximation.error)} against {against}; {source_text(approximation.source)}",
+                f"{percent(approximation.error)} against {against}; {source_text(approximation.source, U)}",
                 scale=0.92,
             )
     else:
@@ -236,7 +236,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             flow.para("No section and material given: no member check.", color=_GREY)
     else:
         item("Utilisation", utilisation_text(result, U), weight="bold")
-        item("", f"source: {source_text(check.source)}", scale=0.85, color=_GREY)
+        item("", f"source: {source_text(check.source, U)}", scale=0.85, color=_GREY)
         item("Strength alone", f"{ratio(check.strength_utilization)} ({check.strength_kind})")
         out = check.out_of_plane
         if out is not None and out.checked:
@@ -268,7 +268,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     for caution in cautions:
         danger = caution.level == "danger"
         flow.para(
-            f"[{caution.level}] {caution_text(caution, U)} ({source_text(caution.source)})",
+            f"[{caution.level}] {caution_text(caution, U)} ({source_text(caution.source, U)})",
             hanging=0.2,
             color=_DANGER if danger else _INK,
             weight="bold" if danger else "normal",

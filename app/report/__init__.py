@@ -11,7 +11,8 @@ The public API (every function takes SI values or engine objects and a :class:`a
   :data:`REACTIONS_NOTE`), :func:`alpha_text`, :func:`load_ratio_text`, :func:`utilisation_text`,
   :func:`out_of_plane_text`, :func:`service_text`, :func:`capacity_text`;
 - cautions: :func:`caution_text` (a caution in the display units), :func:`general_caution`,
-  :func:`source_text` (a source without strutscope's reliability flags, for the calc sheet);
+  :func:`source_text` (a source without strutscope's reliability flags, for the calc sheet),
+  :func:`quoted_text` (quantities quoted from an SI source, in the display units);
 - the printed summary: :func:`format_summary`.
 """
 
@@ -43,6 +44,7 @@ from app.report.words import (
     material_text,
     out_of_plane_text,
     peak_text,
+    quoted_text,
     reaction_rows,
     section_text,
     service_text,
@@ -82,6 +84,7 @@ __all__ = [
     "scientific",
     "section_text",
     "service_text",
+    "quoted_text",
     "source_text",
     "stiffness_text",
     "status_text",

@@ -39,6 +39,7 @@ __all__ = [
     "reaction_rows",
     "section_text",
     "service_text",
+    "quoted_text",
     "source_text",
     "stiffness_text",
     "status_text",
@@ -413,7 +414,40 @@ _WORDED = {
 _FLAG = re.compile(r"\s*\((?:[^()]*?\b)?(?:from memory|common practice, no source)\)|;?\s*\bfrom memory\b")
 
 
-def source_text(source: str) -> str:
+# A quantity quoted from an SI source ("t <= 16 mm", "210 000 MPa"): digits with spaces between thousands.
+_QUOTED = re.compile(
+    r"(?<![\w.])(\d{1,3}(?:[ \u202f]\d{3})+|\d+(?:\.\d+)?)\s?(mm|MPa|kN·m|kN|m)(?![\w²³⁴·/])"
+)
+_QUOTED_KINDS = {
+    "mm": ("small_length", 1e-3),
+    "MPa": ("stress", 1e6),
+    "kN·m": ("moment", 1e3),
+    "kN": ("force", 1e3),
+    "m": ("length", 1.0),
+}
+
+
+def quoted_text(text: str, U: Units) -> str:
+    """Text quoted from an SI source (a table row, a thickness range) with its quantities in `U`'s units.
+
+    In SI the text is returned as it is; in US customary units each "16 mm" or "355 MPa" becomes the same
+    quantity in the US unit, so that no US output shows an SI unit.
+
+    >>> quoted_text("t <= 16 mm: 355 MPa; E = 210 000 MPa", units("us"))
+    't <= 0.630 in: 51.49 ksi; E = 30458 ksi'
+    """
+    if U.system == "si" or not text:
+        return text
+
+    def convert(match):
+        kind, factor = _QUOTED_KINDS[match.group(2)]
+        value = float(match.group(1).replace(" ", "").replace("\u202f", "")) * factor
+        return U.show(kind, value)
+
+    return _QUOTED.sub(convert, text)
+
+
+def source_text(source: str, U: Units | None = None) -> str:
     """A source as the calc sheet shows it: the reference itself, without strutscope's own reliability flags.
 
     The flags ("clause from memory", "common practice, no source") stay in the README and the source code;
@@ -424,8 +458,8 @@ def source_text(source: str) -> str:
     >>> source_text("common practice, no source")
     'common practice, no source'
     """
-    text = _FLAG.sub("", source or "").strip(" ;,")
-    return text or (source or "")
+    text = _FLAG.sub("", source or "").strip(" ;,") or (source or "")
+    return text if U is None else quoted_text(text, U)
 
 
 def caution_text(caution, U: Units | str = "si") -> str:
