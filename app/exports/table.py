@@ -7,8 +7,8 @@ import io
 import numpy as np
 
 from app.exports.style import _title, _units
-from app.report import bow_direction_text, general_caution, status_text, system_name
-from app.safe_text import csv_comment, csv_writer
+from app.report import bow_direction_text, csv_number, general_caution, status_text, system_name
+from app.safe_text import csv_writer
 from app.units import Units
 
 # --------------------------------------------------------------------------------------------------------
@@ -54,32 +54,71 @@ def _csv_columns(result, U: Units):
     return columns
 
 
-def _number_text(value: float) -> str:
-    # repr is the shortest text that reads back as the same float: full precision, no noise digits.
-    return repr(float(value))
+#: The byte order mark that starts the CSV: spreadsheets read the file as UTF-8 with it (and as a legacy
+#: code page without it, which garbles kN·m and accented titles).
+BOM = "\ufeff"
 
 
-def _amplification_comments(result) -> list:
-    """The CSV's comment lines for the exact amplifications, each with its definition."""
+def _amplification_rows(result) -> list:
+    """The CSV's metadata rows for the exact amplifications, each with its definition."""
     from engine.results import AMPLIFICATION_DEFINITIONS as words
 
     amp = result.amplification
-    lines = []
+    rows = []
     for key in ("moment", "moment_first_order", "moment_bow_free", "deflection"):
         value = getattr(amp, key)
         if value is not None:
-            lines.append(f"amplification {key} [-]: {_number_text(value)} ({words[key]})")
-    return lines
+            rows.append((f"amplification {key} [-]", csv_number(value), words[key]))
+    return rows
+
+
+def _metadata(result, U: Units) -> list:
+    """The metadata rows: a key (starting "# "), a value and perhaps a note, each one cell."""
+    force = U.label("force")
+    rows = [
+        ("strutscope", "exact second-order analysis of one member"),
+        ("title", _title(result)),
+        ("units", system_name(U)),
+        (
+            f"axial force N [{force}]",
+            csv_number(U.convert("force", result.axial_force)),
+            "compression positive",
+        ),
+        (f"Pcr1 [{force}]", csv_number(U.convert("force", float(result.critical_loads[0])))),
+        ("status", status_text(result, U)),
+    ]
+    if result.utilization is not None:
+        note = "strength and stability; the deflection check is apart"
+        rows.append(("utilisation [-]", csv_number(result.utilization), note))
+    if result.service is not None:
+        note = f"service check: {result.service.basis}"
+        rows.append(("deflection utilisation [-]", csv_number(result.service.utilization), note))
+    rows += _amplification_rows(result)
+    if result.bow is not None and result.bow.direction_governing:
+        rows.append(("bow direction", bow_direction_text(result.bow, U)))
+    rows.append(
+        (
+            "columns",
+            "columns ending in 1 are first order (N = 0) at the same stations; a station at a point load or "
+            "couple appears twice; inf marks a value that is unbounded at a critical load",
+        )
+    )
+    rows.append(("caution", general_caution(result)))
+    return rows
 
 
 def csv_text(result, *, units="si") -> str:
     """Return the stations of `result` as CSV text, one row per station, with units in the header.
 
-    Leading comment lines (starting with ``"# "``) give the title, the units, the axial force, Pcr1, the
-    status and the general caution. Columns: ``x``, ``w``, ``w1`` (the subscript 1 marks first order, N = 0),
-    ``w0``, ``w+w0``, ``w1+w0``, ``rotation``, ``rotation1``, ``M``, ``M1``, ``V``, ``V1``, ``T``, ``T1``, and
-    the utilisations when the result has a member check. Where a point load or couple acts, its station
-    appears twice (the values either side). Unbounded values (at a critical load) are written ``inf``.
+    The text starts with a byte order mark (U+FEFF), so that a spreadsheet reads it as UTF-8 (kN·m, ç). The
+    metadata lines come first, each starting with ``#`` (readers told to skip comments skip them): the key in
+    the first cell, the value in the second, a note in the third, each value one cell however many commas it
+    holds. They give the title, the units, the axial force, Pcr1, the status, the utilisations, the
+    amplifications and the general caution. Columns: ``x``, ``w``, ``w1`` (the subscript 1 marks first
+    order, N = 0), ``w0``, ``w+w0``, ``w1+w0``, ``rotation``, ``rotation1``, ``M``, ``M1``, ``V``, ``V1``,
+    ``T``, ``T1``, and the utilisations when the result has a member check. Where a point load or couple
+    acts, its station appears twice (the values either side). Unbounded values (at a critical load) are
+    written ``inf``.
 
     Parameters
     ----------
@@ -89,54 +128,20 @@ def csv_text(result, *, units="si") -> str:
     Returns
     -------
     str
-        CSV text with ``\\n`` line ends, numbers at full precision (Python ``repr``).
+        CSV text with ``\\n`` line ends, numbers to :data:`app.report.numbers.CSV_DIGITS` significant figures.
     """
     U = _units(units)
     columns = _csv_columns(result, U)
     out = io.StringIO()
-    pcr1 = float(result.critical_loads[0])
-    comments = [
-        "strutscope: exact second-order analysis of one member",
-        f"title: {_title(result)}",
-        f"units: {system_name(U)}",
-        f"axial force [{U.label('force')}]: {_number_text(U.convert('force', result.axial_force))} "
-        "(compression positive)",
-        f"Pcr1 [{U.label('force')}]: {_number_text(U.convert('force', pcr1))}",
-        f"status: {status_text(result, U)}",
-        *(
-            [
-                f"utilisation [-]: {_number_text(result.utilization)} (strength and stability; "
-                "the deflection check is apart)"
-            ]
-            if result.utilization is not None
-            else []
-        ),
-        *(
-            [
-                f"deflection utilisation [-]: {_number_text(result.service.utilization)} (service check: "
-                f"{result.service.basis})"
-            ]
-            if result.service is not None
-            else []
-        ),
-        *_amplification_comments(result),
-        *(
-            [f"bow direction: {bow_direction_text(result.bow, U)}"]
-            if result.bow is not None and result.bow.direction_governing
-            else []
-        ),
-        "columns ending in 1 are first order (N = 0) at the same stations; a station at a point load or "
-        "couple appears twice; inf marks a value that is unbounded at a critical load",
-        f"caution: {general_caution(result)}",
-    ]
-    for line in comments:
-        out.write(csv_comment(line) + "\n")
+    out.write(BOM)
     writer = csv_writer(out, lineterminator="\n")
+    for key, *values in _metadata(result, U):
+        writer.writerow([f"# {key}", *(" ".join(str(v).split()) for v in values)])
     writer.writerow([header for header, _, _ in columns])
     data = []
     for _, values, kind in columns:
         values = np.asarray(values, dtype=float)
         data.append(values if kind is None else U.convert(kind, values))
     for row in zip(*data, strict=True):
-        writer.writerow([_number_text(v) for v in row])
+        writer.writerow([csv_number(v) for v in row])
     return out.getvalue()

@@ -23,7 +23,7 @@ __all__ = [
 
 #: Significant figures of the numbers in a CSV export: far beyond what a drawing or a hand check needs, and
 #: short enough to read in a spreadsheet (repr gave 17, with noise digits such as 6.000000000000001).
-CSV_DIGITS = 7
+CSV_DIGITS = 6
 
 
 def finite(value) -> bool:
@@ -69,7 +69,7 @@ def csv_number(value) -> str:
     """A CSV cell: :data:`CSV_DIGITS` significant figures, ``inf``/``-inf``/``nan`` as Python writes them.
 
     >>> csv_number(6.000000000000001), csv_number(-0.0123456789), csv_number(float("inf")), csv_number(0.0)
-    ('6', '-0.01234568', 'inf', '0')
+    ('6', '-0.0123457', 'inf', '0')
     """
     value = float(value)
     if not math.isfinite(value):
