@@ -22,12 +22,14 @@ from app.exports.style import (
     _INK,
     _LIGHT,
     A4_LANDSCAPE,
+    A4_PORTRAIT,
     _date_text,
     _dpi,
     _title,
     _units,
     _version,
 )
+from app.fonts import drawable, families
 from app.report import (
     alpha_text,
     axial_text,
@@ -49,6 +51,7 @@ from app.report import (
     system_name,
     utilisation_text,
 )
+from app.sketch import MOMENT_POSITIVE_DOWN, PAD_INCHES
 from app.units import Units
 
 
@@ -81,7 +84,7 @@ def _mark_peak(ax, peak, kind, U: Units, *, color, first, inverted, length, oute
         outward = -outward
     left = xd <= 0.5 * length
     text = ("first order " if first else "") + f"{U.show(kind, peak.value)} at x = {U.show('length', peak.x)}"
-    ax.annotate(
+    return ax.annotate(
         text,
         (xd, yd),
         xytext=(5 if left else -5, 6 * outward),
@@ -94,6 +97,50 @@ def _mark_peak(ax, peak, kind, U: Units, *, color, first, inverted, length, oute
         zorder=7,
         bbox=dict(fc="white", ec="none", alpha=0.8, pad=0.2),
     )
+
+
+_STEP = 8.0  # [pt] how far a label moves to clear another
+
+
+def _overlaps(box, others) -> bool:
+    return any(box.overlaps(other) for other in others)
+
+
+def _separate(ax, labels) -> None:
+    """Move peak labels apart so that none covers another: further out, then to the other side of its point.
+
+    Each label keeps its point; the first position of the list below that overlaps no label placed before
+    it and stays inside the axes is taken (the preferred one when all collide).
+    """
+    labels = [label for label in labels if label is not None]
+    if len(labels) < 2:
+        return
+    renderer = ax.figure.canvas.get_renderer()
+    frame = ax.get_window_extent(renderer)
+    placed = []
+    for label in labels:
+        dx, dy = label.xyann
+        ha, va = label.get_ha(), label.get_va()
+        side = 1.0 if dy > 0 else -1.0
+        flip = {"bottom": "top", "top": "bottom"}[va]
+        other_ha = {"left": "right", "right": "left"}[ha]
+        candidates = [(dx, dy + side * _STEP * k, ha, va) for k in range(6)]
+        candidates += [(dx, -dy - side * _STEP * k, ha, flip) for k in range(6)]
+        candidates += [(-dx, dy + side * _STEP * k, other_ha, va) for k in range(6)]
+        chosen = candidates[0]
+        for candidate in candidates:
+            label.xyann = candidate[:2]
+            label.set_ha(candidate[2])
+            label.set_va(candidate[3])
+            box = label.get_window_extent(renderer).expanded(1.04, 1.1)
+            inside = frame.y0 <= box.y0 and box.y1 <= frame.y1 and frame.x0 <= box.x0 and box.x1 <= frame.x1
+            if inside and not _overlaps(box, placed):
+                chosen = candidate
+                break
+        label.xyann = chosen[:2]
+        label.set_ha(chosen[2])
+        label.set_va(chosen[3])
+        placed.append(label.get_window_extent(renderer))
 
 
 def _limits(ax, arrays, *, inverted=False):
@@ -127,7 +174,7 @@ def _diagram(ax, result, U: Units, specs, *, kind, ylabel, inverted=False, fill=
     x = U.length.from_si(np.asarray(result.x, dtype=float))
     length = U.length.from_si(float(result.case.length))
     ax.axhline(0.0, color=_LIGHT, lw=0.7, zorder=1)
-    plotted, skipped = [], False
+    plotted, skipped, labels = [], False, []
     for second, first, color, peak2, peak1 in specs:
         second = _finite_array(U.convert(kind, np.asarray(second, dtype=float)))
         first = None if first is None else _finite_array(U.convert(kind, np.asarray(first, dtype=float)))
@@ -144,30 +191,35 @@ def _diagram(ax, result, U: Units, specs, *, kind, ylabel, inverted=False, fill=
         both = second is not None and first is not None and peak2 is not None and peak1 is not None
         second_outer = not both or peak2.magnitude >= peak1.magnitude
         if second is not None and peak2 is not None:
-            _mark_peak(
-                ax,
-                peak2,
-                kind,
-                U,
-                color=color,
-                first=False,
-                inverted=inverted,
-                length=length,
-                outer=second_outer,
+            labels.append(
+                _mark_peak(
+                    ax,
+                    peak2,
+                    kind,
+                    U,
+                    color=color,
+                    first=False,
+                    inverted=inverted,
+                    length=length,
+                    outer=second_outer,
+                )
             )
         if first is not None and peak1 is not None:
-            _mark_peak(
-                ax,
-                peak1,
-                kind,
-                U,
-                color=color,
-                first=True,
-                inverted=inverted,
-                length=length,
-                outer=not second_outer,
+            labels.append(
+                _mark_peak(
+                    ax,
+                    peak1,
+                    kind,
+                    U,
+                    color=color,
+                    first=True,
+                    inverted=inverted,
+                    length=length,
+                    outer=not second_outer,
+                )
             )
     _limits(ax, plotted, inverted=inverted)
+    _separate(ax, labels)
     if skipped:
         _unbounded_note(ax, "second order unbounded: the axial force is at a critical load (not plotted)")
     ax.set_ylabel(ylabel, fontsize=7.5, color=_INK)
@@ -322,14 +374,58 @@ def result_figure(result, *, units="si", date=None) -> Figure:
     fig = Figure(figsize=A4_LANDSCAPE)
     FigureCanvasAgg(fig)
     fig_w, fig_h = A4_LANDSCAPE
-    plot_left, plot_right = 0.075, 0.655
+    _plots(fig, result, U, left=0.075, right=0.655, top=0.92, bottom=0.075, legend_columns=3)
+    _title_block(
+        fig,
+        result,
+        U,
+        date_text,
+        left=0.685 * fig_w,
+        right=0.985 * fig_w,
+        top=0.975 * fig_h,
+        bottom=0.03 * fig_h,
+    )
+    return fig
+
+
+def sheet_figure(result, *, units="si") -> Figure:
+    """The calc sheet's figure page: the sketch and the diagrams of :func:`result_figure` on A4 portrait.
+
+    The calc sheet keeps one orientation, and its text pages already give the inputs, the governing values
+    and the cautions, so this page has no title block of its own (only a heading naming the case).
+    """
+    U = _units(units)
+    fig = Figure(figsize=A4_PORTRAIT)
+    FigureCanvasAgg(fig)
+    _plots(fig, result, U, left=0.14, right=0.94, top=0.86, bottom=0.07, legend_columns=2)
+    width_pt = (0.94 - 0.14) * A4_PORTRAIT[0] * 72
+    heading = _Measure().shorten(drawable(f"Figures: {_title(result)}"), width_pt, 9, "bold")
+    fig.text(
+        0.14,
+        0.935,
+        heading,
+        ha="left",
+        va="bottom",
+        fontsize=9,
+        weight="bold",
+        color=_INK,
+        family=families(),
+        parse_math=False,
+    )
+    return fig
+
+
+def _plots(fig, result, U: Units, *, left, right, top, bottom, legend_columns) -> None:
+    """The sketch and the three diagrams on a shared x axis, and their legend above them."""
+    fig_w, _ = fig.get_size_inches()
+    plot_left, plot_right = left, right
     grid = fig.add_gridspec(
         4,
         1,
         left=plot_left,
         right=plot_right,
-        top=0.92,
-        bottom=0.075,
+        top=top,
+        bottom=bottom,
         height_ratios=(1.35, 1.0, 1.0, 1.0),
         hspace=0.14,
     )
@@ -338,7 +434,8 @@ def result_figure(result, *, units="si", date=None) -> Figure:
 
     L = U.length.from_si(float(result.case.length))
     width_in = (plot_right - plot_left) * fig_w
-    pad = 0.8 * L / max(width_in - 1.6, 1.0)  # 0.8 in each side for the supports and axial-force arrows
+    # PAD_INCHES each side for the supports and the axial-force arrows.
+    pad = PAD_INCHES * L / max(width_in - 2 * PAD_INCHES, 1.0)
     sketch.set_xlim(-pad, L + pad)
     _draw_sketch(sketch, result, U)
 
@@ -370,7 +467,9 @@ def result_figure(result, *, units="si", date=None) -> Figure:
         U,
         [(result.moment, fo("moment"), _INK, g.moment, fog("moment"))],
         kind="moment",
-        ylabel=f"bending moment M\n[{U.label('moment')}]",
+        ylabel=f"bending moment M\n[{U.label('moment')}]"
+        + ("\n(+ downward)" if MOMENT_POSITIVE_DOWN else ""),
+        inverted=MOMENT_POSITIVE_DOWN,
         fill=True,
     )
     _diagram(
@@ -405,26 +504,14 @@ def result_figure(result, *, units="si", date=None) -> Figure:
     fig.legend(
         handles=handles,
         loc="lower left",
-        bbox_to_anchor=(plot_left, 0.93),
-        ncol=3,
+        bbox_to_anchor=(plot_left, top + 0.01),
+        ncol=legend_columns,
         fontsize=6.6,
         frameon=False,
         handlelength=2.4,
         columnspacing=1.2,
         borderaxespad=0.0,
     )
-
-    _title_block(
-        fig,
-        result,
-        U,
-        date_text,
-        left=0.685 * fig_w,
-        right=0.985 * fig_w,
-        top=0.975 * fig_h,
-        bottom=0.03 * fig_h,
-    )
-    return fig
 
 
 def png_bytes(result, *, units="si", dpi=150, date=None) -> bytes:

@@ -5,11 +5,12 @@ from __future__ import annotations
 import io
 from importlib import metadata
 
+from matplotlib import rc_context
 from matplotlib.backends.backend_pdf import PdfPages
 from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 
-from app.exports.figure import _pcr_text, result_figure
+from app.exports.figure import _pcr_text, sheet_figure
 from app.exports.layout import _Flow, _Measure
 from app.exports.style import (
     _DANGER,
@@ -276,12 +277,13 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
 
 
 def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -> bytes:
-    """Return a calc sheet of `result` as PDF bytes: A4 portrait text, then the figure on A4 landscape.
+    """Return a calc sheet of `result` as PDF bytes: A4 portrait throughout: text, then the figures.
 
     Page 1 has the header (title, date, prepared-by and checked-by block), the inputs, the method and its
     references, the results (critical loads, governing values, reactions, amplification and the
     approximations, equilibrium residuals), the member check and every caution of the result. Page 2 is
-    :func:`result_figure`. The text is real PDF text, so it can be searched and copied.
+    :func:`app.exports.figure.sheet_figure` (the diagrams, no second title block). The text is real PDF text
+    (TrueType fonts), so it can be searched and copied.
 
     Parameters
     ----------
@@ -308,14 +310,15 @@ def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -
     prepared_by = _name("prepared_by", prepared_by)
     if prepared_by:
         metadata_["Author"] = prepared_by
-    with PdfPages(buffer, metadata=metadata_) as pdf:
+    # TrueType (Type 42) embedding: Type 3 glyphs are drawings, which many readers cannot search or copy.
+    with rc_context({"pdf.fonttype": 42}), PdfPages(buffer, metadata=metadata_) as pdf:
         for fig in pages:
             pdf.savefig(fig)
     return buffer.getvalue()
 
 
 def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", date=None) -> list[Figure]:
-    """The pages of :func:`pdf_bytes` as matplotlib figures (text pages, then :func:`result_figure`)."""
+    """The pages of :func:`pdf_bytes` as matplotlib figures (text pages, then the figure page)."""
     U = _units(units)
     date_text = _date_text(date)
     prepared_by = _name("prepared_by", prepared_by)
@@ -354,7 +357,7 @@ def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", dat
     total = count + 1
     for number, fig in enumerate(pages, start=1):
         _sheet_frame(fig, number, total, margin)
-    figure = result_figure(result, units=U, date=date_text)
+    figure = sheet_figure(result, units=U)
     figure.text(
         0.985,
         0.008,
