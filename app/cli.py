@@ -27,37 +27,35 @@ a command can be added without touching the others.
 from __future__ import annotations
 
 import argparse
-import contextlib
 import json
 import os
 import sys
-import tempfile
 import textwrap
 from collections.abc import Sequence
-from importlib import metadata, resources
+from importlib import resources
 
+from app.cli_batch import _add_batch
+from app.cli_common import (
+    CAUTION,
+    DEFAULT_STATIONS,
+    DEMO_CASE,
+    _add_parser,
+    _add_signatures,
+    _add_units,
+    _beyond_critical,
+    _epilog,
+    _error,
+    _failing,
+    _InputError,
+    _print,
+    _station_count,
+    _version,
+    _write_file,
+)
 from app.interrupt import clean_exit
-from app.safe_text import terminal
 from app.summary_json import SUMMARY_VERSION, summary_data
 
 __all__ = ["CAUTION", "DEMO_CASE", "SUMMARY_VERSION", "format_summary", "main", "summary_data"]
-
-#: The general caution for ``--help``, which must not import the engine: the one copy of
-#: ``engine.cautions.GENERAL.message`` outside the engine (tests/app/test_general_caution.py keeps them
-#: equal).
-#: Every summary prints the engine's own (:func:`app.report.general_caution`).
-CAUTION = (
-    "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, "
-    "biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 sections, "
-    "connections and load combinations are not checked. Check the results against your local codes "
-    "and have them reviewed by a licensed engineer."
-)
-
-#: The invented demo case, package data of :mod:`assets`.
-DEMO_CASE = "demo_wind_post.json"
-
-
-DEFAULT_STATIONS = 401
 
 
 def format_summary(source: str, case, result, units: str = "si", capacity=None) -> str:
@@ -65,130 +63,6 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     from app.report import format_summary as summary
 
     return summary(source, case, result, units=units, capacity=capacity)
-
-
-class _InputError(Exception):
-    """Input that cannot be read or is invalid; ``str()`` is what is printed after ``error: <source>:``."""
-
-    def __init__(self, source: str, message: str) -> None:
-        super().__init__(message)
-        self.source = source
-
-
-# --------------------------------------------------------------------------------------------------------
-# Command line: shared pieces.
-
-
-def _station_count(text: str) -> int:
-    try:
-        count = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"{text!r} is not a whole number") from None
-    if count < 2:
-        raise argparse.ArgumentTypeError(f"{count} must be at least 2 (the two ends)")
-    return count
-
-
-def _worker_count(text: str) -> int:
-    try:
-        count = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"{text!r} is not a whole number") from None
-    if count < 1:
-        raise argparse.ArgumentTypeError(f"{count} must be at least 1")
-    return count
-
-
-def _version() -> str:
-    try:
-        return metadata.version("strutscope")
-    except metadata.PackageNotFoundError:
-        return "unknown (not installed)"
-
-
-def _epilog(*examples: str) -> str:
-    lines = ["examples:", *(f"  {example}" for example in examples), ""]
-    lines.extend(textwrap.wrap(CAUTION, width=100))
-    return "\n".join(lines)
-
-
-def _add_parser(commands, name: str, *, help: str, description: str, examples: Sequence[str]):
-    # Raw formatting keeps the examples one to a line, so the description is wrapped here.
-    return commands.add_parser(
-        name,
-        help=help,
-        description=textwrap.fill(description, width=100),
-        epilog=_epilog(*examples),
-        formatter_class=argparse.RawDescriptionHelpFormatter,
-    )
-
-
-def _add_units(parser, what: str) -> None:
-    parser.add_argument(
-        "--units",
-        choices=("si", "us"),
-        default="si",
-        help=f"display units of {what}: si (kN, m, mm, kN·m; the default) or us (kip, ft, in, kip·ft)",
-    )
-
-
-def _add_signatures(parser) -> None:
-    for option in ("--prepared-by", "--checked-by"):
-        parser.add_argument(option, default="", metavar="NAME", help="name on the calc sheet (with --pdf)")
-
-
-def _write_file(path: str, data: bytes) -> None:
-    """Write `data` to `path` through a temporary file beside it, so that no half-written file is left."""
-    directory = os.path.dirname(os.path.abspath(path))
-    handle, temporary = tempfile.mkstemp(dir=directory, prefix=".", suffix=".part")
-    try:
-        with os.fdopen(handle, "wb") as stream:
-            stream.write(data)
-        os.chmod(temporary, 0o666 & ~_umask())
-        os.replace(temporary, path)
-    except BaseException:
-        with contextlib.suppress(OSError):
-            os.unlink(temporary)
-        raise
-
-
-def _umask() -> int:
-    mask = os.umask(0)
-    os.umask(mask)
-    return mask
-
-
-def _error(text: str) -> None:
-    """Print an error line on stderr, control characters from the input escaped (app.safe_text.terminal)."""
-    print(terminal(text), file=sys.stderr)
-
-
-def _print(text: str) -> bool:
-    """Print `text` (control characters escaped); return False when the reader went away (``... | head``)."""
-    try:
-        print(terminal(text, keep_newlines=True))
-        sys.stdout.flush()
-    except BrokenPipeError:
-        # As the Python docs advise, point stdout at devnull so that the flush at exit does not raise again.
-        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
-        return False
-    return True
-
-
-def _beyond_critical(result) -> bool:
-    """At or above the first critical load (no stable equilibrium): exit code 1 even without ``--strict``."""
-    return result.status in ("unstable", "critical")
-
-
-def _failing(result) -> bool:
-    """A failed member check or a danger caution (what ``--strict`` turns into exit code 1)."""
-    return (result.utilization is not None and result.utilization > 1.0) or any(
-        caution.level == "danger" for caution in result.cautions
-    )
-
-
-# --------------------------------------------------------------------------------------------------------
-# strutscope solve
 
 
 def _add_solve(commands) -> None:
@@ -327,142 +201,6 @@ def _solve(args) -> int:
 
 # --------------------------------------------------------------------------------------------------------
 # strutscope batch
-
-
-def _add_batch(commands) -> None:
-    batch = _add_parser(
-        commands,
-        "batch",
-        help="solve a table of members (CSV) into a table of results",
-        description="Solve every member of a CSV table (one member per row; the columns are listed in the "
-        "README and in assets/example_members.csv) and write DIR/results.csv, one row per member "
-        "in the input order. A row that cannot be solved is reported there with its row number, "
-        "column and message, and does not stop the run. Exit code 0 when every row was solved, "
-        "1 when some rows were invalid or a member is at or above its first critical load (or, "
-        "with --strict, a member fails its check), 2 when the "
-        "table cannot be read.",
-        examples=[
-            "strutscope batch members.csv --out results",
-            "strutscope batch members.csv --out results --pdf --prepared-by 'A. Engineer'",
-            "strutscope batch members.csv --out results --workers 4 --units us",
-        ],
-    )
-    batch.add_argument("table", metavar="MEMBERS.csv", help="the table of members")
-    batch.add_argument(
-        "--out", required=True, metavar="DIR", help="folder for results.csv (created if missing)"
-    )
-    batch.add_argument("--pdf", action="store_true", help="also write a calc sheet DIR/<id>.pdf per member")
-    _add_signatures(batch)
-    batch.add_argument(
-        "--workers",
-        type=_worker_count,
-        default=None,
-        metavar="N",
-        help="processes to share the rows out to (default: every core); tables of up to 50 "
-        "rows are solved in one process",
-    )
-    _add_units(batch, "results.csv and the calc sheets (the input columns keep their stated units)")
-    batch.add_argument(
-        "--stations",
-        type=_station_count,
-        default=DEFAULT_STATIONS,
-        metavar="N",
-        help=f"stations per member (default {DEFAULT_STATIONS})",
-    )
-    batch.add_argument(
-        "--no-capacity",
-        dest="capacity",
-        action="store_false",
-        help="skip the capacity search (faster; the capacity columns stay empty)",
-    )
-    batch.add_argument(
-        "--no-progress",
-        dest="progress",
-        action="store_false",
-        default=None,
-        help="no progress bar (it shows only on a terminal and for long tables anyway)",
-    )
-    batch.add_argument(
-        "--strict",
-        action="store_true",
-        help="exit with 1 when any member fails its check or a danger caution fires",
-    )
-    batch.set_defaults(handler=_batch)
-
-
-@clean_exit("batch")
-def _batch(args) -> int:
-    from concurrent.futures.process import BrokenProcessPool
-
-    from app.workers import one_thread_here
-
-    one_thread_here()  # before numpy loads (the workers get one thread each anyway)
-    from app import batch
-    from app.outdir import FolderError
-
-    try:
-        summary = batch.run(
-            args.table,
-            args.out,
-            units=args.units,
-            pdf=args.pdf,
-            workers=args.workers,
-            stations=args.stations,
-            capacity=args.capacity,
-            progress=args.progress,
-            prepared_by=args.prepared_by,
-            checked_by=args.checked_by,
-        )
-    except batch.TableError as error:
-        _error(f"error: {args.table}: {error}")
-        return 2
-    except FolderError as error:
-        _error(f"error: {args.out}: {error}")
-        return 2
-    except OSError as error:
-        _error(f"error: {args.out}: cannot write the results: {error.strerror or error}")
-        return 2
-    except BrokenProcessPool as error:
-        _error(
-            f"error: {args.table}: a worker process stopped ({error}); no results were written. "
-            "Try --workers 1"
-        )
-        return 2
-    except MemoryError:
-        _error(f"error: {args.table}: not enough memory; no results were written. Try --workers 1")
-        return 2
-    failing = f", {summary.failing} failing their check or with a danger caution" if summary.failing else ""
-    lines = [
-        f"strutscope batch: {summary.members} member{'s' if summary.members != 1 else ''} from "
-        f"{terminal(args.table)}: {summary.solved} solved, {summary.error_count} invalid{failing} "
-        f"({summary.workers} process{'es' if summary.workers != 1 else ''})"
-    ]
-    for row, identifier, _column, message in summary.errors:
-        lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {terminal(message)}")
-    if summary.error_count > len(summary.errors):
-        more = summary.error_count - len(summary.errors)
-        lines.append(f"  ... and {more} more invalid row{'s' if more != 1 else ''} (see {summary.results})")
-    lines.append(f"results: {summary.results}")
-    if args.pdf:
-        lines.append(
-            f"calc sheets: {summary.pdfs} PDF file{'s' if summary.pdfs != 1 else ''} in {terminal(args.out)}"
-        )
-    if summary.stale:
-        stale = len(summary.stale)
-        lines.append(
-            f"removed {stale} calc sheet{'s' if stale != 1 else ''} of the previous run that this "
-            "run did not write"
-        )
-    lines.append(f"Caution: {CAUTION}")
-    if not _print("\n".join(lines)):
-        return 1
-    if summary.error_count or summary.beyond_critical or (args.strict and summary.failing):
-        return 1
-    return 0
-
-
-# --------------------------------------------------------------------------------------------------------
-# strutscope schema
 
 
 def _add_schema(commands) -> None:

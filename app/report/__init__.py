@@ -7,7 +7,8 @@ The public API (every function takes SI values or engine objects and a :class:`a
   :func:`format_number` (in :mod:`app.report.numbers`);
 - the case: :func:`support_text`, :func:`load_text`, :func:`axial_text`, :func:`bow_text`,
   :func:`bow_direction_text`, :func:`section_text`, :func:`material_text`, :func:`stiffness_text`;
-- the result: :func:`status_text`, :func:`governing_rows`, :func:`peak_text`, :func:`reaction_rows` (with
+- the result: :func:`status_text` (:func:`status_message` without the status word),
+  :func:`governing_rows`, :func:`peak_text`, :func:`reaction_rows` (with
   :data:`REACTIONS_NOTE`), :func:`alpha_text`, :func:`load_ratio_text`, :func:`utilisation_text`,
   :func:`out_of_plane_text`, :func:`service_text`, :func:`capacity_text`;
 - cautions: :func:`caution_text` (a caution in the display units), :func:`general_caution`,
@@ -49,6 +50,7 @@ from app.report.words import (
     section_text,
     service_text,
     source_text,
+    status_message,
     status_text,
     stiffness_text,
     support_text,
@@ -87,6 +89,7 @@ __all__ = [
     "quoted_text",
     "source_text",
     "stiffness_text",
+    "status_message",
     "status_text",
     "support_text",
     "system_name",

@@ -42,6 +42,7 @@ __all__ = [
     "quoted_text",
     "source_text",
     "stiffness_text",
+    "status_message",
     "status_text",
     "support_text",
     "system_name",
@@ -258,7 +259,12 @@ def governing_rows(result, *, always_offset: bool = False, transverse: bool = Fa
 
 
 def status_text(result, U: Units) -> str:
-    """The status and what it means, with the numbers in the display units."""
+    """The status and what it means in the display units, e.g. ``"stable: compression ..."``."""
+    return f"{result.status}: {status_message(result, U)}"
+
+
+def status_message(result, U: Units) -> str:
+    """What the status means, with the numbers in the display units (no status word in front)."""
     status, P = result.status, float(result.axial_force)
     pcr = np.asarray(result.critical_loads, dtype=float)
 
@@ -286,7 +292,7 @@ def status_text(result, U: Units) -> str:
         said = f"tension {force(-P)}; stable equilibrium, no buckling"
     else:
         said = "no axial force: first-order solution"
-    return f"{status}: {said}"
+    return said
 
 
 def reaction_rows(result, U: Units):

@@ -54,7 +54,7 @@ def _label_boxes(figure):
 @pytest.mark.parametrize("name", sorted(CASES))
 @pytest.mark.parametrize("page", ["figure", "sheet"])
 def test_peak_labels_never_overlap(name, page):
-    """No two peak labels of a diagram overlap (first- and second-order labels collided), PNG and PDF alike."""
+    """No two peak labels of a diagram overlap (first- and second-order ones collided), PNG and PDF alike."""
     result = _solved(**CASES[name])
     if page == "figure":
         figure = exports.result_figure(result, date="2026-01-15")
@@ -87,7 +87,8 @@ def test_calc_sheet_keeps_one_orientation_and_does_not_repeat_itself():
     for page in reader.pages:
         width, height = float(page.mediabox.width), float(page.mediabox.height)
         assert width < height  # portrait
-        assert width == pytest.approx(210 / 25.4 * 72, abs=1) and height == pytest.approx(297 / 25.4 * 72, abs=1)
+        assert width == pytest.approx(210 / 25.4 * 72, abs=1)  # A4, ISO 216: 210 mm × 297 mm
+        assert height == pytest.approx(297 / 25.4 * 72, abs=1)
     last = reader.pages[-1].extract_text()
     text = "\n".join(page.extract_text() for page in reader.pages)
     # The inputs, the governing values and the general caution are written once, on the text pages.
@@ -123,7 +124,7 @@ def test_export_file_names_keep_the_title_and_carry_n():
 
 
 def test_saved_case_holds_no_amplitude_beside_a_preset():
-    """A preset sets the bow's size: the saved JSON has no amplitude beside it, and reads back the same case."""
+    """A preset sets the bow's size: the saved JSON has no amplitude beside it, and reads back the same."""
     case = engine.Case.from_dict(_demo_mapping())
     data = json.loads(exports.case_json(case))
     assert "preset" in data["imperfection"] and "amplitude" not in data["imperfection"]
