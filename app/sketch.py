@@ -89,15 +89,8 @@ class Polyline:
 
 
 @dataclass(frozen=True)
-class Polygon:
+class Polygon(Polyline):
     """A closed, filled outline (the renderer's fill for the role: white for a hinge, grey for a load)."""
-
-    role: str
-    x: tuple
-    y: tuple
-    dx: tuple
-    dy: tuple
-    width: float = 0.9
 
 
 @dataclass(frozen=True)

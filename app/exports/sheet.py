@@ -372,46 +372,20 @@ def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", dat
     return pages + [figure]
 
 
+def _grey_text(fig, x: float, y: float, text: str, *, ha: str, va: str, size: float) -> None:
+    fig.text(x, y, text, ha=ha, va=va, fontsize=size, color=_GREY, family=_FONT, parse_math=False)
+
+
 def _sheet_frame(fig, number: int, total: int, margin: float) -> None:
-    """Running header and footer of a calc-sheet page."""
+    """Running header and footer of a calc-sheet page (the footer points to the general caution)."""
     w, h = fig.get_size_inches()
     top = (h - margin + 0.05) / h
-    fig.text(
-        margin / w,
-        top,
-        "strutscope · calculation sheet",
-        ha="left",
-        va="bottom",
-        fontsize=7.5,
-        color=_GREY,
-        family=_FONT,
-        parse_math=False,
-    )
-    fig.text(
-        1 - margin / w,
-        top,
-        f"page {number} of {total}",
-        ha="right",
-        va="bottom",
-        fontsize=7.5,
-        color=_GREY,
-        family=_FONT,
-        parse_math=False,
-    )
+    _grey_text(fig, margin / w, top, "strutscope · calculation sheet", ha="left", va="bottom", size=7.5)
+    _grey_text(fig, 1 - margin / w, top, f"page {number} of {total}", ha="right", va="bottom", size=7.5)
     fig.add_artist(
         Line2D(
             [margin / w, 1 - margin / w], [top - 0.004] * 2, color=_LIGHT, lw=0.6, transform=fig.transFigure
         )
     )
-    fig.text(
-        margin / w,
-        (margin - 0.05) / h,
-        "Elastic analysis of one member; not a full code check — see "
-        "the cautions. Check against your local codes and have it reviewed by a licensed engineer.",
-        ha="left",
-        va="top",
-        fontsize=6.5,
-        color=_GREY,
-        family=_FONT,
-        parse_math=False,
-    )
+    footer = "Elastic analysis of one member, not a full code check: see the caution in section 5."
+    _grey_text(fig, margin / w, (margin - 0.05) / h, footer, ha="left", va="top", size=6.5)

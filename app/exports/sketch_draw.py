@@ -44,17 +44,7 @@ class _Scale:
 def _draw(ax, s: _Scale, shape) -> None:
     colour = _COLOURS.get(shape.role, _INK)
     zorder = _ZORDER.get(shape.role, 3)
-    if isinstance(shape, Polyline):
-        ax.plot(
-            s.xs(shape.x, shape.dx),
-            s.ys(shape.y, shape.dy),
-            color=colour,
-            lw=shape.width,
-            ls=(0, (5, 3)) if shape.dashed else "-",
-            solid_capstyle="butt" if shape.role == "member" else "projecting",
-            zorder=zorder,
-        )
-    elif isinstance(shape, Polygon):
+    if isinstance(shape, Polygon):
         ax.fill(
             s.xs(shape.x, shape.dx),
             s.ys(shape.y, shape.dy),
@@ -62,6 +52,16 @@ def _draw(ax, s: _Scale, shape) -> None:
             ec=colour if shape.width > 0 else "none",
             lw=shape.width,
             alpha=0.7 if shape.role == "load-fill" else 1.0,
+            zorder=zorder,
+        )
+    elif isinstance(shape, Polyline):
+        ax.plot(
+            s.xs(shape.x, shape.dx),
+            s.ys(shape.y, shape.dy),
+            color=colour,
+            lw=shape.width,
+            ls=(0, (5, 3)) if shape.dashed else "-",
+            solid_capstyle="butt" if shape.role == "member" else "projecting",
             zorder=zorder,
         )
     elif isinstance(shape, Arrow):

@@ -99,7 +99,7 @@ def test_matplotlib_draws_every_shape():
         Text: sum(not isinstance(t, Annotation) for t in ax.texts),
     }
     for kind, drawn in counts.items():
-        assert drawn == sum(isinstance(s, kind) for s in shapes), kind
+        assert drawn == sum(type(s) is kind for s in shapes), kind
 
 
 def test_moment_is_drawn_positive_downward_in_the_figures():
