@@ -15,6 +15,17 @@ Coordinates. A point is ``(x, y)`` plus an offset ``(dx, dy)`` in inches on the 
 
 Texts whose ``x`` is :data:`FRAME_LEFT` or :data:`FRAME_RIGHT` sit at the frame's edge instead. A renderer
 gives the member :data:`PAD_INCHES` of room beyond each end for the supports and the axial-force arrows.
+
+Drawing it with Bokeh (the page): set ``y_range`` to :data:`Y_RANGE` and ``x_range`` to the member plus
+:data:`PAD_INCHES` each side; with the frame's inner width and height in pixels and 96 px to the inch, the
+scales are ``sx = (x_end - x_start) / (inner_width / 96)`` and
+``sy = (y_end - y_start) / (inner_height / 96)`` data units per inch, and a point is
+``(x + dx·sx, y + dy·sy)``. Draw a :class:`Polyline` as ``multi_line``
+(dashed when ``dashed``), a :class:`Polygon` as ``patches`` (white for ``hinge``, grey for ``load-fill``), an
+:class:`Arrow` as an ``Arrow`` annotation with a ``NormalHead`` of ``head_size`` pt, a :class:`Text` as a
+``text`` glyph (or ``Label``) with its ``ha``/``va`` as ``text_align``/``text_baseline``. Redraw when the
+frame's size changes. The diagrams flip their y axis when :data:`MOMENT_POSITIVE_DOWN` says so (M) and always
+for w.
 """
 
 from __future__ import annotations
