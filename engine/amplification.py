@@ -25,14 +25,17 @@ import numpy as np
 
 from engine.results import Approximation
 
-__all__ = ["approximations", "braced", "psi_for"]
+__all__ = ["SIMPLE", "approximations", "braced", "psi_for"]
+
+#: The name of the textbook amplification 1/(1 − N/Pcr1) among the approximations (N the axial force).
+SIMPLE = "1/(1 − N/Pcr1)"
 
 _SOURCE_SIMPLE = (
-    "Timoshenko & Gere (1961) ch. 1, sinusoidal amplification 1/(1 - P/Pcr) (article from memory)"
+    "Timoshenko & Gere (1961) ch. 1, sinusoidal amplification 1/(1 − N/Pcr) (article from memory)"
 )
-_SOURCE_PSI = "AISC 360-16 Commentary Table C-A-8.1, psi after Iwankiw (1984) (case matching from memory)"
+_SOURCE_PSI = "AISC 360-16 Commentary Table C-A-8.1, ψ after Iwankiw (1984) (case matching from memory)"
 _SOURCE_B1 = (
-    "AISC 360-16 Appendix 8 §8.2.1, B1 = Cm/(1 - P/Pe1) >= 1, Pe1 = exact Pcr1 (eq. numbers from memory)"
+    "AISC 360-16 Appendix 8 §8.2.1, B1 = Cm/(1 − N/Pe1) ≥ 1, Pe1 = exact Pcr1 (eq. numbers from memory)"
 )
 
 # (left, right) named supports -> (psi for a full uniform load, psi for a central point load)
@@ -115,15 +118,13 @@ def approximations(case, axial_force, pcr1, exact, end_moments, bow_free=None) -
         err = None if against is None or against == 0 else float((value - against) / against)
         return Approximation(name=name, value=float(value), source=source, error=err, compared_with=key)
 
-    out = [item("1/(1 - P/Pcr1)", 1.0 / (1.0 - alpha), _SOURCE_SIMPLE)]
+    out = [item(SIMPLE, 1.0 / (1.0 - alpha), _SOURCE_SIMPLE)]
     if P <= 0:
         return tuple(out)
     psi = psi_for(case)
     if psi is not None:
         out.append(
-            item(
-                f"(1 + psi P/Pcr1)/(1 - P/Pcr1), psi = {psi:g}", (1 + psi * alpha) / (1 - alpha), _SOURCE_PSI
-            )
+            item(f"(1 + ψ N/Pcr1)/(1 − N/Pcr1), ψ = {psi:g}", (1 + psi * alpha) / (1 - alpha), _SOURCE_PSI)
         )
     if braced(case):
         cm = _end_moment_cm(case, end_moments)

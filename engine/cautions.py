@@ -7,7 +7,7 @@ in words and the source of the rule it applies. The general caution is always fi
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
 
@@ -30,12 +30,16 @@ class Caution:
         What holds and what to do about it, with the numbers.
     source : str
         The rule's source, "from memory" where the clause number is recalled.
+    values : dict
+        The facts the message quotes, in SI (m, N, N·m, or a plain number or word): what an application needs
+        to word the caution in its own units (``app/report`` does). ``message`` is the engine's wording in SI.
     """
 
     level: str
     code: str
     message: str
     source: str
+    values: dict = field(default_factory=dict, compare=False, hash=False)
 
 
 GENERAL = Caution(
@@ -116,6 +120,7 @@ def _out_of_plane_cautions(found) -> list:
                     "buckling length) or choose a larger section."
                 ),
                 source=found.source,
+                values=found.facts(),
             )
         ]
     return extra  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
@@ -183,11 +188,12 @@ def assess(
                 level="warning",
                 code="second-order-matters",
                 message=(
-                    f"alpha_cr = Pcr1/P = {alpha_cr:.3g} < {alpha_cr_limit:g} (the limit "
+                    f"α_cr = Pcr1/N = {alpha_cr:.3g} < {alpha_cr_limit:g} (the limit "
                     "for an elastic global analysis): second-order effects must be taken "
                     "into account (this analysis includes them)."
                 ),
                 source=ALPHA_CR_SOURCE,
+                values={"alpha_cr": alpha_cr, "limit": alpha_cr_limit},
             )
         )
     if P < 0:
@@ -296,6 +302,11 @@ def assess(
                         "(service check on the loads as given, without the bow)."
                     ),
                     source=service.source,
+                    values={
+                        "deflection": abs(service.deflection),
+                        "limit": service.limit,
+                        "allowed": service.allowed,
+                    },
                 )
             )
         if service is not None:
@@ -329,6 +340,11 @@ def assess(
                     f"value {bow['code_amplitude'] * 1e3:.2f} mm ({bow['code_label']})."
                 ),
                 source=bow["code_source"],
+                values={
+                    "amplitude": abs(bow["amplitude"]),
+                    "code_amplitude": bow["code_amplitude"],
+                    "code_label": bow["code_label"],
+                },
             )
         )
     elif P > 0 and bow.get("code_amplitude") is None and bow["amplitude"] == 0.0:

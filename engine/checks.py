@@ -332,7 +332,7 @@ def _eq_5_9_note(asked: str, used: str, g1: float) -> str:
     if asked == "plastic" and used == "plastic":
         extra = (
             "The plastic §6.2.9 interaction is not used for this member check: eq. (5.10)'s e0 is "
-            "derived for the linear interaction (with M_Rk = W_pl f_y), which reproduces chi·N_Rk/γ_M1 "
+            "derived for the linear interaction (with M_Rk = W_pl f_y), which reproduces χ·N_Rk/γ_M1 "
             "exactly, whereas the plastic interaction would overshoot it; the plastic check is kept for "
             "the cross-section with γ_M0."
         )
@@ -341,5 +341,5 @@ def _eq_5_9_note(asked: str, used: str, g1: float) -> str:
     return (
         "Eq. (5.9) route: the member is checked with the linear interaction "
         f"N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) <= 1 (γ_M1 = {g1:g}), which reaches 1 at "
-        "N_b,Rd = chi·A·f_y/γ_M1 for the bow alone. " + extra
+        "N_b,Rd = χ·A·f_y/γ_M1 for the bow alone. " + extra
     )

@@ -51,7 +51,13 @@ from engine.solver.buckling import Buckling
 from engine.solver.model import Model, Points
 from engine.sway import AISC_OUT_OF_PLUMB, SOURCE_AISC, SOURCE_EN, can_sway, sway_anchor, sway_phi
 
-__all__ = ["BowChoice", "Member", "critical_loads", "resolve"]
+__all__ = ["BowChoice", "Member", "critical_loads", "resolve", "si_label"]
+
+
+def si_label(template: str, values: dict) -> str:
+    """A bow label's template in SI: bow sizes in mm to 0.01 mm, heights in m (the engine's own wording)."""
+    shown = {name: (f"{v:g} m" if name == "h" else f"{v * 1e3:.2f} mm") for name, v in values.items()}
+    return template.format(**shown)
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -64,7 +70,12 @@ class BowChoice:
     amplitude : float
         Signed largest |w0| [m].
     label : str
-        In words, e.g. ``EN 1993-1-1 Table 5.1, curve b, elastic analysis: e0 = L/250 = 24.0 mm``.
+        In words, in SI, e.g. ``EN 1993-1-1 Table 5.1, curve b, elastic analysis: e0 = L/250 = 24.00 mm``.
+    label_template : str
+        The same words with the quantities as ``{name}`` fields, e.g. ``... e0 = L/250 = {amplitude}``.
+    label_values : dict
+        The quantities of the template in SI: ``amplitude`` and ``e0`` (bow sizes) [m], ``h`` (a height) [m].
+        An application words the label in its own units from these two (``app/report`` does).
     source : str
     curve : str or None
         The buckling curve, when a section and steel material are known.
@@ -117,6 +128,8 @@ class BowChoice:
     directions: tuple = ()
     favourable: bool = False
     notes: tuple = ()
+    label_template: str = ""
+    label_values: dict = dataclasses.field(default_factory=dict, compare=False, hash=False)
 
     @property
     def sway_slope(self) -> float:
@@ -265,6 +278,7 @@ def resolve(case):
     L = case.length
     imp = case.imperfection
     curve, reason = _curve(case, section, material)
+    label_values = {}
     code_amp = None
     code_label = code_source = ""
     method = case.check.method
@@ -278,9 +292,7 @@ def resolve(case):
     )
     if imp.preset is None:
         shape, amplitude = imp.shape, imp.amplitude
-        label = (
-            f"{shape}, amplitude {amplitude * 1e3:.2f} mm (given)" if shape != "none" else "no initial bow"
-        )
+        label = f"{shape}, amplitude {{amplitude}} (given)" if shape != "none" else "no initial bow"
         source = "given in the case"
     else:
         shape = imp.shape if imp.shape != "none" else ("mode" if imp.preset == "en1993-eq-5.9" else "sine")
@@ -325,10 +337,10 @@ def resolve(case):
                     "sway imperfection, or stiffer supports"
                 )
             label = (
-                f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, lambda_bar = {lam:.3f}, "
-                f"e0 = {e0 * 1e3:.2f} mm, first-mode bow e0·N_cr/(EI·|η''|max) = e0 × {factor:.4g} "
-                f"= {abs(amplitude) * 1e3:.2f} mm"
+                f"EN 1993-1-1 eq. (5.9)/(5.10), curve {curve}, λ̄ = {lam:.3f}, "
+                f"e0 = {{e0}}, first-mode bow e0·N_cr/(EI·|η''|max) = e0 × {factor:.4g} = {{amplitude}}"
             )
+            label_values["e0"] = float(e0)
             source = (
                 "EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9) and (5.10) (from memory); checked on this "
                 "route by the linear N–M interaction with γ_M1"
@@ -363,10 +375,11 @@ def resolve(case):
             else:
                 phi, a_h, a_m = sway_phi(L, imp.columns)
                 sway_label = (
-                    f"sway phi = phi0·alpha_h·alpha_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
-                    f"= 1/{1 / phi:.0f} (h = L = {L:g} m, m = {imp.columns})"
+                    f"sway φ = φ0·α_h·α_m = (1/200)·{a_h:.3f}·{a_m:.3f} "
+                    f"= 1/{1 / phi:.0f} (h = L = {{h}}, m = {imp.columns})"
                 )
                 sway_source = SOURCE_EN
+                label_values["h"] = float(L)
             sway = phi
     direction = "+w"
     opposes = False
@@ -400,15 +413,18 @@ def resolve(case):
         if not direction:
             direction = "+w" if (amplitude if amplitude != 0.0 else sway) >= 0 else "-w"
     if imp.preset is not None and shape != "none":
-        label += f" = {abs(amplitude) * 1e3:.2f} mm" if "mm" not in label else ""
+        label += " = {amplitude}" if "{amplitude}" not in label else ""
         if notes:
             label += ", first-mode shape"
     if sway_label:
         label += f"; {sway_label}"
+    label_values["amplitude"] = abs(float(amplitude))
     bow = BowChoice(
         shape=shape,
         amplitude=float(amplitude),
-        label=label,
+        label=si_label(label, label_values),
+        label_template=label,
+        label_values=label_values,
         source=source,
         curve=curve,
         curve_reason=reason,
@@ -418,7 +434,7 @@ def resolve(case):
         opposes_load=opposes,
         sway=float(sway),
         sway_anchor=float(anchor),
-        sway_label=sway_label,
+        sway_label=si_label(sway_label, label_values),
         sway_source=sway_source,
         automatic=imp.preset is not None and imp.direction == "load",
         direction=direction,

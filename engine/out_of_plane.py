@@ -141,6 +141,11 @@ class OutOfPlane:
     source: str = SOURCE
     note: str = ""
 
+    def facts(self) -> dict:
+        """The numbers :meth:`describe` words, in SI ([m], [N]) and plain numbers, for an app to word."""
+        names = ("axis", "buckling_length", "N_cr", "lambda_bar", "curve", "chi", "N_b_Rd", "utilization")
+        return {name: getattr(self, name) for name in names}
+
     def describe(self) -> str:
         """One line with the numbers, e.g. for the cautions and the calc sheet."""
         if not self.checked:

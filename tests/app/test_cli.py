@@ -332,7 +332,7 @@ def test_exports_are_written_and_parse(tmp_path):
     assert CAUTION in done.stdout
     lines = [
         line
-        for line in (tmp_path / "out.csv").read_text(encoding="utf-8").splitlines()
+        for line in (tmp_path / "out.csv").read_text(encoding="utf-8-sig").splitlines()
         if not line.startswith("#")
     ]
     rows = list(csv.reader(lines))

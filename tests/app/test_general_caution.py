@@ -1,16 +1,27 @@
 """The general caution reads the same everywhere: the engine, the command line, the page and the sheet."""
 
+import pathlib
+
 import app.cli
-import app.exports
 import app.page
+import app.report
 from engine.cautions import GENERAL
 
 
 def test_every_copy_of_the_general_caution_is_the_engines():
     """The CLI's closing line and the page's and calc sheet's fallbacks equal the engine's scope caution."""
     assert GENERAL.message == app.cli.CAUTION
-    assert GENERAL.message == app.exports._FALLBACK_CAUTION
+    assert GENERAL.message == app.report.general_caution()
     assert GENERAL.message == app.page._GENERAL_CAUTION
+
+
+def test_no_other_wording_of_the_general_caution_in_the_outputs():
+    """The exports, the report and the batch hold no copy of the caution: they read the engine's."""
+    root = pathlib.Path(app.report.__file__).parents[1]
+    opening = "Elastic analysis of one member in one plane"
+    for folder in ("exports", "report", "batch"):
+        for path in (root / folder).glob("*.py"):
+            assert opening not in path.read_text(encoding="utf-8"), path
 
 
 def test_the_general_caution_names_what_is_not_checked():

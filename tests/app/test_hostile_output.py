@@ -111,7 +111,7 @@ def test_station_csv_neutralises_a_formula_title():
         result = engine.solve(engine.Case.from_dict(base | {"title": title}))
         text = exports.csv_text(result)
         assert formula_cells(text) == [], title
-        assert any(line.startswith("# title: ") for line in text.splitlines())
+        assert any(line.startswith("# title,") for line in text.splitlines())
 
 
 # ---------------------------------------------------------------------------------------------- batch

@@ -189,14 +189,14 @@ def test_each_download_arrives_and_holds_the_result(app, tmp_path):
     download.value.save_as(files["json"])
 
     rows = [
-        line for line in files["Stations CSV"].read_text("utf-8").splitlines() if not line.startswith("#")
+        line for line in files["Stations CSV"].read_text("utf-8-sig").splitlines() if not line.startswith("#")
     ]
     table = list(csv.DictReader(io.StringIO("\n".join(rows))))
     assert len(table) == len(result.x)
     for row, x, moment, shear in zip(table, result.x, result.moment, result.shear, strict=False):
-        assert float(row["x [m]"]) == pytest.approx(x, rel=1e-12, abs=1e-15)
-        assert float(row["M [kN·m]"]) == pytest.approx(moment * 1e-3, rel=1e-12, abs=1e-12)
-        assert float(row["V [kN]"]) == pytest.approx(shear * 1e-3, rel=1e-12, abs=1e-12)
+        assert float(row["x [m]"]) == pytest.approx(x, rel=5e-6, abs=1e-15)
+        assert float(row["M [kN·m]"]) == pytest.approx(moment * 1e-3, rel=5e-6, abs=1e-12)
+        assert float(row["V [kN]"]) == pytest.approx(shear * 1e-3, rel=5e-6, abs=1e-12)
 
     with Image.open(files["Figure PNG"]) as image:
         assert image.size == (1754, 1240)  # A4 landscape, 297 × 210 mm at 150 dpi (ISO 216)

@@ -75,8 +75,8 @@ def test_moment_gradient_form_uses_the_tabulated_psi(left, right, load, psi):
     error against the exact amplification stays within the few per cent the table is known for."""
     r = _solve(left, right, [load], 0.3)
     alpha = 0.3 * PE / r.critical_loads[0]
-    item = _by_name(r, "(1 + psi")
-    assert f"psi = {psi:g}" in item.name
+    item = _by_name(r, "(1 + ψ")
+    assert f"ψ = {psi:g}" in item.name
     assert item.value == pytest.approx((1 + psi * alpha) / (1 - alpha), rel=1e-12)
     assert item.error == pytest.approx(item.value / r.amplification.moment - 1, rel=1e-12)
     assert abs(item.error) < 0.05
@@ -86,7 +86,7 @@ def test_no_psi_form_for_an_untabulated_case():
     """An off-centre point load is not in Table C-A-8.1, so only 1/(1 − α) and B1 (Cm = 1) are given."""
     r = _solve("pinned", "pinned", [{"type": "point", "P": 1e3, "x": 0.3 * L}], 0.3)
     names = [a.name for a in r.amplification.approximations]
-    assert not any(n.startswith("(1 + psi") for n in names)
+    assert not any(n.startswith("(1 + ψ") for n in names)
     assert any("Cm = 1.000" in n for n in names)
 
 
@@ -148,7 +148,7 @@ def test_moment_amplification_over_m1_plus_n_w0(alpha):
     assert amp.reference_moment_x == pytest.approx(L / 2, abs=1e-9)
     assert amp.moment == pytest.approx(exact, rel=1e-10)
     assert amp.moment_first_order == pytest.approx(r.governing.moment.magnitude / m1, rel=1e-12)
-    simple = _by_name(r, "1/(1 - P/Pcr1)")
+    simple = _by_name(r, "1/(1 − N/Pcr1)")
     assert simple.compared_with == "moment"
     assert simple.error == pytest.approx((1 / (1 - alpha)) / exact - 1, rel=1e-9)
     assert abs(simple.error) < 0.03
@@ -177,7 +177,7 @@ def test_demo_amplification_definitions():
 
     demo = Path(__file__).resolve().parents[2] / "assets" / "demo_wind_post.json"
     r = engine.solve(engine.Case.from_json(demo.read_text(encoding="utf-8")))
-    simple, b1 = _by_name(r, "1/(1 - P/Pcr1)"), _by_name(r, "AISC B1")
+    simple, b1 = _by_name(r, "1/(1 − N/Pcr1)"), _by_name(r, "AISC B1")
     assert abs(simple.error) < 0.01 and abs(b1.error) < 0.01
     assert simple.value / r.amplification.moment_first_order - 1 < -0.3
     definitions = engine.results.AMPLIFICATION_DEFINITIONS

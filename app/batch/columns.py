@@ -1,0 +1,252 @@
+"""The tables of ``strutscope batch``: the input columns, the results layout, errors and the summary."""
+
+from __future__ import annotations
+
+import os
+import re
+from dataclasses import dataclass, field
+
+#: The results table written into the output folder.
+RESULTS_FILE = "results.csv"
+
+#: Tables with more rows than this are shared out across processes when more than one worker is allowed;
+#: below it, starting the processes costs more than it saves.
+PARALLEL_MIN_ROWS = 50
+
+# Unit factors of the input columns, SI engineering units to SI base units (the columns' names state them).
+_KILO = 1e3  # kN -> N, kN/m -> N/m, kN·m² -> N·m²
+_MILLI = 1e-3  # mm -> m
+
+_ID_PATTERN = re.compile(r"[A-Za-z0-9][A-Za-z0-9._-]{0,63}")
+_NUMBER = r"[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?"
+_POINT_LOAD = re.compile(rf"\s*({_NUMBER})\s*@\s*({_NUMBER})\s*")
+_SPAN_BOW = re.compile(r"\s*L\s*/\s*(" + _NUMBER + r")\s*", re.IGNORECASE)
+_MM_BOW = re.compile(rf"\s*({_NUMBER})\s*mm\s*", re.IGNORECASE)
+_PRESET_BOWS = ("en1993-table-5.1", "en1993-eq-5.9", "aisc-l/1000")
+
+
+def _file_mode() -> int:
+    # Temporary files are created readable by the owner only; the finished files get the usual permissions.
+    mask = os.umask(0)
+    os.umask(mask)
+    return 0o666 & ~mask
+
+
+@dataclass(frozen=True, kw_only=True)
+class Column:
+    """One column of the members table.
+
+    Attributes
+    ----------
+    name : str
+        The header, as written in the table (matched ignoring case and surrounding spaces).
+    required : bool
+        Whether the header must be present (its cells must then be filled in too).
+    description : str
+        What goes in a cell, with its unit and default.
+    """
+
+    name: str
+    required: bool
+    description: str
+
+
+#: The columns of the members table, in the order the README lists them.
+COLUMNS: tuple[Column, ...] = (
+    Column(
+        name="id",
+        required=True,
+        description="The member's identifier: letters, digits, '.', '_' and '-', up to 64 characters, "
+        "unique in the table (it names the calc sheet <id>.pdf).",
+    ),
+    Column(name="length_m", required=True, description="Length L [m], 0.001 to 1000."),
+    Column(
+        name="left",
+        required=True,
+        description="Support at x = 0 (the bottom of a vertical member): pinned, fixed, free or guided.",
+    ),
+    Column(name="right", required=True, description="Support at x = L: pinned, fixed, free or guided."),
+    Column(
+        name="section",
+        required=False,
+        description="A catalogue section such as 'HEB 200', 'IPE 300', 'SHS 100x100x5' or 'TIMBER 45x195' "
+        "(case- and space-insensitive). Empty: give EI_kNm2.",
+    ),
+    Column(
+        name="material",
+        required=False,
+        description="A catalogued material: S235, S275, S355, S460, ASTM A992, ASTM A36, C24, GL24h or "
+        "EN AW-6082 T6. Empty: give EI_kNm2 (no member check).",
+    ),
+    Column(
+        name="EI_kNm2",
+        required=False,
+        description="Bending stiffness EI [kN·m²], > 0; overrides the section and material when given.",
+    ),
+    Column(name="axis", required=False, description="Axis of bending: major or minor. Empty: major."),
+    Column(
+        name="axial_kN",
+        required=False,
+        description="Axial force P [kN], compression positive, tension negative. Empty: 0.",
+    ),
+    Column(
+        name="udl_kN_per_m",
+        required=False,
+        description="Uniform transverse load q over the whole length [kN/m]. Empty: none.",
+    ),
+    Column(
+        name="point_loads",
+        required=False,
+        description="Transverse point loads as force@position in kN@m, separated by ';': "
+        "'7@2.0;3.5@4'. Empty: none.",
+    ),
+    Column(
+        name="bow",
+        required=False,
+        description="Initial bow: none; a code preset en1993-table-5.1, en1993-eq-5.9 or aisc-l/1000, the "
+        "EN 1993-1-1 ones optionally with a buckling curve after a colon (en1993-table-5.1:c; "
+        "otherwise the curve follows from the section and material); L/n such as L/300; or an "
+        "amplitude such as 12mm (a half sine wave). Empty: none.",
+    ),
+    Column(
+        name="check_method", required=False, description="Member check: elastic or plastic. Empty: elastic."
+    ),
+    Column(
+        name="deflection_limit", required=False, description="n of the deflection limit span/n. Empty: 250."
+    ),
+    Column(
+        name="Lcr_out_m",
+        required=False,
+        description="Out-of-plane buckling length L_cr [m] (flexural buckling about the other axis, EN "
+        "1993-1-1 §6.3.1). Empty: the member length.",
+    ),
+    Column(
+        name="out_of_plane",
+        required=False,
+        description="restrained when out-of-plane buckling is prevented (no check about the other axis). "
+        "Empty: checked.",
+    ),
+    Column(name="comment", required=False, description="Free text, not read (it goes into the case title)."),
+)
+
+_BY_KEY = {column.name.lower(): column for column in COLUMNS}
+_REQUIRED = tuple(column.name for column in COLUMNS if column.required)
+
+# The results table's columns; the unit-bearing ones get their unit suffix from the units system.
+_RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
+    ("id", None),
+    ("row", None),
+    ("status", None),
+    ("field", None),
+    ("message", None),
+    ("stability", None),
+    ("Pcr1", "force"),
+    ("alpha_cr", None),
+    ("M_max", "moment"),
+    ("x_M", "length"),
+    ("V_max", "force"),
+    ("x_V", "length"),
+    ("w_max", "small_length"),
+    ("x_w", "length"),
+    ("amplification_moment", None),
+    ("utilization", None),
+    ("deflection_utilization", None),
+    ("governing_check", None),
+    ("out_of_plane_utilization", None),
+    ("section_class", None),
+    ("capacity", "force"),
+    ("capacity_check", None),
+    ("cautions", None),
+)
+_SUFFIXES = {
+    "si": {"force": "kN", "moment": "kNm", "length": "m", "small_length": "mm"},
+    "us": {"force": "kip", "moment": "kip_ft", "length": "ft", "small_length": "in"},
+}
+
+
+def result_columns(units: str = "si") -> tuple[str, ...]:
+    """Return the header of the results table for a units system.
+
+    Parameters
+    ----------
+    units : str
+        ``"si"`` (kN, kN·m, m, mm) or ``"us"`` (kip, kip·ft, ft, in).
+
+    Returns
+    -------
+    tuple of str
+        ``id, row, status, field, message, stability, Pcr1_kN, alpha_cr, M_max_kNm, x_M_m, V_max_kN, x_V_m,
+        w_max_mm, x_w_m, amplification_moment, utilization, deflection_utilization, governing_check,
+        out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions`` in SI.
+        ``utilization``
+        is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
+        bow).
+    """
+    suffixes = _SUFFIXES[units]
+    return tuple(name if kind is None else f"{name}_{suffixes[kind]}" for name, kind in _RESULT_LAYOUT)
+
+
+class TableError(Exception):
+    """The members table cannot be used at all (unreadable, or unknown or missing columns)."""
+
+
+class RowError(Exception):
+    """One row cannot be solved.
+
+    Parameters
+    ----------
+    column : str
+        The column at fault ("" when it is the row as a whole).
+    message : str
+        What is wrong, naming the value received and what is allowed.
+    """
+
+    def __init__(self, column: str, message: str, identifier: str = "") -> None:
+        super().__init__(message)
+        self.column = column
+        self.identifier = identifier
+
+    def __reduce__(self):
+        # Rows found bad while reading travel to the worker processes; keep every field through pickling.
+        return type(self), (self.column, str(self), self.identifier)
+
+
+@dataclass(kw_only=True)
+class BatchSummary:
+    """What a batch run did.
+
+    Attributes
+    ----------
+    results : str
+        Path of the results table written.
+    members : int
+        Rows read (blank rows are skipped and not counted).
+    solved : int
+        Rows solved (status ``ok``).
+    errors : list of tuple
+        ``(row, id, column, message)`` of the first rows with status ``error`` (at most
+        ``error_limit``); ``error_count`` has them all.
+    error_count : int
+    failing : int
+        Solved members with a utilisation above 1 or a danger caution.
+    beyond_critical : int
+        Solved members at or above their first critical load (``stability`` unstable or critical, utilisation
+        inf): the command line exits with 1 for them even without ``--strict``.
+    workers : int
+        Processes used (1: solved in this process).
+    pdfs : int
+        Calc sheets written.
+    stale : list of str
+        Calc sheets of the previous run into the folder that this run did not write, removed.
+    """
+
+    results: str
+    members: int = 0
+    solved: int = 0
+    errors: list = field(default_factory=list)
+    error_count: int = 0
+    failing: int = 0
+    beyond_critical: int = 0
+    workers: int = 1
+    pdfs: int = 0
+    stale: list = field(default_factory=list)

@@ -1,0 +1,394 @@
+"""Solving the members table: the rows in chunks, in one process or several, into the results file."""
+
+from __future__ import annotations
+
+import collections
+import contextlib
+import math
+import os
+import sys
+import tempfile
+from collections.abc import Callable, Iterable, Iterator
+from dataclasses import dataclass
+
+from app import outdir
+from app.batch.columns import (
+    _RESULT_LAYOUT,
+    PARALLEL_MIN_ROWS,
+    RESULTS_FILE,
+    BatchSummary,
+    RowError,
+    TableError,
+    _file_mode,
+    result_columns,
+)
+from app.batch.rows import _count_rows, _engine_error, _records, member_case
+from app.safe_text import csv_writer
+from app.workers import worker_pool
+
+# --------------------------------------------------------------------------------------------------------
+# Solving rows (in this process or in a worker).
+
+
+@dataclass(frozen=True, kw_only=True)
+class _Options:
+    units: str
+    stations: int
+    capacity: bool
+    pdf_dir: str | None
+    prepared_by: str = ""
+    checked_by: str = ""
+
+
+def _cell(value: float | None, factor: float = 1.0) -> str:
+    """A number for the results table: full precision (round-trips), 'inf' when unbounded, '' for none."""
+    if value is None:
+        return ""
+    value = float(value)
+    if math.isnan(value):
+        return ""
+    if math.isinf(value):
+        return "inf" if value > 0 else "-inf"
+    return repr(value * factor)
+
+
+def _write_atomically(path: str, data: bytes) -> None:
+    directory = os.path.dirname(path) or "."
+    handle, temporary = tempfile.mkstemp(dir=directory, prefix=outdir.TEMPORARY_PREFIX, suffix=".part")
+    try:
+        with os.fdopen(handle, "wb") as stream:
+            stream.write(data)
+        os.chmod(temporary, _file_mode())
+        os.replace(temporary, path)
+    except BaseException:
+        with contextlib.suppress(OSError):
+            os.unlink(temporary)
+        raise
+
+
+def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[list[str], bool, bool]:
+    """Solve one case: return (results-table cells, failing, pdf written)."""
+    import engine
+    from app.report import status_message
+    from app.units import units
+
+    shown = units(options.units)
+    result = engine.solve(case, stations=options.stations)
+    force, moment, length = shown.force.factor, shown.moment.factor, shown.length.factor
+    small = shown.small_length.factor
+    governing = result.governing
+    check = result.check
+    capacity_force = capacity_check = None
+    if options.capacity and case.section is not None and case.material is not None:
+        found = engine.capacity(case)
+        capacity_force, capacity_check = found.axial_force, found.check
+    failing = (result.utilization is not None and result.utilization > 1.0) or any(
+        caution.level == "danger" for caution in result.cautions
+    )
+    record = [
+        identifier,
+        str(row),
+        "ok",
+        "",
+        status_message(result, shown),
+        result.status,
+        _cell(result.critical_loads[0], force),
+        _cell(result.alpha_cr),
+        _cell(governing.moment.value, moment),
+        _cell(governing.moment.x, length),
+        _cell(governing.shear.value, force),
+        _cell(governing.shear.x, length),
+        _cell(governing.deflection.value, small),
+        _cell(governing.deflection.x, length),
+        _cell(result.amplification.moment),
+        _cell(result.utilization),
+        _cell(None if result.service is None else result.service.utilization),
+        "" if check is None else check.kind,
+        "" if check is None or check.out_of_plane is None else _cell(check.out_of_plane.utilization),
+        "" if check is None or check.section_class is None else str(check.section_class.klass),
+        _cell(capacity_force, force),
+        capacity_check or "",
+        ";".join(caution.code for caution in result.cautions),
+    ]
+    wrote = False
+    if options.pdf_dir is not None:
+        from app.exports import pdf_bytes
+
+        _write_atomically(
+            os.path.join(options.pdf_dir, f"{identifier}.pdf"),
+            pdf_bytes(
+                result, units=options.units, prepared_by=options.prepared_by, checked_by=options.checked_by
+            ),
+        )
+        wrote = True
+    return record, failing, wrote
+
+
+def _error_record(row: int, identifier: str, column: str, message: str) -> list[str]:
+    width = len(_RESULT_LAYOUT)
+    return [identifier, str(row), "error", column, message] + [""] * (width - 5)
+
+
+def _solve_chunk(chunk: list[tuple[int, object]], options: _Options) -> list[tuple[list[str], bool, bool]]:
+    """Solve a chunk of rows; each item is ``(row, cells)`` or ``(row, RowError)`` found while reading."""
+    import engine
+
+    out = []
+    for row, cells in chunk:
+        identifier = cells.identifier if isinstance(cells, RowError) else (cells.get("id") or "").strip()
+        try:
+            if isinstance(cells, RowError):
+                raise cells
+            case = member_case(cells)
+            try:
+                out.append(_solved_record(row, identifier, case, options))
+            except engine.CaseError as error:
+                raise _engine_error(error, cells, []) from None
+        except RowError as error:
+            out.append((_error_record(row, identifier, error.column, str(error)), False, False))
+        except Exception as error:  # noqa: BLE001 -- one member's failure must not stop the table
+            message = (
+                f"unexpected error while solving this member ({type(error).__name__}: {error}); "
+                "please report it with the row"
+            )
+            out.append((_error_record(row, identifier, "", message), False, False))
+    return out
+
+
+# --------------------------------------------------------------------------------------------------------
+# The run.
+
+
+def default_workers() -> int:
+    """The number of CPU cores this process may use."""
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except AttributeError:  # not on Linux
+        return max(1, os.cpu_count() or 1)
+
+
+def _chunks(items: Iterable, size: int) -> Iterator[list]:
+    chunk = []
+    for item in items:
+        chunk.append(item)
+        if len(chunk) == size:
+            yield chunk
+            chunk = []
+    if chunk:
+        yield chunk
+
+
+def _checked_ids(records: Iterable[tuple[int, object]]) -> Iterator[tuple[int, object]]:
+    """Turn the second and later uses of an id into row errors (ids name the calc sheets)."""
+    seen: dict[str, int] = {}  # a few dozen bytes per row: the only thing kept for the whole table
+    for row, cells in records:
+        if isinstance(cells, dict):
+            identifier = cells.get("id", "")
+            if identifier and identifier in seen:
+                yield (
+                    row,
+                    RowError(
+                        "id",
+                        f"id: {identifier!r} is already used on row {seen[identifier]}; "
+                        f"ids must be unique (they name the calc sheets)",
+                        identifier,
+                    ),
+                )
+                continue
+            if identifier:
+                seen[identifier] = row
+        yield row, cells
+
+
+def _solved_in_order(chunks: Iterator[list], options: _Options, workers: int) -> Iterator[list]:
+    """Yield each chunk's results in the input order, keeping a bounded window of chunks in flight."""
+    if workers <= 1:
+        for chunk in chunks:
+            yield _solve_chunk(chunk, options)
+        return
+    window = 3 * workers
+    with worker_pool(workers, options.pdf_dir is not None) as pool:
+        pending: collections.deque = collections.deque()
+        try:
+            for chunk in chunks:
+                pending.append(pool.submit(_solve_chunk, chunk, options))
+                if len(pending) >= window:
+                    yield pending.popleft().result()
+            while pending:
+                yield pending.popleft().result()
+        finally:
+            for future in pending:
+                future.cancel()
+
+
+def run(
+    table: str,
+    out_dir: str,
+    *,
+    units: str = "si",
+    pdf: bool = False,
+    workers: int | None = None,
+    stations: int = 401,
+    capacity: bool = True,
+    progress: bool | None = None,
+    prepared_by: str = "",
+    checked_by: str = "",
+    error_limit: int = 20,
+    on_progress: Callable[[int], None] | None = None,
+) -> BatchSummary:
+    """Solve every member of a table and write ``out_dir/results.csv`` (and the calc sheets).
+
+    Parameters
+    ----------
+    table : str
+        Path of the members table (CSV, the columns of :data:`COLUMNS`).
+    out_dir : str
+        Folder for the results; created when missing.
+    units : str
+        ``"si"`` or ``"us"``: the units of the results table and the calc sheets. The input columns are always
+        in the units their names state.
+    pdf : bool
+        Write a calc sheet ``out_dir/<id>.pdf`` for every solved member.
+    workers : int, optional
+        Processes to use; all cores when None. Tables of up to :data:`PARALLEL_MIN_ROWS` rows are solved in
+        this process.
+    stations : int
+        Stations per member (the governing values are exact peaks whatever the number).
+    capacity : bool
+        Find each member's axial capacity (:func:`engine.capacity`) when it has a section and a material.
+    progress : bool, optional
+        Show a progress bar on stderr; by default when stderr is a terminal and the table is long.
+    prepared_by, checked_by : str
+        Names on the calc sheets.
+    error_limit : int
+        How many row errors the summary lists (all are in the results table).
+    on_progress : callable, optional
+        Called with the number of rows just written (for tests and other front ends).
+
+    Returns
+    -------
+    BatchSummary
+
+    Raises
+    ------
+    TableError
+        When the table cannot be read or its header is wrong; nothing is written then.
+    OSError
+        When the output folder cannot be written.
+    """
+    from app.units import UNIT_SYSTEMS
+
+    if units not in UNIT_SYSTEMS:
+        raise ValueError(f"units: {units!r} is not a units system; allowed: {', '.join(UNIT_SYSTEMS)}")
+    total = _count_rows(table)  # also checks the header before anything is written
+    if os.path.exists(out_dir) and not os.path.isdir(out_dir):
+        raise TableError(f"--out: {out_dir!r} exists and is not a folder")
+    outdir.check_not_input(table, out_dir, RESULTS_FILE)
+    os.makedirs(out_dir, exist_ok=True)
+    with outdir.locked(out_dir):
+        try:
+            return _run_locked(
+                table,
+                out_dir,
+                total,
+                units=units,
+                pdf=pdf,
+                workers=workers,
+                stations=stations,
+                capacity=capacity,
+                progress=progress,
+                prepared_by=prepared_by,
+                checked_by=checked_by,
+                error_limit=error_limit,
+                on_progress=on_progress,
+            )
+        except BaseException:
+            outdir.remove_temporaries(out_dir)  # what stopped workers may have left
+            raise
+
+
+def _run_locked(
+    table: str,
+    out_dir: str,
+    total: int,
+    *,
+    units,
+    pdf,
+    workers,
+    stations,
+    capacity,
+    progress,
+    prepared_by,
+    checked_by,
+    error_limit,
+    on_progress,
+) -> BatchSummary:
+    """:func:`run` once the folder is locked."""
+    manifest = outdir.Manifest(out_dir)
+    workers = default_workers() if workers is None else max(1, int(workers))
+    used = workers if workers > 1 and total > PARALLEL_MIN_ROWS else 1
+    # Chunks of a few dozen rows keep the cost of passing work between processes small beside the solves,
+    # while leaving enough chunks to keep every worker busy to the end.
+    size = max(1, min(64, total // (used * 8))) if used > 1 else 16
+    options = _Options(
+        units=units,
+        stations=stations,
+        capacity=capacity,
+        pdf_dir=os.path.abspath(out_dir) if pdf else None,
+        prepared_by=prepared_by,
+        checked_by=checked_by,
+    )
+    target = os.path.join(out_dir, RESULTS_FILE)
+    summary = BatchSummary(results=target, workers=used)
+
+    bar = None
+    if progress is None:
+        progress = total >= 20 and sys.stderr.isatty()
+    if progress:
+        try:
+            from tqdm import tqdm
+        except ImportError:  # the bar is a convenience: run without it
+            tqdm = None
+        if tqdm is not None:
+            bar = tqdm(total=total, unit="member", file=sys.stderr, dynamic_ncols=True, leave=False)
+
+    handle, temporary = tempfile.mkstemp(
+        dir=out_dir, prefix=f"{outdir.TEMPORARY_PREFIX}results-", suffix=".csv.part"
+    )
+    try:
+        with os.fdopen(handle, "w", encoding="utf-8", newline="") as stream:
+            writer = csv_writer(stream)  # every cell neutralised against formulas (app.safe_text)
+            writer.writerow(result_columns(units))
+            chunks = _chunks(_checked_ids(_records(table)), size)
+            for results in _solved_in_order(chunks, options, used):
+                for record, failing, wrote in results:
+                    writer.writerow(record)
+                    summary.members += 1
+                    if record[2] == "ok":
+                        summary.solved += 1
+                        summary.failing += failing
+                        summary.beyond_critical += record[5] in ("unstable", "critical")
+                        summary.pdfs += wrote
+                        if wrote:
+                            manifest.add(f"{record[0]}.pdf")
+                    else:
+                        summary.error_count += 1
+                        if len(summary.errors) < error_limit:
+                            summary.errors.append((int(record[1]), record[0], record[3], record[4]))
+                if bar is not None:
+                    bar.update(len(results))
+                if on_progress is not None:
+                    on_progress(len(results))
+            stream.flush()
+            os.fsync(stream.fileno())
+        os.chmod(temporary, _file_mode())
+        os.replace(temporary, target)
+        summary.stale = manifest.complete()
+    except BaseException:
+        with contextlib.suppress(OSError):
+            os.unlink(temporary)
+        raise
+    finally:
+        if bar is not None:
+            bar.close()
+    return summary

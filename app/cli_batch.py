@@ -1,0 +1,153 @@
+"""``strutscope batch``: its options and its handler (:mod:`app.batch` does the work)."""
+
+from __future__ import annotations
+
+from app.cli_common import (
+    CAUTION,
+    DEFAULT_STATIONS,
+    _add_parser,
+    _add_signatures,
+    _add_units,
+    _error,
+    _print,
+    _station_count,
+    _worker_count,
+)
+from app.interrupt import clean_exit
+from app.safe_text import terminal
+
+
+def _add_batch(commands) -> None:
+    batch = _add_parser(
+        commands,
+        "batch",
+        help="solve a table of members (CSV) into a table of results",
+        description="Solve every member of a CSV table (one member per row; the columns are listed in the "
+        "README and in assets/example_members.csv) and write DIR/results.csv, one row per member "
+        "in the input order. A row that cannot be solved is reported there with its row number, "
+        "column and message, and does not stop the run. Exit code 0 when every row was solved, "
+        "1 when some rows were invalid or a member is at or above its first critical load (or, "
+        "with --strict, a member fails its check), 2 when the "
+        "table cannot be read.",
+        examples=[
+            "strutscope batch members.csv --out results",
+            "strutscope batch members.csv --out results --pdf --prepared-by 'A. Engineer'",
+            "strutscope batch members.csv --out results --workers 4 --units us",
+        ],
+    )
+    batch.add_argument("table", metavar="MEMBERS.csv", help="the table of members")
+    batch.add_argument(
+        "--out", required=True, metavar="DIR", help="folder for results.csv (created if missing)"
+    )
+    batch.add_argument("--pdf", action="store_true", help="also write a calc sheet DIR/<id>.pdf per member")
+    _add_signatures(batch)
+    batch.add_argument(
+        "--workers",
+        type=_worker_count,
+        default=None,
+        metavar="N",
+        help="processes to share the rows out to (default: every core); tables of up to 50 "
+        "rows are solved in one process",
+    )
+    _add_units(batch, "results.csv and the calc sheets (the input columns keep their stated units)")
+    batch.add_argument(
+        "--stations",
+        type=_station_count,
+        default=DEFAULT_STATIONS,
+        metavar="N",
+        help=f"stations per member (default {DEFAULT_STATIONS})",
+    )
+    batch.add_argument(
+        "--no-capacity",
+        dest="capacity",
+        action="store_false",
+        help="skip the capacity search (faster; the capacity columns stay empty)",
+    )
+    batch.add_argument(
+        "--no-progress",
+        dest="progress",
+        action="store_false",
+        default=None,
+        help="no progress bar (it shows only on a terminal and for long tables anyway)",
+    )
+    batch.add_argument(
+        "--strict",
+        action="store_true",
+        help="exit with 1 when any member fails its check or a danger caution fires",
+    )
+    batch.set_defaults(handler=_batch)
+
+
+@clean_exit("batch")
+def _batch(args) -> int:
+    from concurrent.futures.process import BrokenProcessPool
+
+    from app.workers import one_thread_here
+
+    one_thread_here()  # before numpy loads (the workers get one thread each anyway)
+    from app import batch
+    from app.outdir import FolderError
+
+    try:
+        summary = batch.run(
+            args.table,
+            args.out,
+            units=args.units,
+            pdf=args.pdf,
+            workers=args.workers,
+            stations=args.stations,
+            capacity=args.capacity,
+            progress=args.progress,
+            prepared_by=args.prepared_by,
+            checked_by=args.checked_by,
+        )
+    except batch.TableError as error:
+        _error(f"error: {args.table}: {error}")
+        return 2
+    except FolderError as error:
+        _error(f"error: {args.out}: {error}")
+        return 2
+    except OSError as error:
+        _error(f"error: {args.out}: cannot write the results: {error.strerror or error}")
+        return 2
+    except BrokenProcessPool as error:
+        _error(
+            f"error: {args.table}: a worker process stopped ({error}); no results were written. "
+            "Try --workers 1"
+        )
+        return 2
+    except MemoryError:
+        _error(f"error: {args.table}: not enough memory; no results were written. Try --workers 1")
+        return 2
+    failing = f", {summary.failing} failing their check or with a danger caution" if summary.failing else ""
+    lines = [
+        f"strutscope batch: {summary.members} member{'s' if summary.members != 1 else ''} from "
+        f"{terminal(args.table)}: {summary.solved} solved, {summary.error_count} invalid{failing} "
+        f"({summary.workers} process{'es' if summary.workers != 1 else ''})"
+    ]
+    for row, identifier, _column, message in summary.errors:
+        lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {terminal(message)}")
+    if summary.error_count > len(summary.errors):
+        more = summary.error_count - len(summary.errors)
+        lines.append(f"  ... and {more} more invalid row{'s' if more != 1 else ''} (see {summary.results})")
+    lines.append(f"results: {summary.results}")
+    if args.pdf:
+        lines.append(
+            f"calc sheets: {summary.pdfs} PDF file{'s' if summary.pdfs != 1 else ''} in {terminal(args.out)}"
+        )
+    if summary.stale:
+        stale = len(summary.stale)
+        lines.append(
+            f"removed {stale} calc sheet{'s' if stale != 1 else ''} of the previous run that this "
+            "run did not write"
+        )
+    lines.append(f"Caution: {CAUTION}")
+    if not _print("\n".join(lines)):
+        return 1
+    if summary.error_count or summary.beyond_critical or (args.strict and summary.failing):
+        return 1
+    return 0
+
+
+# --------------------------------------------------------------------------------------------------------
+# strutscope schema

@@ -1,0 +1,157 @@
+"""The CSV export: one row per station, units in the header."""
+
+from __future__ import annotations
+
+import csv
+import io
+
+import numpy as np
+
+from app.exports.style import _title, _units
+from app.report import bow_direction_text, csv_number, general_caution, status_text, system_name
+from app.report.numbers import CSV_DIGITS
+from app.safe_text import csv_writer
+from app.units import Units
+
+# --------------------------------------------------------------------------------------------------------
+# CSV.
+
+
+def _csv_columns(result, U: Units):
+    """(header, SI array, unit kind or None) for every CSV column."""
+    first = result.first_order
+    sl, rot, mom, frc = (U.label(k) for k in ("small_length", "rotation", "moment", "force"))
+    columns = [
+        (f"x [{U.label('length')}]", result.x, "length"),
+        (f"w [{sl}]", result.deflection, "small_length"),
+    ]
+    if first is not None:
+        columns.append((f"w1 [{sl}]", first.deflection, "small_length"))
+    columns += [
+        (f"w0 [{sl}]", result.initial_bow, "small_length"),
+        (f"w+w0 [{sl}]", result.total_offset, "small_length"),
+    ]
+    if first is not None:
+        columns.append((f"w1+w0 [{sl}]", first.total_offset, "small_length"))
+    for name, field, kind, unit in (
+        ("rotation", "rotation", "rotation", rot),
+        ("M", "moment", "moment", mom),
+        ("V", "shear", "force", frc),
+        ("T", "transverse_force", "force", frc),
+    ):
+        columns.append((f"{name} [{unit}]", getattr(result, field), kind))
+        if first is not None:
+            columns.append((f"{name}1 [{unit}]", getattr(first, field), kind))
+    check = result.check
+    if check is not None:
+        columns += [
+            ("utilisation [-]", check.stations, None),
+            ("utilisation axial+bending [-]", check.axial_bending, None),
+            ("utilisation shear [-]", check.shear, None),
+        ]
+    elif result.utilization is not None:
+        # At a critical load the engine gives no check along the member, only the governing utilisation
+        # (+inf), which then holds at every station.
+        columns.append(("utilisation [-]", np.full(len(result.x), float(result.utilization)), None))
+    return columns
+
+
+#: The byte order mark that starts the CSV: spreadsheets read the file as UTF-8 with it (and as a legacy
+#: code page without it, which garbles kN·m and accented titles).
+BOM = "\ufeff"
+
+
+def _amplification_rows(result) -> list:
+    """The CSV's metadata rows for the exact amplifications, each with its definition."""
+    from engine.results import AMPLIFICATION_DEFINITIONS as words
+
+    amp = result.amplification
+    rows = []
+    for key in ("moment", "moment_first_order", "moment_bow_free", "deflection"):
+        value = getattr(amp, key)
+        if value is not None:
+            rows.append((f"amplification {key} [-]", csv_number(value), words[key]))
+    return rows
+
+
+def _metadata(result, U: Units) -> list:
+    """The metadata rows: a key (starting "# "), a value and perhaps a note, each one cell."""
+    force = U.label("force")
+    rows = [
+        ("strutscope", "exact second-order analysis of one member"),
+        ("title", _title(result)),
+        ("units", system_name(U)),
+        (
+            f"axial force N [{force}]",
+            csv_number(U.convert("force", result.axial_force)),
+            "compression positive",
+        ),
+        (f"Pcr1 [{force}]", csv_number(U.convert("force", float(result.critical_loads[0])))),
+        ("status", status_text(result, U)),
+    ]
+    if result.utilization is not None:
+        note = "strength and stability; the deflection check is apart"
+        rows.append(("utilisation [-]", csv_number(result.utilization), note))
+    if result.service is not None:
+        note = f"service check: {result.service.basis}"
+        rows.append(("deflection utilisation [-]", csv_number(result.service.utilization), note))
+    rows += _amplification_rows(result)
+    if result.bow is not None and result.bow.direction_governing:
+        rows.append(("bow direction", bow_direction_text(result.bow, U)))
+    rows.append(
+        (
+            "columns",
+            "columns ending in 1 are first order (N = 0) at the same stations; a station at a point load or "
+            "couple appears twice; inf marks a value that is unbounded at a critical load",
+        )
+    )
+    rows.append(("caution", general_caution(result)))
+    return rows
+
+
+def csv_text(result, *, units="si") -> str:
+    """Return the stations of `result` as CSV text, one row per station, with units in the header.
+
+    The text starts with a byte order mark (U+FEFF), so that a spreadsheet reads it as UTF-8 (kN·m, ç). The
+    metadata lines come first, each starting with ``#`` (readers told to skip comments skip them): the key in
+    the first cell, the value in the second, a note in the third, each value one cell however many commas it
+    holds. They give the title, the units, the axial force, Pcr1, the status, the utilisations, the
+    amplifications and the general caution. Columns: ``x``, ``w``, ``w1`` (the subscript 1 marks first
+    order, N = 0), ``w0``, ``w+w0``, ``w1+w0``, ``rotation``, ``rotation1``, ``M``, ``M1``, ``V``, ``V1``,
+    ``T``, ``T1``, and the utilisations when the result has a member check. Where a point load or couple
+    acts, its station appears twice (the values either side). Unbounded values (at a critical load) are
+    written ``inf``.
+
+    Parameters
+    ----------
+    result : engine.Result
+    units : str or Units
+
+    Returns
+    -------
+    str
+        CSV text with ``\\n`` line ends, numbers to :data:`app.report.numbers.CSV_DIGITS` significant figures.
+    """
+    U = _units(units)
+    columns = _csv_columns(result, U)
+    out = io.StringIO()
+    out.write(BOM)
+    writer = csv_writer(out, lineterminator="\n")
+    for key, *values in _metadata(result, U):
+        writer.writerow([f"# {key}", *(" ".join(str(v).split()) for v in values)])
+    writer.writerow([header for header, _, _ in columns])
+    data = []
+    for _, values, kind in columns:
+        values = np.asarray(values, dtype=float)
+        data.append(_column_cells(values if kind is None else U.convert(kind, values)))
+    # Every cell below is a number written by csv_number, which no spreadsheet takes for a formula: the plain
+    # writer is enough (and several times faster than checking each cell).
+    csv.writer(out, lineterminator="\n").writerows(zip(*data, strict=True))
+    return out.getvalue()
+
+
+def _column_cells(values: np.ndarray) -> list[str]:
+    """:func:`app.report.csv_number` of every value of one column, formatted in one pass."""
+    digits = f".{CSV_DIGITS}g"
+    cells = [format(v, digits) for v in values.tolist()]
+    return ["0" if cell == "-0" else cell for cell in cells]

@@ -1,0 +1,177 @@
+"""The printed summary of one solved case (``strutscope solve``), worded by :mod:`app.report`."""
+
+from __future__ import annotations
+
+from app.report import words as w
+from app.report.numbers import percent, position, ratio, scientific, utilisation
+from app.safe_text import terminal
+from app.units import units as display_units
+
+__all__ = ["format_summary"]
+
+
+def _case_lines(add, source, case, result, U) -> None:
+    add("strutscope: exact second-order analysis of one member")
+    add(f"  case:         {terminal(source)}")
+    add(f"  title:        {terminal(case.title) or '(untitled)'}")
+    add(f"  length:       {position(U, case.length)}")
+    if result.section is not None:
+        section = result.section
+        add(
+            f"  section:      {section.name}, {case.axis} axis (A = {U.show('area', section.A)}, "
+            f"I = {U.show('second_moment', section.I)})"
+        )
+    if result.material is not None:
+        add(
+            f"  material:     {result.material.name} (E = {U.show('stress', result.material.E, 5)}, "
+            f"fy = {U.show('stress', result.material.fy, 3)})"
+        )
+    add(f"  EI:           {U.show('stiffness', result.EI)}")
+    add(f"  supports:     left {w.support_text(case.left, U)}; right {w.support_text(case.right, U)}")
+    add(f"  axial force:  N = {w.axial_text(result.axial_force, U)}")
+    if case.loads:
+        add("  loads:")
+        for load in case.loads:
+            add(f"    {w.load_text(load, case.length, U)}")
+    else:
+        add("  loads:        none")
+    add(f"  initial bow:  {w.bow_text(result, U)}")
+    direction = w.bow_direction_text(result.bow, U)
+    if direction:
+        add(f"  bow direction: {direction}")
+
+
+def _results_lines(add, result, U) -> None:
+    add("")
+    add("Elastic critical loads")
+    for n, load in enumerate(result.critical_loads[:3], start=1):
+        add(f"  Pcr{n} = {U.show('force', load, 5)}")
+    add(f"  effective length factor K = {ratio(result.buckling.effective_length_factor)}")
+    if result.axial_force > 0:
+        add(f"  α_cr = Pcr1 / N = {ratio(result.alpha_cr)}")
+    else:
+        add(f"  α_cr = {ratio(result.alpha_cr)} (no compression)")
+    add("")
+    add(f"Status: {w.status_text(result, U)}")
+
+    first = result.first_order
+    add("")
+    add(f"{'Governing values':<24}{'second order':<30}first order (N = 0)")
+    for label, name, kind in w.governing_rows(result, always_offset=True):
+        second_text = w.peak_text(getattr(result.governing, name), kind, U)
+        first_text = "n/a" if first is None else w.peak_text(getattr(first.governing, name), kind, U)
+        add(f"  {label:<22}{second_text:<30}{first_text}")
+
+    add("")
+    add(f"Reactions ({w.REACTIONS_NOTE})")
+    for end, force, couple in w.reaction_rows(result, U):
+        add(f"  {end + ':':<19}force {force}, couple {couple}")
+
+    amplification = result.amplification
+    add("")
+    add("Amplification (second order / first order)")
+    from engine.results import AMPLIFICATION_DEFINITIONS as definitions
+
+    add(f"  moment, exact:      {ratio(amplification.moment)}  ({definitions['moment']})")
+    add(
+        f"  moment over M_I:    {ratio(amplification.moment_first_order)}  "
+        f"({definitions['moment_first_order']})"
+    )
+    if amplification.moment_bow_free is not None:
+        free = ratio(amplification.moment_bow_free)
+        add(f"  moment, no bow:     {free}  ({definitions['moment_bow_free']})")
+    add(f"  deflection, exact:  {ratio(amplification.deflection)}  ({definitions['deflection']})")
+    for approximation in amplification.approximations:
+        against = "exact, no bow" if approximation.compared_with == "moment_bow_free" else "exact"
+        add(
+            f"  {approximation.name + ':':<19} {ratio(approximation.value)}"
+            f"  (error {percent(approximation.error)} against {against}; {approximation.source})"
+        )
+
+    equilibrium = result.equilibrium
+    add("")
+    if equilibrium is None:
+        # The engine gives none at a critical load, where no equilibrium exists.
+        add("Equilibrium residuals (relative): n/a (no equilibrium state)")
+    else:
+        add(
+            "Equilibrium residuals (relative): "
+            f"transverse {scientific(equilibrium.transverse)}, moment {scientific(equilibrium.moment)}"
+        )
+
+
+def _check_lines(add, result, U) -> None:
+    check = result.check
+    if check is not None:
+        add("")
+        settings = check.settings
+        add(f"Member check ({settings.method}, γ_M0 = {settings.gamma_M0:g}), second-order forces")
+        add(
+            f"  utilisation:  {utilisation(check.utilization)} ({check.kind} at "
+            f"x = {position(U, check.x)}; {check.source})"
+        )
+        add(f"  strength:     {utilisation(check.strength_utilization)} ({check.strength_kind})")
+        out = check.out_of_plane
+        if out is not None and out.checked:
+            add(f"  out of plane: {ratio(out.utilization)} (N/N_b,Rd {w.out_of_plane_text(out, U)})")
+        elif out is not None:
+            add(f"  out of plane: {w.out_of_plane_text(out, U)}")
+        if check.section_class is not None:
+            add(f"  section:      {check.section_class.describe()}")
+    service = result.service
+    if service is not None:
+        add("")
+        add("Service check (deflection; apart from the strength utilisation)")
+        add(f"  deflection:   {w.service_text(service, U)}")
+        add(f"  basis:        {service.basis}")
+    elif result.utilization is not None:
+        add("")
+        add(f"Member check: utilisation {utilisation(result.utilization)}")
+
+
+def format_summary(source: str, case, result, units: str = "si", capacity=None) -> str:
+    """Return the printed summary of `result`, the engine's solution of `case` read from `source`.
+
+    Parameters
+    ----------
+    source : str
+        What the case was read from, shown on the first line.
+    case : engine.Case
+        The case as read.
+    result : engine.Result
+        What ``engine.solve(case)`` returned.
+    units : str
+        ``"si"`` (kN, m, mm, kN·m) or ``"us"`` (kip, ft, in, kip·ft).
+    capacity : engine.Capacity, optional
+        What ``engine.capacity(case)`` returned, shown when given.
+
+    Returns
+    -------
+    str
+        Lines of text in the display units, ending with the general caution.
+    """
+    U = display_units(units)
+    lines: list[str] = []
+    add = lines.append
+    _case_lines(add, source, case, result, U)
+    _results_lines(add, result, U)
+    _check_lines(add, result, U)
+    if capacity is not None:
+        add("")
+        add(f"Capacity ({capacity.mode}: the largest axial compression at strength utilisation 1)")
+        where = "" if capacity.x is None else f" at x = {position(U, capacity.x)}"
+        add(f"  axial force:  N = {U.show('force', capacity.axial_force, 5)} ({capacity.check}{where})")
+        add(
+            f"  load factor:  {ratio(capacity.load_factor)} on the given axial force; "
+            f"Pcr1 = {U.show('force', capacity.critical_load, 5)}"
+        )
+        add(f"  {w.capacity_text(capacity, U)}")
+    add("")
+    add("Cautions")
+    for caution in result.cautions:
+        if caution.code == "scope":
+            continue  # printed last, always
+        add(f"  [{caution.level}] {w.caution_text(caution, U)} ({caution.source})")
+    add("")
+    add(f"Caution: {w.general_caution(result)}")
+    return "\n".join(lines)

@@ -1,0 +1,189 @@
+"""The machine-readable summary of one solved case (``strutscope solve --json``), in SI.
+
+Every value is what the engine's result holds; non-finite values are written null (JSON has no infinity).
+"""
+
+from __future__ import annotations
+
+import math
+
+__all__ = ["SUMMARY_VERSION", "summary_data"]
+
+#: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
+SUMMARY_VERSION = 1
+
+
+def _finite(value) -> float | None:
+    """A JSON number, or None (JSON null) for no value and for the engine's non-finite values."""
+    if value is None:
+        return None
+    value = float(value)
+    return value if math.isfinite(value) else None
+
+
+def _peak_data(peak) -> dict:
+    return {"value": _finite(peak.value), "x": _finite(peak.x)}
+
+
+def _governing_data(governing) -> dict:
+    return {
+        name: _peak_data(getattr(governing, name))
+        for name in ("deflection", "total_offset", "moment", "shear")
+    }
+
+
+def _definitions() -> dict:
+    """What each amplification ratio divides by what (the engine's words)."""
+    from engine.results import AMPLIFICATION_DEFINITIONS
+
+    return dict(AMPLIFICATION_DEFINITIONS)
+
+
+def summary_data(source: str, case, result, capacity=None) -> dict:
+    """Return the machine-readable summary of a solved case (what ``solve --json`` prints).
+
+    Every value is in SI units (m, N, N·m, Pa) and is what the engine's result holds; the keys are listed in
+    the README ("Command line"). JSON has no infinity: every non-finite value (the engine's +inf at a critical
+    load, ``alpha_cr`` without compression) is written null, and ``status`` says which case it is
+    (``"critical"``, or ``axial_force`` <= 0 for ``alpha_cr``).
+
+    Parameters
+    ----------
+    source : str
+        What the case was read from.
+    case : engine.Case
+    result : engine.Result
+        What ``engine.solve(case)`` returned.
+    capacity : engine.Capacity, optional
+        What ``engine.capacity(case)`` returned; ``capacity`` is null without it.
+
+    Returns
+    -------
+    dict
+        Ready for :func:`json.dumps` with ``allow_nan=False``.
+    """
+    first = result.first_order
+    amplification = result.amplification
+    check = result.check
+    return {
+        "summary_version": SUMMARY_VERSION,
+        "source": source,
+        "title": case.title,
+        "units": "SI: m, N, N·m, Pa",
+        "status": result.status,
+        "stable": bool(result.stable),
+        "message": result.message,
+        "length": _finite(case.length),
+        "EI": _finite(result.EI),
+        "axial_force": _finite(result.axial_force),
+        "critical_loads": [_finite(load) for load in result.critical_loads],
+        "alpha_cr": _finite(result.alpha_cr),
+        "effective_length_factor": _finite(result.buckling.effective_length_factor),
+        "governing": _governing_data(result.governing),
+        "first_order": None if first is None else _governing_data(first.governing),
+        "reactions": {
+            name: _finite(getattr(result.reactions, name))
+            for name in ("left_T", "left_M", "right_T", "right_M")
+        },
+        "amplification": {
+            "moment": _finite(amplification.moment),
+            "deflection": _finite(amplification.deflection),
+            "moment_first_order": _finite(amplification.moment_first_order),
+            "moment_bow_free": _finite(amplification.moment_bow_free),
+            "reference_moment": _finite(amplification.reference_moment),
+            "definitions": _definitions(),
+            "approximations": [
+                {
+                    "name": a.name,
+                    "value": _finite(a.value),
+                    "source": a.source,
+                    "error": _finite(a.error),
+                    "compared_with": a.compared_with,
+                }
+                for a in amplification.approximations
+            ],
+        },
+        "equilibrium": None
+        if result.equilibrium is None
+        else {
+            "transverse": _finite(result.equilibrium.transverse),
+            "moment": _finite(result.equilibrium.moment),
+        },
+        "section": None if result.section is None else result.section.name,
+        "material": None if result.material is None else result.material.name,
+        "bow": None if result.bow is None else result.bow.label,
+        "bow_direction": None
+        if result.bow is None
+        else {
+            "used": result.bow.direction,
+            "governing": result.bow.direction_governing,
+            "favourable": bool(result.bow.favourable),
+            "sway": _finite(result.bow.sway),
+            "compared": [
+                {"direction": d, "strength_utilization": _finite(u), "max_moment": _finite(m)}
+                for d, u, m in result.bow.directions
+            ],
+        },
+        "utilization": _finite(result.utilization),
+        "check": None
+        if check is None
+        else {
+            "method": check.settings.method,
+            "kind": check.kind,
+            "x": _finite(check.x),
+            "utilization": _finite(check.utilization),
+            "strength_utilization": _finite(check.strength_utilization),
+            "strength_kind": check.strength_kind,
+            "valid": check.valid,
+            "fails": bool(check.utilization > 1.0),
+            "section_class": None if check.section_class is None else check.section_class.klass,
+            "out_of_plane": _out_of_plane_data(check.out_of_plane),
+            "deflection_utilization": _finite(check.deflection_utilization),
+            "max_deflection": _finite(check.max_deflection),
+            "deflection_allowed": _finite(check.deflection_allowed),
+            "source": check.source,
+        },
+        "service": None
+        if result.service is None
+        else {
+            "deflection_utilization": _finite(result.service.utilization),
+            "deflection": _finite(result.service.deflection),
+            "x": _finite(result.service.x),
+            "allowed": _finite(result.service.allowed),
+            "basis": result.service.basis,
+            "source": result.service.source,
+        },
+        "capacity": None
+        if capacity is None
+        else {
+            "mode": capacity.mode,
+            "axial_force": _finite(capacity.axial_force),
+            "load_factor": _finite(capacity.load_factor),
+            "check": capacity.check,
+            "x": _finite(capacity.x),
+            "critical_load": _finite(capacity.critical_load),
+            "message": capacity.message,
+        },
+        "cautions": [
+            {"level": c.level, "code": c.code, "message": c.message, "source": c.source}
+            for c in result.cautions
+        ],
+    }
+
+
+def _out_of_plane_data(out) -> dict | None:
+    """The out-of-plane buckling check for the JSON summary (SI)."""
+    if out is None:
+        return None
+    return {
+        "checked": out.checked,
+        "axis": out.axis,
+        "reason": out.reason,
+        "buckling_length": _finite(out.buckling_length),
+        "N_cr": _finite(out.N_cr),
+        "lambda_bar": _finite(out.lambda_bar),
+        "chi": _finite(out.chi),
+        "curve": out.curve,
+        "N_b_Rd": _finite(out.N_b_Rd),
+        "utilization": _finite(out.utilization),
+    }
