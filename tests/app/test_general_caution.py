@@ -2,7 +2,7 @@
 
 import app.cli
 import app.exports
-import app.page
+import app.page.style
 from engine.cautions import GENERAL
 
 
@@ -10,7 +10,7 @@ def test_every_copy_of_the_general_caution_is_the_engines():
     """The CLI's closing line and the page's and calc sheet's fallbacks equal the engine's scope caution."""
     assert GENERAL.message == app.cli.CAUTION
     assert GENERAL.message == app.exports._FALLBACK_CAUTION
-    assert GENERAL.message == app.page._GENERAL_CAUTION
+    assert GENERAL.message == app.page.style.GENERAL_CAUTION
 
 
 def test_the_general_caution_names_what_is_not_checked():
