@@ -129,7 +129,7 @@ def default_load(kind: str, length: float, magnitude: float | None = None) -> di
     kind : str
         One of :data:`LOAD_TYPES`.
     length : float
-        Member length [m], for the default position (mid-span for a point load).
+        Member length [m], for the default position (mid-span for a point load or a couple).
     magnitude : float, optional
         Keep this magnitude [N/m, N or N·m] (when a row changes type).
     """
@@ -144,7 +144,8 @@ def default_load(kind: str, length: float, magnitude: float | None = None) -> di
         return {"type": "linear", "q_start": 0.0, "q_end": 2.0e3 if magnitude is None else magnitude}
     if kind == "point":
         return {"type": "point", "P": 5.0e3 if magnitude is None else magnitude, "x": middle}
-    return {"type": "couple", "C": 5.0e3 if magnitude is None else magnitude, "x": 0.0}
+    # Mid-span, where a couple acts whatever the supports (at a fixed end it would go into the support).
+    return {"type": "couple", "C": 5.0e3 if magnitude is None else magnitude, "x": middle}
 
 
 def load_magnitude(load: Mapping) -> float | None:

@@ -71,9 +71,9 @@ class DiagramsView(pn.viewable.Viewer):
             stylesheets=[WIDGET_CSS],
         )
         self.transverse_toggle.link(self, value="show_transverse")
-        self.panes = [
-            pn.pane.Bokeh(fig, sizing_mode="stretch_both", margin=(0, 4))
-            for fig in (self.sketch.figure, self.fig_w, self.fig_M, self.fig_V)
+        self.panes = [pn.pane.Bokeh(self.sketch.figure, sizing_mode="stretch_width", margin=(0, 4))] + [
+            pn.pane.Bokeh(fig, sizing_mode="stretch_both", min_height=fig.min_height, margin=(0, 4))
+            for fig in (self.fig_w, self.fig_M, self.fig_V)
         ]
         self.panel = pn.Column(
             pn.Row(self.key, self.transverse_toggle, margin=(2, 0, 0, 0), sizing_mode="stretch_width"),
@@ -94,7 +94,8 @@ class DiagramsView(pn.viewable.Viewer):
     def _diagram(self, height: int, *, flipped: bool, x_axis: bool):
         fig = figure(
             height=height,
-            sizing_mode="stretch_width",
+            min_height=height,
+            sizing_mode="stretch_both",  # taller screens give the diagrams their height (1920×1080)
             x_range=self.x_range,
             tools="xpan,xwheel_zoom,reset",
             toolbar_location=None,

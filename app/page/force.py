@@ -40,7 +40,7 @@ class ForceControl(pn.viewable.Viewer):
         default=None, allow_None=True, doc="The first critical load [N] the slider is scaled to."
     )
 
-    def __init__(self, state: MemberState, errors: ErrorPanes, **params) -> None:
+    def __init__(self, state: MemberState, errors: ErrorPanes, beside=None, **params) -> None:
         super().__init__(state=state, **params)
         self.slider = pn.widgets.FloatSlider(
             label="Axial force N",
@@ -56,15 +56,21 @@ class ForceControl(pn.viewable.Viewer):
             stylesheets=[WIDGET_CSS],
         )
         self.slider.param.watch(self._slid, "value")
-        self.slider.param.watch(lambda *_: self.state.settle(), "value_throttled")
+        self.slider.param.watch(self._released, "value_throttled")
         self.entry = pn.widgets.FloatInput(
             label="N", value=None, width=98, format="0[.][000]", stylesheets=[WIDGET_CSS], margin=(2, 4, 0, 4)
         )
         self.entry.param.watch(self._typed, "value")
-        self.readout = html_pane(sizing_mode="fixed", width=250, margin=(2, 2, 0, 4))
+        self.readout = html_pane(width=215, margin=(2, 2, 0, 4))
         self.error = errors.pane("axial_force")
         self.panel = pn.Column(
-            pn.Row(self.slider, self.entry, self.readout, sizing_mode="stretch_width", margin=0),
+            pn.Row(
+                self.slider,
+                self.entry,
+                pn.Column(self.readout, *([beside] if beside is not None else []), margin=0, width=220),
+                sizing_mode="stretch_width",
+                margin=0,
+            ),
             self.error,
             sizing_mode="stretch_width",
             margin=(4, 0, 0, 0),
@@ -101,12 +107,17 @@ class ForceControl(pn.viewable.Viewer):
     # ------------------------------------------------------------------ widget → state
 
     def _slid(self, event) -> None:
-        if not self.pcr1:
+        if not self.pcr1 or event.new is None:
             return
-        force = self.force_at(event.new)
         if self.state.axial_force is not None and self.position_of(self.state.axial_force) == event.new:
             return  # the slider shows the state's force already
-        self.state.axial_force = force
+        self.state.axial_force = self.force_at(event.new)
+
+    def _released(self, event) -> None:
+        # The browser sends the released value with the last drag value, in either order: the force is taken
+        # from the released value itself, so that the link never holds the step before the last one.
+        self._slid(event)
+        self.state.settle()
 
     def _typed(self, event) -> None:
         U = units(self.state.units)

@@ -3,7 +3,7 @@
 Layout (1280×720): a header (title, units, the exports and a copy of the link), the inputs on the left in five
 tabs, the axial-force control and the keep button above the diagrams in the centre (with the amplification
 chart, the buckling modes and the variants in tabs beside the diagrams), and the governing values and the
-cautions on the right. Below 1280 px wide the page scrolls sideways rather than cut anything off.
+cautions on the right. Below 1180 px wide the page scrolls sideways rather than cut anything off.
 """
 
 from __future__ import annotations
@@ -30,8 +30,9 @@ __all__ = ["MemberPage"]
 
 _log = logging.getLogger(__name__)
 
-#: The narrowest the page lays itself out [px]; a narrower window scrolls sideways.
-MIN_WIDTH = 1000
+#: The narrowest the page lays itself out [px]; a narrower window (1024×768) scrolls sideways, so nothing is
+#: cut off that cannot be scrolled into view.
+MIN_WIDTH = 1180
 
 
 class MemberPage(pn.viewable.Viewer):
@@ -53,18 +54,18 @@ class MemberPage(pn.viewable.Viewer):
         self.errors = ErrorPanes(state)
         self.files = FilesView(state, signatures=self._signatures)
         self.inputs = InputsView(state, self.errors)
-        self.force = ForceControl(state, self.errors)
+        self.variants = VariantsView(state)
+        self.force = ForceControl(state, self.errors, beside=self.variants.keep_button)
         self.diagrams = DiagramsView(state)
         self.amplification = AmplificationView(state)
         self.modes = ModesView(state, self.diagrams.x_range)
-        self.variants = VariantsView(state)
         self.values = ValuesView(state)
         self.cautions = CautionsView(state)
         self.variants.param.watch(lambda event: setattr(self.diagrams, "variants", event.new), ["kept"])
         self.stale = html_pane(visible=False, margin=(0, 8, 2, 8))
         self.notice = html_pane(margin=(0, 5))
         self.general_error = self.errors.pane("case", "schema", "stations", exact=True)
-        self.header_title = html_pane(min_width=80, margin=(18, 10, 0, 4))
+        self.header_title = html_pane(min_width=60, margin=(18, 10, 0, 4), styles={"flex": "1 1 0"})
         self.units_switch = pn.widgets.RadioButtonGroup(
             options={"SI": "si", "US": "us"},
             value=state.units,
@@ -169,17 +170,17 @@ class MemberPage(pn.viewable.Viewer):
             margin=0,
         )
         self.centre_tabs = pn.Tabs(
-            self.diagrams,
-            self.amplification,
-            self.modes,
-            self.variants,
+            ("Diagrams", self.diagrams),
+            ("Amplification", self.amplification),
+            ("Buckling modes", self.modes),
+            ("Variants", self.variants),
             dynamic=True,  # only the shown tab is built and sent: the first page draws sooner
             sizing_mode="stretch_both",
             margin=0,
             stylesheets=[WIDGET_CSS],
         )
         centre = pn.Column(
-            pn.Row(self.force, self.variants.keep_button, sizing_mode="stretch_width", margin=0),
+            self.force,
             self.stale,
             self.files.blocked,
             self.general_error,
@@ -192,7 +193,7 @@ class MemberPage(pn.viewable.Viewer):
         right = pn.Column(
             self.values,
             self.cautions,
-            width=372,
+            width=350,
             sizing_mode="stretch_height",
             margin=(0, 6, 4, 0),
             styles={"background": "#ffffff"},

@@ -96,7 +96,7 @@ CSS = """
 .ss-error { color: #a3261b; font-size: 12.5px; line-height: 1.3; background: #fbeceb;
             border-left: 3px solid #a3261b; padding: 3px 6px; margin: 0; }
 .ss-note { color: var(--ss-muted); font-size: 12px; line-height: 1.3; }
-.ss-readout { font-size: 13.5px; line-height: 1.5; white-space: nowrap; }
+.ss-readout { font-size: 13.5px; line-height: 1.45; white-space: nowrap; }
 .ss-readout b { font-size: 15px; }
 .ss-badge { display: inline-block; padding: 1px 7px; border-radius: 3px; font-size: 12px; font-weight: 700;
             color: #fff; letter-spacing: 0.03em; }
@@ -104,13 +104,16 @@ CSS = """
 .ss-stale, .ss-near { background: #8a5a00; }
 .ss-stale-mark { font-size: 12px; font-weight: 700; color: #8a5a00; margin: 2px 3px; }
 .ss-stale-values { opacity: 0.45; }
-table.ss-values { border-collapse: collapse; width: 100%; font-size: 12.5px; line-height: 1.2; }
+table.ss-values { border-collapse: collapse; width: 100%; table-layout: fixed; font-size: 12.5px;
+                  line-height: 1.2; }
+table.ss-values col.q { width: 34%; } table.ss-values col.v { width: 38%; }
+table.ss-values col.f { width: 28%; }
 table.ss-values th { text-align: left; font-weight: 700; color: var(--ss-muted); font-size: 12px;
                      text-transform: uppercase; letter-spacing: 0.04em; padding: 4px 3px 1px 3px;
                      border-bottom: 1px solid var(--ss-rule); }
-table.ss-values td { padding: 1px 3px; vertical-align: top; }
-table.ss-values td.q { color: var(--ss-muted); white-space: nowrap; }
-table.ss-values td.v { font-weight: 600; white-space: nowrap; }
+table.ss-values td { padding: 1px 3px; vertical-align: top; overflow-wrap: anywhere; }
+table.ss-values td.q { color: var(--ss-muted); }
+table.ss-values td.v { font-weight: 600; }
 table.ss-values td.f { color: var(--ss-muted); }
 table.ss-values tr.danger td.v { color: #a3261b; }
 table.ss-values tr.warn td.v { color: #8a5a00; }
@@ -163,7 +166,7 @@ html, body {
   font-family: "DejaVu Sans", "Segoe UI", "Helvetica Neue", Arial, sans-serif;
   font-size: 14px;
   margin: 0;
-  overflow-x: hidden;
+  overflow-x: auto;
 }
 """
 

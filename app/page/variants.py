@@ -67,9 +67,9 @@ class VariantsView(pn.viewable.Viewer):
         self.keep_button = pn.widgets.Button(
             label=self._keep_label(),
             color="default",
-            width=150,
-            height=30,
-            margin=(18, 6, 0, 4),
+            width=170,
+            height=28,
+            margin=(2, 4, 0, 4),
             stylesheets=[WIDGET_CSS],
             description="keep the current result to compare (up to four, overlaid on the diagrams)",
         )

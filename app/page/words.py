@@ -171,7 +171,8 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
         row(symbols(approximation.name), ratio_text(approximation.value), error)
     if not amplification.approximations:
         row("approximations", "none at or beyond Pcr1")
-    return "<table class='ss-values'>" + "".join(rows) + "</table>"
+    columns = "<colgroup><col class='q'><col class='v'><col class='f'></colgroup>"
+    return "<table class='ss-values'>" + columns + "".join(rows) + "</table>"
 
 
 _SYMBOLS = (("alpha_cr", "α<sub>cr</sub>"), ("lambda_bar", "λ̄"), ("psi", "ψ"), ("chi", "χ"))
