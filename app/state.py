@@ -208,15 +208,25 @@ class MemberState(MemberInputs):
         self._settled_axial_force = self.axial_force
         self._write_link()
 
+    def link_now(self) -> str:
+        """The case on screen as link text (compact JSON), with the axial force as it is now, settled or not.
+
+        Raises ``ValueError`` for a value JSON cannot hold (an infinite number typed).
+        """
+        return self._link_text(self.axial_force)
+
+    def _link_text(self, axial_force) -> str:
+        return json.dumps(
+            self.case_mapping(axial_force=axial_force),
+            separators=(",", ":"),
+            ensure_ascii=False,
+            allow_nan=False,
+            sort_keys=True,
+        )
+
     def _write_link(self) -> None:
         try:
-            text = json.dumps(
-                self.case_mapping(axial_force=self._settled_axial_force),
-                separators=(",", ":"),
-                ensure_ascii=False,
-                allow_nan=False,
-                sort_keys=True,
-            )
+            text = self._link_text(self._settled_axial_force)
         except (ValueError, TypeError):
             # A refused value (1e400 typed is infinite): the engine's message names it next to the input; the
             # link keeps the last case it could hold (issue 11: this logged a traceback with the whole case).

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import io
 import logging
+import urllib.parse
 
 import panel as pn
 import param
@@ -22,10 +23,11 @@ __all__ = ["FilesView"]
 
 _log = logging.getLogger(__name__)
 
-# Copies the page's address (which the page keeps equal to the case on screen) to the clipboard; where the
-# browser refuses the clipboard (a page not served from this computer), the address is selected in a prompt.
+# Copies the page's address with the case on screen (kept by the server in a hidden field, the axial force
+# included even before the slider is released) to the clipboard; where the browser refuses the clipboard (a
+# page not served from this computer), the address is shown in a prompt to copy.
 _COPY_LINK = """
-const url = window.location.href;
+const url = window.location.origin + window.location.pathname + '?' + query.value;
 const done = () => { button.label = 'Link copied'; setTimeout(() => { button.label = 'Copy link'; }, 2500); };
 if (navigator.clipboard && window.isSecureContext) {
   navigator.clipboard.writeText(url).then(done, () => window.prompt('Copy this link', url));
@@ -56,7 +58,8 @@ class FilesView(pn.viewable.Viewer):
             stylesheets=[WIDGET_CSS],
             description="copy the address of this page: it reopens the case on screen",
         )
-        self.copy_button.js_on_click(args={"button": self.copy_button}, code=_COPY_LINK)
+        self.query = pn.widgets.TextInput(value="", visible=False)
+        self.copy_button.js_on_click(args={"button": self.copy_button, "query": self.query}, code=_COPY_LINK)
         self.upload = pn.widgets.FileInput(
             accept=".json,application/json",
             width=280,
@@ -67,7 +70,7 @@ class FilesView(pn.viewable.Viewer):
         self.upload.param.watch(self._uploaded, "value")
         self.upload_message = html_pane(margin=(0, 5, 2, 5))
         self.blocked = html_pane(visible=False, margin=(0, 8, 2, 8))
-        self.panel = pn.Row(*self.buttons, self.copy_button, margin=0)
+        self.panel = pn.Row(*self.buttons, self.copy_button, self.query, margin=0)
         self.case_file = pn.Column(
             html_pane("<div class='ss-heading'>Open a case file (JSON)</div>", margin=(4, 5, 0, 5)),
             self.upload,
@@ -77,6 +80,8 @@ class FilesView(pn.viewable.Viewer):
             sizing_mode="stretch_width",
         )
         state.param.watch(lambda *_: self.draw(), ["result", "errors"])
+        state.param.watch(lambda *_: self.write_query(), ["result", "errors", "units", "link"])
+        self.write_query()
         self.draw()
 
     def __panel__(self):
@@ -143,6 +148,16 @@ class FilesView(pn.viewable.Viewer):
         self.blocked.visible = bool(refused)
         if not self.state.errors and "ss-error" in self.upload_message.object:
             self.upload_message.object = ""  # a later edit succeeded: the upload's refusal is history
+
+    def write_query(self) -> None:
+        """The query of a link to the case on screen (``case`` as JSON and ``units``), for the copy button."""
+        try:
+            query = {"case": self.state.link_now(), "units": self.state.units}
+        except (ValueError, TypeError):
+            return  # a value JSON cannot hold is refused beside its input; the last link stays
+        text = urllib.parse.urlencode(query)
+        if self.query.value != text:
+            self.query.value = text
 
     # ------------------------------------------------------------------ upload
 

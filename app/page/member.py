@@ -57,8 +57,14 @@ class MemberPage(pn.viewable.Viewer):
         self.variants = VariantsView(state)
         self.force = ForceControl(state, self.errors, beside=self.variants.keep_button)
         self.diagrams = DiagramsView(state)
-        self.amplification = AmplificationView(state)
-        self.modes = ModesView(state, self.diagrams.x_range)
+        # The amplification chart and the modes are built when first shown (or first asked for): about a
+        # sixth of the page's build at start-up, for tabs that most sessions open later or never.
+        self._later = {
+            1: lambda: AmplificationView(state),
+            2: lambda: ModesView(state, self.diagrams.x_range),
+        }
+        self._holders = {index: pn.Column(sizing_mode="stretch_both", margin=0) for index in self._later}
+        self._built: dict[int, pn.viewable.Viewer] = {}
         self.values = ValuesView(state)
         self.cautions = CautionsView(state)
         self.variants.param.watch(lambda event: setattr(self.diagrams, "variants", event.new), ["kept"])
@@ -123,6 +129,22 @@ class MemberPage(pn.viewable.Viewer):
         """The message about the last upload."""
         return self.files.upload_message
 
+    @property
+    def amplification(self) -> AmplificationView:
+        """The amplification chart's view (built now if its tab was never shown)."""
+        return self._view(1)
+
+    @property
+    def modes(self) -> ModesView:
+        """The buckling modes' view (built now if its tab was never shown)."""
+        return self._view(2)
+
+    def _view(self, index: int):
+        if index in self._later and index not in self._built:
+            self._built[index] = view = self._later[index]()
+            self._holders[index].objects = [view]
+        return self._built.get(index)
+
     def keep_variant(self) -> None:
         """Keep the current result as a variant."""
         self.variants.keep()
@@ -171,14 +193,15 @@ class MemberPage(pn.viewable.Viewer):
         )
         self.centre_tabs = pn.Tabs(
             ("Diagrams", self.diagrams),
-            ("Amplification", self.amplification),
-            ("Buckling modes", self.modes),
+            ("Amplification", self._holders[1]),
+            ("Buckling modes", self._holders[2]),
             ("Variants", self.variants),
             dynamic=True,  # only the shown tab is built and sent: the first page draws sooner
             sizing_mode="stretch_both",
             margin=0,
             stylesheets=[WIDGET_CSS],
         )
+        self.centre_tabs.param.watch(lambda event: self._view(event.new), "active")
         centre = pn.Column(
             self.force,
             self.stale,

@@ -332,3 +332,58 @@ def test_upload_json_with_io():
     upload(second, text.encode(), "again.json")
     assert second.model.to_case() == page.model.result.case
     assert isinstance(page.files.csv(), io.StringIO)
+
+
+def test_hidden_tabs_are_built_when_first_shown(page):
+    """The amplification and modes tabs hold nothing until shown; shown, they hold their chart."""
+    tabs = page.centre_tabs
+    assert len(tabs[1].objects) == 0 and len(tabs[2].objects) == 0
+    tabs.active = 1
+    assert len(tabs[1].objects) == 1 and len(tabs[2].objects) == 0
+    assert len(page.amplification.sweep_source.data["n"]) > 100
+
+
+def test_amplification_chart_shows_the_useful_range_with_its_legend_outside(page):
+    """The chart opens on N/Pcr1 from −1 to 1.5 (the useful range), its legend below the plot, labels inside."""
+    figure = page.amplification.figure
+    assert figure.x_range.start == pytest.approx(-1.05) and figure.x_range.end == pytest.approx(1.5)
+    assert any(type(item).__name__ == "Legend" for item in figure.below)
+    assert not any(type(item).__name__ == "Legend" for item in figure.center)
+    n = page.amplification.critical_source.data["n"]
+    assert n[0] == pytest.approx(1.0)  # Pcr1's label sits left of its line, inside the range shown
+
+
+def test_near_the_critical_load_the_badge_warns_and_the_engine_cautions(page):
+    """From N/Pcr1 = 0.9 the readout's badge reads "near Pcr1" and the engine adds a danger caution."""
+    pcr1 = page.model.result.critical_loads[0]
+    page.force_input.value = 0.89 * pcr1 * 1e-3
+    assert "near Pcr1" not in page.force.readout.object
+    assert "near-critical-load" not in page.cautions.list.object
+    page.force_input.value = 0.9 * pcr1 * 1e-3
+    assert "near Pcr1" in page.force.readout.object
+    assert "data-code='near-critical-load'" in page.cautions.list.object
+    # 1/(1 - 0.9) = 10 (Timoshenko & Gere (1961) ch. 1, the amplification factor)
+    assert "about 10 times the first-order ones" in page.cautions.list.object
+
+
+def test_messages_use_the_page_names_of_the_fields(page):
+    """An engine message on loads[1].x reads "Load 2, position" beside the row and in the banner."""
+    page.length_input.value = 2.0  # the point load at 2.2 m is now beyond the member
+    assert any("Load 2, position: 2.2 m" in text for text in visible_errors(page))
+    assert "Load 2, position" in page.stale.object and "loads[1]" not in page.stale.object
+    assert all(button.disabled for button in page.files.buttons)
+    assert "Load 2, position" in page.files.blocked.object and page.files.blocked.visible
+    page.length_input.value = 6.0
+    assert not any(button.disabled for button in page.files.buttons)
+
+
+def test_variant_names_say_what_differs_and_can_be_edited(page):
+    """The first variant is named by N; the next by what differs (here the section); a name can be changed."""
+    page.keep_variant()
+    page.model.section_name = "HEB 240"
+    page.keep_variant()
+    names = [v["name"] for v in page.variants.kept]
+    assert names == ["A: N 350.0 kN", "B: HEB 240"]
+    page.variants.names[1].value = "B: heavier post"
+    assert page.variants.kept[1]["name"] == "B: heavier post"
+    assert "heavier post" in page.diagrams.key.object and "heavier post" in page.variants.table.object

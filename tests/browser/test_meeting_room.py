@@ -1,4 +1,4 @@
-"""The page as a room sees it on a projector (issue 13): what a person reads at 1280×720, 1024×768 and 1920×1080.
+"""The page as a room sees it on a projector (issue 13): what a person reads at 1280×720, 1024×768, 1920×1080.
 
 Each test checks what is on screen (visible, inside the window, not covered, not clipped), not merely that an
 element exists.
@@ -40,7 +40,7 @@ def not_clipped(locator) -> bool:
 
 
 def test_a_copied_link_reopens_the_case_on_screen_in_a_fresh_browser(browser, server):
-    """After edits, a slider step and a units switch, the copied link opens the same values in a new context."""
+    """After edits, a slider step and a units switch, the copied link opens the same values elsewhere."""
     first = browser.new_context(viewport=VIEWPORT)
     second = browser.new_context(viewport=VIEWPORT)
     try:
@@ -52,11 +52,12 @@ def test_a_copied_link_reopens_the_case_on_screen_in_a_fresh_browser(browser, se
         expect(page.get_by_label("Span L [m]", exact=True)).to_have_value("7")
         page.get_by_role("button", name="US").click()
         expect(page.get_by_label("Span L [ft]", exact=True)).to_have_value(re.compile(r"^22\.9659"))
+        readout = page.locator(".ss-readout").first
+        expect(readout).to_contain_text("78.683 kip")  # 350 kN (1 kip = 4448.22 N, same source)
         handle = page.locator(".noUi-handle").first
         handle.focus()
         handle.press("ArrowRight")  # one slider step: the link must carry it, not the step before
-        readout = page.locator(".ss-readout").first
-        expect(readout).not_to_contain_text("78.683")  # 350 kN in kip, before the step
+        expect(readout).not_to_contain_text("78.683 kip")
         shown = readout.inner_text()
         pcr1 = value_cell(page, "Pcr1").inner_text()
         page.get_by_role("button", name="Copy link").click()
@@ -76,7 +77,7 @@ def test_a_copied_link_reopens_the_case_on_screen_in_a_fresh_browser(browser, se
 
 
 def test_every_caution_is_readable_with_no_bow_and_near_the_critical_load(app):
-    """With no bow the bow-below-code warning shows; at 0.95·Pcr1 a warning badge and a danger caution show."""
+    """With no bow the bow-below-code warning shows; at 0.95·Pcr1 a warning badge and a danger caution."""
     page = app.page
     tab(page, "Bow")
     page.get_by_label("Initial bow from").select_option(label="shape and amplitude")
@@ -129,7 +130,7 @@ def test_the_values_table_fits_its_panel_with_symbols(context, server, width, he
 
 
 def test_a_refused_input_dims_the_values_and_blocks_the_exports(app):
-    """L = 2 m with a load at 2.2 m: the message names "Load 2, position", the values are marked, no export."""
+    """L = 2 m, a load at 2.2 m: the message names "Load 2, position"; values marked; no export."""
     page = app.page
     set_number(page, "Span L [m]", 2)
     message = page.locator(".ss-error").filter(has_text="Load 2, position: 2.2 m").first
@@ -147,7 +148,7 @@ def test_a_refused_input_dims_the_values_and_blocks_the_exports(app):
 
 
 def test_variants_are_named_compared_and_kept_from_every_tab(app):
-    """Keep is in view on every centre tab; a variant's default name says what differs, and it can be renamed."""
+    """Keep is in view on every centre tab; a variant's default name says what differs; it can be renamed."""
     page = app.page
     keep = page.get_by_role("button", name=re.compile(r"^Keep as variant"))
     for title in ("Amplification", "Buckling modes", "Variants", "Diagrams"):
@@ -199,7 +200,7 @@ def test_a_stale_upload_error_clears_after_a_good_edit(app, tmp_path):
 
 
 def test_at_1024_by_768_everything_can_be_scrolled_into_view(browser, server):
-    """At 1024×768 the PDF button, the copy-link button, the values and every caution can be brought into view."""
+    """At 1024×768 the PDF and copy-link buttons, the values and every caution can be scrolled into view."""
     viewport = {"width": 1024, "height": 768}
     ctx = browser.new_context(viewport=viewport)
     ctx.set_default_timeout(TIMEOUT_MS)
