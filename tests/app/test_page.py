@@ -344,7 +344,7 @@ def test_hidden_tabs_are_built_when_first_shown(page):
 
 
 def test_amplification_chart_shows_the_useful_range_with_its_legend_outside(page):
-    """The chart opens on N/Pcr1 from −1 to 1.5 (the useful range), its legend below the plot, labels inside."""
+    """The chart opens on N/Pcr1 from −1 to 1.5 (the useful range), its legend below the plot."""
     figure = page.amplification.figure
     assert figure.x_range.start == pytest.approx(-1.05) and figure.x_range.end == pytest.approx(1.5)
     assert any(type(item).__name__ == "Legend" for item in figure.below)
