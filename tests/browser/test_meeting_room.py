@@ -4,6 +4,7 @@ Each test checks what is on screen (visible, inside the window, not covered, not
 element exists.
 """
 
+import contextlib
 import json
 import re
 import urllib.parse
@@ -200,13 +201,21 @@ def test_a_stale_upload_error_clears_after_a_good_edit(app, tmp_path):
     expect(message).to_have_count(0)
 
 
-def test_at_1024_by_768_everything_can_be_scrolled_into_view(browser, server):
-    """At 1024×768 the PDF and copy-link buttons, the values and every caution can be scrolled into view."""
-    viewport = {"width": 1024, "height": 768}
+@contextlib.contextmanager
+def page_at(browser, server, viewport):
+    """The demo page in a fresh context of window size `viewport`."""
     ctx = browser.new_context(viewport=viewport)
     ctx.set_default_timeout(TIMEOUT_MS)
     try:
-        page = open_page(ctx, server.url).page
+        yield open_page(ctx, server.url).page
+    finally:
+        ctx.close()
+
+
+def test_at_1024_by_768_everything_can_be_scrolled_into_view(browser, server):
+    """At 1024×768 the PDF and copy-link buttons, the values and every caution can be scrolled into view."""
+    viewport = {"width": 1024, "height": 768}
+    with page_at(browser, server, viewport) as page:
         for locator in (
             page.get_by_role("button", name="Calc sheet PDF"),
             page.get_by_role("button", name="Copy link"),
@@ -217,21 +226,14 @@ def test_at_1024_by_768_everything_can_be_scrolled_into_view(browser, server):
         items = page.locator("ul.ss-cautions li")
         for i in range(items.count()):
             assert inside_window(items.nth(i).locator(".lvl"), viewport)
-    finally:
-        ctx.close()
 
 
 def test_at_1920_by_1080_the_diagrams_use_the_height(browser, server):
     """On a full-HD screen the three diagrams grow with the window rather than leave its lower half empty."""
     viewport = {"width": 1920, "height": 1080}
-    ctx = browser.new_context(viewport=viewport)
-    ctx.set_default_timeout(TIMEOUT_MS)
-    try:
-        page = open_page(ctx, server.url).page
+    with page_at(browser, server, viewport) as page:
         canvases = page.locator(".bk-Figure canvas")
         expect(canvases.first).to_be_visible()
         boxes = [canvases.nth(i).bounding_box() for i in range(canvases.count())]
         shown = [box for box in boxes if box and box["height"] > 0]
         assert max(box["y"] + box["height"] for box in shown) > 0.85 * viewport["height"]
-    finally:
-        ctx.close()
