@@ -61,13 +61,13 @@ class ForceControl(pn.viewable.Viewer):
             label="N", value=None, width=98, format="0[.][000]", stylesheets=[WIDGET_CSS], margin=(2, 4, 0, 4)
         )
         self.entry.param.watch(self._typed, "value")
-        self.readout = html_pane(width=215, margin=(2, 2, 0, 4))
+        self.readout = html_pane(width=250, margin=(2, 2, 0, 4))
         self.error = errors.pane("axial_force")
         self.panel = pn.Column(
             pn.Row(
                 self.slider,
                 self.entry,
-                pn.Column(self.readout, *([beside] if beside is not None else []), margin=0, width=220),
+                pn.Column(self.readout, *([beside] if beside is not None else []), margin=0, width=256),
                 sizing_mode="stretch_width",
                 margin=0,
             ),
@@ -169,7 +169,7 @@ class ForceControl(pn.viewable.Viewer):
             status = "near"
         alpha = "∞" if math.isinf(result.alpha_cr) else ratio_text(result.alpha_cr)
         self.readout.object = (
-            f"<div class='ss-readout'><b>{esc(U.show('force', P, digits=5))}</b> {kind} "
+            f"<div class='ss-readout'><b>{esc(U.show('force', P, digits=5))}</b> "
             f"<span class='ss-badge ss-{status}'>{_BADGES.get(status, status)}</span><br>"
-            f"N/Pcr1 <b>{ratio:.3f}</b> · α<sub>cr</sub> <b>{esc(alpha)}</b></div>"
+            f"{kind} · N/Pcr1 <b>{ratio:.3f}</b> · α<sub>cr</sub> <b>{esc(alpha)}</b></div>"
         )

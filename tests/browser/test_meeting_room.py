@@ -33,6 +33,13 @@ def inside_window(locator, viewport=VIEWPORT) -> bool:
     )
 
 
+def left_of_the_values(page, locator) -> bool:
+    """Whether the element ends left of the right-hand column (the centre column does not run under it)."""
+    right = locator.bounding_box()
+    column = page.locator(".ss-heading", has_text="Governing values").bounding_box()
+    return right["x"] + right["width"] <= column["x"] + 0.5
+
+
 def not_clipped(locator) -> bool:
     """Whether the element's text fits its box (nothing cut off on the right or below)."""
     return locator.evaluate(
@@ -91,7 +98,7 @@ def test_every_caution_is_readable_with_no_bow_and_near_the_critical_load(app):
     set_number(page, "N [kN]", round(0.95 * pcr1))
     badge = page.locator(".ss-badge")
     expect(badge).to_have_text("near Pcr1")
-    assert _uncovered(page, badge) and inside_window(badge)
+    assert _uncovered(page, badge) and inside_window(badge) and left_of_the_values(page, badge)
     danger = page.locator("li[data-code='near-critical-load']")
     expect(danger).to_be_visible()
     assert _uncovered(page, danger) and inside_window(danger)
@@ -108,7 +115,8 @@ def test_the_readout_is_whole_in_tension(app):
     assert not_clipped(readout)
     badge = page.locator(".ss-badge")
     expect(badge).to_have_text("stable")
-    assert inside_window(badge) and _uncovered(page, badge)
+    assert inside_window(badge) and _uncovered(page, badge) and left_of_the_values(page, badge)
+    assert left_of_the_values(page, readout)
 
 
 @pytest.mark.parametrize("width, height", [(1280, 720), (1920, 1080)])
