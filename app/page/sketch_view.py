@@ -62,55 +62,36 @@ class SketchView(param.Parameterized):
             line_color=MEMBER,
             line_width=1.5,
         )
-        sketch.add_layout(
-            Arrow(
-                end=VeeHead(size=7, line_color=LOAD, line_width=1.6),
-                source=self.arrows,
-                x_start="x0",
-                y_start="y0",
-                x_end="x1",
-                y_end="y1",
-                line_color=LOAD,
-                line_width=1.6,
+        for source, colour, head, width in ((self.arrows, LOAD, 7, 1.6), (self.axial_arrows, MEMBER, 9, 2.5)):
+            sketch.add_layout(
+                Arrow(
+                    end=VeeHead(size=head, line_color=colour, line_width=min(width, 2.0)),
+                    source=source,
+                    x_start="x0",
+                    y_start="y0",
+                    x_end="x1",
+                    y_end="y1",
+                    line_color=colour,
+                    line_width=width,
+                )
             )
-        )
-        sketch.add_layout(
-            Arrow(
-                end=VeeHead(size=9, line_color=MEMBER, line_width=2),
-                source=self.axial_arrows,
-                x_start="x0",
-                y_start="y0",
-                x_end="x1",
-                y_end="y1",
-                line_color=MEMBER,
-                line_width=2.5,
+        for source, size, baseline, style in (
+            (self.text, "12px", "baseline", "normal"),
+            (self.axial_text, "12.5px", None, "bold"),
+        ):
+            sketch.add_layout(
+                LabelSet(
+                    x="x",
+                    y="y",
+                    text="text",
+                    text_align="align",
+                    text_baseline=baseline or "middle",
+                    source=source,
+                    text_font_size=size,
+                    text_color=MEMBER,
+                    text_font_style=style,
+                )
             )
-        )
-        sketch.add_layout(
-            LabelSet(
-                x="x",
-                y="y",
-                text="text",
-                text_align="align",
-                text_baseline="baseline",
-                source=self.text,
-                text_font_size="12px",
-                text_color=MEMBER,
-            )
-        )
-        sketch.add_layout(
-            LabelSet(
-                x="x",
-                y="y",
-                text="text",
-                text_align="align",
-                text_baseline="middle",
-                source=self.axial_text,
-                text_font_size="12.5px",
-                text_color=MEMBER,
-                text_font_style="bold",
-            )
-        )
         self.figure = sketch
 
     def draw(self) -> None:
