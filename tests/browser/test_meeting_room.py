@@ -75,6 +75,12 @@ def test_a_copied_link_reopens_the_case_on_screen_in_a_fresh_browser(browser, se
         assert query["units"] == ["us"]
         case = json.loads(query["case"][0])  # JSON, never a Python mapping's text
         assert case["length"] == pytest.approx(7.0)
+
+        def same_in_the_address_bar(url: str) -> bool:
+            bar = urllib.parse.parse_qs(urllib.parse.urlparse(url).query)
+            return bar.get("units") == ["us"] and "case" in bar and json.loads(bar["case"][0]) == case
+
+        page.wait_for_url(same_in_the_address_bar)  # the address bar holds the same case, the step included
         again = open_page(second, link).page
         # the readout's <br> reads as a line break in inner_text and as nothing in the text compared
         expect(again.locator(".ss-readout").first).to_have_text(shown.replace("\n", ""))
