@@ -151,6 +151,11 @@ class MemberState(MemberInputs):
         self._refresh(full=True)
         self._write_link()
 
+    @property
+    def runner(self):
+        """The :class:`app.work.Runner` a served page solves through, or None (everything solved at once)."""
+        return self._runner
+
     @classmethod
     def from_case(cls, case, **params: Any) -> MemberState:
         """A state holding `case` (an :class:`engine.Case`), solved once."""

@@ -177,7 +177,7 @@ class LoadsView(pn.viewable.Viewer):
         self._generation += 1
         self.errors.clear()  # the rows' error panes go with the rows
         self.rows = []
-        runner = self.state._runner
+        runner = self.state.runner
         now = len(loads) if runner is None else min(len(loads), ROWS_AT_ONCE)
         self.rows = [
             LoadRow(self.state, index, loads[index].get("type"), self.errors) for index in range(now)
