@@ -17,7 +17,6 @@ import socket
 import sys
 import threading
 import weakref
-from functools import partial
 from importlib import resources
 
 __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", "serve"]
@@ -143,14 +142,10 @@ def make_page(case=None):
     state = MemberState.from_case(case if case is not None else _demo_case(), runner=runner)
     if pn.state.location is not None:
         # The link is the settled case (never the axial force while it is dragged); see MemberState.link.
-        # Synced before the page is built, so that the page opens on the link's case.
-        # A bad value is named in the page's notice (issue 11: it silently opened the demo case).
-        units = _link_units(pn.state.session_args)
-        pn.state.location.sync(
-            state, {"link": "case", "units": "units"}, on_error=partial(_link_refused, state, units)
-        )
-        if units and units not in _UNITS:
-            _link_refused(state, units, {})
+        # Read before the page is built, so that the page opens on the link's case; a bad value is named in
+        # the page's notice (issue 11: it silently opened the demo case).
+        _open_link(state, pn.state.session_args)
+        _mirror_link(state, pn.state.location)
     page = MemberPage(state)
     if document is not None and document.session_context is not None:
         _guard_upload_size(document)
@@ -214,6 +209,46 @@ def _guard_upload_size(document) -> None:
     from app.page import UPLOAD_LIMIT
 
     document.js_on_event("document_ready", CustomJS(code=_UPLOAD_GUARD_JS % {"limit": UPLOAD_LIMIT}))
+
+
+def _link_text(args, key: str) -> str:
+    """The value of `key` in the page's address, as text ('' when none)."""
+    values = (args or {}).get(key) or []
+    if not values:
+        return ""
+    value = values[-1]
+    return value.decode("utf-8", "replace") if isinstance(value, bytes) else str(value)
+
+
+def _open_link(state, args) -> None:
+    """Put the address's units and case into `state` (the case is read, or refused with a message)."""
+    units = _link_units(args)
+    if units in _UNITS:
+        state.units = units
+    elif units:
+        _link_refused(state, units, {})
+    case = _link_text(args, "case")
+    if case:
+        state.link = case
+
+
+def _mirror_link(state, location) -> None:
+    """Keep the page's address equal to the settled case and the units: always JSON text, never late.
+
+    The address is written here, whole, on every change of either (Panel's own URL sync decoded the case's
+    JSON into a mapping and, on a units switch, wrote that mapping back as Python text).
+    """
+    import urllib.parse
+
+    def write(*events) -> None:
+        link = state.link if isinstance(state.link, str) else ""
+        query = {"case": link, "units": state.units} if link else {"units": state.units}
+        search = "?" + urllib.parse.urlencode(query)
+        if location.search != search:
+            location.search = search
+
+    state.param.watch(write, ["link", "units"])
+    write()
 
 
 def _link_units(args) -> str:

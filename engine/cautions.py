@@ -11,7 +11,7 @@ from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
 
-__all__ = ["Caution", "GENERAL", "LEVELS", "assess"]
+__all__ = ["Caution", "GENERAL", "LEVELS", "NEAR_CRITICAL_RATIO", "assess"]
 
 LEVELS = ("info", "warning", "danger")
 
@@ -64,6 +64,13 @@ _UNCLASSIFIED = Caution(
     ),
     source="EN 1993-1-1:2005 §5.5 and Table 5.2; AISC 360-16 Table B4.1",
 )
+
+
+#: N/Pcr1 from which a stable result is marked as near the critical load (a danger caution, and a warning
+#: badge on the page). At 0.9 the moments are amplified about 10 times, and a 10 % error in EI or in the
+#: critical load (a cracked or yielding part, a support softer than assumed) reaches instability: the result
+#: no longer deserves trust without a check of those inputs. Common practice, no source.
+NEAR_CRITICAL_RATIO = 0.9
 
 
 def _class_cautions(check) -> list:
@@ -182,7 +189,23 @@ def assess(
                 source="Euler; Timoshenko & Gere (1961) ch. 2",
             )
         )
-    elif P > 0 and alpha_cr < alpha_cr_limit:
+    elif P > 0 and P / pcr1 >= NEAR_CRITICAL_RATIO:
+        out.append(
+            Caution(
+                level="danger",
+                code="near-critical-load",
+                message=(
+                    f"The axial force is {P / pcr1:.3g} times the first critical load: the moments are "
+                    f"about {1.0 / (1.0 - P / pcr1):.3g} times the first-order ones, and an error of "
+                    f"{100.0 * (1.0 - P / pcr1):.3g} % in the stiffness EI or in the critical load makes "
+                    "the member buckle. Check EI, the supports and the effective length before using "
+                    "these results."
+                ),
+                source="Timoshenko & Gere (1961) ch. 1 (amplification 1/(1 − N/Pcr1)); threshold "
+                "common practice, no source",
+            )
+        )
+    if status == "stable" and P > 0 and alpha_cr < alpha_cr_limit:
         out.append(
             Caution(
                 level="warning",

@@ -3,7 +3,7 @@
 import pathlib
 
 import app.cli
-import app.page
+import app.page.style
 import app.report
 from engine.cautions import GENERAL
 
@@ -12,7 +12,7 @@ def test_every_copy_of_the_general_caution_is_the_engines():
     """The CLI's closing line and the page's and calc sheet's fallbacks equal the engine's scope caution."""
     assert GENERAL.message == app.cli.CAUTION
     assert GENERAL.message == app.report.general_caution()
-    assert GENERAL.message == app.page._GENERAL_CAUTION
+    assert GENERAL.message == app.page.style.GENERAL_CAUTION
 
 
 def test_no_other_wording_of_the_general_caution_in_the_outputs():

@@ -137,14 +137,14 @@ def test_page_state_keeps_out_of_plane_and_gamma_m1_acts():
 
 def test_page_values_table_shows_the_new_rows():
     """The governing-values table shows N/N_b,Rd out of plane, the section class and '∞ fails' above Pcr1."""
-    from app.page import _values_table
+    from app.page.words import values_table
     from app.units import units
 
     result = engine.solve(demo_case())
-    html = _values_table(result, None, "", units("si"))
+    html = values_table(result, None, "", units("si"))
     assert "N/N<sub>b,Rd</sub> out of plane" in html and "minor, χ 0.299" in html and "class 1" in html
     over = engine.solve(engine.Case.from_dict(_shs_above_critical()))
-    assert "∞ fails" in _values_table(over, None, "", units("si"))
+    assert "∞ fails" in values_table(over, None, "", units("si"))
     assert math.isinf(over.utilization)
 
 

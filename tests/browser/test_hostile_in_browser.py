@@ -126,7 +126,7 @@ def test_an_upload_over_the_cap_is_refused_before_sending_and_the_session_lives(
             + urllib.parse.quote(
                 '{"schema": 1, "length": -1, "EI": 1e6, "supports": {"left": "pinned", "right": "pinned"}}'
             ),
-            "length: -1",
+            "Span L: -1",
         ),
     ],
     ids=["bad-json", "bad-units", "bad-case"],
@@ -147,11 +147,11 @@ def test_typing_1e400_logs_no_traceback(tmp_path, browser):
         field = page.get_by_label("Span L [m]", exact=True)
         field.fill("1e400")
         field.press("Enter")
-        refused = page.locator(".ss-error").filter(has_text="length: inf")
+        refused = page.locator(".ss-error").filter(has_text="Span L: inf")
         expect(refused.first).to_be_visible(timeout=TIMEOUT_MS)
         field.fill("5")
         field.press("Enter")  # a good value afterwards: the log so far is complete once it shows
-        expect(page.locator(".ss-error").filter(has_text="length: inf")).to_have_count(0, timeout=TIMEOUT_MS)
+        expect(page.locator(".ss-error").filter(has_text="Span L: inf")).to_have_count(0, timeout=TIMEOUT_MS)
         context.close()
     finally:
         running.stop()

@@ -287,7 +287,12 @@ def test_an_upload_is_parsed_in_memory(page):
 
 def test_using_the_page_writes_nothing_and_reads_only_the_installation(page):
     """Edits, loads, units, variants and downloads open no file for writing, run nothing, call nowhere."""
-    for make in (page._png, page._csv, page._pdf, page._json):  # first exports may build font caches
+    for make in (
+        page.files.png,
+        page.files.csv,
+        page.files.pdf,
+        page.files.json,
+    ):  # first exports may build font caches
         make()
     data = invented_case(5.0)
     with recorded() as events:
@@ -300,7 +305,9 @@ def test_using_the_page_writes_nothing_and_reads_only_the_installation(page):
         page.keep_variant()
         upload(page, data, "case.json")
         page.model.length = -1.0  # refused by the engine, shown on the page
-        exports = [make().getvalue() for make in (page._png, page._csv, page._pdf, page._json)]
+        exports = [
+            make().getvalue() for make in (page.files.png, page.files.csv, page.files.pdf, page.files.json)
+        ]
     assert all(len(data) > 100 for data in exports)  # the downloads were made, in memory
     assert _writes(events) == []
     assert _reads_outside_the_installation(events) == []

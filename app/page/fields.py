@@ -1,0 +1,207 @@
+"""The page's input fields: one unit-aware number field, and the panes that show the engine's messages.
+
+:class:`UnitNumber` is the one number field of the page. It shows an SI value of the state in the display
+unit of the page's unit system, rounded to six significant figures (19.685 ft, not 19.685039), and writes
+what the user types back in SI. A value the field itself shows is never written back: an edit is written
+only when it differs from the rounded display of the state's value, so no flag is needed to tell the page's
+own updates from the user's.
+
+:class:`ErrorPanes` holds the panes that show the engine's message for a field, each beside its input, in
+the page's words for the field ("Load 2, position", not ``loads[1].x``).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from collections.abc import Callable
+
+import panel as pn
+
+from app.page.style import CSS, WIDGET_CSS, esc
+from app.units import Unit, units
+
+__all__ = ["ErrorPanes", "UnitNumber", "field_words", "rounded", "unit_for"]
+
+#: Significant figures of a number shown in a field.
+SHOWN_DIGITS = 6
+
+
+def rounded(value: float | None) -> float | None:
+    """`value` to :data:`SHOWN_DIGITS` significant figures (None and non-finite values as they are)."""
+    if value is None or not math.isfinite(value) or value == 0:
+        return value
+    return float(f"{value:.{SHOWN_DIGITS}g}")
+
+
+def unit_for(system: str, kind: str | None) -> Unit | None:
+    """The display unit of `kind` in unit system `system` ('si' or 'us'); None for a plain number."""
+    if kind is None:
+        return None
+    U = units(system)
+    if kind == "section_modulus":
+        # cm³ or in³: the area unit's length cubed (a units conversion, not a property of the section).
+        return Unit(label="cm³" if U.system == "si" else "in³", factor=U.area.factor**1.5)
+    return U.unit(kind)
+
+
+class UnitNumber:
+    """A number field bound to one SI value: shown in display units, typed values written back in SI.
+
+    Parameters
+    ----------
+    text : str
+        The label without its unit ("Span L"); the unit is added in brackets.
+    kind : str or None
+        The kind of quantity (:mod:`app.units`), or None for a plain number.
+    get, put : callables
+        Read the SI value; write an SI value (None for an emptied field).
+    system : callable
+        The page's unit system now ('si' or 'us').
+    """
+
+    def __init__(
+        self,
+        text: str,
+        kind: str | None,
+        get: Callable[[], float | None],
+        put: Callable[[float | None], None],
+        system: Callable[[], str],
+        **widget_params,
+    ) -> None:
+        self.text, self.kind = text, kind
+        self._get, self._put, self._system = get, put, system
+        widget_params.setdefault("stylesheets", [WIDGET_CSS])
+        widget_params.setdefault("format", "0[.][000000]")
+        self.widget = pn.widgets.FloatInput(label=self.label(), value=None, **widget_params)
+        self.widget.param.watch(self._typed, "value")
+        self.show()
+
+    @property
+    def unit(self) -> Unit | None:
+        """The display unit now."""
+        return unit_for(self._system(), self.kind)
+
+    def label(self) -> str:
+        """The label with the display unit now."""
+        unit = self.unit
+        return self.text if unit is None else f"{self.text} [{unit.label}]"
+
+    def shown(self) -> float | None:
+        """The state's value as this field shows it: display units, rounded."""
+        value = self._get()
+        if value is None or isinstance(value, str):
+            return None
+        unit = self.unit
+        return rounded(value if unit is None else unit.from_si(value))
+
+    def show(self) -> None:
+        """Show the state's value and the unit's label (after a load, a link or a units switch)."""
+        label = self.label()
+        if self.widget.label != label:
+            self.widget.label = label
+        shown = self.shown()
+        if shown != self.widget.value:
+            self.widget.value = shown
+
+    def _typed(self, event) -> None:
+        if event.new == self.shown():
+            return  # this field's own display, or an edit that changes nothing
+        unit = self.unit
+        value = event.new
+        if value is not None and unit is not None:
+            value = unit.to_si(value)
+        self._put(value)
+
+
+# The page's names of the case's fields, for the engine's messages (which name the case file's paths).
+_FIELD_WORDS = {
+    "title": "Case title",
+    "length": "Span L",
+    "axial_force": "Axial force N",
+    "EI": "EI",
+    "stiffness_factor": "Factor on EI",
+    "axis": "Bending axis",
+    "supports.left": "Left end",
+    "supports.right": "Right end",
+    "supports": "Supports",
+    "section": "Section",
+    "material": "Material",
+    "imperfection": "Initial bow",
+    "check": "Check",
+    "out_of_plane": "Out of plane",
+    "loads": "Loads",
+}
+_LOAD_FIELD_WORDS = {
+    "x": "position",
+    "P": "force F",
+    "C": "couple C",
+    "q": "q",
+    "q_start": "q start",
+    "q_end": "q end",
+    "start": "from",
+    "end": "to",
+    "type": "type",
+}
+_LOAD_PATH = re.compile(r"^loads\[(\d+)\](?:\.(\w+))?$")
+
+
+def field_words(path: str) -> str:
+    """The page's name for a field path of the engine: ``loads[1].x`` is "Load 2, position"."""
+    match = _LOAD_PATH.match(path)
+    if match:
+        words = f"Load {int(match.group(1)) + 1}"
+        key = match.group(2)
+        return words if key is None else f"{words}, {_LOAD_FIELD_WORDS.get(key, key)}"
+    if path in _FIELD_WORDS:
+        return _FIELD_WORDS[path]
+    head, _, rest = path.partition(".")
+    if head in _FIELD_WORDS and rest:
+        return f"{_FIELD_WORDS[head]}, {rest.replace('_', ' ')}"
+    return path
+
+
+def page_message(message: str) -> str:
+    """The engine's message with its field path replaced by the page's name for the field."""
+    head, sep, rest = message.partition(":")
+    if not sep or " " in head.strip() or head.strip() in ("case", "upload", "link"):
+        return message
+    return f"{field_words(head.strip())}:{rest}"
+
+
+class ErrorPanes:
+    """The panes that show the engine's message on a field beside its input; hidden when there is none."""
+
+    def __init__(self, state) -> None:
+        self.state = state
+        self.panes: list[tuple[pn.pane.HTML, tuple[str, ...], bool]] = []
+
+    def pane(self, *prefixes: str, exact: bool = False) -> pn.pane.HTML:
+        """A pane for the message on fields under `prefixes` (only those paths if `exact`)."""
+        pane = pn.pane.HTML(
+            "", visible=False, sizing_mode="stretch_width", stylesheets=[CSS], margin=(0, 5, 4, 5)
+        )
+        self.panes.append((pane, prefixes, exact))
+        return pane
+
+    def clear(self) -> None:
+        """Forget every pane (their inputs were rebuilt)."""
+        self.panes = []
+
+    def show(self) -> None:
+        """Show each pane's message, or hide it."""
+        errors = self.state.errors
+        for pane, prefixes, exact in self.panes:
+            if exact:
+                message = next((errors[p] for p in prefixes if p in errors), "")
+            else:
+                message = self.state.error_for(*prefixes)
+            text = f"<div class='ss-error'>{esc(page_message(message))}</div>" if message else ""
+            if pane.object != text:
+                pane.object = text
+            if pane.visible != bool(message):
+                pane.visible = bool(message)
+
+    def shown(self) -> list[str]:
+        """The text of every pane that is shown."""
+        return [pane.object for pane, _, _ in self.panes if pane.visible]

@@ -1,0 +1,101 @@
+"""The right-hand column: the governing values and the cautions, each in its own scrolling box, with the
+general caution pinned below them, always in view.
+"""
+
+from __future__ import annotations
+
+import panel as pn
+import param
+
+from app.page.style import GENERAL_CAUTION, LEVEL_NAMES, esc, heading, html_pane
+from app.page.words import symbols, values_table
+from app.state import MemberState
+from app.units import units
+
+__all__ = ["CautionsView", "ValuesView"]
+
+
+class ValuesView(pn.viewable.Viewer):
+    """The governing-values table of the state's result (stale values dimmed and marked while refused)."""
+
+    state = param.ClassSelector(class_=MemberState, doc="The page state: inputs (SI) and results.")
+
+    def __init__(self, state: MemberState, **params) -> None:
+        super().__init__(state=state, **params)
+        self.table = html_pane(margin=(0, 4))
+        self.panel = pn.Column(
+            heading("Governing values"),
+            pn.Column(self.table, scroll=True, sizing_mode="stretch_both", margin=0, min_height=150),
+            sizing_mode="stretch_both",
+            margin=0,
+        )
+        state.param.watch(lambda *_: self.draw(), ["result", "capacity", "capacity_note", "units", "errors"])
+        self.draw()
+
+    def __panel__(self):
+        return self.panel
+
+    def draw(self) -> None:
+        """Word the result's governing values; dim and mark them while the inputs are refused."""
+        state = self.state
+        if state.result is None:
+            return
+        table = values_table(state.result, state.capacity, state.capacity_note, units(state.units))
+        if state.errors:
+            table = (
+                "<div class='ss-stale-mark'>Last valid case — not the inputs on screen</div>"
+                f"<div class='ss-stale-values'>{table}</div>"
+            )
+        self.table.object = table
+
+
+class CautionsView(pn.viewable.Viewer):
+    """The engine's cautions, most severe first; the general one pinned below them."""
+
+    state = param.ClassSelector(class_=MemberState, doc="The page state: inputs (SI) and results.")
+
+    def __init__(self, state: MemberState, **params) -> None:
+        super().__init__(state=state, **params)
+        self._shown = None
+        self.heading = heading("Cautions", margin=(2, 4, 0, 4))
+        self.list = html_pane(margin=(0, 4))
+        self.general = html_pane(margin=(2, 4, 2, 4))
+        self.panel = pn.Column(
+            self.heading,
+            pn.Column(self.list, scroll=True, sizing_mode="stretch_both", margin=0, min_height=120),
+            self.general,
+            sizing_mode="stretch_both",
+            margin=0,
+        )
+        state.param.watch(lambda *_: self.draw(), ["result"])
+        self.draw()
+
+    def __panel__(self):
+        return self.panel
+
+    def draw(self) -> None:
+        """List the result's cautions by severity."""
+        result = self.state.result
+        if result is None:
+            return
+        cautions = tuple((c.level, c.code, c.message, c.source) for c in result.cautions)
+        if cautions == self._shown:
+            return
+        self._shown = cautions
+
+        def item(level, code, message, source):
+            return (
+                f"<li class='{level}' data-code='{esc(code)}'><span class='lvl'>"
+                f"{LEVEL_NAMES.get(level, level)}</span>{symbols(message)}"
+                f"<span class='src'>{esc(source)}</span></li>"
+            )
+
+        general = [c for c in cautions if c[1] == "scope"] or [
+            ("info", "scope", GENERAL_CAUTION, "strutscope's scope")
+        ]
+        others = [c for c in cautions if c[1] != "scope"]
+        counts = {level: sum(1 for c in others if c[0] == level) for level in ("danger", "warning", "info")}
+        summary = " · ".join(f"{n} {LEVEL_NAMES[level].lower()}" for level, n in counts.items() if n)
+        self.heading.object = f"<div class='ss-heading'>Cautions{' — ' + summary if summary else ''}</div>"
+        self.list.object = "<ul class='ss-cautions'>" + "".join(item(*c) for c in others) + "</ul>"
+        self.general.object = "<ul class='ss-cautions general'>" + item(*general[0]) + "</ul>"

@@ -1,0 +1,251 @@
+"""The page's wording of a result: the governing-values table, the variants' table and the facts in use.
+
+These functions turn an :class:`engine.Result` into the page's HTML text in a unit system; they do no
+mechanics. They are the one place the page words the governing values (the seam where a shared wording of
+results, for the command line and the exports too, plugs in).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+import re
+
+from app.page.style import BOW_SHAPE_LABELS, esc
+
+__all__ = [
+    "bow_facts",
+    "case_identity",
+    "check_facts",
+    "plain",
+    "ratio_text",
+    "section_facts",
+    "symbols",
+    "values_table",
+]
+
+
+def case_identity(case) -> str:
+    """A key of the case without its axial force: the sketch, modes and ranges change only when it does."""
+    return repr(dataclasses.replace(case, axial_force=0.0))
+
+
+def plain(value) -> float:
+    return math.nan if value is None or not math.isfinite(float(value)) else float(value)
+
+
+def ratio_text(value) -> str:
+    if value is None:
+        return "n/a"
+    value = float(value)
+    if math.isinf(value):
+        return "∞ (no compression)" if value > 0 else "n/a"
+    return f"{value:.3f}"
+
+
+# Short forms of long check kinds, so that the values column does not wrap.
+_SHORT_KINDS = {"out-of-plane buckling": "out of plane", "linear N–M, eq. (5.9) route": "eq. (5.9) N–M"}
+
+
+def kind_text(kind: str) -> str:
+    return _SHORT_KINDS.get(kind, kind)
+
+
+def utilisation_text(value) -> str:
+    """A utilisation; an unbounded one (above Pcr1, a class 4 section) reads "∞ fails"."""
+    if value is not None and math.isinf(float(value)):
+        return "∞ fails"
+    return ratio_text(value)
+
+
+def percent(error) -> str:
+    if error is None or not math.isfinite(float(error)):
+        return "n/a"
+    return f"{float(error):+.1%}"
+
+
+def values_table(result, capacity, capacity_note: str, U) -> str:
+    """The compact governing-values table (HTML) of `result` in units `U`."""
+    rows: list[str] = []
+
+    def head(text):
+        rows.append(f"<tr><th colspan='3'>{esc(text)}</th></tr>")
+
+    def row(quantity, value, note="", danger=False, warn=False):
+        css = " class='danger'" if danger else " class='warn'" if warn else ""
+        rows.append(
+            f"<tr{css}><td class='q'>{quantity}</td><td class='v'>{symbols(value)}</td>"
+            f"<td class='f'>{symbols(note)}</td></tr>"
+        )
+
+    check = result.check
+    head("Member check (second-order forces)")
+    if check is not None:
+        row(
+            "utilisation",
+            f"{utilisation_text(check.utilization)} {kind_text(check.kind)}",
+            f"@ {U.show('length', check.x)}",
+            check.utilization > 1,
+        )
+        row(
+            "strength only",
+            f"{utilisation_text(check.strength_utilization)} {kind_text(check.strength_kind)}",
+            "" if check.section_class is None else f"class {check.section_class.klass}",
+            check.strength_utilization > 1,
+        )
+        out = check.out_of_plane
+        if out is not None and out.checked:
+            row(
+                "N/N<sub>b,Rd</sub> out of plane",
+                ratio_text(out.utilization),
+                f"{out.axis}, χ {out.chi:.3f}",
+                out.utilization > 1,
+            )
+        elif out is not None:
+            row(
+                "out of plane",
+                "not checked",
+                "restrained" if out.reason.startswith("restrained") else "see cautions",
+            )
+        service = result.service
+        if service is not None:
+            row(
+                "deflection (service)",
+                f"{ratio_text(service.utilization)} {U.show('small_length', abs(service.deflection))}",
+                "loads as given, no bow",
+                False,
+                service.utilization > 1,
+            )
+        if capacity is not None:
+            row(
+                "capacity N",
+                U.show("force", capacity.axial_force),
+                capacity.check,
+                False,
+                result.axial_force > capacity.axial_force,
+            )
+        elif capacity_note:
+            row("capacity N", "n/a", capacity_note)
+    else:
+        row("utilisation", "n/a", "needs a section and material")
+    first = result.first_order
+    unstable = result.status != "stable"
+    head("Second order · at x · first order")
+    for label, field, kind in (
+        ("max |w|", "deflection", "small_length"),
+        ("max |w + w0|", "total_offset", "small_length"),
+        ("max |M|", "moment", "moment"),
+        ("max |V|", "shear", "force"),
+    ):
+        peak = getattr(result.governing, field)
+        fpeak = getattr(first.governing, field)
+        where = f" @ {U.show('length', peak.x)}" if math.isfinite(peak.value) else ""
+        row(label, f"{U.show(kind, peak.magnitude)}{where}", U.show(kind, fpeak.magnitude), unstable)
+    reactions = result.reactions
+    head("End values, support side (T, M)")
+    row("left end", f"{U.show('force', reactions.left_T)}, {U.show('moment', reactions.left_M)}")
+    row("right end", f"{U.show('force', reactions.right_T)}, {U.show('moment', reactions.right_M)}")
+    head("Buckling")
+    pcr = result.critical_loads
+    row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")
+    row(
+        "α<sub>cr</sub> = Pcr1/N",
+        ratio_text(result.alpha_cr),
+        "",
+        result.alpha_cr <= 1,
+        result.axial_force > 0 and result.alpha_cr < 10,
+    )
+    head("Amplification · error of approximation")
+    amplification = result.amplification
+    row(
+        "M ÷ (M<sub>I</sub> + N·w0)",
+        ratio_text(amplification.moment),
+        f"w: {ratio_text(amplification.deflection)}",
+    )
+    row("M ÷ M<sub>I</sub>", ratio_text(amplification.moment_first_order), "bow not in M_I")
+    if amplification.moment_bow_free is not None:
+        row("M ÷ M<sub>I</sub>, no bow", ratio_text(amplification.moment_bow_free), "for B1")
+    for approximation in amplification.approximations:
+        against = " (no bow)" if approximation.compared_with == "moment_bow_free" else ""
+        error = percent(approximation.error) + against
+        row(symbols(approximation.name), ratio_text(approximation.value), error)
+    if not amplification.approximations:
+        row("approximations", "none at or beyond Pcr1")
+    columns = "<colgroup><col class='q'><col class='v'><col class='f'></colgroup>"
+    return "<table class='ss-values'>" + columns + "".join(rows) + "</table>"
+
+
+_SYMBOLS = (("alpha_cr", "α<sub>cr</sub>"), ("lambda_bar", "λ̄"), ("psi", "ψ"), ("chi", "χ"))
+
+
+def symbols(text) -> str:
+    """`text` escaped for HTML, with the engine's spelt-out symbols written as symbols (α_cr, λ̄, ψ, χ)."""
+    out = esc(text)
+    for word, symbol in _SYMBOLS:
+        out = re.sub(rf"(?<![A-Za-z]){word}(?![A-Za-z])", symbol, out)
+    return out
+
+
+def section_facts(result, U) -> str:
+    """The section, material and EI in use (HTML)."""
+    lines = [f"EI used = <b>{esc(U.show('stiffness', result.EI))}</b>"]
+    section = result.section
+    if section is not None:
+        lines.append(
+            f"{esc(section.name)}, {result.case.axis} axis: A = {esc(U.show('area', section.A))}, "
+            f"I = {esc(U.show('second_moment', section.I))}, "
+            f"i = {esc(U.show('small_length', section.i))}"
+        )
+    if result.material is not None:
+        lines.append(
+            f"{esc(result.material.name)}: E = {esc(U.show('stress', result.material.E))}, "
+            f"f_y = {esc(U.show('stress', result.material.fy))}"
+        )
+    return "<div class='ss-note'>" + "<br>".join(lines) + "</div>"
+
+
+def bow_facts(result, U) -> str:
+    """The initial bow in use, its curve and its direction (HTML)."""
+    bow = result.bow
+    if bow is not None:
+        text = f"In use: {symbols(bow.label)}"
+        if bow.curve_reason:
+            text += f"<br>Curve: {symbols(bow.curve_reason)}"
+        if bow.direction_governing and bow.automatic:
+            both = "; ".join(
+                ("" if u is None else f"{d}: utilisation {ratio_text(u)}, max|M| ")
+                + ("" if u is not None else f"{d}: max|M| ")
+                + U.show("moment", m)
+                for d, u, m in bow.directions
+            )
+            text += f"<br>Direction: {esc(bow.direction)}, the worse of both solved ({esc(both)})"
+        elif bow.direction_governing:
+            text += f"<br>Direction: {esc(bow.direction_governing)}"
+        if bow.favourable:
+            text += "<br><b>The bow points the favourable way: reversed, it gives more.</b>"
+    else:
+        imperfection = result.case.imperfection
+        text = (
+            f"In use: {esc(BOW_SHAPE_LABELS.get(imperfection.shape, imperfection.shape))}, "
+            f"a = {esc(U.show('small_length', imperfection.amplitude))}"
+        )
+    return f"<div class='ss-note'>{text}</div>"
+
+
+def check_facts(result, U) -> str:
+    """The resistances and the deflection allowed of the member check, or why there is none (HTML)."""
+    check = result.check
+    if check is not None:
+        resist = check.resistances
+        parts = [
+            f"{esc(name)} = {esc(U.show(kind, resist.get(name)))}"
+            for name, kind in (("N_Rd", "force"), ("M_Rd", "moment"), ("V_Rd", "force"))
+            if resist.get(name) is not None
+        ]
+        return (
+            f"<div class='ss-note'>Resistances: {', '.join(parts)}<br>"
+            f"Deflection allowed: {esc(U.show('small_length', check.deflection_allowed))}"
+            f"<br>{esc(check.source)}</div>"
+        )
+    else:
+        return "<div class='ss-note'>No member check: give a section and a material (Section tab).</div>"
