@@ -419,7 +419,7 @@ def _engine_failure(error: BaseException) -> str:
 
 def _case_key(case) -> str:
     """A key of the case without its axial force: the chart is recomputed only when it changes."""
-    return json.dumps({**case.to_dict(), "axial_force": 0.0}, sort_keys=True, default=str)
+    return repr(case.without_axial_force())
 
 
 def _solve_job(state: MemberState, case, refresh_id: int, full: bool):

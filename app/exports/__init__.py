@@ -15,8 +15,8 @@ wrapping), :mod:`~app.exports.sketch_draw` (the member sketch in matplotlib, fro
 (the PDF calc sheet), :mod:`~app.exports.names` (file names and the case file).
 """
 
+from app.export_names import case_json, export_filename
 from app.exports.figure import png_bytes, result_figure
-from app.exports.names import case_json, export_filename
 from app.exports.sheet import calc_sheet_figures, pdf_bytes
 from app.exports.style import A4_LANDSCAPE, A4_PORTRAIT
 from app.exports.table import csv_text

@@ -8,6 +8,7 @@ from importlib import metadata
 
 from app.units import Units
 from app.units import units as _units_of
+from engine.codes import alpha_cr_limit
 
 #: A4 (ISO 216: 210 mm × 297 mm) in inches, landscape and portrait (width, height).
 A4_LANDSCAPE = (297 / 25.4, 210 / 25.4)
@@ -62,7 +63,8 @@ _DEFINITIONS_TEXT = (
 _RESISTANCE_DEFINITIONS = (
     "Eq. (5.9) bow: first mode of amplitude e0·N_cr/(EI·|η''|max), checked by N/(N_Rk/γ_M1) + "
     "M/(M_Rk/γ_M1) ≤ 1 (reaches χ·A·f_y/γ_M1). Out of plane: N/N_b,Rd, eq. (6.47). Class by Table 5.2; "
-    "class 4 or N ≥ Pcr1: no valid result, utilisation unbounded (fails). α_cr limit 10 (elastic analysis)."
+    "class 4 or N ≥ Pcr1: no valid result, utilisation unbounded (fails). "
+    f"α_cr limit {alpha_cr_limit():g} (elastic analysis)."
 )
 
 # --------------------------------------------------------------------------------------------------------

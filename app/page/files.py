@@ -14,9 +14,10 @@ import urllib.parse
 import panel as pn
 import param
 
+from app.export_names import case_json, export_filename
 from app.intake import clean_text
 from app.page.fields import field_words
-from app.page.style import UPLOAD_LIMIT, WIDGET_CSS, download, esc, html_pane, slug
+from app.page.style import UPLOAD_LIMIT, WIDGET_CSS, download, esc, html_pane
 from app.state import MemberState
 
 __all__ = ["FilesView"]
@@ -79,7 +80,7 @@ class FilesView(pn.viewable.Viewer):
             styles={"border-bottom": "1px solid #e4e7e1"},
             sizing_mode="stretch_width",
         )
-        state.param.watch(lambda *_: self.draw(), ["result", "errors"])
+        state.param.watch(lambda *_: self.draw(), ["result", "errors", "units"])
         state.param.watch(lambda *_: self.write_query(), ["result", "errors", "units", "link"])
         self.write_query()
         self.draw()
@@ -112,8 +113,6 @@ class FilesView(pn.viewable.Viewer):
 
     def json(self) -> io.StringIO:
         """The case on screen, as a case file."""
-        from app.exports import case_json
-
         return io.StringIO(case_json(self.state.result.case))
 
     def refused(self) -> str:
@@ -128,9 +127,9 @@ class FilesView(pn.viewable.Viewer):
         """Name the files after the title; disable the exports, saying why, while an input is refused."""
         result = self.state.result
         if result is not None:
-            name = slug(result.case.title)
+            case, system = result.case, self.state.units
             for widget, extension in zip(self.buttons, ("png", "csv", "pdf", "json"), strict=True):
-                widget.filename = f"strutscope-{name}.{extension}"
+                widget.filename = export_filename(case.title, case.axial_force, extension, system)
         refused = self.refused()
         for widget in self.buttons:
             widget.disabled = bool(refused) or result is None

@@ -7,8 +7,9 @@ from __future__ import annotations
 import panel as pn
 import param
 
-from app.page.style import GENERAL_CAUTION, LEVEL_NAMES, esc, heading, html_pane
+from app.page.style import LEVEL_NAMES, esc, heading, html_pane
 from app.page.words import symbols, values_table
+from app.report import caution_text, general_caution
 from app.state import MemberState
 from app.units import units
 
@@ -67,18 +68,19 @@ class CautionsView(pn.viewable.Viewer):
             sizing_mode="stretch_both",
             margin=0,
         )
-        state.param.watch(lambda *_: self.draw(), ["result"])
+        state.param.watch(lambda *_: self.draw(), ["result", "units"])
         self.draw()
 
     def __panel__(self):
         return self.panel
 
     def draw(self) -> None:
-        """List the result's cautions by severity."""
+        """List the result's cautions by severity, worded in the page's units (app.report)."""
         result = self.state.result
         if result is None:
             return
-        cautions = tuple((c.level, c.code, c.message, c.source) for c in result.cautions)
+        U = units(self.state.units)
+        cautions = tuple((c.level, c.code, caution_text(c, U), c.source) for c in result.cautions)
         if cautions == self._shown:
             return
         self._shown = cautions
@@ -91,7 +93,7 @@ class CautionsView(pn.viewable.Viewer):
             )
 
         general = [c for c in cautions if c[1] == "scope"] or [
-            ("info", "scope", GENERAL_CAUTION, "strutscope's scope")
+            ("info", "scope", general_caution(result), "strutscope's scope")
         ]
         others = [c for c in cautions if c[1] != "scope"]
         counts = {level: sum(1 for c in others if c[0] == level) for level in ("danger", "warning", "info")}

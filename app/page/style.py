@@ -7,7 +7,6 @@ from __future__ import annotations
 
 import html
 import math
-import re
 
 import numpy as np
 import panel as pn
@@ -31,14 +30,6 @@ LOAD = "#a3261b"
 VARIANT_COLOURS = ("#9c8fc4", "#d09a5a", "#86b08a", "#c98fa8")
 VARIANT_LETTERS = "ABCD"
 LEVEL_NAMES = {"danger": "Danger", "warning": "Warning", "info": "Note"}
-# Shown only if a result ever came without the engine's own general caution (it always has it).
-GENERAL_CAUTION = (
-    "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional buckling, "
-    "biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 sections, "
-    "connections and load combinations are not checked. Check the results against your local codes "
-    "and have them reviewed by a licensed engineer."
-)
-
 SUPPORT_LABELS = {
     "pinned": "pinned",
     "fixed": "fixed",
@@ -190,11 +181,6 @@ def nice(value: float) -> float:
         if mantissa * 10**exponent >= value * (1 - 1e-12):
             return mantissa * 10**exponent
     return 10.0 ** (exponent + 1)
-
-
-def slug(text: str) -> str:
-    slug = re.sub(r"[^A-Za-z0-9]+", "-", text).strip("-").lower()[:48].strip("-")
-    return slug or "case"
 
 
 def esc(text) -> str:

@@ -7,11 +7,12 @@ results, for the command line and the exports too, plugs in).
 
 from __future__ import annotations
 
-import dataclasses
 import math
 import re
 
-from app.page.style import BOW_SHAPE_LABELS, esc
+from app.page.style import esc
+from app.report import bow_direction_text, bow_text, quoted_text, reaction_rows
+from engine.codes import alpha_cr_limit
 
 __all__ = [
     "bow_facts",
@@ -27,7 +28,7 @@ __all__ = [
 
 def case_identity(case) -> str:
     """A key of the case without its axial force: the sketch, modes and ranges change only when it does."""
-    return repr(dataclasses.replace(case, axial_force=0.0))
+    return repr(case.without_axial_force())
 
 
 def plain(value) -> float:
@@ -141,10 +142,9 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
         fpeak = getattr(first.governing, field)
         where = f" @ {U.show('length', peak.x)}" if math.isfinite(peak.value) else ""
         row(label, f"{U.show(kind, peak.magnitude)}{where}", U.show(kind, fpeak.magnitude), unstable)
-    reactions = result.reactions
-    head("End values, support side (T, M)")
-    row("left end", f"{U.show('force', reactions.left_T)}, {U.show('moment', reactions.left_M)}")
-    row("right end", f"{U.show('force', reactions.right_T)}, {U.show('moment', reactions.right_M)}")
+    head("Reactions (what each support exerts)")
+    for end, force, couple in reaction_rows(result, U):
+        row(end, force, couple)
     head("Buckling")
     pcr = result.critical_loads
     row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")
@@ -153,7 +153,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
         ratio_text(result.alpha_cr),
         "",
         result.alpha_cr <= 1,
-        result.axial_force > 0 and result.alpha_cr < 10,
+        result.axial_force > 0 and result.alpha_cr < alpha_cr_limit(),
     )
     head("Amplification · error of approximation")
     amplification = result.amplification
@@ -205,30 +205,17 @@ def section_facts(result, U) -> str:
 
 
 def bow_facts(result, U) -> str:
-    """The initial bow in use, its curve and its direction (HTML)."""
+    """The initial bow in use, its curve and its direction (HTML), in the page's units (app.report)."""
+    text = f"In use: {symbols(bow_text(result, U))}"
     bow = result.bow
     if bow is not None:
-        text = f"In use: {symbols(bow.label)}"
         if bow.curve_reason:
-            text += f"<br>Curve: {symbols(bow.curve_reason)}"
-        if bow.direction_governing and bow.automatic:
-            both = "; ".join(
-                ("" if u is None else f"{d}: utilisation {ratio_text(u)}, max|M| ")
-                + ("" if u is not None else f"{d}: max|M| ")
-                + U.show("moment", m)
-                for d, u, m in bow.directions
-            )
-            text += f"<br>Direction: {esc(bow.direction)}, the worse of both solved ({esc(both)})"
-        elif bow.direction_governing:
-            text += f"<br>Direction: {esc(bow.direction_governing)}"
+            text += f"<br>Curve: {symbols(quoted_text(bow.curve_reason, U))}"
+        direction = bow_direction_text(bow, U)
+        if direction:
+            text += f"<br>Direction: {symbols(direction)}"
         if bow.favourable:
             text += "<br><b>The bow points the favourable way: reversed, it gives more.</b>"
-    else:
-        imperfection = result.case.imperfection
-        text = (
-            f"In use: {esc(BOW_SHAPE_LABELS.get(imperfection.shape, imperfection.shape))}, "
-            f"a = {esc(U.show('small_length', imperfection.amplitude))}"
-        )
     return f"<div class='ss-note'>{text}</div>"
 
 

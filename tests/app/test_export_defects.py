@@ -15,7 +15,7 @@ from matplotlib.text import Annotation
 
 import engine
 from app import exports
-from app.exports.names import export_filename
+from app.export_names import export_filename
 from app.report import reaction_rows
 from app.units import units
 

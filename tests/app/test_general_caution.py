@@ -3,23 +3,22 @@
 import pathlib
 
 import app.cli
-import app.page.style
 import app.report
 from engine.cautions import GENERAL
 
 
 def test_every_copy_of_the_general_caution_is_the_engines():
-    """The CLI's closing line and the page's and calc sheet's fallbacks equal the engine's scope caution."""
+    """The CLI's closing line (kept apart so that --help need not import the engine) and the report's general
+    caution, which the page, the exports and the batch show, equal the engine's scope caution."""
     assert GENERAL.message == app.cli.CAUTION
     assert GENERAL.message == app.report.general_caution()
-    assert GENERAL.message == app.page.style.GENERAL_CAUTION
 
 
 def test_no_other_wording_of_the_general_caution_in_the_outputs():
     """The exports, the report and the batch hold no copy of the caution: they read the engine's."""
     root = pathlib.Path(app.report.__file__).parents[1]
     opening = "Elastic analysis of one member in one plane"
-    for folder in ("exports", "report", "batch"):
+    for folder in ("exports", "report", "batch", "page"):
         for path in (root / folder).glob("*.py"):
             assert opening not in path.read_text(encoding="utf-8"), path
 

@@ -11,7 +11,7 @@ from importlib import resources
 
 import pytest
 
-import app.exports.names
+import app.export_names
 import app.report.numbers
 import app.report.words
 import engine
@@ -38,7 +38,7 @@ def _case(**changes):
     return engine.Case.from_dict(mapping)
 
 
-@pytest.mark.parametrize("module", [app.report.numbers, app.report.words, app.exports.names])
+@pytest.mark.parametrize("module", [app.report.numbers, app.report.words, app.export_names])
 def test_examples_in_the_docstrings(module):
     """The examples in the report's and the file names' docstrings hold (they are not collected otherwise)."""
     failed, attempted = doctest.testmod(module)

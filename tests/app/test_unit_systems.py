@@ -149,3 +149,28 @@ def test_pdf_writes_symbols_not_their_spellings():
     assert "α_cr" in text and "ψ =" in text and "λ̄ =" in text and "χ" in text
     for spelling in ("alpha_cr", "psi", "lambda_bar", "chi ="):
         assert spelling not in text, spelling
+
+
+@pytest.mark.parametrize("system", ["si", "us"])
+def test_page_text_speaks_one_system(solved, system):
+    """The page's values table, cautions and facts (section, bow, check) hold no unit of the other system."""
+    import html
+
+    from app.page import MemberPage
+    from app.state import MemberState
+
+    case, _ = solved
+    state = MemberState.from_case(case)
+    state.units = system
+    page = MemberPage(state)
+    panes = (
+        page.values.table,
+        page.cautions.list,
+        page.cautions.general,
+        page.inputs.section_facts,
+        page.inputs.bow_facts,
+        page.inputs.check_facts,
+    )
+    text = html.unescape(re.sub(r"<[^>]+>", " ", " ".join(str(pane.object) for pane in panes)))
+    assert "kN" in text or system == "us"  # the scan reads real values, not an empty page
+    assert _offending(text, system) == []
