@@ -12,13 +12,13 @@ surrogates in typed text instead.
 
 from __future__ import annotations
 
-import json
 from collections.abc import Mapping
 
-__all__ = ["IntakeError", "case_from_bytes", "case_from_link", "check_case", "clean_text", "text_problem"]
+import engine
+from engine.errors import CaseError
+from engine.limits import parse_json
 
-#: Deepest nesting of arrays and objects read (a case file needs 4).
-MAX_DEPTH = 32
+__all__ = ["IntakeError", "case_from_bytes", "case_from_link", "check_case", "clean_text", "text_problem"]
 
 
 class IntakeError(ValueError):
@@ -29,51 +29,18 @@ class IntakeError(ValueError):
         self.kind = kind  # a short category for the server log, without the user's data
 
 
-def _depth(text: str) -> int:
-    """The deepest nesting of brackets outside strings (a bounded scan, no recursion)."""
-    depth = deepest = 0
-    in_string = escaped = False
-    for char in text:
-        if in_string:
-            if escaped:
-                escaped = False
-            elif char == "\\":
-                escaped = True
-            elif char == '"':
-                in_string = False
-        elif char == '"':
-            in_string = True
-        elif char in "[{":
-            depth += 1
-            deepest = max(deepest, depth)
-        elif char in "]}":
-            depth -= 1
-    return deepest
-
-
-def _too_deep(what: str) -> IntakeError:
-    message = f"{what}: arrays and objects are nested more than {MAX_DEPTH} deep (a case file needs 3 or 4)"
-    return IntakeError(message, "nesting")
+def _engine_message(error: Exception) -> str:
+    """The engine's message without its leading "case: " (the caller names what was read)."""
+    text = str(error)
+    return text[len("case: ") :] if text.startswith("case: ") else text
 
 
 def _loads(text: str, what: str):
-    if _depth(text) > MAX_DEPTH:
-        raise _too_deep(what)
+    """Parse JSON text with the engine's bounded reader (:func:`engine.limits.parse_json`)."""
     try:
-        return json.loads(text)
-    except RecursionError:
-        raise IntakeError(f"{what}: arrays and objects are nested too deep to read", "nesting") from None
-    except json.JSONDecodeError as error:
-        raise IntakeError(
-            f"{what}: is not valid JSON ({error.msg} at line {error.lineno}, column {error.colno})", "json"
-        ) from None
-    except ValueError as error:
-        if "digits" in str(error):
-            raise IntakeError(
-                f"{what}: holds a number with more than 4300 digits; numbers must be ordinary decimals",
-                "digits",
-            ) from None
-        raise IntakeError(f"{what}: cannot be read as JSON ({type(error).__name__})", "json") from None
+        return parse_json(text)
+    except CaseError as error:
+        raise IntakeError(f"{what}: {_engine_message(error)}", "json") from None
 
 
 def text_problem(value) -> str:
@@ -116,8 +83,6 @@ def case_from_bytes(data: bytes, what: str):
     The engine's reader does the work (its messages name the field; it refuses duplicate keys); the
     failures it does not word yet are worded here.
     """
-    import engine
-
     try:
         text = bytes(data).decode("utf-8-sig")
     except UnicodeDecodeError as error:
@@ -126,8 +91,6 @@ def case_from_bytes(data: bytes, what: str):
         ) from None
     except MemoryError:
         raise IntakeError(f"{what}: is too large to read", "memory") from None
-    if _depth(text) > MAX_DEPTH:
-        raise _too_deep(what)
     try:
         case = engine.Case.from_json(text)
     except engine.CaseError as error:
