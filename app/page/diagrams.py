@@ -259,6 +259,9 @@ class DiagramsView(pn.viewable.Viewer):
             "V1": finite(first.shear) * fo,
             "T2": finite(result.transverse_force) * fo,
         }
+        # The exact axial force [N] of these stations, for a reader of the page's document (the slider holds a
+        # position on its non-linear track, the readout a rounded value): set before the data, in one patch.
+        self.stations.tags = [float(result.axial_force)]
         self.stations.data = data
         governing, first_governing = result.governing, first.governing
         for kind, field, unit_kind in (
