@@ -2,16 +2,18 @@
 
 The PNG and the calc sheet draw the same shapes with matplotlib (:mod:`app.exports.sketch_draw`), so the
 page and the exports show the same supports, loads, axial force, bow and labels. This module only renders:
-it maps each shape to a column of one of a few sources, and each role to a colour of :mod:`app.page.style`.
+each shape becomes a row of one of a few sources (lines, patches, arrows, texts), and each role a colour of
+:mod:`app.page.style`. It does no geometry of its own.
 
-Scale. The figure shares the diagrams' x range (the member lines up above its diagrams) and has
-:data:`app.sketch.Y_RANGE` as its y range, with a strip above it for the texts at the frame's edge. A shape's fixed-size offsets (``dx``, ``dy`` in inches) become
-data units with the frame's inner size in pixels, which the browser reports; before the first report the
-nominal size is assumed. The view redraws when the size changes. The shared range keeps at least
-:data:`app.sketch.PAD_INCHES` beyond each end for the supports and the axial-force arrows.
+Scale. The figure shares the diagrams' x range, so the member lines up above its diagrams; the range keeps
+at least :data:`app.sketch.PAD_INCHES` beyond each end for the supports and the axial-force arrows. The y
+range is :data:`app.sketch.Y_RANGE` with a strip above it for the texts at the frame's edge. A shape's
+fixed-size offsets (``dx``, ``dy``, in inches on paper) become data units with the frame's inner size in
+pixels, which the browser reports (before the first report the nominal size is assumed), at
+:data:`SKETCH_INCH` pixels to the inch; the view redraws when the size changes.
 
-The axial-force arrows, their label and the danger note (role ``axial`` and ``danger``) change with N:
-:meth:`SketchView.draw_force` rewrites only their two small sources on each step of the slider.
+The axial-force arrows, their label and the danger note (roles ``axial`` and ``danger``) change with N:
+:meth:`SketchView.draw_force` rewrites only their small sources on each step of the slider.
 """
 
 from __future__ import annotations
@@ -30,14 +32,18 @@ from app.sketch import FRAME_LEFT, PAD_INCHES, Y_RANGE, Arrow, Polygon, Polyline
 from app.state import MemberState
 from app.units import units
 
-__all__ = ["PX_PER_INCH", "SketchView"]
+__all__ = ["SKETCH_INCH", "SketchView"]
 
-#: Screen pixels to the inch (CSS), and to the point.
+#: Screen pixels to the inch (CSS), and to the point: line widths and arrow heads keep their size.
 PX_PER_INCH = 96.0
 PX_PER_PT = PX_PER_INCH / 72.0
+#: Screen pixels to the sketch's inch (its fixed-size offsets): the page draws supports, gaps and the axial
+#: arrows at three quarters of their size on paper, so that the sketch fits a strip little taller than an
+#: inch and the diagrams keep their room at 1280 × 720.
+SKETCH_INCH = 72.0
 #: Texts are set this much larger than their size in points: the exports' 6.5 pt would be 8.7 px here, too
-#: small to read on a screen across a meeting room; 1.3 times makes it 11.3 px.
-TEXT_SCALE = 1.3
+#: small to read on a screen across a meeting room; 1.15 times makes it 10 px (the note 10.7 px).
+TEXT_SCALE = 1.15
 
 #: Colour of each role (the rest in MEMBER); hinges are filled white, load areas light grey.
 COLOURS = {
@@ -54,9 +60,9 @@ FILLS = {"hinge": "#ffffff", "load-fill": "#e6e6e6"}
 #: The roles that change with N (drawn by :meth:`SketchView.draw_force`).
 FORCE_ROLES = ("axial", "danger")
 
-#: The figure's height [px]: the least that holds a spring's zigzag and the support labels under the axis
-#: (half an inch and a line of text) at 96 px to the inch, with the loads and the note strip above it.
-HEIGHT = 150
+#: The figure's height [px]: about the least that holds a spring's zigzag and the support labels under the
+#: axis (half a sketch inch and a line of text), with the loads and the note strip above it.
+HEIGHT = 120
 #: Sketch units added above :data:`app.sketch.Y_RANGE`: a strip for the texts at the frame's edge (the note,
 #: or the danger note in its place), which the page's larger type would otherwise lay over the load labels.
 NOTE_ROOM = 0.3
@@ -88,8 +94,8 @@ class _Scale:
     """Data units per inch of the frame in x and y; texts at the frame's edge in screen pixels."""
 
     def __init__(self, x_range: Range1d, inner_width: float, inner_height: float) -> None:
-        self.x = (x_range.end - x_range.start) / max(inner_width / PX_PER_INCH, 1e-6)
-        self.y = (Y_SPAN[1] - Y_SPAN[0]) / max(inner_height / PX_PER_INCH, 1e-6)
+        self.x = (x_range.end - x_range.start) / max(inner_width / SKETCH_INCH, 1e-6)
+        self.y = (Y_SPAN[1] - Y_SPAN[0]) / max(inner_height / SKETCH_INCH, 1e-6)
         self.width, self.start = inner_width, x_range.start
 
     def xs(self, x, dx) -> list:
@@ -102,10 +108,10 @@ class _Scale:
 def _inside(s: _Scale, x: float, align: str, width: float) -> float:
     """`x` moved along so that a text `width` px wide, aligned there, stays inside the frame: the page's
     frame is narrower than the exports' and its type larger, so the axial-force label would be clipped."""
-    px = (x - s.start) / s.x * PX_PER_INCH
+    px = (x - s.start) / s.x * SKETCH_INCH
     left = px - {"left": 0.0, "center": width / 2, "right": width}[align]
     shift = max(0.0, -left) - max(0.0, left + width - s.width)
-    return x + shift / PX_PER_INCH * s.x if shift else x
+    return x + shift / SKETCH_INCH * s.x if shift else x
 
 
 def _render(shapes, s: _Scale) -> dict:
@@ -166,7 +172,7 @@ def _render(shapes, s: _Scale) -> dict:
             if math.isinf(x):  # at the frame's edge, whatever the x range shows, in the note strip
                 target, x, y = (
                     "frame_text",
-                    (0.0 if x == FRAME_LEFT else s.width) + dx * PX_PER_INCH,
+                    (0.0 if x == FRAME_LEFT else s.width) + dx * SKETCH_INCH,
                     y + NOTE_ROOM,
                 )
             else:
@@ -284,7 +290,7 @@ class SketchView(param.Parameterized):
     def padding(self, L: float) -> float:
         """Room beyond each end of a member `L` long, in the x range's units: a tenth of L, and at least
         :data:`PAD_INCHES` on the frame for the supports and the axial-force arrows."""
-        width_in = self.inner_size()[0] / PX_PER_INCH
+        width_in = self.inner_size()[0] / SKETCH_INCH
         return max(0.1 * L, PAD_INCHES * L / max(width_in - 2 * PAD_INCHES, 1.0))
 
     def fit_range(self, L: float) -> None:
