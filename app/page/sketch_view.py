@@ -212,6 +212,7 @@ class SketchView(param.Parameterized):
         self.axial_text = ColumnDataSource(data=_columns(*TEXT_COLUMNS), name="sketch_axial_text")
         self.axial_frame_text = ColumnDataSource(data=_columns(*TEXT_COLUMNS), name="sketch_danger")
         fig = figure(
+            name="sketch",
             height=HEIGHT,
             sizing_mode="stretch_width",
             x_range=self.x_range,
