@@ -93,9 +93,9 @@ def _reported(fig, name: str):
 class _Scale:
     """Data units per inch of the frame in x and y; texts at the frame's edge in screen pixels."""
 
-    def __init__(self, x_range: Range1d, inner_width: float, inner_height: float) -> None:
+    def __init__(self, x_range: Range1d, inner_width: float, inner_height: float, bottom: float) -> None:
         self.x = (x_range.end - x_range.start) / max(inner_width / SKETCH_INCH, 1e-6)
-        self.y = (Y_SPAN[1] - Y_SPAN[0]) / max(inner_height / SKETCH_INCH, 1e-6)
+        self.y = (Y_SPAN[1] - bottom) / max(inner_height / SKETCH_INCH, 1e-6)
         self.width, self.start = inner_width, x_range.start
 
     def xs(self, x, dx) -> list:
@@ -112,6 +112,27 @@ def _inside(s: _Scale, x: float, align: str, width: float) -> float:
     left = px - {"left": 0.0, "center": width / 2, "right": width}[align]
     shift = max(0.0, -left) - max(0.0, left + width - s.width)
     return x + shift / SKETCH_INCH * s.x if shift else x
+
+
+def _text_size(shape: Text) -> float:
+    """A text's font size on the page [px]."""
+    return shape.size * PX_PER_PT * TEXT_SCALE
+
+
+def _bottom(shapes, inner_height: float) -> float:
+    """The y range's lower end: :data:`app.sketch.Y_RANGE`'s, or lower so that the lowest text (a support's
+    two-line label under a spring) stays inside the frame; the sketch then gets a little flatter."""
+    bottom = Y_RANGE[0]
+    texts = [t for t in shapes if isinstance(t, Text) and not math.isinf(t.at[0])]
+    for _ in range(4):  # a fixed point: the scale depends on the range
+        sy = (Y_SPAN[1] - bottom) / max(inner_height / SKETCH_INCH, 1e-6)
+        lowest = Y_RANGE[0]
+        for t in texts:
+            lines = t.text.count("\n") + 1
+            below = {"top": lines, "center": lines / 2}.get(t.va, 0.0) * 1.15 * _text_size(t) + 2
+            lowest = min(lowest, t.at[1] + (t.at[3] - below / SKETCH_INCH) * sy)
+        bottom = min(Y_RANGE[0], lowest)
+    return bottom
 
 
 def _render(shapes, s: _Scale) -> dict:
@@ -168,7 +189,7 @@ def _render(shapes, s: _Scale) -> dict:
             )
         elif isinstance(shape, Text):
             x, y, dx, dy = shape.at
-            size = shape.size * PX_PER_PT * TEXT_SCALE
+            size = _text_size(shape)
             if math.isinf(x):  # at the frame's edge, whatever the x range shows, in the note strip
                 target, x, y = (
                     "frame_text",
@@ -188,7 +209,8 @@ def _render(shapes, s: _Scale) -> dict:
                 size=f"{size:.1f}px",
                 color=colour,
                 style="bold" if shape.bold else "normal",
-                ground="#ffffff" if shape.role in ("load-label", "axial") else None,
+                # A white ground where a line may pass behind (the dimension line, the load's end).
+                ground="#ffffff" if shape.role in ("load-label", "axial", "label") else None,
                 role=shape.role,
             )
     return out
@@ -312,16 +334,20 @@ class SketchView(param.Parameterized):
 
     # ------------------------------------------------------------------ drawing
 
-    def _data(self) -> dict | None:
+    def _data(self, fit: bool):
+        """The result's shapes and the scale to draw them with; `fit` fits the y range to them first."""
         result = self.state.result
         if result is None:
             return None
         shapes = sketch(result, units(self.state.units)).shapes
-        return shapes, _Scale(self.x_range, *self.inner_size())
+        width, height = self.inner_size()
+        if fit:
+            self.figure.y_range.start = _bottom(shapes, height)
+        return shapes, _Scale(self.x_range, width, height, self.figure.y_range.start)
 
     def draw(self) -> None:
         """Draw the sketch's shapes that do not change with N: member, supports, loads, bow, labels."""
-        found = self._data()
+        found = self._data(fit=True)
         if found is None:
             return
         shapes, scale = found
@@ -334,7 +360,7 @@ class SketchView(param.Parameterized):
 
     def draw_force(self) -> None:
         """The axial-force arrows, their label and the danger note; they follow N while it is dragged."""
-        found = self._data()
+        found = self._data(fit=False)
         if found is None:
             return
         shapes, scale = found
