@@ -90,6 +90,25 @@ def _reported(fig, name: str):
         return None
 
 
+#: How the arrow and text sources' columns drive their Bokeh annotations.
+ARROW_FIELDS = dict(
+    x_start="x0", y_start="y0", x_end="x1", y_end="y1", line_color="color", line_width="width"
+)
+TEXT_FIELDS = dict(
+    x="x",
+    y="y",
+    text="text",
+    text_align="align",
+    text_baseline="baseline",
+    text_font_size="size",
+    text_color="color",
+    text_font_style="style",
+    text_line_height=1.1,
+    background_fill_color="ground",
+    background_fill_alpha=0.8,
+)
+
+
 class _Scale:
     """Data units per inch of the frame in x and y; texts at the frame's edge in screen pixels."""
 
@@ -266,12 +285,7 @@ class SketchView(param.Parameterized):
                 ArrowAnnotation(
                     end=NormalHead(size="head", line_color="color", fill_color="color", line_width=1),
                     source=source,
-                    x_start="x0",
-                    y_start="y0",
-                    x_end="x1",
-                    y_end="y1",
-                    line_color="color",
-                    line_width="width",
+                    **ARROW_FIELDS,
                 )
             )
         self.labels = {}
@@ -281,21 +295,7 @@ class SketchView(param.Parameterized):
             (self.frame_text, "screen"),
             (self.axial_frame_text, "screen"),
         ):
-            self.labels[source.name] = LabelSet(
-                x="x",
-                y="y",
-                x_units=x_units,
-                text="text",
-                text_align="align",
-                text_baseline="baseline",
-                text_font_size="size",
-                text_color="color",
-                text_font_style="style",
-                text_line_height=1.1,
-                background_fill_color="ground",
-                background_fill_alpha=0.8,
-                source=source,
-            )
+            self.labels[source.name] = LabelSet(source=source, x_units=x_units, **TEXT_FIELDS)
             fig.add_layout(self.labels[source.name])
         self.figure = fig
         fig.on_change("inner_width", self._resized)
