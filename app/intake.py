@@ -94,7 +94,7 @@ def case_from_bytes(data: bytes, what: str):
     try:
         case = engine.Case.from_json(text)
     except engine.CaseError as error:
-        raise IntakeError(f"{what}: {error}", "case") from None
+        raise IntakeError(f"{what}: {_engine_message(error)}", "case") from None
     except RecursionError:
         raise IntakeError(f"{what}: arrays and objects are nested too deep to read", "nesting") from None
     except MemoryError:

@@ -11,7 +11,7 @@ import math
 import re
 
 from app.page.style import esc
-from app.report import bow_direction_text, bow_text, quoted_text, reaction_rows
+from app.report import SYMBOLS, bow_direction_text, bow_text, quoted_text, reaction_rows
 from engine.codes import alpha_cr_limit
 
 __all__ = [
@@ -175,7 +175,13 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
     return "<table class='ss-values'>" + columns + "".join(rows) + "</table>"
 
 
-_SYMBOLS = (("alpha_cr", "α<sub>cr</sub>"), ("lambda_bar", "λ̄"), ("psi", "ψ"), ("chi", "χ"))
+def _html_symbol(symbol: str) -> str:
+    base, _, index = symbol.partition("_")
+    return f"{base}<sub>{index}</sub>" if index else base
+
+
+# The report's symbols (α_cr, ψ, λ̄, χ, γ_M0, γ_M1), with their indices as HTML subscripts.
+_SYMBOLS = tuple((word, _html_symbol(symbol)) for word, symbol in SYMBOLS.items())
 
 
 def symbols(text) -> str:

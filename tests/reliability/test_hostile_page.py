@@ -52,8 +52,8 @@ _DEEP = json.dumps(SECRET)[:-1] + '", "x": ' + "[" * 3000 + "]" * 3000 + ', "y":
 _HUGE = b'"length": ' + b"7" * 5000
 
 HOSTILE = [
-    ("nesting", ("[" * 50_000 + "]" * 50_000).encode(), "nested"),
-    ("nesting-in-a-case", _with_title(_DEEP), "nested"),
+    ("nesting", ("[" * 50_000 + "]" * 50_000).encode(), "nests"),
+    ("nesting-in-a-case", _with_title(_DEEP), "nests"),
     ("digits", _with_title(json.dumps(SECRET)).replace(b'"length": 6.0', _HUGE), "digits"),
     ("surrogate", _with_title('"\\ud800 ' + SECRET + '"'), "lone surrogate"),
     ("raw surrogate", _with_title('"\ud800' + SECRET + '"'), "UTF-8"),
