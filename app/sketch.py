@@ -75,7 +75,7 @@ ROLES = {
     "spring": "a translational (zigzag) or rotational (spiral) spring",
     "load": "a load arrow or a distributed load's outline",
     "load-fill": "the area of a distributed load",
-    "axial": "the axial-force arrows",
+    "axial": "the axial-force arrows and their label (they change with N)",
     "bow": "the initial bow, exaggerated (dashed)",
     "dimension": "the dimension line",
     "label": "a text",
@@ -296,7 +296,7 @@ def _axial(out, result, U: Units, L: float) -> None:
         out.append(Arrow("axial", *((far, near) if N > 0 else (near, far)), width=1.6, head_size=8.0))
     at = _pt(L, 0.0, gap[1], 0.09) if (L, +1, gap[1]) in ends else _pt(0.0, 0.0, -(gap[0] + length), 0.09)
     sense = "compression" if N > 0 else "tension"
-    out.append(Text("label", f"N = {U.show('force', abs(N), 5)}\n{sense}", at, size=6.8))
+    out.append(Text("axial", f"N = {U.show('force', abs(N), 5)}\n{sense}", at, size=6.8))
 
 
 def _bow(out, result, U: Units, L: float) -> None:

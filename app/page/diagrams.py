@@ -216,10 +216,7 @@ class DiagramsView(pn.viewable.Viewer):
         with pn.io.hold():
             if full or self._drawn_case is None:
                 self._drawn_case = case_identity(result.case)
-                L = result.case.length * U.length.factor
-                pad = 0.1 * L
-                # No bounds: the browser would clamp a new range to the old bounds (new length, units).
-                self.x_range.update(start=-pad, end=L + pad, reset_start=-pad, reset_end=L + pad)
+                self.sketch.fit_range(result.case.length * U.length.factor)
                 self._axis_labels(U)
                 self.sketch.draw()
                 self.draw_variants()

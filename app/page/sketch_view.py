@@ -1,7 +1,19 @@
-"""The member sketch: the member to scale along x, its supports, loads, initial bow and axial force.
+"""The member sketch on the page: the shapes of :func:`app.sketch.sketch`, drawn with Bokeh.
 
-:class:`SketchView` draws on its own Bokeh figure, which shares the diagrams' x range. The drawing of the
-geometry (:meth:`SketchView.draw`) is the seam where a sketch geometry shared with the exports plugs in.
+The PNG and the calc sheet draw the same shapes with matplotlib (:mod:`app.exports.sketch_draw`), so the
+page and the exports show the same supports, loads, axial force, bow and labels. This module only renders:
+each shape becomes a row of one of a few sources (lines, patches, arrows, texts), and each role a colour of
+:mod:`app.page.style`. It does no geometry of its own.
+
+Scale. The figure shares the diagrams' x range, so the member lines up above its diagrams; the range keeps
+at least :data:`app.sketch.PAD_INCHES` beyond each end for the supports and the axial-force arrows. The y
+range is :data:`app.sketch.Y_RANGE` with a strip above it for the texts at the frame's edge. A shape's
+fixed-size offsets (``dx``, ``dy``, in inches on paper) become data units with the frame's inner size in
+pixels, which the browser reports (before the first report the nominal size is assumed), at
+:data:`SKETCH_INCH` pixels to the inch; the view redraws when the size changes.
+
+The axial-force arrows, their label and the danger note (roles ``axial`` and ``danger``) change with N:
+:meth:`SketchView.draw_force` rewrites only their small sources on each step of the slider.
 """
 
 from __future__ import annotations
@@ -10,283 +22,351 @@ import math
 
 import numpy as np
 import param
-from bokeh.models import Arrow, ColumnDataSource, LabelSet, Range1d, VeeHead
+from bokeh.core.property.descriptors import UnsetValueError
+from bokeh.models import Arrow as ArrowAnnotation
+from bokeh.models import ColumnDataSource, LabelSet, NormalHead, Range1d
 from bokeh.plotting import figure
 
 from app.page.style import BOW, LOAD, MEMBER
+from app.sketch import FRAME_LEFT, PAD_INCHES, Y_RANGE, Arrow, Polygon, Polyline, Text, sketch
 from app.state import MemberState
 from app.units import units
 
-__all__ = ["SketchView"]
+__all__ = ["SKETCH_INCH", "SketchView"]
+
+#: Screen pixels to the inch (CSS), and to the point: line widths and arrow heads keep their size.
+PX_PER_INCH = 96.0
+PX_PER_PT = PX_PER_INCH / 72.0
+#: Screen pixels to the sketch's inch (its fixed-size offsets): the page draws supports, gaps and the axial
+#: arrows at three quarters of their size on paper, so that the sketch fits a strip little taller than an
+#: inch and the diagrams keep their room at 1280 × 720.
+SKETCH_INCH = 72.0
+#: Texts are set this much larger than their size in points: the exports' 6.5 pt would be 8.7 px here, too
+#: small to read on a screen across a meeting room; 1.15 times makes it 10 px (the note 10.7 px).
+TEXT_SCALE = 1.15
+
+#: Colour of each role (the rest in MEMBER); hinges are filled white, load areas light grey.
+COLOURS = {
+    "load": LOAD,
+    "load-fill": LOAD,
+    "load-label": LOAD,
+    "bow": BOW,
+    "bow-label": BOW,
+    "dimension": "#5b6670",
+    "note": "#5b6670",
+    "danger": "#a3261b",
+}
+FILLS = {"hinge": "#ffffff", "load-fill": "#e6e6e6"}
+#: The roles that change with N (drawn by :meth:`SketchView.draw_force`).
+FORCE_ROLES = ("axial", "danger")
+
+#: The figure's height [px]: about the least that holds a spring's zigzag and the support labels under the
+#: axis (half a sketch inch and a line of text), with the loads and the note strip above it.
+HEIGHT = 120
+#: Sketch units added above :data:`app.sketch.Y_RANGE`: a strip for the texts at the frame's edge (the note,
+#: or the danger note in its place), which the page's larger type would otherwise lay over the load labels.
+NOTE_ROOM = 0.3
+Y_SPAN = (Y_RANGE[0], Y_RANGE[1] + NOTE_ROOM)
+#: Average width of a character, in font sizes, to keep a text inside the frame (Helvetica-like faces).
+CHAR_WIDTH = 0.56
+BORDERS = {"left": 62, "right": 14, "top": 2, "bottom": 2}
+
+
+def _columns(*names) -> dict:
+    return {name: [] for name in names}
+
+
+LINE_COLUMNS = ("xs", "ys", "color", "width", "dash", "role")
+PATCH_COLUMNS = ("xs", "ys", "fill", "color", "width", "alpha", "role")
+ARROW_COLUMNS = ("x0", "y0", "x1", "y1", "color", "width", "head", "role")
+TEXT_COLUMNS = ("x", "y", "text", "align", "baseline", "size", "color", "style", "ground", "role")
+
+
+def _reported(fig, name: str):
+    """A size the browser reports (None until it has)."""
+    try:
+        return getattr(fig, name)
+    except UnsetValueError:
+        return None
+
+
+#: How the arrow and text sources' columns drive their Bokeh annotations.
+ARROW_FIELDS = dict(
+    x_start="x0", y_start="y0", x_end="x1", y_end="y1", line_color="color", line_width="width"
+)
+TEXT_FIELDS = dict(
+    x="x",
+    y="y",
+    text="text",
+    text_align="align",
+    text_baseline="baseline",
+    text_font_size="size",
+    text_color="color",
+    text_font_style="style",
+    text_line_height=1.1,
+    background_fill_color="ground",
+    background_fill_alpha=0.8,
+)
+
+
+class _Scale:
+    """Data units per inch of the frame in x and y; texts at the frame's edge in screen pixels."""
+
+    def __init__(self, x_range: Range1d, inner_width: float, inner_height: float, bottom: float) -> None:
+        self.x = (x_range.end - x_range.start) / max(inner_width / SKETCH_INCH, 1e-6)
+        self.y = (Y_SPAN[1] - bottom) / max(inner_height / SKETCH_INCH, 1e-6)
+        self.width, self.start = inner_width, x_range.start
+
+    def xs(self, x, dx) -> list:
+        return np.atleast_1d(np.asarray(x, dtype=float) + np.asarray(dx, dtype=float) * self.x).tolist()
+
+    def ys(self, y, dy) -> list:
+        return np.atleast_1d(np.asarray(y, dtype=float) + np.asarray(dy, dtype=float) * self.y).tolist()
+
+
+def _inside(s: _Scale, x: float, align: str, width: float) -> float:
+    """`x` moved along so that a text `width` px wide, aligned there, stays inside the frame: the page's
+    frame is narrower than the exports' and its type larger, so the axial-force label would be clipped."""
+    px = (x - s.start) / s.x * SKETCH_INCH
+    left = px - {"left": 0.0, "center": width / 2, "right": width}[align]
+    shift = max(0.0, -left) - max(0.0, left + width - s.width)
+    return x + shift / SKETCH_INCH * s.x if shift else x
+
+
+def _text_size(shape: Text) -> float:
+    """A text's font size on the page [px]."""
+    return shape.size * PX_PER_PT * TEXT_SCALE
+
+
+def _bottom(shapes, inner_height: float) -> float:
+    """The y range's lower end: :data:`app.sketch.Y_RANGE`'s, or lower so that the lowest text (a support's
+    two-line label under a spring) stays inside the frame; the sketch then gets a little flatter."""
+    bottom = Y_RANGE[0]
+    texts = [t for t in shapes if isinstance(t, Text) and not math.isinf(t.at[0])]
+    for _ in range(4):  # a fixed point: the scale depends on the range
+        sy = (Y_SPAN[1] - bottom) / max(inner_height / SKETCH_INCH, 1e-6)
+        lowest = Y_RANGE[0]
+        for t in texts:
+            lines = t.text.count("\n") + 1
+            below = {"top": lines, "center": lines / 2}.get(t.va, 0.0) * 1.15 * _text_size(t) + 2
+            lowest = min(lowest, t.at[1] + (t.at[3] - below / SKETCH_INCH) * sy)
+        bottom = min(Y_RANGE[0], lowest)
+    return bottom
+
+
+def _render(shapes, s: _Scale) -> dict:
+    """The sources' data for `shapes`: ``lines``, ``patches``, ``arrows``, ``text`` (x in data units) and
+    ``frame_text`` (x in screen pixels from the frame's left edge)."""
+    out = {
+        "lines": _columns(*LINE_COLUMNS),
+        "patches": _columns(*PATCH_COLUMNS),
+        "arrows": _columns(*ARROW_COLUMNS),
+        "text": _columns(*TEXT_COLUMNS),
+        "frame_text": _columns(*TEXT_COLUMNS),
+    }
+
+    def add(name, **row):
+        for key, value in row.items():
+            out[name][key].append(value)
+
+    for shape in shapes:
+        colour = COLOURS.get(shape.role, MEMBER)
+        if isinstance(shape, Polygon):
+            add(
+                "patches",
+                xs=s.xs(shape.x, shape.dx),
+                ys=s.ys(shape.y, shape.dy),
+                fill=FILLS.get(shape.role, "#ffffff"),
+                color=colour if shape.width > 0 else None,
+                width=shape.width * PX_PER_PT,
+                alpha=0.7 if shape.role == "load-fill" else 1.0,
+                role=shape.role,
+            )
+        elif isinstance(shape, Polyline):
+            add(
+                "lines",
+                xs=s.xs(shape.x, shape.dx),
+                ys=s.ys(shape.y, shape.dy),
+                color=colour,
+                width=shape.width * PX_PER_PT,
+                dash="dashed" if shape.dashed else "solid",
+                role=shape.role,
+            )
+        elif isinstance(shape, Arrow):
+            (x0,), (y0,) = s.xs(shape.tail[0], shape.tail[2]), s.ys(shape.tail[1], shape.tail[3])
+            (x1,), (y1,) = s.xs(shape.head[0], shape.head[2]), s.ys(shape.head[1], shape.head[3])
+            add(
+                "arrows",
+                x0=x0,
+                y0=y0,
+                x1=x1,
+                y1=y1,
+                color=colour,
+                width=shape.width * PX_PER_PT,
+                head=shape.head_size * PX_PER_PT,
+                role=shape.role,
+            )
+        elif isinstance(shape, Text):
+            x, y, dx, dy = shape.at
+            size = _text_size(shape)
+            if math.isinf(x):  # at the frame's edge, whatever the x range shows, in the note strip
+                target, x, y = (
+                    "frame_text",
+                    (0.0 if x == FRAME_LEFT else s.width) + dx * SKETCH_INCH,
+                    y + NOTE_ROOM,
+                )
+            else:
+                target, x = "text", s.xs(x, dx)[0]
+                x = _inside(s, x, shape.ha, size * CHAR_WIDTH * max(map(len, shape.text.split("\n"))))
+            add(
+                target,
+                x=x,
+                y=s.ys(y, dy)[0],
+                text=shape.text,
+                align=shape.ha,
+                baseline="middle" if shape.va == "center" else shape.va,
+                size=f"{size:.1f}px",
+                color=colour,
+                style="bold" if shape.bold else "normal",
+                # A white ground where a line may pass behind (the dimension line, the load's end).
+                ground="#ffffff" if shape.role in ("load-label", "axial", "label") else None,
+                role=shape.role,
+            )
+    return out
 
 
 class SketchView(param.Parameterized):
-    """The sketch figure and its sources, drawn from the state's result."""
+    """The sketch figure and its sources, drawn from the state's result with :func:`app.sketch.sketch`."""
 
     state = param.ClassSelector(class_=MemberState, doc="The page state: inputs (SI) and results.")
 
     def __init__(self, state: MemberState, x_range: Range1d, **params) -> None:
         super().__init__(state=state, **params)
-        self.lines = ColumnDataSource(data={"xs": [], "ys": [], "color": [], "width": [], "dash": []})
-        self.arrows = ColumnDataSource(data={"x0": [], "y0": [], "x1": [], "y1": []})
-        self.text = ColumnDataSource(data={"x": [], "y": [], "text": [], "align": [], "baseline": []})
-        self.points = ColumnDataSource(data={"x": [], "y": [], "marker": [], "size": []})
-        self.axial_arrows = ColumnDataSource(data={"x0": [], "y0": [], "x1": [], "y1": []})
-        self.axial_text = ColumnDataSource(data={"x": [], "y": [], "text": [], "align": []})
         self.x_range = x_range
-        sketch = figure(
-            height=98,
+        self.lines = ColumnDataSource(data=_columns(*LINE_COLUMNS), name="sketch_lines")
+        self.patches = ColumnDataSource(data=_columns(*PATCH_COLUMNS), name="sketch_patches")
+        self.arrows = ColumnDataSource(data=_columns(*ARROW_COLUMNS), name="sketch_arrows")
+        self.text = ColumnDataSource(data=_columns(*TEXT_COLUMNS), name="sketch_text")
+        self.frame_text = ColumnDataSource(data=_columns(*TEXT_COLUMNS), name="sketch_frame_text")
+        # What changes with N: the axial-force arrows, their label and the danger note.
+        self.axial_arrows = ColumnDataSource(data=_columns(*ARROW_COLUMNS), name="sketch_axial_arrows")
+        self.axial_text = ColumnDataSource(data=_columns(*TEXT_COLUMNS), name="sketch_axial_text")
+        self.axial_frame_text = ColumnDataSource(data=_columns(*TEXT_COLUMNS), name="sketch_danger")
+        fig = figure(
+            name="sketch",
+            height=HEIGHT,
             sizing_mode="stretch_width",
             x_range=self.x_range,
-            y_range=Range1d(-1.75, 1.6),
+            y_range=Range1d(*Y_SPAN),
             toolbar_location=None,
             tools="",
-            min_border_left=62,
-            min_border_right=14,
-            min_border_top=2,
-            min_border_bottom=2,
+            min_border_left=BORDERS["left"],
+            min_border_right=BORDERS["right"],
+            min_border_top=BORDERS["top"],
+            min_border_bottom=BORDERS["bottom"],
         )
-        sketch.axis.visible = False
-        sketch.grid.visible = False
-        sketch.outline_line_color = None
-        sketch.multi_line(
-            "xs", "ys", source=self.lines, line_color="color", line_width="width", line_dash="solid"
+        fig.axis.visible = False
+        fig.grid.visible = False
+        fig.outline_line_color = None
+        fig.patches(
+            "xs",
+            "ys",
+            source=self.patches,
+            fill_color="fill",
+            fill_alpha="alpha",
+            line_color="color",
+            line_width="width",
         )
-        sketch.scatter(
-            "x",
-            "y",
-            marker="marker",
-            size="size",
-            source=self.points,
-            fill_color="#ffffff",
-            line_color=MEMBER,
-            line_width=1.5,
+        fig.multi_line(
+            "xs", "ys", source=self.lines, line_color="color", line_width="width", line_dash="dash"
         )
-        for source, colour, head, width in ((self.arrows, LOAD, 7, 1.6), (self.axial_arrows, MEMBER, 9, 2.5)):
-            sketch.add_layout(
-                Arrow(
-                    end=VeeHead(size=head, line_color=colour, line_width=min(width, 2.0)),
+        for source in (self.arrows, self.axial_arrows):
+            fig.add_layout(
+                ArrowAnnotation(
+                    end=NormalHead(size="head", line_color="color", fill_color="color", line_width=1),
                     source=source,
-                    x_start="x0",
-                    y_start="y0",
-                    x_end="x1",
-                    y_end="y1",
-                    line_color=colour,
-                    line_width=width,
+                    **ARROW_FIELDS,
                 )
             )
-        for source, size, baseline, style in (
-            (self.text, "12px", "baseline", "normal"),
-            (self.axial_text, "12.5px", None, "bold"),
+        self.labels = {}
+        for source, x_units in (
+            (self.text, "data"),
+            (self.axial_text, "data"),
+            (self.frame_text, "screen"),
+            (self.axial_frame_text, "screen"),
         ):
-            sketch.add_layout(
-                LabelSet(
-                    x="x",
-                    y="y",
-                    text="text",
-                    text_align="align",
-                    text_baseline=baseline or "middle",
-                    source=source,
-                    text_font_size=size,
-                    text_color=MEMBER,
-                    text_font_style=style,
-                )
-            )
-        self.figure = sketch
+            self.labels[source.name] = LabelSet(source=source, x_units=x_units, **TEXT_FIELDS)
+            fig.add_layout(self.labels[source.name])
+        self.figure = fig
+        fig.on_change("inner_width", self._resized)
+        fig.on_change("inner_height", self._resized)
+
+    # ------------------------------------------------------------------ size and range
+
+    def inner_size(self) -> tuple[float, float]:
+        """The frame's inner width and height [px]: as the browser reports them, else the nominal size."""
+        fig = self.figure
+        width = _reported(fig, "inner_width") or (fig.width or 600) - BORDERS["left"] - BORDERS["right"]
+        height = _reported(fig, "inner_height") or HEIGHT - BORDERS["top"] - BORDERS["bottom"]
+        return float(width), float(height)
+
+    def padding(self, L: float) -> float:
+        """Room beyond each end of a member `L` long, in the x range's units: a tenth of L, and at least
+        :data:`PAD_INCHES` on the frame for the supports and the axial-force arrows."""
+        width_in = self.inner_size()[0] / SKETCH_INCH
+        return max(0.1 * L, PAD_INCHES * L / max(width_in - 2 * PAD_INCHES, 1.0))
+
+    def fit_range(self, L: float) -> None:
+        """Show the member `L` long with its padding (no bounds: the browser would clamp a new range to the
+        old bounds after a change of length or units)."""
+        pad = self.padding(L)
+        self.x_range.update(start=-pad, end=L + pad, reset_start=-pad, reset_end=L + pad)
+
+    def _resized(self, attr, old, new) -> None:
+        result = self.state.result
+        if result is None:
+            return
+        r = self.x_range
+        if r.start == r.reset_start and r.end == r.reset_end:  # not zoomed or panned: refit
+            self.fit_range(result.case.length * units(self.state.units).length.factor)
+        self.draw()
+        self.draw_force()
+
+    # ------------------------------------------------------------------ drawing
+
+    def _data(self, fit: bool):
+        """The result's shapes and the scale to draw them with; `fit` fits the y range to them first."""
+        result = self.state.result
+        if result is None:
+            return None
+        shapes = sketch(result, units(self.state.units)).shapes
+        width, height = self.inner_size()
+        if fit:
+            self.figure.y_range.start = _bottom(shapes, height)
+        return shapes, _Scale(self.x_range, width, height, self.figure.y_range.start)
 
     def draw(self) -> None:
-        """Draw the result's member, supports, loads and bow (what does not change with N)."""
-        result = self.state.result
-        if result is None:
+        """Draw the sketch's shapes that do not change with N: member, supports, loads, bow, labels."""
+        found = self._data(fit=True)
+        if found is None:
             return
-        case = result.case
-        U = units(self.state.units)
-        le = U.length.factor
-        L = case.length * le
-        lines = {"xs": [], "ys": [], "color": [], "width": [], "dash": []}
-        points = {"x": [], "y": [], "marker": [], "size": []}
-        arrows = {"x0": [], "y0": [], "x1": [], "y1": []}
-        text = {"x": [], "y": [], "text": [], "align": [], "baseline": []}
-
-        def line(xs, ys, color=MEMBER, width=1.5):
-            lines["xs"].append(list(xs))
-            lines["ys"].append(list(ys))
-            lines["color"].append(color)
-            lines["width"].append(width)
-            lines["dash"].append("solid")
-
-        def label(x, y, words, align="center", baseline="middle"):
-            text["x"].append(x)
-            text["y"].append(y)
-            text["text"].append(words)
-            text["align"].append(align)
-            text["baseline"].append(baseline)
-
-        # the member, and its initial bow exaggerated (positive w drawn downwards)
-        line([0.0, L], [0.0, 0.0], MEMBER, 4)
-        bow = np.asarray(result.initial_bow, dtype=float)
-        amplitude = float(np.max(np.abs(bow))) if bow.size else 0.0
-        if amplitude > 0:
-            line(np.asarray(result.x) * le, -0.42 * bow / amplitude, BOW, 1.8)
-            label(
-                0.5 * L,
-                -0.62,
-                f"initial bow {U.show('small_length', amplitude)} (exaggerated)",
-                "center",
-                "top",
-            )
-        for side, x_end, outward in (("left", 0.0, -1.0), ("right", L, 1.0)):
-            self._support(getattr(case, side), x_end, outward, L, line, points, label)
-        # loads: arrows along +w (downwards on the sketch), lengths in proportion within each kind
-        distributed = [ld for ld in case.loads if ld.type in ("uniform", "linear")]
-        q_top = (
-            max(
-                [
-                    abs(v)
-                    for ld in distributed
-                    for v in ((ld.q,) if ld.type == "uniform" else (ld.q_start, ld.q_end))
-                ]
-                or [1.0]
-            )
-            or 1.0
-        )
-        forces = [abs(ld.P) for ld in case.loads if ld.type == "point"]
-        p_top = max(forces or [1.0]) or 1.0
-        for ld in case.loads:
-            if ld.type in ("uniform", "linear"):
-                a, b = ld.span(case.length)
-                qa, qb = (ld.q, ld.q) if ld.type == "uniform" else (ld.q_start, ld.q_end)
-                count = max(2, int(round(12 * (b - a) / case.length)) + 1)
-                xs = np.linspace(a, b, count)
-                qs = np.linspace(qa, qb, count)
-                tops = []
-                for xq, q in zip(xs, qs, strict=False):
-                    height = 0.25 + 0.55 * abs(q) / q_top
-                    top = height if q >= 0 else -height
-                    tops.append(top)
-                    if q != 0:
-                        arrows["x0"].append(xq * le)
-                        arrows["y0"].append(top)
-                        arrows["x1"].append(xq * le)
-                        arrows["y1"].append(0.06 if q > 0 else -0.06)
-                line(xs * le, tops, LOAD, 1.4)
-                words = (
-                    U.show("line_load", qa)
-                    if ld.type == "uniform"
-                    else f"{U.show('line_load', qa)} → {U.show('line_load', qb)}"
-                )
-                up = max(tops) > 0
-                label(
-                    b * le,
-                    (max(tops) + 0.08) if up else (min(tops) - 0.08),
-                    words,
-                    "right",
-                    "bottom" if up else "top",
-                )
-            elif ld.type == "point":
-                height = 0.4 + 0.7 * abs(ld.P) / p_top
-                top = height if ld.P >= 0 else -height
-                arrows["x0"].append(ld.x * le)
-                arrows["y0"].append(top)
-                arrows["x1"].append(ld.x * le)
-                arrows["y1"].append(0.05 if ld.P >= 0 else -0.05)
-                label(
-                    ld.x * le,
-                    top + (0.06 if ld.P >= 0 else -0.06),
-                    U.show("force", ld.P),
-                    "center",
-                    "bottom" if ld.P >= 0 else "top",
-                )
-            elif ld.type == "couple":
-                theta = np.linspace(0.2 * math.pi, 1.8 * math.pi, 30)
-                radius_x, radius_y = 0.035 * L, 0.42
-                sense = 1.0 if ld.C >= 0 else -1.0
-                cx = ld.x * le
-                line(cx + radius_x * np.cos(theta), radius_y * np.sin(sense * theta), LOAD, 1.6)
-                end_x = cx + radius_x * math.cos(1.8 * math.pi)
-                end_y = radius_y * math.sin(sense * 1.8 * math.pi)
-                arrows["x0"].append(cx + radius_x * math.cos(1.7 * math.pi))
-                arrows["y0"].append(radius_y * math.sin(sense * 1.7 * math.pi))
-                arrows["x1"].append(end_x)
-                arrows["y1"].append(end_y)
-                label(cx + 0.05 * L, 0.5, U.show("moment", ld.C), "left", "middle")
-        self.lines.data = lines
-        self.points.data = points
-        self.arrows.data = arrows
-        self.text.data = text
-
-    @staticmethod
-    def _support(end, x_end, outward, L, line, points, label) -> None:
-        """A support symbol of our own at one end: the restraints drawn as they act."""
-        t, r = end.translation, end.rotation
-        name = end.name
-        u = 0.03 * L  # a unit of width along x
-        if name == "pinned":
-            points["x"].append(x_end)
-            points["y"].append(-0.32)
-            points["marker"].append("triangle")
-            points["size"].append(18)
-            line([x_end - 1.3 * u, x_end + 1.3 * u], [-0.62, -0.62], MEMBER, 2)
-        elif name == "fixed" or (t == "fixed" and r == "fixed"):
-            line([x_end, x_end], [-0.8, 0.8], MEMBER, 4)
-            for y in np.linspace(-0.75, 0.75, 6):
-                line([x_end, x_end + outward * 0.8 * u], [y, y - 0.2], MEMBER, 1.2)
-        elif name == "guided":
-            # a sleeve: the end slides sideways but cannot turn
-            line([x_end + outward * 0.4 * u, x_end + outward * 0.4 * u], [-0.8, 0.8], MEMBER, 3)
-            line([x_end + outward * 1.2 * u, x_end + outward * 1.2 * u], [-0.8, 0.8], MEMBER, 1.2)
-            points["x"] += [x_end + outward * 0.8 * u] * 2
-            points["y"] += [-0.45, 0.45]
-            points["marker"] += ["circle", "circle"]
-            points["size"] += [7, 7]
-        elif name == "free":
-            label(x_end + outward * 0.4 * u, -0.35, "free", "left" if outward > 0 else "right", "middle")
-        else:
-            if not isinstance(t, str):  # translation spring: a zigzag below the end
-                ys = np.linspace(-0.08, -1.0, 9)
-                xs = [x_end + (0.6 * u if i % 2 else -0.6 * u) if 0 < i < 8 else x_end for i in range(9)]
-                line(xs, ys, MEMBER, 1.5)
-                line([x_end - 1.2 * u, x_end + 1.2 * u], [-1.05, -1.05], MEMBER, 2)
-            elif t == "fixed":
-                points["x"].append(x_end)
-                points["y"].append(-0.32)
-                points["marker"].append("triangle")
-                points["size"].append(18)
-                line([x_end - 1.3 * u, x_end + 1.3 * u], [-0.62, -0.62], MEMBER, 2)
-            if not isinstance(r, str):  # rotation spring: a coil at the end
-                theta = np.linspace(0, 3.2 * math.pi, 40)
-                radius = np.linspace(0.1, 0.45, 40)
-                line(
-                    x_end + outward * 0.9 * u + radius * np.cos(theta) * u * 1.6,
-                    radius * np.sin(theta) + 0.35,
-                    MEMBER,
-                    1.3,
-                )
-            elif r == "fixed":
-                line([x_end, x_end], [-0.5, 0.5], MEMBER, 3)
-            label(x_end + outward * 0.3 * u, 1.05, "springs", "left" if outward > 0 else "right", "middle")
+        shapes, scale = found
+        data = _render([s for s in shapes if s.role not in FORCE_ROLES], scale)
+        self.lines.data = data["lines"]
+        self.patches.data = data["patches"]
+        self.arrows.data = data["arrows"]
+        self.text.data = data["text"]
+        self.frame_text.data = data["frame_text"]
 
     def draw_force(self) -> None:
-        """The axial force arrows and label; they follow N while it is dragged."""
-        result = self.state.result
-        if result is None:
+        """The axial-force arrows, their label and the danger note; they follow N while it is dragged."""
+        found = self._data(fit=False)
+        if found is None:
             return
-        U = units(self.state.units)
-        P = float(result.axial_force)
-        # The sketch's axial force arrows and label follow N while it is dragged.
-        L = result.case.length * U.length.factor
-        if P == 0:
-            self.axial_arrows.data = {"x0": [], "y0": [], "x1": [], "y1": []}
-        else:
-            out, near = 0.075 * L, 0.012 * L
-            if P > 0:  # compression: arrows push on the ends
-                x0, x1 = [-out, L + out], [-near, L + near]
-            else:
-                x0, x1 = [-near, L + near], [-out, L + out]
-            self.axial_arrows.data = {"x0": x0, "y0": [0.0, 0.0], "x1": x1, "y1": [0.0, 0.0]}
-        self.axial_text.data = {
-            "x": [L + 0.095 * L],
-            "y": [-1.4],
-            "text": [f"N = {U.show('force', P)}"],
-            "align": ["right"],
-        }
+        shapes, scale = found
+        data = _render([s for s in shapes if s.role in FORCE_ROLES], scale)
+        self.axial_arrows.data = data["arrows"]
+        self.axial_text.data = data["text"]
+        self.axial_frame_text.data = data["frame_text"]
+        # The danger note takes the note's place in the strip (both are too long for one line on a screen).
+        self.labels["sketch_frame_text"].visible = not data["frame_text"]["text"]

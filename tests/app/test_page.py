@@ -233,7 +233,7 @@ def test_sketch_draws_every_load(page):
     xs = page.diagrams.sketch.arrows.data["x0"]
     assert 2.2 in xs  # the point load at 2.2 m
     assert min(xs) == 0.0 and max(xs) == 6.0  # the uniform load spans the member
-    assert page.diagrams.sketch.axial_text.data["text"] == ["N = 350.0 kN"]
+    assert page.diagrams.sketch.axial_text.data["text"] == ["N = 350.00 kN\ncompression"]
 
 
 def test_downloads_are_real_files(page):
