@@ -11,7 +11,7 @@ import math
 import re
 
 from app.page.style import esc
-from app.report import SYMBOLS, bow_direction_text, bow_text, quoted_text, reaction_rows
+from app.report import SYMBOLS, bow_direction_text, bow_text, percent, quoted_text, ratio, reaction_rows
 from engine.codes import alpha_cr_limit
 
 __all__ = [
@@ -36,12 +36,10 @@ def plain(value) -> float:
 
 
 def ratio_text(value) -> str:
-    if value is None:
-        return "n/a"
-    value = float(value)
-    if math.isinf(value):
-        return "∞ (no compression)" if value > 0 else "n/a"
-    return f"{value:.3f}"
+    """A ratio as app.report writes it; an infinite one (α_cr without compression) in words."""
+    if value is not None and math.isinf(float(value)):
+        return "∞ (no compression)" if float(value) > 0 else "n/a"
+    return ratio(value)
 
 
 # Short forms of long check kinds, so that the values column does not wrap.
@@ -57,12 +55,6 @@ def utilisation_text(value) -> str:
     if value is not None and math.isinf(float(value)):
         return "∞ fails"
     return ratio_text(value)
-
-
-def percent(error) -> str:
-    if error is None or not math.isfinite(float(error)):
-        return "n/a"
-    return f"{float(error):+.1%}"
 
 
 def values_table(result, capacity, capacity_note: str, U) -> str:
