@@ -168,8 +168,13 @@ class ForceControl(pn.viewable.Viewer):
         if status == "stable" and ratio >= NEAR_CRITICAL_RATIO:
             status = "near"
         alpha = "∞" if math.isinf(result.alpha_cr) else ratio_text(result.alpha_cr)
+        # The status badge speaks of equilibrium; a member that is in equilibrium but fails its check must not
+        # read as safe beside it, so a second flag says so (the values table gives the governing check).
+        check = result.check
+        fails = check is not None and check.utilization is not None and check.utilization > 1
+        flag = "<span class='ss-flag ss-fails'>fails check</span>" if fails else ""
         self.readout.object = (
             f"<div class='ss-readout'><b>{esc(U.show('force', P, digits=5))}</b> "
-            f"<span class='ss-badge ss-{status}'>{_BADGES.get(status, status)}</span><br>"
+            f"<span class='ss-badge ss-{status}'>{_BADGES.get(status, status)}</span>{flag}<br>"
             f"{kind} · N/Pcr1 <b>{ratio:.3f}</b> · α<sub>cr</sub> <b>{esc(alpha)}</b></div>"
         )

@@ -91,7 +91,9 @@ CSS = """
 .ss-readout b { font-size: 15px; }
 .ss-badge { display: inline-block; padding: 1px 7px; border-radius: 3px; font-size: 12px; font-weight: 700;
             color: #fff; letter-spacing: 0.03em; }
-.ss-stable { background: #2e6b3c; } .ss-unstable, .ss-critical { background: #a3261b; }
+.ss-flag { display: inline-block; padding: 1px 7px; border-radius: 3px; font-size: 12px; font-weight: 700;
+           color: #fff; letter-spacing: 0.03em; margin-left: 4px; }
+.ss-stable { background: #2e6b3c; } .ss-unstable, .ss-critical, .ss-fails { background: #a3261b; }
 .ss-stale, .ss-near { background: #8a5a00; }
 .ss-stale-mark { font-size: 12px; font-weight: 700; color: #8a5a00; margin: 2px 3px; }
 .ss-stale-values { opacity: 0.45; }

@@ -387,3 +387,15 @@ def test_variant_names_say_what_differs_and_can_be_edited(page):
     page.variants.names[1].value = "B: heavier post"
     assert page.variants.kept[1]["name"] == "B: heavier post"
     assert "heavier post" in page.diagrams.key.object and "heavier post" in page.variants.table.object
+
+
+def test_a_member_that_fails_its_check_is_flagged_beside_the_stable_badge(page):
+    """At 350 kN the demo passes its check (utilisation 0.42) and shows no flag; at 1500 kN it is in
+    equilibrium ("stable") but fails out of plane (1.81): the readout says "fails check" beside the badge."""
+    assert page.model.result.check.utilization < 1
+    assert "fails check" not in page.force.readout.object
+    page.force_input.value = 1500.0
+    result = page.model.result
+    assert result.status == "stable" and result.check.utilization > 1
+    assert "ss-stable" in page.force.readout.object
+    assert "fails check" in page.force.readout.object

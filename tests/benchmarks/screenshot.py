@@ -46,6 +46,9 @@ def main(argv=None) -> int:
                 field.press("Enter")
                 expect(page.locator(".ss-readout b").first).to_have_text(re.compile(r"^1500(\.0+)? kN$"))
                 expect(page.locator(".ss-key")).to_contain_text("A: N 350.0 kN")
+                # The capacity is solved apart (a worker process); the shot waits until the table shows it.
+                capacity = page.locator("table.ss-values tr").filter(has_text="capacity N")
+                expect(capacity).to_contain_text("kN")
                 page.mouse.move(VIEWPORT["width"] - 5, VIEWPORT["height"] - 5)  # no hover readout in the shot
                 page.screenshot(path=args.out)
                 browser.close()

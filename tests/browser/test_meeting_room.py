@@ -105,6 +105,9 @@ def test_every_caution_is_readable_with_no_bow_and_near_the_critical_load(app):
     badge = page.locator(".ss-badge")
     expect(badge).to_have_text("near Pcr1")
     assert _uncovered(page, badge) and inside_window(badge) and left_of_the_values(page, badge)
+    flag = page.locator(".ss-flag")  # so close to Pcr1 the member fails its check too: said beside the badge
+    expect(flag).to_have_text("fails check")
+    assert _uncovered(page, flag) and inside_window(flag) and left_of_the_values(page, flag)
     danger = page.locator("li[data-code='near-critical-load']")
     expect(danger).to_be_visible()
     assert _uncovered(page, danger) and inside_window(danger)
