@@ -43,24 +43,23 @@ class _InputError(Exception):
 # Command line: shared pieces.
 
 
-def _station_count(text: str) -> int:
+def _count(text: str, minimum: int, why: str = "") -> int:
+    """A whole number of at least `minimum` from the command line; `why` is added to the refusal."""
     try:
         count = int(text)
     except ValueError:
         raise argparse.ArgumentTypeError(f"{text!r} is not a whole number") from None
-    if count < 2:
-        raise argparse.ArgumentTypeError(f"{count} must be at least 2 (the two ends)")
+    if count < minimum:
+        raise argparse.ArgumentTypeError(f"{count} must be at least {minimum}{why}")
     return count
+
+
+def _station_count(text: str) -> int:
+    return _count(text, 2, " (the two ends)")
 
 
 def _worker_count(text: str) -> int:
-    try:
-        count = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"{text!r} is not a whole number") from None
-    if count < 1:
-        raise argparse.ArgumentTypeError(f"{count} must be at least 1")
-    return count
+    return _count(text, 1)
 
 
 def _version() -> str:

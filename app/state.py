@@ -339,7 +339,7 @@ class MemberState(MemberInputs):
         self._base_case = case
         outputs: dict[str, Any] = {"result": result, "errors": {}}
         if full:
-            key = _case_key(case)
+            key = case.without_axial_force()
             if key != self._base_key:
                 self._base_key = key
                 if self._runner is None:
@@ -415,11 +415,6 @@ def _engine_failure(error: BaseException) -> str:
     text = text if len(text) <= 120 else text[:117] + "..."
     _log.error("strutscope: the engine could not solve a case (%s)", type(error).__name__)
     return f"case: the engine could not solve these inputs ({type(error).__name__}: {text})"
-
-
-def _case_key(case) -> str:
-    """A key of the case without its axial force: the chart is recomputed only when it changes."""
-    return repr(case.without_axial_force())
 
 
 def _solve_job(state: MemberState, case, refresh_id: int, full: bool):

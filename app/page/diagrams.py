@@ -28,7 +28,6 @@ from app.page.style import (
     finite,
     html_pane,
 )
-from app.page.words import case_identity
 from app.state import MemberState
 from app.units import units
 
@@ -205,7 +204,7 @@ class DiagramsView(pn.viewable.Viewer):
 
     def _result(self, event) -> None:
         result = self.state.result
-        self.draw(full=result is None or case_identity(result.case) != self._drawn_case)
+        self.draw(full=result is None or result.case.without_axial_force() != self._drawn_case)
 
     def draw(self, full: bool) -> None:
         """Push the result into the sources; `full` also redraws what N does not change."""
@@ -215,7 +214,7 @@ class DiagramsView(pn.viewable.Viewer):
         U = units(self.state.units)
         with pn.io.hold():
             if full or self._drawn_case is None:
-                self._drawn_case = case_identity(result.case)
+                self._drawn_case = result.case.without_axial_force()
                 self.sketch.fit_range(result.case.length * U.length.factor)
                 self._axis_labels(U)
                 self.sketch.draw()

@@ -10,7 +10,6 @@ from bokeh.models import ColumnDataSource, Legend, LegendItem, Range1d, Span
 from bokeh.plotting import figure
 
 from app.page.style import BOW, SECOND, TRANSVERSE, esc, finite, html_pane
-from app.page.words import case_identity
 from app.state import MemberState
 from app.units import units
 
@@ -81,7 +80,7 @@ class ModesView(pn.viewable.Viewer):
         result = self.state.result
         if result is None:
             return
-        key = (case_identity(result.case), self.state.units)
+        key = (result.case.without_axial_force(), self.state.units)
         if key == self._drawn and not force:
             return
         self._drawn = key

@@ -16,7 +16,6 @@ from engine.codes import alpha_cr_limit
 
 __all__ = [
     "bow_facts",
-    "case_identity",
     "check_facts",
     "plain",
     "ratio_text",
@@ -24,11 +23,6 @@ __all__ = [
     "symbols",
     "values_table",
 ]
-
-
-def case_identity(case) -> str:
-    """A key of the case without its axial force: the sketch, modes and ranges change only when it does."""
-    return repr(case.without_axial_force())
 
 
 def plain(value) -> float:
