@@ -260,6 +260,12 @@ class Result:
         The deflection check on the loads as given without the bow (section and material needed).
     cautions : tuple of Caution
         Most severe first; the general caution is always there (not on ``first_order``).
+    second_plane : Result or None
+        The solution of the second bending plane (bending about the other axis, same axial force) when the
+        case has a ``second_plane``; None for a one-plane case.
+    routes : tuple of RouteCheck
+        Each route of the member check (:mod:`engine.design.routes`), in the order of ``ROUTES``; empty
+        without a section and material.
     """
 
     case: object
@@ -291,6 +297,8 @@ class Result:
     utilization: float | None = None
     service: ServiceCheck | None = None
     cautions: tuple = ()
+    second_plane: Result | None = None
+    routes: tuple = ()
 
     @functools.cached_property
     def first_order(self) -> Result | None:
