@@ -15,7 +15,6 @@ import os
 import signal
 import socket
 import sys
-import threading
 import weakref
 from importlib import resources
 
@@ -27,9 +26,6 @@ __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", 
 DEFAULT_PORT = 7878
 #: Seconds after start-up before the worker processes are warmed (see :func:`serve`).
 _WARM_DELAY_S = 8.0
-#: Seconds after start-up before scipy's root finder is imported in the background, when no page has asked
-#: for it sooner (see :func:`_warm_roots`).
-_ROOTS_DELAY_S = 3.0
 #: How many ports above the default are tried when it is taken.
 _PORT_TRIES = 20
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
@@ -101,24 +97,6 @@ def _malloc_trim():
 _TRIM = False
 
 
-_roots_started = threading.Event()
-
-
-def _warm_roots() -> None:
-    """Import scipy's root finder in a background thread, once (start-up, issue 10).
-
-    The engine imports it when the first critical load is found (:mod:`engine.roots`), which a served page
-    does after the browser has loaded it. The first page's HTML is sent first; the import then runs while the
-    browser loads its scripts, instead of before the server listens (0.4 s of the start-up).
-    """
-    if _roots_started.is_set():
-        return
-    _roots_started.set()
-    from engine.roots import warm
-
-    threading.Thread(target=warm, name="strutscope-warm", daemon=True).start()
-
-
 def make_page(case=None):
     """Build one session's page on `case` (an :class:`engine.Case`; the invented demo case when None).
 
@@ -139,7 +117,15 @@ def make_page(case=None):
         runner = Runner(document)
         pn.state.onload(runner.start)
         pn.state.on_session_destroyed(lambda session_context: runner.close())
-    state = MemberState.from_case(case if case is not None else _demo_case(), runner=runner)
+    # The start case (the demo, or the file named on the command line) is trusted and bounded: it is solved
+    # while the page is built, so the first page the browser draws already holds its values (start-up, issue
+    # 10; it saved a round trip and a second layout). A case from the address is solved off the loop.
+    from_link = bool(_link_text(pn.state.session_args, "case")) if pn.state.location is not None else False
+    state = MemberState.from_case(
+        case if case is not None else _demo_case(), runner=runner if from_link else None
+    )
+    if not from_link and runner is not None:
+        state.attach_runner(runner)
     if pn.state.location is not None:
         # The link is the settled case (never the axial force while it is dragged); see MemberState.link.
         # Read before the page is built, so that the page opens on the link's case; a bad value is named in
@@ -153,10 +139,6 @@ def make_page(case=None):
         _log_sessions(page)
     if pn.state.curdoc is not None:
         pn.state.on_session_destroyed(_release_memory)
-    if document is not None and document.session_context is not None and not _roots_started.is_set():
-        from tornado.ioloop import IOLoop
-
-        IOLoop.current().add_callback(_warm_roots)  # after this request's HTML has been written
     return page
 
 
@@ -390,6 +372,11 @@ def serve(
         from app.page import UPLOAD_LIMIT, page_stylesheet
 
         pn.config.raw_css = [*pn.config.raw_css, page_stylesheet()]
+        # Bokeh checks every new document's models for layout mistakes (0.1–0.2 s per page, start-up, issue
+        # 10); a test runs the same check on a built page instead (tests/app/test_page_document.py).
+        from bokeh.settings import settings as bokeh_settings
+
+        bokeh_settings.perform_document_validation.set_value(False)
         # Issue 6 found that a stopped server went unreported: the page stayed as it was and ignored input.
         # Panel shows this message (in its notification area) when the websocket is lost.
         pn.config.disconnect_notification = DISCONNECTED
@@ -416,7 +403,6 @@ def serve(
         # Warm the worker processes once the first page has had the machine to itself (their imports compete
         # with it for the CPU: start-up, issue 10); a job before then starts its worker itself.
         server.io_loop.call_later(_WARM_DELAY_S, work.start_workers)
-        server.io_loop.call_later(_ROOTS_DELAY_S, _warm_roots)
     except OSError as error:
         print(f"error: cannot listen on {host}:{port}: {error.strerror or error}", file=sys.stderr)
         return 2

@@ -156,6 +156,11 @@ class MemberState(MemberInputs):
         """The :class:`app.work.Runner` a served page solves through, or None (everything solved at once)."""
         return self._runner
 
+    def attach_runner(self, runner) -> None:
+        """Solve every later change through `runner` (:mod:`app.work`): a served page's start case is solved
+        at once, then the runner takes over."""
+        self._runner = runner
+
     @classmethod
     def from_case(cls, case, **params: Any) -> MemberState:
         """A state holding `case` (an :class:`engine.Case`), solved once."""

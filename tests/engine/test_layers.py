@@ -1,8 +1,7 @@
 """The engine's layers: no import cycle between its modules, and no import hidden inside a function.
 
 An import inside a function is how a cycle is usually dodged, so both are checked by reading the source with
-``ast`` (nothing is imported). The one allowed function-level import is scipy.optimize in engine/roots.py,
-deferred for start-up time as that module documents (common practice, no source).
+``ast`` (nothing is imported). No function-level import is allowed.
 """
 
 import ast
@@ -14,11 +13,9 @@ import pytest
 ENGINE = pathlib.Path(__file__).resolve().parents[2] / "engine"
 
 # (module, imported name) pairs that may be imported inside a function, each with its reason.
-ALLOWED_DEFERRED = {
-    ("engine.roots", "scipy.optimize"),  # start-up time: scipy.optimize loads when the first root is needed
-}
+ALLOWED_DEFERRED: set = set()
 
-# Module-size limit of the project's rules (RULES.md, rule 8).
+# Module-size limit of the project's rules (DEVELOPERS.md).
 MAX_LINES = 600
 
 
