@@ -106,9 +106,9 @@ def moment_factor(a, b, alpha, beta):
     >>> float(moment_factor(0.6, 0.0, 2.0, 1.0)), round(float(moment_factor(0.3, 0.4, 2.0, 2.0)), 12)
     (0.6, 0.5)
     """
-    a, b = np.broadcast_arrays(np.asarray(a, dtype=float), np.asarray(b, dtype=float))
-    alpha = np.broadcast_to(np.asarray(alpha, dtype=float), a.shape)
-    beta = np.broadcast_to(np.asarray(beta, dtype=float), a.shape)
+    a, b, alpha, beta = np.broadcast_arrays(*(np.asarray(v, dtype=float) for v in (a, b, alpha, beta)))
+    shape = a.shape
+    a, b, alpha, beta = (v.ravel() for v in (a, b, alpha, beta))
     top = np.maximum(a, b)
     out = top.copy()
     both = (a > 0) & (b > 0) & np.isfinite(top)
@@ -123,7 +123,7 @@ def moment_factor(a, b, alpha, beta):
             if np.all(np.abs(step) <= 1e-15 * t):
                 break
         out[both] = 1.0 / t
-    return out
+    return out.reshape(shape)
 
 
 def pair_stations(x1, x2, tol):
@@ -166,7 +166,7 @@ def check_biaxial(
     section_class=None,
     eq_5_9: bool = False,
     beyond_critical: bool = False,
-    deflection=None,
+    service=None,
     axis: str = "major",
 ) -> MemberCheck:
     """The two-plane cross-section check at every combined station.
@@ -191,8 +191,9 @@ def check_biaxial(
         A plane's bow is the eq. (5.9) preset: the linear member check is added.
     beyond_critical : bool
         The axial force is above a plane's first critical load: the check fails (+inf).
-    deflection : MemberCheck or None
-        The first plane's own check, whose deflection (service) figures are carried over.
+    service : ServiceCheck or None
+        The first plane's deflection check, whose figures are carried over (each plane keeps its own in
+        ``Result.service``).
     axis : str
         The first plane's axis: ``resistances["M_Rd"]`` and ``["V_Rd"]`` are about it (``M_Rd_y``,
         ``M_Rd_z``, ``V_Rd_z``, ``V_Rd_y`` name both).
@@ -295,9 +296,9 @@ def check_biaxial(
         stations=strength,
         axial_bending=ab,
         shear=sh,
-        deflection_utilization=deflection.deflection_utilization if deflection is not None else 0.0,
-        max_deflection=deflection.max_deflection if deflection is not None else 0.0,
-        deflection_allowed=deflection.deflection_allowed if deflection is not None else math.inf,
+        deflection_utilization=service.utilization if service is not None else 0.0,
+        max_deflection=abs(service.deflection) if service is not None else 0.0,
+        deflection_allowed=service.allowed if service is not None else math.inf,
         resistances={
             "N_Rd": N_Rd,
             "M_Rd": M_Rd_y if axis == "major" else M_Rd_z,
@@ -364,6 +365,6 @@ def pair_check(case, P, planes):
         section_class=max(classes, key=lambda c: c.klass) if classes else None,
         eq_5_9="en1993-eq-5.9" in presets,
         beyond_critical="unstable" in (r1.status, r2.status),
-        deflection=r1.check,
+        service=r1.service,
         axis=case.axis,
     )

@@ -139,13 +139,19 @@ def _out_of_plane_cautions(found) -> list:
             )
         ]
     if found.utilization > 1.0:
+        force = found.utilization * found.N_b_Rd
+        beyond = (
+            f" N = {force * 1e-3:.6g} kN exceeds even the elastic critical load about that axis."
+            if found.N_cr is not None and force > found.N_cr
+            else ""
+        )
         return extra + [
             Caution(
                 level="danger",
                 code="out-of-plane-buckling",
                 message=(
                     f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
-                    f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
+                    f"plane analysed, {found.describe()}.{beyond} Brace it (a shorter out-of-plane "
                     "buckling length) or choose a larger section."
                 ),
                 source=found.source,
