@@ -465,7 +465,7 @@ def test_general_caution_names_what_two_planes_leave_out():
     """The general caution no longer says biaxial bending is unchecked, and names torsion and coupling."""
     message = engine.cautions.GENERAL.message
     assert "biaxial" not in message
-    assert "torsion" in message and "non-symmetric section" in message
+    assert "torsion" in message and "non-symmetric sections" in message and "two uncoupled planes" in message
 
 
 # ---------------------------------------------------------------------------------------------- invariant
