@@ -11,7 +11,15 @@ from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
 
-__all__ = ["Caution", "GENERAL", "LEVELS", "NEAR_CRITICAL_RATIO", "assess"]
+__all__ = [
+    "Caution",
+    "GENERAL",
+    "LEVELS",
+    "NEAR_CRITICAL_RATIO",
+    "PLANE_CODES",
+    "assess",
+    "merge_plane_cautions",
+]
 
 LEVELS = ("info", "warning", "danger")
 
@@ -46,9 +54,9 @@ GENERAL = Caution(
     level="info",
     code="scope",
     message=(
-        "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional "
-        "buckling, biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class "
-        "4 sections, connections and load combinations are not checked. Check the results "
+        "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
+        "lateral-torsional buckling, torsion, non-symmetric sections, EN 1993-1-1 eqs. (6.61)/(6.62), "
+        "class 4 sections, connections and load combinations are not checked. Check the results "
         "against your local codes and have them reviewed by a licensed engineer."
     ),
     source="strutscope's scope (common practice, no source)",
@@ -97,13 +105,14 @@ def _class_cautions(check) -> list:
     return []
 
 
-def _out_of_plane_cautions(found) -> list:
-    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made."""
+def _out_of_plane_cautions(found, P: float) -> list:
+    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made
+    (and a danger when, not made, N exceeds the elastic critical load about that axis)."""
     if found is None:
         return []
     if not found.checked:
         restrained = found.reason.startswith("restrained")
-        return [
+        out = [
             Caution(
                 level="info" if restrained else "warning",
                 code="out-of-plane-not-checked",
@@ -111,26 +120,106 @@ def _out_of_plane_cautions(found) -> list:
                 source=found.source,
             )
         ]
+        if found.N_cr is not None and P > found.N_cr:
+            out.append(
+                Caution(
+                    level="danger",
+                    code="out-of-plane-buckling",
+                    message=(
+                        f"N = {P * 1e-3:.6g} kN exceeds the elastic critical load about the {found.axis} "
+                        f"axis, N_cr = {found.N_cr * 1e-3:.6g} kN (L_cr = {found.buckling_length:.3f} m): "
+                        "the member buckles out of the plane analysed. Brace it or choose a larger section."
+                    ),
+                    source="Euler; Timoshenko & Gere (1961) ch. 2",
+                    values=found.facts(),
+                )
+            )
+        return out
     extra = []
     if found.note:
         extra.append(
             Caution(level="warning", code="out-of-plane-length", message=found.note, source=found.source)
         )
+    if found.utilization <= 1.0:
+        return extra + [
+            Caution(
+                level="info",
+                code="out-of-plane-checked",
+                message=(
+                    f"Out-of-plane flexural buckling ({found.axis} axis) checked: "
+                    f"N/N_b,Rd = {found.utilization:.3f} <= 1."
+                ),
+                source="EN 1993-1-1:2005 §6.3.1 (from memory)",
+                values=found.facts(),
+            )
+        ]
     if found.utilization > 1.0:
+        force = found.utilization * found.N_b_Rd
+        beyond = (
+            f" N = {force * 1e-3:.6g} kN exceeds even the elastic critical load about that axis."
+            if found.N_cr is not None and force > found.N_cr
+            else ""
+        )
         return extra + [
             Caution(
                 level="danger",
                 code="out-of-plane-buckling",
                 message=(
                     f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
-                    f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
+                    f"plane analysed, {found.describe()}.{beyond} Brace it (a shorter out-of-plane "
                     "buckling length) or choose a larger section."
                 ),
                 source=found.source,
                 values=found.facts(),
             )
         ]
-    return extra  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
+    return extra  # pragma: no cover - a NaN utilisation
+
+
+#: Cautions about one plane's own analysis: a two-plane case keeps the second plane's even when the first
+#: plane has one with the same words.
+PLANE_CODES = (
+    "at-critical-load",
+    "beyond-critical-load",
+    "near-critical-load",
+    "second-order-matters",
+    "slender",
+    "lateral-torsional-buckling",
+    "deflection",
+    "deflection-basis",
+    "bow-below-code",
+    "no-bow",
+    "bow-opposes-load",
+    "bow-shape",
+)
+
+
+def merge_plane_cautions(first, second, axis: str) -> tuple:
+    """The cautions of a two-plane case: the first plane's, then the second plane's that are about that
+    plane (:data:`PLANE_CODES`) or not already there, most severe first.
+
+    The second plane's get ``values["plane"] = 2`` and ``values["axis"]`` (the axis it bends about, for the
+    app to word) and their message opens with the plane. Its general caution and its own strength check's
+    ``overstressed`` (the first plane's list has the two-plane check's) are left out.
+    """
+    seen = {(c.code, c.message) for c in first}
+    out = list(first)
+    for caution in second:
+        if caution.code in ("scope", "overstressed"):
+            continue
+        if caution.code not in PLANE_CODES and (caution.code, caution.message) in seen:
+            continue
+        out.append(
+            Caution(
+                level=caution.level,
+                code=caution.code,
+                message=f"Second plane (bending about the {axis} axis): {caution.message}",
+                source=caution.source,
+                values={**caution.values, "plane": 2, "axis": axis},
+            )
+        )
+    order = {"danger": 0, "warning": 1, "info": 2}
+    return tuple(sorted(out, key=lambda c: order[c.level]))
 
 
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
@@ -346,7 +435,7 @@ def assess(
                 )
             )
         if P > 0:
-            out.extend(_out_of_plane_cautions(check.out_of_plane))
+            out.extend(_out_of_plane_cautions(check.out_of_plane, P))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))
     if (

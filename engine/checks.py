@@ -127,7 +127,10 @@ class MemberCheck:
     max_deflection, deflection_allowed : float
         [m].
     resistances : dict
-        N_Rd [N], M_Rd [N·m] (elastic or plastic), V_Rd [N] (None where not checked).
+        N_Rd [N], M_Rd [N·m] (elastic or plastic), V_Rd [N] (None where not checked). The two-plane check
+        (:mod:`engine.biaxial`) adds M_Rd_y and M_Rd_z [N·m] (about the major and the minor axis) and V_Rd_z
+        and V_Rd_y [N] (the shear of the major-axis and of the minor-axis plane); M_Rd and V_Rd are then the
+        first plane's.
     notes : tuple of str
         What was not checked, or checked another way than asked.
     section_class : SectionClass or None
@@ -138,6 +141,9 @@ class MemberCheck:
     in_plane_utilization : float
         The in-plane strength utilisation alone (cross-section checks along the member) [-].
     in_plane_kind : str
+    at : ndarray or None
+        Where ``stations``, ``axial_bending`` and ``shear`` are [m] when that is not the result's ``x``: the
+        two-plane check (:mod:`engine.biaxial`) runs on the stations of both planes merged; None otherwise.
     valid : bool
         False when the result cannot stand: a class 4 section in compression (its gross-section resistance
         does not apply) or an axial force above the first critical load; the utilisation is then +inf.
@@ -163,6 +169,7 @@ class MemberCheck:
     out_of_plane: object = None
     in_plane_utilization: float | None = None
     in_plane_kind: str = ""
+    at: np.ndarray | None = None
 
 
 def check_member(
