@@ -259,7 +259,7 @@ def _build(
     )
     if not first_order and section is not None and material is not None:  # the routes (issue 14)
         out = prep.out_of_plane() if getattr(case, "second_plane", None) is None else None
-        result = member_routes.attach(result, bow_free=bow_free, out_of_plane=out)
+        result = member_routes.attach(result, bow_free=bow_free, out_of_plane=out, cache=prep.design)
     if not first_order and cautions:
         result = _with_cautions(result, prep, favourable=False)
     return result
@@ -311,6 +311,7 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
             check=result.check,
             bow=facts,
             service=result.service,
+            routes=result.routes,
         )
     )
     return dataclasses.replace(result, cautions=cautions)

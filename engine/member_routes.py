@@ -65,7 +65,12 @@ def _bow_free_moment(res) -> float | None:
     return amp.moment_bow_free * res.governing.moment.magnitude / amp.moment_first_order
 
 
-def _diagram(res, case, sway):
+def _made(cache, key, make):
+    return make() if cache is None else cache(key, make)
+
+
+def _diagram(res, case):
+    """The first-order diagram of a plane (exact wherever it turns: every zero of V is a station)."""
     first = res.first_order
     return describe(
         x=first.x,
@@ -74,32 +79,46 @@ def _diagram(res, case, sway):
         shear=first.shear,
         loads=case.loads,
         length=case.length,
-        sway=sway,
+        sway=_sways(case),
     )
 
 
-def _plane(res, axis, case, *, M_second):
+def _curve(section, material):
+    return en_member.curve_of(section, material)[0] if material.kind == "steel" else None
+
+
+def _plane(res, axis, case, *, M_second, cache, which):
+    diagram = _made(cache, ("routes-diagram", which), lambda: _diagram(res, case))
+    curve = _made(cache, ("routes-curve", which), lambda: _curve(res.section, res.material))
     return Plane(
         axis=axis,
         section=res.section,
         N_cr=float(res.critical_loads[0]),
         EI=float(res.EI),
-        diagram=_diagram(res, case, _sways(case)),
+        diagram=diagram,
         M_second=M_second,
+        curve=curve,
     )
 
 
-def _planes(result, M_second, out_of_plane):
+def _planes(result, M_second, out_of_plane, cache):
     """The y and z planes of the member (``y`` bends about the major axis)."""
     case = result.case
     first_axis = "y" if case.axis == "major" else "z"
     other_axis = "z" if first_axis == "y" else "y"
-    first = _plane(result, first_axis, case, M_second=M_second)
+    first = _plane(result, first_axis, case, M_second=M_second, cache=cache, which="first")
     second = result.second_plane
     if second is not None:
-        other = _plane(second, other_axis, second.case, M_second=_bow_free_moment(second))
+        M_other = _bow_free_moment(second)
+        other = _plane(second, other_axis, second.case, M_second=M_other, cache=cache, which="second")
     else:
-        section = section_from_spec(dict(case.section), "minor" if case.axis == "major" else "major")
+        other_name = "minor" if case.axis == "major" else "major"
+
+        def turned():
+            section = section_from_spec(dict(case.section), other_name)
+            return section, _curve(section, result.material)
+
+        section, curve = _made(cache, "routes-other-section", turned)
         if out_of_plane is not None and out_of_plane.checked:
             N_cr, source = out_of_plane.N_cr, "out-of-plane length"
         else:
@@ -112,6 +131,7 @@ def _planes(result, M_second, out_of_plane):
             diagram=zero(),
             M_second=0.0,
             N_cr_source=source,
+            curve=curve,
         )
     return (first, other) if first_axis == "y" else (other, first)
 
@@ -151,7 +171,7 @@ def _second_order(result, enabled: bool) -> RouteCheck:
     )
 
 
-def evaluate(result, *, bow_free_moment, out_of_plane) -> tuple:
+def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     """Every route of ``result`` (a solved one-plane or two-plane result with a section and material), in the
     order of ROUTES.
 
@@ -162,6 +182,9 @@ def evaluate(result, *, bow_free_moment, out_of_plane) -> tuple:
         (the route then uses what the result's amplification knows).
     out_of_plane : OutOfPlane or None
         The out-of-plane resistance of a one-plane case (its N_cr, or restrained).
+    cache : callable or None
+        ``cache(key, make)``, where what does not depend on the axial force is kept
+        (:meth:`engine.prepared.Prepared.design`); None: computed every time.
     """
     case, material = result.case, result.material
     routes = case.check.routes
@@ -181,10 +204,14 @@ def evaluate(result, *, bow_free_moment, out_of_plane) -> tuple:
         )
     if bow_free_moment is None:
         bow_free_moment = _bow_free_moment(result)
-    y, z = _planes(result, bow_free_moment, out_of_plane)
+    y, z = _planes(result, bow_free_moment, out_of_plane, cache)
     N = float(result.axial_force)
-    classes = [classify(p.section, material, compression=N > 0) for p in (y, z)]
-    klass = None if None in classes else max(classes, key=lambda c: c.klass)
+
+    def worse_class():
+        classes = [classify(p.section, material, compression=N > 0) for p in (y, z)]
+        return None if None in classes else max(classes, key=lambda c: c.klass)
+
+    klass = _made(cache, ("routes-class", N > 0), worse_class)
     beyond = result.status != "stable"
     en = en_member.route(
         y=y,
@@ -221,12 +248,13 @@ def headline(routes) -> tuple:
     return second.utilization, second.route, True
 
 
-def attach(result, *, bow_free: dict | None, out_of_plane):
+def attach(result, *, bow_free: dict | None, out_of_plane, cache=None):
     """``result`` with its routes and the headline utilisation (a result with a section and material)."""
     found = evaluate(
         result,
         bow_free_moment=None if bow_free is None else bow_free["moment"],
         out_of_plane=out_of_plane,
+        cache=cache,
     )
     value, _, _ = headline(found)
     return dataclasses.replace(result, routes=found, utilization=value)

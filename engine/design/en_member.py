@@ -75,6 +75,7 @@ class Plane:
     diagram: Diagram
     M_second: float | None
     N_cr_source: str = "exact"
+    curve: str | None = None
 
     @property
     def L_cr(self) -> float | None:
@@ -150,7 +151,7 @@ def route(
     }
     notes = ["chi-LT-1"] if My > 0.0 and sy.shape not in ("chs", "round") else []
     for p in (y, z):
-        curve, _ = curve_of(p.section, material)
+        curve = p.curve if p.curve is not None else curve_of(p.section, material)[0]
         lam = 0.0 if math.isinf(p.N_cr) else codes.slenderness(p.section.A, fy, p.N_cr)
         facts[f"curve_{p.axis}"] = curve
         facts[f"N_cr_{p.axis}"] = p.N_cr
