@@ -7,12 +7,19 @@ in words and the source of the rule it applies. The general caution is always fi
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
 
-__all__ = ["Caution", "GENERAL", "LEVELS", "NEAR_CRITICAL_RATIO", "ROUTES_DISAGREE", "assess"]
+__all__ = [
+    "Caution",
+    "GENERAL",
+    "LEVELS",
+    "NEAR_CRITICAL_RATIO",
+    "PLANE_CODES",
+    "assess",
+    "merge_plane_cautions",
+]
 
 LEVELS = ("info", "warning", "danger")
 
@@ -47,10 +54,11 @@ GENERAL = Caution(
     level="info",
     code="scope",
     message=(
-        "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional "
-        "buckling, biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class "
-        "4 sections, connections and load combinations are not checked. Check the results "
-        "against your local codes and have them reviewed by a licensed engineer."
+        "Elastic analysis of one member, in one bending plane or two uncoupled ones. Not a full code "
+        "check: lateral-torsional buckling, torsion and the coupling of the planes through a "
+        "non-symmetric section, the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 "
+        "sections, connections and load combinations are not checked. Check the results against "
+        "your local codes and have them reviewed by a licensed engineer."
     ),
     source="strutscope's scope (common practice, no source)",
 )
@@ -98,13 +106,14 @@ def _class_cautions(check) -> list:
     return []
 
 
-def _out_of_plane_cautions(found) -> list:
-    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made."""
+def _out_of_plane_cautions(found, P: float) -> list:
+    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made
+    (and a danger when, not made, N exceeds the elastic critical load about that axis)."""
     if found is None:
         return []
     if not found.checked:
         restrained = found.reason.startswith("restrained")
-        return [
+        out = [
             Caution(
                 level="info" if restrained else "warning",
                 code="out-of-plane-not-checked",
@@ -112,109 +121,106 @@ def _out_of_plane_cautions(found) -> list:
                 source=found.source,
             )
         ]
+        if found.N_cr is not None and P > found.N_cr:
+            out.append(
+                Caution(
+                    level="danger",
+                    code="out-of-plane-buckling",
+                    message=(
+                        f"N = {P * 1e-3:.6g} kN exceeds the elastic critical load about the {found.axis} "
+                        f"axis, N_cr = {found.N_cr * 1e-3:.6g} kN (L_cr = {found.buckling_length:.3f} m): "
+                        "the member buckles out of the plane analysed. Brace it or choose a larger section."
+                    ),
+                    source="Euler; Timoshenko & Gere (1961) ch. 2",
+                    values=found.facts(),
+                )
+            )
+        return out
     extra = []
     if found.note:
         extra.append(
             Caution(level="warning", code="out-of-plane-length", message=found.note, source=found.source)
         )
+    if found.utilization <= 1.0:
+        return extra + [
+            Caution(
+                level="info",
+                code="out-of-plane-checked",
+                message=(
+                    f"Out-of-plane flexural buckling checked: N/N_b,Rd = {found.utilization:.3f} <= 1, "
+                    f"{found.describe()}."
+                ),
+                source=found.source,
+                values=found.facts(),
+            )
+        ]
     if found.utilization > 1.0:
+        force = found.utilization * found.N_b_Rd
+        beyond = (
+            f" N = {force * 1e-3:.6g} kN exceeds even the elastic critical load about that axis."
+            if found.N_cr is not None and force > found.N_cr
+            else ""
+        )
         return extra + [
             Caution(
                 level="danger",
                 code="out-of-plane-buckling",
                 message=(
                     f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
-                    f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
+                    f"plane analysed, {found.describe()}.{beyond} Brace it (a shorter out-of-plane "
                     "buckling length) or choose a larger section."
                 ),
                 source=found.source,
                 values=found.facts(),
             )
         ]
-    return extra  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
+    return extra  # pragma: no cover - a NaN utilisation
 
 
-#: Routes whose utilisations differ by more than this fraction of the smaller one get an info caution: what
-#: an engineer learns from (which assumptions make the difference). Common practice, no source.
-ROUTES_DISAGREE = 0.2
+#: Cautions about one plane's own analysis: a two-plane case keeps the second plane's even when the first
+#: plane has one with the same words.
+PLANE_CODES = (
+    "at-critical-load",
+    "beyond-critical-load",
+    "near-critical-load",
+    "second-order-matters",
+    "slender",
+    "lateral-torsional-buckling",
+    "deflection",
+    "deflection-basis",
+    "bow-below-code",
+    "no-bow",
+    "bow-opposes-load",
+    "bow-shape",
+)
 
-_ROUTE_NOTES = {
-    "chi-LT-1": "EN 1993-1-1:2005 §6.3.2 and §6.3.3 (χ_LT = 1: lateral-torsional buckling not checked; "
-    "from memory)",
-    "LTB-not-checked": "AISC 360-16 Chapter F (lateral-torsional buckling not checked; from memory)",
-}
 
+def merge_plane_cautions(first, second, axis: str) -> tuple:
+    """The cautions of a two-plane case: the first plane's, then the second plane's that are about that
+    plane (:data:`PLANE_CODES`) or not already there, most severe first.
 
-def _route_cautions(routes, out: list) -> list:
-    """The routes' notes, the routes not applied, the headline's fallback and a disagreement between routes.
-
-    Structured: ``values`` carry the route, the note or reason codes and the utilisations; the app words them.
-    Where ``out`` already holds the ``lateral-torsional-buckling`` warning, the routes' ``chi-LT-1`` and
-    ``LTB-not-checked`` notes join its values (``routes``) instead of repeating it.
+    The second plane's get ``values["plane"] = 2`` and ``values["axis"]`` (the axis it bends about, for the
+    app to word) and their message opens with the plane. Its general caution and its own strength check's
+    ``overstressed`` (the first plane's list has the two-plane check's) are left out.
     """
-    ltb = next((i for i, c in enumerate(out) if c.code == "lateral-torsional-buckling"), None)
-    if ltb is not None:
-        noted = [r.route for r in routes if r.utilization is not None and set(r.notes) & set(_ROUTE_NOTES)]
-        if noted:
-            out[ltb] = Caution(
-                level=out[ltb].level,
-                code=out[ltb].code,
-                message=out[ltb].message,
-                source=out[ltb].source,
-                values=dict(out[ltb].values, routes=noted, chi_LT=1.0),
-            )
-    out = []
-    for route in routes:
-        if route.utilization is None:
-            out.append(
-                Caution(
-                    level="warning" if route.enabled else "info",
-                    code="route-not-applied",
-                    message=f"The {route.route} route is not applied: {route.reason}.",
-                    source=route.source,
-                    values={"route": route.route, "reason": route.reason, "enabled": route.enabled},
-                )
-            )
+    seen = {(c.code, c.message) for c in first}
+    out = list(first)
+    for caution in second:
+        if caution.code in ("scope", "overstressed"):
             continue
-        for note in route.notes:
-            if note in _ROUTE_NOTES and ltb is None:
-                out.append(
-                    Caution(
-                        level="info",
-                        code=note,
-                        message=f"{route.route} route: {note}.",
-                        source=_ROUTE_NOTES[note],
-                        values={"route": route.route, "enabled": route.enabled},
-                    )
-                )
-    applied = [r for r in routes if r.enabled and r.utilization is not None]
-    if routes and not applied:
+        if caution.code not in PLANE_CODES and (caution.code, caution.message) in seen:
+            continue
         out.append(
             Caution(
-                level="warning",
-                code="headline-fallback",
-                message="No enabled route applies to this member: the headline is the second-order check.",
-                source="strutscope's routes (common practice, no source)",
-                values={"routes": [r.route for r in routes if r.enabled]},
+                level=caution.level,
+                code=caution.code,
+                message=f"Second plane (bending about the {axis} axis): {caution.message}",
+                source=caution.source,
+                values={**caution.values, "plane": 2, "axis": axis},
             )
         )
-    finite = {
-        r.route: r.utilization for r in routes if r.utilization is not None and 0 < r.utilization < math.inf
-    }
-    if len(finite) >= 2:
-        low, high = min(finite.values()), max(finite.values())
-        if high > low * (1.0 + ROUTES_DISAGREE):
-            out.append(
-                Caution(
-                    level="info",
-                    code="routes-disagree",
-                    message=f"The routes' utilisations differ by {100.0 * (high / low - 1.0):.0f} %: "
-                    f"{finite}.",
-                    source="strutscope's routes (threshold common practice, no source)",
-                    values={"utilizations": finite, "spread": high / low - 1.0, "limit": ROUTES_DISAGREE},
-                )
-            )
-    return out
+    order = {"danger": 0, "warning": 1, "info": 2}
+    return tuple(sorted(out, key=lambda c: order[c.level]))
 
 
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
@@ -233,7 +239,6 @@ def assess(
     check,
     bow,
     service=None,
-    routes=(),
 ) -> list:
     """The cautions for one solved case, most severe first; the general caution is always there.
 
@@ -260,8 +265,6 @@ def assess(
         favourable way, which the solve found by reversing it), ``shape``, ``notes``.
     service : ServiceCheck or None
         The deflection check (loads as given, no bow).
-    routes : tuple of RouteCheck
-        The routes of the member check (:mod:`engine.member_routes`), empty without a section.
     """
     out = [GENERAL]
     alpha_cr = pcr1 / P if P > 0 else float("inf")
@@ -444,7 +447,7 @@ def assess(
                 )
             )
         if P > 0:
-            out.extend(_out_of_plane_cautions(check.out_of_plane))
+            out.extend(_out_of_plane_cautions(check.out_of_plane, P))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))
     if (
@@ -503,6 +506,5 @@ def assess(
                 source="EN 1993-1-1:2005 §5.3.2(11) (from memory)",
             )
         )
-    out.extend(_route_cautions(routes, out))
     order = {"danger": 0, "warning": 1, "info": 2}
     return sorted(out, key=lambda c: order[c.level])  # stable: the general caution leads the infos
