@@ -7,6 +7,7 @@ import math
 
 import numpy as np
 
+from engine import member_routes
 from engine.amplification import approximations, braced
 from engine.biaxial import pair_check
 from engine.cautions import assess, merge_plane_cautions
@@ -25,6 +26,7 @@ from engine.results import (
     Result,
     ServiceCheck,
 )
+from engine.route_cautions import with_route_cautions
 from engine.solver.batch import STATE_FIELDS, Batch
 from engine.solver.model import Points
 from engine.solver.peaks import refine_peaks
@@ -270,6 +272,9 @@ def _build(
         ),
         service=service,
     )
+    if not first_order and section is not None and material is not None and not paired:  # routes, issue 14
+        out = prep.out_of_plane()
+        result = member_routes.attach(result, bow_free=bow_free, out_of_plane=out, cache=prep.design)
     if not first_order and cautions:
         result = _with_cautions(result, prep, favourable=False)
     return result
@@ -308,7 +313,7 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
     slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
     facts = dict(prep.bow_facts(), opposes_load=favourable)
     # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
-    cautions = tuple(
+    cautions = with_route_cautions(
         assess(
             P=result.axial_force,
             pcr1=pcr1,
@@ -321,7 +326,8 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
             check=result.check,
             bow=facts,
             service=result.service,
-        )
+        ),
+        result.routes,
     )
     return dataclasses.replace(result, cautions=cautions)
 
@@ -423,7 +429,8 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         and (choice.automatic or details)
     )
     bow_free = None
-    if details and prep.has_bow and P != 0.0 and status != "critical":
+    # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
+    if (details or "aisc" in case.check.routes) and prep.has_bow and P != 0.0 and status != "critical":
         member = prep.member
         checked = member is not None and member.section is not None and member.material is not None
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
@@ -547,7 +554,7 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     message = r1.message
     if _RANK[r2.status] > _RANK[r1.status]:
         message = f"Second plane (bending about the {derived.axis} axis): {r2.message}"
-    return dataclasses.replace(
+    result = dataclasses.replace(
         head,
         status=status,
         stable=status == "stable",
@@ -556,3 +563,7 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
         cautions=merge_plane_cautions(head.cautions, second.cautions, derived.axis),
         second_plane=dataclasses.replace(second, check=None, cautions=()),
     )
+    if r1.section is None or r1.material is None:
+        return result
+    result = member_routes.attach(result, bow_free=None, out_of_plane=None, cache=prep1.design)  # issue 14
+    return dataclasses.replace(result, cautions=with_route_cautions(result.cautions, result.routes))

@@ -55,7 +55,7 @@ GENERAL = Caution(
     code="scope",
     message=(
         "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-        "lateral-torsional buckling, torsion, non-symmetric sections, EN 1993-1-1 eqs. (6.61)/(6.62), "
+        "lateral-torsional buckling, torsion, non-symmetric sections, web shear buckling (EN 1993-1-5), "
         "class 4 sections, connections and load combinations are not checked. Check the results "
         "against your local codes and have them reviewed by a licensed engineer."
     ),
@@ -226,7 +226,18 @@ _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
 
 
 def assess(
-    *, P, pcr1, alpha_cr_limit, status, slenderness, section, material, axis, check, bow, service=None
+    *,
+    P,
+    pcr1,
+    alpha_cr_limit,
+    status,
+    slenderness,
+    section,
+    material,
+    axis,
+    check,
+    bow,
+    service=None,
 ) -> list:
     """The cautions for one solved case, most severe first; the general caution is always there.
 

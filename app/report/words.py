@@ -328,8 +328,15 @@ def _couple(U: Units, anticlockwise: float) -> str:
 
 
 def utilisation_text(result, U: Units) -> str | None:
-    """The governing utilisation, its check and where; None without a check."""
+    """The governing (headline) utilisation, its check and where; None without a check. When a route other
+    than the second-order check sets the headline (engine issue 14: the largest enabled route), it is named
+    with its governing term, e.g. ``0.468 (en-member, eq-6.62)``."""
     check = result.check
+    applied = [r for r in getattr(result, "routes", ()) if r.enabled and r.utilization is not None]
+    top = max(applied, key=lambda r: r.utilization) if applied else None
+    if top is not None and top.route != "second-order" and top.utilization == result.utilization:
+        fails = " fails" if math.isinf(top.utilization) else ""
+        return f"{ratio(top.utilization)}{fails} ({top.route}, {top.governing})"
     if check is not None:
         where = f" at x = {position(U, check.x)}" if finite(check.x) else ""
         fails = " fails" if math.isinf(check.utilization) else ""
@@ -378,6 +385,9 @@ def capacity_text(capacity, U: Units) -> str:
         return f"Out-of-plane flexural buckling governs: N_b,Rd = χ·A·f_y/γ_M1 = {force}."
     if check in ("transverse loads alone", "class 4 section"):
         return capacity.message  # no quantity with a unit in these
+    route = getattr(capacity, "route", "second-order")
+    if route != "second-order":  # the en-member or aisc route sets the headline (engine issue 14)
+        return f"The {route} route governs: utilisation 1 by {check} at N = {force}."
     where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
     return f"Strength governs: utilisation 1 by {check}{where}."
 
