@@ -53,6 +53,35 @@ def _csv_columns(result, U: Units):
         # At a critical load the engine gives no check along the member, only the governing utilisation
         # (+inf), which then holds at every station.
         columns.append(("utilisation [-]", np.full(len(result.x), float(result.utilization)), None))
+    return columns + _second_plane_columns(result, U)
+
+
+def _second_plane_columns(result, U: Units):
+    """The second bending plane's columns at the same stations, named by the axis they bend about (_z about
+    the minor axis, _y about the major), or none for a one-plane case.
+
+    The second plane is solved at its own stations (its loads sit elsewhere); its values are given at the
+    first plane's x by linear interpolation between its stations, which hold its exact peaks, and a station
+    of a jump in the first plane takes the second plane's value there.
+    """
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        return []
+    suffix = "y" if getattr(result.case, "axis", "major") == "minor" else "z"
+    x = np.asarray(result.x, dtype=float)
+    sx = np.asarray(second.x, dtype=float)
+    sl, rot, mom, frc = (U.label(k) for k in ("small_length", "rotation", "moment", "force"))
+    columns = []
+    for name, field, kind, unit in (
+        ("w", "deflection", "small_length", sl),
+        ("w0", "initial_bow", "small_length", sl),
+        ("rotation", "rotation", "rotation", rot),
+        ("M", "moment", "moment", mom),
+        ("V", "shear", "force", frc),
+    ):
+        values = np.asarray(getattr(second, field), dtype=float)
+        same = sx.shape == x.shape and np.array_equal(sx, x)
+        columns.append((f"{name}_{suffix} [{unit}]", values if same else np.interp(x, sx, values), kind))
     return columns
 
 
@@ -96,6 +125,7 @@ def _metadata(result, U: Units) -> list:
         note = f"service check: {result.service.basis}"
         rows.append(("deflection utilisation [-]", csv_number(result.service.utilization), note))
     rows += _amplification_rows(result)
+    rows += _plane_and_route_rows(result, U)
     if result.bow is not None and result.bow.direction_governing:
         rows.append(("bow direction", bow_direction_text(result.bow, U)))
     rows.append(
@@ -106,6 +136,29 @@ def _metadata(result, U: Units) -> list:
         )
     )
     rows.append(("caution", general_caution(result)))
+    return rows
+
+
+def _plane_and_route_rows(result, U: Units) -> list:
+    """The metadata rows of the second plane (Pcr1, peaks) and of each route (utilisation, governing term)."""
+    from app.report import routes
+
+    rows = []
+    second = getattr(result, "second_plane", None)
+    if second is not None:
+        own, other = routes.plane_axes(result)
+        suffix = "y" if other == "major" else "z"
+        force, moment = U.label("force"), U.label("moment")
+        rows.append(("second plane", routes.plane_name(other), f"columns ending in _{suffix}"))
+        rows.append(
+            (f"Pcr1_{suffix} [{force}]", csv_number(U.convert("force", float(second.critical_loads[0]))))
+        )
+        peak = second.governing.moment
+        rows.append((f"max|M_{suffix}| [{moment}]", csv_number(U.convert("moment", abs(peak.value)))))
+    for row in routes.route_rows(result, U):
+        value = "" if row["value"] is None else csv_number(row["value"])
+        note = "; ".join(part for part in (row["governing"], row["status"], row["reason"]) if part)
+        rows.append((f"route {row['name']} [-]", value, note))
     return rows
 
 

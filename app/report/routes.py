@@ -191,7 +191,10 @@ def fact_text(key: str, value, U: Units) -> str | None:
     kind = _kind_of(key)
     if kind is None or isinstance(value, bool) or not isinstance(value, (int, float)):
         return None
-    shown = ratio(value) if kind == "" else U.show(kind, float(value))
+    if kind == "":
+        shown = ratio(value, 1 if key == "KL_r" else 3)
+    else:
+        shown = U.show(kind, float(value))
     return f"{_symbol_of(key)} = {shown}"
 
 
