@@ -30,11 +30,15 @@ TOP = 0.95
 
 
 def route_sweep_forces(result, points: int = SWEEP_POINTS) -> np.ndarray:
-    """Axial forces [N] from 0 to :data:`TOP` times the lowest Pcr1 of the member's planes."""
+    """Axial forces [N] from 0 to :data:`TOP` times the lowest critical load: each plane's Pcr1, and the
+    out-of-plane N_cr of a one-plane member whose buckling about the other axis is checked."""
     pcr = [float(result.critical_loads[0])]
     second = getattr(result, "second_plane", None)
     if second is not None:
         pcr.append(float(second.critical_loads[0]))
+    out = None if result.check is None else result.check.out_of_plane
+    if out is not None and out.checked and out.N_cr is not None:
+        pcr.append(float(out.N_cr))
     top = TOP * min(p for p in pcr if math.isfinite(p) and p > 0) if any(p > 0 for p in pcr) else 0.0
     return np.linspace(0.0, top, points)
 
