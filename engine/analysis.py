@@ -8,7 +8,8 @@ import math
 import numpy as np
 
 from engine.amplification import approximations, braced
-from engine.cautions import assess
+from engine.biaxial import pair_check
+from engine.cautions import assess, merge_plane_cautions
 from engine.checks import check_member
 from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
@@ -27,6 +28,7 @@ from engine.results import (
 from engine.solver.batch import STATE_FIELDS, Batch
 from engine.solver.model import Points
 from engine.solver.peaks import refine_peaks
+from engine.validate import within
 
 __all__ = ["CRITICAL_TOLERANCE", "check_stations", "solve", "strength_solve"]
 
@@ -125,6 +127,7 @@ def _build(
     first_order=False,
     bow_free=None,
     cautions=True,
+    paired=False,
 ) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
@@ -212,7 +215,8 @@ def _build(
             route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
             section_class=prep.section_class(P > 0),
             beyond_critical=status == "unstable",
-            out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P),
+            # A plane of a two-plane case: the other plane's analysis covers buckling about the other axis.
+            out_of_plane=None if paired else out_of_plane_utilisation(prep.out_of_plane(), P),
         )
         if w_service is not None:
             service = ServiceCheck(
@@ -339,11 +343,12 @@ def _raw(prep, n: int, P: float):
     x = np.concatenate([pts.x_exact, model.position(extra_seg, extra_xi)])[order]
     if status == "critical":
         values = {"w0": model.bow.derivatives(x)[0]}
+        batch = None
     else:
         # One gather for all six fields: rows of one array (each row is contiguous).
         both = np.concatenate([st.stacked(), ext.stacked()], axis=1)[:, order]
         values = dict(zip(STATE_FIELDS, both, strict=True))
-    return status, n_crit, values, x, seg, xi
+    return status, n_crit, values, x, seg, xi, batch
 
 
 def solve(case, stations: int = 401) -> Result:
@@ -387,6 +392,15 @@ def strength_solve(case, stations: int = 401) -> Result:
 def _solve(case, prep, n: int, details: bool = True) -> Result:
     """:func:`solve` on a prepared case; ``details=False`` (the capacity finder) leaves out what does not
     bear on the strength utilisation: the bow-free solve (service check, B1) and the favourable-bow check."""
+    if case.second_plane is not None:
+        return _solve_pair(case, prep, n, details)
+    result, chosen, _, favourable = _solve_plane(case, prep, n, details)
+    return _with_cautions(result, chosen, favourable=favourable)
+
+
+def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
+    """One plane solved, without its cautions: ``(result, prepared member used, its raw solution,
+    favourable)``, the member used being the reversed-bow variant where that direction was kept."""
     P = float(case.axial_force)
     raw = _raw(prep, n, P)
     status = raw[0]
@@ -405,7 +419,19 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
             bow_free = _bow_free_peaks(prep.variant("bow_free"), n, P)
     if not reverse:
-        return _build(case, prep, n, P, *raw[2:], status=status, n_crit=raw[1], bow_free=bow_free)
+        result = _build(
+            case,
+            prep,
+            n,
+            P,
+            *raw[2:6],
+            status=status,
+            n_crit=raw[1],
+            bow_free=bow_free,
+            cautions=False,
+            paired=paired,
+        )
+        return result, prep, raw, False
     other_prep = prep.variant("reversed")
     other = _raw(other_prep, n, P)
     a, b = _severity(case, prep, P, raw), _severity(case, other_prep, P, other)
@@ -438,19 +464,20 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
         chosen_prep,
         n,
         P,
-        *chosen_raw[2:],
+        *chosen_raw[2:6],
         status=chosen_raw[0],
         n_crit=chosen_raw[1],
         bow_free=bow_free,
         cautions=False,
+        paired=paired,
     )
     bow = dataclasses.replace(result.bow, direction_governing=text, directions=facts, favourable=favourable)
-    return _with_cautions(dataclasses.replace(result, bow=bow), chosen_prep, favourable=favourable)
+    return dataclasses.replace(result, bow=bow), chosen_prep, chosen_raw, favourable
 
 
 def _bow_free_peaks(prep, n, P) -> dict:
     """The largest |M| and |w| (with where) of the member without its bow, at one axial force."""
-    status, _, values, x, _, _ = _raw(prep, n, P)
+    status, _, values, x, _, _, _ = _raw(prep, n, P)
     if status == "critical":
         return {"moment": math.inf, "deflection": Peak(value=math.inf, x=0.0)}
     i, j = int(np.argmax(np.abs(values["M"]))), int(np.argmax(np.abs(values["w"])))
@@ -462,7 +489,7 @@ def _bow_free_peaks(prep, n, P) -> dict:
 
 def _severity(case, prep, P, raw) -> tuple:
     """What decides the worse direction: the strength utilisation (None where unchecked), then max|M|."""
-    status, _, values, x, _, _ = raw
+    status, _, values, x = raw[:4]
     moment = float(np.abs(values["M"]).max()) if status != "critical" else math.inf
     member = prep.member
     if member.section is None or member.material is None:
@@ -482,3 +509,41 @@ def _severity(case, prep, P, raw) -> tuple:
         settings=case.check,
     )
     return check.strength_utilization, moment
+
+
+_RANK = {"stable": 0, "unstable": 1, "critical": 2}
+
+
+def _solve_pair(case, prep, n: int, details: bool) -> Result:
+    """A two-plane case: each plane solved as its own beam-column (uncoupled: doubly symmetric sections),
+    the cross-section checked with N, M_y and M_z together, the status and α_cr the worse of the two planes,
+    and the second plane's cautions merged into the first's."""
+    P = float(case.axial_force)
+    r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True)
+    derived = case.second_plane_case()
+    with within("second_plane"):
+        prep_two = prepare(derived)
+    r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True)
+    statuses = (r1.status, r2.status)
+    check, utilization = None, None
+    if r1.check is not None or "critical" in statuses:
+        if "critical" in statuses:
+            utilization = math.inf if r1.section is not None else None
+        else:
+            check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
+            utilization = check.utilization
+    head = _with_cautions(dataclasses.replace(r1, check=check, utilization=utilization), prep1, fav1)
+    second = _with_cautions(r2, prep2, fav2)
+    status = max(statuses, key=_RANK.__getitem__)
+    message = r1.message
+    if _RANK[r2.status] > _RANK[r1.status]:
+        message = f"Second plane (bending about the {derived.axis} axis): {r2.message}"
+    return dataclasses.replace(
+        head,
+        status=status,
+        stable=status == "stable",
+        message=message,
+        alpha_cr=min(r1.alpha_cr, r2.alpha_cr),
+        cautions=merge_plane_cautions(head.cautions, second.cautions, derived.axis),
+        second_plane=dataclasses.replace(second, check=None, utilization=None, cautions=()),
+    )

@@ -60,7 +60,7 @@ class Capacity:
     x : float or None
         Where it governs [m].
     critical_load : float
-        Pcr1 [N], for comparison.
+        Pcr1 [N], for comparison: the smaller of the two planes' for a two-plane case.
     mode : str
     message : str
     """
@@ -77,17 +77,26 @@ class Capacity:
 def _scaled(case, factor, mode, reference):
     if mode == "axial":
         return dataclasses.replace(case, axial_force=factor)
-    loads = []
-    for load in case.loads:
+    changes = {"axial_force": reference * factor, "loads": _scaled_loads(case.loads, factor)}
+    if case.second_plane is not None:  # every load, in both planes
+        changes["second_plane"] = dataclasses.replace(
+            case.second_plane, loads=_scaled_loads(case.second_plane.loads, factor)
+        )
+    return dataclasses.replace(case, **changes)
+
+
+def _scaled_loads(loads, factor) -> tuple:
+    out = []
+    for load in loads:
         if load.type == "uniform":
-            loads.append(dataclasses.replace(load, q=load.q * factor))
+            out.append(dataclasses.replace(load, q=load.q * factor))
         elif load.type == "linear":
-            loads.append(dataclasses.replace(load, q_start=load.q_start * factor, q_end=load.q_end * factor))
+            out.append(dataclasses.replace(load, q_start=load.q_start * factor, q_end=load.q_end * factor))
         elif load.type == "point":
-            loads.append(dataclasses.replace(load, P=load.P * factor))
+            out.append(dataclasses.replace(load, P=load.P * factor))
         else:
-            loads.append(dataclasses.replace(load, C=load.C * factor))
-    return dataclasses.replace(case, axial_force=reference * factor, loads=tuple(loads))
+            out.append(dataclasses.replace(load, C=load.C * factor))
+    return tuple(out)
 
 
 def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
@@ -118,6 +127,8 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         )
     probe = solve(dataclasses.replace(case, axial_force=0.0), stations=stations)
     pcr1 = float(probe.critical_loads[0])
+    if probe.second_plane is not None:  # a two-plane case buckles in the weaker plane first
+        pcr1 = min(pcr1, float(probe.second_plane.critical_loads[0]))
     if mode == "axial":
         top = pcr1
     else:

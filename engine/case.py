@@ -47,6 +47,7 @@ from engine.loads import (
 )
 from engine.materials import material_from_spec
 from engine.out_of_plane import OutOfPlaneSettings
+from engine.plane import SecondPlane, as_second_plane, second_plane_of
 from engine.sections import AXES, section_from_spec
 from engine.solver import supports
 from engine.validate import (
@@ -73,6 +74,7 @@ __all__ = [
     "PointLoad",
     "SCHEMA_VERSION",
     "SUPPORT_NAMES",
+    "SecondPlane",
     "Spec",
     "UniformLoad",
     "load_case",
@@ -112,6 +114,7 @@ _CASE_KEYS = (
     "stiffness_factor",
     "check",
     "out_of_plane",
+    "second_plane",
 )
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
@@ -167,7 +170,12 @@ class Case:
         The member check's method, γ factors and deflection limit (:class:`engine.checks.CheckSettings`).
     out_of_plane : OutOfPlaneSettings or mapping, optional
         ``{"buckling_length": L_cr}`` or ``{"restrained": true}`` for flexural buckling about the other axis
-        (:mod:`engine.out_of_plane`); default: the member length, not restrained.
+        (:mod:`engine.out_of_plane`); default: the member length, not restrained. Not with ``second_plane``.
+    second_plane : SecondPlane or mapping, optional
+        Bending about the other axis as well (:mod:`engine.plane`): its ``supports`` (required), ``loads``,
+        ``imperfection`` (default: the EN 1993-1-1 Table 5.1 bow with a steel section, else none) and ``EI``
+        (given exactly when the case gives its own EI). The first plane bends about ``axis``, the second
+        about the other one; :meth:`second_plane_case` is the second plane as a case of its own.
 
     Raises
     ------
@@ -203,6 +211,7 @@ class Case:
     stiffness_factor: float = 1.0
     check: Any = None
     out_of_plane: Any = None
+    second_plane: Any = None
 
     def __post_init__(self) -> None:
         set_field(self, "schema", _schema_version(self.schema))
@@ -244,6 +253,29 @@ class Case:
                 f"|amplitude| must be <= length/10 = {length / 10:g} m"
             )
         supports.check_stable(self)
+        if self.second_plane is not None:
+            self._check_second_plane()
+
+    def _check_second_plane(self) -> None:
+        """Validate ``second_plane`` against the member and keep the second plane's case (at zero force)."""
+        plane, derived = second_plane_of(self)
+        set_field(self, "second_plane", plane)
+        # Not a field: equality and hashing see second_plane, of which this is a function.
+        object.__setattr__(self, "_second_case", derived)
+
+    def second_plane_case(self) -> Case | None:
+        """The second plane as a one-plane case at this case's axial force (None without ``second_plane``).
+
+        It bends about the other axis, with the second plane's supports, loads, bow and EI, and the case's
+        length, section, material, stiffness factor and check settings.
+        """
+        derived = self.__dict__.get("_second_case")
+        if derived is None or self.axial_force == 0.0:
+            return derived
+        twin = object.__new__(Case)
+        twin.__dict__.update(derived.__dict__)
+        twin.__dict__["axial_force"] = self.axial_force
+        return twin
 
     def _check_member(self) -> None:
         """Validate the section, material, axis, stiffness factor and check settings."""
@@ -366,6 +398,8 @@ class Case:
         for name in ("section", "material", "check", "out_of_plane"):
             if name in mapping:
                 arguments[name] = expect_mapping(name, mapping[name], "an object")
+        if "second_plane" in mapping:
+            arguments["second_plane"] = as_second_plane(mapping["second_plane"])
         return cls(schema=schema, left=left, right=right, loads=loads, imperfection=imperfection, **arguments)
 
     def to_dict(self) -> dict[str, Any]:
@@ -406,6 +440,8 @@ class Case:
             data["check"] = self.check.to_dict()
         if self.out_of_plane is not None:
             data["out_of_plane"] = self.out_of_plane.to_dict()
+        if self.second_plane is not None:
+            data["second_plane"] = self.second_plane.to_data()
         return data
 
     @classmethod

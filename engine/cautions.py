@@ -11,7 +11,15 @@ from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
 
-__all__ = ["Caution", "GENERAL", "LEVELS", "NEAR_CRITICAL_RATIO", "assess"]
+__all__ = [
+    "Caution",
+    "GENERAL",
+    "LEVELS",
+    "NEAR_CRITICAL_RATIO",
+    "PLANE_CODES",
+    "assess",
+    "merge_plane_cautions",
+]
 
 LEVELS = ("info", "warning", "danger")
 
@@ -46,10 +54,11 @@ GENERAL = Caution(
     level="info",
     code="scope",
     message=(
-        "Elastic analysis of one member in one plane. Not a full code check: lateral-torsional "
-        "buckling, biaxial bending and the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class "
-        "4 sections, connections and load combinations are not checked. Check the results "
-        "against your local codes and have them reviewed by a licensed engineer."
+        "Elastic analysis of one member, in one bending plane or two uncoupled ones. Not a full code "
+        "check: lateral-torsional buckling, torsion and the coupling of the planes through a "
+        "non-symmetric section, the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 "
+        "sections, connections and load combinations are not checked. Check the results against "
+        "your local codes and have them reviewed by a licensed engineer."
     ),
     source="strutscope's scope (common practice, no source)",
 )
@@ -116,6 +125,19 @@ def _out_of_plane_cautions(found) -> list:
         extra.append(
             Caution(level="warning", code="out-of-plane-length", message=found.note, source=found.source)
         )
+    if found.utilization <= 1.0:
+        return extra + [
+            Caution(
+                level="info",
+                code="out-of-plane-checked",
+                message=(
+                    f"Out-of-plane flexural buckling checked: N/N_b,Rd = {found.utilization:.3f} <= 1, "
+                    f"{found.describe()}."
+                ),
+                source=found.source,
+                values=found.facts(),
+            )
+        ]
     if found.utilization > 1.0:
         return extra + [
             Caution(
@@ -130,7 +152,53 @@ def _out_of_plane_cautions(found) -> list:
                 values=found.facts(),
             )
         ]
-    return extra  # within its resistance: the member check reports N/N_b,Rd (out_of_plane)
+    return extra  # pragma: no cover - a NaN utilisation
+
+
+#: Cautions about one plane's own analysis: a two-plane case keeps the second plane's even when the first
+#: plane has one with the same words.
+PLANE_CODES = (
+    "at-critical-load",
+    "beyond-critical-load",
+    "near-critical-load",
+    "second-order-matters",
+    "slender",
+    "lateral-torsional-buckling",
+    "deflection",
+    "deflection-basis",
+    "bow-below-code",
+    "no-bow",
+    "bow-opposes-load",
+    "bow-shape",
+)
+
+
+def merge_plane_cautions(first, second, axis: str) -> tuple:
+    """The cautions of a two-plane case: the first plane's, then the second plane's that are about that
+    plane (:data:`PLANE_CODES`) or not already there, most severe first.
+
+    The second plane's get ``values["plane"] = 2`` and ``values["axis"]`` (the axis it bends about, for the
+    app to word) and their message opens with the plane. Its general caution and its own strength check's
+    ``overstressed`` (the first plane's list has the two-plane check's) are left out.
+    """
+    seen = {(c.code, c.message) for c in first}
+    out = list(first)
+    for caution in second:
+        if caution.code in ("scope", "overstressed"):
+            continue
+        if caution.code not in PLANE_CODES and (caution.code, caution.message) in seen:
+            continue
+        out.append(
+            Caution(
+                level=caution.level,
+                code=caution.code,
+                message=f"Second plane (bending about the {axis} axis): {caution.message}",
+                source=caution.source,
+                values={**caution.values, "plane": 2, "axis": axis},
+            )
+        )
+    order = {"danger": 0, "warning": 1, "info": 2}
+    return tuple(sorted(out, key=lambda c: order[c.level]))
 
 
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")

@@ -138,6 +138,9 @@ class MemberCheck:
     in_plane_utilization : float
         The in-plane strength utilisation alone (cross-section checks along the member) [-].
     in_plane_kind : str
+    at : ndarray or None
+        Where ``stations``, ``axial_bending`` and ``shear`` are [m] when that is not the result's ``x``: the
+        two-plane check (:mod:`engine.biaxial`) runs on the stations of both planes merged; None otherwise.
     valid : bool
         False when the result cannot stand: a class 4 section in compression (its gross-section resistance
         does not apply) or an axial force above the first critical load; the utilisation is then +inf.
@@ -163,6 +166,7 @@ class MemberCheck:
     out_of_plane: object = None
     in_plane_utilization: float | None = None
     in_plane_kind: str = ""
+    at: np.ndarray | None = None
 
 
 def check_member(

@@ -215,7 +215,13 @@ def mode_curvature_peak(buckling) -> float:
 def _first_order_projection(case, EI, shape_values, x):
     """∫ w1 · w0 dx of the loads' first-order deflection onto a bow shape (its sign is all that matters)."""
     plain = dataclasses.replace(
-        case, EI=EI, imperfection=Imperfection(), section=None, material=None, stiffness_factor=1.0
+        case,
+        EI=EI,
+        imperfection=Imperfection(),
+        section=None,
+        material=None,
+        stiffness_factor=1.0,
+        second_plane=None,
     )
     model = Model(plain, Bow(shape="none", amplitude=0.0, length=plain.length))
     batch = Batch(model, [0.0])
@@ -288,7 +294,13 @@ def resolve(case):
         code_label = f"EN 1993-1-1 Table 5.1, curve {curve}, {method} analysis: L/{ratio}"
         code_source = "EN 1993-1-1:2005 Table 5.1 [text: Simões da Silva et al., ECCS 2010, table 2.20]"
     plain = dataclasses.replace(
-        case, EI=EI, imperfection=Imperfection(), section=None, material=None, stiffness_factor=1.0
+        case,
+        EI=EI,
+        imperfection=Imperfection(),
+        section=None,
+        material=None,
+        stiffness_factor=1.0,
+        second_plane=None,
     )
     if imp.preset is None:
         shape, amplitude = imp.shape, imp.amplitude

@@ -436,7 +436,7 @@ def test_pdf_of_result_without_first_order():
     """A result with no first order (the P = 0 solution itself) gives a sheet with the general caution."""
     result = engine.solve(small_case()).first_order
     _, text = pdf_text(exports.pdf_bytes(result, date=DATE))
-    assert "Elastic analysis of one member in one plane" in text
+    assert "Elastic analysis of one member, in one bending plane" in text
     Image.open(io.BytesIO(exports.png_bytes(result, dpi=40))).load()
 
 

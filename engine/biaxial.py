@@ -1,0 +1,369 @@
+r"""The cross-section check of a two-plane case: N with M_y and M_z at every station of both planes.
+
+A two-plane case (the case file's ``second_plane``) is solved as two uncoupled beam-columns, one per
+bending plane. At every station of either plane, each plane's exact solution is evaluated there (both sides
+of a node where a point load or couple acts), and the cross-section is checked with N, M_y and M_z together
+(y: the major axis, z: the minor one):
+
+- **elastic** (any section):
+  :math:`|N|/(A f_c) + |M_y|/(W_{el,y} f_y) + |M_z|/(W_{el,z} f_y) \le 1/\gamma_{M0}`, the linear form of
+  EN 1993-1-1 §6.2.1(7), eq. (6.2) (clause from memory), for steel
+  :math:`\sigma = N/A + M_y/W_{el,y} + M_z/W_{el,z} \le f_y/\gamma_{M0}`;
+- **plastic**: EN 1993-1-1 §6.2.9.1(6) (from memory),
+  :math:`(M_y/M_{N,y,Rd})^\alpha + (M_z/M_{N,z,Rd})^\beta \le 1`, with :math:`M_{N,y,Rd}` and
+  :math:`M_{N,z,Rd}` of §6.2.9.1(5) (:func:`engine.codes.plastic_interaction`, the one-axis rules of the
+  one-plane check) and
+
+  - I/H: :math:`\alpha = 2`, :math:`\beta = 5n \ge 1`;
+  - RHS: :math:`\alpha = \beta = 1.66/(1 - 1.13 n^2) \le 6`;
+  - CHS (and the solid round bar): :math:`\alpha = \beta = 2`, EN 1993-1-1's value for a CHS (from memory);
+    with the same :math:`M_N` about every axis it says :math:`\sqrt{M_y^2 + M_z^2} \le M_N`, exact for an
+    axisymmetric section given the one-axis rule [derived];
+  - solid rectangle: :math:`\alpha = \beta = 1`, the straight line between the two one-axis points
+    :math:`M_{N} = M_{pl}(1 - n^2)`, which are exact; the plastic interaction surface is convex, so the line
+    lies inside it and is safe [derived] (EN 1993-1-1 gives no exponents for it).
+
+  The utilisation reported is the factor :math:`s` on both moments (at the same N) that brings the left side
+  to 1, :math:`(M_y/(s M_{N,y,Rd}))^\alpha + (M_z/(s M_{N,z,Rd}))^\beta = 1`, or :math:`n` if larger: with
+  :math:`M_z = 0` it is :math:`M_y/M_{N,y,Rd}`, the one-plane check's own. Where the shear in either plane
+  exceeds half its plastic resistance, both plastic moments are reduced by :math:`(1 - \rho)` with the larger
+  :math:`\rho` of §6.2.8 (applied to the whole section, conservatively, as the one-plane check does);
+- **shear** in each plane: :math:`|V_z|/V_{pl,z,Rd}` and :math:`|V_y|/V_{pl,y,Rd}` with each plane's shear
+  area, EN 1993-1-1 §6.2.6 eq. (6.18) (from memory);
+- with an eq. (5.9) bow in either plane, the linear member check of that route with both moments,
+  :math:`N/(N_{Rk}/\gamma_{M1}) + M_y/(M_{y,Rk}/\gamma_{M1}) + M_z/(M_{z,Rk}/\gamma_{M1}) \le 1`
+  (a conservative sum; EN 1993-1-1 §5.3.2(11), from memory).
+
+Not analysed: torsion and warping, the coupling of the planes through a mono- or non-symmetric section (every
+section strutscope has is doubly symmetric; a custom one is refused), flexural–torsional and torsional
+buckling, lateral-torsional buckling.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from engine.checks import EQ_5_9_KIND, MemberCheck
+from engine.classification import eq_5_9_modulus
+from engine.codes import plastic_interaction, shear_reduction
+from engine.solver.model import Points
+
+__all__ = [
+    "ELASTIC_KIND",
+    "PLASTIC_KIND",
+    "check_biaxial",
+    "exponents",
+    "moment_factor",
+    "pair_check",
+    "pair_stations",
+    "plane_at",
+]
+
+#: The kinds of the two-plane check.
+ELASTIC_KIND = "elastic stress N–M_y–M_z"
+PLASTIC_KIND = "plastic N–M_y–M_z"
+
+_PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle", "round")
+_SOURCES = {
+    "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form, both axes (clause from memory)",
+    "plastic": "EN 1993-1-1:2005 §6.2.9.1(5)–(6) and §6.2.8 (clause numbers from memory)",
+    "shear": "EN 1993-1-1:2005 §6.2.6, eq. (6.18), each plane with its shear area (from memory)",
+    "eq-5.9": "EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9)–(5.10), linear N–M_y–M_z with γ_M1 (from memory)",
+}
+
+
+def exponents(shape: str, n):
+    r"""α and β of EN 1993-1-1 §6.2.9.1(6) for ``shape`` at :math:`n = N_{Ed}/N_{pl,Rd}` (arrays or floats).
+
+    >>> exponents("rolled_i", 0.0), exponents("rolled_i", 0.5)
+    ((2.0, 1.0), (2.0, 2.5))
+    >>> round(exponents("rhs", 0.0)[0], 2), exponents("rhs", 0.95)[0]
+    (1.66, 6.0)
+    """
+    n = np.abs(n)
+    if shape in ("rolled_i", "welded_i"):
+        return 2.0, np.maximum(5.0 * n, 1.0) if np.ndim(n) else max(5.0 * float(n), 1.0)
+    if shape == "rhs":
+        with np.errstate(divide="ignore"):
+            gap = 1.0 - 1.13 * np.square(n)
+            value = np.where(gap > 0.0, 1.66 / np.where(gap > 0.0, gap, 1.0), 6.0)
+        value = np.minimum(value, 6.0)
+        value = value if np.ndim(n) else float(value)
+        return value, value
+    if shape in ("chs", "round"):
+        return 2.0, 2.0
+    return 1.0, 1.0  # the solid rectangle: the straight line (safe by convexity)
+
+
+def moment_factor(a, b, alpha, beta):
+    r"""The factor s with :math:`(a/s)^\alpha + (b/s)^\beta = 1` (a, b >= 0; α, β >= 1), elementwise.
+
+    With t = 1/s, :math:`g(t) = (a t)^\alpha + (b t)^\beta - 1` is convex and increasing; Newton's method from
+    :math:`t_0 = 1/\max(a, b)`, where :math:`g \ge 0`, decreases monotonically to the root.
+
+    >>> float(moment_factor(0.6, 0.0, 2.0, 1.0)), round(float(moment_factor(0.3, 0.4, 2.0, 2.0)), 12)
+    (0.6, 0.5)
+    """
+    a, b = np.broadcast_arrays(np.asarray(a, dtype=float), np.asarray(b, dtype=float))
+    alpha = np.broadcast_to(np.asarray(alpha, dtype=float), a.shape)
+    beta = np.broadcast_to(np.asarray(beta, dtype=float), a.shape)
+    top = np.maximum(a, b)
+    out = top.copy()
+    both = (a > 0) & (b > 0) & np.isfinite(top)
+    if both.any():
+        a, b, alpha, beta = a[both], b[both], alpha[both], beta[both]
+        t = 1.0 / top[both]
+        for _ in range(60):
+            ua, ub = (a * t) ** alpha, (b * t) ** beta
+            g = ua + ub - 1.0
+            step = g / ((alpha * ua + beta * ub) / t)
+            t = t - step
+            if np.all(np.abs(step) <= 1e-15 * t):
+                break
+        out[both] = 1.0 / t
+    return out
+
+
+def pair_stations(x1, x2, tol):
+    """Pair the entries of two planes' station lists that cover the same positions.
+
+    ``x1`` and ``x2`` are sorted (non-decreasing) and list the same positions (within ``tol``), each position
+    once or, where a plane has a node with a jump, twice (left side first). Returns the indices ``(i1, i2)``
+    of the combined list: at a position listed k1 and k2 times, max(k1, k2) entries, pairing the j-th entries
+    (the last one repeated), so that left sides go with left sides.
+    """
+    x1, x2 = np.asarray(x1), np.asarray(x2)
+    starts1 = np.concatenate([[0], np.nonzero(np.diff(x1) > tol)[0] + 1])
+    starts2 = np.concatenate([[0], np.nonzero(np.diff(x2) > tol)[0] + 1])
+    if starts1.size != starts2.size:  # not the same positions: pair each entry with its nearest (a fallback)
+        near = np.clip(np.searchsorted(x2, x1), 1, x2.size - 1)
+        near -= (x1 - x2[near - 1]) < (x2[near] - x1)
+        return np.arange(x1.size), near
+    count1 = np.diff(np.concatenate([starts1, [x1.size]]))
+    count2 = np.diff(np.concatenate([starts2, [x2.size]]))
+    many = np.maximum(count1, count2)
+    first = np.repeat(np.cumsum(many) - many, many)
+    k = np.arange(first.size) - first
+    i1 = np.repeat(starts1, many) + np.minimum(k, np.repeat(count1, many) - 1)
+    i2 = np.repeat(starts2, many) + np.minimum(k, np.repeat(count2, many) - 1)
+    return i1, i2
+
+
+def check_biaxial(
+    *,
+    x,
+    axial_force,
+    moment_y,
+    moment_z,
+    shear_z,
+    shear_y,
+    section_y,
+    section_z,
+    material,
+    settings,
+    section_class=None,
+    eq_5_9: bool = False,
+    beyond_critical: bool = False,
+    deflection=None,
+    axis: str = "major",
+) -> MemberCheck:
+    """The two-plane cross-section check at every combined station.
+
+    Parameters
+    ----------
+    x : ndarray
+        The combined stations [m] (:func:`pair_stations`).
+    axial_force : float
+        N [N], compression positive (|N| is checked).
+    moment_y, moment_z : ndarray
+        M_y (bending about the major axis) and M_z (about the minor axis) [N·m] at ``x``.
+    shear_z, shear_y : ndarray
+        The shear of the major-axis plane (V_z) and of the minor-axis plane (V_y) [N] at ``x``.
+    section_y, section_z : Section
+        The section's properties about the major and the minor axis.
+    material : Material
+    settings : CheckSettings
+    section_class : SectionClass or None
+        The worse class of the two planes (None when not classified).
+    eq_5_9 : bool
+        A plane's bow is the eq. (5.9) preset: the linear member check is added.
+    beyond_critical : bool
+        The axial force is above a plane's first critical load: the check fails (+inf).
+    deflection : MemberCheck or None
+        The first plane's own check, whose deflection (service) figures are carried over.
+    axis : str
+        The first plane's axis: ``resistances["M_Rd"]`` and ``["V_Rd"]`` are about it (``M_Rd_y``,
+        ``M_Rd_z``, ``V_Rd_z``, ``V_Rd_y`` name both).
+
+    Returns
+    -------
+    MemberCheck
+        ``at`` holds ``x`` (the combined stations, not the result's); ``out_of_plane`` is None (the second
+        plane's analysis covers buckling about the other axis).
+    """
+    g0 = settings.gamma_M0
+    N = abs(float(axial_force))
+    My, Mz = np.abs(np.asarray(moment_y, dtype=float)), np.abs(np.asarray(moment_z, dtype=float))
+    Vz, Vy = np.abs(np.asarray(shear_z, dtype=float)), np.abs(np.asarray(shear_y, dtype=float))
+    fy, fc = material.fy, material.f_c
+    shape = section_y.shape
+    notes = []
+    method = settings.method
+    if method == "plastic" and (shape not in _PLASTIC_SHAPES or material.kind == "timber"):
+        notes.append(
+            f"The plastic check does not apply to a {shape} section of {material.kind}; "
+            "the elastic check is used instead."
+        )
+        method = "elastic"
+    klass = section_class.klass if section_class is not None else None
+    if method == "plastic" and klass is not None and klass >= 3:
+        notes.append(
+            f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
+            "so the elastic check is used instead."
+        )
+        method = "elastic"
+    steel_like = material.kind in ("steel", "aluminium", "custom")
+    root3 = math.sqrt(3.0)
+    V_Rd_z = section_y.A_v * fy / (root3 * g0) if steel_like else None
+    V_Rd_y = section_z.A_v * fy / (root3 * g0) if steel_like else None
+    with np.errstate(divide="ignore", invalid="ignore"):
+        if method == "elastic":
+            N_Rd = section_y.A * fc / g0
+            M_Rd_y, M_Rd_z = section_y.W_el * fy / g0, section_z.W_el * fy / g0
+            ab = N / N_Rd + My / M_Rd_y + Mz / M_Rd_z
+            kind_ab = ELASTIC_KIND
+        else:
+            N_Rd = section_y.A * fy / g0
+            M_Rd_y, M_Rd_z = section_y.W_pl * fy / g0, section_z.W_pl * fy / g0
+            n = N / N_Rd
+            reduced_y = plastic_interaction(shape=shape, axis="major", n=n, a=section_y.interaction_a)
+            reduced_z = plastic_interaction(shape=shape, axis="minor", n=n, a=section_z.interaction_a)
+            if V_Rd_z is not None:
+                rho = np.maximum(shear_reduction(Vz, V_Rd_z), shear_reduction(Vy, V_Rd_y))
+            else:
+                rho = np.zeros_like(My)
+            cap_y = M_Rd_y * reduced_y * (1.0 - rho)
+            cap_z = M_Rd_z * reduced_z * (1.0 - rho)
+            a = np.where(My > 0, My / cap_y, 0.0)
+            b = np.where(Mz > 0, Mz / cap_z, 0.0)
+            a, b = np.where(np.isnan(a), np.inf, a), np.where(np.isnan(b), np.inf, b)
+            alpha, beta = exponents(shape, n)
+            ab = np.maximum(n, moment_factor(a, b, alpha, beta))
+            kind_ab = PLASTIC_KIND
+        sh_z = Vz / V_Rd_z if V_Rd_z is not None else np.zeros_like(Vz)
+        sh_y = Vy / V_Rd_y if V_Rd_y is not None else np.zeros_like(Vy)
+        linear = None
+        if eq_5_9 and float(axial_force) > 0:
+            g1 = settings.gamma_M1
+            W_y = eq_5_9_modulus(section_y, material, settings.method)
+            W_z = eq_5_9_modulus(section_z, material, settings.method)
+            linear = N * g1 / (section_y.A * fy) + My * g1 / (W_y * fy) + Mz * g1 / (W_z * fy)
+            ab_section = ab
+            ab = np.maximum(ab, linear)
+    if V_Rd_z is None:
+        notes.append("Shear is not checked for timber (no shear strength is given for it).")
+    sh = np.maximum(sh_z, sh_y)
+    strength = np.maximum(ab, sh)
+    i = int(np.argmax(strength))
+    if ab[i] >= sh[i]:
+        kind = kind_ab
+        source = _SOURCES[method]
+        if linear is not None and linear[i] >= ab_section[i]:
+            kind, source = EQ_5_9_KIND, _SOURCES["eq-5.9"]
+    else:
+        kind = "shear"
+        source = _SOURCES["shear"]
+    value = float(strength[i])
+    where = float(x[i])
+    in_plane_value, in_plane_kind = value, kind
+    valid = True
+    if klass == 4 and N > 0:
+        kind, value, source, valid = "class 4 section", math.inf, section_class.source, False
+    if beyond_critical:
+        kind, value, valid = "elastic buckling", math.inf, False
+        source = "Euler; Timoshenko & Gere (1961) ch. 2: no stable equilibrium above the first critical load"
+    return MemberCheck(
+        settings=settings,
+        utilization=value,
+        kind=kind,
+        x=where,
+        source=source,
+        strength_utilization=value,
+        strength_kind=kind,
+        stations=strength,
+        axial_bending=ab,
+        shear=sh,
+        deflection_utilization=deflection.deflection_utilization if deflection is not None else 0.0,
+        max_deflection=deflection.max_deflection if deflection is not None else 0.0,
+        deflection_allowed=deflection.deflection_allowed if deflection is not None else math.inf,
+        resistances={
+            "N_Rd": N_Rd,
+            "M_Rd": M_Rd_y if axis == "major" else M_Rd_z,
+            "V_Rd": V_Rd_z if axis == "major" else V_Rd_y,
+            "M_Rd_y": M_Rd_y,
+            "M_Rd_z": M_Rd_z,
+            "V_Rd_z": V_Rd_z,
+            "V_Rd_y": V_Rd_y,
+        },
+        notes=tuple(notes),
+        section_class=section_class,
+        valid=valid,
+        out_of_plane=None,
+        in_plane_utilization=in_plane_value,
+        in_plane_kind=in_plane_kind,
+        at=np.asarray(x, dtype=float),
+    )
+
+
+def plane_at(raw, prep, other_x, tol):
+    """A plane's M and V at its own stations and at the other plane's that are not among them, in order
+    along the member (a node's two sides stay left first): ``(x, M, V)``, each plane's exact solution."""
+    _, _, values, x, _, _, batch = raw
+    pos = np.clip(np.searchsorted(x, other_x), 1, x.size - 1)
+    near = np.minimum(np.abs(other_x - x[pos - 1]), np.abs(x[pos] - other_x))
+    extra = np.unique(other_x[near > tol])
+    if extra.size:
+        extra = extra[np.concatenate([[True], np.diff(extra) > tol])]
+        model = prep.model
+        seg = model.segment_of(extra)
+        st = batch.states(0, Points(model, seg, extra - model.xa[seg]))
+        every = np.concatenate([x, extra])
+        order = np.argsort(every, kind="stable")
+        return (
+            every[order],
+            np.concatenate([values["M"], st["M"]])[order],
+            np.concatenate([values["V"], st["V"]])[order],
+        )
+    return x, values["M"], values["V"]
+
+
+def pair_check(case, P, planes):
+    """The two-plane cross-section check (:mod:`engine.biaxial`) on both planes' stations merged."""
+    (r1, prep1, raw1), (r2, prep2, raw2) = planes
+    tol = 1e-11 * prep1.model.L
+    x1, m1, v1 = plane_at(raw1, prep1, raw2[3], tol)
+    x2, m2, v2 = plane_at(raw2, prep2, raw1[3], tol)
+    i1, i2 = pair_stations(x1, x2, tol)
+    major_first = case.axis == "major"
+    s1, s2 = prep1.member.section, prep2.member.section
+    classes = [c for c in (prep1.section_class(P > 0), prep2.section_class(P > 0)) if c is not None]
+    presets = (case.imperfection.preset, case.second_plane_case().imperfection.preset)
+    return check_biaxial(
+        x=x1[i1],
+        axial_force=P,
+        moment_y=(m1 if major_first else m2)[i1 if major_first else i2],
+        moment_z=(m2 if major_first else m1)[i2 if major_first else i1],
+        shear_z=(v1 if major_first else v2)[i1 if major_first else i2],
+        shear_y=(v2 if major_first else v1)[i2 if major_first else i1],
+        section_y=s1 if major_first else s2,
+        section_z=s2 if major_first else s1,
+        material=prep1.member.material,
+        settings=case.check,
+        section_class=max(classes, key=lambda c: c.klass) if classes else None,
+        eq_5_9="en1993-eq-5.9" in presets,
+        beyond_critical="unstable" in (r1.status, r2.status),
+        deflection=r1.check,
+        axis=case.axis,
+    )
