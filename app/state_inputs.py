@@ -519,7 +519,9 @@ class MemberInputs(PlaneInputs):
             **plane_check_keys(self),
         }
         data.update(plane_mapping(self))
-        if self.out_of_plane == "restrained":
+        if self.plane2:
+            pass  # the second plane's own supports and bow make the out-of-plane check
+        elif self.out_of_plane == "restrained":
             data["out_of_plane"] = {"restrained": True}
         elif self.out_of_plane_length is not None:
             data["out_of_plane"] = {"buckling_length": self.out_of_plane_length}

@@ -1,10 +1,11 @@
 """The page's inputs of the second bending plane and of the routes of the member check (issue 14).
 
 :class:`PlaneInputs` is the part of :class:`app.state_inputs.MemberInputs` that holds them, in SI like every
-input: whether the case has a second plane, its supports and its loads (the bow of the second plane is the
-code's default, unless a loaded case gave one: then it is kept as it came, with any other key of the file's
-``second_plane``), which routes count toward the headline utilisation, the EN 1993-1-1 Annex and the AISC
-method. :func:`plane_mapping` and :func:`plane_values` turn them into the case file's keys and back.
+input: whether the case has a second plane, its supports, its loads and (with the case's own EI) its EI. Its
+bow is the code's default (the key left out: the engine takes EN 1993-1-1 Table 5.1 about the other axis),
+unless a loaded case gave one, which is kept as it came with any other key of the file's ``second_plane``.
+Then which routes count toward the headline utilisation, the EN 1993-1-1 Annex and the AISC method.
+:func:`plane_mapping` and :func:`plane_values` turn them into the case file's keys and back.
 
 Keys the case file leaves at their defaults are not written (a one-plane case with the default routes is the
 same file as before issue 14).
@@ -34,8 +35,6 @@ ROUTE_CODES = ("second-order", "en-member", "aisc")
 DEFAULT_ROUTES = ("second-order", "en-member")
 #: The named supports of the second plane (springs come only from a case file, and are kept as given).
 PLANE_SUPPORTS = ("pinned", "fixed", "free", "guided")
-#: The code's default bow of the second plane: the EN 1993-1-1 Table 5.1 preset, pointing with the loads.
-DEFAULT_PLANE_BOW = {"preset": "en1993-table-5.1", "direction": "load"}
 
 #: The inputs held here (the state watches them as it watches every other input).
 PLANE_INPUTS = (
@@ -43,6 +42,7 @@ PLANE_INPUTS = (
     "plane2_left",
     "plane2_right",
     "plane2_loads",
+    "plane2_EI",
     "plane2_extra",
     "routes",
     "annex",
@@ -69,6 +69,12 @@ class PlaneInputs(param.Parameterized):
         default=[{"type": "uniform", "q": 1.0e3}],
         item_type=dict,
         doc="Transverse loads of the second plane in the case-file form (SI), as ``loads``.",
+    )
+    plane2_EI = param.Number(
+        allow_None=True,
+        default=None,
+        softbounds=(1.0e4, 1.0e9),
+        doc="Second plane's bending stiffness EI [N·m²], needed (only) when the case gives its own EI.",
     )
     plane2_extra = param.Dict(
         default={},
@@ -106,9 +112,10 @@ def plane_mapping(inputs) -> dict:
     data: dict[str, Any] = {
         "supports": {"left": inputs.plane2_left, "right": inputs.plane2_right},
         "loads": [dict(load) for load in inputs.plane2_loads],
-        "imperfection": dict(DEFAULT_PLANE_BOW),
     }
     data.update(inputs.plane2_extra)
+    if inputs.stiffness_from in ("EI", "both"):
+        data["EI"] = inputs.plane2_EI
     return {"second_plane": data}
 
 
@@ -125,8 +132,7 @@ def plane_values(mapping: Mapping) -> dict:
         values["plane2_right"] = supports.get("right", "pinned")
         loads = plane.pop("loads", [])
         values["plane2_loads"] = [dict(load) for load in loads] if isinstance(loads, list) else []
-        if plane.get("imperfection") == DEFAULT_PLANE_BOW:
-            plane.pop("imperfection")
+        values["plane2_EI"] = plane.pop("EI", None)
         values["plane2_extra"] = plane
     else:
         values["plane2"] = False

@@ -390,6 +390,9 @@ class InputsView(pn.viewable.Viewer):
         for key, widget in self.dimension_inputs.items():
             widget.visible = key in SECTION_DIMENSIONS.get(shape, ())
         self.manufacture_select.visible = shape in ("rhs", "chs")
+        # A second plane makes the out-of-plane check with its own supports and bow (issue 14).
+        self.out_of_plane_select.disabled = state.plane2
+        self.out_of_plane_input.disabled = state.plane2
         custom = state.material_from == "custom"
         self.material_select.visible = not custom
         self.material_E_input.visible = custom

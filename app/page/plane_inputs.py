@@ -12,7 +12,7 @@ from __future__ import annotations
 import panel as pn
 import param
 
-from app.page.fields import ErrorPanes
+from app.page.fields import ErrorPanes, UnitNumber
 from app.page.loads import LoadsView
 from app.page.style import SUPPORT_LABELS, WIDGET_CSS, html_pane
 from app.report.routes import other_axis, plane_name
@@ -57,9 +57,18 @@ class PlaneLoadsView(pn.viewable.Viewer):
         }
         for side, widget in self.ends.items():
             widget.param.watch(lambda event, side=side: self._support(side, event), "value")
+        self.stiffness = UnitNumber(
+            "EI about the other axis",
+            "stiffness",
+            get=lambda: state.plane2_EI,
+            put=lambda value: state.param.update(plane2_EI=value),
+            system=lambda: state.units,
+            width=170,
+        )
         self.second = pn.Column(
             self.enable,
             pn.Row(self.ends["left"], self.ends["right"], margin=0),
+            self.stiffness.widget,
             errors.pane("second_plane.supports", "second_plane.imperfection", "second_plane.EI"),
             errors.pane("second_plane", exact=True),
             html_pane(
@@ -73,7 +82,10 @@ class PlaneLoadsView(pn.viewable.Viewer):
         self.panel = pn.Column(
             self.plane_switch, self.second, self.holder, name="Loads", margin=0, sizing_mode="stretch_both"
         )
-        state.param.watch(lambda *_: self.show(), ["plane2", "plane2_left", "plane2_right", "axis"])
+        state.param.watch(
+            lambda *_: self.show(),
+            ["plane2", "plane2_left", "plane2_right", "plane2_EI", "axis", "stiffness_from", "units"],
+        )
         self.show()
 
     def __panel__(self):
@@ -124,6 +136,8 @@ class PlaneLoadsView(pn.viewable.Viewer):
             if widget.value != value:
                 widget.value = value
             widget.disabled = not state.plane2
+        self.stiffness.show()
+        self.stiffness.widget.visible = state.plane2 and state.stiffness_from in ("EI", "both")
         self._show_loads()
 
 
