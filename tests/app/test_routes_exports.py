@@ -76,3 +76,26 @@ def test_calc_sheet_has_each_route_and_the_second_plane(two_planes, system):
     assert ("F_cr = 215.0 MPa" if system == "si" else "F_cr = 31.18 ksi") in text
     found = [text[max(0, m.start() - 40) : m.end() + 5] for m in FORBIDDEN[system].finditer(text)]
     assert not found
+
+
+def test_png_figure_draws_both_planes():
+    """With a second plane the figure has two sets of diagrams, each headed by the axis it bends about."""
+    from app.exports.figure import result_figure
+
+    fig = result_figure(two_planes_result(), units="us")
+    texts = [text.get_text() for text in fig.texts]
+    assert "bending about the major axis (y–y)" in texts and "bending about the minor axis (z–z)" in texts
+    assert len(fig.axes) == 8  # a sketch and three diagrams per plane
+    single = result_figure(dataclasses.replace(two_planes_result(), second_plane=None), units="us")
+    assert len(single.axes) == 4
+
+
+def two_planes_result():
+    """The demo solved by the engine with a second plane (minor axis, uniform 1 kN/m, invented)."""
+    text = resources.files("assets").joinpath("demo_wind_post.json").read_text(encoding="utf-8")
+    mapping = json.loads(text)
+    mapping["second_plane"] = {
+        "supports": {"left": "pinned", "right": "pinned"},
+        "loads": [{"type": "uniform", "q": 1.0e3}],
+    }
+    return engine.solve(engine.Case.from_dict(mapping))
