@@ -44,11 +44,15 @@ def _csv_columns(result, U: Units):
             columns.append((f"{name}1 [{unit}]", getattr(first, field), kind))
     check = result.check
     if check is not None:
-        columns += [
-            ("utilisation [-]", check.stations, None),
-            ("utilisation axial+bending [-]", check.axial_bending, None),
-            ("utilisation shear [-]", check.shear, None),
-        ]
+        at = getattr(check, "at", None)
+        same = at is None
+        for header, values in (
+            ("utilisation [-]", check.stations),
+            ("utilisation axial+bending [-]", check.axial_bending),
+            ("utilisation shear [-]", check.shear),
+        ):
+            # A two-plane check runs on both planes' stations merged: at the rows' stations, the larger side.
+            columns.append((header, values if same else _at_rows(result.x, at, values, larger=True), None))
     elif result.utilization is not None:
         # At a critical load the engine gives no check along the member, only the governing utilisation
         # (+inf), which then holds at every station.
@@ -81,8 +85,29 @@ def _second_plane_columns(result, U: Units):
     ):
         values = np.asarray(getattr(second, field), dtype=float)
         same = sx.shape == x.shape and np.array_equal(sx, x)
-        columns.append((f"{name}_{suffix} [{unit}]", values if same else np.interp(x, sx, values), kind))
+        columns.append((f"{name}_{suffix} [{unit}]", values if same else _at_rows(x, sx, values), kind))
     return columns
+
+
+def _at_rows(x, xp, fp, *, larger: bool = False) -> np.ndarray:
+    """Values `fp` at stations `xp` (a node with a jump listed twice, left side first), at the rows' `x`.
+
+    Linear between stations. At a position listed twice in `x` the first row takes the left side and the
+    second the right; at a position listed once in `x` but twice in `xp` (the other plane's node) the side of
+    the larger magnitude (or, with `larger`, the larger value), so that no peak is lost on the safe side.
+    """
+    x, xp, fp = (np.asarray(a, dtype=float) for a in (x, xp, fp))
+    right = np.interp(x, xp, fp)
+    left = np.interp(-x, -xp[::-1], fp[::-1])
+    first_of_pair = np.zeros(x.size, dtype=bool)
+    second_of_pair = np.zeros(x.size, dtype=bool)
+    twin = np.nonzero(np.diff(x) == 0)[0]
+    first_of_pair[twin], second_of_pair[twin + 1] = True, True
+    if larger:
+        either = np.maximum(left, right)
+    else:
+        either = np.where(np.abs(left) >= np.abs(right), left, right)
+    return np.where(first_of_pair, left, np.where(second_of_pair, right, either))
 
 
 #: The byte order mark that starts the CSV: spreadsheets read the file as UTF-8 with it (and as a legacy

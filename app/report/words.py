@@ -408,12 +408,20 @@ def _out_of_plane_buckling(v: dict, U: Units) -> str:
     )
 
 
+def _out_of_plane_checked(v: dict, U: Units) -> str:
+    return (
+        f"Out-of-plane flexural buckling checked: N/N_b,Rd = {v['utilization']:.3f} <= 1, "
+        f"{_out_of_plane_facts(v, U)}."
+    )
+
+
 # The cautions whose message quotes a quantity with a unit, worded here from the engine's SI values; every
 # other caution's message holds no unit and is shown as the engine words it.
 _WORDED = {
     "deflection": _deflection,
     "bow-below-code": _bow_below_code,
     "out-of-plane-buckling": _out_of_plane_buckling,
+    "out-of-plane-checked": _out_of_plane_checked,
 }
 
 
@@ -475,4 +483,8 @@ def caution_text(caution, U: Units | str = "si") -> str:
     values = getattr(caution, "values", None)
     if word is None or not values:
         return caution.message
-    return word(values, U)
+    text = word(values, U)
+    if values.get("plane") == 2:
+        # A two-plane case's caution about its second plane: the engine's message opens with the plane.
+        text = f"Second plane (bending about the {values.get('axis', 'other')} axis): {text}"
+    return text

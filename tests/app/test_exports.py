@@ -364,9 +364,10 @@ def test_csv_at_critical_load_writes_inf(critical):
 
 
 def test_pdf_pages_and_governing_values(demo, demo_pdf):
-    """The calc sheet has 1–2 pages; its text holds the governing moment and Pcr1 as printed (CLI format)."""
+    """The calc sheet has 2–4 pages; its text holds the governing moment and Pcr1 as printed (CLI format)."""
     pages, text = pdf_text(demo_pdf)
-    assert 1 <= pages <= 2
+    # Text then the figure page; issue 14's routes and the out-of-plane caution can take a second text page.
+    assert 2 <= pages <= 4
     moment = demo.governing.moment
     assert f"{four_figures(moment.value / 1e3)} kN·m" in text  # 27.17 kN·m, as the CLI prints it
     assert f"Pcr1 = {float(demo.critical_loads[0]) / 1e3:.1f} kN" in text  # 3279.4 kN, five figures

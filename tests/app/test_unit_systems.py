@@ -62,6 +62,14 @@ CASES = {
         "axial_force": 50e3,
     },
     "tension": {"axial_force": -200e3},
+    # Issue 14: a second plane (its cautions carry the plane), bending about the minor axis (invented loads).
+    "two planes": {
+        "second_plane": {
+            "supports": {"left": "pinned", "right": "fixed"},
+            "loads": [{"type": "point", "P": 3e3, "x": 2.0}, {"type": "uniform", "q": 4e3}],
+        },
+        "check": {"method": "elastic", "deflection_limit": 1000},
+    },
     "beyond the first critical load": {"axial_force": 4000e3},
 }
 
