@@ -412,6 +412,26 @@ def _build() -> dict[str, Any]:
             "deflection_limit": _number(
                 "n of the deflection limit span/n [-], 1 to 10000; default 250", minimum=1, maximum=10000
             ),
+            "routes": {
+                "type": "array",
+                "items": {"enum": ["second-order", "en-member", "aisc"]},
+                "minItems": 1,
+                "uniqueItems": True,
+                "description": "The routes of the member check that set the headline utilisation (the "
+                "largest of them): 'second-order' (exact analysis with the code's bow, then cross-sections), "
+                "'en-member' (EN 1993-1-1 §6.3.3, eqs. (6.61)/(6.62)), 'aisc' (AISC 360-16 §E3 and §H1.1). "
+                "Default ['second-order', 'en-member']; every route is shown.",
+            },
+            "annex": {
+                "enum": ["B", "A"],
+                "description": "Interaction factors of the 'en-member' route: 'B' (EN 1993-1-1 Annex B, "
+                "method 2; default) or 'A' (Annex A, method 1).",
+            },
+            "aisc_method": {
+                "enum": ["LRFD", "ASD"],
+                "description": "The 'aisc' route's factors: 'LRFD' (resistance factors φ; default) or 'ASD' "
+                "(safety factors Ω).",
+            },
         },
         description="How the member is checked (needs a section and a material to apply).",
     )

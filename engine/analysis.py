@@ -7,6 +7,7 @@ import math
 
 import numpy as np
 
+from engine import member_routes
 from engine.amplification import approximations, braced
 from engine.biaxial import pair_check
 from engine.cautions import assess, merge_plane_cautions
@@ -260,6 +261,9 @@ def _build(
         ),
         service=service,
     )
+    if not first_order and section is not None and material is not None:  # the routes (issue 14)
+        out = prep.out_of_plane() if getattr(case, "second_plane", None) is None else None
+        result = member_routes.attach(result, bow_free=bow_free, out_of_plane=out, cache=prep.design)
     if not first_order and cautions:
         result = _with_cautions(result, prep, favourable=False)
     return result
@@ -311,6 +315,7 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
             check=result.check,
             bow=facts,
             service=result.service,
+            routes=result.routes,
         )
     )
     return dataclasses.replace(result, cautions=cautions)
@@ -413,7 +418,8 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         and (choice.automatic or details)
     )
     bow_free = None
-    if details and prep.has_bow and P != 0.0 and status != "critical":
+    # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
+    if (details or "aisc" in case.check.routes) and prep.has_bow and P != 0.0 and status != "critical":
         member = prep.member
         checked = member is not None and member.section is not None and member.material is not None
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):

@@ -32,6 +32,7 @@ import numpy as np
 from engine.analysis import solve, strength_solve
 from engine.classification import classify
 from engine.errors import CaseError
+from engine.member_routes import headline
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.roots import brentq
 
@@ -63,6 +64,11 @@ class Capacity:
         Pcr1 [N], for comparison: the smaller of the two planes' for a two-plane case.
     mode : str
     message : str
+    route : str
+        The route of the member check that governs there (:data:`engine.design.routes.ROUTES`): the capacity
+        is where the headline utilisation, the largest of the enabled routes (``check.routes``), reaches 1.
+        For the ``en-member`` and ``aisc`` routes ``check`` is the governing term's code (``"eq-6.62"``,
+        ``"H1-1a"``, ...).
     """
 
     axial_force: float
@@ -72,6 +78,7 @@ class Capacity:
     critical_load: float
     mode: str
     message: str
+    route: str = "second-order"
 
 
 def _scaled(case, factor, mode, reference):
@@ -135,11 +142,12 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         top = pcr1 / reference
 
     def utilisation(t: float) -> float:
-        # Both directions of an automatic bow, the worse kept; no service check (strength only).
+        # The headline (the largest enabled route); both directions of an automatic bow, the worse kept; no
+        # service check (strength only).
         r = strength_solve(_scaled(case, t, mode, reference), stations=stations)
-        return math.inf if r.check is None else r.check.strength_utilization
+        return math.inf if r.utilization is None else r.utilization
 
-    def found(t, check, x, message):
+    def found(t, check, x, message, route="second-order"):
         force = t if mode == "axial" else t * reference
         factor = t if mode == "proportional" else (force / reference if reference > 0 else math.nan)
         return Capacity(
@@ -150,10 +158,15 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             critical_load=pcr1,
             mode=mode,
             message=message,
+            route=route,
         )
 
     compressed_class = classify(probe.section, probe.material, compression=True)
-    if compressed_class is not None and compressed_class.klass == 4:
+    if (
+        compressed_class is not None
+        and compressed_class.klass == 4
+        and math.isinf(utilisation(1e-9 * top))  # the headline follows the class-4 refusal
+    ):
         return found(
             0.0,
             "class 4 section",
@@ -169,6 +182,7 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             "transverse loads alone",
             probe.check.x if probe.check else None,
             f"The transverse loads alone give utilisation {u0:.3f} ≥ 1: no axial force can be carried.",
+            headline(probe.routes)[1] or "second-order",
         )
     # Bracket the first crossing: finer towards the critical load, where the amplification runs away.
     grid = top * (1.0 - np.geomspace(1.0, 1e-9, 48))
@@ -179,6 +193,16 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         if u >= 1.0:
             root = brentq(lambda s: utilisation(s) - 1.0, prev_t, float(t), xtol=1e-12 * top, rtol=1e-13)
             r = solve(_scaled(case, root, mode, reference), stations=stations)
+            _, route, _ = headline(r.routes)
+            if route != "second-order":
+                governing = next(item for item in r.routes if item.route == route)
+                return found(
+                    root,
+                    governing.governing,
+                    None,
+                    f"The {route} route governs: utilisation 1 by {governing.governing}.",
+                    route,
+                )
             if r.check.strength_kind == OUT_OF_PLANE:
                 n_b = r.check.out_of_plane.N_b_Rd  # exactly: N/N_b,Rd is linear in N
                 return found(

@@ -31,15 +31,31 @@ import numpy as np
 
 from engine.classification import eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
+from engine.design.routes import ROUTES
 from engine.errors import CaseError
 from engine.out_of_plane import KIND
 
-__all__ = ["CheckSettings", "EQ_5_9_KIND", "MemberCheck", "check_member", "METHODS"]
+__all__ = [
+    "ANNEXES",
+    "AISC_METHODS",
+    "CheckSettings",
+    "DEFAULT_ROUTES",
+    "EQ_5_9_KIND",
+    "MemberCheck",
+    "check_member",
+    "METHODS",
+]
 
 #: The kind of the linear member check of the eq. (5.9) route.
 EQ_5_9_KIND = "linear N–M, eq. (5.9) route"
 
 METHODS = ("elastic", "plastic")
+#: The interaction factors of EN 1993-1-1 §6.3.3: Annex B (method 2) or Annex A (method 1).
+ANNEXES = ("B", "A")
+#: AISC 360-16 design methods: resistance factors φ (LRFD) or safety factors Ω (ASD).
+AISC_METHODS = ("LRFD", "ASD")
+#: The routes enabled by default (the headline is the larger of them; AISC is shown for comparison).
+DEFAULT_ROUTES = ("second-order", "en-member")
 _PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle")
 
 _SOURCES = {
@@ -66,14 +82,33 @@ class CheckSettings:
         Partial factors [-], 1.0 by default (EN 1993-1-1 recommends 1.0; national annexes may differ).
     deflection_limit : float
         n of the limit span/n [-], 250 by default.
+    routes : tuple of str
+        The routes of the member check that count toward the headline utilisation
+        (:data:`engine.design.routes.ROUTES`), in that order; a list is accepted. Default
+        ``("second-order", "en-member")``. Every route is computed; the others are shown for comparison.
+    annex : str
+        ``"B"`` (default: EN 1993-1-1 Annex B, method 2) or ``"A"`` (Annex A, method 1): the interaction
+        factors of the ``en-member`` route.
+    aisc_method : str
+        ``"LRFD"`` (default, resistance factors φ) or ``"ASD"`` (safety factors Ω) for the ``aisc`` route.
     """
 
     method: str = "elastic"
     gamma_M0: float = 1.0
     gamma_M1: float = 1.0
     deflection_limit: float = 250.0
+    routes: tuple = DEFAULT_ROUTES
+    annex: str = "B"
+    aisc_method: str = "LRFD"
 
     def __post_init__(self) -> None:
+        self._check_routes()
+        for name, allowed in (("annex", ANNEXES), ("aisc_method", AISC_METHODS)):
+            value = getattr(self, name)
+            if not isinstance(value, str) or value not in allowed:
+                raise CaseError(
+                    f"check.{name}: {value!r} is not allowed; allowed: " + ", ".join(repr(a) for a in allowed)
+                )
         if self.method not in METHODS:
             raise CaseError(
                 f"check.method: {self.method!r} is not a check method; allowed: 'elastic', 'plastic'"
@@ -90,14 +125,37 @@ class CheckSettings:
                 raise CaseError(f"check.{name}: {value!r} must be from {low:g} to {high:g}")
             object.__setattr__(self, name, float(value))
 
+    def _check_routes(self) -> None:
+        """``routes``: a non-empty list of known routes without repeats, kept in the order of ROUTES."""
+        given = self.routes
+        allowed = ", ".join(repr(r) for r in ROUTES)
+        if isinstance(given, (str, bytes)) or not isinstance(given, (list, tuple)):
+            raise CaseError(f"check.routes: {given!r} must be a list of routes; allowed: {allowed}")
+        if not given:
+            raise CaseError(f"check.routes: [] must name at least one route; allowed: {allowed}")
+        for item in given:
+            if not isinstance(item, str) or item not in ROUTES:
+                raise CaseError(f"check.routes: {item!r} is not a route; allowed: {allowed}")
+        if len(set(given)) != len(given):
+            raise CaseError(f"check.routes: {list(given)!r} names a route twice; allowed: {allowed}")
+        object.__setattr__(self, "routes", tuple(r for r in ROUTES if r in given))
+
     def to_dict(self) -> dict:
-        """The case-file form."""
-        return {
+        """The case-file form (the route keys only where they differ from the defaults, so that a schema-1
+        file written before them reads back the same)."""
+        data = {
             "method": self.method,
             "gamma_M0": self.gamma_M0,
             "gamma_M1": self.gamma_M1,
             "deflection_limit": self.deflection_limit,
         }
+        if self.routes != DEFAULT_ROUTES:
+            data["routes"] = list(self.routes)
+        if self.annex != "B":
+            data["annex"] = self.annex
+        if self.aisc_method != "LRFD":
+            data["aisc_method"] = self.aisc_method
+        return data
 
 
 @dataclass(frozen=True, kw_only=True, eq=False)

@@ -111,6 +111,15 @@ class Prepared:
             self._design["out_of_plane"] = resistance(self.case, member.section, member.material)
         return self._design["out_of_plane"]
 
+    def design(self, key, make):
+        """A design value that depends neither on the axial force nor on the bow (the member-check routes'
+        first-order diagrams, the section about the other axis, ...), made by ``make()`` once per case and
+        shared with the variants."""
+        hit = self._design.get(key)
+        if hit is None:
+            hit = self._design[key] = make()
+        return hit
+
     def bow_facts(self) -> dict:
         """What the cautions need to know of the bow."""
         if self.member is None:

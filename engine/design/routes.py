@@ -43,8 +43,8 @@ class RouteCheck:
         Every term's utilisation [-], keyed as ``governing`` is.
     facts : dict
         The numbers behind it, SI and dimensionless, keyed by the trade's symbols written in ASCII
-        (``"chi_y"``, ``"chi_z"``, ``"N_cr_y"``, ``"L_cr_z"``, ``"k_yy"``, ``"C_my"``, ``"phi_c"``, ``"F_cr"``,
-        ...).
+        (``"chi_y"``, ``"chi_z"``, ``"N_cr_y"``, ``"L_cr_z"``, ``"k_yy"``, ``"C_my"``, ``"phi_c"``,
+        ``"F_cr"``, ...).
     reason : str
         Why the route was not applied, else "".
     notes : tuple of str

@@ -1,0 +1,200 @@
+r"""The ``aisc`` route: AISC 360-16 §E3 (flexural buckling), §F2/F6/F7/F8/F11 (yielding), §H1.1/§H1.2.
+
+Sources: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*: Table B4.1a (width-to-thickness
+ratios, members in axial compression), Table B4.1b (members in flexure), eqs. (E3-1)–(E3-4), §F2.1, §F6.1,
+§F7.1, §F8.1, §F11.1, §D2(a), eqs. (H1-1a)/(H1-1b). Every limit and factor from memory, to be checked
+against a copy of the Specification.
+
+- :math:`F_e = N_{cr}/A_g` from the exact critical load of each plane (springs and restraints count); the
+  smaller :math:`P_n = F_{cr}A_g` governs (:func:`engine.design.aisc360.critical_stress`).
+- Compression elements (Table B4.1a): I flanges :math:`b/t = b_f/(2t_f) \le 0.56\sqrt{E/F_y}` (rolled;
+  built-up: :math:`0.64\sqrt{k_cE/F_y}`, :math:`k_c = 4/\sqrt{h/t_w}` within 0.35–0.76), I webs
+  :math:`h/t_w \le 1.49\sqrt{E/F_y}`, rectangular HSS walls :math:`b/t \le 1.40\sqrt{E/F_y}` (b = side − 3t),
+  round HSS :math:`D/t \le 0.11E/F_y`. A slender element: the route is not applied (§E7, effective areas, is
+  not covered).
+- Flexure (Table B4.1b): compact when every element is within :math:`\lambda_p` (I flanges
+  :math:`0.38\sqrt{E/F_y}`, I webs :math:`3.76\sqrt{E/F_y}`, HSS flanges :math:`1.12\sqrt{E/F_y}`, HSS webs
+  :math:`2.42\sqrt{E/F_y}`, round HSS :math:`0.07E/F_y`); then :math:`M_n = M_p = F_yZ \le 1.6F_yS`. A
+  non-compact element (within :math:`\lambda_r`: I flanges :math:`1.0\sqrt{E/F_y}`, I webs
+  :math:`5.70\sqrt{E/F_y}`, HSS flanges :math:`1.40\sqrt{E/F_y}`, HSS webs :math:`5.70\sqrt{E/F_y}`, round
+  HSS :math:`0.31E/F_y`): :math:`M_n = 0.7F_yS`, the lowest value the interpolations of §F3.2, §F6.2, §F7
+  and §F8.2 reach (a decision on the safe side; note ``aisc-noncompact``). A slender element in flexure: the
+  route is not applied.
+- Lateral-torsional buckling is not checked (note ``LTB-not-checked``); nor is shear (Chapter G, note
+  ``aisc-shear-not-checked``).
+- :math:`P_r = N`; :math:`M_r` the largest second-order moment of each plane WITHOUT the bow (the
+  Specification's strength :math:`P_n` already holds the member's out-of-straightness).
+- :math:`P_c = \phi_cP_n` or :math:`P_n/\Omega_c`, :math:`M_c = \phi_bM_n` or :math:`M_n/\Omega_b`
+  (``check.aisc_method``); these replace :math:`\gamma_{M0}, \gamma_{M1}` on this route. In tension,
+  :math:`P_c = \phi_tF_yA_g` (§D2(a), yielding; rupture of a net section is not checked) in eq. (H1-1) as
+  §H1.2 allows.
+"""
+
+from __future__ import annotations
+
+import math
+
+from engine.design import aisc360
+from engine.design.en_member import Plane, not_applied
+from engine.design.routes import RouteCheck
+
+__all__ = ["SOURCE", "compression_elements", "flexure_class", "route"]
+
+SOURCE = (
+    "AISC 360-16 Tables B4.1a/b, §E3 eqs. (E3-1)–(E3-4), §F2.1/F6.1/F7.1/F8.1/F11.1, §D2(a), §H1.1 eqs. "
+    "(H1-1a)/(H1-1b) and §H1.2 (from memory)"
+)
+
+_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle", "round")
+
+
+def _i_parts(dims: dict, shape: str) -> tuple[float, float, float]:
+    """Flange b/t, web h/t_w and k_c of an I section."""
+    h, b, tw, tf = dims["h"], dims["b"], dims["tw"], dims["tf"]
+    r = dims.get("r", 0.0) if shape == "rolled_i" else 0.0
+    web = (h - 2.0 * tf - 2.0 * r) / tw
+    k_c = min(0.76, max(0.35, 4.0 / math.sqrt(web)))
+    return b / (2.0 * tf), web, k_c
+
+
+def compression_elements(section, E: float, Fy: float) -> list:
+    """Table B4.1a: (element, ratio, limit λ_r) of every element of the section."""
+    root = math.sqrt(E / Fy)
+    dims, shape = section.dimensions, section.shape
+    if shape in ("rolled_i", "welded_i"):
+        flange, web, k_c = _i_parts(dims, shape)
+        limit = 0.56 * root if shape == "rolled_i" else 0.64 * math.sqrt(k_c * E / Fy)
+        return [("flange", flange, limit), ("web", web, 1.49 * root)]
+    if shape == "rhs":
+        t = dims["t"]
+        return [(f"wall {side}", (dims[side] - 3 * t) / t, 1.40 * root) for side in ("h", "b")]
+    if shape == "chs":
+        return [("tube", dims["D"] / dims["t"], 0.11 * E / Fy)]
+    return []
+
+
+def flexure_class(section, E: float, Fy: float) -> tuple[str, list]:
+    """Table B4.1b about the section's axis: ``"compact"``, ``"noncompact"`` or ``"slender"`` and the
+    elements as (element, ratio, λ_p, λ_r)."""
+    root = math.sqrt(E / Fy)
+    dims, shape = section.dimensions, section.shape
+    parts: list = []
+    if shape in ("rolled_i", "welded_i"):
+        flange, web, _ = _i_parts(dims, shape)
+        parts.append(("flange", flange, 0.38 * root, 1.0 * root))
+        if section.axis == "major":
+            parts.append(("web", web, 3.76 * root, 5.70 * root))
+    elif shape == "rhs":
+        t = dims["t"]
+        web_side, flange_side = (dims["h"], dims["b"]) if section.axis == "major" else (dims["b"], dims["h"])
+        parts.append(("flange", (flange_side - 3 * t) / t, 1.12 * root, 1.40 * root))
+        parts.append(("web", (web_side - 3 * t) / t, 2.42 * root, 5.70 * root))
+    elif shape == "chs":
+        parts.append(("tube", dims["D"] / dims["t"], 0.07 * E / Fy, 0.31 * E / Fy))
+    worst = "compact"
+    for _, ratio, lp, lr in parts:
+        if ratio > lr * (1 + 1e-12):
+            return "slender", parts
+        if ratio > lp * (1 + 1e-12):
+            worst = "noncompact"
+    return worst, parts
+
+
+def route(*, y: Plane, z: Plane, N: float, material, settings, enabled: bool, beyond: bool) -> RouteCheck:
+    """The ``aisc`` route at axial force ``N`` (compression positive) [N]; ``beyond``: N is at or above the
+    first critical load of the plane analysed (no stable equilibrium)."""
+    sy = y.section
+    if sy.shape not in _SHAPES:
+        return not_applied("aisc", enabled, "custom-section", SOURCE)
+    E, Fy = material.E, material.fy
+    method = settings.aisc_method
+    phi = {name: aisc360.RESISTANCE[name, method] for name in ("compression", "flexure")}
+    tension_factor = 0.90 if method == "LRFD" else 1.67  # §D2(a), from memory
+    available = (lambda n, f: f * n) if method == "LRFD" else (lambda n, f: n / f)
+    facts: dict = {"method": method, "F_y": Fy, "E": E, "A_g": sy.A}
+    if method == "LRFD":
+        facts.update(phi_c=phi["compression"], phi_b=phi["flexure"], phi_t=tension_factor)
+    else:
+        facts.update(Omega_c=phi["compression"], Omega_b=phi["flexure"], Omega_t=tension_factor)
+    facts["factors"] = "phi/Omega of AISC 360-16 in place of gamma_M0/gamma_M1"
+    if N > 0.0:
+        for name, ratio, limit in compression_elements(sy, E, Fy):
+            if ratio > limit * (1 + 1e-12):
+                facts.update(element=name, ratio=ratio, limit=limit)
+                return RouteCheck(
+                    route="aisc",
+                    enabled=enabled,
+                    utilization=None,
+                    facts=facts,
+                    reason="slender-element-compression",
+                    source=SOURCE,
+                )
+    notes = ["aisc-shear-not-checked"]
+    M_c = {}
+    for p in (y, z):
+        kind, _ = flexure_class(p.section, E, Fy)
+        facts[f"flexure_{p.axis}"] = kind
+        if kind == "slender":
+            if p.diagram.M_max == 0.0:
+                continue  # no moment about this axis: its flexural strength does not enter
+            return RouteCheck(
+                route="aisc",
+                enabled=enabled,
+                utilization=None,
+                facts=facts,
+                reason="slender-element-flexure",
+                source=SOURCE,
+            )
+        S, Z = p.section.W_el, p.section.W_pl
+        M_n = min(Fy * Z, 1.6 * Fy * S) if kind == "compact" else 0.7 * Fy * S
+        if kind == "noncompact" and "aisc-noncompact" not in notes:
+            notes.append("aisc-noncompact")
+        facts[f"M_n_{p.axis}"] = M_n
+        M_c[p.axis] = available(M_n, phi["flexure"])
+        facts[f"M_c_{p.axis}"] = M_c[p.axis]
+    if y.diagram.M_max > 0.0 and sy.shape not in ("chs", "round"):
+        notes.insert(0, "LTB-not-checked")
+    M_r = {}
+    for p in (y, z):
+        if p.M_second is None:
+            M_r[p.axis] = p.diagram.M_max
+        else:
+            M_r[p.axis] = p.M_second
+        facts[f"M_r_{p.axis}"] = M_r[p.axis]
+    if N > 0.0:
+        P_n = math.inf
+        for p in (y, z):
+            F_e = p.N_cr / sy.A
+            F_cr = aisc360.critical_stress(Fy, F_e)
+            facts[f"F_e_{p.axis}"], facts[f"F_cr_{p.axis}"] = F_e, F_cr
+            if F_cr * sy.A < P_n:
+                P_n, facts["P_n_axis"] = F_cr * sy.A, p.axis
+        P_c = available(P_n, phi["compression"])
+    else:
+        P_n = Fy * sy.A
+        P_c = available(P_n, tension_factor)
+        notes.append("aisc-tension-yielding")
+    facts.update(P_r=N, P_n=P_n, P_c=P_c)
+    if beyond or any(N >= p.N_cr and p.diagram.M_max > 0.0 for p in (y, z)):
+        return RouteCheck(
+            route="aisc",
+            enabled=enabled,
+            utilization=math.inf,
+            governing="elastic-buckling",
+            terms={"elastic-buckling": math.inf},
+            facts=facts,
+            notes=tuple(notes),
+            source=SOURCE,
+        )
+    found = aisc360.interaction(N, P_c, M_r["y"], M_c.get("y", math.inf), M_r["z"], M_c.get("z", math.inf))
+    facts.update(axial=found.axial, bending=found.bending)
+    return RouteCheck(
+        route="aisc",
+        enabled=enabled,
+        utilization=found.utilization,
+        governing=found.equation,
+        terms={found.equation: found.utilization},
+        facts=facts,
+        notes=tuple(notes),
+        source=SOURCE,
+    )

@@ -1,0 +1,166 @@
+r"""What the equivalent uniform moment factors read from a first-order moment diagram, and the factors.
+
+The ``en-member`` route takes :math:`C_{my}, C_{mz}` from the engine's own first-order solution of each plane
+(the loads as given, P = 0, no bow), by the rules of the Annex chosen:
+
+**Annex B, Table B.3** (:func:`engine.design.annex_b.equivalent_moment_factor`). The diagram is described as
+the table does: :math:`M_h` the end moment of larger magnitude, :math:`\psi` the other end's ratio to it, and
+:math:`M_s` the moment at the one interior extremum of the diagram (where V = 0 or at a point load's kink).
+strutscope's decisions, each on the safe side:
+
+- no transverse load inside the span (end couples, loads at the ends): the linear diagram, whatever the
+  supports;
+- every transverse load a uniform load over the whole member: the table's "uniform" row; every one a point
+  load: "concentrated"; any other mix (partial or linear loads, point and uniform together): the "uniform"
+  row, which is never smaller than the "concentrated" one (Table B.3's formulas differ by 0.1(1 + ψ) ≥ 0,
+  0.1 or 0.05(1 − α_h) ≥ 0);
+- a couple inside the span, or a diagram with no interior extremum or more than one, is not one of the
+  table's shapes: :math:`C_m = 1`, the table's largest value;
+- a member with an end that can translate (free, guided, or a translational spring) may have a sway buckling
+  mode: Table B.3's note gives :math:`C_m = 0.9`; strutscope takes the larger of 0.9 and the table's value
+  for the diagram (0.9 alone where the diagram is not one of the table's shapes), because a stiff spring makes
+  the mode non-sway and the table's value may then be higher.
+
+**Annex A, Table A.2.** A linear diagram on a member whose ends cannot translate:
+:math:`C_{mi,0} = 0.79 + 0.21\psi + 0.36(\psi - 0.33)N_{Ed}/N_{cr,i}`. Otherwise the table's general formula
+:math:`C_{mi,0} = 1 + (\pi^2 E I_i|\delta_x|/(L^2|M_{i,Ed}(x)|) - 1)N_{Ed}/N_{cr,i}`, with
+:math:`\delta_x` the largest first-order deflection and :math:`M_{i,Ed}(x)` the largest first-order moment.
+strutscope writes :math:`\pi^2 EI_i/L^2` as the plane's exact critical load :math:`N_{cr,i}` (the same for a
+pin-ended member; :math:`L = L_{cr}`): it is the first term of the exact amplification
+:math:`M_{II} = M_I + N\delta/(1 - N/N_{cr})`, which the formula expresses. With the member length instead,
+a fixed-ended member under a uniform load would get :math:`C = 1 - 0.69\,N/N_{cr}` where the exact
+second-order end moment needs :math:`C \approx 0.80` at :math:`N/N_{cr} = 0.5` (unsafe); with
+:math:`N_{cr}` it gets :math:`1 + 0.23\,N/N_{cr}` (safe). A couple inside the span: the larger of 1 and the
+general formula.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from engine.design import annex_a, annex_b
+
+__all__ = ["Diagram", "annex_a_factor", "annex_b_factor", "describe", "zero"]
+
+_REL = 1e-9
+
+
+@dataclass(frozen=True)
+class Diagram:
+    """A first-order moment diagram as the tables read it (SI: N·m, m, N).
+
+    Attributes
+    ----------
+    form : str
+        ``"linear"`` (no transverse load inside the span), ``"uniform"``, ``"concentrated"``, ``"mixed"``
+        (other transverse loads; read with the uniform row), or ``"other"`` (not one of Table B.3's shapes).
+    M_h, psi, M_s : float
+        Table B.3's end moment of larger magnitude, the end ratio ψ and the interior extremum (0 when linear).
+    M_max : float
+        max|M| [N·m].
+    delta : float
+        max|w| [m].
+    V_max : float
+        max|V| [N].
+    sway : bool
+        An end can translate.
+    """
+
+    form: str
+    M_h: float
+    psi: float
+    M_s: float
+    M_max: float
+    delta: float
+    V_max: float
+    sway: bool
+
+
+def zero(sway: bool = False) -> Diagram:
+    """The diagram of a plane without loads."""
+    return Diagram("linear", 0.0, 1.0, 0.0, 0.0, 0.0, 0.0, sway)
+
+
+def _interior(x0: float, x1: float, x: float) -> bool:
+    tol = 1e-9 * max(1.0, abs(x1 - x0))
+    return x0 + tol < x < x1 - tol
+
+
+def _extrema(M: np.ndarray, tol: float) -> list:
+    """The values of the interior local extrema of a continuous diagram sampled in order (plateaus once)."""
+    keep = np.concatenate([[True], np.abs(np.diff(M)) > tol])
+    m = M[keep]
+    if m.size < 3:
+        return []
+    d = np.sign(np.diff(m))
+    turn = np.nonzero(d[:-1] * d[1:] < 0)[0] + 1
+    values: list = []
+    for v in m[turn].tolist():
+        if not any(abs(v - u) <= tol for u in values):
+            values.append(v)
+    return values
+
+
+def describe(*, x, moment, deflection, shear, loads, length: float, sway: bool) -> Diagram:
+    """Read a first-order diagram (arrays at the stations, in order along the member) and the case's loads."""
+    M = np.asarray(moment, dtype=float)
+    M_max = float(np.abs(M).max()) if M.size else 0.0
+    delta = float(np.abs(np.asarray(deflection, dtype=float)).max())
+    V_max = float(np.abs(np.asarray(shear, dtype=float)).max())
+    ends = (float(M[0]), float(M[-1]))
+    M_h, other = (ends[0], ends[1]) if abs(ends[0]) >= abs(ends[1]) else (ends[1], ends[0])
+    psi = 1.0 if M_h == 0.0 else max(-1.0, min(1.0, other / M_h))
+    kinds = set()
+    inner_couple = False
+    for load in loads:
+        if load.type == "couple":
+            inner_couple = inner_couple or _interior(0.0, length, load.x)
+        elif load.type == "point":
+            if _interior(0.0, length, load.x) and load.P != 0.0:
+                kinds.add("concentrated")
+        elif load.type == "uniform":
+            if load.q != 0.0:
+                whole = (load.start in (None, 0.0)) and (load.end is None or load.end >= length * (1 - _REL))
+                kinds.add("uniform" if whole else "mixed")
+        elif load.q_start != 0.0 or load.q_end != 0.0:
+            kinds.add("mixed")
+    if inner_couple:
+        return Diagram("other", M_h, psi, 0.0, M_max, delta, V_max, sway)
+    if not kinds or M_max == 0.0:
+        return Diagram("linear", M_h, psi, 0.0, M_max, delta, V_max, sway)
+    form = kinds.pop() if len(kinds) == 1 else "mixed"
+    found = _extrema(M, _REL * M_max)
+    if len(found) != 1:
+        return Diagram("other", M_h, psi, 0.0, M_max, delta, V_max, sway)
+    return Diagram(form, M_h, psi, found[0], M_max, delta, V_max, sway)
+
+
+def annex_b_factor(d: Diagram) -> float:
+    """C_m of EN 1993-1-1 Annex B, Table B.3, with strutscope's reading of the diagram (module notes)."""
+    if d.M_max == 0.0:
+        table = 1.0
+    elif d.form == "other":
+        table = None
+    elif d.form == "linear":
+        table = annex_b.equivalent_moment_factor(d.M_h, d.psi)
+    else:
+        load = "concentrated" if d.form == "concentrated" else "uniform"
+        table = annex_b.equivalent_moment_factor(d.M_h, d.psi, d.M_s, load)
+    if d.sway and d.M_max != 0.0:
+        return max(annex_b.SWAY_CM, table if table is not None else 0.0)
+    return 1.0 if table is None else table
+
+
+def annex_a_factor(d: Diagram, N_Ed: float, N_cr: float) -> float:
+    """C_mi,0 of EN 1993-1-1 Annex A, Table A.2, with N_cr in place of π²EI/L² (module notes)."""
+    ratio = 0.0 if math.isinf(N_cr) else max(N_Ed, 0.0) / N_cr
+    if d.M_max == 0.0:
+        return 1.0
+    if d.form == "linear" and not d.sway:
+        return annex_a.moment_factor_linear(d.psi, ratio)
+    lever = 0.0 if math.isinf(N_cr) else N_cr * d.delta / d.M_max
+    general = annex_a.moment_factor_general(N_cr_delta_over_M=lever, n_cr_ratio=ratio)
+    return max(1.0, general) if d.form == "other" else general

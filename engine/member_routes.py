@@ -1,0 +1,260 @@
+"""The routes of the member check side by side (issue 14), and the headline utilisation.
+
+:func:`evaluate` turns a solved result into one :class:`engine.design.routes.RouteCheck` per route of
+:data:`engine.design.routes.ROUTES`, in that order:
+
+- ``"second-order"``: the member check the analysis made (:mod:`engine.checks`), as it is;
+- ``"en-member"``: :mod:`engine.design.en_member`;
+- ``"aisc"``: :mod:`engine.design.aisc_member`.
+
+Each plane is read from the result: the plane analysed from the result itself, the second plane from
+``result.second_plane`` when the case has one, else a plane without loads whose critical load is the
+out-of-plane one of :mod:`engine.out_of_plane` (π²EI/L_cr² with the case's ``out_of_plane`` buckling length,
+or the member length; ``restrained`` means buckling in it is prevented, N_cr = ∞).
+
+:func:`headline` is the largest utilisation of the enabled routes (``check.routes``), routes not applied
+ignored; when no enabled route applies, the second-order check stands in (and the result says so).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+
+from engine.checks import EQ_5_9_KIND
+from engine.classification import classify
+from engine.design import aisc_member, en_member
+from engine.design.diagram import describe, zero
+from engine.design.en_member import Plane, not_applied
+from engine.design.routes import ROUTES, RouteCheck
+from engine.out_of_plane import KIND as OUT_OF_PLANE
+from engine.sections import section_from_spec
+
+__all__ = ["FALLBACK", "attach", "evaluate", "headline"]
+
+#: The note of a headline that fell back on the second-order check (no enabled route applied).
+FALLBACK = "headline-fallback-second-order"
+
+_KINDS = {
+    "elastic stress": "cross-section",
+    "plastic N–M": "cross-section",
+    EQ_5_9_KIND: "eq-5.9-linear",
+    "shear": "shear",
+    OUT_OF_PLANE: "out-of-plane",
+    "class 4 section": "class-4",
+    "elastic buckling": "elastic-buckling",
+}
+
+_SOURCE_2ND = (
+    "EN 1993-1-1:2005 §5.2.2(7)a: elastic second-order analysis with the equivalent bow, then the "
+    "cross-section checks of §6.2; §6.3.1 about the other axis (clauses from memory)"
+)
+
+
+def _sways(case) -> bool:
+    return any(end.translation != "fixed" for end in (case.left, case.right))
+
+
+def _bow_free_moment(res) -> float | None:
+    """max|M| of the plane's second-order solution without its bow, where the result knows it."""
+    amp = res.amplification
+    if amp.moment_bow_free is None:
+        return None
+    if amp.moment_first_order is None:  # no first-order moment: nothing for the loads to amplify
+        return 0.0
+    return amp.moment_bow_free * res.governing.moment.magnitude / amp.moment_first_order
+
+
+def _made(cache, key, make):
+    return make() if cache is None else cache(key, make)
+
+
+def _diagram(res, case):
+    """The first-order diagram of a plane (exact wherever it turns: every zero of V is a station)."""
+    first = res.first_order
+    return describe(
+        x=first.x,
+        moment=first.moment,
+        deflection=first.deflection,
+        shear=first.shear,
+        loads=case.loads,
+        length=case.length,
+        sway=_sways(case),
+    )
+
+
+def _curve(section, material):
+    return en_member.curve_of(section, material)[0] if material.kind == "steel" else None
+
+
+def _plane(res, axis, case, *, M_second, cache, which):
+    diagram = _made(cache, ("routes-diagram", which), lambda: _diagram(res, case))
+    curve = _made(cache, ("routes-curve", which), lambda: _curve(res.section, res.material))
+    return Plane(
+        axis=axis,
+        section=res.section,
+        N_cr=float(res.critical_loads[0]),
+        EI=float(res.EI),
+        diagram=diagram,
+        M_second=M_second,
+        curve=curve,
+    )
+
+
+def _planes(result, M_second, out_of_plane, cache):
+    """The y and z planes of the member (``y`` bends about the major axis)."""
+    case = result.case
+    first_axis = "y" if case.axis == "major" else "z"
+    other_axis = "z" if first_axis == "y" else "y"
+    first = _plane(result, first_axis, case, M_second=M_second, cache=cache, which="first")
+    second = result.second_plane
+    if second is not None:
+        M_other = _bow_free_moment(second)
+        other = _plane(second, other_axis, second.case, M_second=M_other, cache=cache, which="second")
+    else:
+        other_name = "minor" if case.axis == "major" else "major"
+
+        def turned():
+            section = section_from_spec(dict(case.section), other_name)
+            return section, _curve(section, result.material)
+
+        section, curve = _made(cache, "routes-other-section", turned)
+        if out_of_plane is not None and out_of_plane.checked:
+            N_cr, source = out_of_plane.N_cr, "out-of-plane length"
+        else:
+            N_cr, source = math.inf, "restrained"
+        other = Plane(
+            axis=other_axis,
+            section=section,
+            N_cr=N_cr,
+            EI=result.material.E * section.I,
+            diagram=zero(),
+            M_second=0.0,
+            N_cr_source=source,
+            curve=curve,
+        )
+    return (first, other) if first_axis == "y" else (other, first)
+
+
+def _second_order(result, enabled: bool) -> RouteCheck:
+    check = result.check
+    if check is None:  # at a critical load: no equilibrium
+        return RouteCheck(
+            route="second-order",
+            enabled=enabled,
+            utilization=math.inf,
+            governing="elastic-buckling",
+            terms={"elastic-buckling": math.inf},
+            source=_SOURCE_2ND,
+        )
+    terms = {
+        "cross-section": float(check.axial_bending.max()) if check.axial_bending.size else 0.0,
+        "shear": float(check.shear.max()) if check.shear.size else 0.0,
+    }
+    out = check.out_of_plane
+    if out is not None and out.utilization is not None:
+        terms["out-of-plane"] = out.utilization
+    governing = _KINDS.get(check.kind, check.kind)
+    terms[governing] = check.utilization
+    facts = {"kind": check.kind, "x": check.x, "method": check.settings.method}
+    if check.section_class is not None:
+        facts["section_class"] = check.section_class.klass
+    return RouteCheck(
+        route="second-order",
+        enabled=enabled,
+        utilization=check.utilization,
+        governing=governing,
+        terms=terms,
+        facts=facts,
+        notes=("second-order-check-notes",) if check.notes else (),
+        source=check.source,
+    )
+
+
+def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
+    """Every route of ``result`` (a solved one-plane or two-plane result with a section and material), in the
+    order of ROUTES.
+
+    Parameters
+    ----------
+    bow_free_moment : float or None
+        max|M| of the plane analysed, second order, without the bow [N·m] (AISC's M_r); None: not computed
+        (the route then uses what the result's amplification knows).
+    out_of_plane : OutOfPlane or None
+        The out-of-plane resistance of a one-plane case (its N_cr, or restrained).
+    cache : callable or None
+        ``cache(key, make)``, where what does not depend on the axial force is kept
+        (:meth:`engine.prepared.Prepared.design`); None: computed every time.
+    """
+    case, material = result.case, result.material
+    routes = case.check.routes
+    second = _second_order(result, "second-order" in routes)
+    enabled_en, enabled_aisc = "en-member" in routes, "aisc" in routes
+    reason = ""
+    if material.kind != "steel":
+        reason = f"material-{material.kind}"
+    elif result.section.shape == "custom":
+        reason = "custom-section"
+    if reason:
+        en_source = en_member.SOURCE.format(annex=case.check.annex)
+        return (
+            second,
+            not_applied("en-member", enabled_en, reason, en_source),
+            not_applied("aisc", enabled_aisc, reason, aisc_member.SOURCE),
+        )
+    if bow_free_moment is None:
+        bow_free_moment = _bow_free_moment(result)
+    y, z = _planes(result, bow_free_moment, out_of_plane, cache)
+    N = float(result.axial_force)
+
+    def worse_class():
+        classes = [classify(p.section, material, compression=N > 0) for p in (y, z)]
+        return None if None in classes else max(classes, key=lambda c: c.klass)
+
+    klass = _made(cache, ("routes-class", N > 0), worse_class)
+    beyond = result.status != "stable"
+    en = en_member.route(
+        y=y,
+        z=z,
+        N=N,
+        material=material,
+        section_class=klass,
+        settings=case.check,
+        enabled=enabled_en,
+        beyond=beyond,
+    )
+    aisc = aisc_member.route(
+        y=y,
+        z=z,
+        N=N,
+        material=material,
+        settings=case.check,
+        enabled=enabled_aisc,
+        beyond=beyond,
+    )
+    return second, en, aisc
+
+
+def headline(routes) -> tuple:
+    """(utilisation, route, fell_back): the largest utilisation of the enabled routes that apply; when none
+    applies, the second-order route's, with ``fell_back`` True."""
+    applied = [r for r in routes if r.enabled and r.utilization is not None]
+    if applied:
+        best = max(applied, key=lambda r: r.utilization)
+        return best.utilization, best.route, False
+    second = next((r for r in routes if r.route == ROUTES[0]), None)
+    if second is None:
+        return None, "", True
+    return second.utilization, second.route, True
+
+
+def attach(result, *, bow_free: dict | None, out_of_plane, cache=None):
+    """``result`` with its routes and the headline utilisation (a result with a section and material)."""
+    found = evaluate(
+        result,
+        bow_free_moment=None if bow_free is None else bow_free["moment"],
+        out_of_plane=out_of_plane,
+        cache=cache,
+    )
+    value, _, _ = headline(found)
+    return dataclasses.replace(result, routes=found, utilization=value)
