@@ -283,9 +283,10 @@ def _build() -> dict[str, Any]:
                     "name": {
                         "type": "string",
                         "description": "A catalogue section (case- and space-insensitive): IPE 80 to "
-                        "600, HEA and HEB 100 to 600, common hot-finished SHS, RHS and "
-                        "CHS, and sawn-timber sizes such as 'TIMBER 45x195'.",
-                        "examples": ["HEB 200", "IPE 300", "SHS 100x100x5", "TIMBER 45x195"],
+                        "600, HEA and HEB 100 to 600, common US W shapes W6 to W24 such as 'W10x49', "
+                        "common hot-finished SHS, RHS and CHS, and sawn-timber sizes such as "
+                        "'TIMBER 45x195'.",
+                        "examples": ["HEB 200", "IPE 300", "W10x49", "SHS 100x100x5", "TIMBER 45x195"],
                     }
                 },
                 ("name",),
@@ -371,8 +372,8 @@ def _build() -> dict[str, Any]:
                     "name": {
                         "type": "string",
                         "description": "A catalogued grade (case-insensitive): S235, S275, S355, S460 "
-                        "(f_y by thickness per EN 10025-2), ASTM A992, ASTM A36, timber "
-                        "C24 and GL24h, aluminium EN AW-6082 T6.",
+                        "(f_y by thickness per EN 10025-2), ASTM A992, ASTM A36, ASTM A500 Gr. C "
+                        "rectangular and round, timber C24 and GL24h, aluminium EN AW-6082 T6.",
                         "examples": ["S355", "ASTM A992", "C24", "EN AW-6082 T6"],
                     }
                 },

@@ -14,12 +14,15 @@ import re
 __all__ = [
     "HOLLOW_CIRCULAR",
     "HOLLOW_RECTANGULAR",
+    "INCH",
     "REFERENCES_S5",
     "ROLLED_I",
     "TIMBER",
+    "W_SHAPES",
     "catalogue_names",
     "near_names",
     "normalise_name",
+    "rolled_i_dimensions",
 ]
 
 
@@ -89,6 +92,57 @@ ROLLED_I: dict[str, tuple[tuple[float, float, float, float, float], float, float
     "HEB 600": ((600, 300, 15.5, 30.0, 27), 270.0, 171000, 13530),
 }
 
+# US wide-flange (W) shapes, AISC Steel Construction Manual (15th ed.) Table 1-1, all from memory:
+# (d, b_f, t_w, t_f, k_des) [in], then handbook A [in²], I_x [in⁴], Z_x [in³], S_x [in³], I_y [in⁴],
+# Z_y [in³], S_y [in³]. The root radius is r = k_des − t_f. The Manual prints d and b_f to three figures, so
+# the properties computed from them differ from its own (from the unrounded sizes) by up to about 1 %.
+# W10x68 and W14x68 are left out: recalled as they are, their dimensions miss the handbook I_y (W10x68) and
+# Z_x (W14x68) by more than 1 %.
+W_SHAPES: dict[
+    str, tuple[tuple[float, float, float, float, float], float, float, float, float, float, float, float]
+] = {
+    "W6x15": ((5.99, 5.99, 0.230, 0.260, 0.510), 4.43, 29.1, 10.8, 9.72, 9.32, 4.75, 3.11),
+    "W6x20": ((6.20, 6.02, 0.260, 0.365, 0.615), 5.87, 41.4, 14.9, 13.4, 13.3, 6.72, 4.41),
+    "W6x25": ((6.38, 6.08, 0.320, 0.455, 0.705), 7.34, 53.4, 18.9, 16.7, 17.1, 8.56, 5.61),
+    "W8x18": ((8.14, 5.25, 0.230, 0.330, 0.630), 5.26, 61.9, 17.0, 15.2, 7.97, 4.66, 3.04),
+    "W8x24": ((7.93, 6.50, 0.245, 0.400, 0.794), 7.08, 82.7, 23.1, 20.9, 18.3, 8.57, 5.63),
+    "W8x31": ((8.00, 8.00, 0.285, 0.435, 0.829), 9.13, 110, 30.4, 27.5, 37.1, 14.1, 9.27),
+    "W8x40": ((8.25, 8.07, 0.360, 0.560, 0.954), 11.7, 146, 39.8, 35.5, 49.1, 18.5, 12.2),
+    "W8x48": ((8.50, 8.11, 0.400, 0.685, 1.08), 14.1, 184, 49.0, 43.2, 60.9, 22.9, 15.0),
+    "W8x67": ((9.00, 8.28, 0.570, 0.935, 1.33), 19.7, 272, 70.1, 60.4, 88.6, 32.7, 21.4),
+    "W10x26": ((10.3, 5.77, 0.260, 0.440, 0.740), 7.61, 144, 31.3, 27.9, 14.1, 7.50, 4.89),
+    "W10x33": ((9.73, 7.96, 0.290, 0.435, 0.935), 9.71, 171, 38.8, 35.0, 36.6, 14.0, 9.20),
+    "W10x39": ((9.92, 7.99, 0.315, 0.530, 1.03), 11.5, 209, 46.8, 42.1, 45.0, 17.2, 11.3),
+    "W10x45": ((10.1, 8.02, 0.350, 0.620, 1.12), 13.3, 248, 54.9, 49.1, 53.4, 20.3, 13.3),
+    "W10x49": ((9.98, 10.0, 0.340, 0.560, 1.06), 14.4, 272, 60.4, 54.6, 93.4, 28.3, 18.7),
+    "W10x60": ((10.2, 10.1, 0.420, 0.680, 1.18), 17.7, 341, 74.6, 66.7, 116, 35.0, 23.0),
+    "W12x26": ((12.2, 6.49, 0.230, 0.380, 0.680), 7.65, 204, 37.2, 33.4, 17.3, 8.17, 5.34),
+    "W12x35": ((12.5, 6.56, 0.300, 0.520, 0.820), 10.3, 285, 51.2, 45.6, 24.5, 11.5, 7.47),
+    "W12x40": ((11.9, 8.01, 0.295, 0.515, 1.02), 11.7, 307, 57.0, 51.5, 44.1, 16.8, 11.0),
+    "W12x50": ((12.2, 8.08, 0.370, 0.640, 1.14), 14.6, 391, 71.9, 64.2, 56.3, 21.3, 13.9),
+    "W12x53": ((12.1, 10.0, 0.345, 0.575, 1.18), 15.6, 425, 77.9, 70.6, 95.8, 29.1, 19.2),
+    "W12x65": ((12.1, 12.0, 0.390, 0.605, 1.20), 19.1, 533, 96.8, 87.9, 174, 44.1, 29.1),
+    "W12x79": ((12.4, 12.1, 0.470, 0.735, 1.33), 23.2, 662, 119, 107, 216, 54.3, 35.8),
+    "W14x22": ((13.7, 5.00, 0.230, 0.335, 0.735), 6.49, 199, 33.2, 29.0, 7.00, 4.39, 2.80),
+    "W14x26": ((13.9, 5.03, 0.255, 0.420, 0.820), 7.69, 245, 40.2, 35.3, 8.91, 5.54, 3.55),
+    "W14x30": ((13.8, 6.73, 0.270, 0.385, 0.785), 8.85, 291, 47.3, 42.0, 19.6, 8.99, 5.82),
+    "W14x48": ((13.8, 8.03, 0.340, 0.595, 1.19), 14.1, 484, 78.4, 70.2, 51.4, 19.6, 12.8),
+    "W14x61": ((13.9, 10.0, 0.375, 0.645, 1.24), 17.9, 640, 102, 92.1, 107, 32.8, 21.5),
+    "W14x82": ((14.3, 10.1, 0.510, 0.855, 1.45), 24.0, 881, 139, 123, 148, 44.8, 29.3),
+    "W14x90": ((14.0, 14.5, 0.440, 0.710, 1.31), 26.5, 999, 157, 143, 362, 75.6, 49.9),
+    "W14x120": ((14.5, 14.7, 0.590, 0.940, 1.54), 35.3, 1380, 212, 190, 495, 102, 67.5),
+    "W16x26": ((15.7, 5.50, 0.250, 0.345, 0.747), 7.68, 301, 44.2, 38.4, 9.59, 5.48, 3.49),
+    "W16x31": ((15.9, 5.53, 0.275, 0.440, 0.842), 9.13, 375, 54.0, 47.2, 12.4, 7.03, 4.49),
+    "W18x35": ((17.7, 6.00, 0.300, 0.425, 0.827), 10.3, 510, 66.5, 57.6, 15.3, 8.06, 5.12),
+    "W18x50": ((18.0, 7.50, 0.355, 0.570, 0.972), 14.7, 800, 101, 88.9, 40.1, 16.6, 10.7),
+    "W21x44": ((20.7, 6.50, 0.350, 0.450, 0.950), 13.0, 843, 95.4, 81.6, 20.7, 10.2, 6.37),
+    "W24x55": ((23.6, 7.01, 0.395, 0.505, 1.01), 16.2, 1350, 134, 114, 29.1, 13.3, 8.30),
+    "W24x68": ((23.7, 8.97, 0.415, 0.585, 1.09), 20.1, 1830, 177, 154, 70.4, 24.5, 15.7),
+}
+
+#: One inch [m], exact by definition (the international inch of 1959).
+INCH = 0.0254
+
 # EN 10210-2 hot-finished square and rectangular hollow sections: (h, b, t) [mm], then handbook A [cm²],
 # I_y [cm⁴], I_z [cm⁴] (I_z None for a square one). Sizes from EN 10210-2, handbook values from memory, except
 # SHS 100x100x5 from references.md §5.
@@ -133,18 +187,55 @@ def catalogue_names() -> tuple[str, ...]:
     Returns
     -------
     tuple of str
-        E.g. ``"IPE 200"``, ``"HEB 200"``, ``"SHS 100x100x5"``, ``"CHS 114.3x5"``, ``"TIMBER 45x195"``.
+        E.g. ``"IPE 200"``, ``"HEB 200"``, ``"W10x49"``, ``"SHS 100x100x5"``, ``"CHS 114.3x5"``,
+        ``"TIMBER 45x195"``.
 
     Examples
     --------
     >>> "HEB 200" in catalogue_names()
     True
     """
-    return (*ROLLED_I, *HOLLOW_RECTANGULAR, *HOLLOW_CIRCULAR, *TIMBER)
+    return (*ROLLED_I, *W_SHAPES, *HOLLOW_RECTANGULAR, *HOLLOW_CIRCULAR, *TIMBER)
+
+
+def rolled_i_dimensions(name: str) -> tuple[dict[str, float], str]:
+    """The dimensions [m] of a catalogue rolled I/H section, and the standard they come from.
+
+    Parameters
+    ----------
+    name : str
+        A canonical name of :data:`ROLLED_I` or :data:`W_SHAPES`.
+
+    Returns
+    -------
+    dims : dict
+        ``h``, ``b``, ``tw``, ``tf`` and the root radius ``r`` [m]; a W shape's d, b_f, t_w, t_f converted
+        exactly from inches (1 in = 0.0254 m), its r = k_des − t_f.
+    standard : str
+        E.g. ``"EN 10365"``.
+
+    Raises
+    ------
+    KeyError
+        When ``name`` is not a rolled I/H of the catalogue.
+
+    Examples
+    --------
+    >>> dims, _ = rolled_i_dimensions("W8x31")
+    >>> round(dims["h"], 6), round(dims["r"] * 1000.0, 4)
+    (0.2032, 10.0076)
+    """
+    if name in ROLLED_I:
+        h, b, tw, tf, r = (value / 1000.0 for value in ROLLED_I[name][0])
+        return {"h": h, "b": b, "tw": tw, "tf": tf, "r": r}, "EN 10365"
+    d, b_f, t_w, t_f, k_des = W_SHAPES[name][0]
+    dims = {"h": d * INCH, "b": b_f * INCH, "tw": t_w * INCH, "tf": t_f * INCH, "r": (k_des - t_f) * INCH}
+    return dims, "AISC Steel Construction Manual (15th ed.) Table 1-1 in inches, r = k_des − t_f"
 
 
 # Patterns of a compacted name (re caches them on first use, so nothing is compiled at import).
 _HE_LETTER_LAST = r"HE(\d+)([ABM])"
+_US_W = r"W(\d+)X(\d+(?:\.\d+)?)"
 _FAMILY_SIZE = r"([A-Z]+)(\d+(?:\.\d+)?(?:X\d+(?:\.\d+)?)*)"
 
 
@@ -152,7 +243,8 @@ def normalise_name(name: str) -> str:
     """The canonical spelling of a section name, case- and space-insensitive.
 
     Upper case, no spaces inside the family or the size, one space between them, ``x`` between the sizes
-    (``×`` is accepted) and each size without trailing zeros. ``"HE 200 B"`` is read as ``"HEB 200"``.
+    (``×`` is accepted) and each size without trailing zeros. ``"HE 200 B"`` is read as ``"HEB 200"``. A US
+    W shape is written as AISC writes it, without the space: ``"w 8 x 31"`` is ``"W8x31"``.
     A name of another form comes back upper-cased with its spaces collapsed. The name need not be in the
     catalogue.
 
@@ -175,6 +267,8 @@ def normalise_name(name: str) -> str:
     --------
     >>> normalise_name("heb200"), normalise_name("HE 200 B"), normalise_name("shs 100 × 100 × 5.0")
     ('HEB 200', 'HEB 200', 'SHS 100x100x5')
+    >>> normalise_name("W 8 X 31"), normalise_name("w8×31")
+    ('W8x31', 'W8x31')
     """
     if not isinstance(name, str):
         raise TypeError(f"a section name must be a string, not {type(name).__name__}")
@@ -182,11 +276,23 @@ def normalise_name(name: str) -> str:
     letter_last = re.fullmatch(_HE_LETTER_LAST, compact)
     if letter_last:
         return f"HE{letter_last.group(2)} {letter_last.group(1)}"
+    us_w = re.fullmatch(_US_W, compact)
+    if us_w:
+        return f"W{int(us_w.group(1))}x{float(us_w.group(2)):g}"
     family_size = re.fullmatch(_FAMILY_SIZE, compact)
     if family_size:
         sizes = "x".join(f"{float(part):g}" for part in family_size.group(2).split("X"))
         return f"{family_size.group(1)} {sizes}"
     return " ".join(name.upper().split())
+
+
+_US_W_NAME = r"W(\d+)x(\d+(?:\.\d+)?)"  # a canonical W shape name
+
+
+def _w_sizes(name: str) -> tuple[float, float]:
+    """The nominal depth [in] and weight [lb/ft] in a canonical W shape name."""
+    match = re.fullmatch(_US_W_NAME, name)
+    return float(match[1]), float(match[2])
 
 
 def _first_size(name: str) -> float:
@@ -195,10 +301,27 @@ def _first_size(name: str) -> float:
 
 
 def near_names(name: str, names: tuple[str, ...]) -> list[str]:
-    """Up to three catalogue names close to ``name``: the most alike first, then the nearest in size."""
+    """Up to three catalogue names close to ``name``: the most alike first, then the nearest in size.
+
+    A W shape's are the W shapes of the nearest nominal depth, then of the nearest weight.
+
+    Examples
+    --------
+    >>> near_names("W14x68", catalogue_names())
+    ['W14x61', 'W14x82', 'W14x48']
+    """
     turned = re.fullmatch(r"RHS ([\d.]+)x([\d.]+)x([\d.]+)", name)
     if turned and f"RHS {turned[2]}x{turned[1]}x{turned[3]}" in names:
         return [f"RHS {turned[2]}x{turned[1]}x{turned[3]}"]  # the same tube, named depth first
+    if re.fullmatch(_US_W_NAME, name):
+        depth, weight = _w_sizes(name)
+        shapes = [candidate for candidate in names if re.fullmatch(_US_W_NAME, candidate)]
+
+        def distance(candidate: str) -> tuple[float, float]:
+            other_depth, other_weight = _w_sizes(candidate)
+            return abs(other_depth - depth), abs(other_weight - weight)
+
+        return sorted(shapes, key=distance)[:3]
     size = _first_size(name)
     matcher = difflib.SequenceMatcher(b=name)
     scored = []

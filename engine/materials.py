@@ -35,6 +35,8 @@ __all__ = ["MATERIAL_KINDS", "Material", "material_from_spec", "material_names"]
 MATERIAL_KINDS: tuple[str, ...] = ("steel", "timber", "aluminium", "custom")
 
 _MPA = 1e6  # [Pa]
+# One ksi [Pa], exact: 1000 lbf (4.4482216152605 N each, by definition) over one square inch (0.0254² m²).
+_KSI = 1000.0 * 4.4482216152605 / 0.0254**2
 
 # Structural steel, EN 1993-1-1 §3.2.6: E = 210 000 MPa and G ≈ 81 000 MPa (references.md §6, [text]);
 # ν = 0.3 (same clause). Density 7850 kg/m³: EN 1991-1-1 Table A.4 (from memory).
@@ -172,20 +174,32 @@ def _en_steel(grade: str, thickness: float | None, path: str) -> Material:
     )
 
 
-def _astm_steel(grade: str, fy_mpa: float, fy_source: str) -> Material:
-    """An ASTM steel; AISC 360-16 takes E = 29 000 ksi and G = 11 200 ksi (from memory)."""
+def _thousands(value: float) -> str:
+    """A whole number with a space between the thousands, e.g. ``199 948``."""
+    return f"{value:,.0f}".replace(",", " ")
+
+
+def _astm_steel(grade: str, fy_ksi: float, fu_ksi: float, standard: str) -> Material:
+    """An ASTM steel, its strengths and moduli converted exactly from ksi (:data:`_KSI`).
+
+    AISC 360-16: E = 29 000 ksi, G = 11 200 ksi (from memory). The source quotes them in MPa only, so that an
+    output in either unit system shows one system (the US one converts them back).
+    """
+    fy, fu = fy_ksi * _KSI, fu_ksi * _KSI
     return Material(
         name=grade,
         kind="steel",
-        E=200_000 * _MPA,
-        G=77_200 * _MPA,
-        fy=fy_mpa * _MPA,
-        f_c=fy_mpa * _MPA,
+        E=29_000 * _KSI,
+        G=11_200 * _KSI,
+        fy=fy,
+        f_c=fy,
         density=_STEEL_DENSITY,
         E_05=None,
         thickness_band="",
-        source=f"{fy_source}; f_c = F_y; E = 200 000 MPa (29 000 ksi) and G = 77 200 MPa (11 200 ksi): "
-        f"AISC 360-16 (from memory); density 7850 kg/m³ (490 lb/ft³): common practice, no source",
+        source=f"F_y = {fy / _MPA:.2f} MPa, F_u = {fu / _MPA:.2f} MPa (F_u not used): {standard}; f_c = F_y; "
+        f"E = {_thousands(29_000 * _KSI / _MPA)} MPa and G = {_thousands(11_200 * _KSI / _MPA)} MPa: "
+        f"AISC 360-16 (from memory); each converted exactly from US customary units; density 7850 kg/m³ "
+        f"(490 lb/ft³): common practice, no source",
     )
 
 
@@ -252,11 +266,14 @@ _CATALOGUE = {
     "S275": _steel_maker("S275"),
     "S355": _steel_maker("S355"),
     "S460": _steel_maker("S460"),
-    "ASTM A992": lambda thickness, path: _astm_steel(
-        "ASTM A992", 345, "F_y = 345 MPa (50 ksi): ASTM A992 [text]"
+    "ASTM A992": lambda thickness, path: _astm_steel("ASTM A992", 50, 65, "ASTM A992 [text]"),
+    "ASTM A36": lambda thickness, path: _astm_steel("ASTM A36", 36, 58, "ASTM A36 (from memory)"),
+    # Hollow structural sections, cold-formed (give an RHS or CHS with manufacture "cold-formed").
+    "ASTM A500 Gr. C rectangular": lambda thickness, path: _astm_steel(
+        "ASTM A500 Gr. C rectangular", 50, 62, "ASTM A500 Grade C, square and rectangular HSS (from memory)"
     ),
-    "ASTM A36": lambda thickness, path: _astm_steel(
-        "ASTM A36", 250, "F_y = 250 MPa (36 ksi): ASTM A36 (from memory)"
+    "ASTM A500 Gr. C round": lambda thickness, path: _astm_steel(
+        "ASTM A500 Gr. C round", 46, 62, "ASTM A500 Grade C, round HSS (from memory)"
     ),
     "C24": _c24,
     "GL24h": _gl24h,
@@ -267,6 +284,11 @@ _CATALOGUE = {
 _ALIASES = {
     "A992": "ASTM A992",
     "A36": "ASTM A36",
+    "A500 Gr. C rectangular": "ASTM A500 Gr. C rectangular",
+    "A500C rectangular": "ASTM A500 Gr. C rectangular",
+    "A500C rect": "ASTM A500 Gr. C rectangular",
+    "A500 Gr. C round": "ASTM A500 Gr. C round",
+    "A500C round": "ASTM A500 Gr. C round",
     "6082T6": "EN AW-6082 T6",
     "AW6082T6": "EN AW-6082 T6",
     "ENAW6082T6": "EN AW-6082 T6",

@@ -38,9 +38,11 @@ from engine.catalogue import (
     REFERENCES_S5,
     ROLLED_I,
     TIMBER,
+    W_SHAPES,
     catalogue_names,
     near_names,
     normalise_name,
+    rolled_i_dimensions,
 )
 from engine.errors import CaseError
 from engine.section_properties import (
@@ -118,7 +120,7 @@ class Section:
     Parameters
     ----------
     name : str
-        The catalogue name, e.g. ``"IPE 200"``, or a description in millimetres, e.g.
+        The catalogue name, e.g. ``"IPE 200"`` or ``"W10x49"``, or a description in millimetres, e.g.
         ``"rolled I 200×100×5.6×8.5 r12"``.
     shape : str
         One of :data:`SHAPES`.
@@ -296,16 +298,15 @@ def _from_catalogue(path: str, spec: Mapping, axis: str) -> Section:
         near = near_names(canonical, names)
         hint = f" (did you mean {', '.join(repr(n) for n in near)}?)" if near else ""
         raise CaseError(
-            f"{path}.name: {name!r} is not in the catalogue{hint}; it holds IPE 80 to 600, "
-            f"HEA and HEB 100 to 600, some hot-finished SHS, RHS and CHS and sawn-timber sizes "
+            f"{path}.name: {name!r} is not in the catalogue{hint}; it holds IPE 80 to 600, HEA and HEB "
+            f"100 to 600, US W shapes W6 to W24, some hot-finished SHS, RHS and CHS, sawn-timber sizes "
             f"(engine.sections.catalogue_names() lists them), or give 'shape' with dimensions"
         )
     checked = "; checked against references.md §5" if canonical in REFERENCES_S5 else ""
     computed = "; properties computed exactly from the dimensions"
-    if canonical in ROLLED_I:
-        h, b, tw, tf, r = (value / 1000.0 for value in ROLLED_I[canonical][0])
-        dims = {"h": h, "b": b, "tw": tw, "tf": tf, "r": r}
-        source = f"dimensions EN 10365 (from memory){computed}, root radii included{checked}"
+    if canonical in ROLLED_I or canonical in W_SHAPES:
+        dims, standard = rolled_i_dimensions(canonical)
+        source = f"dimensions {standard} (from memory){computed}, root radii included{checked}"
         return _build(path, "rolled_i", "rolled", dims, axis, canonical, source)
     if canonical in HOLLOW_RECTANGULAR:
         h, b, t = (value / 1000.0 for value in HOLLOW_RECTANGULAR[canonical][0])

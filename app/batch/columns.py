@@ -69,14 +69,14 @@ COLUMNS: tuple[Column, ...] = (
     Column(
         name="section",
         required=False,
-        description="A catalogue section such as 'HEB 200', 'IPE 300', 'SHS 100x100x5' or 'TIMBER 45x195' "
-        "(case- and space-insensitive). Empty: give EI_kNm2.",
+        description="A catalogue section such as 'HEB 200', 'IPE 300', 'W10x49', 'SHS 100x100x5' or "
+        "'TIMBER 45x195' (case- and space-insensitive). Empty: give EI_kNm2.",
     ),
     Column(
         name="material",
         required=False,
-        description="A catalogued material: S235, S275, S355, S460, ASTM A992, ASTM A36, C24, GL24h or "
-        "EN AW-6082 T6. Empty: give EI_kNm2 (no member check).",
+        description="A catalogued material: S235, S275, S355, S460, ASTM A992, ASTM A36, ASTM A500 Gr. C "
+        "rectangular or round, C24, GL24h or EN AW-6082 T6. Empty: give EI_kNm2 (no member check).",
     ),
     Column(
         name="EI_kNm2",

@@ -110,21 +110,47 @@ def test_en_steel_elastic_constants(grade):
     assert "EN 1993-1-1 §3.2.6" in material.source
 
 
+# One ksi in Pa, from the exact definitions (NIST SP 811, from memory): 1 lbf = 4.4482216152605 N and
+# 1 in = 0.0254 m, so 1 ksi = 6.894757293168361 MPa.
+KSI = 6.894757293168361 * MPA
+
+
+def test_one_ksi_is_the_exact_conversion():
+    """1 ksi = 1000 lbf/in² = 6.894 757 293 168 361 MPa (NIST SP 811, from memory), to rounding."""
+    material = material_from_spec({"name": "ASTM A36"})
+    assert material.fy / 36.0 == pytest.approx(KSI, rel=1e-15)
+
+
 def test_astm_a992():
-    """F_y = 345 MPa (50 ksi, ASTM A992 [text]); E = 200 000 MPa (29 000 ksi, from memory); exact."""
+    """F_y = 50 ksi (ASTM A992 [text]); E = 29 000 ksi, G = 11 200 ksi (AISC 360-16, from memory); exact."""
     material = material_from_spec({"name": "ASTM A992"}, thickness=0.05)
-    assert (material.fy, material.f_c) == (345 * MPA, 345 * MPA)
-    assert material.E == 200_000 * MPA
+    assert material.fy == pytest.approx(50 * KSI, rel=1e-15)
+    assert material.fy == material.f_c
+    assert material.fy / MPA == pytest.approx(344.7379, abs=5e-5)  # never rounded up to 345 MPa
+    assert material.E == pytest.approx(29_000 * KSI, rel=1e-15)
+    assert material.E / MPA == pytest.approx(199_947.96, abs=0.005)
+    assert material.G == pytest.approx(11_200 * KSI, rel=1e-15)
     assert material.thickness_band == ""
     assert "[text]" in material.source and "from memory" in material.source
 
 
 def test_astm_a36():
-    """F_y = 250 MPa (36 ksi, ASTM A36, from memory); E as A992; exact."""
+    """F_y = 36 ksi (ASTM A36, from memory); E as A992; exact."""
     material = material_from_spec({"name": "ASTM A36"})
-    assert material.fy == 250 * MPA
-    assert material.E == 200_000 * MPA
+    assert material.fy == pytest.approx(36 * KSI, rel=1e-15)
+    assert material.E == pytest.approx(29_000 * KSI, rel=1e-15)
     assert "ASTM A36 (from memory)" in material.source
+
+
+@pytest.mark.parametrize(
+    ("name", "fy_ksi"), [("ASTM A500 Gr. C rectangular", 50), ("ASTM A500 Gr. C round", 46)]
+)
+def test_astm_a500_grade_c(name, fy_ksi):
+    """A500 Gr. C HSS: F_y = 50 ksi rectangular, 46 ksi round (ASTM A500, from memory); E as A992."""
+    material = material_from_spec({"name": name})
+    assert material.fy == pytest.approx(fy_ksi * KSI, rel=1e-15)
+    assert material.E == pytest.approx(29_000 * KSI, rel=1e-15)
+    assert "ASTM A500 Grade C" in material.source and "from memory" in material.source
 
 
 def test_timber_c24():
@@ -166,6 +192,8 @@ def test_aluminium_6082_t6():
         ("astm a992", "ASTM A992"),
         ("A992", "ASTM A992"),
         ("a36", "ASTM A36"),
+        ("A500C round", "ASTM A500 Gr. C round"),
+        ("astm a500 gr c rectangular", "ASTM A500 Gr. C rectangular"),
         ("c24", "C24"),
         ("GL24H", "GL24h"),
         ("en aw-6082 t6", "EN AW-6082 T6"),
@@ -184,7 +212,19 @@ def test_names_ignore_case_and_spaces(spelling, name):
 def test_every_catalogued_name_resolves_and_cites_its_source():
     """Each name of material_names() builds a material whose source flags how sure each value is."""
     names = material_names()
-    assert names == ("S235", "S275", "S355", "S460", "ASTM A992", "ASTM A36", "C24", "GL24h", "EN AW-6082 T6")
+    assert names == (
+        "S235",
+        "S275",
+        "S355",
+        "S460",
+        "ASTM A992",
+        "ASTM A36",
+        "ASTM A500 Gr. C rectangular",
+        "ASTM A500 Gr. C round",
+        "C24",
+        "GL24h",
+        "EN AW-6082 T6",
+    )
     for name in names:
         material = material_from_spec({"name": name})
         assert material.name == name
