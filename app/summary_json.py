@@ -212,9 +212,16 @@ def _second_plane_data(result) -> dict | None:
 
 
 def _fact(value):
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        return value if isinstance(value, (str, type(None))) else str(value)
-    return _finite(value)
+    """A fact as JSON: numbers (non-finite null), text, booleans, and lists and mappings of them."""
+    if isinstance(value, (bool, str, type(None))):
+        return value
+    if isinstance(value, (int, float)):
+        return _finite(value)
+    if isinstance(value, dict):
+        return {str(key): _fact(item) for key, item in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_fact(item) for item in value]
+    return str(value)
 
 
 def _route_data(route) -> dict:

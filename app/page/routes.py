@@ -23,7 +23,15 @@ from bokeh.plotting import figure
 
 from app.page.style import esc, html_pane
 from app.page.words import symbols
-from app.report.routes import other_axis, plane_axes, plane_name, route_name, route_rows
+from app.report.routes import (
+    headline_exceeds_routes,
+    headline_text,
+    other_axis,
+    plane_axes,
+    plane_name,
+    route_name,
+    route_rows,
+)
 from app.state import MemberState
 from app.units import units
 
@@ -57,6 +65,8 @@ def routes_html(result, U) -> str:
     if rows:
         head = next((r for r in rows if r["status"] == "headline"), None)
         title = "Routes" + (f" — headline {head['utilisation']}" if head else "")
+        if headline_exceeds_routes(result):
+            title = f"Routes — headline {headline_text(result)}"
         parts.append(f"<div class='ss-heading'>{esc(title)}</div><table class='ss-values ss-routes'>")
         parts.append("<colgroup><col class='q'><col class='v'><col class='f'></colgroup>")
         for row in rows:

@@ -26,9 +26,11 @@ __all__ = [
     "facts_text",
     "governing_text",
     "headline_route",
+    "headline_exceeds_routes",
     "headline_text",
     "note_text",
     "other_axis",
+    "reason_text",
     "plane_axes",
     "plane_name",
     "route_name",
@@ -72,6 +74,8 @@ FACTS = {
     "N_cr_z": ("N_cr,z", "force"),
     "lambda_bar_y": ("λ̄_y", ""),
     "lambda_bar_z": ("λ̄_z", ""),
+    "lambda_y": ("λ̄_y", ""),
+    "lambda_z": ("λ̄_z", ""),
     "chi_y": ("χ_y", ""),
     "chi_z": ("χ_z", ""),
     "chi_LT": ("χ_LT", ""),
@@ -91,6 +95,11 @@ FACTS = {
     "KL_r": ("KL/r", ""),
     "F_e": ("F_e", "stress"),
     "F_cr": ("F_cr", "stress"),
+    "F_e_y": ("F_e,y", "stress"),
+    "F_e_z": ("F_e,z", "stress"),
+    "F_cr_y": ("F_cr,y", "stress"),
+    "F_cr_z": ("F_cr,z", "stress"),
+    "F_y": ("F_y", "stress"),
     "P_n": ("P_n", "force"),
     "phi_c": ("φ_c", ""),
     "Omega_c": ("Ω_c", ""),
@@ -98,12 +107,13 @@ FACTS = {
     "Omega_b": ("Ω_b", ""),
     "P_c": ("P_c", "force"),
     "P_r": ("P_r", "force"),
-    "M_n_x": ("M_nx", "moment"),
-    "M_n_y": ("M_ny", "moment"),
-    "M_c_x": ("M_cx", "moment"),
-    "M_c_y": ("M_cy", "moment"),
-    "M_r_x": ("M_rx", "moment"),
-    "M_r_y": ("M_ry", "moment"),
+    "phi_t": ("φ_t", ""),
+    "M_n_y": ("M_n,y", "moment"),
+    "M_n_z": ("M_n,z", "moment"),
+    "M_c_y": ("M_c,y", "moment"),
+    "M_c_z": ("M_c,z", "moment"),
+    "M_r_y": ("M_r,y", "moment"),
+    "M_r_z": ("M_r,z", "moment"),
 }
 
 # A fact the table above does not know is shown when its key says its kind (N_, P_ forces; M_ moments;
@@ -132,7 +142,18 @@ NOTES = {
         "χ_LT = 1 taken: lateral-torsional buckling is not checked; right only where it cannot occur (a "
         "closed section, minor-axis bending, a compression flange braced along its length)",
     ),
-    "no-lateral-torsional": ("warning", "lateral-torsional buckling is not checked"),
+    "LTB-not-checked": (
+        "warning",
+        "lateral-torsional buckling (AISC 360-16 §F2.2, unbraced length L_b) is not checked",
+    ),
+    "aisc-shear-not-checked": ("info", "shear (Chapter G) is not checked on this route"),
+    "aisc-noncompact": ("info", "a noncompact element: M_n by the flange local buckling limit (§F3)"),
+    "aisc-tension-yielding": ("info", "tension: P_c is tension yielding, §D2(a)"),
+    "en-member-cross-section-only": (
+        "info",
+        "no compression: eqs. (6.61)/(6.62) do not apply, only the cross-section checks",
+    ),
+    "annex-A-lambda-0": ("info", "Annex A: λ̄_0 from the critical moment taken as for χ_LT = 1"),
     "one-plane": (
         "info",
         "one bending plane: the other axis carries no moment, only the axial force (flexural buckling)",
@@ -205,6 +226,26 @@ def facts_text(facts: dict, U: Units) -> str:
     return ", ".join(part for part in parts if part)
 
 
+#: Why a route was not applied, by the engine's code.
+REASONS = {
+    "section-not-classified": "the section has no class (EN 1993-1-1 Table 5.2): the route needs one",
+    "section-class-4": "a class 4 section: the route does not cover effective sections",
+    "custom-section": "a custom section: its buckling curve and classes are not known",
+    "slender-element-compression": "a slender element in compression (AISC 360-16 §E7, not covered)",
+    "slender-element-flexure": "a slender element in flexure (AISC 360-16 §F, not covered)",
+}
+
+
+def reason_text(code: str, U: Units | None = None) -> str:
+    """Why a route was not applied, in words (``material-timber``: "not a steel member (timber)")."""
+    if not code:
+        return ""
+    if code.startswith("material-"):
+        return f"not a steel member ({code.removeprefix('material-')}): the route is for steel"
+    words = REASONS.get(code, code.replace("-", " "))
+    return words if U is None else quoted_text(words, U)
+
+
 def note_text(code: str, U: Units | None = None) -> tuple[str, str]:
     """(level, words) of a route's note code; an unknown code is an info with its code as the words."""
     level, words = NOTES.get(code, ("info", code.replace("-", " ")))
@@ -236,11 +277,29 @@ def _utilisation_words(value) -> str:
     return text
 
 
+def headline_exceeds_routes(result) -> bool:
+    """True when the result's own utilisation is above every enabled route's (the routes then under-report).
+
+    The engine's headline is the worst enabled route, so the two agree; should they not, the page, the
+    summary and the sheet show the larger, the result's, and say so: a shown utilisation never errs low.
+    """
+    route = headline_route(result)
+    own = getattr(result, "utilization", None)
+    if route is None or own is None:
+        return False
+    return _utilisation_of(route) < float(own) * (1.0 - 1e-9) - 1e-12
+
+
 def headline_text(result) -> str:
     """The headline: the worst enabled route by name, e.g. ``"0.874 by AISC 360-16 (LRFD), H1-1a"``."""
     route = headline_route(result)
     if route is None:
         return ""
+    if headline_exceeds_routes(result):
+        check = getattr(result, "check", None)
+        kind = f" ({check.kind})" if check is not None else ""
+        words = _utilisation_words(result.utilization)
+        return f"{words} by the member check{kind}, above every route that counts"
     term = governing_text(route.governing)
     text = f"{_utilisation_words(route.utilization)} by {route_name(route, result)}"
     return text + (f", {term}" if term else "")
@@ -253,7 +312,7 @@ def route_rows(result, U: Units) -> list[dict]:
     ``"counts"`` or ``"for comparison"``), ``utilisation`` (text), ``value`` (the number or None),
     ``governing``, ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and ``source``.
     """
-    head = headline_route(result)
+    head = None if headline_exceeds_routes(result) else headline_route(result)
     rows = []
     for route in getattr(result, "routes", ()) or ():
         if route is head:
@@ -272,7 +331,7 @@ def route_rows(result, U: Units) -> list[dict]:
                 "value": route.utilization,
                 "governing": governing_text(route.governing),
                 "facts": facts_text(route.facts or {}, U),
-                "reason": quoted_text(route.reason or "", U),
+                "reason": reason_text(route.reason or "", U),
                 "notes": tuple(note_text(code, U) for code in route.notes or ()),
                 "source": route.source or "",
             }

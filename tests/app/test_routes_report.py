@@ -181,3 +181,12 @@ def test_one_plane_json_has_no_second_plane(demo):
     data = summary_data("demo", plain.case, plain)
     assert data["second_plane"] is None and data["routes"] == [] and data["headline_route"] is None
     assert "Routes (" not in format_summary("demo", plain.case, plain, "si")
+
+
+def test_headline_never_below_the_results_utilisation(demo):
+    """If every route that counts gives less than the result's utilisation, the headline is the result's."""
+    low = dataclasses.replace(demo, utilization=0.95)  # above every enabled route (0.812, 0.903)
+    assert headline_text(low).startswith("0.950 by the member check (")
+    assert [row["status"] for row in route_rows(low, units("si"))] == ["counts", "counts", "for comparison"]
+    agree = dataclasses.replace(demo, utilization=0.903)
+    assert headline_text(agree) == "0.903 by EN 1993-1-1 equivalent member (Annex B), eq. (6.62)"
