@@ -12,7 +12,7 @@ import re
 
 from app.page.style import esc
 from app.report import SYMBOLS, bow_direction_text, bow_text, percent, quoted_text, ratio, reaction_rows
-from app.report.routes import plane_axes, plane_name
+from app.report.routes import governing_text, plane_axes, plane_name
 from engine.codes import alpha_cr_limit
 
 __all__ = [
@@ -108,7 +108,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             row(
                 "capacity N",
                 U.show("force", capacity.axial_force),
-                capacity.check,
+                governing_text(capacity.check),
                 False,
                 result.axial_force > capacity.axial_force,
             )

@@ -15,6 +15,7 @@ from __future__ import annotations
 import math
 
 from app.report.numbers import finite, ratio
+from app.report.route_names import TERMS, governing_text, route_name, route_setting
 from app.report.words import governing_rows, peak_text, quoted_text
 from app.units import Units
 
@@ -38,33 +39,6 @@ __all__ = [
     "route_setting",
     "second_plane_rows",
 ]
-
-#: The routes' names; the ``{annex}`` and ``{method}`` come from the case's check settings.
-_NAMES = {
-    "second-order": "second order + cross-section",
-    "en-member": "EN 1993-1-1 equivalent member (Annex {annex})",
-    "aisc": "AISC 360-16 ({method})",
-}
-
-#: The governing terms' names, by the engine's code.
-TERMS = {
-    "eq-6.61": "eq. (6.61)",
-    "eq-6.62": "eq. (6.62)",
-    "H1-1a": "H1-1a",
-    "H1-1b": "H1-1b",
-    "cross-section": "cross-section",
-    "shear": "shear",
-    "out-of-plane": "out-of-plane buckling",
-    "out-of-plane-buckling": "out-of-plane buckling",
-    "flexural-buckling-y": "flexural buckling, major axis",
-    "flexural-buckling-z": "flexural buckling, minor axis",
-    "flexural-buckling": "flexural buckling",
-    "biaxial": "biaxial cross-section",
-    "elastic-buckling": "elastic buckling",
-    "class-4": "class 4 section",
-    "compression": "compression alone",
-    "E3": "§E3 compression",
-}
 
 #: The facts shown, in this order: key → (symbol, kind of quantity or "" for a ratio).
 FACTS = {
@@ -167,29 +141,6 @@ NOTES = {
     "not-steel": ("info", "not a steel member: the route does not apply"),
     "custom-section": ("info", "a custom section: the route's buckling curve is not known"),
 }
-
-
-def route_setting(result, name: str, default: str) -> str:
-    """One of the case's check settings (``annex``, ``aisc_method``), or `default` when it has none."""
-    settings = getattr(getattr(result, "case", None), "check", None)
-    value = getattr(settings, name, None)
-    return value if isinstance(value, str) and value else default
-
-
-def route_name(route, result=None) -> str:
-    """A route's name, e.g. ``"EN 1993-1-1 equivalent member (Annex B)"``; `route` a code or a RouteCheck."""
-    code = getattr(route, "route", route)
-    template = _NAMES.get(code, code)
-    return template.format(
-        annex=route_setting(result, "annex", "B"), method=route_setting(result, "aisc_method", "LRFD")
-    )
-
-
-def governing_text(code: str) -> str:
-    """A governing term's name, e.g. ``"eq. (6.62)"``; an unknown code with its hyphens as spaces."""
-    if not code:
-        return ""
-    return TERMS.get(code, code.replace("-", " "))
 
 
 def _kind_of(key: str) -> str | None:

@@ -5,6 +5,7 @@ from __future__ import annotations
 from app.report import routes as r
 from app.report import words as w
 from app.report.numbers import percent, position, ratio, scientific, utilisation
+from app.report.route_names import governing_text
 from app.safe_text import terminal
 from app.units import units as display_units
 
@@ -201,12 +202,13 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         add("")
         add(f"Capacity ({capacity.mode}: the largest axial compression at strength utilisation 1)")
         where = "" if capacity.x is None else f" at x = {position(U, capacity.x)}"
-        add(f"  axial force:  N = {U.show('force', capacity.axial_force, 5)} ({capacity.check}{where})")
+        check = governing_text(capacity.check)
+        add(f"  axial force:  N = {U.show('force', capacity.axial_force, 5)} ({check}{where})")
         add(
             f"  load factor:  {ratio(capacity.load_factor)} on the given axial force; "
             f"Pcr1 = {U.show('force', capacity.critical_load, 5)}"
         )
-        add(f"  {w.capacity_text(capacity, U)}")
+        add(f"  {w.capacity_text(capacity, U, result)}")
     add("")
     add("Cautions")
     for caution in result.cautions:

@@ -17,6 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
+from app.report.route_names import governing_text, route_name
 from app.units import Units, units
 
 __all__ = [
@@ -365,8 +366,8 @@ def service_text(service, U: Units) -> str:
     )
 
 
-def capacity_text(capacity, U: Units) -> str:
-    """What governs the axial capacity, in the display units."""
+def capacity_text(capacity, U: Units, result=None) -> str:
+    """What governs the axial capacity, in the display units (`result` names the route's Annex or method)."""
     force = U.show("force", capacity.axial_force, 5)
     check = capacity.check
     if check == "elastic buckling":
@@ -378,6 +379,12 @@ def capacity_text(capacity, U: Units) -> str:
         return f"Out-of-plane flexural buckling governs: N_b,Rd = χ·A·f_y/γ_M1 = {force}."
     if check in ("transverse loads alone", "class 4 section"):
         return capacity.message  # no quantity with a unit in these
+    route = getattr(capacity, "route", "second-order")
+    if route != "second-order":
+        return (
+            f"The route {route_name(route, result)} governs: utilisation 1 by {governing_text(check)} at "
+            f"N = {force}."
+        )
     where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
     return f"Strength governs: utilisation 1 by {check}{where}."
 
