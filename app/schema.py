@@ -510,6 +510,33 @@ def _build() -> dict[str, Any]:
             },
             description="Flexural buckling out of the plane analysed (needs a steel section and material).",
         ),
+        "second_plane": _closed(
+            {
+                "supports": _closed(
+                    {"left": _end("left", "0"), "right": _end("right", "L")},
+                    ("left", "right"),
+                    description="The end supports in the second plane (same forms as 'supports').",
+                ),
+                "loads": {
+                    "type": "array",
+                    "items": {"$ref": "#/$defs/load"},
+                    "maxItems": MAX_LOADS,
+                    "description": "Transverse loads in the second plane (as 'loads'). Default none.",
+                },
+                "imperfection": {"$ref": "#/$defs/imperfection"},
+                "EI": _number(
+                    "Bending stiffness about the other axis [N·m²], > 0 and <= 1e16: given exactly when "
+                    "the case gives its own EI.",
+                    exclusiveMinimum=0,
+                    maximum=1e16,
+                ),
+            },
+            ("supports",),
+            description="Bending about the other axis as well, solved as its own beam-column with the "
+            "case's length, section, material and axial force; the cross-section is checked with both "
+            "moments. Default bow: EN 1993-1-1 Table 5.1 with a steel section, else none. Not with "
+            "'out_of_plane' nor a custom section.",
+        ),
     }
     return {
         "$schema": _DRAFT,
@@ -525,6 +552,8 @@ def _build() -> dict[str, Any]:
         "additionalProperties": False,
         # The stiffness comes from EI, or from E·I of the section and material.
         "anyOf": [{"required": ["EI"]}, {"required": ["section", "material"]}],
+        # The second plane makes the out-of-plane check.
+        "not": {"required": ["second_plane", "out_of_plane"]},
         "$defs": defs,
     }
 

@@ -202,31 +202,41 @@ def _build(
             w_service = governing.deflection
         else:
             w_service = None
-        check = check_member(
-            x=x,
-            axial_force=P,
-            moment=M,
-            shear=V,
-            deflection=np.array([w_service.value if w_service is not None else values[0]]),
-            length=model.L,
-            section=section,
-            material=material,
-            axis=case.axis,
-            settings=case.check,
-            route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
-            section_class=prep.section_class(P > 0),
-            beyond_critical=status == "unstable",
-            # A plane of a two-plane case: the other plane's analysis covers buckling about the other axis.
-            out_of_plane=None if paired else out_of_plane_utilisation(prep.out_of_plane(), P),
-        )
-        if w_service is not None:
-            service = ServiceCheck(
-                utilization=check.deflection_utilization,
-                deflection=w_service.value,
-                x=w_service.x,
-                allowed=check.deflection_allowed,
-                limit=check.settings.deflection_limit,
+        if paired:  # a plane of a two-plane case: the member check is made on both planes together
+            if w_service is not None:
+                allowed = model.L / case.check.deflection_limit
+                service = ServiceCheck(
+                    utilization=abs(w_service.value) / allowed,
+                    deflection=w_service.value,
+                    x=w_service.x,
+                    allowed=allowed,
+                    limit=case.check.deflection_limit,
+                )
+        else:
+            check = check_member(
+                x=x,
+                axial_force=P,
+                moment=M,
+                shear=V,
+                deflection=np.array([w_service.value if w_service is not None else values[0]]),
+                length=model.L,
+                section=section,
+                material=material,
+                axis=case.axis,
+                settings=case.check,
+                route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
+                section_class=prep.section_class(P > 0),
+                beyond_critical=status == "unstable",
+                out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P),
             )
+            if w_service is not None:
+                service = ServiceCheck(
+                    utilization=check.deflection_utilization,
+                    deflection=w_service.value,
+                    x=w_service.x,
+                    allowed=check.deflection_allowed,
+                    limit=check.settings.deflection_limit,
+                )
     result = Result(
         case=case,
         axial_force=float(P),
@@ -532,14 +542,13 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True)
     statuses = (r1.status, r2.status)
     check, utilization = None, None
-    if r1.check is not None or "critical" in statuses:
-        if "critical" in statuses:
-            utilization = math.inf if r1.section is not None else None
-        else:
-            check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
-            utilization = check.utilization
+    if "critical" in statuses:
+        utilization = math.inf if r1.section is not None else None
+    elif r1.section is not None and r1.material is not None:
+        check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
+        utilization = check.utilization
     head = _with_cautions(dataclasses.replace(r1, check=check, utilization=utilization), prep1, fav1)
-    second = _with_cautions(r2, prep2, fav2)
+    second = _with_cautions(dataclasses.replace(r2, check=check), prep2, fav2)
     status = max(statuses, key=_RANK.__getitem__)
     message = r1.message
     if _RANK[r2.status] > _RANK[r1.status]:
@@ -551,5 +560,5 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
         message=message,
         alpha_cr=min(r1.alpha_cr, r2.alpha_cr),
         cautions=merge_plane_cautions(head.cautions, second.cautions, derived.axis),
-        second_plane=dataclasses.replace(second, check=None, utilization=None, cautions=()),
+        second_plane=dataclasses.replace(second, check=None, cautions=()),
     )

@@ -106,9 +106,9 @@ def moment_factor(a, b, alpha, beta):
     >>> float(moment_factor(0.6, 0.0, 2.0, 1.0)), round(float(moment_factor(0.3, 0.4, 2.0, 2.0)), 12)
     (0.6, 0.5)
     """
-    a, b = np.broadcast_arrays(np.asarray(a, dtype=float), np.asarray(b, dtype=float))
-    alpha = np.broadcast_to(np.asarray(alpha, dtype=float), a.shape)
-    beta = np.broadcast_to(np.asarray(beta, dtype=float), a.shape)
+    a, b, alpha, beta = np.broadcast_arrays(*(np.asarray(v, dtype=float) for v in (a, b, alpha, beta)))
+    shape = a.shape
+    a, b, alpha, beta = (v.ravel() for v in (a, b, alpha, beta))
     top = np.maximum(a, b)
     out = top.copy()
     both = (a > 0) & (b > 0) & np.isfinite(top)
@@ -123,7 +123,7 @@ def moment_factor(a, b, alpha, beta):
             if np.all(np.abs(step) <= 1e-15 * t):
                 break
         out[both] = 1.0 / t
-    return out
+    return out.reshape(shape)
 
 
 def pair_stations(x1, x2, tol):
@@ -166,7 +166,7 @@ def check_biaxial(
     section_class=None,
     eq_5_9: bool = False,
     beyond_critical: bool = False,
-    deflection=None,
+    service=None,
     axis: str = "major",
 ) -> MemberCheck:
     """The two-plane cross-section check at every combined station.
@@ -191,8 +191,9 @@ def check_biaxial(
         A plane's bow is the eq. (5.9) preset: the linear member check is added.
     beyond_critical : bool
         The axial force is above a plane's first critical load: the check fails (+inf).
-    deflection : MemberCheck or None
-        The first plane's own check, whose deflection (service) figures are carried over.
+    service : ServiceCheck or None
+        The first plane's deflection check, whose figures are carried over (each plane keeps its own in
+        ``Result.service``).
     axis : str
         The first plane's axis: ``resistances["M_Rd"]`` and ``["V_Rd"]`` are about it (``M_Rd_y``,
         ``M_Rd_z``, ``V_Rd_z``, ``V_Rd_y`` name both).
@@ -295,9 +296,9 @@ def check_biaxial(
         stations=strength,
         axial_bending=ab,
         shear=sh,
-        deflection_utilization=deflection.deflection_utilization if deflection is not None else 0.0,
-        max_deflection=deflection.max_deflection if deflection is not None else 0.0,
-        deflection_allowed=deflection.deflection_allowed if deflection is not None else math.inf,
+        deflection_utilization=service.utilization if service is not None else 0.0,
+        max_deflection=abs(service.deflection) if service is not None else 0.0,
+        deflection_allowed=service.allowed if service is not None else math.inf,
         resistances={
             "N_Rd": N_Rd,
             "M_Rd": M_Rd_y if axis == "major" else M_Rd_z,
@@ -339,31 +340,102 @@ def plane_at(raw, prep, other_x, tol):
     return x, values["M"], values["V"]
 
 
+def _evaluate(raw, prep, xs):
+    """A plane's exact M and V at points inside its segments (no node among them)."""
+    model = prep.model
+    seg = model.segment_of(xs)
+    st = raw[6].states(0, Points(model, seg, xs - model.xa[seg]))
+    return st["M"], st["V"]
+
+
+#: Points inside each interval next to a station near the combined peak.
+_REFINE = 16
+
+
+def _between(x, values, at, measure, tol):
+    """Points between the stations where the combined utilisation may peak, with their columns.
+
+    Each plane's own peaks are stations, but the peak of the combination may lie between two. Near the
+    largest values (within 1e-4 of the largest, at most 4 stations) both neighbouring intervals get
+    ``_REFINE`` evenly spaced interior points, each plane's exact solution there (nothing is interpolated).
+    Between stations h apart a smooth peak of curvature k² (relative) can exceed the best station by about
+    (k h)²/8; the points divide h by 17, so what may still be missed is about 300 times less: below 1e-7 of
+    the value with the default 401 stations [derived].
+    """
+    top = float(np.max(values)) if values.size else 0.0
+    if not (math.isfinite(top) and top > 0.0):
+        return []
+    distinct = np.concatenate([[True], np.diff(x) > tol])
+    unique_x = x[distinct]
+    position = np.cumsum(distinct) - 1
+    near = np.flatnonzero(values >= top * (1.0 - 1e-4))
+    near = near[np.argsort(-values[near], kind="stable")][:4]
+    t = np.arange(1, _REFINE + 1) / (_REFINE + 1)
+    points = []
+    for k in np.unique(position[near]):
+        for low, high in ((k - 1, k), (k, k + 1)):
+            if (
+                low >= 0
+                and high < unique_x.size
+                and unique_x[high] - unique_x[low] > 4.0 * tol * (_REFINE + 1)
+            ):
+                points.append(unique_x[low] + (unique_x[high] - unique_x[low]) * t)
+    if not points:
+        return []
+    xs = np.unique(np.concatenate(points))  # two stations next to each other share an interval
+    return [at(xs)]
+
+
 def pair_check(case, P, planes):
-    """The two-plane cross-section check (:mod:`engine.biaxial`) on both planes' stations merged."""
+    """The two-plane cross-section check (:mod:`engine.biaxial`) on both planes' stations merged, and on
+    points between them near the combined peak (:func:`_between`)."""
     (r1, prep1, raw1), (r2, prep2, raw2) = planes
     tol = 1e-11 * prep1.model.L
     x1, m1, v1 = plane_at(raw1, prep1, raw2[3], tol)
     x2, m2, v2 = plane_at(raw2, prep2, raw1[3], tol)
     i1, i2 = pair_stations(x1, x2, tol)
     major_first = case.axis == "major"
+
+    def arranged(x, m_a, v_a, m_b, v_b):  # (x, M_y, M_z, V_z, V_y) from plane 1's and plane 2's values
+        return (x, m_a, m_b, v_a, v_b) if major_first else (x, m_b, m_a, v_b, v_a)
+
+    def at(xs):
+        m_a, v_a = _evaluate(raw1, prep1, xs)
+        m_b, v_b = _evaluate(raw2, prep2, xs)
+        return arranged(xs, m_a, v_a, m_b, v_b)
+
     s1, s2 = prep1.member.section, prep2.member.section
     classes = [c for c in (prep1.section_class(P > 0), prep2.section_class(P > 0)) if c is not None]
     presets = (case.imperfection.preset, case.second_plane_case().imperfection.preset)
+    fixed = {
+        "axial_force": P,
+        "section_y": s1 if major_first else s2,
+        "section_z": s2 if major_first else s1,
+        "material": prep1.member.material,
+        "settings": case.check,
+        "section_class": max(classes, key=lambda c: c.klass) if classes else None,
+        "eq_5_9": "en1993-eq-5.9" in presets,
+    }
+
+    def measure(columns):
+        x, m_y, m_z, v_z, v_y = columns
+        return check_biaxial(x=x, moment_y=m_y, moment_z=m_z, shear_z=v_z, shear_y=v_y, **fixed).axial_bending
+
+    columns = arranged(x1[i1], m1[i1], v1[i1], m2[i2], v2[i2])
+    extra = _between(columns[0], measure(columns), at, measure, tol)
+    if extra:
+        merged = [np.concatenate([c, *(e[k] for e in extra)]) for k, c in enumerate(columns)]
+        order = np.argsort(merged[0], kind="stable")
+        columns = tuple(c[order] for c in merged)
+    x, m_y, m_z, v_z, v_y = columns
     return check_biaxial(
-        x=x1[i1],
-        axial_force=P,
-        moment_y=(m1 if major_first else m2)[i1 if major_first else i2],
-        moment_z=(m2 if major_first else m1)[i2 if major_first else i1],
-        shear_z=(v1 if major_first else v2)[i1 if major_first else i2],
-        shear_y=(v2 if major_first else v1)[i2 if major_first else i1],
-        section_y=s1 if major_first else s2,
-        section_z=s2 if major_first else s1,
-        material=prep1.member.material,
-        settings=case.check,
-        section_class=max(classes, key=lambda c: c.klass) if classes else None,
-        eq_5_9="en1993-eq-5.9" in presets,
+        x=x,
+        moment_y=m_y,
+        moment_z=m_z,
+        shear_z=v_z,
+        shear_y=v_y,
         beyond_critical="unstable" in (r1.status, r2.status),
-        deflection=r1.check,
+        service=r1.service,
         axis=case.axis,
+        **fixed,
     )

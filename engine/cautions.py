@@ -108,13 +108,14 @@ def _class_cautions(check) -> list:
     return []
 
 
-def _out_of_plane_cautions(found) -> list:
-    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made."""
+def _out_of_plane_cautions(found, P: float) -> list:
+    """Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): a danger above 1, a note when not made
+    (and a danger when, not made, N exceeds the elastic critical load about that axis)."""
     if found is None:
         return []
     if not found.checked:
         restrained = found.reason.startswith("restrained")
-        return [
+        out = [
             Caution(
                 level="info" if restrained else "warning",
                 code="out-of-plane-not-checked",
@@ -122,6 +123,21 @@ def _out_of_plane_cautions(found) -> list:
                 source=found.source,
             )
         ]
+        if found.N_cr is not None and P > found.N_cr:
+            out.append(
+                Caution(
+                    level="danger",
+                    code="out-of-plane-buckling",
+                    message=(
+                        f"N = {P * 1e-3:.6g} kN exceeds the elastic critical load about the {found.axis} "
+                        f"axis, N_cr = {found.N_cr * 1e-3:.6g} kN (L_cr = {found.buckling_length:.3f} m): "
+                        "the member buckles out of the plane analysed. Brace it or choose a larger section."
+                    ),
+                    source="Euler; Timoshenko & Gere (1961) ch. 2",
+                    values=found.facts(),
+                )
+            )
+        return out
     extra = []
     if found.note:
         extra.append(
@@ -141,13 +157,19 @@ def _out_of_plane_cautions(found) -> list:
             )
         ]
     if found.utilization > 1.0:
+        force = found.utilization * found.N_b_Rd
+        beyond = (
+            f" N = {force * 1e-3:.6g} kN exceeds even the elastic critical load about that axis."
+            if found.N_cr is not None and force > found.N_cr
+            else ""
+        )
         return extra + [
             Caution(
                 level="danger",
                 code="out-of-plane-buckling",
                 message=(
                     f"N/N_b,Rd = {found.utilization:.3f} > 1: the member buckles out of the "
-                    f"plane analysed, {found.describe()}. Brace it (a shorter out-of-plane "
+                    f"plane analysed, {found.describe()}.{beyond} Brace it (a shorter out-of-plane "
                     "buckling length) or choose a larger section."
                 ),
                 source=found.source,
@@ -500,7 +522,7 @@ def assess(
                 )
             )
         if P > 0:
-            out.extend(_out_of_plane_cautions(check.out_of_plane))
+            out.extend(_out_of_plane_cautions(check.out_of_plane, P))
         for note in check.notes:
             out.append(Caution(level="info", code="check-note", message=note, source=check.source))
     if (

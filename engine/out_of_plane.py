@@ -17,7 +17,8 @@ out, and the result says so). The stiffness factor of the case is not applied: i
 analysis.
 
 Only steel sections with a buckling curve are checked: a custom section (its properties are given about one
-axis) or another material gets a warning that the check was not made. Circular sections are the same about
+axis) or another material gets a warning that the check was not made (another material with a catalogue or
+parametric section still gets its elastic N_cr about the other axis). Circular sections are the same about
 every axis. Lateral-torsional buckling and the N–M interaction about both axes (§6.3.3) are not covered.
 """
 
@@ -185,14 +186,19 @@ def resistance(case, section, material) -> OutOfPlane:
             reason="a custom section has properties about one axis "
             "only: out-of-plane buckling cannot be checked",
         )
-    if material.kind != "steel":
+    turned = section_from_spec(dict(case.section), other)
+    length = settings.buckling_length if settings.buckling_length is not None else case.length
+    n_cr = math.pi**2 * material.E * turned.I / length**2
+    if material.kind != "steel":  # the elastic critical load is still given, for the cautions and the app
         return OutOfPlane(
             checked=False,
             axis=other,
+            buckling_length=length,
+            N_cr=n_cr,
             reason=f"{material.kind} material: the buckling curves "
-            "of EN 1993-1-1 do not apply, out-of-plane buckling is not checked",
+            "of EN 1993-1-1 do not apply, out-of-plane buckling is not checked "
+            f"(elastic N_cr = {n_cr * 1e-3:.6g} kN about the {other} axis, L_cr = {length:.3f} m)",
         )
-    turned = section_from_spec(dict(case.section), other)
     grade = material.name if material.name.upper().startswith("S") else None
     curve, why = codes.buckling_curve(
         shape=turned.shape,
@@ -204,7 +210,6 @@ def resistance(case, section, material) -> OutOfPlane:
     )
     if curve is None:  # pragma: no cover - every steel shape but custom has a curve
         return OutOfPlane(checked=False, axis=other, reason=f"no buckling curve: {why}")
-    length = settings.buckling_length if settings.buckling_length is not None else case.length
     note = ""
     sways = any(end.translation != "fixed" for end in (case.left, case.right))
     if settings.buckling_length is None and sways:
@@ -213,7 +218,6 @@ def resistance(case, section, material) -> OutOfPlane:
             "if it is free out of plane too, L_cr is up to 2L (a cantilever). Give "
             "out_of_plane.buckling_length."
         )
-    n_cr = math.pi**2 * material.E * turned.I / length**2
     lam = codes.slenderness(turned.A, material.fy, n_cr)
     chi = codes.reduction_factor(lam, curve)
     return OutOfPlane(
