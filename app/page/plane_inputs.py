@@ -93,7 +93,7 @@ class PlaneLoadsView(pn.viewable.Viewer):
 
     def _options(self) -> dict:
         own = self.state.axis
-        return {plane_name(own): "own", plane_name(other_axis(own)): "second"}
+        return {plane_name(own): "own", f"2nd plane: {plane_name(other_axis(own))}": "second"}
 
     def _switch(self) -> None:
         second = self.plane_switch.value == "second"

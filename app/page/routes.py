@@ -18,7 +18,7 @@ import math
 import numpy as np
 import panel as pn
 import param
-from bokeh.models import ColumnDataSource, Legend, LegendItem, Span
+from bokeh.models import ColumnDataSource, Legend, LegendItem, Range1d, Span
 from bokeh.plotting import figure
 
 from app.page.style import esc, html_pane
@@ -67,7 +67,7 @@ def routes_html(result, U) -> str:
         title = "Routes" + (f" — headline {head['utilisation']}" if head else "")
         if headline_exceeds_routes(result):
             title = f"Routes — headline {headline_text(result)}"
-        parts.append(f"<div class='ss-heading'>{esc(title)}</div><table class='ss-values ss-routes'>")
+        parts.append(f"<div class='ss-heading'>{esc(title)}</div><table class='ss-routes'>")
         parts.append("<colgroup><col class='q'><col class='v'><col class='f'></colgroup>")
         for row in rows:
             danger = row["value"] is not None and not float(row["value"]) <= 1.0
@@ -131,6 +131,7 @@ class RoutesChart(pn.viewable.Viewer):
             min_border_right=14,
         )
         self.figure.yaxis.axis_label = "utilisation [-]"
+        self.figure.y_range = Range1d(0.0, 1.5)
         self.figure.grid.grid_line_color = "#e4e7e1"
         self.figure.add_layout(Span(location=1.0, dimension="width", line_color="#a3261b", line_dash="4 3"))
         self.marker = Span(location=0.0, dimension="height", line_color="#142838", line_width=1.5)
@@ -195,6 +196,13 @@ class RoutesChart(pn.viewable.Viewer):
                         label += " — for comparison"
                 items.append(LegendItem(label=label, renderers=[self.lines[code]]))
             self.legend.items = items
+            shown = [np.asarray(source.data["u"], dtype=float) for source in self.sources.values()]
+            finite = np.concatenate([u[np.isfinite(u)] for u in shown] + [np.zeros(1)])
+            # Up to 3 at most, so that the routes' differences near 1 stay readable (pan or zoom for more).
+            self.figure.y_range.start, self.figure.y_range.end = (
+                0.0,
+                float(np.clip(finite.max() * 1.08, 1.2, 3.0)),
+            )
             top = float(forces[-1]) if forces.size else 0.0
             self.note.object = (
                 "<div class='ss-note'>Utilisation of each route from N = 0 to "
