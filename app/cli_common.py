@@ -18,11 +18,10 @@ from app.safe_text import terminal
 #: equal).
 #: Every summary prints the engine's own (:func:`app.report.general_caution`).
 CAUTION = (
-    "Elastic analysis of one member, in one bending plane or two uncoupled ones. Not a full code check: "
-    "lateral-torsional buckling, torsion and the coupling of the planes through a non-symmetric section, "
-    "the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 sections, connections and load "
-    "combinations are not checked. Check the results against your local codes and have them reviewed by "
-    "a licensed engineer."
+    "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
+    "lateral-torsional buckling, torsion, non-symmetric sections, EN 1993-1-1 eqs. (6.61)/(6.62), "
+    "class 4 sections, connections and load combinations are not checked. Check the results "
+    "against your local codes and have them reviewed by a licensed engineer."
 )
 
 #: The invented demo case, package data of :mod:`assets`.

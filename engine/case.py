@@ -10,6 +10,10 @@ Case files are JSON, schema 1, as set out in the project's conventions (SI units
 m, N, N·m, N/m, N·m/rad). :meth:`Case.from_dict` and :meth:`Case.to_dict` convert
 between a case and the file's mapping, and ``Case.from_dict(c.to_dict()) == c``.
 
+The optional key ``second_plane`` (:mod:`engine.plane`) adds bending about the other axis: its own supports,
+loads, bow and (with the case's EI) stiffness; errors name its paths, e.g. ``second_plane.loads[1].x``.
+:meth:`Case.second_plane_case` is that plane as a one-plane case. A file without it is a one-plane case.
+
 Change a case with :func:`dataclasses.replace`, which validates the new case again.
 """
 

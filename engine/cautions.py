@@ -56,11 +56,10 @@ GENERAL = Caution(
     level="info",
     code="scope",
     message=(
-        "Elastic analysis of one member, in one bending plane or two uncoupled ones. Not a full code "
-        "check: lateral-torsional buckling, torsion and the coupling of the planes through a "
-        "non-symmetric section, the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 "
-        "sections, connections and load combinations are not checked. Check the results against "
-        "your local codes and have them reviewed by a licensed engineer."
+        "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
+        "lateral-torsional buckling, torsion, non-symmetric sections, EN 1993-1-1 eqs. (6.61)/(6.62), "
+        "class 4 sections, connections and load combinations are not checked. Check the results "
+        "against your local codes and have them reviewed by a licensed engineer."
     ),
     source="strutscope's scope (common practice, no source)",
 )
@@ -149,10 +148,10 @@ def _out_of_plane_cautions(found, P: float) -> list:
                 level="info",
                 code="out-of-plane-checked",
                 message=(
-                    f"Out-of-plane flexural buckling checked: N/N_b,Rd = {found.utilization:.3f} <= 1, "
-                    f"{found.describe()}."
+                    f"Out-of-plane flexural buckling ({found.axis} axis) checked: "
+                    f"N/N_b,Rd = {found.utilization:.3f} <= 1."
                 ),
-                source=found.source,
+                source="EN 1993-1-1:2005 §6.3.1 (from memory)",
                 values=found.facts(),
             )
         ]

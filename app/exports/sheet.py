@@ -270,6 +270,8 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     if not any(c.code == "scope" for c in cautions):
         flow.para(f"[info] {general_caution(result)}", hanging=0.2)
     for caution in cautions:
+        if caution.code == "out-of-plane-checked":  # section 4's "Out of plane" line states it
+            continue
         danger = caution.level == "danger"
         flow.para(
             f"[{caution.level}] {caution_text(caution, U)} ({source_text(caution.source, U)})",

@@ -21,11 +21,10 @@ REPO_ROOT = Path(__file__).resolve().parents[2]
 # The exact wording every summary must carry (project rule for the command line): the engine's general
 # caution.
 CAUTION = (
-    "Elastic analysis of one member, in one bending plane or two uncoupled ones. Not a full code check: "
-    "lateral-torsional buckling, torsion and the coupling of the planes through a non-symmetric section, "
-    "the interaction of EN 1993-1-1 eqs. (6.61)/(6.62), class 4 sections, connections and load "
-    "combinations are not checked. Check the results against your local codes and have them reviewed by "
-    "a licensed engineer."
+    "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
+    "lateral-torsional buckling, torsion, non-symmetric sections, EN 1993-1-1 eqs. (6.61)/(6.62), "
+    "class 4 sections, connections and load combinations are not checked. Check the results "
+    "against your local codes and have them reviewed by a licensed engineer."
 )
 
 PCR1_LINE = re.compile(r"^\s*Pcr1 = ([0-9.eE+-]+) kN$", re.MULTILINE)

@@ -17,7 +17,7 @@ def test_every_copy_of_the_general_caution_is_the_engines():
 def test_no_other_wording_of_the_general_caution_in_the_outputs():
     """The exports, the report and the batch hold no copy of the caution: they read the engine's."""
     root = pathlib.Path(app.report.__file__).parents[1]
-    opening = "Elastic analysis of one member, in one bending plane"
+    opening = "Elastic analysis of one member in one or two"
     for folder in ("exports", "report", "batch", "page"):
         for path in (root / folder).glob("*.py"):
             assert opening not in path.read_text(encoding="utf-8"), path

@@ -465,7 +465,7 @@ def test_general_caution_names_what_two_planes_leave_out():
     """The general caution no longer says biaxial bending is unchecked, and names torsion and coupling."""
     message = engine.cautions.GENERAL.message
     assert "biaxial" not in message
-    assert "torsion" in message and "non-symmetric section" in message
+    assert "torsion" in message and "non-symmetric sections" in message and "two uncoupled planes" in message
 
 
 # ---------------------------------------------------------------------------------------------- invariant
@@ -553,3 +553,33 @@ def test_one_plane_timber_gets_its_weak_axis_critical_load():
     above = engine.solve(engine.Case.from_dict(data))
     (danger,) = [c for c in above.cautions if c.code == "out-of-plane-buckling"]
     assert danger.level == "danger" and danger.values["N_cr"] == pytest.approx(found.N_cr, rel=1e-12)
+
+
+def test_couples_at_one_point_in_both_planes_pair_left_with_left():
+    """Couples at x = 1 m in both planes (L = 4 m, pinned, P = 0) make both moments jump there. Simply
+    supported, a couple C at a gives M = -C x/L left of it and C(1 - x/L) right of it, and an end couple C0 at
+    x = 0 gives C0(1 - x/L) (the contract's signs): plane 1 (C0 = -4, C = 4 kN·m) has M_y = -4 left, 0 right;
+    plane 2 (C = 1 kN·m) has M_z = -0.25 left, 0.75 right. The check pairs the left sides (4/W_y + 0.25/W_z),
+    never a left with a right (4/W_y + 0.75/W_z, which no section sees)."""
+    case = engine.Case.from_dict(
+        {
+            "length": 4.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "loads": [{"type": "couple", "C": -4e3, "x": 0.0}, {"type": "couple", "C": 4e3, "x": 1.0}],
+            "section": {"name": "HEB 200"},
+            "material": {"name": "S355"},
+            "second_plane": {
+                "supports": {"left": "pinned", "right": "pinned"},
+                "loads": [{"type": "couple", "C": 1e3, "x": 1.0}],
+                "imperfection": {"shape": "none", "amplitude": 0.0},
+            },
+        }
+    )
+    y, z = _sections("HEB 200")
+    fy = 355e6
+    result = engine.solve(case)
+    physical = (4e3 / y.W_el + 0.25e3 / z.W_el) / fy
+    mixed = (4e3 / y.W_el + 0.75e3 / z.W_el) / fy
+    assert result.check.utilization == pytest.approx(physical, rel=1e-9)
+    assert result.check.utilization < 0.9 * mixed
+    assert result.check.x == pytest.approx(1.0, abs=1e-12)
