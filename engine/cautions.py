@@ -235,11 +235,24 @@ _ROUTE_NOTES = {
 }
 
 
-def _route_cautions(routes) -> list:
+def _route_cautions(routes, out: list) -> list:
     """The routes' notes, the routes not applied, the headline's fallback and a disagreement between routes.
 
     Structured: ``values`` carry the route, the note or reason codes and the utilisations; the app words them.
+    Where ``out`` already holds the ``lateral-torsional-buckling`` warning, the routes' ``chi-LT-1`` and
+    ``LTB-not-checked`` notes join its values (``routes``) instead of repeating it.
     """
+    ltb = next((i for i, c in enumerate(out) if c.code == "lateral-torsional-buckling"), None)
+    if ltb is not None:
+        noted = [r.route for r in routes if r.utilization is not None and set(r.notes) & set(_ROUTE_NOTES)]
+        if noted:
+            out[ltb] = Caution(
+                level=out[ltb].level,
+                code=out[ltb].code,
+                message=out[ltb].message,
+                source=out[ltb].source,
+                values=dict(out[ltb].values, routes=noted, chi_LT=1.0),
+            )
     out = []
     for route in routes:
         if route.utilization is None:
@@ -254,7 +267,7 @@ def _route_cautions(routes) -> list:
             )
             continue
         for note in route.notes:
-            if note in _ROUTE_NOTES:
+            if note in _ROUTE_NOTES and ltb is None:
                 out.append(
                     Caution(
                         level="info",
@@ -580,6 +593,6 @@ def assess(
                 source="EN 1993-1-1:2005 §5.3.2(11) (from memory)",
             )
         )
-    out.extend(_route_cautions(routes))
+    out.extend(_route_cautions(routes, out))
     order = {"danger": 0, "warning": 1, "info": 2}
     return sorted(out, key=lambda c: order[c.level])  # stable: the general caution leads the infos

@@ -237,10 +237,17 @@ def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
 
 def headline(routes) -> tuple:
     """(utilisation, route, fell_back): the largest utilisation of the enabled routes that apply; when none
-    applies, the second-order route's, with ``fell_back`` True."""
+    applies, the second-order route's, with ``fell_back`` True.
+
+    Routes within rounding of the largest (1e-12 relative: a strut without transverse loads gives eq. (6.62)
+    and N/N_b,Rd of the second-order route, the same number computed two ways) go to the first in the order
+    of ROUTES, and the headline is that route's own value.
+    """
     applied = [r for r in routes if r.enabled and r.utilization is not None]
     if applied:
-        best = max(applied, key=lambda r: r.utilization)
+        top = max(r.utilization for r in applied)
+        floor = top if math.isinf(top) else top - 1e-12 * abs(top)
+        best = next(r for r in applied if r.utilization >= floor)
         return best.utilization, best.route, False
     second = next((r for r in routes if r.route == ROUTES[0]), None)
     if second is None:

@@ -329,8 +329,15 @@ def _couple(U: Units, anticlockwise: float) -> str:
 
 
 def utilisation_text(result, U: Units) -> str | None:
-    """The governing utilisation, its check and where; None without a check."""
+    """The governing (headline) utilisation, its check and where; None without a check. When a route other
+    than the second-order check sets the headline (engine issue 14: the largest enabled route), it is named
+    with its governing term, e.g. ``0.468 (EN 1993-1-1 equivalent member (Annex B), eq. (6.62))``."""
     check = result.check
+    applied = [r for r in getattr(result, "routes", ()) if r.enabled and r.utilization is not None]
+    top = max(applied, key=lambda r: r.utilization) if applied else None
+    if top is not None and top.route != "second-order" and top.utilization == result.utilization:
+        fails = " fails" if math.isinf(top.utilization) else ""
+        return f"{ratio(top.utilization)}{fails} ({route_name(top, result)}, {governing_text(top.governing)})"
     if check is not None:
         where = f" at x = {position(U, check.x)}" if finite(check.x) else ""
         fails = " fails" if math.isinf(check.utilization) else ""

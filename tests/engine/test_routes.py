@@ -466,7 +466,7 @@ def test_headline_is_the_largest_enabled_route(routes, force):
     assert [x.route for x in r.routes] == ["second-order", "en-member", "aisc"]
     assert all(x.utilization is not None for x in r.routes)
     assert [x.enabled for x in r.routes] == [x.route in routes for x in r.routes]
-    assert r.utilization == max(x.utilization for x in r.routes if x.enabled)
+    assert r.utilization == pytest.approx(max(x.utilization for x in r.routes if x.enabled), rel=1e-12)
     assert headline(r.routes)[0] == r.utilization
 
 
@@ -484,7 +484,19 @@ def test_routes_disagreeing_is_an_info_caution(length, q, force, disagree):
         assert caution[0].level == "info"
         assert set(caution[0].values["utilizations"]) == {"second-order", "en-member", "aisc"}
         assert caution[0].values["spread"] == pytest.approx(max(values) / min(values) - 1, rel=1e-12)
-    assert "chi-LT-1" in [c.code for c in r.cautions]
+    ltb = next(c for c in r.cautions if c.code == "lateral-torsional-buckling")
+    assert ltb.values["routes"] == ["en-member", "aisc"] and ltb.values["chi_LT"] == 1.0
+    assert "chi-LT-1" not in [c.code for c in r.cautions]  # joined to the open section's warning
+
+
+def test_chi_lt_note_of_a_closed_section_is_its_own_caution():
+    """A hollow section has no lateral-torsional-buckling warning of its own; the routes' χ_LT = 1 and
+    'LTB not checked' notes are info cautions naming the route."""
+    r = engine.solve(_case(section={"name": "SHS 100x100x8"}, loads=[{"type": "uniform", "q": 2e3}]))
+    found = {c.code: c for c in r.cautions}
+    assert "lateral-torsional-buckling" not in found
+    assert found["chi-LT-1"].level == "info" and found["chi-LT-1"].values["route"] == "en-member"
+    assert found["LTB-not-checked"].values["route"] == "aisc"
 
 
 # ------------------------------------------------------------------------------------------- capacity
