@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from app.exports.style import _DANGER, _GREY, _INK
 from app.report import routes
-from app.report.words import source_text
+from app.report.words import bow_text, load_text, source_text, support_text
 from app.units import Units
 
 
@@ -19,14 +19,13 @@ def second_plane_items(item, result, U: Units) -> None:
         f"bending about the {routes.plane_name(other)}; the values above: {routes.plane_name(own)}",
     )
     second = result.second_plane
-    supports = f"supports: left {_support(second.case.left)}, right {_support(second.case.right)}"
-    item("", supports, scale=0.92)
+    case = second.case
+    item("", f"supports: left {support_text(case.left, U)}; right {support_text(case.right, U)}", scale=0.92)
+    for load in case.loads:
+        item("", load_text(load, case.length, U), scale=0.92)
+    item("", f"initial bow: {bow_text(second, U)}", scale=0.92)
     for label, text in rows:
         item("", f"{label}: {text}", scale=0.92)
-
-
-def _support(end) -> str:
-    return end.name if end.name is not None else "elastic"
 
 
 def settings_text(result) -> str:

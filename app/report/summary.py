@@ -140,6 +140,11 @@ def _plane_lines(add, result, U) -> None:
     own, other = r.plane_axes(result)
     add("")
     add(f"Second plane: bending about the {r.plane_name(other)} (the values above: {r.plane_name(own)})")
+    second = result.second_plane.case
+    add(f"  supports:     left {w.support_text(second.left, U)}; right {w.support_text(second.right, U)}")
+    for i, load in enumerate(second.loads):
+        add(f"  {'loads:' if i == 0 else '':<14}{w.load_text(load, second.length, U)}")
+    add(f"  initial bow:  {w.bow_text(result.second_plane, U)}")
     for label, text in rows:
         add(f"  {label:<22}{text}")
 

@@ -185,3 +185,23 @@ def test_routes_block_speaks_one_system(system):
     _with_routes(state)
     text = _text(page.routes.block) + _text(page.values.table) + _text(page.cautions.list)
     assert not [text[max(0, m.start() - 40) : m.end() + 5] for m in FORBIDDEN[system].finditer(text)]
+
+
+def test_saved_case_carries_the_second_plane_and_route_settings():
+    """The page's saved case JSON holds second_plane and the route settings, and reopens them."""
+    from app.export_names import case_json
+
+    state = MemberState()
+    state.param.update(plane2=True, plane2_left="fixed", routes=["second-order", "aisc"], aisc_method="ASD")
+    saved = json.loads(case_json(state.result.case))
+    assert saved["second_plane"]["supports"]["left"] == "fixed"
+    assert saved["check"]["routes"] == ["second-order", "aisc"] and saved["check"]["aisc_method"] == "ASD"
+    again = MemberState()
+    again.load_mapping(saved)
+    assert (again.plane2, again.plane2_left, again.routes, again.aisc_method) == (
+        True,
+        "fixed",
+        ["second-order", "aisc"],
+        "ASD",
+    )
+    assert again.errors == {}

@@ -190,3 +190,35 @@ def test_headline_never_below_the_results_utilisation(demo):
     assert [row["status"] for row in route_rows(low, units("si"))] == ["counts", "counts", "for comparison"]
     agree = dataclasses.replace(demo, utilization=0.903)
     assert headline_text(agree) == "0.903 by EN 1993-1-1 equivalent member (Annex B), eq. (6.62)"
+
+
+def test_command_line_json_carries_the_engines_routes_and_second_plane(tmp_path):
+    """`solve --json` on the two-plane demo holds each route the engine gives (SI facts), the headline route
+    and the second plane's critical loads and peaks, equal to the engine's."""
+    from tests.app.test_cli import run_cli
+
+    source = resources.files("assets").joinpath("demo_two_planes.json")
+    path = tmp_path / "two.json"
+    path.write_text(source.read_text(encoding="utf-8"), encoding="utf-8")
+    done = run_cli("solve", str(path), "--json", cwd=tmp_path)
+    assert done.returncode in (0, 1), done.stderr
+    data = json.loads(done.stdout)
+    result = engine.solve(engine.Case.from_json(path.read_text(encoding="utf-8")))
+    assert [r["route"] for r in data["routes"]] == [r.route for r in result.routes]
+    for shown, route in zip(data["routes"], result.routes, strict=True):
+        expected = (
+            route.utilization if route.utilization is not None and math.isfinite(route.utilization) else None
+        )
+        assert shown["utilization"] == expected and shown["governing"] == route.governing
+        assert shown["enabled"] == route.enabled
+    assert data["headline_route"] == headline_route(result).route
+    plane = data["second_plane"]
+    assert plane["axis"] == "minor"
+    assert plane["critical_loads"][0] == pytest.approx(
+        float(result.second_plane.critical_loads[0]), rel=1e-12
+    )
+    moment = result.second_plane.governing.moment
+    assert plane["governing"]["moment"]["value"] == pytest.approx(float(moment.value), rel=1e-12)
+    text = run_cli("solve", str(path), "--units", "us", cwd=tmp_path).stdout
+    assert "Routes (" in text and "Second plane: bending about the minor axis (z–z)" in text
+    assert not [m.group(0) for m in FORBIDDEN["us"].finditer(text)]
