@@ -26,6 +26,7 @@ from engine.results import (
     Result,
     ServiceCheck,
 )
+from engine.route_cautions import with_route_cautions
 from engine.solver.batch import STATE_FIELDS, Batch
 from engine.solver.model import Points
 from engine.solver.peaks import refine_peaks
@@ -271,8 +272,8 @@ def _build(
         ),
         service=service,
     )
-    if not first_order and section is not None and material is not None:  # the routes (issue 14)
-        out = prep.out_of_plane() if getattr(case, "second_plane", None) is None else None
+    if not first_order and section is not None and material is not None and not paired:  # routes, issue 14
+        out = prep.out_of_plane()
         result = member_routes.attach(result, bow_free=bow_free, out_of_plane=out, cache=prep.design)
     if not first_order and cautions:
         result = _with_cautions(result, prep, favourable=False)
@@ -312,7 +313,7 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
     slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
     facts = dict(prep.bow_facts(), opposes_load=favourable)
     # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
-    cautions = tuple(
+    cautions = with_route_cautions(
         assess(
             P=result.axial_force,
             pcr1=pcr1,
@@ -325,8 +326,8 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
             check=result.check,
             bow=facts,
             service=result.service,
-            routes=result.routes,
-        )
+        ),
+        result.routes,
     )
     return dataclasses.replace(result, cautions=cautions)
 
@@ -553,7 +554,7 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     message = r1.message
     if _RANK[r2.status] > _RANK[r1.status]:
         message = f"Second plane (bending about the {derived.axis} axis): {r2.message}"
-    return dataclasses.replace(
+    result = dataclasses.replace(
         head,
         status=status,
         stable=status == "stable",
@@ -562,3 +563,7 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
         cautions=merge_plane_cautions(head.cautions, second.cautions, derived.axis),
         second_plane=dataclasses.replace(second, check=None, cautions=()),
     )
+    if r1.section is None or r1.material is None:
+        return result
+    result = member_routes.attach(result, bow_free=None, out_of_plane=None, cache=prep1.design)  # issue 14
+    return dataclasses.replace(result, cautions=with_route_cautions(result.cautions, result.routes))

@@ -7,7 +7,6 @@ in words and the source of the rule it applies. The general caution is always fi
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
@@ -224,89 +223,6 @@ def merge_plane_cautions(first, second, axis: str) -> tuple:
     return tuple(sorted(out, key=lambda c: order[c.level]))
 
 
-#: Routes whose utilisations differ by more than this fraction of the smaller one get an info caution: what
-#: an engineer learns from (which assumptions make the difference). Common practice, no source.
-ROUTES_DISAGREE = 0.2
-
-_ROUTE_NOTES = {
-    "chi-LT-1": "EN 1993-1-1:2005 §6.3.2 and §6.3.3 (χ_LT = 1: lateral-torsional buckling not checked; "
-    "from memory)",
-    "LTB-not-checked": "AISC 360-16 Chapter F (lateral-torsional buckling not checked; from memory)",
-}
-
-
-def _route_cautions(routes, out: list) -> list:
-    """The routes' notes, the routes not applied, the headline's fallback and a disagreement between routes.
-
-    Structured: ``values`` carry the route, the note or reason codes and the utilisations; the app words them.
-    Where ``out`` already holds the ``lateral-torsional-buckling`` warning, the routes' ``chi-LT-1`` and
-    ``LTB-not-checked`` notes join its values (``routes``) instead of repeating it.
-    """
-    ltb = next((i for i, c in enumerate(out) if c.code == "lateral-torsional-buckling"), None)
-    if ltb is not None:
-        noted = [r.route for r in routes if r.utilization is not None and set(r.notes) & set(_ROUTE_NOTES)]
-        if noted:
-            out[ltb] = Caution(
-                level=out[ltb].level,
-                code=out[ltb].code,
-                message=out[ltb].message,
-                source=out[ltb].source,
-                values=dict(out[ltb].values, routes=noted, chi_LT=1.0),
-            )
-    out = []
-    for route in routes:
-        if route.utilization is None:
-            out.append(
-                Caution(
-                    level="warning" if route.enabled else "info",
-                    code="route-not-applied",
-                    message=f"The {route.route} route is not applied: {route.reason}.",
-                    source=route.source,
-                    values={"route": route.route, "reason": route.reason, "enabled": route.enabled},
-                )
-            )
-            continue
-        for note in route.notes:
-            if note in _ROUTE_NOTES and ltb is None:
-                out.append(
-                    Caution(
-                        level="info",
-                        code=note,
-                        message=f"{route.route} route: {note}.",
-                        source=_ROUTE_NOTES[note],
-                        values={"route": route.route, "enabled": route.enabled},
-                    )
-                )
-    applied = [r for r in routes if r.enabled and r.utilization is not None]
-    if routes and not applied:
-        out.append(
-            Caution(
-                level="warning",
-                code="headline-fallback",
-                message="No enabled route applies to this member: the headline is the second-order check.",
-                source="strutscope's routes (common practice, no source)",
-                values={"routes": [r.route for r in routes if r.enabled]},
-            )
-        )
-    finite = {
-        r.route: r.utilization for r in routes if r.utilization is not None and 0 < r.utilization < math.inf
-    }
-    if len(finite) >= 2:
-        low, high = min(finite.values()), max(finite.values())
-        if high > low * (1.0 + ROUTES_DISAGREE):
-            out.append(
-                Caution(
-                    level="info",
-                    code="routes-disagree",
-                    message=f"The routes' utilisations differ by {100.0 * (high / low - 1.0):.0f} %: "
-                    f"{finite}.",
-                    source="strutscope's routes (threshold common practice, no source)",
-                    values={"utilizations": finite, "spread": high / low - 1.0, "limit": ROUTES_DISAGREE},
-                )
-            )
-    return out
-
-
 _CRACKING = ("concrete", "masonry", "brick", "block", "stone", "glass")
 
 
@@ -323,7 +239,6 @@ def assess(
     check,
     bow,
     service=None,
-    routes=(),
 ) -> list:
     """The cautions for one solved case, most severe first; the general caution is always there.
 
@@ -350,8 +265,6 @@ def assess(
         favourable way, which the solve found by reversing it), ``shape``, ``notes``.
     service : ServiceCheck or None
         The deflection check (loads as given, no bow).
-    routes : tuple of RouteCheck
-        The routes of the member check (:mod:`engine.member_routes`), empty without a section.
     """
     out = [GENERAL]
     alpha_cr = pcr1 / P if P > 0 else float("inf")
@@ -593,6 +506,5 @@ def assess(
                 source="EN 1993-1-1:2005 §5.3.2(11) (from memory)",
             )
         )
-    out.extend(_route_cautions(routes, out))
     order = {"danger": 0, "warning": 1, "info": 2}
     return sorted(out, key=lambda c: order[c.level])  # stable: the general caution leads the infos

@@ -154,7 +154,9 @@ def _second_order(result, enabled: bool) -> RouteCheck:
     out = check.out_of_plane
     if out is not None and out.utilization is not None:
         terms["out-of-plane"] = out.utilization
-    governing = _KINDS.get(check.kind, check.kind)
+    governing = _KINDS.get(check.kind)
+    if governing is None:  # the two-plane check's kinds ("elastic stress N–M_y–M_z", ...)
+        governing = "cross-section" if ("stress" in check.kind or "N–M" in check.kind) else check.kind
     terms[governing] = check.utilization
     facts = {"kind": check.kind, "x": check.x, "method": check.settings.method}
     if check.section_class is not None:
