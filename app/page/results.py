@@ -107,8 +107,13 @@ class CautionsView(pn.viewable.Viewer):
 def route_notes(result, U) -> tuple:
     """The routes' notes as cautions (level, code, words, source), each once, named by its route."""
     seen, notes = set(), []
+    # The engine's own route cautions (issue 14) say these: the lateral-torsional notes join its LTB warning.
+    said = {c.code for c in result.cautions} | {"chi-LT-1", "LTB-not-checked"}
     for row in route_rows(result, U):
-        for level, words in row["notes"]:
+        route = next(r for r in result.routes if r.route == row["route"])
+        for code, (level, words) in zip(route.notes, row["notes"], strict=True):
+            if code in said:
+                continue
             if words in seen:
                 continue
             seen.add(words)

@@ -15,7 +15,7 @@ from __future__ import annotations
 import math
 
 from app.report.numbers import finite, ratio
-from app.report.route_names import TERMS, governing_text, route_name, route_setting
+from app.report.route_names import NOTES, REASONS, TERMS, governing_text, route_name, route_setting
 from app.report.words import governing_rows, peak_text, quoted_text
 from app.units import Units
 
@@ -109,39 +109,6 @@ _PREFIX_KINDS = (
     ("alpha", ""),
 )
 
-#: The route notes: code → (level, words). Every note is a caution about what the route does not cover.
-NOTES = {
-    "chi-LT-1": (
-        "warning",
-        "χ_LT = 1 taken: lateral-torsional buckling is not checked; right only where it cannot occur (a "
-        "closed section, minor-axis bending, a compression flange braced along its length)",
-    ),
-    "LTB-not-checked": (
-        "warning",
-        "lateral-torsional buckling (AISC 360-16 §F2.2, unbraced length L_b) is not checked",
-    ),
-    "aisc-shear-not-checked": ("info", "shear (Chapter G) is not checked on this route"),
-    "aisc-noncompact": ("info", "a noncompact element: M_n by the flange local buckling limit (§F3)"),
-    "aisc-tension-yielding": ("info", "tension: P_c is tension yielding, §D2(a)"),
-    "en-member-cross-section-only": (
-        "info",
-        "no compression: eqs. (6.61)/(6.62) do not apply, only the cross-section checks",
-    ),
-    "annex-A-lambda-0": ("info", "Annex A: λ̄_0 from the critical moment taken as for χ_LT = 1"),
-    "one-plane": (
-        "info",
-        "one bending plane: the other axis carries no moment, only the axial force (flexural buckling)",
-    ),
-    "out-of-plane-restrained": (
-        "info",
-        "buckling about the other axis is taken as prevented (as the case says)",
-    ),
-    "no-torsion": ("info", "torsional and flexural-torsional buckling are not checked"),
-    "class-4": ("danger", "class 4 section: the route does not apply"),
-    "not-steel": ("info", "not a steel member: the route does not apply"),
-    "custom-section": ("info", "a custom section: the route's buckling curve is not known"),
-}
-
 
 def _kind_of(key: str) -> str | None:
     if key in FACTS:
@@ -175,16 +142,6 @@ def facts_text(facts: dict, U: Units) -> str:
     keys = [k for k in FACTS if k in facts] + sorted(k for k in facts if k not in FACTS)
     parts = [fact_text(key, facts[key], U) for key in keys]
     return ", ".join(part for part in parts if part)
-
-
-#: Why a route was not applied, by the engine's code.
-REASONS = {
-    "section-not-classified": "the section has no class (EN 1993-1-1 Table 5.2): the route needs one",
-    "section-class-4": "a class 4 section: the route does not cover effective sections",
-    "custom-section": "a custom section: its buckling curve and classes are not known",
-    "slender-element-compression": "a slender element in compression (AISC 360-16 §E7, not covered)",
-    "slender-element-flexure": "a slender element in flexure (AISC 360-16 §F, not covered)",
-}
 
 
 def reason_text(code: str, U: Units | None = None) -> str:

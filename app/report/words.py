@@ -17,7 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
-from app.report.route_names import governing_text, route_name
+from app.report.route_names import NOTES, REASONS, governing_text, route_name
 from app.units import Units, units
 
 __all__ = [
@@ -429,9 +429,39 @@ def _out_of_plane_checked(v: dict, U: Units) -> str:
     )
 
 
-# The cautions whose message quotes a quantity with a unit, worded here from the engine's SI values; every
-# other caution's message holds no unit and is shown as the engine words it.
+def _route_reason(code: str) -> str:
+    if code.startswith("material-"):
+        return f"not a steel member ({code.removeprefix('material-')}): the route is for steel"
+    return REASONS.get(code, code.replace("-", " "))
+
+
+def _route_not_applied(v: dict, U: Units) -> str:
+    return f"The route {route_name(v.get('route', ''))} is not applied: {_route_reason(v.get('reason', ''))}."
+
+
+def _route_note(code: str):
+    def word(v: dict, U: Units) -> str:
+        return f"{route_name(v.get('route', ''))}: {NOTES.get(code, ('', code))[1]}."
+
+    return word
+
+
+def _routes_disagree(v: dict, U: Units) -> str:
+    found = v.get("utilizations") or {}
+    listed = ", ".join(f"{route_name(code)} {ratio(value)}" for code, value in found.items())
+    return (
+        f"The routes' utilisations differ by {100.0 * float(v.get('spread', 0.0)):.0f} % ({listed}): "
+        "their assumptions differ (bow and second-order analysis, or equivalent member factors)."
+    )
+
+
+# The cautions whose message quotes a quantity with a unit (or an engine code), worded here from the engine's
+# values; every other caution's message holds neither and is shown as the engine words it.
 _WORDED = {
+    "route-not-applied": _route_not_applied,
+    "chi-LT-1": _route_note("chi-LT-1"),
+    "LTB-not-checked": _route_note("LTB-not-checked"),
+    "routes-disagree": _routes_disagree,
     "deflection": _deflection,
     "bow-below-code": _bow_below_code,
     "out-of-plane-buckling": _out_of_plane_buckling,
