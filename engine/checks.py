@@ -185,7 +185,10 @@ class MemberCheck:
     max_deflection, deflection_allowed : float
         [m].
     resistances : dict
-        N_Rd [N], M_Rd [N·m] (elastic or plastic), V_Rd [N] (None where not checked).
+        N_Rd [N], M_Rd [N·m] (elastic or plastic), V_Rd [N] (None where not checked). The two-plane check
+        (:mod:`engine.biaxial`) adds M_Rd_y and M_Rd_z [N·m] (about the major and the minor axis) and V_Rd_z
+        and V_Rd_y [N] (the shear of the major-axis and of the minor-axis plane); M_Rd and V_Rd are then the
+        first plane's.
     notes : tuple of str
         What was not checked, or checked another way than asked.
     section_class : SectionClass or None

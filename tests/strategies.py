@@ -301,6 +301,23 @@ def cases(
     }
 
 
+@st.composite
+def two_plane_cases(draw, **options):
+    """A whole case mapping (:func:`cases`) with a ``second_plane``: its own stable supports, loads, bow and
+    EI (the case gives EI, so the second plane must too); ``axial_force`` is 0."""
+    case = draw(cases(**options))
+    length = case["length"]
+    EI = draw(flexural_rigidities())
+    left, right = draw(supports(length, EI, springs=options.get("springs", True)))
+    case["second_plane"] = {
+        "supports": {"left": left, "right": right},
+        "loads": draw(loads(length, min_size=0, max_size=3)),
+        "imperfection": draw(imperfections(length)),
+        "EI": EI,
+    }
+    return case
+
+
 def axial_fractions(low: float = -5.0, high: float = 0.95) -> st.SearchStrategy[float]:
     """Axial force as a fraction of the first critical load P/P_cr1 [-] in [low, high], zero included.
 
