@@ -17,7 +17,6 @@ __all__ = [
     "LEVELS",
     "NEAR_CRITICAL_RATIO",
     "PLANE_CODES",
-    "ROUTES_DISAGREE",
     "assess",
     "merge_plane_cautions",
 ]
@@ -56,7 +55,7 @@ GENERAL = Caution(
     code="scope",
     message=(
         "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-        "lateral-torsional buckling, torsion, non-symmetric sections, EN 1993-1-1 eqs. (6.61)/(6.62), "
+        "lateral-torsional buckling, torsion, non-symmetric sections, "
         "class 4 sections, connections and load combinations are not checked. Check the results "
         "against your local codes and have them reviewed by a licensed engineer."
     ),

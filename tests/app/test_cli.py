@@ -22,7 +22,7 @@ REPO_ROOT = Path(__file__).resolve().parents[2]
 # caution.
 CAUTION = (
     "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-    "lateral-torsional buckling, torsion, non-symmetric sections, EN 1993-1-1 eqs. (6.61)/(6.62), "
+    "lateral-torsional buckling, torsion, non-symmetric sections, "
     "class 4 sections, connections and load combinations are not checked. Check the results "
     "against your local codes and have them reviewed by a licensed engineer."
 )
