@@ -60,6 +60,8 @@ from app.state_inputs import (
     default_load,
     load_magnitude,
 )
+from app.state_plane import plane_values
+from app.state_routes import RouteSweepOutputs
 
 __all__ = [
     "BOW_PRESETS",
@@ -94,7 +96,7 @@ def _field_of(message: str) -> str:
     return head.strip()
 
 
-class MemberState(MemberInputs):
+class MemberState(RouteSweepOutputs, MemberInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
     Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
@@ -179,20 +181,20 @@ class MemberState(MemberInputs):
 
     # ------------------------------------------------------------------ loads table
 
-    def add_load(self, kind: str) -> None:
-        """Append a load row of type `kind` with default values."""
-        self.loads = [*self.loads, default_load(kind, self.length)]
+    def add_load(self, kind: str, *, field: str = "loads") -> None:
+        """Append a load row of type `kind` with default values (`field` plane2_loads: the second plane)."""
+        setattr(self, field, [*getattr(self, field), default_load(kind, self.length)])
 
-    def remove_load(self, index: int) -> None:
+    def remove_load(self, index: int, *, field: str = "loads") -> None:
         """Remove load row `index` (0-based)."""
-        self.loads = [load for i, load in enumerate(self.loads) if i != index]
+        setattr(self, field, [load for i, load in enumerate(getattr(self, field)) if i != index])
 
-    def set_load(self, index: int, **fields: Any) -> None:
+    def set_load(self, index: int, *, field: str = "loads", **fields: Any) -> None:
         """Change fields of load row `index`; a field set to None is removed (start, end: the member's ends).
 
         A new ``type`` replaces the row with that type's defaults, keeping the magnitude and the position.
         """
-        rows = [dict(load) for load in self.loads]
+        rows = [dict(load) for load in getattr(self, field)]
         row = rows[index]
         kind = fields.pop("type", row.get("type"))
         if kind != row.get("type"):
@@ -209,7 +211,7 @@ class MemberState(MemberInputs):
             else:
                 row[key] = value
         rows[index] = row
-        self.loads = rows
+        setattr(self, field, rows)
 
     # ------------------------------------------------------------------ solving
 
@@ -354,6 +356,8 @@ class MemberState(MemberInputs):
                     self._runner.chart(partial(_chart_job, self, case, key, result.critical_loads))
         with param.edit_constant(self):
             self.param.update(**outputs)
+        if full:
+            self._routes_follow(case, result)
 
     def _charted(self, key: str, outputs: dict) -> None:
         """Apply chart outputs computed off the loop, unless the case has changed since."""
@@ -570,4 +574,5 @@ def values_from_mapping(mapping: Mapping) -> dict:
     out_of_plane = mapping.get("out_of_plane") or {}
     values["out_of_plane"] = "restrained" if out_of_plane.get("restrained") is True else "buckles"
     values["out_of_plane_length"] = out_of_plane.get("buckling_length")
+    values.update(plane_values(mapping))
     return values

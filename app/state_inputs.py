@@ -14,6 +14,8 @@ from typing import Any
 
 import param
 
+from app.state_plane import PLANE_INPUTS, PlaneInputs, plane_check_keys, plane_mapping
+
 __all__ = [
     "BOW_PRESETS",
     "BOW_SHAPES",
@@ -118,6 +120,7 @@ INPUTS = (
     "deflection_limit",
     "out_of_plane",
     "out_of_plane_length",
+    *PLANE_INPUTS,
 )
 
 
@@ -156,7 +159,7 @@ def load_magnitude(load: Mapping) -> float | None:
     return None
 
 
-class MemberInputs(param.Parameterized):
+class MemberInputs(PlaneInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
     Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
@@ -513,8 +516,12 @@ class MemberInputs(param.Parameterized):
             "gamma_M0": self.gamma_M0,
             "gamma_M1": self.gamma_M1,
             "deflection_limit": self.deflection_limit,
+            **plane_check_keys(self),
         }
-        if self.out_of_plane == "restrained":
+        data.update(plane_mapping(self))
+        if self.plane2:
+            pass  # the second plane's own supports and bow make the out-of-plane check
+        elif self.out_of_plane == "restrained":
             data["out_of_plane"] = {"restrained": True}
         elif self.out_of_plane_length is not None:
             data["out_of_plane"] = {"buckling_length": self.out_of_plane_length}

@@ -10,7 +10,7 @@ import math
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 1
+SUMMARY_VERSION = 2
 
 
 def _finite(value) -> float | None:
@@ -164,6 +164,9 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "critical_load": _finite(capacity.critical_load),
             "message": capacity.message,
         },
+        "second_plane": _second_plane_data(result),
+        "routes": [_route_data(route) for route in getattr(result, "routes", ()) or ()],
+        "headline_route": _headline_route(result),
         "cautions": [
             {"level": c.level, "code": c.code, "message": c.message, "source": c.source}
             for c in result.cautions
@@ -187,3 +190,59 @@ def _out_of_plane_data(out) -> dict | None:
         "N_b_Rd": _finite(out.N_b_Rd),
         "utilization": _finite(out.utilization),
     }
+
+
+def _second_plane_data(result) -> dict | None:
+    """The second bending plane (SI): its axis, critical loads and governing values; None for one plane."""
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        return None
+    axis = getattr(result.case, "axis", None) or "major"
+    return {
+        "axis": "major" if axis == "minor" else "minor",
+        "critical_loads": [_finite(load) for load in second.critical_loads],
+        "alpha_cr": _finite(second.alpha_cr),
+        "status": second.status,
+        "governing": _governing_data(second.governing),
+        "reactions": {
+            name: _finite(getattr(second.reactions, name))
+            for name in ("left_T", "left_M", "right_T", "right_M")
+        },
+    }
+
+
+def _fact(value):
+    """A fact as JSON: numbers (non-finite null), text, booleans, and lists and mappings of them."""
+    if isinstance(value, (bool, str, type(None))):
+        return value
+    if isinstance(value, (int, float)):
+        return _finite(value)
+    if isinstance(value, dict):
+        return {str(key): _fact(item) for key, item in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [_fact(item) for item in value]
+    return str(value)
+
+
+def _route_data(route) -> dict:
+    """One route of the member check (SI facts), as the engine gives it; non-finite numbers null."""
+    return {
+        "route": route.route,
+        "enabled": bool(route.enabled),
+        "utilization": _finite(route.utilization),
+        "fails": route.utilization is not None and float(route.utilization) > 1.0,
+        "governing": route.governing,
+        "terms": {key: _finite(value) for key, value in (route.terms or {}).items()},
+        "facts": {key: _fact(value) for key, value in (route.facts or {}).items()},
+        "reason": route.reason,
+        "notes": list(route.notes or ()),
+        "source": route.source,
+    }
+
+
+def _headline_route(result) -> str | None:
+    """The code of the enabled route that gives the headline utilisation, or None."""
+    from app.report.routes import headline_route
+
+    route = headline_route(result)
+    return None if route is None else route.route

@@ -263,6 +263,7 @@ class Runner:
         self._waiting: list = []
         self._solves = _Lane(_SOLVES, self._deliver)
         self._charts = _Lane(_WAITS, self._deliver)
+        self._routes = _Lane(_WAITS, self._deliver)
 
     def start(self) -> None:
         """Begin working (the page calls this once it is live in the browser)."""
@@ -272,6 +273,7 @@ class Runner:
             self._deliver(callback)
         self._solves.resume()
         self._charts.resume()
+        self._routes.resume()
 
     def later(self, callback) -> None:
         """Run `callback` on the event loop on a later tick, once the page is live (never for a bare GET)."""
@@ -306,6 +308,10 @@ class Runner:
     def chart(self, job) -> None:
         """Queue a chart job (a function returning the callback that applies its outputs)."""
         self._charts.submit(job)
+
+    def routes(self, job) -> None:
+        """Queue a route-sweep job (its own lane, so that it never replaces a waiting chart job)."""
+        self._routes.submit(job)
 
 
 class _Job:

@@ -157,7 +157,21 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("capacity", "force"),
     ("capacity_check", None),
     ("cautions", None),
+    # Issue 14: the routes side by side (utilisation and governing term of each), the route giving the
+    # headline ``utilization``, and the second bending plane's first critical load and largest |M|.
+    ("headline_route", None),
+    ("utilization_second_order", None),
+    ("governing_second_order", None),
+    ("utilization_en_member", None),
+    ("governing_en_member", None),
+    ("utilization_aisc", None),
+    ("governing_aisc", None),
+    ("second_plane_Pcr1", "force"),
+    ("second_plane_M_max", "moment"),
 )
+
+#: The routes with result columns, in the order of the layout (engine.design.routes.ROUTES).
+ROUTE_COLUMNS = ("second-order", "en-member", "aisc")
 _SUFFIXES = {
     "si": {"force": "kN", "moment": "kNm", "length": "m", "small_length": "mm"},
     "us": {"force": "kip", "moment": "kip_ft", "length": "ft", "small_length": "in"},
@@ -177,7 +191,9 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
     tuple of str
         ``id, row, status, field, message, stability, Pcr1_kN, alpha_cr, M_max_kNm, x_M_m, V_max_kN, x_V_m,
         w_max_mm, x_w_m, amplification_moment, utilization, deflection_utilization, governing_check,
-        out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions`` in SI.
+        out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions, headline_route,
+        utilization_second_order, governing_second_order, utilization_en_member, governing_en_member,
+        utilization_aisc, governing_aisc, second_plane_Pcr1_kN, second_plane_M_max_kNm`` in SI.
         ``utilization``
         is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
         bow).

@@ -16,6 +16,7 @@ from app.batch.columns import (
     _RESULT_LAYOUT,
     PARALLEL_MIN_ROWS,
     RESULTS_FILE,
+    ROUTE_COLUMNS,
     BatchSummary,
     RowError,
     TableError,
@@ -109,6 +110,8 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         _cell(capacity_force, force),
         capacity_check or "",
         ";".join(caution.code for caution in result.cautions),
+        *_route_cells(result),
+        *_second_plane_cells(result, force, moment),
     ]
     wrote = False
     if options.pdf_dir is not None:
@@ -122,6 +125,27 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         )
         wrote = True
     return record, failing, wrote
+
+
+def _route_cells(result) -> list[str]:
+    """The headline route's code, then each route's utilisation and governing term code ("" when absent)."""
+    from app.report.routes import headline_route
+
+    found = {route.route: route for route in getattr(result, "routes", ()) or ()}
+    head = headline_route(result)
+    cells = ["" if head is None else head.route]
+    for code in ROUTE_COLUMNS:
+        route = found.get(code)
+        cells += ["", ""] if route is None else [_cell(route.utilization), route.governing or ""]
+    return cells
+
+
+def _second_plane_cells(result, force: float, moment: float) -> list[str]:
+    """The second plane's Pcr1 and largest |M| in the display units, "" for a one-plane member."""
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        return ["", ""]
+    return [_cell(second.critical_loads[0], force), _cell(abs(second.governing.moment.value), moment)]
 
 
 def _error_record(row: int, identifier: str, column: str, message: str) -> list[str]:

@@ -51,6 +51,7 @@ from app.report import (
     system_name,
     utilisation_text,
 )
+from app.report.routes import plane_axes, plane_name
 from app.sketch import MOMENT_POSITIVE_DOWN, PAD_INCHES
 from app.units import Units
 
@@ -374,7 +375,17 @@ def result_figure(result, *, units="si", date=None) -> Figure:
     fig = Figure(figsize=A4_LANDSCAPE)
     FigureCanvasAgg(fig)
     fig_w, fig_h = A4_LANDSCAPE
-    _plots(fig, result, U, left=0.075, right=0.655, top=0.92, bottom=0.075, legend_columns=3)
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        _plots(fig, result, U, left=0.075, right=0.655, top=0.92, bottom=0.075, legend_columns=3)
+    else:  # both planes side by side, each with its own sketch (its supports and loads) and diagrams
+        for plane, axis, left, right in zip(
+            (result, second), plane_axes(result), (0.075, 0.40), (0.315, 0.64), strict=True
+        ):
+            _plots(fig, plane, U, left=left, right=right, top=0.84, bottom=0.075, legend_columns=1)
+            fig.text(
+                left, 0.965, f"bending about the {plane_name(axis)}", fontsize=8, weight="bold", color=_INK
+            )
     _title_block(
         fig,
         result,

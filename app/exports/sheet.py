@@ -12,6 +12,7 @@ from matplotlib.lines import Line2D
 
 from app.exports.figure import _pcr_text, sheet_figure
 from app.exports.layout import _Flow, _Measure
+from app.exports.sheet_routes import routes_items, second_plane_items
 from app.exports.style import (
     _DANGER,
     _DEFINITIONS_TEXT,
@@ -188,6 +189,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             cells += ["n/a", ""]
         flow.row(cells, widths)
     flow.space(3)
+    second_plane_items(item, result, U)
     item(
         "Support reactions",
         "; ".join(f"{end}: {force}, couple {couple}" for end, force, couple in reaction_rows(result, U)),
@@ -261,6 +263,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             item("Resistances", ", ".join(parts))
         for note in check.notes:
             item("", note, scale=0.92)
+    routes_items(item, flow, result, U)
 
     flow.heading("5  Cautions")
     cautions = list(result.cautions) or []

@@ -44,16 +44,70 @@ def _csv_columns(result, U: Units):
             columns.append((f"{name}1 [{unit}]", getattr(first, field), kind))
     check = result.check
     if check is not None:
-        columns += [
-            ("utilisation [-]", check.stations, None),
-            ("utilisation axial+bending [-]", check.axial_bending, None),
-            ("utilisation shear [-]", check.shear, None),
-        ]
+        at = getattr(check, "at", None)
+        same = at is None
+        for header, values in (
+            ("utilisation [-]", check.stations),
+            ("utilisation axial+bending [-]", check.axial_bending),
+            ("utilisation shear [-]", check.shear),
+        ):
+            # A two-plane check runs on both planes' stations merged: at the rows' stations, the larger side.
+            columns.append((header, values if same else _at_rows(result.x, at, values, larger=True), None))
     elif result.utilization is not None:
         # At a critical load the engine gives no check along the member, only the governing utilisation
         # (+inf), which then holds at every station.
         columns.append(("utilisation [-]", np.full(len(result.x), float(result.utilization)), None))
+    return columns + _second_plane_columns(result, U)
+
+
+def _second_plane_columns(result, U: Units):
+    """The second bending plane's columns at the same stations, named by the axis they bend about (_z about
+    the minor axis, _y about the major), or none for a one-plane case.
+
+    The second plane is solved at its own stations (its loads sit elsewhere); its values are given at the
+    first plane's x by linear interpolation between its stations, which hold its exact peaks, and a station
+    of a jump in the first plane takes the second plane's value there.
+    """
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        return []
+    suffix = "y" if getattr(result.case, "axis", "major") == "minor" else "z"
+    x = np.asarray(result.x, dtype=float)
+    sx = np.asarray(second.x, dtype=float)
+    sl, rot, mom, frc = (U.label(k) for k in ("small_length", "rotation", "moment", "force"))
+    columns = []
+    for name, field, kind, unit in (
+        ("w", "deflection", "small_length", sl),
+        ("w0", "initial_bow", "small_length", sl),
+        ("rotation", "rotation", "rotation", rot),
+        ("M", "moment", "moment", mom),
+        ("V", "shear", "force", frc),
+    ):
+        values = np.asarray(getattr(second, field), dtype=float)
+        same = sx.shape == x.shape and np.array_equal(sx, x)
+        columns.append((f"{name}_{suffix} [{unit}]", values if same else _at_rows(x, sx, values), kind))
     return columns
+
+
+def _at_rows(x, xp, fp, *, larger: bool = False) -> np.ndarray:
+    """Values `fp` at stations `xp` (a node with a jump listed twice, left side first), at the rows' `x`.
+
+    Linear between stations. At a position listed twice in `x` the first row takes the left side and the
+    second the right; at a position listed once in `x` but twice in `xp` (the other plane's node) the side of
+    the larger magnitude (or, with `larger`, the larger value), so that no peak is lost on the safe side.
+    """
+    x, xp, fp = (np.asarray(a, dtype=float) for a in (x, xp, fp))
+    right = np.interp(x, xp, fp)
+    left = np.interp(-x, -xp[::-1], fp[::-1])
+    first_of_pair = np.zeros(x.size, dtype=bool)
+    second_of_pair = np.zeros(x.size, dtype=bool)
+    twin = np.nonzero(np.diff(x) == 0)[0]
+    first_of_pair[twin], second_of_pair[twin + 1] = True, True
+    if larger:
+        either = np.maximum(left, right)
+    else:
+        either = np.where(np.abs(left) >= np.abs(right), left, right)
+    return np.where(first_of_pair, left, np.where(second_of_pair, right, either))
 
 
 #: The byte order mark that starts the CSV: spreadsheets read the file as UTF-8 with it (and as a legacy
@@ -96,6 +150,7 @@ def _metadata(result, U: Units) -> list:
         note = f"service check: {result.service.basis}"
         rows.append(("deflection utilisation [-]", csv_number(result.service.utilization), note))
     rows += _amplification_rows(result)
+    rows += _plane_and_route_rows(result, U)
     if result.bow is not None and result.bow.direction_governing:
         rows.append(("bow direction", bow_direction_text(result.bow, U)))
     rows.append(
@@ -106,6 +161,29 @@ def _metadata(result, U: Units) -> list:
         )
     )
     rows.append(("caution", general_caution(result)))
+    return rows
+
+
+def _plane_and_route_rows(result, U: Units) -> list:
+    """The metadata rows of the second plane (Pcr1, peaks) and of each route (utilisation, governing term)."""
+    from app.report import routes
+
+    rows = []
+    second = getattr(result, "second_plane", None)
+    if second is not None:
+        own, other = routes.plane_axes(result)
+        suffix = "y" if other == "major" else "z"
+        force, moment = U.label("force"), U.label("moment")
+        rows.append(("second plane", routes.plane_name(other), f"columns ending in _{suffix}"))
+        rows.append(
+            (f"Pcr1_{suffix} [{force}]", csv_number(U.convert("force", float(second.critical_loads[0]))))
+        )
+        peak = second.governing.moment
+        rows.append((f"max|M_{suffix}| [{moment}]", csv_number(U.convert("moment", abs(peak.value)))))
+    for row in routes.route_rows(result, U):
+        value = "" if row["value"] is None else csv_number(row["value"])
+        note = "; ".join(part for part in (row["governing"], row["status"], row["reason"]) if part)
+        rows.append((f"route {row['name']} [-]", value, note))
     return rows
 
 

@@ -28,6 +28,7 @@ from app.page.style import (
     finite,
     html_pane,
 )
+from app.report.routes import plane_axes, plane_name
 from app.state import MemberState
 from app.units import units
 
@@ -40,6 +41,9 @@ class DiagramsView(pn.viewable.Viewer):
     state = param.ClassSelector(class_=MemberState, doc="The page state: inputs (SI) and results.")
     show_transverse = param.Boolean(default=False, doc="Show the transverse force T beside the shear V.")
     variants = param.List(default=[], doc="The kept variants (dicts with a 'result'), overlaid muted.")
+    plane = param.Selector(
+        objects=["own", "second"], default="own", doc="The plane drawn: the case's own, or the second plane."
+    )
 
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
@@ -70,18 +74,34 @@ class DiagramsView(pn.viewable.Viewer):
             stylesheets=[WIDGET_CSS],
         )
         self.transverse_toggle.link(self, value="show_transverse")
+        self.plane_switch = pn.widgets.RadioButtonGroup(
+            options={"major": "own", "minor": "second"},
+            value="own",
+            color="light",
+            visible=False,
+            margin=(2, 4, 0, 4),
+            stylesheets=[WIDGET_CSS],
+        )
+        self.plane_switch.link(self, value="plane")
         self.panes = [pn.pane.Bokeh(self.sketch.figure, sizing_mode="stretch_width", margin=(0, 4))] + [
             pn.pane.Bokeh(fig, sizing_mode="stretch_both", min_height=fig.min_height, margin=(0, 4))
             for fig in (self.fig_w, self.fig_M, self.fig_V)
         ]
         self.panel = pn.Column(
-            pn.Row(self.key, self.transverse_toggle, margin=(2, 0, 0, 0), sizing_mode="stretch_width"),
+            pn.Row(
+                self.plane_switch,
+                self.key,
+                self.transverse_toggle,
+                margin=(2, 0, 0, 0),
+                sizing_mode="stretch_width",
+            ),
             *self.panes,
             name="Diagrams",
             sizing_mode="stretch_both",
             margin=0,
         )
         self.param.watch(self._transverse, ["show_transverse"])
+        self.param.watch(lambda *_: self.draw(full=True), ["plane"])
         self.param.watch(lambda *_: self.draw_variants(), ["variants"])
         state.param.watch(self._result, ["result"])
         state.param.watch(lambda *_: self.draw(full=True), ["units"])
@@ -206,6 +226,23 @@ class DiagramsView(pn.viewable.Viewer):
         result = self.state.result
         self.draw(full=result is None or result.case.without_axial_force() != self._drawn_case)
 
+    def shown(self):
+        """The result drawn: the state's, or its second plane's when that plane is chosen and exists."""
+        result = self.state.result
+        second = getattr(result, "second_plane", None)
+        return second if self.plane == "second" and second is not None else result
+
+    def _plane_switch(self, result) -> None:
+        """Offer the planes by their axes when the case has a second plane; hide the switch otherwise."""
+        two = getattr(result, "second_plane", None) is not None
+        own, other = plane_axes(result)
+        options = {f"plane: {plane_name(own)}": "own", plane_name(other): "second"}
+        if self.plane_switch.options != options:
+            self.plane_switch.options = options
+        self.plane_switch.visible = two
+        if not two and self.plane != "own":
+            self.plane = "own"
+
     def draw(self, full: bool) -> None:
         """Push the result into the sources; `full` also redraws what N does not change."""
         result = self.state.result
@@ -213,13 +250,17 @@ class DiagramsView(pn.viewable.Viewer):
             return
         U = units(self.state.units)
         with pn.io.hold():
+            self._plane_switch(result)
+            shown = self.shown()
+            second = shown is not result
             if full or self._drawn_case is None:
                 self._drawn_case = result.case.without_axial_force()
                 self.sketch.fit_range(result.case.length * U.length.factor)
                 self._axis_labels(U)
                 self.sketch.draw()
                 self.draw_variants()
-            self._draw_stations(result, U)
+                self.panes[0].visible = not second  # the sketch shows the loads of the case's own plane
+            self._draw_stations(shown, U)
             self.sketch.draw_force()
 
     def _axis_labels(self, U) -> None:
@@ -297,8 +338,9 @@ class DiagramsView(pn.viewable.Viewer):
     def draw_variants(self) -> None:
         """Overlay the kept variants, muted, and list them in the key."""
         U = units(self.state.units)
+        hidden = self.plane == "second" and self.shown() is not self.state.result
         for i, source in enumerate(self.variant_sources):
-            if i < len(self.variants):
+            if i < len(self.variants) and not hidden:
                 r = self.variants[i]["result"]
                 source.data = {
                     "x": np.asarray(r.x) * U.length.factor,
@@ -309,11 +351,14 @@ class DiagramsView(pn.viewable.Viewer):
             else:
                 source.data = {"x": [], "w": [], "M": [], "V": []}
             for kind in ("w", "M", "V"):
-                self.renderers[kind]["variants"][i].visible = i < len(self.variants)
+                self.renderers[kind]["variants"][i].visible = i < len(self.variants) and not hidden
         self._draw_key()
 
     def _draw_key(self) -> None:
-        parts = [
+        parts = []
+        if self.plane == "second" and self.shown() is not self.state.result:
+            parts.append(f"<b>second plane, {esc(plane_name(plane_axes(self.state.result)[1]))}</b>")
+        parts += [
             f"<i style='border-top: 3px solid {SECOND}'></i>second order",
             f"<i style='border-top: 2px dashed {FIRST}'></i>first order",
             f"<i style='border-top: 2px dotted {BOW}'></i>bow w0",

@@ -131,6 +131,10 @@ _FIELD_WORDS = {
     "check": "Check",
     "out_of_plane": "Out of plane",
     "loads": "Loads",
+    "second_plane": "Second plane",
+    "second_plane.supports.left": "Second plane, left end",
+    "second_plane.supports.right": "Second plane, right end",
+    "second_plane.loads": "Second plane, loads",
 }
 _LOAD_FIELD_WORDS = {
     "x": "position",
@@ -143,14 +147,15 @@ _LOAD_FIELD_WORDS = {
     "end": "to",
     "type": "type",
 }
-_LOAD_PATH = re.compile(r"^loads\[(\d+)\](?:\.(\w+))?$")
+_LOAD_PATH = re.compile(r"^(?:second_plane\.)?loads\[(\d+)\](?:\.(\w+))?$")
 
 
 def field_words(path: str) -> str:
     """The page's name for a field path of the engine: ``loads[1].x`` is "Load 2, position"."""
     match = _LOAD_PATH.match(path)
     if match:
-        words = f"Load {int(match.group(1)) + 1}"
+        plane = "Second plane, load" if path.startswith("second_plane.") else "Load"
+        words = f"{plane} {int(match.group(1)) + 1}"
         key = match.group(2)
         return words if key is None else f"{words}, {_LOAD_FIELD_WORDS.get(key, key)}"
     if path in _FIELD_WORDS:

@@ -14,7 +14,7 @@ import param
 
 from app.intake import clean_text
 from app.page.fields import ErrorPanes, UnitNumber
-from app.page.loads import LoadsView
+from app.page.plane_inputs import PlaneLoadsView, RouteSettingsView
 from app.page.style import (
     BOW_SHAPE_LABELS,
     DIMENSION_LABELS,
@@ -48,11 +48,13 @@ class InputsView(pn.viewable.Viewer):
         self.errors = errors
         self.numbers: dict[str, UnitNumber] = {}
         self.choices: dict[str, pn.widgets.Select] = {}
-        self.loads = LoadsView(state)
+        self.planes = PlaneLoadsView(state, errors)
+        self.loads = self.planes.loads  # the loads of the plane analysed
+        self.route_settings = RouteSettingsView(state)
         tabs = [
             self._member_tab(),
             self._section_tab(),
-            ("Loads", self.loads),
+            ("Loads", self.planes),
             self._bow_tab(),
             self._check_tab(),
         ]
@@ -306,6 +308,7 @@ class InputsView(pn.viewable.Viewer):
             self.errors.pane("check"),
             self.errors.pane("out_of_plane"),
             self.check_facts,
+            self.route_settings,
             pn.Row(self.prepared_input, self.checked_input, margin=0),
         )
 
@@ -387,6 +390,9 @@ class InputsView(pn.viewable.Viewer):
         for key, widget in self.dimension_inputs.items():
             widget.visible = key in SECTION_DIMENSIONS.get(shape, ())
         self.manufacture_select.visible = shape in ("rhs", "chs")
+        # A second plane makes the out-of-plane check with its own supports and bow (issue 14).
+        self.out_of_plane_select.disabled = state.plane2
+        self.out_of_plane_input.disabled = state.plane2
         custom = state.material_from == "custom"
         self.material_select.visible = not custom
         self.material_E_input.visible = custom

@@ -37,8 +37,10 @@ def row_fields(kind: str | None) -> list[tuple[str, str, str | None]]:
 class LoadRow:
     """The widgets of one load row: its type, its remove button, its number fields and its error pane."""
 
-    def __init__(self, state: MemberState, index: int, kind: str | None, errors: ErrorPanes) -> None:
-        self.index, self.type = index, kind
+    def __init__(
+        self, state: MemberState, index: int, kind: str | None, errors: ErrorPanes, field: str = "loads"
+    ) -> None:
+        self.index, self.type, self.field = index, kind, field
         self.type_select = pn.widgets.Select(
             label="",
             options={v: k for k, v in LOAD_LABELS.items()},
@@ -56,13 +58,13 @@ class LoadRow:
             stylesheets=[WIDGET_CSS],
             description=f"remove load {index + 1}",
         )
-        self.remove_button.on_click(lambda *_: state.remove_load(index))
+        self.remove_button.on_click(lambda *_: state.remove_load(index, field=field))
         self.fields = {
             key: UnitNumber(
                 text,
                 unit_kind,
                 get=partial(self._value, state, key),
-                put=lambda value, key=key: state.set_load(index, **{key: value}),
+                put=lambda value, key=key: state.set_load(index, field=field, **{key: value}),
                 system=lambda: state.units,
                 width=68,
                 margin=(0, 3),
@@ -70,7 +72,7 @@ class LoadRow:
             )
             for key, text, unit_kind in row_fields(kind)
         }
-        self.error = errors.pane(f"loads[{index}]")
+        self.error = errors.pane(f"{_PATHS[field]}[{index}]")
         self.panel = pn.Column(
             pn.Row(
                 html_pane(f"<div class='ss-heading'>Load {index + 1}</div>", width=66, margin=(8, 2, 0, 4)),
@@ -85,12 +87,12 @@ class LoadRow:
         )
 
     def _value(self, state: MemberState, key: str):
-        loads = state.loads
+        loads = getattr(state, self.field)
         return loads[self.index].get(key) if self.index < len(loads) else None
 
     def _type_chosen(self, state: MemberState, event) -> None:
-        if event.new is not None and event.new != state.loads[self.index].get("type"):
-            state.set_load(self.index, type=event.new)
+        if event.new is not None and event.new != getattr(state, self.field)[self.index].get("type"):
+            state.set_load(self.index, field=self.field, type=event.new)
 
     def show(self) -> None:
         """Show the row's load in its fields, in display units."""
@@ -98,13 +100,22 @@ class LoadRow:
             field.show()
 
 
+#: The engine's field path of each loads list of the state.
+_PATHS = {"loads": "loads", "plane2_loads": "second_plane.loads"}
+
+
 class LoadsView(pn.viewable.Viewer):
-    """The loads tab: an add control, a row per load (the first :data:`MAX_LOAD_ROWS`) and a note."""
+    """The loads tab: an add control, a row per load (the first :data:`MAX_LOAD_ROWS`) and a note.
+
+    `field` is the state's list it edits: ``loads`` (the plane analysed) or ``plane2_loads`` (the second).
+    """
 
     state = param.ClassSelector(class_=MemberState, doc="The page state: inputs (SI) and results.")
+    field = param.Selector(objects=list(_PATHS), default="loads", doc="The state's loads list shown.")
 
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
+        field = self.field
         self.errors = ErrorPanes(state)
         self.rows: list[LoadRow] = []
         self._generation = 0
@@ -120,12 +131,12 @@ class LoadsView(pn.viewable.Viewer):
         self.add_button = pn.widgets.Button(
             label="+ Add load", color="primary", width=110, margin=(22, 5, 5, 5), stylesheets=[WIDGET_CSS]
         )
-        self.add_button.on_click(lambda *_: self.state.add_load(self.add_type.value))
+        self.add_button.on_click(lambda *_: self.state.add_load(self.add_type.value, field=field))
         self.note = html_pane()
         own_errors = ErrorPanes(state)
         self.panel = pn.Column(
             pn.Row(self.add_type, self.add_button, margin=0),
-            own_errors.pane("loads", exact=True),
+            own_errors.pane(_PATHS[field], exact=True),
             self.column,
             self.note,
             name="Loads",
@@ -133,7 +144,7 @@ class LoadsView(pn.viewable.Viewer):
             scroll=True,
         )
         self._own_errors = own_errors
-        state.param.watch(self._changed, ["loads", "length", "units"])
+        state.param.watch(self._changed, [field, "length", "units"])
         state.param.watch(lambda *_: self.show_errors(), ["errors"])
         self.sync()
 
@@ -151,15 +162,16 @@ class LoadsView(pn.viewable.Viewer):
     def sync(self) -> None:
         """Rebuild the rows if the load types changed; show every load's values and the note."""
         state = self.state
-        loads = state.loads[:MAX_LOAD_ROWS]
+        every = getattr(state, self.field)
+        loads = every[:MAX_LOAD_ROWS]
         if [load.get("type") for load in loads] != self._types:
             self._build(loads)
         for row in self.rows:
             row.show()
-        hidden = len(state.loads) - len(loads)
+        hidden = len(every) - len(loads)
         self.note.object = (
             (
-                f"<div class='ss-note'>Loads {MAX_LOAD_ROWS + 1} to {len(state.loads)} are analysed and "
+                f"<div class='ss-note'>Loads {MAX_LOAD_ROWS + 1} to {len(every)} are analysed and "
                 f"drawn but not listed here (the page lists the first {MAX_LOAD_ROWS}): edit them in the "
                 "case file.</div>"
                 if hidden
@@ -180,7 +192,8 @@ class LoadsView(pn.viewable.Viewer):
         runner = self.state.runner
         now = len(loads) if runner is None else min(len(loads), ROWS_AT_ONCE)
         self.rows = [
-            LoadRow(self.state, index, loads[index].get("type"), self.errors) for index in range(now)
+            LoadRow(self.state, index, loads[index].get("type"), self.errors, self.field)
+            for index in range(now)
         ]
         self.column.objects = [row.panel for row in self.rows]
         if now < len(loads):
@@ -191,12 +204,12 @@ class LoadsView(pn.viewable.Viewer):
 
     def _append_later(self, runner, start: int, generation: int) -> None:
         def append() -> None:
-            loads = self.state.loads[:MAX_LOAD_ROWS]
+            loads = getattr(self.state, self.field)[:MAX_LOAD_ROWS]
             if generation != self._generation:
                 return  # the rows were built again since
             with pn.io.hold():
                 rows = [
-                    LoadRow(self.state, i, loads[i].get("type"), self.errors)
+                    LoadRow(self.state, i, loads[i].get("type"), self.errors, self.field)
                     for i in range(start, len(loads))
                 ]
                 self.rows.extend(rows)

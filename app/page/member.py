@@ -22,6 +22,7 @@ from app.page.force import ForceControl
 from app.page.inputs import InputsView
 from app.page.modes import ModesView
 from app.page.results import CautionsView, ValuesView
+from app.page.routes import RoutesChart, RoutesView
 from app.page.style import WIDGET_CSS, esc, html_pane
 from app.page.variants import VariantsView
 from app.state import MemberState
@@ -62,9 +63,11 @@ class MemberPage(pn.viewable.Viewer):
         self._later = {
             1: lambda: AmplificationView(state),
             2: lambda: ModesView(state, self.diagrams.x_range),
+            4: lambda: RoutesChart(state),
         }
         self._holders = {index: pn.Column(sizing_mode="stretch_both", margin=0) for index in self._later}
         self._built: dict[int, pn.viewable.Viewer] = {}
+        self.routes = RoutesView(state)
         self.values = ValuesView(state)
         self.cautions = CautionsView(state)
         self.variants.param.watch(lambda event: setattr(self.diagrams, "variants", event.new), ["kept"])
@@ -139,6 +142,11 @@ class MemberPage(pn.viewable.Viewer):
         """The buckling modes' view (built now if its tab was never shown)."""
         return self._view(2)
 
+    @property
+    def routes_chart(self) -> RoutesChart:
+        """The routes-against-N figure's view (built now if its tab was never shown)."""
+        return self._view(4)
+
     def _view(self, index: int):
         if index in self._later and index not in self._built:
             self._built[index] = view = self._later[index]()
@@ -196,6 +204,7 @@ class MemberPage(pn.viewable.Viewer):
             ("Amplification", self._holders[1]),
             ("Buckling modes", self._holders[2]),
             ("Variants", self.variants),
+            ("Routes", self._holders[4]),
             dynamic=True,  # only the shown tab is built and sent: the first page draws sooner
             sizing_mode="stretch_both",
             margin=0,
@@ -214,6 +223,7 @@ class MemberPage(pn.viewable.Viewer):
             styles={"background": "#ffffff"},
         )
         right = pn.Column(
+            self.routes,
             self.values,
             self.cautions,
             width=350,

@@ -9,7 +9,7 @@ import param
 
 from app.page.style import LEVEL_NAMES, esc, heading, html_pane
 from app.page.words import symbols, values_table
-from app.report import caution_text, general_caution
+from app.report import caution_text, general_caution, route_rows
 from app.state import MemberState
 from app.units import units
 
@@ -81,6 +81,7 @@ class CautionsView(pn.viewable.Viewer):
             return
         U = units(self.state.units)
         cautions = tuple((c.level, c.code, caution_text(c, U), c.source) for c in result.cautions)
+        cautions += route_notes(result, U)
         if cautions == self._shown:
             return
         self._shown = cautions
@@ -101,3 +102,22 @@ class CautionsView(pn.viewable.Viewer):
         self.heading.object = f"<div class='ss-heading'>Cautions{' — ' + summary if summary else ''}</div>"
         self.list.object = "<ul class='ss-cautions'>" + "".join(item(*c) for c in others) + "</ul>"
         self.general.object = "<ul class='ss-cautions general'>" + item(*general[0]) + "</ul>"
+
+
+def route_notes(result, U) -> tuple:
+    """The routes' notes as cautions (level, code, words, source), each once, named by its route."""
+    seen, notes = set(), []
+    # The engine's own route cautions (issue 14) say these: the lateral-torsional notes join its LTB warning.
+    said = {c.code for c in result.cautions} | {"chi-LT-1", "LTB-not-checked"}
+    for row in route_rows(result, U):
+        route = next(r for r in result.routes if r.route == row["route"])
+        for code, (level, words) in zip(route.notes, row["notes"], strict=True):
+            if code in said:
+                continue
+            if words in seen:
+                continue
+            seen.add(words)
+            notes.append(
+                (level, f"route-{row['route']}", f"{row['name']}: {words}", row["source"] or row["name"])
+            )
+    return tuple(notes)

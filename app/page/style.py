@@ -110,6 +110,14 @@ table.ss-values td.v { font-weight: 600; }
 table.ss-values td.f { color: var(--ss-muted); }
 table.ss-values tr.danger td.v { color: #a3261b; }
 table.ss-values tr.warn td.v { color: #8a5a00; }
+table.ss-routes { border-collapse: collapse; width: 100%; table-layout: fixed; font-size: 12.5px;
+                  line-height: 1.2; }
+table.ss-routes col.q { width: 42%; } table.ss-routes col.v { width: 36%; }
+table.ss-routes col.f { width: 22%; }
+table.ss-routes td { padding: 1px 3px; vertical-align: top; overflow-wrap: anywhere; }
+table.ss-routes td.q, table.ss-routes td.f { color: var(--ss-muted); }
+table.ss-routes td.v { font-weight: 600; }
+table.ss-routes tr.danger td.v { color: #a3261b; }
 ul.ss-cautions { list-style: none; padding: 0; margin: 0; font-size: 12.5px; line-height: 1.3; }
 ul.ss-cautions li { padding: 3px 4px 4px 7px; margin-bottom: 3px; border-left: 4px solid #35506b;
                     background: #f4f6f8; }

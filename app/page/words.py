@@ -12,6 +12,7 @@ import re
 
 from app.page.style import esc
 from app.report import SYMBOLS, bow_direction_text, bow_text, percent, quoted_text, ratio, reaction_rows
+from app.report.routes import governing_text, plane_axes, plane_name
 from engine.codes import alpha_cr_limit
 
 __all__ = [
@@ -107,7 +108,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             row(
                 "capacity N",
                 U.show("force", capacity.axial_force),
-                capacity.check,
+                governing_text(capacity.check),
                 False,
                 result.axial_force > capacity.axial_force,
             )
@@ -131,6 +132,19 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
     head("Reactions (what each support exerts)")
     for end, force, couple in reaction_rows(result, U):
         row(end, force, couple)
+    second = getattr(result, "second_plane", None)
+    if second is not None:
+        own, other = plane_axes(result)
+        head(f"Second plane · {plane_name(other)}")
+        row("Pcr1", U.show("force", second.critical_loads[0]), "second plane")
+        for label, field, kind in (
+            ("max |w + w0|", "total_offset", "small_length"),
+            ("max |M|", "moment", "moment"),
+            ("max |V|", "shear", "force"),
+        ):
+            peak = getattr(second.governing, field)
+            where = f" @ {U.show('length', peak.x)}" if math.isfinite(peak.value) else ""
+            row(label, f"{U.show(kind, peak.magnitude)}{where}", "", second.status != "stable")
     head("Buckling")
     pcr = result.critical_loads
     row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")

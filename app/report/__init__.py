@@ -14,6 +14,9 @@ The public API (every function takes SI values or engine objects and a :class:`a
 - cautions: :func:`caution_text` (a caution in the display units), :func:`general_caution`,
   :func:`source_text` (a source without strutscope's reliability flags, for the calc sheet),
   :func:`quoted_text` (quantities quoted from an SI source, in the display units);
+- routes and planes (in :mod:`app.report.routes`): :func:`route_rows`, :func:`route_name`,
+  :func:`headline_route`, :func:`headline_text`, :func:`governing_text`, :func:`facts_text`,
+  :func:`plane_name`, :func:`plane_axes`, :func:`second_plane_rows`;
 - the printed summary: :func:`format_summary`.
 """
 
@@ -26,6 +29,17 @@ from app.report.numbers import (
     ratio,
     scientific,
     utilisation,
+)
+from app.report.routes import (
+    facts_text,
+    governing_text,
+    headline_route,
+    headline_text,
+    plane_axes,
+    plane_name,
+    route_name,
+    route_rows,
+    second_plane_rows,
 )
 from app.report.summary import format_summary
 from app.report.words import (
@@ -59,6 +73,15 @@ from app.report.words import (
 )
 
 __all__ = [
+    "second_plane_rows",
+    "route_rows",
+    "route_name",
+    "plane_name",
+    "plane_axes",
+    "headline_text",
+    "headline_route",
+    "governing_text",
+    "facts_text",
     "REACTIONS_NOTE",
     "SYMBOLS",
     "alpha_text",

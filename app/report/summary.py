@@ -2,8 +2,10 @@
 
 from __future__ import annotations
 
+from app.report import routes as r
 from app.report import words as w
 from app.report.numbers import percent, position, ratio, scientific, utilisation
+from app.report.route_names import governing_text
 from app.safe_text import terminal
 from app.units import units as display_units
 
@@ -118,6 +120,7 @@ def _check_lines(add, result, U) -> None:
             add(f"  out of plane: {w.out_of_plane_text(out, U)}")
         if check.section_class is not None:
             add(f"  section:      {check.section_class.describe()}")
+    _routes_lines(add, result, U)
     service = result.service
     if service is not None:
         add("")
@@ -127,6 +130,49 @@ def _check_lines(add, result, U) -> None:
     elif result.utilization is not None:
         add("")
         add(f"Member check: utilisation {utilisation(result.utilization)}")
+
+
+def _plane_lines(add, result, U) -> None:
+    """The second bending plane, when the case has one: its critical load and governing values."""
+    rows = r.second_plane_rows(result, U)
+    if not rows:
+        return
+    own, other = r.plane_axes(result)
+    add("")
+    add(f"Second plane: bending about the {r.plane_name(other)} (the values above: {r.plane_name(own)})")
+    second = result.second_plane.case
+    add(f"  supports:     left {w.support_text(second.left, U)}; right {w.support_text(second.right, U)}")
+    for i, load in enumerate(second.loads):
+        add(f"  {'loads:' if i == 0 else '':<14}{w.load_text(load, second.length, U)}")
+    add(f"  initial bow:  {w.bow_text(result.second_plane, U)}")
+    for label, text in rows:
+        add(f"  {label:<22}{text}")
+
+
+def _routes_lines(add, result, U) -> None:
+    """The routes of the member check side by side, the headline first in words."""
+    rows = r.route_rows(result, U)
+    if not rows:
+        return
+    add("")
+    add("Routes (each a published way of checking the member; the headline is the worst enabled one)")
+    for row in rows:
+        term = f", {row['governing']}" if row["governing"] else ""
+        status = {"headline": "headline", "counts": "enabled", "for comparison": "for comparison"}[
+            row["status"]
+        ]
+        add(f"  {row['name'] + ':':<44}{row['utilisation']}{term} [{status}]")
+        if row["reason"]:
+            add(f"      not applied: {row['reason']}")
+        if row["facts"]:
+            add(f"      {row['facts']}")
+        for level, words in row["notes"]:
+            add(f"      [{level}] {words}")
+        if row["source"]:
+            add(f"      source: {row['source']}")
+    headline = r.headline_text(result)
+    if headline:
+        add(f"  headline utilisation: {headline}")
 
 
 def format_summary(source: str, case, result, units: str = "si", capacity=None) -> str:
@@ -155,17 +201,19 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     add = lines.append
     _case_lines(add, source, case, result, U)
     _results_lines(add, result, U)
+    _plane_lines(add, result, U)
     _check_lines(add, result, U)
     if capacity is not None:
         add("")
         add(f"Capacity ({capacity.mode}: the largest axial compression at strength utilisation 1)")
         where = "" if capacity.x is None else f" at x = {position(U, capacity.x)}"
-        add(f"  axial force:  N = {U.show('force', capacity.axial_force, 5)} ({capacity.check}{where})")
+        check = governing_text(capacity.check)
+        add(f"  axial force:  N = {U.show('force', capacity.axial_force, 5)} ({check}{where})")
         add(
             f"  load factor:  {ratio(capacity.load_factor)} on the given axial force; "
             f"Pcr1 = {U.show('force', capacity.critical_load, 5)}"
         )
-        add(f"  {w.capacity_text(capacity, U)}")
+        add(f"  {w.capacity_text(capacity, U, result)}")
     add("")
     add("Cautions")
     for caution in result.cautions:

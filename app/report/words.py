@@ -17,6 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
+from app.report.route_names import NOTES, REASONS, governing_text, route_name
 from app.units import Units, units
 
 __all__ = [
@@ -330,13 +331,13 @@ def _couple(U: Units, anticlockwise: float) -> str:
 def utilisation_text(result, U: Units) -> str | None:
     """The governing (headline) utilisation, its check and where; None without a check. When a route other
     than the second-order check sets the headline (engine issue 14: the largest enabled route), it is named
-    with its governing term, e.g. ``0.468 (en-member, eq-6.62)``."""
+    with its governing term, e.g. ``0.468 (EN 1993-1-1 equivalent member (Annex B), eq. (6.62))``."""
     check = result.check
     applied = [r for r in getattr(result, "routes", ()) if r.enabled and r.utilization is not None]
     top = max(applied, key=lambda r: r.utilization) if applied else None
     if top is not None and top.route != "second-order" and top.utilization == result.utilization:
         fails = " fails" if math.isinf(top.utilization) else ""
-        return f"{ratio(top.utilization)}{fails} ({top.route}, {top.governing})"
+        return f"{ratio(top.utilization)}{fails} ({route_name(top, result)}, {governing_text(top.governing)})"
     if check is not None:
         where = f" at x = {position(U, check.x)}" if finite(check.x) else ""
         fails = " fails" if math.isinf(check.utilization) else ""
@@ -372,8 +373,8 @@ def service_text(service, U: Units) -> str:
     )
 
 
-def capacity_text(capacity, U: Units) -> str:
-    """What governs the axial capacity, in the display units."""
+def capacity_text(capacity, U: Units, result=None) -> str:
+    """What governs the axial capacity, in the display units (`result` names the route's Annex or method)."""
     force = U.show("force", capacity.axial_force, 5)
     check = capacity.check
     if check == "elastic buckling":
@@ -386,8 +387,11 @@ def capacity_text(capacity, U: Units) -> str:
     if check in ("transverse loads alone", "class 4 section"):
         return capacity.message  # no quantity with a unit in these
     route = getattr(capacity, "route", "second-order")
-    if route != "second-order":  # the en-member or aisc route sets the headline (engine issue 14)
-        return f"The {route} route governs: utilisation 1 by {check} at N = {force}."
+    if route != "second-order":
+        return (
+            f"The route {route_name(route, result)} governs: utilisation 1 by {governing_text(check)} at "
+            f"N = {force}."
+        )
     where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
     return f"Strength governs: utilisation 1 by {check}{where}."
 
@@ -418,12 +422,50 @@ def _out_of_plane_buckling(v: dict, U: Units) -> str:
     )
 
 
-# The cautions whose message quotes a quantity with a unit, worded here from the engine's SI values; every
-# other caution's message holds no unit and is shown as the engine words it.
+def _out_of_plane_checked(v: dict, U: Units) -> str:
+    return (
+        f"Out-of-plane flexural buckling checked: N/N_b,Rd = {v['utilization']:.3f} <= 1, "
+        f"{_out_of_plane_facts(v, U)}."
+    )
+
+
+def _route_reason(code: str) -> str:
+    if code.startswith("material-"):
+        return f"not a steel member ({code.removeprefix('material-')}): the route is for steel"
+    return REASONS.get(code, code.replace("-", " "))
+
+
+def _route_not_applied(v: dict, U: Units) -> str:
+    return f"The route {route_name(v.get('route', ''))} is not applied: {_route_reason(v.get('reason', ''))}."
+
+
+def _route_note(code: str):
+    def word(v: dict, U: Units) -> str:
+        return f"{route_name(v.get('route', ''))}: {NOTES.get(code, ('', code))[1]}."
+
+    return word
+
+
+def _routes_disagree(v: dict, U: Units) -> str:
+    found = v.get("utilizations") or {}
+    listed = ", ".join(f"{route_name(code)} {ratio(value)}" for code, value in found.items())
+    return (
+        f"The routes' utilisations differ by {100.0 * float(v.get('spread', 0.0)):.0f} % ({listed}): "
+        "their assumptions differ (bow and second-order analysis, or equivalent member factors)."
+    )
+
+
+# The cautions whose message quotes a quantity with a unit (or an engine code), worded here from the engine's
+# values; every other caution's message holds neither and is shown as the engine words it.
 _WORDED = {
+    "route-not-applied": _route_not_applied,
+    "chi-LT-1": _route_note("chi-LT-1"),
+    "LTB-not-checked": _route_note("LTB-not-checked"),
+    "routes-disagree": _routes_disagree,
     "deflection": _deflection,
     "bow-below-code": _bow_below_code,
     "out-of-plane-buckling": _out_of_plane_buckling,
+    "out-of-plane-checked": _out_of_plane_checked,
 }
 
 
@@ -485,4 +527,8 @@ def caution_text(caution, U: Units | str = "si") -> str:
     values = getattr(caution, "values", None)
     if word is None or not values:
         return caution.message
-    return word(values, U)
+    text = word(values, U)
+    if values.get("plane") == 2:
+        # A two-plane case's caution about its second plane: the engine's message opens with the plane.
+        text = f"Second plane (bending about the {values.get('axis', 'other')} axis): {text}"
+    return text

@@ -511,3 +511,33 @@ def test_example_table_in_assets_runs_with_its_marked_bad_rows(tmp_path):
     marked = ["error" if "deliberately bad" in r["comment"].lower() else "ok" for r in rows]
     assert [r["status"] for r in got] == marked
     assert marked.count("error") >= 3
+
+
+def test_route_and_second_plane_cells():
+    """The batch writes the headline route, each route's utilisation and term, the second plane's values."""
+    import dataclasses
+
+    from app.batch.solving import _route_cells, _second_plane_cells
+    from tests.app.test_routes_exports import ROUTES
+
+    case = engine.Case.from_dict({"schema": 1, **GOOD["G3"][1]})
+    result = engine.solve(case)
+    plain = dataclasses.replace(result, routes=(), second_plane=None)
+    assert _route_cells(plain) == [""] * 7 and _second_plane_cells(plain, 1e-3, 1e-3) == ["", ""]
+    both = dataclasses.replace(result, routes=ROUTES, second_plane=result)
+    assert _route_cells(both) == ["en-member", "0.812", "cross-section", "0.903", "eq-6.62", "0.951", "H1-1a"]
+    pcr, moment = _second_plane_cells(both, 1e-3, 1e-3)
+    assert float(pcr) == pytest.approx(result.critical_loads[0] / 1e3, rel=1e-12)
+    assert float(moment) == pytest.approx(abs(result.governing.moment.value) / 1e3, rel=1e-12)
+    columns = batch.result_columns("us")
+    assert columns[-9:] == (
+        "headline_route",
+        "utilization_second_order",
+        "governing_second_order",
+        "utilization_en_member",
+        "governing_en_member",
+        "utilization_aisc",
+        "governing_aisc",
+        "second_plane_Pcr1_kip",
+        "second_plane_M_max_kip_ft",
+    )

@@ -208,6 +208,9 @@ SUMMARY_KEYS = {
     "cautions",
     "bow_direction",
     "service",
+    "second_plane",
+    "routes",
+    "headline_route",
 }
 
 # 1 kip = 1000 lbf = 4448.2216152605 N, exact by definition (NIST SP 811 (2008) Appendix B; from memory).

@@ -93,7 +93,9 @@ def test_batch_marks_a_member_above_critical(tmp_path):
         rows = {row["id"]: row for row in csv.DictReader(stream)}
     assert rows["over"]["utilization"] == "inf" and rows["over"]["stability"] == "unstable"
     assert rows["over"]["governing_check"] == "elastic buckling"
-    assert float(rows["post"]["out_of_plane_utilization"]) == float(rows["post"]["utilization"])
+    # Issue 14: out of plane governs the second-order route; the headline is the worst route counted.
+    assert float(rows["post"]["out_of_plane_utilization"]) == float(rows["post"]["utilization_second_order"])
+    assert float(rows["post"]["utilization"]) >= float(rows["post"]["utilization_second_order"])
     assert abs(float(rows["post"]["out_of_plane_utilization"]) - 0.4226) < 5e-4  # the demo's N/N_b,z,Rd
     assert float(rows["post"]["capacity_kN"]) < 830  # N_b,z,Rd = 828 kN caps the capacity
     assert rows["braced"]["out_of_plane_utilization"] == ""
@@ -162,7 +164,7 @@ def test_calc_sheet_states_the_definitions():
 
     reader = pypdf.PdfReader(io.BytesIO(pdf_bytes(engine.solve(demo_case()))))
     text = " ".join(" ".join(page.extract_text() for page in reader.pages).split())
-    assert len(reader.pages) == 2
+    assert 2 <= len(reader.pages) <= 4  # the routes (issue 14) may take a second text page
     assert "N/N_b,Rd = 0.423 about the minor axis" in text
     assert "EN 1993-1-1 Table 5.2" in text and "e0·N_cr/(EI·|η''|max)" in text
 

@@ -62,6 +62,14 @@ CASES = {
         "axial_force": 50e3,
     },
     "tension": {"axial_force": -200e3},
+    # Issue 14: a second plane (its cautions carry the plane), bending about the minor axis (invented loads).
+    "two planes": {
+        "second_plane": {
+            "supports": {"left": "pinned", "right": "fixed"},
+            "loads": [{"type": "point", "P": 3e3, "x": 2.0}, {"type": "uniform", "q": 4e3}],
+        },
+        "check": {"method": "elastic", "deflection_limit": 1000},
+    },
     "beyond the first critical load": {"axial_force": 4000e3},
 }
 
@@ -170,6 +178,7 @@ def test_page_text_speaks_one_system(solved, system):
         page.inputs.section_facts,
         page.inputs.bow_facts,
         page.inputs.check_facts,
+        page.routes.block,  # issue 14: the routes and the planes line
     )
     text = html.unescape(re.sub(r"<[^>]+>", " ", " ".join(str(pane.object) for pane in panes)))
     assert "kN" in text or system == "us"  # the scan reads real values, not an empty page

@@ -1,0 +1,103 @@
+"""The names of the routes of the member check and of their governing terms (no other import: the words of
+the capacity and the routes' own module both use them)."""
+
+from __future__ import annotations
+
+__all__ = ["NOTES", "REASONS", "TERMS", "governing_text", "route_name", "route_setting"]
+
+#: The routes' names; the ``{annex}`` and ``{method}`` come from the case's check settings.
+_NAMES = {
+    "second-order": "second order + cross-section",
+    "en-member": "EN 1993-1-1 equivalent member (Annex {annex})",
+    "aisc": "AISC 360-16 ({method})",
+}
+
+#: The governing terms' names, by the engine's code.
+TERMS = {
+    "eq-6.61": "eq. (6.61)",
+    "eq-6.62": "eq. (6.62)",
+    "H1-1a": "H1-1a",
+    "H1-1b": "H1-1b",
+    "cross-section": "cross-section",
+    "shear": "shear",
+    "out-of-plane": "out-of-plane buckling",
+    "out-of-plane-buckling": "out-of-plane buckling",
+    "flexural-buckling-y": "flexural buckling, major axis",
+    "flexural-buckling-z": "flexural buckling, minor axis",
+    "flexural-buckling": "flexural buckling",
+    "biaxial": "biaxial cross-section",
+    "elastic-buckling": "elastic buckling",
+    "class-4": "class 4 section",
+    "compression": "compression alone",
+    "E3": "§E3 compression",
+}
+
+
+def route_setting(result, name: str, default: str) -> str:
+    """One of the case's check settings (``annex``, ``aisc_method``), or `default` when it has none."""
+    settings = getattr(getattr(result, "case", None), "check", None)
+    value = getattr(settings, name, None)
+    return value if isinstance(value, str) and value else default
+
+
+def route_name(route, result=None) -> str:
+    """A route's name, e.g. ``"EN 1993-1-1 equivalent member (Annex B)"`` (`result` gives the Annex and the
+    AISC method; without it the name has neither); `route` a code or a RouteCheck."""
+    code = getattr(route, "route", route)
+    template = _NAMES.get(code, code)
+    if result is None:  # no settings to name the Annex or the method by: the route alone
+        return template.split(" (")[0] if "{" in template else template
+    return template.format(
+        annex=route_setting(result, "annex", "B"), method=route_setting(result, "aisc_method", "LRFD")
+    )
+
+
+def governing_text(code: str) -> str:
+    """A governing term's name, e.g. ``"eq. (6.62)"``; an unknown code with its hyphens as spaces."""
+    if not code:
+        return ""
+    return TERMS.get(code, code.replace("-", " "))
+
+
+#: The route notes: code → (level, words). Every note is a caution about what the route does not cover.
+NOTES = {
+    "chi-LT-1": (
+        "warning",
+        "χ_LT = 1 taken: lateral-torsional buckling is not checked; right only where it cannot occur (a "
+        "closed section, minor-axis bending, a compression flange braced along its length)",
+    ),
+    "LTB-not-checked": (
+        "warning",
+        "lateral-torsional buckling (AISC 360-16 §F2.2, unbraced length L_b) is not checked",
+    ),
+    "aisc-shear-not-checked": ("info", "shear (Chapter G) is not checked on this route"),
+    "aisc-noncompact": ("info", "a noncompact element: M_n by the flange local buckling limit (§F3)"),
+    "aisc-tension-yielding": ("info", "tension: P_c is tension yielding, §D2(a)"),
+    "en-member-cross-section-only": (
+        "info",
+        "no compression: eqs. (6.61)/(6.62) do not apply, only the cross-section checks",
+    ),
+    "annex-A-lambda-0": ("info", "Annex A: λ̄_0 from the critical moment taken as for χ_LT = 1"),
+    "one-plane": (
+        "info",
+        "one bending plane: the other axis carries no moment, only the axial force (flexural buckling)",
+    ),
+    "out-of-plane-restrained": (
+        "info",
+        "buckling about the other axis is taken as prevented (as the case says)",
+    ),
+    "no-torsion": ("info", "torsional and flexural-torsional buckling are not checked"),
+    "class-4": ("danger", "class 4 section: the route does not apply"),
+    "not-steel": ("info", "not a steel member: the route does not apply"),
+    "custom-section": ("info", "a custom section: the route's buckling curve is not known"),
+}
+
+
+#: Why a route was not applied, by the engine's code.
+REASONS = {
+    "section-not-classified": "the section has no class (EN 1993-1-1 Table 5.2): the route needs one",
+    "section-class-4": "a class 4 section: the route does not cover effective sections",
+    "custom-section": "a custom section: its buckling curve and classes are not known",
+    "slender-element-compression": "a slender element in compression (AISC 360-16 §E7, not covered)",
+    "slender-element-flexure": "a slender element in flexure (AISC 360-16 §F, not covered)",
+}

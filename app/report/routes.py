@@ -1,0 +1,274 @@
+"""The routes of the member check and the second bending plane, worded in the display units.
+
+The engine hands each route's verdict over as an :class:`engine.design.routes.RouteCheck` (a route code, a
+utilisation, the code of the governing term, the terms, the facts in SI, a reason, note codes and a source)
+and a two-plane case's second plane as a full :class:`engine.Result`. This module words them, for every output
+(the page, the printed summary, the calc sheet, the batch), in one unit system.
+
+Route names: ``"second order + cross-section"``, ``"EN 1993-1-1 equivalent member (Annex B)"`` (or Annex
+A), ``"AISC 360-16 (LRFD)"`` (or ASD). The *headline* is the worst route the case enables (``check.routes``);
+the others are shown "for comparison".
+"""
+
+from __future__ import annotations
+
+import math
+
+from app.report.numbers import finite, ratio
+from app.report.route_names import NOTES, REASONS, TERMS, governing_text, route_name, route_setting
+from app.report.words import governing_rows, peak_text, quoted_text
+from app.units import Units
+
+__all__ = [
+    "FACTS",
+    "NOTES",
+    "TERMS",
+    "fact_text",
+    "facts_text",
+    "governing_text",
+    "headline_route",
+    "headline_exceeds_routes",
+    "headline_text",
+    "note_text",
+    "other_axis",
+    "reason_text",
+    "plane_axes",
+    "plane_name",
+    "route_name",
+    "route_rows",
+    "route_setting",
+    "second_plane_rows",
+]
+
+#: The facts shown, in this order: key → (symbol, kind of quantity or "" for a ratio).
+FACTS = {
+    "L_cr_y": ("L_cr,y", "length"),
+    "L_cr_z": ("L_cr,z", "length"),
+    "N_cr_y": ("N_cr,y", "force"),
+    "N_cr_z": ("N_cr,z", "force"),
+    "lambda_bar_y": ("λ̄_y", ""),
+    "lambda_bar_z": ("λ̄_z", ""),
+    "lambda_y": ("λ̄_y", ""),
+    "lambda_z": ("λ̄_z", ""),
+    "chi_y": ("χ_y", ""),
+    "chi_z": ("χ_z", ""),
+    "chi_LT": ("χ_LT", ""),
+    "k_yy": ("k_yy", ""),
+    "k_yz": ("k_yz", ""),
+    "k_zy": ("k_zy", ""),
+    "k_zz": ("k_zz", ""),
+    "C_my": ("C_my", ""),
+    "C_mz": ("C_mz", ""),
+    "C_mLT": ("C_mLT", ""),
+    "N_Rk": ("N_Rk", "force"),
+    "M_y_Rk": ("M_y,Rk", "moment"),
+    "M_z_Rk": ("M_z,Rk", "moment"),
+    "N_Ed": ("N_Ed", "force"),
+    "M_y_Ed": ("M_y,Ed", "moment"),
+    "M_z_Ed": ("M_z,Ed", "moment"),
+    "KL_r": ("KL/r", ""),
+    "F_e": ("F_e", "stress"),
+    "F_cr": ("F_cr", "stress"),
+    "F_e_y": ("F_e,y", "stress"),
+    "F_e_z": ("F_e,z", "stress"),
+    "F_cr_y": ("F_cr,y", "stress"),
+    "F_cr_z": ("F_cr,z", "stress"),
+    "F_y": ("F_y", "stress"),
+    "P_n": ("P_n", "force"),
+    "phi_c": ("φ_c", ""),
+    "Omega_c": ("Ω_c", ""),
+    "phi_b": ("φ_b", ""),
+    "Omega_b": ("Ω_b", ""),
+    "P_c": ("P_c", "force"),
+    "P_r": ("P_r", "force"),
+    "phi_t": ("φ_t", ""),
+    "M_n_y": ("M_n,y", "moment"),
+    "M_n_z": ("M_n,z", "moment"),
+    "M_c_y": ("M_c,y", "moment"),
+    "M_c_z": ("M_c,z", "moment"),
+    "M_r_y": ("M_r,y", "moment"),
+    "M_r_z": ("M_r,z", "moment"),
+}
+
+# A fact the table above does not know is shown when its key says its kind (N_, P_ forces; M_ moments;
+# L_ lengths; F_, f_ stresses; the dimensionless symbols); any other is left to the JSON summary, so that no
+# number is ever shown without its unit.
+_PREFIX_KINDS = (
+    ("N_", "force"),
+    ("P_", "force"),
+    ("M_", "moment"),
+    ("L_", "length"),
+    ("F_", "stress"),
+    ("f_", "stress"),
+    ("chi", ""),
+    ("k_", ""),
+    ("C_m", ""),
+    ("lambda", ""),
+    ("phi", ""),
+    ("Omega", ""),
+    ("alpha", ""),
+)
+
+
+def _kind_of(key: str) -> str | None:
+    if key in FACTS:
+        return FACTS[key][1]
+    for prefix, kind in _PREFIX_KINDS:
+        if key.startswith(prefix):
+            return kind
+    return None
+
+
+def _symbol_of(key: str) -> str:
+    if key in FACTS:
+        return FACTS[key][0]
+    return key
+
+
+def fact_text(key: str, value, U: Units) -> str | None:
+    """One fact, e.g. ``"χ_z = 0.422"`` or ``"F_cr = 215.3 MPa"``; None for a fact of unknown kind."""
+    kind = _kind_of(key)
+    if kind is None or isinstance(value, bool) or not isinstance(value, (int, float)):
+        return None
+    if kind == "":
+        shown = ratio(value, 1 if key == "KL_r" else 3)
+    else:
+        shown = U.show(kind, float(value))
+    return f"{_symbol_of(key)} = {shown}"
+
+
+def facts_text(facts: dict, U: Units) -> str:
+    """The facts of a route that have a known kind, in the order of :data:`FACTS`, then the others."""
+    keys = [k for k in FACTS if k in facts] + sorted(k for k in facts if k not in FACTS)
+    parts = [fact_text(key, facts[key], U) for key in keys]
+    return ", ".join(part for part in parts if part)
+
+
+def reason_text(code: str, U: Units | None = None) -> str:
+    """Why a route was not applied, in words (``material-timber``: "not a steel member (timber)")."""
+    if not code:
+        return ""
+    if code.startswith("material-"):
+        return f"not a steel member ({code.removeprefix('material-')}): the route is for steel"
+    words = REASONS.get(code, code.replace("-", " "))
+    return words if U is None else quoted_text(words, U)
+
+
+def note_text(code: str, U: Units | None = None) -> tuple[str, str]:
+    """(level, words) of a route's note code; an unknown code is an info with its code as the words."""
+    level, words = NOTES.get(code, ("info", code.replace("-", " ")))
+    return level, words if U is None else quoted_text(words, U)
+
+
+def _utilisation_of(route) -> float:
+    value = route.utilization
+    if value is None:
+        return -math.inf
+    value = float(value)
+    return math.inf if math.isnan(value) else value
+
+
+def headline_route(result):
+    """The enabled route with the largest utilisation (+inf counts as largest), or None."""
+    enabled = [r for r in getattr(result, "routes", ()) or () if r.enabled and r.utilization is not None]
+    if not enabled:
+        return None
+    return max(enabled, key=_utilisation_of)
+
+
+def _utilisation_words(value) -> str:
+    if value is None:
+        return "not applied"
+    text = ratio(value)
+    if not finite(value) or float(value) > 1.0:
+        return f"{text} (fails)" if not finite(value) else f"{text} > 1, fails"
+    return text
+
+
+def headline_exceeds_routes(result) -> bool:
+    """True when the result's own utilisation is above every enabled route's (the routes then under-report).
+
+    The engine's headline is the worst enabled route, so the two agree; should they not, the page, the
+    summary and the sheet show the larger, the result's, and say so: a shown utilisation never errs low.
+    """
+    route = headline_route(result)
+    own = getattr(result, "utilization", None)
+    if route is None or own is None:
+        return False
+    return _utilisation_of(route) < float(own) * (1.0 - 1e-9) - 1e-12
+
+
+def headline_text(result) -> str:
+    """The headline: the worst enabled route by name, e.g. ``"0.874 by AISC 360-16 (LRFD), H1-1a"``."""
+    route = headline_route(result)
+    if route is None:
+        return ""
+    if headline_exceeds_routes(result):
+        check = getattr(result, "check", None)
+        kind = f" ({check.kind})" if check is not None else ""
+        words = _utilisation_words(result.utilization)
+        return f"{words} by the member check{kind}, above every route that counts"
+    term = governing_text(route.governing)
+    text = f"{_utilisation_words(route.utilization)} by {route_name(route, result)}"
+    return text + (f", {term}" if term else "")
+
+
+def route_rows(result, U: Units) -> list[dict]:
+    """Each route of `result` as words: name, status, utilisation, governing term, facts, notes, source.
+
+    Every row is a dict with ``route`` (the code), ``name``, ``enabled`` (bool), ``status`` (``"headline"``,
+    ``"counts"`` or ``"for comparison"``), ``utilisation`` (text), ``value`` (the number or None),
+    ``governing``, ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and ``source``.
+    """
+    head = None if headline_exceeds_routes(result) else headline_route(result)
+    rows = []
+    for route in getattr(result, "routes", ()) or ():
+        if route is head:
+            status = "headline"
+        elif route.enabled:
+            status = "counts"
+        else:
+            status = "for comparison"
+        rows.append(
+            {
+                "route": route.route,
+                "name": route_name(route, result),
+                "enabled": bool(route.enabled),
+                "status": status,
+                "utilisation": _utilisation_words(route.utilization),
+                "value": route.utilization,
+                "governing": governing_text(route.governing),
+                "facts": facts_text(route.facts or {}, U),
+                "reason": reason_text(route.reason or "", U),
+                "notes": tuple(note_text(code, U) for code in route.notes or ()),
+                "source": route.source or "",
+            }
+        )
+    return rows
+
+
+def plane_name(axis: str) -> str:
+    """The plane named by the axis it bends about: ``"major axis (y–y)"`` or ``"minor axis (z–z)"``."""
+    return "minor axis (z–z)" if axis == "minor" else "major axis (y–y)"
+
+
+def other_axis(axis: str) -> str:
+    """The other axis: ``"minor"`` for ``"major"`` and back."""
+    return "major" if axis == "minor" else "minor"
+
+
+def plane_axes(result) -> tuple[str, str]:
+    """(axis of the case's own plane, axis of the second plane), e.g. ``("major", "minor")``."""
+    axis = getattr(getattr(result, "case", None), "axis", None) or "major"
+    return axis, other_axis(axis)
+
+
+def second_plane_rows(result, U: Units) -> list[tuple[str, str]]:
+    """(label, text) of the second plane's first critical load and governing values; [] for one plane."""
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        return []
+    rows = [("Pcr1", U.show("force", float(second.critical_loads[0]), 5))]
+    for label, name, kind in governing_rows(second):
+        rows.append((label, peak_text(getattr(second.governing, name), kind, U)))
+    return rows
