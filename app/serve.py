@@ -122,10 +122,8 @@ def make_page(case=None):
     # 10; it saved a round trip and a second layout). A case from the address is solved off the loop.
     from_link = bool(_link_text(pn.state.session_args, "case")) if pn.state.location is not None else False
     state = MemberState.from_case(
-        case if case is not None else _demo_case(), runner=runner if from_link else None
+        case if case is not None else _demo_case(), runner=runner, solve_first=not from_link
     )
-    if not from_link and runner is not None:
-        state.attach_runner(runner)
     if pn.state.location is not None:
         # The link is the settled case (never the axial force while it is dragged); see MemberState.link.
         # Read before the page is built, so that the page opens on the link's case; a bad value is named in

@@ -140,9 +140,12 @@ class MemberState(RouteSweepOutputs, MemberInputs):
     _refresh_id = 0
     _failed_at = 0
 
-    def __init__(self, runner=None, **params: Any) -> None:
+    def __init__(self, runner=None, solve_first: bool = False, **params: Any) -> None:
         super().__init__(**params)
         self._runner = runner
+        # A served page's trusted start case is solved at once, while its page is built (start-up, issue 10);
+        # its charts and every later solve go through the runner.
+        self._solve_first = solve_first
         self._settled_axial_force = self.axial_force
         self._base_key: str | None = None
         self._base_case = None
@@ -157,11 +160,6 @@ class MemberState(RouteSweepOutputs, MemberInputs):
     def runner(self):
         """The :class:`app.work.Runner` a served page solves through, or None (everything solved at once)."""
         return self._runner
-
-    def attach_runner(self, runner) -> None:
-        """Solve every later change through `runner` (:mod:`app.work`): a served page's start case is solved
-        at once, then the runner takes over."""
-        self._runner = runner
 
     @classmethod
     def from_case(cls, case, **params: Any) -> MemberState:
@@ -322,7 +320,8 @@ class MemberState(RouteSweepOutputs, MemberInputs):
             self._failed_at = self._refresh_id
             self._fail(_engine_failure(error))
             return
-        if self._runner is None:
+        if self._runner is None or self._solve_first:
+            self._solve_first = False
             self._solved(case, full, *solve_outcome(case, self.stations))
             return
         self._base_case = case
