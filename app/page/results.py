@@ -26,7 +26,7 @@ class ValuesView(pn.viewable.Viewer):
         self.table = html_pane(margin=(0, 4))
         self.panel = pn.Column(
             heading("Governing values"),
-            pn.Column(self.table, scroll=True, sizing_mode="stretch_both", margin=0, min_height=150),
+            pn.Column(self.table, scroll=True, sizing_mode="stretch_both", margin=0, min_height=110),
             sizing_mode="stretch_both",
             margin=0,
         )
@@ -63,7 +63,7 @@ class CautionsView(pn.viewable.Viewer):
         self.general = html_pane(margin=(2, 4, 2, 4))
         self.panel = pn.Column(
             self.heading,
-            pn.Column(self.list, scroll=True, sizing_mode="stretch_both", margin=0, min_height=120),
+            pn.Column(self.list, scroll=True, sizing_mode="stretch_both", margin=0, min_height=90),
             self.general,
             sizing_mode="stretch_both",
             margin=0,

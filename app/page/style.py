@@ -127,7 +127,8 @@ ul.ss-cautions .lvl { font-weight: 700; font-size: 12px; text-transform: upperca
 ul.ss-cautions li.danger .lvl { color: #a3261b; } ul.ss-cautions li.warning .lvl { color: #8a5a00; }
 ul.ss-cautions li.info .lvl { color: #35506b; }
 ul.ss-cautions .src { display: block; color: var(--ss-muted); font-size: 12px; font-style: italic; }
-ul.ss-cautions.general li { border-left-color: #14263a; background: #e9edf1; margin: 0; }
+ul.ss-cautions.general li { border-left-color: #14263a; background: #e9edf1; margin: 0; font-size: 11.5px;
+                            line-height: 1.25; padding: 2px 4px 3px 7px; }
 .ss-key { font-size: 12.5px; color: var(--ss-ink); line-height: 1.35; }
 .ss-key span { white-space: nowrap; }
 .ss-key i { display: inline-block; width: 16px; height: 0; vertical-align: middle; margin: 0 3px 0 7px; }
