@@ -12,6 +12,10 @@ from engine.cautions import Caution
 
 __all__ = ["ROUTES_DISAGREE", "with_route_cautions"]
 
+_INTERACTION_SOURCE = (
+    "EN 1993-1-1:2005 §6.3.3(4), eq. (6.62) (N with M_y about the buckling axis z–z; from memory)"
+)
+
 #: Routes whose utilisations differ by more than this fraction of the smaller one get an info caution: what
 #: an engineer learns from (which assumptions make the difference). Common practice, no source.
 ROUTES_DISAGREE = 0.2
@@ -66,6 +70,7 @@ def with_route_cautions(cautions, routes) -> tuple:
                         values={"route": route.route, "enabled": route.enabled},
                     )
                 )
+    out.extend(_interaction_not_counted(routes))
     applied = [r for r in routes if r.enabled and r.utilization is not None]
     if routes and not applied:
         out.append(
@@ -95,3 +100,43 @@ def with_route_cautions(cautions, routes) -> tuple:
             )
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(given + out, key=lambda c: order[c.level]))
+
+
+def _interaction_not_counted(routes) -> list:
+    """A one-plane case checked without the ``en-member`` route: its out-of-plane check is N alone.
+
+    The second-order route of a one-plane case checks buckling about the other axis for the axial force
+    alone (N/N_b,Rd, §6.3.1); the interaction of that buckling with the moment in the plane analysed is
+    eq. (6.62) of the en-member route (and H1-1 of the aisc route). When neither is enabled, say so: a
+    warning, or a danger when its eq. (6.62) exceeds 1 (the headline then misses a failing check).
+    """
+    member = next((r for r in routes if r.route == "en-member"), None)
+    if member is None or member.enabled or member.utilization is None:
+        return []
+    if any(r.enabled and r.utilization is not None and r.route == "aisc" for r in routes):
+        return []  # H1-1 takes P_c about the weaker axis with the moment: the interaction counts
+    facts = member.facts
+    if not facts.get("N_Ed", 0.0) > 0.0:
+        return []
+    other = next((a for a in ("y", "z") if facts.get(f"N_cr_{a}_source") == "out-of-plane length"), None)
+    if other is None:
+        return []
+    analysed = "z" if other == "y" else "y"
+    if not facts.get(f"M_{analysed}_Ed", 0.0) > 0.0:
+        return []
+    eq = member.terms.get("eq-6.62" if other == "z" else "eq-6.61")
+    level = "danger" if eq is not None and eq > 1.0 else "warning"
+    return [
+        Caution(
+            level=level,
+            code="out-of-plane-interaction-not-counted",
+            message=(
+                "Out-of-plane buckling is checked for the axial force alone (N/N_b,Rd): its interaction with "
+                "the moment in the plane analysed (EN 1993-1-1 eq. (6.62)) is in the en-member route, which "
+                "does not count toward the headline"
+                + (f"; that equation gives {eq:.3f} > 1." if level == "danger" else ".")
+            ),
+            source=_INTERACTION_SOURCE,
+            values={"route": "en-member", "equation": "eq-6.62" if other == "z" else "eq-6.61", "value": eq},
+        )
+    ]

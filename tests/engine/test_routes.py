@@ -11,6 +11,7 @@ from __future__ import annotations
 import dataclasses
 import itertools
 import math
+import pathlib
 
 import mpmath as mp
 import pytest
@@ -21,6 +22,8 @@ import engine
 from engine.capacity import capacity
 from engine.checks import CheckSettings
 from engine.member_routes import headline
+
+REPO = pathlib.Path(__file__).resolve().parents[2]
 
 mp.mp.dps = 30
 
@@ -566,3 +569,27 @@ def test_second_order_and_annex_b_agree_in_uniform_bending(section, lam, n):
     second, en = _route(r, "second-order"), _route(r, "en-member")
     assert en.terms["eq-6.61"] == pytest.approx(1.0, rel=1e-9)
     assert 0.85 <= second.utilization / en.utilization <= 1.10
+
+
+@pytest.mark.parametrize(
+    ("routes", "axial_force", "expected"),
+    [
+        (["second-order"], 350e3, "warning"),  # eq. (6.62) 0.47: the interaction is not counted, said
+        (["second-order"], 1500e3, "danger"),  # eq. (6.62) 1.88 > 1 while the headline is N/N_b,Rd alone
+        (["second-order", "en-member"], 1500e3, None),
+        (["second-order", "aisc"], 1500e3, None),  # H1-1 with P_c about the weaker axis counts it
+    ],
+)
+def test_a_one_plane_check_without_eq_6_62_says_so(routes, axial_force, expected):
+    """The second-order route checks a one-plane case's out-of-plane buckling for N alone (EN 1993-1-1
+    §6.3.1); its interaction with M_y is eq. (6.62) (§6.3.3(4), from memory). Without a route that counts
+    it, a caution says so, a danger when eq. (6.62) exceeds 1. The invented demo wind post (HEB 200, 6 m)."""
+    data = engine.load_case(REPO / "assets" / "demo_wind_post.json").to_dict()
+    data["axial_force"] = axial_force
+    data["check"] = dict(data.get("check") or {}, routes=routes)
+    result = engine.solve(engine.Case.from_dict(data))
+    found = [c for c in result.cautions if c.code == "out-of-plane-interaction-not-counted"]
+    assert [c.level for c in found] == ([expected] if expected else [])
+    if expected == "danger":
+        eq = next(r for r in result.routes if r.route == "en-member").terms["eq-6.62"]
+        assert eq > 1.0 and found[0].values["value"] == eq
