@@ -49,6 +49,7 @@ from engine.checks import EQ_5_9_KIND, MemberCheck
 from engine.classification import eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
 from engine.solver.model import Points
+from engine.solver.series import refine_by_series
 
 __all__ = [
     "ELASTIC_KIND",
@@ -321,15 +322,13 @@ def check_biaxial(
 def plane_at(raw, prep, other_x, tol):
     """A plane's M and V at its own stations and at the other plane's that are not among them, in order
     along the member (a node's two sides stay left first): ``(x, M, V)``, each plane's exact solution."""
-    _, _, values, x, _, _, batch = raw
+    values, x = raw[2], raw[3]
     pos = np.clip(np.searchsorted(x, other_x), 1, x.size - 1)
     near = np.minimum(np.abs(other_x - x[pos - 1]), np.abs(x[pos] - other_x))
     extra = np.unique(other_x[near > tol])
     if extra.size:
         extra = extra[np.concatenate([[True], np.diff(extra) > tol])]
-        model = prep.model
-        seg = model.segment_of(extra)
-        st = batch.states(0, Points(model, seg, extra - model.xa[seg]))
+        st = _state_at(raw, prep, extra)
         every = np.concatenate([x, extra])
         order = np.argsort(every, kind="stable")
         return (
@@ -340,11 +339,25 @@ def plane_at(raw, prep, other_x, tol):
     return x, values["M"], values["V"]
 
 
-def _evaluate(raw, prep, xs):
-    """A plane's exact M and V at points inside its segments (no node among them)."""
+def _state_at(raw, prep, xs):
+    """A plane's exact state at points inside its segments (no node among them): from the Taylor series of
+    its solution about the nearest station where that is exact to rounding (as for the peaks,
+    :func:`engine.solver.series.refine_by_series`), else from the basis functions."""
     model = prep.model
     seg = model.segment_of(xs)
-    st = raw[6].states(0, Points(model, seg, xs - model.xa[seg]))
+    xi = xs - model.xa[seg]
+    batch, st, pts = raw[6], raw[7], raw[8]
+    if st is not None and batch.P.size == 1:
+        none_i, none = np.empty(0, dtype=int), np.empty(0)
+        fast = refine_by_series(batch, pts, st, none_i, none_i, none, none, none, (seg, xi))
+        if fast is not None:
+            return fast[3]
+    return batch.states(0, Points(model, seg, xi))
+
+
+def _evaluate(raw, prep, xs):
+    """A plane's exact M and V at points inside its segments (no node among them)."""
+    st = _state_at(raw, prep, xs)
     return st["M"], st["V"]
 
 
