@@ -49,7 +49,6 @@ from engine.checks import EQ_5_9_KIND, MemberCheck
 from engine.classification import eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
 from engine.solver.model import Points
-from engine.solver.series import refine_by_series
 
 __all__ = [
     "ELASTIC_KIND",
@@ -340,19 +339,12 @@ def plane_at(raw, prep, other_x, tol):
 
 
 def _state_at(raw, prep, xs):
-    """A plane's exact state at points inside its segments (no node among them): from the Taylor series of
-    its solution about the nearest station where that is exact to rounding (as for the peaks,
-    :func:`engine.solver.series.refine_by_series`), else from the basis functions."""
+    """A plane's exact state at points inside its segments (no node among them), from the basis functions.
+    (The Taylor series about the stations that the peak refinement uses was timed here too: slower for more
+    than a few points, as its cost grows with the points while the basis functions' is mostly fixed.)"""
     model = prep.model
     seg = model.segment_of(xs)
-    xi = xs - model.xa[seg]
-    batch, st, pts = raw[6], raw[7], raw[8]
-    if st is not None and batch.P.size == 1:
-        none_i, none = np.empty(0, dtype=int), np.empty(0)
-        fast = refine_by_series(batch, pts, st, none_i, none_i, none, none, none, (seg, xi))
-        if fast is not None:
-            return fast[3]
-    return batch.states(0, Points(model, seg, xi))
+    return raw[6].states(0, Points(model, seg, xs - model.xa[seg]))
 
 
 def _evaluate(raw, prep, xs):
