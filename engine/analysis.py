@@ -95,6 +95,7 @@ def _build(
     bow_free=None,
     cautions=True,
     paired=False,
+    bow=None,
 ) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
@@ -228,7 +229,7 @@ def _build(
         EI=model.EI,
         section=section,
         material=material,
-        bow=member.bow if member is not None else None,
+        bow=bow if bow is not None else (member.bow if member is not None else None),
         check=check,
         utilization=(
             check.utilization
@@ -273,12 +274,17 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
 
 def _with_cautions(result, prep, favourable: bool) -> Result:
     """``result`` with its cautions (``favourable``: the bow used is the favourable way)."""
+    return dataclasses.replace(result, cautions=_cautions(result, prep, favourable, result.check))
+
+
+def _cautions(result, prep, favourable: bool, check) -> tuple:
+    """The cautions of ``result`` with ``check`` as its member check."""
     case, section, buckling = result.case, result.section, prep.buckling
     pcr1 = float(buckling.critical_loads[0])
     slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
     facts = dict(prep.bow_facts(), opposes_load=favourable)
     # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
-    cautions = with_route_cautions(
+    return with_route_cautions(
         assess(
             P=result.axial_force,
             pcr1=pcr1,
@@ -288,13 +294,12 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
             section=section,
             material=result.material,
             axis=case.axis,
-            check=result.check,
+            check=check,
             bow=facts,
             service=result.service,
         ),
         result.routes,
     )
-    return dataclasses.replace(result, cautions=cautions)
 
 
 def solve(case, stations: int = 401) -> Result:
@@ -411,6 +416,9 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         text = f"{choice.direction}, as the case fixes it" + (
             f" (the favourable way: reversed, {said(*facts[1])})" if favourable else ""
         )
+    bow = dataclasses.replace(
+        chosen_prep.member.bow, direction_governing=text, directions=facts, favourable=favourable
+    )
     result = _build(
         case,
         chosen_prep,
@@ -422,9 +430,9 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         bow_free=bow_free,
         cautions=False,
         paired=paired,
+        bow=bow,
     )
-    bow = dataclasses.replace(result.bow, direction_governing=text, directions=facts, favourable=favourable)
-    return dataclasses.replace(result, bow=bow), chosen_prep, chosen_raw, favourable
+    return result, chosen_prep, chosen_raw, favourable
 
 
 def _bow_free_peaks(prep, n, P) -> dict:
@@ -478,8 +486,8 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     P = float(case.axial_force)
     r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True)
     derived = case.second_plane_case()
-    with within("second_plane"):
-        prep_two = prepare(derived)
+    with within("second_plane"):  # kept with the case's own (the second plane depends on nothing else)
+        prep_two = prep.design("second_plane", lambda: prepare(derived))
     r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True)
     statuses = (r1.status, r2.status)
     check, utilization = None, None
@@ -488,20 +496,24 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     elif r1.section is not None and r1.material is not None:
         check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
         utilization = check.utilization
-    head = _with_cautions(dataclasses.replace(r1, check=check, utilization=utilization), prep1, fav1)
-    second = _with_cautions(dataclasses.replace(r2, check=check), prep2, fav2)
+    # Each plane's cautions with the pair's check; the second plane is kept without either (r2 as solved).
+    cautions = merge_plane_cautions(
+        _cautions(r1, prep1, fav1, check), _cautions(r2, prep2, fav2, check), derived.axis
+    )
     status = max(statuses, key=_RANK.__getitem__)
     message = r1.message
     if _RANK[r2.status] > _RANK[r1.status]:
         message = f"Second plane (bending about the {derived.axis} axis): {r2.message}"
     result = dataclasses.replace(
-        head,
+        r1,
+        check=check,
+        utilization=utilization,
         status=status,
         stable=status == "stable",
         message=message,
         alpha_cr=min(r1.alpha_cr, r2.alpha_cr),
-        cautions=merge_plane_cautions(head.cautions, second.cautions, derived.axis),
-        second_plane=dataclasses.replace(second, check=None, cautions=()),
+        cautions=cautions,
+        second_plane=r2,
     )
     if r1.section is None or r1.material is None:
         return result
