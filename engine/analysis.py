@@ -435,13 +435,8 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
     return result, chosen_prep, chosen_raw, favourable
 
 
-def _bow_free_peaks(prep, n, P) -> dict:
-    """The largest |M| and |w| (with where) of the member without its bow, at one axial force."""
-    return _free_peaks(_raw(prep, n, P))
-
-
 def _free_peaks(raw) -> dict:
-    """:func:`_bow_free_peaks` from the bow-free member's raw solution."""
+    """The largest |M| and |w| (with where) of the member without its bow, from its raw solution."""
     status, _, values, x = raw[:4]
     if status == "critical":
         return {"moment": math.inf, "deflection": Peak(value=math.inf, x=0.0)}
