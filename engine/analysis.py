@@ -16,6 +16,9 @@ from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
 from engine.out_of_plane import utilisation as out_of_plane_utilisation
 from engine.prepared import prepare
+from engine.raw import CRITICAL_TOLERANCE
+from engine.raw import raw as _raw
+from engine.raw import reversed_raw as _reversed_raw
 from engine.reference import reference_peak
 from engine.results import (
     Amplification,
@@ -27,15 +30,11 @@ from engine.results import (
     ServiceCheck,
 )
 from engine.route_cautions import with_route_cautions
-from engine.solver.batch import STATE_FIELDS, Batch
 from engine.solver.model import Points
-from engine.solver.peaks import refine_peaks
 from engine.validate import within
 
 __all__ = ["CRITICAL_TOLERANCE", "check_stations", "solve", "strength_solve"]
 
-#: |P/Pcr_n - 1| below this counts as at the critical load (no equilibrium) [-].
-CRITICAL_TOLERANCE = 1e-10
 _MAX_STATIONS = 100_000
 _FIVE = np.arange(5)
 
@@ -46,40 +45,6 @@ def check_stations(stations) -> int:
     if not 2 <= int(stations) <= _MAX_STATIONS:
         raise CaseError(f"stations: {stations} must be from 2 to {_MAX_STATIONS}")
     return int(stations)
-
-
-def _critical_index(P: float, pcr) -> int:
-    """1-based index of the critical load P is at, or 0 (one axial force: plain floats are quicker)."""
-    if P <= 0:
-        return 0
-    for n, value in enumerate(pcr.tolist(), start=1):
-        if abs(P / value - 1.0) < CRITICAL_TOLERANCE:
-            return n
-    return 0
-
-
-def _merged_order(pts, extra_seg, extra_xi, L):
-    """Indices into [base stations, extra points] that list the shown base stations and the extra points
-    along the member, dropping an extra point that repeats a station or another extra point."""
-    base_idx, base_key = pts.order_key
-    padded = pts.padded_key
-    if padded is None:  # the shown stations' keys between -inf and +inf, so that both neighbours always exist
-        padded = pts.padded_key = np.concatenate([[-np.inf], base_key, [np.inf]])
-    key = extra_seg * (2.0 * L) + extra_xi
-    eo = np.argsort(key, kind="stable")
-    key = key[eo]
-    pos = np.searchsorted(base_key, key)
-    tol = 1e-11 * L
-    keep = np.minimum(key - padded[pos], padded[pos + 1] - key) > tol
-    keep[1:] &= np.diff(key) > tol
-    pos = pos[keep]
-    out = np.empty(base_idx.size + pos.size, dtype=base_idx.dtype)
-    at = pos + np.arange(pos.size)  # where each kept extra point lands (pos is sorted)
-    rest = np.ones(out.size, dtype=bool)
-    rest[at] = False
-    out[at] = pts.size + eo[keep]
-    out[rest] = base_idx
-    return out
 
 
 def _peak(x, values) -> Peak:
@@ -130,6 +95,7 @@ def _build(
     bow_free=None,
     cautions=True,
     paired=False,
+    bow=None,
 ) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
@@ -263,7 +229,7 @@ def _build(
         EI=model.EI,
         section=section,
         material=material,
-        bow=member.bow if member is not None else None,
+        bow=bow if bow is not None else (member.bow if member is not None else None),
         check=check,
         utilization=(
             check.utilization
@@ -308,12 +274,17 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
 
 def _with_cautions(result, prep, favourable: bool) -> Result:
     """``result`` with its cautions (``favourable``: the bow used is the favourable way)."""
+    return dataclasses.replace(result, cautions=_cautions(result, prep, favourable, result.check))
+
+
+def _cautions(result, prep, favourable: bool, check) -> tuple:
+    """The cautions of ``result`` with ``check`` as its member check."""
     case, section, buckling = result.case, result.section, prep.buckling
     pcr1 = float(buckling.critical_loads[0])
     slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
     facts = dict(prep.bow_facts(), opposes_load=favourable)
     # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
-    cautions = with_route_cautions(
+    return with_route_cautions(
         assess(
             P=result.axial_force,
             pcr1=pcr1,
@@ -323,48 +294,12 @@ def _with_cautions(result, prep, favourable: bool) -> Result:
             section=section,
             material=result.material,
             axis=case.axis,
-            check=result.check,
+            check=check,
             bow=facts,
             service=result.service,
         ),
         result.routes,
     )
-    return dataclasses.replace(result, cautions=cautions)
-
-
-def _raw(prep, n: int, P: float):
-    """One prepared member at one axial force: status, critical index and the state at the stations."""
-    model, pcr = prep.model, prep.buckling.critical_loads
-    n_crit = _critical_index(P, pcr)
-    seg, xi, shown, pts = prep.stations(n, math.sqrt(-P / model.EI) if P < 0 else 0.0)
-    batch = Batch(model, [P], at=pts)
-    status = "stable"
-    if n_crit or batch.singular[0]:
-        status = "critical"
-        n_crit = n_crit or int(np.searchsorted(pcr, P)) + 1
-    elif P > pcr[0]:
-        status = "unstable"
-    _, first_seg, first_xi, _, _, _ = prep.first_order(n)
-    if status == "critical":
-        ps, px = np.empty(0, dtype=int), np.empty(0)
-    else:
-        st = batch.states(0, pts)
-        _, ps, px, ext = refine_peaks(
-            batch, 0, pts, *batch.targets(st, pts), also=(first_seg, first_xi), states=st
-        )
-    # The peaks of both orders become stations, so that first_order shares x and both are exact there.
-    extra_seg, extra_xi = np.concatenate([ps, first_seg]), np.concatenate([px, first_xi])
-    order = _merged_order(pts, extra_seg, extra_xi, model.L)
-    seg, xi = np.concatenate([seg, extra_seg])[order], np.concatenate([xi, extra_xi])[order]
-    x = np.concatenate([pts.x_exact, model.position(extra_seg, extra_xi)])[order]
-    if status == "critical":
-        values = {"w0": model.bow.derivatives(x)[0]}
-        batch = None
-    else:
-        # One gather for all six fields: rows of one array (each row is contiguous).
-        both = np.concatenate([st.stacked(), ext.stacked()], axis=1)[:, order]
-        values = dict(zip(STATE_FIELDS, both, strict=True))
-    return status, n_crit, values, x, seg, xi, batch
 
 
 def solve(case, stations: int = 401) -> Result:
@@ -428,13 +363,14 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         and status != "critical"
         and (choice.automatic or details)
     )
-    bow_free = None
+    bow_free = free_raw = None
     # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
     if (details or "aisc" in case.check.routes) and prep.has_bow and P != 0.0 and status != "critical":
         member = prep.member
         checked = member is not None and member.section is not None and member.material is not None
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
-            bow_free = _bow_free_peaks(prep.variant("bow_free"), n, P)
+            free_raw = _raw(prep.variant("bow_free"), n, P)
+            bow_free = _free_peaks(free_raw)
     if not reverse:
         result = _build(
             case,
@@ -450,7 +386,11 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         )
         return result, prep, raw, False
     other_prep = prep.variant("reversed")
-    other = _raw(other_prep, n, P)
+    other = None
+    if free_raw is not None:  # the reversed bow by linearity: 2 × (bow-free) − (forward), no third solve
+        other = _reversed_raw(other_prep, n, P, raw, free_raw, (prep, prep.variant("bow_free")))
+    if other is None:
+        other = _raw(other_prep, n, P)
     a, b = _severity(case, prep, P, raw), _severity(case, other_prep, P, other)
     sa, sb = (-1.0 if a[0] is None else a[0]), (-1.0 if b[0] is None else b[0])
     tol = 1e-9 * max(1.0, abs(sa))
@@ -476,6 +416,9 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         text = f"{choice.direction}, as the case fixes it" + (
             f" (the favourable way: reversed, {said(*facts[1])})" if favourable else ""
         )
+    bow = dataclasses.replace(
+        chosen_prep.member.bow, direction_governing=text, directions=facts, favourable=favourable
+    )
     result = _build(
         case,
         chosen_prep,
@@ -487,14 +430,14 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         bow_free=bow_free,
         cautions=False,
         paired=paired,
+        bow=bow,
     )
-    bow = dataclasses.replace(result.bow, direction_governing=text, directions=facts, favourable=favourable)
-    return dataclasses.replace(result, bow=bow), chosen_prep, chosen_raw, favourable
+    return result, chosen_prep, chosen_raw, favourable
 
 
-def _bow_free_peaks(prep, n, P) -> dict:
-    """The largest |M| and |w| (with where) of the member without its bow, at one axial force."""
-    status, _, values, x, _, _, _ = _raw(prep, n, P)
+def _free_peaks(raw) -> dict:
+    """The largest |M| and |w| (with where) of the member without its bow, from its raw solution."""
+    status, _, values, x = raw[:4]
     if status == "critical":
         return {"moment": math.inf, "deflection": Peak(value=math.inf, x=0.0)}
     i, j = int(np.argmax(np.abs(values["M"]))), int(np.argmax(np.abs(values["w"])))
@@ -538,8 +481,8 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     P = float(case.axial_force)
     r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True)
     derived = case.second_plane_case()
-    with within("second_plane"):
-        prep_two = prepare(derived)
+    with within("second_plane"):  # kept with the case's own (the second plane depends on nothing else)
+        prep_two = prep.design("second_plane", lambda: prepare(derived))
     r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True)
     statuses = (r1.status, r2.status)
     check, utilization = None, None
@@ -548,20 +491,24 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     elif r1.section is not None and r1.material is not None:
         check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
         utilization = check.utilization
-    head = _with_cautions(dataclasses.replace(r1, check=check, utilization=utilization), prep1, fav1)
-    second = _with_cautions(dataclasses.replace(r2, check=check), prep2, fav2)
+    # Each plane's cautions with the pair's check; the second plane is kept without either (r2 as solved).
+    cautions = merge_plane_cautions(
+        _cautions(r1, prep1, fav1, check), _cautions(r2, prep2, fav2, check), derived.axis
+    )
     status = max(statuses, key=_RANK.__getitem__)
     message = r1.message
     if _RANK[r2.status] > _RANK[r1.status]:
         message = f"Second plane (bending about the {derived.axis} axis): {r2.message}"
     result = dataclasses.replace(
-        head,
+        r1,
+        check=check,
+        utilization=utilization,
         status=status,
         stable=status == "stable",
         message=message,
         alpha_cr=min(r1.alpha_cr, r2.alpha_cr),
-        cautions=merge_plane_cautions(head.cautions, second.cautions, derived.axis),
-        second_plane=dataclasses.replace(second, check=None, cautions=()),
+        cautions=cautions,
+        second_plane=r2,
     )
     if r1.section is None or r1.material is None:
         return result

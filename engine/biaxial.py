@@ -321,15 +321,13 @@ def check_biaxial(
 def plane_at(raw, prep, other_x, tol):
     """A plane's M and V at its own stations and at the other plane's that are not among them, in order
     along the member (a node's two sides stay left first): ``(x, M, V)``, each plane's exact solution."""
-    _, _, values, x, _, _, batch = raw
+    values, x = raw[2], raw[3]
     pos = np.clip(np.searchsorted(x, other_x), 1, x.size - 1)
     near = np.minimum(np.abs(other_x - x[pos - 1]), np.abs(x[pos] - other_x))
     extra = np.unique(other_x[near > tol])
     if extra.size:
         extra = extra[np.concatenate([[True], np.diff(extra) > tol])]
-        model = prep.model
-        seg = model.segment_of(extra)
-        st = batch.states(0, Points(model, seg, extra - model.xa[seg]))
+        st = _state_at(raw, prep, extra)
         every = np.concatenate([x, extra])
         order = np.argsort(every, kind="stable")
         return (
@@ -340,11 +338,18 @@ def plane_at(raw, prep, other_x, tol):
     return x, values["M"], values["V"]
 
 
-def _evaluate(raw, prep, xs):
-    """A plane's exact M and V at points inside its segments (no node among them)."""
+def _state_at(raw, prep, xs):
+    """A plane's exact state at points inside its segments (no node among them), from the basis functions.
+    (The Taylor series about the stations that the peak refinement uses was timed here too: slower for more
+    than a few points, as its cost grows with the points while the basis functions' is mostly fixed.)"""
     model = prep.model
     seg = model.segment_of(xs)
-    st = raw[6].states(0, Points(model, seg, xs - model.xa[seg]))
+    return raw[6].states(0, Points(model, seg, xs - model.xa[seg]))
+
+
+def _evaluate(raw, prep, xs):
+    """A plane's exact M and V at points inside its segments (no node among them)."""
+    st = _state_at(raw, prep, xs)
     return st["M"], st["V"]
 
 

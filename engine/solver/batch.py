@@ -161,6 +161,35 @@ class Batch:
         y[self.singular] = 0.0
         self.coefficients = y.reshape(nP, nseg, 4)
 
+    @classmethod
+    def combined(cls, model: Model, parts) -> Batch | None:
+        """The batch of ``model`` whose solution is the sum of ``weight × batch`` over ``parts``.
+
+        At given axial forces the problem is linear in the loads and the bow: the global matrix depends on
+        neither, so models that differ only in those have solutions that add. ``model`` must be the one whose
+        loads and bow are that sum (the caller's duty: the reversed bow is 2 × (bow-free) − (forward)). Its
+        states are evaluated from the basis functions (no station table). None where a part is singular or the
+        parts do not share the axial forces and segments.
+        """
+        first = parts[0][1]
+        if any(
+            b is None
+            or b.singular.any()
+            or not np.array_equal(b.P, first.P)
+            or b.coefficients.shape[1] != model.nseg
+            for _, b in parts
+        ):
+            return None
+        self = cls.__new__(cls)
+        self.model = model
+        self.P = first.P
+        self.table_rows = None
+        self.reused = None
+        self._targets = None
+        self.singular = np.zeros(first.P.size, dtype=bool)
+        self.coefficients = sum(weight * b.coefficients for weight, b in parts)
+        return self
+
     def _solve_one(self, B, p):
         """The assembly and solve of :meth:`__init__` for one axial force, in two dimensions (fewer steps)."""
         model = self.model
