@@ -4,6 +4,7 @@ diagrams, EN 1993-1-1 χ_LT and AISC 360-16 §F2.
 Sources are named beside each check; values recalled rather than read from a copy are marked "from memory".
 Reference values of χ_LT are recomputed here with mpmath at 30 digits from the formulas as written in
 EN 1993-1-1:2005 §6.3.2.2/§6.3.2.3 (from memory), independently of the module's code.
+All listed in tests/REFERENCES.md §11.
 """
 
 from __future__ import annotations

@@ -5,6 +5,7 @@ Sources: Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed., 1961, ch. 6 
 memory); ENV 1993-1-1:1992 Annex F Tables F.1.1/F.1.2 and NCCI SN003 (C1, C2; from memory); Trahair,
 *Flexural-Torsional Buckling of Structures*, 1993 (load height, axial force; from memory).
 The stiffness values are invented.
+All listed in tests/REFERENCES.md §11.
 """
 
 from __future__ import annotations
