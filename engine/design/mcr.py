@@ -284,7 +284,8 @@ def critical_moment(
     ----------
     x, M : array_like
         The major-axis moment diagram [m, N·m], sampled along the member (x ascending, covering [0, L]);
-        linear between samples. Its sign does not matter for :math:`|M_{cr}|`.
+        linear between samples; a jump (a couple in the span) is an x given twice, and becomes a node.
+        Its sign does not matter for :math:`|M_{cr}|`.
     EI_z, GI_t, EI_w : float
         Minor-axis bending [N·m²], St Venant torsion [N·m²] and warping [N·m⁴] stiffness. ``EI_w`` may be 0.
     length : float
@@ -348,7 +349,8 @@ def critical_moment(
     def m_at(points):
         return np.interp(points, xs, ms)
 
-    breaks = [p[1] for p in point] + [u[1] for u in uniform] + [u[2] for u in uniform]
+    jumps = xs[1:][np.diff(xs) == 0]  # a couple in the span: a repeated x with two values of M
+    breaks = [p[1] for p in point] + [u[1] for u in uniform] + [u[2] for u in uniform] + list(jumps)
     M_max = float(np.max(np.abs(ms)))
     args = (props, uniform, point, scale_axial, tuple(lateral_ends), tuple(warping_ends))
 
