@@ -4,7 +4,11 @@
   (6.62), with the interaction factors of Annex B (method 2) and the equivalent uniform moment factors of its
   Table B.3;
 - :mod:`engine.design.aisc360`: the compression strength of AISC 360-16 §E3 and the interaction of §H1.1,
-  eqs. (H1-1a) and (H1-1b).
+  eqs. (H1-1a) and (H1-1b);
+- :mod:`engine.design.mcr`: the elastic critical moment of lateral-torsional buckling (a finite-element
+  solution of Vlasov's equations, numpy only);
+- :mod:`engine.design.ltb`: the three-factor M_cr formula and C1 of the standard diagrams, χ_LT of
+  EN 1993-1-1 §6.3.2.2/§6.3.2.3, and AISC 360-16 §F2 with C_b of eq. (F1-1).
 
 These functions take numbers the caller has already checked (the case's validation names the fields a user
 typed); they raise ``ValueError`` only for a number outside the range the formula is written for.
