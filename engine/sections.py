@@ -44,6 +44,7 @@ from engine.catalogue import (
     normalise_name,
     rolled_i_dimensions,
 )
+from engine.custom_section import custom_fields
 from engine.errors import CaseError
 from engine.section_properties import (
     circular_hollow,
@@ -53,6 +54,7 @@ from engine.section_properties import (
     solid_rectangle,
     solid_round,
 )
+from engine.torsion import TorsionProperties, shape_torsion
 from engine.validate import choice, dimension, flag, is_bool, quoted, show, suggestion, within
 
 __all__ = [
@@ -89,7 +91,7 @@ _SPEC_KEYS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
     "round": (("D",), ()),
     "custom": (
         ("A", "I", "W_el", "W_pl"),
-        ("A_v", "t_max", "depth", "width", "doubly_symmetric", "open_section"),
+        ("A_v", "t_max", "depth", "width", "doubly_symmetric", "open_section", "It", "Iw"),
     ),
 }
 
@@ -165,6 +167,8 @@ class Section:
         The dimensions used [m], keys as in the spec (an RHS adds its corner radii ``r_o`` and ``r_i``).
     source : str
         Where the dimensions and properties come from, with "from memory" where so.
+    torsion : TorsionProperties
+        I_t [m⁴] and I_w [m⁶] (:mod:`engine.torsion`; a custom section's as given, None when not given).
 
     Raises
     ------
@@ -192,6 +196,7 @@ class Section:
     interaction_a: float | None
     dimensions: dict = field(hash=False)
     source: str
+    torsion: TorsionProperties
 
     def __post_init__(self) -> None:
         if not isinstance(self.name, str) or not self.name:
@@ -222,6 +227,8 @@ class Section:
         for key, value in self.dimensions.items():
             dimensions[key] = dimension(f"dimensions.{key}", value, "m")
         object.__setattr__(self, "dimensions", dimensions)
+        if not isinstance(self.torsion, TorsionProperties):
+            raise CaseError(f"torsion: {show(self.torsion)} is not allowed; it must be a TorsionProperties")
         self._check_consistency()
 
     def _check_consistency(self) -> None:
@@ -375,6 +382,7 @@ def _build(
 ) -> Section:
     """Compute the properties of a checked parametric shape and make the section about ``axis``."""
     _check_geometry(path, shape, dims, manufacture)
+    torsion = shape_torsion(shape, manufacture, dims)
     h_over_b = None
     open_section = False
     if shape in ("rolled_i", "welded_i"):
@@ -424,6 +432,7 @@ def _build(
             interaction_a=props.interaction_a,
             dimensions=dims,
             source=source,
+            torsion=torsion,
         )
 
 
@@ -446,45 +455,6 @@ def _describe(shape: str, manufacture: str, dims: dict[str, float]) -> str:
     return f"round {_mm(dims['D'])}"
 
 
-def _custom(path: str, spec: Mapping, axis: str) -> Section:
-    values = {
-        key: dimension(f"{path}.{key}", spec[key], unit)
-        for key, unit in (("A", "m²"), ("I", "m⁴"), ("W_el", "m³"), ("W_pl", "m³"))
-    }
-    A_v = dimension(f"{path}.A_v", spec["A_v"], "m²") if "A_v" in spec else values["A"]
-    extents = {
-        key: dimension(f"{path}.{key}", spec[key], "m", maximum=_MAX_DIMENSION)
-        for key in ("depth", "width", "t_max")
-        if key in spec
-    }
-    doubly_symmetric = flag(f"{path}.doubly_symmetric", spec.get("doubly_symmetric", False))
-    # Unknown means lateral-torsional buckling may matter: the cautious reading.
-    open_section = flag(f"{path}.open_section", spec.get("open_section", True))
-    source = "properties given in the case, taken as about the chosen axis"
-    with within(path):
-        return Section(
-            name="custom",
-            shape="custom",
-            manufacture="custom",
-            axis=axis,
-            A=values["A"],
-            I=values["I"],
-            W_el=values["W_el"],
-            W_pl=values["W_pl"],
-            i=math.sqrt(values["I"] / values["A"]),
-            A_v=A_v,
-            depth=extents.get("depth"),
-            width=extents.get("width"),
-            t_max=extents.get("t_max"),
-            doubly_symmetric=doubly_symmetric,
-            open_section=open_section,
-            h_over_b=None,
-            interaction_a=None,
-            dimensions=extents,
-            source=source,
-        )
-
-
 def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section") -> Section:
     """Build a section from what a case file holds under ``"section"`` (SI metres).
 
@@ -504,8 +474,8 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
         - ``"rectangle"``: b (the width) and h (the depth in the major-axis plane) [m], a solid section;
         - ``"round"``: D [m], a solid bar;
         - ``"custom"``: A [m²], I [m⁴], W_el [m³], W_pl [m³], all about the chosen axis, and optionally
-          A_v [m²] (default A), depth, width, t_max [m] (default unknown), doubly_symmetric (default false)
-          and open_section (default true).
+          A_v [m²] (default A), depth, width, t_max [m] (default unknown), doubly_symmetric (default false),
+          open_section (default true), It [m⁴] and Iw [m⁶] (the torsion constants, default unknown).
     axis : str
         ``"major"`` or ``"minor"``, the axis the member bends about.
     path : str
@@ -559,7 +529,9 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
         if key not in spec:
             raise CaseError(f"{path}.{key}: required key is missing for shape {shape!r}")
     if shape == "custom":
-        return _custom(path, spec, axis)
+        fields = custom_fields(path, spec)
+        with within(path):
+            return Section(axis=axis, **fields)
 
     if shape == "rhs":
         manufacture = choice(
