@@ -359,6 +359,16 @@ def _build() -> dict[str, Any]:
                     "t_max": _dimension("Thickest plate (selects f_y by thickness)"),
                     "depth": _dimension("Overall depth"),
                     "width": _dimension("Overall width"),
+                    "doubly_symmetric": {
+                        "type": "boolean",
+                        "description": "True when the section is symmetric about both axes (default false).",
+                    },
+                    "open_section": {
+                        "type": "boolean",
+                        "description": "True for an open section such as an I (default true).",
+                    },
+                    "It": _number("St Venant torsion constant I_t [m⁴], > 0", exclusiveMinimum=0),
+                    "Iw": _number("Warping constant I_w [m⁶], >= 0", minimum=0),
                 },
             ),
         ],

@@ -249,3 +249,30 @@ def test_schema_command_prints_the_schema(tmp_path):
     assert done.returncode == 0, done.stderr
     assert json.loads(done.stdout) == case_schema()
     assert json.loads(schema_text()) == case_schema()
+
+
+def test_a_custom_section_with_its_torsion_keys_is_valid_against_the_schema():
+    """The engine reads `It`, `Iw`, `doubly_symmetric` and `open_section` of a custom section
+    (engine/custom_section.py): the published schema accepts such a case, and refuses a negative `It`."""
+    case = {
+        "schema": 1,
+        "length": 4.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "section": {
+            "shape": "custom",
+            "A": 7.8e-3,
+            "I": 5.7e-5,
+            "W_el": 5.7e-4,
+            "W_pl": 6.4e-4,
+            "It": 5.9e-7,
+            "Iw": 1.7e-7,
+            "doubly_symmetric": True,
+            "open_section": True,
+        },
+        "material": {"name": "S355"},
+    }
+    engine.Case.from_dict(case)  # the engine reads it
+    jsonschema.validate(case, case_schema())
+    case["section"]["It"] = -1.0
+    with pytest.raises(jsonschema.ValidationError):
+        jsonschema.validate(case, case_schema())
