@@ -1,8 +1,9 @@
 """strutscope's engine: the exact second-order analysis of one member under axial force and bending.
 
 Pure numerics (numpy and the standard library). SI units throughout: m, N, N·m, Pa. See DEVELOPERS.md
-("Conventions") for signs and the case-file schema, and the README for the method and its references. This module is a façade: it re-exports
-the public names of the layers below it (DEVELOPERS.md, "How the engine is put together").
+("Conventions") for signs and the case-file schema, and the README for the method and its references. This
+module is a façade: it re-exports the public names of the layers below it (DEVELOPERS.md, "How the engine is
+put together").
 """
 
 from engine import prepared, solver
