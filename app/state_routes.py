@@ -1,8 +1,8 @@
 """The routes against the axial force: each route's utilisation from N = 0 to near the first critical load.
 
 The page's "Routes" figure shows how far apart the routes of the member check are, over the whole range of
-axial force rather than at the one N on screen. Every value comes from the engine: :func:`route_sweep` calls
-:func:`engine.solve` at :data:`SWEEP_POINTS` axial forces and keeps each route's utilisation. It does not
+axial force rather than at the one N on screen. Every value comes from the engine: `engine.sweeps.route_sweep`
+solves the case at :data:`SWEEP_POINTS` axial forces and keeps each route's utilisation. It does not
 depend on the axial force on screen, so :class:`RouteSweepOutputs` computes it once per case without its axial
 force (``Case.without_axial_force()``), and only once the figure has been asked for (the tab shown): a drag of
 the slider never reruns it. Served, it runs in the chart's worker process under the chart's budget.
@@ -10,69 +10,35 @@ the slider never reruns it. Served, it runs in the chart's worker process under 
 
 from __future__ import annotations
 
-import dataclasses
 import logging
-import math
 from functools import partial
 
 import numpy as np
 import param
 
-__all__ = ["SWEEP_POINTS", "TOP", "RouteSweepOutputs", "route_sweep", "route_sweep_forces", "route_sweep_job"]
+__all__ = ["SWEEP_POINTS", "RouteSweepOutputs", "route_sweep", "route_sweep_forces", "route_sweep_job"]
 
 _log = logging.getLogger(__name__)
 
 #: Axial forces of the sweep: enough for a smooth curve of a utilisation (which is smooth in N below Pcr1).
 SWEEP_POINTS = 25
-#: The sweep stops at this fraction of the lowest first critical load of the planes (at Pcr1 itself every
-#: second-order value is unbounded).
-TOP = 0.95
 
 
 def route_sweep_forces(result, points: int = SWEEP_POINTS) -> np.ndarray:
-    """Axial forces [N] from 0 to :data:`TOP` times the lowest critical load: each plane's Pcr1, and the
-    out-of-plane N_cr of a one-plane member whose buckling about the other axis is checked."""
-    pcr = [float(result.critical_loads[0])]
-    second = getattr(result, "second_plane", None)
-    if second is not None:
-        pcr.append(float(second.critical_loads[0]))
-    out = None if result.check is None else result.check.out_of_plane
-    if out is not None and out.checked and out.N_cr is not None:
-        pcr.append(float(out.N_cr))
-    top = TOP * min(p for p in pcr if math.isfinite(p) and p > 0) if any(p > 0 for p in pcr) else 0.0
-    return np.linspace(0.0, top, points)
+    """Axial forces [N] of the sweep: :func:`engine.sweeps.route_sweep_forces`."""
+    from engine.sweeps import route_sweep_forces as forces_of
 
-
-def _value(utilisation) -> float:
-    if utilisation is None:
-        return math.nan
-    value = float(utilisation)
-    return value if math.isfinite(value) else math.nan
+    return forces_of(result, points)
 
 
 def route_sweep(case, forces) -> dict:
-    """Each route's utilisation and the headline at `forces` [N] (NaN where a route does not apply).
+    """:func:`engine.sweeps.route_sweep` of `case` at `forces` [N], with ``note`` ("" or why nothing could be
+    computed)."""
+    from engine.sweeps import route_sweep as sweep_of
 
-    Returns
-    -------
-    dict
-        ``forces`` [N], ``headline`` (``result.utilization``), ``routes`` {route code: utilisations},
-        ``enabled`` {route code: bool}, ``note`` ("" or why nothing could be computed).
-    """
-    import engine
-
-    forces = np.asarray(forces, dtype=float)
-    headline = np.full(forces.size, math.nan)
-    routes: dict[str, np.ndarray] = {}
-    enabled: dict[str, bool] = {}
-    for i, force in enumerate(forces):
-        result = engine.solve(dataclasses.replace(case, axial_force=float(force)), stations=101)
-        headline[i] = _value(result.utilization)
-        for route in getattr(result, "routes", ()) or ():
-            routes.setdefault(route.route, np.full(forces.size, math.nan))[i] = _value(route.utilization)
-            enabled[route.route] = bool(route.enabled)
-    note = "" if np.isfinite(headline).any() else "no member check: give a section and a material"
-    return {"forces": forces, "headline": headline, "routes": routes, "enabled": enabled, "note": note}
+    sweep = sweep_of(case, forces)
+    note = "" if np.isfinite(sweep["headline"]).any() else "no member check: give a section and a material"
+    return {**sweep, "note": note}
 
 
 def route_sweep_job(case_text: str, forces) -> dict:

@@ -45,7 +45,7 @@ import math
 
 import numpy as np
 
-from engine.checks import EQ_5_9_KIND, MemberCheck
+from engine.checks import BEYOND_CRITICAL_SOURCE, EQ_5_9_KIND, MemberCheck, method_used
 from engine.classification import eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
 from engine.solver.model import Points
@@ -210,21 +210,8 @@ def check_biaxial(
     Vz, Vy = np.abs(np.asarray(shear_z, dtype=float)), np.abs(np.asarray(shear_y, dtype=float))
     fy, fc = material.fy, material.f_c
     shape = section_y.shape
-    notes = []
-    method = settings.method
-    if method == "plastic" and (shape not in _PLASTIC_SHAPES or material.kind == "timber"):
-        notes.append(
-            f"The plastic check does not apply to a {shape} section of {material.kind}; "
-            "the elastic check is used instead."
-        )
-        method = "elastic"
+    method, notes = method_used(settings.method, shape, material, section_class, _PLASTIC_SHAPES)
     klass = section_class.klass if section_class is not None else None
-    if method == "plastic" and klass is not None and klass >= 3:
-        notes.append(
-            f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
-            "so the elastic check is used instead."
-        )
-        method = "elastic"
     steel_like = material.kind in ("steel", "aluminium", "custom")
     root3 = math.sqrt(3.0)
     V_Rd_z = section_y.A_v * fy / (root3 * g0) if steel_like else None
@@ -284,7 +271,7 @@ def check_biaxial(
         kind, value, source, valid = "class 4 section", math.inf, section_class.source, False
     if beyond_critical:
         kind, value, valid = "elastic buckling", math.inf, False
-        source = "Euler; Timoshenko & Gere (1961) ch. 2: no stable equilibrium above the first critical load"
+        source = BEYOND_CRITICAL_SOURCE
     return MemberCheck(
         settings=settings,
         utilization=value,

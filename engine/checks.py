@@ -70,6 +70,12 @@ _SOURCES = {
 }
 
 
+#: Why a check above the first critical load is +inf.
+BEYOND_CRITICAL_SOURCE = (
+    "Euler; Timoshenko & Gere (1961) ch. 2: no stable equilibrium above the first critical load"
+)
+
+
 @dataclass(frozen=True, kw_only=True)
 class CheckSettings:
     """How the member is checked.
@@ -230,6 +236,30 @@ class MemberCheck:
     at: np.ndarray | None = None
 
 
+def method_used(asked: str, shape: str, material, section_class, plastic_shapes=_PLASTIC_SHAPES):
+    """The check method actually used, and why it differs from the one asked for (a list of notes).
+
+    The plastic check needs a shape it has rules for (``plastic_shapes``), a material other than timber, and a
+    section of class 1 or 2; otherwise the elastic check is used and a note says why.
+    """
+    notes = []
+    method = asked
+    if method == "plastic" and (shape not in plastic_shapes or material.kind == "timber"):
+        notes.append(
+            f"The plastic check does not apply to a {shape} section of {material.kind}; "
+            "the elastic check is used instead."
+        )
+        method = "elastic"
+    klass = section_class.klass if section_class is not None else None
+    if method == "plastic" and klass is not None and klass >= 3:
+        notes.append(
+            f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
+            "so the elastic check is used instead."
+        )
+        method = "elastic"
+    return method, notes
+
+
 def check_member(
     *,
     x,
@@ -283,23 +313,10 @@ def check_member(
     N = abs(float(axial_force))
     M = np.abs(np.asarray(moment, dtype=float))
     V = np.abs(np.asarray(shear, dtype=float))
-    notes = []
     fy, fc = material.fy, material.f_c
     steel_like = material.kind in ("steel", "aluminium", "custom")
-    method = settings.method
-    if method == "plastic" and (section.shape not in _PLASTIC_SHAPES or material.kind == "timber"):
-        notes.append(
-            f"The plastic check does not apply to a {section.shape} section of {material.kind}; "
-            "the elastic check is used instead."
-        )
-        method = "elastic"
+    method, notes = method_used(settings.method, section.shape, material, section_class)
     klass = section_class.klass if section_class is not None else None
-    if method == "plastic" and klass is not None and klass >= 3:
-        notes.append(
-            f"The section is {section_class.describe()}: the plastic check needs class 1 or 2, "
-            "so the elastic check is used instead."
-        )
-        method = "elastic"
     V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
         if method == "elastic":
@@ -360,7 +377,7 @@ def check_member(
     if beyond_critical:
         kind = s_kind = "elastic buckling"
         value = s_value = math.inf
-        source = "Euler; Timoshenko & Gere (1961) ch. 2: no stable equilibrium above the first critical load"
+        source = BEYOND_CRITICAL_SOURCE
         valid = False
     return MemberCheck(
         settings=settings,

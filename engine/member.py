@@ -41,6 +41,7 @@ import numpy as np
 from engine import codes
 from engine.case import Imperfection
 from engine.classification import eq_5_9_modulus
+from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.imperfections import Bow, bow_for
 from engine.materials import material_from_spec
@@ -183,15 +184,7 @@ def _curve(case, section, material):
         return imp.curve, "given in the case"
     if section is None or material is None or material.kind not in _STEEL_LIKE:
         return None, None
-    grade = material.name if material.name.upper().startswith("S") else None
-    return codes.buckling_curve(
-        shape=section.shape,
-        manufacture=section.manufacture,
-        axis=case.axis,
-        h_over_b=section.h_over_b,
-        t_max=section.t_max,
-        grade=grade,
-    )
+    return curve_of(section, material)  # section is about case.axis (section_from_spec(..., case.axis))
 
 
 def mode_curvature_peak(buckling) -> float:
@@ -212,9 +205,9 @@ def mode_curvature_peak(buckling) -> float:
     return (R if inside else ends) / buckling.length**2
 
 
-def _first_order_projection(case, EI, shape_values, x):
-    """∫ w1 · w0 dx of the loads' first-order deflection onto a bow shape (its sign is all that matters)."""
-    plain = dataclasses.replace(
+def _plain(case, EI):
+    """The case the solver runs: EI explicit; no bow, section, material, stiffness factor or second plane."""
+    return dataclasses.replace(
         case,
         EI=EI,
         imperfection=Imperfection(),
@@ -223,6 +216,11 @@ def _first_order_projection(case, EI, shape_values, x):
         stiffness_factor=1.0,
         second_plane=None,
     )
+
+
+def _first_order_projection(case, EI, shape_values, x):
+    """∫ w1 · w0 dx of the loads' first-order deflection onto a bow shape (its sign is all that matters)."""
+    plain = _plain(case, EI)
     model = Model(plain, Bow(shape="none", amplitude=0.0, length=plain.length))
     batch = Batch(model, [0.0])
     pts = Points(model, model.segment_of(x), x - model.xa[model.segment_of(x)])
@@ -293,15 +291,7 @@ def resolve(case):
         code_amp = L / ratio
         code_label = f"EN 1993-1-1 Table 5.1, curve {curve}, {method} analysis: L/{ratio}"
         code_source = "EN 1993-1-1:2005 Table 5.1 [text: Simões da Silva et al., ECCS 2010, table 2.20]"
-    plain = dataclasses.replace(
-        case,
-        EI=EI,
-        imperfection=Imperfection(),
-        section=None,
-        material=None,
-        stiffness_factor=1.0,
-        second_plane=None,
-    )
+    plain = _plain(case, EI)
     if imp.preset is None:
         shape, amplitude = imp.shape, imp.amplitude
         label = f"{shape}, amplitude {{amplitude}} (given)" if shape != "none" else "no initial bow"

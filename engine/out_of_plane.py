@@ -30,6 +30,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from engine import codes
+from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.sections import section_from_spec
 
@@ -199,15 +200,7 @@ def resistance(case, section, material) -> OutOfPlane:
             "of EN 1993-1-1 do not apply, out-of-plane buckling is not checked "
             f"(elastic N_cr = {n_cr * 1e-3:.6g} kN about the {other} axis, L_cr = {length:.3f} m)",
         )
-    grade = material.name if material.name.upper().startswith("S") else None
-    curve, why = codes.buckling_curve(
-        shape=turned.shape,
-        manufacture=turned.manufacture,
-        axis=other,
-        h_over_b=turned.h_over_b,
-        t_max=turned.t_max,
-        grade=grade,
-    )
+    curve, why = curve_of(turned, material)  # turned is about the other axis
     if curve is None:  # pragma: no cover - every steel shape but custom has a curve
         return OutOfPlane(checked=False, axis=other, reason=f"no buckling curve: {why}")
     note = ""

@@ -2,9 +2,12 @@
 
 from __future__ import annotations
 
+import dataclasses
+import math
+
 import numpy as np
 
-from engine.analysis import CRITICAL_TOLERANCE, check_stations
+from engine.analysis import CRITICAL_TOLERANCE, check_stations, solve
 from engine.errors import CaseError
 from engine.prepared import prepare
 from engine.reference import reference_peaks
@@ -13,7 +16,11 @@ from engine.solver.batch import Batch
 from engine.solver.model import Points
 from engine.solver.peaks import refine_peaks, strongest_tension_kappa
 
-__all__ = ["sweep"]
+__all__ = ["ROUTE_SWEEP_TOP", "route_sweep", "route_sweep_forces", "sweep"]
+
+#: A route sweep stops at this fraction of the lowest first critical load of the planes (at Pcr1 itself every
+#: second-order value is unbounded).
+ROUTE_SWEEP_TOP = 0.95
 
 
 def _at_critical(P: np.ndarray, pcr: np.ndarray) -> np.ndarray:
@@ -142,3 +149,48 @@ def _sweep_arrays(prep, P, n):
         result["amp_m1"] = (result["moment"][0] / m1 if m1 > 0 else np.full(P.size, np.nan),)
     result["d1"] = out["total_offset"][0][-1]
     return result, first, critical
+
+
+def route_sweep_forces(result, points: int = 25) -> np.ndarray:
+    """Axial forces [N] from 0 to :data:`ROUTE_SWEEP_TOP` times the lowest critical load: each plane's Pcr1,
+    and the out-of-plane N_cr of a one-plane member whose buckling about the other axis is checked."""
+    pcr = [float(result.critical_loads[0])]
+    second = getattr(result, "second_plane", None)
+    if second is not None:
+        pcr.append(float(second.critical_loads[0]))
+    out = None if result.check is None else result.check.out_of_plane
+    if out is not None and out.checked and out.N_cr is not None:
+        pcr.append(float(out.N_cr))
+    positive = [p for p in pcr if math.isfinite(p) and p > 0]
+    top = ROUTE_SWEEP_TOP * min(positive) if any(p > 0 for p in pcr) else 0.0
+    return np.linspace(0.0, top, points)
+
+
+def _value(utilisation) -> float:
+    if utilisation is None:
+        return math.nan
+    value = float(utilisation)
+    return value if math.isfinite(value) else math.nan
+
+
+def route_sweep(case, forces, stations: int = 101) -> dict:
+    """Each route's utilisation and the headline of ``case`` at ``forces`` [N] (NaN where a route does not
+    apply or is unbounded).
+
+    Returns
+    -------
+    dict
+        ``forces`` [N], ``headline`` (``Result.utilization``), ``routes`` {route code: utilisations},
+        ``enabled`` {route code: bool}.
+    """
+    forces = np.asarray(forces, dtype=float)
+    headline = np.full(forces.size, math.nan)
+    routes: dict[str, np.ndarray] = {}
+    enabled: dict[str, bool] = {}
+    for i, force in enumerate(forces):
+        result = solve(dataclasses.replace(case, axial_force=float(force)), stations=stations)
+        headline[i] = _value(result.utilization)
+        for route in result.routes:
+            routes.setdefault(route.route, np.full(forces.size, math.nan))[i] = _value(route.utilization)
+            enabled[route.route] = bool(route.enabled)
+    return {"forces": forces, "headline": headline, "routes": routes, "enabled": enabled}

@@ -104,9 +104,19 @@ def not_applied(route: str, enabled: bool, reason: str, source: str = "") -> Rou
     return RouteCheck(route=route, enabled=enabled, utilization=None, reason=reason, source=source)
 
 
-def _governing(terms: dict) -> tuple[str, float]:
-    name = max(terms, key=lambda k: terms[k])
-    return name, terms[name]
+def _verdict(enabled: bool, terms: dict, facts: dict, notes: list, source: str) -> RouteCheck:
+    """The route's result: its largest term governs (the first of equal ones)."""
+    governing = max(terms, key=lambda k: terms[k])
+    return RouteCheck(
+        route="en-member",
+        enabled=enabled,
+        utilization=terms[governing],
+        governing=governing,
+        terms=terms,
+        facts=facts,
+        notes=tuple(notes),
+        source=source,
+    )
 
 
 def route(
@@ -161,33 +171,14 @@ def route(
         facts[f"chi_{p.axis}"] = codes.reduction_factor(lam, curve)
     if N <= 0.0:
         notes.append("en-member-cross-section-only")
-        governing, value = _governing(terms)
-        return RouteCheck(
-            route="en-member",
-            enabled=enabled,
-            utilization=value,
-            governing=governing,
-            terms=terms,
-            facts=facts,
-            notes=tuple(notes),
-            source=source,
-        )
+        return _verdict(enabled, terms, facts, notes, source)
     # At or above a critical load of a plane whose solution the route reads (the plane analysed, or a plane
     # with moments), the moments have no stable equilibrium: unbounded, as the second-order route says. Annex
     # A's μ and 1/(1 - N/N_cr) turn negative above any critical load. Above the critical load of a plane
     # without moments, Annex B's equations hold and exceed 1 by themselves (N > N_cr >= χ N_Rk).
     if beyond or any(N >= p.N_cr and (p.diagram.M_max > 0.0 or settings.annex == "A") for p in (y, z)):
         terms["elastic-buckling"] = math.inf
-        return RouteCheck(
-            route="en-member",
-            enabled=enabled,
-            utilization=math.inf,
-            governing="elastic-buckling",
-            terms=terms,
-            facts=facts,
-            notes=tuple(notes),
-            source=source,
-        )
+        return _verdict(enabled, terms, facts, notes, source)
     chi_y, chi_z = facts["chi_y"], facts["chi_z"]
     lam_y, lam_z = facts["lambda_y"], facts["lambda_z"]
     if settings.annex == "B":
@@ -250,14 +241,4 @@ def route(
     )
     terms["eq-6.61"], terms["eq-6.62"] = found.eq_6_61, found.eq_6_62
     facts.update(C_my=C_my, C_mz=C_mz, k_yy=k.k_yy, k_yz=k.k_yz, k_zy=k.k_zy, k_zz=k.k_zz)
-    governing, value = _governing(terms)
-    return RouteCheck(
-        route="en-member",
-        enabled=enabled,
-        utilization=value,
-        governing=governing,
-        terms=terms,
-        facts=facts,
-        notes=tuple(notes),
-        source=source,
-    )
+    return _verdict(enabled, terms, facts, notes, source)
