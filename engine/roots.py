@@ -55,12 +55,16 @@ def brentq(f, a: float, b: float, xtol: float = _XTOL, rtol: float = _RTOL, maxi
         if fcur == 0.0 or abs(sbis) < delta:
             return xcur
         if abs(spre) > delta and abs(fcur) < abs(fpre):
-            if xpre == xblk:  # interpolate (secant)
-                stry = -fcur * (xcur - xpre) / (fcur - fpre)
-            else:  # extrapolate (inverse quadratic)
-                dpre = (fpre - fcur) / (xpre - xcur)
-                dblk = (fblk - fcur) / (xblk - xcur)
-                stry = -fcur * (fblk * dblk - fpre * dpre) / (dblk * dpre * (fblk - fpre))
+            try:
+                if xpre == xblk:  # interpolate (secant)
+                    stry = -fcur * (xcur - xpre) / (fcur - fpre)
+                else:  # extrapolate (inverse quadratic)
+                    dpre = (fpre - fcur) / (xpre - xcur)
+                    dblk = (fblk - fcur) / (xblk - xcur)
+                    stry = -fcur * (fblk * dblk - fpre * dpre) / (dblk * dpre * (fblk - fpre))
+            except ZeroDivisionError:
+                # In C a zero divisor gives an infinite or NaN step, which fails the test below: bisect.
+                stry = math.inf
             if 2 * abs(stry) < min(abs(spre), 3 * abs(sbis) - delta):  # a good short step
                 spre, scur = scur, stry
             else:  # bisect

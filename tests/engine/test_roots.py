@@ -77,3 +77,40 @@ def test_no_sign_change_is_refused_as_scipy_refuses_it():
         brentq(lambda x: x * x + 1, -1.0, 1.0)
     with pytest.raises(ValueError, match="rtol"):
         brentq(lambda x: x, -1.0, 1.0, rtol=1e-17)
+
+
+# A case the fuzzer met (tests/reliability/test_fuzz.py): a support with a vanishing translational spring
+# (1e-194 N/m) next to a guided end. Its characteristic function takes equal values at two bracket points, so
+# an extrapolation step divides by zero; scipy's C code then gets an infinite step and bisects; so must we.
+NEAR_FREE = {
+    "schema": 1,
+    "title": "Fuzzed case (invented)",
+    "length": 0.8,
+    "EI": 20000.0,
+    "supports": {"left": {"translation": 1e-194, "rotation": "free"}, "right": "guided"},
+    "axial_force": 0.0,
+    "loads": [],
+    "imperfection": {"shape": "none", "amplitude": 0.0},
+}
+
+
+def test_a_zero_divisor_in_a_step_bisects_as_scipy_does(monkeypatch):
+    import engine
+    from engine import prepared
+    from engine.solver import buckling
+
+    calls = []
+
+    def both(f, a, b, **kw):
+        ours = brentq(f, a, b, **kw)
+        assert ours == scipy_brentq(f, a, b, **kw), (a, b)
+        calls.append((a, b))
+        return ours
+
+    monkeypatch.setattr(buckling, "brentq", both)
+    buckling.clear_cache()
+    prepared.clear_cache()
+    result = engine.solve(engine.Case.from_dict(NEAR_FREE), stations=11)
+    assert calls, "the critical loads were not found through the root finder"
+    assert all(math.isfinite(n) for n in result.critical_loads)
+
