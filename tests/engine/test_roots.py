@@ -113,4 +113,3 @@ def test_a_zero_divisor_in_a_step_bisects_as_scipy_does(monkeypatch):
     result = engine.solve(engine.Case.from_dict(NEAR_FREE), stations=11)
     assert calls, "the critical loads were not found through the root finder"
     assert all(math.isfinite(n) for n in result.critical_loads)
-
