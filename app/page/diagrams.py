@@ -27,6 +27,8 @@ from app.page.style import (
     esc,
     finite,
     html_pane,
+    lean,
+    lean_figure,
 )
 from app.report.routes import plane_axes, plane_name
 from app.state import MemberState
@@ -151,12 +153,9 @@ class DiagramsView(pn.viewable.Viewer):
             (self.fig_M, "M", "M2", "M1"),
             (self.fig_V, "V", "V2", "V1"),
         ):
-            variants = [
-                fig.line(
-                    "x", kind, source=source, line_color=colour, line_width=2, line_alpha=0.75, visible=False
-                )
-                for source, colour in zip(self.variant_sources, VARIANT_COLOURS, strict=False)
-            ]
+            # The kept variants' lines are made when a variant is first kept (see _variant_lines): the first
+            # page carries fewer models and draws sooner (start-up, issue 10).
+            variants = []
             if kind == "w":
                 fig.line("x", "w0", source=self.stations, line_color=BOW, line_width=1.6, line_dash="dotted")
             fig.line("x", first, source=self.stations, line_color=FIRST, line_width=1.8, line_dash="6 4")
@@ -219,6 +218,8 @@ class DiagramsView(pn.viewable.Viewer):
         )
         self.fig_V.add_layout(self.T_label)
         self.fig_V.xaxis.axis_label = "x [m]"
+        for fig in (self.fig_w, self.fig_M, self.fig_V):
+            lean_figure(fig)
 
     # ------------------------------------------------------------------ drawing
 
@@ -350,9 +351,32 @@ class DiagramsView(pn.viewable.Viewer):
                 }
             else:
                 source.data = {"x": [], "w": [], "M": [], "V": []}
-            for kind in ("w", "M", "V"):
-                self.renderers[kind]["variants"][i].visible = i < len(self.variants) and not hidden
+            shown = i < len(self.variants) and not hidden
+            if shown or i < len(self.renderers["w"]["variants"]):
+                for line in self._variant_lines(i):
+                    line.visible = shown
         self._draw_key()
+
+    def _variant_lines(self, i: int) -> list:
+        """The i-th kept variant's lines on the three diagrams, made the first time they are asked for."""
+        for fig, kind in ((self.fig_w, "w"), (self.fig_M, "M"), (self.fig_V, "V")):
+            lines = self.renderers[kind]["variants"]
+            while len(lines) <= i:
+                j = len(lines)
+                line = fig.line(
+                    "x",
+                    kind,
+                    source=self.variant_sources[j],
+                    line_color=VARIANT_COLOURS[j],
+                    line_width=2,
+                    line_alpha=0.75,
+                    visible=False,
+                )
+                lean(line)
+                # under the case's own lines, as the key lists them
+                fig.renderers = [line, *(r for r in fig.renderers if r is not line)]
+                lines.append(line)
+        return [self.renderers[kind]["variants"][i] for kind in ("w", "M", "V")]
 
     def _draw_key(self) -> None:
         parts = []

@@ -27,7 +27,7 @@ from bokeh.models import Arrow as ArrowAnnotation
 from bokeh.models import ColumnDataSource, LabelSet, NormalHead, Range1d
 from bokeh.plotting import figure
 
-from app.page.style import BOW, LOAD, MEMBER
+from app.page.style import BOW, LOAD, MEMBER, lean_figure
 from app.sketch import FRAME_LEFT, PAD_INCHES, Y_RANGE, Arrow, Polygon, Polyline, Text, sketch
 from app.state import MemberState
 from app.units import units
@@ -297,6 +297,7 @@ class SketchView(param.Parameterized):
         ):
             self.labels[source.name] = LabelSet(source=source, x_units=x_units, **TEXT_FIELDS)
             fig.add_layout(self.labels[source.name])
+        lean_figure(fig)
         self.figure = fig
         fig.on_change("inner_width", self._resized)
         fig.on_change("inner_height", self._resized)

@@ -222,3 +222,16 @@ def heading(text: str, **params) -> pn.pane.HTML:
     """A small upper-case heading of a group or panel."""
     params.setdefault("margin", (4, 4, 0, 4))
     return html_pane(f"<div class='ss-heading'>{esc(text)}</div>", **params)
+
+
+def lean(*renderers) -> None:
+    """Drop the glyph copies Bokeh makes for a selected-away or muted line: the page selects nothing (no
+    selection tools) and mutes nothing, and each copy is a model the browser builds at start-up (issue 10)."""
+    for renderer in renderers:
+        renderer.nonselection_glyph = None
+        renderer.muted_glyph = None
+
+
+def lean_figure(fig) -> None:
+    """:func:`lean` every glyph renderer of `fig`."""
+    lean(*(r for r in fig.renderers if hasattr(r, "nonselection_glyph")))

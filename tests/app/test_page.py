@@ -186,6 +186,7 @@ def test_variants_are_kept_overlaid_and_compared(page):
     assert len(page.variants.kept) == MAX_VARIANTS
     kept = [v["result"].axial_force for v in page.variants.kept]
     assert kept == pytest.approx([1.0e6, 1.5e6, 2.0e6, 2.5e6], abs=10e3)  # within a slider step
+    assert len(page.diagrams.renderers["M"]["variants"]) == MAX_VARIANTS
     assert all(r.visible for r in page.diagrams.renderers["M"]["variants"])
     np.testing.assert_allclose(
         page.diagrams.variant_sources[0].data["M"], page.variants.kept[0]["result"].moment * 1e-3

@@ -36,3 +36,33 @@ def test_the_check_finds_an_error_in_a_broken_layout():
     plot.line(x="a", y="missing", source=ColumnDataSource({"a": [1, 2]}))
     issues = check_integrity(plot.references())
     assert [issue.name for issue in issues.error] == ["BAD_COLUMN_NAME"]
+
+
+def test_the_first_page_carries_no_unused_models():
+    """Start-up (issue 10): the browser builds every model of the first page, so the page sends none it
+    does not show: no selection or mute copies of a glyph (nothing is selected or muted), no kept variants'
+    lines before a variant is kept, and the tabs not shown are built when opened. 429 models before this was
+    trimmed, 311 after (2026-12-02); the bound leaves room for a few widgets, not another figure's worth."""
+    from bokeh.models import GlyphRenderer
+
+    page = make_page()
+    models = _models(page)
+    renderers = [m for m in models if isinstance(m, GlyphRenderer)]
+    assert renderers, "the page drew no glyphs"
+    assert [r for r in renderers if r.nonselection_glyph is not None or r.muted_glyph is not None] == []
+    assert not [m for m in models if getattr(m, "name", None) and str(m.name).startswith("variant_")]
+    assert len(models) <= 340, len(models)
+
+
+def test_a_kept_variant_gets_its_lines_when_kept():
+    """The variants' lines, left out of the first page, appear on the diagrams once a variant is kept."""
+    page = make_page()
+    diagrams = page.diagrams
+    assert diagrams.renderers["M"]["variants"] == []
+    page.keep_variant()
+    lines = [diagrams.renderers[kind]["variants"] for kind in ("w", "M", "V")]
+    assert [len(line) for line in lines] == [1, 1, 1] and all(line[0].visible for line in lines)
+    # drawn under the case's own lines
+    assert diagrams.fig_M.renderers[0] is diagrams.renderers["M"]["variants"][0]
+    page.variants.clear()
+    assert not diagrams.renderers["M"]["variants"][0].visible
