@@ -126,8 +126,46 @@ COLUMNS: tuple[Column, ...] = (
         description="restrained when out-of-plane buckling is prevented (no check about the other axis). "
         "Empty: checked.",
     ),
+    # Issue 14: bending about the other axis as well (the case file's ``second_plane``). A row with any of
+    # these cells filled is a two-plane member; its supports must then be given (they are rarely the first
+    # plane's: a wall or a rail often braces one plane only, so none is assumed).
+    Column(
+        name="second_left",
+        required=False,
+        description="Support at x = 0 in the second plane (bending about the other axis): pinned, fixed, "
+        "free or guided. Required when any second_ column is filled; empty everywhere: one plane.",
+    ),
+    Column(
+        name="second_right",
+        required=False,
+        description="Support at x = L in the second plane: pinned, fixed, free or guided.",
+    ),
+    Column(
+        name="second_udl_kN_per_m",
+        required=False,
+        description="Uniform load q in the second plane over the whole length [kN/m]. Empty: none.",
+    ),
+    Column(
+        name="second_point_loads",
+        required=False,
+        description="Point loads in the second plane, kN@m separated by ';' as in point_loads. Empty: none.",
+    ),
+    Column(
+        name="second_bow",
+        required=False,
+        description="Initial bow in the second plane, the forms of bow. Empty: EN 1993-1-1 Table 5.1 about "
+        "the other axis with a steel section and material, else none.",
+    ),
+    Column(
+        name="second_EI_kNm2",
+        required=False,
+        description="Bending stiffness about the other axis [kN·m²]; given exactly when EI_kNm2 is given.",
+    ),
     Column(name="comment", required=False, description="Free text, not read (it goes into the case title)."),
 )
+
+#: The columns that make a row a two-plane member.
+SECOND_PLANE_COLUMNS = tuple(column.name for column in COLUMNS if column.name.startswith("second_"))
 
 _BY_KEY = {column.name.lower(): column for column in COLUMNS}
 _REQUIRED = tuple(column.name for column in COLUMNS if column.required)
@@ -168,6 +206,8 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("governing_aisc", None),
     ("second_plane_Pcr1", "force"),
     ("second_plane_M_max", "moment"),
+    ("second_plane_V_max", "force"),
+    ("second_plane_w_max", "small_length"),
 )
 
 #: The routes with result columns, in the order of the layout (engine.design.routes.ROUTES).

@@ -19,6 +19,7 @@ from app.batch.columns import (
     _REQUIRED,
     _SPAN_BOW,
     COLUMNS,
+    SECOND_PLANE_COLUMNS,
     RowError,
     TableError,
 )
@@ -210,8 +211,22 @@ def _bow(text: str) -> dict:
     )
 
 
-def _column_of(path: str, row: Mapping[str, str], load_columns: list[str]) -> str:
+def _column_of(path: str, row: Mapping[str, str], load_columns: list[str], second_columns=()) -> str:
     """The table column behind an engine field path such as ``loads[1].x`` or ``supports.left``."""
+    if path.startswith("second_plane"):
+        rest = path[len("second_plane") :].lstrip(".")
+        if rest.startswith("supports"):
+            return "second_right" if rest.startswith("supports.right") else "second_left"
+        if rest.startswith("loads"):
+            match = re.match(r"loads\[(\d+)\]", rest)
+            if match and int(match.group(1)) < len(second_columns):
+                return second_columns[int(match.group(1))]
+            return "second_point_loads"
+        if rest.startswith("imperfection"):
+            return "second_bow"
+        if rest.startswith("EI"):
+            return "second_EI_kNm2"
+        return "second_left"
     head = re.split(r"[.\[]", path, maxsplit=1)[0]
     if head == "loads":
         match = re.match(r"loads\[(\d+)\]", path)
@@ -243,10 +258,12 @@ def _column_of(path: str, row: Mapping[str, str], load_columns: list[str]) -> st
     }.get(head, head)
 
 
-def _engine_error(error: Exception, row: Mapping[str, str], load_columns: list[str]) -> RowError:
+def _engine_error(
+    error: Exception, row: Mapping[str, str], load_columns: list[str], second_columns=()
+) -> RowError:
     message = str(error)
     path = message.split(":", 1)[0].strip()
-    column = _column_of(path, row, load_columns)
+    column = _column_of(path, row, load_columns, second_columns)
     cell = row.get(column)
     # The engine's message names its own field and the value in SI; the cell shows what the table said.
     return RowError(column, f"{column} = {cell!r}: {message}" if cell else message)
@@ -337,7 +354,45 @@ def member_case(row: Mapping[str, str]):
     if cell("Lcr_out_m"):
         length = _number("Lcr_out_m", cell("Lcr_out_m"), "metres", "3.0")
         data["out_of_plane"] = {**data.get("out_of_plane", {}), "buckling_length": length}
+    second_columns: list[str] = []
+    if any(cell(name) for name in SECOND_PLANE_COLUMNS):
+        data["second_plane"], second_columns = _second_plane(cell)
     try:
         return engine.Case.from_dict(data)
     except engine.CaseError as error:
-        raise _engine_error(error, row, load_columns) from None
+        raise _engine_error(error, row, load_columns, second_columns) from None
+
+
+def _second_plane(cell) -> tuple[dict, list[str]]:
+    """The case file's ``second_plane`` from the second_ columns, and the column of each of its loads."""
+    for name in ("second_left", "second_right"):
+        if not cell(name):
+            raise RowError(
+                name,
+                f"{name}: the cell is empty; a member bent in a second plane needs both its supports in that "
+                "plane (second_left and second_right: pinned, fixed, free or guided)",
+            )
+    plane: dict = {"supports": {"left": cell("second_left").lower(), "right": cell("second_right").lower()}}
+    loads: list[dict] = []
+    columns: list[str] = []
+    if cell("second_udl_kN_per_m"):
+        q = _number("second_udl_kN_per_m", cell("second_udl_kN_per_m"), "kN/m", "0.8")
+        if q != 0.0:
+            loads.append({"type": "uniform", "q": q * _KILO})
+            columns.append("second_udl_kN_per_m")
+    try:
+        points = _point_loads(cell("second_point_loads"))
+    except RowError as error:
+        raise RowError("second_point_loads", "second_" + str(error)) from None
+    for force, x in points:
+        loads.append({"type": "point", "P": force * _KILO, "x": x})
+        columns.append("second_point_loads")
+    plane["loads"] = loads
+    if cell("second_bow"):
+        try:
+            plane["imperfection"] = _bow(cell("second_bow"))
+        except RowError as error:
+            raise RowError("second_bow", "second_" + str(error)) from None
+    if cell("second_EI_kNm2"):
+        plane["EI"] = _number("second_EI_kNm2", cell("second_EI_kNm2"), "kN·m²", "1500") * _KILO
+    return plane, columns

@@ -111,7 +111,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         capacity_check or "",
         ";".join(caution.code for caution in result.cautions),
         *_route_cells(result),
-        *_second_plane_cells(result, force, moment),
+        *_second_plane_cells(result, force, moment, small),
     ]
     wrote = False
     if options.pdf_dir is not None:
@@ -140,12 +140,18 @@ def _route_cells(result) -> list[str]:
     return cells
 
 
-def _second_plane_cells(result, force: float, moment: float) -> list[str]:
-    """The second plane's Pcr1 and largest |M| in the display units, "" for a one-plane member."""
+def _second_plane_cells(result, force: float, moment: float, small: float) -> list[str]:
+    """The second plane's Pcr1 and largest |M|, |V| and |w| in the display units, "" for one plane."""
     second = getattr(result, "second_plane", None)
     if second is None:
-        return ["", ""]
-    return [_cell(second.critical_loads[0], force), _cell(abs(second.governing.moment.value), moment)]
+        return ["", "", "", ""]
+    governing = second.governing
+    return [
+        _cell(second.critical_loads[0], force),
+        _cell(abs(governing.moment.value), moment),
+        _cell(abs(governing.shear.value), force),
+        _cell(abs(governing.deflection.value), small),
+    ]
 
 
 def _error_record(row: int, identifier: str, column: str, message: str) -> list[str]:

@@ -523,14 +523,16 @@ def test_route_and_second_plane_cells():
     case = engine.Case.from_dict({"schema": 1, **GOOD["G3"][1]})
     result = engine.solve(case)
     plain = dataclasses.replace(result, routes=(), second_plane=None)
-    assert _route_cells(plain) == [""] * 7 and _second_plane_cells(plain, 1e-3, 1e-3) == ["", ""]
+    assert _route_cells(plain) == [""] * 7 and _second_plane_cells(plain, 1e-3, 1e-3, 1e3) == [""] * 4
     both = dataclasses.replace(result, routes=ROUTES, second_plane=result)
     assert _route_cells(both) == ["en-member", "0.812", "cross-section", "0.903", "eq-6.62", "0.951", "H1-1a"]
-    pcr, moment = _second_plane_cells(both, 1e-3, 1e-3)
+    pcr, moment, shear, deflection = _second_plane_cells(both, 1e-3, 1e-3, 1e3)
     assert float(pcr) == pytest.approx(result.critical_loads[0] / 1e3, rel=1e-12)
     assert float(moment) == pytest.approx(abs(result.governing.moment.value) / 1e3, rel=1e-12)
+    assert float(shear) == pytest.approx(abs(result.governing.shear.value) / 1e3, rel=1e-12)
+    assert float(deflection) == pytest.approx(abs(result.governing.deflection.value) * 1e3, rel=1e-12)
     columns = batch.result_columns("us")
-    assert columns[-9:] == (
+    assert columns[-11:] == (
         "headline_route",
         "utilization_second_order",
         "governing_second_order",
@@ -540,4 +542,97 @@ def test_route_and_second_plane_cells():
         "governing_aisc",
         "second_plane_Pcr1_kip",
         "second_plane_M_max_kip_ft",
+        "second_plane_V_max_kip",
+        "second_plane_w_max_in",
     )
+
+
+# A member bent in both planes, given as a row (issue 14). The case file it must equal is written out here,
+# so the row's reading is checked against the case file contract, not against itself (invented member).
+TWO_PLANE_ROW = {
+    "id": "WP2",
+    "length_m": "4.2",
+    "left": "pinned",
+    "right": "pinned",
+    "section": "HEB 200",
+    "material": "S355",
+    "axial_kN": "600",
+    "udl_kN_per_m": "3.5",
+    "bow": "en1993-table-5.1",
+    "second_left": "pinned",
+    "second_right": "fixed",
+    "second_udl_kN_per_m": "0.8",
+    "second_point_loads": "1.5@2.1",
+    "comment": "invented two-plane member",
+}
+TWO_PLANE_CASE = {
+    "schema": 1,
+    "title": "WP2: invented two-plane member",
+    "length": 4.2,
+    "supports": {"left": "pinned", "right": "pinned"},
+    "section": {"name": "HEB 200"},
+    "material": {"name": "S355"},
+    "axial_force": 600e3,
+    "loads": [{"type": "uniform", "q": 3.5e3}],
+    "imperfection": {"preset": "en1993-table-5.1"},
+    "second_plane": {
+        "supports": {"left": "pinned", "right": "fixed"},
+        "loads": [{"type": "uniform", "q": 0.8e3}, {"type": "point", "P": 1.5e3, "x": 2.1}],
+    },
+}
+
+
+def test_a_row_with_second_plane_columns_is_the_two_plane_case_file():
+    from app.batch.rows import member_case
+
+    from_row = member_case(TWO_PLANE_ROW)
+    assert from_row == engine.Case.from_dict(TWO_PLANE_CASE)
+    result = engine.solve(from_row)
+    assert result.second_plane is not None and result.second_plane.governing.moment.value != 0.0
+
+
+def test_the_batch_writes_both_planes_of_a_two_plane_row(tmp_path):
+    header = list(TWO_PLANE_ROW)
+    one_plane = {**TWO_PLANE_ROW, "id": "P1", **{k: "" for k in header if k.startswith("second_")}}
+    rows = [TWO_PLANE_ROW, one_plane]
+    with open(tmp_path / "members.csv", "w", newline="", encoding="utf-8") as stream:
+        writer = csv.DictWriter(stream, fieldnames=header)
+        writer.writeheader()
+        writer.writerows(rows)
+    done = run_cli("batch", "members.csv", "--out", "out", "--no-capacity", cwd=tmp_path)
+    assert done.returncode in (0, 1), done.stderr
+    got = {r["id"]: r for r in read_results(tmp_path / "out")}
+    expected = engine.solve(engine.Case.from_dict(TWO_PLANE_CASE))
+    two = got["WP2"]
+    assert two["status"] == "ok", two
+    assert float(two["second_plane_M_max_kNm"]) == pytest.approx(
+        abs(expected.second_plane.governing.moment.value) / 1e3, rel=1e-3
+    )
+    assert float(two["second_plane_w_max_mm"]) == pytest.approx(
+        abs(expected.second_plane.governing.deflection.value) * 1e3, rel=1e-3
+    )
+    assert float(two["utilization"]) == pytest.approx(expected.utilization, rel=1e-3)
+    assert got["P1"]["status"] == "ok" and got["P1"]["second_plane_M_max_kNm"] == ""
+
+
+@pytest.mark.parametrize(
+    ("change", "column", "words"),
+    [
+        ({"second_right": ""}, "second_right", "needs both its supports"),
+        ({"second_left": "hinged"}, "second_left", "hinged"),
+        ({"second_bow": "L/abc"}, "second_bow", "is not a bow"),
+        ({"second_point_loads": "1.5@9.0"}, "second_point_loads", "9"),
+        ({"second_point_loads": "1.5 at 2"}, "second_point_loads", "is not a point load"),
+        ({"second_udl_kN_per_m": "0,8"}, "second_udl_kN_per_m", "decimal point"),
+        ({"Lcr_out_m": "3.0"}, "Lcr_out_m", "second_plane"),
+        ({"second_EI_kNm2": "1500"}, "second_EI_kNm2", "EI"),
+    ],
+)
+def test_a_bad_second_plane_cell_is_named(change, column, words):
+    from app.batch.columns import RowError
+    from app.batch.rows import member_case
+
+    with pytest.raises(RowError) as raised:
+        member_case({**TWO_PLANE_ROW, **change})
+    assert raised.value.column == column, str(raised.value)
+    assert words in str(raised.value)
