@@ -399,18 +399,27 @@ def result_figure(result, *, units="si", date=None) -> Figure:
     return fig
 
 
-def sheet_figure(result, *, units="si") -> Figure:
+def sheet_figure(result, *, units="si", plane: str = "first") -> Figure:
     """The calc sheet's figure page: the sketch and the diagrams of :func:`result_figure` on A4 portrait.
 
     The calc sheet keeps one orientation, and its text pages already give the inputs, the governing values
-    and the cautions, so this page has no title block of its own (only a heading naming the case).
+    and the cautions, so this page has no title block of its own (only a heading naming the case). A member
+    bent in both planes gets one page per plane: ``plane="second"`` draws ``result.second_plane``.
     """
     U = _units(units)
     fig = Figure(figsize=A4_PORTRAIT)
     FigureCanvasAgg(fig)
-    _plots(fig, result, U, left=0.14, right=0.94, top=0.86, bottom=0.07, legend_columns=2)
+    shown = result
+    title = f"Figures: {_title(result)}"
+    second = getattr(result, "second_plane", None)
+    if second is not None:
+        axes = plane_axes(result)
+        shown = second if plane == "second" else result
+        axis = axes[1] if plane == "second" else axes[0]
+        title = f"Figures, bending about the {plane_name(axis)}: {_title(result)}"
+    _plots(fig, shown, U, left=0.14, right=0.94, top=0.86, bottom=0.07, legend_columns=2)
     width_pt = (0.94 - 0.14) * A4_PORTRAIT[0] * 72
-    heading = _Measure().shorten(drawable(f"Figures: {_title(result)}"), width_pt, 9, "bold")
+    heading = _Measure().shorten(drawable(title), width_pt, 9, "bold")
     fig.text(
         0.14,
         0.935,

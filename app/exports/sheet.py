@@ -359,22 +359,26 @@ def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", dat
         if render(size, False)[0] == 1:
             break
     count, pages = render(size, True)
-    total = count + 1
+    # one figure page per bending plane
+    planes = ("first", "second") if getattr(result, "second_plane", None) is not None else ("first",)
+    total = count + len(planes)
     for number, fig in enumerate(pages, start=1):
         _sheet_frame(fig, number, total, margin)
-    figure = sheet_figure(result, units=U)
-    figure.text(
-        0.985,
-        0.008,
-        f"page {total} of {total}",
-        ha="right",
-        va="bottom",
-        fontsize=6.5,
-        color=_GREY,
-        family=_FONT,
-        parse_math=False,
-    )
-    return pages + [figure]
+    for number, plane in enumerate(planes, start=count + 1):
+        figure = sheet_figure(result, units=U, plane=plane)
+        figure.text(
+            0.985,
+            0.008,
+            f"page {number} of {total}",
+            ha="right",
+            va="bottom",
+            fontsize=6.5,
+            color=_GREY,
+            family=_FONT,
+            parse_math=False,
+        )
+        pages.append(figure)
+    return pages
 
 
 def _grey_text(fig, x: float, y: float, text: str, *, ha: str, va: str, size: float) -> None:

@@ -99,3 +99,26 @@ def two_planes_result():
         "loads": [{"type": "uniform", "q": 1.0e3}],
     }
     return engine.solve(engine.Case.from_dict(mapping))
+
+
+def test_calc_sheet_has_a_figure_page_per_plane():
+    """A two-plane calc sheet ends with one figure page per plane, each headed by its axis, each drawing its
+    own plane's moment (the largest |M| plotted is that plane's, in kN·m); a one-plane sheet keeps one."""
+    result = two_planes_result()
+    pages = exports.calc_sheet_figures(result)
+    heads = [" ".join(t.get_text() for t in page.texts) for page in pages[-2:]]
+    assert "Figures, bending about the major axis (y–y)" in heads[0]
+    assert "Figures, bending about the minor axis (z–z)" in heads[1]
+    total = len(pages)
+    assert f"page {total - 1} of {total}" in heads[0] and f"page {total} of {total}" in heads[1]
+    for page, plane in zip(pages[-2:], (result, result.second_plane), strict=True):
+        drawn = max(
+            float(np.nanmax(np.abs(line.get_ydata())))
+            for ax in page.axes
+            for line in ax.get_lines()
+            if ax.get_ylabel().startswith("bending moment M") and len(line.get_ydata()) > 10
+        )
+        assert drawn == pytest.approx(abs(plane.governing.moment.value) / 1e3, rel=1e-3)
+    single = exports.calc_sheet_figures(dataclasses.replace(result, second_plane=None))
+    assert len(single) == total - 1
+    assert "Figures: " in " ".join(t.get_text() for t in single[-1].texts)
