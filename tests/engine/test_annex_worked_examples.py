@@ -11,7 +11,9 @@ cited below as MSB08/27, SSB04/121, SSB05/51 and so on:
   Worked Example 2, "Combined axial force and bending moment (N-M interaction)", sheets 1–5, pp. 8-18 to
   8-22 (made CZT, checked ENM, 02/2010). IPE 450, S355, N_Ed = 127 kN, M_y,Ed = 356 kNm constant, L_y = L_z =
   L_LT = 1.7 m, γ_M1 = 1.0; Annex B. The same numbers are the rafter check of *Single-Storey Steel Buildings,
-  Part 4: Detailed design of portal frames*, Appendix D, sheets 26–28, pp. 4-107 to 4-109.
+  Part 4: Detailed design of portal frames*, Appendix D, sheets 26–28, pp. 4-107 to 4-109 (out-of-plane
+  check only; the in-plane k_yy and eq. (6.61) are MSB08's). Both are hand calculations to EN 1993-1-1 with
+  its recommended values, printed as calculation sheets, not a program's output.
 - **SSB05-chord** and **SSB05-diagonal**: *Single-Storey Steel Buildings, Part 5: Detailed design of
   trusses*, §4.1.1 (upper chord, IPE 330, class 4, pp. 5-33 to 5-36) and §4.1.3 (diagonal, two angles
   150 × 150 × 15, pp. 5-37 to 5-41). S355, γ_M1 = 1.0; Annex A with the elastic (class 3 and 4) formulas.
