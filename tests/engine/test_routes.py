@@ -1,9 +1,9 @@
 """The routes of the member check (issue 14): second-order, EN 1993-1-1 equivalent member, AISC 360-16.
 
-Sources are named beside each check. Values recalled rather than read from a copy are marked "from memory". No
-published worked example of eqs. (6.61)/(6.62) could be quoted here to its digits, so the Annex B and Annex A
-interaction factors are checked against a hand calculation written out in this file with mpmath from the
-Annexes' formulas (from memory), independent of the engine's code.
+Sources are named beside each check. Values recalled rather than read from a copy are marked "from memory".
+The Annex B and Annex A interaction factors are checked against published worked examples in
+test_annex_worked_examples.py, and here against a hand calculation written out with mpmath from the Annexes'
+formulas (from memory), independent of the engine's code.
 """
 
 from __future__ import annotations
