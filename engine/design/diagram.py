@@ -31,7 +31,10 @@ pin-ended member; :math:`L = L_{cr}`): it is the first term of the exact amplifi
 a fixed-ended member under a uniform load would get :math:`C = 1 - 0.69\,N/N_{cr}` where the exact
 second-order end moment needs :math:`C \approx 0.80` at :math:`N/N_{cr} = 0.5` (unsafe); with
 :math:`N_{cr}` it gets :math:`1 + 0.23\,N/N_{cr}` (safe). A couple inside the span: the larger of 1 and the
-general formula.
+general formula. A uniform load on a member whose ends cannot translate: the larger of the general formula
+and the table's row for it, :math:`1 + 0.03\,N_{Ed}/N_{cr,i}` (the row rounds the pin-ended member's
+:math:`5\pi^2/48 - 1 = 0.028` up; the concentrated load's row, :math:`1 - 0.18\,N_{Ed}/N_{cr,i}`, rounds
+:math:`\pi^2/12 - 1 = -0.178` down, so the general formula is the larger there).
 """
 
 from __future__ import annotations
@@ -163,4 +166,8 @@ def annex_a_factor(d: Diagram, N_Ed: float, N_cr: float) -> float:
         return annex_a.moment_factor_linear(d.psi, ratio)
     lever = 0.0 if math.isinf(N_cr) else N_cr * d.delta / d.M_max
     general = annex_a.moment_factor_general(N_cr_delta_over_M=lever, n_cr_ratio=ratio)
+    if d.form == "uniform" and not d.sway:
+        # The table's own row for a uniform load, 1 + 0.03 N/N_cr, rounds the general formula's 5π²/48 − 1 =
+        # 0.028 up; a published worked example uses the row (tests/REFERENCES.md §12). The larger is taken.
+        return max(general, 1.0 + 0.03 * ratio)
     return max(1.0, general) if d.form == "other" else general

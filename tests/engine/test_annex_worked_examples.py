@@ -292,16 +292,22 @@ def test_ssb05_diagonal_reduction_factors():
 
 def test_ssb05_diagonal_moment_factor_row_and_general_formula():
     """C_mz of Table A.2 for the uniformly loaded pin-ended diagonal. The sheet (p. 5-41, SSB05/51) takes the
-    table's row C_mz = 1 + 0.03 N_Ed/N_cr,z = 1.012; strutscope takes the table's general formula with the
-    exact deflection, 1 + (5π²/48 − 1) N_Ed/N_cr,z = 1.011 (engine/design/diagram.py). They differ by the
-    row's rounding of 5π²/48 − 1 = 0.0281 to 0.03: at N_Ed/N_cr,z = 0.406 ours is 0.0008 lower, beyond the
-    sheet's rounding and on the unsafe side by 0.08 %; recorded in DEVELOPERS.md as open for the route's
-    owner (the larger of the two is the conservative reading). The k factors below use the sheet's 1.012."""
+    table's row C_mz = 1 + 0.03 N_Ed/N_cr,z = 1.012; the table's general formula with the exact deflection
+    gives 1 + (5π²/48 − 1) N_Ed/N_cr,z = 1.011. They differ by the row's rounding of 5π²/48 − 1 = 0.0281 to
+    0.03 (0.0008 at N_Ed/N_cr,z = 0.406). strutscope takes the larger, the row (engine/design/diagram.py,
+    `annex_a_factor`), so it prints the sheet's 1.012; the k factors below use it."""
     ratio = DIAG["N"] / DIAG["N_cr_z"]
     _printed(1 + 0.03 * ratio, 1.012, 3)
     ours = annex_a.moment_factor_general(N_cr_delta_over_M=5 * math.pi**2 / 48, n_cr_ratio=ratio)
     _printed(ours, 1.011, 3)
     assert (1 + 0.03 * ratio) - ours == pytest.approx((0.03 - (5 * math.pi**2 / 48 - 1)) * ratio, rel=1e-9)
+    from engine.design.diagram import Diagram, annex_a_factor
+
+    # the engine's reading of a pin-ended member's uniform-load diagram, with q = L = EI = 1: M_max = 1/8,
+    # δ = 5/384, N_cr = π²; it takes the table's row
+    d = Diagram(form="uniform", M_h=0.0, psi=0.0, M_s=0.125, M_max=0.125, delta=5 / 384, V_max=0.5, sway=0)
+    _printed(annex_a_factor(d, ratio * math.pi**2, math.pi**2), 1.012, 3)
+    assert annex_a_factor(d, ratio * math.pi**2, math.pi**2) == pytest.approx(1 + 0.03 * ratio, rel=1e-12)
 
 
 def test_ssb05_diagonal_annex_a_factors_and_eqs_6_61_6_62():
