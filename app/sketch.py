@@ -30,6 +30,7 @@ for w.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -304,15 +305,16 @@ def _bow(out, result, U: Units, L: float) -> None:
         return
     bow = np.asarray(result.initial_bow, dtype=float)
     largest = float(np.max(np.abs(bow)))
-    scale = 0.38 / largest
+    if not (math.isfinite(largest) and largest > 0.0):
+        return  # nothing drawable (a bow of 1e-300 m overflows 0.38/largest; the values say what it is)
     x = U.length.from_si(np.asarray(result.x, dtype=float))
-    out.append(_line("bow", x, -bow * scale, width=1.0, dashed=True))
+    out.append(_line("bow", x, -(bow / largest) * 0.38, width=1.0, dashed=True))
     i = int(np.argmax(np.abs(bow)))
     where = x[i] / L if L > 0 else 0.5
     ha = "left" if where < 0.3 else ("right" if where > 0.7 else "center")
     dx = 0.35 if ha == "left" else (-0.35 if ha == "right" else 0.0)
     text = f"initial bow w0, largest {U.show('small_length', largest)} (drawn exaggerated)"
-    at = _pt(x[i], -bow[i] * scale - np.sign(bow[i]) * 0.05, dx)
+    at = _pt(x[i], -(bow[i] / largest) * 0.38 - np.sign(bow[i]) * 0.05, dx)
     out.append(Text("bow-label", text, at, ha=ha, va="top" if bow[i] > 0 else "bottom"))
 
 

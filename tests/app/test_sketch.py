@@ -110,3 +110,33 @@ def test_moment_is_drawn_positive_downward_in_the_figures():
         moment_ax = next(ax for ax in figure.axes if ax.get_ylabel().startswith("bending moment M"))
         assert moment_ax.yaxis_inverted()
         assert "(+ downward)" in moment_ax.get_ylabel()
+
+
+@pytest.mark.parametrize("amplitude", [1e-310, 1e-200, 5e-3])
+def test_a_tiny_bow_is_drawn_finite_or_left_out_without_a_warning(amplitude):
+    """A bow so small that 0.38/max|w0| overflows (the fuzzer found 1e-310 m) drew NaN with a RuntimeWarning;
+    now every drawn point is finite (an invented member)."""
+    import warnings
+
+    from app.sketch import sketch
+    from app.units import units
+
+    case = engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 3.0,
+            "EI": 2e6,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 1e3,
+            "loads": [],
+            "imperfection": {"shape": "sine", "amplitude": amplitude},
+        }
+    )
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        drawn = sketch(engine.solve(case), units("si"))
+    bows = [shape for shape in drawn.shapes if getattr(shape, "role", None) == "bow"]
+    for shape in bows:
+        assert all(math.isfinite(v) for v in (*shape.x, *shape.y, *shape.dx, *shape.dy))
+    if amplitude == 5e-3:
+        assert bows, "a 5 mm bow is drawn"
