@@ -101,3 +101,19 @@ REASONS = {
     "slender-element-compression": "a slender element in compression (AISC 360-16 §E7, not covered)",
     "slender-element-flexure": "a slender element in flexure (AISC 360-16 §F, not covered)",
 }
+
+
+def plane_name(axis: str) -> str:
+    """The plane named by the axis it bends about: ``"major axis (y–y)"`` or ``"minor axis (z–z)"``."""
+    return "minor axis (z–z)" if axis == "minor" else "major axis (y–y)"
+
+
+def other_axis(axis: str) -> str:
+    """The other axis: ``"minor"`` for ``"major"`` and back."""
+    return "major" if axis == "minor" else "minor"
+
+
+def plane_axes(result) -> tuple[str, str]:
+    """(axis of the case's own plane, axis of the second plane), e.g. ``("major", "minor")``."""
+    axis = getattr(getattr(result, "case", None), "axis", None) or "major"
+    return axis, other_axis(axis)

@@ -15,7 +15,17 @@ from __future__ import annotations
 import math
 
 from app.report.numbers import finite, ratio
-from app.report.route_names import NOTES, REASONS, TERMS, governing_text, route_name, route_setting
+from app.report.route_names import (  # noqa: F401 (the planes' names are used from here too)
+    NOTES,
+    REASONS,
+    TERMS,
+    governing_text,
+    other_axis,
+    plane_axes,
+    plane_name,
+    route_name,
+    route_setting,
+)
 from app.report.words import governing_rows, peak_text, quoted_text
 from app.units import Units
 
@@ -245,22 +255,6 @@ def route_rows(result, U: Units) -> list[dict]:
             }
         )
     return rows
-
-
-def plane_name(axis: str) -> str:
-    """The plane named by the axis it bends about: ``"major axis (y–y)"`` or ``"minor axis (z–z)"``."""
-    return "minor axis (z–z)" if axis == "minor" else "major axis (y–y)"
-
-
-def other_axis(axis: str) -> str:
-    """The other axis: ``"minor"`` for ``"major"`` and back."""
-    return "major" if axis == "minor" else "minor"
-
-
-def plane_axes(result) -> tuple[str, str]:
-    """(axis of the case's own plane, axis of the second plane), e.g. ``("major", "minor")``."""
-    axis = getattr(getattr(result, "case", None), "axis", None) or "major"
-    return axis, other_axis(axis)
 
 
 def second_plane_rows(result, U: Units) -> list[tuple[str, str]]:

@@ -49,7 +49,16 @@ def _results_lines(add, result, U) -> None:
     for n, load in enumerate(result.critical_loads[:3], start=1):
         add(f"  Pcr{n} = {U.show('force', load, 5)}")
     add(f"  effective length factor K = {ratio(result.buckling.effective_length_factor)}")
-    if result.axial_force > 0:
+    second = getattr(result, "second_plane", None)
+    if result.axial_force > 0 and second is not None:
+        # result.alpha_cr is the member's, the smaller of the two planes'; Pcr1 above is this plane's
+        own, other = r.plane_axes(result)
+        add(f"  α_cr = Pcr1 / N = {ratio(result.critical_loads[0] / result.axial_force)} (this plane)")
+        add(
+            f"  α_cr of the member = {ratio(result.alpha_cr)} (the smaller of both planes; second plane, "
+            f"{r.plane_name(other)}: Pcr1 = {U.show('force', second.critical_loads[0], 5)})"
+        )
+    elif result.axial_force > 0:
         add(f"  α_cr = Pcr1 / N = {ratio(result.alpha_cr)}")
     else:
         add(f"  α_cr = {ratio(result.alpha_cr)} (no compression)")

@@ -17,7 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
-from app.report.route_names import NOTES, REASONS, governing_text, route_name
+from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
 from app.units import Units, units
 
 __all__ = [
@@ -268,6 +268,17 @@ def status_message(result, U: Units) -> str:
     """What the status means, with the numbers in the display units (no status word in front)."""
     status, P = result.status, float(result.axial_force)
     pcr = np.asarray(result.critical_loads, dtype=float)
+    second = getattr(result, "second_plane", None)
+    plane = ""
+    if second is not None:
+        # The member's status is the worse plane's: word it with the critical loads of the plane whose first
+        # critical load is the lower, and name that plane.
+        own, other = plane_axes(result)
+        lower = np.asarray(second.critical_loads, dtype=float)
+        if lower[0] < pcr[0]:
+            pcr, plane = lower, f", bending about the {plane_name(other)}"
+        else:
+            plane = f", bending about the {plane_name(own)}"
 
     def force(value):
         return U.show("force", value, 5)
@@ -275,19 +286,20 @@ def status_message(result, U: Units) -> str:
     if status == "critical":
         n = int(np.argmin(np.abs(pcr - P))) + 1
         said = (
-            f"the axial force {force(P)} equals critical load {n} ({force(pcr[n - 1])}): no equilibrium "
-            "exists and the response is unbounded"
+            f"the axial force {force(P)} equals critical load {n} ({force(pcr[n - 1])}{plane}): no "
+            "equilibrium exists and the response is unbounded"
         )
     elif status == "unstable":
         between = int(np.searchsorted(pcr, P))
         said = (
-            f"the axial force {force(P)} exceeds the first critical load {force(pcr[0])} (N/Pcr1 = "
+            f"the axial force {force(P)} exceeds the first critical load {force(pcr[0])}{plane} (N/Pcr1 = "
             f"{P / pcr[0]:.4g}, between critical loads {between} and {between + 1}): this equilibrium is "
             "unstable; the member buckles before it is reached"
         )
     elif P > 0:
         said = (
-            f"compression {force(P)}, N/Pcr1 = {P / pcr[0]:.4g} (α_cr = {pcr[0] / P:.4g}); stable equilibrium"
+            f"compression {force(P)}, N/Pcr1 = {P / pcr[0]:.4g} (α_cr = {pcr[0] / P:.4g}{plane}); stable "
+            "equilibrium"
         )
     elif P < 0:
         said = f"tension {force(-P)}; stable equilibrium, no buckling"

@@ -222,3 +222,42 @@ def test_command_line_json_carries_the_engines_routes_and_second_plane(tmp_path)
     text = run_cli("solve", str(path), "--units", "us", cwd=tmp_path).stdout
     assert "Routes (" in text and "Second plane: bending about the minor axis (z–z)" in text
     assert not [m.group(0) for m in FORBIDDEN["us"].finditer(text)]
+
+
+def _demo_two_planes_at(axial_force):
+    """The invented two-plane demo at `axial_force` [N] (Pcr1 1965.7 kN major axis, 723.27 kN minor)."""
+    import json
+    from importlib import resources
+
+    import engine
+
+    text = resources.files("assets").joinpath("demo_two_planes.json").read_text(encoding="utf-8")
+    mapping = json.loads(text)
+    return engine.solve(engine.Case.from_dict(dict(mapping, axial_force=axial_force)))
+
+
+def test_status_of_two_planes_is_worded_with_the_lower_planes_critical_load():
+    """Between the two planes' first critical loads the member is unstable by its minor axis: the status must
+    give that plane's Pcr1 and ratio (it gave the major axis's, 'exceeds 1965.7 kN' at N = 1000 kN)."""
+    from app.report import status_text
+    from app.units import units
+
+    result = _demo_two_planes_at(1.0e6)
+    pcr = result.second_plane.critical_loads[0]
+    assert pcr < 1.0e6 < result.critical_loads[0]
+    text = status_text(result, units("si"))
+    assert text.startswith("unstable: the axial force 1000.0 kN exceeds the first critical load 723.27 kN, ")
+    assert "minor axis (z–z)" in text and f"N/Pcr1 = {1.0e6 / pcr:.4g}" in text
+    assert "between critical loads 1 and 2" in text
+    stable = status_text(_demo_two_planes_at(180e3), units("si"))
+    assert f"α_cr = {pcr / 180e3:.4g}, bending about the minor axis (z–z)" in stable
+
+
+def test_summary_gives_the_planes_and_the_members_alpha_cr():
+    from app.report.summary import format_summary
+
+    result = _demo_two_planes_at(180e3)
+    text = format_summary("demo", result.case, result)
+    own = result.critical_loads[0] / 180e3
+    assert f"α_cr = Pcr1 / N = {own:.3f} (this plane)" in text
+    assert "α_cr of the member = 4.018 (the smaller of both planes" in text
