@@ -1,0 +1,108 @@
+"""Named load cases (actions) and combination settings in the case file: reading, writing and refusing.
+
+The keys are the README's "Load cases and combinations"; every value here is invented.
+"""
+
+import copy
+import json
+from importlib import resources
+
+import pytest
+
+import engine
+from engine.actions import Action, CombinationSettings
+
+
+def demo():
+    """The invented demo with a permanent and a wind action, as JSON data."""
+    text = resources.files("assets").joinpath("demo_wind_post_actions.json").read_text(encoding="utf-8")
+    return json.loads(text)
+
+
+def test_demo_with_actions_reads_and_round_trips():
+    """The demo's two actions and its settings are read, and to_dict/from_dict give the same case back."""
+    case = engine.Case.from_dict(demo())
+    assert [a.name for a in case.actions] == ["G", "W"]
+    assert case.actions[1] == Action(
+        name="W", category="wind", axial_force=-20e3, loads=(engine.UniformLoad(q=1.7e3),)
+    )
+    assert case.combinations == CombinationSettings()
+    assert engine.Case.from_dict(case.to_dict()) == case
+    assert engine.Case.from_json(case.to_json()) == case
+
+
+def test_case_without_actions_is_written_as_before():
+    """A case without actions writes neither key, so its file is exactly what it was."""
+    text = resources.files("assets").joinpath("demo_wind_post.json").read_text(encoding="utf-8")
+    case = engine.Case.from_dict(json.loads(text))
+    assert case.actions is None and case.combinations is None
+    assert "actions" not in case.to_dict() and "combinations" not in case.to_dict()
+
+
+BAD = [
+    (("actions", 0, "category"), "crane", "actions[0].psi: required for the category 'crane'"),
+    (("actions", 1, "loads", 0, "q"), "x", "actions[1].loads[0].q: 'x' is not a number"),
+    (("actions", 0, "loads", 0, "x"), 7.5, "actions[0].loads[0].x: 7.5 m lies outside the member (0 to 6 m)"),
+    (("actions", 1, "name"), "G", "actions[1].name: 'G' is given twice"),
+    (("actions", 1, "name"), "w ind", "actions[1].name: 'w ind' is not a name"),
+    (("actions", 1, "psi"), [0.6, 0.2], "actions[1].psi: [0.6, 0.2] is not a list of three numbers"),
+    (("actions", 1, "psi"), [0.6, 1.2, 0], "actions[1].psi[1]: 1.2 must be >= 0 and <= 1"),
+    (("actions", 0, "psi"), [0.6, 0.2, 0], "actions[0].psi: [0.6, 0.2, 0] is not allowed for a permanent"),
+    (("actions", 0, "axial_force"), 2e12, "actions[0].axial_force: 2000000000000.0 N must be"),
+    (("actions", 1, "asce"), "E", "actions[1].asce: 'E' is not an ASCE 7 load symbol"),
+    (("combinations", "rule"), "en1990-6.11", "combinations.rule: 'en1990-6.11' is not a combination rule"),
+    (("combinations", "service"), ["rare"], "combinations.service[0]: 'rare' is not a serviceability"),
+    (("combinations", "service_bow"), "yes", "combinations.service_bow: 'yes' is not allowed"),
+    (
+        ("combinations", "table"),
+        [{"name": "U1", "state": "ultimate", "factors": {"Q": 1.5}}],
+        "combinations.table[0].factors: 'Q' is not an action of this case",
+    ),
+    (
+        ("combinations", "table"),
+        [{"name": "U1", "state": "ultimate", "factors": {"G": 11}}],
+        "combinations.table[0].factors.G: 11.0 must be >= -10 and <= 10",
+    ),
+    (
+        ("combinations", "table"),
+        [{"name": "U1", "state": "extreme", "factors": {"G": 1}}],
+        "combinations.table[0].state: 'extreme' is not a limit state",
+    ),
+    (("combinations",), {"rule": "table"}, "combinations.table: the rule 'table' needs at least one row"),
+    (("axial_force",), 1e3, "axial_force: 1000.0 N given beside actions"),
+    (("loads",), [{"type": "uniform", "q": 1.0}], "loads: 1 loads given beside actions"),
+    (("actions",), [], "actions: 0 actions given; 1 to 12 are allowed"),
+]
+
+
+@pytest.mark.parametrize(("path", "value", "message"), BAD, ids=[b[2][:40] for b in BAD])
+def test_bad_actions_are_refused_naming_the_field(path, value, message):
+    """Each bad value is refused with a message naming the field path, the value and what is allowed."""
+    data = demo()
+    target = data
+    for key in path[:-1]:
+        target = target[key]
+    target[path[-1]] = value
+    with pytest.raises(engine.CaseError) as caught:
+        engine.Case.from_dict(data)
+    assert str(caught.value).startswith(message), str(caught.value)
+
+
+def test_combinations_without_actions_is_refused():
+    """The combinations key alone (no actions) is refused, naming both keys."""
+    data = demo()
+    del data["actions"]
+    with pytest.raises(engine.CaseError, match="combinations: given without actions"):
+        engine.Case.from_dict(data)
+
+
+def test_user_category_with_psi_and_asce_is_read():
+    """A category of the user's own is accepted with its psi (and its ASCE symbol for the asce7-2.3 rule)."""
+    data = copy.deepcopy(demo())
+    data["actions"].append({"name": "C", "category": "crane", "psi": [0.8, 0.6, 0.3], "asce": "L"})
+    data["combinations"] = {"rule": "asce7-2.3"}
+    case = engine.Case.from_dict(data)
+    assert case.actions[2].psi == (0.8, 0.6, 0.3) and case.actions[2].asce == "L"
+    del data["actions"][2]["asce"]
+    with pytest.raises(engine.CaseError, match=r"actions\[2\]\.asce: required with rule 'asce7-2.3'"):
+        engine.Case.from_dict(data)
