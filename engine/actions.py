@@ -242,6 +242,11 @@ def _settings(data: Any, names: tuple) -> CombinationSettings:
         row = expect_mapping(path, row, '{"name": ..., "state": "ultimate", "factors": {"G": 1.35}}')
         check_keys(path, row, _TABLE_KEYS, _TABLE_KEYS)
         name = _name(f"{path}.name", row["name"])
+        if re.fullmatch(r"[US][0-9]+", name):
+            raise CaseError(
+                f"{path}.name: {name!r} is kept for the combinations strutscope makes (U1, S1, ...); "
+                "choose another name"
+            )
         if name in seen:
             raise CaseError(f"{path}.name: {name!r} is given twice; combination names must differ")
         seen.add(name)

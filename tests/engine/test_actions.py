@@ -55,17 +55,22 @@ BAD = [
     (("combinations", "service_bow"), "yes", "combinations.service_bow: 'yes' is not allowed"),
     (
         ("combinations", "table"),
-        [{"name": "U1", "state": "ultimate", "factors": {"Q": 1.5}}],
+        [{"name": "U1", "state": "ultimate", "factors": {"G": 1.5}}],
+        "combinations.table[0].name: 'U1' is kept for the combinations strutscope makes",
+    ),
+    (
+        ("combinations", "table"),
+        [{"name": "X1", "state": "ultimate", "factors": {"Q": 1.5}}],
         "combinations.table[0].factors: 'Q' is not an action of this case",
     ),
     (
         ("combinations", "table"),
-        [{"name": "U1", "state": "ultimate", "factors": {"G": 11}}],
+        [{"name": "X1", "state": "ultimate", "factors": {"G": 11}}],
         "combinations.table[0].factors.G: 11.0 must be >= -10 and <= 10",
     ),
     (
         ("combinations", "table"),
-        [{"name": "U1", "state": "extreme", "factors": {"G": 1}}],
+        [{"name": "X1", "state": "extreme", "factors": {"G": 1}}],
         "combinations.table[0].state: 'extreme' is not a limit state",
     ),
     (("combinations",), {"rule": "table"}, "combinations.table: the rule 'table' needs at least one row"),
