@@ -301,6 +301,8 @@ def case_actions(case) -> tuple[tuple, CombinationSettings]:
     """The validated actions and settings; with actions the case's own loads and axial force are empty."""
     if case.actions is None:
         raise CaseError("combinations: given without actions; give the case's load cases in 'actions'")
+    if case.second_plane is not None:
+        raise CaseError("actions: not available with second_plane yet; give one bending plane")
     if case.loads:
         raise CaseError(
             f"loads: {len(case.loads)} loads given beside actions; with actions every load belongs to an "
