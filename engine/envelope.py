@@ -38,6 +38,7 @@ __all__ = [
     "clear_cache",
     "combination_case",
     "envelope",
+    "read_at",
     "solve",
 ]
 
@@ -125,7 +126,7 @@ class Envelope:
     peaks: dict
 
 
-def _read(xc, fc, q, right):
+def read_at(xc, fc, q, right):
     """fc at q, linear between stations; at a doubled station the left (``right`` False) or right value."""
     n = xc.size
     i = np.clip(np.searchsorted(xc, q, side="right" if right else "left"), 1, n - 1)
@@ -152,8 +153,8 @@ def envelope(state: str, solved) -> Envelope | None:
         rows = np.empty((len(solved), x.size))
         for k, item in enumerate(solved):
             values = getattr(item.result, attribute)
-            rows[k, ~right] = _read(item.result.x, values, x[~right], False)
-            rows[k, right] = _read(item.result.x, values, x[right], True)
+            rows[k, ~right] = read_at(item.result.x, values, x[~right], False)
+            rows[k, right] = read_at(item.result.x, values, x[right], True)
         fields[f"{name}_max"], fields[f"{name}_min"] = rows.max(axis=0), rows.min(axis=0)
     peaks = {}
     for name, attribute in (("moment", "moment"), ("shear", "shear"), ("deflection", "deflection")):
