@@ -26,6 +26,7 @@ import numpy as np
 
 from engine import analysis
 from engine.actions import scaled
+from engine.cautions import GENERAL
 from engine.combinations import Combination, combine
 from engine.inputs import Imperfection
 from engine.prepared import prepare
@@ -387,7 +388,51 @@ def solve(case, stations: int = 401):
         chosen = by_name[deflection.combination].result
         return dataclasses.replace(chosen, actions=actions, utilization=None, check=None)
     chosen = by_name[head_row.combination].result
-    service_check = None
+    service_check = serving = None
     if deflection is not None and deflection.unit == "":
-        service_check = by_name[deflection.combination].result.service
-    return dataclasses.replace(chosen, service=service_check, actions=actions)
+        serving = by_name[deflection.combination].result
+        service_check = serving.service
+    cautions = _cautions(chosen, ultimate, serving, deflection and deflection.combination)
+    return dataclasses.replace(chosen, service=service_check, actions=actions, cautions=cautions)
+
+
+_SERVICE_CODES = ("deflection", "deflection-basis")
+_SEVERITY = {"danger": 0, "warning": 1, "info": 2}
+
+
+def _cautions(chosen, ultimate, serving, name) -> tuple:
+    """The headline's cautions: its own, the deflection ones of the governing service combination instead
+    of its own, and any warning or danger of another ultimate combination whose code it does not hold."""
+    kept = [SCOPE] + [c for c in chosen.cautions if c.code not in _SERVICE_CODES and c.code != "scope"]
+    codes = {c.code for c in kept}
+    for item in ultimate:
+        for caution in item.result.cautions:
+            if caution.level in ("danger", "warning") and caution.code not in codes:
+                kept.append(dataclasses.replace(caution, values={**caution.values, "combination": item.name}))
+                codes.add(caution.code)
+    if serving is not None:
+        for caution in serving.cautions:
+            if caution.code == "deflection":
+                kept.append(caution)
+            elif caution.code == "deflection-basis":
+                message = (
+                    f"Deflection utilisation {serving.service.utilization:.3f}: the service check of "
+                    f"combination {name}, the governing service combination, apart from the strength one, "
+                    "on its factored loads and without the bow."
+                )
+                kept.append(dataclasses.replace(caution, message=message))
+    kept.sort(key=lambda c: _SEVERITY.get(c.level, 3))  # stable: the general caution leads the infos
+    return tuple(kept)
+
+
+#: The general caution of a case with load cases (the plain one says load combinations are not checked).
+SCOPE = dataclasses.replace(
+    GENERAL,
+    message=(
+        "Elastic analysis of one member in one plane, per load combination. Not a full code check: "
+        "lateral-torsional buckling, torsion, non-symmetric sections, web shear buckling (EN 1993-1-5), "
+        "class 4 sections and connections are not checked; the combination factors are recommended values "
+        "recalled from memory (a National Annex may change them). Check the results against your local "
+        "codes and have them reviewed by a licensed engineer."
+    ),
+)
