@@ -149,25 +149,32 @@ def envelope(state: str, solved) -> Envelope | None:
     if jumps.size:
         first = np.searchsorted(x, jumps, side="left")
         right[first + 1] = True
-    fields = {}
-    for name, attribute in (("moment", "moment"), ("shear", "shear"), ("deflection", "deflection")):
-        rows = np.empty((len(solved), x.size))
-        for k, item in enumerate(solved):
-            values = getattr(item.result, attribute)
-            rows[k, ~right] = read_at(item.result.x, values, x[~right], False)
-            rows[k, right] = read_at(item.result.x, values, x[right], True)
-        fields[f"{name}_max"], fields[f"{name}_min"] = rows.max(axis=0), rows.min(axis=0)
+    names = ("moment", "shear", "deflection")
+    rows = np.empty((3, len(solved), x.size))
     peaks = {}
-    for name, attribute in (("moment", "moment"), ("shear", "shear"), ("deflection", "deflection")):
-        for end, pick in (("max", np.argmax), ("min", np.argmin)):
-            best = None
-            for item in solved:
-                values = getattr(item.result, attribute)
-                i = int(pick(values))
-                value = float(values[i])
+    for k, item in enumerate(solved):
+        r, xc = item.result, item.result.x
+        stack = np.stack((r.moment, r.shear, r.deflection))
+        # Where each point falls among this combination's stations: one search per side for all three fields.
+        i = np.searchsorted(xc, x, side="left")
+        i[right] = np.searchsorted(xc, x[right], side="right")
+        np.clip(i, 1, xc.size - 1, out=i)
+        x0 = xc[i - 1]
+        span = xc[i] - x0
+        t = np.divide(x - x0, span, out=np.zeros_like(x), where=span > 0)
+        low = stack[:, i - 1]
+        rows[:, k, :] = low + t * (stack[:, i] - low)
+        top, bottom = stack.argmax(axis=1), stack.argmin(axis=1)
+        for f, name in enumerate(names):
+            for end, at in (("max", top[f]), ("min", bottom[f])):
+                value, key = float(stack[f, at]), f"{name}_{end}"
+                best = peaks.get(key)
                 if best is None or (value > best[0] if end == "max" else value < best[0]):
-                    best = (value, float(item.result.x[i]), item.name)
-            peaks[f"{name}_{end}"] = best
+                    peaks[key] = (value, float(xc[at]), item.name)
+    highs, lows = rows.max(axis=1), rows.min(axis=1)
+    fields = {}
+    for f, name in enumerate(names):
+        fields[f"{name}_max"], fields[f"{name}_min"] = highs[f], lows[f]
     return Envelope(state=state, names=tuple(item.name for item in solved), x=x, peaks=peaks, **fields)
 
 
