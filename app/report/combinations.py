@@ -18,6 +18,7 @@ __all__ = [
     "expression",
     "governing_rows",
     "headline_note",
+    "metadata_rows",
     "rule_text",
 ]
 
@@ -183,3 +184,22 @@ def combination_lines(actions_result, result, U, comparison=None) -> list:
     if comparison is not None:
         lines += [""] + superposition_lines(comparison, U)
     return lines
+
+
+def metadata_rows(actions_result, result, U) -> list:
+    """The exports' rows of a case with actions: ``(key, value, note)`` for the combination shown, each
+    combination and the governing combination of each check (the CSV's metadata, the calc sheet's items)."""
+    rows = [
+        ("combination shown", actions_result.headline or "", headline_note(actions_result)),
+        ("combination rule", rule_text(actions_result.case.combinations), ""),
+    ]
+    for name, category, axial, loads in action_rows(actions_result, U):
+        rows.append((f"action {name}", f"{category}; {axial}", loads))
+    for row in combination_rows(actions_result, U):
+        note = "; ".join(
+            part for part in (row["state"], row["source"], f"N = {row['axial']}", row["bow"]) if part
+        )
+        rows.append((f"combination {row['name']}", row["expression"], f"{note}; {row['measure']}"))
+    for check, name, value in governing_rows(actions_result, result, U):
+        rows.append((f"governing: {check}", name, value))
+    return rows
