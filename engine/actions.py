@@ -18,6 +18,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from engine import limits
+from engine.combinations import combine
 from engine.errors import CaseError
 from engine.loads import (
     CoupleLoad,
@@ -313,7 +314,9 @@ def case_actions(case) -> tuple[tuple, CombinationSettings]:
             f"axial_force: {case.axial_force!r} N given beside actions; with actions each action has its "
             "own axial force (actions[i].axial_force), so axial_force must be 0"
         )
-    return actions_from_data(case.actions, case.combinations, case.length)
+    actions, settings = actions_from_data(case.actions, case.combinations, case.length)
+    combine(actions, settings)  # the count and the ASCE 7 symbols are checked with the case, not at its solve
+    return actions, settings
 
 
 def scaled(load, factor: float):

@@ -111,3 +111,18 @@ def test_user_category_with_psi_and_asce_is_read():
     del data["actions"][2]["asce"]
     with pytest.raises(engine.CaseError, match=r"actions\[2\]\.asce: required with rule 'asce7-2.3'"):
         engine.Case.from_dict(data)
+
+
+def test_too_many_combinations_and_a_category_without_asce_symbol_are_refused_with_the_case():
+    """The combination count and the ASCE 7 symbols are checked when the case is read, not at its solve."""
+    data = demo()
+    data["actions"] = [{"name": f"G{i}", "category": "permanent"} for i in range(6)]
+    data["actions"] += [{"name": f"W{i}", "category": "wind"} for i in range(6)]
+    with pytest.raises(
+        engine.CaseError, match="combinations: 12545 combinations made; a case may have at most 256"
+    ):
+        engine.Case.from_dict(data)
+    data["actions"] = [{"name": "G", "category": "permanent"}, {"name": "T", "category": "temperature"}]
+    data["combinations"] = {"rule": "asce7-2.3"}
+    with pytest.raises(engine.CaseError, match=r"actions\[1\]\.category: 'temperature' has no load symbol"):
+        engine.Case.from_dict(data)
