@@ -1,4 +1,4 @@
-"""Load combinations (engine.combinations) against the code tables.
+"""Load combinations (engine.combinations) against the code tables (tests/REFERENCES.md §10).
 
 Sources, each value recalled, not read from a copy (so all **from memory**): EN 1990:2002+A1:2005 Table A1.1
 (ψ factors, buildings) and Table A1.2(B) (γ_G,sup 1.35, γ_G,inf 1.00, γ_Q 1.50, ξ 0.85), eqs. (6.10),

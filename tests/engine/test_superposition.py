@@ -2,9 +2,9 @@
 separately solved actions.
 
 References: the midspan moment of a pinned-pinned strut under a uniform load q and compression P,
-M = (q EI / P)(sec(kL/2) − 1), k = √(P/EI) (Timoshenko & Gere, Theory of Elastic Stability, 2nd ed., §1.11,
-from memory), against the first-order qL²/8 of the load solved alone; linearity at N = 0 (common practice,
-no source). Members invented.
+M = (q EI / P)(sec(kL/2) − 1), k = √(P/EI) (Timoshenko & Gere, Theory of Elastic Stability, 2nd ed., ch. 1,
+article from memory; tests/REFERENCES.md §1 and §10), against the first-order qL²/8 of the load solved alone;
+linearity at N = 0 (common practice, no source). Members invented.
 """
 
 import math
@@ -59,7 +59,7 @@ def test_superposition_is_exact_without_axial_force():
 
 def test_the_error_is_the_closed_form_amplification():
     """With a uniform load only, the sum gives qL²/8 and the exact moment (q EI/P)(sec(kL/2) − 1):
-    the error is 1 − (qL²/8)/M (Timoshenko & Gere §1.11, from memory), to 1e-9."""
+    the error is 1 − (qL²/8)/M (Timoshenko & Gere ch. 1, tests/REFERENCES.md §1), to 1e-9."""
     for ratio in (0.1, 0.5, 0.9):
         P = ratio * PCR
         k = math.sqrt(P / EI)
