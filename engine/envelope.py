@@ -179,8 +179,8 @@ def envelope(state: str, solved) -> Envelope | None:
 
 
 def _strength(result) -> float:
-    """The strength utilisation to rank by (-1 without a section), +inf at a critical load."""
-    if result.status == "critical":
+    """The strength utilisation to rank by (-1 without a section), +inf at or above a critical load."""
+    if result.status != "stable":
         return math.inf
     return -1.0 if result.utilization is None else float(result.utilization)
 
@@ -274,8 +274,8 @@ def _governing(ultimate, service) -> tuple:
                 )
             )
 
-    def critical_or(value):
-        return lambda r: math.inf if r.status == "critical" else value(r)
+    def critical_or(value):  # at or above a critical load the member buckles: it governs whatever else
+        return lambda r: math.inf if r.status != "stable" else value(r)
 
     best("strength", "ultimate", ultimate, critical_or(lambda r: r.utilization))
     best("in-plane", "ultimate", ultimate, critical_or(lambda r: r.check and r.check.in_plane_utilization))
@@ -298,11 +298,11 @@ def _governing(ultimate, service) -> tuple:
             return None
 
         best(f"route:{route}", "ultimate", ultimate, of)
-    best("moment", "ultimate", ultimate, lambda r: r.governing.moment.magnitude, "N·m")
+    best("moment", "ultimate", ultimate, critical_or(lambda r: r.governing.moment.magnitude), "N·m")
     if any(item.result.service is not None for item in service):
         best("deflection", "service", service, critical_or(lambda r: r.service and r.service.utilization))
     else:
-        best("deflection", "service", service, lambda r: r.governing.deflection.magnitude, "m")
+        best("deflection", "service", service, critical_or(lambda r: r.governing.deflection.magnitude), "m")
     return tuple(rows)
 
 

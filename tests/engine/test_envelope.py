@@ -7,6 +7,7 @@ for the factors (from memory, as tests/engine/test_combinations.py). Cases inven
 
 import copy
 import json
+import math
 from importlib import resources
 
 import numpy as np
@@ -248,3 +249,31 @@ def test_any_table_combination_equals_the_direct_solve(g, w, q, p, x, fg, fw):
         got, want = getattr(item.result, name), getattr(expected, name)
         scale = max(1.0, float(np.abs(want).max()))
         np.testing.assert_allclose(got, want, rtol=0, atol=1e-9 * scale)
+
+
+def test_a_combination_above_the_critical_load_governs_without_a_section():
+    """Without a section the headline is ranked by |M|; a combination above Pcr1 (unstable, its moment finite)
+    still governs, so the headline never reads stable while a combination buckles."""
+    pcr = math.pi**2 * 4e6 / 5.0**2  # Euler, pinned-pinned (tests/REFERENCES.md §2)
+    data = {
+        "length": 5.0,
+        "EI": 4e6,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "imperfection": {"shape": "sine", "amplitude": 0.005},
+        "actions": [
+            {"name": "G", "category": "permanent", "axial_force": 0.8 * pcr},
+            {
+                "name": "W",
+                "category": "wind",
+                "axial_force": -0.7 * pcr,
+                "loads": [{"type": "uniform", "q": 2e4}],
+            },
+        ],
+    }
+    result = engine.solve(engine.Case.from_dict(data))
+    statuses = {
+        c.name: c.result.status for c in result.actions.combinations if c.combination.state == "ultimate"
+    }
+    assert statuses["U1"] == "unstable" and statuses["U2"] == "stable"
+    assert result.actions.headline == "U1" and result.status == "unstable"
+    assert result.actions.governing_for("moment").value == math.inf
