@@ -8,6 +8,8 @@ import json
 from importlib import resources
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 import engine
 from engine.actions import Action, CombinationSettings
@@ -126,3 +128,45 @@ def test_too_many_combinations_and_a_category_without_asce_symbol_are_refused_wi
     data["combinations"] = {"rule": "asce7-2.3"}
     with pytest.raises(engine.CaseError, match=r"actions\[1\]\.category: 'temperature' has no load symbol"):
         engine.Case.from_dict(data)
+
+
+JUNK = st.one_of(
+    st.none(),
+    st.booleans(),
+    st.integers(-(10**6), 10**6),
+    st.floats(allow_nan=True, allow_infinity=True),
+    st.text(max_size=8),
+    st.lists(st.integers(-2, 2), max_size=4),
+    st.dictionaries(st.text(max_size=4), st.integers(), max_size=2),
+)
+FIELDS = ("name", "category", "axial_force", "loads", "psi", "exclusive", "asce", "colour")
+
+
+@settings(max_examples=60, deadline=None)
+@given(
+    index=st.integers(0, 1),
+    field=st.sampled_from(FIELDS),
+    junk=JUNK,
+    rule=st.sampled_from(["en1990-6.10", "en1990-6.10ab", "asce7-2.3", "table", 3, None]),
+)
+def test_fuzzed_actions_solve_or_are_refused_naming_a_field(index, field, junk, rule):
+    """Any junk in an action or the rule is refused with a CaseError naming a field, or the case solves."""
+    data = {
+        "length": 4.0,
+        "EI": 3e6,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "actions": [
+            {"name": "G", "category": "permanent", "axial_force": 1e5, "loads": []},
+            {"name": "W", "category": "wind", "loads": [{"type": "uniform", "q": 1e3}]},
+        ],
+        "combinations": {"rule": rule, "table": [{"name": "T1", "state": "ultimate", "factors": {"G": 1.0}}]},
+    }
+    data["actions"][index][field] = junk
+    try:
+        case = engine.Case.from_dict(data)
+    except engine.CaseError as error:
+        head = str(error).split(":", 1)[0]
+        assert head.startswith(("actions", "combinations")), str(error)
+        return
+    result = engine.solve(case)
+    assert result.actions is not None and len(result.actions.combinations) >= 1
