@@ -58,11 +58,11 @@ from app.summary_json import SUMMARY_VERSION, summary_data
 __all__ = ["CAUTION", "DEMO_CASE", "SUMMARY_VERSION", "format_summary", "main", "summary_data"]
 
 
-def format_summary(source: str, case, result, units: str = "si", capacity=None) -> str:
+def format_summary(source: str, case, result, units: str = "si", capacity=None, comparison=None) -> str:
     """The printed summary (:func:`app.report.format_summary`, imported when a case is solved)."""
     from app.report import format_summary as summary
 
-    return summary(source, case, result, units=units, capacity=capacity)
+    return summary(source, case, result, units=units, capacity=capacity, comparison=comparison)
 
 
 def _add_solve(commands) -> None:
@@ -177,7 +177,15 @@ def _solve(args) -> int:
         source, case = _read_case(args)
         try:
             result = engine.solve(case, stations=args.stations)
-            capacity = engine.capacity(case) if args.capacity else None
+            # A case with actions: the capacity and the superposition of the governing combination.
+            shown = case if result.actions is None else result.case
+            capacity = engine.capacity(shown) if args.capacity else None
+            comparison = None
+            if result.actions is not None and result.actions.headline is not None:
+                from engine.superposition import compare
+
+                moment = result.actions.governing_for("moment")
+                comparison = compare(case, result.actions.of(moment.combination).combination, args.stations)
         except engine.CaseError as error:
             raise _InputError(source, str(error)) from None
         except MemoryError:
@@ -191,7 +199,9 @@ def _solve(args) -> int:
             summary_data(source, case, result, capacity), indent=2, ensure_ascii=False, allow_nan=False
         )
     else:
-        text = format_summary(source, case, result, units=args.units, capacity=capacity)
+        text = format_summary(
+            source, case, result, units=args.units, capacity=capacity, comparison=comparison
+        )
     if not _print(text):
         return 1
     if _beyond_critical(result):

@@ -20,6 +20,8 @@ import functools
 import json
 from typing import Any
 
+from app.schema_actions import action_properties
+
 __all__ = ["SCHEMA_ID", "case_schema", "schema_text"]
 
 #: The schema's identifier (a URN: the schema is shipped with strutscope, not published at an address).
@@ -557,7 +559,7 @@ def _build() -> dict[str, Any]:
         "x runs from the left end (0) to the right end (L); w and the loads are positive the "
         "same way.",
         "type": "object",
-        "properties": properties,
+        "properties": {**properties, **action_properties(MAX_LOADS)},
         "required": ["length", "supports"],
         "additionalProperties": False,
         # The stiffness comes from EI, or from E·I of the section and material.
@@ -585,15 +587,5 @@ def case_schema() -> dict[str, Any]:
 
 
 def schema_text(indent: int = 2) -> str:
-    """Return the schema as JSON text, non-ASCII characters kept.
-
-    Parameters
-    ----------
-    indent : int
-        Indentation of the JSON text.
-
-    Returns
-    -------
-    str
-    """
+    """Return the schema as JSON text (str), non-ASCII characters kept; ``indent`` indents the JSON text."""
     return json.dumps(_built(), indent=indent, ensure_ascii=False)

@@ -167,9 +167,42 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "second_plane": _second_plane_data(result),
         "routes": [_route_data(route) for route in getattr(result, "routes", ()) or ()],
         "headline_route": _headline_route(result),
+        "combinations": _combinations_data(getattr(result, "actions", None)),
         "cautions": [
             {"level": c.level, "code": c.code, "message": c.message, "source": c.source}
             for c in result.cautions
+        ],
+    }
+
+
+def _combinations_data(actions) -> dict | None:
+    """A case with load cases: each combination's factors, axial force and verdict, and what governs."""
+    if actions is None:
+        return None
+    rows = []
+    for item in actions.combinations:
+        c, r = item.combination, item.result
+        rows.append(
+            {
+                "name": c.name,
+                "state": c.state,
+                "rule": c.rule,
+                "equation": c.equation,
+                "factors": dict(zip(actions.names, c.factors, strict=True)),
+                "axial_force": _finite(item.case.axial_force),
+                "utilization": _finite(r.utilization),
+                "max_moment": _finite(r.governing.moment.magnitude),
+                "deflection_utilization": None if r.service is None else _finite(r.service.utilization),
+                "bow_reversed": item.bow_reversed,
+            }
+        )
+    return {
+        "rule": actions.case.combinations.rule,
+        "headline": actions.headline,
+        "combinations": rows,
+        "governing": [
+            {"check": g.check, "combination": g.combination, "state": g.state, "value": _finite(g.value)}
+            for g in actions.governing
         ],
     }
 

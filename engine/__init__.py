@@ -6,8 +6,7 @@ module is a façade: it re-exports the public names of the layers below it (DEVE
 put together").
 """
 
-from engine import prepared, solver
-from engine.analysis import solve
+from engine import envelope, prepared, solver
 from engine.capacity import Capacity, capacity
 from engine.case import (
     Case,
@@ -23,6 +22,7 @@ from engine.case import (
 )
 from engine.cautions import Caution
 from engine.checks import CheckSettings, MemberCheck
+from engine.envelope import solve
 from engine.errors import CaseError
 from engine.member import critical_loads
 from engine.results import (
@@ -75,3 +75,4 @@ def clear_caches() -> None:
     """Forget cached critical loads and prepared cases, so a benchmark can time the uncached path."""
     solver.buckling.clear_cache()
     prepared.clear_cache()
+    envelope.clear_cache()

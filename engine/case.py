@@ -28,6 +28,7 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from engine import limits
+from engine.actions import case_actions
 from engine.checks import CheckSettings
 from engine.errors import CaseError
 from engine.inputs import (
@@ -119,6 +120,8 @@ _CASE_KEYS = (
     "check",
     "out_of_plane",
     "second_plane",
+    "actions",
+    "combinations",
 )
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
@@ -216,6 +219,8 @@ class Case:
     check: Any = None
     out_of_plane: Any = None
     second_plane: Any = None
+    actions: Any = None
+    combinations: Any = None
 
     def __post_init__(self) -> None:
         set_field(self, "schema", _schema_version(self.schema))
@@ -259,6 +264,14 @@ class Case:
         supports.check_stable(self)
         if self.second_plane is not None:
             self._check_second_plane()
+        if self.actions is not None or self.combinations is not None:
+            self._check_actions()
+
+    def _check_actions(self) -> None:
+        """Validate ``actions`` and ``combinations`` (:mod:`engine.actions`); the loads then live in them."""
+        actions, settings = case_actions(self)
+        set_field(self, "actions", actions)
+        set_field(self, "combinations", settings)
 
     def _check_second_plane(self) -> None:
         """Validate ``second_plane`` against the member and keep the second plane's case (at zero force)."""
@@ -404,6 +417,9 @@ class Case:
                 arguments[name] = expect_mapping(name, mapping[name], "an object")
         if "second_plane" in mapping:
             arguments["second_plane"] = as_second_plane(mapping["second_plane"])
+        for name in ("actions", "combinations"):
+            if name in mapping:
+                arguments[name] = mapping[name]
         return cls(schema=schema, left=left, right=right, loads=loads, imperfection=imperfection, **arguments)
 
     def to_dict(self) -> dict[str, Any]:
@@ -446,6 +462,9 @@ class Case:
             data["out_of_plane"] = self.out_of_plane.to_dict()
         if self.second_plane is not None:
             data["second_plane"] = self.second_plane.to_data()
+        if self.actions is not None:
+            data["actions"] = [action.to_data() for action in self.actions]
+            data["combinations"] = self.combinations.to_data()
         return data
 
     @classmethod

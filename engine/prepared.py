@@ -16,6 +16,7 @@ import numpy as np
 
 from engine.case import Imperfection
 from engine.classification import classify
+from engine.errors import CaseError
 from engine.imperfections import bow_for
 from engine.member import resolve
 from engine.out_of_plane import resistance
@@ -192,6 +193,8 @@ def prepare(case) -> Prepared:
     key = case.without_axial_force()
     hit = _MODELS.get(key)
     if hit is None:
+        if getattr(case, "actions", None) is not None:  # solved per combination: engine.envelope
+            raise CaseError("actions: a case with load cases is solved per combination (engine.solve)")
         hit = Prepared.of(case)
         if len(_MODELS) >= _MODEL_CACHE_SIZE:
             _MODELS.pop(next(iter(_MODELS)))

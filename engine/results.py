@@ -266,6 +266,10 @@ class Result:
     routes : tuple of RouteCheck
         Each route of the member check (:mod:`engine.design.routes`), in the order of ``ROUTES``; empty
         without a section and material.
+    actions : ActionsResult or None
+        A case with load cases (:mod:`engine.envelope`): every combination solved, the envelopes and the
+        governing combination of each check; this result is then the governing ultimate combination's, with
+        ``service`` from the governing service combination. None for a case without actions.
     """
 
     case: object
@@ -299,6 +303,7 @@ class Result:
     cautions: tuple = ()
     second_plane: Result | None = None
     routes: tuple = ()
+    actions: object = None
 
     @functools.cached_property
     def first_order(self) -> Result | None:

@@ -161,6 +161,13 @@ COLUMNS: tuple[Column, ...] = (
         required=False,
         description="Bending stiffness about the other axis [kN·m²]; given exactly when EI_kNm2 is given.",
     ),
+    Column(
+        name="combination_rule",
+        required=False,
+        description="With per-action columns (axial_<A>_kN, udl_<A>_kN_per_m, point_loads_<A>; <A> starts "
+        "with G, Q, S, W or T for permanent, imposed, snow, wind, temperature): en1990-6.10 (default), "
+        "en1990-6.10ab or asce7-2.3.",
+    ),
     Column(name="comment", required=False, description="Free text, not read (it goes into the case title)."),
 )
 
@@ -208,6 +215,11 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("second_plane_M_max", "moment"),
     ("second_plane_V_max", "force"),
     ("second_plane_w_max", "small_length"),
+    # Issue 17: a row with per-action columns, solved per combination: its rule, and the combination giving
+    # the headline utilisation and the one giving the deflection check.
+    ("combination_rule", None),
+    ("strength_combination", None),
+    ("deflection_combination", None),
 )
 
 #: The routes with result columns, in the order of the layout (engine.design.routes.ROUTES).
@@ -233,7 +245,8 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
         w_max_mm, x_w_m, amplification_moment, utilization, deflection_utilization, governing_check,
         out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions, headline_route,
         utilization_second_order, governing_second_order, utilization_en_member, governing_en_member,
-        utilization_aisc, governing_aisc, second_plane_Pcr1_kN, second_plane_M_max_kNm`` in SI.
+        utilization_aisc, governing_aisc, second_plane_Pcr1_kN, second_plane_M_max_kNm, second_plane_V_max_kN,
+        second_plane_w_max_mm, combination_rule, strength_combination, deflection_combination`` in SI.
         ``utilization``
         is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
         bow).

@@ -8,6 +8,7 @@ import math
 import re
 from collections.abc import Iterator, Mapping
 
+from app.batch.actions import action_column, column_of_path, row_actions
 from app.batch.columns import (
     _BY_KEY,
     _ID_PATTERN,
@@ -49,6 +50,15 @@ def _header(reader) -> list[str]:
         if key == "" and all(not c.strip() for c in cells[position - 1 :]):
             break  # trailing empty header cells, as spreadsheets write them
         column = _BY_KEY.get(key)
+        try:
+            per_action = column is None and action_column(cell) is not None
+        except ValueError as error:
+            raise TableError(f"column {position}: {error}") from None
+        if per_action:
+            if cell.strip() in names:
+                raise TableError(f"column {position}: {cell.strip()!r} is given twice")
+            names.append(cell.strip())
+            continue
         if column is None:
             hint = ""
             if ";" in cell or "\t" in cell:
@@ -158,14 +168,14 @@ def _number(column: str, text: str, unit: str, example: str) -> float:
     return value
 
 
-def _point_loads(text: str) -> list[tuple[float, float]]:
+def _point_loads(text: str, column: str = "point_loads") -> list[tuple[float, float]]:
     from engine.limits import MAX_LOADS
 
     parts = [part for part in text.split(";") if part.strip()]
     if len(parts) > MAX_LOADS:  # refused before any is read, as the engine refuses a case file's loads
         raise RowError(
-            "point_loads",
-            f"point_loads: {len(parts)} point loads given; a member may have at most {MAX_LOADS} loads",
+            column,
+            f"{column}: {len(parts)} point loads given; a member may have at most {MAX_LOADS} loads",
         )
     loads = []
     for part in parts:
@@ -174,8 +184,8 @@ def _point_loads(text: str) -> list[tuple[float, float]]:
         match = _POINT_LOAD.fullmatch(part)
         if match is None:
             raise RowError(
-                "point_loads",
-                f"point_loads: {part.strip()!r} is not a point load; write each as "
+                column,
+                f"{column}: {part.strip()!r} is not a point load; write each as "
                 f"force_kN@position_m, separated by ';', e.g. '7@2.0;3.5@4'",
             )
         loads.append((float(match.group(1)), float(match.group(2))))
@@ -228,6 +238,10 @@ def _column_of(path: str, row: Mapping[str, str], load_columns: list[str], secon
             return "second_EI_kNm2"
         return "second_left"
     head = re.split(r"[.\[]", path, maxsplit=1)[0]
+    if head == "actions":
+        return column_of_path(path, row)
+    if head == "combinations":
+        return "combination_rule"
     if head == "loads":
         match = re.match(r"loads\[(\d+)\]", path)
         if match and int(match.group(1)) < len(load_columns):
@@ -321,6 +335,9 @@ def member_case(row: Mapping[str, str]):
         loads.append({"type": "point", "P": force * _KILO, "x": x})
         load_columns.append("point_loads")
     data["loads"] = loads
+    combined = row_actions(row, _number, lambda column, text: _point_loads(text, column), _KILO)
+    if combined is not None:
+        data["actions"], data["combinations"] = combined
     if cell("axial_kN"):
         axial = _number("axial_kN", cell("axial_kN"), "kN (compression positive)", "350")
         data["axial_force"] = axial * _KILO

@@ -81,7 +81,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
     check = result.check
     capacity_force = capacity_check = None
     if options.capacity and case.section is not None and case.material is not None:
-        found = engine.capacity(case)
+        found = engine.capacity(case if result.actions is None else result.case)  # the governing combination
         capacity_force, capacity_check = found.axial_force, found.check
     failing = (result.utilization is not None and result.utilization > 1.0) or any(
         caution.level == "danger" for caution in result.cautions
@@ -112,6 +112,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         ";".join(caution.code for caution in result.cautions),
         *_route_cells(result),
         *_second_plane_cells(result, force, moment, small),
+        *_combination_cells(result),
     ]
     wrote = False
     if options.pdf_dir is not None:
@@ -151,6 +152,19 @@ def _second_plane_cells(result, force: float, moment: float, small: float) -> li
         _cell(abs(governing.moment.value), moment),
         _cell(abs(governing.shear.value), force),
         _cell(abs(governing.deflection.value), small),
+    ]
+
+
+def _combination_cells(result) -> list[str]:
+    """The rule and the combinations giving the headline and the deflection check ("" without actions)."""
+    actions = getattr(result, "actions", None)
+    if actions is None:
+        return ["", "", ""]
+    deflection = actions.governing_for("deflection")
+    return [
+        actions.case.combinations.rule,
+        actions.headline or "",
+        "" if deflection is None else deflection.combination,
     ]
 
 

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from app.exports.style import _DANGER, _GREY, _INK
 from app.report import routes
+from app.report.combinations import metadata_rows
 from app.report.words import bow_text, load_text, source_text, support_text
 from app.units import Units
 
@@ -68,3 +69,20 @@ def routes_items(item, flow, result, U: Units) -> None:
     headline = routes.headline_text(result)
     if headline:
         item("Headline utilisation", headline, weight="bold")
+
+
+def combinations_items(item, flow, result, U: Units) -> None:
+    """A case with load cases: the actions, each combination and the governing combination of each check."""
+    actions = getattr(result, "actions", None)
+    if actions is None:
+        return
+    flow.space(3)
+    item("Load combinations", "each solved exactly as its own case (its N, its loads, the code bow)")
+    for key, value, note in metadata_rows(actions, result, U):
+        bold = key == "combination shown" or key.startswith("governing: strength")
+        item(
+            key[:1].upper() + key[1:],
+            f"{value}" + (f" ({note})" if note else ""),
+            scale=0.92,
+            weight="bold" if bold else "normal",
+        )

@@ -9,6 +9,7 @@ import numpy as np
 
 from app.exports.style import _title, _units
 from app.report import bow_direction_text, csv_number, general_caution, status_text, system_name
+from app.report.combinations import metadata_rows
 from app.report.numbers import CSV_DIGITS
 from app.safe_text import csv_writer
 from app.units import Units
@@ -151,6 +152,9 @@ def _metadata(result, U: Units) -> list:
         rows.append(("deflection utilisation [-]", csv_number(result.service.utilization), note))
     rows += _amplification_rows(result)
     rows += _plane_and_route_rows(result, U)
+    actions = getattr(result, "actions", None)
+    if actions is not None:
+        rows += metadata_rows(actions, result, U)
     if result.bow is not None and result.bow.direction_governing:
         rows.append(("bow direction", bow_direction_text(result.bow, U)))
     rows.append(

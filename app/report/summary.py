@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from app.report import combinations as combos
 from app.report import routes as r
 from app.report import words as w
 from app.report.numbers import percent, position, ratio, scientific, utilisation
@@ -184,7 +185,7 @@ def _routes_lines(add, result, U) -> None:
         add(f"  headline utilisation: {headline}")
 
 
-def format_summary(source: str, case, result, units: str = "si", capacity=None) -> str:
+def format_summary(source: str, case, result, units: str = "si", capacity=None, comparison=None) -> str:
     """Return the printed summary of `result`, the engine's solution of `case` read from `source`.
 
     Parameters
@@ -199,6 +200,8 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
         ``"si"`` (kN, m, mm, kN·m) or ``"us"`` (kip, ft, in, kip·ft).
     capacity : engine.Capacity, optional
         What ``engine.capacity(case)`` returned, shown when given.
+    comparison : engine.superposition.Superposition, optional
+        A case with actions: the superposition comparison of one combination, shown when given.
 
     Returns
     -------
@@ -208,7 +211,10 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None) 
     U = display_units(units)
     lines: list[str] = []
     add = lines.append
-    _case_lines(add, source, case, result, U)
+    actions = getattr(result, "actions", None)
+    _case_lines(add, source, case if actions is None else result.case, result, U)
+    if actions is not None:
+        lines.extend(combos.combination_lines(actions, result, U, comparison))
     _results_lines(add, result, U)
     _plane_lines(add, result, U)
     _check_lines(add, result, U)

@@ -276,3 +276,20 @@ def test_a_custom_section_with_its_torsion_keys_is_valid_against_the_schema():
     case["section"]["It"] = -1.0
     with pytest.raises(jsonschema.ValidationError):
         jsonschema.validate(case, case_schema())
+
+
+def test_actions_demo_validates_and_names_match_the_engine(validator):
+    """The invented demo with actions passes the schema, and the action names are the engine's own."""
+    from app import schema_actions
+    from engine import actions
+
+    text = resources.files("assets").joinpath("demo_wind_post_actions.json").read_text(encoding="utf-8")
+    assert list(validator.iter_errors(json.loads(text))) == []
+    assert schema_actions.ACTION_CATEGORIES == actions.KNOWN_CATEGORIES
+    assert schema_actions.COMBINATION_RULES == actions.RULES
+    assert schema_actions.SERVICE_KINDS == actions.SERVICE_KINDS
+    assert schema_actions.ASCE_SYMBOLS == actions.ASCE_SYMBOLS
+    assert schema_actions.MAX_ACTIONS == actions.MAX_ACTIONS
+    broken = json.loads(text)
+    broken["actions"][0]["colour"] = "red"
+    assert list(validator.iter_errors(broken)) and not engine_accepts(broken)
