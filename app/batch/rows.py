@@ -338,6 +338,13 @@ def member_case(row: Mapping[str, str]):
     combined = row_actions(row, _number, lambda column, text: _point_loads(text, column), _KILO)
     if combined is not None:
         data["actions"], data["combinations"] = combined
+        filled = [name for name in SECOND_PLANE_COLUMNS if cell(name)]
+        if filled:
+            raise RowError(
+                filled[0],
+                f"{filled[0]}: a second plane and load cases (per-action columns) in one row are not solved "
+                "yet; give the row one bending plane, or the second plane without load cases",
+            )
     if cell("axial_kN"):
         axial = _number("axial_kN", cell("axial_kN"), "kN (compression positive)", "350")
         data["axial_force"] = axial * _KILO
@@ -397,11 +404,7 @@ def _second_plane(cell) -> tuple[dict, list[str]]:
         if q != 0.0:
             loads.append({"type": "uniform", "q": q * _KILO})
             columns.append("second_udl_kN_per_m")
-    try:
-        points = _point_loads(cell("second_point_loads"))
-    except RowError as error:
-        raise RowError("second_point_loads", "second_" + str(error)) from None
-    for force, x in points:
+    for force, x in _point_loads(cell("second_point_loads"), "second_point_loads"):
         loads.append({"type": "point", "P": force * _KILO, "x": x})
         columns.append("second_point_loads")
     plane["loads"] = loads

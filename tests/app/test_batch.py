@@ -627,6 +627,11 @@ def test_the_batch_writes_both_planes_of_a_two_plane_row(tmp_path):
         ({"second_udl_kN_per_m": "0,8"}, "second_udl_kN_per_m", "decimal point"),
         ({"Lcr_out_m": "3.0"}, "Lcr_out_m", "second_plane"),
         ({"second_EI_kNm2": "1500"}, "second_EI_kNm2", "EI"),
+        (
+            {"axial_kN": "", "udl_kN_per_m": "", "axial_G_kN": "300", "udl_W_kN_per_m": "2"},
+            "second_left",
+            "load cases",
+        ),
     ],
 )
 def test_a_bad_second_plane_cell_is_named(change, column, words):
