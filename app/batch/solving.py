@@ -112,6 +112,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         ";".join(caution.code for caution in result.cautions),
         *_route_cells(result),
         *_second_plane_cells(result, force, moment),
+        *_ltb_cells(result, moment),
     ]
     wrote = False
     if options.pdf_dir is not None:
@@ -146,6 +147,24 @@ def _second_plane_cells(result, force: float, moment: float) -> list[str]:
     if second is None:
         return ["", ""]
     return [_cell(second.critical_loads[0], force), _cell(abs(second.governing.moment.value), moment)]
+
+
+def _ltb_cells(result, moment: float) -> list[str]:
+    """Lateral-torsional buckling: "checked" or "not checked: <reason code>", M_cr exact and tabulated in the
+    display units, λ̄_LT, χ_LT and the utilisation; all "" without a member check."""
+    ltb = getattr(result, "ltb", None)
+    if ltb is None:
+        return [""] * 6
+    if not ltb.applies:
+        return [f"not checked: {ltb.reason}"] + [""] * 5
+    return [
+        "checked",
+        _cell(ltb.M_cr, moment),
+        _cell(ltb.M_cr_tabulated, moment),
+        _cell(ltb.lambda_LT),
+        _cell(ltb.chi_LT),
+        _cell(ltb.utilisation),
+    ]
 
 
 def _error_record(row: int, identifier: str, column: str, message: str) -> list[str]:

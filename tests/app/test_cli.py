@@ -211,6 +211,7 @@ SUMMARY_KEYS = {
     "second_plane",
     "routes",
     "headline_route",
+    "ltb",
 }
 
 # 1 kip = 1000 lbf = 4448.2216152605 N, exact by definition (NIST SP 811 (2008) Appendix B; from memory).
