@@ -1,0 +1,313 @@
+"""Lateral-torsional buckling in the app (issue 15): the check.ltb inputs, and the check worded in every
+output (printed and JSON summary, calc sheet, CSV, batch cells, page) in one unit system.
+
+The figures come from ``result.ltb`` of the engine when it gives one (the demo member, HEB 200 in S355, has a
+check); each test compares the text with that object's own numbers, converted with the exact unit factors, so
+the app is checked as a reporter of the engine. Where the engine does not give the field, a test double of
+the contract (tests/app/ltb_double.py, invented numbers) stands in.
+"""
+
+import csv
+import dataclasses
+import html
+import io
+import json
+import math
+import re
+from importlib import resources
+
+import panel as pn
+import param
+import pypdf
+import pytest
+
+import engine
+from app import exports
+from app.batch.solving import _ltb_cells
+from app.page import MemberPage
+from app.page.ltb import ltb_html
+from app.page.words import values_table
+from app.report.ltb import ltb_words
+from app.report.summary import format_summary
+from app.state import MemberState, values_from_mapping
+from app.summary_json import summary_data
+from app.units import units
+from tests.app.ltb_double import AiscDouble, LtbDouble, with_ltb
+from tests.app.test_unit_systems import FORBIDDEN
+
+# 1 kip = 4448.2216152605 N and 1 ft = 0.3048 m, exact by definition (NIST SP 811 (2008) Appendix B; from
+# memory): 1 kip·ft = 1355.8179483314 N·m.
+KIP_FT = 4448.2216152605 * 0.3048
+
+
+@pytest.fixture(autouse=True)
+def clean_panel_state():
+    yield
+    pn.state.clear_caches()
+
+
+def _demo_mapping() -> dict:
+    return json.loads(resources.files("assets").joinpath("demo_wind_post.json").read_text("utf-8"))
+
+
+def _solve(mapping: dict):
+    return engine.solve(engine.Case.from_dict(mapping))
+
+
+@pytest.fixture(scope="module")
+def checked():
+    """The demo member with its LTB check: the engine's own, or the double where the engine has none."""
+    result = _solve(_demo_mapping())
+    if getattr(result, "ltb", None) is None:
+        result = with_ltb(result, LtbDouble(aisc=AiscDouble()))
+    assert result.ltb.applies
+    return result
+
+
+@pytest.fixture(scope="module")
+def refused():
+    """A member whose check cannot be made (the reason code as the contract gives it)."""
+    result = _solve(_demo_mapping())
+    return with_ltb(result, LtbDouble(applies=False, reason="torsion-unknown"))
+
+
+def _plain(text: str) -> str:
+    return " ".join(html.unescape(re.sub(r"<[^>]+>", " ", text)).split())
+
+
+def _kn_m(value: float) -> float:
+    return value / 1e3
+
+
+# --------------------------------------------------------------------------------------------------------
+# Inputs: the state, the case file and the link.
+
+
+def test_default_ltb_settings_are_not_written_and_others_round_trip():
+    """Defaults leave check.ltb out (the file as before); any other setting is written and read back."""
+    state = MemberState()
+    assert "ltb" not in state.case_mapping()["check"]
+    state.param.update(ltb_load_position="stabilising", ltb_lateral_right="fixed", ltb_warping_left="fixed")
+    ltb = state.case_mapping()["check"]["ltb"]
+    assert ltb == {
+        "load_position": "stabilising",
+        "lateral_ends": ["fork", "fixed"],
+        "warping_ends": ["fixed", "free"],
+    }
+    again = MemberState(**values_from_mapping(json.loads(state.link)))
+    for name in ("ltb_load_position", "ltb_lateral_left", "ltb_lateral_right", "ltb_warping_left"):
+        assert getattr(again, name) == getattr(state, name), name
+    assert again.case_mapping()["check"]["ltb"] == ltb
+
+
+def test_a_malformed_ltb_key_is_kept_for_the_engine_to_name():
+    """A pair that is not a pair, or an unknown key, goes back into the case as it came (never dropped)."""
+    mapping = _demo_mapping()
+    mapping["check"] = {"ltb": {"lateral_ends": ["fork"], "shape": "x"}}
+    state = MemberState(**values_from_mapping(mapping))
+    assert state.case_mapping()["check"]["ltb"] == {"lateral_ends": ["fork"], "shape": "x"}
+    assert state.ltb_lateral_left == "fork" and state.ltb_lateral_right == "fork"
+
+
+def test_the_check_tab_widgets_follow_the_state_and_write_it():
+    """The LTB settings in the Check tab show a loaded value and write the user's choice into the state."""
+    state = MemberState()
+    page = MemberPage(state)
+    view = page.inputs.ltb_settings
+    view.position.value = "shear-centre"
+    assert state.ltb_load_position == "shear-centre"
+    state.ltb_warping_right = "fixed"
+    assert view.ends["ltb_warping_right"].value == "fixed"
+    state.ltb_lateral_left = "clamped"  # from a file: shown as such, kept for the engine's message
+    assert view.ends["ltb_lateral_left"].value == "as in the case file"
+    assert state.ltb_lateral_left == "clamped"
+
+
+# --------------------------------------------------------------------------------------------------------
+# Wording: one place, one unit system.
+
+
+@pytest.mark.parametrize("system", ["si", "us"])
+def test_words_give_both_critical_moments_in_the_display_unit(checked, system):
+    """M_cr exact and tabulated, λ̄_LT, χ_LT and the utilisation, each the engine's number in one system."""
+    ltb = checked.ltb
+    words = ltb_words(checked, units(system))
+    factor, label = (1e-3, "kN·m") if system == "si" else (1 / KIP_FT, "kip·ft")
+    for key, value in (("M_cr", ltb.M_cr), ("M_cr_tabulated", ltb.M_cr_tabulated), ("M_b_Rd", ltb.M_b_Rd)):
+        number, unit = words.text(key).split(" ")
+        assert unit == label
+        assert float(number) == pytest.approx(value * factor, rel=6e-4), key
+    assert words.text("lambda_LT") == f"{ltb.lambda_LT:.3f}"
+    assert words.text("chi_LT") == f"{ltb.chi_LT:.3f}"
+    assert words.text("utilisation").startswith(f"{ltb.utilisation:.3f}")
+    assert words.text("difference") == f"{ltb.difference:+.1%}"
+    everything = " ".join(" ".join(row) for row in words.rows) + words.settings + words.method
+    assert not FORBIDDEN[system].search(everything)
+    assert "§6.3.2" in words.method
+
+
+def test_words_of_a_check_that_could_not_be_made(refused):
+    """No figures, the reason in words, the settings still said."""
+    words = ltb_words(refused, units("si"))
+    assert not words.applies and words.rows == []
+    assert words.reason == "the section's torsion and warping constants (I_t, I_w) are not known"
+    assert words.headline == f"LTB not checked: {words.reason}"
+    assert "destabilising" in words.settings
+
+
+def test_no_member_check_means_no_ltb_words():
+    """A case given by EI alone has no member check and so no LTB block anywhere."""
+    mapping = _demo_mapping()
+    mapping.pop("section"), mapping.pop("material")
+    mapping["EI"] = 4.2e6
+    mapping["imperfection"] = {"shape": "sine", "amplitude": 0.01}
+    result = _solve(mapping)
+    assert ltb_words(result, units("si")) is None
+    assert "Lateral-torsional" not in format_summary("x", result.case, result)
+    assert "# LTB" not in exports.csv_text(result)
+    assert _ltb_cells(result, 1e-3) == [""] * 6
+
+
+def test_an_infinite_critical_moment_is_worded_not_shown_as_a_number(checked):
+    """M_cr = inf (no lateral buckling under the diagram) reads in words, and is null in the JSON."""
+    double = dataclasses.replace(LtbDouble(), M_cr=math.inf, M_cr_tabulated=math.inf, difference=math.nan)
+    result = with_ltb(_solve(_demo_mapping()), double)
+    assert ltb_words(result, units("si")).text("M_cr") == "∞ (no lateral-torsional buckling)"
+    data = summary_data("x", result.case, result)
+    assert data["ltb"]["M_cr"] is None and data["ltb"]["applies"] is True
+
+
+# --------------------------------------------------------------------------------------------------------
+# Command line and exports.
+
+
+@pytest.mark.parametrize("system", ["si", "us"])
+def test_printed_summary_has_the_ltb_figures(checked, system):
+    text = format_summary("demo", checked.case, checked, system)
+    block = text[text.index("Lateral-torsional buckling (major axis)") :]
+    words = ltb_words(checked, units(system))
+    for key in ("M_cr", "M_cr_tabulated", "lambda_LT", "chi_LT", "utilisation"):
+        assert words.text(key) in block, key
+    assert "method:" in block and "source:" in block
+
+
+def test_printed_summary_says_why_not(refused):
+    text = format_summary("demo", refused.case, refused)
+    assert "not checked:  the section's torsion and warping constants (I_t, I_w) are not known" in text
+
+
+def test_json_summary_has_the_ltb_check_in_si(checked):
+    data = summary_data("demo", checked.case, checked)["ltb"]
+    ltb = checked.ltb
+    assert data["M_cr"] == pytest.approx(ltb.M_cr) and data["M_cr_tabulated"] == pytest.approx(
+        ltb.M_cr_tabulated
+    )
+    assert data["chi_LT"] == pytest.approx(ltb.chi_LT) and data["utilisation"] == pytest.approx(
+        ltb.utilisation
+    )
+    assert data["lateral_ends"] == list(ltb.lateral_ends) and data["method"] == ltb.method
+    json.dumps(data, allow_nan=False)
+
+
+def test_csv_has_the_ltb_rows(checked):
+    text = exports.csv_text(checked, units="si")
+    ltb = checked.ltb
+    rows = {line.split(",")[0]: line.split(",")[1] for line in text.splitlines() if line.startswith("# ")}
+    assert float(rows["# M_cr exact [kN·m]"]) == pytest.approx(_kn_m(ltb.M_cr), rel=1e-5)
+    assert float(rows["# M_cr tabulated [kN·m]"]) == pytest.approx(_kn_m(ltb.M_cr_tabulated), rel=1e-5)
+    assert float(rows["# lambda_LT [-]"]) == pytest.approx(ltb.lambda_LT, rel=1e-5)
+    assert float(rows["# chi_LT [-]"]) == pytest.approx(ltb.chi_LT, rel=1e-5)
+    assert float(rows["# LTB utilisation [-]"]) == pytest.approx(ltb.utilisation, rel=1e-5)
+    us = exports.csv_text(checked, units="us")
+    line = next(line for line in us.splitlines() if line.startswith("# M_cr exact"))
+    assert line.startswith("# M_cr exact [kip·ft],")
+    assert float(line.split(",")[1]) == pytest.approx(ltb.M_cr / KIP_FT, rel=1e-5)
+
+
+def test_csv_says_why_not(refused):
+    rows = [row for row in csv.reader(io.StringIO(exports.csv_text(refused))) if row and row[0] == "# LTB"]
+    assert rows == [
+        ["# LTB", "not checked", "the section's torsion and warping constants (I_t, I_w) are not known"]
+    ]
+
+
+def test_batch_cells(checked, refused):
+    """The batch's LTB cells: status, both M_cr in the display unit, λ̄_LT, χ_LT, utilisation."""
+    ltb = checked.ltb
+    cells = _ltb_cells(checked, 1e-3)
+    assert cells[0] == "checked"
+    assert [float(c) for c in cells[1:]] == pytest.approx(
+        [ltb.M_cr / 1e3, ltb.M_cr_tabulated / 1e3, ltb.lambda_LT, ltb.chi_LT, ltb.utilisation], rel=1e-12
+    )
+    assert _ltb_cells(refused, 1e-3) == ["not checked: torsion-unknown", "", "", "", "", ""]
+
+
+def _pdf_text(result, system):
+    reader = pypdf.PdfReader(io.BytesIO(exports.pdf_bytes(result, units=system)))
+    return " ".join(" ".join(page.extract_text() for page in reader.pages).split())
+
+
+@pytest.mark.parametrize("system", ["si", "us"])
+def test_calc_sheet_has_the_ltb_section(checked, system):
+    """Both M_cr and their difference, λ̄_LT, χ_LT, the utilisation, the method and the sources."""
+    text = _pdf_text(checked, system)
+    words = ltb_words(checked, units(system))
+    assert "Lateral-torsional buckling major axis, EN 1993-1-1 §6.3.2" in text
+    for key in ("M_cr", "M_cr_tabulated", "difference", "lambda_LT", "chi_LT", "utilisation"):
+        assert words.text(key) in text, key
+    assert "M_cr exact" in text and "M_cr tabulated" in text and "tabulated − exact" in text
+    assert "method: χ_LT by EN 1993-1-1 §6.3.2" in text
+    assert "source:" in text.split("Lateral-torsional buckling")[1]
+    found = [text[max(0, m.start() - 40) : m.end() + 5] for m in FORBIDDEN[system].finditer(text)]
+    assert not found
+
+
+def test_calc_sheet_says_why_not(refused):
+    text = _pdf_text(refused, "si")
+    assert "not checked: the section's torsion and warping constants (I_t, I_w) are not known" in text
+
+
+# --------------------------------------------------------------------------------------------------------
+# The page.
+
+
+def _with(state, result):
+    with param.edit_constant(state):
+        state.result = result
+
+
+def test_values_table_and_ltb_tab_show_the_figures(checked):
+    """The governing values hold M_cr exact and tabulated, λ̄_LT, χ_LT and the utilisation; the LTB tab all of
+    them and the mode's lateral and twist components at the engine's stations."""
+    U = units("si")
+    table = values_table(checked, None, "", U)
+    words = ltb_words(checked, U)
+    for key in ("M_cr", "M_cr_tabulated", "lambda_LT", "chi_LT", "utilisation"):
+        row = re.search(rf"<tr[^>]*data-ltb='{key}'>(.*?)</tr>", table).group(1)
+        assert words.text(key) in html.unescape(row), key
+    block = _plain(ltb_html(checked, U))
+    assert "M cr exact" in block and "M cr tabulated" in block and "Settings:" in block
+    state = MemberState()
+    page = MemberPage(state)
+    _with(state, checked)
+    view = page.ltb
+    ltb = checked.ltb
+    assert list(view.source.data["x"]) == pytest.approx(list(ltb.mode_x))
+    assert list(view.source.data["v"]) == pytest.approx(list(ltb.mode_v))
+    assert list(view.source.data["phi"]) == pytest.approx(list(ltb.mode_phi))
+    assert max(abs(v) for v in view.source.data["v"]) == pytest.approx(1.0)
+    assert view.figure.x_range.end == pytest.approx(checked.case.length)
+    state.units = "us"
+    assert list(view.source.data["x"]) == pytest.approx([x / 0.3048 for x in ltb.mode_x])
+    assert "kip·ft" in view.readout.object and "kN" not in view.readout.object
+
+
+def test_page_says_why_not_and_draws_no_mode(refused):
+    state = MemberState()
+    page = MemberPage(state)
+    _with(state, refused)
+    view = page.ltb
+    assert "Not checked: the section's torsion" in _plain(view.readout.object)
+    assert list(view.source.data["x"]) == []
+    table = _plain(values_table(refused, None, "", units("si")))
+    assert "LTB not checked see cautions why the section's torsion" in table
