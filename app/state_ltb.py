@@ -1,11 +1,12 @@
 """The page's inputs of the lateral-torsional buckling check (issue 15): the case file's ``check.ltb``.
 
 :class:`LtbInputs` is the part of :class:`app.state_inputs.MemberInputs` that holds them: where the transverse
-loads act over the depth, and the lateral and warping end conditions of each end. :func:`ltb_check_keys` and
-:func:`ltb_values` turn them into the case file's ``check.ltb`` and back. Only settings that differ from the
-defaults are written (a case with the default LTB settings is the same file as before issue 15); the defaults
-are the engine's, the conservative ones (destabilising load, fork ends, warping free). The engine validates
-the values when it solves (a value no widget offers, from a file or a link, comes back as its message).
+loads act over the depth, the lateral and warping end conditions of each end, and the clause χ_LT is found
+by. :func:`ltb_check_keys` and :func:`ltb_values` turn them into the case file's ``check.ltb`` and back. Only
+settings that differ from the defaults are written (a case with the default LTB settings is the same file as
+before issue 15); the defaults are the engine's, the conservative ones (destabilising load, fork ends,
+warping free, §6.3.2.2). The engine validates the values when it solves (a value no widget offers, from a
+file or a link, comes back as its message).
 """
 
 from __future__ import annotations
@@ -16,6 +17,7 @@ from typing import Any
 import param
 
 __all__ = [
+    "CHI_METHODS",
     "LATERAL_ENDS",
     "LOAD_POSITIONS",
     "LTB_DEFAULTS",
@@ -32,12 +34,15 @@ LOAD_POSITIONS = ("destabilising", "shear-centre", "stabilising")
 LATERAL_ENDS = ("fork", "fixed")
 #: Warping end condition of each end.
 WARPING_ENDS = ("free", "fixed")
+#: How χ_LT is found: EN 1993-1-1 §6.3.2.2 (general case) or §6.3.2.3 (rolled or equivalent welded sections).
+CHI_METHODS = ("general", "rolled")
 
 #: The engine's defaults (LTB_CONTRACT.md): the conservative ones.
 LTB_DEFAULTS: dict[str, Any] = {
     "load_position": "destabilising",
     "lateral_ends": ["fork", "fork"],
     "warping_ends": ["free", "free"],
+    "chi_method": "general",
 }
 
 #: The inputs held here (the state watches them as it watches every other input).
@@ -47,6 +52,7 @@ LTB_INPUTS = (
     "ltb_lateral_right",
     "ltb_warping_left",
     "ltb_warping_right",
+    "ltb_chi_method",
     "ltb_extra",
 )
 
@@ -71,6 +77,11 @@ class LtbInputs(param.Parameterized):
     )
     ltb_warping_left = param.Parameter(default="free", doc="Warping at x = 0: 'free' or 'fixed'.")
     ltb_warping_right = param.Parameter(default="free", doc="Warping at x = L: 'free' or 'fixed'.")
+    ltb_chi_method = param.Parameter(
+        default="general",
+        doc="χ_LT by EN 1993-1-1 §6.3.2.2 ('general', the default: the lower χ_LT) or §6.3.2.3 ('rolled': "
+        "rolled or equivalent welded I sections).",
+    )
     ltb_extra = param.Dict(
         default={},
         doc="Keys of a loaded case file's check.ltb the inputs above cannot hold (an unknown key, a pair "
@@ -89,6 +100,8 @@ def ltb_check_keys(inputs) -> dict:
     warping = [inputs.ltb_warping_left, inputs.ltb_warping_right]
     if warping != LTB_DEFAULTS["warping_ends"]:
         data["warping_ends"] = warping
+    if inputs.ltb_chi_method != LTB_DEFAULTS["chi_method"]:
+        data["chi_method"] = inputs.ltb_chi_method
     data.update(inputs.ltb_extra)
     return {"ltb": data} if data else {}
 
@@ -103,7 +116,10 @@ def ltb_values(mapping: Mapping) -> dict:
     check = check if isinstance(check, Mapping) else {}
     ltb = check.get("ltb") or {}
     ltb = dict(ltb) if isinstance(ltb, Mapping) else {}
-    values: dict[str, Any] = {"ltb_load_position": ltb.pop("load_position", LTB_DEFAULTS["load_position"])}
+    values: dict[str, Any] = {
+        "ltb_load_position": ltb.pop("load_position", LTB_DEFAULTS["load_position"]),
+        "ltb_chi_method": ltb.pop("chi_method", LTB_DEFAULTS["chi_method"]),
+    }
     for key, name in (("lateral_ends", "lateral"), ("warping_ends", "warping")):
         pair = ltb.pop(key, LTB_DEFAULTS[key])
         if not (isinstance(pair, (list, tuple)) and len(pair) == 2):

@@ -25,17 +25,18 @@ from bokeh.plotting import figure
 from app.page.style import SECOND, TRANSVERSE, WIDGET_CSS, esc, finite, html_pane
 from app.report.ltb import LOAD_POSITION_LABELS, ltb_of, ltb_words
 from app.state import MemberState
-from app.state_ltb import LATERAL_ENDS, LOAD_POSITIONS, WARPING_ENDS
+from app.state_ltb import CHI_METHODS, LATERAL_ENDS, LOAD_POSITIONS, WARPING_ENDS
 from app.units import units
 
 __all__ = ["LtbSettingsView", "LtbView", "ltb_html", "subscripts"]
 
 _FROM_FILE = "as in the case file"
 _POSITION_OPTIONS = {
-    "destabilising (top flange)": "destabilising",
+    "destabilising (on the loaded flange)": "destabilising",
     "at the shear centre": "shear-centre",
-    "stabilising (bottom flange)": "stabilising",
+    "stabilising (on the far flange)": "stabilising",
 }
+_CHI_OPTIONS = {"§6.3.2.2, general case": "general", "§6.3.2.3, rolled or welded I": "rolled"}
 _LATERAL_OPTIONS = {"fork": "fork", "fixed": "fixed"}
 _WARPING_OPTIONS = {"free": "free", "fixed": "fixed"}
 
@@ -88,6 +89,10 @@ class LtbSettingsView(pn.viewable.Viewer):
             label="LTB load position", options=dict(_POSITION_OPTIONS), width=220, stylesheets=[WIDGET_CSS]
         )
         self.position.param.watch(lambda event: self._set("ltb_load_position", event.new), "value")
+        self.chi_method = pn.widgets.Select(
+            label="χ_LT by EN 1993-1-1", options=dict(_CHI_OPTIONS), width=220, stylesheets=[WIDGET_CSS]
+        )
+        self.chi_method.param.watch(lambda event: self._set("ltb_chi_method", event.new), "value")
         self.ends = {}
         for kind, options in (("lateral", _LATERAL_OPTIONS), ("warping", _WARPING_OPTIONS)):
             for side, where in (("left", "x = 0"), ("right", "x = L")):
@@ -100,17 +105,19 @@ class LtbSettingsView(pn.viewable.Viewer):
         self.note = html_pane(
             "<div class='ss-note'>Destabilising (the default, the conservative choice): the loads act at the "
             "flange they come from, z<sub>g</sub> = +h/2; stabilising: at the other flange. Fork: the end is "
-            "held laterally and against twist but free to turn about the minor axis.</div>"
+            "held laterally and against twist but free to turn about the minor axis. §6.3.2.2 (the default) "
+            "usually gives the lower χ<sub>LT</sub>.</div>"
         )
         self.panel = pn.Column(
             html_pane("<div class='ss-heading'>Lateral-torsional buckling</div>"),
             self.position,
             pn.Row(self.ends["ltb_lateral_left"], self.ends["ltb_lateral_right"], margin=0),
             pn.Row(self.ends["ltb_warping_left"], self.ends["ltb_warping_right"], margin=0),
+            self.chi_method,
             self.note,
             margin=0,
         )
-        state.param.watch(lambda *_: self.show(), ["ltb_load_position", *self.ends])
+        state.param.watch(lambda *_: self.show(), ["ltb_load_position", "ltb_chi_method", *self.ends])
         self.show()
 
     def __panel__(self):
@@ -136,6 +143,7 @@ class LtbSettingsView(pn.viewable.Viewer):
         """Show the state's settings (after a load, a link or an edit)."""
         state = self.state
         self._show(self.position, _POSITION_OPTIONS, LOAD_POSITIONS, state.ltb_load_position)
+        self._show(self.chi_method, _CHI_OPTIONS, CHI_METHODS, state.ltb_chi_method)
         for name, widget in self.ends.items():
             lateral = "_lateral_" in name
             self._show(

@@ -53,6 +53,9 @@ REASONS = {
     "no-major-moment": "no moment about the major axis",
     "minor-axis-only": "the member bends about its minor axis only",
     "closed-or-solid": "a closed or solid section",
+    "free-end": "a member with a free end (a cantilever): a fork support at its tip would be unsafe",
+    "not-doubly-symmetric": "the section is not doubly symmetric",
+    "depth-unknown": "the section's depth is not known, so the loads cannot be placed over it",
 }
 
 #: The standard moment diagrams of the tabulated C1, by the engine's code.
@@ -172,6 +175,15 @@ def _moment(U: Units, value) -> str:
     return U.show("moment", value)
 
 
+def _held_text(ltb, U: Units) -> str:
+    """The note beside the exact M_cr: the member's own diagram, and the compression held in it."""
+    held = getattr(ltb, "N_Ed", 0.0) or 0.0
+    at_zero = getattr(ltb, "M_cr_0", None)
+    if held > 0.0 and finite(at_zero):
+        return f"with N_Ed = {U.show('force', held)} held; {_moment(U, at_zero)} at N = 0"
+    return "this member's own diagram"
+
+
 def _diagram_text(ltb) -> str:
     name = DIAGRAMS.get(ltb.diagram, str(ltb.diagram).replace("-", " "))
     deviation = float(ltb.diagram_deviation)
@@ -219,7 +231,7 @@ def ltb_words(result, U: Units) -> LtbWords | None:
         )
     rows = [
         ("M_Ed", "M_Ed", U.show("moment", ltb.M_Ed), "largest major-axis moment"),
-        ("M_cr", "M_cr exact", _moment(U, ltb.M_cr), "this member's own diagram"),
+        ("M_cr", "M_cr exact", _moment(U, ltb.M_cr), _held_text(ltb, U)),
         (
             "M_cr_tabulated",
             "M_cr tabulated",
