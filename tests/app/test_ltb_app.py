@@ -311,3 +311,25 @@ def test_page_says_why_not_and_draws_no_mode(refused):
     assert list(view.source.data["x"]) == []
     table = _plain(values_table(refused, None, "", units("si")))
     assert "LTB not checked see cautions why the section's torsion" in table
+
+
+# --------------------------------------------------------------------------------------------------------
+# The case file's schema.
+
+
+def test_schema_takes_the_ltb_settings_and_refuses_a_bad_one():
+    """check.ltb as the page writes it passes the JSON Schema; an unknown position or a one-end pair does not
+    (JSON Schema draft 2020-12, as the jsonschema package implements it)."""
+    import jsonschema
+
+    from app.schema import case_schema
+
+    validator = jsonschema.Draft202012Validator(case_schema())
+    state = MemberState()
+    state.param.update(ltb_load_position="shear-centre", ltb_warping_left="fixed", ltb_chi_method="rolled")
+    good = state.case_mapping()
+    assert list(validator.iter_errors(good)) == []
+    for bad in ({"load_position": "top"}, {"lateral_ends": ["fork"]}, {"warping_ends": ["free", "pinned"]}):
+        mapping = json.loads(json.dumps(good))
+        mapping["check"]["ltb"] = bad
+        assert list(validator.iter_errors(mapping)), bad
