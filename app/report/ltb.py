@@ -165,7 +165,8 @@ def method_text(ltb) -> str:
     return (
         f"χ_LT by {clause}, buckling curve {ltb.curve}{f}; M_cr exact: the elastic critical moment of this "
         "member's own moment diagram, load height and end conditions (Vlasov's equations, finite elements); "
-        "M_cr tabulated: the three-factor formula with C1 of the nearest standard diagram"
+        "M_cr tabulated: the three-factor formula with C1 and C2 of the nearest standard diagram, without "
+        "the axial force"
     )
 
 
@@ -184,7 +185,16 @@ def _held_text(ltb, U: Units) -> str:
     return "this member's own diagram"
 
 
+def _difference_note(ltb) -> str:
+    """Beside the difference: which way it errs (the tabulated value above the exact one is unsafe)."""
+    if finite(ltb.difference) and float(ltb.difference) > 0.0005:
+        return "of the exact M_cr: the tabulated value is above it, on the unsafe side; the exact one is used"
+    return "of the exact M_cr"
+
+
 def _diagram_text(ltb) -> str:
+    if ltb.diagram in ("none", "", None):
+        return "no standard diagram near this one: C1 of uniform moment"
     name = DIAGRAMS.get(ltb.diagram, str(ltb.diagram).replace("-", " "))
     deviation = float(ltb.diagram_deviation)
     if finite(deviation) and deviation > 0:
@@ -200,7 +210,8 @@ def _utilisation_text(value) -> str:
     return f"{ratio(value)} > 1, fails" if float(value) > 1.0 else ratio(value)
 
 
-def _aisc_text(aisc, U: Units) -> str:
+def _aisc_text(ltb, U: Units) -> str:
+    aisc = ltb.aisc
     zone = _ZONES.get(aisc.zone, aisc.zone)
     parts = [f"M_n = {U.show('moment', aisc.M_n)}", zone]
     for key in ("L_p", "L_r"):
@@ -208,7 +219,10 @@ def _aisc_text(aisc, U: Units) -> str:
         if value is not None:
             parts.append(f"{key} = {U.show('length', value)}")
     c_b = getattr(aisc, "C_b", None)
-    if c_b is not None:
+    by_formula = getattr(ltb, "C_b_F1_1", None)
+    if c_b is not None and finite(by_formula) and abs(float(by_formula) - float(c_b)) > 5e-4:
+        parts.append(f"C_b = {ratio(c_b)} (eq. (F1-1) gives {ratio(by_formula)}; capped by the exact M_cr)")
+    elif c_b is not None:
         parts.append(f"C_b = {ratio(c_b)} (eq. (F1-1))")
     return ", ".join(parts)
 
@@ -238,7 +252,7 @@ def ltb_words(result, U: Units) -> LtbWords | None:
             _moment(U, ltb.M_cr_tabulated),
             f"C1 = {ratio(ltb.C1)}, {_diagram_text(ltb)}",
         ),
-        ("difference", "tabulated − exact", percent(ltb.difference), "of the exact M_cr"),
+        ("difference", "tabulated − exact", percent(ltb.difference), _difference_note(ltb)),
         ("lambda_LT", "λ̄_LT", ratio(ltb.lambda_LT), ""),
         ("chi_LT", "χ_LT", ratio(ltb.chi_LT), f"curve {ltb.curve}, §{ltb.method}"),
         ("M_b_Rd", "M_b,Rd", U.show("moment", ltb.M_b_Rd), ""),
@@ -247,7 +261,7 @@ def ltb_words(result, U: Units) -> LtbWords | None:
     method = method_text(ltb)
     aisc = getattr(ltb, "aisc", None)
     if aisc is not None:
-        rows.append(("aisc", "AISC 360-16 §F2", _aisc_text(aisc, U), ""))
+        rows.append(("aisc", "AISC 360-16 §F2", _aisc_text(ltb, U), ""))
         method += "; AISC 360-16 §F2 (doubly symmetric compact I-shapes) with C_b by eq. (F1-1)"
     return LtbWords(
         applies=True,

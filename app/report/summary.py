@@ -191,7 +191,7 @@ def _ltb_lines(add, result, U) -> None:
         add(f"  not checked:  {words.reason} (see the cautions)")
     for _, label, text in words.lines():
         # λ̄ is two characters (λ and a combining macron) that print as one: pad by what is seen.
-        seen = len(unicodedata.normalize("NFC", label)) - sum(map(unicodedata.combining, label))
+        seen = sum(1 for char in label if not unicodedata.combining(char))
         add(f"  {label + ':'}{' ' * max(1, 21 - seen)}{text}")
     if words.method:
         add(f"  method:       {words.method}")
