@@ -22,19 +22,19 @@ from bokeh.core.properties import value
 from bokeh.models import ColumnDataSource, Legend, LegendItem, Range1d, Span
 from bokeh.plotting import figure
 
-from app.page.style import SECOND, TRANSVERSE, WIDGET_CSS, esc, finite, html_pane
+from app.page.style import CSS, SECOND, TRANSVERSE, WIDGET_CSS, esc, finite, html_pane
 from app.report.ltb import LOAD_POSITION_LABELS, ltb_of, ltb_words
 from app.state import MemberState
 from app.state_ltb import CHI_METHODS, LATERAL_ENDS, LOAD_POSITIONS, WARPING_ENDS
 from app.units import units
 
-__all__ = ["LtbSettingsView", "LtbView", "ltb_html", "subscripts"]
+__all__ = ["LtbSettingsView", "LtbView", "ltb_details_html", "ltb_html", "subscripts"]
 
 _FROM_FILE = "as in the case file"
 _POSITION_OPTIONS = {
-    "destabilising (on the loaded flange)": "destabilising",
+    "destabilising (loaded flange)": "destabilising",
     "at the shear centre": "shear-centre",
-    "stabilising (on the far flange)": "stabilising",
+    "stabilising (far flange)": "stabilising",
 }
 _CHI_OPTIONS = {"§6.3.2.2, general case": "general", "§6.3.2.3, rolled or welded I": "rolled"}
 _LATERAL_OPTIONS = {"fork": "fork", "fixed": "fixed"}
@@ -47,7 +47,8 @@ def subscripts(text: str) -> str:
 
 
 def ltb_html(result, U) -> str:
-    """The check's figures, settings, method and sources (HTML), or a line saying there is no check."""
+    """The check's figures (HTML): a heading and a table, or why the check was not made, or that there is
+    none."""
     words = ltb_words(result, U)
     if words is None:
         return (
@@ -60,22 +61,36 @@ def ltb_html(result, U) -> str:
             f"<div class='ss-error ss-ltb-reason'>Not checked: {subscripts(words.reason)}. The caution "
             "about lateral-torsional buckling stays (see Cautions).</div>"
         )
-    else:
-        parts.append("<table class='ss-values ss-ltb'>")
-        parts.append("<colgroup><col class='q'><col class='v'><col class='f'></colgroup>")
-        for key, label, shown, note in words.rows:
-            css = " class='danger'" if key == "utilisation" and words.fails else ""
-            parts.append(
-                f"<tr{css} data-ltb='{esc(key)}'><td class='q'>{subscripts(label)}</td>"
-                f"<td class='v'>{subscripts(shown)}</td><td class='f'>{subscripts(note)}</td></tr>"
-            )
-        parts.append("</table>")
-    parts.append(f"<div class='ss-note ss-ltb-settings'>Settings: {subscripts(words.settings)}.</div>")
+        return "".join(parts)
+    parts.append("<table class='ss-values ss-ltb'>")
+    parts.append("<colgroup><col class='q'><col class='v'><col class='f'></colgroup>")
+    for key, label, shown, note in words.rows:
+        css = " class='danger'" if key == "utilisation" and words.fails else ""
+        parts.append(
+            f"<tr{css} data-ltb='{esc(key)}'><td class='q'>{subscripts(label)}</td>"
+            f"<td class='v'>{subscripts(shown)}</td><td class='f'>{subscripts(note)}</td></tr>"
+        )
+    parts.append("</table>")
+    return "".join(parts)
+
+
+def ltb_details_html(result, U) -> str:
+    """The settings, the method and the sources of the check (HTML; "" without a check)."""
+    words = ltb_words(result, U)
+    if words is None:
+        return ""
+    parts = [f"<div class='ss-note ss-ltb-settings'>Settings: {subscripts(words.settings)}.</div>"]
     if words.method:
         parts.append(f"<div class='ss-note'>Method: {subscripts(words.method)}.</div>")
     if words.sources:
         parts.append(f"<div class='ss-note'>Sources: {esc('; '.join(words.sources))}.</div>")
     return "".join(parts)
+
+
+#: The LTB table's own column widths: the notes beside the figures are longer than the values table's.
+LTB_CSS = """
+table.ss-ltb col.q { width: 21%; } table.ss-ltb col.v { width: 24%; } table.ss-ltb col.f { width: 55%; }
+"""
 
 
 class LtbSettingsView(pn.viewable.Viewer):
@@ -86,11 +101,11 @@ class LtbSettingsView(pn.viewable.Viewer):
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
         self.position = pn.widgets.Select(
-            label="LTB load position", options=dict(_POSITION_OPTIONS), width=220, stylesheets=[WIDGET_CSS]
+            label="LTB load position", options=dict(_POSITION_OPTIONS), width=260, stylesheets=[WIDGET_CSS]
         )
         self.position.param.watch(lambda event: self._set("ltb_load_position", event.new), "value")
         self.chi_method = pn.widgets.Select(
-            label="χ_LT by EN 1993-1-1", options=dict(_CHI_OPTIONS), width=220, stylesheets=[WIDGET_CSS]
+            label="χ_LT by EN 1993-1-1", options=dict(_CHI_OPTIONS), width=260, stylesheets=[WIDGET_CSS]
         )
         self.chi_method.param.watch(lambda event: self._set("ltb_chi_method", event.new), "value")
         self.ends = {}
@@ -162,13 +177,28 @@ class LtbView(pn.viewable.Viewer):
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
         self.source = ColumnDataSource(data={"x": [], "v": [], "phi": []}, name="ltb_mode")
-        self.readout = html_pane(margin=(2, 8), css_classes=["ss-ltb-block"])
+        self.readout = pn.pane.HTML(
+            "",
+            stylesheets=[CSS, LTB_CSS],
+            sizing_mode="stretch_width",
+            margin=(2, 8),
+            css_classes=["ss-ltb-block"],
+        )
         self.caption = html_pane(margin=(0, 8))
+        self.details = html_pane(margin=(2, 8))
         self._figure()
+        # The figures first, then the buckled shape (both in view at 1280×720), then how they were found.
         self.panel = pn.Column(
             self.readout,
+            pn.pane.Bokeh(
+                self.figure,
+                sizing_mode="stretch_width",
+                height=250,
+                margin=(0, 4),
+                css_classes=["ss-ltb-plot"],
+            ),
             self.caption,
-            pn.pane.Bokeh(self.figure, sizing_mode="stretch_both", min_height=220, margin=(0, 4)),
+            self.details,
             name="LTB",
             sizing_mode="stretch_both",
             margin=0,
@@ -182,8 +212,8 @@ class LtbView(pn.viewable.Viewer):
 
     def _figure(self) -> None:
         plot = figure(
-            height=260,
-            sizing_mode="stretch_both",
+            height=250,
+            sizing_mode="stretch_width",
             x_range=Range1d(0.0, 1.0),
             y_range=Range1d(-1.15, 1.15),
             tools="xpan,xwheel_zoom,reset",
@@ -226,6 +256,9 @@ class LtbView(pn.viewable.Viewer):
             text = f"<div class='ss-stale-values'>{text}</div>"
         if self.readout.object != text:
             self.readout.object = text
+        details = ltb_details_html(result, U)
+        if self.details.object != details:
+            self.details.object = details
         ltb = ltb_of(result)
         length = float(result.case.length) * U.length.factor
         self.figure.x_range.start, self.figure.x_range.end = 0.0, length

@@ -75,9 +75,9 @@ _METHODS = {
 }
 
 _ZONES = {
-    "plastic": "plastic zone (L_b ≤ L_p, F2-1)",
-    "inelastic": "inelastic zone (L_p < L_b ≤ L_r, F2-2)",
-    "elastic": "elastic zone (L_b > L_r, F2-3)",
+    "plastic": "plastic, L_b ≤ L_p (F2-1)",
+    "inelastic": "inelastic, L_p < L_b ≤ L_r (F2-2)",
+    "elastic": "elastic, L_b > L_r (F2-3)",
 }
 
 
@@ -95,7 +95,7 @@ class LtbWords:
         Load position and end conditions used.
     rows : list of (key, label, value, note)
         The figures, in order: M_Ed, M_cr exact, M_cr tabulated, difference, λ̄_LT, χ_LT, M_b,Rd, utilisation
-        (and the AISC §F2 line with the AISC route); keys are the engine's field names (``"aisc"`` for the
+        (and M_n of AISC 360-16 §F2 for an I section); keys are the engine's field names (``"aisc"`` for the
         last); ``note`` is "" or a few words for beside the value (:meth:`line` joins them).
     method : str
         How χ_LT and M_cr were found, with the clauses.
@@ -188,13 +188,13 @@ def _held_text(ltb, U: Units) -> str:
 def _difference_note(ltb) -> str:
     """Beside the difference: which way it errs (the tabulated value above the exact one is unsafe)."""
     if finite(ltb.difference) and float(ltb.difference) > 0.0005:
-        return "of the exact M_cr: the tabulated value is above it, on the unsafe side; the exact one is used"
+        return "tabulated above exact: unsafe side (the exact one is used)"
     return "of the exact M_cr"
 
 
 def _diagram_text(ltb) -> str:
     if ltb.diagram in ("none", "", None):
-        return "no standard diagram near this one: C1 of uniform moment"
+        return "none of the standard diagrams fits: uniform moment's"
     name = DIAGRAMS.get(ltb.diagram, str(ltb.diagram).replace("-", " "))
     deviation = float(ltb.diagram_deviation)
     if finite(deviation) and deviation > 0:
@@ -210,10 +210,10 @@ def _utilisation_text(value) -> str:
     return f"{ratio(value)} > 1, fails" if float(value) > 1.0 else ratio(value)
 
 
-def _aisc_text(ltb, U: Units) -> str:
+def _aisc_note(ltb, U: Units) -> str:
+    """Beside M_n of AISC 360-16 §F2: its zone, L_p, L_r and C_b."""
     aisc = ltb.aisc
-    zone = _ZONES.get(aisc.zone, aisc.zone)
-    parts = [f"M_n = {U.show('moment', aisc.M_n)}", zone]
+    parts = [_ZONES.get(aisc.zone, aisc.zone)]
     for key in ("L_p", "L_r"):
         value = getattr(aisc, key, None)
         if value is not None:
@@ -221,7 +221,7 @@ def _aisc_text(ltb, U: Units) -> str:
     c_b = getattr(aisc, "C_b", None)
     by_formula = getattr(ltb, "C_b_F1_1", None)
     if c_b is not None and finite(by_formula) and abs(float(by_formula) - float(c_b)) > 5e-4:
-        parts.append(f"C_b = {ratio(c_b)} (eq. (F1-1) gives {ratio(by_formula)}; capped by the exact M_cr)")
+        parts.append(f"C_b = {ratio(c_b)} (eq. (F1-1): {ratio(by_formula)}, capped by the exact M_cr)")
     elif c_b is not None:
         parts.append(f"C_b = {ratio(c_b)} (eq. (F1-1))")
     return ", ".join(parts)
@@ -261,7 +261,7 @@ def ltb_words(result, U: Units) -> LtbWords | None:
     method = method_text(ltb)
     aisc = getattr(ltb, "aisc", None)
     if aisc is not None:
-        rows.append(("aisc", "AISC 360-16 §F2", _aisc_text(ltb, U), ""))
+        rows.append(("aisc", "M_n, AISC 360-16 §F2", U.show("moment", aisc.M_n), _aisc_note(ltb, U)))
         method += "; AISC 360-16 §F2 (doubly symmetric compact I-shapes) with C_b by eq. (F1-1)"
     return LtbWords(
         applies=True,

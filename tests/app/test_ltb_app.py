@@ -25,7 +25,7 @@ import engine
 from app import exports
 from app.batch.solving import _ltb_cells
 from app.page import MemberPage
-from app.page.ltb import ltb_html
+from app.page.ltb import ltb_details_html, ltb_html
 from app.page.words import values_table
 from app.report.ltb import ltb_words
 from app.report.summary import format_summary
@@ -286,7 +286,8 @@ def test_values_table_and_ltb_tab_show_the_figures(checked):
         row = re.search(rf"<tr[^>]*data-ltb='{key}'>(.*?)</tr>", table).group(1)
         assert words.text(key) in html.unescape(row), key
     block = _plain(ltb_html(checked, U))
-    assert "M cr exact" in block and "M cr tabulated" in block and "Settings:" in block
+    assert "M cr exact" in block and "M cr tabulated" in block
+    assert "Settings:" in _plain(ltb_details_html(checked, U))
     state = MemberState()
     page = MemberPage(state)
     _with(state, checked)
