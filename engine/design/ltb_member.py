@@ -152,8 +152,15 @@ def _k(ends) -> float:
 
 
 def _standard(x: np.ndarray, M: np.ndarray) -> ltb.StandardDiagram:
-    if np.any(np.diff(x) <= 0.0):  # a couple in the span (a jump): none of the table's shapes
-        return ltb.StandardDiagram(diagram="none", C1=1.0, C2=0.0, psi=None, deviation=math.inf)
+    """The nearest standard diagram; a station given twice (a point load's) counts once, a jump (a couple in
+    the span) is none of the table's shapes."""
+    twice = np.diff(x) <= 0.0
+    if np.any(twice):
+        scale = float(np.max(np.abs(M)))
+        if np.any(np.abs(np.diff(M))[twice] > 1e-9 * scale):
+            return ltb.StandardDiagram(diagram="none", C1=1.0, C2=0.0, psi=None, deviation=math.inf)
+        keep = np.concatenate([[True], ~twice])
+        x, M = x[keep], M[keep]
     return ltb.c1_for_diagram(x, M)
 
 
