@@ -494,6 +494,8 @@ def test_ltb_settings_are_validated():
     assert dataclasses.asdict(settings_)["ltb"]["lateral_ends"] == ("fixed", "fork")
     assert settings_.to_dict()["ltb"]["lateral_ends"] == ["fixed", "fork"]
     assert "ltb" not in _case().check.to_dict()
+    case = _case(check={"ltb": {"load_position": "stabilising", "warping_ends": ["fixed", "fixed"]}})
+    assert engine.Case.from_dict(case.to_dict()).check == case.check  # the case file round trip
 
 
 @pytest.mark.parametrize(("general", "rolled"), [("a", "b"), ("b", "c"), ("c", "c"), ("d", "d")])
