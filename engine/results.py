@@ -266,6 +266,9 @@ class Result:
     routes : tuple of RouteCheck
         Each route of the member check (:mod:`engine.design.routes`), in the order of ``ROUTES``; empty
         without a section and material.
+    ltb : LtbCheck or None
+        The member's lateral-torsional buckling check (:class:`engine.design.ltb_member.LtbCheck`; major
+        axis, for the member in a two-plane case); None without a section and material.
     """
 
     case: object
@@ -299,6 +302,7 @@ class Result:
     cautions: tuple = ()
     second_plane: Result | None = None
     routes: tuple = ()
+    ltb: object = None
 
     @functools.cached_property
     def first_order(self) -> Result | None:
