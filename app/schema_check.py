@@ -45,9 +45,14 @@ def ltb_schema(closed) -> dict[str, Any]:
                 "description": "χ_LT by EN 1993-1-1 §6.3.2.2 ('general'; default) or §6.3.2.3 ('rolled': "
                 "rolled or equivalent welded I sections).",
             },
+            "restrained": {
+                "type": "boolean",
+                "description": "True: the compression flange is restrained along the member (by a slab or "
+                "sheeting), so lateral-torsional buckling is prevented (χ_LT = 1). Default false.",
+            },
         },
         description="Lateral-torsional buckling of the member about its major axis (EN 1993-1-1 §6.3.2). "
-        "Default: destabilising loads, fork ends, warping free, §6.3.2.2.",
+        "Default: destabilising loads, fork ends, warping free, §6.3.2.2, not restrained.",
     )
 
 

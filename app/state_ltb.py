@@ -1,12 +1,13 @@
 """The page's inputs of the lateral-torsional buckling check (issue 15): the case file's ``check.ltb``.
 
 :class:`LtbInputs` is the part of :class:`app.state_inputs.MemberInputs` that holds them: where the transverse
-loads act over the depth, the lateral and warping end conditions of each end, and the clause χ_LT is found
-by. :func:`ltb_check_keys` and :func:`ltb_values` turn them into the case file's ``check.ltb`` and back. Only
+loads act over the depth, the lateral and warping end conditions of each end, the clause χ_LT is found by,
+and whether the compression flange is restrained along the member (LTB prevented, the engineer's statement).
+:func:`ltb_check_keys` and :func:`ltb_values` turn them into the case file's ``check.ltb`` and back. Only
 settings that differ from the defaults are written (a case with the default LTB settings is the same file as
 before issue 15); the defaults are the engine's, the conservative ones (destabilising load, fork ends,
-warping free, §6.3.2.2). The engine validates the values when it solves (a value no widget offers, from a
-file or a link, comes back as its message).
+warping free, §6.3.2.2, not restrained). The engine validates the values when it solves (a value no widget
+offers, from a file or a link, comes back as its message).
 """
 
 from __future__ import annotations
@@ -43,6 +44,7 @@ LTB_DEFAULTS: dict[str, Any] = {
     "lateral_ends": ["fork", "fork"],
     "warping_ends": ["free", "free"],
     "chi_method": "general",
+    "restrained": False,
 }
 
 #: The inputs held here (the state watches them as it watches every other input).
@@ -53,6 +55,7 @@ LTB_INPUTS = (
     "ltb_warping_left",
     "ltb_warping_right",
     "ltb_chi_method",
+    "ltb_restrained",
     "ltb_extra",
 )
 
@@ -82,6 +85,11 @@ class LtbInputs(param.Parameterized):
         doc="χ_LT by EN 1993-1-1 §6.3.2.2 ('general', the default: the lower χ_LT) or §6.3.2.3 ('rolled': "
         "rolled or equivalent welded I sections).",
     )
+    ltb_restrained = param.Parameter(
+        default=False,
+        doc="True: the engineer states that the compression flange is restrained along the member (by a slab "
+        "or sheeting), so lateral-torsional buckling is prevented (χ_LT = 1, EN 1993-1-1 §6.3.2.1(2)).",
+    )
     ltb_extra = param.Dict(
         default={},
         doc="Keys of a loaded case file's check.ltb the inputs above cannot hold (an unknown key, a pair "
@@ -102,6 +110,8 @@ def ltb_check_keys(inputs) -> dict:
         data["warping_ends"] = warping
     if inputs.ltb_chi_method != LTB_DEFAULTS["chi_method"]:
         data["chi_method"] = inputs.ltb_chi_method
+    if inputs.ltb_restrained is not LTB_DEFAULTS["restrained"]:
+        data["restrained"] = inputs.ltb_restrained
     data.update(inputs.ltb_extra)
     return {"ltb": data} if data else {}
 
@@ -119,6 +129,7 @@ def ltb_values(mapping: Mapping) -> dict:
     values: dict[str, Any] = {
         "ltb_load_position": ltb.pop("load_position", LTB_DEFAULTS["load_position"]),
         "ltb_chi_method": ltb.pop("chi_method", LTB_DEFAULTS["chi_method"]),
+        "ltb_restrained": ltb.pop("restrained", LTB_DEFAULTS["restrained"]),
     }
     for key, name in (("lateral_ends", "lateral"), ("warping_ends", "warping")):
         pair = ltb.pop(key, LTB_DEFAULTS[key])

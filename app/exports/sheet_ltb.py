@@ -19,7 +19,8 @@ def ltb_items(item, flow, result, U: Units) -> None:
     item("Lateral-torsional buckling", "major axis, EN 1993-1-1 §6.3.2", weight="bold")
     item("", f"settings: {words.settings}", scale=0.92)
     if not words.applies:
-        item("", f"not checked: {words.reason}; the caution in section 5 stays", color=_DANGER)
+        stays = "; the caution in section 5 stays" if words.caution else ""
+        item("", f"not checked: {words.reason}{stays}", color=_DANGER if words.caution else _INK)
     for key, label, text in words.lines():
         danger = key == "utilisation" and words.fails
         item(

@@ -57,10 +57,13 @@ def ltb_html(result, U) -> str:
         )
     parts = ["<div class='ss-heading'>Lateral-torsional buckling, major axis</div>"]
     if not words.applies:
-        parts.append(
-            f"<div class='ss-error ss-ltb-reason'>Not checked: {subscripts(words.reason)}. The caution "
-            "about lateral-torsional buckling stays (see Cautions).</div>"
-        )
+        if words.caution:
+            parts.append(
+                f"<div class='ss-error ss-ltb-reason'>Not checked: {subscripts(words.reason)}. The caution "
+                "about lateral-torsional buckling stays (see Cautions).</div>"
+            )
+        else:
+            parts.append(f"<div class='ss-note ss-ltb-reason'>Not checked: {subscripts(words.reason)}.</div>")
         return "".join(parts)
     parts.append("<table class='ss-values ss-ltb'>")
     parts.append("<colgroup><col class='q'><col class='v'><col class='f'></colgroup>")
@@ -108,6 +111,13 @@ class LtbSettingsView(pn.viewable.Viewer):
             label="χ_LT by EN 1993-1-1", options=dict(_CHI_OPTIONS), width=260, stylesheets=[WIDGET_CSS]
         )
         self.chi_method.param.watch(lambda event: self._set("ltb_chi_method", event.new), "value")
+        self.restrained = pn.widgets.Checkbox(
+            label="compression flange restrained along the member (LTB prevented)",
+            value=state.ltb_restrained is True,
+            margin=(4, 6),
+            stylesheets=[WIDGET_CSS],
+        )
+        self.restrained.param.watch(self._restrained, "value")
         self.ends = {}
         for kind, options in (("lateral", _LATERAL_OPTIONS), ("warping", _WARPING_OPTIONS)):
             for side, where in (("left", "x = 0"), ("right", "x = L")):
@@ -129,10 +139,13 @@ class LtbSettingsView(pn.viewable.Viewer):
             pn.Row(self.ends["ltb_lateral_left"], self.ends["ltb_lateral_right"], margin=0),
             pn.Row(self.ends["ltb_warping_left"], self.ends["ltb_warping_right"], margin=0),
             self.chi_method,
+            self.restrained,
             self.note,
             margin=0,
         )
-        state.param.watch(lambda *_: self.show(), ["ltb_load_position", "ltb_chi_method", *self.ends])
+        state.param.watch(
+            lambda *_: self.show(), ["ltb_load_position", "ltb_chi_method", "ltb_restrained", *self.ends]
+        )
         self.show()
 
     def __panel__(self):
@@ -142,6 +155,10 @@ class LtbSettingsView(pn.viewable.Viewer):
         if chosen is None or chosen == _FROM_FILE or getattr(self.state, name) == chosen:
             return
         self.state.param.update({name: chosen})
+
+    def _restrained(self, event) -> None:
+        if self.state.ltb_restrained is not event.new:
+            self.state.ltb_restrained = bool(event.new)
 
     @staticmethod
     def _show(widget, options: dict, allowed, current) -> None:
@@ -159,6 +176,11 @@ class LtbSettingsView(pn.viewable.Viewer):
         state = self.state
         self._show(self.position, _POSITION_OPTIONS, LOAD_POSITIONS, state.ltb_load_position)
         self._show(self.chi_method, _CHI_OPTIONS, CHI_METHODS, state.ltb_chi_method)
+        restrained = state.ltb_restrained is True
+        if self.restrained.value != restrained:
+            self.restrained.value = restrained
+        for widget in (self.position, self.chi_method, *self.ends.values()):
+            widget.disabled = restrained  # prevented: nothing else of the check is used
         for name, widget in self.ends.items():
             lateral = "_lateral_" in name
             self._show(

@@ -189,7 +189,7 @@ def _ltb_rows(head, row, result, U) -> None:
         return
     head("Lateral-torsional buckling")
     if not words.applies:
-        row("LTB", "not checked", "see cautions", warn=True, key="reason")
+        row("LTB", "not checked", "see cautions" if words.caution else "", warn=words.caution, key="reason")
         row("why", words.reason, key="why")
         return
     shown = {key: (label, value, note) for key, label, value, note in words.rows}

@@ -56,6 +56,8 @@ REASONS = {
     "free-end": "a member with a free end (a cantilever): a fork support at its tip would be unsafe",
     "not-doubly-symmetric": "the section is not doubly symmetric",
     "depth-unknown": "the section's depth is not known, so the loads cannot be placed over it",
+    "restrained": "the compression flange is restrained along the member, as the case states: "
+    "lateral-torsional buckling is prevented, χ_LT = 1 (EN 1993-1-1 §6.3.2.1(2))",
 }
 
 #: The standard moment diagrams of the tabulated C1, by the engine's code.
@@ -103,6 +105,9 @@ class LtbWords:
         The engine's sources, without strutscope's reliability flags.
     utilisation : float or None
         M_Ed / M_b,Rd (None when the check does not apply).
+    caution : bool
+        True when the engine's lateral-torsional buckling caution is among the result's cautions (it stays
+        where the check could not be made; not where the case states the flange restrained).
     headline : str
         One line: ``"LTB 0.412 (χ_LT 0.803, M_cr 521.3 kN·m)"`` or ``"LTB not checked: <reason>"``.
     """
@@ -115,6 +120,7 @@ class LtbWords:
     sources: tuple = ()
     utilisation: float | None = None
     headline: str = ""
+    caution: bool = False
 
     def text(self, key: str) -> str:
         """The value of row `key` ("" when absent)."""
@@ -234,6 +240,7 @@ def ltb_words(result, U: Units) -> LtbWords | None:
         return None
     settings = settings_text(ltb)
     sources = tuple(source_text(s, U) for s in (getattr(ltb, "sources", ()) or ()))
+    caution = any(c.code == "lateral-torsional-buckling" for c in getattr(result, "cautions", ()) or ())
     if not ltb.applies:
         reason = reason_text(ltb.reason)
         return LtbWords(
@@ -242,6 +249,7 @@ def ltb_words(result, U: Units) -> LtbWords | None:
             settings=settings,
             sources=sources,
             headline=f"LTB not checked: {reason}",
+            caution=caution,
         )
     rows = [
         ("M_Ed", "M_Ed", U.show("moment", ltb.M_Ed), "largest major-axis moment"),
@@ -271,6 +279,7 @@ def ltb_words(result, U: Units) -> LtbWords | None:
         method=method,
         sources=sources,
         utilisation=float(ltb.utilisation),
+        caution=caution,
         headline=f"LTB {_utilisation_text(ltb.utilisation)} (χ_LT {ratio(ltb.chi_LT)}, "
         f"M_cr {_moment(U, ltb.M_cr)})",
     )

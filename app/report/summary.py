@@ -188,7 +188,7 @@ def _ltb_lines(add, result, U) -> None:
     add("Lateral-torsional buckling (major axis)")
     add(f"  settings:     {words.settings}")
     if not words.applies:
-        add(f"  not checked:  {words.reason} (see the cautions)")
+        add(f"  not checked:  {words.reason}" + (" (see the cautions)" if words.caution else ""))
     for _, label, text in words.lines():
         # λ̄ is two characters (λ and a combining macron) that print as one: pad by what is seen.
         seen = sum(1 for char in label if not unicodedata.combining(char))

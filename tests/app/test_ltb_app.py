@@ -64,11 +64,18 @@ def checked():
     return result
 
 
+#: Why the check cannot be made for the demo member turned into a cantilever, in words.
+FREE_END = "a member with a free end (a cantilever): a fork support at its tip would be unsafe"
+
+
 @pytest.fixture(scope="module")
 def refused():
-    """A member whose check cannot be made (the reason code as the contract gives it)."""
-    result = _solve(_demo_mapping())
-    return with_ltb(result, LtbDouble(applies=False, reason="torsion-unknown"))
+    """A member whose check cannot be made: the demo as a cantilever (the engine's, or the double)."""
+    result = _solve(dict(_demo_mapping(), supports={"left": "fixed", "right": "free"}))
+    if getattr(result, "ltb", None) is None:
+        result = with_ltb(result, LtbDouble(applies=False, reason="free-end"))
+    assert not result.ltb.applies and result.ltb.reason == "free-end"
+    return result
 
 
 def _plain(text: str) -> str:
@@ -150,7 +157,7 @@ def test_words_of_a_check_that_could_not_be_made(refused):
     """No figures, the reason in words, the settings still said."""
     words = ltb_words(refused, units("si"))
     assert not words.applies and words.rows == []
-    assert words.reason == "the section's torsion and warping constants (I_t, I_w) are not known"
+    assert words.reason == FREE_END
     assert words.headline == f"LTB not checked: {words.reason}"
     assert "destabilising" in words.settings
 
@@ -193,7 +200,8 @@ def test_printed_summary_has_the_ltb_figures(checked, system):
 
 def test_printed_summary_says_why_not(refused):
     text = format_summary("demo", refused.case, refused)
-    assert "not checked:  the section's torsion and warping constants (I_t, I_w) are not known" in text
+    assert f"not checked:  {FREE_END} (see the cautions)" in text
+    assert "lateral-torsional" in text.split("Cautions")[-1]  # the engine's caution stays
 
 
 def test_json_summary_has_the_ltb_check_in_si(checked):
@@ -226,9 +234,7 @@ def test_csv_has_the_ltb_rows(checked):
 
 def test_csv_says_why_not(refused):
     rows = [row for row in csv.reader(io.StringIO(exports.csv_text(refused))) if row and row[0] == "# LTB"]
-    assert rows == [
-        ["# LTB", "not checked", "the section's torsion and warping constants (I_t, I_w) are not known"]
-    ]
+    assert rows == [["# LTB", "not checked", FREE_END]]
 
 
 def test_batch_cells(checked, refused):
@@ -239,7 +245,7 @@ def test_batch_cells(checked, refused):
     assert [float(c) for c in cells[1:]] == pytest.approx(
         [ltb.M_cr / 1e3, ltb.M_cr_tabulated / 1e3, ltb.lambda_LT, ltb.chi_LT, ltb.utilisation], rel=1e-12
     )
-    assert _ltb_cells(refused, 1e-3) == ["not checked: torsion-unknown", "", "", "", "", ""]
+    assert _ltb_cells(refused, 1e-3) == ["not checked: free-end", "", "", "", "", ""]
 
 
 def _pdf_text(result, system):
@@ -264,7 +270,7 @@ def test_calc_sheet_has_the_ltb_section(checked, system):
 
 def test_calc_sheet_says_why_not(refused):
     text = _pdf_text(refused, "si")
-    assert "not checked: the section's torsion and warping constants (I_t, I_w) are not known" in text
+    assert f"not checked: {FREE_END}" in text
 
 
 # --------------------------------------------------------------------------------------------------------
@@ -308,10 +314,10 @@ def test_page_says_why_not_and_draws_no_mode(refused):
     page = MemberPage(state)
     _with(state, refused)
     view = page.ltb
-    assert "Not checked: the section's torsion" in _plain(view.readout.object)
+    assert f"Not checked: {FREE_END}" in _plain(view.readout.object)
     assert list(view.source.data["x"]) == []
     table = _plain(values_table(refused, None, "", units("si")))
-    assert "LTB not checked see cautions why the section's torsion" in table
+    assert f"LTB not checked see cautions why {FREE_END}" in table
 
 
 # --------------------------------------------------------------------------------------------------------
@@ -334,3 +340,57 @@ def test_schema_takes_the_ltb_settings_and_refuses_a_bad_one():
         mapping = json.loads(json.dumps(good))
         mapping["check"]["ltb"] = bad
         assert list(validator.iter_errors(mapping)), bad
+
+
+def test_the_app_names_are_the_engines():
+    """The page's and the schema's LTB choices and defaults are the engine's (engine.design.ltb)."""
+    from app import schema_check, state_ltb
+    from engine.design import ltb
+
+    assert schema_check.LOAD_POSITIONS == state_ltb.LOAD_POSITIONS == ltb.LOAD_POSITIONS
+    assert schema_check.CHI_METHODS == state_ltb.CHI_METHODS == ltb.CHI_METHODS
+    assert schema_check.LATERAL_ENDS == state_ltb.LATERAL_ENDS == ltb._LATERAL
+    assert schema_check.WARPING_ENDS == state_ltb.WARPING_ENDS == ltb._WARPING
+    defaults = ltb.LtbSettings()
+    assert state_ltb.LTB_DEFAULTS == {
+        "load_position": defaults.load_position,
+        "lateral_ends": list(defaults.lateral_ends),
+        "warping_ends": list(defaults.warping_ends),
+        "chi_method": defaults.chi_method,
+        "restrained": defaults.restrained,
+    }
+
+
+def test_settings_from_the_page_reach_the_engine():
+    """Every setting the page writes is the one the engine's check used."""
+    state = MemberState()
+    state.param.update(
+        ltb_load_position="stabilising",
+        ltb_lateral_left="fixed",
+        ltb_warping_right="fixed",
+        ltb_chi_method="rolled",
+    )
+    assert state.errors == {}
+    ltb = state.result.ltb
+    assert ltb.load_position == "stabilising" and ltb.method == "6.3.2.3"
+    assert tuple(ltb.lateral_ends) == ("fixed", "fork") and tuple(ltb.warping_ends) == ("free", "fixed")
+    state.ltb_load_position = "over the top"  # from a link: the engine's message names the field
+    assert "check.ltb.load_position" in next(iter(state.errors.values()))
+
+
+def test_a_restrained_flange_is_said_and_no_caution_is_claimed():
+    """The engineer's statement that the compression flange is restrained: written, used, worded as such."""
+    state = MemberState()
+    page = MemberPage(state)
+    page.inputs.ltb_settings.restrained.value = True
+    assert state.case_mapping()["check"]["ltb"] == {"restrained": True}
+    result = state.result
+    assert result.ltb.reason == "restrained" and not result.ltb.applies
+    words = ltb_words(result, units("si"))
+    assert not words.caution
+    assert words.reason.startswith(
+        "the compression flange is restrained along the member, as the case states"
+    )
+    assert "(see the cautions)" not in format_summary("x", result.case, result)
+    assert "stays" not in page.ltb.readout.object
+    assert page.inputs.ltb_settings.position.disabled
