@@ -394,3 +394,17 @@ def test_a_restrained_flange_is_said_and_no_caution_is_claimed():
     assert "(see the cautions)" not in format_summary("x", result.case, result)
     assert "stays" not in page.ltb.readout.object
     assert page.inputs.ltb_settings.position.disabled
+
+
+def test_solve_on_the_command_line_prints_the_ltb_figures(tmp_path):
+    """`strutscope solve --demo --units us` prints the check in kip·ft, as the engine computes it."""
+    from tests.app.test_cli import run_cli
+
+    done = run_cli("solve", "--demo", "--units", "us", cwd=tmp_path)
+    assert done.returncode == 0, done.stderr
+    result = _solve(_demo_mapping())
+    words = ltb_words(result, units("us"))
+    block = done.stdout[done.stdout.index("Lateral-torsional buckling (major axis)") :]
+    for key in ("M_cr", "M_cr_tabulated", "lambda_LT", "chi_LT", "utilisation"):
+        assert words.text(key) in block, key
+    assert "kN" not in block.split("Cautions")[0]
