@@ -504,3 +504,40 @@ def test_the_general_case_is_the_conservative_default(general, rolled):
     never below §6.3.2.2: the general case, the default, is the standard's conservative choice."""
     for lam in np.linspace(0.01, 3.0, 300):
         assert ltb.chi_lt_rolled(lam, rolled) >= ltb.chi_lt_general(lam, general) - 1e-15
+
+
+def test_axial_force_held_in_mcr_matches_the_closed_form():
+    """Uniform moment, fork supports, N held: M_cr² = i0²(N_cr,z − N)(N_cr,T − N) with N_cr,z = π²EI_z/L² and
+    N_cr,T = (GI_t + π²EI_w/L²)/i0² (Trahair 1993 ch. 7; Timoshenko & Gere 1961 ch. 6, from memory), with the
+    torsion constants the check used."""
+    L, N = 5.0, 3e5
+    loads = [{"type": "couple", "C": 5e4, "x": 0.0}, {"type": "couple", "C": -5e4, "x": L}]
+    r = engine.solve(_case(axial_force=N, loads=loads))
+    found = r.ltb
+    minor = engine.sections.section_from_spec({"name": "HEB 200"}, "minor")
+    E, G = mp.mpf(r.material.E), mp.mpf(r.material.G)
+    i0_sq = (mp.mpf(r.section.I) + mp.mpf(minor.I)) / mp.mpf(r.section.A)
+    N_z = mp.pi**2 * E * mp.mpf(minor.I) / L**2
+    N_T = (G * mp.mpf(found.I_t) + mp.pi**2 * E * mp.mpf(found.I_w) / L**2) / i0_sq
+    expected = mp.sqrt(i0_sq * (N_z - N) * (N_T - N))
+    assert found.diagram == "uniform" and found.N_Ed == N
+    assert found.M_cr == pytest.approx(float(expected), rel=1e-3)
+    assert found.M_cr_0 == pytest.approx(float(mp.sqrt(i0_sq * N_z * N_T)), rel=1e-3)
+
+
+def test_capacity_meets_a_utilisation_of_one_where_ltb_governs():
+    """The capacity (the axial force at a headline utilisation of 1) holds where the LTB terms govern: M_cr
+    with N held varies smoothly with N (the N = 0 mesh is kept), so the root finder lands on 1 (common
+    practice, no source)."""
+    case = _case(
+        section={"name": "HEB 200"},
+        length=7.0,
+        loads=[{"type": "uniform", "q": 4e3}],
+        out_of_plane={"buckling_length": 7.0},
+        check={"routes": ["second-order", "en-member"]},
+    )
+    cap = engine.capacity(case)
+    at = engine.solve(dataclasses.replace(case, axial_force=cap.axial_force))
+    assert at.utilization == pytest.approx(1.0, abs=1e-9)
+    assert at.ltb.applies and at.ltb.N_Ed == cap.axial_force and at.ltb.chi_LT < 0.9
+    assert cap.route == "en-member" and _route(at, "en-member").governing == "eq-6.62"
