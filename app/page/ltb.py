@@ -209,16 +209,11 @@ class LtbView(pn.viewable.Viewer):
         self.caption = html_pane(margin=(0, 8))
         self.details = html_pane(margin=(2, 8))
         self._figure()
+        self.plot = pn.pane.Bokeh(self.figure, sizing_mode="stretch_width", height=250, margin=(0, 4))
         # The figures first, then the buckled shape (both in view at 1280×720), then how they were found.
         self.panel = pn.Column(
             self.readout,
-            pn.pane.Bokeh(
-                self.figure,
-                sizing_mode="stretch_width",
-                height=250,
-                margin=(0, 4),
-                css_classes=["ss-ltb-plot"],
-            ),
+            self.plot,
             self.caption,
             self.details,
             name="LTB",
@@ -287,10 +282,12 @@ class LtbView(pn.viewable.Viewer):
         self.figure.xaxis.axis_label = f"x [{U.label('length')}]"
         if ltb is None or not ltb.applies or not len(ltb.mode_x):
             self.source.data = {"x": [], "v": [], "phi": []}
+            self.plot.visible = False
             caption = "No buckling mode to draw: " + (
                 "no member check." if ltb is None else "the check could not be made (see above)."
             )
         else:
+            self.plot.visible = True
             self.source.data = {
                 "x": np.asarray(ltb.mode_x, dtype=float) * U.length.factor,
                 "v": finite(ltb.mode_v),

@@ -303,7 +303,7 @@ def test_values_table_and_ltb_tab_show_the_figures(checked):
     assert list(view.source.data["v"]) == pytest.approx(list(ltb.mode_v))
     assert list(view.source.data["phi"]) == pytest.approx(list(ltb.mode_phi))
     assert max(abs(v) for v in view.source.data["v"]) == pytest.approx(1.0)
-    assert view.figure.x_range.end == pytest.approx(checked.case.length)
+    assert view.figure.x_range.end == pytest.approx(checked.case.length) and view.plot.visible
     state.units = "us"
     assert list(view.source.data["x"]) == pytest.approx([x / 0.3048 for x in ltb.mode_x])
     assert "kip·ft" in view.readout.object and "kN" not in view.readout.object
@@ -315,7 +315,7 @@ def test_page_says_why_not_and_draws_no_mode(refused):
     _with(state, refused)
     view = page.ltb
     assert f"Not checked: {FREE_END}" in _plain(view.readout.object)
-    assert list(view.source.data["x"]) == []
+    assert list(view.source.data["x"]) == [] and not view.plot.visible
     table = _plain(values_table(refused, None, "", units("si")))
     assert f"LTB not checked see cautions why {FREE_END}" in table
 
