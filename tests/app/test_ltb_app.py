@@ -408,3 +408,38 @@ def test_solve_on_the_command_line_prints_the_ltb_figures(tmp_path):
     for key in ("M_cr", "M_cr_tabulated", "lambda_LT", "chi_LT", "utilisation"):
         assert words.text(key) in block, key
     assert "kN" not in block.split("Cautions")[0]
+
+
+def test_batch_writes_the_ltb_columns(tmp_path):
+    """A batch row of an I section gets the engine's LTB figures in kip·ft with --units us; a row of a hollow
+    section says why it has none."""
+    from app import batch
+
+    table = tmp_path / "members.csv"
+    table.write_text(
+        "id,length_m,left,right,section,material,axial_kN,udl_kN_per_m\n"
+        "P1,6,pinned,pinned,HEB 200,S355,350,2.5\n"
+        "P2,6,pinned,pinned,SHS 100x100x5,S355,50,1\n",
+        encoding="utf-8",
+    )
+    batch.run(str(table), str(tmp_path / "out"), units="us", workers=1, capacity=False, progress=False)
+    text = (tmp_path / "out" / batch.RESULTS_FILE).read_text(encoding="utf-8-sig")
+    rows = {row["id"]: row for row in csv.DictReader(io.StringIO(text))}
+    mapping = {
+        "schema": 1,
+        "length": 6.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S355"},
+        "axial_force": 350e3,
+        "loads": [{"type": "uniform", "q": 2.5e3}],
+    }
+    ltb = _solve(mapping).ltb
+    row = rows["P1"]
+    assert row["ltb"] == "checked"
+    assert float(row["M_cr_kip_ft"]) == pytest.approx(ltb.M_cr / KIP_FT, rel=1e-9)
+    assert float(row["M_cr_tabulated_kip_ft"]) == pytest.approx(ltb.M_cr_tabulated / KIP_FT, rel=1e-9)
+    assert float(row["lambda_LT"]) == pytest.approx(ltb.lambda_LT, rel=1e-9)
+    assert float(row["chi_LT"]) == pytest.approx(ltb.chi_LT, rel=1e-9)
+    assert float(row["utilization_ltb"]) == pytest.approx(ltb.utilisation, rel=1e-9)
+    assert rows["P2"]["ltb"] == "not checked: closed-or-solid" and rows["P2"]["M_cr_kip_ft"] == ""
