@@ -443,3 +443,20 @@ def test_batch_writes_the_ltb_columns(tmp_path):
     assert float(row["chi_LT"]) == pytest.approx(ltb.chi_LT, rel=1e-9)
     assert float(row["utilization_ltb"]) == pytest.approx(ltb.utilisation, rel=1e-9)
     assert rows["P2"]["ltb"] == "not checked: closed-or-solid" and rows["P2"]["M_cr_kip_ft"] == ""
+
+
+def test_out_of_plane_buckling_without_a_check_is_worded():
+    """Found on the way: a timber post beyond its out-of-plane N_cr (no N_b,Rd, the check not made) crashed
+    the wording of the engine's danger caution; it now reads in the display units."""
+    mapping = dict(
+        _demo_mapping(),
+        section={"name": "TIMBER 45x195"},
+        material={"name": "C24"},
+        imperfection={"shape": "sine", "amplitude": 0.01},
+    )
+    result = _solve(mapping)
+    caution = next(c for c in result.cautions if c.code == "out-of-plane-buckling")
+    assert caution.values["utilization"] is None
+    text = format_summary("x", result.case, result, "us")
+    n_cr = caution.values["N_cr"] / 4448.2216152605
+    assert f"exceeds the elastic critical load about the minor axis, N_cr = {n_cr:.4g} kip" in text
