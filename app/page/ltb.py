@@ -283,9 +283,14 @@ class LtbView(pn.viewable.Viewer):
         if ltb is None or not ltb.applies or not len(ltb.mode_x):
             self.source.data = {"x": [], "v": [], "phi": []}
             self.plot.visible = False
-            caption = "No buckling mode to draw: " + (
-                "no member check." if ltb is None else "the check could not be made (see above)."
-            )
+            if ltb is None:
+                caption = "No buckling mode to draw: no member check."
+            elif ltb.applies:
+                caption = (
+                    "No buckling mode to draw: the axial force alone leaves no lateral stiffness (above)."
+                )
+            else:
+                caption = "No buckling mode to draw: the check could not be made (see above)."
         else:
             self.plot.visible = True
             self.source.data = {

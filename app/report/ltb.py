@@ -186,6 +186,11 @@ def _held_text(ltb, U: Units) -> str:
     """The note beside the exact M_cr: the member's own diagram, and the compression held in it."""
     held = getattr(ltb, "N_Ed", 0.0) or 0.0
     at_zero = getattr(ltb, "M_cr_0", None)
+    if float(ltb.M_cr) == 0.0 and held > 0.0:
+        return (
+            f"N_Ed = {U.show('force', held)} is at or above the member's lateral or torsional critical load: "
+            f"no lateral stiffness is left ({_moment(U, at_zero)} at N = 0)"
+        )
     if held > 0.0 and finite(at_zero):
         return f"with N_Ed = {U.show('force', held)} held; {_moment(U, at_zero)} at N = 0"
     return "this member's own diagram"

@@ -460,3 +460,18 @@ def test_out_of_plane_buckling_without_a_check_is_worded():
     text = format_summary("x", result.case, result, "us")
     n_cr = caution.values["N_cr"] / 4448.2216152605
     assert f"exceeds the elastic critical load about the minor axis, N_cr = {n_cr:.4g} kip" in text
+
+
+def test_no_lateral_stiffness_left_is_said():
+    """An IPE 300 over 6 m under 350 kN is past its minor-axis N_cr (π²EI_z/L² ≈ 348 kN with I_z = 604 cm⁴,
+    handbook value from memory): the engine's exact M_cr is 0; the words say why rather than show a bare 0."""
+    mapping = dict(_demo_mapping(), section={"name": "IPE 300"})
+    result = _solve(mapping)
+    assert result.ltb.applies and result.ltb.M_cr == 0.0
+    words = ltb_words(result, units("si"))
+    row = next(row for row in words.rows if row[0] == "M_cr")
+    assert row[2] == "0 kN·m" and "no lateral stiffness is left" in row[3]
+    assert words.fails
+    state = MemberState(**values_from_mapping(mapping))
+    page = MemberPage(state)
+    assert not page.ltb.plot.visible and "leaves no lateral stiffness" in page.ltb.caption.object
