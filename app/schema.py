@@ -21,6 +21,7 @@ import json
 from typing import Any
 
 from app.schema_actions import action_properties
+from app.schema_check import CHECK_METHODS, check_schema  # noqa: F401 - CHECK_METHODS: the names, here too
 
 __all__ = ["SCHEMA_ID", "case_schema", "schema_text"]
 
@@ -43,7 +44,6 @@ AXES = ("major", "minor")
 SECTION_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle", "round", "custom")
 HOLLOW_MANUFACTURES = ("hot-finished", "cold-formed")
 MATERIAL_KINDS = ("steel", "timber", "aluminium", "custom")
-CHECK_METHODS = ("elastic", "plastic")
 
 # The limits of engine.limits, written out here too (tests/app/test_schema.py compares them with the engine).
 MAX_LOADS = 50
@@ -412,42 +412,7 @@ def _build() -> dict[str, Any]:
         ],
     }
 
-    defs["check"] = _closed(
-        {
-            "method": {
-                "enum": list(CHECK_METHODS),
-                "description": "Cross-section resistance to N and M: 'elastic' (any section) or "
-                "'plastic' (EN 1993-1-1 §6.2.9.1 for I/H and hollow sections). "
-                "Default 'elastic'.",
-            },
-            "gamma_M0": _number("Partial factor γ_M0 [-], 0.5 to 3; default 1.0", minimum=0.5, maximum=3),
-            "gamma_M1": _number("Partial factor γ_M1 [-], 0.5 to 3; default 1.0", minimum=0.5, maximum=3),
-            "deflection_limit": _number(
-                "n of the deflection limit span/n [-], 1 to 10000; default 250", minimum=1, maximum=10000
-            ),
-            "routes": {
-                "type": "array",
-                "items": {"enum": ["second-order", "en-member", "aisc"]},
-                "minItems": 1,
-                "uniqueItems": True,
-                "description": "The routes of the member check that set the headline utilisation (the "
-                "largest of them): 'second-order' (exact analysis with the code's bow, then cross-sections), "
-                "'en-member' (EN 1993-1-1 §6.3.3, eqs. (6.61)/(6.62)), 'aisc' (AISC 360-16 §E3 and §H1.1). "
-                "Default ['second-order', 'en-member']; every route is shown.",
-            },
-            "annex": {
-                "enum": ["B", "A"],
-                "description": "Interaction factors of the 'en-member' route: 'B' (EN 1993-1-1 Annex B, "
-                "method 2; default) or 'A' (Annex A, method 1).",
-            },
-            "aisc_method": {
-                "enum": ["LRFD", "ASD"],
-                "description": "The 'aisc' route's factors: 'LRFD' (resistance factors φ; default) or 'ASD' "
-                "(safety factors Ω).",
-            },
-        },
-        description="How the member is checked (needs a section and a material to apply).",
-    )
+    defs["check"] = check_schema(_closed, _number)
 
     properties = {
         # JSON Schema counts 1.0 as the integer 1 (draft 2020-12 "integer": a number with a zero fractional

@@ -60,6 +60,7 @@ from app.state_inputs import (
     default_load,
     load_magnitude,
 )
+from app.state_ltb import ltb_values
 from app.state_plane import plane_values
 from app.state_routes import RouteSweepOutputs
 
@@ -574,4 +575,5 @@ def values_from_mapping(mapping: Mapping) -> dict:
     values["out_of_plane"] = "restrained" if out_of_plane.get("restrained") is True else "buckles"
     values["out_of_plane_length"] = out_of_plane.get("buckling_length")
     values.update(plane_values(mapping))
+    values.update(ltb_values(mapping))
     return values

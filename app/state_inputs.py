@@ -14,6 +14,7 @@ from typing import Any
 
 import param
 
+from app.state_ltb import LTB_INPUTS, LtbInputs, ltb_check_keys
 from app.state_plane import PLANE_INPUTS, PlaneInputs, plane_check_keys, plane_mapping
 
 __all__ = [
@@ -121,6 +122,7 @@ INPUTS = (
     "out_of_plane",
     "out_of_plane_length",
     *PLANE_INPUTS,
+    *LTB_INPUTS,
 )
 
 
@@ -159,7 +161,7 @@ def load_magnitude(load: Mapping) -> float | None:
     return None
 
 
-class MemberInputs(PlaneInputs):
+class MemberInputs(LtbInputs, PlaneInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
     Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
@@ -517,6 +519,7 @@ class MemberInputs(PlaneInputs):
             "gamma_M1": self.gamma_M1,
             "deflection_limit": self.deflection_limit,
             **plane_check_keys(self),
+            **ltb_check_keys(self),
         }
         data.update(plane_mapping(self))
         if self.plane2:

@@ -10,7 +10,7 @@ import math
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 2
+SUMMARY_VERSION = 3
 
 
 def _finite(value) -> float | None:
@@ -168,6 +168,7 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "routes": [_route_data(route) for route in getattr(result, "routes", ()) or ()],
         "headline_route": _headline_route(result),
         "combinations": _combinations_data(getattr(result, "actions", None)),
+        "ltb": _ltb_data(result),
         "cautions": [
             {"level": c.level, "code": c.code, "message": c.message, "source": c.source}
             for c in result.cautions
@@ -279,3 +280,45 @@ def _headline_route(result) -> str | None:
 
     route = headline_route(result)
     return None if route is None else route.route
+
+
+_LTB_NUMBERS = (
+    "M_Ed",
+    "M_cr",
+    "M_cr_tabulated",
+    "C1",
+    "diagram_deviation",
+    "difference",
+    "lambda_LT",
+    "chi_LT",
+    "f",
+    "M_b_Rd",
+    "utilisation",
+)
+_AISC_LTB = ("M_n", "M_p", "L_p", "L_r", "F_cr", "C_b")
+
+
+def _ltb_data(result) -> dict | None:
+    """The lateral-torsional buckling check (SI; the mode shape left out), or None without a member check.
+
+    An infinite M_cr (no lateral-torsional buckling under this diagram) is null, as every non-finite number.
+    """
+    ltb = getattr(result, "ltb", None)
+    if ltb is None:
+        return None
+    data: dict = {"applies": bool(ltb.applies), "reason": ltb.reason}
+    if ltb.applies:
+        data.update({key: _finite(getattr(ltb, key)) for key in _LTB_NUMBERS})
+        data.update(diagram=ltb.diagram, curve=ltb.curve, method=ltb.method)
+        data["fails"] = not float(ltb.utilisation) <= 1.0
+    data.update(
+        load_position=ltb.load_position,
+        lateral_ends=list(ltb.lateral_ends),
+        warping_ends=list(ltb.warping_ends),
+        sources=list(ltb.sources or ()),
+    )
+    aisc = getattr(ltb, "aisc", None) if ltb.applies else None
+    if aisc is not None:
+        data["aisc"] = {key: _finite(getattr(aisc, key)) for key in _AISC_LTB if hasattr(aisc, key)}
+        data["aisc"]["zone"] = aisc.zone
+    return data

@@ -299,6 +299,7 @@ def _cautions(result, prep, favourable: bool, check) -> tuple:
             service=result.service,
         ),
         result.routes,
+        result.ltb,
     )
 
 
@@ -513,4 +514,6 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     if r1.section is None or r1.material is None:
         return result
     result = member_routes.attach(result, bow_free=None, out_of_plane=None, cache=prep1.design)  # issue 14
-    return dataclasses.replace(result, cautions=with_route_cautions(result.cautions, result.routes))
+    return dataclasses.replace(
+        result, cautions=with_route_cautions(result.cautions, result.routes, result.ltb)
+    )

@@ -125,7 +125,7 @@ _CASE_KEYS = (
 )
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
-_CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit", "routes", "annex", "aisc_method")
+_CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit", "routes", "annex", "aisc_method", "ltb")
 
 
 def _schema_version(value: Any) -> int:

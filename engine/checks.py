@@ -31,6 +31,7 @@ import numpy as np
 
 from engine.classification import eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
+from engine.design.ltb import LtbSettings
 from engine.design.routes import ROUTES
 from engine.errors import CaseError
 from engine.out_of_plane import KIND
@@ -97,6 +98,9 @@ class CheckSettings:
         factors of the ``en-member`` route.
     aisc_method : str
         ``"LRFD"`` (default, resistance factors φ) or ``"ASD"`` (safety factors Ω) for the ``aisc`` route.
+    ltb : LtbSettings
+        The lateral-torsional buckling check's restraints and load position (case key ``check.ltb``, a
+        mapping accepted; :class:`engine.design.ltb.LtbSettings`).
     """
 
     method: str = "elastic"
@@ -106,9 +110,11 @@ class CheckSettings:
     routes: tuple = DEFAULT_ROUTES
     annex: str = "B"
     aisc_method: str = "LRFD"
+    ltb: LtbSettings = LtbSettings()
 
     def __post_init__(self) -> None:
         self._check_routes()
+        object.__setattr__(self, "ltb", LtbSettings.from_data(self.ltb))
         for name, allowed in (("annex", ANNEXES), ("aisc_method", AISC_METHODS)):
             value = getattr(self, name)
             if not isinstance(value, str) or value not in allowed:
@@ -161,6 +167,8 @@ class CheckSettings:
             data["annex"] = self.annex
         if self.aisc_method != "LRFD":
             data["aisc_method"] = self.aisc_method
+        if self.ltb != LtbSettings():
+            data["ltb"] = self.ltb.to_dict()
         return data
 
 

@@ -23,7 +23,7 @@ import math
 
 from engine.checks import EQ_5_9_KIND
 from engine.classification import classify
-from engine.design import aisc_member, en_member
+from engine.design import aisc_member, en_member, ltb_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
@@ -173,6 +173,48 @@ def _second_order(result, enabled: bool) -> RouteCheck:
     )
 
 
+def _major(result):
+    """The result of the major-axis plane (the result itself, its second plane, or None)."""
+    if result.case.axis == "major":
+        return result
+    second = result.second_plane
+    return second if second is not None and second.case.axis == "major" else None
+
+
+def _free_end(case) -> bool:
+    return any(end.translation == "free" and end.rotation == "free" for end in (case.left, case.right))
+
+
+def lateral_torsional(result, y, klass, cache=None):
+    """The member's lateral-torsional buckling check (:mod:`engine.design.ltb_member`), or None without a
+    steel material (the routes are then not applied either)."""
+    case, material = result.case, result.material
+    settings = case.check.ltb
+    major = _major(result)
+    if major is None:
+        return ltb_member.not_applied("minor-axis-only", settings)
+    if material.kind != "steel":
+        return None
+    first = major.first_order
+    z_section = _made(cache, "ltb-minor-section", lambda: section_from_spec(dict(case.section), "minor"))
+    return ltb_member.check(
+        x=first.x,
+        M=first.moment,
+        V=first.shear,
+        loads=major.case.loads,
+        length=major.case.length,
+        section_y=y.section if y is not None else major.section,
+        section_z=z_section,
+        material=material,
+        N=float(result.axial_force),
+        settings=settings,
+        section_class=None if klass is None else klass.klass,
+        free_end=_free_end(major.case),
+        gamma_M1=case.check.gamma_M1,
+        cache=cache,
+    )
+
+
 def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     """Every route of ``result`` (a solved one-plane or two-plane result with a section and material), in the
     order of ROUTES.
@@ -188,6 +230,11 @@ def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         ``cache(key, make)``, where what does not depend on the axial force is kept
         (:meth:`engine.prepared.Prepared.design`); None: computed every time.
     """
+    return _evaluate(result, bow_free_moment=bow_free_moment, out_of_plane=out_of_plane, cache=cache)[0]
+
+
+def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
+    """(routes, ltb check) of :func:`evaluate`."""
     case, material = result.case, result.material
     routes = case.check.routes
     second = _second_order(result, "second-order" in routes)
@@ -199,11 +246,17 @@ def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         reason = "custom-section"
     if reason:
         en_source = en_member.SOURCE.format(annex=case.check.annex)
+        found = None
+        if material.kind == "steel":  # a custom section with its torsion constants: the check still runs
+            major = _major(result)
+            found = lateral_torsional(result, None, None, cache) if major is not None else None
+            if found is not None and major is not None:
+                second = _with_ltb_term(second, found, major)
         return (
             second,
             not_applied("en-member", enabled_en, reason, en_source),
             not_applied("aisc", enabled_aisc, reason, aisc_member.SOURCE),
-        )
+        ), found
     if bow_free_moment is None:
         bow_free_moment = _bow_free_moment(result)
     y, z = _planes(result, bow_free_moment, out_of_plane, cache)
@@ -215,6 +268,10 @@ def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
 
     klass = _made(cache, ("routes-class", N > 0), worse_class)
     beyond = result.status != "stable"
+    found = lateral_torsional(result, y, klass, cache)
+    major = _major(result)
+    if major is not None and found is not None:
+        second = _with_ltb_term(second, found, major)
     en = en_member.route(
         y=y,
         z=z,
@@ -224,6 +281,7 @@ def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         settings=case.check,
         enabled=enabled_en,
         beyond=beyond,
+        ltb=found,
     )
     aisc = aisc_member.route(
         y=y,
@@ -233,8 +291,27 @@ def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         settings=case.check,
         enabled=enabled_aisc,
         beyond=beyond,
+        ltb=found,
     )
-    return second, en, aisc
+    return (second, en, aisc), found
+
+
+def _with_ltb_term(second: RouteCheck, found, major) -> RouteCheck:
+    """The second-order route with the lateral-torsional buckling check of its largest major-axis moment:
+    M_y,II/M_b,Rd (EN 1993-1-1 §6.3.2.1 eq. (6.54) with the second-order moment, which is never smaller than
+    the first-order one the en-member route uses)."""
+    if not found.applies or second.utilization is None or math.isinf(second.utilization):
+        return second
+    if major.check is None and major.status == "critical":
+        return second
+    M_II = float(major.governing.moment.magnitude)
+    term = M_II / found.M_b_Rd if found.M_b_Rd > 0.0 else math.inf
+    terms = dict(second.terms, **{"lateral-torsional": term})
+    governing, value = second.governing, second.utilization
+    if term > value:
+        governing, value = "lateral-torsional", term
+    facts = dict(second.facts, M_y_II=M_II, M_b_Rd=found.M_b_Rd, chi_LT=found.chi_LT)
+    return dataclasses.replace(second, terms=terms, governing=governing, utilization=value, facts=facts)
 
 
 def headline(routes) -> tuple:
@@ -259,11 +336,11 @@ def headline(routes) -> tuple:
 
 def attach(result, *, bow_free: dict | None, out_of_plane, cache=None):
     """``result`` with its routes and the headline utilisation (a result with a section and material)."""
-    found = evaluate(
+    found, ltb_found = _evaluate(
         result,
         bow_free_moment=None if bow_free is None else bow_free["moment"],
         out_of_plane=out_of_plane,
         cache=cache,
     )
     value, _, _ = headline(found)
-    return dataclasses.replace(result, routes=found, utilization=value)
+    return dataclasses.replace(result, routes=found, utilization=value, ltb=ltb_found)

@@ -270,6 +270,9 @@ class Result:
         A case with load cases (:mod:`engine.envelope`): every combination solved, the envelopes and the
         governing combination of each check; this result is then the governing ultimate combination's, with
         ``service`` from the governing service combination. None for a case without actions.
+    ltb : LtbCheck or None
+        The member's lateral-torsional buckling check (:class:`engine.design.ltb_member.LtbCheck`; major
+        axis, for the member in a two-plane case); None without a section and material.
     """
 
     case: object
@@ -304,6 +307,7 @@ class Result:
     second_plane: Result | None = None
     routes: tuple = ()
     actions: object = None
+    ltb: object = None
 
     @functools.cached_property
     def first_order(self) -> Result | None:

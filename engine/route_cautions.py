@@ -27,15 +27,29 @@ _ROUTE_NOTES = {
 }
 
 
-def with_route_cautions(cautions, routes) -> tuple:
+def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
     """The routes' notes, the routes not applied, the headline's fallback and a disagreement between routes.
 
     Returns ``cautions`` with them, most severe first. Where ``cautions`` already holds the
     ``lateral-torsional-buckling`` warning, the routes' ``chi-LT-1`` and ``LTB-not-checked`` notes join its
-    values (``routes``) instead of repeating it.
+    values (``routes``) instead of repeating it. Where the member's lateral-torsional buckling check was made
+    (``ltb_check``, an :class:`engine.design.ltb_member.LtbCheck` that applies) that warning is dropped: the
+    check replaces it (and so does the case's statement ``check.ltb.restrained``); where it was not made,
+    the warning stays with the check's reason code (``values["ltb_reason"]``: ``torsion-unknown``,
+    ``free-end``, ...).
     """
     given = list(cautions)
+    if ltb_check is not None and (ltb_check.applies or ltb_check.reason == "restrained"):
+        given = [c for c in given if c.code != "lateral-torsional-buckling"]
     ltb = next((i for i, c in enumerate(given) if c.code == "lateral-torsional-buckling"), None)
+    if ltb is not None and ltb_check is not None and ltb_check.reason:
+        given[ltb] = Caution(
+            level=given[ltb].level,
+            code=given[ltb].code,
+            message=given[ltb].message,
+            source=given[ltb].source,
+            values=dict(given[ltb].values, ltb_reason=ltb_check.reason),
+        )
     if ltb is not None:
         noted = [r.route for r in routes if r.utilization is not None and set(r.notes) & set(_ROUTE_NOTES)]
         if noted:
@@ -125,6 +139,8 @@ def _interaction_not_counted(routes) -> list:
     if not facts.get(f"M_{analysed}_Ed", 0.0) > 0.0:
         return []
     eq = member.terms.get("eq-6.62" if other == "z" else "eq-6.61")
+    if eq is None and math.isinf(member.utilization):  # at or above a critical load: no equation to give
+        eq = member.utilization
     level = "danger" if eq is not None and eq > 1.0 else "warning"
     return [
         Caution(

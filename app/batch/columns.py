@@ -220,6 +220,14 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("combination_rule", None),
     ("strength_combination", None),
     ("deflection_combination", None),
+    # Issue 15: lateral-torsional buckling about the major axis (empty without a member check; ``ltb`` says
+    # "not checked: <reason code>" when the check could not be made).
+    ("ltb", None),
+    ("M_cr", "moment"),
+    ("M_cr_tabulated", "moment"),
+    ("lambda_LT", None),
+    ("chi_LT", None),
+    ("utilization_ltb", None),
 )
 
 #: The routes with result columns, in the order of the layout (engine.design.routes.ROUTES).
@@ -246,7 +254,8 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
         out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions, headline_route,
         utilization_second_order, governing_second_order, utilization_en_member, governing_en_member,
         utilization_aisc, governing_aisc, second_plane_Pcr1_kN, second_plane_M_max_kNm, second_plane_V_max_kN,
-        second_plane_w_max_mm, combination_rule, strength_combination, deflection_combination`` in SI.
+        second_plane_w_max_mm, combination_rule, strength_combination, deflection_combination, ltb, M_cr_kNm,
+        M_cr_tabulated_kNm, lambda_LT, chi_LT, utilization_ltb`` in SI.
         ``utilization``
         is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
         bow).

@@ -113,6 +113,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         *_route_cells(result),
         *_second_plane_cells(result, force, moment, small),
         *_combination_cells(result),
+        *_ltb_cells(result, moment),
     ]
     wrote = False
     if options.pdf_dir is not None:
@@ -165,6 +166,24 @@ def _combination_cells(result) -> list[str]:
         actions.case.combinations.rule,
         actions.headline or "",
         "" if deflection is None else deflection.combination,
+    ]
+
+
+def _ltb_cells(result, moment: float) -> list[str]:
+    """Lateral-torsional buckling: "checked" or "not checked: <reason code>", M_cr exact and tabulated in the
+    display units, λ̄_LT, χ_LT and the utilisation; all "" without a member check."""
+    ltb = getattr(result, "ltb", None)
+    if ltb is None:
+        return [""] * 6
+    if not ltb.applies:
+        return [f"not checked: {ltb.reason}"] + [""] * 5
+    return [
+        "checked",
+        _cell(ltb.M_cr, moment),
+        _cell(ltb.M_cr_tabulated, moment),
+        _cell(ltb.lambda_LT),
+        _cell(ltb.chi_LT),
+        _cell(ltb.utilisation),
     ]
 
 

@@ -12,6 +12,7 @@ from matplotlib.lines import Line2D
 
 from app.exports.figure import _pcr_text, sheet_figure
 from app.exports.layout import _Flow, _Measure
+from app.exports.sheet_ltb import ltb_items
 from app.exports.sheet_routes import combinations_items, routes_items, second_plane_items
 from app.exports.style import (
     _DANGER,
@@ -265,6 +266,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             item("", note, scale=0.92)
     routes_items(item, flow, result, U)
     combinations_items(item, flow, result, U)
+    ltb_items(item, flow, result, U)
 
     flow.heading("5  Cautions")
     cautions = list(result.cautions) or []

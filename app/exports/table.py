@@ -155,6 +155,7 @@ def _metadata(result, U: Units) -> list:
     actions = getattr(result, "actions", None)
     if actions is not None:
         rows += metadata_rows(actions, result, U)
+    rows += _ltb_rows(result, U)
     if result.bow is not None and result.bow.direction_governing:
         rows.append(("bow direction", bow_direction_text(result.bow, U)))
     rows.append(
@@ -188,6 +189,34 @@ def _plane_and_route_rows(result, U: Units) -> list:
         value = "" if row["value"] is None else csv_number(row["value"])
         note = "; ".join(part for part in (row["governing"], row["status"], row["reason"]) if part)
         rows.append((f"route {row['name']} [-]", value, note))
+    return rows
+
+
+def _ltb_rows(result, U: Units) -> list:
+    """The metadata rows of the lateral-torsional buckling check (major axis), or none without a check."""
+    from app.report.ltb import ltb_of, ltb_words
+    from app.report.numbers import ratio
+
+    words = ltb_words(result, U)
+    if words is None:
+        return []
+    if not words.applies:
+        return [("LTB", "not checked", words.reason)]
+    ltb = ltb_of(result)
+    moment = U.label("moment")
+    rows = [("LTB", "checked", words.settings)]
+    for key, value, kind, note in (
+        ("M_cr exact", ltb.M_cr, "moment", "exact, for this moment diagram; inf: no lateral buckling"),
+        ("M_cr tabulated", ltb.M_cr_tabulated, "moment", f"C1 = {ratio(ltb.C1)}, diagram {ltb.diagram}"),
+        ("M_cr difference", ltb.difference, None, "tabulated / exact - 1"),
+        ("lambda_LT", ltb.lambda_LT, None, ""),
+        ("chi_LT", ltb.chi_LT, None, f"curve {ltb.curve}, EN 1993-1-1 §{ltb.method}"),
+        ("M_b_Rd", ltb.M_b_Rd, "moment", "M_b,Rd"),
+        ("LTB utilisation", ltb.utilisation, None, "M_Ed / M_b,Rd"),
+    ):
+        unit = "-" if kind is None else moment
+        number = csv_number(value if kind is None else U.convert(kind, float(value)))
+        rows.append((f"{key} [{unit}]", number, note) if note else (f"{key} [{unit}]", number))
     return rows
 
 

@@ -14,6 +14,7 @@ import param
 
 from app.intake import clean_text
 from app.page.fields import ErrorPanes, UnitNumber
+from app.page.ltb import LtbSettingsView
 from app.page.plane_inputs import PlaneLoadsView, RouteSettingsView
 from app.page.style import (
     BOW_SHAPE_LABELS,
@@ -51,6 +52,7 @@ class InputsView(pn.viewable.Viewer):
         self.planes = PlaneLoadsView(state, errors)
         self.loads = self.planes.loads  # the loads of the plane analysed
         self.route_settings = RouteSettingsView(state)
+        self.ltb_settings = LtbSettingsView(state)  # its messages: the Check tab's pane for check.*
         tabs = [
             self._member_tab(),
             self._section_tab(),
@@ -309,6 +311,7 @@ class InputsView(pn.viewable.Viewer):
             self.errors.pane("out_of_plane"),
             self.check_facts,
             self.route_settings,
+            self.ltb_settings,
             pn.Row(self.prepared_input, self.checked_input, margin=0),
         )
 

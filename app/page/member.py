@@ -20,6 +20,7 @@ from app.page.fields import ErrorPanes, page_message
 from app.page.files import FilesView
 from app.page.force import ForceControl
 from app.page.inputs import InputsView
+from app.page.ltb import LtbView
 from app.page.modes import ModesView
 from app.page.results import CautionsView, ValuesView
 from app.page.routes import RoutesChart, RoutesView
@@ -64,6 +65,7 @@ class MemberPage(pn.viewable.Viewer):
             1: lambda: AmplificationView(state),
             2: lambda: ModesView(state, self.diagrams.x_range),
             4: lambda: RoutesChart(state),
+            5: lambda: LtbView(state),
         }
         self._holders = {index: pn.Column(sizing_mode="stretch_both", margin=0) for index in self._later}
         self._built: dict[int, pn.viewable.Viewer] = {}
@@ -147,6 +149,11 @@ class MemberPage(pn.viewable.Viewer):
         """The routes-against-N figure's view (built now if its tab was never shown)."""
         return self._view(4)
 
+    @property
+    def ltb(self) -> LtbView:
+        """The lateral-torsional buckling tab's view (built now if its tab was never shown)."""
+        return self._view(5)
+
     def _view(self, index: int):
         if index in self._later and index not in self._built:
             self._built[index] = view = self._later[index]()
@@ -205,6 +212,7 @@ class MemberPage(pn.viewable.Viewer):
             ("Buckling modes", self._holders[2]),
             ("Variants", self.variants),
             ("Routes", self._holders[4]),
+            ("LTB", self._holders[5]),
             dynamic=True,  # only the shown tab is built and sent: the first page draws sooner
             sizing_mode="stretch_both",
             margin=0,

@@ -12,6 +12,7 @@ import re
 
 from app.page.style import esc
 from app.report import SYMBOLS, bow_direction_text, bow_text, percent, quoted_text, ratio, reaction_rows
+from app.report.ltb import ltb_words
 from app.report.routes import governing_text, plane_axes, plane_name
 from engine.codes import alpha_cr_limit
 
@@ -59,10 +60,11 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
     def head(text):
         rows.append(f"<tr><th colspan='3'>{esc(text)}</th></tr>")
 
-    def row(quantity, value, note="", danger=False, warn=False):
+    def row(quantity, value, note="", danger=False, warn=False, key=""):
         css = " class='danger'" if danger else " class='warn'" if warn else ""
+        data = f" data-ltb='{esc(key)}'" if key else ""
         rows.append(
-            f"<tr{css}><td class='q'>{quantity}</td><td class='v'>{symbols(value)}</td>"
+            f"<tr{css}{data}><td class='q'>{quantity}</td><td class='v'>{symbols(value)}</td>"
             f"<td class='f'>{symbols(note)}</td></tr>"
         )
 
@@ -116,6 +118,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             row("capacity N", "n/a", capacity_note)
     else:
         row("utilisation", "n/a", "needs a section and material")
+    _ltb_rows(head, row, result, U)
     first = result.first_order
     unstable = result.status != "stable"
     head("Second order · at x · first order")
@@ -173,6 +176,33 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
         row("approximations", "none at or beyond Pcr1")
     columns = "<colgroup><col class='q'><col class='v'><col class='f'></colgroup>"
     return "<table class='ss-values'>" + columns + "".join(rows) + "</table>"
+
+
+#: The LTB figures the table shows in short (the LTB tab shows them all).
+_LTB_SHORT = ("M_cr", "M_cr_tabulated", "lambda_LT", "chi_LT", "utilisation")
+
+
+def _ltb_rows(head, row, result, U) -> None:
+    """The lateral-torsional buckling figures in short, or why the check was not made (app.report.ltb)."""
+    words = ltb_words(result, U)
+    if words is None:
+        return
+    head("Lateral-torsional buckling")
+    if not words.applies:
+        row("LTB", "not checked", "see cautions" if words.caution else "", warn=words.caution, key="reason")
+        row("why", words.reason, key="why")
+        return
+    shown = {key: (label, value, note) for key, label, value, note in words.rows}
+    notes = {"M_cr_tabulated": shown["difference"][1], "chi_LT": shown["chi_LT"][2].split(",")[0]}
+    for key in _LTB_SHORT:
+        label, value, _ = shown[key]
+        danger = key == "utilisation" and words.fails
+        row(_html_label(label), value, notes.get(key, ""), danger, key=key)
+
+
+def _html_label(label: str) -> str:
+    """A label with its symbols' indices as subscripts: ``M_cr exact`` → M<sub>cr</sub> exact."""
+    return re.sub(r"_([A-Za-z0-9]+(?:,[A-Za-z0-9]+)?)", r"<sub>\1</sub>", esc(label))
 
 
 def _html_symbol(symbol: str) -> str:

@@ -2,9 +2,12 @@
 
 from __future__ import annotations
 
+import unicodedata
+
 from app.report import combinations as combos
 from app.report import routes as r
 from app.report import words as w
+from app.report.ltb import ltb_words
 from app.report.numbers import percent, position, ratio, scientific, utilisation
 from app.report.route_names import governing_text
 from app.safe_text import terminal
@@ -131,6 +134,7 @@ def _check_lines(add, result, U) -> None:
         if check.section_class is not None:
             add(f"  section:      {check.section_class.describe()}")
     _routes_lines(add, result, U)
+    _ltb_lines(add, result, U)
     service = result.service
     if service is not None:
         add("")
@@ -183,6 +187,26 @@ def _routes_lines(add, result, U) -> None:
     headline = r.headline_text(result)
     if headline:
         add(f"  headline utilisation: {headline}")
+
+
+def _ltb_lines(add, result, U) -> None:
+    """The lateral-torsional buckling check: both critical moments, λ̄_LT, χ_LT and the utilisation."""
+    words = ltb_words(result, U)
+    if words is None:
+        return
+    add("")
+    add("Lateral-torsional buckling (major axis)")
+    add(f"  settings:     {words.settings}")
+    if not words.applies:
+        add(f"  not checked:  {words.reason}" + (" (see the cautions)" if words.caution else ""))
+    for _, label, text in words.lines():
+        # λ̄ is two characters (λ and a combining macron) that print as one: pad by what is seen.
+        seen = sum(1 for char in label if not unicodedata.combining(char))
+        add(f"  {label + ':'}{' ' * max(1, 21 - seen)}{text}")
+    if words.method:
+        add(f"  method:       {words.method}")
+    for source in words.sources:
+        add(f"  source:       {source}")
 
 
 def format_summary(source: str, case, result, units: str = "si", capacity=None, comparison=None) -> str:

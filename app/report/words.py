@@ -427,6 +427,12 @@ def _bow_below_code(v: dict, U: Units) -> str:
 
 
 def _out_of_plane_buckling(v: dict, U: Units) -> str:
+    if v.get("utilization") is None:  # no check made (a material outside the out-of-plane check): N > N_cr
+        return (
+            f"The axial force exceeds the elastic critical load about the {v['axis']} axis, N_cr = "
+            f"{U.show('force', v['N_cr'])} (L_cr = {U.show('length', v['buckling_length'])}): the member "
+            "buckles out of the plane analysed. Brace it or choose a larger section."
+        )
     return (
         f"N/N_b,Rd = {v['utilization']:.3f} > 1: the member buckles out of the plane analysed, "
         f"{_out_of_plane_facts(v, U)}. Brace it (a shorter out-of-plane buckling length) or choose a larger "

@@ -9,6 +9,8 @@
   solution of Vlasov's equations, numpy only);
 - :mod:`engine.design.ltb`: the three-factor M_cr formula and C1 of the standard diagrams, χ_LT of
   EN 1993-1-1 §6.3.2.2/§6.3.2.3, and AISC 360-16 §F2 with C_b of eq. (F1-1).
+- :mod:`engine.design.ltb_member`: the member's lateral-torsional buckling check (exact M_cr of its own
+  diagram beside the C1 value, χ_LT, M_b,Rd, AISC §F2), which the routes read (issue 15).
 
 These functions take numbers the caller has already checked (the case's validation names the fields a user
 typed); they raise ``ValueError`` only for a number outside the range the formula is written for.

@@ -20,8 +20,13 @@ against a copy of the Specification.
   HSS :math:`0.31E/F_y`): :math:`M_n = 0.7F_yS`, the lowest value the interpolations of §F3.2, §F6.2, §F7
   and §F8.2 reach (a decision on the safe side; note ``aisc-noncompact``). A slender element in flexure: the
   route is not applied.
-- Lateral-torsional buckling is not checked (note ``LTB-not-checked``); nor is shear (Chapter G, note
-  ``aisc-shear-not-checked``).
+- Lateral-torsional buckling (issue 15): where the member's check applies to an I section, the major-axis
+  :math:`M_n` is the smaller of the yielding value above and §F2's (:func:`engine.design.ltb.aisc_f2`:
+  :math:`L_b = L`, the member's length between its end restraints; :math:`C_b` of eq. (F1-1) from the
+  first-order diagram, capped by the exact elastic ratio :math:`M_{cr,0}/M_{cr,uniform}` so that a load on
+  the top flange counts); a non-compact flange takes §F3.1, which is §F2.2 again. The exact :math:`M_{cr}`
+  is in the facts beside it. Elsewhere (an open section whose check could not be made) note
+  ``LTB-not-checked``. Shear is not checked (Chapter G, note ``aisc-shear-not-checked``).
 - :math:`P_r = N`; :math:`M_r` the largest second-order moment of each plane WITHOUT the bow (the
   Specification's strength :math:`P_n` already holds the member's out-of-straightness).
 - :math:`P_c = \phi_cP_n` or :math:`P_n/\Omega_c`, :math:`M_c = \phi_bM_n` or :math:`M_n/\Omega_b`
@@ -100,9 +105,12 @@ def flexure_class(section, E: float, Fy: float) -> tuple[str, list]:
     return worst, parts
 
 
-def route(*, y: Plane, z: Plane, N: float, material, settings, enabled: bool, beyond: bool) -> RouteCheck:
+def route(
+    *, y: Plane, z: Plane, N: float, material, settings, enabled: bool, beyond: bool, ltb=None
+) -> RouteCheck:
     """The ``aisc`` route at axial force ``N`` (compression positive) [N]; ``beyond``: N is at or above the
-    first critical load of the plane analysed (no stable equilibrium)."""
+    first critical load of the plane analysed (no stable equilibrium); ``ltb``: the member's
+    lateral-torsional buckling check (its ``aisc`` part is used where it applies)."""
     sy = y.section
     if sy.shape not in _SHAPES:
         return not_applied("aisc", enabled, "custom-section", SOURCE)
@@ -130,6 +138,7 @@ def route(*, y: Plane, z: Plane, N: float, material, settings, enabled: bool, be
                     source=SOURCE,
                 )
     notes = ["aisc-shear-not-checked"]
+    torsional = ltb is not None and ltb.applies and ltb.aisc is not None and y.diagram.M_max > 0.0
     M_c = {}
     for p in (y, z):
         kind, _ = flexure_class(p.section, E, Fy)
@@ -147,13 +156,27 @@ def route(*, y: Plane, z: Plane, N: float, material, settings, enabled: bool, be
             )
         S, Z = p.section.W_el, p.section.W_pl
         M_n = min(Fy * Z, 1.6 * Fy * S) if kind == "compact" else 0.7 * Fy * S
+        if p.axis == "y" and torsional:
+            f2 = ltb.aisc
+            facts.update(
+                M_n_F2=f2.M_n,
+                L_b=f2.L_b,
+                L_p=f2.L_p,
+                L_r=f2.L_r,
+                C_b=f2.C_b,
+                C_b_F1_1=ltb.C_b_F1_1,
+                zone_F2=f2.zone,
+                M_cr=ltb.M_cr_0,
+            )
+            M_n = min(M_n, f2.M_n)
         if kind == "noncompact" and "aisc-noncompact" not in notes:
             notes.append("aisc-noncompact")
         facts[f"M_n_{p.axis}"] = M_n
         M_c[p.axis] = available(M_n, phi["flexure"])
         facts[f"M_c_{p.axis}"] = M_c[p.axis]
-    if y.diagram.M_max > 0.0 and sy.shape not in ("chs", "round"):
-        notes.insert(0, "LTB-not-checked")
+    if y.diagram.M_max > 0.0 and sy.shape not in ("chs", "round") and not torsional:
+        restrained = ltb is not None and ltb.reason == "restrained"
+        notes.insert(0, "LTB-restrained" if restrained else "LTB-not-checked")
     M_r = {}
     for p in (y, z):
         if p.M_second is None:

@@ -1,7 +1,8 @@
 r"""The equivalent-member check of EN 1993-1-1:2005 §6.3.3 with the interaction factors of Annex B (method 2).
 
 Sources: EN 1993-1-1:2005 §6.3.3(4), eqs. (6.61) and (6.62); Annex B, Table B.1 (members not susceptible to
-torsional deformations) and Table B.3 (equivalent uniform moment factors). Equation numbers, the table cells
+torsional deformations), Table B.2 (members susceptible to torsional deformations: k_zy differs) and
+Table B.3 (equivalent uniform moment factors). Equation numbers, the table cells
 and the footnotes are from memory, to be checked against a copy of the standard.
 
 .. math::
@@ -99,6 +100,8 @@ class InteractionFactors:
     k_zz: float
     n_y: float
     n_z: float
+    C_my: float | None = None  # Annex A with lateral-torsional buckling: C_my as modified by a_LT
+    C_mLT: float = 1.0
 
 
 def interaction_factors(
@@ -114,6 +117,7 @@ def interaction_factors(
     section_class: int,
     hollow: bool = False,
     gamma_M1: float = 1.0,
+    C_mLT: float | None = None,
 ) -> InteractionFactors:
     r"""Interaction factors of EN 1993-1-1 Annex B, Table B.1 (members not susceptible to torsional
     deformations).
@@ -131,6 +135,22 @@ def interaction_factors(
     - :math:`k_{yz} = k_{zz}`, :math:`k_{zy} = 0.8\,k_{yy}`.
 
     ``N_Ed`` is the compressive force [N] (>= 0), ``N_Rk`` [N] the characteristic resistance :math:`A f_y`.
+
+    With ``C_mLT`` given (a member susceptible to torsional deformations, lateral-torsional buckling
+    possible; not for hollow sections), :math:`k_{zy}` is that of Table B.2 (from memory), the other three
+    as above:
+
+    - class 1–2, :math:`\bar\lambda_z \ge 0.4`: :math:`k_{zy} = \max\left(1 - \frac{0.1\bar\lambda_z n_z}
+      {C_{mLT} - 0.25}, 1 - \frac{0.1 n_z}{C_{mLT} - 0.25}\right)`;
+    - class 1–2, :math:`\bar\lambda_z < 0.4`: :math:`k_{zy} = \min\left(0.6 + \bar\lambda_z,
+      1 - \frac{0.1\bar\lambda_z n_z}{C_{mLT} - 0.25}\right)`;
+    - class 3: :math:`k_{zy} = \max\left(1 - \frac{0.05\bar\lambda_z n_z}{C_{mLT} - 0.25},
+      1 - \frac{0.05 n_z}{C_{mLT} - 0.25}\right)`.
+
+    >>> k = interaction_factors(N_Ed=500e3, N_Rk=1e6, chi_y=0.9, chi_z=0.5, lambda_y=0.5, lambda_z=1.2,
+    ...     C_my=1.0, C_mz=1.0, section_class=1, C_mLT=0.6)
+    >>> round(k.k_zy, 6)  # 1 - 0.1*1.2*1.0/0.35 = 0.657 is below the bound 1 - 0.1*1.0/0.35
+    0.714286
     """
     if section_class not in (1, 2, 3):
         raise ValueError(f"section_class must be 1, 2 or 3 (class 4 is not covered), got {section_class!r}")
@@ -138,16 +158,30 @@ def interaction_factors(
         raise ValueError(f"N_Ed is a compressive force, >= 0; got {N_Ed!r}")
     n_y = N_Ed / (chi_y * N_Rk / gamma_M1)
     n_z = N_Ed / (chi_z * N_Rk / gamma_M1)
+    torsional = C_mLT is not None and not hollow
+    if torsional and not C_mLT > 0.25:
+        raise ValueError(f"C_mLT must be > 0.25 (Table B.3 gives at least 0.4), got {C_mLT!r}")
     if section_class == 3:
         k_yy = C_my * min(1.0 + 0.6 * lambda_y * n_y, 1.0 + 0.6 * n_y)
         k_zz = C_mz * min(1.0 + 0.6 * lambda_z * n_z, 1.0 + 0.6 * n_z)
-        return InteractionFactors(k_yy, k_zz, 0.8 * k_yy, k_zz, n_y, n_z)
+        k_zy = 0.8 * k_yy
+        if torsional:
+            d = C_mLT - 0.25
+            k_zy = max(1.0 - 0.05 * lambda_z * n_z / d, 1.0 - 0.05 * n_z / d)
+        return InteractionFactors(k_yy, k_zz, k_zy, k_zz, n_y, n_z, C_mLT=C_mLT or 1.0)
     k_yy = C_my * min(1.0 + (lambda_y - 0.2) * n_y, 1.0 + 0.8 * n_y)
     if hollow:
         k_zz = C_mz * min(1.0 + (lambda_z - 0.2) * n_z, 1.0 + 0.8 * n_z)
     else:
         k_zz = C_mz * min(1.0 + (2.0 * lambda_z - 0.6) * n_z, 1.0 + 1.4 * n_z)
-    return InteractionFactors(k_yy, 0.6 * k_zz, 0.6 * k_yy, k_zz, n_y, n_z)
+    k_zy = 0.6 * k_yy
+    if torsional:
+        d = C_mLT - 0.25
+        if lambda_z >= 0.4:
+            k_zy = max(1.0 - 0.1 * lambda_z * n_z / d, 1.0 - 0.1 * n_z / d)
+        else:
+            k_zy = min(0.6 + lambda_z, 1.0 - 0.1 * lambda_z * n_z / d)
+    return InteractionFactors(k_yy, 0.6 * k_zz, k_zy, k_zz, n_y, n_z, C_mLT=C_mLT or 1.0)
 
 
 @dataclass(frozen=True)

@@ -20,7 +20,14 @@ goes with (EN 1993-1-1 §6.2, from memory): the linear interaction of §6.2.1(7)
 moments wherever they are), and the shear :math:`V_{Ed}/V_{pl,Rd}` of eq. (6.18) in each plane. Without them
 a small axial force and :math:`C_m < 1` would pass a member whose end section is overstressed.
 
-Lateral-torsional buckling is not checked yet: :math:`\chi_{LT} = 1` (note ``chi-LT-1``). In tension or with
+Lateral-torsional buckling (issue 15): where the member's check is made (``ltb``, an
+:class:`engine.design.ltb_member.LtbCheck` that applies), its :math:`\chi_{LT}` enters eqs. (6.61)/(6.62),
+the term ``lateral-torsional`` is :math:`M_{y,Ed}/M_{b,Rd}` (eq. (6.54)), Annex B takes :math:`k_{zy}` of
+Table B.2 with :math:`C_{mLT}` = the Table B.3 factor of the major-axis diagram between the end restraints
+(the same as :math:`C_{my}`, the sway note's 0.9 included: a larger :math:`C_{mLT}` gives a larger
+:math:`k_{zy}`), and Annex A its :math:`a_{LT}, \bar\lambda_0, C_{mLT}` terms
+(:class:`engine.design.annex_a.TorsionalTerms`). Elsewhere :math:`\chi_{LT} = 1` (note ``chi-LT-1``) for
+an open or rectangular section bent about its major axis. In tension or with
 no axial force (:math:`N \le 0`) eqs. (6.61)/(6.62) do not apply (they are stability checks of a compressed
 member) and the route is the cross-section checks alone, with the first-order moments (tension reduces them,
 so this is on the safe side).
@@ -32,7 +39,7 @@ import math
 from dataclasses import dataclass
 
 from engine import codes
-from engine.design import annex_a, annex_b
+from engine.design import annex_a, annex_b, ltb
 from engine.design.diagram import Diagram, annex_a_factor, annex_b_factor
 from engine.design.routes import RouteCheck
 
@@ -120,11 +127,21 @@ def _verdict(enabled: bool, terms: dict, facts: dict, notes: list, source: str) 
 
 
 def route(
-    *, y: Plane, z: Plane, N: float, material, section_class, settings, enabled: bool, beyond: bool = False
+    *,
+    y: Plane,
+    z: Plane,
+    N: float,
+    material,
+    section_class,
+    settings,
+    enabled: bool,
+    beyond: bool = False,
+    ltb=None,
 ) -> RouteCheck:
     """The ``en-member`` route for a member with planes ``y`` and ``z`` at axial force ``N`` (compression
     positive) [N]. ``section_class`` is the worse class about both axes (a SectionClass or None); ``beyond``:
-    N is at or above the first critical load of the plane analysed."""
+    N is at or above the first critical load of the plane analysed; ``ltb``: the member's lateral-torsional
+    buckling check (None or not applying: χ_LT = 1)."""
     source = SOURCE.format(annex=settings.annex)
     if section_class is None:
         return not_applied("en-member", enabled, "section-not-classified", source)
@@ -138,6 +155,8 @@ def route(
     My_Rk = (sy.W_pl if plastic else sy.W_el) * fy
     Mz_Rk = (sz.W_pl if plastic else sz.W_el) * fy
     My, Mz = y.diagram.M_max, z.diagram.M_max
+    torsional = ltb is not None and ltb.applies and My > 0.0
+    chi_LT = ltb.chi_LT if torsional else 1.0
     facts = {
         "annex": settings.annex,
         "section_class": klass,
@@ -149,7 +168,7 @@ def route(
         "M_z_Ed": Mz,
         "gamma_M0": g0,
         "gamma_M1": g1,
-        "chi_LT": 1.0,
+        "chi_LT": chi_LT,
         "form_y": y.diagram.form,
         "form_z": z.diagram.form,
     }
@@ -159,7 +178,14 @@ def route(
             p.diagram.V_max * g0 * math.sqrt(3.0) / (p.section.A_v * fy) for p in (y, z) if p.section.A_v > 0
         ),
     }
-    notes = ["chi-LT-1"] if My > 0.0 and sy.shape not in ("chs", "round") else []
+    notes = ["chi-LT-1"] if My > 0.0 and sy.shape not in ("chs", "round") and not torsional else []
+    if notes and ltb is not None and ltb.reason == "restrained":
+        notes = ["LTB-restrained"]  # the case states the compression flange is restrained
+    if torsional:
+        facts.update(lambda_LT=ltb.lambda_LT, M_cr=ltb.M_cr, curve_LT=ltb.curve, method_LT=ltb.method)
+        M_b = chi_LT * My_Rk / g1
+        facts["M_b_Rd"] = M_b
+        terms["lateral-torsional"] = My / M_b if M_b > 0.0 else math.inf
     for p in (y, z):
         curve = p.curve if p.curve is not None else curve_of(p.section, material)[0]
         lam = 0.0 if math.isinf(p.N_cr) else codes.slenderness(p.section.A, fy, p.N_cr)
@@ -181,8 +207,13 @@ def route(
         return _verdict(enabled, terms, facts, notes, source)
     chi_y, chi_z = facts["chi_y"], facts["chi_z"]
     lam_y, lam_z = facts["lambda_y"], facts["lambda_z"]
+    if torsional and chi_LT <= 0.0:  # N held at or above N_cr,z or N_cr,T in M_cr: no bending resistance
+        terms["eq-6.61"] = terms["eq-6.62"] = terms["elastic-buckling"] = math.inf
+        return _verdict(enabled, terms, facts, notes, source)
+    C_mLT = None
     if settings.annex == "B":
         C_my, C_mz = annex_b_factor(y.diagram), annex_b_factor(z.diagram)
+        C_mLT = C_my if torsional else None
         common = dict(
             N_Ed=N,
             N_Rk=N_Rk,
@@ -195,6 +226,8 @@ def route(
             section_class=min(klass, 3),
             gamma_M1=g1,
         )
+        if sy.shape in ("rolled_i", "welded_i"):
+            common["C_mLT"] = C_mLT
         if sy.shape in ("rhs", "chs"):
             k = annex_b.interaction_factors(hollow=True, **common)
         elif sy.shape in ("rolled_i", "welded_i"):
@@ -208,6 +241,11 @@ def route(
     else:
         C_my = annex_a_factor(y.diagram, N, y.N_cr)
         C_mz = annex_a_factor(z.diagram, N, z.N_cr)
+        terms_lt = _torsional_terms(ltb, y, z, N, My, Mz, material, settings) if torsional else None
+        if terms_lt is not None and N >= terms_lt.N_cr_T:  # at or above torsional buckling (warping free)
+            facts["N_cr_T"] = terms_lt.N_cr_T
+            terms["elastic-buckling"] = math.inf
+            return _verdict(enabled, terms, facts, notes, source)
         k = annex_a.interaction_factors(
             N_Ed=N,
             N_Rk=N_Rk,
@@ -225,8 +263,10 @@ def route(
             W_pl_z=sz.W_pl,
             section_class=min(klass, 3),
             gamma_M1=g1,
+            ltb=terms_lt,
         )
-        notes.append("annex-A-lambda-0")
+        if not torsional:
+            notes.append("annex-A-lambda-0")
     found = annex_b.member_check(
         N_Ed=N,
         M_y_Ed=My,
@@ -237,8 +277,44 @@ def route(
         chi_y=chi_y,
         chi_z=chi_z,
         factors=k,
+        chi_LT=chi_LT,
         gamma_M1=g1,
     )
     terms["eq-6.61"], terms["eq-6.62"] = found.eq_6_61, found.eq_6_62
+    C_my = k.C_my if k.C_my is not None else C_my
     facts.update(C_my=C_my, C_mz=C_mz, k_yy=k.k_yy, k_yz=k.k_yz, k_zy=k.k_zy, k_zz=k.k_zz)
+    if torsional:
+        facts["C_mLT"] = k.C_mLT
+        facts["table_B"] = "B.2" if settings.annex == "B" and C_mLT is not None else None
     return _verdict(enabled, terms, facts, notes, source)
+
+
+def _torsional_terms(check, y: Plane, z: Plane, N, My, Mz, material, settings) -> annex_a.TorsionalTerms:
+    """Annex A's lateral-torsional terms for the member (see the module). λ̄_0 from the uniform-moment M_cr
+    with fork supports and free warping (the smallest of the end conditions: the safe side), C1 the smaller
+    of the table's and the exact ratio M_cr,0/M_cr,uniform, N_cr,T with the member length (warping free)."""
+    sy, sz = y.section, z.section
+    E = material.E
+    G = material.G if material.G is not None else E / 2.6
+    L = check.length
+    EI_z, GI_t, EI_w = E * sz.I, G * check.I_t, E * check.I_w
+    uniform = ltb.mcr_c1(L, EI_z, GI_t, EI_w, 1.0)
+    lambda_0 = math.sqrt(check.W_y * material.fy / uniform)
+    C1 = check.C1
+    if math.isfinite(check.M_cr_0):
+        C1 = min(C1, check.M_cr_0 / uniform)
+    i0_sq = (sy.I + sz.I) / sy.A
+    N_cr_T = (GI_t + math.pi**2 * EI_w / L**2) / i0_sq
+    gamma = max(settings.gamma_M0, settings.gamma_M1)
+    return annex_a.TorsionalTerms(
+        a_LT=max(0.0, 1.0 - check.I_t / sy.I),
+        lambda_0=lambda_0,
+        C1=max(C1, 1e-6),
+        chi_LT=check.chi_LT,
+        N_cr_T=N_cr_T,
+        M_y_Ed=My,
+        M_z_Ed=Mz,
+        M_pl_y_Rd=sy.W_pl * material.fy / gamma,
+        M_pl_z_Rd=sz.W_pl * material.fy / gamma,
+        A=sy.A,
+    )

@@ -14,15 +14,20 @@ Sources, each with how sure the project is of it ("from memory": recalled, to be
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 from dataclasses import dataclass
 from types import MappingProxyType
 
 import numpy as np
 
+from engine.errors import CaseError
 from engine.validate import choice, positive, real
 
 __all__ = [
+    "CHI_METHODS",
     "IMPERFECTION_FACTORS_LT",
+    "LOAD_POSITIONS",
+    "LtbSettings",
     "STANDARD_DIAGRAMS",
     "AiscLtb",
     "StandardDiagram",
@@ -50,6 +55,79 @@ STANDARD_DIAGRAMS = MappingProxyType(
         "point": (1.348, 0.630),
     }
 )
+
+#: Where the transverse loads act relative to the shear centre (check.ltb.load_position).
+LOAD_POSITIONS: tuple[str, ...] = ("destabilising", "shear-centre", "stabilising")
+#: How χ_LT is found (check.ltb.chi_method): ``general`` (§6.3.2.2 for every section, the conservative
+#: default) or ``rolled`` (§6.3.2.3 with f for rolled and equivalent welded I sections, §6.3.2.2 for the
+#: rest).
+CHI_METHODS: tuple[str, ...] = ("general", "rolled")
+_LATERAL = ("fork", "fixed")
+_WARPING = ("free", "fixed")
+_LTB_KEYS = ("load_position", "lateral_ends", "warping_ends", "chi_method", "restrained")
+
+
+@dataclass(frozen=True, kw_only=True)
+class LtbSettings:
+    """The case key ``check.ltb``: the restraint and load data of the lateral-torsional buckling check.
+
+    Defaults are the conservative ones: loads on the flange they come from (destabilising), fork supports
+    (free to rotate about the minor axis), warping free, χ_LT by §6.3.2.2, not restrained. ``restrained``
+    True is the engineer's statement that the compression flange is restrained along the member (by a slab
+    or sheeting): lateral-torsional buckling is prevented, χ_LT = 1 (EN 1993-1-1 §6.3.2.1(2), from memory).
+
+    >>> LtbSettings.from_data({"lateral_ends": ["fixed", "fork"]}).lateral_ends
+    ('fixed', 'fork')
+    """
+
+    load_position: str = "destabilising"
+    lateral_ends: tuple = ("fork", "fork")
+    warping_ends: tuple = ("free", "free")
+    chi_method: str = "general"
+    restrained: bool = False
+
+    def __post_init__(self) -> None:
+        if not isinstance(self.restrained, bool):
+            raise CaseError(f"check.ltb.restrained: {self.restrained!r} must be true or false")
+        choice("check.ltb.load_position", self.load_position, LOAD_POSITIONS)
+        choice("check.ltb.chi_method", self.chi_method, CHI_METHODS)
+        for name, allowed in (("lateral_ends", _LATERAL), ("warping_ends", _WARPING)):
+            ends = getattr(self, name)
+            if isinstance(ends, (str, bytes)) or not isinstance(ends, (list, tuple)) or len(ends) != 2:
+                raise CaseError(
+                    f"check.ltb.{name}: {ends!r} must be a [left, right] pair of "
+                    + " or ".join(repr(a) for a in allowed)
+                )
+            for side, end in zip(("left", "right"), ends, strict=True):
+                choice(f"check.ltb.{name}.{side}", end, allowed)
+            object.__setattr__(self, name, tuple(ends))
+
+    @classmethod
+    def from_data(cls, data) -> LtbSettings:
+        """From the case-file object (absent keys take the defaults)."""
+        if data is None:
+            return cls()
+        if isinstance(data, LtbSettings):
+            return data
+        if not isinstance(data, Mapping):
+            raise CaseError(f"check.ltb: {data!r} must be an object with keys " + ", ".join(_LTB_KEYS))
+        unknown = [key for key in data if key not in _LTB_KEYS]
+        if unknown:
+            raise CaseError(
+                f"check.ltb.{unknown[0]}: not a key of check.ltb; allowed: " + ", ".join(_LTB_KEYS)
+            )
+        return cls(**data)
+
+    def to_dict(self) -> dict:
+        """The case-file form (every key)."""
+        return {
+            "load_position": self.load_position,
+            "lateral_ends": list(self.lateral_ends),
+            "warping_ends": list(self.warping_ends),
+            "chi_method": self.chi_method,
+            "restrained": self.restrained,
+        }
+
 
 C1_SOURCE = "ENV 1993-1-1:1992 Annex F Tables F.1.1/F.1.2; NCCI SN003 (from memory)"
 
@@ -293,6 +371,8 @@ class AiscLtb:
     L_r: float
     F_cr: float
     zone: str  # "plastic" (L_b ≤ L_p), "inelastic" or "elastic" (L_b > L_r)
+    C_b: float = 1.0
+    L_b: float = 0.0
 
 
 def aisc_f2(
@@ -336,8 +416,12 @@ def aisc_f2(
         else C_b * math.pi**2 * E / (L_b / r_ts) ** 2 * math.sqrt(1 + 0.078 * jc * (L_b / r_ts) ** 2)
     )
     if L_b <= L_p:
-        return AiscLtb(M_n=M_p, M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, zone="plastic")
+        return AiscLtb(M_n=M_p, M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, zone="plastic", C_b=C_b, L_b=L_b)
     if L_b <= L_r:
         m_n = C_b * (M_p - (M_p - 0.7 * F_y * S_x) * (L_b - L_p) / (L_r - L_p))
-        return AiscLtb(M_n=min(m_n, M_p), M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, zone="inelastic")
-    return AiscLtb(M_n=min(F_cr * S_x, M_p), M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, zone="elastic")
+        return AiscLtb(
+            M_n=min(m_n, M_p), M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, zone="inelastic", C_b=C_b, L_b=L_b
+        )
+    return AiscLtb(
+        M_n=min(F_cr * S_x, M_p), M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, zone="elastic", C_b=C_b, L_b=L_b
+    )

@@ -241,6 +241,8 @@ def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tupl
     if not mu[-1] > 1e-12 * float(np.max(np.abs(mu))):
         return math.inf, np.zeros(K.shape[0])
     lam = 1.0 / float(mu[-1])
+    if not math.isfinite(lam):
+        return math.inf, np.zeros(K.shape[0])
     if not vector:
         return lam, np.zeros(K.shape[0])
     shifted = K - lam * (1.0 - 1e-6) * G
@@ -277,6 +279,8 @@ def critical_moment(
     elements: int | None = None,
     scale_axial: bool = True,
     tolerance: float = 1e-3,
+    mesh_pair: int | None = None,
+    V: Sequence[float] | np.ndarray | None = None,
 ) -> CriticalMoment:
     r"""Elastic lateral-torsional buckling load factor of a doubly symmetric member (see the module).
 
@@ -302,6 +306,13 @@ def critical_moment(
         (left, right) of :data:`LATERAL_ENDS` and :data:`WARPING_ENDS`.
     elements : int, optional
         A fixed mesh (no extrapolation). By default 8, 16, ... until converged to ``tolerance``.
+    V : array_like, optional
+        dM/dx at the samples [N] (the shear): M is then interpolated by cubic Hermite pieces, exact for
+        uniform and linear loads whatever the samples (else linear between them).
+    mesh_pair : int, optional
+        Solve n = ``mesh_pair`` and 2n elements and extrapolate, without the convergence loop: the mesh
+        another solution converged with (``elements`` of its result), so that a family of solutions (the
+        same member at several axial forces) varies smoothly.
     scale_axial : bool
         True: N is scaled with the moment (α_cr of the whole load set; M → 0 gives α_cr·N → N_cr). False:
         N is held and only M and the loads are scaled.
@@ -346,8 +357,24 @@ def critical_moment(
         raise ValueError(f"x: the samples must cover the member, 0 to {L!r} m; got {xs[0]!r} to {xs[-1]!r} m")
     uniform, point = _loads(loads, L, real("load_height", load_height, "m"))
 
-    def m_at(points):
-        return np.interp(points, xs, ms)
+    if V is None:
+
+        def m_at(points):
+            return np.interp(points, xs, ms)
+
+    else:
+        vs = np.asarray(V, dtype=float)
+        if vs.shape != xs.shape or not np.all(np.isfinite(vs)):
+            raise ValueError("V: give finite samples, one per x")
+
+        def m_at(points):
+            i = np.clip(np.searchsorted(xs, points, side="right") - 1, 0, xs.size - 2)
+            h = xs[i + 1] - xs[i]
+            safe = np.where(h > 0.0, h, 1.0)
+            t = np.where(h > 0.0, (points - xs[i]) / safe, 0.0)
+            h00, h10 = 2 * t**3 - 3 * t**2 + 1, t**3 - 2 * t**2 + t
+            h01, h11 = -2 * t**3 + 3 * t**2, t**3 - t**2
+            return h00 * ms[i] + h10 * h * vs[i] + h01 * ms[i + 1] + h11 * h * vs[i + 1]
 
     jumps = xs[1:][np.diff(xs) == 0]  # a couple in the span: a repeated x with two values of M
     breaks = [p[1] for p in point] + [u[1] for u in uniform] + [u[2] for u in uniform] + list(jumps)
@@ -365,7 +392,9 @@ def critical_moment(
             raise ValueError(f"elements: {elements!r} must be 1 to {_MAX_ELEMENTS}")
         nodes, lam, mode = run(count)
         return _result(lam, M_max, nodes, mode, count, (lam,), False)
-    count = 8
+    count = 8 if mesh_pair is None else max(1, int(mesh_pair) // 2)
+    if count * 2 > _MAX_ELEMENTS:
+        raise ValueError(f"mesh_pair: {mesh_pair!r} must be 2 to {_MAX_ELEMENTS}")
     nodes, coarse, mode = run(count)
     history = [coarse]
     while True:
@@ -375,6 +404,8 @@ def critical_moment(
         if not math.isfinite(fine):
             return _result(fine, M_max, nodes, mode, count, tuple(history), False)
         extrapolated = fine + (fine - coarse) / (2.0**_RATE - 1.0)
+        if mesh_pair is not None:
+            break
         if abs(fine - extrapolated) <= tolerance * abs(extrapolated) or count >= _MAX_ELEMENTS:
             break
         coarse = fine

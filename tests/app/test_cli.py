@@ -212,6 +212,7 @@ SUMMARY_KEYS = {
     "routes",
     "headline_route",
     "combinations",
+    "ltb",
 }
 
 # 1 kip = 1000 lbf = 4448.2216152605 N, exact by definition (NIST SP 811 (2008) Appendix B; from memory).

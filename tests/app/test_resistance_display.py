@@ -135,10 +135,12 @@ def test_page_state_keeps_out_of_plane_and_gamma_m1_acts():
     before = engine.solve(state.to_case())
     state.gamma_M1 = 1.1
     after = engine.solve(state.to_case())
-    # The second-order route's N/N_b,Rd scales with γ_M1 exactly; the headline (issue 14: the largest enabled
-    # route, here eq. (6.62), whose k_zy also grows with γ_M1) by at least as much.
+    # The second-order route's N/N_b,Rd scales with γ_M1 exactly. The headline (issue 14: the largest enabled
+    # route, here eq. (6.62)) rises too, but by a little less since issue 15: the member is now checked as
+    # susceptible to torsional deformation, and k_zy of EN 1993-1-1 Annex B Table B.2 for such a member falls
+    # as n_z = N_Ed/(χ_z N_Rk/γ_M1) grows (from memory).
     assert after.check.utilization == pytest.approx(before.check.utilization * 1.1, rel=1e-12)
-    assert after.utilization >= before.utilization * 1.1
+    assert before.utilization * 1.05 < after.utilization < before.utilization * 1.1
 
 
 def test_page_values_table_shows_the_new_rows():

@@ -78,8 +78,16 @@ def test_slenderness_limits():
 
 
 def test_lateral_torsional_buckling_for_major_axis_open_sections_only():
-    """Major-axis bending of an I warns of LTB; minor-axis bending or a hollow section does not."""
-    assert "lateral-torsional-buckling" in _codes(_steel(axis="major"))[0]
+    """Major-axis bending of an open section whose check cannot be made (a custom section without It/Iw)
+    warns of LTB; an I, whose torsion constants are known, is checked instead (issue 15); minor-axis bending
+    or a hollow section does not warn."""
+    codes, r = _codes(_steel(axis="major"))
+    assert "lateral-torsional-buckling" not in codes and r.ltb.applies
+    custom = {"shape": "custom", "A": 2.85e-3, "I": 1.943e-5, "W_el": 1.94e-4, "W_pl": 2.2e-4}
+    codes, r = _codes(_steel(axis="major", section=custom))
+    assert "lateral-torsional-buckling" in codes and not r.ltb.applies
+    warning = next(c for c in r.cautions if c.code == "lateral-torsional-buckling")
+    assert warning.values["ltb_reason"] == "torsion-unknown"
     assert "lateral-torsional-buckling" not in _codes(_steel(axis="minor"))[0]
     assert "lateral-torsional-buckling" not in _codes(_steel(section={"name": "SHS 100x100x5"}))[0]
 

@@ -72,7 +72,7 @@ def test_deflection_check_against_span_over_n():
 
 def test_governing_value_position_and_kind():
     """result.utilization is the strength utilisation, with its kind and x on a station; deflection apart."""
-    r = _solve(check={"deflection_limit": 10000})
+    r = _solve(check={"deflection_limit": 10000, "ltb": {"restrained": True}})
     c = r.check
     assert c.deflection_utilization > c.strength_utilization
     assert r.utilization == c.strength_utilization

@@ -1,0 +1,348 @@
+r"""The member's lateral-torsional buckling check (issue 15): exact :math:`M_{cr}`, :math:`\chi_{LT}`,
+:math:`M_{b,Rd}` and AISC 360-16 §F2, from the member's own first-order major-axis moment diagram.
+
+What it reads (all from the solved result, SI):
+
+- the first-order diagram M_y(x) of the major-axis plane (the loads as given, P = 0, no bow) and its loads;
+- the section about both axes (I_z, W_y, h) and its torsion properties :math:`I_t, I_w`
+  (:mod:`engine.torsion`, or a custom section's ``It``/``Iw``);
+- the axial force :math:`N_{Ed}` (compression positive) and ``check.ltb``
+  (:class:`engine.design.ltb.LtbSettings`).
+
+Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
+
+- :math:`M_{cr}` is the exact elastic value (:func:`engine.design.mcr.critical_moment`) for the
+  **first-order** diagram, with a compressive :math:`N_{Ed}` held (it softens the member: lower
+  :math:`M_{cr}`); a tension is left out (it would raise :math:`M_{cr}`).
+- :math:`I_t` and :math:`I_w` of rolled I sections are divided by 1.045 and those of welded I sections by
+  1.01 before they enter :math:`M_{cr}`: the closed forms are up to +4.4 % (rolled) and +0.2 % (welded)
+  above a finite-element computation (DEVELOPERS.md, issue 15, torsion properties). A custom section's
+  values are used as given.
+- Transverse loads act at :math:`+h/2` (destabilising, the default), 0 or :math:`-h/2` from the shear
+  centre, each load on the flange it comes from.
+- :math:`\chi_{LT}` by §6.3.2.2 (Table 6.4) unless ``check.ltb.chi_method`` is ``"rolled"``: then §6.3.2.3
+  (Table 6.5, :math:`\bar\lambda_{LT,0} = 0.4`, β = 0.75) for rolled and welded I sections, with f from
+  :math:`k_c` of Table 6.6 only when the diagram is within 1 % of the table's shape (else :math:`k_c = 1`).
+- :math:`W_y = W_{pl,y}` for class 1–2, else :math:`W_{el,y}`; :math:`M_{Ed}` = max|M_y| of the first-order
+  diagram (the value eqs. (6.61)/(6.62) use).
+- The check is not made (``applies`` False, the caution stays) for a member with a free end (a cantilever:
+  a fork support at its tip would be unsafe), for an open section without known :math:`I_t, I_w`
+  (``torsion-unknown``), for a custom section that is not doubly symmetric, for a custom section with them
+  (``minor-axis-unknown``: its properties are about one axis, so :math:`I_z` is not known), and where a
+  load height is asked for and the depth is unknown.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from engine.design import ltb
+from engine.design.mcr import critical_moment
+from engine.loads import LinearLoad, PointLoad, UniformLoad
+
+__all__ = ["SOURCES", "TORSION_FACTORS", "LtbCheck", "check", "not_applied"]
+
+#: The closed-form torsion constants of each shape are divided by these before M_cr (see the module).
+TORSION_FACTORS = {"rolled_i": 1.045, "welded_i": 1.01}
+
+SOURCES = (
+    "EN 1993-1-1:2005 §6.3.2.1 eq. (6.54), §6.3.2.2 eq. (6.56) Tables 6.3/6.4, §6.3.2.3 eqs. (6.57)/(6.58) "
+    "Tables 6.5/6.6 (from memory)",
+    "M_cr: finite-element solution of Vlasov's equations (Timoshenko & Gere 1961 ch. 6; Trahair 1993)",
+    ltb.C1_SOURCE,
+)
+AISC_SOURCE = "AISC 360-16 §F1 eq. (F1-1), §F2 eqs. (F2-1)–(F2-7) (from memory)"
+
+_DIAGRAM_CODES = {"point": "point-mid"}
+_LINEAR_PIECES = 16
+_KC_DEVIATION = 0.01
+
+
+@dataclass(frozen=True, kw_only=True)
+class LtbCheck:
+    """The lateral-torsional buckling check of the member (LTB_CONTRACT.md). SI units; NaN where a value
+    could not be found (``applies`` False)."""
+
+    applies: bool
+    reason: str | None
+    M_Ed: float
+    M_cr: float
+    M_cr_tabulated: float
+    C1: float
+    diagram: str
+    diagram_deviation: float
+    difference: float
+    lambda_LT: float
+    chi_LT: float
+    curve: str
+    method: str
+    f: float
+    M_b_Rd: float
+    utilisation: float
+    load_position: str
+    lateral_ends: tuple
+    warping_ends: tuple
+    mode_x: tuple = ()
+    mode_v: tuple = ()
+    mode_phi: tuple = ()
+    aisc: ltb.AiscLtb | None = None
+    sources: tuple = SOURCES
+    # Beyond the contract's first list (appended to LTB_CONTRACT.md):
+    M_cr_0: float = math.nan  # exact M_cr with N = 0 [N·m]
+    N_Ed: float = 0.0  # the compression held in M_cr [N]
+    I_t: float = math.nan  # [m⁴] as used (after TORSION_FACTORS)
+    I_w: float = math.nan  # [m⁶] as used
+    W_y: float = math.nan  # [m³]
+    C_b_F1_1: float = math.nan  # C_b of eq. (F1-1) before the cap by the exact M_cr
+    length: float = math.nan  # [m] between the end restraints
+
+
+def not_applied(reason: str, settings, M_Ed: float = 0.0) -> LtbCheck:
+    """The check not made: χ_LT = 1 is what the routes then use (and the caution stays)."""
+    known = reason in ("no-major-moment", "minor-axis-only", "closed-or-solid", "restrained")
+    return LtbCheck(
+        applies=False,
+        reason=reason,
+        M_Ed=M_Ed,
+        M_cr=math.inf if known else math.nan,
+        M_cr_tabulated=math.inf if known else math.nan,
+        C1=1.0,
+        diagram="none",
+        diagram_deviation=0.0,
+        difference=0.0 if known else math.nan,
+        lambda_LT=0.0 if known else math.nan,
+        chi_LT=1.0,
+        curve="",
+        method="",
+        f=1.0,
+        M_b_Rd=math.nan,
+        utilisation=0.0 if known else math.nan,
+        load_position=settings.load_position,
+        lateral_ends=tuple(settings.lateral_ends),
+        warping_ends=tuple(settings.warping_ends),
+    )
+
+
+def _mcr_loads(loads, length: float, height: float) -> list:
+    """The case's transverse loads in :func:`critical_moment`'s form (magnitudes; a linear load as steps)."""
+    out = []
+    for load in loads:
+        if isinstance(load, UniformLoad):
+            start, end = load.span(length)
+            out.append({"kind": "uniform", "q": abs(load.q), "start": start, "end": end, "height": height})
+        elif isinstance(load, LinearLoad):
+            start, end = load.span(length)
+            edges = np.linspace(start, end, _LINEAR_PIECES + 1)
+            for a, b in zip(edges[:-1], edges[1:], strict=True):
+                mid = 0.5 * (a + b)
+                q = load.q_start + (load.q_end - load.q_start) * (mid - start) / (end - start)
+                out.append({"kind": "uniform", "q": abs(q), "start": a, "end": b, "height": height})
+        elif isinstance(load, PointLoad):
+            out.append({"kind": "point", "F": abs(load.P), "x": load.x, "height": height})
+    return out
+
+
+def _k(ends) -> float:
+    """Effective length factor of the three-factor formula for the end pair (0.7 mixed: common practice)."""
+    fixed = sum(end == "fixed" for end in ends)
+    return (1.0, 0.7, 0.5)[fixed]
+
+
+def _standard(x: np.ndarray, M: np.ndarray) -> ltb.StandardDiagram:
+    """The nearest standard diagram; a station given twice (a point load's) counts once, a jump (a couple in
+    the span) is none of the table's shapes."""
+    twice = np.diff(x) <= 0.0
+    if np.any(twice):
+        scale = float(np.max(np.abs(M)))
+        if np.any(np.abs(np.diff(M))[twice] > 1e-9 * scale):
+            return ltb.StandardDiagram(diagram="none", C1=1.0, C2=0.0, psi=None, deviation=math.inf)
+        keep = np.concatenate([[True], ~twice])
+        x, M = x[keep], M[keep]
+    return ltb.c1_for_diagram(x, M)
+
+
+def _unit(values: np.ndarray) -> tuple:
+    peak = float(np.max(np.abs(values))) if values.size else 0.0
+    return tuple(float(v) for v in (values / peak if peak > 0.0 else values))
+
+
+def check(
+    *,
+    x,
+    M,
+    loads,
+    V=None,
+    length: float,
+    section_y,
+    section_z,
+    material,
+    N: float,
+    settings,
+    section_class: int | None,
+    free_end: bool = False,
+    gamma_M1: float = 1.0,
+    cache=None,
+) -> LtbCheck:
+    """The lateral-torsional buckling check of a member (see the module).
+
+    ``x``, ``M``, ``V``: the first-order major-axis diagram [m, N·m] and its shear dM/dx [N] (M is then
+    interpolated by cubic pieces, exact for uniform and linear loads); ``loads``: the major plane's loads;
+    ``N``: the axial force [N], compression positive; ``settings``: the case's ``check.ltb``; ``cache``:
+    ``cache(key, make)`` for what does not depend on N (the M_cr at N = 0).
+    """
+    xs = np.asarray(x, dtype=float)
+    ms = np.asarray(M, dtype=float)
+    vs = None if V is None else np.asarray(V, dtype=float)
+    M_Ed = float(np.max(np.abs(ms))) if ms.size else 0.0
+    sy, sz = section_y, section_z
+    if sy.shape in ("rhs", "chs", "rectangle", "round") or not sy.open_section:
+        return not_applied("closed-or-solid", settings, M_Ed)
+    if M_Ed == 0.0:
+        return not_applied("no-major-moment", settings, M_Ed)
+    if settings.restrained:
+        return not_applied("restrained", settings, M_Ed)
+    if free_end:
+        return not_applied("free-end", settings, M_Ed)
+    torsion = sy.torsion
+    if torsion.I_t is None or torsion.I_w is None:
+        return not_applied("torsion-unknown", settings, M_Ed)
+    if not sy.doubly_symmetric:
+        return not_applied("not-doubly-symmetric", settings, M_Ed)
+    if sy.shape == "custom":  # its properties are about one axis only: I_z is not known
+        return not_applied("minor-axis-unknown", settings, M_Ed)
+    height = {"destabilising": 0.5, "shear-centre": 0.0, "stabilising": -0.5}[settings.load_position]
+    if height != 0.0 and sy.depth is None:
+        return not_applied("depth-unknown", settings, M_Ed)
+    z_g = height * (sy.depth or 0.0)
+    factor = TORSION_FACTORS.get(sy.shape, 1.0)
+    I_t, I_w = torsion.I_t / factor, torsion.I_w / factor
+    E = material.E
+    G = material.G if material.G is not None else E / 2.6  # ν = 0.3
+    EI_z, GI_t, EI_w = E * sz.I, G * I_t, E * I_w
+    i0_sq = (sy.I + sz.I) / sy.A
+    mcr_loads = _mcr_loads(loads, length, z_g)
+    common = dict(
+        EI_z=EI_z,
+        GI_t=GI_t,
+        EI_w=EI_w,
+        length=length,
+        i0_squared=i0_sq,
+        loads=mcr_loads,
+        lateral_ends=tuple(settings.lateral_ends),
+        warping_ends=tuple(settings.warping_ends),
+        scale_axial=False,
+    )
+
+    def solve(axial, pair=None):
+        try:
+            return critical_moment(xs, ms, N=axial, mesh_pair=pair, V=vs, **common)
+        except ValueError:  # N held at or above N_cr,z or N_cr,T: no lateral stiffness left
+            return None
+
+    key = ("ltb-mcr0", settings)
+    at_zero = solve(0.0) if cache is None else cache(key, lambda: solve(0.0))
+    N_held = max(float(N), 0.0)
+    # With N the mesh of the N = 0 solution (converged there): M_cr then varies smoothly with N, which the
+    # capacity's root finder needs; N only softens the member, so the mesh stays as fine relative to the mode.
+    found = at_zero if N_held == 0.0 else solve(N_held, at_zero.elements if at_zero is not None else None)
+    M_cr = 0.0 if found is None else float(found.M_cr)
+    M_cr_0 = math.nan if at_zero is None else float(at_zero.M_cr)
+    std = _standard(xs, ms)
+    M_tab = ltb.mcr_c1(
+        length,
+        EI_z,
+        GI_t,
+        EI_w,
+        std.C1,
+        std.C2,
+        z_g,
+        k=_k(settings.lateral_ends),
+        k_w=_k(settings.warping_ends),
+    )
+    plastic = section_class is not None and section_class <= 2
+    W_y = sy.W_pl if plastic else sy.W_el
+    fy = material.fy
+    lam = math.sqrt(W_y * fy / M_cr) if M_cr > 0.0 else math.inf
+    rolled = settings.chi_method == "rolled" and sy.shape in ("rolled_i", "welded_i")
+    h_over_b = sy.h_over_b if sy.h_over_b is not None else 1.0
+    curve = ltb.lt_curve(shape=sy.shape, h_over_b=h_over_b, method="rolled" if rolled else "general")
+    f = 1.0
+    if math.isinf(lam):
+        chi = 0.0
+    elif rolled:
+        kc = ltb.k_c(std.diagram, std.psi) if std.deviation <= _KC_DEVIATION else 1.0
+        f = min(1.0, 1.0 - 0.5 * (1.0 - kc) * (1.0 - 2.0 * (lam - 0.8) ** 2))
+        chi = ltb.chi_lt_rolled(lam, curve, kc=kc)
+    else:
+        chi = ltb.chi_lt_general(lam, curve)
+    M_b_Rd = chi * W_y * fy / gamma_M1
+    aisc = None
+    cb_f1 = math.nan
+    if sy.shape in ("rolled_i", "welded_i"):
+        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w)
+    mode = () if found is None else (found.x, found.v, found.phi)
+    return LtbCheck(
+        applies=True,
+        reason=None,
+        M_Ed=M_Ed,
+        M_cr=M_cr,
+        M_cr_tabulated=M_tab,
+        C1=std.C1,
+        diagram=_DIAGRAM_CODES.get(std.diagram, std.diagram),
+        diagram_deviation=std.deviation,
+        difference=M_tab / M_cr - 1.0 if M_cr > 0.0 else math.inf,
+        lambda_LT=lam,
+        chi_LT=chi,
+        curve=curve,
+        method="6.3.2.3" if rolled else "6.3.2.2",
+        f=f,
+        M_b_Rd=M_b_Rd,
+        utilisation=M_Ed / M_b_Rd if M_b_Rd > 0.0 else math.inf,
+        load_position=settings.load_position,
+        lateral_ends=tuple(settings.lateral_ends),
+        warping_ends=tuple(settings.warping_ends),
+        mode_x=tuple(float(v) for v in mode[0]) if mode else (),
+        mode_v=_unit(mode[1]) if mode else (),
+        mode_phi=_unit(mode[2]) if mode else (),
+        aisc=aisc,
+        sources=SOURCES + ((AISC_SOURCE,) if aisc is not None else ()),
+        M_cr_0=M_cr_0,
+        N_Ed=N_held,
+        I_t=I_t,
+        I_w=I_w,
+        W_y=W_y,
+        C_b_F1_1=cb_f1,
+        length=float(length),
+    )
+
+
+def _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w):
+    """AISC 360-16 §F2 with L_b = L and C_b of eq. (F1-1), capped by the exact elastic ratio
+    M_cr,0 / M_cr,uniform (fork supports): a load on the top flange lowers M_cr, which eq. (F1-1) does not
+    see (AISC 360-16 Commentary to §F1 says to account for it; from memory)."""
+    absolute = np.abs(ms)
+    x_rel = xs - xs[0]
+    quarter = [float(np.interp(t * length, x_rel, absolute)) for t in (0.25, 0.5, 0.75)]
+    M_max = float(np.max(absolute))
+    cb_f1 = ltb.cb_aisc(M_max, *(min(q, M_max) for q in quarter))
+    uniform = ltb.mcr_c1(length, EI_z, GI_t, EI_w, 1.0)
+    cb = cb_f1 if not math.isfinite(M_cr_0) else min(cb_f1, max(M_cr_0 / uniform, 1e-6))
+    dims = sy.dimensions
+    h_o = dims["h"] - dims["tf"]
+    found = ltb.aisc_f2(
+        L_b=length,
+        E=material.E,
+        F_y=material.fy,
+        Z_x=sy.W_pl,
+        S_x=sy.W_el,
+        r_y=sz.i,
+        I_y=sz.I,
+        C_w=I_w,
+        J=I_t,
+        h_o=h_o,
+        C_b=cb,
+    )
+    return found, cb_f1
