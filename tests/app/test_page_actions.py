@@ -80,7 +80,8 @@ def test_a_bad_load_case_value_is_named_beside_it_and_the_result_kept(page):
     block.fields[0].widget.value = None  # q of W emptied
     assert page.model.result is before
     shown = page.load_cases.block_errors.shown()
-    assert shown and "actions[1].loads[0].q" in shown[0]
+    assert shown and "Load case 2, load 1" in shown[0]
+    assert "actions[1].loads[0].q" in page.model.errors
     assert page.stale.visible
 
 
@@ -96,3 +97,13 @@ def test_load_cases_from_the_own_loads_and_back(page):
     plain.load_cases.blocks[0].remove.clicks += 1
     assert state.actions == [] and state.result.actions is None
     assert all(other.visible for other in plain.load_cases.others)
+
+
+def test_load_case_paths_are_worded_on_the_page():
+    from app.page.fields import field_words, page_message
+
+    assert field_words("actions[1].loads[0].x") == "Load case 2, load 1, position"
+    assert field_words("actions[0].axial_force") == "Load case 1, axial force"
+    assert page_message("actions[0].loads[0].x: 7.5 m lies outside the member (0 to 6 m)") == (
+        "Load case 1, load 1, position: 7.5 m lies outside the member (0 to 6 m)"
+    )
