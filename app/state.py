@@ -325,6 +325,8 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
             self._failed_at = self._refresh_id
             self._fail(_engine_failure(error))
             return
+        if self.actions:
+            self._remember_scale(case)
         if self._runner is None or self._solve_first:
             self._solve_first = False
             self._solved(case, full, *solve_outcome(case, self.stations))
@@ -350,6 +352,7 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
         self._base_case = case
         outputs: dict[str, Any] = {"result": result, "errors": {}}
         if getattr(result, "actions", None) is not None:
+            self.result_scale = self._scale_of(case)
             case = result.case  # the charts and the routes: the governing combination as a plain case
         if full:
             key = case.without_axial_force()

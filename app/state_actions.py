@@ -171,6 +171,19 @@ class ActionsBehaviour:
     """What :class:`app.state.MemberState` does with load cases: the slider's load factor, the shown one."""
 
     _mirroring = False
+    #: λ of the result on screen, and of the cases sent to be solved (served, a result arrives later).
+    result_scale = 1.0
+    _case_scales: dict | None = None
+
+    def _remember_scale(self, case) -> None:
+        scales = self._case_scales if self._case_scales is not None else {}
+        if len(scales) >= 8:
+            scales.pop(next(iter(scales)))
+        scales[case] = self.action_scale
+        self._case_scales = scales
+
+    def _scale_of(self, case) -> float:
+        return (self._case_scales or {}).get(case, self.action_scale)
 
     def _scale_from_force(self) -> bool:
         """The slider moved with load cases: set λ so the shown combination has the new N; True to solve."""
@@ -293,4 +306,6 @@ def scale_for(state, force) -> tuple[float | None, str]:
             "axial_force: the shown combination has no axial force (N = 0), so the slider has nothing to "
             "scale; pick another combination, or give a load case an axial force"
         )
-    return state.action_scale * force / current, ""
+    # Served, the result can lag the slider (solves run off the event loop): λ is taken from the result's own
+    # λ, never from the λ of a solve still running, so that steps do not compound.
+    return getattr(state, "result_scale", state.action_scale) * force / current, ""

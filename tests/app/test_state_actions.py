@@ -149,3 +149,38 @@ def test_pure_helpers():
     assert scaled_action(action, 2.0, "axial") == {**action, "axial_force": 20.0}
     assert scaled_action(action, 2.0, "factor")["loads"] == [{"type": "point", "P": 4.0, "x": 1.0}]
     assert actions_mapping(MemberState()) == {}
+
+
+def test_slider_steps_do_not_compound_while_a_solve_is_running(mapping):
+    """Served, results lag the slider: λ comes from the result's own λ, so two quick steps land exactly."""
+
+    class Later:
+        """A runner that keeps the jobs until asked (as the served page's runner runs them later)."""
+
+        def __init__(self):
+            self.jobs = []
+
+        def solve(self, job, full):
+            self.jobs.append((job, full))
+
+        def chart(self, job):
+            pass
+
+        def routes(self, job):
+            pass
+
+        def run(self):
+            jobs, self.jobs = self.jobs, []
+            for job, full in jobs:
+                job(full)()
+
+    runner = Later()
+    s = MemberState(runner=runner, solve_first=True)
+    s.load_mapping(mapping)
+    runner.run()
+    n0 = s.axial_force
+    s.axial_force = 1.2 * n0  # no result yet for this step
+    s.axial_force = 1.5 * n0
+    assert s.action_scale == pytest.approx(1.5)
+    runner.run()
+    assert float(s.result.axial_force) == pytest.approx(1.5 * n0)
