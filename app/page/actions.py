@@ -203,7 +203,7 @@ class LoadCasesView(pn.viewable.Viewer):
         )
         self.rule.param.watch(lambda event: setattr(self.state, "combination_rule", event.new), "value")
         self.add = pn.widgets.Button(
-            label="+ Add load case", color="primary", width=124, margin=(4, 5), stylesheets=[WIDGET_CSS]
+            label="+ New load case", color="primary", width=124, margin=(4, 5), stylesheets=[WIDGET_CSS]
         )
         self.add.on_click(lambda *_: self._add())
         self.demo = pn.widgets.Button(
@@ -278,7 +278,7 @@ class LoadCasesView(pn.viewable.Viewer):
         else:
             text = (
                 "No load cases: the case is solved with the loads of the Loads tab and the axial force "
-                "above. <b>+ Add load case</b> turns them into load case G (permanent)."
+                "above. <b>+ New load case</b> turns them into load case G (permanent)."
             )
         self.note.object = f"<div class='ss-note'>{text}</div>"
         self.show_errors()
