@@ -120,3 +120,51 @@ def test_a_copied_link_reopens_the_same_load_cases(browser, app):
         expect(again.locator(".ss-governing")).to_contain_text("U1")
     finally:
         other.close()
+
+
+def test_an_uploaded_case_with_load_cases_replaces_them(app, tmp_path):
+    """An uploaded file with load cases is read (it was refused before issue 17's page part)."""
+    page = app.page
+    data = json.loads(DEMO.read_text("utf-8"))
+    data["actions"][1]["name"] = "Wup"
+    path = tmp_path / "invented-actions.json"
+    path.write_text(json.dumps(data), encoding="utf-8")
+    page.locator("input[type=file]").set_input_files(path)
+    expect(page.get_by_text("loaded invented-actions.json")).to_be_visible()
+    tab(page, "Loads")
+    expect(page.locator(".ss-load-case input[placeholder='name']").nth(1)).to_have_value("Wup")
+    assert _names(page) == ["G", "Wup"]
+
+
+def test_a_load_outside_the_member_is_named_and_the_last_result_kept(app):
+    """A load case's load beyond the span: the message names the load case, the load, the value and the range;
+    the plots keep the last good result."""
+    page = app.page
+    tab(page, "Loads")
+    field = page.locator(".ss-load-case").first.get_by_label("at x [m]")
+    before = page.evaluate("() => Array.from(Bokeh.documents[0].get_model_by_name('stations').data.M2)")
+    field.fill("7.5")
+    field.press("Enter")
+    message = "Load case 1, load 1, position: 7.5 m lies outside the member (0 to 6 m)"
+    expect(page.get_by_text(message).first).to_be_visible()
+    expect(page.get_by_text("Input not accepted")).to_be_visible()
+    after = page.evaluate("() => Array.from(Bokeh.documents[0].get_model_by_name('stations').data.M2)")
+    assert after == before
+    assert app.errors == []
+
+
+def test_typing_n_scales_the_shown_combination(app):
+    """N typed with load cases is the shown combination's N: the readout shows it, the link's actions follow
+    (mode 'its N only': every load case's axial force times N/N_before)."""
+    page = app.page
+    entry = page.get_by_label("N [kN]", exact=True)
+    expect(entry).to_have_value("324")  # U1 = 1.35 G: 1.35 x 240 kN (EN 1990 Table A1.2(B), from memory)
+    entry.fill("486")
+    entry.press("Enter")
+    expect(page.locator(".ss-readout")).to_contain_text("486.00 kN")
+    page.wait_for_url(re.compile(r"360000"))  # G: 240 kN x 486/324 = 360 kN
+    query = urllib.parse.parse_qs(urllib.parse.urlparse(page.url).query)
+    case = json.loads(query["case"][0])
+    assert case["actions"][0]["axial_force"] == pytest.approx(360e3)
+    assert case["actions"][1]["axial_force"] == pytest.approx(-30e3)
+    assert case["actions"][1]["loads"] == json.loads(DEMO.read_text("utf-8"))["actions"][1]["loads"]
