@@ -297,7 +297,7 @@ class CombinationBar(pn.viewable.Viewer):
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
         self.picker = pn.widgets.Select(
-            label="Combination shown", options={}, width=200, margin=(0, 6, 0, 10), stylesheets=[WIDGET_CSS]
+            label="Combination shown", options={}, width=214, margin=(0, 6, 0, 10), stylesheets=[WIDGET_CSS]
         )
         self.picker.param.watch(self._picked, "value")
         self.mode = pn.widgets.RadioButtonGroup(

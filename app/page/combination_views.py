@@ -159,11 +159,10 @@ class SuperpositionView(pn.viewable.Viewer):
         if comparison is None:
             self.source.data = {"x": [], "exact": [], "summed": []}
             self.text.object = (
-                "<div class='ss-note'>Superposition needs load cases: add them in the Load cases tab.</div>"
+                "<div class='ss-note'>Superposition needs load cases: add them at the top of the Loads "
+                "tab.</div>"
             )
             return
-        from app.report.combinations import superposition_lines
-
         mo = U.moment.factor
         self.source.data = {
             "x": np.asarray(comparison.x) * U.length.factor,
@@ -172,12 +171,24 @@ class SuperpositionView(pn.viewable.Viewer):
         }
         self.figure.yaxis.axis_label = f"M [{U.label('moment')}] ↓+"
         self.figure.xaxis.axis_label = f"x [{U.label('length')}]"
-        lines = superposition_lines(comparison, U)
+        from app.report import words
+
+        parts = " + ".join(
+            f"{factor:g} {name} at N = {words.axial_text(axial, U)}"
+            for name, factor, axial in comparison.parts
+        )
         error = comparison.error
         shown = "∞ (a critical load)" if not math.isfinite(error) else f"{100 * error:.1f} %"
+        exact = esc(U.show("moment", comparison.moment_peak_exact))
+        summed = esc(U.show("moment", comparison.moment_peak_superposed))
+        name = esc(comparison.combination)
         self.text.object = (
-            f"<div class='ss-heading'>{esc(lines[0])}</div>"
-            f"<pre style='font-size:12px;margin:4px 0'>{esc(chr(10).join(lines[1:]))}</pre>"
-            f"<div class='ss-note'>Error of the sum: <b>{esc(shown)}</b> of the exact max|M| "
-            "(positive: the sum falls short, the unsafe side). Small near N = 0, large near Pcr1.</div>"
+            f"<div class='ss-heading'>Superposition shown wrong: combination {name}</div>"
+            "<table class='ss-table' style='width:100%;font-size:12px'>"
+            f"<tr><td>exact, solved together</td><td><b>max|M| = {exact}</b></td></tr>"
+            f"<tr><td>sum of the load cases solved alone</td><td><b>max|M| = {summed}</b></td></tr>"
+            f"<tr><td>error of the sum</td><td><b>{esc(shown)}</b> of the exact value</td></tr></table>"
+            f"<div class='ss-note'>The parts: {esc(parts)}; both sides without the bow. Error positive: "
+            "the sum falls short of the exact value, the unsafe side. Small near N = 0, large near "
+            "Pcr1.</div>"
         )
