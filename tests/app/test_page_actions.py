@@ -107,3 +107,24 @@ def test_load_case_paths_are_worded_on_the_page():
     assert page_message("actions[0].loads[0].x: 7.5 m lies outside the member (0 to 6 m)") == (
         "Load case 1, load 1, position: 7.5 m lies outside the member (0 to 6 m)"
     )
+
+
+def test_the_pages_exports_name_the_governing_combination(page):
+    """The CSV and the calc sheet from the page carry the combination shown and the governing rows, as the
+    command line's (the one wording: app.report.combinations)."""
+    text = page.files.csv().getvalue()
+    actions = page.model.result.actions
+    assert "combination shown" in text and actions.headline in text
+    assert (
+        f"governing: deflection (service),{actions.governing_for('deflection').combination}"
+        in text.replace('"', "")
+    )
+
+
+def test_us_units_show_load_cases_in_kip(page):
+    page.model.units = "us"
+    block = page.load_cases.blocks[0]
+    assert block.axial.widget.label == "N [kip]"
+    # 1 kip = 4448.2216152605 N (1 lbf = 4.4482216152605 N exactly, NIST SP 811 Appendix B)
+    assert block.axial.widget.value == pytest.approx(240e3 / 4448.2216152605, rel=1e-5)
+    assert "kN" not in page.governing.pane.object
