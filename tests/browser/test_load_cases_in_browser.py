@@ -99,25 +99,31 @@ def test_the_mode_switch_says_what_the_slider_scales(app):
     )
 
 
-def test_a_copied_link_reopens_the_same_load_cases(browser, app):
-    """A changed load case reaches the URL; that link opened elsewhere shows the same load cases."""
+def test_a_copied_link_reopens_the_same_load_cases(browser, server, app):
+    """A changed load case reaches the copied link (the Copy link button) and the address bar; the copied link
+    opened in a fresh browser shows the same load cases and the same governing combination."""
     page = app.page
+    page.context.grant_permissions(["clipboard-read", "clipboard-write"], origin=server.url.rstrip("/"))
     tab(page, "Loads")
     name = page.locator(".ss-load-case input[placeholder='name']").nth(1)
     name.fill("W1")
     name.press("Enter")
     page.wait_for_url(re.compile(r"W1"))
-    query = urllib.parse.parse_qs(urllib.parse.urlparse(page.url).query)
-    case = json.loads(query["case"][0])
+    page.get_by_role("button", name="Copy link").click()
+    expect(page.get_by_role("button", name="Link copied")).to_be_visible()
+    link = page.evaluate("() => navigator.clipboard.readText()")
+    case = json.loads(urllib.parse.parse_qs(urllib.parse.urlparse(link).query)["case"][0])
     assert [action["name"] for action in case["actions"]] == ["G", "W1"]
+    assert case["combinations"]["rule"] == "en1990-6.10"
     other = browser.new_context(viewport=VIEWPORT)
     try:
         other.set_default_timeout(TIMEOUT_MS)
-        again = open_page(other, page.url).page
+        again = open_page(other, link).page
         tab(again, "Loads")
         expect(again.locator(".ss-load-case input[placeholder='name']").nth(1)).to_have_value("W1")
         assert _names(again) == ["G", "W1"]
         expect(again.locator(".ss-governing")).to_contain_text("U1")
+        expect(again.locator(".ss-governing")).to_contain_text("S2")
     finally:
         other.close()
 
