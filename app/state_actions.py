@@ -308,4 +308,11 @@ def scale_for(state, force) -> tuple[float | None, str]:
         )
     # Served, the result can lag the slider (solves run off the event loop): λ is taken from the result's own
     # λ, never from the λ of a solve still running, so that steps do not compound.
-    return getattr(state, "result_scale", state.action_scale) * force / current, ""
+    scale = getattr(state, "result_scale", state.action_scale) * force / current
+    if not scale > 0.0:
+        return None, (
+            f"axial_force: N = {force:g} N would need the load factor λ = {scale:.3g} on the load cases; the "
+            "slider scales them by λ > 0 only (λ <= 0 would remove or reverse them): keep N on the side of "
+            f"the shown combination's {current:g} N"
+        )
+    return scale, ""

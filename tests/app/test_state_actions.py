@@ -184,3 +184,16 @@ def test_slider_steps_do_not_compound_while_a_solve_is_running(mapping):
     assert s.action_scale == pytest.approx(1.5)
     runner.run()
     assert float(s.result.axial_force) == pytest.approx(1.5 * n0)
+
+
+def test_a_slider_past_zero_is_refused_rather_than_reverse_the_load_cases(state):
+    """N of the opposite sign would need λ < 0 (every load case reversed): refused, naming the field."""
+    state.show_combination("U1")  # 1.35 G, in compression
+    before = state.result
+    state.axial_force = -100e3
+    assert "axial_force" in state.errors
+    assert "λ > 0 only" in state.errors["axial_force"]
+    assert state.result is before and state.action_scale == 1.0
+    state.axial_force = 200e3  # back on the right side: accepted
+    assert state.errors == {}
+    assert float(chosen_item(state.result, "U1").result.axial_force) == pytest.approx(200e3)
