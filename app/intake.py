@@ -70,27 +70,11 @@ def _surrogate_message(path: str) -> str:
     )
 
 
-#: The page does not show load cases and combinations yet: such a case is refused whole, never loaded without
-#: its loads (its own ``loads`` are empty, so the page would solve an unloaded member).
-ACTIONS_MESSAGE = (
-    "holds load cases (actions), which the page does not show yet; solve it with `strutscope solve FILE` "
-    "(every combination, with the governing combination of each check named)"
-)
-
-
-def _refuse_actions(data, what: str = "") -> None:
-    held = getattr(data, "actions", None) if not isinstance(data, Mapping) else data.get("actions")
-    combos = None if not isinstance(data, Mapping) else data.get("combinations")
-    if held is not None or combos is not None:
-        raise IntakeError(f"{what}: {ACTIONS_MESSAGE}" if what else ACTIONS_MESSAGE, "actions")
-
-
 def check_case(case) -> None:
-    """Raise IntakeError when an :class:`engine.Case` holds text that cannot be encoded, or load cases."""
+    """Raise IntakeError when an :class:`engine.Case` holds text that cannot be encoded."""
     path = text_problem(case.to_dict())
     if path:
         raise IntakeError(_surrogate_message(path), "surrogate")
-    _refuse_actions(case)
 
 
 def case_from_bytes(data: bytes, what: str):
@@ -127,7 +111,6 @@ def case_from_bytes(data: bytes, what: str):
     path = text_problem(case.to_dict())
     if path:
         raise IntakeError(f"{what}: {_surrogate_message(path)}", "surrogate")
-    _refuse_actions(case, what)
     return case
 
 
@@ -145,7 +128,6 @@ def case_from_link(value, what: str = "link: the case in it"):
     path = text_problem(mapping)
     if path:
         raise IntakeError(f"{what}: {_surrogate_message(path)}", "surrogate")
-    _refuse_actions(mapping, what)
     return mapping
 
 

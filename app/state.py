@@ -42,6 +42,7 @@ from typing import Any
 import numpy as np
 import param
 
+from app.state_actions import ActionsBehaviour, actions_values
 from app.state_inputs import (
     BOW_PRESETS,
     BOW_SHAPES,
@@ -97,7 +98,7 @@ def _field_of(message: str) -> str:
     return head.strip()
 
 
-class MemberState(RouteSweepOutputs, MemberInputs):
+class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
     Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
@@ -175,6 +176,7 @@ class MemberState(RouteSweepOutputs, MemberInputs):
         """Put a case-file mapping into the inputs with one update (the engine validates it as it solves)."""
         values = values_from_mapping(mapping)
         self._settled_axial_force = values.get("axial_force", self.axial_force)
+        self.action_scale = self.settled_scale = 1.0  # a file's load cases are taken as they are
         self.param.update(**values)
         self._write_link()
 
@@ -217,6 +219,7 @@ class MemberState(RouteSweepOutputs, MemberInputs):
     def settle(self) -> None:
         """Take the current axial force as settled: the link (and so the URL) now carries it."""
         self._settled_axial_force = self.axial_force
+        self.settled_scale = self.action_scale
         self._write_link()
 
     def link_now(self) -> str:
@@ -224,11 +227,11 @@ class MemberState(RouteSweepOutputs, MemberInputs):
 
         Raises ``ValueError`` for a value JSON cannot hold (an infinite number typed).
         """
-        return self._link_text(self.axial_force)
+        return self._link_text(self.axial_force, self.action_scale)
 
-    def _link_text(self, axial_force) -> str:
+    def _link_text(self, axial_force, scale=None) -> str:
         return json.dumps(
-            self.case_mapping(axial_force=axial_force),
+            self.case_mapping(axial_force=axial_force, action_scale=scale),
             separators=(",", ":"),
             ensure_ascii=False,
             allow_nan=False,
@@ -237,7 +240,7 @@ class MemberState(RouteSweepOutputs, MemberInputs):
 
     def _write_link(self) -> None:
         try:
-            text = self._link_text(self._settled_axial_force)
+            text = self._link_text(self._settled_axial_force, self.settled_scale)
         except (ValueError, TypeError):
             # A refused value (1e400 typed is infinite): the engine's message names it next to the input; the
             # link keeps the last case it could hold (issue 11: this logged a traceback with the whole case).
@@ -289,6 +292,8 @@ class MemberState(RouteSweepOutputs, MemberInputs):
     def _inputs_changed(self, *events) -> None:
         names = {event.name for event in events}
         only_axial = names <= {"axial_force"}
+        if self.actions and only_axial and not self._scale_from_force():
+            return
         self._refresh(full=not only_axial)
         if not only_axial:
             self._write_link()
@@ -307,7 +312,7 @@ class MemberState(RouteSweepOutputs, MemberInputs):
 
         self._refresh_id += 1
         try:
-            if full or self._base_case is None:
+            if full or self._base_case is None or self.actions:
                 case = self.to_case()
             else:
                 case = dataclasses.replace(self._base_case, axial_force=self.axial_force)
@@ -321,6 +326,8 @@ class MemberState(RouteSweepOutputs, MemberInputs):
             self._failed_at = self._refresh_id
             self._fail(_engine_failure(error))
             return
+        if self.actions:
+            self._remember_scale(case)
         if self._runner is None or self._solve_first:
             self._solve_first = False
             self._solved(case, full, *solve_outcome(case, self.stations))
@@ -345,6 +352,9 @@ class MemberState(RouteSweepOutputs, MemberInputs):
             return
         self._base_case = case
         outputs: dict[str, Any] = {"result": result, "errors": {}}
+        if getattr(result, "actions", None) is not None:
+            self.result_scale = self._scale_of(case)
+            case = result.case  # the charts and the routes: the governing combination as a plain case
         if full:
             key = case.without_axial_force()
             if key != self._base_key:
@@ -354,6 +364,8 @@ class MemberState(RouteSweepOutputs, MemberInputs):
                 else:
                     outputs.update(sweep=None, approximation=None, chart_note="computing the chart …")
                     self._runner.chart(partial(_chart_job, self, case, key, result.critical_loads))
+        if self.actions:
+            self._mirror_force(result)
         with param.edit_constant(self):
             self.param.update(**outputs)
         if full:
@@ -576,4 +588,5 @@ def values_from_mapping(mapping: Mapping) -> dict:
     values["out_of_plane_length"] = out_of_plane.get("buckling_length")
     values.update(plane_values(mapping))
     values.update(ltb_values(mapping))
+    values.update(actions_values(mapping))
     return values

@@ -14,6 +14,7 @@ from typing import Any
 
 import param
 
+from app.state_actions import ACTION_INPUTS, ActionInputs, actions_mapping
 from app.state_ltb import LTB_INPUTS, LtbInputs, ltb_check_keys
 from app.state_plane import PLANE_INPUTS, PlaneInputs, plane_check_keys, plane_mapping
 
@@ -123,6 +124,7 @@ INPUTS = (
     "out_of_plane_length",
     *PLANE_INPUTS,
     *LTB_INPUTS,
+    *ACTION_INPUTS,
 )
 
 
@@ -161,7 +163,7 @@ def load_magnitude(load: Mapping) -> float | None:
     return None
 
 
-class MemberInputs(LtbInputs, PlaneInputs):
+class MemberInputs(ActionInputs, LtbInputs, PlaneInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
     Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
@@ -495,7 +497,10 @@ class MemberInputs(LtbInputs, PlaneInputs):
         """The inputs as a case-file mapping (schema 1, SI), with `overrides` of top-level keys applied.
 
         This is the one place where the page's inputs become a case; it validates nothing (the engine does).
+        With load cases, ``action_scale`` (an override) is the load factor on them (the inputs' own when left
+        out), and the case's own loads and axial force are written empty and 0.
         """
+        scale = overrides.pop("action_scale", None)
         data: dict[str, Any] = {
             "schema": 1,
             "title": self.title,
@@ -529,6 +534,7 @@ class MemberInputs(LtbInputs, PlaneInputs):
         elif self.out_of_plane_length is not None:
             data["out_of_plane"] = {"buckling_length": self.out_of_plane_length}
         data.update(overrides)
+        data.update(actions_mapping(self, scale))
         return data
 
     def to_case(self):

@@ -32,6 +32,7 @@ from app.page.style import (
 )
 from app.report.routes import plane_axes, plane_name
 from app.state import MemberState
+from app.state_actions import shown_result
 from app.units import units
 
 __all__ = ["DiagramsView"]
@@ -224,12 +225,13 @@ class DiagramsView(pn.viewable.Viewer):
     # ------------------------------------------------------------------ drawing
 
     def _result(self, event) -> None:
-        result = self.state.result
+        result = shown_result(self.state)
         self.draw(full=result is None or result.case.without_axial_force() != self._drawn_case)
 
     def shown(self):
-        """The result drawn: the state's, or its second plane's when that plane is chosen and exists."""
-        result = self.state.result
+        """The result drawn: the state's (the combination shown, with load cases), or its second plane's when
+        that plane is chosen and exists."""
+        result = shown_result(self.state)
         second = getattr(result, "second_plane", None)
         return second if self.plane == "second" and second is not None else result
 
@@ -246,7 +248,7 @@ class DiagramsView(pn.viewable.Viewer):
 
     def draw(self, full: bool) -> None:
         """Push the result into the sources; `full` also redraws what N does not change."""
-        result = self.state.result
+        result = shown_result(self.state)
         if result is None:
             return
         U = units(self.state.units)

@@ -148,10 +148,19 @@ _LOAD_FIELD_WORDS = {
     "type": "type",
 }
 _LOAD_PATH = re.compile(r"^(?:second_plane\.)?loads\[(\d+)\](?:\.(\w+))?$")
+#: A load case's field (issue 17): ``actions[1].axial_force``, ``actions[0].loads[2].x``.
+_ACTION_PATH = re.compile(r"^actions\[(\d+)\](?:\.loads\[(\d+)\])?(?:\.(\w+))?$")
 
 
 def field_words(path: str) -> str:
     """The page's name for a field path of the engine: ``loads[1].x`` is "Load 2, position"."""
+    match = _ACTION_PATH.match(path)
+    if match:
+        words = f"Load case {int(match.group(1)) + 1}"
+        if match.group(2) is not None:
+            words += f", load {int(match.group(2)) + 1}"
+        key = match.group(3)
+        return words if key is None else f"{words}, {_LOAD_FIELD_WORDS.get(key, key.replace('_', ' '))}"
     match = _LOAD_PATH.match(path)
     if match:
         plane = "Second plane, load" if path.startswith("second_plane.") else "Load"

@@ -112,8 +112,10 @@ class FilesView(pn.viewable.Viewer):
         )
 
     def json(self) -> io.StringIO:
-        """The case on screen, as a case file."""
-        return io.StringIO(case_json(self.state.result.case))
+        """The case on screen, as a case file (with its load cases, when it has them)."""
+        result = self.state.result
+        actions = getattr(result, "actions", None)  # result.case is then one combination's plain case
+        return io.StringIO(case_json(result.case if actions is None else actions.case))
 
     def refused(self) -> str:
         """The page's name of the refused input, or '' when every input is accepted."""

@@ -19,6 +19,7 @@ from app.page.fields import ErrorPanes, rounded
 from app.page.style import SECOND, WIDGET_CSS, esc, html_pane
 from app.page.words import ratio_text
 from app.state import MemberState
+from app.state_actions import shown_result
 from app.units import units
 from engine.cautions import NEAR_CRITICAL_RATIO
 
@@ -75,7 +76,7 @@ class ForceControl(pn.viewable.Viewer):
             sizing_mode="stretch_width",
             margin=(4, 0, 0, 0),
         )
-        state.param.watch(lambda *_: self.show(), ["result", "units"])
+        state.param.watch(lambda *_: self.show(), ["result", "units", "combination_choice"])
         self.show()
 
     def __panel__(self):
@@ -148,8 +149,8 @@ class ForceControl(pn.viewable.Viewer):
             self.entry.value = shown
 
     def show(self) -> None:
-        """Show the result's force, N/Pcr1, α_cr and status."""
-        result = self.state.result
+        """Show the result's force (the combination shown, with load cases), N/Pcr1, α_cr and status."""
+        result = shown_result(self.state)
         U = units(self.state.units)
         self.slider.label = f"Axial force N [{U.label('force')}]"
         self.entry.label = f"N [{U.label('force')}]"

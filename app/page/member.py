@@ -14,7 +14,9 @@ import math
 import panel as pn
 import param
 
+from app.page.actions import CombinationBar, GoverningView, LoadCasesView
 from app.page.amplification import AmplificationView
+from app.page.combination_views import EnvelopeBand, SuperpositionView
 from app.page.diagrams import DiagramsView
 from app.page.fields import ErrorPanes, page_message
 from app.page.files import FilesView
@@ -59,6 +61,11 @@ class MemberPage(pn.viewable.Viewer):
         self.variants = VariantsView(state)
         self.force = ForceControl(state, self.errors, beside=self.variants.keep_button)
         self.diagrams = DiagramsView(state)
+        # Load cases (issue 17): the envelope band, the picker above the diagrams, what governs, the tab.
+        self.band = EnvelopeBand(state, self.diagrams)
+        self.combination_bar = CombinationBar(state)
+        self.governing = GoverningView(state)
+        self.load_cases = LoadCasesView(state)
         # The amplification chart and the modes are built when first shown (or first asked for): about a
         # sixth of the page's build at start-up, for tabs that most sessions open later or never.
         self._later = {
@@ -66,6 +73,7 @@ class MemberPage(pn.viewable.Viewer):
             2: lambda: ModesView(state, self.diagrams.x_range),
             4: lambda: RoutesChart(state),
             5: lambda: LtbView(state),
+            6: lambda: SuperpositionView(state),
         }
         self._holders = {index: pn.Column(sizing_mode="stretch_both", margin=0) for index in self._later}
         self._built: dict[int, pn.viewable.Viewer] = {}
@@ -213,6 +221,7 @@ class MemberPage(pn.viewable.Viewer):
             ("Variants", self.variants),
             ("Routes", self._holders[4]),
             ("LTB", self._holders[5]),
+            ("Superposition", self._holders[6]),
             dynamic=True,  # only the shown tab is built and sent: the first page draws sooner
             sizing_mode="stretch_both",
             margin=0,
@@ -221,6 +230,7 @@ class MemberPage(pn.viewable.Viewer):
         self.centre_tabs.param.watch(lambda event: self._view(event.new), "active")
         centre = pn.Column(
             self.force,
+            self.combination_bar,
             self.stale,
             self.files.blocked,
             self.general_error,
@@ -231,6 +241,7 @@ class MemberPage(pn.viewable.Viewer):
             styles={"background": "#ffffff"},
         )
         right = pn.Column(
+            self.governing,
             self.routes,
             self.values,
             self.cautions,
@@ -240,6 +251,12 @@ class MemberPage(pn.viewable.Viewer):
             styles={"background": "#ffffff"},
         )
         self.inputs.member_tab.insert(0, self.files.case_file)
+        # The load cases sit at the top of the Loads tab (a sixth tab's title does not fit the 318 px strip);
+        # with load cases the case's own loads are not used, and their table is hidden.
+        planes = self.inputs.planes.panel
+        self.load_cases.others = list(planes.objects)
+        planes.insert(0, self.load_cases)
+        self.load_cases.sync()
         body = pn.Row(self.inputs, centre, right, sizing_mode="stretch_both", margin=(4, 0, 0, 0))
         return pn.Column(
             header,

@@ -1,0 +1,130 @@
+"""The page's views of load cases (issue 17), without a browser: the picker's options, the governing
+combination per check, the envelope band, the superposition tab, the saved case and bad input named.
+
+Every number compared is the engine's own (the page does no mechanics)."""
+
+import json
+
+import numpy as np
+import pytest
+
+from app.page.actions import choice_options, demo_with_actions
+from app.page.combination_views import superposition_of
+from app.page.member import MemberPage
+
+
+@pytest.fixture
+def page():
+    made = MemberPage()
+    made.model.load_mapping(demo_with_actions())
+    assert made.model.errors == {}
+    return made
+
+
+def test_the_picker_offers_governing_envelope_and_every_combination(page):
+    result = page.model.result
+    options = choice_options(result)
+    values = list(options.values())
+    assert values[:2] == ["", "envelope"]
+    assert values[2:] == [item.name for item in result.actions.combinations]
+    assert f"governing ({result.actions.headline})" in options
+    assert page.combination_bar.panel.visible
+    assert choice_options(MemberPage().model.result) == {}  # a plain case: no picker
+
+
+def test_the_right_column_names_the_governing_combination_of_each_check(page):
+    text = page.governing.pane.object
+    actions = page.model.result.actions
+    assert "strength and stability (headline)" in text
+    assert f"<b>{actions.governing_for('strength').combination}</b>" in text
+    assert f"<b>{actions.governing_for('deflection').combination}</b>" in text
+    assert "deflection (service)" in text
+
+
+def test_envelope_fills_the_band_with_the_engines_envelope(page):
+    page.model.show_combination("envelope")
+    band = page.band.sources["M"].data
+    envelope = page.model.result.actions.ultimate
+    assert np.allclose(band["hi"], envelope.moment_max / 1e3)  # kN·m on an SI page
+    assert np.allclose(band["lo"], envelope.moment_min / 1e3)
+    page.model.show_combination("")
+    assert len(page.band.sources["M"].data["x"]) == 0
+
+
+def test_choosing_a_combination_draws_it_and_moves_the_slider(page):
+    page.combination_bar.picker.value = "S1"
+    item = page.model.result.actions.of("S1")
+    assert page.stations.tags == [float(item.result.axial_force)]
+    assert page.model.axial_force == float(item.result.axial_force)
+    assert "combination S1" in page.combination_bar.sentence.object
+
+
+def test_superposition_of_the_largest_moment_combination(page):
+    """With 'governing' chosen the comparison is the combination of largest |M| (as the command line)."""
+    comparison = superposition_of(page.model)
+    assert comparison.combination == page.model.result.actions.governing_for("moment").combination
+    view = page._view(5)
+    assert f"{100 * comparison.error:.1f} %" in view.text.object
+    assert len(view.source.data["x"]) == len(comparison.x)
+
+
+def test_the_saved_case_keeps_the_load_cases(page):
+    saved = json.loads(page.files.json().getvalue())
+    assert [action["name"] for action in saved["actions"]] == ["G", "W"]
+    assert saved["combinations"]["rule"] == "en1990-6.10"
+
+
+def test_a_bad_load_case_value_is_named_beside_it_and_the_result_kept(page):
+    before = page.model.result
+    block = page.load_cases.blocks[1]
+    block.fields[0].widget.value = None  # q of W emptied
+    assert page.model.result is before
+    shown = page.load_cases.block_errors.shown()
+    assert shown and "Load case 2, load 1" in shown[0]
+    assert "actions[1].loads[0].q" in page.model.errors
+    assert page.stale.visible
+
+
+def test_load_cases_from_the_own_loads_and_back(page):
+    """+ Add load case on a plain case turns its loads and N into load case G; removing it restores them."""
+    plain = MemberPage()
+    state = plain.model
+    own_loads, own_force = list(state.loads), state.axial_force
+    plain.load_cases.add.clicks += 1
+    assert state.actions[0]["loads"] == own_loads and state.actions[0]["axial_force"] == own_force
+    assert state.errors == {} and state.result.actions is not None
+    assert all(not other.visible for other in plain.load_cases.others)
+    plain.load_cases.blocks[0].remove.clicks += 1
+    assert state.actions == [] and state.result.actions is None
+    assert all(other.visible for other in plain.load_cases.others)
+
+
+def test_load_case_paths_are_worded_on_the_page():
+    from app.page.fields import field_words, page_message
+
+    assert field_words("actions[1].loads[0].x") == "Load case 2, load 1, position"
+    assert field_words("actions[0].axial_force") == "Load case 1, axial force"
+    assert page_message("actions[0].loads[0].x: 7.5 m lies outside the member (0 to 6 m)") == (
+        "Load case 1, load 1, position: 7.5 m lies outside the member (0 to 6 m)"
+    )
+
+
+def test_the_pages_exports_name_the_governing_combination(page):
+    """The CSV and the calc sheet from the page carry the combination shown and the governing rows, as the
+    command line's (the one wording: app.report.combinations)."""
+    text = page.files.csv().getvalue()
+    actions = page.model.result.actions
+    assert "combination shown" in text and actions.headline in text
+    assert (
+        f"governing: deflection (service),{actions.governing_for('deflection').combination}"
+        in text.replace('"', "")
+    )
+
+
+def test_us_units_show_load_cases_in_kip(page):
+    page.model.units = "us"
+    block = page.load_cases.blocks[0]
+    assert block.axial.widget.label == "N [kip]"
+    # 1 kip = 4448.2216152605 N (1 lbf = 4.4482216152605 N exactly, NIST SP 811 Appendix B)
+    assert block.axial.widget.value == pytest.approx(240e3 / 4448.2216152605, rel=1e-5)
+    assert "kN" not in page.governing.pane.object
