@@ -19,7 +19,8 @@ from app.safe_text import terminal
 #: Every summary prints the engine's own (:func:`app.report.general_caution`).
 CAUTION = (
     "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-    "lateral-torsional buckling, torsion, non-symmetric sections, web shear buckling (EN 1993-1-5), "
+    "torsion, non-symmetric sections, lateral-torsional buckling where a caution says so, web shear "
+    "buckling (EN 1993-1-5), "
     "class 4 sections, connections and load combinations are not checked. Check the results "
     "against your local codes and have them reviewed by a licensed engineer."
 )

@@ -22,9 +22,9 @@ REPO_ROOT = Path(__file__).resolve().parents[2]
 # caution.
 CAUTION = (
     "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-    "lateral-torsional buckling, torsion, non-symmetric sections, web shear buckling (EN 1993-1-5), "
-    "class 4 sections, connections and load combinations are not checked. Check the results "
-    "against your local codes and have them reviewed by a licensed engineer."
+    "torsion, non-symmetric sections, lateral-torsional buckling where a caution says so, web shear "
+    "buckling (EN 1993-1-5), class 4 sections, connections and load combinations are not checked. "
+    "Check the results against your local codes and have them reviewed by a licensed engineer."
 )
 
 PCR1_LINE = re.compile(r"^\s*Pcr1 = ([0-9.eE+-]+) kN$", re.MULTILINE)

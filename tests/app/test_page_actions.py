@@ -63,7 +63,7 @@ def test_superposition_of_the_largest_moment_combination(page):
     """With 'governing' chosen the comparison is the combination of largest |M| (as the command line)."""
     comparison = superposition_of(page.model)
     assert comparison.combination == page.model.result.actions.governing_for("moment").combination
-    view = page._view(5)
+    view = page._view(6)
     assert f"{100 * comparison.error:.1f} %" in view.text.object
     assert len(view.source.data["x"]) == len(comparison.x)
 
