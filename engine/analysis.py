@@ -512,5 +512,12 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     )
     if r1.section is None or r1.material is None:
         return result
-    result = member_routes.attach(result, bow_free=None, out_of_plane=None, cache=prep1.design)  # issue 14
-    return dataclasses.replace(result, cautions=with_route_cautions(result.cautions, result.routes))
+    # The routes (issue 14) and their cautions in one copy of the result (member_routes.attach, then the
+    # cautions, would make two).
+    routes = member_routes.evaluate(result, bow_free_moment=None, out_of_plane=None, cache=prep1.design)
+    return dataclasses.replace(
+        result,
+        routes=routes,
+        utilization=member_routes.headline(routes)[0],
+        cautions=with_route_cautions(result.cautions, routes),
+    )

@@ -168,7 +168,8 @@ def check_biaxial(
     beyond_critical: bool = False,
     service=None,
     axis: str = "major",
-) -> MemberCheck:
+    axial_bending_only: bool = False,
+) -> MemberCheck | np.ndarray:
     """The two-plane cross-section check at every combined station.
 
     Parameters
@@ -197,6 +198,9 @@ def check_biaxial(
     axis : str
         The first plane's axis: ``resistances["M_Rd"]`` and ``["V_Rd"]`` are about it (``M_Rd_y``,
         ``M_Rd_z``, ``V_Rd_z``, ``V_Rd_y`` name both).
+    axial_bending_only : bool
+        Return only what becomes ``axial_bending`` of the check (the N–M_y–M_z utilisation at each
+        station, with the eq. (5.9) linear check where it applies), for the search between stations.
 
     Returns
     -------
@@ -250,6 +254,8 @@ def check_biaxial(
             linear = N * g1 / (section_y.A * fy) + My * g1 / (W_y * fy) + Mz * g1 / (W_z * fy)
             ab_section = ab
             ab = np.maximum(ab, linear)
+    if axial_bending_only:
+        return ab
     if V_Rd_z is None:
         notes.append("Shear is not checked for timber (no shear strength is given for it).")
     sh = np.maximum(sh_z, sh_y)
@@ -411,7 +417,9 @@ def pair_check(case, P, planes):
 
     def measure(columns):
         x, m_y, m_z, v_z, v_y = columns
-        return check_biaxial(x=x, moment_y=m_y, moment_z=m_z, shear_z=v_z, shear_y=v_y, **fixed).axial_bending
+        return check_biaxial(
+            x=x, moment_y=m_y, moment_z=m_z, shear_z=v_z, shear_y=v_y, axial_bending_only=True, **fixed
+        )
 
     columns = arranged(x1[i1], m1[i1], v1[i1], m2[i2], v2[i2])
     extra = _between(columns[0], measure(columns), at, measure, tol)

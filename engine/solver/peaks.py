@@ -106,10 +106,18 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
         same = (iP[1:] == iP[:-1]) & (seg[1:] == seg[:-1])
     mag = np.abs(f)
     zero = mag <= 1e-13 * mag.max(axis=1, keepdims=True)
-    left_side = np.where(zero, df, f)  # just right of a station
-    right_side = np.where(zero, -df, f)  # just left of it
+    if zero.any():
+        left_side = np.where(zero, df, f)  # just right of a station
+        right_side = np.where(zero, -df, f)  # just left of it
+    else:  # no value is zero: both sides are the values themselves
+        left_side = right_side = f
     sign_change = (left_side[:, :-1] * right_side[:, 1:] < 0) & same[None, :]
     fid, k = np.nonzero(sign_change)
+    if k.size == 0 and single and batch.P.size == 1:  # no bracket: only the points ``also`` to evaluate
+        none = xi[k]
+        fast = series.refine_by_series(batch, pts, st_at_stations, fid, k, none, none, none, also)
+        if fast is not None:
+            return fast
     # One gather for everything the start needs, at the left (k) and right (k + 1) station of each bracket.
     both = np.concatenate([k, k + 1])
     fid2 = np.concatenate([fid, fid])

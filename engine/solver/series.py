@@ -163,6 +163,10 @@ def refine_by_series(batch, pts, st, fid, k, lo, hi, x0, also):
         return None
     kk = np.concatenate([k, ka]) if ka.size else k
     n = kk.size
+    if n == 0:  # no zero between the stations and nothing else asked for: what the series would return
+        rows = np.empty((len(STATE_FIELDS), 0))
+        out = State(**dict(zip(STATE_FIELDS, rows, strict=True)), rows=rows)
+        return np.zeros(0, dtype=int), pts.seg[k], np.empty(0), out
     if st.columns is not None:
         # The state's rows and the stations' columns (StationTable) at the stations: v and w0 … w0''' by two
         # small products.
