@@ -315,7 +315,7 @@ def plane_at(raw, prep, other_x, tol):
     """A plane's M and V at its own stations and at the other plane's that are not among them, in order
     along the member (a node's two sides stay left first): ``(x, M, V)``, each plane's exact solution."""
     values, x = raw[2], raw[3]
-    pos = np.clip(np.searchsorted(x, other_x), 1, x.size - 1)
+    pos = np.minimum(np.maximum(np.searchsorted(x, other_x), 1), x.size - 1)
     near = np.minimum(np.abs(other_x - x[pos - 1]), np.abs(x[pos] - other_x))
     extra = np.unique(other_x[near > tol])
     if extra.size:
@@ -369,18 +369,16 @@ def _between(x, values, at, measure, tol):
     near = np.flatnonzero(values >= top * (1.0 - 1e-4))
     near = near[np.argsort(-values[near], kind="stable")][:4]
     t = np.arange(1, _REFINE + 1) / (_REFINE + 1)
-    points = []
-    for k in np.unique(position[near]):
-        for low, high in ((k - 1, k), (k, k + 1)):
-            if (
-                low >= 0
-                and high < unique_x.size
-                and unique_x[high] - unique_x[low] > 4.0 * tol * (_REFINE + 1)
-            ):
-                points.append(unique_x[low] + (unique_x[high] - unique_x[low]) * t)
-    if not points:
+    ks = np.unique(position[near])
+    low = np.concatenate([ks - 1, ks])  # the intervals on either side of each station
+    low = low[(low >= 0) & (low + 1 < unique_x.size)]
+    start = unique_x[low]
+    gap = unique_x[low + 1] - start
+    wide = gap > 4.0 * tol * (_REFINE + 1)
+    if not wide.any():
         return []
-    xs = np.unique(np.concatenate(points))  # two stations next to each other share an interval
+    # Two stations next to each other share an interval: its points once.
+    xs = np.unique((start[wide][:, None] + gap[wide][:, None] * t).ravel())
     return [at(xs)]
 
 

@@ -119,8 +119,8 @@ def nearest_station(pts, seg, xi):
     key_all = pts.seg + pts.xi / span  # segment, then ξ/(2 h_max) in [0, 0.5]
     key = seg + xi / span
     pos = np.searchsorted(key_all, key)
-    lo_i = np.clip(pos - 1, 0, pts.size - 1)
-    hi_i = np.clip(pos, 0, pts.size - 1)
+    lo_i = np.minimum(np.maximum(pos - 1, 0), pts.size - 1)
+    hi_i = np.minimum(pos, pts.size - 1)  # pos >= 0
     d_lo = np.where(pts.seg[lo_i] == seg, np.abs(xi - pts.xi[lo_i]), np.inf)
     d_hi = np.where(pts.seg[hi_i] == seg, np.abs(pts.xi[hi_i] - xi), np.inf)
     k = np.where(d_lo <= d_hi, lo_i, hi_i)
