@@ -93,9 +93,14 @@ class PreIssue:
             cwd=folder,
             env=env,
         )
-        self.process.stdin.write(json.dumps({"case": case, "forces": [float(f) for f in forces]}) + "\n")
-        self.process.stdin.flush()
-        where = json.loads(self.process.stdout.readline())["engine"]
+        try:
+            self.process.stdin.write(json.dumps({"case": case, "forces": [float(f) for f in forces]}) + "\n")
+            self.process.stdin.flush()
+            where = json.loads(self.process.stdout.readline())["engine"]
+        except (OSError, ValueError, KeyError):
+            self.process.kill()
+            self.process.wait(timeout=60)
+            raise
         if Path(where).resolve() != (Path(folder) / "engine").resolve():
             self.close()
             raise RuntimeError(f"the subprocess imported the engine from {where}, not the exported commit")
@@ -129,7 +134,7 @@ def main(pre_issue: bool = True) -> None:
         if pre_issue:
             try:
                 old = PreIssue(folder, one_dict, forces)
-            except (OSError, subprocess.CalledProcessError, RuntimeError, ValueError) as error:
+            except (OSError, subprocess.CalledProcessError, RuntimeError, ValueError, KeyError) as error:
                 print(f"pre-issue engine ({PRE_ISSUE_COMMIT}) not timed: {error}")
         try:
             _rounds(one, alone, two, forces, old)
