@@ -168,7 +168,8 @@ def check_biaxial(
     beyond_critical: bool = False,
     service=None,
     axis: str = "major",
-) -> MemberCheck:
+    axial_bending_only: bool = False,
+) -> MemberCheck | np.ndarray:
     """The two-plane cross-section check at every combined station.
 
     Parameters
@@ -197,6 +198,9 @@ def check_biaxial(
     axis : str
         The first plane's axis: ``resistances["M_Rd"]`` and ``["V_Rd"]`` are about it (``M_Rd_y``,
         ``M_Rd_z``, ``V_Rd_z``, ``V_Rd_y`` name both).
+    axial_bending_only : bool
+        Return only what becomes ``axial_bending`` of the check (the N–M_y–M_z utilisation at each
+        station, with the eq. (5.9) linear check where it applies), for the search between stations.
 
     Returns
     -------
@@ -250,6 +254,8 @@ def check_biaxial(
             linear = N * g1 / (section_y.A * fy) + My * g1 / (W_y * fy) + Mz * g1 / (W_z * fy)
             ab_section = ab
             ab = np.maximum(ab, linear)
+    if axial_bending_only:
+        return ab
     if V_Rd_z is None:
         notes.append("Shear is not checked for timber (no shear strength is given for it).")
     sh = np.maximum(sh_z, sh_y)
@@ -309,7 +315,7 @@ def plane_at(raw, prep, other_x, tol):
     """A plane's M and V at its own stations and at the other plane's that are not among them, in order
     along the member (a node's two sides stay left first): ``(x, M, V)``, each plane's exact solution."""
     values, x = raw[2], raw[3]
-    pos = np.clip(np.searchsorted(x, other_x), 1, x.size - 1)
+    pos = np.minimum(np.maximum(np.searchsorted(x, other_x), 1), x.size - 1)
     near = np.minimum(np.abs(other_x - x[pos - 1]), np.abs(x[pos] - other_x))
     extra = np.unique(other_x[near > tol])
     if extra.size:
@@ -363,18 +369,16 @@ def _between(x, values, at, measure, tol):
     near = np.flatnonzero(values >= top * (1.0 - 1e-4))
     near = near[np.argsort(-values[near], kind="stable")][:4]
     t = np.arange(1, _REFINE + 1) / (_REFINE + 1)
-    points = []
-    for k in np.unique(position[near]):
-        for low, high in ((k - 1, k), (k, k + 1)):
-            if (
-                low >= 0
-                and high < unique_x.size
-                and unique_x[high] - unique_x[low] > 4.0 * tol * (_REFINE + 1)
-            ):
-                points.append(unique_x[low] + (unique_x[high] - unique_x[low]) * t)
-    if not points:
+    ks = np.unique(position[near])
+    low = np.concatenate([ks - 1, ks])  # the intervals on either side of each station
+    low = low[(low >= 0) & (low + 1 < unique_x.size)]
+    start = unique_x[low]
+    gap = unique_x[low + 1] - start
+    wide = gap > 4.0 * tol * (_REFINE + 1)
+    if not wide.any():
         return []
-    xs = np.unique(np.concatenate(points))  # two stations next to each other share an interval
+    # Two stations next to each other share an interval: its points once.
+    xs = np.unique((start[wide][:, None] + gap[wide][:, None] * t).ravel())
     return [at(xs)]
 
 
@@ -411,7 +415,9 @@ def pair_check(case, P, planes):
 
     def measure(columns):
         x, m_y, m_z, v_z, v_y = columns
-        return check_biaxial(x=x, moment_y=m_y, moment_z=m_z, shear_z=v_z, shear_y=v_y, **fixed).axial_bending
+        return check_biaxial(
+            x=x, moment_y=m_y, moment_z=m_z, shear_z=v_z, shear_y=v_y, axial_bending_only=True, **fixed
+        )
 
     columns = arranged(x1[i1], m1[i1], v1[i1], m2[i2], v2[i2])
     extra = _between(columns[0], measure(columns), at, measure, tol)

@@ -53,6 +53,8 @@ class Prepared:
         self._first: dict = {}
         self._reference: dict = {}
         self._variants: dict = {}
+        #: whether the stations of other prepared members are this one's (engine.raw.reversed_raw), kept
+        self.same_stations: dict = {}
 
     @classmethod
     def of(cls, case) -> Prepared:

@@ -108,10 +108,18 @@ def reversed_raw(prep, n: int, P: float, forward, free_raw, sources):
         return None
     kappa = math.sqrt(-P / prep.model.EI) if P < 0 else 0.0
     seg, xi, _, pts = prep.stations(n, kappa)
-    for other in sources:  # the same stations (the bow adds none), so that the states combine pointwise
-        o_seg, o_xi, _, _ = other.stations(n, kappa)
-        if not (np.array_equal(o_seg, seg) and np.array_equal(o_xi, xi)):
-            return None
+    # The same stations (the bow adds none), so that the states combine pointwise. The stations are kept per
+    # prepared member and never change, so the verdict is kept with them.
+    key = (n, kappa, *map(id, sources))
+    same = prep.same_stations.get(key)
+    if same is None or same[0] is not sources[0] or same[1] is not sources[1]:
+        verdict = True
+        for other in sources:
+            o_seg, o_xi, _, _ = other.stations(n, kappa)
+            verdict = verdict and np.array_equal(o_seg, seg) and np.array_equal(o_xi, xi)
+        same = prep.same_stations[key] = (sources[0], sources[1], verdict)
+    if not same[2]:
+        return None
     st_f, st_0 = forward[7], free_raw[7]
     batch = Batch.combined(prep.model, ((-1.0, forward[6]), (2.0, free_raw[6])))
     if batch is None:

@@ -197,7 +197,7 @@ class Model:
 
     def segment_of(self, x: np.ndarray) -> np.ndarray:
         """The segment holding each x (a node belongs to the segment on its right, L to the last)."""
-        return np.clip(np.searchsorted(self.nodes, x, side="right") - 1, 0, self.nseg - 1)
+        return np.minimum(np.maximum(np.searchsorted(self.nodes, x, side="right") - 1, 0), self.nseg - 1)
 
     # ----------------------------------------------------------------------------------------------
     def columns(self, P, pts):

@@ -106,34 +106,44 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
         same = (iP[1:] == iP[:-1]) & (seg[1:] == seg[:-1])
     mag = np.abs(f)
     zero = mag <= 1e-13 * mag.max(axis=1, keepdims=True)
-    left_side = np.where(zero, df, f)  # just right of a station
-    right_side = np.where(zero, -df, f)  # just left of it
+    any_zero = bool(zero.any())
+    if any_zero:
+        left_side = np.where(zero, df, f)  # just right of a station
+        right_side = np.where(zero, -df, f)  # just left of it
+    else:  # no value is zero: both sides are the values themselves
+        left_side = right_side = f
     sign_change = (left_side[:, :-1] * right_side[:, 1:] < 0) & same[None, :]
     fid, k = np.nonzero(sign_change)
-    # One gather for everything the start needs, at the left (k) and right (k + 1) station of each bracket.
-    both = np.concatenate([k, k + 1])
-    fid2 = np.concatenate([fid, fid])
+    if k.size == 0 and single and batch.P.size == 1:  # no bracket: only the points ``also`` to evaluate
+        none = xi[k]
+        fast = series.refine_by_series(batch, pts, st_at_stations, fid, k, none, none, none, also)
+        if fast is not None:
+            return fast
     flo, fhi = left_side[fid, k], right_side[fid, k + 1]
-    g_f, g_df, g_zero = f[fid2, both], df[fid2, both], zero[fid2, both]
     n_roots = k.size
     lo, hi = xi[k], xi[k + 1]
-    bi, bs = iP[k], seg[k]
     # Start from the secant; beside a zero station, from the parabola through that zero with its slope and the
     # other end's value. Either start is within O(Δx²) of the root, so one Newton step leaves O(Δx⁴).
     width = hi - lo
     x0 = lo - flo * width / (fhi - flo)  # the secant; flo and fhi have opposite signs, so no division by zero
-    if g_zero.any():
-        z_lo, z_hi = g_zero[:n_roots], g_zero[n_roots:]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            d_lo, d_hi = g_df[:n_roots], g_df[n_roots:]
-            from_lo = lo - d_lo / ((g_f[n_roots:] - d_lo * width) / width**2)
-            from_hi = hi - d_hi / ((g_f[:n_roots] + d_hi * width) / width**2)
-        x0 = np.where(z_lo, from_lo, np.where(z_hi, from_hi, x0))
-        x0 = np.where(np.isfinite(x0) & (x0 > lo) & (x0 < hi), x0, 0.5 * (lo + hi))
+    if any_zero:
+        # One gather for what the parabola needs, at the left (k) and right (k + 1) station of each bracket.
+        both = np.concatenate([k, k + 1])
+        fid2 = np.concatenate([fid, fid])
+        g_f, g_df, g_zero = f[fid2, both], df[fid2, both], zero[fid2, both]
+        if g_zero.any():
+            z_lo, z_hi = g_zero[:n_roots], g_zero[n_roots:]
+            with np.errstate(divide="ignore", invalid="ignore"):
+                d_lo, d_hi = g_df[:n_roots], g_df[n_roots:]
+                from_lo = lo - d_lo / ((g_f[n_roots:] - d_lo * width) / width**2)
+                from_hi = hi - d_hi / ((g_f[:n_roots] + d_hi * width) / width**2)
+            x0 = np.where(z_lo, from_lo, np.where(z_hi, from_hi, x0))
+            x0 = np.where(np.isfinite(x0) & (x0 > lo) & (x0 < hi), x0, 0.5 * (lo + hi))
     if single and batch.P.size == 1:
         fast = series.refine_by_series(batch, pts, st_at_stations, fid, k, lo, hi, x0, also)
         if fast is not None:
             return fast
+    bi, bs = iP[k], seg[k]
     if also is not None:
         trial = Points(batch.model, np.concatenate([bs, also[0]]), np.concatenate([x0, also[1]]))
         which = 0

@@ -119,8 +119,8 @@ def nearest_station(pts, seg, xi):
     key_all = pts.seg + pts.xi / span  # segment, then ξ/(2 h_max) in [0, 0.5]
     key = seg + xi / span
     pos = np.searchsorted(key_all, key)
-    lo_i = np.clip(pos - 1, 0, pts.size - 1)
-    hi_i = np.clip(pos, 0, pts.size - 1)
+    lo_i = np.minimum(np.maximum(pos - 1, 0), pts.size - 1)
+    hi_i = np.minimum(pos, pts.size - 1)  # pos >= 0
     d_lo = np.where(pts.seg[lo_i] == seg, np.abs(xi - pts.xi[lo_i]), np.inf)
     d_hi = np.where(pts.seg[hi_i] == seg, np.abs(pts.xi[hi_i] - xi), np.inf)
     k = np.where(d_lo <= d_hi, lo_i, hi_i)
@@ -163,6 +163,10 @@ def refine_by_series(batch, pts, st, fid, k, lo, hi, x0, also):
         return None
     kk = np.concatenate([k, ka]) if ka.size else k
     n = kk.size
+    if n == 0:  # no zero between the stations and nothing else asked for: what the series would return
+        rows = np.empty((len(STATE_FIELDS), 0))
+        out = State(**dict(zip(STATE_FIELDS, rows, strict=True)), rows=rows)
+        return np.zeros(0, dtype=int), pts.seg[k], np.empty(0), out
     if st.columns is not None:
         # The state's rows and the stations' columns (StationTable) at the stations: v and w0 … w0''' by two
         # small products.
