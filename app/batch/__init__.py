@@ -20,6 +20,7 @@ renamed over ``results.csv`` only when complete, so it is never left half-writte
 This module does no mechanics: every number in the results comes from the engine. It converts units only.
 """
 
+from app.batch.cluster import ExecutorError
 from app.batch.columns import (
     COLUMNS,
     PARALLEL_MIN_ROWS,
@@ -39,6 +40,7 @@ __all__ = [
     "PARALLEL_MIN_ROWS",
     "RESULTS_FILE",
     "BatchSummary",
+    "ExecutorError",
     "RowError",
     "TableError",
     "member_case",

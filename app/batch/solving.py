@@ -12,6 +12,7 @@ from collections.abc import Callable, Iterable, Iterator
 from dataclasses import dataclass
 
 from app import outdir
+from app.batch.cluster import CHUNK_ROWS, ExecutorError, dask_address, solved_on_dask
 from app.batch.columns import (
     _RESULT_LAYOUT,
     PARALLEL_MIN_ROWS,
@@ -24,6 +25,7 @@ from app.batch.columns import (
     result_columns,
 )
 from app.batch.rows import _count_rows, _engine_error, _records, member_case
+from app.batch.summary import count_solved, finish
 from app.safe_text import csv_writer
 from app.workers import worker_pool
 
@@ -265,6 +267,8 @@ def run(
     checked_by: str = "",
     error_limit: int = 20,
     on_progress: Callable[[int], None] | None = None,
+    executor: str = "local",
+    chunk_rows: int | None = None,
 ) -> BatchSummary:
     """Solve every member of a table and write ``out_dir/results.csv`` (and the calc sheets).
 
@@ -294,6 +298,11 @@ def run(
         How many row errors the summary lists (all are in the results table).
     on_progress : callable, optional
         Called with the number of rows just written (for tests and other front ends).
+    executor : str
+        ``"local"`` (this machine's processes, `workers` of them) or ``"dask://HOST:PORT"``: the Dask cluster
+        whose scheduler is there (:mod:`app.batch.cluster`; `workers` is then the cluster's).
+    chunk_rows : int, optional
+        Rows per task on a Dask cluster (:data:`app.batch.cluster.CHUNK_ROWS` by default).
 
     Returns
     -------
@@ -303,6 +312,8 @@ def run(
     ------
     TableError
         When the table cannot be read or its header is wrong; nothing is written then.
+    ExecutorError
+        When the executor is not one, cannot be reached, or its workers run other code; nothing is written.
     OSError
         When the output folder cannot be written.
     """
@@ -310,6 +321,12 @@ def run(
 
     if units not in UNIT_SYSTEMS:
         raise ValueError(f"units: {units!r} is not a units system; allowed: {', '.join(UNIT_SYSTEMS)}")
+    address = dask_address(executor)
+    if address is not None and pdf:
+        raise ExecutorError(
+            "--pdf writes the calc sheets where the members are solved, which on a Dask cluster is not this "
+            "machine; run the calc sheets locally (without --executor)"
+        )
     total = _count_rows(table)  # also checks the header before anything is written
     if os.path.exists(out_dir) and not os.path.isdir(out_dir):
         raise TableError(f"--out: {out_dir!r} exists and is not a folder")
@@ -331,6 +348,8 @@ def run(
                 checked_by=checked_by,
                 error_limit=error_limit,
                 on_progress=on_progress,
+                address=address,
+                chunk_rows=chunk_rows,
             )
         except BaseException:
             outdir.remove_temporaries(out_dir)  # what stopped workers may have left
@@ -352,6 +371,8 @@ def _run_locked(
     checked_by,
     error_limit,
     on_progress,
+    address=None,
+    chunk_rows=None,
 ) -> BatchSummary:
     """:func:`run` once the folder is locked."""
     manifest = outdir.Manifest(out_dir)
@@ -370,6 +391,9 @@ def _run_locked(
     )
     target = os.path.join(out_dir, RESULTS_FILE)
     summary = BatchSummary(results=target, workers=used)
+    if address is not None:
+        size, summary.executor, summary.workers = chunk_rows or CHUNK_ROWS, f"dask at {address}", 0
+    highest: list = []  # a heap of the highest utilisations (app.batch.summary)
 
     bar = None
     if progress is None:
@@ -390,7 +414,12 @@ def _run_locked(
             writer = csv_writer(stream)  # every cell neutralised against formulas (app.safe_text)
             writer.writerow(result_columns(units))
             chunks = _chunks(_checked_ids(_records(table)), size)
-            for results in _solved_in_order(chunks, options, used):
+            solved = (
+                _solved_in_order(chunks, options, used)
+                if address is None
+                else solved_on_dask(address, chunks, _solve_chunk, options, summary.retried)
+            )
+            for results in solved:
                 for record, failing, wrote in results:
                     writer.writerow(record)
                     summary.members += 1
@@ -398,6 +427,7 @@ def _run_locked(
                         summary.solved += 1
                         summary.failing += failing
                         summary.beyond_critical += record[5] in ("unstable", "critical")
+                        count_solved(summary, record, highest)
                         summary.pdfs += wrote
                         if wrote:
                             manifest.add(f"{record[0]}.pdf")
@@ -414,6 +444,7 @@ def _run_locked(
         os.chmod(temporary, _file_mode())
         os.replace(temporary, target)
         summary.stale = manifest.complete()
+        finish(summary, highest)
     except BaseException:
         with contextlib.suppress(OSError):
             os.unlink(temporary)
