@@ -210,26 +210,69 @@ def _chunks(items: Iterable, size: int) -> Iterator[list]:
         yield chunk
 
 
-def _checked_ids(records: Iterable[tuple[int, object]]) -> Iterator[tuple[int, object]]:
+#: Ids kept in memory before the rest go to a temporary database on disk (about 150 bytes each in a dict).
+ID_MEMORY_ROWS = 50_000
+
+
+class _SeenIds:
+    """The ids used so far and their rows: a dict for the first :data:`ID_MEMORY_ROWS`, then a temporary
+    SQLite database on disk (deleted when closed), so that a table of millions of rows keeps memory flat."""
+
+    def __init__(self, memory_rows: int = ID_MEMORY_ROWS) -> None:
+        self._memory: dict[str, int] = {}
+        self._limit = memory_rows
+        self._disk = None
+
+    def first_row(self, identifier: str) -> int | None:
+        row = self._memory.get(identifier)
+        if row is None and self._disk is not None:
+            found = self._disk.execute("SELECT row FROM ids WHERE id = ?", (identifier,)).fetchone()
+            row = None if found is None else found[0]
+        return row
+
+    def add(self, identifier: str, row: int) -> None:
+        if len(self._memory) < self._limit:
+            self._memory[identifier] = row
+            return
+        if self._disk is None:
+            import sqlite3
+
+            self._disk = sqlite3.connect("")  # "": a private temporary database on disk
+            self._disk.execute("PRAGMA journal_mode = OFF")
+            self._disk.execute("PRAGMA synchronous = OFF")
+            self._disk.execute("CREATE TABLE ids (id TEXT PRIMARY KEY, row INTEGER) WITHOUT ROWID")
+        self._disk.execute("INSERT INTO ids VALUES (?, ?)", (identifier, row))
+
+    def close(self) -> None:
+        if self._disk is not None:
+            self._disk.close()
+            self._disk = None
+
+
+def _checked_ids(records: Iterable[tuple[int, object]], memory_rows: int = ID_MEMORY_ROWS):
     """Turn the second and later uses of an id into row errors (ids name the calc sheets)."""
-    seen: dict[str, int] = {}  # a few dozen bytes per row: the only thing kept for the whole table
-    for row, cells in records:
-        if isinstance(cells, dict):
-            identifier = cells.get("id", "")
-            if identifier and identifier in seen:
-                yield (
-                    row,
-                    RowError(
-                        "id",
-                        f"id: {identifier!r} is already used on row {seen[identifier]}; "
-                        f"ids must be unique (they name the calc sheets)",
-                        identifier,
-                    ),
-                )
-                continue
-            if identifier:
-                seen[identifier] = row
-        yield row, cells
+    seen = _SeenIds(memory_rows)  # the only thing kept for the whole table, bounded in memory
+    try:
+        for row, cells in records:
+            if isinstance(cells, dict):
+                identifier = cells.get("id", "")
+                first = seen.first_row(identifier) if identifier else None
+                if first is not None:
+                    yield (
+                        row,
+                        RowError(
+                            "id",
+                            f"id: {identifier!r} is already used on row {first}; "
+                            f"ids must be unique (they name the calc sheets)",
+                            identifier,
+                        ),
+                    )
+                    continue
+                if identifier:
+                    seen.add(identifier, row)
+            yield row, cells
+    finally:
+        seen.close()
 
 
 def _solved_in_order(chunks: Iterator[list], options: _Options, workers: int) -> Iterator[list]:
