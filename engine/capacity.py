@@ -165,6 +165,10 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         top = pcr1 / reference
 
     seen: dict[float, float] = {}  # Brent's method starts from the two grid points already solved
+    if mode == "axial":
+        # At no axial force the strength solve is the probe: neither the reversed bow nor the bow-free
+        # solution is made at P = 0 (engine.analysis._solve_plane), so the details change nothing there.
+        seen[0.0] = math.inf if probe.utilization is None else probe.utilization
 
     def utilisation(t: float) -> float:
         # The headline (the largest enabled route); both directions of an automatic bow, the worse kept; no
