@@ -110,3 +110,12 @@ def test_a_worker_killed_mid_run_loses_no_row_and_is_reported(tmp_path, local_re
     assert summary.retried and all(
         "sent again" in line or "solved them again" in line for line in summary.retried
     )
+
+
+def test_the_command_line_refuses_an_unknown_executor_with_exit_code_two(tmp_path):
+    from tests.app.test_cli import run_cli
+
+    done = run_cli("batch", TABLE, "--out", "out", "--executor", "dask://nowhere", cwd=tmp_path)
+    assert done.returncode == 2
+    assert "--executor dask://nowhere: 'dask://nowhere' is not an executor; allowed: 'local'" in done.stderr
+    assert not (tmp_path / "out").exists()
