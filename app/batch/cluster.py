@@ -102,7 +102,13 @@ def _connect(address: str):
 def _check_versions(client) -> int:
     """Refuse workers on other code; return the number of workers."""
     ours = client_version()
-    theirs = client.run(worker_version)
+    try:
+        theirs = client.run(worker_version)
+    except Exception as error:  # noqa: BLE001 -- e.g. a worker without strutscope cannot load the check
+        raise ExecutorError(
+            f"the workers could not report their strutscope version ({type(error).__name__}: {error}); "
+            "install the same strutscope on the client and every worker"
+        ) from None
     if not theirs:
         raise ExecutorError(f"the Dask scheduler at {client.scheduler.address} has no workers")
     other = {worker: version for worker, version in theirs.items() if version != ours}
