@@ -211,6 +211,9 @@ def main(argv: list[str] | None = None) -> None:
         "--stream-rows", type=int, default=100_000, help="rows of the streaming check (100 000; 0: skip it)"
     )
     parser.add_argument("--no-before", action="store_true", help="skip the run of the code before issue 18")
+    parser.add_argument(
+        "--rounds", type=int, default=5, help="slices of the table, each run by both codes in turn (5)"
+    )
     parser.add_argument("--child", nargs=3, metavar=("TABLE", "OUT", "WORKERS"), help=argparse.SUPPRESS)
     args = parser.parse_args(argv)
     if args.child:
@@ -228,37 +231,16 @@ def main(argv: list[str] | None = None) -> None:
             f"strutscope batch benchmark: {args.members} invented members"
             f"{'' if args.capacity else ', no capacity search'}; {cores} core{'s' if cores != 1 else ''}"
         )
-        one = _run_child(large_table, os.path.join(folder, "one"), 1, args.capacity)
-        speed = one["members"] / one["seconds"]
-        verdict = "meets" if speed >= TARGET_PER_CORE else "misses"
-        print(
-            f"  1 worker, today's code:  {speed:8.1f} members/s  ({one['seconds']:.1f} s; "
-            f"{one['solved']} solved, {one['errors']} invalid rows; "
-            f"target >= {TARGET_PER_CORE:.0f}: {verdict})"
-        )
         before_root = None if args.no_before else _before(folder)
-        if before_root is not None:
-            before = _run_child(large_table, os.path.join(folder, "before"), 1, args.capacity, before_root)
-            was = before["members"] / before["seconds"]
-            same = _agree(
-                os.path.join(folder, "one", "results.csv"), os.path.join(folder, "before", "results.csv")
-            )
-            print(
-                f"  1 worker, before ({BEFORE[:7]}): {was:8.1f} members/s  ({before['seconds']:.1f} s); "
-                f"ratio {speed / was:.2f}x; results equal to 1e-9: {'yes' if same else 'NO'}"
-            )
-        elif not args.no_before:
+        if before_root is None and not args.no_before:
             print(f"  (the code before, commit {BEFORE[:7]}, is not in this checkout's history: no ratio)")
+        one = _paired(folder, large_table, args, before_root)
         every = _run_child(large_table, os.path.join(folder, "every"), cores, args.capacity)
         print(
             f"  {cores} workers:   {every['members'] / every['seconds']:8.1f} members/s  "
             f"({every['seconds']:.1f} s; {every['workers']} processes)"
         )
-        with (
-            open(os.path.join(folder, "one", "results.csv"), "rb") as a,
-            open(os.path.join(folder, "every", "results.csv"), "rb") as b,
-        ):
-            same = a.read() == b.read()
+        same = _by_id(one["slices"]) == _by_id([os.path.join(folder, "every", "results.csv")])
         ratio = one["seconds"] / every["seconds"]
         verdict = "meets" if ratio >= TARGET_RATIO or cores < 2 else "misses"
         print(
@@ -267,6 +249,69 @@ def main(argv: list[str] | None = None) -> None:
         )
         if args.stream_rows > 0:
             _stream_check(folder, args.stream_rows)
+
+
+def _paired(folder: str, table: str, args, before_root: str | None) -> dict:
+    """Today's code on the table in `args.rounds` slices, each run beside the code before (alternating which
+    goes first), since a shared machine's speed drifts within minutes; print both speeds and their ratio."""
+    with open(table, encoding="utf-8", newline="") as stream:
+        rows = list(csv.reader(stream))
+    header, body = rows[0], rows[1:]
+    rounds = max(1, min(args.rounds, len(body)))
+    now = {"members": 0, "solved": 0, "errors": 0, "seconds": 0.0}
+    was_seconds, ratios, equal = 0.0, [], True
+    for r in range(rounds):
+        part = os.path.join(folder, f"slice_{r}.csv")
+        with open(part, "w", encoding="utf-8", newline="") as stream:
+            writer = csv.writer(stream)
+            writer.writerow(header)
+            writer.writerows(body[r * len(body) // rounds : (r + 1) * len(body) // rounds])
+        order = ("now", "before") if r % 2 == 0 else ("before", "now")
+        runs = {}
+        for which in order:
+            if which == "before" and before_root is None:
+                continue
+            root = _ROOT if which == "now" else before_root
+            runs[which] = _run_child(part, os.path.join(folder, f"{which}_{r}"), 1, args.capacity, root)
+        for key in ("members", "solved", "errors", "seconds"):
+            now[key] += runs["now"][key]
+        if "before" in runs:
+            was_seconds += runs["before"]["seconds"]
+            ratios.append(runs["before"]["seconds"] / runs["now"]["seconds"])
+            equal &= _agree(
+                os.path.join(folder, f"now_{r}", "results.csv"),
+                os.path.join(folder, f"before_{r}", "results.csv"),
+            )
+    speed = now["members"] / now["seconds"]
+    verdict = "meets" if speed >= TARGET_PER_CORE else "misses"
+    print(
+        f"  1 worker, today's code:  {speed:8.1f} members/s  ({now['seconds']:.1f} s; "
+        f"{now['solved']} solved, {now['errors']} invalid rows; target >= {TARGET_PER_CORE:.0f} per core: "
+        f"{verdict})"
+    )
+    if ratios:
+        was = now["members"] / was_seconds
+        ratios.sort()
+        print(
+            f"  1 worker, before ({BEFORE[:7]}): {was:8.1f} members/s  ({was_seconds:.1f} s); ratio "
+            f"{was_seconds / now['seconds']:.2f}x (paired slices {ratios[0]:.2f}-{ratios[-1]:.2f}x, median "
+            f"{ratios[len(ratios) // 2]:.2f}x); results equal to 1e-9: {'yes' if equal else 'NO'}"
+        )
+    now["slices"] = [os.path.join(folder, f"now_{r}", "results.csv") for r in range(rounds)]
+    return now
+
+
+def _by_id(paths: list[str]) -> dict:
+    """The results rows of `paths` keyed by id, without the row number (it counts lines of each file)."""
+    found = {}
+    for path in paths:
+        with open(path, encoding="utf-8", newline="") as stream:
+            reader = csv.reader(stream)
+            header = next(reader)
+            at = header.index("row")
+            for row in reader:
+                found[row[0]] = row[:at] + row[at + 1 :]
+    return found
 
 
 def _stream_check(folder: str, rows: int) -> None:
