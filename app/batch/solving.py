@@ -435,7 +435,7 @@ def _run_locked(
     target = os.path.join(out_dir, RESULTS_FILE)
     summary = BatchSummary(results=target, workers=used)
     if address is not None:
-        size, summary.executor, summary.workers = chunk_rows or CHUNK_ROWS, f"dask at {address}", 0
+        size, summary.executor, summary.workers = chunk_rows or CHUNK_ROWS, f"Dask cluster at {address}", 0
     highest: list = []  # a heap of the highest utilisations (app.batch.summary)
 
     bar = None

@@ -48,7 +48,7 @@ def test_cluster_results_are_the_local_results(tmp_path, in_process_cluster, loc
     )
     assert (tmp_path / "results.csv").read_bytes() == local_results
     assert (summary.members, summary.solved, summary.error_count) == (150, 146, 4)
-    assert summary.executor.startswith("dask at tcp://") and summary.retried == []
+    assert summary.executor.startswith("Dask cluster at tcp://") and summary.retried == []
     assert [name for name in os.listdir(tmp_path) if name.endswith(".part")] == []
 
 
