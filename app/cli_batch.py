@@ -71,6 +71,20 @@ def _add_batch(commands) -> None:
         help="no progress bar (it shows only on a terminal and for long tables anyway)",
     )
     batch.add_argument(
+        "--executor",
+        default="local",
+        metavar="WHERE",
+        help="where the rows are solved: 'local' (default: a pool of processes on this machine) or "
+        "dask://HOST:PORT (an existing Dask cluster's scheduler; needs pip install 'strutscope[cluster]')",
+    )
+    batch.add_argument(
+        "--summary-json",
+        default=None,
+        metavar="FILE",
+        help="also write the run's summary as JSON to FILE ('-': to standard output, and the "
+        "printed summary goes to standard error)",
+    )
+    batch.add_argument(
         "--strict",
         action="store_true",
         help="exit with 1 when any member fails its check or a danger caution fires",
@@ -100,6 +114,7 @@ def _batch(args) -> int:
             progress=args.progress,
             prepared_by=args.prepared_by,
             checked_by=args.checked_by,
+            executor=args.executor,
         )
     except batch.TableError as error:
         _error(f"error: {args.table}: {error}")
@@ -109,6 +124,9 @@ def _batch(args) -> int:
         return 2
     except OSError as error:
         _error(f"error: {args.out}: cannot write the results: {error.strerror or error}")
+        return 2
+    except batch.ExecutorError as error:
+        _error(f"error: --executor {terminal(args.executor)}: {error}; no results were written")
         return 2
     except BrokenProcessPool as error:
         _error(
@@ -123,8 +141,25 @@ def _batch(args) -> int:
     lines = [
         f"strutscope batch: {summary.members} member{'s' if summary.members != 1 else ''} from "
         f"{terminal(args.table)}: {summary.solved} solved, {summary.error_count} invalid{failing} "
-        f"({summary.workers} process{'es' if summary.workers != 1 else ''})"
+        + (
+            f"({summary.workers} process{'es' if summary.workers != 1 else ''})"
+            if summary.executor == "local"
+            else f"(on the {summary.executor})"
+        )
     ]
+    if summary.by_stability:
+        counts = ", ".join(
+            f"{count} {name or 'no stability'}" for name, count in summary.by_stability.items()
+        )
+        lines.append(f"solved members by stability: {counts}")
+    if summary.highest:
+        lines.append(f"highest utilisations ({len(summary.highest)}):")
+        for value, row, identifier in summary.highest:
+            lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {value:.4g}")
+    for line in summary.retried:
+        lines.append(f"retried: {terminal(line)}")
+    if summary.errors:
+        lines.append(f"invalid rows ({summary.error_count}), by line of {terminal(args.table)}:")
     for row, identifier, _column, message in summary.errors:
         lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {terminal(message)}")
     if summary.error_count > len(summary.errors):
@@ -142,11 +177,48 @@ def _batch(args) -> int:
             "run did not write"
         )
     lines.append(f"Caution: {CAUTION}")
-    if not _print("\n".join(lines)):
+    if args.summary_json is not None:
+        from app.batch.summary import summary_json
+
+        document = summary_json(summary, args.table)
+        if args.summary_json == "-":
+            if not _print(document.rstrip("\n")):
+                return 1
+            _error("\n".join(lines))
+            lines = []
+        else:
+            try:
+                _write_text_atomically(args.summary_json, document)
+            except OSError as error:
+                _error(
+                    f"error: --summary-json {args.summary_json}: cannot write it: {error.strerror or error}"
+                )
+                return 2
+    if lines and not _print("\n".join(lines)):
         return 1
     if summary.error_count or summary.beyond_critical or (args.strict and summary.failing):
         return 1
     return 0
+
+
+def _write_text_atomically(path: str, text: str) -> None:
+    """Write `text` to `path` through a temporary file in the same folder, renamed when complete."""
+    import os
+    import tempfile
+
+    from app.batch.columns import _file_mode
+
+    folder = os.path.dirname(os.path.abspath(path))
+    handle, temporary = tempfile.mkstemp(dir=folder, prefix=".strutscope-", suffix=".json.part")
+    try:
+        with os.fdopen(handle, "w", encoding="utf-8") as stream:
+            stream.write(text)
+        os.chmod(temporary, _file_mode())
+        os.replace(temporary, path)
+    except BaseException:
+        if os.path.exists(temporary):
+            os.unlink(temporary)
+        raise
 
 
 # --------------------------------------------------------------------------------------------------------

@@ -29,11 +29,12 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from engine.analysis import solve, strength_solve
+from engine.analysis import _solve, check_stations, solve
 from engine.classification import classify
 from engine.errors import CaseError
 from engine.member_routes import headline
 from engine.out_of_plane import KIND as OUT_OF_PLANE
+from engine.prepared import prepare
 from engine.roots import brentq
 
 __all__ = ["Capacity", "capacity"]
@@ -81,9 +82,29 @@ class Capacity:
     route: str = "second-order"
 
 
+#: The largest axial force a case accepts (engine.case); beyond it a trial is built the validating way, which
+#: refuses it as before.
+_MAX_AXIAL_FORCE = 1e12
+
+
+def _at_force(case, force: float):
+    """``dataclasses.replace(case, axial_force=force)`` without validating the case again.
+
+    Only the axial force changes, and a valid case stays valid at any finite force within the case's limit
+    (the same shortcut as :meth:`Case.without_axial_force`); outside it the validating way raises as before.
+    """
+    force = float(force)
+    if not (math.isfinite(force) and abs(force) <= _MAX_AXIAL_FORCE) or force == 0.0:
+        return dataclasses.replace(case, axial_force=force) if force != 0.0 else case.without_axial_force()
+    twin = object.__new__(type(case))
+    twin.__dict__.update(case.__dict__)
+    twin.__dict__["axial_force"] = force
+    return twin
+
+
 def _scaled(case, factor, mode, reference):
     if mode == "axial":
-        return dataclasses.replace(case, axial_force=factor)
+        return _at_force(case, factor)
     changes = {"axial_force": reference * factor, "loads": _scaled_loads(case.loads, factor)}
     if case.second_plane is not None:  # every load, in both planes
         changes["second_plane"] = dataclasses.replace(
@@ -132,7 +153,9 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             f"axial_force: {reference!r} N must be compression (> 0) for a proportional capacity: "
             "it is the load the factor multiplies"
         )
-    probe = solve(dataclasses.replace(case, axial_force=0.0), stations=stations)
+    n = check_stations(stations)
+    probe = solve(case.without_axial_force(), stations=n)
+    prep = prepare(case)  # the same prepared member for every trial force: looked up once
     pcr1 = float(probe.critical_loads[0])
     if probe.second_plane is not None:  # a two-plane case buckles in the weaker plane first
         pcr1 = min(pcr1, float(probe.second_plane.critical_loads[0]))
@@ -141,11 +164,22 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
     else:
         top = pcr1 / reference
 
+    seen: dict[float, float] = {}  # Brent's method starts from the two grid points already solved
+    if mode == "axial":
+        # At no axial force the strength solve is the probe: neither the reversed bow nor the bow-free
+        # solution is made at P = 0 (engine.analysis._solve_plane), so the details change nothing there.
+        seen[0.0] = math.inf if probe.utilization is None else probe.utilization
+
     def utilisation(t: float) -> float:
         # The headline (the largest enabled route); both directions of an automatic bow, the worse kept; no
         # service check (strength only).
-        r = strength_solve(_scaled(case, t, mode, reference), stations=stations)
-        return math.inf if r.utilization is None else r.utilization
+        t = float(t)
+        u = seen.get(t)
+        if u is None:
+            trial = _scaled(case, t, mode, reference)
+            r = _solve(trial, prep if mode == "axial" else prepare(trial), n, details=False)
+            u = seen[t] = math.inf if r.utilization is None else r.utilization
+        return u
 
     def found(t, check, x, message, route="second-order"):
         force = t if mode == "axial" else t * reference
@@ -192,7 +226,8 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         u = utilisation(float(t))
         if u >= 1.0:
             root = brentq(lambda s: utilisation(s) - 1.0, prev_t, float(t), xtol=1e-12 * top, rtol=1e-13)
-            r = solve(_scaled(case, root, mode, reference), stations=stations)
+            trial = _scaled(case, root, mode, reference)
+            r = _solve(trial, prep if mode == "axial" else prepare(trial), n)
             _, route, _ = headline(r.routes)
             if route != "second-order":
                 governing = next(item for item in r.routes if item.route == route)

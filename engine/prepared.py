@@ -5,7 +5,8 @@ the member (EI, section, material, bow from :mod:`engine.member`), the critical 
 the stations, the first-order solution, the reference data for M_I + N·w0, the design data (section class,
 out-of-plane resistance) and the reversed-bow and bow-free variants. :func:`prepare` keeps the last 32
 cases, keyed by :meth:`engine.case.Case.without_axial_force` (the one definition of what a force-independent
-result depends on); :func:`clear_cache` forgets them.
+result depends on) with the title left out (it names the member and enters no number; the prepared member
+never reads it); :func:`clear_cache` forgets them.
 """
 
 from __future__ import annotations
@@ -186,13 +187,25 @@ _MODEL_CACHE_SIZE = 32
 _LAST: tuple = (None, None)
 
 
+def _key(case):
+    """The cache key of ``case``: the case at zero axial force, and without its title, which names the member
+    and enters no number (a table of members solves many members that differ in their names only)."""
+    key = case.without_axial_force()
+    if getattr(key, "title", "") == "":
+        return key
+    twin = object.__new__(type(key))
+    twin.__dict__.update(key.__dict__)
+    twin.__dict__["title"] = ""
+    return twin
+
+
 def prepare(case) -> Prepared:
     """The prepared member of ``case``, built on first use and kept for the same case at any axial force."""
     global _LAST
     last = _LAST
     if last[0] is case:
         return last[1]
-    key = case.without_axial_force()
+    key = _key(case)
     hit = _MODELS.get(key)
     if hit is None:
         if getattr(case, "actions", None) is not None:  # solved per combination: engine.envelope

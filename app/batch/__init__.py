@@ -15,11 +15,15 @@ The rows are read, solved and written as a stream, so memory stays flat however 
 more than :data:`PARALLEL_MIN_ROWS` rows and more than one worker, chunks of rows go to a
 :class:`concurrent.futures.ProcessPoolExecutor`; a bounded window of chunks is in flight at any time and
 results are written in the input order. The results file is written to a temporary file in ``DIR`` and
-renamed over ``results.csv`` only when complete, so it is never left half-written.
+renamed over ``results.csv`` only when complete, so it is never left half-written. With
+``executor="dask://HOST:PORT"`` the chunks go to an existing Dask cluster instead (:mod:`app.batch.cluster`).
+After the run, :class:`BatchSummary` holds the counts, the highest utilisations and the first invalid rows
+(:mod:`app.batch.summary`, which also gives its JSON form).
 
 This module does no mechanics: every number in the results comes from the engine. It converts units only.
 """
 
+from app.batch.cluster import ExecutorError
 from app.batch.columns import (
     COLUMNS,
     PARALLEL_MIN_ROWS,
@@ -39,6 +43,7 @@ __all__ = [
     "PARALLEL_MIN_ROWS",
     "RESULTS_FILE",
     "BatchSummary",
+    "ExecutorError",
     "RowError",
     "TableError",
     "member_case",

@@ -316,6 +316,15 @@ class BatchSummary:
         Calc sheets written.
     stale : list of str
         Calc sheets of the previous run into the folder that this run did not write, removed.
+    by_stability : dict
+        Solved rows counted by their ``stability`` cell (``stable``, ``unstable``, ``critical``, ...).
+    highest : list of tuple
+        ``(utilisation, row, id)`` of the solved rows with the highest utilisation, highest first (at most
+        :data:`app.batch.summary.HIGHEST`; a member at or above its critical load counts as ``inf``).
+    retried : list of str
+        What the executor had to do again (a lost worker's chunk sent again), one line each.
+    executor : str
+        ``local``, or where the Dask cluster's scheduler is (``workers`` is then 0).
     """
 
     results: str
@@ -328,3 +337,7 @@ class BatchSummary:
     workers: int = 1
     pdfs: int = 0
     stale: list = field(default_factory=list)
+    by_stability: dict = field(default_factory=dict)
+    highest: list = field(default_factory=list)
+    retried: list = field(default_factory=list)
+    executor: str = "local"

@@ -12,6 +12,7 @@ from collections.abc import Callable, Iterable, Iterator
 from dataclasses import dataclass
 
 from app import outdir
+from app.batch.cluster import CHUNK_ROWS, ExecutorError, dask_address, solved_on_dask
 from app.batch.columns import (
     _RESULT_LAYOUT,
     PARALLEL_MIN_ROWS,
@@ -24,6 +25,7 @@ from app.batch.columns import (
     result_columns,
 )
 from app.batch.rows import _count_rows, _engine_error, _records, member_case
+from app.batch.summary import count_solved, finish
 from app.safe_text import csv_writer
 from app.workers import worker_pool
 
@@ -241,26 +243,70 @@ def _chunks(items: Iterable, size: int) -> Iterator[list]:
         yield chunk
 
 
-def _checked_ids(records: Iterable[tuple[int, object]]) -> Iterator[tuple[int, object]]:
+#: Ids kept in memory before the rest go to a temporary database on disk (about 150 bytes each in a dict, so
+#: 1.5 MB at most; a lookup on disk costs microseconds beside a member's milliseconds).
+ID_MEMORY_ROWS = 10_000
+
+
+class _SeenIds:
+    """The ids used so far and their rows: a dict for the first :data:`ID_MEMORY_ROWS`, then a temporary
+    SQLite database on disk (deleted when closed), so that a table of millions of rows keeps memory flat."""
+
+    def __init__(self, memory_rows: int = ID_MEMORY_ROWS) -> None:
+        self._memory: dict[str, int] = {}
+        self._limit = memory_rows
+        self._disk = None
+
+    def first_row(self, identifier: str) -> int | None:
+        row = self._memory.get(identifier)
+        if row is None and self._disk is not None:
+            found = self._disk.execute("SELECT row FROM ids WHERE id = ?", (identifier,)).fetchone()
+            row = None if found is None else found[0]
+        return row
+
+    def add(self, identifier: str, row: int) -> None:
+        if len(self._memory) < self._limit:
+            self._memory[identifier] = row
+            return
+        if self._disk is None:
+            import sqlite3
+
+            self._disk = sqlite3.connect("")  # "": a private temporary database on disk
+            self._disk.execute("PRAGMA journal_mode = OFF")
+            self._disk.execute("PRAGMA synchronous = OFF")
+            self._disk.execute("CREATE TABLE ids (id TEXT PRIMARY KEY, row INTEGER) WITHOUT ROWID")
+        self._disk.execute("INSERT INTO ids VALUES (?, ?)", (identifier, row))
+
+    def close(self) -> None:
+        if self._disk is not None:
+            self._disk.close()
+            self._disk = None
+
+
+def _checked_ids(records: Iterable[tuple[int, object]], memory_rows: int = ID_MEMORY_ROWS):
     """Turn the second and later uses of an id into row errors (ids name the calc sheets)."""
-    seen: dict[str, int] = {}  # a few dozen bytes per row: the only thing kept for the whole table
-    for row, cells in records:
-        if isinstance(cells, dict):
-            identifier = cells.get("id", "")
-            if identifier and identifier in seen:
-                yield (
-                    row,
-                    RowError(
-                        "id",
-                        f"id: {identifier!r} is already used on row {seen[identifier]}; "
-                        f"ids must be unique (they name the calc sheets)",
-                        identifier,
-                    ),
-                )
-                continue
-            if identifier:
-                seen[identifier] = row
-        yield row, cells
+    seen = _SeenIds(memory_rows)  # the only thing kept for the whole table, bounded in memory
+    try:
+        for row, cells in records:
+            if isinstance(cells, dict):
+                identifier = cells.get("id", "")
+                first = seen.first_row(identifier) if identifier else None
+                if first is not None:
+                    yield (
+                        row,
+                        RowError(
+                            "id",
+                            f"id: {identifier!r} is already used on row {first}; "
+                            f"ids must be unique (they name the calc sheets)",
+                            identifier,
+                        ),
+                    )
+                    continue
+                if identifier:
+                    seen.add(identifier, row)
+            yield row, cells
+    finally:
+        seen.close()
 
 
 def _solved_in_order(chunks: Iterator[list], options: _Options, workers: int) -> Iterator[list]:
@@ -298,6 +344,8 @@ def run(
     checked_by: str = "",
     error_limit: int = 20,
     on_progress: Callable[[int], None] | None = None,
+    executor: str = "local",
+    chunk_rows: int | None = None,
 ) -> BatchSummary:
     """Solve every member of a table and write ``out_dir/results.csv`` (and the calc sheets).
 
@@ -327,6 +375,11 @@ def run(
         How many row errors the summary lists (all are in the results table).
     on_progress : callable, optional
         Called with the number of rows just written (for tests and other front ends).
+    executor : str
+        ``"local"`` (this machine's processes, `workers` of them) or ``"dask://HOST:PORT"``: the Dask cluster
+        whose scheduler is there (:mod:`app.batch.cluster`; `workers` is then the cluster's).
+    chunk_rows : int, optional
+        Rows per task on a Dask cluster (:data:`app.batch.cluster.CHUNK_ROWS` by default).
 
     Returns
     -------
@@ -336,6 +389,8 @@ def run(
     ------
     TableError
         When the table cannot be read or its header is wrong; nothing is written then.
+    ExecutorError
+        When the executor is not one, cannot be reached, or its workers run other code; nothing is written.
     OSError
         When the output folder cannot be written.
     """
@@ -343,6 +398,12 @@ def run(
 
     if units not in UNIT_SYSTEMS:
         raise ValueError(f"units: {units!r} is not a units system; allowed: {', '.join(UNIT_SYSTEMS)}")
+    address = dask_address(executor)
+    if address is not None and pdf:
+        raise ExecutorError(
+            "--pdf writes the calc sheets where the members are solved, which on a Dask cluster is not this "
+            "machine; run the calc sheets locally (without --executor)"
+        )
     total = _count_rows(table)  # also checks the header before anything is written
     if os.path.exists(out_dir) and not os.path.isdir(out_dir):
         raise TableError(f"--out: {out_dir!r} exists and is not a folder")
@@ -364,6 +425,8 @@ def run(
                 checked_by=checked_by,
                 error_limit=error_limit,
                 on_progress=on_progress,
+                address=address,
+                chunk_rows=chunk_rows,
             )
         except BaseException:
             outdir.remove_temporaries(out_dir)  # what stopped workers may have left
@@ -385,6 +448,8 @@ def _run_locked(
     checked_by,
     error_limit,
     on_progress,
+    address=None,
+    chunk_rows=None,
 ) -> BatchSummary:
     """:func:`run` once the folder is locked."""
     manifest = outdir.Manifest(out_dir)
@@ -403,6 +468,9 @@ def _run_locked(
     )
     target = os.path.join(out_dir, RESULTS_FILE)
     summary = BatchSummary(results=target, workers=used)
+    if address is not None:
+        size, summary.executor, summary.workers = chunk_rows or CHUNK_ROWS, f"Dask cluster at {address}", 0
+    highest: list = []  # a heap of the highest utilisations (app.batch.summary)
 
     bar = None
     if progress is None:
@@ -423,7 +491,12 @@ def _run_locked(
             writer = csv_writer(stream)  # every cell neutralised against formulas (app.safe_text)
             writer.writerow(result_columns(units))
             chunks = _chunks(_checked_ids(_records(table)), size)
-            for results in _solved_in_order(chunks, options, used):
+            solved = (
+                _solved_in_order(chunks, options, used)
+                if address is None
+                else solved_on_dask(address, chunks, _solve_chunk, options, summary.retried)
+            )
+            for results in solved:
                 for record, failing, wrote in results:
                     writer.writerow(record)
                     summary.members += 1
@@ -431,6 +504,7 @@ def _run_locked(
                         summary.solved += 1
                         summary.failing += failing
                         summary.beyond_critical += record[5] in ("unstable", "critical")
+                        count_solved(summary, record, highest)
                         summary.pdfs += wrote
                         if wrote:
                             manifest.add(f"{record[0]}.pdf")
@@ -447,6 +521,7 @@ def _run_locked(
         os.chmod(temporary, _file_mode())
         os.replace(temporary, target)
         summary.stale = manifest.complete()
+        finish(summary, highest)
     except BaseException:
         with contextlib.suppress(OSError):
             os.unlink(temporary)

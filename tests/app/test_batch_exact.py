@@ -1,0 +1,120 @@
+"""The batch's speed work changes no number: every output equals the code before it to 1e-9 relative.
+
+Two guards. Recorded results of the code before issue 18's speed work (``tests/app/data/``, written by that
+code on this machine, 2026-12-02): the example table in ``assets/`` and 150 members drawn by the batch
+benchmark's generator (``tests.benchmarks.batch_speed.write_members``, seed 18). And a hypothesis-drawn table
+solved twice in this process, once as the product does it and once with the capacity finder as it was before
+(``tests/support/capacity_reference.py``, a verbatim copy): every cell must agree.
+"""
+
+from __future__ import annotations
+
+import csv
+import math
+from importlib.resources import files
+from pathlib import Path
+
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+import engine
+from app import batch
+from tests.support import capacity_reference
+
+DATA = Path(__file__).parent / "data"
+RELATIVE = 1e-9
+
+
+def _rows(path):
+    with open(path, encoding="utf-8", newline="") as stream:
+        return list(csv.reader(stream))
+
+
+def _same_cell(a: str, b: str) -> bool:
+    """Equal text, or numbers equal to RELATIVE (infinities by sign)."""
+    if a == b:
+        return True
+    try:
+        x, y = float(a), float(b)
+    except ValueError:
+        return False
+    if math.isinf(x) or math.isinf(y) or math.isnan(x) or math.isnan(y):
+        return False
+    return abs(x - y) <= RELATIVE * max(abs(x), abs(y))
+
+
+def assert_same_results(got_path, want_path):
+    got, want = _rows(got_path), _rows(want_path)
+    assert got[0] == want[0], "the results columns changed"
+    assert len(got) == len(want)
+    for line, (a, b) in enumerate(zip(got[1:], want[1:], strict=True), start=2):
+        header = want[0]
+        different = [
+            (header[i], x, y) for i, (x, y) in enumerate(zip(a, b, strict=True)) if not _same_cell(x, y)
+        ]
+        assert not different, f"results line {line} ({b[0]}): (column, now, before) {different}"
+
+
+@pytest.mark.parametrize(
+    ("table", "recorded"),
+    [
+        (str(files("assets") / "example_members.csv"), DATA / "batch_example_results.csv"),
+        (str(DATA / "batch_generated_members.csv"), DATA / "batch_generated_results.csv"),
+    ],
+    ids=["example table", "generated table"],
+)
+def test_results_equal_the_recorded_results_of_the_code_before(tmp_path, table, recorded):
+    batch.run(table, str(tmp_path / "out"), workers=1, progress=False)
+    assert_same_results(tmp_path / "out" / "results.csv", recorded)
+
+
+# A table drawn from the example table's kinds: catalogue sections, both materials, the support sets, bows of
+# every form, a uniform load and point loads, and the axial force from tension to near the critical load.
+_SECTIONS = ("HEB 200", "HEA 300", "IPE 300", "SHS 100x100x5", "CHS 114.3x5", "TIMBER 45x195")
+_SUPPORTS = (("pinned", "pinned"), ("fixed", "pinned"), ("fixed", "fixed"), ("fixed", "free"))
+_BOWS = ("en1993-table-5.1", "L/300", "aisc-l/1000", "en1993-eq-5.9", "12mm", "none")
+_HEADER = (
+    "id,length_m,left,right,section,material,axis,axial_kN,udl_kN_per_m,point_loads,bow,check_method,comment"
+)
+
+
+@st.composite
+def member_rows(draw, number: int) -> str:
+    section = draw(st.sampled_from(_SECTIONS))
+    timber = section.startswith("TIMBER")
+    length = draw(st.floats(2.0, 9.0)).__round__(3)
+    left, right = draw(st.sampled_from(_SUPPORTS))
+    bows = ("en1993-table-5.1:c", "L/300", "aisc-l/1000", "12mm") if timber else _BOWS
+    bow = draw(st.sampled_from(bows))
+    axial = draw(st.floats(-50.0, 40.0 if timber else 900.0)).__round__(2)
+    udl = draw(st.floats(0.0, 8.0)).__round__(2)
+    points = ";".join(
+        f"{draw(st.floats(-10.0, 10.0)):.2f}@{draw(st.floats(0.0, length)):.3f}"
+        for _ in range(draw(st.integers(0, 2)))
+    )
+    method = draw(st.sampled_from(("elastic", "plastic")))
+    axis = draw(st.sampled_from(("major", "minor")))
+    material = "C24" if timber else draw(st.sampled_from(("S235", "S355")))
+    return (
+        f"H{number},{length},{left},{right},{section},{material},{axis},{axial},{udl},{points},{bow},"
+        f"{method},invented"
+    )
+
+
+@st.composite
+def member_tables(draw) -> str:
+    count = draw(st.integers(1, 4))
+    return "\n".join([_HEADER, *(draw(member_rows(n)) for n in range(count))]) + "\n"
+
+
+@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(text=member_tables())
+def test_a_drawn_table_equals_the_capacity_finder_before(tmp_path, monkeypatch, text):
+    table = tmp_path / "members.csv"
+    table.write_text(text, encoding="utf-8")
+    batch.run(str(table), str(tmp_path / "now"), workers=1, progress=False)
+    with monkeypatch.context() as patch:
+        patch.setattr(engine, "capacity", capacity_reference.capacity)
+        batch.run(str(table), str(tmp_path / "before"), workers=1, progress=False)
+    assert_same_results(tmp_path / "now" / "results.csv", tmp_path / "before" / "results.csv")

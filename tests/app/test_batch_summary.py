@@ -1,0 +1,70 @@
+"""The summary after a batch run: counts by status, the highest utilisations, the invalid rows with their line
+numbers; and ``--summary-json``."""
+
+from __future__ import annotations
+
+import csv
+import json
+import math
+from pathlib import Path
+
+from app import batch
+from tests.app.test_cli import run_cli
+
+TABLE = Path(__file__).parent / "data" / "batch_generated_members.csv"  # 150 invented members
+
+
+def _results(folder):
+    with open(folder / "results.csv", encoding="utf-8", newline="") as stream:
+        return list(csv.DictReader(stream))
+
+
+def test_summary_counts_and_the_ten_highest_utilisations_agree_with_the_results_file(tmp_path):
+    summary = batch.run(str(TABLE), str(tmp_path), workers=1, progress=False)
+    rows = _results(tmp_path)
+    solved = [row for row in rows if row["status"] == "ok"]
+    assert summary.solved == len(solved) and summary.error_count == len(rows) - len(solved)
+    stability = {}
+    for row in solved:
+        stability[row["stability"]] = stability.get(row["stability"], 0) + 1
+    assert summary.by_stability == stability
+    # The ten highest, ties to the earlier row, from the file itself.
+    ranked = sorted(
+        (row for row in solved if row["utilization"] != ""),
+        key=lambda row: (-float(row["utilization"]), int(row["row"])),
+    )[:10]
+    assert [(row, identifier) for _, row, identifier in summary.highest] == [
+        (int(row["row"]), row["id"]) for row in ranked
+    ]
+    values = [value for value, _, _ in summary.highest]
+    assert values == sorted(values, reverse=True) and math.isinf(values[0])  # some members are beyond Pcr1
+    # The invalid rows are reported with the line of the input file (the header is line 1).
+    with open(TABLE, encoding="utf-8", newline="") as stream:
+        lines = {row["id"]: number for number, row in enumerate(csv.DictReader(stream), start=2)}
+    assert summary.errors and all(lines[identifier] == row for row, identifier, _, _ in summary.errors)
+
+
+def test_summary_json_for_machines_and_the_printed_summary(tmp_path):
+    done = run_cli(
+        "batch", str(TABLE), "--out", "out", "--workers", "1", "--summary-json", "summary.json", cwd=tmp_path
+    )
+    assert done.returncode == 1  # invalid rows
+    document = json.loads((tmp_path / "summary.json").read_text(encoding="utf-8"))
+    assert document["schema"] == 1 and document["members"] == 150
+    assert document["by_status"] == {"ok": 146, "error": 4}
+    assert sum(document["by_stability"].values()) == 146
+    assert len(document["highest_utilizations"]) == 10
+    assert document["highest_utilizations"][0]["utilization"] == "inf"
+    assert [item["row"] for item in document["invalid_rows"]] == sorted(
+        item["row"] for item in document["invalid_rows"]
+    )
+    assert all(item["column"] == "length_m" for item in document["invalid_rows"])
+    printed = done.stdout
+    assert "highest utilisations (10):" in printed and "invalid rows (4)" in printed
+    assert "solved members by stability:" in printed
+
+
+def test_summary_json_to_standard_output_moves_the_printed_summary_to_standard_error(tmp_path):
+    done = run_cli("batch", str(TABLE), "--out", "out", "--summary-json", "-", cwd=tmp_path)
+    assert json.loads(done.stdout)["members"] == 150
+    assert "highest utilisations" in done.stderr
