@@ -547,6 +547,54 @@ def _build() -> dict[str, Any]:
             "moments. Default bow: EN 1993-1-1 Table 5.1 with a steel section, else none. Not with "
             "'out_of_plane' nor a custom section.",
         ),
+        "restraints": {
+            "type": "array",
+            "maxItems": 50,
+            "items": _closed(
+                {
+                    "x": _number("Where [m], strictly between the ends.", exclusiveMinimum=0),
+                    "translation": _spring_or(
+                        "translation", "a spring's force on the member is -k_t w; default 'free'", "N/m"
+                    ),
+                    "rotation": _spring_or(
+                        "rotation", "a spring's couple on the member is -k_r w'; default 'free'", "N·m/rad"
+                    ),
+                    "hinge": {
+                        "type": "boolean",
+                        "description": "An internal hinge (moment release); its rotation must be 'free'. "
+                        "Default false.",
+                    },
+                    "plane": {
+                        "enum": ["first", "second", "both"],
+                        "description": "The plane it acts in ('second' needs second_plane). Default 'both'.",
+                    },
+                },
+                ("x",),
+                description="A support, spring or hinge inside the member. One per point and plane; one "
+                "that restrains nothing, or leaves a mechanism, is refused by strutscope.",
+            ),
+            "description": "Intermediate restraints and hinges, at most 50. Default none.",
+        },
+        "steps": {
+            "type": "array",
+            "maxItems": 50,
+            "items": _closed(
+                {
+                    "x": _number(
+                        "Where the new stiffness starts [m], strictly between the ends.", exclusiveMinimum=0
+                    ),
+                    "EI": _number(
+                        "Bending stiffness from x to the next step or the end [N·m²], > 0 and <= 1e16.",
+                        exclusiveMinimum=0,
+                        maximum=1e16,
+                    ),
+                },
+                ("x", "EI"),
+                description="A change of EI, in increasing x. Only in a one-plane case that gives its own "
+                "EI and no section.",
+            ),
+            "description": "Steps in the bending stiffness, at most 50. Default none.",
+        },
     }
     return {
         "$schema": _DRAFT,

@@ -52,6 +52,7 @@ from engine.loads import (
 from engine.materials import material_from_spec
 from engine.out_of_plane import OutOfPlaneSettings
 from engine.plane import SecondPlane, as_second_plane, second_plane_of
+from engine.restraints import check_against, check_mechanism, restraints_from_data, steps_from_data
 from engine.sections import AXES, section_from_spec
 from engine.solver import supports
 from engine.validate import (
@@ -119,6 +120,8 @@ _CASE_KEYS = (
     "check",
     "out_of_plane",
     "second_plane",
+    "restraints",
+    "steps",
 )
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
@@ -180,6 +183,10 @@ class Case:
         ``imperfection`` (default: the EN 1993-1-1 Table 5.1 bow with a steel section, else none) and ``EI``
         (given exactly when the case gives its own EI). The first plane bends about ``axis``, the second
         about the other one; :meth:`second_plane_case` is the second plane as a case of its own.
+    restraints : tuple of Restraint
+        Supports, springs and hinges inside the member, per plane (:mod:`engine.restraints`).
+    steps : tuple of Step
+        Changes of EI along the member (:mod:`engine.restraints`).
 
     Raises
     ------
@@ -216,6 +223,8 @@ class Case:
     check: Any = None
     out_of_plane: Any = None
     second_plane: Any = None
+    restraints: tuple = ()
+    steps: tuple = ()
 
     def __post_init__(self) -> None:
         set_field(self, "schema", _schema_version(self.schema))
@@ -256,7 +265,14 @@ class Case:
                 f"imperfection.amplitude: {self.imperfection.amplitude!r} m is too large; "
                 f"|amplitude| must be <= length/10 = {length / 10:g} m"
             )
-        supports.check_stable(self)
+        # Intermediate restraints and steps (engine.restraints): checked, then the mechanism check sees them.
+        set_field(self, "restraints", restraints_from_data(self.restraints))
+        set_field(self, "steps", steps_from_data(self.steps))
+        check_against(self)
+        if self.restraints:
+            check_mechanism(self)
+        else:
+            supports.check_stable(self)
         if self.second_plane is not None:
             self._check_second_plane()
 
@@ -404,6 +420,10 @@ class Case:
                 arguments[name] = expect_mapping(name, mapping[name], "an object")
         if "second_plane" in mapping:
             arguments["second_plane"] = as_second_plane(mapping["second_plane"])
+        if "restraints" in mapping:
+            arguments["restraints"] = restraints_from_data(mapping["restraints"])
+        if "steps" in mapping:
+            arguments["steps"] = steps_from_data(mapping["steps"])
         return cls(schema=schema, left=left, right=right, loads=loads, imperfection=imperfection, **arguments)
 
     def to_dict(self) -> dict[str, Any]:
@@ -446,6 +466,10 @@ class Case:
             data["out_of_plane"] = self.out_of_plane.to_dict()
         if self.second_plane is not None:
             data["second_plane"] = self.second_plane.to_data()
+        if self.restraints:
+            data["restraints"] = [r.to_data() for r in self.restraints]
+        if self.steps:
+            data["steps"] = [s.to_data() for s in self.steps]
         return data
 
     @classmethod

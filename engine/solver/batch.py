@@ -104,7 +104,7 @@ class Batch:
         self.reused: _ReusedColumns | None = None
         self._targets: _Targets | None = None
         rows = None
-        if nP == 1 and at is not None and at.ends is not None:
+        if nP == 1 and at is not None and at.ends is not None and not model.stepped:
             rows = station_table(model, at).evaluate(float(P[0]))
         if rows is not None:
             # The rows at the segment ends and the stations' columns, from the stations' table.
@@ -134,8 +134,17 @@ class Batch:
         if nseg > 1:
             # Every interface block at once: [-B(end of j) | B(start of j+1)] in rows 2 + 4j.
             rows, cols_ = model.interface_index
-            A[:, rows, cols_] = np.concatenate([-B[:, :-1, 1], B[:, 1:, 0]], axis=3)
-            rhs[:, 2 : m - 2] = (jumps[None, 1:nseg] - p[:, 1:, 0] + p[:, :-1, 1]).reshape(nP, -1)
+            if model.general_nodes:  # intermediate restraints: E_L state(x-) + E_R state(x+) = r
+                EL, ER = model.node_left[None], model.node_right[None]
+                A[:, rows, cols_] = np.concatenate([EL @ B[:, :-1, 1], ER @ B[:, 1:, 0]], axis=3)
+                rhs[:, 2 : m - 2] = (
+                    model.node_rhs[None]
+                    - np.einsum("nij,pnj->pni", model.node_left, p[:, :-1, 1])
+                    - np.einsum("nij,pnj->pni", model.node_right, p[:, 1:, 0])
+                ).reshape(nP, -1)
+            else:
+                A[:, rows, cols_] = np.concatenate([-B[:, :-1, 1], B[:, 1:, 0]], axis=3)
+                rhs[:, 2 : m - 2] = (jumps[None, 1:nseg] - p[:, 1:, 0] + p[:, :-1, 1]).reshape(nP, -1)
         A[:, m - 2 : m, m - 4 : m] = rr @ B[:, nseg - 1, 1]
         rhs[:, m - 2 : m] = -(p[:, nseg - 1, 1] + jumps[nseg][None, :]) @ rr.T
         # Equilibrate rows, then columns, so that stiff springs and strong tension keep the pivots honest.
@@ -202,8 +211,17 @@ class Batch:
         rhs[0:2] = rl @ (jumps[0] - p[0, 0])
         if nseg > 1:
             rows, cols_ = model.interface_index
-            A[rows, cols_] = np.concatenate([-B[:-1, 1], B[1:, 0]], axis=2)
-            rhs[2 : m - 2] = (jumps[1:nseg] - p[1:, 0] + p[:-1, 1]).ravel()
+            if model.general_nodes:
+                EL, ER = model.node_left, model.node_right
+                A[rows, cols_] = np.concatenate([EL @ B[:-1, 1], ER @ B[1:, 0]], axis=2)
+                rhs[2 : m - 2] = (
+                    model.node_rhs
+                    - np.einsum("nij,nj->ni", EL, p[:-1, 1])
+                    - np.einsum("nij,nj->ni", ER, p[1:, 0])
+                ).ravel()
+            else:
+                A[rows, cols_] = np.concatenate([-B[:-1, 1], B[1:, 0]], axis=2)
+                rhs[2 : m - 2] = (jumps[1:nseg] - p[1:, 0] + p[:-1, 1]).ravel()
         A[m - 2 : m, m - 4 : m] = rr @ B[nseg - 1, 1]
         rhs[m - 2 : m] = -(rr @ (p[nseg - 1, 1] + jumps[nseg]))
         # Equilibrate rows, then columns, as for many forces.
@@ -287,7 +305,7 @@ class Batch:
         """
         if self._targets is not None and self._targets.state is states:
             return self._targets.values, self._targets.slopes
-        EI = self.model.EI
+        EI = pts.EI
         P = states.P
         curv = -states.M / EI
         dV = -pts.q + P * (states.w0_2 + curv)

@@ -68,6 +68,8 @@ class Points:
         self.xi = np.asarray(xi, dtype=float)
         self.size = self.xi.size
         self.h = model.h[self.seg]
+        #: EI at each point [N·m²]: the member's one value, or per point where it has steps
+        self.EI = model.EI if not model.stepped else model.EI_seg[self.seg]
         self.xa = model.xa[self.seg]
         self.q0 = model.q0[self.seg]
         self.q1 = model.q1[self.seg]
@@ -126,6 +128,11 @@ class Model:
         self.series_tables = None
         tol = 1e-12 * L
         cuts = [0.0, L]
+        # Intermediate restraints of this plane and steps in EI (engine.restraints) are nodes as well.
+        restraints = [r for r in getattr(case, "restraints", ()) if r.plane != "second"]
+        steps = tuple(getattr(case, "steps", ()))
+        cuts.extend(float(r.x) for r in restraints)
+        cuts.extend(float(st.x) for st in steps)
         for load in case.loads:
             if load.type in ("point", "couple"):
                 cuts.append(float(load.x))
@@ -175,9 +182,23 @@ class Model:
             self.total_moment += span * (qa * (L - a) - qa * span / 2 + dq * (L - a) / 2 - dq * span / 3)
             self.load_scale += 0.5 * (abs(qa) + abs(qb)) * span
         self.couple_scale = float(np.abs(self.couple).sum())  # Σ |C| [N·m]
+        # EI per segment: the case's EI up to the first step, then each step's from its x on.
+        self.EI_seg = np.full(nseg, self.EI)
+        for st in steps:
+            self.EI_seg[self.xa >= float(st.x) - tol] = float(st.EI)
+        #: whether EI changes along the member (the fast paths, built for one EI, then step aside)
+        self.stepped = bool(steps) and bool(np.any(self.EI_seg != self.EI))
+        self.restraints = tuple(restraints)
+        #: node index of each restraint, in the order of self.restraints
+        self.restraint_nodes = np.array(
+            [int(np.argmin(np.abs(self.nodes - r.x))) for r in restraints], dtype=int
+        )
         self.rows_left = boundary_rows(case.left, "left")
         self.rows_right = boundary_rows(case.right, "right")
         self.jumps = np.stack([self.jump(i) for i in range(self.nodes.size)])
+        self.node_left, self.node_right, self.node_rhs = node_conditions(self)
+        #: whether some interior node has other conditions than continuity with the load's jumps
+        self.general_nodes = bool(restraints)
         j = np.arange(nseg - 1)[:, None, None]
         self.interface_index = (2 + 4 * j + np.arange(4)[None, :, None], 4 * j + np.arange(8)[None, None, :])
         # Both ends of every segment, for the continuity and end conditions.
@@ -218,7 +239,7 @@ class Model:
         part : list of 4 arrays
             w, w', M, T of the particular solution, including the bow's term ``-P w0'`` in T.
         """
-        EI = self.EI
+        EI = pts.EI
         s = P / EI
         xi, h = pts.xi, pts.h
         q0 = pts.q0 + P * self.bow.uniform if self.bow.uniform else pts.q0
@@ -251,7 +272,8 @@ class Model:
                 (z < -SERIES_LIMIT, _exp_columns),
             ):
                 if mask.any():
-                    values = fn(EI, P[mask], s[mask], xi[mask], h[mask], q0[mask], q1[mask])
+                    EIm = EI if np.ndim(EI) == 0 else EI[mask]
+                    values = fn(EIm, P[mask], s[mask], xi[mask], h[mask], q0[mask], q1[mask])
                     for target, v in zip(out, values, strict=True):
                         target[mask] = v
         cols, part = tuple(out[:7]), list(out[7:])
@@ -300,6 +322,40 @@ class Model:
         return np.array([0.0, 0.0, self.couple[node], -self.force[node]])
 
 
+def node_conditions(model):
+    r"""The conditions at every interior node as ``E_L @ state(x-) + E_R @ state(x+) = r``, four rows each.
+
+    A plain node is continuity of w and w' with the load's jumps :math:`M^+ - M^- = C`,
+    :math:`T^+ - T^- = -F` (``E_L = -I``, ``E_R = I``). An intermediate restraint changes rows
+    (conventions: its force on the member is :math:`-k_t w`, its couple :math:`-k_r w'`):
+
+    - translation fixed: the T row becomes :math:`w^- = 0` (the reaction is free);
+      spring: :math:`T^+ - T^- - k_t w^- = -F`;
+    - rotation fixed: the M row becomes :math:`w'^- = 0`; spring: :math:`M^+ - M^- + k_r w'^- = C`;
+    - hinge: the w' row becomes :math:`M^- = 0` (the slope may jump; the M row keeps :math:`M^+ = M^- + C`).
+
+    Returns arrays of shapes (nseg - 1, 4, 4), (nseg - 1, 4, 4) and (nseg - 1, 4).
+    """
+    n = model.nseg - 1
+    EL = np.tile(-np.eye(4), (n, 1, 1))
+    ER = np.tile(np.eye(4), (n, 1, 1))
+    r = model.jumps[1 : n + 1].copy() if n > 0 else np.zeros((0, 4))
+    for restraint, node in zip(model.restraints, model.restraint_nodes, strict=True):
+        j = node - 1  # the interface between segments node - 1 and node
+        if restraint.hinge:
+            EL[j, 1], ER[j, 1], r[j, 1] = (0.0, 0.0, 1.0, 0.0), 0.0, 0.0
+        t, rot = restraint.translation, restraint.rotation
+        if t == "fixed":
+            EL[j, 3], ER[j, 3], r[j, 3] = (1.0, 0.0, 0.0, 0.0), 0.0, 0.0
+        elif t != "free":
+            EL[j, 3, 0] = -float(t)
+        if rot == "fixed":
+            EL[j, 2], ER[j, 2], r[j, 2] = (0.0, 1.0, 0.0, 0.0), 0.0, 0.0
+        elif rot != "free":
+            EL[j, 2, 1] = float(rot)
+    return EL, ER, r
+
+
 def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
     r"""The columns of :meth:`Model.columns` where :math:`|s|\xi^2 \le 4`, from the series φ₀…φ₅.
 
@@ -317,7 +373,7 @@ def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
         f3,
         f2,
         -EI * f1,
-        np.full(xi.size, -EI),
+        np.broadcast_to(-EI, xi.shape) + 0.0 * xi,
         (q0 * f4 + q1 * f5) / EI,
         (q0 * f3 + q1 * f4) / EI,
         -(q0 * f2 + q1 * f3),
