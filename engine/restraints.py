@@ -240,6 +240,12 @@ def check_against(case) -> None:
             f"imperfection.shape: {imp.shape!r} (the first buckling mode) is not yet available with "
             "restraints or steps; give the shape sine, parabola or sway with its amplitude"
         )
+    sways = case.left.translation != "fixed" or case.right.translation != "fixed"
+    if case.steps and imp.preset is not None and sways:
+        raise CaseError(
+            f"imperfection.preset: {imp.preset!r} on a member whose end can translate takes the first mode's "
+            "shape, not yet available with steps; give the bow's shape and amplitude yourself"
+        )
     if for_plane(case.restraints, "first") and imp.preset is not None:
         raise CaseError(
             f"imperfection.preset: {imp.preset!r} gives a bow between the ends, which does not fit a member "

@@ -302,3 +302,34 @@ def test_second_plane_restraint_acts_in_that_plane_only():
     assert result.critical_loads[0] == pytest.approx(math.pi**2 * EI / L**2, rel=1e-12)
     assert result.second_plane.critical_loads[0] == pytest.approx(4 * math.pi**2 * 0.2 * EI / L**2, rel=1e-12)
     assert result.reactions.intermediate == ()
+
+
+def test_preset_with_steps_on_a_swaying_member_is_refused():
+    # The preset would take the first mode's shape (a swaying end), which is not built for steps.
+    with pytest.raises(engine.CaseError, match="imperfection.preset"):
+        _case(
+            steps=[{"x": 3.0, "EI": 2 * EI}],
+            left="fixed",
+            right="free",
+            imperfection={"preset": "en1993-table-5.1", "curve": "b"},
+        )
+
+
+def test_sweep_agrees_with_solve():
+    # The many-force assembly (engine.sweep) and the one-force assembly give the same solution.
+    case = _case(
+        [
+            {"x": 1.5, "translation": "fixed"},
+            {"x": 3.0, "translation": 2e6, "rotation": 1e6},
+            {"x": 4.5, "hinge": True, "translation": "fixed"},
+        ],
+        steps=[{"x": 2.5, "EI": 0.5 * EI}],
+        loads=[{"type": "uniform", "q": q}, {"type": "point", "P": 1e4, "x": 2.0}],
+        imperfection={"shape": "sine", "amplitude": 0.01},
+    )
+    pcr = engine.critical_loads(case, 1).critical_loads[0]
+    forces = np.array([-0.5 * pcr, 0.3 * pcr, 0.8 * pcr])
+    swept = engine.sweep(case, forces)
+    for i, P in enumerate(forces):
+        one = engine.solve(engine.Case.from_dict({**case.to_dict(), "axial_force": float(P)}))
+        assert abs(swept.peak_moment[i]) == pytest.approx(one.governing.moment.magnitude, rel=1e-9)
