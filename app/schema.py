@@ -595,6 +595,29 @@ def _build() -> dict[str, Any]:
             ),
             "description": "Steps in the bending stiffness, at most 50. Default none.",
         },
+        "foundation": {
+            "type": "array",
+            "maxItems": 50,
+            "items": _closed(
+                {
+                    "start": _number("Where the foundation starts [m], on the member.", minimum=0),
+                    "end": _number("Where it ends [m], beyond start, on the member.", exclusiveMinimum=0),
+                    "k": _number(
+                        "Winkler modulus [N/m²] (force per length per deflection), > 0 and <= 1e12.",
+                        exclusiveMinimum=0,
+                        maximum=1e12,
+                    ),
+                    "plane": {
+                        "enum": ["first", "second", "both"],
+                        "description": "The plane it acts in ('second' needs second_plane). Default 'both'.",
+                    },
+                },
+                ("start", "end", "k"),
+                description="An elastic foundation under part or all of the member; it adds -k w to the "
+                "load. Ranges of one plane may not overlap.",
+            ),
+            "description": "Elastic (Winkler) foundation ranges, at most 50. Default none.",
+        },
     }
     return {
         "$schema": _DRAFT,

@@ -166,7 +166,10 @@ def _build(
         rhs = L * tl - total_moment + P * drift
         scale_m = abs(ml) + abs(mr) + couples + L * (abs(tl) + load_scale) + abs(P * drift)
         res_m = (lhs - rhs) / scale_m if scale_m > 0 else 0.0
-        equilibrium = Equilibrium(transverse=float(res_t), moment=float(res_m))
+        # On a foundation the ground's reaction is spread along the member: no residuals are formed.
+        equilibrium = (
+            None if model.has_foundation else Equilibrium(transverse=float(res_t), moment=float(res_m))
+        )
         if first_order:
             one = 1.0 if governing.moment.magnitude > 0 else None
             amplification = Amplification(

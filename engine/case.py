@@ -28,6 +28,7 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from engine import limits
+from engine import restraints as inner
 from engine.checks import CheckSettings
 from engine.errors import CaseError
 from engine.inputs import (
@@ -52,7 +53,6 @@ from engine.loads import (
 from engine.materials import material_from_spec
 from engine.out_of_plane import OutOfPlaneSettings
 from engine.plane import SecondPlane, as_second_plane, second_plane_of
-from engine.restraints import check_against, check_mechanism, restraints_from_data, steps_from_data
 from engine.sections import AXES, section_from_spec
 from engine.solver import supports
 from engine.validate import (
@@ -122,6 +122,7 @@ _CASE_KEYS = (
     "second_plane",
     "restraints",
     "steps",
+    "foundation",
 )
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
@@ -187,6 +188,8 @@ class Case:
         Supports, springs and hinges inside the member, per plane (:mod:`engine.restraints`).
     steps : tuple of Step
         Changes of EI along the member (:mod:`engine.restraints`).
+    foundation : tuple of Foundation
+        Elastic (Winkler) foundation ranges, per plane (:mod:`engine.restraints`).
 
     Raises
     ------
@@ -225,6 +228,7 @@ class Case:
     second_plane: Any = None
     restraints: tuple = ()
     steps: tuple = ()
+    foundation: tuple = ()
 
     def __post_init__(self) -> None:
         set_field(self, "schema", _schema_version(self.schema))
@@ -265,12 +269,10 @@ class Case:
                 f"imperfection.amplitude: {self.imperfection.amplitude!r} m is too large; "
                 f"|amplitude| must be <= length/10 = {length / 10:g} m"
             )
-        # Intermediate restraints and steps (engine.restraints): checked, then the mechanism check sees them.
-        set_field(self, "restraints", restraints_from_data(self.restraints))
-        set_field(self, "steps", steps_from_data(self.steps))
-        check_against(self)
-        if self.restraints:
-            check_mechanism(self)
+        # Intermediate restraints, steps and foundation (engine.restraints), then the mechanism check.
+        inner.normalise(self)
+        if self.restraints or self.foundation:
+            inner.check_mechanism(self)
         else:
             supports.check_stable(self)
         if self.second_plane is not None:
@@ -420,10 +422,7 @@ class Case:
                 arguments[name] = expect_mapping(name, mapping[name], "an object")
         if "second_plane" in mapping:
             arguments["second_plane"] = as_second_plane(mapping["second_plane"])
-        if "restraints" in mapping:
-            arguments["restraints"] = restraints_from_data(mapping["restraints"])
-        if "steps" in mapping:
-            arguments["steps"] = steps_from_data(mapping["steps"])
+        arguments.update(inner.read(mapping))
         return cls(schema=schema, left=left, right=right, loads=loads, imperfection=imperfection, **arguments)
 
     def to_dict(self) -> dict[str, Any]:
@@ -466,10 +465,7 @@ class Case:
             data["out_of_plane"] = self.out_of_plane.to_dict()
         if self.second_plane is not None:
             data["second_plane"] = self.second_plane.to_data()
-        if self.restraints:
-            data["restraints"] = [r.to_data() for r in self.restraints]
-        if self.steps:
-            data["steps"] = [s.to_data() for s in self.steps]
+        data.update(inner.written(self))
         return data
 
     @classmethod

@@ -45,7 +45,7 @@ from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.imperfections import Bow, bow_for
 from engine.materials import material_from_spec
-from engine.restraints import for_plane
+from engine.restraints import for_plane, foundations_for_plane
 from engine.sections import section_from_spec
 from engine.solver import restrained
 from engine.solver.batch import Batch
@@ -213,6 +213,7 @@ def _plain(case, EI):
         EI=EI,
         steps=tuple(dataclasses.replace(s, EI=s.EI * case.stiffness_factor) for s in case.steps),
         restraints=for_plane(case.restraints, "first"),
+        foundation=foundations_for_plane(case.foundation, "first"),
         imperfection=Imperfection(),
         section=None,
         material=None,

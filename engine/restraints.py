@@ -34,11 +34,16 @@ from engine.validate import check_keys, choice, flag, real, set_field, show, wit
 
 __all__ = [
     "PLANES",
+    "Foundation",
     "Restraint",
     "RestraintReaction",
     "Step",
     "check_against",
+    "normalise",
+    "read",
+    "written",
     "check_mechanism",
+    "foundations_from_data",
     "for_plane",
     "restraints_from_data",
     "steps_from_data",
@@ -47,6 +52,8 @@ __all__ = [
 PLANES = ("first", "second", "both")
 _RESTRAINT_KEYS = ("x", "translation", "rotation", "hinge", "plane")
 _STEP_KEYS = ("x", "EI")
+_FOUNDATION_KEYS = ("start", "end", "k", "plane")
+_MAX_FOUNDATION = 1e12  # [N/m²]: stiffer than any soil or bedding by orders of magnitude
 _MAX_ITEMS = 50  # per list: far more than any member needs; keeps the global system small
 _MIN_EI, _MAX_EI = 1e-3, 1e16  # [N·m²], the case's own bounds of EI
 
@@ -150,6 +157,37 @@ class Step:
         return {"x": self.x, "EI": self.EI}
 
 
+@dataclass(frozen=True, kw_only=True)
+class Foundation:
+    """An elastic (Winkler) foundation of modulus ``k`` [N/m², force per length per deflection] from ``start``
+    to ``end`` [m], in ``plane`` "first", "second" or "both" (default): it adds ``-k w`` to the load.
+
+    >>> Foundation(start=0.0, end=6.0, k=2.0e6)
+    Foundation(start=0.0, end=6.0, k=2000000.0, plane='both')
+    """
+
+    start: float
+    end: float
+    k: float
+    plane: str = "both"
+
+    def __post_init__(self) -> None:
+        set_field(self, "start", real("start", self.start, "m"))
+        set_field(self, "end", real("end", self.end, "m"))
+        set_field(
+            self, "k", real("k", self.k, "N/m²", minimum=0.0, minimum_exclusive=True, maximum=_MAX_FOUNDATION)
+        )
+        choice("plane", self.plane, PLANES, "a plane")
+        if self.end <= self.start:
+            raise CaseError(f"end: {self.end!r} m must be beyond start ({self.start!r} m)")
+
+    def to_data(self) -> dict[str, Any]:
+        data: dict[str, Any] = {"start": self.start, "end": self.end, "k": self.k}
+        if self.plane != "both":
+            data["plane"] = self.plane
+        return data
+
+
 def _items(path: str, raw: Any, keys: tuple[str, ...], make) -> tuple:
     if isinstance(raw, (str, bytes, Mapping)) or not isinstance(raw, (list, tuple)):
         raise CaseError(f"{path}: {show(raw)} is not a list; expected a list of objects with keys {keys}")
@@ -163,7 +201,8 @@ def _items(path: str, raw: Any, keys: tuple[str, ...], make) -> tuple:
             continue
         if not isinstance(item, Mapping):
             raise CaseError(f"{where}: {show(item)} is not an object; expected keys {keys}")
-        check_keys(where, item, keys, ("x",) if make is Restraint else keys)
+        required = {Restraint: ("x",), Step: keys, Foundation: ("start", "end", "k")}[make]
+        check_keys(where, item, keys, required)
         with within(where):
             out.append(make(**item))
     return tuple(out)
@@ -177,6 +216,11 @@ def restraints_from_data(raw: Any) -> tuple[Restraint, ...]:
 def steps_from_data(raw: Any) -> tuple[Step, ...]:
     """The case file's ``steps`` list as :class:`Step` objects (paths ``steps[i].key``)."""
     return _items("steps", raw, _STEP_KEYS, Step)
+
+
+def foundations_from_data(raw: Any) -> tuple[Foundation, ...]:
+    """The case file's ``foundation`` list as :class:`Foundation` objects (paths ``foundation[i].key``)."""
+    return _items("foundation", raw, _FOUNDATION_KEYS, Foundation)
 
 
 def _inside(path: str, x: float, length: float) -> None:
@@ -234,11 +278,40 @@ def check_against(case) -> None:
                 "steps: not allowed in a two-plane case (a step by EI gives the stiffness about one axis "
                 "only)"
             )
+    ranges = []
+    for index, f in enumerate(case.foundation):
+        if not isinstance(f, Foundation):
+            raise CaseError(f"foundation[{index}]: {show(f)} is not a Foundation")
+        if f.start < -1e-9 * length or f.end > length * (1 + 1e-9):
+            raise CaseError(
+                f"foundation[{index}]: {f.start:g} to {f.end:g} m lies outside the member (0 to {length:g} m)"
+            )
+        if f.plane == "second" and case.second_plane is None:
+            raise CaseError(
+                f"foundation[{index}].plane: 'second' is not allowed in a one-plane case; allowed: 'first', "
+                "'both' (or add second_plane)"
+            )
+        for plane in ("first", "second") if f.plane == "both" else (f.plane,):
+            for other, a, b in ranges:
+                if plane == other[1] and f.start < b - 1e-9 * length and a < f.end - 1e-9 * length:
+                    raise CaseError(
+                        f"foundation[{index}]: {f.start:g} to {f.end:g} m overlaps "
+                        f"foundation[{other[0]}] in the {plane} plane; give one modulus per range"
+                    )
+            ranges.append(((index, plane), f.start, f.end))
     imp = case.imperfection
-    if (case.restraints or case.steps) and (imp.shape == "mode" or imp.preset == "en1993-eq-5.9"):
+    if case.foundation and imp.preset is not None:
+        raise CaseError(
+            f"imperfection.preset: {imp.preset!r} gives a bow between the ends, which does not fit a member "
+            "on an elastic foundation (its buckling mode has its own half-waves); give the bow's shape and "
+            "amplitude yourself"
+        )
+    if (case.restraints or case.steps or case.foundation) and (
+        imp.shape == "mode" or imp.preset == "en1993-eq-5.9"
+    ):
         raise CaseError(
             f"imperfection.shape: {imp.shape!r} (the first buckling mode) is not yet available with "
-            "restraints or steps; give the shape sine, parabola or sway with its amplitude"
+            "restraints, steps or a foundation; give the shape sine, parabola or sway with its amplitude"
         )
     sways = case.left.translation != "fixed" or case.right.translation != "fixed"
     if case.steps and imp.preset is not None and sways:
@@ -269,7 +342,8 @@ def _restrains(value) -> bool:
 
 
 def check_mechanism(case) -> None:
-    """Raise :class:`CaseError` when the supports and restraints of the first plane leave a mechanism.
+    """Raise :class:`CaseError` when the supports, restraints and foundation of the first plane leave a
+    mechanism.
 
     At zero load a mechanism is a deflected shape without strain: w piecewise linear, continuous, with a kink
     only at hinges, and zero wherever translation is restrained (rigidly or by a spring k > 0), its slope zero
@@ -299,6 +373,10 @@ def check_mechanism(case) -> None:
             rows.append(w_row(r.x / L))
         if _restrains(r.rotation):
             rows.append(slope_row(r.x / L))
+    # A foundation holds w = 0 along its whole range: at both ends and at every hinge inside it.
+    for f in foundations_for_plane(case.foundation, "first"):
+        for x in (f.start, f.end, *(r.x for _, r in hinges if f.start < r.x < f.end)):
+            rows.append(w_row(x / L))
     n = 2 + len(hinges)
     G = np.array(rows) if rows else np.zeros((1, n))
     _, sv, vt = np.linalg.svd(G, full_matrices=True)
@@ -317,3 +395,34 @@ def check_mechanism(case) -> None:
         "restraints: the supports and restraints leave the member free to move as a rigid body (a "
         "mechanism); restrain translation at two points at least, or translation and rotation at one"
     )
+
+
+def foundations_for_plane(foundation, plane: str) -> tuple[Foundation, ...]:
+    """The foundation ranges acting in ``plane``, each marked ``plane="first"`` for the solver."""
+    out = []
+    for f in foundation:
+        if f.plane in (plane, "both"):
+            out.append(
+                f if f.plane == "first" else Foundation(start=f.start, end=f.end, k=f.k, plane="first")
+            )
+    return tuple(out)
+
+
+_READERS = {"restraints": restraints_from_data, "steps": steps_from_data, "foundation": foundations_from_data}
+
+
+def read(mapping) -> dict:
+    """The case file's ``restraints``, ``steps`` and ``foundation`` (those given) as the case's arguments."""
+    return {key: reader(mapping[key]) for key, reader in _READERS.items() if key in mapping}
+
+
+def written(case) -> dict:
+    """The case-file form of the case's ``restraints``, ``steps`` and ``foundation`` (those not empty)."""
+    return {key: [item.to_data() for item in getattr(case, key)] for key in _READERS if getattr(case, key)}
+
+
+def normalise(case) -> None:
+    """Store the three lists on the (frozen) case as tuples of their objects, and check them."""
+    for key, reader in _READERS.items():
+        set_field(case, key, reader(getattr(case, key)))
+    check_against(case)

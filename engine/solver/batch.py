@@ -104,7 +104,7 @@ class Batch:
         self.reused: _ReusedColumns | None = None
         self._targets: _Targets | None = None
         rows = None
-        if nP == 1 and at is not None and at.ends is not None and not model.stepped:
+        if nP == 1 and at is not None and at.ends is not None and not model.special:
             rows = station_table(model, at).evaluate(float(P[0]))
         if rows is not None:
             # The rows at the segment ends and the stations' columns, from the stations' table.
@@ -274,6 +274,24 @@ class Batch:
             )
             self._targets = _Targets(st, out[TARGET_ROWS], out[TARGET_SLOPE_ROWS])
             return st
+        if model.has_foundation:  # the state rows of the basis (the foundation's rows replace the bare ones)
+            reused = self.reused is not None and self.reused.points is pts
+            B, p = model.basis(P, pts, (self.reused.columns, self.reused.particular) if reused else None)
+            c = self.coefficients[iP][pts.seg] if np.ndim(iP) == 0 else self.coefficients[iP, pts.seg]
+            y = np.einsum("nij,nj->in", B, c) + p.T
+            w0, d1, d2, d3 = pts.bow
+            return State(
+                w=y[0],
+                rotation=y[1],
+                M=y[2],
+                T=y[3],
+                V=y[3] + P * (y[1] + d1),
+                w0=w0,
+                w0_1=d1,
+                w0_2=d2,
+                w0_3=d3,
+                P=P,
+            )
         if self.reused is not None and self.reused.points is pts:
             cols, (pw, pt, pm, pT) = self.reused.columns, self.reused.particular
         else:
@@ -308,7 +326,9 @@ class Batch:
         EI = pts.EI
         P = states.P
         curv = -states.M / EI
-        dV = -pts.q + P * (states.w0_2 + curv)
+        # On a foundation its reaction -k w adds to the load: dV/dx and d²V/dx² gain k w and k w'.
+        dV = -pts.q + P * (states.w0_2 + curv) + pts.k * states.w
         f = np.stack([states.rotation, states.rotation + states.w0_1, states.V, dV])
-        df = np.stack([curv, curv + states.w0_2, dV, -pts.q1 + P * (states.w0_3 - states.V / EI)])
+        ddV = -pts.q1 + P * (states.w0_3 - states.V / EI) + pts.k * states.rotation
+        df = np.stack([curv, curv + states.w0_2, dV, ddV])
         return f, df

@@ -36,8 +36,11 @@ The assembly and solve are in :mod:`engine.solver.batch`, the stations' polynomi
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
+from engine.solver import foundation as foundation_basis
 from engine.solver.functions import SERIES_LIMIT, phi_series, xi_powers
 from engine.solver.supports import boundary_rows
 
@@ -70,6 +73,8 @@ class Points:
         self.h = model.h[self.seg]
         #: EI at each point [N·m²]: the member's one value, or per point where it has steps
         self.EI = model.EI if not model.stepped else model.EI_seg[self.seg]
+        #: the foundation modulus at each point [N/m²] (0.0 without a foundation)
+        self.k = model.k_seg[self.seg] if model.has_foundation else 0.0
         self.xa = model.xa[self.seg]
         self.q0 = model.q0[self.seg]
         self.q1 = model.q1[self.seg]
@@ -133,6 +138,9 @@ class Model:
         steps = tuple(getattr(case, "steps", ()))
         cuts.extend(float(r.x) for r in restraints)
         cuts.extend(float(st.x) for st in steps)
+        foundation = [f for f in getattr(case, "foundation", ()) if f.plane != "second"]
+        for f in foundation:
+            cuts.extend((float(f.start), float(f.end)))
         for load in case.loads:
             if load.type in ("point", "couple"):
                 cuts.append(float(load.x))
@@ -144,6 +152,10 @@ class Model:
             if c - nodes[-1] > tol:
                 nodes.append(float(c))
         nodes[-1] = L
+        if (
+            foundation
+        ):  # each foundation range in pieces short enough for its series (engine.solver.foundation)
+            nodes = _foundation_pieces(np.array(nodes), foundation, self.EI, steps, L)
         self.nodes = np.array(nodes)
         self.xa = self.nodes[:-1]
         self.h = np.diff(self.nodes)
@@ -186,8 +198,16 @@ class Model:
         self.EI_seg = np.full(nseg, self.EI)
         for st in steps:
             self.EI_seg[self.xa >= float(st.x) - tol] = float(st.EI)
-        #: whether EI changes along the member (the fast paths, built for one EI, then step aside)
+        #: whether EI changes along the member
         self.stepped = bool(steps) and bool(np.any(self.EI_seg != self.EI))
+        #: the foundation modulus of every segment [N/m²] (zero off the foundation)
+        self.k_seg = np.zeros(nseg)
+        mid = self.xa + 0.5 * self.h
+        for f in foundation:
+            self.k_seg[(mid > f.start) & (mid < f.end)] += float(f.k)
+        self.has_foundation = bool(np.any(self.k_seg > 0))
+        #: EI changes or a foundation: the fast paths (built for one EI and no foundation) step aside
+        self.special = self.stepped or self.has_foundation
         self.restraints = tuple(restraints)
         #: node index of each restraint, in the order of self.restraints
         self.restraint_nodes = np.array(
@@ -315,11 +335,50 @@ class Model:
         B[:, 3, 1] = -P if np.ndim(P) == 0 or index is None else np.asarray(P)[index]
         B[:, 0, 2], B[:, 1, 2], B[:, 2, 2] = w3, t3, m3
         B[:, 0, 3], B[:, 1, 3], B[:, 2, 3], B[:, 3, 3] = w4, t4, m4, T4
-        return B, np.stack(np.broadcast_arrays(*part), axis=1)
+        p = np.stack(np.broadcast_arrays(*part), axis=1)
+        if self.has_foundation:
+            on = np.nonzero((pts.k if index is None else pts.k[index]) > 0)[0]
+            if on.size:
+                at = on if index is None else np.asarray(index)[on]
+                Pf = P if np.ndim(P) == 0 else np.asarray(P)[at]
+                EIf = pts.EI if np.ndim(pts.EI) == 0 else pts.EI[at]
+                q0f = pts.q0[at] + Pf * self.bow.uniform
+                terms = tuple((F, beta, psi) for F, beta, psi, _, _ in pts.waves)
+                B[on], p[on] = foundation_basis.basis(
+                    Pf,
+                    EIf,
+                    pts.k[at],
+                    pts.h[at],
+                    pts.xa[at],
+                    pts.xi[at],
+                    q0f,
+                    pts.q1[at],
+                    terms,
+                    pts.bow[1][at],
+                )
+        return B, p
 
     def jump(self, node: int) -> np.ndarray:
         """state(x+) - state(x-) at a node: (0, 0, C, -F)."""
         return np.array([0.0, 0.0, self.couple[node], -self.force[node]])
+
+
+def _foundation_pieces(nodes, foundation, EI, steps, L):
+    """The nodes with every interval on a foundation cut into equal pieces no longer than
+    :func:`engine.solver.foundation.piece_length` (EI of the interval, its steps considered)."""
+    out = [nodes[0]]
+    for a, b in zip(nodes[:-1], nodes[1:], strict=True):
+        mid = 0.5 * (a + b)
+        k = sum(float(f.k) for f in foundation if f.start < mid < f.end)
+        if k > 0:
+            EI_here = EI
+            for st in steps:
+                if st.x <= mid:
+                    EI_here = float(st.EI)
+            count = int(math.ceil((b - a) / foundation_basis.piece_length(L, EI_here, k) - 1e-9))
+            out.extend(a + (b - a) * np.arange(1, count) / count)
+        out.append(b)
+    return out
 
 
 def node_conditions(model):

@@ -132,7 +132,7 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
             from_hi = hi - d_hi / ((g_f[:n_roots] + d_hi * width) / width**2)
         x0 = np.where(z_lo, from_lo, np.where(z_hi, from_hi, x0))
         x0 = np.where(np.isfinite(x0) & (x0 > lo) & (x0 < hi), x0, 0.5 * (lo + hi))
-    if single and batch.P.size == 1 and not batch.model.stepped:
+    if single and batch.P.size == 1 and not batch.model.special:
         fast = series.refine_by_series(batch, pts, st_at_stations, fid, k, lo, hi, x0, also)
         if fast is not None:
             return fast
@@ -185,7 +185,8 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
         left = np.sign(fx) == np.sign(flo)
         x1 = np.where(ok, x1, np.where(left, 0.5 * (x0 + hi), 0.5 * (lo + x0)))
         step = np.where(ok, step, 0.0)
-    out = _taylor(batch, st, q_at, trial.q1[:n_roots], n_roots, step, EI_at)
+    k_at = trial.k if np.ndim(trial.k) == 0 else trial.k[:n_roots]
+    out = _taylor(batch, st, q_at, trial.q1[:n_roots], n_roots, step, EI_at, k_at)
     if not ok.all():
         bad = np.nonzero(~ok)[0]
         again = Points(batch.model, bs[bad], x1[bad])
@@ -195,15 +196,17 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
     return bi, bs, x1, out
 
 
-def _taylor(batch, st, q, q1, n, h, EI):
+def _taylor(batch, st, q, q1, n, h, EI, k=0.0):
     """The state moved by h along the first n points (third order), the rest unchanged.
 
-    ``q`` and ``q1`` are the load intensity [N/m] and its slope [N/m²] at those n points, EI [N·m²] there.
+    ``q`` and ``q1`` are the load intensity [N/m] and its slope [N/m²] at those n points, EI [N·m²] and the
+    foundation modulus k [N/m²] there (its reaction -k w adds to the load).
     """
     P = st.P
     P = P[:n] if np.ndim(P) else P
     w, th, M, T, V = st.w[:n], st.rotation[:n], st.M[:n], st.T[:n], st.V[:n]
     w0, d1, d2, d3 = st.w0[:n], st.w0_1[:n], st.w0_2[:n], st.w0_3[:n]
+    q, q1 = q - k * w, q1 - k * th  # the foundation's reaction is a load -k w
     dV = -q + P * (d2 - M / EI)
     ddV = -q1 + P * (d3 - V / EI)
     h2, h3 = h * h / 2, h * h * h / 6

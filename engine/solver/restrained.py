@@ -30,6 +30,7 @@ import numpy as np
 
 from engine.roots import brentq
 from engine.solver import buckling as uniform
+from engine.solver import foundation
 from engine.solver.batch import Batch
 from engine.solver.model import Model, Points
 
@@ -38,8 +39,10 @@ __all__ = ["SegmentedBuckling", "critical_loads", "needs_segments"]
 
 def needs_segments(case) -> bool:
     """Whether the case has intermediate restraints (of its first plane) or steps in EI."""
-    return bool(getattr(case, "steps", ())) or any(
-        r.plane != "second" for r in getattr(case, "restraints", ())
+    return (
+        bool(getattr(case, "steps", ()))
+        or any(r.plane != "second" for r in getattr(case, "restraints", ()))
+        or any(f.plane != "second" for f in getattr(case, "foundation", ()))
     )
 
 
@@ -117,11 +120,42 @@ def _segment_stiffness(lam: np.ndarray) -> np.ndarray:
     return 0.5 * (K + np.swapaxes(K, 1, 2))
 
 
+def _foundation_segment(P: np.ndarray, EI: float, k: float, h: float):
+    """The exact end stiffness of a foundation segment at P [N] (n, 4, 4) and its clamped–clamped count J0.
+
+    J0 by Wittrick–Williams substructuring: the segment is cut into 2^d equal pieces short enough that none
+    has a clamped–clamped critical load below P (a foundation only raises the bare piece's 4π²EI/h_p², the
+    energy k∫w² being positive); J0 is then the number of negative eigenvalues of the stiffness of the
+    pieces' inner nodes, and the end stiffness that block's condensation.
+    """
+    pmax = max(float(P.max()), 0.0)
+    d = 0
+    while pmax >= 0.9 * 4 * math.pi**2 * EI / (h / 2**d) ** 2:
+        d += 1
+    m = 2**d
+    Ke = foundation.end_stiffness(P, EI, k, h / m)
+    n = P.size
+    if m == 1:
+        return Ke, np.zeros(n, dtype=int)
+    size = 2 * (m + 1)
+    K = np.zeros((n, size, size))
+    for i in range(m):
+        K[:, 2 * i : 2 * i + 4, 2 * i : 2 * i + 4] += Ke
+    outer = np.array([0, 1, size - 2, size - 1])
+    inner = np.arange(2, size - 2)
+    Kii = K[:, inner][:, :, inner]
+    Kib = K[:, inner][:, :, outer]
+    Kbb = K[:, outer][:, :, outer]
+    condensed = Kbb - np.swapaxes(Kib, 1, 2) @ np.linalg.solve(Kii, Kib)
+    return 0.5 * (condensed + np.swapaxes(condensed, 1, 2)), uniform._negative_count(Kii)
+
+
 class _Chain:
     """The freedoms of the chain of segments and the Wittrick–Williams count."""
 
     def __init__(self, model: Model, left, right):
         self.h, self.EI, L = model.h, model.EI_seg, model.L
+        self.k = model.k_seg
         nseg = model.nseg
         hinge = np.zeros(nseg + 1, dtype=bool)
         t_spring = np.zeros(nseg + 1)
@@ -184,13 +218,20 @@ class _Chain:
         self.ref = float(model.EI)
         self.L = L
 
-    def stiffness(self, P: np.ndarray) -> np.ndarray:
-        """The global stiffness at axial forces P: (n, size, size) [congruence-scaled]."""
+    def stiffness(self, P: np.ndarray, counts: np.ndarray | None = None) -> np.ndarray:
+        """The global stiffness at axial forces P: (n, size, size) [congruence-scaled]; ``counts`` (n,), when
+        given, receives every segment's clamped–clamped count J0."""
         n = P.size
         K = np.zeros((n, self.size, self.size))
         for j in range(self.h.size):
-            lam = self.h[j] * np.sqrt(P / self.EI[j])
-            Ke = _segment_stiffness(lam) * self.df[j][None, :, None] * self.dd[j][None, None, :]
+            if self.k[j] > 0:
+                Ke, j0 = _foundation_segment(P, float(self.EI[j]), float(self.k[j]), float(self.h[j]))
+            else:
+                lam = self.h[j] * np.sqrt(P / self.EI[j])
+                Ke = _segment_stiffness(lam) * self.df[j][None, :, None] * self.dd[j][None, None, :]
+                j0 = np.searchsorted(uniform._clamped_roots(float(lam.max()) + 1.0), lam)
+            if counts is not None:
+                counts += j0
             dofs = self.map[j]
             keep = dofs >= 0
             d = dofs[keep]
@@ -203,12 +244,10 @@ class _Chain:
         """Number of critical loads below each P [N] (Wittrick–Williams)."""
         P = np.atleast_1d(np.asarray(P, dtype=float))
         j0 = np.zeros(P.size, dtype=int)
-        for j in range(self.h.size):
-            lam = self.h[j] * np.sqrt(P / self.EI[j])
-            j0 += np.searchsorted(uniform._clamped_roots(float(lam.max()) + 1.0), lam)
+        K = self.stiffness(P, j0)
         if self.size == 0:
             return j0
-        return j0 + uniform._negative_count(self.stiffness(P))
+        return j0 + uniform._negative_count(K)
 
 
 @dataclass(frozen=True)
