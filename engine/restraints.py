@@ -299,6 +299,23 @@ def check_against(case) -> None:
                         f"foundation[{other[0]}] in the {plane} plane; give one modulus per range"
                     )
             ranges.append(((index, plane), f.start, f.end))
+    extras = case.restraints or case.steps or case.foundation
+    routes = tuple(getattr(case.check, "routes", ()))
+    checked = case.section is not None and case.material is not None
+    if checked and (case.foundation or any(r.translation != "free" for r in case.restraints)):
+        raise CaseError(
+            "restraints: the member check (section and material) is not yet available with an "
+            "intermediate translational restraint or a foundation: its bow and buckling lengths belong to "
+            "the mode between the restraints, not yet built; give EI (and second_plane.EI) instead of the "
+            "section to analyse the member, and check the sections with its forces and the effective "
+            "length of each segment"
+        )
+    if extras and checked and routes != ("second-order",):
+        raise CaseError(
+            f"check.routes: {list(routes)!r} is not yet available with restraints, steps or a foundation: "
+            "the equivalent-member routes read one moment diagram and one buckling length between the ends; "
+            "allowed here: ['second-order'] (the cross-section check with the exact second-order forces)"
+        )
     imp = case.imperfection
     if case.foundation and imp.preset is not None:
         raise CaseError(

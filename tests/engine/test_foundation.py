@@ -167,3 +167,14 @@ def test_restraints_steps_and_foundation_against_solve_bvp(P):
     for field, name in (("deflection", "w"), ("moment", "M"), ("shear", "V")):
         got, want = getattr(result, field), ref[name]
         assert np.abs(got - want).max() <= 1e-8 * np.abs(want).max(), field
+
+
+def test_sweep_agrees_with_solve_on_a_foundation():
+    # The many-force assembly gives the foundation's series per point; it must agree with one-force solves.
+    case = engine.Case.from_dict(dict(_CASE, axial_force=0.0))
+    pcr = engine.critical_loads(case, 1).critical_loads[0]
+    forces = np.array([-1.0e6, 0.0, 3.0e5, 0.9 * pcr])
+    swept = engine.sweep(case, forces)
+    for i, P in enumerate(forces):
+        one = engine.solve(engine.Case.from_dict(dict(_CASE, axial_force=float(P))))
+        assert abs(swept.peak_moment[i]) == pytest.approx(one.governing.moment.magnitude, rel=1e-9)

@@ -333,3 +333,45 @@ def test_sweep_agrees_with_solve():
     for i, P in enumerate(forces):
         one = engine.solve(engine.Case.from_dict({**case.to_dict(), "axial_force": float(P)}))
         assert abs(swept.peak_moment[i]) == pytest.approx(one.governing.moment.magnitude, rel=1e-9)
+
+
+def test_member_check_with_restraints():
+    data = {
+        "length": L,
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S355"},
+        "supports": {"left": "fixed", "right": "pinned"},
+        "axial_force": 3e5,
+        "loads": [{"type": "uniform", "q": q}],
+        "imperfection": {"shape": "sine", "amplitude": L / 300},
+    }
+    # A brace or a foundation needs the bow and buckling lengths between the restraints: refused with a
+    # section (conservative: no check rather than a check on the wrong bow).
+    with pytest.raises(engine.CaseError, match="restraints: the member check"):
+        engine.Case.from_dict({**data, "restraints": [{"x": L / 2, "translation": "fixed"}]})
+    with pytest.raises(engine.CaseError, match="restraints: the member check"):
+        engine.Case.from_dict({**data, "foundation": [{"start": 0.0, "end": L, "k": 1e5}]})
+    # A rotation spring: the second-order route only.
+    spring = {**data, "restraints": [{"x": L / 2, "rotation": 1e6}]}
+    with pytest.raises(engine.CaseError, match=r"check.routes: \['second-order', 'en-member'\] is not yet"):
+        engine.Case.from_dict(spring)
+    result = engine.solve(engine.Case.from_dict({**spring, "check": {"routes": ["second-order"]}}))
+    assert result.check is not None and 0 < result.utilization < 1
+    # A rotation spring exerts a couple only.
+    assert abs(result.reactions.intermediate[0].force) < 1e-9 * q * L
+    assert result.reactions.intermediate[0].couple != 0.0
+
+
+def test_a_braced_hinge_decouples_the_spans_in_buckling():
+    # Fixed at x = 0, a hinge held sideways at mid-length, pinned at x = L: the left span buckles as a
+    # fixed–pinned strut (μ = 4.4934, tan μ = μ), the right as a pinned–pinned one (π), independently
+    # (Timoshenko & Gere ch. 2, from memory); the first critical loads are the spans' own, interleaved.
+    span = L / 2
+    case = _case([{"x": span, "translation": "fixed", "hinge": True}], left="fixed", right="pinned", loads=[])
+    pcr = engine.critical_loads(case, 3).critical_loads
+    mu = brentq(lambda t: math.sin(t) - t * math.cos(t), 4.0, 4.6, xtol=1e-15)
+    expected = sorted([(math.pi / span) ** 2 * EI, (mu / span) ** 2 * EI, (2 * math.pi / span) ** 2 * EI])
+    assert pcr == pytest.approx(expected, rel=1e-11)
+    # The first mode lives in the right span only.
+    shape = engine.critical_loads(case, 1).mode_shapes(np.array([span / 2, span + span / 2]))[0]
+    assert shape == pytest.approx([0.0, 1.0], abs=1e-9)
