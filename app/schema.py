@@ -20,6 +20,10 @@ import functools
 import json
 from typing import Any
 
+from app.schema_inner import RESTRAINTS as RESTRAINTS  # the end restraints, kept under this name
+from app.schema_inner import inner_properties
+from app.schema_inner import spring_or as _spring_or
+
 __all__ = ["SCHEMA_ID", "case_schema", "schema_text"]
 
 #: The schema's identifier (a URN: the schema is shipped with strutscope, not published at an address).
@@ -30,7 +34,6 @@ _DRAFT = "https://json-schema.org/draft/2020-12/schema"
 # The names the engine accepts, written out here so the schema reads on its own (tests/app/test_schema.py
 # compares each list with the engine's).
 SUPPORT_NAMES = ("pinned", "fixed", "free", "guided")
-RESTRAINTS = ("fixed", "free")
 LOAD_TYPES = ("uniform", "linear", "point", "couple")
 BOW_SHAPES = ("none", "sine", "parabola", "sway", "mode")
 BOW_PRESETS = ("en1993-table-5.1", "en1993-eq-5.9", "aisc-l/1000", "span")
@@ -83,17 +86,6 @@ def _closed(properties: dict[str, Any], required: tuple[str, ...] = (), **extra:
 
 def _end(side: str, x: str) -> dict[str, Any]:
     return {"$ref": "#/$defs/end_support", "description": f"The support at the {side} end (x = {x})."}
-
-
-def _spring_or(restraint: str, condition: str, unit: str) -> dict[str, Any]:
-    return {
-        "description": f"The end's {restraint} restraint: 'fixed', 'free' or an elastic spring [{unit}], "
-        f"0 to 1e18 ({condition}).",
-        "anyOf": [
-            {"enum": list(RESTRAINTS)},
-            _number(f"spring stiffness [{unit}]", minimum=0, maximum=1e18),
-        ],
-    }
 
 
 def _section_shape(
@@ -547,77 +539,7 @@ def _build() -> dict[str, Any]:
             "moments. Default bow: EN 1993-1-1 Table 5.1 with a steel section, else none. Not with "
             "'out_of_plane' nor a custom section.",
         ),
-        "restraints": {
-            "type": "array",
-            "maxItems": 50,
-            "items": _closed(
-                {
-                    "x": _number("Where [m], strictly between the ends.", exclusiveMinimum=0),
-                    "translation": _spring_or(
-                        "translation", "a spring's force on the member is -k_t w; default 'free'", "N/m"
-                    ),
-                    "rotation": _spring_or(
-                        "rotation", "a spring's couple on the member is -k_r w'; default 'free'", "N·m/rad"
-                    ),
-                    "hinge": {
-                        "type": "boolean",
-                        "description": "An internal hinge (moment release); its rotation must be 'free'. "
-                        "Default false.",
-                    },
-                    "plane": {
-                        "enum": ["first", "second", "both"],
-                        "description": "The plane it acts in ('second' needs second_plane). Default 'both'.",
-                    },
-                },
-                ("x",),
-                description="A support, spring or hinge inside the member. One per point and plane; one "
-                "that restrains nothing, or leaves a mechanism, is refused by strutscope.",
-            ),
-            "description": "Intermediate restraints and hinges, at most 50. Default none.",
-        },
-        "steps": {
-            "type": "array",
-            "maxItems": 50,
-            "items": _closed(
-                {
-                    "x": _number(
-                        "Where the new stiffness starts [m], strictly between the ends.", exclusiveMinimum=0
-                    ),
-                    "EI": _number(
-                        "Bending stiffness from x to the next step or the end [N·m²], > 0 and <= 1e16.",
-                        exclusiveMinimum=0,
-                        maximum=1e16,
-                    ),
-                },
-                ("x", "EI"),
-                description="A change of EI, in increasing x. Only in a one-plane case that gives its own "
-                "EI and no section.",
-            ),
-            "description": "Steps in the bending stiffness, at most 50. Default none.",
-        },
-        "foundation": {
-            "type": "array",
-            "maxItems": 50,
-            "items": _closed(
-                {
-                    "start": _number("Where the foundation starts [m], on the member.", minimum=0),
-                    "end": _number("Where it ends [m], beyond start, on the member.", exclusiveMinimum=0),
-                    "k": _number(
-                        "Winkler modulus [N/m²] (force per length per deflection), > 0 and <= 1e12.",
-                        exclusiveMinimum=0,
-                        maximum=1e12,
-                    ),
-                    "plane": {
-                        "enum": ["first", "second", "both"],
-                        "description": "The plane it acts in ('second' needs second_plane). Default 'both'.",
-                    },
-                },
-                ("start", "end", "k"),
-                description="An elastic foundation under part or all of the member; it adds -k w to the "
-                "load. Ranges of one plane may not overlap.",
-            ),
-            "description": "Elastic (Winkler) foundation ranges, at most 50. Default none.",
-        },
+        **inner_properties(),
     }
     return {
         "$schema": _DRAFT,

@@ -365,6 +365,13 @@ def resolve(case):
     notes = []
     sway = anchor = 0.0
     sway_label = sway_source = ""
+    if imp.preset is not None and shape in ("sine", "parabola") and (plain.restraints or plain.foundation):
+        notes.append(
+            f"The {shape} bow between the ends does not fit a member with intermediate restraints or a "
+            "foundation: the bow takes the shape of the member's first buckling mode, with the amplitude "
+            "of the whole member (EN 1993-1-1 §5.3.2(11), from memory)."
+        )
+        shape = "mode"
     if imp.preset is not None and can_sway(plain):
         if shape in ("sine", "parabola"):
             notes.append(

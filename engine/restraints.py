@@ -302,45 +302,19 @@ def check_against(case) -> None:
     extras = case.restraints or case.steps or case.foundation
     routes = tuple(getattr(case.check, "routes", ()))
     checked = case.section is not None and case.material is not None
-    if checked and (case.foundation or any(r.translation != "free" for r in case.restraints)):
-        raise CaseError(
-            "restraints: the member check (section and material) is not yet available with an "
-            "intermediate translational restraint or a foundation: its bow and buckling lengths belong to "
-            "the mode between the restraints, not yet built; give EI (and second_plane.EI) instead of the "
-            "section to analyse the member, and check the sections with its forces and the effective "
-            "length of each segment"
-        )
     if extras and checked and routes != ("second-order",):
         raise CaseError(
             f"check.routes: {list(routes)!r} is not yet available with restraints, steps or a foundation: "
             "the equivalent-member routes read one moment diagram and one buckling length between the ends; "
-            "allowed here: ['second-order'] (the cross-section check with the exact second-order forces)"
+            "allowed here: ['second-order'] (the cross-section check with the exact second-order forces and "
+            "a bow in the shape of the first buckling mode)"
         )
     imp = case.imperfection
-    if case.foundation and imp.preset is not None:
+    if extras and imp.preset == "en1993-eq-5.9":
         raise CaseError(
-            f"imperfection.preset: {imp.preset!r} gives a bow between the ends, which does not fit a member "
-            "on an elastic foundation (its buckling mode has its own half-waves); give the bow's shape and "
-            "amplitude yourself"
-        )
-    if (case.restraints or case.steps or case.foundation) and (
-        imp.shape == "mode" or imp.preset == "en1993-eq-5.9"
-    ):
-        raise CaseError(
-            f"imperfection.shape: {imp.shape!r} (the first buckling mode) is not yet available with "
-            "restraints, steps or a foundation; give the shape sine, parabola or sway with its amplitude"
-        )
-    sways = case.left.translation != "fixed" or case.right.translation != "fixed"
-    if case.steps and imp.preset is not None and sways:
-        raise CaseError(
-            f"imperfection.preset: {imp.preset!r} on a member whose end can translate takes the first mode's "
-            "shape, not yet available with steps; give the bow's shape and amplitude yourself"
-        )
-    if for_plane(case.restraints, "first") and imp.preset is not None:
-        raise CaseError(
-            f"imperfection.preset: {imp.preset!r} gives a bow between the ends, which does not fit a member "
-            "with intermediate restraints (the code bow belongs to each buckling length); give the bow's "
-            "shape and amplitude yourself (imperfection.shape and imperfection.amplitude)"
+            "imperfection.preset: 'en1993-eq-5.9' is not yet available with restraints, steps or a "
+            "foundation; use 'en1993-table-5.1' (whose bow then takes the first mode's shape) or give the "
+            "bow's shape and amplitude"
         )
 
 

@@ -82,7 +82,12 @@ class Points:
         self.x = self.xa + self.xi
         self.h2 = self.h * self.h
         self.h2_range = (float(self.h2.min()), float(self.h2.max())) if self.size else (0.0, 0.0)
-        self.bow = model.bow.derivatives(self.x)
+        if (
+            getattr(model.bow, "modal", None) is not None
+        ):  # a modal bow: just left of a node at a segment's end
+            self.bow = model.bow.derivatives(self.x, left=self.xi == self.h)
+        else:
+            self.bow = model.bow.derivatives(self.x)
         self.waves = tuple(
             (F, beta, psi, np.sin(beta * self.x + psi), np.cos(beta * self.x + psi))
             for F, beta, psi in model.bow.terms
@@ -93,6 +98,8 @@ class Points:
         self.station_table = None
         #: (seg, xi, index, offset) of the last nearest-station query (engine.solver.series)
         self.nearest = None
+        #: the modal bow's shape and derivatives at the points (Model._modal_part), when first needed
+        self.modal_phi = None
         #: for base stations (engine.prepared): the listed stations' indices and sort keys, their exact x, and
         #: those keys with sentinels at both ends (engine.analysis merges the peaks into the stations
         #: with them)
@@ -206,8 +213,10 @@ class Model:
         for f in foundation:
             self.k_seg[(mid > f.start) & (mid < f.end)] += float(f.k)
         self.has_foundation = bool(np.any(self.k_seg > 0))
-        #: EI changes or a foundation: the fast paths (built for one EI and no foundation) step aside
-        self.special = self.stepped or self.has_foundation
+        #: a bow in the shape of the first mode of a restrained member: (buckling, amplitude), or None
+        self.modal = getattr(bow, "modal", None)
+        #: EI changes, a foundation or a modal bow: the fast paths (one EI, sinusoid bows) step aside
+        self.special = self.stepped or self.has_foundation or self.modal is not None
         self.restraints = tuple(restraints)
         #: node index of each restraint, in the order of self.restraints
         self.restraint_nodes = np.array(
@@ -305,7 +314,30 @@ class Model:
             part[3] = part[3] - (EI * p3 + P * p1)
         if self.bow.shape != "none":
             part[3] = part[3] - P * pts.bow[1]
+        if self.modal is not None:
+            for i, extra in enumerate(self._modal_part(P, pts)):
+                part[i] = part[i] + extra
         return cols, part
+
+    def _modal_part(self, P, pts, at=None):
+        r"""The response to a bow :math:`w_0 = a\varphi` in the shape of the first mode φ (at :math:`N_{cr}`).
+
+        :math:`w_p = c\varphi` with :math:`c = aP/(N_{cr} - P)` solves each segment's equation (from
+        :math:`EI\varphi^{(4)} + N_{cr}\varphi'' (+ k\varphi) = 0`, :math:`EI w_p^{(4)} + P w_p'' (+ k w_p) =
+        -P w_0''`) and, φ meeting every end, node and restraint condition at N_cr, adds nothing to them
+        (derived). Returns w, w', M and T (without the bow's own -P w0', added with the other bows') at the
+        points, or at ``at`` among them.
+        """
+        buckling, a = self.modal
+        phi = pts.modal_phi
+        if phi is None:  # M and V of the mode rather than its curvatures: continuous at a step in EI
+            phi = pts.modal_phi = buckling.mode_state(0, pts.x, left=pts.xi == pts.h)
+        w, d1, M, V = phi
+        if at is not None:
+            w, d1, M, V = w[at], d1[at], M[at], V[at]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            c = a * P / (float(buckling.critical_loads[0]) - P)
+        return c * w, c * d1, c * M, c * V - P * c * d1
 
     def basis(self, P, pts, columns=None, index=None):
         """The state rows (w, w', M, T) of the four basis functions and of the particular solution.
@@ -356,6 +388,8 @@ class Model:
                     terms,
                     pts.bow[1][at],
                 )
+                if self.modal is not None:
+                    p[on] += np.stack(self._modal_part(Pf, pts, at), axis=1)
         return B, p
 
     def jump(self, node: int) -> np.ndarray:

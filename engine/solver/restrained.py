@@ -79,11 +79,17 @@ class SegmentedBuckling:
         """L_cr = π √(EI_j / N_cr,n) of every segment for mode ``n`` (0-based) [m]."""
         return math.pi * np.sqrt(self.segment_EI / self.critical_loads[n])
 
-    def _state(self, n, x):
+    def _state(self, n, x, left=None):
+        """The mode's state at x; where ``left`` is True and x is a node, the state just left of it."""
         model = self._model
         x = np.atleast_1d(np.asarray(x, dtype=float))
         seg = model.segment_of(x)
-        pts = Points(model, seg, x - model.xa[seg])
+        xi = x - model.xa[seg]
+        if left is not None:
+            back = np.asarray(left, dtype=bool) & (seg > 0) & (np.abs(xi) <= 1e-12 * model.L)
+            seg = np.where(back, seg - 1, seg)
+            xi = np.where(back, model.h[seg], xi)
+        pts = Points(model, seg, xi)
         batch = _ModeBatch(model, self.critical_loads[n], self._coefficients[n] / self._scale[n])
         return batch.states(0, pts), pts
 
@@ -91,9 +97,17 @@ class SegmentedBuckling:
         """The normalised mode shapes at ``x`` [m]: shape (count, len(x)), largest value +1 [-]."""
         return np.stack([self._state(n, x)[0].w for n in range(self.critical_loads.size)])
 
-    def mode_derivatives(self, n: int, x):
-        """Mode ``n`` and its first three x-derivatives at ``x`` [m]: [-], [1/m], [1/m²], [1/m³]."""
-        st, pts = self._state(n, x)
+    def mode_state(self, n: int, x, left=None):
+        """Mode ``n``'s w [-], w' [1/m], and its M and V [N·m/m, N/m per unit of w] at ``x`` [m]:
+        continuous where EI steps; ``left`` marks points at a node that take the value just left of it (a
+        hinge's slope)."""
+        st, _ = self._state(n, x, left)
+        return st.w, st.rotation, st.M, st.V
+
+    def mode_derivatives(self, n: int, x, left=None):
+        """Mode ``n`` and its first three x-derivatives at ``x`` [m]: [-], [1/m], [1/m²], [1/m³] (``left`` as
+        in :meth:`mode_state`)."""
+        st, pts = self._state(n, x, left)
         return st.w, st.rotation, -st.M / pts.EI, -st.V / pts.EI
 
 
@@ -223,9 +237,13 @@ class _Chain:
         given, receives every segment's clamped–clamped count J0."""
         n = P.size
         K = np.zeros((n, self.size, self.size))
+        alike: dict = {}  # the pieces of a foundation range are alike: one evaluation serves them all
         for j in range(self.h.size):
             if self.k[j] > 0:
-                Ke, j0 = _foundation_segment(P, float(self.EI[j]), float(self.k[j]), float(self.h[j]))
+                key = (float(self.EI[j]), float(self.k[j]), round(float(self.h[j]), 12))
+                if key not in alike:
+                    alike[key] = _foundation_segment(P, *key)
+                Ke, j0 = alike[key]
             else:
                 lam = self.h[j] * np.sqrt(P / self.EI[j])
                 Ke = _segment_stiffness(lam) * self.df[j][None, :, None] * self.dd[j][None, None, :]
@@ -267,6 +285,17 @@ class _NoBow:
 def _null_coefficients(model: Model, P: float) -> np.ndarray:
     """The null vector of the global system at P, as (nseg, 4) coefficients."""
     A = _system(model, P)
+    # Inverse iteration: at a root A is singular to rounding, so one LU solve is all but the null vector
+    # (far cheaper than an SVD for long chains of segments); the SVD where the solve fails or stalls.
+    x = np.linspace(1.0, 2.0, A.shape[0])
+    try:
+        for _ in range(3):
+            x = np.linalg.solve(A, x / np.linalg.norm(x))
+        x /= np.linalg.norm(x)
+        if np.isfinite(x).all() and np.linalg.norm(A @ x) <= 1e-8 * np.abs(A).max():
+            return x.reshape(model.nseg, 4)
+    except np.linalg.LinAlgError:
+        pass
     _, _, vt = np.linalg.svd(A)
     return vt[-1].reshape(model.nseg, 4)
 
@@ -334,13 +363,36 @@ def _solve(case, count):
     pts = Points(model, seg, xs - model.xa[seg])
     for P in pcr:
         c = _null_coefficients(model, float(P))
-        w = _ModeBatch(model, P, c).states(0, pts).w
-        i = int(np.argmax(np.abs(w)))
-        big = np.abs(w) >= (1 - 1e-9) * np.abs(w[i])
-        first = int(np.argmax(big))  # the leftmost of equally large extremes is made positive
+        batch = _ModeBatch(model, P, c)
+        w = batch.states(0, pts).w
+        mag = np.abs(w)
+        # The samples near the largest, each refined to its extreme by Newton's method on the slope.
+        candidates = np.nonzero(mag >= (1 - 1e-4) * mag.max())[0]
+        values = [_extreme(batch, xs, w, int(i)) for i in candidates]
+        largest = max(abs(v) for v in values)
+        first = next(v for v in values if abs(v) >= (1 - 1e-9) * largest)  # the leftmost is made positive
         coefs.append(c)
-        scales.append(float(w[first]) if w[first] != 0 else 1.0)
+        scales.append(first if first != 0 else 1.0)
     return model, pcr, np.stack(coefs), np.array(scales)
+
+
+def _extreme(batch, xs, w, i) -> float:
+    """The mode's value at the extreme nearest sample i: Newton's method on w' = 0 (w'' = -M/EI) within the
+    neighbouring samples; the sample itself at an end or where that finds no larger value."""
+    if i == 0 or i == xs.size - 1:
+        return float(w[i])
+    model = batch.model
+    x, lo, hi = float(xs[i]), float(xs[i - 1]), float(xs[i + 1])
+    for _ in range(8):
+        seg = model.segment_of(np.array([x]))
+        st = batch.states(0, Points(model, seg, np.array([x]) - model.xa[seg]))
+        curvature = float(-st.M[0] / np.atleast_1d(model.EI_seg[seg])[0])
+        if curvature == 0.0:
+            break
+        x = min(max(x - float(st.rotation[0]) / curvature, lo), hi)
+    seg = model.segment_of(np.array([x]))
+    value = float(batch.states(0, Points(model, seg, np.array([x]) - model.xa[seg])).w[0])
+    return value if abs(value) >= abs(w[i]) else float(w[i])
 
 
 def critical_loads(case, count: int = 5):

@@ -42,8 +42,11 @@ def test_keys_round_trip_and_errors():
         _case(6.0, [{"start": 1.0, "end": 7.0, "k": 1e6}])
     with pytest.raises(engine.CaseError, match=r"foundation\[1\]: 2 to 4 m overlaps foundation\[0\]"):
         _case(6.0, [{"start": 1.0, "end": 3.0, "k": 1e6}, {"start": 2.0, "end": 4.0, "k": 1e6}])
-    with pytest.raises(engine.CaseError, match="imperfection.preset"):
+    # A code bow on a foundation takes the first mode's shape.
+    result = engine.solve(
         _case(6.0, [{"start": 0.0, "end": 6.0, "k": 1e6}], imperfection={"preset": "aisc-l/1000"})
+    )
+    assert result.bow.shape == "mode"
 
 
 def test_a_foundation_holds_a_free_free_member():
@@ -165,6 +168,23 @@ def test_restraints_steps_and_foundation_against_solve_bvp(P):
     result = engine.solve(engine.Case.from_dict(data))
     ref = reference_solution(data, result.x)
     for field, name in (("deflection", "w"), ("moment", "M"), ("shear", "V")):
+        got, want = getattr(result, field), ref[name]
+        assert np.abs(got - want).max() <= 1e-8 * np.abs(want).max(), field
+
+
+def test_a_modal_bow_against_solve_bvp():
+    # The bow in the shape of the first mode (a = 0.01 m), handed to the reference as callables of x.
+    data = dict(_CASE, axial_force=3.0e5, imperfection={"shape": "mode", "amplitude": 0.01})
+    result = engine.solve(engine.Case.from_dict(data))
+    mode = result.buckling
+
+    def bow(d):
+        return lambda x: 0.01 * mode.mode_derivatives(0, np.asarray(x, dtype=float))[d]
+
+    ref = reference_solution(data, result.x, bow=(bow(0), bow(1), bow(2)))
+    # T rather than V: V = T + N(w' + w0') at a hinge's node needs the bow's slope on the node's side,
+    # which the reference's output (a function of x alone) cannot tell.
+    for field, name in (("deflection", "w"), ("moment", "M"), ("transverse_force", "T")):
         got, want = getattr(result, field), ref[name]
         assert np.abs(got - want).max() <= 1e-8 * np.abs(want).max(), field
 

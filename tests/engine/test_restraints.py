@@ -131,14 +131,49 @@ def test_restraints_make_a_stable_member_of_ends_that_cannot():
     assert forces == pytest.approx([-q * L / 2, -q * L / 2], rel=1e-12)
 
 
-def test_mode_bow_and_presets_are_refused_with_restraints():
-    with pytest.raises(engine.CaseError, match="imperfection.shape: 'mode'"):
-        _case([{"x": 3.0, "translation": "fixed"}], imperfection={"shape": "mode", "amplitude": 0.01})
-    with pytest.raises(engine.CaseError, match="imperfection.preset"):
-        _case(
-            [{"x": 3.0, "translation": "fixed"}],
-            imperfection={"preset": "en1993-table-5.1", "curve": "b"},
-        )
+def test_presets_take_the_mode_shape_with_restraints():
+    # A code bow between the ends does not fit a braced member: the preset's bow takes the first mode's shape
+    # (EN 1993-1-1 §5.3.2(11), from memory), with the whole member's amplitude L/ratio (conservative).
+    with pytest.raises(engine.CaseError, match="imperfection.preset: 'en1993-eq-5.9' is not yet"):
+        _case([{"x": 3.0, "translation": "fixed"}], imperfection={"preset": "en1993-eq-5.9", "curve": "b"})
+    case = _case(
+        [{"x": 2.0, "translation": "fixed"}], imperfection={"preset": "en1993-table-5.1", "curve": "b"}
+    )
+    result = engine.solve(case)
+    assert result.bow.shape == "mode"
+    assert abs(result.bow.amplitude) == pytest.approx(L / 250, rel=1e-12)  # Table 5.1, curve b, elastic
+    # The mode is scaled at its refined extreme: no station exceeds the amplitude, the nearest one meets it.
+    assert np.abs(result.initial_bow).max() == pytest.approx(L / 250, rel=1e-6)
+    assert np.abs(result.initial_bow).max() <= L / 250 * (1 + 1e-12)
+    shape = result.buckling.mode_shapes(result.x)[0]
+    assert np.abs(result.initial_bow - result.bow.amplitude * shape).max() < 1e-12 * L
+
+
+@pytest.mark.parametrize(
+    "extra",
+    [
+        {"restraints": [{"x": 2.0, "translation": "fixed"}]},
+        {"steps": [{"x": 4.0, "EI": 0.7 * EI}]},
+        {"restraints": [{"x": 2.5, "translation": 2e6, "hinge": True}, {"x": 4.0, "rotation": 1e6}]},
+        {
+            "restraints": [{"x": 2.0, "translation": "fixed", "hinge": True}],
+            "steps": [{"x": 3.0, "EI": 2 * EI}],
+        },
+        {"foundation": [{"start": 1.0, "end": 5.0, "k": 3e4}]},
+    ],
+)
+def test_a_modal_bow_is_amplified_by_one_over_one_minus_n_over_ncr(extra):
+    # A bow a·φ in the shape of the first mode, alone: w = a·N/(N_cr − N)·φ exactly (φ satisfies the equation
+    # at N_cr and every condition; derived, and the classical amplification of a first-mode imperfection,
+    # Timoshenko & Gere ch. 1, from memory).
+    a, P = 0.02, 2e5
+    case = _case(
+        left="fixed", right="pinned", P=P, loads=[], imperfection={"shape": "mode", "amplitude": a}, **extra
+    )
+    result = engine.solve(case)
+    pcr = result.critical_loads[0]
+    expected = a * P / (pcr - P) * result.buckling.mode_shapes(result.x)[0]
+    assert np.abs(result.deflection - expected).max() <= 1e-12 * np.abs(expected).max()
 
 
 # ------------------------------------------------------------------------------------------- statics
@@ -304,15 +339,17 @@ def test_second_plane_restraint_acts_in_that_plane_only():
     assert result.reactions.intermediate == ()
 
 
-def test_preset_with_steps_on_a_swaying_member_is_refused():
-    # The preset would take the first mode's shape (a swaying end), which is not built for steps.
-    with pytest.raises(engine.CaseError, match="imperfection.preset"):
-        _case(
-            steps=[{"x": 3.0, "EI": 2 * EI}],
-            left="fixed",
-            right="free",
-            imperfection={"preset": "en1993-table-5.1", "curve": "b"},
-        )
+def test_preset_with_steps_on_a_swaying_member_takes_the_mode():
+    case = _case(
+        steps=[{"x": 3.0, "EI": 2 * EI}],
+        left="fixed",
+        right="free",
+        P=1e5,
+        imperfection={"preset": "en1993-table-5.1", "curve": "b"},
+    )
+    result = engine.solve(case)
+    assert result.bow.shape == "mode"
+    assert result.status == "stable"
 
 
 def test_sweep_agrees_with_solve():
@@ -335,31 +372,27 @@ def test_sweep_agrees_with_solve():
         assert abs(swept.peak_moment[i]) == pytest.approx(one.governing.moment.magnitude, rel=1e-9)
 
 
-def test_member_check_with_restraints():
+def test_member_check_with_a_brace_takes_the_second_order_route():
     data = {
         "length": L,
         "section": {"name": "HEB 200"},
         "material": {"name": "S355"},
-        "supports": {"left": "fixed", "right": "pinned"},
-        "axial_force": 3e5,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 8e5,
         "loads": [{"type": "uniform", "q": q}],
-        "imperfection": {"shape": "sine", "amplitude": L / 300},
+        "imperfection": {"preset": "en1993-table-5.1"},
+        "restraints": [{"x": L / 2, "translation": "fixed"}],
     }
-    # A brace or a foundation needs the bow and buckling lengths between the restraints: refused with a
-    # section (conservative: no check rather than a check on the wrong bow).
-    with pytest.raises(engine.CaseError, match="restraints: the member check"):
-        engine.Case.from_dict({**data, "restraints": [{"x": L / 2, "translation": "fixed"}]})
-    with pytest.raises(engine.CaseError, match="restraints: the member check"):
-        engine.Case.from_dict({**data, "foundation": [{"start": 0.0, "end": L, "k": 1e5}]})
-    # A rotation spring: the second-order route only.
-    spring = {**data, "restraints": [{"x": L / 2, "rotation": 1e6}]}
+    # The equivalent-member routes read one diagram and one buckling length between the ends: refused.
     with pytest.raises(engine.CaseError, match=r"check.routes: \['second-order', 'en-member'\] is not yet"):
-        engine.Case.from_dict(spring)
-    result = engine.solve(engine.Case.from_dict({**spring, "check": {"routes": ["second-order"]}}))
-    assert result.check is not None and 0 < result.utilization < 1
-    # A rotation spring exerts a couple only.
-    assert abs(result.reactions.intermediate[0].force) < 1e-9 * q * L
-    assert result.reactions.intermediate[0].couple != 0.0
+        engine.Case.from_dict(data)
+    result = engine.solve(engine.Case.from_dict({**data, "check": {"routes": ["second-order"]}}))
+    assert result.bow.shape == "mode" and result.check is not None
+    # The braced column's first mode is two half-waves (4π²EI/L²); the code bow follows it, and the second-
+    # order moments exceed the braced span's first-order hogging moment q l²/8 (Table 3-23, from memory).
+    assert result.critical_loads[0] == pytest.approx(4 * math.pi**2 * result.EI / L**2, rel=1e-12)
+    assert result.governing.moment.magnitude > q * (L / 2) ** 2 / 8
+    assert 0 < result.utilization < 1
 
 
 def test_a_braced_hinge_decouples_the_spans_in_buckling():
