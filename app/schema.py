@@ -22,6 +22,9 @@ from typing import Any
 
 from app.schema_actions import action_properties
 from app.schema_check import CHECK_METHODS, check_schema  # noqa: F401 - CHECK_METHODS: the names, here too
+from app.schema_inner import RESTRAINTS as RESTRAINTS  # the end restraints, kept under this name
+from app.schema_inner import inner_properties
+from app.schema_inner import spring_or as _spring_or
 
 __all__ = ["SCHEMA_ID", "case_schema", "schema_text"]
 
@@ -33,7 +36,6 @@ _DRAFT = "https://json-schema.org/draft/2020-12/schema"
 # The names the engine accepts, written out here so the schema reads on its own (tests/app/test_schema.py
 # compares each list with the engine's).
 SUPPORT_NAMES = ("pinned", "fixed", "free", "guided")
-RESTRAINTS = ("fixed", "free")
 LOAD_TYPES = ("uniform", "linear", "point", "couple")
 BOW_SHAPES = ("none", "sine", "parabola", "sway", "mode")
 BOW_PRESETS = ("en1993-table-5.1", "en1993-eq-5.9", "aisc-l/1000", "span")
@@ -85,17 +87,6 @@ def _closed(properties: dict[str, Any], required: tuple[str, ...] = (), **extra:
 
 def _end(side: str, x: str) -> dict[str, Any]:
     return {"$ref": "#/$defs/end_support", "description": f"The support at the {side} end (x = {x})."}
-
-
-def _spring_or(restraint: str, condition: str, unit: str) -> dict[str, Any]:
-    return {
-        "description": f"The end's {restraint} restraint: 'fixed', 'free' or an elastic spring [{unit}], "
-        f"0 to 1e18 ({condition}).",
-        "anyOf": [
-            {"enum": list(RESTRAINTS)},
-            _number(f"spring stiffness [{unit}]", minimum=0, maximum=1e18),
-        ],
-    }
 
 
 def _section_shape(
@@ -514,6 +505,7 @@ def _build() -> dict[str, Any]:
             "moments. Default bow: EN 1993-1-1 Table 5.1 with a steel section, else none. Not with "
             "'out_of_plane' nor a custom section.",
         ),
+        **inner_properties(),
     }
     return {
         "$schema": _DRAFT,

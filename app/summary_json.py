@@ -81,10 +81,7 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "effective_length_factor": _finite(result.buckling.effective_length_factor),
         "governing": _governing_data(result.governing),
         "first_order": None if first is None else _governing_data(first.governing),
-        "reactions": {
-            name: _finite(getattr(result.reactions, name))
-            for name in ("left_T", "left_M", "right_T", "right_M")
-        },
+        "reactions": _reactions(result.reactions),
         "amplification": {
             "moment": _finite(amplification.moment),
             "deflection": _finite(amplification.deflection),
@@ -238,11 +235,19 @@ def _second_plane_data(result) -> dict | None:
         "alpha_cr": _finite(second.alpha_cr),
         "status": second.status,
         "governing": _governing_data(second.governing),
-        "reactions": {
-            name: _finite(getattr(second.reactions, name))
-            for name in ("left_T", "left_M", "right_T", "right_M")
-        },
+        "reactions": _reactions(second.reactions),
     }
+
+
+def _reactions(reactions) -> dict:
+    """The end reactions, and each intermediate restraint's force and couple on the member (SI) when any."""
+    out = {name: _finite(getattr(reactions, name)) for name in ("left_T", "left_M", "right_T", "right_M")}
+    inner = getattr(reactions, "intermediate", ())
+    if inner:
+        out["intermediate"] = [
+            {"x": r.x, "force": _finite(r.force), "couple": _finite(r.couple)} for r in inner
+        ]
+    return out
 
 
 def _fact(value):

@@ -74,5 +74,6 @@ __all__ = [
 def clear_caches() -> None:
     """Forget cached critical loads and prepared cases, so a benchmark can time the uncached path."""
     solver.buckling.clear_cache()
+    solver.restrained.clear_cache()
     prepared.clear_cache()
     envelope.clear_cache()

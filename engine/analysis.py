@@ -20,6 +20,7 @@ from engine.raw import CRITICAL_TOLERANCE
 from engine.raw import raw as _raw
 from engine.raw import reversed_raw as _reversed_raw
 from engine.reference import reference_peak
+from engine.restraints import RestraintReaction
 from engine.results import (
     Amplification,
     Equilibrium,
@@ -80,6 +81,19 @@ def _message(status, P, pcr, n_crit) -> str:
     return "No axial force: first-order solution."
 
 
+def restraint_reactions(model, seg, xi, T, M) -> tuple:
+    """The force and couple of every intermediate restraint on the member, from the state on both sides of
+    its node: force = T(x-) - T(x+) - F, couple = M(x+) - M(x-) - C (the jumps the loads do not explain)."""
+    out = []
+    for index, node in enumerate(model.restraint_nodes.tolist()):
+        left = np.nonzero((seg == node - 1) & (xi == model.h[node - 1]))[0]
+        right = np.nonzero((seg == node) & (xi == 0.0))[0]
+        force = float(T[left[-1]] - T[right[0]] - model.force[node])
+        couple = float(M[right[0]] - M[left[-1]] - model.couple[node])
+        out.append(RestraintReaction(index=index, x=float(model.nodes[node]), force=force, couple=couple))
+    return tuple(out)
+
+
 def _build(
     case,
     prep,
@@ -135,19 +149,27 @@ def _build(
         ml = float(M[0] - model.couple[0])
         tr = float(T[-1] - model.force[last])
         mr = float(M[-1] + model.couple[last])
-        reactions = Reactions(left_T=tl, left_M=ml, right_T=tr, right_M=mr)
+        inner = restraint_reactions(model, seg, xi, T, M)
+        reactions = Reactions(left_T=tl, left_M=ml, right_T=tr, right_M=mr, intermediate=inner)
         L = model.L
         # Judge the residual against every force in play: loads, reactions, couples over the span, and the
-        # largest shear and transverse force (a couple alone has reactions of rounding size).
-        couples = model.couple_scale
-        scale_t = model.load_scale + abs(tl) + abs(tr) + couples / model.L + abs(values[3]) + abs(values[4])
-        res_t = (tl - tr - model.total_load) / scale_t if scale_t > 0 else 0.0
+        # largest shear and transverse force (a couple alone has reactions of rounding size). The restraints'
+        # reactions count as loads.
+        couples = model.couple_scale + sum(abs(r.couple) for r in inner)
+        load_scale = model.load_scale + sum(abs(r.force) for r in inner)
+        total_load = model.total_load + sum(r.force for r in inner)
+        total_moment = model.total_moment + sum(r.force * (L - r.x) for r in inner)
+        scale_t = load_scale + abs(tl) + abs(tr) + couples / model.L + abs(values[3]) + abs(values[4])
+        res_t = (tl - tr - total_load) / scale_t if scale_t > 0 else 0.0
         drift = float(total[-1] - total[0])
-        lhs = mr - ml - model.total_couple
-        rhs = L * tl - model.total_moment + P * drift
-        scale_m = abs(ml) + abs(mr) + couples + L * (abs(tl) + model.load_scale) + abs(P * drift)
+        lhs = mr - ml - model.total_couple - sum(r.couple for r in inner)
+        rhs = L * tl - total_moment + P * drift
+        scale_m = abs(ml) + abs(mr) + couples + L * (abs(tl) + load_scale) + abs(P * drift)
         res_m = (lhs - rhs) / scale_m if scale_m > 0 else 0.0
-        equilibrium = Equilibrium(transverse=float(res_t), moment=float(res_m))
+        # On a foundation the ground's reaction is spread along the member: no residuals are formed.
+        equilibrium = (
+            None if model.has_foundation else Equilibrium(transverse=float(res_t), moment=float(res_m))
+        )
         if first_order:
             one = 1.0 if governing.moment.magnitude > 0 else None
             amplification = Amplification(

@@ -28,6 +28,7 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from engine import limits
+from engine import restraints as inner
 from engine.actions import case_actions
 from engine.checks import CheckSettings
 from engine.errors import CaseError
@@ -122,6 +123,9 @@ _CASE_KEYS = (
     "second_plane",
     "actions",
     "combinations",
+    "restraints",
+    "steps",
+    "foundation",
 )
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
@@ -183,6 +187,12 @@ class Case:
         ``imperfection`` (default: the EN 1993-1-1 Table 5.1 bow with a steel section, else none) and ``EI``
         (given exactly when the case gives its own EI). The first plane bends about ``axis``, the second
         about the other one; :meth:`second_plane_case` is the second plane as a case of its own.
+    restraints : tuple of Restraint
+        Supports, springs and hinges inside the member, per plane (:mod:`engine.restraints`).
+    steps : tuple of Step
+        Changes of EI along the member (:mod:`engine.restraints`).
+    foundation : tuple of Foundation
+        Elastic (Winkler) foundation ranges, per plane (:mod:`engine.restraints`).
 
     Raises
     ------
@@ -221,6 +231,9 @@ class Case:
     second_plane: Any = None
     actions: Any = None
     combinations: Any = None
+    restraints: tuple = ()
+    steps: tuple = ()
+    foundation: tuple = ()
 
     def __post_init__(self) -> None:
         set_field(self, "schema", _schema_version(self.schema))
@@ -261,7 +274,12 @@ class Case:
                 f"imperfection.amplitude: {self.imperfection.amplitude!r} m is too large; "
                 f"|amplitude| must be <= length/10 = {length / 10:g} m"
             )
-        supports.check_stable(self)
+        # Intermediate restraints, steps and foundation (engine.restraints), then the mechanism check.
+        inner.normalise(self)
+        if self.restraints or self.foundation:
+            inner.check_mechanism(self)
+        else:
+            supports.check_stable(self)
         if self.second_plane is not None:
             self._check_second_plane()
         if self.actions is not None or self.combinations is not None:
@@ -420,6 +438,7 @@ class Case:
         for name in ("actions", "combinations"):
             if name in mapping:
                 arguments[name] = mapping[name]
+        arguments.update(inner.read(mapping))
         return cls(schema=schema, left=left, right=right, loads=loads, imperfection=imperfection, **arguments)
 
     def to_dict(self) -> dict[str, Any]:
@@ -465,6 +484,7 @@ class Case:
         if self.actions is not None:
             data["actions"] = [action.to_data() for action in self.actions]
             data["combinations"] = self.combinations.to_data()
+        data.update(inner.written(self))
         return data
 
     @classmethod

@@ -50,12 +50,24 @@ class Bow:
     uniform: float = 0.0
     terms: tuple = ()
     _mode: object = None  # (Buckling, scale) for the mode shape
+    #: (buckling, a) when the bow is the first mode of a member with restraints, steps or a foundation: no
+    #: sinusoid terms; the solver adds its response a·N/(N_cr − N)·φ exactly (engine.solver.model)
+    modal: object = None
     slope: float = 0.0  # a sway φ [rad] on top of the shape: w0 += slope (x - anchor)
     anchor: float = 0.0  # [m], where the sway part is zero
 
-    def derivatives(self, x):
-        """w0, w0', w0'', w0''' at ``x`` [m] ([m], [-], [1/m], [1/m²]), the sway included."""
-        w0, d1, d2, d3 = self._shape_derivatives(x)
+    def derivatives(self, x, left=None):
+        """w0, w0', w0'', w0''' at ``x`` [m] ([m], [-], [1/m], [1/m²]), the sway included.
+
+        ``left`` marks points that take the value just left of a node (a modal bow's slope jumps at a hinge,
+        its curvature at a step).
+        """
+        if self.modal is not None:
+            buckling, scale = self.modal
+            w0, d1, d2, d3 = (scale * d for d in buckling.mode_derivatives(0, x, left))
+        else:
+            w0, d1, d2, d3 = self._shape_derivatives(x)
+
         if self.slope != 0.0:
             x = np.asarray(x, dtype=float)
             w0, d1 = w0 + self.slope * (x - self.anchor), d1 + self.slope
@@ -117,6 +129,8 @@ def _shape_bow(case, buckling) -> Bow:
         return Bow(shape=shape, amplitude=a, length=L, uniform=8 * a / L**2)
     if shape == "sway":
         return Bow(shape=shape, amplitude=a, length=L)
+    if shape == "mode" and hasattr(buckling, "segment_EI"):  # a restrained, stepped or founded member
+        return Bow(shape=shape, amplitude=a, length=L, _mode=(buckling, a), modal=(buckling, a))
     if shape == "mode":
         lam = float(buckling.wavenumbers[0])
         c = buckling._coefficients[0]

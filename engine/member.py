@@ -45,8 +45,9 @@ from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.imperfections import Bow, bow_for
 from engine.materials import material_from_spec
+from engine.restraints import for_plane, foundations_for_plane
 from engine.sections import section_from_spec
-from engine.solver import buckling as solver_buckling
+from engine.solver import restrained
 from engine.solver.batch import Batch
 from engine.solver.buckling import Buckling
 from engine.solver.model import Model, Points
@@ -210,6 +211,9 @@ def _plain(case, EI):
     return dataclasses.replace(
         case,
         EI=EI,
+        steps=tuple(dataclasses.replace(s, EI=s.EI * case.stiffness_factor) for s in case.steps),
+        restraints=for_plane(case.restraints, "first"),
+        foundation=foundations_for_plane(case.foundation, "first"),
         imperfection=Imperfection(),
         section=None,
         material=None,
@@ -245,7 +249,7 @@ def critical_loads(case, count: int = 5) -> Buckling:
     """
     if case.EI is None or case.stiffness_factor != 1.0:
         case = resolve(case)[1]
-    return solver_buckling.critical_loads(case, count)
+    return restrained.critical_loads(case, count)
 
 
 def resolve(case):
@@ -361,6 +365,13 @@ def resolve(case):
     notes = []
     sway = anchor = 0.0
     sway_label = sway_source = ""
+    if imp.preset is not None and shape in ("sine", "parabola") and (plain.restraints or plain.foundation):
+        notes.append(
+            f"The {shape} bow between the ends does not fit a member with intermediate restraints or a "
+            "foundation: the bow takes the shape of the member's first buckling mode, with the amplitude "
+            "of the whole member (EN 1993-1-1 §5.3.2(11), from memory)."
+        )
+        shape = "mode"
     if imp.preset is not None and can_sway(plain):
         if shape in ("sine", "parabola"):
             notes.append(

@@ -41,6 +41,7 @@ from engine.errors import CaseError
 from engine.inputs import EndSupport, Imperfection, support_from_data
 from engine.loads import load_from_data, load_to_data
 from engine.materials import material_from_spec
+from engine.restraints import for_plane, foundations_for_plane
 from engine.sections import section_from_spec
 from engine.validate import check_keys, expect_mapping, show, within
 
@@ -202,6 +203,8 @@ def second_plane_of(case):
             material=case.material,
             stiffness_factor=case.stiffness_factor,
             check=case.check,
+            restraints=for_plane(case.restraints, "second"),
+            foundation=foundations_for_plane(case.foundation, "second"),
         )
     plane = SecondPlane(
         left=plane.left,

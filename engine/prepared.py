@@ -23,9 +23,9 @@ from engine.member import resolve
 from engine.out_of_plane import resistance
 from engine.reference import ReferenceData
 from engine.solver.batch import Batch
-from engine.solver.buckling import critical_loads
 from engine.solver.model import Model, Points
 from engine.solver.peaks import base_stations, refine_peaks
+from engine.solver.restrained import critical_loads
 
 __all__ = ["Prepared", "clear_cache", "prepare"]
 

@@ -58,7 +58,7 @@ def raw(prep, n: int, P: float):
     the peaks merged along ``x``, ``st`` the state at the base stations ``pts`` (None at a critical load)."""
     model, pcr = prep.model, prep.buckling.critical_loads
     n_crit = critical_index(P, pcr)
-    seg, xi, shown, pts = prep.stations(n, math.sqrt(-P / model.EI) if P < 0 else 0.0)
+    seg, xi, shown, pts = prep.stations(n, math.sqrt(-P / float(model.EI_seg.min())) if P < 0 else 0.0)
     batch = Batch(model, [P], at=pts)
     status = "stable"
     if n_crit or batch.singular[0]:
@@ -106,7 +106,7 @@ def reversed_raw(prep, n: int, P: float, forward, free_raw, sources):
     """
     if forward[0] == "critical" or free_raw[0] != forward[0] or forward[7] is None or free_raw[7] is None:
         return None
-    kappa = math.sqrt(-P / prep.model.EI) if P < 0 else 0.0
+    kappa = math.sqrt(-P / float(prep.model.EI_seg.min())) if P < 0 else 0.0
     seg, xi, _, pts = prep.stations(n, kappa)
     # The same stations (the bow adds none), so that the states combine pointwise. The stations are kept per
     # prepared member and never change, so the verdict is kept with them.

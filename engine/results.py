@@ -92,6 +92,8 @@ class Reactions:
     left_M: float
     right_T: float
     right_M: float
+    #: the intermediate restraints' reactions (engine.restraints.RestraintReaction), in the case's order
+    intermediate: tuple = ()
 
 
 @dataclass(frozen=True, kw_only=True)

@@ -79,8 +79,10 @@ def _results_lines(add, result, U) -> None:
 
     add("")
     add(f"Reactions ({w.REACTIONS_NOTE})")
-    for end, force, couple in w.reaction_rows(result, U):
-        add(f"  {end + ':':<19}force {force}, couple {couple}")
+    rows = w.reaction_rows(result, U)
+    width = max(19, *(len(end) + 2 for end, _, _ in rows))
+    for end, force, couple in rows:
+        add(f"  {end + ':':<{width}}force {force}, couple {couple}")
 
     amplification = result.amplification
     add("")

@@ -324,6 +324,11 @@ def reaction_rows(result, U: Units):
     ):
         force = _directed(U, "force", -force_along_w, "up", "down")
         rows.append((end, force, _couple(U, couple_anticlockwise)))
+    # Intermediate restraints (engine issue 16): force along +w and couple C on the member; a couple C turns
+    # as the right end's +M(L) does with the opposite sign, so anticlockwise is -C.
+    for inner in getattr(r, "intermediate", ()):
+        where = f"restraint at x = {U.show('length', inner.x)}"
+        rows.append((where, _directed(U, "force", -inner.force, "up", "down"), _couple(U, -inner.couple)))
     return rows
 
 

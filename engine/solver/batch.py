@@ -104,7 +104,7 @@ class Batch:
         self.reused: _ReusedColumns | None = None
         self._targets: _Targets | None = None
         rows = None
-        if nP == 1 and at is not None and at.ends is not None:
+        if nP == 1 and at is not None and at.ends is not None and not model.special:
             rows = station_table(model, at).evaluate(float(P[0]))
         if rows is not None:
             # The rows at the segment ends and the stations' columns, from the stations' table.
@@ -134,8 +134,17 @@ class Batch:
         if nseg > 1:
             # Every interface block at once: [-B(end of j) | B(start of j+1)] in rows 2 + 4j.
             rows, cols_ = model.interface_index
-            A[:, rows, cols_] = np.concatenate([-B[:, :-1, 1], B[:, 1:, 0]], axis=3)
-            rhs[:, 2 : m - 2] = (jumps[None, 1:nseg] - p[:, 1:, 0] + p[:, :-1, 1]).reshape(nP, -1)
+            if model.general_nodes:  # intermediate restraints: E_L state(x-) + E_R state(x+) = r
+                EL, ER = model.node_left[None], model.node_right[None]
+                A[:, rows, cols_] = np.concatenate([EL @ B[:, :-1, 1], ER @ B[:, 1:, 0]], axis=3)
+                rhs[:, 2 : m - 2] = (
+                    model.node_rhs[None]
+                    - np.einsum("nij,pnj->pni", model.node_left, p[:, :-1, 1])
+                    - np.einsum("nij,pnj->pni", model.node_right, p[:, 1:, 0])
+                ).reshape(nP, -1)
+            else:
+                A[:, rows, cols_] = np.concatenate([-B[:, :-1, 1], B[:, 1:, 0]], axis=3)
+                rhs[:, 2 : m - 2] = (jumps[None, 1:nseg] - p[:, 1:, 0] + p[:, :-1, 1]).reshape(nP, -1)
         A[:, m - 2 : m, m - 4 : m] = rr @ B[:, nseg - 1, 1]
         rhs[:, m - 2 : m] = -(p[:, nseg - 1, 1] + jumps[nseg][None, :]) @ rr.T
         # Equilibrate rows, then columns, so that stiff springs and strong tension keep the pivots honest.
@@ -202,8 +211,17 @@ class Batch:
         rhs[0:2] = rl @ (jumps[0] - p[0, 0])
         if nseg > 1:
             rows, cols_ = model.interface_index
-            A[rows, cols_] = np.concatenate([-B[:-1, 1], B[1:, 0]], axis=2)
-            rhs[2 : m - 2] = (jumps[1:nseg] - p[1:, 0] + p[:-1, 1]).ravel()
+            if model.general_nodes:
+                EL, ER = model.node_left, model.node_right
+                A[rows, cols_] = np.concatenate([EL @ B[:-1, 1], ER @ B[1:, 0]], axis=2)
+                rhs[2 : m - 2] = (
+                    model.node_rhs
+                    - np.einsum("nij,nj->ni", EL, p[:-1, 1])
+                    - np.einsum("nij,nj->ni", ER, p[1:, 0])
+                ).ravel()
+            else:
+                A[rows, cols_] = np.concatenate([-B[:-1, 1], B[1:, 0]], axis=2)
+                rhs[2 : m - 2] = (jumps[1:nseg] - p[1:, 0] + p[:-1, 1]).ravel()
         A[m - 2 : m, m - 4 : m] = rr @ B[nseg - 1, 1]
         rhs[m - 2 : m] = -(rr @ (p[nseg - 1, 1] + jumps[nseg]))
         # Equilibrate rows, then columns, as for many forces.
@@ -256,6 +274,24 @@ class Batch:
             )
             self._targets = _Targets(st, out[TARGET_ROWS], out[TARGET_SLOPE_ROWS])
             return st
+        if model.has_foundation:  # the state rows of the basis (the foundation's rows replace the bare ones)
+            reused = self.reused is not None and self.reused.points is pts
+            B, p = model.basis(P, pts, (self.reused.columns, self.reused.particular) if reused else None)
+            c = self.coefficients[iP][pts.seg] if np.ndim(iP) == 0 else self.coefficients[iP, pts.seg]
+            y = np.einsum("nij,nj->in", B, c) + p.T
+            w0, d1, d2, d3 = pts.bow
+            return State(
+                w=y[0],
+                rotation=y[1],
+                M=y[2],
+                T=y[3],
+                V=y[3] + P * (y[1] + d1),
+                w0=w0,
+                w0_1=d1,
+                w0_2=d2,
+                w0_3=d3,
+                P=P,
+            )
         if self.reused is not None and self.reused.points is pts:
             cols, (pw, pt, pm, pT) = self.reused.columns, self.reused.particular
         else:
@@ -287,10 +323,12 @@ class Batch:
         """
         if self._targets is not None and self._targets.state is states:
             return self._targets.values, self._targets.slopes
-        EI = self.model.EI
+        EI = pts.EI
         P = states.P
         curv = -states.M / EI
-        dV = -pts.q + P * (states.w0_2 + curv)
+        # On a foundation its reaction -k w adds to the load: dV/dx and d²V/dx² gain k w and k w'.
+        dV = -pts.q + P * (states.w0_2 + curv) + pts.k * states.w
         f = np.stack([states.rotation, states.rotation + states.w0_1, states.V, dV])
-        df = np.stack([curv, curv + states.w0_2, dV, -pts.q1 + P * (states.w0_3 - states.V / EI)])
+        ddV = -pts.q1 + P * (states.w0_3 - states.V / EI) + pts.k * states.rotation
+        df = np.stack([curv, curv + states.w0_2, dV, ddV])
         return f, df

@@ -36,8 +36,11 @@ The assembly and solve are in :mod:`engine.solver.batch`, the stations' polynomi
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
+from engine.solver import foundation as foundation_basis
 from engine.solver.functions import SERIES_LIMIT, phi_series, xi_powers
 from engine.solver.supports import boundary_rows
 
@@ -68,6 +71,10 @@ class Points:
         self.xi = np.asarray(xi, dtype=float)
         self.size = self.xi.size
         self.h = model.h[self.seg]
+        #: EI at each point [N·m²]: the member's one value, or per point where it has steps
+        self.EI = model.EI if not model.stepped else model.EI_seg[self.seg]
+        #: the foundation modulus at each point [N/m²] (0.0 without a foundation)
+        self.k = model.k_seg[self.seg] if model.has_foundation else 0.0
         self.xa = model.xa[self.seg]
         self.q0 = model.q0[self.seg]
         self.q1 = model.q1[self.seg]
@@ -75,7 +82,12 @@ class Points:
         self.x = self.xa + self.xi
         self.h2 = self.h * self.h
         self.h2_range = (float(self.h2.min()), float(self.h2.max())) if self.size else (0.0, 0.0)
-        self.bow = model.bow.derivatives(self.x)
+        if (
+            getattr(model.bow, "modal", None) is not None
+        ):  # a modal bow: just left of a node at a segment's end
+            self.bow = model.bow.derivatives(self.x, left=self.xi == self.h)
+        else:
+            self.bow = model.bow.derivatives(self.x)
         self.waves = tuple(
             (F, beta, psi, np.sin(beta * self.x + psi), np.cos(beta * self.x + psi))
             for F, beta, psi in model.bow.terms
@@ -86,6 +98,8 @@ class Points:
         self.station_table = None
         #: (seg, xi, index, offset) of the last nearest-station query (engine.solver.series)
         self.nearest = None
+        #: the modal bow's shape and derivatives at the points (Model._modal_part), when first needed
+        self.modal_phi = None
         #: for base stations (engine.prepared): the listed stations' indices and sort keys, their exact x, and
         #: those keys with sentinels at both ends (engine.analysis merges the peaks into the stations
         #: with them)
@@ -126,6 +140,14 @@ class Model:
         self.series_tables = None
         tol = 1e-12 * L
         cuts = [0.0, L]
+        # Intermediate restraints of this plane and steps in EI (engine.restraints) are nodes as well.
+        restraints = [r for r in getattr(case, "restraints", ()) if r.plane != "second"]
+        steps = tuple(getattr(case, "steps", ()))
+        cuts.extend(float(r.x) for r in restraints)
+        cuts.extend(float(st.x) for st in steps)
+        foundation = [f for f in getattr(case, "foundation", ()) if f.plane != "second"]
+        for f in foundation:
+            cuts.extend((float(f.start), float(f.end)))
         for load in case.loads:
             if load.type in ("point", "couple"):
                 cuts.append(float(load.x))
@@ -137,6 +159,10 @@ class Model:
             if c - nodes[-1] > tol:
                 nodes.append(float(c))
         nodes[-1] = L
+        if (
+            foundation
+        ):  # each foundation range in pieces short enough for its series (engine.solver.foundation)
+            nodes = _foundation_pieces(np.array(nodes), foundation, self.EI, steps, L)
         self.nodes = np.array(nodes)
         self.xa = self.nodes[:-1]
         self.h = np.diff(self.nodes)
@@ -175,9 +201,33 @@ class Model:
             self.total_moment += span * (qa * (L - a) - qa * span / 2 + dq * (L - a) / 2 - dq * span / 3)
             self.load_scale += 0.5 * (abs(qa) + abs(qb)) * span
         self.couple_scale = float(np.abs(self.couple).sum())  # Σ |C| [N·m]
+        # EI per segment: the case's EI up to the first step, then each step's from its x on.
+        self.EI_seg = np.full(nseg, self.EI)
+        for st in steps:
+            self.EI_seg[self.xa >= float(st.x) - tol] = float(st.EI)
+        #: whether EI changes along the member
+        self.stepped = bool(steps) and bool(np.any(self.EI_seg != self.EI))
+        #: the foundation modulus of every segment [N/m²] (zero off the foundation)
+        self.k_seg = np.zeros(nseg)
+        mid = self.xa + 0.5 * self.h
+        for f in foundation:
+            self.k_seg[(mid > f.start) & (mid < f.end)] += float(f.k)
+        self.has_foundation = bool(np.any(self.k_seg > 0))
+        #: a bow in the shape of the first mode of a restrained member: (buckling, amplitude), or None
+        self.modal = getattr(bow, "modal", None)
+        #: EI changes, a foundation or a modal bow: the fast paths (one EI, sinusoid bows) step aside
+        self.special = self.stepped or self.has_foundation or self.modal is not None
+        self.restraints = tuple(restraints)
+        #: node index of each restraint, in the order of self.restraints
+        self.restraint_nodes = np.array(
+            [int(np.argmin(np.abs(self.nodes - r.x))) for r in restraints], dtype=int
+        )
         self.rows_left = boundary_rows(case.left, "left")
         self.rows_right = boundary_rows(case.right, "right")
         self.jumps = np.stack([self.jump(i) for i in range(self.nodes.size)])
+        self.node_left, self.node_right, self.node_rhs = node_conditions(self)
+        #: whether some interior node has other conditions than continuity with the load's jumps
+        self.general_nodes = bool(restraints)
         j = np.arange(nseg - 1)[:, None, None]
         self.interface_index = (2 + 4 * j + np.arange(4)[None, :, None], 4 * j + np.arange(8)[None, None, :])
         # Both ends of every segment, for the continuity and end conditions.
@@ -218,7 +268,7 @@ class Model:
         part : list of 4 arrays
             w, w', M, T of the particular solution, including the bow's term ``-P w0'`` in T.
         """
-        EI = self.EI
+        EI = pts.EI
         s = P / EI
         xi, h = pts.xi, pts.h
         q0 = pts.q0 + P * self.bow.uniform if self.bow.uniform else pts.q0
@@ -251,7 +301,8 @@ class Model:
                 (z < -SERIES_LIMIT, _exp_columns),
             ):
                 if mask.any():
-                    values = fn(EI, P[mask], s[mask], xi[mask], h[mask], q0[mask], q1[mask])
+                    EIm = EI if np.ndim(EI) == 0 else EI[mask]
+                    values = fn(EIm, P[mask], s[mask], xi[mask], h[mask], q0[mask], q1[mask])
                     for target, v in zip(out, values, strict=True):
                         target[mask] = v
         cols, part = tuple(out[:7]), list(out[7:])
@@ -263,7 +314,30 @@ class Model:
             part[3] = part[3] - (EI * p3 + P * p1)
         if self.bow.shape != "none":
             part[3] = part[3] - P * pts.bow[1]
+        if self.modal is not None:
+            for i, extra in enumerate(self._modal_part(P, pts)):
+                part[i] = part[i] + extra
         return cols, part
+
+    def _modal_part(self, P, pts, at=None):
+        r"""The response to a bow :math:`w_0 = a\varphi` in the shape of the first mode φ (at :math:`N_{cr}`).
+
+        :math:`w_p = c\varphi` with :math:`c = aP/(N_{cr} - P)` solves each segment's equation (from
+        :math:`EI\varphi^{(4)} + N_{cr}\varphi'' (+ k\varphi) = 0`, :math:`EI w_p^{(4)} + P w_p'' (+ k w_p) =
+        -P w_0''`) and, φ meeting every end, node and restraint condition at N_cr, adds nothing to them
+        (derived). Returns w, w', M and T (without the bow's own -P w0', added with the other bows') at the
+        points, or at ``at`` among them.
+        """
+        buckling, a = self.modal
+        phi = pts.modal_phi
+        if phi is None:  # M and V of the mode rather than its curvatures: continuous at a step in EI
+            phi = pts.modal_phi = buckling.mode_state(0, pts.x, left=pts.xi == pts.h)
+        w, d1, M, V = phi
+        if at is not None:
+            w, d1, M, V = w[at], d1[at], M[at], V[at]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            c = a * P / (float(buckling.critical_loads[0]) - P)
+        return c * w, c * d1, c * M, c * V - P * c * d1
 
     def basis(self, P, pts, columns=None, index=None):
         """The state rows (w, w', M, T) of the four basis functions and of the particular solution.
@@ -293,11 +367,86 @@ class Model:
         B[:, 3, 1] = -P if np.ndim(P) == 0 or index is None else np.asarray(P)[index]
         B[:, 0, 2], B[:, 1, 2], B[:, 2, 2] = w3, t3, m3
         B[:, 0, 3], B[:, 1, 3], B[:, 2, 3], B[:, 3, 3] = w4, t4, m4, T4
-        return B, np.stack(np.broadcast_arrays(*part), axis=1)
+        p = np.stack(np.broadcast_arrays(*part), axis=1)
+        if self.has_foundation:
+            on = np.nonzero((pts.k if index is None else pts.k[index]) > 0)[0]
+            if on.size:
+                at = on if index is None else np.asarray(index)[on]
+                Pf = P if np.ndim(P) == 0 else np.asarray(P)[at]
+                EIf = pts.EI if np.ndim(pts.EI) == 0 else pts.EI[at]
+                q0f = pts.q0[at] + Pf * self.bow.uniform
+                terms = tuple((F, beta, psi) for F, beta, psi, _, _ in pts.waves)
+                B[on], p[on] = foundation_basis.basis(
+                    Pf,
+                    EIf,
+                    pts.k[at],
+                    pts.h[at],
+                    pts.xa[at],
+                    pts.xi[at],
+                    q0f,
+                    pts.q1[at],
+                    terms,
+                    pts.bow[1][at],
+                )
+                if self.modal is not None:
+                    p[on] += np.stack(self._modal_part(Pf, pts, at), axis=1)
+        return B, p
 
     def jump(self, node: int) -> np.ndarray:
         """state(x+) - state(x-) at a node: (0, 0, C, -F)."""
         return np.array([0.0, 0.0, self.couple[node], -self.force[node]])
+
+
+def _foundation_pieces(nodes, foundation, EI, steps, L):
+    """The nodes with every interval on a foundation cut into equal pieces no longer than
+    :func:`engine.solver.foundation.piece_length` (EI of the interval, its steps considered)."""
+    out = [nodes[0]]
+    for a, b in zip(nodes[:-1], nodes[1:], strict=True):
+        mid = 0.5 * (a + b)
+        k = sum(float(f.k) for f in foundation if f.start < mid < f.end)
+        if k > 0:
+            EI_here = EI
+            for st in steps:
+                if st.x <= mid:
+                    EI_here = float(st.EI)
+            count = int(math.ceil((b - a) / foundation_basis.piece_length(L, EI_here, k) - 1e-9))
+            out.extend(a + (b - a) * np.arange(1, count) / count)
+        out.append(b)
+    return out
+
+
+def node_conditions(model):
+    r"""The conditions at every interior node as ``E_L @ state(x-) + E_R @ state(x+) = r``, four rows each.
+
+    A plain node is continuity of w and w' with the load's jumps :math:`M^+ - M^- = C`,
+    :math:`T^+ - T^- = -F` (``E_L = -I``, ``E_R = I``). An intermediate restraint changes rows
+    (conventions: its force on the member is :math:`-k_t w`, its couple :math:`-k_r w'`):
+
+    - translation fixed: the T row becomes :math:`w^- = 0` (the reaction is free);
+      spring: :math:`T^+ - T^- - k_t w^- = -F`;
+    - rotation fixed: the M row becomes :math:`w'^- = 0`; spring: :math:`M^+ - M^- + k_r w'^- = C`;
+    - hinge: the w' row becomes :math:`M^- = 0` (the slope may jump; the M row keeps :math:`M^+ = M^- + C`).
+
+    Returns arrays of shapes (nseg - 1, 4, 4), (nseg - 1, 4, 4) and (nseg - 1, 4).
+    """
+    n = model.nseg - 1
+    EL = np.tile(-np.eye(4), (n, 1, 1))
+    ER = np.tile(np.eye(4), (n, 1, 1))
+    r = model.jumps[1 : n + 1].copy() if n > 0 else np.zeros((0, 4))
+    for restraint, node in zip(model.restraints, model.restraint_nodes, strict=True):
+        j = node - 1  # the interface between segments node - 1 and node
+        if restraint.hinge:
+            EL[j, 1], ER[j, 1], r[j, 1] = (0.0, 0.0, 1.0, 0.0), 0.0, 0.0
+        t, rot = restraint.translation, restraint.rotation
+        if t == "fixed":
+            EL[j, 3], ER[j, 3], r[j, 3] = (1.0, 0.0, 0.0, 0.0), 0.0, 0.0
+        elif t != "free":
+            EL[j, 3, 0] = -float(t)
+        if rot == "fixed":
+            EL[j, 2], ER[j, 2], r[j, 2] = (0.0, 1.0, 0.0, 0.0), 0.0, 0.0
+        elif rot != "free":
+            EL[j, 2, 1] = float(rot)
+    return EL, ER, r
 
 
 def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
@@ -317,7 +466,7 @@ def _series_columns(EI, P, s, xi, h, q0, q1, powers=None, xi2_max=None):
         f3,
         f2,
         -EI * f1,
-        np.full(xi.size, -EI),
+        np.broadcast_to(-EI, xi.shape) + 0.0 * xi,
         (q0 * f4 + q1 * f5) / EI,
         (q0 * f3 + q1 * f4) / EI,
         -(q0 * f2 + q1 * f3),

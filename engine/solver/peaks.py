@@ -51,7 +51,9 @@ def base_stations(model: Model, count: int, tension_kappa: float = 0.0):
             extra = np.concatenate([d, h - d])
         xs = np.unique(np.concatenate([[0.0], inner, extra[(extra > 0) & (extra < h)], [h]]))
         last = j == model.nseg - 1
-        jump_after = not last and (model.force[j + 1] != 0.0 or model.couple[j + 1] != 0.0)
+        jump_after = not last and (
+            model.force[j + 1] != 0.0 or model.couple[j + 1] != 0.0 or j + 1 in model.restraint_nodes
+        )
         out = np.ones(xs.size, dtype=bool)
         # The next segment starts with the same, continuous, point: bracket with it, but list it once.
         out[-1] = last or jump_after
@@ -139,7 +141,7 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
                 from_hi = hi - d_hi / ((g_f[:n_roots] + d_hi * width) / width**2)
             x0 = np.where(z_lo, from_lo, np.where(z_hi, from_hi, x0))
             x0 = np.where(np.isfinite(x0) & (x0 > lo) & (x0 < hi), x0, 0.5 * (lo + hi))
-    if single and batch.P.size == 1:
+    if single and batch.P.size == 1 and not batch.model.special:
         fast = series.refine_by_series(batch, pts, st_at_stations, fid, k, lo, hi, x0, also)
         if fast is not None:
             return fast
@@ -160,7 +162,8 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
     # The Taylor step below is exact to rounding when the step is below 1e-4 of the shortest length of the
     # solution there (the segment, or the wavelength 1/k). Coarse stations may need more Newton steps first.
     P_at = batch.P[bi] if batch.P.size > 1 else batch.P[0]
-    scale = np.minimum(trial.h[:n_roots], 1.0 / np.sqrt(np.abs(P_at) / batch.model.EI + 1e-300))
+    EI_at = trial.EI if np.ndim(trial.EI) == 0 else trial.EI[:n_roots]
+    scale = np.minimum(trial.h[:n_roots], 1.0 / np.sqrt(np.abs(P_at) / EI_at + 1e-300))
     q_at = trial.q[:n_roots].copy()  # the load intensity where each root's state was last evaluated
     for _ in range(8):
         loose = ~(np.abs(step) <= 1e-4 * scale)
@@ -192,7 +195,8 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
         left = np.sign(fx) == np.sign(flo)
         x1 = np.where(ok, x1, np.where(left, 0.5 * (x0 + hi), 0.5 * (lo + x0)))
         step = np.where(ok, step, 0.0)
-    out = _taylor(batch, st, q_at, trial.q1[:n_roots], n_roots, step)
+    k_at = trial.k if np.ndim(trial.k) == 0 else trial.k[:n_roots]
+    out = _taylor(batch, st, q_at, trial.q1[:n_roots], n_roots, step, EI_at, k_at)
     if not ok.all():
         bad = np.nonzero(~ok)[0]
         again = Points(batch.model, bs[bad], x1[bad])
@@ -202,16 +206,17 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
     return bi, bs, x1, out
 
 
-def _taylor(batch, st, q, q1, n, h):
+def _taylor(batch, st, q, q1, n, h, EI, k=0.0):
     """The state moved by h along the first n points (third order), the rest unchanged.
 
-    ``q`` and ``q1`` are the load intensity [N/m] and its slope [N/m²] at those n points.
+    ``q`` and ``q1`` are the load intensity [N/m] and its slope [N/m²] at those n points, EI [N·m²] and the
+    foundation modulus k [N/m²] there (its reaction -k w adds to the load).
     """
-    EI = batch.model.EI
     P = st.P
     P = P[:n] if np.ndim(P) else P
     w, th, M, T, V = st.w[:n], st.rotation[:n], st.M[:n], st.T[:n], st.V[:n]
     w0, d1, d2, d3 = st.w0[:n], st.w0_1[:n], st.w0_2[:n], st.w0_3[:n]
+    q, q1 = q - k * w, q1 - k * th  # the foundation's reaction is a load -k w
     dV = -q + P * (d2 - M / EI)
     ddV = -q1 + P * (d3 - V / EI)
     h2, h3 = h * h / 2, h * h * h / 6
@@ -229,4 +234,4 @@ def _taylor(batch, st, q, q1, n, h):
 def strongest_tension_kappa(model: Model, P) -> float:
     """:math:`\\sqrt{-P_{min}/EI}` for the strongest tension among ``P`` [1/m], 0 without tension."""
     pmin = float(np.min(P))
-    return math.sqrt(-pmin / model.EI) if pmin < 0 else 0.0
+    return math.sqrt(-pmin / float(model.EI_seg.min())) if pmin < 0 else 0.0

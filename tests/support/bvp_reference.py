@@ -20,6 +20,13 @@ Concentrated loads and load boundaries split the member into segments. Each segm
 continuity and jump conditions between segments are boundary conditions of that system:
 ``M(x+) - M(x-) = C`` for a couple and ``T(x+) - T(x-) = -F`` for a point load.
 
+Intermediate restraints, hinges, steps in EI and an elastic foundation (the case keys ``restraints``,
+``steps`` and ``foundation`` of the contract, first plane only) are read from the contract too: every
+restraint, step and foundation boundary is a segment boundary; a segment has its own EI (θ' = -M/EI_j) and
+on a foundation T' = -q + k w. At a restraint the boundary rows change as the contract says: translation
+fixed ``w(x-) = 0`` instead of the T jump, a spring ``T+ - T- - k_t w = -F``; rotation fixed ``w'(x-) = 0``
+instead of the M jump, a spring ``M+ - M- + k_r w' = C``; a hinge ``M(x-) = 0`` instead of slope continuity.
+
 End conditions are written on the support side of the end, so that a concentrated load at an end
 acts on the member: at ``x = 0`` the support side is ``0-``, at ``x = L`` it is ``L+``.
 Translation: ``"fixed"`` gives ``w = 0``, ``"free"`` gives ``T = 0``, a spring ``k_t`` gives
@@ -95,9 +102,18 @@ def _span(load: Mapping, length: float) -> tuple[float, float]:
     return (0.0 if start is None else float(start), length if end is None else float(end))
 
 
+def _first(items):
+    return [item for item in items if item.get("plane", "both") != "second"]
+
+
 def _breakpoints(case: Mapping, length: float) -> np.ndarray:
-    """Segment boundaries: both ends, every concentrated load and every load boundary."""
+    """Segment boundaries: both ends, every concentrated load, load boundary, restraint, step and foundation
+    boundary."""
     pts = [0.0, length]
+    pts += [float(r["x"]) for r in _first(case.get("restraints", ()))]
+    pts += [float(st["x"]) for st in case.get("steps", ())]
+    for f in _first(case.get("foundation", ())):
+        pts += [float(f["start"]), float(f["end"])]
     for load in case.get("loads", ()):
         if load["type"] in ("point", "couple"):
             pts.append(float(load["x"]))
@@ -209,6 +225,18 @@ def reference_solution(
                 c1[j] += slope * L**4 / (EI * W)
                 c0[j] += (qa - slope * a) * L**4 / (EI * W)
 
+    # EI (relative to the case's) and the foundation modulus (k L⁴/EI) of each segment.
+    mids = 0.5 * (bounds[:-1] + bounds[1:]) * L
+    rel_EI = np.ones(nseg)
+    for st in case_dict.get("steps", ()):
+        rel_EI[mids >= float(st["x"])] = float(st["EI"]) / EI
+    k_hat = np.zeros(nseg)
+    for f in _first(case_dict.get("foundation", ())):
+        k_hat[(mids > float(f["start"])) & (mids < float(f["end"]))] += float(f["k"]) * L**4 / EI
+    inner = {}
+    for r in _first(case_dict.get("restraints", ())):
+        inner[_nearest_boundary(float(r["x"]) / L, bounds, 1.0)] = r
+
     # Concentrated loads, scaled, at each boundary index.
     F_hat = np.zeros(nseg + 1)
     C_hat = np.zeros(nseg + 1)
@@ -226,11 +254,14 @@ def reference_solution(
         for j in range(nseg):
             xi = bounds[j] + h[j] * t
             w, th, m, tt = y[4 * j : 4 * j + 4]
-            dw0 = dw0_fun(xi * L) * L / W
+            # The bow's slope as this segment sees it: taken a hair inside at its ends, where a bow in the
+            # shape of a mode may kink (at a hinge).
+            inside = bounds[j] + h[j] * np.clip(t, 1e-12, 1.0 - 1e-12)
+            dw0 = dw0_fun(inside * L) * L / W
             dy[4 * j + 0] = h[j] * th
-            dy[4 * j + 1] = -h[j] * m
+            dy[4 * j + 1] = -h[j] * m / rel_EI[j]
             dy[4 * j + 2] = h[j] * (tt + p * (th + dw0))
-            dy[4 * j + 3] = -h[j] * (c0[j] + c1[j] * xi)
+            dy[4 * j + 3] = -h[j] * (c0[j] + c1[j] * xi) + h[j] * k_hat[j] * w
         return dy
 
     def end_rows(side: str, spec: tuple, w, th, m_s, t_s):
@@ -264,7 +295,23 @@ def reference_solution(
         for j in range(nseg - 1):
             yl = yb[4 * j : 4 * j + 4]
             yr = ya[4 * (j + 1) : 4 * (j + 1) + 4]
-            res += [yr[0] - yl[0], yr[1] - yl[1], yr[2] - yl[2] - C_hat[j + 1], yr[3] - yl[3] + F_hat[j + 1]]
+            rows = [yr[0] - yl[0], yr[1] - yl[1], yr[2] - yl[2] - C_hat[j + 1], yr[3] - yl[3] + F_hat[j + 1]]
+            r = inner.get(j + 1)
+            if r is not None:
+                trans, rot = r.get("translation", "free"), r.get("rotation", "free")
+                if r.get("hinge", False):
+                    rows[1] = yl[2]
+                if trans == "fixed":
+                    rows[3] = yl[0]
+                elif trans != "free":
+                    kt = float(trans) * L**3 / EI
+                    rows[3] = (rows[3] - kt * yl[0]) / (1.0 + kt)
+                if rot == "fixed":
+                    rows[2] = yl[1]
+                elif rot != "free":
+                    kr = float(rot) * L / EI
+                    rows[2] = (rows[2] + kr * yl[1]) / (1.0 + kr)
+            res += rows
         # Right end: member side L-, support side L+: M(L+) = M(L-) + C, T(L+) = T(L-) - F.
         w, th, m, tt = yb[4 * (nseg - 1) : 4 * nseg]
         res += end_rows("right", right, w, th, m + C_hat[nseg], tt - F_hat[nseg])
