@@ -17,9 +17,8 @@ from engine.case import (
     PointLoad,
     Spec,
     UniformLoad,
-    load_case,
-    save_case,
 )
+from engine.case_files import load_case, save_case
 from engine.cautions import Caution
 from engine.checks import CheckSettings, MemberCheck
 from engine.envelope import solve

@@ -1,8 +1,11 @@
 """The batch's speed work changes no number: every output equals the code before it to 1e-9 relative.
 
-Two guards. Recorded results of the code before issue 18's speed work (``tests/app/data/``, written by that
-code on this machine, 2026-12-02): the example table in ``assets/`` and 150 members drawn by the batch
-benchmark's generator (``tests.benchmarks.batch_speed.write_members``, seed 18). And a hypothesis-drawn table
+Two guards. Recorded results (``tests/app/data/``): the example table in ``assets/`` and 150 members drawn by
+the batch benchmark's generator (``tests.benchmarks.batch_speed.write_members``, seed 18). They were first
+written by the code before issue 18's speed work, and the speed work equalled them to 1e-9; they were written
+again (2026-12-02) once the lateral-torsional buckling check, the load combinations and the new columns had
+landed, which change the headline utilisation and capacity of open sections on purpose: from then on they
+guard later speed work. And a hypothesis-drawn table
 solved twice in this process, once as the product does it and once with the capacity finder as it was before
 (``tests/support/capacity_reference.py``, a verbatim copy): every cell must agree.
 """

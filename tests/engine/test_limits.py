@@ -16,7 +16,8 @@ import pytest
 
 import engine
 from engine import limits
-from engine.case import Case, EndSupport, PointLoad, UniformLoad, load_case, save_case
+from engine.case import Case, EndSupport, PointLoad, UniformLoad
+from engine.case_files import load_case, save_case
 from engine.errors import CaseError
 
 
