@@ -39,6 +39,18 @@ def _inside(box) -> bool:
     )
 
 
+def _governing():
+    """The engine's governing ultimate combination of the demo and its axial force [N] (what the page shows;
+    U2 = 1.35 G + 1.5 W since lateral-torsional buckling is checked, EN 1990 Table A1.2(B), from memory)."""
+    import engine
+
+    result = engine.solve(engine.Case.from_dict(json.loads(DEMO.read_text("utf-8"))))
+    return result.actions.headline, result.axial_force
+
+
+GOVERNING, GOVERNING_N = _governing()
+
+
 def _names(page) -> list:
     inputs = page.locator(".ss-load-case input[placeholder='name']")
     return [inputs.nth(i).input_value() for i in range(inputs.count())]
@@ -47,7 +59,7 @@ def _names(page) -> list:
 def test_load_cases_and_the_governing_combination_are_shown_and_not_covered(app):
     """The load-case table (G and W), the governing combination per check and the picker lie in view."""
     page = app.page
-    governing = page.locator(".ss-governing td").filter(has_text=re.compile("^U1$")).first
+    governing = page.locator(".ss-governing td").filter(has_text=re.compile(f"^{GOVERNING}$")).first
     expect(governing).to_be_visible()
     expect(page.locator(".ss-governing")).to_contain_text("strength and stability (headline)")
     assert _uncovered(page, governing)
@@ -56,7 +68,7 @@ def test_load_cases_and_the_governing_combination_are_shown_and_not_covered(app)
     expect(picker).to_be_visible()
     assert _inside(picker.bounding_box())
     expect(page.locator(".ss-scale-mode")).to_contain_text(
-        "The slider scales the axial force of combination U1"
+        f"The slider scales the axial force of combination {GOVERNING}"
     )
     tab(page, "Loads")
     first = page.locator(".ss-load-case input[placeholder='name']").first
@@ -84,7 +96,7 @@ def test_picking_envelope_draws_a_band(app):
     assert min(widths) >= 0
     assert max(widths) > 1.0  # kN·m: the wind case's moment spreads the combinations apart
     expect(page.locator(".ss-scale-mode")).to_contain_text("Envelope: the shaded band")
-    page.get_by_label("Combination shown").select_option(label="governing (U1)")
+    page.get_by_label("Combination shown").select_option(label=f"governing ({GOVERNING})")
     page.wait_for_function(
         "() => Bokeh.documents[0].get_model_by_name('envelope_M').data.x.length === 0", timeout=TIMEOUT_MS
     )
@@ -95,7 +107,7 @@ def test_the_mode_switch_says_what_the_slider_scales(app):
     page = app.page
     page.get_by_role("button", name="whole combination (λ)").click()
     expect(page.locator(".ss-scale-mode")).to_contain_text(
-        "scales the whole combination U1 by one load factor"
+        f"scales the whole combination {GOVERNING} by one load factor"
     )
 
 
@@ -122,7 +134,7 @@ def test_a_copied_link_reopens_the_same_load_cases(browser, server, app):
         tab(again, "Loads")
         expect(again.locator(".ss-load-case input[placeholder='name']").nth(1)).to_have_value("W1")
         assert _names(again) == ["G", "W1"]
-        expect(again.locator(".ss-governing")).to_contain_text("U1")
+        expect(again.locator(".ss-governing")).to_contain_text(GOVERNING)
         expect(again.locator(".ss-governing")).to_contain_text("S2")
     finally:
         other.close()
@@ -164,11 +176,11 @@ def test_typing_n_scales_the_shown_combination(app):
     (mode 'its N only': every load case's axial force times N/N_before)."""
     page = app.page
     entry = page.get_by_label("N [kN]", exact=True)
-    expect(entry).to_have_value("324")  # U1 = 1.35 G: 1.35 x 240 kN (EN 1990 Table A1.2(B), from memory)
-    entry.fill("486")
+    expect(entry).to_have_value(f"{GOVERNING_N / 1e3:g}")  # U2 = 1.35 x 240 kN − 1.5 x 20 kN = 294 kN
+    entry.fill(f"{1.5 * GOVERNING_N / 1e3:g}")
     entry.press("Enter")
-    expect(page.locator(".ss-readout")).to_contain_text("486.00 kN")
-    page.wait_for_url(re.compile(r"360000"))  # G: 240 kN x 486/324 = 360 kN
+    expect(page.locator(".ss-readout")).to_contain_text(f"{1.5 * GOVERNING_N / 1e3:.2f} kN")
+    page.wait_for_url(re.compile(r"360000"))  # G: 240 kN x 1.5 = 360 kN
     query = urllib.parse.parse_qs(urllib.parse.urlparse(page.url).query)
     case = json.loads(query["case"][0])
     assert case["actions"][0]["axial_force"] == pytest.approx(360e3)

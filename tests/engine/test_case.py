@@ -25,9 +25,8 @@ from engine.case import (
     LinearLoad,
     PointLoad,
     UniformLoad,
-    load_case,
-    save_case,
 )
+from engine.case_files import load_case, save_case
 from engine.errors import CaseError
 
 # The example case file of conventions.md, copied verbatim (its title says it is invented).
