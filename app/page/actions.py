@@ -311,7 +311,9 @@ class CombinationBar(pn.viewable.Viewer):
         self.sentence = html_pane(
             sizing_mode="stretch_width", margin=(0, 10, 2, 10), css_classes=["ss-scale-mode"]
         )
-        self.panel = pn.Column(
+        # Placed in the page only once a case has load cases: a plain case's first page carries none of its
+        # models (start-up, issue 10).
+        self._content = [
             pn.Row(
                 self.picker,
                 html_pane("<div class='ss-note' style='margin-top:22px'>Slider scales:</div>", width=84),
@@ -319,10 +321,8 @@ class CombinationBar(pn.viewable.Viewer):
                 margin=0,
             ),
             self.sentence,
-            visible=False,
-            sizing_mode="stretch_width",
-            margin=(2, 0),
-        )
+        ]
+        self.panel = pn.Column(visible=False, sizing_mode="stretch_width", margin=(2, 0))
         state.param.watch(lambda *_: self.show(), ["result", "combination_choice", "scale_mode", "actions"])
         self.show()
 
@@ -339,6 +339,8 @@ class CombinationBar(pn.viewable.Viewer):
         self.panel.visible = bool(options)
         if not options:
             return
+        if not self.panel.objects:
+            self.panel.objects = list(self._content)
         if self.picker.options != options:
             self.picker.options = options
         choice = state.combination_choice if state.combination_choice in options.values() else ""
@@ -363,7 +365,8 @@ class GoverningView(pn.viewable.Viewer):
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
         self.pane = html_pane(sizing_mode="stretch_width", margin=(4, 6), css_classes=["ss-governing"])
-        self.panel = pn.Column(self.pane, visible=False, sizing_mode="stretch_width", margin=0)
+        # The pane joins the page when a result has load cases (start-up: see CombinationBar).
+        self.panel = pn.Column(visible=False, sizing_mode="stretch_width", margin=0)
         state.param.watch(lambda *_: self.show(), ["result", "units", "combination_choice"])
         self.show()
 
@@ -376,6 +379,8 @@ class GoverningView(pn.viewable.Viewer):
         self.panel.visible = actions is not None
         if actions is None:
             return
+        if not self.panel.objects:
+            self.panel.objects = [self.pane]
         from app.report.combinations import governing_rows, headline_note
 
         U = units(self.state.units)
