@@ -25,6 +25,9 @@ from typing import Any
 
 import param
 
+# The categories the page offers and the rules: the schema's lists, which the tests compare with the engine's.
+from app.schema_actions import ACTION_CATEGORIES, COMBINATION_RULES
+
 __all__ = [
     "ACTION_CATEGORIES",
     "ACTION_INPUTS",
@@ -43,18 +46,6 @@ __all__ = [
     "shown_result",
 ]
 
-#: The categories the page offers (engine.actions.KNOWN_CATEGORIES; a file's own category is kept as it came).
-ACTION_CATEGORIES = (
-    "permanent",
-    "imposed",
-    *(f"imposed-{letter}" for letter in "ABCDEFGH"),
-    "snow",
-    "snow-low",
-    "wind",
-    "temperature",
-)
-#: The combination rules (engine.actions.RULES).
-COMBINATION_RULES = ("en1990-6.10", "en1990-6.10ab", "asce7-2.3", "table")
 #: What the axial-force slider scales with load cases: the actions' N only, or the whole combination.
 SCALE_MODES = ("axial", "factor")
 #: The choice of the combination picker that draws the envelope band.

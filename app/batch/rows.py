@@ -324,17 +324,7 @@ def member_case(row: Mapping[str, str]):
         "length": _number("length_m", cell("length_m"), "metres", "6.0"),
         "supports": {"left": cell("left").lower(), "right": cell("right").lower()},
     }
-    load_columns: list[str] = []
-    loads: list[dict] = []
-    if cell("udl_kN_per_m"):
-        q = _number("udl_kN_per_m", cell("udl_kN_per_m"), "kN/m", "2.5")
-        if q != 0.0:
-            loads.append({"type": "uniform", "q": q * _KILO})
-            load_columns.append("udl_kN_per_m")
-    for force, x in _point_loads(cell("point_loads")):
-        loads.append({"type": "point", "P": force * _KILO, "x": x})
-        load_columns.append("point_loads")
-    data["loads"] = loads
+    data["loads"], load_columns = _plane_loads(cell, "")
     combined = row_actions(row, _number, lambda column, text: _point_loads(text, column), _KILO)
     if combined is not None:
         data["actions"], data["combinations"] = combined
@@ -387,6 +377,23 @@ def member_case(row: Mapping[str, str]):
         raise _engine_error(error, row, load_columns, second_columns) from None
 
 
+def _plane_loads(cell, prefix: str) -> tuple[list[dict], list[str]]:
+    """One plane's loads from its ``<prefix>udl_kN_per_m`` and ``<prefix>point_loads`` cells (SI), and the
+    column of each load (for naming the column behind an engine error)."""
+    udl, points = f"{prefix}udl_kN_per_m", f"{prefix}point_loads"
+    loads: list[dict] = []
+    columns: list[str] = []
+    if cell(udl):
+        q = _number(udl, cell(udl), "kN/m", "2.5")
+        if q != 0.0:
+            loads.append({"type": "uniform", "q": q * _KILO})
+            columns.append(udl)
+    for force, x in _point_loads(cell(points), points):
+        loads.append({"type": "point", "P": force * _KILO, "x": x})
+        columns.append(points)
+    return loads, columns
+
+
 def _second_plane(cell) -> tuple[dict, list[str]]:
     """The case file's ``second_plane`` from the second_ columns, and the column of each of its loads."""
     for name in ("second_left", "second_right"):
@@ -397,17 +404,7 @@ def _second_plane(cell) -> tuple[dict, list[str]]:
                 "plane (second_left and second_right: pinned, fixed, free or guided)",
             )
     plane: dict = {"supports": {"left": cell("second_left").lower(), "right": cell("second_right").lower()}}
-    loads: list[dict] = []
-    columns: list[str] = []
-    if cell("second_udl_kN_per_m"):
-        q = _number("second_udl_kN_per_m", cell("second_udl_kN_per_m"), "kN/m", "0.8")
-        if q != 0.0:
-            loads.append({"type": "uniform", "q": q * _KILO})
-            columns.append("second_udl_kN_per_m")
-    for force, x in _point_loads(cell("second_point_loads"), "second_point_loads"):
-        loads.append({"type": "point", "P": force * _KILO, "x": x})
-        columns.append("second_point_loads")
-    plane["loads"] = loads
+    plane["loads"], columns = _plane_loads(cell, "second_")
     if cell("second_bow"):
         try:
             plane["imperfection"] = _bow(cell("second_bow"))
