@@ -97,26 +97,87 @@ def _malloc_trim():
 _TRIM = False
 
 
+#: Milliseconds between answering a served page's request and building its page (see :func:`make_page`).
+BUILD_DELAY_MS = 120
+
+
 def make_page(case=None):
     """Build one session's page on `case` (an :class:`engine.Case`; the invented demo case when None).
 
     The settled inputs and the units are mirrored into the URL, so a copied link reopens the same case.
+
+    Served, the request is answered with an empty frame at once and the page is built into it
+    :data:`BUILD_DELAY_MS` later, before the browser asks for the page's content: the browser loads and
+    compiles Bokeh's and Panel's scripts (about 0.4 s) while the server builds the page (about 0.6 s),
+    where it used to wait for the build before it could start (start-up, issue 10). Outside a server (tests,
+    scripts) the page is built and returned at once.
     """
+    import panel as pn
+
+    document = pn.state.curdoc
+    if document is None or document.session_context is None:
+        return _build_page(case, None)
+    from app.work import Runner
+
+    # Nothing is solved while the request is answered (a GET does bounded work); the runner starts once the
+    # page is live in the browser and solves off the event loop (issue 11).
+    runner = Runner(document)
+    pn.state.onload(runner.start)
+    pn.state.on_session_destroyed(lambda session_context: runner.close())
+    _guard_upload_size(document)
+    pn.state.on_session_destroyed(_release_memory)
+    frame = pn.Column(sizing_mode="stretch_both", margin=0, min_height=660)
+
+    def build() -> None:
+        from panel.io.state import set_curdoc
+
+        if runner.closed or frame.objects:
+            return
+        with set_curdoc(document):
+            try:
+                frame.objects = [_build_page(case, runner)]
+            except Exception as error:  # noqa: BLE001 - never a blank page: say what failed, in one line
+                _log_failure(error)
+                frame.objects = [pn.pane.HTML(_BUILD_FAILED, sizing_mode="stretch_width")]
+
+    document.add_timeout_callback(build, BUILD_DELAY_MS)
+    return frame
+
+
+_BUILD_FAILED = (
+    "<div style='padding:16px'><b>strutscope could not build this page.</b> Reload the page; if it fails "
+    "again, start strutscope again. The server's window names the error.</div>"
+)
+
+
+def _log_failure(error: Exception) -> None:
+    print(f"strutscope: building a page failed ({type(error).__name__}: {error})", file=sys.stderr)
+
+
+#: BokehJS bundles the page never uses: WebGL drawing (no figure asks for it). Not served, so the browser
+#: neither fetches nor compiles them (about 0.2 MB of script; start-up, issue 10).
+UNUSED_BUNDLES = ("bokeh-gl",)
+
+
+def _without_webgl(server) -> None:
+    """Serve pages without :data:`UNUSED_BUNDLES` (`server`: a Bokeh/Panel server, not yet started)."""
+    application = server._tornado
+    resources = application.resources
+
+    def lean(absolute_url=None):
+        found = resources(absolute_url)
+        return found.clone(components=[c for c in found.components if c not in UNUSED_BUNDLES])
+
+    application.resources = lean
+
+
+def _build_page(case, runner):
+    """The page on `case` for the current document (served with `runner`, or solved at once without)."""
     import panel as pn
 
     from app.page import MemberPage
     from app.state import MemberState
 
-    runner = None
-    document = pn.state.curdoc
-    if document is not None and document.session_context is not None:
-        # Served: nothing is solved while the page is built (a GET does bounded work); the runner starts
-        # once the page is live in the browser and solves off the event loop (issue 11).
-        from app.work import Runner
-
-        runner = Runner(document)
-        pn.state.onload(runner.start)
-        pn.state.on_session_destroyed(lambda session_context: runner.close())
     # The start case (the demo, or the file named on the command line) is trusted and bounded: it is solved
     # while the page is built, so the first page the browser draws already holds its values (start-up, issue
     # 10; it saved a round trip and a second layout). A case from the address is solved off the loop.
@@ -131,12 +192,8 @@ def make_page(case=None):
         _open_link(state, pn.state.session_args)
         _mirror_link(state, pn.state.location)
     page = MemberPage(state)
-    if document is not None and document.session_context is not None:
-        _guard_upload_size(document)
     if os.environ.get(DEBUG_SESSIONS_ENV):
         _log_sessions(page)
-    if pn.state.curdoc is not None:
-        pn.state.on_session_destroyed(_release_memory)
     return page
 
 
@@ -397,6 +454,7 @@ def serve(
             websocket_max_message_size=4 * UPLOAD_LIMIT,
         )
         guard.install(server, hosts)
+        _without_webgl(server)
         server.start()
         # Warm the worker processes once the first page has had the machine to itself (their imports compete
         # with it for the CPU: start-up, issue 10); a job before then starts its worker itself.

@@ -69,3 +69,57 @@ def test_a_kept_variant_gets_its_lines_when_kept():
     assert diagrams.fig_M.renderers[0] is diagrams.renderers["M"]["variants"][0]
     page.variants.clear()
     assert not diagrams.renderers["M"]["variants"][0].visible
+
+
+def _served_document():
+    """A document as a server's session has it: with a session context (stands in for Bokeh's)."""
+    from types import SimpleNamespace
+
+    document = Document()
+    document._session_context = lambda: SimpleNamespace(request=SimpleNamespace(arguments={}), id="test")
+    return document
+
+
+def _delayed_builds(document):
+    return [c for c in document.session_callbacks if type(c).__name__ == "TimeoutCallback"]
+
+
+def test_a_served_request_is_answered_at_once_and_the_page_built_just_after():
+    """Start-up (issue 10): a served request gets an empty frame at once (its HTML goes out, and the browser
+    loads its scripts) and the page is built into the frame a moment later, before the browser asks for it.
+    Before this change the page was built inside the request, and the browser waited for it."""
+    from panel.io.state import set_curdoc
+
+    from app.serve import BUILD_DELAY_MS
+
+    document = _served_document()
+    with set_curdoc(document):
+        frame = make_page()
+    assert frame.objects == []  # nothing built inside the request
+    [build] = _delayed_builds(document)
+    assert build.timeout == BUILD_DELAY_MS
+    build.callback()
+    [page] = frame.objects
+    texts = [str(pane.object) for pane in page.select(pn.pane.HTML)]
+    # the values are there when the browser asks for the page
+    assert [text for text in texts if "ss-values" in text and "kN" in text]
+    build.callback()  # a second call builds nothing more
+    assert frame.objects == [page]
+
+
+def test_a_page_that_fails_to_build_says_so_instead_of_staying_blank(monkeypatch, capsys):
+    from panel.io.state import set_curdoc
+
+    import app.serve
+
+    def broken(case, runner):
+        raise RuntimeError("a fault for the test")
+
+    monkeypatch.setattr(app.serve, "_build_page", broken)
+    document = _served_document()
+    with set_curdoc(document):
+        frame = make_page()
+    _delayed_builds(document)[0].callback()
+    [message] = frame.objects
+    assert "could not build this page" in message.object
+    assert "RuntimeError: a fault for the test" in capsys.readouterr().err
