@@ -49,6 +49,7 @@ END_LABELS = {
 #: Why the check could not be made (``LtbCheck.reason``), in words.
 REASONS = {
     "torsion-unknown": "the section's torsion and warping constants (I_t, I_w) are not known",
+    "minor-axis-unknown": "the section's second moment about its minor axis (I_z) is not known",
     "not-open-section": "not a doubly symmetric open I- or H-section",
     "no-major-moment": "no moment about the major axis",
     "minor-axis-only": "the member bends about its minor axis only",
@@ -248,6 +249,9 @@ def ltb_words(result, U: Units) -> LtbWords | None:
     caution = any(c.code == "lateral-torsional-buckling" for c in getattr(result, "cautions", ()) or ())
     if not ltb.applies:
         reason = reason_text(ltb.reason)
+        missing = tuple(getattr(ltb, "missing", ()) or ())
+        if missing:
+            reason += f" (not given: {', '.join(missing)})"
         return LtbWords(
             applies=False,
             reason=reason,

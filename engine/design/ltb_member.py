@@ -27,9 +27,13 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   diagram (the value eqs. (6.61)/(6.62) use).
 - The check is not made (``applies`` False, the caution stays) for a member with a free end (a cantilever:
   a fork support at its tip would be unsafe), for an open section without known :math:`I_t, I_w`
-  (``torsion-unknown``), for a custom section that is not doubly symmetric, for a custom section with them
-  (``minor-axis-unknown``: its properties are about one axis, so :math:`I_z` is not known), and where a
-  load height is asked for and the depth is unknown.
+  (``torsion-unknown``), for a custom section that is not doubly symmetric, for a custom section without
+  its minor-axis ``Iz`` (``minor-axis-unknown``), and where a load height is asked for and the depth is
+  unknown; for a custom section ``missing`` names the case keys it lacks (``section.Iz``, ...).
+- A custom section (keys ``Iz``, ``It``, ``Iw``, ``doubly_symmetric: true``, :mod:`engine.custom_section`)
+  is checked like a catalogue one with its values as given: no torsion factor, :math:`W_{el,y}` (it is not
+  classified, and its cross-section check is the elastic one), §6.3.2.2 with the curve it names
+  (``ltb_curve``, default d: Table 6.4's other cross-sections), no AISC §F2 (not a catalogued I-shape).
 """
 
 from __future__ import annotations
@@ -39,6 +43,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from engine.custom_section import missing_for_ltb
 from engine.design import ltb
 from engine.design.mcr import critical_moment
 from engine.loads import LinearLoad, PointLoad, UniformLoad
@@ -98,9 +103,10 @@ class LtbCheck:
     W_y: float = math.nan  # [m³]
     C_b_F1_1: float = math.nan  # C_b of eq. (F1-1) before the cap by the exact M_cr
     length: float = math.nan  # [m] between the end restraints
+    missing: tuple = ()  # the case keys a custom section lacks for the check ("section.Iz", ...)
 
 
-def not_applied(reason: str, settings, M_Ed: float = 0.0) -> LtbCheck:
+def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:
     """The check not made: χ_LT = 1 is what the routes then use (and the caution stays)."""
     known = reason in ("no-major-moment", "minor-axis-only", "closed-or-solid", "restrained")
     return LtbCheck(
@@ -123,7 +129,17 @@ def not_applied(reason: str, settings, M_Ed: float = 0.0) -> LtbCheck:
         load_position=settings.load_position,
         lateral_ends=tuple(settings.lateral_ends),
         warping_ends=tuple(settings.warping_ends),
+        missing=tuple(missing),
     )
+
+
+def _custom_reason(missing: tuple) -> str:
+    """The reason code of a custom section that lacks ``missing`` (its first gap in the check's order)."""
+    if "It" in missing or "Iw" in missing:
+        return "torsion-unknown"
+    if "Iz" in missing:
+        return "minor-axis-unknown"
+    return "not-doubly-symmetric" if "doubly_symmetric" in missing else "depth-unknown"
 
 
 def _mcr_loads(loads, length: float, height: float) -> list:
@@ -207,13 +223,17 @@ def check(
     if free_end:
         return not_applied("free-end", settings, M_Ed)
     torsion = sy.torsion
+    height = {"destabilising": 0.5, "shear-centre": 0.0, "stabilising": -0.5}[settings.load_position]
+    custom = sy.shape == "custom"
+    if custom:
+        missing = missing_for_ltb(sy, height != 0.0)
+        if missing:
+            keys = tuple(f"section.{key}" for key in missing)
+            return not_applied(_custom_reason(missing), settings, M_Ed, keys)
     if torsion.I_t is None or torsion.I_w is None:
         return not_applied("torsion-unknown", settings, M_Ed)
     if not sy.doubly_symmetric:
         return not_applied("not-doubly-symmetric", settings, M_Ed)
-    if sy.shape == "custom":  # its properties are about one axis only: I_z is not known
-        return not_applied("minor-axis-unknown", settings, M_Ed)
-    height = {"destabilising": 0.5, "shear-centre": 0.0, "stabilising": -0.5}[settings.load_position]
     if height != 0.0 and sy.depth is None:
         return not_applied("depth-unknown", settings, M_Ed)
     z_g = height * (sy.depth or 0.0)
@@ -221,8 +241,9 @@ def check(
     I_t, I_w = torsion.I_t / factor, torsion.I_w / factor
     E = material.E
     G = material.G if material.G is not None else E / 2.6  # ν = 0.3
-    EI_z, GI_t, EI_w = E * sz.I, G * I_t, E * I_w
-    i0_sq = (sy.I + sz.I) / sy.A
+    I_z = sy.I_minor if custom else sz.I
+    EI_z, GI_t, EI_w = E * I_z, G * I_t, E * I_w
+    i0_sq = (sy.I + I_z) / sy.A
     mcr_loads = _mcr_loads(loads, length, z_g)
     common = dict(
         EI_z=EI_z,
@@ -269,6 +290,8 @@ def check(
     rolled = settings.chi_method == "rolled" and sy.shape in ("rolled_i", "welded_i")
     h_over_b = sy.h_over_b if sy.h_over_b is not None else 1.0
     curve = ltb.lt_curve(shape=sy.shape, h_over_b=h_over_b, method="rolled" if rolled else "general")
+    if custom and sy.ltb_curve is not None:
+        curve = sy.ltb_curve
     f = 1.0
     if math.isinf(lam):
         chi = 0.0
