@@ -30,6 +30,11 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   (``torsion-unknown``), for a custom section that is not doubly symmetric, for a custom section without
   its minor-axis ``Iz`` (``minor-axis-unknown``), and where a load height is asked for and the depth is
   unknown; for a custom section ``missing`` names the case keys it lacks (``section.Iz``, ...).
+- Intermediate restraints (``restraints``, from :func:`engine.member_routes.ltb_restraints`) enter the exact
+  :math:`M_{cr}` at the shear centre (lateral v, v') and as twist φ; a brace point (lateral and twist fixed)
+  splits the member into segments for the tabulated :math:`M_{cr}` and AISC §F2 (L_b, C_b per segment, the
+  worst governs); :math:`\chi_{LT}` uses the exact :math:`M_{cr}` of the whole member. A hinge in the plane
+  of minor-axis bending: not made (``lateral-hinge``).
 - A custom section (keys ``Iz``, ``It``, ``Iw``, ``doubly_symmetric: true``, :mod:`engine.custom_section`)
   is checked like a catalogue one with its values as given: no torsion factor, :math:`W_{el,y}` (it is not
   classified, and its cross-section check is the elastic one), §6.3.2.2 with the curve it names
@@ -104,6 +109,9 @@ class LtbCheck:
     C_b_F1_1: float = math.nan  # C_b of eq. (F1-1) before the cap by the exact M_cr
     length: float = math.nan  # [m] between the end restraints
     missing: tuple = ()  # the case keys a custom section lacks for the check ("section.Iz", ...)
+    restraints: tuple = ()  # intermediate restraints in M_cr, critical_moment's form ({"x", "lateral", ...})
+    segments: tuple = ()  # ((a, b), ...) [m] between brace points (lateral and twist fixed); () for one
+    segment: tuple = ()  # (a, b) [m] of the segment that governs the tabulated M_cr and AISC §F2
 
 
 def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:
@@ -161,6 +169,52 @@ def _mcr_loads(loads, length: float, height: float) -> list:
     return out
 
 
+def _segments(length: float, restraints) -> tuple:
+    """The pieces between brace points, where lateral deflection and twist are both held (``"fixed"``)."""
+    points = sorted(
+        {float(r["x"]) for r in restraints if r.get("lateral") == "fixed" and r.get("twist") == "fixed"}
+    )
+    edges = [0.0, *points, float(length)]
+    return tuple(zip(edges[:-1], edges[1:], strict=True))
+
+
+def _piece(xs: np.ndarray, ms: np.ndarray, a: float, b: float) -> tuple[np.ndarray, np.ndarray]:
+    """The diagram on [a, b] (its end values interpolated; a station given twice keeps its last value)."""
+    keep = np.concatenate([np.diff(xs) > 0.0, [True]])
+    x, m = xs[keep], ms[keep]
+    inside = (x > a) & (x < b)
+    return (
+        np.concatenate([[a], x[inside], [b]]),
+        np.concatenate([[np.interp(a, x, m)], m[inside], [np.interp(b, x, m)]]),
+    )
+
+
+def _end_pair(pair, a: float, b: float, length: float, inner: str) -> tuple:
+    """A segment's end conditions: the member's at its ends, ``inner`` at a brace point (fork, warping free:
+    the neighbours' restraint left out, on the safe side)."""
+    return (pair[0] if a <= 0.0 else inner, pair[1] if b >= length else inner)
+
+
+def _tabulated(xs, ms, length, segments, settings, stiffness, z_g):
+    """(M_cr tabulated for the whole diagram, its standard diagram, the governing segment): per segment the
+    C1 formula for its own length, diagram and ends, scaled to the member's max|M| by the segment's peak; the
+    lowest governs."""
+    M_max = float(np.max(np.abs(ms)))
+    best = None
+    for a, b in segments:
+        sx, sm = (xs, ms) if len(segments) == 1 else _piece(xs, ms, a, b)
+        peak = float(np.max(np.abs(sm)))
+        if peak == 0.0:
+            continue
+        std = _standard(sx, sm)
+        lateral = _end_pair(settings.lateral_ends, a, b, length, "fork")
+        warping = _end_pair(settings.warping_ends, a, b, length, "free")
+        value = ltb.mcr_c1(b - a, *stiffness, std.C1, std.C2, z_g, k=_k(lateral), k_w=_k(warping))
+        if best is None or value / peak < best[0]:
+            best = (value / peak, std, (a, b))
+    return best[0] * M_max, best[1], best[2]
+
+
 def _k(ends) -> float:
     """Effective length factor of the three-factor formula for the end pair (0.7 mixed: common practice)."""
     fixed = sum(end == "fixed" for end in ends)
@@ -201,13 +255,17 @@ def check(
     free_end: bool = False,
     gamma_M1: float = 1.0,
     cache=None,
+    restraints: tuple = (),
+    lateral_hinge: bool = False,
 ) -> LtbCheck:
     """The lateral-torsional buckling check of a member (see the module).
 
     ``x``, ``M``, ``V``: the first-order major-axis diagram [m, N·m] and its shear dM/dx [N] (M is then
     interpolated by cubic pieces, exact for uniform and linear loads); ``loads``: the major plane's loads;
     ``N``: the axial force [N], compression positive; ``settings``: the case's ``check.ltb``; ``cache``:
-    ``cache(key, make)`` for what does not depend on N (the M_cr at N = 0).
+    ``cache(key, make)`` for what does not depend on N (the M_cr at N = 0); ``restraints``: intermediate
+    restraints in :func:`engine.design.mcr.critical_moment`'s form; ``lateral_hinge``: a hinge in the plane of
+    minor-axis bending (the check is then not made: the elements cannot release v'').
     """
     xs = np.asarray(x, dtype=float)
     ms = np.asarray(M, dtype=float)
@@ -222,6 +280,8 @@ def check(
         return not_applied("restrained", settings, M_Ed)
     if free_end:
         return not_applied("free-end", settings, M_Ed)
+    if lateral_hinge:
+        return not_applied("lateral-hinge", settings, M_Ed)
     torsion = sy.torsion
     height = {"destabilising": 0.5, "shear-centre": 0.0, "stabilising": -0.5}[settings.load_position]
     custom = sy.shape == "custom"
@@ -255,6 +315,7 @@ def check(
         lateral_ends=tuple(settings.lateral_ends),
         warping_ends=tuple(settings.warping_ends),
         scale_axial=False,
+        restraints=tuple(restraints),
     )
 
     def solve(axial, pair=None):
@@ -271,18 +332,8 @@ def check(
     found = at_zero if N_held == 0.0 else solve(N_held, at_zero.elements if at_zero is not None else None)
     M_cr = 0.0 if found is None else float(found.M_cr)
     M_cr_0 = math.nan if at_zero is None else float(at_zero.M_cr)
-    std = _standard(xs, ms)
-    M_tab = ltb.mcr_c1(
-        length,
-        EI_z,
-        GI_t,
-        EI_w,
-        std.C1,
-        std.C2,
-        z_g,
-        k=_k(settings.lateral_ends),
-        k_w=_k(settings.warping_ends),
-    )
+    segments = _segments(length, restraints)
+    M_tab, std, segment = _tabulated(xs, ms, length, segments, settings, (EI_z, GI_t, EI_w), z_g)
     plastic = section_class is not None and section_class <= 2
     W_y = sy.W_pl if plastic else sy.W_el
     fy = material.fy
@@ -305,7 +356,8 @@ def check(
     aisc = None
     cb_f1 = math.nan
     if sy.shape in ("rolled_i", "welded_i"):
-        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w)
+        alpha_0 = M_cr_0 / M_Ed
+        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, EI_z, GI_t, EI_w)
     mode = () if found is None else (found.x, found.v, found.phi)
     return LtbCheck(
         applies=True,
@@ -339,33 +391,45 @@ def check(
         W_y=W_y,
         C_b_F1_1=cb_f1,
         length=float(length),
+        restraints=tuple(restraints),
+        segments=segments if len(segments) > 1 else (),
+        segment=segment if len(segments) > 1 else (),
     )
 
 
-def _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w):
-    """AISC 360-16 §F2 with L_b = L and C_b of eq. (F1-1), capped by the exact elastic ratio
-    M_cr,0 / M_cr,uniform (fork supports): a load on the top flange lowers M_cr, which eq. (F1-1) does not
-    see (AISC 360-16 Commentary to §F1 says to account for it; from memory)."""
-    absolute = np.abs(ms)
-    x_rel = xs - xs[0]
-    quarter = [float(np.interp(t * length, x_rel, absolute)) for t in (0.25, 0.5, 0.75)]
-    M_max = float(np.max(absolute))
-    cb_f1 = ltb.cb_aisc(M_max, *(min(q, M_max) for q in quarter))
-    uniform = ltb.mcr_c1(length, EI_z, GI_t, EI_w, 1.0)
-    cb = cb_f1 if not math.isfinite(M_cr_0) else min(cb_f1, max(M_cr_0 / uniform, 1e-6))
+def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, EI_z, GI_t, EI_w):
+    """AISC 360-16 §F2 per unbraced segment (L_b its length, C_b of eq. (F1-1) from its own diagram), capped
+    by the exact elastic ratio α_cr,0·M_max,seg / M_cr,uniform(L_b, fork): a load on the top flange lowers
+    M_cr, which eq. (F1-1) does not see (AISC 360-16 Commentary to §F1 says to account for it; from memory).
+    The segment of the largest M_max,seg / M_n governs, and its M_n is the member's (the route divides the
+    member's largest moment by it: never less than that segment's own ratio)."""
     dims = sy.dimensions
     h_o = dims["h"] - dims["tf"]
-    found = ltb.aisc_f2(
-        L_b=length,
-        E=material.E,
-        F_y=material.fy,
-        Z_x=sy.W_pl,
-        S_x=sy.W_el,
-        r_y=sz.i,
-        I_y=sz.I,
-        C_w=I_w,
-        J=I_t,
-        h_o=h_o,
-        C_b=cb,
-    )
-    return found, cb_f1
+    best = None
+    for a, b in segments:
+        sx, sm = (xs, ms) if len(segments) == 1 else _piece(xs, ms, a, b)
+        absolute = np.abs(sm)
+        L_b = b - a
+        quarter = [float(np.interp(a + t * L_b, sx, absolute)) for t in (0.25, 0.5, 0.75)]
+        M_max = float(np.max(absolute))
+        if M_max == 0.0:
+            continue
+        cb_f1 = ltb.cb_aisc(M_max, *(min(q, M_max) for q in quarter))
+        uniform = ltb.mcr_c1(L_b, EI_z, GI_t, EI_w, 1.0)
+        cb = cb_f1 if not math.isfinite(alpha_0) else min(cb_f1, max(alpha_0 * M_max / uniform, 1e-6))
+        found = ltb.aisc_f2(
+            L_b=L_b,
+            E=material.E,
+            F_y=material.fy,
+            Z_x=sy.W_pl,
+            S_x=sy.W_el,
+            r_y=sz.i,
+            I_y=sz.I,
+            C_w=I_w,
+            J=I_t,
+            h_o=h_o,
+            C_b=cb,
+        )
+        if best is None or M_max / found.M_n > best[0]:
+            best = (M_max / found.M_n, found, cb_f1)
+    return best[1], best[2]
