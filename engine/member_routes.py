@@ -181,8 +181,12 @@ def _major(result):
     return second if second is not None and second.case.axis == "major" else None
 
 
-def _free_end(case) -> bool:
-    return any(end.translation == "free" and end.rotation == "free" for end in (case.left, case.right))
+def _free_end(case) -> str | bool:
+    """``"left"`` or ``"right"`` for the end that is free (translation and rotation), else False."""
+    for side, end in (("left", case.left), ("right", case.right)):
+        if end.translation == "free" and end.rotation == "free":
+            return side
+    return False
 
 
 def ltb_restraints(case) -> tuple[tuple, bool]:

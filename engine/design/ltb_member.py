@@ -25,10 +25,14 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   :math:`k_c` of Table 6.6 only when the diagram is within 1 % of the table's shape (else :math:`k_c = 1`).
 - :math:`W_y = W_{pl,y}` for class 1–2, else :math:`W_{el,y}`; :math:`M_{Ed}` = max|M_y| of the first-order
   diagram (the value eqs. (6.61)/(6.62) use).
-- The check is not made (``applies`` False, the caution stays) for a member with a free end (a cantilever:
-  a fork support at its tip would be unsafe), for an open section without known :math:`I_t, I_w`
-  (``torsion-unknown``), for a custom section that is not doubly symmetric, for a custom section without
-  its minor-axis ``Iz`` (``minor-axis-unknown``), and where a load height is asked for and the depth is
+- A cantilever (a free end) is checked when ``check.ltb.lateral_ends`` states its support ``fixed`` (v = v' =
+  0 there; its warping as stated): the tip is free (nothing held), the tip's settings are ignored, no
+  tabulated M_cr (the C1 tables are for spans between forks), AISC with C_b = 1 for the tip segment, capped by
+  the exact M_cr. With a fork at the support it could swing laterally: not made (``free-end``).
+- The check is not made (``applies`` False, the caution stays) for a member with a free end whose support is
+  not stated laterally fixed, for an open section without known :math:`I_t, I_w` (``torsion-unknown``), for
+  a custom section that is not doubly symmetric, for a custom section without its minor-axis ``Iz``
+  (``minor-axis-unknown``), and where a load height is asked for and the depth is
   unknown; for a custom section ``missing`` names the case keys it lacks (``section.Iz``, ...).
 - Intermediate restraints (``restraints``, from :func:`engine.member_routes.ltb_restraints`) enter the exact
   :math:`M_{cr}` at the shear centre (lateral v, v') and as twist φ; a brace point (lateral and twist fixed)
@@ -169,6 +173,11 @@ def _mcr_loads(loads, length: float, height: float) -> list:
     return out
 
 
+_CANTILEVER = ltb.StandardDiagram(
+    diagram="cantilever", C1=math.nan, C2=math.nan, psi=None, deviation=math.inf
+)
+
+
 def _segments(length: float, restraints) -> tuple:
     """The pieces between brace points, where lateral deflection and twist are both held (``"fixed"``)."""
     points = sorted(
@@ -252,7 +261,7 @@ def check(
     N: float,
     settings,
     section_class: int | None,
-    free_end: bool = False,
+    free_end: bool | str = False,
     gamma_M1: float = 1.0,
     cache=None,
     restraints: tuple = (),
@@ -278,8 +287,13 @@ def check(
         return not_applied("no-major-moment", settings, M_Ed)
     if settings.restrained:
         return not_applied("restrained", settings, M_Ed)
-    if free_end:
-        return not_applied("free-end", settings, M_Ed)
+    lateral_ends, warping_ends = tuple(settings.lateral_ends), tuple(settings.warping_ends)
+    if free_end:  # a cantilever: checked when its support is stated fixed laterally (else it could swing)
+        tip = {"left": 0, "right": 1}.get(free_end) if isinstance(free_end, str) else None
+        if tip is None or lateral_ends[1 - tip] != "fixed":
+            return not_applied("free-end", settings, M_Ed)
+        lateral_ends = tuple("free" if i == tip else end for i, end in enumerate(lateral_ends))
+        warping_ends = tuple("free" if i == tip else end for i, end in enumerate(warping_ends))
     if lateral_hinge:
         return not_applied("lateral-hinge", settings, M_Ed)
     torsion = sy.torsion
@@ -312,8 +326,8 @@ def check(
         length=length,
         i0_squared=i0_sq,
         loads=mcr_loads,
-        lateral_ends=tuple(settings.lateral_ends),
-        warping_ends=tuple(settings.warping_ends),
+        lateral_ends=lateral_ends,
+        warping_ends=warping_ends,
         scale_axial=False,
         restraints=tuple(restraints),
     )
@@ -333,7 +347,10 @@ def check(
     M_cr = 0.0 if found is None else float(found.M_cr)
     M_cr_0 = math.nan if at_zero is None else float(at_zero.M_cr)
     segments = _segments(length, restraints)
-    M_tab, std, segment = _tabulated(xs, ms, length, segments, settings, (EI_z, GI_t, EI_w), z_g)
+    if free_end:  # the C1 tables are for spans between forks: no tabulated value for a cantilever
+        M_tab, std, segment = math.nan, _CANTILEVER, ()
+    else:
+        M_tab, std, segment = _tabulated(xs, ms, length, segments, settings, (EI_z, GI_t, EI_w), z_g)
     plastic = section_class is not None and section_class <= 2
     W_y = sy.W_pl if plastic else sy.W_el
     fy = material.fy
@@ -357,7 +374,8 @@ def check(
     cb_f1 = math.nan
     if sy.shape in ("rolled_i", "welded_i"):
         alpha_0 = M_cr_0 / M_Ed
-        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, EI_z, GI_t, EI_w)
+        tip = None if not free_end else (0.0 if free_end == "left" else float(length))
+        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, (EI_z, GI_t, EI_w), tip)
     mode = () if found is None else (found.x, found.v, found.phi)
     return LtbCheck(
         applies=True,
@@ -377,8 +395,8 @@ def check(
         M_b_Rd=M_b_Rd,
         utilisation=M_Ed / M_b_Rd if M_b_Rd > 0.0 else math.inf,
         load_position=settings.load_position,
-        lateral_ends=tuple(settings.lateral_ends),
-        warping_ends=tuple(settings.warping_ends),
+        lateral_ends=lateral_ends,
+        warping_ends=warping_ends,
         mode_x=tuple(float(v) for v in mode[0]) if mode else (),
         mode_v=_unit(mode[1]) if mode else (),
         mode_phi=_unit(mode[2]) if mode else (),
@@ -397,7 +415,7 @@ def check(
     )
 
 
-def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, EI_z, GI_t, EI_w):
+def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip=None):
     """AISC 360-16 §F2 per unbraced segment (L_b its length, C_b of eq. (F1-1) from its own diagram), capped
     by the exact elastic ratio α_cr,0·M_max,seg / M_cr,uniform(L_b, fork): a load on the top flange lowers
     M_cr, which eq. (F1-1) does not see (AISC 360-16 Commentary to §F1 says to account for it; from memory).
@@ -415,7 +433,9 @@ def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, EI_z, GI_t, EI_
         if M_max == 0.0:
             continue
         cb_f1 = ltb.cb_aisc(M_max, *(min(q, M_max) for q in quarter))
-        uniform = ltb.mcr_c1(L_b, EI_z, GI_t, EI_w, 1.0)
+        if tip is not None and a <= tip <= b:
+            cb_f1 = 1.0
+        uniform = ltb.mcr_c1(L_b, *stiffness, 1.0)
         cb = cb_f1 if not math.isfinite(alpha_0) else min(cb_f1, max(alpha_0 * M_max / uniform, 1e-6))
         found = ltb.aisc_f2(
             L_b=L_b,

@@ -50,8 +50,9 @@ from engine.validate import choice, positive, real
 __all__ = ["LATERAL_ENDS", "WARPING_ENDS", "CriticalMoment", "critical_moment", "eigen_solution"]
 
 #: End conditions for lateral bending: ``fork`` (v = 0, free to rotate about the minor axis), ``fixed``
-#: (v = v' = 0). Both hold the twist (φ = 0): a fork support.
-LATERAL_ENDS: tuple[str, ...] = ("fork", "fixed")
+#: (v = v' = 0); both hold the twist (φ = 0): a fork support. ``free``: nothing held (a cantilever's tip; the
+#: other end must then be ``fixed``).
+LATERAL_ENDS: tuple[str, ...] = ("fork", "fixed", "free")
 #: End conditions for warping: ``free`` (φ' free) or ``fixed`` (φ' = 0).
 WARPING_ENDS: tuple[str, ...] = ("free", "fixed")
 
@@ -214,6 +215,8 @@ def _matrices(nodes, m_at, props, uniform, point, scale_axial):
 def _free_dofs(nodes_count: int, lateral_ends, warping_ends, held_inside=()) -> np.ndarray:
     held = set(held_inside)
     for end, node in (0, 0), (1, nodes_count - 1):
+        if lateral_ends[end] == "free":  # a cantilever's tip: nothing held
+            continue
         held.update({4 * node, 4 * node + 2})  # v = 0, φ = 0: a fork at each support
         if lateral_ends[end] == "fixed":
             held.add(4 * node + 1)
@@ -390,6 +393,11 @@ def critical_moment(
             raise ValueError(f"{name}: {ends!r} must be a (left, right) pair")
         for side, end in zip(("left", "right"), ends, strict=True):
             choice(f"{name}.{side}", end, allowed)
+    if "free" in lateral_ends and tuple(lateral_ends) not in (("free", "fixed"), ("fixed", "free")):
+        raise ValueError(
+            f"lateral_ends: {tuple(lateral_ends)!r} leaves the member free to swing laterally; a free end "
+            "needs the other end 'fixed' (a cantilever)"
+        )
     xs = np.asarray(x, dtype=float)
     ms = np.asarray(M, dtype=float)
     if xs.ndim != 1 or xs.shape != ms.shape or xs.size < 2 or np.any(np.diff(xs) < 0):
@@ -424,7 +432,10 @@ def critical_moment(
     breaks = [p[1] for p in point] + [u[1] for u in uniform] + [u[2] for u in uniform] + list(jumps)
     breaks += [x for x, _ in inside]
     M_max = float(np.max(np.abs(ms)))
-    args = (props, uniform, point, scale_axial, tuple(lateral_ends), tuple(warping_ends), inside)
+    # Without warping stiffness a warping restraint holds nothing: φ' = 0 would be a constraint the member
+    # does not have (it raised M_cr by ~0.7 % in a cantilever with EI_w = 0), so it is dropped.
+    warping = tuple(warping_ends) if props[2] > 0.0 else ("free", "free")
+    args = (props, uniform, point, scale_axial, tuple(lateral_ends), warping, inside)
 
     def run(count):
         nodes = _mesh(L, count, breaks)
