@@ -362,6 +362,17 @@ def _build() -> dict[str, Any]:
                     },
                     "It": _number("St Venant torsion constant I_t [m⁴], > 0", exclusiveMinimum=0),
                     "Iw": _number("Warping constant I_w [m⁶], >= 0", minimum=0),
+                    "Iz": _number(
+                        "Second moment about the minor axis I_z [m⁴], > 0 and <= I (for the "
+                        "lateral-torsional buckling check)",
+                        exclusiveMinimum=0,
+                    ),
+                    "ltb_curve": {
+                        "type": "string",
+                        "enum": ["a", "b", "c", "d"],
+                        "description": "Lateral-torsional buckling curve, EN 1993-1-1 Table 6.4 (default "
+                        "'d', the table's other cross-sections).",
+                    },
                 },
             ),
         ],

@@ -67,6 +67,13 @@ def inner_properties() -> dict[str, Any]:
                         "enum": ["first", "second", "both"],
                         "description": "The plane it acts in ('second' needs second_plane). Default 'both'.",
                     },
+                    "twist": spring_or(
+                        "twist",
+                        "phi = 0 or a torsional spring k_phi; read by the lateral-torsional buckling check "
+                        "only; default 'free'",
+                        "N·m/rad",
+                        "The",
+                    ),
                 },
                 ("x",),
                 description="A support, spring or hinge inside the member. One per point and plane; one "

@@ -51,6 +51,7 @@ from app.state_inputs import (
     LOAD_TYPES,
     MANUFACTURED,
     NAMED_RESTRAINTS,
+    OPTIONAL_SECTION_KEYS,
     RESTRAINTS,
     SECTION_DIMENSIONS,
     SECTION_PARAMS,
@@ -58,6 +59,7 @@ from app.state_inputs import (
     STIFFNESS_SOURCES,
     SUPPORT_FORMS,
     MemberInputs,
+    custom_choice_values,
     default_load,
     load_magnitude,
 )
@@ -546,8 +548,10 @@ def values_from_mapping(mapping: Mapping) -> dict:
         for key in SECTION_DIMENSIONS.get(shape, ()):
             if key in section:
                 values[SECTION_PARAMS[key]] = section.pop(key)
-            elif key == "A_v":
-                values["section_A_v"] = None
+            elif key in OPTIONAL_SECTION_KEYS:
+                values[SECTION_PARAMS[key]] = None
+        if shape == "custom":
+            values.update(custom_choice_values(section))
         if shape in MANUFACTURED:
             values["section_manufacture"] = section.pop("manufacture", None)
         extra = section

@@ -27,6 +27,9 @@ __all__ = [
     "MemberInputs",
     "RESTRAINTS",
     "SECTION_DIMENSIONS",
+    "OPTIONAL_SECTION_KEYS",
+    "CUSTOM_CHOICES",
+    "custom_choice_values",
     "SECTION_SHAPES",
     "STIFFNESS_SOURCES",
     "SUPPORT_FORMS",
@@ -60,8 +63,15 @@ SECTION_DIMENSIONS = {
     "chs": ("D", "t"),
     "rectangle": ("b", "h"),
     "round": ("D",),
-    "custom": ("A", "I", "W_el", "W_pl", "A_v"),
+    "custom": ("A", "I", "W_el", "W_pl", "A_v", "depth", "Iz", "It", "Iw"),
 }
+#: Keys of SECTION_DIMENSIONS a case may leave out (None on the page: not given).
+OPTIONAL_SECTION_KEYS = ("A_v", "depth", "Iz", "It", "Iw")
+#: The custom section's lateral-torsional buckling inputs that are not numbers: (key, input, default).
+CUSTOM_CHOICES = (
+    ("doubly_symmetric", "section_doubly_symmetric", False),
+    ("ltb_curve", "section_ltb_curve", "d"),
+)
 SECTION_PARAMS = {key: f"section_{key}" for keys in SECTION_DIMENSIONS.values() for key in keys}
 MANUFACTURED = ("rhs", "chs")
 
@@ -98,6 +108,7 @@ INPUTS = (
     "section_shape",
     "section_name",
     *SECTION_PARAMS.values(),
+    *(name for _, name, _ in CUSTOM_CHOICES),
     "section_manufacture",
     "section_extra",
     "axis",
@@ -315,6 +326,20 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs):
         softbounds=(1e-5, 0.5),
         doc="Shear area A_v [m²] of a custom section; empty means A.",
     )
+    section_depth = param.Number(
+        default=None, allow_None=True, softbounds=(0.01, 2.0), doc="Overall depth [m] of a custom section."
+    )
+    section_Iz = param.Number(default=None, allow_None=True, doc="Custom section: I_z [m⁴] (minor axis).")
+    section_It = param.Number(default=None, allow_None=True, doc="Custom section: I_t [m⁴] (torsion).")
+    section_Iw = param.Number(default=None, allow_None=True, doc="Custom section: I_w [m⁶] (warping).")
+    section_doubly_symmetric = param.Boolean(
+        default=False, doc="A custom section symmetric about both axes (needed for the LTB check)."
+    )
+    section_ltb_curve = param.Selector(
+        objects=["a", "b", "c", "d"],
+        default="d",
+        doc="A custom section's LTB curve, EN 1993-1-1 Table 6.4 (d: other cross-sections, the default).",
+    )
     section_manufacture = param.Selector(
         objects=["hot-finished", "cold-formed"],
         default="hot-finished",
@@ -466,6 +491,10 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs):
                 data[key] = value
         if shape in MANUFACTURED and self.section_manufacture is not None:
             data["manufacture"] = self.section_manufacture
+        if shape == "custom":
+            for key, name, default in CUSTOM_CHOICES:  # written only where not the default
+                if getattr(self, name) != default:
+                    data[key] = getattr(self, name)
         data.update(self.section_extra)
         return data
 
@@ -542,3 +571,16 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs):
         import engine
 
         return engine.Case.from_dict(self.case_mapping())
+
+
+def custom_choice_values(section: dict) -> dict:
+    """The CUSTOM_CHOICES inputs of a custom section spec, taken out of ``section`` where the page can hold
+    them (a value it cannot hold stays in ``section``, kept for the engine to name); defaults otherwise."""
+    values = {}
+    for key, name, default in CUSTOM_CHOICES:
+        value = section.get(key, default)
+        allowed = isinstance(value, bool) if key == "doubly_symmetric" else value in ("a", "b", "c", "d")
+        values[name] = value if allowed else default
+        if allowed:
+            section.pop(key, None)
+    return values

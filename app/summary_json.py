@@ -312,6 +312,12 @@ def _ltb_data(result) -> dict | None:
     if ltb is None:
         return None
     data: dict = {"applies": bool(ltb.applies), "reason": ltb.reason}
+    if getattr(ltb, "missing", ()):
+        data["missing"] = list(ltb.missing)
+    if getattr(ltb, "restraints", ()):
+        data["restraints"] = [dict(r) for r in ltb.restraints]
+    if getattr(ltb, "segment", ()):
+        data["segment"] = list(ltb.segment)
     if ltb.applies:
         data.update({key: _finite(getattr(ltb, key)) for key in _LTB_NUMBERS})
         data.update(diagram=ltb.diagram, curve=ltb.curve, method=ltb.method)

@@ -86,6 +86,8 @@ class Units:
         cm² | in².
     second_moment : Unit
         cm⁴ | in⁴.
+    warping : Unit
+        cm⁶ | in⁶ (the warping constant I_w).
     rotation : Unit
         mrad in both systems.
     translational_spring : Unit
@@ -104,6 +106,7 @@ class Units:
     stiffness: Unit
     area: Unit
     second_moment: Unit
+    warping: Unit
     rotation: Unit
     translational_spring: Unit
     rotational_spring: Unit
@@ -229,6 +232,7 @@ def units(system: str = "si") -> Units:
             stiffness=("kN·m²", 1e-3),
             area=("cm²", 1e4),
             second_moment=("cm⁴", 1e8),
+            warping=("cm⁶", 1e12),
             rotation=("mrad", 1e3),
             translational_spring=("kN/m", 1e-3),
             rotational_spring=("kN·m/rad", 1e-3),
@@ -245,6 +249,7 @@ def units(system: str = "si") -> Units:
             stiffness=("kip·ft²", 1 / (_KIP * _FOOT**2)),
             area=("in²", 1 / _INCH**2),
             second_moment=("in⁴", 1 / _INCH**4),
+            warping=("in⁶", 1 / _INCH**6),
             rotation=("mrad", 1e3),
             translational_spring=("kip/in", _INCH / _KIP),
             rotational_spring=("kip·ft/rad", 1 / (_KIP * _FOOT)),

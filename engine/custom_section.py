@@ -2,7 +2,15 @@
 
 ``{"shape": "custom", "A": ..., "I": ..., "W_el": ..., "W_pl": ...}`` with the optional keys ``A_v``,
 ``depth``, ``width``, ``t_max``, ``doubly_symmetric``, ``open_section``, ``It`` (St Venant torsion constant
-[m⁴], > 0) and ``Iw`` (warping constant [m⁶], >= 0). :func:`custom_fields` checks each value, naming the
+[m⁴], > 0), ``Iw`` (warping constant [m⁶], >= 0), ``Iz`` (second moment about the minor axis [m⁴],
+0 < Iz <= I) and ``ltb_curve`` (the lateral-torsional buckling curve of EN 1993-1-1 Table 6.4, ``"a"`` to
+``"d"``; default ``"d"``, the table's row for other cross-sections).
+
+The lateral-torsional buckling check runs for a custom section bent about its major axis that gives ``It``,
+``Iw``, ``Iz`` and ``doubly_symmetric: true`` (and ``depth`` when the loads act away from the shear centre);
+:data:`LTB_KEYS` lists them and :func:`missing_for_ltb` names those a section lacks.
+
+:func:`custom_fields` checks each value, naming the
 field, and returns the keyword arguments of :class:`engine.sections.Section` but its axis;
 :func:`engine.sections.section_from_spec` has already checked the keys.
 """
@@ -12,10 +20,17 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping
 
+from engine.errors import CaseError
 from engine.torsion import TorsionProperties
-from engine.validate import dimension, flag, real
+from engine.validate import choice, dimension, flag, real, show
 
-__all__ = ["custom_fields"]
+__all__ = ["LTB_CURVES", "LTB_KEYS", "custom_fields", "missing_for_ltb"]
+
+#: The keys a custom section needs for the lateral-torsional buckling check (``depth`` only when the loads
+#: act away from the shear centre).
+LTB_KEYS = ("Iz", "It", "Iw", "doubly_symmetric")
+#: The curves a custom section may name (EN 1993-1-1 Table 6.4's).
+LTB_CURVES = ("a", "b", "c", "d")
 
 # Dimensions above this are almost surely millimetres typed as metres; the message says so.
 _MAX_DIMENSION = 10.0  # [m]
@@ -45,6 +60,20 @@ def custom_fields(path: str, spec: Mapping) -> dict:
     open_section = flag(f"{path}.open_section", spec.get("open_section", True))
     I_t = real(f"{path}.It", spec["It"], "m⁴", minimum=0.0, minimum_exclusive=True) if "It" in spec else None
     I_w = real(f"{path}.Iw", spec["Iw"], "m⁶", minimum=0.0) if "Iw" in spec else None
+    I_z = None
+    if "Iz" in spec:
+        I_z = real(f"{path}.Iz", spec["Iz"], "m⁴", minimum=0.0, minimum_exclusive=True)
+        if I_z > values["I"] * (1.0 + 1e-9):
+            raise CaseError(
+                f"{path}.Iz: {show(spec['Iz'])} m⁴ is not allowed; it must be > 0 and <= I = "
+                f"{values['I']:.6g} m⁴ "
+                "(the minor axis's second moment cannot exceed the major axis's; give I about the major axis)"
+            )
+    curve = (
+        choice(f"{path}.ltb_curve", spec["ltb_curve"], LTB_CURVES, "a buckling curve")
+        if "ltb_curve" in spec
+        else None
+    )
     given = [name for name, value in (("It", I_t), ("Iw", I_w)) if value is not None]
     torsion = TorsionProperties(
         I_t=I_t,
@@ -72,4 +101,23 @@ def custom_fields(path: str, spec: Mapping) -> dict:
         "dimensions": extents,
         "source": "properties given in the case, taken as about the chosen axis",
         "torsion": torsion,
+        "I_minor": I_z,
+        "ltb_curve": curve,
     }
+
+
+def missing_for_ltb(section, load_height: bool) -> tuple[str, ...]:
+    """The custom-section keys the lateral-torsional buckling check lacks (of :data:`LTB_KEYS`, and ``depth``
+    when ``load_height``: the loads act away from the shear centre), in that order; () when none."""
+    missing = []
+    if section.I_minor is None:
+        missing.append("Iz")
+    if section.torsion.I_t is None:
+        missing.append("It")
+    if section.torsion.I_w is None:
+        missing.append("Iw")
+    if not section.doubly_symmetric:
+        missing.append("doubly_symmetric")
+    if load_height and section.depth is None:
+        missing.append("depth")
+    return tuple(missing)

@@ -30,7 +30,7 @@ from engine.design.routes import ROUTES, RouteCheck
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.sections import section_from_spec
 
-__all__ = ["FALLBACK", "attach", "evaluate", "headline"]
+__all__ = ["FALLBACK", "attach", "evaluate", "headline", "ltb_restraints"]
 
 #: The note of a headline that fell back on the second-order check (no enabled route applied).
 FALLBACK = "headline-fallback-second-order"
@@ -181,8 +181,36 @@ def _major(result):
     return second if second is not None and second.case.axis == "major" else None
 
 
-def _free_end(case) -> bool:
-    return any(end.translation == "free" and end.rotation == "free" for end in (case.left, case.right))
+def _free_end(case) -> str | bool:
+    """``"left"`` or ``"right"`` for the end that is free (translation and rotation), else False."""
+    for side, end in (("left", case.left), ("right", case.right)):
+        if end.translation == "free" and end.rotation == "free":
+            return side
+    return False
+
+
+def ltb_restraints(case) -> tuple[tuple, bool]:
+    """The case's intermediate restraints as the lateral-torsional buckling problem sees them, and whether a
+    hinge acts in the plane of minor-axis bending.
+
+    A restraint acting in that plane (a two-plane case's plane about the minor axis) holds the shear centre
+    laterally: its translation is ``lateral`` (v), its rotation ``lateral_rotation`` (v'); its ``twist``
+    holds φ in any case. A one-plane case's restraints act in its one plane only, so only their twist enters.
+    """
+    minor = None
+    if case.second_plane is not None:
+        minor = "second" if case.axis == "major" else "first"
+    out, hinge = [], False
+    for r in case.restraints:
+        item = {"x": r.x}
+        if minor is not None and r.plane in (minor, "both") and r.bends:
+            hinge = hinge or r.hinge
+            item.update(lateral=r.translation, lateral_rotation=r.rotation)
+        if r.twist != "free":
+            item["twist"] = r.twist
+        if any(value != "free" for key, value in item.items() if key != "x"):
+            out.append(item)
+    return tuple(out), hinge
 
 
 def lateral_torsional(result, y, klass, cache=None):
@@ -197,6 +225,7 @@ def lateral_torsional(result, y, klass, cache=None):
         return None
     first = major.first_order
     z_section = _made(cache, "ltb-minor-section", lambda: section_from_spec(dict(case.section), "minor"))
+    restraints, hinge = ltb_restraints(case)
     return ltb_member.check(
         x=first.x,
         M=first.moment,
@@ -212,6 +241,8 @@ def lateral_torsional(result, y, klass, cache=None):
         free_end=_free_end(major.case),
         gamma_M1=case.check.gamma_M1,
         cache=cache,
+        restraints=restraints,
+        lateral_hinge=hinge,
     )
 
 

@@ -8,7 +8,14 @@ A **restraint** acts at one point strictly inside the member, in one plane or bo
   member is ``-k_r w'``;
 - ``hinge``: true for an internal hinge (a moment release: M = 0 on both sides, the slope may jump); a hinge
   takes no rotation restraint (on which side would it act?);
-- ``plane``: ``"first"``, ``"second"`` (a two-plane case only) or ``"both"`` (the default).
+- ``plane``: ``"first"``, ``"second"`` (a two-plane case only) or ``"both"`` (the default);
+- ``twist``: ``"fixed"`` (the section held against twisting there, φ = 0), ``"free"`` (the default) or a
+  torsional spring k_φ [N·m/rad]. It acts in no bending plane: only the lateral-torsional buckling check reads
+  it (:mod:`engine.design.ltb_member`); a restraint with a twist alone is left out of the bending planes.
+
+For lateral-torsional buckling, a restraint acting in the plane of minor-axis bending (a two-plane case's
+plane about the minor axis) holds the shear centre laterally (translation: v = 0 or a spring; rotation: v' = 0
+or a spring), see DEVELOPERS.md (decisions log, issue 15, restraints in M_cr).
 
 A **step** changes the bending stiffness from its ``x`` to the next step (or the end):
 ``{"x": ..., "EI": ...}`` [m, N·m²]. The case's own EI holds from x = 0 to the first step. A step by EI needs
@@ -50,7 +57,7 @@ __all__ = [
 ]
 
 PLANES = ("first", "second", "both")
-_RESTRAINT_KEYS = ("x", "translation", "rotation", "hinge", "plane")
+_RESTRAINT_KEYS = ("x", "translation", "rotation", "hinge", "plane", "twist")
 _STEP_KEYS = ("x", "EI")
 _FOUNDATION_KEYS = ("start", "end", "k", "plane")
 _MAX_FOUNDATION = 1e12  # [N/m²]: stiffer than any soil or bedding by orders of magnitude
@@ -63,7 +70,7 @@ class Restraint:
     """A support, spring or hinge at one point inside the member (see the module docstring).
 
     >>> Restraint(x=3.0, translation="fixed")
-    Restraint(x=3.0, translation='fixed', rotation='free', hinge=False, plane='both')
+    Restraint(x=3.0, translation='fixed', rotation='free', hinge=False, plane='both', twist='free')
     """
 
     x: float
@@ -71,23 +78,30 @@ class Restraint:
     rotation: str | float = "free"
     hinge: bool = False
     plane: str = "both"
+    twist: str | float = "free"
 
     def __post_init__(self) -> None:
         set_field(self, "x", real("x", self.x, "m"))
         set_field(self, "translation", _restraint("translation", self.translation, "k_t", "N/m"))
         set_field(self, "rotation", _restraint("rotation", self.rotation, "k_r", "N·m/rad"))
         set_field(self, "hinge", flag("hinge", self.hinge))
+        set_field(self, "twist", _restraint("twist", self.twist, "k_φ", "N·m/rad"))
         choice("plane", self.plane, PLANES, "a plane")
         if self.hinge and self.rotation != "free":
             raise CaseError(
                 f"rotation: {show(self.rotation)} is not allowed with a hinge; a hinge releases the moment, "
                 "so its rotation must be 'free' (put a rotation restraint at another x)"
             )
-        if not self.hinge and self.translation == "free" and self.rotation == "free":
+        if not self.bends and self.twist in ("free", 0.0):
             raise CaseError(
-                "translation: 'free' with rotation 'free' and no hinge restrains nothing; give a fixed "
-                "or elastic translation or rotation, or hinge: true"
+                "translation: 'free' with rotation 'free', no hinge and twist 'free' restrains nothing; "
+                "give a fixed or elastic translation, rotation or twist, or hinge: true"
             )
+
+    @property
+    def bends(self) -> bool:
+        """Whether it acts in bending (a translation, rotation or hinge; not a twist alone)."""
+        return self.hinge or self.translation != "free" or self.rotation != "free"
 
     @property
     def translation_stiffness(self) -> float | None:
@@ -110,6 +124,8 @@ class Restraint:
             parts.append(f"rotation {self.rotation!r}")
         if self.hinge:
             parts.append("a hinge")
+        if self.twist != "free":
+            parts.append(f"twist {self.twist!r}")
         return f"restraints[{index}] (x = {self.x:g} m, {', '.join(parts)})"
 
     def to_data(self) -> dict[str, Any]:
@@ -123,6 +139,8 @@ class Restraint:
             data["hinge"] = True
         if self.plane != "both":
             data["plane"] = self.plane
+        if self.twist != "free":
+            data["twist"] = self.twist
         return data
 
 
@@ -299,7 +317,8 @@ def check_against(case) -> None:
                         f"foundation[{other[0]}] in the {plane} plane; give one modulus per range"
                     )
             ranges.append(((index, plane), f.start, f.end))
-    extras = case.restraints or case.steps or case.foundation
+    # A twist alone changes no bending plane: only the lateral-torsional buckling check reads it.
+    extras = any(r.bends for r in case.restraints) or case.steps or case.foundation
     routes = tuple(getattr(case.check, "routes", ()))
     checked = case.section is not None and case.material is not None
     if extras and checked and routes != ("second-order",):
@@ -320,10 +339,10 @@ def check_against(case) -> None:
 
 def for_plane(restraints, plane: str) -> tuple[Restraint, ...]:
     """The restraints acting in ``plane`` ("first" or "second"), each marked ``plane="first"`` for the solver,
-    which sees one plane at a time."""
+    which sees one plane at a time (a twist alone acts in no plane: left out)."""
     out = []
     for r in restraints:
-        if r.plane in (plane, "both"):
+        if r.plane in (plane, "both") and r.bends:
             out.append(r if r.plane == "first" else Restraint(**{**r.__dict__, "plane": "first"}))
     return tuple(out)
 

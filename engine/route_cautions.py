@@ -36,7 +36,7 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
     (``ltb_check``, an :class:`engine.design.ltb_member.LtbCheck` that applies) that warning is dropped: the
     check replaces it (and so does the case's statement ``check.ltb.restrained``); where it was not made,
     the warning stays with the check's reason code (``values["ltb_reason"]``: ``torsion-unknown``,
-    ``free-end``, ...).
+    ``free-end``, ...) and, for a custom section, the keys it lacks (``values["ltb_missing"]``).
     """
     given = list(cautions)
     if ltb_check is not None and (ltb_check.applies or ltb_check.reason == "restrained"):
@@ -48,7 +48,8 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
             code=given[ltb].code,
             message=given[ltb].message,
             source=given[ltb].source,
-            values=dict(given[ltb].values, ltb_reason=ltb_check.reason),
+            values=dict(given[ltb].values, ltb_reason=ltb_check.reason)
+            | ({"ltb_missing": list(ltb_check.missing)} if getattr(ltb_check, "missing", ()) else {}),
         )
     if ltb is not None:
         noted = [r.route for r in routes if r.utilization is not None and set(r.notes) & set(_ROUTE_NOTES)]

@@ -91,7 +91,7 @@ _SPEC_KEYS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
     "round": (("D",), ()),
     "custom": (
         ("A", "I", "W_el", "W_pl"),
-        ("A_v", "t_max", "depth", "width", "doubly_symmetric", "open_section", "It", "Iw"),
+        ("A_v", "t_max", "depth", "width", "doubly_symmetric", "open_section", "It", "Iw", "Iz", "ltb_curve"),
     ),
 }
 
@@ -169,6 +169,13 @@ class Section:
         Where the dimensions and properties come from, with "from memory" where so.
     torsion : TorsionProperties
         I_t [m⁴] and I_w [m⁶] (:mod:`engine.torsion`; a custom section's as given, None when not given).
+    I_minor : float or None
+        A custom section's second moment about its minor axis [m⁴] (key ``Iz``), for the lateral-torsional
+        buckling check; None when not given, and for every other shape (whose minor-axis properties are
+        ``section_from_spec(spec, "minor")``'s).
+    ltb_curve : str or None
+        A custom section's lateral-torsional buckling curve of EN 1993-1-1 Table 6.4 (key ``ltb_curve``,
+        ``"a"`` to ``"d"``); None: the table's own row (a custom section: "other cross-sections", d).
 
     Raises
     ------
@@ -197,6 +204,8 @@ class Section:
     dimensions: dict = field(hash=False)
     source: str
     torsion: TorsionProperties
+    I_minor: float | None = None
+    ltb_curve: str | None = None
 
     def __post_init__(self) -> None:
         if not isinstance(self.name, str) or not self.name:
@@ -227,6 +236,10 @@ class Section:
         for key, value in self.dimensions.items():
             dimensions[key] = dimension(f"dimensions.{key}", value, "m")
         object.__setattr__(self, "dimensions", dimensions)
+        if self.I_minor is not None:
+            object.__setattr__(self, "I_minor", dimension("I_minor", self.I_minor, "m⁴"))
+        if self.ltb_curve is not None:
+            choice("ltb_curve", self.ltb_curve, ("a", "b", "c", "d"), "a buckling curve")
         if not isinstance(self.torsion, TorsionProperties):
             raise CaseError(f"torsion: {show(self.torsion)} is not allowed; it must be a TorsionProperties")
         self._check_consistency()
@@ -475,7 +488,9 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
         - ``"round"``: D [m], a solid bar;
         - ``"custom"``: A [m²], I [m⁴], W_el [m³], W_pl [m³], all about the chosen axis, and optionally
           A_v [m²] (default A), depth, width, t_max [m] (default unknown), doubly_symmetric (default false),
-          open_section (default true), It [m⁴] and Iw [m⁶] (the torsion constants, default unknown).
+          open_section (default true), It [m⁴] and Iw [m⁶] (the torsion constants, default unknown), Iz
+          [m⁴] (the minor axis's second moment, 0 < Iz <= I) and ltb_curve (``"a"`` to ``"d"``, default
+          ``"d"``) for the lateral-torsional buckling check.
     axis : str
         ``"major"`` or ``"minor"``, the axis the member bends about.
     path : str

@@ -418,6 +418,12 @@ def sheet_figure(result, *, units="si", plane: str = "first") -> Figure:
         axis = axes[1] if plane == "second" else axes[0]
         title = f"Figures, bending about the {plane_name(axis)}: {_title(result)}"
     _plots(fig, shown, U, left=0.14, right=0.94, top=0.86, bottom=0.07, legend_columns=2)
+    page_heading(fig, title)
+    return fig
+
+
+def page_heading(fig, title: str) -> None:
+    """The bold heading of a calc-sheet figure page (A4 portrait), shortened to the page's width."""
     width_pt = (0.94 - 0.14) * A4_PORTRAIT[0] * 72
     heading = _Measure().shorten(drawable(title), width_pt, 9, "bold")
     fig.text(
@@ -432,7 +438,6 @@ def sheet_figure(result, *, units="si", plane: str = "first") -> Figure:
         family=families(),
         parse_math=False,
     )
-    return fig
 
 
 def _plots(fig, result, U: Units, *, left, right, top, bottom, legend_columns) -> None:

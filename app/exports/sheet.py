@@ -12,7 +12,7 @@ from matplotlib.lines import Line2D
 
 from app.exports.figure import _pcr_text, sheet_figure
 from app.exports.layout import _Flow, _Measure
-from app.exports.sheet_ltb import ltb_items
+from app.exports.sheet_ltb import ltb_items, ltb_mode_figure
 from app.exports.sheet_routes import combinations_items, routes_items, second_plane_items
 from app.exports.style import (
     _DANGER,
@@ -362,6 +362,10 @@ def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", dat
         if render(size, False)[0] == 1:
             break
     count, pages = render(size, True)
+    mode = ltb_mode_figure(result, U)  # after the text: the lateral-torsional buckling mode, if any
+    if mode is not None:
+        pages.append(mode)
+        count += 1
     # one figure page per bending plane
     planes = ("first", "second") if getattr(result, "second_plane", None) is not None else ("first",)
     total = count + len(planes)

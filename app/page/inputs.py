@@ -108,6 +108,10 @@ class InputsView(pn.viewable.Viewer):
         self.choices[name] = widget
         return widget
 
+    def _symmetric_edited(self, event) -> None:
+        if self.state.section_doubly_symmetric != bool(event.new):
+            self.state.section_doubly_symmetric = bool(event.new)
+
     def _chosen(self, name: str, event) -> None:
         if event.new is not None and getattr(self.state, name) != event.new:
             self.state.param.update({name: event.new})
@@ -200,8 +204,19 @@ class InputsView(pn.viewable.Viewer):
                 ("W_el", "section_modulus"),
                 ("W_pl", "section_modulus"),
                 ("A_v", "area"),
+                ("depth", "small_length"),
+                ("Iz", "second_moment"),
+                ("It", "second_moment"),
+                ("Iw", "warping"),
             )
         }
+        self.symmetric_input = pn.widgets.Checkbox(
+            label="doubly symmetric", value=self.state.section_doubly_symmetric, stylesheets=[WIDGET_CSS]
+        )
+        self.symmetric_input.param.watch(self._symmetric_edited, "value")
+        self.ltb_curve_select = self._select(
+            "section_ltb_curve", "LTB curve", {f"{c} (Table 6.4)": c for c in "abcd"}, width=120
+        )
         self.manufacture_select = self._select(
             "section_manufacture", "made", {"hot-finished": "hot-finished", "cold-formed": "cold-formed"}, 120
         )
@@ -221,6 +236,7 @@ class InputsView(pn.viewable.Viewer):
         self.section_group = pn.Column(
             pn.Row(self.shape_select, self.catalogue_select, margin=0),
             pn.FlexBox(*self.dimension_inputs.values(), margin=0, gap="0px"),
+            pn.Row(self.symmetric_input, self.ltb_curve_select, margin=0),
             pn.Row(self.manufacture_select, self.axis_select, margin=0),
             errors.pane("section", "axis"),
             pn.Row(self.material_from_select, self.material_select, margin=0),
@@ -360,6 +376,8 @@ class InputsView(pn.viewable.Viewer):
             # None (a choice left to the engine, such as a CHS's manufacture) keeps the widget as it is.
             if value is not None and widget.value != value:
                 widget.value = value
+        if self.symmetric_input.value != state.section_doubly_symmetric:
+            self.symmetric_input.value = state.section_doubly_symmetric
         if self.title_input.value != state.title:
             self.title_input.value = state.title
         self._show_catalogue_name()
@@ -393,6 +411,7 @@ class InputsView(pn.viewable.Viewer):
         for key, widget in self.dimension_inputs.items():
             widget.visible = key in SECTION_DIMENSIONS.get(shape, ())
         self.manufacture_select.visible = shape in ("rhs", "chs")
+        self.symmetric_input.visible = self.ltb_curve_select.visible = shape == "custom"
         # A second plane makes the out-of-plane check with its own supports and bow (issue 14).
         self.out_of_plane_select.disabled = state.plane2
         self.out_of_plane_input.disabled = state.plane2

@@ -60,6 +60,10 @@ DIMENSION_LABELS = {
     "W_el": "W_el",
     "W_pl": "W_pl",
     "A_v": "shear area A_v",
+    "depth": "depth",
+    "Iz": "I_z (minor)",
+    "It": "I_t",
+    "Iw": "I_w",
 }
 PRESET_LABELS = {
     "en1993-table-5.1": "EN 1993-1-1 Table 5.1 (e0 = L/n by curve)",

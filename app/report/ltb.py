@@ -19,6 +19,7 @@ from dataclasses import dataclass, field
 from app.report.numbers import finite, percent, ratio
 from app.report.words import source_text
 from app.units import Units
+from app.units import units as _units
 
 __all__ = [
     "DIAGRAMS",
@@ -49,13 +50,16 @@ END_LABELS = {
 #: Why the check could not be made (``LtbCheck.reason``), in words.
 REASONS = {
     "torsion-unknown": "the section's torsion and warping constants (I_t, I_w) are not known",
+    "minor-axis-unknown": "the section's second moment about its minor axis (I_z) is not known",
     "not-open-section": "not a doubly symmetric open I- or H-section",
     "no-major-moment": "no moment about the major axis",
     "minor-axis-only": "the member bends about its minor axis only",
     "closed-or-solid": "a closed or solid section",
-    "free-end": "a member with a free end (a cantilever): a fork support at its tip would be unsafe",
+    "free-end": "a member with a free end (a cantilever) whose support is not stated laterally "
+    "fixed (set the LTB lateral end there to fixed)",
     "not-doubly-symmetric": "the section is not doubly symmetric",
     "depth-unknown": "the section's depth is not known, so the loads cannot be placed over it",
+    "lateral-hinge": "a hinge in the plane of minor-axis bending (not modelled in the critical moment)",
     "restrained": "the compression flange is restrained along the member, as the case states: "
     "lateral-torsional buckling is prevented, χ_LT = 1 (EN 1993-1-1 §6.3.2.1(2))",
 }
@@ -155,13 +159,44 @@ def _pair_text(pair) -> str:
     return f"{END_LABELS.get(left, left)} at x = 0, {END_LABELS.get(right, right)} at x = L"
 
 
-def settings_text(ltb) -> str:
-    """The settings used: ``"loads destabilising: ...; lateral: fork (...) at both ends; warping: ..."``."""
+def settings_text(ltb, U: Units | None = None) -> str:
+    """The settings used: ``"loads destabilising: ...; lateral: fork (...) at both ends; warping: ..."``, and
+    the restraints inside the member (``"; held inside: x = 3 m (lateral, twist)"``) when there are any."""
     position = getattr(ltb, "load_position", "destabilising")
-    return (
+    text = (
         f"loads {LOAD_POSITION_LABELS.get(position, position)}; lateral: {_pair_text(ltb.lateral_ends)}; "
         f"warping: {_pair_text(ltb.warping_ends)}"
     )
+    held = getattr(ltb, "restraints", ()) or ()
+    if held:
+        U = U or _units("si")
+        text += "; held inside (at the shear centre): " + ", ".join(_held_point(r, U) for r in held)
+    return text
+
+
+def _held_point(restraint, U: Units) -> str:
+    """One intermediate restraint of the LTB problem: ``"x = 3 m (lateral, twist)"``."""
+    parts = []
+    for key, word, kind in (
+        ("lateral", "lateral", "translational_spring"),
+        ("lateral_rotation", "lateral rotation", "rotational_spring"),
+        ("twist", "twist", "rotational_spring"),
+    ):
+        value = restraint.get(key, "free")
+        if value == "fixed":
+            parts.append(word)
+        elif value != "free":
+            parts.append(f"{word} spring {U.show(kind, value)}")
+    return f"x = {U.show('length', restraint['x'])} ({', '.join(parts)})"
+
+
+def _segment_text(ltb, U: Units) -> str:
+    """The governing segment between brace points, or "" for a member without them."""
+    segment = getattr(ltb, "segment", ()) or ()
+    if not segment:
+        return ""
+    a, b = segment
+    return f"segment x = {U.show('length', a)} to {U.show('length', b)} between brace points governs"
 
 
 def method_text(ltb) -> str:
@@ -225,6 +260,8 @@ def _aisc_note(ltb, U: Units) -> str:
     """Beside M_n of AISC 360-16 §F2: its zone, L_p, L_r and C_b."""
     aisc = ltb.aisc
     parts = [_ZONES.get(aisc.zone, aisc.zone)]
+    if getattr(ltb, "segment", ()):
+        parts.append(f"L_b = {U.show('length', aisc.L_b)} (the governing unbraced segment)")
     for key in ("L_p", "L_r"):
         value = getattr(aisc, key, None)
         if value is not None:
@@ -243,11 +280,14 @@ def ltb_words(result, U: Units) -> LtbWords | None:
     ltb = ltb_of(result)
     if ltb is None:
         return None
-    settings = settings_text(ltb)
+    settings = settings_text(ltb, U)
     sources = tuple(source_text(s, U) for s in (getattr(ltb, "sources", ()) or ()))
     caution = any(c.code == "lateral-torsional-buckling" for c in getattr(result, "cautions", ()) or ())
     if not ltb.applies:
         reason = reason_text(ltb.reason)
+        missing = tuple(getattr(ltb, "missing", ()) or ())
+        if missing:
+            reason += f" (not given: {', '.join(missing)})"
         return LtbWords(
             applies=False,
             reason=reason,
@@ -263,7 +303,11 @@ def ltb_words(result, U: Units) -> LtbWords | None:
             "M_cr_tabulated",
             "M_cr tabulated",
             _moment(U, ltb.M_cr_tabulated),
-            f"C1 = {ratio(ltb.C1)}, {_diagram_text(ltb)}",
+            ", ".join(
+                part
+                for part in (f"C1 = {ratio(ltb.C1)}, {_diagram_text(ltb)}", _segment_text(ltb, U))
+                if part
+            ),
         ),
         ("difference", "tabulated − exact", percent(ltb.difference), _difference_note(ltb)),
         ("lambda_LT", "λ̄_LT", ratio(ltb.lambda_LT), ""),

@@ -292,15 +292,17 @@ def route(
 def _torsional_terms(check, y: Plane, z: Plane, N, My, Mz, material, settings) -> annex_a.TorsionalTerms:
     """Annex A's lateral-torsional terms for the member (see the module). λ̄_0 from the uniform-moment M_cr
     with fork supports and free warping (the smallest of the end conditions: the safe side), C1 the smaller
-    of the table's and the exact ratio M_cr,0/M_cr,uniform, N_cr,T with the member length (warping free)."""
+    of the table's and the exact ratio M_cr,0/M_cr,uniform, N_cr,T with the member length (warping free). A
+    cantilever (a free end) takes twice its length in both (the built-in cantilever with warping free is the
+    fork-ended span of 2L; no table C1)."""
     sy, sz = y.section, z.section
     E = material.E
     G = material.G if material.G is not None else E / 2.6
-    L = check.length
+    L = check.length * (2.0 if "free" in tuple(check.lateral_ends) else 1.0)
     EI_z, GI_t, EI_w = E * sz.I, G * check.I_t, E * check.I_w
     uniform = ltb.mcr_c1(L, EI_z, GI_t, EI_w, 1.0)
     lambda_0 = math.sqrt(check.W_y * material.fy / uniform)
-    C1 = check.C1
+    C1 = check.C1 if math.isfinite(check.C1) else math.inf
     if math.isfinite(check.M_cr_0):
         C1 = min(C1, check.M_cr_0 / uniform)
     i0_sq = (sy.I + sz.I) / sy.A
@@ -309,7 +311,7 @@ def _torsional_terms(check, y: Plane, z: Plane, N, My, Mz, material, settings) -
     return annex_a.TorsionalTerms(
         a_LT=max(0.0, 1.0 - check.I_t / sy.I),
         lambda_0=lambda_0,
-        C1=max(C1, 1e-6),
+        C1=max(C1, 1e-6) if math.isfinite(C1) else 1.0,
         chi_LT=check.chi_LT,
         N_cr_T=N_cr_T,
         M_y_Ed=My,

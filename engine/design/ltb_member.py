@@ -25,11 +25,24 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   :math:`k_c` of Table 6.6 only when the diagram is within 1 % of the table's shape (else :math:`k_c = 1`).
 - :math:`W_y = W_{pl,y}` for class 1–2, else :math:`W_{el,y}`; :math:`M_{Ed}` = max|M_y| of the first-order
   diagram (the value eqs. (6.61)/(6.62) use).
-- The check is not made (``applies`` False, the caution stays) for a member with a free end (a cantilever:
-  a fork support at its tip would be unsafe), for an open section without known :math:`I_t, I_w`
-  (``torsion-unknown``), for a custom section that is not doubly symmetric, for a custom section with them
-  (``minor-axis-unknown``: its properties are about one axis, so :math:`I_z` is not known), and where a
-  load height is asked for and the depth is unknown.
+- A cantilever (a free end) is checked when ``check.ltb.lateral_ends`` states its support ``fixed`` (v = v' =
+  0 there; its warping as stated): the tip is free (nothing held), the tip's settings are ignored, no
+  tabulated M_cr (the C1 tables are for spans between forks), AISC with C_b = 1 for the tip segment, capped by
+  the exact M_cr. With a fork at the support it could swing laterally: not made (``free-end``).
+- The check is not made (``applies`` False, the caution stays) for a member with a free end whose support is
+  not stated laterally fixed, for an open section without known :math:`I_t, I_w` (``torsion-unknown``), for
+  a custom section that is not doubly symmetric, for a custom section without its minor-axis ``Iz``
+  (``minor-axis-unknown``), and where a load height is asked for and the depth is
+  unknown; for a custom section ``missing`` names the case keys it lacks (``section.Iz``, ...).
+- Intermediate restraints (``restraints``, from :func:`engine.member_routes.ltb_restraints`) enter the exact
+  :math:`M_{cr}` at the shear centre (lateral v, v') and as twist φ; a brace point (lateral and twist fixed)
+  splits the member into segments for the tabulated :math:`M_{cr}` and AISC §F2 (L_b, C_b per segment, the
+  worst governs); :math:`\chi_{LT}` uses the exact :math:`M_{cr}` of the whole member. A hinge in the plane
+  of minor-axis bending: not made (``lateral-hinge``).
+- A custom section (keys ``Iz``, ``It``, ``Iw``, ``doubly_symmetric: true``, :mod:`engine.custom_section`)
+  is checked like a catalogue one with its values as given: no torsion factor, :math:`W_{el,y}` (it is not
+  classified, and its cross-section check is the elastic one), §6.3.2.2 with the curve it names
+  (``ltb_curve``, default d: Table 6.4's other cross-sections), no AISC §F2 (not a catalogued I-shape).
 """
 
 from __future__ import annotations
@@ -39,6 +52,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from engine.custom_section import missing_for_ltb
 from engine.design import ltb
 from engine.design.mcr import critical_moment
 from engine.loads import LinearLoad, PointLoad, UniformLoad
@@ -98,9 +112,13 @@ class LtbCheck:
     W_y: float = math.nan  # [m³]
     C_b_F1_1: float = math.nan  # C_b of eq. (F1-1) before the cap by the exact M_cr
     length: float = math.nan  # [m] between the end restraints
+    missing: tuple = ()  # the case keys a custom section lacks for the check ("section.Iz", ...)
+    restraints: tuple = ()  # intermediate restraints in M_cr, critical_moment's form ({"x", "lateral", ...})
+    segments: tuple = ()  # ((a, b), ...) [m] between brace points (lateral and twist fixed); () for one
+    segment: tuple = ()  # (a, b) [m] of the segment that governs the tabulated M_cr and AISC §F2
 
 
-def not_applied(reason: str, settings, M_Ed: float = 0.0) -> LtbCheck:
+def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:
     """The check not made: χ_LT = 1 is what the routes then use (and the caution stays)."""
     known = reason in ("no-major-moment", "minor-axis-only", "closed-or-solid", "restrained")
     return LtbCheck(
@@ -123,7 +141,17 @@ def not_applied(reason: str, settings, M_Ed: float = 0.0) -> LtbCheck:
         load_position=settings.load_position,
         lateral_ends=tuple(settings.lateral_ends),
         warping_ends=tuple(settings.warping_ends),
+        missing=tuple(missing),
     )
+
+
+def _custom_reason(missing: tuple) -> str:
+    """The reason code of a custom section that lacks ``missing`` (its first gap in the check's order)."""
+    if "It" in missing or "Iw" in missing:
+        return "torsion-unknown"
+    if "Iz" in missing:
+        return "minor-axis-unknown"
+    return "not-doubly-symmetric" if "doubly_symmetric" in missing else "depth-unknown"
 
 
 def _mcr_loads(loads, length: float, height: float) -> list:
@@ -143,6 +171,57 @@ def _mcr_loads(loads, length: float, height: float) -> list:
         elif isinstance(load, PointLoad):
             out.append({"kind": "point", "F": abs(load.P), "x": load.x, "height": height})
     return out
+
+
+_CANTILEVER = ltb.StandardDiagram(
+    diagram="cantilever", C1=math.nan, C2=math.nan, psi=None, deviation=math.inf
+)
+
+
+def _segments(length: float, restraints) -> tuple:
+    """The pieces between brace points, where lateral deflection and twist are both held (``"fixed"``)."""
+    points = sorted(
+        {float(r["x"]) for r in restraints if r.get("lateral") == "fixed" and r.get("twist") == "fixed"}
+    )
+    edges = [0.0, *points, float(length)]
+    return tuple(zip(edges[:-1], edges[1:], strict=True))
+
+
+def _piece(xs: np.ndarray, ms: np.ndarray, a: float, b: float) -> tuple[np.ndarray, np.ndarray]:
+    """The diagram on [a, b] (its end values interpolated; a station given twice keeps its last value)."""
+    keep = np.concatenate([np.diff(xs) > 0.0, [True]])
+    x, m = xs[keep], ms[keep]
+    inside = (x > a) & (x < b)
+    return (
+        np.concatenate([[a], x[inside], [b]]),
+        np.concatenate([[np.interp(a, x, m)], m[inside], [np.interp(b, x, m)]]),
+    )
+
+
+def _end_pair(pair, a: float, b: float, length: float, inner: str) -> tuple:
+    """A segment's end conditions: the member's at its ends, ``inner`` at a brace point (fork, warping free:
+    the neighbours' restraint left out, on the safe side)."""
+    return (pair[0] if a <= 0.0 else inner, pair[1] if b >= length else inner)
+
+
+def _tabulated(xs, ms, length, segments, settings, stiffness, z_g):
+    """(M_cr tabulated for the whole diagram, its standard diagram, the governing segment): per segment the
+    C1 formula for its own length, diagram and ends, scaled to the member's max|M| by the segment's peak; the
+    lowest governs."""
+    M_max = float(np.max(np.abs(ms)))
+    best = None
+    for a, b in segments:
+        sx, sm = (xs, ms) if len(segments) == 1 else _piece(xs, ms, a, b)
+        peak = float(np.max(np.abs(sm)))
+        if peak == 0.0:
+            continue
+        std = _standard(sx, sm)
+        lateral = _end_pair(settings.lateral_ends, a, b, length, "fork")
+        warping = _end_pair(settings.warping_ends, a, b, length, "free")
+        value = ltb.mcr_c1(b - a, *stiffness, std.C1, std.C2, z_g, k=_k(lateral), k_w=_k(warping))
+        if best is None or value / peak < best[0]:
+            best = (value / peak, std, (a, b))
+    return best[0] * M_max, best[1], best[2]
 
 
 def _k(ends) -> float:
@@ -182,16 +261,20 @@ def check(
     N: float,
     settings,
     section_class: int | None,
-    free_end: bool = False,
+    free_end: bool | str = False,
     gamma_M1: float = 1.0,
     cache=None,
+    restraints: tuple = (),
+    lateral_hinge: bool = False,
 ) -> LtbCheck:
     """The lateral-torsional buckling check of a member (see the module).
 
     ``x``, ``M``, ``V``: the first-order major-axis diagram [m, N·m] and its shear dM/dx [N] (M is then
     interpolated by cubic pieces, exact for uniform and linear loads); ``loads``: the major plane's loads;
     ``N``: the axial force [N], compression positive; ``settings``: the case's ``check.ltb``; ``cache``:
-    ``cache(key, make)`` for what does not depend on N (the M_cr at N = 0).
+    ``cache(key, make)`` for what does not depend on N (the M_cr at N = 0); ``restraints``: intermediate
+    restraints in :func:`engine.design.mcr.critical_moment`'s form; ``lateral_hinge``: a hinge in the plane of
+    minor-axis bending (the check is then not made: the elements cannot release v'').
     """
     xs = np.asarray(x, dtype=float)
     ms = np.asarray(M, dtype=float)
@@ -204,16 +287,27 @@ def check(
         return not_applied("no-major-moment", settings, M_Ed)
     if settings.restrained:
         return not_applied("restrained", settings, M_Ed)
-    if free_end:
-        return not_applied("free-end", settings, M_Ed)
+    lateral_ends, warping_ends = tuple(settings.lateral_ends), tuple(settings.warping_ends)
+    if free_end:  # a cantilever: checked when its support is stated fixed laterally (else it could swing)
+        tip = {"left": 0, "right": 1}.get(free_end) if isinstance(free_end, str) else None
+        if tip is None or lateral_ends[1 - tip] != "fixed":
+            return not_applied("free-end", settings, M_Ed)
+        lateral_ends = tuple("free" if i == tip else end for i, end in enumerate(lateral_ends))
+        warping_ends = tuple("free" if i == tip else end for i, end in enumerate(warping_ends))
+    if lateral_hinge:
+        return not_applied("lateral-hinge", settings, M_Ed)
     torsion = sy.torsion
+    height = {"destabilising": 0.5, "shear-centre": 0.0, "stabilising": -0.5}[settings.load_position]
+    custom = sy.shape == "custom"
+    if custom:
+        missing = missing_for_ltb(sy, height != 0.0)
+        if missing:
+            keys = tuple(f"section.{key}" for key in missing)
+            return not_applied(_custom_reason(missing), settings, M_Ed, keys)
     if torsion.I_t is None or torsion.I_w is None:
         return not_applied("torsion-unknown", settings, M_Ed)
     if not sy.doubly_symmetric:
         return not_applied("not-doubly-symmetric", settings, M_Ed)
-    if sy.shape == "custom":  # its properties are about one axis only: I_z is not known
-        return not_applied("minor-axis-unknown", settings, M_Ed)
-    height = {"destabilising": 0.5, "shear-centre": 0.0, "stabilising": -0.5}[settings.load_position]
     if height != 0.0 and sy.depth is None:
         return not_applied("depth-unknown", settings, M_Ed)
     z_g = height * (sy.depth or 0.0)
@@ -221,8 +315,9 @@ def check(
     I_t, I_w = torsion.I_t / factor, torsion.I_w / factor
     E = material.E
     G = material.G if material.G is not None else E / 2.6  # ν = 0.3
-    EI_z, GI_t, EI_w = E * sz.I, G * I_t, E * I_w
-    i0_sq = (sy.I + sz.I) / sy.A
+    I_z = sy.I_minor if custom else sz.I
+    EI_z, GI_t, EI_w = E * I_z, G * I_t, E * I_w
+    i0_sq = (sy.I + I_z) / sy.A
     mcr_loads = _mcr_loads(loads, length, z_g)
     common = dict(
         EI_z=EI_z,
@@ -231,9 +326,10 @@ def check(
         length=length,
         i0_squared=i0_sq,
         loads=mcr_loads,
-        lateral_ends=tuple(settings.lateral_ends),
-        warping_ends=tuple(settings.warping_ends),
+        lateral_ends=lateral_ends,
+        warping_ends=warping_ends,
         scale_axial=False,
+        restraints=tuple(restraints),
     )
 
     def solve(axial, pair=None):
@@ -250,18 +346,11 @@ def check(
     found = at_zero if N_held == 0.0 else solve(N_held, at_zero.elements if at_zero is not None else None)
     M_cr = 0.0 if found is None else float(found.M_cr)
     M_cr_0 = math.nan if at_zero is None else float(at_zero.M_cr)
-    std = _standard(xs, ms)
-    M_tab = ltb.mcr_c1(
-        length,
-        EI_z,
-        GI_t,
-        EI_w,
-        std.C1,
-        std.C2,
-        z_g,
-        k=_k(settings.lateral_ends),
-        k_w=_k(settings.warping_ends),
-    )
+    segments = _segments(length, restraints)
+    if free_end:  # the C1 tables are for spans between forks: no tabulated value for a cantilever
+        M_tab, std, segment = math.nan, _CANTILEVER, ()
+    else:
+        M_tab, std, segment = _tabulated(xs, ms, length, segments, settings, (EI_z, GI_t, EI_w), z_g)
     plastic = section_class is not None and section_class <= 2
     W_y = sy.W_pl if plastic else sy.W_el
     fy = material.fy
@@ -269,6 +358,8 @@ def check(
     rolled = settings.chi_method == "rolled" and sy.shape in ("rolled_i", "welded_i")
     h_over_b = sy.h_over_b if sy.h_over_b is not None else 1.0
     curve = ltb.lt_curve(shape=sy.shape, h_over_b=h_over_b, method="rolled" if rolled else "general")
+    if custom and sy.ltb_curve is not None:
+        curve = sy.ltb_curve
     f = 1.0
     if math.isinf(lam):
         chi = 0.0
@@ -282,7 +373,9 @@ def check(
     aisc = None
     cb_f1 = math.nan
     if sy.shape in ("rolled_i", "welded_i"):
-        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w)
+        alpha_0 = M_cr_0 / M_Ed
+        tip = None if not free_end else (0.0 if free_end == "left" else float(length))
+        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, (EI_z, GI_t, EI_w), tip)
     mode = () if found is None else (found.x, found.v, found.phi)
     return LtbCheck(
         applies=True,
@@ -302,8 +395,8 @@ def check(
         M_b_Rd=M_b_Rd,
         utilisation=M_Ed / M_b_Rd if M_b_Rd > 0.0 else math.inf,
         load_position=settings.load_position,
-        lateral_ends=tuple(settings.lateral_ends),
-        warping_ends=tuple(settings.warping_ends),
+        lateral_ends=lateral_ends,
+        warping_ends=warping_ends,
         mode_x=tuple(float(v) for v in mode[0]) if mode else (),
         mode_v=_unit(mode[1]) if mode else (),
         mode_phi=_unit(mode[2]) if mode else (),
@@ -316,33 +409,47 @@ def check(
         W_y=W_y,
         C_b_F1_1=cb_f1,
         length=float(length),
+        restraints=tuple(restraints),
+        segments=segments if len(segments) > 1 else (),
+        segment=segment if len(segments) > 1 else (),
     )
 
 
-def _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w):
-    """AISC 360-16 §F2 with L_b = L and C_b of eq. (F1-1), capped by the exact elastic ratio
-    M_cr,0 / M_cr,uniform (fork supports): a load on the top flange lowers M_cr, which eq. (F1-1) does not
-    see (AISC 360-16 Commentary to §F1 says to account for it; from memory)."""
-    absolute = np.abs(ms)
-    x_rel = xs - xs[0]
-    quarter = [float(np.interp(t * length, x_rel, absolute)) for t in (0.25, 0.5, 0.75)]
-    M_max = float(np.max(absolute))
-    cb_f1 = ltb.cb_aisc(M_max, *(min(q, M_max) for q in quarter))
-    uniform = ltb.mcr_c1(length, EI_z, GI_t, EI_w, 1.0)
-    cb = cb_f1 if not math.isfinite(M_cr_0) else min(cb_f1, max(M_cr_0 / uniform, 1e-6))
+def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip=None):
+    """AISC 360-16 §F2 per unbraced segment (L_b its length, C_b of eq. (F1-1) from its own diagram), capped
+    by the exact elastic ratio α_cr,0·M_max,seg / M_cr,uniform(L_b, fork): a load on the top flange lowers
+    M_cr, which eq. (F1-1) does not see (AISC 360-16 Commentary to §F1 says to account for it; from memory).
+    The segment of the largest M_max,seg / M_n governs, and its M_n is the member's (the route divides the
+    member's largest moment by it: never less than that segment's own ratio)."""
     dims = sy.dimensions
     h_o = dims["h"] - dims["tf"]
-    found = ltb.aisc_f2(
-        L_b=length,
-        E=material.E,
-        F_y=material.fy,
-        Z_x=sy.W_pl,
-        S_x=sy.W_el,
-        r_y=sz.i,
-        I_y=sz.I,
-        C_w=I_w,
-        J=I_t,
-        h_o=h_o,
-        C_b=cb,
-    )
-    return found, cb_f1
+    best = None
+    for a, b in segments:
+        sx, sm = (xs, ms) if len(segments) == 1 else _piece(xs, ms, a, b)
+        absolute = np.abs(sm)
+        L_b = b - a
+        quarter = [float(np.interp(a + t * L_b, sx, absolute)) for t in (0.25, 0.5, 0.75)]
+        M_max = float(np.max(absolute))
+        if M_max == 0.0:
+            continue
+        cb_f1 = ltb.cb_aisc(M_max, *(min(q, M_max) for q in quarter))
+        if tip is not None and a <= tip <= b:
+            cb_f1 = 1.0
+        uniform = ltb.mcr_c1(L_b, *stiffness, 1.0)
+        cb = cb_f1 if not math.isfinite(alpha_0) else min(cb_f1, max(alpha_0 * M_max / uniform, 1e-6))
+        found = ltb.aisc_f2(
+            L_b=L_b,
+            E=material.E,
+            F_y=material.fy,
+            Z_x=sy.W_pl,
+            S_x=sy.W_el,
+            r_y=sz.i,
+            I_y=sz.I,
+            C_w=I_w,
+            J=I_t,
+            h_o=h_o,
+            C_b=cb,
+        )
+        if best is None or M_max / found.M_n > best[0]:
+            best = (M_max / found.M_n, found, cb_f1)
+    return best[1], best[2]

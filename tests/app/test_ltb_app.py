@@ -65,7 +65,10 @@ def checked():
 
 
 #: Why the check cannot be made for the demo member turned into a cantilever, in words.
-FREE_END = "a member with a free end (a cantilever): a fork support at its tip would be unsafe"
+FREE_END = (
+    "a member with a free end (a cantilever) whose support is not stated laterally fixed "
+    "(set the LTB lateral end there to fixed)"
+)
 
 
 @pytest.fixture(scope="module")

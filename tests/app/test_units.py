@@ -31,6 +31,7 @@ EXACT_US = [
     ("length", 0.3048),  # ft to m
     ("small_length", 25.4),  # in to mm
     ("area", 6.4516),  # in² to cm²
+    ("warping", 2.54**6),  # in⁶ to cm⁶: (2.54 cm)⁶, exact
     ("stiffness", 4448.2216152605e-3 * 0.3048**2),  # kip·ft² to kN·m², derived from the exact definitions
     ("rotational_spring", 4448.2216152605e-3 * 0.3048),  # kip·ft/rad to kN·m/rad, derived
 ]
@@ -47,6 +48,7 @@ SI_FACTORS = {
     "stiffness": ("kN·m²", 1e-3),
     "area": ("cm²", 1e4),
     "second_moment": ("cm⁴", 1e8),
+    "warping": ("cm⁶", 1e12),
     "rotation": ("mrad", 1e3),
     "translational_spring": ("kN/m", 1e-3),
     "rotational_spring": ("kN·m/rad", 1e-3),
