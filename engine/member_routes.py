@@ -21,6 +21,7 @@ from __future__ import annotations
 import dataclasses
 import math
 
+from engine import segment_routes
 from engine.checks import EQ_5_9_KIND
 from engine.classification import classify
 from engine.design import aisc_member, en_member, ltb_member
@@ -291,9 +292,7 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     major = _major(result)
     if major is not None and found is not None:
         second = _with_ltb_term(second, found, major)
-    en = en_member.route(
-        y=y,
-        z=z,
+    common = dict(
         N=N,
         material=material,
         section_class=klass,
@@ -302,6 +301,11 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         beyond=beyond,
         ltb=found,
     )
+    en = segment_routes.route(  # a member with braced points: one equivalent member per segment
+        y=y, z=z, plane_results=_plane_results(result), cache=lambda k, m: _made(cache, k, m), **common
+    )
+    if en is None:
+        en = en_member.route(y=y, z=z, **common)
     aisc = aisc_member.route(
         y=y,
         z=z,
@@ -332,6 +336,15 @@ def _stepped_ltb(result, segments, cache):
         found.append(lateral_torsional(result, None, klass, cache, segment=segment))
     applied = [f for f in found if f is not None and f.applies]
     return min(applied, key=lambda f: f.M_b_Rd) if applied else found[0]
+
+
+def _plane_results(result) -> dict:
+    """Each axis's solved plane and its case (``"y"``: bending about the major axis); None for the other
+    plane of a one-plane case (no loads, no restraints of its own)."""
+    first = "y" if result.case.axis == "major" else "z"
+    other = "z" if first == "y" else "y"
+    second = result.second_plane
+    return {first: (result, result.case), other: None if second is None else (second, second.case)}
 
 
 def _with_ltb_term(second: RouteCheck, found, major) -> RouteCheck:

@@ -317,12 +317,13 @@ def check_against(case) -> None:
     extras = case.restraints or case.steps or case.foundation
     routes = tuple(getattr(case.check, "routes", ()))
     checked = case.section is not None and case.material is not None
-    if extras and checked and routes != ("second-order",):
+    if case.foundation and checked and routes != ("second-order",):
         raise CaseError(
-            f"check.routes: {list(routes)!r} is not yet available with restraints, steps or a foundation: "
-            "the equivalent-member routes read one moment diagram and one buckling length between the ends; "
-            "allowed here: ['second-order'] (the cross-section check with the exact second-order forces and "
-            "a bow in the shape of the first buckling mode)"
+            f"check.routes: {list(routes)!r} is not available on a foundation: the equivalent-member "
+            "routes read the moment diagram between braced points by the tables of EN 1993-1-1 Annex A/B "
+            "and AISC 360, none of which covers a member bedded along its length; allowed here: "
+            "['second-order'] (the cross-section check with the exact second-order forces and a bow in the "
+            "shape of the first buckling mode)"
         )
     imp = case.imperfection
     if extras and imp.preset == "en1993-eq-5.9":
