@@ -386,8 +386,12 @@ def resolve(case):
                 N_Rk=section.A * material.fy,
                 gamma_M1=case.check.gamma_M1,
             )
-            # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1.
-            factor = pcr1 / (EI * mode_curvature_peak(first))
+            # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1;
+            # with restraints or a foundation, EI|η''_cr| is the mode's own moment, found along every segment.
+            if hasattr(first, "moment_peak"):
+                factor = pcr1 / first.moment_peak()
+            else:
+                factor = pcr1 / (EI * mode_curvature_peak(first))
             amplitude = e0 * factor
             if amplitude > L / 10:
                 # Capping it would make the route unconservative (capacity above χ A f_y / γ_M1): refuse.

@@ -314,7 +314,6 @@ def check_against(case) -> None:
                         f"foundation[{other[0]}] in the {plane} plane; give one modulus per range"
                     )
             ranges.append(((index, plane), f.start, f.end))
-    extras = case.restraints or case.steps or case.foundation
     routes = tuple(getattr(case.check, "routes", ()))
     checked = case.section is not None and case.material is not None
     if case.foundation and checked and routes != ("second-order",):
@@ -325,12 +324,12 @@ def check_against(case) -> None:
             "['second-order'] (the cross-section check with the exact second-order forces and a bow in the "
             "shape of the first buckling mode)"
         )
-    imp = case.imperfection
-    if extras and imp.preset == "en1993-eq-5.9":
+    if case.steps and case.imperfection.preset == "en1993-eq-5.9":
         raise CaseError(
-            "imperfection.preset: 'en1993-eq-5.9' is not yet available with restraints, steps or a "
-            "foundation; use 'en1993-table-5.1' (whose bow then takes the first mode's shape) or give the "
-            "bow's shape and amplitude"
+            "imperfection.preset: 'en1993-eq-5.9' is not available with steps: eq. (5.9)'s bow is scaled "
+            "to the moment at the critical cross-section of a uniform member, and with steps in section "
+            "that section is not known beforehand; use 'en1993-table-5.1' (the worst curve of the "
+            "segments) or give the bow's shape and amplitude"
         )
 
 
