@@ -94,10 +94,17 @@ def inner_properties() -> dict[str, Any]:
                         exclusiveMinimum=0,
                         maximum=1e16,
                     ),
+                    "section": {
+                        "$ref": "#/$defs/section",
+                        "description": "The section from x to the next step or the end (the forms of "
+                        "'section'); its EI is E·I about the case's axis and the check uses it there.",
+                    },
                 },
-                ("x", "EI"),
-                description="A change of EI, in increasing x. Only in a one-plane case that gives its own "
-                "EI and no section.",
+                ("x",),
+                description="A change of EI or of section, in increasing x; exactly one of EI and section, "
+                "every step the same form. By EI: only in a one-plane case that gives its own EI and no "
+                "section. By section: only in a one-plane case with a section and a material and no EI.",
+                oneOf=[{"required": ["EI"]}, {"required": ["section"]}],
             ),
             "description": "Steps in the bending stiffness, at most 50. Default none.",
         },

@@ -11,7 +11,6 @@ from engine import member_routes
 from engine.amplification import approximations, braced
 from engine.biaxial import pair_check
 from engine.cautions import assess, merge_plane_cautions
-from engine.checks import check_member
 from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
 from engine.out_of_plane import utilisation as out_of_plane_utilisation
@@ -32,6 +31,7 @@ from engine.results import (
 )
 from engine.route_cautions import with_route_cautions
 from engine.solver.model import Points
+from engine.stepped import member_check
 from engine.validate import within
 
 __all__ = ["CRITICAL_TOLERANCE", "check_stations", "solve", "strength_solve"]
@@ -202,19 +202,18 @@ def _build(
                     limit=case.check.deflection_limit,
                 )
         else:
-            check = check_member(
+            check = member_check(
+                member,
+                prep.section_class(P > 0),
                 x=x,
                 axial_force=P,
                 moment=M,
                 shear=V,
                 deflection=np.array([w_service.value if w_service is not None else values[0]]),
                 length=model.L,
-                section=section,
-                material=material,
                 axis=case.axis,
                 settings=case.check,
                 route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
-                section_class=prep.section_class(P > 0),
                 beyond_critical=status == "unstable",
                 out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P),
             )
@@ -479,15 +478,14 @@ def _severity(case, prep, P, raw) -> tuple:
         return None, moment
     if status == "critical":
         return math.inf, moment
-    check = check_member(
+    check = member_check(
+        member,
         x=x,
         axial_force=P,
         moment=values["M"],
         shear=values["V"],
         deflection=np.zeros(1),
         length=prep.model.L,
-        section=member.section,
-        material=member.material,
         axis=case.axis,
         settings=case.check,
     )

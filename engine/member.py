@@ -45,7 +45,7 @@ from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.imperfections import Bow, bow_for
 from engine.materials import material_from_spec
-from engine.restraints import for_plane, foundations_for_plane
+from engine.restraints import by_section, for_plane, foundations_for_plane
 from engine.sections import section_from_spec
 from engine.solver import restrained
 from engine.solver.batch import Batch
@@ -53,7 +53,7 @@ from engine.solver.buckling import Buckling
 from engine.solver.model import Model, Points
 from engine.sway import AISC_OUT_OF_PLUMB, SOURCE_AISC, SOURCE_EN, can_sway, sway_anchor, sway_phi
 
-__all__ = ["BowChoice", "Member", "critical_loads", "resolve", "si_label"]
+__all__ = ["BowChoice", "Member", "Segment", "critical_loads", "resolve", "segments_of", "si_label"]
 
 
 def si_label(template: str, values: dict) -> str:
@@ -156,6 +156,40 @@ class BowChoice:
 
 
 @dataclass(frozen=True, kw_only=True)
+class Segment:
+    """One length of a member stepped in section: from ``start`` to ``end`` [m], its ``section`` (about the
+    case's axis, from ``spec``) and its ``material`` (f_y for that section's thickness)."""
+
+    start: float
+    end: float
+    spec: object
+    section: object
+    material: object
+
+
+def segments_of(case) -> tuple:
+    """The segments of a case stepped in section (the case's own section up to the first step, then each
+    step's), or () when its steps are not by section (:func:`engine.restraints.by_section`)."""
+    if not by_section(case):
+        return ()
+    specs = [case.section, *(s.section for s in case.steps)]
+    cuts = [0.0, *(float(s.x) for s in case.steps), float(case.length)]
+    out = []
+    for spec, a, b in zip(specs, cuts[:-1], cuts[1:], strict=True):
+        section = section_from_spec(dict(spec), case.axis)
+        out.append(
+            Segment(
+                start=a,
+                end=b,
+                spec=spec,
+                section=section,
+                material=material_from_spec(dict(case.material), section.t_max),
+            )
+        )
+    return tuple(out)
+
+
+@dataclass(frozen=True, kw_only=True)
 class Member:
     """The resolved member.
 
@@ -167,6 +201,9 @@ class Member:
     section : Section or None
     material : Material or None
     bow : BowChoice
+    segments : tuple of Segment
+        A member stepped in section: each segment's section and material (the first is ``section``); () for a
+        uniform member.
     """
 
     EI: float
@@ -174,17 +211,22 @@ class Member:
     section: object
     material: object
     bow: BowChoice
+    segments: tuple = ()
 
 
 _STEEL_LIKE = ("steel",)
 
 
-def _curve(case, section, material):
+def _curve(case, section, material, segments=()):
     imp = case.imperfection
     if imp.curve != "auto":
         return imp.curve, "given in the case"
     if section is None or material is None or material.kind not in _STEEL_LIKE:
         return None, None
+    if segments:  # stepped in section: the segments' worst curve (the largest bow of Table 5.1)
+        found = [curve_of(s.section, s.material) for s in segments]
+        curve, why = max(found, key=lambda c: codes.BUCKLING_CURVES.index(c[0]))
+        return curve, f"{why}; the worst curve of the segments (stepped in section)"
     return curve_of(section, material)  # section is about case.axis (section_from_spec(..., case.axis))
 
 
@@ -206,12 +248,23 @@ def mode_curvature_peak(buckling) -> float:
     return (R if inside else ends) / buckling.length**2
 
 
+def _step_EI(case, step) -> float:
+    """A step's EI [N·m²] before the stiffness factor: its own, or E·I of its section about the axis."""
+    if step.section is None:
+        return step.EI
+    section = section_from_spec(dict(step.section), case.axis)
+    return material_from_spec(dict(case.material), section.t_max).E * section.I
+
+
 def _plain(case, EI):
     """The case the solver runs: EI explicit; no bow, section, material, stiffness factor or second plane."""
+    steps = case.steps
+    if steps and case.section is not None:
+        steps = tuple(type(s)(x=s.x, EI=_step_EI(case, s)) for s in steps)
     return dataclasses.replace(
         case,
         EI=EI,
-        steps=tuple(dataclasses.replace(s, EI=s.EI * case.stiffness_factor) for s in case.steps),
+        steps=tuple(dataclasses.replace(s, EI=s.EI * case.stiffness_factor) for s in steps),
         restraints=for_plane(case.restraints, "first"),
         foundation=foundations_for_plane(case.foundation, "first"),
         imperfection=Imperfection(),
@@ -285,7 +338,10 @@ def resolve(case):
         EI_source += f", times the stiffness factor {case.stiffness_factor:g}"
     L = case.length
     imp = case.imperfection
-    curve, reason = _curve(case, section, material)
+    segments = segments_of(case)
+    if segments:
+        section, material = segments[0].section, segments[0].material
+    curve, reason = _curve(case, section, material, segments)
     label_values = {}
     code_amp = None
     code_label = code_source = ""
@@ -330,8 +386,12 @@ def resolve(case):
                 N_Rk=section.A * material.fy,
                 gamma_M1=case.check.gamma_M1,
             )
-            # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1.
-            factor = pcr1 / (EI * mode_curvature_peak(first))
+            # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1;
+            # with restraints or a foundation, EI|η''_cr| is the mode's own moment, found along every segment.
+            if hasattr(first, "moment_peak"):
+                factor = pcr1 / first.moment_peak()
+            else:
+                factor = pcr1 / (EI * mode_curvature_peak(first))
             amplitude = e0 * factor
             if amplitude > L / 10:
                 # Capping it would make the route unconservative (capacity above χ A f_y / γ_M1): refuse.
@@ -456,4 +516,7 @@ def resolve(case):
     analysis_case = dataclasses.replace(
         plain, imperfection=Imperfection(shape=shape, amplitude=float(amplitude))
     )
-    return Member(EI=EI, EI_source=EI_source, section=section, material=material, bow=bow), analysis_case
+    member = Member(
+        EI=EI, EI_source=EI_source, section=section, material=material, bow=bow, segments=segments
+    )
+    return member, analysis_case

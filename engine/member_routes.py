@@ -21,19 +21,24 @@ from __future__ import annotations
 import dataclasses
 import math
 
+from engine import segment_routes
 from engine.checks import EQ_5_9_KIND
 from engine.classification import classify
 from engine.design import aisc_member, en_member, ltb_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
+from engine.member import segments_of
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.sections import section_from_spec
 
-__all__ = ["FALLBACK", "attach", "evaluate", "headline", "ltb_restraints"]
+__all__ = ["FALLBACK", "STEPPED", "attach", "evaluate", "headline", "ltb_restraints"]
 
 #: The note of a headline that fell back on the second-order check (no enabled route applied).
 FALLBACK = "headline-fallback-second-order"
+#: Why the equivalent-member routes are not applied to a member stepped in section: EN 1993-1-1 §6.3.1 and
+#: §6.3.3 are written for uniform members (§6.3.4 covers others; from memory), AISC H1 likewise.
+STEPPED = "stepped-section"
 
 _KINDS = {
     "elastic stress": "cross-section",
@@ -213,10 +218,14 @@ def ltb_restraints(case) -> tuple[tuple, bool]:
     return tuple(out), hinge
 
 
-def lateral_torsional(result, y, klass, cache=None):
+def lateral_torsional(result, y, klass, cache=None, segment=None):
     """The member's lateral-torsional buckling check (:mod:`engine.design.ltb_member`), or None without a
-    steel material (the routes are then not applied either)."""
+    steel material (the routes are then not applied either); ``segment``: with that segment's section and
+    material along the whole member (:func:`_stepped_ltb`)."""
     case, material = result.case, result.material
+    spec, y_section = case.section, (y.section if y is not None else None)
+    if segment is not None:
+        spec, y_section, material = segment.spec, segment.section, segment.material
     settings = case.check.ltb
     major = _major(result)
     if major is None:
@@ -224,7 +233,7 @@ def lateral_torsional(result, y, klass, cache=None):
     if material.kind != "steel":
         return None
     first = major.first_order
-    z_section = _made(cache, "ltb-minor-section", lambda: section_from_spec(dict(case.section), "minor"))
+    z_section = _made(cache, ("ltb-minor-section", spec), lambda: section_from_spec(dict(spec), "minor"))
     restraints, hinge = ltb_restraints(case)
     return ltb_member.check(
         x=first.x,
@@ -232,7 +241,7 @@ def lateral_torsional(result, y, klass, cache=None):
         V=first.shear,
         loads=major.case.loads,
         length=major.case.length,
-        section_y=y.section if y is not None else major.section,
+        section_y=y_section if y_section is not None else major.section,
         section_z=z_section,
         material=material,
         N=float(result.axial_force),
@@ -275,6 +284,17 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         reason = f"material-{material.kind}"
     elif result.section.shape == "custom":
         reason = "custom-section"
+    segments = _made(cache, "routes-segments", lambda: segments_of(case))
+    if segments and not reason:
+        found = _stepped_ltb(result, segments, cache)
+        if found is not None and _major(result) is not None:
+            second = _with_ltb_term(second, found, _major(result))
+        en_source = en_member.SOURCE.format(annex=case.check.annex)
+        return (
+            second,
+            not_applied("en-member", enabled_en, STEPPED, en_source),
+            not_applied("aisc", enabled_aisc, STEPPED, aisc_member.SOURCE),
+        ), found
     if reason:
         en_source = en_member.SOURCE.format(annex=case.check.annex)
         found = None
@@ -303,9 +323,7 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     major = _major(result)
     if major is not None and found is not None:
         second = _with_ltb_term(second, found, major)
-    en = en_member.route(
-        y=y,
-        z=z,
+    common = dict(
         N=N,
         material=material,
         section_class=klass,
@@ -314,6 +332,11 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         beyond=beyond,
         ltb=found,
     )
+    en = segment_routes.route(  # a member with braced points: one equivalent member per segment
+        y=y, z=z, plane_results=_plane_results(result), cache=lambda k, m: _made(cache, k, m), **common
+    )
+    if en is None:
+        en = en_member.route(y=y, z=z, **common)
     aisc = aisc_member.route(
         y=y,
         z=z,
@@ -325,6 +348,34 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         ltb=found,
     )
     return (second, en, aisc), found
+
+
+def _stepped_ltb(result, segments, cache):
+    """The lateral-torsional buckling check of a member stepped in section: made with each segment's section
+    along the whole member, and the smallest M_b,Rd of those that apply kept (the weakest segment governs;
+    DEVELOPERS.md, decisions log)."""
+    N = float(result.axial_force)
+    found = []
+    for segment in segments:
+
+        def classes(segment=segment):
+            z = section_from_spec(dict(segment.spec), "minor")
+            both = [classify(p, segment.material, compression=N > 0) for p in (segment.section, z)]
+            return None if None in both else max(both, key=lambda c: c.klass)
+
+        klass = _made(cache, ("routes-class", segment.spec, N > 0), classes)
+        found.append(lateral_torsional(result, None, klass, cache, segment=segment))
+    applied = [f for f in found if f is not None and f.applies]
+    return min(applied, key=lambda f: f.M_b_Rd) if applied else found[0]
+
+
+def _plane_results(result) -> dict:
+    """Each axis's solved plane and its case (``"y"``: bending about the major axis); None for the other
+    plane of a one-plane case (no loads, no restraints of its own)."""
+    first = "y" if result.case.axis == "major" else "z"
+    other = "z" if first == "y" else "y"
+    second = result.second_plane
+    return {first: (result, result.case), other: None if second is None else (second, second.case)}
 
 
 def _with_ltb_term(second: RouteCheck, found, major) -> RouteCheck:

@@ -160,7 +160,7 @@ class OutOfPlane:
         )
 
 
-def resistance(case, section, material) -> OutOfPlane:
+def resistance(case, section, material, segments=()) -> OutOfPlane:
     """N_b,Rd about the axis the member does not bend about (independent of the axial force).
 
     Parameters
@@ -169,7 +169,49 @@ def resistance(case, section, material) -> OutOfPlane:
         Its ``axis``, ``length``, ``out_of_plane`` and ``check.gamma_M1``.
     section, material : Section, Material
         As resolved for the in-plane analysis (None when the case gives EI only).
+    segments : tuple of Segment
+        A member stepped in section (:func:`engine.member.segments_of`): N_cr with the smallest I about the
+        other axis of all segments over the whole buckling length (a lower bound of the stepped member's
+        N_cr: a stiffer part only raises it, Rayleigh's principle), each segment's χ A f_y with that N_cr,
+        and the smallest N_b,Rd governs (see :func:`_stepped`).
     """
+    if segments and section is not None and material is not None and section.shape != "custom":
+        return _stepped(case, segments)
+    return _uniform(case, section, material)
+
+
+def _stepped(case, segments) -> OutOfPlane:
+    """The out-of-plane check of a member stepped in section (see :func:`resistance`)."""
+    other = "minor" if case.axis == "major" else "major"
+    turned = [section_from_spec(dict(s.spec), other) for s in segments]
+    weakest = min(range(len(segments)), key=lambda i: segments[i].material.E * turned[i].I)
+    found = [
+        _uniform(case, segments[i].section, segments[i].material, spec=segments[i].spec)
+        for i in range(len(segments))
+    ]
+    if not all(f.checked for f in found):
+        return next(f for f in found if not f.checked)
+    n_cr = found[weakest].N_cr
+    out = []
+    for seg, one, f in zip(segments, turned, found, strict=True):
+        lam = codes.slenderness(one.A, seg.material.fy, n_cr)
+        chi = codes.reduction_factor(lam, f.curve)
+        out.append(
+            dataclasses.replace(
+                f,
+                N_cr=n_cr,
+                lambda_bar=lam,
+                chi=chi,
+                N_b_Rd=chi * one.A * seg.material.fy / case.check.gamma_M1,
+                reason=f"{f.reason}; stepped in section: N_cr with the smallest I about the {other} axis "
+                "of the segments, each segment's χ·A·f_y, the smallest governs",
+            )
+        )
+    return min(out, key=lambda f: f.N_b_Rd)
+
+
+def _uniform(case, section, material, spec=None) -> OutOfPlane:
+    """:func:`resistance` of a uniform member (``spec``: the section's specification, default the case's)."""
     settings = case.out_of_plane or OutOfPlaneSettings()
     other = "minor" if case.axis == "major" else "major"
     if settings.restrained:
@@ -187,7 +229,7 @@ def resistance(case, section, material) -> OutOfPlane:
             reason="a custom section has properties about one axis "
             "only: out-of-plane buckling cannot be checked",
         )
-    turned = section_from_spec(dict(case.section), other)
+    turned = section_from_spec(dict(case.section if spec is None else spec), other)
     length = settings.buckling_length if settings.buckling_length is not None else case.length
     n_cr = math.pi**2 * material.E * turned.I / length**2
     if material.kind != "steel":  # the elastic critical load is still given, for the cautions and the app

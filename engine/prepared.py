@@ -100,19 +100,28 @@ class Prepared:
         return self._reference[count]
 
     def section_class(self, compression: bool):
-        """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached."""
+        """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached; a member
+        stepped in section: a tuple, one class per segment."""
         if compression not in self._design:
             member = self.member
-            self._design[compression] = (
-                None if member is None else classify(member.section, member.material, compression=compression)
-            )
+            if member is None:
+                found = None
+            elif member.segments:
+                found = tuple(
+                    classify(s.section, s.material, compression=compression) for s in member.segments
+                )
+            else:
+                found = classify(member.section, member.material, compression=compression)
+            self._design[compression] = found
         return self._design[compression]
 
     def out_of_plane(self):
         """The out-of-plane buckling resistance (independent of the axial force), cached."""
         if "out_of_plane" not in self._design:
             member = self.member
-            self._design["out_of_plane"] = resistance(self.case, member.section, member.material)
+            self._design["out_of_plane"] = resistance(
+                self.case, member.section, member.material, segments=member.segments
+            )
         return self._design["out_of_plane"]
 
     def design(self, key, make):

@@ -17,10 +17,16 @@ For lateral-torsional buckling, a restraint acting in the plane of minor-axis be
 plane about the minor axis) holds the shear centre laterally (translation: v = 0 or a spring; rotation: v' = 0
 or a spring), see DEVELOPERS.md (decisions log, issue 15, restraints in M_cr).
 
-A **step** changes the bending stiffness from its ``x`` to the next step (or the end):
-``{"x": ..., "EI": ...}`` [m, N·m²]. The case's own EI holds from x = 0 to the first step. A step by EI needs
-a one-plane case that gives its own EI and no section: the member check would otherwise use the one section
-along the whole member.
+A **step** changes the member from its ``x`` to the next step (or the end), in one of two forms:
+
+- by stiffness, ``{"x": ..., "EI": ...}`` [m, N·m²]: in a one-plane case that gives its own EI and no section
+  (there is no section to check);
+- by section, ``{"x": ..., "section": ...}`` (the forms of the case's ``section``: a catalogue name, a
+  parametric shape or a custom mapping): in a one-plane case with a section and a material and no EI of its
+  own. That segment's EI is E·I of its section about the case's axis (times the stiffness factor), and the
+  cross-section check along it uses its section (and the material's f_y for its thickness).
+
+The case's own EI or section holds from x = 0 to the first step; all steps of a case take the same form.
 
 Both are frozen value objects that validate themselves; :func:`restraints_from_data` and
 :func:`steps_from_data` read the case file's lists, :func:`check_against` checks them against the member.
@@ -36,7 +42,8 @@ from typing import Any
 import numpy as np
 
 from engine.errors import CaseError
-from engine.inputs import _restraint
+from engine.inputs import Spec, _restraint
+from engine.sections import section_from_spec
 from engine.validate import check_keys, choice, flag, real, set_field, show, within
 
 __all__ = [
@@ -49,6 +56,7 @@ __all__ = [
     "normalise",
     "read",
     "written",
+    "by_section",
     "check_mechanism",
     "foundations_from_data",
     "for_plane",
@@ -58,7 +66,7 @@ __all__ = [
 
 PLANES = ("first", "second", "both")
 _RESTRAINT_KEYS = ("x", "translation", "rotation", "hinge", "plane", "twist")
-_STEP_KEYS = ("x", "EI")
+_STEP_KEYS = ("x", "EI", "section")
 _FOUNDATION_KEYS = ("start", "end", "k", "plane")
 _MAX_FOUNDATION = 1e12  # [N/m²]: stiffer than any soil or bedding by orders of magnitude
 _MAX_ITEMS = 50  # per list: far more than any member needs; keeps the global system small
@@ -158,20 +166,36 @@ class RestraintReaction:
 
 @dataclass(frozen=True, kw_only=True)
 class Step:
-    """The bending stiffness EI [N·m²] of the member from ``x`` [m] to the next step or the end.
+    """The member from ``x`` [m] to the next step or the end: its bending stiffness ``EI`` [N·m²], or its own
+    ``section`` (a section specification, as the case's ``section`` key); exactly one of the two.
 
     >>> Step(x=2.0, EI=3.0e6)
-    Step(x=2.0, EI=3000000.0)
+    Step(x=2.0, EI=3000000.0, section=None)
+    >>> Step(x=2.0, section={"name": "HEB 200"}).section["name"]
+    'HEB 200'
     """
 
     x: float
-    EI: float
+    EI: float | None = None
+    section: Any = None
 
     def __post_init__(self) -> None:
         set_field(self, "x", real("x", self.x, "m"))
-        set_field(self, "EI", real("EI", self.EI, "N·m²", minimum=_MIN_EI, maximum=_MAX_EI))
+        if (self.EI is None) == (self.section is None):
+            raise CaseError(
+                "EI: give exactly one of EI [N·m²] (a step in stiffness) or section (a step in section); "
+                f"received EI {show(self.EI)} and section {show(self.section)}"
+            )
+        if self.EI is not None:
+            set_field(self, "EI", real("EI", self.EI, "N·m²", minimum=_MIN_EI, maximum=_MAX_EI))
+            return
+        if not isinstance(self.section, Spec):
+            set_field(self, "section", Spec(self.section, "section"))
+        section_from_spec(dict(self.section), "major")  # the spec is checked here, naming section.<key>
 
     def to_data(self) -> dict[str, Any]:
+        if self.section is not None:
+            return {"x": self.x, "section": dict(self.section)}
         return {"x": self.x, "EI": self.EI}
 
 
@@ -219,7 +243,7 @@ def _items(path: str, raw: Any, keys: tuple[str, ...], make) -> tuple:
             continue
         if not isinstance(item, Mapping):
             raise CaseError(f"{where}: {show(item)} is not an object; expected keys {keys}")
-        required = {Restraint: ("x",), Step: keys, Foundation: ("start", "end", "k")}[make]
+        required = {Restraint: ("x",), Step: ("x",), Foundation: ("start", "end", "k")}[make]
         check_keys(where, item, keys, required)
         with within(where):
             out.append(make(**item))
@@ -286,16 +310,7 @@ def check_against(case) -> None:
             )
         previous = s.x
     if case.steps:
-        if case.EI is None or case.section is not None:
-            raise CaseError(
-                "steps: a step by EI needs a case that gives its own EI and no section (the member check "
-                "would use the one section along the whole member); steps by section are not yet available"
-            )
-        if case.second_plane is not None:
-            raise CaseError(
-                "steps: not allowed in a two-plane case (a step by EI gives the stiffness about one axis "
-                "only)"
-            )
+        _check_step_forms(case)
     ranges = []
     for index, f in enumerate(case.foundation):
         if not isinstance(f, Foundation):
@@ -317,23 +332,60 @@ def check_against(case) -> None:
                         f"foundation[{other[0]}] in the {plane} plane; give one modulus per range"
                     )
             ranges.append(((index, plane), f.start, f.end))
-    # A twist alone changes no bending plane: only the lateral-torsional buckling check reads it.
-    extras = any(r.bends for r in case.restraints) or case.steps or case.foundation
     routes = tuple(getattr(case.check, "routes", ()))
     checked = case.section is not None and case.material is not None
-    if extras and checked and routes != ("second-order",):
+    if case.foundation and checked and routes != ("second-order",):
         raise CaseError(
-            f"check.routes: {list(routes)!r} is not yet available with restraints, steps or a foundation: "
-            "the equivalent-member routes read one moment diagram and one buckling length between the ends; "
-            "allowed here: ['second-order'] (the cross-section check with the exact second-order forces and "
-            "a bow in the shape of the first buckling mode)"
+            f"check.routes: {list(routes)!r} is not available on a foundation: the equivalent-member "
+            "routes read the moment diagram between braced points by the tables of EN 1993-1-1 Annex A/B "
+            "and AISC 360, none of which covers a member bedded along its length; allowed here: "
+            "['second-order'] (the cross-section check with the exact second-order forces and a bow in the "
+            "shape of the first buckling mode)"
         )
-    imp = case.imperfection
-    if extras and imp.preset == "en1993-eq-5.9":
+    if case.steps and case.imperfection.preset == "en1993-eq-5.9":
         raise CaseError(
-            "imperfection.preset: 'en1993-eq-5.9' is not yet available with restraints, steps or a "
-            "foundation; use 'en1993-table-5.1' (whose bow then takes the first mode's shape) or give the "
-            "bow's shape and amplitude"
+            "imperfection.preset: 'en1993-eq-5.9' is not available with steps: eq. (5.9)'s bow is scaled "
+            "to the moment at the critical cross-section of a uniform member, and with steps in section "
+            "that section is not known beforehand; use 'en1993-table-5.1' (the worst curve of the "
+            "segments) or give the bow's shape and amplitude"
+        )
+
+
+def by_section(case) -> bool:
+    """Whether the case's steps name their own sections (steps in section rather than in EI)."""
+    return any(getattr(s, "section", None) is not None for s in getattr(case, "steps", ()))
+
+
+def _check_step_forms(case) -> None:
+    """Steps of one form, each in a case that supports it (see the module docstring)."""
+    sectioned = [i for i, s in enumerate(case.steps) if s.section is not None]
+    if sectioned and len(sectioned) != len(case.steps):
+        first = next(i for i, s in enumerate(case.steps) if s.section is None)
+        raise CaseError(
+            f"steps[{first}].EI: a step by EI is not allowed beside steps by section "
+            f"(steps[{sectioned[0]}]); give every step a section"
+        )
+    if sectioned:
+        if case.section is None or case.material is None or case.EI is not None:
+            raise CaseError(
+                f"steps[{sectioned[0]}].section: a step by section needs a case with a section and a "
+                "material and no EI of its own (the first segment's section is the case's)"
+            )
+        if case.second_plane is not None:
+            raise CaseError(
+                f"steps[{sectioned[0]}].section: steps are not allowed in a two-plane case (the N–M_y–M_z "
+                "check of both planes reads one section); analyse each plane as a one-plane case"
+            )
+        return
+    if case.EI is None or case.section is not None:
+        raise CaseError(
+            "steps[0].EI: a step by EI needs a case that gives its own EI and no section (the member check "
+            "would use the one section along the whole member); with a section give each step its own "
+            "section instead"
+        )
+    if case.second_plane is not None:
+        raise CaseError(
+            "steps: not allowed in a two-plane case (a step by EI gives the stiffness about one axis only)"
         )
 
 

@@ -79,6 +79,27 @@ class SegmentedBuckling:
         """L_cr = π √(EI_j / N_cr,n) of every segment for mode ``n`` (0-based) [m]."""
         return math.pi * np.sqrt(self.segment_EI / self.critical_loads[n])
 
+    def moment_peak(self, n: int = 0) -> float:
+        r"""max |M| of mode ``n`` along the member (the mode normalised to max|w| = 1), i.e. the largest
+        :math:`EI_j|\eta''|` with each segment's own EI [N·m per unit of w]: the ends of every segment (both
+        sides of a node) and the zeros of V = dM/dx inside it (Brent's method on V between samples)."""
+        model = self._model
+        best = 0.0
+        for a, h in zip(model.xa.tolist(), model.h.tolist(), strict=True):
+            xs = a + h * np.linspace(0.0, 1.0, 33)
+            left = np.zeros(xs.size, dtype=bool)
+            left[-1] = True  # the segment's own value at its right end
+            _, _, M, V = self.mode_state(n, xs, left)
+            best = max(best, float(np.abs(M).max()))
+
+            def shear(x, a=a, h=h):
+                return float(self.mode_state(n, [x], [x > a + 0.5 * h])[3][0])
+
+            for i in np.nonzero(V[:-1] * V[1:] < 0.0)[0]:
+                root = brentq(shear, float(xs[i]), float(xs[i + 1]), xtol=1e-15 * model.L)
+                best = max(best, abs(float(self.mode_state(n, [root], [root > a + 0.5 * h])[2][0])))
+        return best
+
     def _state(self, n, x, left=None):
         """The mode's state at x; where ``left`` is True and x is a node, the state just left of it."""
         model = self._model
