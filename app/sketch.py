@@ -255,7 +255,7 @@ def _inner(out, result, U: Units, L_si: float) -> None:
         for x in np.linspace(a, b, count + 1)[:-1]:
             out.append(_line("hatch", [x, x], 0.0, [0.0, 0.06], [-0.13, -0.21], width=0.7))
         said = f"foundation k = {U.show('stress', k)}" + (" (2nd plane)" if dashed else "")
-        out.append(Text("note", said, _pt(0.5 * (a + b), 0.0, 0.0, -0.36), ha="center", va="top", size=6.0))
+        out.append(Text("note", said, _pt(a, 0.0, 0.06, -0.23), va="top", size=6.0))
     for index, r in enumerate(getattr(case, "restraints", ())):
         x = r.x * f
         style = {"dashed": True} if r.plane == "second" else {}

@@ -29,6 +29,7 @@ __all__ = ["InsideOpener", "InsideView"]
 _KINDS = {"fixed": "fixed", "free": "free", "spring": "spring"}
 _PLANES = {"both planes": "both", "plane analysed": "first", "second plane": "second"}
 _ADD = {"restraints": "+ Restraint", "steps": "+ Step in EI", "foundation": "+ Foundation"}
+_ADD_WIDTHS = {"restraints": 92, "steps": 96, "foundation": 100}
 #: (key, label, kind of quantity) of the number fields of each list's rows; a restraint's springs are below.
 _NUMBERS = {
     "restraints": [("x", "at x", "length")],
@@ -36,6 +37,8 @@ _NUMBERS = {
     # k is a force per length of member per deflection, N/m²: shown as a stress unit (MPa, ksi)
     "foundation": [("start", "from", "length"), ("end", "to", "length"), ("k", "modulus k", "stress")],
 }
+#: The opener's label wraps (its counts do not fit the strip on one line) and reads from the left.
+_WRAP = ".bk-btn { white-space: normal; text-align: left; }"
 _SPRINGS = {"translation": ("k_t", "translational_spring"), "rotation": ("k_r", "rotational_spring")}
 
 
@@ -75,7 +78,7 @@ class InsideRow:
                     line.append(number.widget)
                 lines.append(pn.Row(*line, margin=0))
             hinge = pn.widgets.Checkbox(
-                name="hinge (M = 0)",
+                label="hinge (M = 0)",
                 value=bool(row.get("hinge")),
                 margin=(24, 6, 0, 6),
                 stylesheets=[WIDGET_CSS],
@@ -167,7 +170,11 @@ class InsideView(pn.viewable.Viewer):
         buttons = []
         for field in INNER_INPUTS:
             button = pn.widgets.Button(
-                label=_ADD[field], width=96, margin=(4, 3), color="primary", stylesheets=[WIDGET_CSS]
+                label=_ADD[field],
+                width=_ADD_WIDTHS[field],
+                margin=(4, 2),
+                color="primary",
+                stylesheets=[WIDGET_CSS],
             )
             button.on_click(lambda *_, field=field: state.add_item(field))
             buttons.append(button)
@@ -231,12 +238,13 @@ class InsideOpener(pn.viewable.Viewer):
             color="light",
             sizing_mode="stretch_width",
             margin=(8, 5, 4, 5),
-            stylesheets=[WIDGET_CSS],
+            stylesheets=[WIDGET_CSS, _WRAP],
             css_classes=["ss-inside-open"],
         )
         self.button.on_click(lambda *_: self.toggle())
         self.panel = pn.Column(self.button, margin=0, sizing_mode="stretch_width")
         state.param.watch(lambda *_: self._changed(), [*INNER_INPUTS, "errors"])
+        self._changed()  # a case that opens with a message on one of its fields opens the editor
 
     def __panel__(self):
         return self.panel
@@ -250,7 +258,7 @@ class InsideOpener(pn.viewable.Viewer):
         names = (("restraint", "restraints"), ("step", "steps"), ("foundation", "foundations"))
         parts = [f"{n} {name[n > 1]}" for n, name in zip(counts, names, strict=True) if n]
         said = f" ({', '.join(parts)})" if parts else ""
-        return f"{'▾' if self.open else '▸'} Inside the member: restraints, steps, foundation{said}"
+        return f"{'▾' if self.open else '▸'} Restraints, steps, foundation{said}"
 
     def toggle(self) -> None:
         """Open the editor (building it the first time), or close it."""
