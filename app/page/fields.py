@@ -207,10 +207,24 @@ def page_message(message: str) -> str:
     return f"{field_words(head.strip())}:{rest}"
 
 
+#: A range whose unit the engine writes once, after its upper end: ">= 0.001 and <= 1000 m", "0 to 6 m".
+_RANGE = re.compile(
+    r"(?<![\w.])(-?\d+(?:\.\d+)?)( and [<>]=? | to )(-?\d+(?:\.\d+)?) (mm|MPa|kN·m|kN|m)(?![\w²³⁴·/])"
+)
+
+
 def shown_message(message: str, system: str) -> str:
     """The engine's message as the page shows it: the page's name for the field, and in US units the
-    engine's SI lengths, forces and moments in the page's units (the value and range as the user typed)."""
-    return quoted_text(page_message(message), units(system))
+    engine's SI lengths, forces and moments in the page's units (the value and range as the user typed).
+
+    A range's unit is written after both ends first, so that its lower end is converted too (">= 0.001 and
+    <= 1000 m" is never shown as ">= 0.001 and <= 3281 ft").
+    """
+    U = units(system)
+    text = page_message(message)
+    if U.system != "si":
+        text = _RANGE.sub(r"\1 \4\2\3 \4", text)
+    return quoted_text(text, U)
 
 
 class ErrorPanes:

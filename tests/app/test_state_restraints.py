@@ -140,3 +140,21 @@ def test_a_link_with_a_bad_row_restores_it_with_the_message():
 def test_a_file_whose_list_is_not_a_list_is_refused_by_type():
     with pytest.raises(TypeError, match="restraints"):
         values_from_mapping({**TWO_SPANS, "restraints": {"x": 1.0}})
+
+
+def test_a_message_in_us_units_gives_the_value_and_both_ends_of_the_range_in_feet():
+    """The engine writes SI; a US page shows the value and the range in feet (1 ft = 0.3048 m exactly, NIST
+    SP 811), and a range's lower end is converted too, never left in metres beside a bound in feet."""
+    from app.page.fields import shown_message
+
+    state = _state()
+    state.add_item("restraints")
+    state.set_item("restraints", 0, x=9.0)
+    (message,) = state.errors.values()
+    said = shown_message(message, "us")
+    assert said.startswith("Restraint 1, at x: 29.53 ft lies outside")
+    assert "(0 ft to 19.69 ft" in said and " m" not in said.replace(" member", "")
+    assert shown_message("length: 0.0001 m must be >= 0.001 and <= 1000 m", "us").endswith(
+        ">= 0.003 ft and <= 3281 ft"
+    )
+    assert shown_message(message, "si") == page_message(message)  # SI: the engine's own words
