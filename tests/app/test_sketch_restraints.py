@@ -93,6 +93,9 @@ def test_the_foundation_band_spans_its_range_in_us_units():
 def test_the_exports_draw_it_and_the_saved_case_keeps_every_key():
     result, _ = _sketch(**EVERYTHING)
     assert exports.png_bytes(result, dpi=40).startswith(b"\x89PNG")
+    assert exports.pdf_bytes(result).startswith(b"%PDF")
+    rows = exports.csv_text(result).splitlines()
+    assert len([row for row in rows if row.startswith("2,") or row.startswith("2.0")]) >= 2  # both sides
     saved = engine.Case.from_json(exports.case_json(result.case))
     assert saved.restraints == result.case.restraints
     assert saved.steps == result.case.steps and saved.foundation == result.case.foundation
@@ -139,3 +142,25 @@ def test_reactions_of_the_second_plane_are_listed_when_it_has_restraints():
     table = values_table(result, None, "", units("si"))
     # two equal spans of 3 m under 1 kN/m: 1.25 q l = 3.750 kN (handbook two-span table, from memory)
     assert "restraint at x = 3.000 m, 2nd plane</td><td class='v'>3.750 kN up" in table
+
+
+def test_the_diagrams_draw_each_jump_at_one_x_and_the_hinge_at_zero_moment():
+    """The page's diagrams take the engine's stations: both sides of a brace (the transverse force jumps there
+    by the brace's reaction, drawn vertical; DEVELOPERS.md defines the reactions) and M = 0 at a hinge."""
+    import numpy as np
+
+    mapping = {
+        **BASE,
+        "restraints": [{"x": 2.0, "translation": "fixed"}, {"x": 4.0, "translation": "fixed", "hinge": True}],
+    }
+    page = MemberPage(MemberState(**values_from_mapping(mapping)))
+    result = page.model.result
+    data = page.diagrams.stations.data
+    x, force, moment = (np.asarray(data[key], dtype=float) for key in ("x", "T2", "M2"))
+    for inner in result.reactions.intermediate:
+        at = np.flatnonzero(np.isclose(x, inner.x, rtol=0, atol=1e-12))
+        assert len(at) == 2  # the value just left, then just right
+        # the transverse force T jumps by the brace's force on the member: T(x-) - T(x+) = force (kN here)
+        assert force[at[0]] - force[at[1]] == pytest.approx(inner.force / 1e3, rel=1e-9)
+    hinge = np.flatnonzero(np.isclose(x, 4.0, rtol=0, atol=1e-12))
+    assert np.allclose(moment[hinge], 0.0, atol=1e-9)
