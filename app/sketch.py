@@ -182,6 +182,12 @@ def _circle(role, x, cx, cy, r) -> Polygon:
     return _polygon(role, x, 0.0, cx + r * np.cos(t), cy + r * np.sin(t), width=0.8)
 
 
+def _spiral(out, x, turn, **style) -> None:
+    theta = np.linspace(0.0, 1.6 * 2 * np.pi, 120)  # a spiral of 1.6 turns around the point
+    r = 0.03 + 0.11 * theta / theta[-1]
+    out.append(_line("spring", x, 0.0, turn * r * np.cos(theta), r * np.sin(theta), **style))
+
+
 def _support(out, end, xe, outward, U: Units) -> str:
     """One end's restraint with strutscope's own simple symbols; returns its label."""
     translation, rotation = end.translation, end.rotation
@@ -208,12 +214,77 @@ def _support(out, end, xe, outward, U: Units) -> str:
         _zigzag(out, xe)
         _ground_under_spring(out, xe)
     if not isinstance(rotation, str):
-        theta = np.linspace(0.0, 1.6 * 2 * np.pi, 120)  # a spiral of 1.6 turns around the end
-        r = 0.03 + 0.11 * theta / theta[-1]
-        out.append(_line("spring", xe, 0.0, outward * r * np.cos(theta), r * np.sin(theta)))
+        _spiral(out, xe, outward)
     elif translation != "free":
         out.append(_circle("hinge", xe, 0.0, 0.0, 0.035))
     return label
+
+
+def _member(out, result, L_si: float, f: float) -> None:
+    """The member's axis; with steps in EI, one line per stretch, its weight growing with the cube root of its
+    EI against the member's own (a change of line weight marks each step)."""
+    steps = sorted(getattr(result.case, "steps", ()), key=lambda step: step.x)
+    if not steps:
+        out.append(_line("member", [0.0, L_si * f], 0.0, width=2.6))
+        return
+    own = float(getattr(result.case, "EI", None) or result.EI)
+    cuts = [0.0, *(step.x for step in steps), L_si]
+    stiffness = [own, *(step.EI for step in steps)]
+    for a, b, EI in zip(cuts[:-1], cuts[1:], stiffness, strict=True):
+        ratio = EI / own if own > 0 and math.isfinite(EI / own) else 1.0
+        out.append(
+            _line("member", [a * f, b * f], 0.0, width=float(np.clip(2.6 * ratio ** (1 / 3), 1.0, 6.0)))
+        )
+
+
+def _inner(out, result, U: Units, L_si: float) -> None:
+    """Restraints, steps and foundation ranges inside the member (engine issue 16), with symbols of their own:
+    a brace (a post on a foot) where translation is fixed, a zigzag spring on the ground where it is elastic,
+    a collar of two bars where rotation is fixed, a spiral where it is elastic, a white circle for a hinge, a
+    hatched band under the member for a foundation and a tick with the new EI at a step. A restraint of the
+    second plane only is drawn dashed and named so."""
+    case, f = result.case, U.length.factor
+    for start, end, k, plane in ((r.start, r.end, r.k, r.plane) for r in getattr(case, "foundation", ())):
+        a, b = start * f, end * f
+        dashed = plane == "second"
+        for dy in (-0.13, -0.21):  # the band's edges, hatched between
+            out.append(_line("support", [a, b], 0.0, 0.0, dy, width=0.8, dashed=dashed))
+        for x in (a, b):
+            out.append(_line("support", [x, x], 0.0, 0.0, [-0.04, -0.21], width=1.0))
+        count = max(2, int(round(24 * (end - start) / L_si)))
+        for x in np.linspace(a, b, count + 1)[:-1]:
+            out.append(_line("hatch", [x, x], 0.0, [0.0, 0.06], [-0.13, -0.21], width=0.7))
+        said = f"foundation k = {U.show('stress', k)}" + (" (2nd plane)" if dashed else "")
+        out.append(Text("note", said, _pt(a, 0.0, 0.06, -0.23), va="top", size=6.0))
+    for index, r in enumerate(getattr(case, "restraints", ())):
+        x = r.x * f
+        style = {"dashed": True} if r.plane == "second" else {}
+        if r.translation == "fixed":
+            out.append(
+                _polygon("support", x, 0.0, [-0.025, 0.025, 0.025, -0.025], [0, 0, -0.2, -0.2], **style)
+            )
+            out.append(_line("support", [x, x], 0.0, [-0.1, 0.1], -0.2, width=1.0))
+            _hatch(out, x, x, -0.1, 0.1, -0.2, -0.2, direction="down")
+        elif not isinstance(r.translation, str):
+            _zigzag(out, x)
+            _ground_under_spring(out, x)
+        if r.rotation == "fixed":
+            for side in (-0.05, 0.05):
+                out.append(_line("support", [x, x], 0.0, side, [-0.12, 0.12], width=1.6, **style))
+        elif not isinstance(r.rotation, str):
+            _spiral(out, x, 1.0, **style)
+        if r.hinge:
+            out.append(_circle("hinge", x, 0.0, 0.0, 0.045))
+        label = f"R{index + 1}" + (" 2nd plane" if r.plane == "second" else "")
+        out.append(Text("label", label, _pt(x, 0.0, 0.05, 0.06), size=6.0))
+    own = float(getattr(case, "EI", None) or result.EI)
+    for step in getattr(case, "steps", ()):
+        x = step.x * f
+        out.append(_line("support", [x, x], 0.0, 0.0, [-0.1, 0.1], width=0.8))
+        said = f"EI {U.show('stiffness', step.EI)}"
+        if own > 0:
+            said += f" ({step.EI / own:.3g}×)"
+        out.append(Text("note", said, _pt(x, 0.0, 0.03, -0.24), va="top", size=6.0))
 
 
 def _distributed(out, result, U: Units, L_si: float) -> None:
@@ -319,12 +390,14 @@ def _bow(out, result, U: Units, L: float) -> None:
 
 
 def sketch(result, U: Units) -> Sketch:
-    """The member to scale along x: supports, loads, the axial force N, the initial bow (exaggerated), the
-    dimension line and the notes, as shapes in drawing order."""
+    """The member to scale along x: supports, restraints, steps and foundation inside it, loads, the axial
+    force N, the initial bow (exaggerated), the dimension line and the notes, as shapes in drawing order."""
     case = result.case
     L_si = float(case.length)
     L = U.length.from_si(L_si)
-    out: list = [_line("member", [0.0, L], 0.0, width=2.6)]
+    out: list = []
+    _member(out, result, L_si, U.length.factor)
+    _inner(out, result, U, L_si)
     labels = (_support(out, case.left, 0.0, -1, U), _support(out, case.right, L, +1, U))
     for xe, label, ha in ((0.0, labels[0], "left"), (L, labels[1], "right")):
         out.append(Text("label", label, _pt(xe, 0.0, 0.0, -0.50), ha=ha, va="top"))

@@ -65,6 +65,7 @@ from app.state_inputs import (
 )
 from app.state_ltb import ltb_values
 from app.state_plane import plane_values
+from app.state_restraints import inner_values
 from app.state_routes import RouteSweepOutputs
 
 __all__ = [
@@ -590,6 +591,7 @@ def values_from_mapping(mapping: Mapping) -> dict:
     out_of_plane = mapping.get("out_of_plane") or {}
     values["out_of_plane"] = "restrained" if out_of_plane.get("restrained") is True else "buckles"
     values["out_of_plane_length"] = out_of_plane.get("buckling_length")
+    values.update(inner_values(mapping))
     values.update(plane_values(mapping))
     values.update(ltb_values(mapping))
     values.update(actions_values(mapping))

@@ -17,6 +17,7 @@ import param
 from app.state_actions import ACTION_INPUTS, ActionInputs, actions_mapping
 from app.state_ltb import LTB_INPUTS, LtbInputs, ltb_check_keys
 from app.state_plane import PLANE_INPUTS, PlaneInputs, plane_check_keys, plane_mapping
+from app.state_restraints import INNER_INPUTS, InnerInputs, inner_mapping
 
 __all__ = [
     "BOW_PRESETS",
@@ -133,6 +134,7 @@ INPUTS = (
     "deflection_limit",
     "out_of_plane",
     "out_of_plane_length",
+    *INNER_INPUTS,
     *PLANE_INPUTS,
     *LTB_INPUTS,
     *ACTION_INPUTS,
@@ -174,7 +176,7 @@ def load_magnitude(load: Mapping) -> float | None:
     return None
 
 
-class MemberInputs(ActionInputs, LtbInputs, PlaneInputs):
+class MemberInputs(ActionInputs, LtbInputs, PlaneInputs, InnerInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
     Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
@@ -555,6 +557,7 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs):
             **plane_check_keys(self),
             **ltb_check_keys(self),
         }
+        data.update(inner_mapping(self))
         data.update(plane_mapping(self))
         if self.plane2:
             pass  # the second plane's own supports and bow make the out-of-plane check

@@ -19,9 +19,10 @@ from collections.abc import Callable
 import panel as pn
 
 from app.page.style import CSS, WIDGET_CSS, esc
+from app.report import quoted_text
 from app.units import Unit, units
 
-__all__ = ["ErrorPanes", "UnitNumber", "field_words", "rounded", "unit_for"]
+__all__ = ["ErrorPanes", "UnitNumber", "field_words", "rounded", "shown_message", "unit_for"]
 
 #: Significant figures of a number shown in a field.
 SHOWN_DIGITS = 6
@@ -135,6 +136,9 @@ _FIELD_WORDS = {
     "second_plane.supports.left": "Second plane, left end",
     "second_plane.supports.right": "Second plane, right end",
     "second_plane.loads": "Second plane, loads",
+    "restraints": "Restraints",
+    "steps": "Steps in EI",
+    "foundation": "Foundation",
 }
 _LOAD_FIELD_WORDS = {
     "x": "position",
@@ -148,6 +152,21 @@ _LOAD_FIELD_WORDS = {
     "type": "type",
 }
 _LOAD_PATH = re.compile(r"^(?:second_plane\.)?loads\[(\d+)\](?:\.(\w+))?$")
+#: A row of the member's inside (engine issue 16): ``restraints[0].x``, ``steps[1].EI``, ``foundation[0].k``.
+_INNER_PATH = re.compile(r"^(restraints|steps|foundation)\[(\d+)\](?:\.(\w+))?$")
+#: The page's name of a row of each list (its heading, and its messages).
+INNER_ROWS = {"restraints": "Restraint", "steps": "Step in EI", "foundation": "Foundation"}
+_INNER_FIELD_WORDS = {
+    "x": "at x",
+    "translation": "translation",
+    "rotation": "rotation",
+    "hinge": "hinge",
+    "plane": "plane",
+    "EI": "EI",
+    "start": "from",
+    "end": "to",
+    "k": "modulus k",
+}
 #: A load case's field (issue 17): ``actions[1].axial_force``, ``actions[0].loads[2].x``.
 _ACTION_PATH = re.compile(r"^actions\[(\d+)\](?:\.loads\[(\d+)\])?(?:\.(\w+))?$")
 
@@ -161,6 +180,11 @@ def field_words(path: str) -> str:
             words += f", load {int(match.group(2)) + 1}"
         key = match.group(3)
         return words if key is None else f"{words}, {_LOAD_FIELD_WORDS.get(key, key.replace('_', ' '))}"
+    match = _INNER_PATH.match(path)
+    if match:
+        words = f"{INNER_ROWS[match.group(1)]} {int(match.group(2)) + 1}"
+        key = match.group(3)
+        return words if key is None else f"{words}, {_INNER_FIELD_WORDS.get(key, key)}"
     match = _LOAD_PATH.match(path)
     if match:
         plane = "Second plane, load" if path.startswith("second_plane.") else "Load"
@@ -181,6 +205,26 @@ def page_message(message: str) -> str:
     if not sep or " " in head.strip() or head.strip() in ("case", "upload", "link"):
         return message
     return f"{field_words(head.strip())}:{rest}"
+
+
+#: A range whose unit the engine writes once, after its upper end: ">= 0.001 and <= 1000 m", "0 to 6 m".
+_RANGE = re.compile(
+    r"(?<![\w.])(-?\d+(?:\.\d+)?)( and [<>]=? | to )(-?\d+(?:\.\d+)?) (mm|MPa|kN·m|kN|m)(?![\w²³⁴·/])"
+)
+
+
+def shown_message(message: str, system: str) -> str:
+    """The engine's message as the page shows it: the page's name for the field, and in US units the
+    engine's SI lengths, forces and moments in the page's units (the value and range as the user typed).
+
+    A range's unit is written after both ends first, so that its lower end is converted too (">= 0.001 and
+    <= 1000 m" is never shown as ">= 0.001 and <= 3281 ft").
+    """
+    U = units(system)
+    text = page_message(message)
+    if U.system != "si":
+        text = _RANGE.sub(r"\1 \4\2\3 \4", text)
+    return quoted_text(text, U)
 
 
 class ErrorPanes:
@@ -210,7 +254,8 @@ class ErrorPanes:
                 message = next((errors[p] for p in prefixes if p in errors), "")
             else:
                 message = self.state.error_for(*prefixes)
-            text = f"<div class='ss-error'>{esc(page_message(message))}</div>" if message else ""
+            said = shown_message(message, self.state.units) if message else ""
+            text = f"<div class='ss-error'>{esc(said)}</div>" if message else ""
             if pane.object != text:
                 pane.object = text
             if pane.visible != bool(message):

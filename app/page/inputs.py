@@ -16,6 +16,7 @@ from app.intake import clean_text
 from app.page.fields import ErrorPanes, UnitNumber
 from app.page.ltb import LtbSettingsView
 from app.page.plane_inputs import PlaneLoadsView, RouteSettingsView
+from app.page.restraints import InsideOpener
 from app.page.style import (
     BOW_SHAPE_LABELS,
     DIMENSION_LABELS,
@@ -135,6 +136,7 @@ class InputsView(pn.viewable.Viewer):
         self.length_input = self._number("length", "Span L", "length", width=140)
         support_options = {label: key for key, label in SUPPORT_LABELS.items()}
         self.ends = {}
+        self.inside = InsideOpener(state)  # restraints, steps, foundation: the editor built when opened
         for side, where in (("left", "Left end, x = 0 (bottom)"), ("right", "Right end, x = L (top)")):
             parts = {
                 "form": self._select(f"{side}_end", where, support_options, width=200),
@@ -164,6 +166,7 @@ class InputsView(pn.viewable.Viewer):
             self.ends["right"]["springs"],
             errors.pane("supports.right"),
             errors.pane("supports", exact=True),
+            self.inside,
             html_pane(
                 "<div class='ss-note'>x runs from the left end (the bottom of a post) to the right end. "
                 "Springs: T(0) = k_t·w(0), M(0) = −k_r·w′(0) at the left end.</div>"

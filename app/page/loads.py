@@ -13,7 +13,7 @@ from app.page.fields import ErrorPanes, UnitNumber
 from app.page.style import LOAD_LABELS, MAX_LOAD_ROWS, ROWS_AT_ONCE, WIDGET_CSS, html_pane
 from app.state import LOAD_TYPES, MemberState
 
-__all__ = ["LoadRow", "LoadsView", "row_fields"]
+__all__ = ["LoadRow", "LoadsView", "remove_button", "row_fields"]
 
 
 def row_fields(kind: str | None) -> list[tuple[str, str, str | None]]:
@@ -34,6 +34,18 @@ def row_fields(kind: str | None) -> list[tuple[str, str, str | None]]:
     return []
 
 
+def remove_button(description: str) -> pn.widgets.Button:
+    """A row's Remove button (a load's, a restraint's); `description` says which row it removes."""
+    return pn.widgets.Button(
+        label="Remove",
+        width=74,
+        margin=(2, 4),
+        color="light",
+        stylesheets=[WIDGET_CSS],
+        description=description,
+    )
+
+
 class LoadRow:
     """The widgets of one load row: its type, its remove button, its number fields and its error pane."""
 
@@ -50,14 +62,7 @@ class LoadRow:
             stylesheets=[WIDGET_CSS],
         )
         self.type_select.param.watch(partial(self._type_chosen, state), "value")
-        self.remove_button = pn.widgets.Button(
-            label="Remove",
-            width=74,
-            margin=(2, 4),
-            color="light",
-            stylesheets=[WIDGET_CSS],
-            description=f"remove load {index + 1}",
-        )
+        self.remove_button = remove_button(f"remove load {index + 1}")
         self.remove_button.on_click(lambda *_: state.remove_load(index, field=field))
         self.fields = {
             key: UnitNumber(

@@ -18,7 +18,7 @@ from app.page.actions import CombinationBar, GoverningView, LoadCasesView
 from app.page.amplification import AmplificationView
 from app.page.combination_views import EnvelopeBand, SuperpositionView
 from app.page.diagrams import DiagramsView
-from app.page.fields import ErrorPanes, page_message
+from app.page.fields import ErrorPanes, shown_message
 from app.page.files import FilesView
 from app.page.force import ForceControl
 from app.page.inputs import InputsView
@@ -279,7 +279,7 @@ class MemberPage(pn.viewable.Viewer):
                 self.header_title.object = f"<div class='ss-title'>{esc(title)}</div>"
             self.errors.show()
             if state.errors:
-                message = page_message(next(iter(state.errors.values())))
+                message = shown_message(next(iter(state.errors.values())), state.units)
                 self.stale.object = (
                     "<div class='ss-error ss-stale-banner'><b>Input not accepted — the plots and values show "
                     f"the last good result (last valid case).</b> {esc(message)}</div>"

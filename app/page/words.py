@@ -148,6 +148,9 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             peak = getattr(second.governing, field)
             where = f" @ {U.show('length', peak.x)}" if math.isfinite(peak.value) else ""
             row(label, f"{U.show(kind, peak.magnitude)}{where}", "", second.status != "stable")
+        if getattr(second.reactions, "intermediate", ()):  # its restraints: every support's reaction
+            for where, force, couple in reaction_rows(second, U):
+                row(f"{where}, 2nd plane", force, couple)
     head("Buckling")
     pcr = result.critical_loads
     row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")
