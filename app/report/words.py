@@ -17,6 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
+from app.report.restraints import support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
 from app.units import Units, units
 
@@ -316,19 +317,13 @@ def reaction_rows(result, U: Units):
     "Coordinates and signs"). Drawn with x to the right and +w downward, a force along −w points up; a
     couple −M(0) at the left end and +M(L) at the right one turns anticlockwise.
     """
-    r = result.reactions
     rows = []
-    for end, force_along_w, couple_anticlockwise in (
-        ("left end (x = 0)", -r.left_T, -r.left_M),
-        ("right end (x = L)", r.right_T, r.right_M),
-    ):
-        force = _directed(U, "force", -force_along_w, "up", "down")
-        rows.append((end, force, _couple(U, couple_anticlockwise)))
-    # Intermediate restraints (engine issue 16): force along +w and couple C on the member; a couple C turns
-    # as the right end's +M(L) does with the opposite sign, so anticlockwise is -C.
-    for inner in getattr(r, "intermediate", ()):
-        where = f"restraint at x = {U.show('length', inner.x)}"
-        rows.append((where, _directed(U, "force", -inner.force, "up", "down"), _couple(U, -inner.couple)))
+    ends = {"left": "left end (x = 0)", "right": "right end (x = L)"}
+    found = support_reactions(result.reactions, 0.0)
+    # The ends first, then the intermediate restraints (engine issue 16) in the case's order.
+    for r in [found[0], found[-1], *found[1:-1]]:
+        where = ends.get(r.where) or f"restraint at x = {U.show('length', r.x)}"
+        rows.append((where, _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple)))
     return rows
 
 

@@ -1,0 +1,195 @@
+"""The wording of a case's restraints, steps and foundation, and the reaction at every support (issue 16).
+
+One home for every output: the printed summary, the CSV, the calc sheet and the batch's cells. The engine
+gives each reaction as the support-side end values of T and M (ends) or as the force along +w and the couple
+C on the member (restraints inside, ``engine.restraints.RestraintReaction``); here each becomes the force
+**up as drawn** (against + w and a positive load) and the couple **anticlockwise as drawn**, the way
+:func:`app.report.reaction_rows` words them (DEVELOPERS.md, "Coordinates and signs").
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from app.report.numbers import position
+from app.units import Units
+
+__all__ = [
+    "FOUNDATION_UNITS",
+    "SupportReaction",
+    "foundation_show",
+    "inner_reactions",
+    "inner_reactions_cell",
+    "inner_rows",
+    "restraint_text",
+    "support_reactions",
+]
+
+#: The foundation modulus k [N/m², force per length per deflection] in each system: (label, factor from SI).
+#: Not a kind of :class:`app.units.Units` (only the foundation uses it): kN/m² in SI, kip/in² (kip per inch of
+#: member per inch of deflection) in US customary.
+FOUNDATION_UNITS = {"si": ("kN/m²", 1e-3), "us": ("kip/in²", 0.0254**2 / 4448.2216152605)}
+
+_PLANE_WORDS = {"first": "first plane", "second": "second plane", "both": "both planes"}
+
+
+@dataclass(frozen=True, kw_only=True)
+class SupportReaction:
+    """What one support exerts on the member, in SI: ``force`` [N] up as drawn (against + w), ``couple``
+    [N·m] anticlockwise as drawn; ``where`` is ``"left"``, ``"right"`` or ``"inner"``, ``index`` the
+    restraint's place in its plane's list (None at an end), ``plane`` 1 or 2."""
+
+    where: str
+    x: float
+    force: float
+    couple: float
+    index: int | None = None
+    plane: int = 1
+    #: False for a restraint inside the member that leaves rotation free: its couple is zero by definition
+    #: (what the engine returns there is rounding) and the batch's cell leaves it out.
+    rotation_restrained: bool = True
+
+
+def support_reactions(reactions, length: float, plane: int = 1) -> list[SupportReaction]:
+    """Every support's reaction of one plane: the left end, the restraints inside in order, the right end."""
+    out = [
+        SupportReaction(where="left", x=0.0, force=reactions.left_T, couple=-reactions.left_M, plane=plane)
+    ]
+    for inner in getattr(reactions, "intermediate", ()):
+        out.append(
+            SupportReaction(
+                where="inner",
+                x=inner.x,
+                force=-inner.force,
+                couple=-inner.couple,
+                index=inner.index,
+                plane=plane,
+            )
+        )
+    out.append(
+        SupportReaction(
+            where="right", x=length, force=-reactions.right_T, couple=reactions.right_M, plane=plane
+        )
+    )
+    return out
+
+
+def _planes(result):
+    yield 1, result
+    second = getattr(result, "second_plane", None)
+    if second is not None:
+        yield 2, second
+
+
+def inner_reactions(result) -> list[SupportReaction]:
+    """The restraints' reactions inside the member, both planes (the first plane's first).
+
+    For a case with load cases (``result.actions``) each restraint's force and couple are the largest in
+    size over the ultimate combinations (each keeps its sign; the two may come from different combinations):
+    what the restraint must be designed for, whichever combination governs the member.
+    """
+    actions = getattr(result, "actions", None)
+    results = [result]
+    if actions is not None:
+        results = [c.result for c in actions.combinations if c.combination.state == "ultimate"] or results
+    chosen: dict = {}
+    for solved in results:
+        for plane, own in _planes(solved):
+            name = "first" if plane == 1 else "second"
+            given = [r for r in getattr(solved.case, "restraints", ()) if r.plane in (name, "both")]
+            for r in support_reactions(own.reactions, solved.case.length, plane)[1:-1]:
+                if r.index is not None and r.index < len(given) and given[r.index].rotation == "free":
+                    r = SupportReaction(
+                        where="inner",
+                        x=r.x,
+                        force=r.force,
+                        couple=0.0,
+                        index=r.index,
+                        plane=plane,
+                        rotation_restrained=False,
+                    )
+                key = (plane, r.index, r.x)
+                best = chosen.get(key)
+                if best is None:
+                    chosen[key] = r
+                    continue
+                force = r.force if abs(r.force) > abs(best.force) else best.force
+                couple = r.couple if abs(r.couple) > abs(best.couple) else best.couple
+                chosen[key] = SupportReaction(
+                    where="inner",
+                    x=r.x,
+                    force=force,
+                    couple=couple,
+                    index=r.index,
+                    plane=plane,
+                    rotation_restrained=r.rotation_restrained,
+                )
+    return list(chosen.values())
+
+
+def inner_reactions_cell(reactions: list[SupportReaction], U: Units, number) -> str:
+    """The batch's ``inner_reactions`` cell: ``x:F=<force>,C=<couple>`` per restraint separated by ';'
+    (``,C=`` only where the restraint holds rotation), a second-plane one ending ``@second``, in the
+    display units; ``number`` writes a value."""
+    items = []
+    for r in reactions:
+        plane = "@second" if r.plane == 2 else ""
+        couple = f",C={number(U.convert('moment', r.couple))}" if r.rotation_restrained else ""
+        items.append(
+            f"{number(U.convert('length', r.x))}:F={number(U.convert('force', r.force))}{couple}{plane}"
+        )
+    return ";".join(items)
+
+
+def foundation_show(U: Units, k: float) -> str:
+    """A foundation modulus [N/m²] in the display units, e.g. ``"5000 kN/m²"``."""
+    from app.report.numbers import format_number
+
+    label, factor = FOUNDATION_UNITS[U.system]
+    return f"{format_number(k * factor)} {label}" if math.isfinite(k) else format_number(k)
+
+
+def _restraint_part(value, kind: str, symbol: str, U: Units) -> str | None:
+    if value == "free":
+        return None
+    if value == "fixed":
+        return "fixed"
+    return f"spring {symbol} = {U.show(kind, value)}"
+
+
+def restraint_text(r, U: Units, two_planes: bool = False) -> str:
+    """One restraint inside the member, e.g. ``"x = 3.000 m: translation fixed, hinge"``."""
+    parts = []
+    for name, kind, symbol in (
+        ("translation", "translational_spring", "k_t"),
+        ("rotation", "rotational_spring", "k_r"),
+    ):
+        said = _restraint_part(getattr(r, name), kind, symbol, U)
+        if said is not None:
+            parts.append(f"{name} {said}")
+    if r.hinge:
+        parts.append("hinge (moment released)")
+    plane = f" ({_PLANE_WORDS[r.plane]})" if two_planes else ""
+    return f"x = {position(U, r.x)}: {', '.join(parts)}{plane}"
+
+
+def inner_rows(case, U: Units) -> list[tuple[str, str]]:
+    """(label, text) of each restraint, step and foundation range of the case, in the case's order; empty
+    when it has none."""
+    two = getattr(case, "second_plane", None) is not None
+    rows = []
+    for number, r in enumerate(getattr(case, "restraints", ()), start=1):
+        rows.append((f"restraint {number}", restraint_text(r, U, two)))
+    for number, s in enumerate(getattr(case, "steps", ()), start=1):
+        rows.append((f"step {number}", f"EI = {U.show('stiffness', s.EI)} from x = {position(U, s.x)}"))
+    for number, f in enumerate(getattr(case, "foundation", ()), start=1):
+        plane = f" ({_PLANE_WORDS[f.plane]})" if two else ""
+        rows.append(
+            (
+                f"foundation {number}",
+                f"k = {foundation_show(U, f.k)} from x = {position(U, f.start)} to "
+                f"{position(U, f.end)}{plane}",
+            )
+        )
+    return rows
