@@ -9,6 +9,7 @@ C on the member (restraints inside, ``engine.restraints.RestraintReaction``); he
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
@@ -16,7 +17,12 @@ from app.report.numbers import position
 from app.units import Units
 
 __all__ = [
+    "COUPLE_SENSE",
+    "FORCE_SENSE",
     "FOUNDATION_UNITS",
+    "all_reactions",
+    "metadata_rows",
+    "support_label",
     "SupportReaction",
     "foundation_show",
     "inner_reactions",
@@ -82,6 +88,20 @@ def _planes(result):
         yield 2, second
 
 
+def _plane_reactions(solved, own, plane: int) -> list[SupportReaction]:
+    """One plane's reactions (:func:`support_reactions`), the couple of a restraint that leaves rotation
+    free set to its exact 0 (the engine's value there is rounding)."""
+    name = "first" if plane == 1 else "second"
+    given = [r for r in getattr(solved.case, "restraints", ()) if r.plane in (name, "both")]
+    out = []
+    for r in support_reactions(own.reactions, solved.case.length, plane):
+        inside = r.where == "inner" and r.index is not None and r.index < len(given)
+        if inside and given[r.index].rotation == "free":
+            r = dataclasses.replace(r, couple=0.0, rotation_restrained=False)
+        out.append(r)
+    return out
+
+
 def inner_reactions(result) -> list[SupportReaction]:
     """The restraints' reactions inside the member, both planes (the first plane's first).
 
@@ -96,19 +116,7 @@ def inner_reactions(result) -> list[SupportReaction]:
     chosen: dict = {}
     for solved in results:
         for plane, own in _planes(solved):
-            name = "first" if plane == 1 else "second"
-            given = [r for r in getattr(solved.case, "restraints", ()) if r.plane in (name, "both")]
-            for r in support_reactions(own.reactions, solved.case.length, plane)[1:-1]:
-                if r.index is not None and r.index < len(given) and given[r.index].rotation == "free":
-                    r = SupportReaction(
-                        where="inner",
-                        x=r.x,
-                        force=r.force,
-                        couple=0.0,
-                        index=r.index,
-                        plane=plane,
-                        rotation_restrained=False,
-                    )
+            for r in _plane_reactions(solved, own, plane)[1:-1]:
                 key = (plane, r.index, r.x)
                 best = chosen.get(key)
                 if best is None:
@@ -116,15 +124,7 @@ def inner_reactions(result) -> list[SupportReaction]:
                     continue
                 force = r.force if abs(r.force) > abs(best.force) else best.force
                 couple = r.couple if abs(r.couple) > abs(best.couple) else best.couple
-                chosen[key] = SupportReaction(
-                    where="inner",
-                    x=r.x,
-                    force=force,
-                    couple=couple,
-                    index=r.index,
-                    plane=plane,
-                    rotation_restrained=r.rotation_restrained,
-                )
+                chosen[key] = dataclasses.replace(r, force=force, couple=couple)
     return list(chosen.values())
 
 
@@ -191,5 +191,68 @@ def inner_rows(case, U: Units) -> list[tuple[str, str]]:
                 f"k = {foundation_show(U, f.k)} from x = {position(U, f.start)} to "
                 f"{position(U, f.end)}{plane}",
             )
+        )
+    return rows
+
+
+def support_label(r: SupportReaction, U: Units, two_planes: bool = False) -> str:
+    """Where a reaction acts, as every output names it: ``left end (x = 0)``, ``right end (x = L)``,
+    ``restraint at x = 3.000 m``; with two planes, ``second plane, `` before the second plane's."""
+    label = {"left": "left end (x = 0)", "right": "right end (x = L)"}.get(r.where)
+    label = label or f"restraint at x = {U.show('length', r.x)}"
+    if two_planes:
+        label = f"{'first' if r.plane == 1 else 'second'} plane, {label}"
+    return label
+
+
+def all_reactions(result) -> list[SupportReaction]:
+    """The reaction at every support of the shown result, ends and restraints in x order, the first plane
+    then the second."""
+    out = []
+    for plane, own in _planes(result):
+        out += _plane_reactions(result, own, plane)
+    return out
+
+
+#: How the reactions' signs read, for the CSV's notes and the calc sheet.
+FORCE_SENSE = "up as drawn (against + w and a positive load)"
+COUPLE_SENSE = "anticlockwise as drawn"
+
+
+def metadata_rows(result, U: Units) -> list[tuple]:
+    """The CSV's metadata rows (key, value, note) of the restraints, steps and foundation (inputs) and of the
+    reaction at every support, in the display units; numbers to the CSV's digits."""
+    from app.report.numbers import csv_number
+
+    case = result.case
+    two = getattr(case, "second_plane", None) is not None
+    length, force, moment = U.label("length"), U.label("force"), U.label("moment")
+    rows: list[tuple] = []
+    for number, r in enumerate(getattr(case, "restraints", ()), start=1):
+        what = restraint_text(r, U, two).split(": ", 1)[1]
+        rows.append((f"restraint {number} x [{length}]", csv_number(U.convert("length", r.x)), what))
+        for name, kind, symbol in (
+            ("translation", "translational_spring", "k_t"),
+            ("rotation", "rotational_spring", "k_r"),
+        ):
+            value = getattr(r, name)
+            if not isinstance(value, str):
+                rows.append(
+                    (f"restraint {number} {symbol} [{U.label(kind)}]", csv_number(U.convert(kind, value)))
+                )
+    for number, s in enumerate(getattr(case, "steps", ()), start=1):
+        rows.append((f"step {number} x [{length}]", csv_number(U.convert("length", s.x))))
+        rows.append((f"step {number} EI [{U.label('stiffness')}]", csv_number(U.convert("stiffness", s.EI))))
+    label, factor = FOUNDATION_UNITS[U.system]
+    for number, f in enumerate(getattr(case, "foundation", ()), start=1):
+        rows.append((f"foundation {number} start [{length}]", csv_number(U.convert("length", f.start))))
+        rows.append((f"foundation {number} end [{length}]", csv_number(U.convert("length", f.end))))
+        note = _PLANE_WORDS[f.plane] if two else "Winkler modulus, force per length per deflection"
+        rows.append((f"foundation {number} k [{label}]", csv_number(f.k * factor), note))
+    for r in all_reactions(result):
+        where = support_label(r, U, two)
+        rows.append((f"reaction {where} F [{force}]", csv_number(U.convert("force", r.force)), FORCE_SENSE))
+        rows.append(
+            (f"reaction {where} C [{moment}]", csv_number(U.convert("moment", r.couple)), COUPLE_SENSE)
         )
     return rows

@@ -17,7 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
-from app.report.restraints import support_reactions
+from app.report.restraints import support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
 from app.units import Units, units
 
@@ -317,14 +317,12 @@ def reaction_rows(result, U: Units):
     "Coordinates and signs"). Drawn with x to the right and +w downward, a force along −w points up; a
     couple −M(0) at the left end and +M(L) at the right one turns anticlockwise.
     """
-    rows = []
-    ends = {"left": "left end (x = 0)", "right": "right end (x = L)"}
     found = support_reactions(result.reactions, 0.0)
     # The ends first, then the intermediate restraints (engine issue 16) in the case's order.
-    for r in [found[0], found[-1], *found[1:-1]]:
-        where = ends.get(r.where) or f"restraint at x = {U.show('length', r.x)}"
-        rows.append((where, _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple)))
-    return rows
+    return [
+        (support_label(r, U), _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple))
+        for r in [found[0], found[-1], *found[1:-1]]
+    ]
 
 
 def _directed(U: Units, kind: str, value: float, positive: str, negative: str) -> str:
