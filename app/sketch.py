@@ -36,6 +36,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from app.report import has_bow, support_text
+from app.report.restraints import foundation_show
 from app.units import Units
 
 __all__ = [
@@ -332,6 +333,7 @@ def sketch(result, U: Units) -> Sketch:
     _concentrated(out, result, U, L_si)
     _axial(out, result, U, L)
     _bow(out, result, U, L)
+    _along_member(out, result, U)  # issue 16: restraints, steps and foundation inside the member
     if result.status != "stable":
         text = f"{result.status}: N at or above Pcr1, a state the member never reaches"
         out.append(Text("danger", text, _pt(FRAME_RIGHT, 1.28), ha="right", va="top", size=7.0, bold=True))
@@ -343,3 +345,66 @@ def sketch(result, U: Units) -> Sketch:
     note = "Member (to scale along x; + load and + w point down here)"
     out.append(Text("note", note, _pt(FRAME_LEFT, 1.28), va="top", size=7.0))
     return Sketch(length=L, shapes=tuple(out))
+
+
+# ----------------------------------------------------------------------------------------------------------
+# Issue 16: what acts inside the member (restraints, steps in EI, a foundation), each in its own function.
+
+
+def _inner_restraint(out, r, x: float, name: str) -> None:
+    """One restraint inside the member at ``x`` [display unit]: a triangle on the ground (translation fixed),
+    a zigzag to the ground (translational spring), a small box round the axis (rotation fixed), a spiral
+    (rotational spring), a white circle (hinge); its name below."""
+    if r.translation == "fixed":
+        depth, half = 0.22, 0.10
+        out.append(_polygon("hinge", x, 0.0, [0.0, -half, half], [0.0, -depth, -depth]))
+        out.append(_line("support", [x, x], 0.0, [-1.5 * half, 1.5 * half], -depth, width=1.0))
+        _hatch(out, x, x, -1.5 * half, 1.5 * half, -depth, -depth, direction="down")
+    elif not isinstance(r.translation, str):
+        _zigzag(out, x)
+        _ground_under_spring(out, x)
+    if r.rotation == "fixed":
+        box = 0.06
+        out.append(
+            _line("support", x, 0.0, [-box, box, box, -box, -box], [-box, -box, box, box, -box], width=1.2)
+        )
+    elif not isinstance(r.rotation, str):
+        theta = np.linspace(0.0, 1.6 * 2 * np.pi, 120)
+        radius = 0.03 + 0.09 * theta / theta[-1]
+        out.append(_line("spring", x, 0.0, radius * np.cos(theta), radius * np.sin(theta)))
+    if r.hinge:
+        out.append(_circle("hinge", x, 0.0, 0.0, 0.045))
+    out.append(Text("label", name, _pt(x, 0.0, 0.0, -0.50), ha="center", va="top"))
+
+
+def _step(out, x: float, EI: float, U: Units) -> None:
+    """A step in EI at ``x``: a short bar across the axis and the new EI beside it."""
+    out.append(_line("member", [x, x], 0.0, 0.0, [-0.09, 0.09], width=1.2))
+    at = _pt(x, 0.0, 0.0, -0.11)
+    out.append(Text("note", f"EI = {U.show('stiffness', EI)}", at, ha="center", va="top", size=5.5))
+
+
+def _foundation(out, start: float, end: float, length: float, text: str) -> None:
+    """A foundation from ``start`` to ``end`` [display unit]: short springs from the axis to a hatched ground
+    line under the range, and its modulus below."""
+    depth = 0.30
+    for x in np.linspace(start, end, max(3, int(round(16 * (end - start) / length)) + 1)):
+        out.append(_line("spring", [x, x], 0.0, 0.0, [-0.02, -depth], width=0.6))
+    out.append(_line("support", [start, end], 0.0, 0.0, -depth, width=1.0))
+    _hatch(out, start, end, 0.0, 0.0, -depth, -depth, direction="down")
+    at = _pt(0.5 * (start + end), 0.0, 0.0, -depth - 0.11)
+    out.append(Text("note", text, at, ha="center", va="top", size=5.5))
+
+
+def _along_member(out, result, U: Units) -> None:
+    """The case's restraints (those of the plane drawn), steps in EI and foundation ranges, to scale along
+    x; nothing for a case without them."""
+    case, f = result.case, U.length.factor
+    for number, r in enumerate(getattr(case, "restraints", ()), start=1):
+        if r.plane in ("first", "both"):
+            _inner_restraint(out, r, r.x * f, f"R{number}")
+    for s in getattr(case, "steps", ()):
+        _step(out, s.x * f, s.EI, U)
+    for g in getattr(case, "foundation", ()):
+        if g.plane in ("first", "both"):
+            _foundation(out, g.start * f, g.end * f, case.length * f, f"k = {foundation_show(U, g.k)}")

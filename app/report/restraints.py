@@ -199,7 +199,7 @@ def support_label(r: SupportReaction, U: Units, two_planes: bool = False) -> str
     """Where a reaction acts, as every output names it: ``left end (x = 0)``, ``right end (x = L)``,
     ``restraint at x = 3.000 m``; with two planes, ``second plane, `` before the second plane's."""
     label = {"left": "left end (x = 0)", "right": "right end (x = L)"}.get(r.where)
-    label = label or f"restraint at x = {U.show('length', r.x)}"
+    label = label or f"restraint at x = {position(U, r.x)}"
     if two_planes:
         label = f"{'first' if r.plane == 1 else 'second'} plane, {label}"
     return label
@@ -256,3 +256,29 @@ def metadata_rows(result, U: Units) -> list[tuple]:
             (f"reaction {where} C [{moment}]", csv_number(U.convert("moment", r.couple)), COUPLE_SENSE)
         )
     return rows
+
+
+#: The groups of :func:`inner_rows` as a list's first line names them (calc sheet, summary).
+GROUP_NAMES = {"restraint": "Restraints inside", "step": "Steps in EI", "foundation": "Elastic foundation"}
+
+#: Under the list of restraints and steps: how the sketch names the restraints and where a step's EI holds.
+INNER_NOTE = (
+    "restraints R1, R2, ... as the sketch names them; each step's EI holds from its x to the next step"
+)
+
+#: Under the reactions of a case with a foundation (instead of :data:`app.report.REACTIONS_NOTE`, whose
+#: reactions balance the loads).
+FOUNDATION_NOTE = (
+    "forces and couples the supports exert on the member, drawn with x to the right and +w downward; with "
+    "the foundation's reaction k·w along its range they balance the loads"
+)
+
+
+def grouped_inner_rows(case, U: Units) -> list[tuple[str, str]]:
+    """:func:`inner_rows` as (group name on its first line else "", "restraint 1: ...")."""
+    out, shown = [], set()
+    for label, text in inner_rows(case, U):
+        group = label.split()[0]
+        out.append(("" if group in shown else GROUP_NAMES[group], f"{label}: {text}"))
+        shown.add(group)
+    return out

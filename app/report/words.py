@@ -17,7 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
-from app.report.restraints import support_label, support_reactions
+from app.report.restraints import all_reactions, support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
 from app.units import Units, units
 
@@ -39,6 +39,7 @@ __all__ = [
     "out_of_plane_text",
     "peak_text",
     "reaction_rows",
+    "every_reaction_rows",
     "section_text",
     "service_text",
     "quoted_text",
@@ -322,6 +323,16 @@ def reaction_rows(result, U: Units):
     return [
         (support_label(r, U), _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple))
         for r in [found[0], found[-1], *found[1:-1]]
+    ]
+
+
+def every_reaction_rows(result, U: Units):
+    """(support, force text, couple text) at every support in x order, the ends and the restraints inside
+    (engine issue 16), the first plane's then the second's (each then named by its plane)."""
+    two = getattr(result, "second_plane", None) is not None
+    return [
+        (support_label(r, U, two), _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple))
+        for r in all_reactions(result)
     ]
 
 

@@ -164,3 +164,53 @@ def test_cli_csv_carries_the_restraints_and_reactions(tmp_path):
     rows = metadata(out.read_text(encoding="utf-8"))
     middle = next(values for key, values in rows.items() if key.startswith("reaction restraint"))
     assert float(middle[0]) * KIP == pytest.approx(1.25 * 12.5e3 * 4.0, rel=SIX_FIGURES)
+
+
+def sheet_text(result, units="si") -> str:
+    import io
+
+    import pypdf
+
+    reader = pypdf.PdfReader(io.BytesIO(exports.pdf_bytes(result, units=units, date="2026-12-02")))
+    return "\n".join(page.extract_text() for page in reader.pages)
+
+
+def test_calc_sheet_lists_the_restraints_and_the_reaction_at_every_support():
+    text = sheet_text(solved(TWO_SPANS))
+    assert "Restraints inside restraint 1: x = 4.000 m: translation fixed" in text
+    # Two equal spans (AISC Steel Construction Manual, Table 3-23; from memory): ends 3/8 q l = 18.75 kN,
+    # middle 10/8 q l = 62.50 kN, each pushing the member up.
+    assert "Support reactions left end (x = 0): 18.75 kN up, couple 0 kN·m" in text
+    assert "restraint at x = 4.000 m: 62.50 kN up, couple 0 kN·m" in text
+    assert "right end (x = L): 18.75 kN up, couple 0 kN·m" in text
+    assert "R1" in text  # the sketch names the restraint as the list does
+
+
+@pytest.mark.parametrize("system", ["si", "us"])
+def test_calc_sheet_of_restraints_steps_and_foundation_speaks_one_system(system):
+    result = solved(EVERYTHING)
+    text = sheet_text(result, system)
+    assert _offending(text, system) == []
+    for words in (
+        "Restraints inside",
+        "translation fixed, hinge (moment released)",
+        "Steps in EI",
+        "step 2:",
+        "Elastic foundation",
+        "foundation 1: k = ",
+        "restraint 3: x = ",
+        "rotation spring k_r = ",
+    ):
+        assert words in text, words
+    reactions = text[text.index("Support reactions") :]
+    assert reactions.count("restraint at x = ") == 3
+    assert "with the foundation's reaction k·w" in " ".join(reactions.split())
+    assert ("kip/in²" if system == "us" else "kN/m²") in text
+
+
+def test_calc_sheet_of_a_plain_case_keeps_its_one_line_reactions():
+    text = sheet_text(solved({**TWO_SPANS, "restraints": []}))
+    assert "Restraints inside" not in text and "R1" not in text
+    assert "left end (x = 0): 50.00 kN up, couple 0 kN·m; right end (x = L): 50.00 kN up" in " ".join(
+        text.split()
+    )
