@@ -4,14 +4,9 @@ worded by :mod:`app.report`."""
 from __future__ import annotations
 
 from app.exports.style import _GREY
-from app.report.restraints import FOUNDATION_NOTE, INNER_NOTE, grouped_inner_rows
-from app.report.words import REACTIONS_NOTE, every_reaction_rows
+from app.report.restraints import INNER_NOTE, grouped_inner_rows, has_inner, reactions_note
+from app.report.words import every_reaction_rows
 from app.units import Units
-
-
-def has_inner(case) -> bool:
-    """Whether the case has restraints, steps or a foundation."""
-    return any(getattr(case, key, ()) for key in ("restraints", "steps", "foundation"))
 
 
 def inner_input_items(item, result, U: Units) -> None:
@@ -30,8 +25,5 @@ def reaction_items(item, result, U: Units) -> bool:
         return False
     for n, (where, force, couple) in enumerate(every_reaction_rows(result, U)):
         item("Support reactions" if n == 0 else "", f"{where}: {force}, couple {couple}")
-    if getattr(result.case, "foundation", ()):
-        item("", FOUNDATION_NOTE, scale=0.85, color=_GREY)
-    else:
-        item("", REACTIONS_NOTE, scale=0.85, color=_GREY)
+    item("", reactions_note(result.case), scale=0.85, color=_GREY)
     return True

@@ -17,10 +17,13 @@ from app.report.numbers import position
 from app.units import Units
 
 __all__ = [
+    "REACTIONS_NOTE",
     "COUPLE_SENSE",
     "FORCE_SENSE",
     "FOUNDATION_UNITS",
     "all_reactions",
+    "has_inner",
+    "reactions_note",
     "metadata_rows",
     "support_label",
     "SupportReaction",
@@ -36,6 +39,12 @@ __all__ = [
 #: Not a kind of :class:`app.units.Units` (only the foundation uses it): kN/m² in SI, kip/in² (kip per inch of
 #: member per inch of deflection) in US customary.
 FOUNDATION_UNITS = {"si": ("kN/m²", 1e-3), "us": ("kip/in²", 0.0254**2 / 4448.2216152605)}
+
+#: How the reactions are written: the force and the couple each support exerts on the member, as drawn.
+REACTIONS_NOTE = (
+    "forces and couples the supports exert on the member, drawn with x to the right and +w downward; "
+    "they balance the loads"
+)
 
 _PLANE_WORDS = {"first": "first plane", "second": "second plane", "both": "both planes"}
 
@@ -282,3 +291,14 @@ def grouped_inner_rows(case, U: Units) -> list[tuple[str, str]]:
         out.append(("" if group in shown else GROUP_NAMES[group], f"{label}: {text}"))
         shown.add(group)
     return out
+
+
+def has_inner(case) -> bool:
+    """Whether the case has restraints, steps or a foundation."""
+    return any(getattr(case, key, ()) for key in ("restraints", "steps", "foundation"))
+
+
+def reactions_note(case) -> str:
+    """How the reactions read: :data:`app.report.REACTIONS_NOTE`, or :data:`FOUNDATION_NOTE` with a
+    foundation (whose own reaction then balances part of the loads)."""
+    return FOUNDATION_NOTE if getattr(case, "foundation", ()) else REACTIONS_NOTE

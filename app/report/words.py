@@ -17,7 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
-from app.report.restraints import all_reactions, support_label, support_reactions
+from app.report.restraints import REACTIONS_NOTE, all_reactions, support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
 from app.units import Units, units
 
@@ -68,12 +68,6 @@ def _general() -> str:
 
     return GENERAL.message
 
-
-#: How the reactions are written: the force and the couple each support exerts on the member, as drawn.
-REACTIONS_NOTE = (
-    "forces and couples the supports exert on the member, drawn with x to the right and +w downward; "
-    "they balance the loads"
-)
 
 _SYSTEM_NAMES = {"si": "SI (kN, m, mm, kN·m)", "us": "US customary (kip, ft, in, kip·ft)"}
 
