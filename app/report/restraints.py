@@ -67,11 +67,12 @@ class SupportReaction:
 
 
 def support_reactions(reactions, length: float, plane: int = 1) -> list[SupportReaction]:
-    """Every support's reaction of one plane: the left end, the restraints inside in order, the right end."""
+    """Every support's reaction of one plane in x order: the left end, the restraints inside (a case file may
+    list them in any order; ``index`` keeps each one's place), the right end."""
     out = [
         SupportReaction(where="left", x=0.0, force=reactions.left_T, couple=-reactions.left_M, plane=plane)
     ]
-    for inner in getattr(reactions, "intermediate", ()):
+    for inner in sorted(getattr(reactions, "intermediate", ()), key=lambda item: item.x):
         out.append(
             SupportReaction(
                 where="inner",

@@ -313,7 +313,7 @@ def reaction_rows(result, U: Units):
     couple −M(0) at the left end and +M(L) at the right one turns anticlockwise.
     """
     found = support_reactions(result.reactions, 0.0)
-    # The ends first, then the intermediate restraints (engine issue 16) in the case's order.
+    # The ends first, then the intermediate restraints (engine issue 16) in x order.
     return [
         (support_label(r, U), _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple))
         for r in [found[0], found[-1], *found[1:-1]]

@@ -214,3 +214,20 @@ def test_calc_sheet_of_a_plain_case_keeps_its_one_line_reactions():
     assert "left end (x = 0): 50.00 kN up, couple 0 kN·m; right end (x = L): 50.00 kN up" in " ".join(
         text.split()
     )
+
+
+def test_reactions_come_in_x_order_whatever_the_case_files_order():
+    from app.report.restraints import all_reactions, inner_reactions
+
+    mapping = {
+        **TWO_SPANS,
+        "restraints": [{"x": 6.0, "translation": 8.0e5}, {"x": 4.0, "translation": "fixed"}],
+    }
+    result = solved(mapping)
+    assert [r.x for r in all_reactions(result)] == [0.0, 4.0, 6.0, 8.0]
+    # Each keeps its place in the case's list, so the engine's reaction of that restraint is the one shown.
+    found = inner_reactions(result)
+    assert [(r.x, r.index) for r in found] == [(4.0, 1), (6.0, 0)]
+    by_index = {inner.index: inner for inner in result.reactions.intermediate}
+    for r in found:
+        assert r.force == -by_index[r.index].force
