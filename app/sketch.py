@@ -36,6 +36,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from app.report import has_bow, support_text
+from app.report.restraints import foundation_show, step_section_name
 from app.units import Units
 
 __all__ = [
@@ -231,7 +232,8 @@ def _member(out, result, L_si: float, f: float) -> None:
     cuts = [0.0, *(step.x for step in steps), L_si]
     stiffness = [own, *(step.EI for step in steps)]
     for a, b, EI in zip(cuts[:-1], cuts[1:], stiffness, strict=True):
-        ratio = EI / own if own > 0 and math.isfinite(EI / own) else 1.0
+        # A step by section carries no EI in the case: its line keeps the member's weight.
+        ratio = EI / own if EI is not None and own > 0 and math.isfinite(EI / own) else 1.0
         out.append(
             _line("member", [a * f, b * f], 0.0, width=float(np.clip(2.6 * ratio ** (1 / 3), 1.0, 6.0)))
         )
@@ -254,7 +256,7 @@ def _inner(out, result, U: Units, L_si: float) -> None:
         count = max(2, int(round(24 * (end - start) / L_si)))
         for x in np.linspace(a, b, count + 1)[:-1]:
             out.append(_line("hatch", [x, x], 0.0, [0.0, 0.06], [-0.13, -0.21], width=0.7))
-        said = f"foundation k = {U.show('stress', k)}" + (" (2nd plane)" if dashed else "")
+        said = f"foundation k = {foundation_show(U, k)}" + (" (2nd plane)" if dashed else "")
         out.append(Text("note", said, _pt(a, 0.0, 0.06, -0.23), va="top", size=6.0))
     for index, r in enumerate(getattr(case, "restraints", ())):
         x = r.x * f
@@ -281,9 +283,12 @@ def _inner(out, result, U: Units, L_si: float) -> None:
     for step in getattr(case, "steps", ()):
         x = step.x * f
         out.append(_line("support", [x, x], 0.0, 0.0, [-0.1, 0.1], width=0.8))
-        said = f"EI {U.show('stiffness', step.EI)}"
-        if own > 0:
-            said += f" ({step.EI / own:.3g}×)"
+        if step.EI is None:  # a step by section: named by its section
+            said = step_section_name(step)
+        else:
+            said = f"EI {U.show('stiffness', step.EI)}"
+            if own > 0:
+                said += f" ({step.EI / own:.3g}×)"
         out.append(Text("note", said, _pt(x, 0.0, 0.03, -0.24), va="top", size=6.0))
 
 

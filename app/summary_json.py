@@ -82,6 +82,11 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "governing": _governing_data(result.governing),
         "first_order": None if first is None else _governing_data(first.governing),
         "reactions": _reactions(result.reactions),
+        # Issue 16: the case's restraints, steps and foundation in the case file's form (SI); [] when none.
+        **{
+            key: [item.to_data() for item in getattr(case, key, ())]
+            for key in ("restraints", "steps", "foundation")
+        },
         "amplification": {
             "moment": _finite(amplification.moment),
             "deflection": _finite(amplification.deflection),
@@ -245,7 +250,8 @@ def _reactions(reactions) -> dict:
     inner = getattr(reactions, "intermediate", ())
     if inner:
         out["intermediate"] = [
-            {"x": r.x, "force": _finite(r.force), "couple": _finite(r.couple)} for r in inner
+            {"index": r.index, "x": r.x, "force": _finite(r.force), "couple": _finite(r.couple)}
+            for r in inner
         ]
     return out
 

@@ -168,6 +168,27 @@ COLUMNS: tuple[Column, ...] = (
         "with G, Q, S, W or T for permanent, imposed, snow, wind, temperature): en1990-6.10 (default), "
         "en1990-6.10ab or asce7-2.3.",
     ),
+    # Issue 16: restraints, steps in EI and an elastic foundation along the member (app/batch/inner.py holds
+    # the cell syntax; its SYNTAX is the description's source).
+    Column(
+        name="restraints",
+        required=False,
+        description="Supports, springs and hinges inside the member: "
+        "x:pinned|guided|fixed|kt=<kN/m>|kr=<kN·m/rad>|hinge[,...][@first|@second|@both] separated by ';' "
+        "(x in m), e.g. '2.0:pinned;4.0:kt=5000'. Empty: none.",
+    ),
+    Column(
+        name="steps",
+        required=False,
+        description="Steps in the bending stiffness, x:EI=<kN·m²> separated by ';' (x in m, increasing; a "
+        "row with EI_kNm2 and no section), e.g. '3.0:EI=2100'. Empty: none.",
+    ),
+    Column(
+        name="foundation",
+        required=False,
+        description="Elastic (Winkler) foundation ranges, start-end:k=<kN/m²>[@plane] separated by ';' "
+        "(start, end in m), e.g. '0-6:k=5000'. Empty: none.",
+    ),
     Column(name="comment", required=False, description="Free text, not read (it goes into the case title)."),
 )
 
@@ -228,6 +249,12 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("lambda_LT", None),
     ("chi_LT", None),
     ("utilization_ltb", None),
+    # Issue 16: the reactions of the restraints inside the member, as the supports exert them on the member
+    # (force positive up as drawn, against + w; couple anticlockwise positive as drawn): the largest force
+    # and where, and every restraint's force and couple (app.report.inner_reactions_cell).
+    ("R_inner_max", "force"),
+    ("x_R_inner", "length"),
+    ("inner_reactions", None),
 )
 
 #: The routes with result columns, in the order of the layout (engine.design.routes.ROUTES).
@@ -255,7 +282,8 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
         utilization_second_order, governing_second_order, utilization_en_member, governing_en_member,
         utilization_aisc, governing_aisc, second_plane_Pcr1_kN, second_plane_M_max_kNm, second_plane_V_max_kN,
         second_plane_w_max_mm, combination_rule, strength_combination, deflection_combination, ltb, M_cr_kNm,
-        M_cr_tabulated_kNm, lambda_LT, chi_LT, utilization_ltb`` in SI.
+        M_cr_tabulated_kNm, lambda_LT, chi_LT, utilization_ltb, R_inner_max_kN, x_R_inner_m,
+        inner_reactions`` in SI.
         ``utilization``
         is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
         bow).

@@ -24,6 +24,7 @@ from app.batch.columns import (
     RowError,
     TableError,
 )
+from app.batch.inner import inner_data
 
 # --------------------------------------------------------------------------------------------------------
 # Reading the table.
@@ -371,6 +372,14 @@ def member_case(row: Mapping[str, str]):
     second_columns: list[str] = []
     if any(cell(name) for name in SECOND_PLANE_COLUMNS):
         data["second_plane"], second_columns = _second_plane(cell)
+    inner = inner_data(cell)
+    if inner:
+        data.update(inner)
+        if "section" in data and "material" in data:
+            # The engine offers the member check with restraints, steps or a foundation by the second-order
+            # route alone (the equivalent-member routes need one buckling length between the ends); the
+            # table has no routes column, so a row with them is checked by that route.
+            data["check"] = {**data.get("check", {}), "routes": ["second-order"]}
     try:
         return engine.Case.from_dict(data)
     except engine.CaseError as error:

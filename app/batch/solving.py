@@ -116,6 +116,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         *_second_plane_cells(result, force, moment, small),
         *_combination_cells(result),
         *_ltb_cells(result, moment),
+        *_inner_cells(result, shown),
     ]
     wrote = False
     if options.pdf_dir is not None:
@@ -186,6 +187,22 @@ def _ltb_cells(result, moment: float) -> list[str]:
         _cell(ltb.lambda_LT),
         _cell(ltb.chi_LT),
         _cell(ltb.utilisation),
+    ]
+
+
+def _inner_cells(result, shown) -> list[str]:
+    """The restraints' reactions inside the member (app.report.restraints.inner_reactions): the largest
+    force (up as drawn) and its x, then every restraint's ``x:F=..,C=..``; all "" without restraints."""
+    from app.report.restraints import inner_reactions, inner_reactions_cell
+
+    found = inner_reactions(result)
+    if not found:
+        return ["", "", ""]
+    top = max(found, key=lambda r: abs(r.force))  # the first of equal ones
+    return [
+        _cell(top.force, shown.force.factor),
+        _cell(top.x, shown.length.factor),
+        inner_reactions_cell(found, shown, _cell),
     ]
 
 

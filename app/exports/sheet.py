@@ -13,6 +13,7 @@ from matplotlib.lines import Line2D
 from app.exports.figure import _pcr_text, sheet_figure
 from app.exports.layout import _Flow, _Measure
 from app.exports.sheet_ltb import ltb_items, ltb_mode_figure
+from app.exports.sheet_restraints import inner_input_items, reaction_items
 from app.exports.sheet_routes import combinations_items, routes_items, second_plane_items
 from app.exports.style import (
     _DANGER,
@@ -127,6 +128,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             item("Transverse loads" if i == 0 else "", load_text(load, case.length, U))
     else:
         item("Transverse loads", "none")
+    inner_input_items(item, result, U)
     item("Initial bow", bow_text(result, U))
     bow = result.bow
     if bow is not None and bow.source:
@@ -191,11 +193,12 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         flow.row(cells, widths)
     flow.space(3)
     second_plane_items(item, result, U)
-    item(
-        "Support reactions",
-        "; ".join(f"{end}: {force}, couple {couple}" for end, force, couple in reaction_rows(result, U)),
-    )
-    item("", REACTIONS_NOTE, scale=0.85, color=_GREY)
+    if not reaction_items(item, result, U):
+        item(
+            "Support reactions",
+            "; ".join(f"{end}: {force}, couple {couple}" for end, force, couple in reaction_rows(result, U)),
+        )
+        item("", REACTIONS_NOTE, scale=0.85, color=_GREY)
     amplification = result.amplification
     from engine.results import AMPLIFICATION_DEFINITIONS as words
 

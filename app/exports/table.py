@@ -11,6 +11,7 @@ from app.exports.style import _title, _units
 from app.report import bow_direction_text, csv_number, general_caution, status_text, system_name
 from app.report.combinations import metadata_rows
 from app.report.numbers import CSV_DIGITS
+from app.report.restraints import metadata_rows as restraint_rows
 from app.safe_text import csv_writer
 from app.units import Units
 
@@ -156,6 +157,7 @@ def _metadata(result, U: Units) -> list:
     if actions is not None:
         rows += metadata_rows(actions, result, U)
     rows += _ltb_rows(result, U)
+    rows += restraint_rows(result, U)
     if result.bow is not None and result.bow.direction_governing:
         rows.append(("bow direction", bow_direction_text(result.bow, U)))
     rows.append(

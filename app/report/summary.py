@@ -9,11 +9,21 @@ from app.report import routes as r
 from app.report import words as w
 from app.report.ltb import ltb_words
 from app.report.numbers import percent, position, ratio, scientific, utilisation
+from app.report.restraints import grouped_inner_rows, has_inner, reactions_note
 from app.report.route_names import governing_text
 from app.safe_text import terminal
 from app.units import units as display_units
 
 __all__ = ["format_summary"]
+
+
+#: The printed summary's labels of the restraints, steps and foundation groups (app.report.restraints).
+_INNER_LABELS = {
+    "Restraints inside": "restraints:",
+    "Steps in EI": "steps in EI:",
+    "Elastic foundation": "foundation:",
+    "": "",
+}
 
 
 def _case_lines(add, source, case, result, U) -> None:
@@ -41,6 +51,10 @@ def _case_lines(add, source, case, result, U) -> None:
             add(f"    {w.load_text(load, case.length, U)}")
     else:
         add("  loads:        none")
+    # Issue 16: restraints, steps in EI and foundation ranges inside the member, grouped.
+    for group, text in grouped_inner_rows(case, U):
+        label = _INNER_LABELS[group]
+        add(f"  {label:<14}{text}")
     add(f"  initial bow:  {w.bow_text(result, U)}")
     direction = w.bow_direction_text(result.bow, U)
     if direction:
@@ -78,8 +92,9 @@ def _results_lines(add, result, U) -> None:
         add(f"  {label:<22}{second_text:<30}{first_text}")
 
     add("")
-    add(f"Reactions ({w.REACTIONS_NOTE})")
-    rows = w.reaction_rows(result, U)
+    add(f"Reactions ({reactions_note(result.case)})")
+    # With restraints, steps or a foundation: every support in x order, both planes (issue 16).
+    rows = w.every_reaction_rows(result, U) if has_inner(result.case) else w.reaction_rows(result, U)
     width = max(19, *(len(end) + 2 for end, _, _ in rows))
     for end, force, couple in rows:
         add(f"  {end + ':':<{width}}force {force}, couple {couple}")

@@ -17,6 +17,7 @@ import re
 import numpy as np
 
 from app.report.numbers import finite, format_number, position, ratio
+from app.report.restraints import REACTIONS_NOTE, all_reactions, support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
 from app.units import Units, units
 
@@ -38,6 +39,7 @@ __all__ = [
     "out_of_plane_text",
     "peak_text",
     "reaction_rows",
+    "every_reaction_rows",
     "section_text",
     "service_text",
     "quoted_text",
@@ -66,12 +68,6 @@ def _general() -> str:
 
     return GENERAL.message
 
-
-#: How the reactions are written: the force and the couple each support exerts on the member, as drawn.
-REACTIONS_NOTE = (
-    "forces and couples the supports exert on the member, drawn with x to the right and +w downward; "
-    "they balance the loads"
-)
 
 _SYSTEM_NAMES = {"si": "SI (kN, m, mm, kN·m)", "us": "US customary (kip, ft, in, kip·ft)"}
 
@@ -316,20 +312,22 @@ def reaction_rows(result, U: Units):
     "Coordinates and signs"). Drawn with x to the right and +w downward, a force along −w points up; a
     couple −M(0) at the left end and +M(L) at the right one turns anticlockwise.
     """
-    r = result.reactions
-    rows = []
-    for end, force_along_w, couple_anticlockwise in (
-        ("left end (x = 0)", -r.left_T, -r.left_M),
-        ("right end (x = L)", r.right_T, r.right_M),
-    ):
-        force = _directed(U, "force", -force_along_w, "up", "down")
-        rows.append((end, force, _couple(U, couple_anticlockwise)))
-    # Intermediate restraints (engine issue 16): force along +w and couple C on the member; a couple C turns
-    # as the right end's +M(L) does with the opposite sign, so anticlockwise is -C.
-    for inner in getattr(r, "intermediate", ()):
-        where = f"restraint at x = {U.show('length', inner.x)}"
-        rows.append((where, _directed(U, "force", -inner.force, "up", "down"), _couple(U, -inner.couple)))
-    return rows
+    found = support_reactions(result.reactions, 0.0)
+    # The ends first, then the intermediate restraints (engine issue 16) in x order.
+    return [
+        (support_label(r, U), _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple))
+        for r in [found[0], found[-1], *found[1:-1]]
+    ]
+
+
+def every_reaction_rows(result, U: Units):
+    """(support, force text, couple text) at every support in x order, the ends and the restraints inside
+    (engine issue 16), the first plane's then the second's (each then named by its plane)."""
+    two = getattr(result, "second_plane", None) is not None
+    return [
+        (support_label(r, U, two), _directed(U, "force", r.force, "up", "down"), _couple(U, r.couple))
+        for r in all_reactions(result)
+    ]
 
 
 def _directed(U: Units, kind: str, value: float, positive: str, negative: str) -> str:

@@ -532,8 +532,8 @@ def test_route_and_second_plane_cells():
     assert float(shear) == pytest.approx(abs(result.governing.shear.value) / 1e3, rel=1e-12)
     assert float(deflection) == pytest.approx(abs(result.governing.deflection.value) * 1e3, rel=1e-12)
     columns = batch.result_columns("us")
-    assert columns[-9:-6] == ("combination_rule", "strength_combination", "deflection_combination")
-    assert columns[-20:-9] == (
+    assert columns[-12:-9] == ("combination_rule", "strength_combination", "deflection_combination")
+    assert columns[-23:-12] == (
         "headline_route",
         "utilization_second_order",
         "governing_second_order",

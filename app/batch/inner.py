@@ -1,0 +1,163 @@
+"""The members table's ``restraints``, ``steps`` and ``foundation`` cells (the case keys of engine issue 16).
+
+Each cell holds items separated by ``;``, in the table's input units (m, kN, like every other input
+column):
+
+- ``restraints``: ``x:what[,what...][@plane]``, ``x`` [m] strictly inside the member. ``what`` is ``pinned``
+  (translation fixed), ``guided`` (rotation fixed), ``fixed`` (both), ``kt=<kN/m>`` (a translational spring),
+  ``kr=<kN·m/rad>`` (a rotational spring) or ``hinge`` (a moment release); at most one translation and one
+  rotation per item. ``@plane`` is ``@first``, ``@second`` or ``@both`` (default both). Example:
+  ``2.0:pinned;4.0:kt=5000;3.0:hinge,pinned@first``.
+- ``steps``: ``x:EI=<kN·m²>``, the bending stiffness from x to the next step. Example: ``3.0:EI=2100``.
+- ``foundation``: ``start-end:k=<kN/m²>[@plane]``, a Winkler modulus k (force per length per deflection) from
+  start to end [m]. Example: ``0-6:k=5000``.
+
+:func:`inner_data` turns the cells into the case file's lists (SI); a cell that is not of these forms raises
+:class:`RowError` naming the column, the item and what is allowed. The engine's own checks (positions inside
+the member, a mechanism, ...) name ``restraints[1].x`` and so on; :func:`column_of_path` maps them back.
+"""
+
+from __future__ import annotations
+
+import re
+
+from app.batch.columns import _KILO, _NUMBER, RowError
+
+__all__ = ["INNER_COLUMNS", "SYNTAX", "column_of_path", "inner_data"]
+
+#: The three columns, in the case file's key order.
+INNER_COLUMNS = ("restraints", "steps", "foundation")
+
+#: What each column allows, as the error messages and the column descriptions say it.
+SYNTAX = {
+    "restraints": "items x:what[,what][@plane] separated by ';', x in m strictly inside the member; what is "
+    "pinned (translation fixed), guided (rotation fixed), fixed (both), kt=<kN/m> (translational spring), "
+    "kr=<kN·m/rad> (rotational spring) or hinge, at most one translation and one rotation each; plane "
+    "@first, @second or @both (default both); e.g. '2.0:pinned;4.0:kt=5000;3.0:hinge,pinned'",
+    "steps": "items x:EI=<kN·m²> separated by ';', x in m strictly inside the member, increasing; e.g. "
+    "'3.0:EI=2100'",
+    "foundation": "items start-end:k=<kN/m²>[@plane] separated by ';', start and end in m on the member, k "
+    "the modulus (force per length per deflection) > 0; plane @first, @second or @both (default both); "
+    "e.g. '0-6:k=5000'",
+}
+
+_UNSIGNED = r"(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?"
+_ITEM = re.compile(rf"\s*({_NUMBER})\s*:\s*(.*?)\s*(?:@\s*([A-Za-z]+)\s*)?")
+_RANGE_ITEM = re.compile(rf"\s*({_UNSIGNED})\s*-\s*({_UNSIGNED})\s*:\s*(.*?)\s*(?:@\s*([A-Za-z]+)\s*)?")
+_VALUE = re.compile(rf"\s*(kt|kr|EI|k)\s*=\s*({_NUMBER})\s*", re.IGNORECASE)
+_PLANES = ("first", "second", "both")
+#: The rigid restraints by name: (translation, rotation) they fix.
+_NAMED = {"pinned": ("fixed", None), "guided": (None, "fixed"), "fixed": ("fixed", "fixed")}
+
+
+def _refuse(column: str, item: str, why: str) -> RowError:
+    return RowError(column, f"{column}: {item.strip()!r} {why}; allowed: {SYNTAX[column]}")
+
+
+def _items(column: str, text: str) -> list[str]:
+    from engine.limits import MAX_LOADS
+
+    items = [item for item in text.split(";") if item.strip()]
+    if len(items) > MAX_LOADS:  # as many as a case's loads; the engine allows no more per list either
+        raise RowError(column, f"{column}: {len(items)} items given; at most {MAX_LOADS} are allowed")
+    return items
+
+
+def _plane(column: str, item: str, plane: str | None) -> str | None:
+    if plane is None:
+        return None
+    if plane.lower() not in _PLANES:
+        raise _refuse(column, item, f"names the plane {plane!r}")
+    return plane.lower()
+
+
+def _value(column: str, item: str, part: str, keys: tuple[str, ...]) -> float:
+    match = _VALUE.fullmatch(part)
+    if match is None or match.group(1).lower() not in [key.lower() for key in keys]:
+        raise _refuse(column, item, f"has {part.strip()!r}, which is not one of {', '.join(keys)}")
+    value = float(match.group(2))
+    name = match.group(1).lower()
+    # In the table's units, before the engine's own bounds (which it words in SI): a spring of 0 is free.
+    if value < 0.0 or (value == 0.0 and name in ("ei", "k")):
+        least = ">= 0" if name in ("kt", "kr") else "> 0"
+        raise _refuse(column, item, f"gives {match.group(1)} = {match.group(2)}, which must be {least}")
+    return value
+
+
+def _restraint(item: str) -> dict:
+    column = "restraints"
+    match = _ITEM.fullmatch(item)
+    if match is None:
+        raise _refuse(column, item, "is not a restraint")
+    data: dict = {"x": float(match.group(1))}
+    parts = [part.strip() for part in match.group(2).split(",")]
+    if not any(parts):
+        raise _refuse(column, item, "says nothing after the colon")
+    for part in parts:
+        key = part.lower()
+        if key == "hinge":
+            if data.get("hinge"):
+                raise _refuse(column, item, "gives the hinge twice")
+            data["hinge"] = True
+            continue
+        if key in _NAMED:
+            given = dict(zip(("translation", "rotation"), _NAMED[key], strict=True))
+        else:
+            value = _value(column, item, part, ("pinned", "guided", "fixed", "kt", "kr", "hinge"))
+            name = part.split("=")[0].strip().lower()
+            # Springs in the table's units: kN/m and kN·m/rad.
+            given = {"translation": value * _KILO} if name == "kt" else {"rotation": value * _KILO}
+        for what, restraint in given.items():
+            if restraint is None:
+                continue
+            if what in data:
+                raise _refuse(column, item, f"gives the {what} twice (one translation, one rotation)")
+            data[what] = restraint
+    plane = _plane(column, item, match.group(3))
+    if plane is not None:
+        data["plane"] = plane
+    return data
+
+
+def _step(item: str) -> dict:
+    match = _ITEM.fullmatch(item)
+    if match is None or match.group(3) is not None:
+        raise _refuse("steps", item, "is not a step")
+    return {"x": float(match.group(1)), "EI": _value("steps", item, match.group(2), ("EI",)) * _KILO}
+
+
+def _foundation(item: str) -> dict:
+    match = _RANGE_ITEM.fullmatch(item)
+    if match is None:
+        raise _refuse("foundation", item, "is not a foundation range")
+    data = {
+        "start": float(match.group(1)),
+        "end": float(match.group(2)),
+        "k": _value("foundation", item, match.group(3), ("k",)) * _KILO,  # kN/m² -> N/m²
+    }
+    plane = _plane("foundation", item, match.group(4))
+    if plane is not None:
+        data["plane"] = plane
+    return data
+
+
+_READERS = {"restraints": _restraint, "steps": _step, "foundation": _foundation}
+
+
+def inner_data(cell) -> dict:
+    """The case file's ``restraints``, ``steps`` and ``foundation`` (SI) from a row's cells (those filled).
+
+    ``cell(name)`` returns a column's stripped text. Raises :class:`RowError` naming the column, the item
+    and what is allowed.
+    """
+    data = {}
+    for column in INNER_COLUMNS:
+        text = cell(column)
+        if text:
+            data[column] = [_READERS[column](item) for item in _items(column, text)]
+    return data
+
+
+def column_of_path(head: str) -> str | None:
+    """The column behind an engine error whose path starts with ``head`` (``restraints`` ...), else None."""
+    return head if head in INNER_COLUMNS else None
