@@ -271,3 +271,28 @@ def test_a_combination_above_the_critical_load_governs_without_a_section():
     assert statuses["U1"] == "unstable" and statuses["U2"] == "stable"
     assert result.actions.headline == "U1" and result.status == "unstable"
     assert result.actions.governing_for("moment").value == math.inf
+
+
+def test_shared_work_leaves_every_combination_as_its_own_fresh_solve():
+    """The 12 combinations of the speed benchmark's case (what they share kept: critical loads, models, the
+    M_cr meshes) give, bit for bit, what each combination's plain case gives solved alone from empty
+    caches: the diagrams, the utilisation, every route and the LTB check's M_cr."""
+    from tests.benchmarks.combinations_speed import twelve
+
+    engine.clear_caches()
+    result = engine.solve(twelve())
+    engine.solve(twelve())  # warm: everything kept is used
+    again = engine.solve(twelve())
+    assert len(again.actions.combinations) == 12
+    for item in again.actions.combinations:
+        engine.clear_caches()
+        alone = analysis.solve(item.case)
+        for name in FIELDS:
+            assert np.array_equal(getattr(item.result, name), getattr(alone, name)), (item.name, name)
+        assert item.result.utilization == alone.utilization, item.name
+        assert [(r.route, r.utilization) for r in item.result.routes] == [
+            (r.route, r.utilization) for r in alone.routes
+        ], item.name
+        if alone.ltb is not None:
+            assert item.result.ltb.M_cr == alone.ltb.M_cr, item.name
+    assert result.actions.governing == again.actions.governing
