@@ -65,6 +65,20 @@ def action_properties(max_loads: int) -> dict[str, Any]:
                 "maxItems": max_loads,
                 "description": "The action's transverse loads (the forms of 'loads'). Default none.",
             },
+            "second_plane": _closed(
+                {
+                    "loads": {
+                        "type": "array",
+                        "items": {"$ref": "#/$defs/load"},
+                        "maxItems": max_loads,
+                        "description": "The action's transverse loads in the second plane (the forms of "
+                        "'loads').",
+                    }
+                },
+                ("loads",),
+                description="Only in a case with second_plane: the action's loads in that plane (the case's "
+                "second_plane.loads must then be empty). Left out: the action loads the first plane only.",
+            ),
             "psi": {
                 "type": "array",
                 "items": {"type": "number", "minimum": 0, "maximum": 1},

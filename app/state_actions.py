@@ -85,13 +85,20 @@ def scaled_action(action: Mapping, factor: float, mode: str) -> dict:
 
     if "axial_force" in data:
         data["axial_force"] = times(data["axial_force"])
-    if mode == "factor" and isinstance(data.get("loads"), list):
-        data["loads"] = [
+
+    def scaled_loads(loads):
+        return [
             {key: times(value) if key in _MAGNITUDES else value for key, value in load.items()}
             if isinstance(load, Mapping)
             else load
-            for load in data["loads"]
+            for load in loads
         ]
+
+    if mode == "factor" and isinstance(data.get("loads"), list):
+        data["loads"] = scaled_loads(data["loads"])
+    plane = data.get("second_plane")  # the action's loads in the second plane, scaled alike
+    if mode == "factor" and isinstance(plane, Mapping) and isinstance(plane.get("loads"), list):
+        data["second_plane"] = {**plane, "loads": scaled_loads(plane["loads"])}
     return data
 
 

@@ -10,7 +10,7 @@ import math
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 3
+SUMMARY_VERSION = 4
 
 
 def _finite(value) -> float | None:
@@ -197,6 +197,7 @@ def _combinations_data(actions) -> dict | None:
                 "max_moment": _finite(r.governing.moment.magnitude),
                 "deflection_utilization": None if r.service is None else _finite(r.service.utilization),
                 "bow_reversed": item.bow_reversed,
+                "second_bow_reversed": item.second_bow_reversed,
             }
         )
     return {
@@ -204,7 +205,13 @@ def _combinations_data(actions) -> dict | None:
         "headline": actions.headline,
         "combinations": rows,
         "governing": [
-            {"check": g.check, "combination": g.combination, "state": g.state, "value": _finite(g.value)}
+            {
+                "check": g.check,
+                "combination": g.combination,
+                "state": g.state,
+                "value": _finite(g.value),
+                "plane": g.plane,
+            }
             for g in actions.governing
         ],
     }

@@ -33,6 +33,7 @@ from engine.validate import check_keys, choice, expect_mapping, flag, quoted, re
 
 __all__ = [
     "ACTION_KEYS",
+    "ACTION_PLANE_KEYS",
     "COMBINATION_KEYS",
     "KNOWN_CATEGORIES",
     "MAX_ACTIONS",
@@ -63,7 +64,10 @@ SERVICE_KINDS = ("characteristic", "frequent", "quasi-permanent")
 #: ASCE 7 load symbols a user-named category may stand for.
 ASCE_SYMBOLS = ("D", "L", "Lr", "S", "R", "W")
 STATES = ("ultimate", "service")
-ACTION_KEYS = ("name", "category", "axial_force", "loads", "psi", "exclusive", "asce")
+ACTION_KEYS = ("name", "category", "axial_force", "loads", "second_plane", "psi", "exclusive", "asce")
+#: The keys of an action's ``second_plane``: its loads in the case's second plane (supports, bow and EI are
+#: the case's ``second_plane``'s).
+ACTION_PLANE_KEYS = ("loads",)
 COMBINATION_KEYS = ("rule", "service", "table", "service_bow")
 _TABLE_KEYS = ("name", "state", "factors")
 MAX_ACTIONS = 12
@@ -96,6 +100,9 @@ class Action:
         Its own axial force [N], compression positive, |N| <= 1e12.
     loads : tuple of load objects
         Its transverse loads (the forms of the case's ``loads``), positions on the member.
+    second_loads : tuple of load objects or None
+        Its transverse loads in the case's second plane (the action's ``second_plane.loads``); None when the
+        action gives no ``second_plane`` (then it loads the first plane only). Only in a two-plane case.
     psi : tuple of three floats or None
         ψ0, ψ1, ψ2 in 0–1: required for a user's category, optional otherwise (it then replaces the table's).
     exclusive : str or None
@@ -109,6 +116,7 @@ class Action:
     category: str
     axial_force: float = 0.0
     loads: tuple = ()
+    second_loads: tuple | None = None
     psi: tuple | None = None
     exclusive: str | None = None
     asce: str | None = None
@@ -124,6 +132,8 @@ class Action:
             "axial_force": self.axial_force,
             "loads": [load_to_data(load) for load in self.loads],
         }
+        if self.second_loads is not None:
+            data["second_plane"] = {"loads": [load_to_data(load) for load in self.second_loads]}
         for key in ("psi", "exclusive", "asce"):
             value = getattr(self, key)
             if value is not None:
@@ -131,7 +141,31 @@ class Action:
         return data
 
 
-def _action(path: str, data: Any, length: float) -> Action:
+def _loads(path: str, raw_loads: Any, length: float) -> tuple:
+    """A list of load objects read and placed on the member, every error naming ``path``."""
+    if isinstance(raw_loads, (str, bytes)) or not isinstance(raw_loads, (list, tuple)):
+        raise CaseError(f"{path}: {show(raw_loads)} is not a list of load objects")
+    limits.check_load_count(len(raw_loads))
+    loads = tuple(load_from_data(f"{path}[{i}]", item) for i, item in enumerate(raw_loads))
+    with within(path.rsplit(".", 1)[0]):
+        return tuple(placed_load(i, load, length) for i, load in enumerate(loads))
+
+
+def _second_loads(path: str, data: Any, length: float, two_planes: bool) -> tuple | None:
+    """An action's ``second_plane`` (its loads in the case's second plane), None where it gives none."""
+    if data is None:
+        return None
+    if not two_planes:
+        raise CaseError(
+            f"{path}: {show(data)} is not allowed: the case has no second_plane; give the case's "
+            "second_plane (its supports) to load the second plane, or leave this key out"
+        )
+    data = expect_mapping(path, data, '{"loads": [...]} (the loads of this action in the second plane)')
+    check_keys(path, data, ACTION_PLANE_KEYS, ("loads",))
+    return _loads(f"{path}.loads", data["loads"], length)
+
+
+def _action(path: str, data: Any, length: float, two_planes: bool = False) -> Action:
     data = expect_mapping(path, data, 'an action such as {"name": "G", "category": "permanent", "loads": []}')
     check_keys(path, data, ACTION_KEYS, ("name", "category"))
     name = _name(f"{path}.name", data["name"])
@@ -142,13 +176,8 @@ def _action(path: str, data: Any, length: float) -> Action:
             "or a name of your own (1 to 24 letters, digits or _ . + -) with psi given"
         )
     axial = real(f"{path}.axial_force", data.get("axial_force", 0.0), "N", magnitude=_MAX_AXIAL_FORCE)
-    raw_loads = data.get("loads", [])
-    if isinstance(raw_loads, (str, bytes)) or not isinstance(raw_loads, (list, tuple)):
-        raise CaseError(f"{path}.loads: {show(raw_loads)} is not a list of load objects")
-    limits.check_load_count(len(raw_loads))
-    loads = tuple(load_from_data(f"{path}.loads[{i}]", item) for i, item in enumerate(raw_loads))
-    with within(path):
-        loads = tuple(placed_load(i, load, length) for i, load in enumerate(loads))
+    loads = _loads(f"{path}.loads", data.get("loads", []), length)
+    second = _second_loads(f"{path}.second_plane", data.get("second_plane"), length, two_planes)
     psi = data.get("psi")
     if category == "permanent" and psi is not None:
         raise CaseError(f"{path}.psi: {show(psi)} is not allowed for a permanent action (no psi)")
@@ -168,7 +197,14 @@ def _action(path: str, data: Any, length: float) -> Action:
     if asce is not None:
         choice(f"{path}.asce", asce, ASCE_SYMBOLS, "an ASCE 7 load symbol")
     return Action(
-        name=name, category=category, axial_force=axial, loads=loads, psi=psi, exclusive=exclusive, asce=asce
+        name=name,
+        category=category,
+        axial_force=axial,
+        loads=loads,
+        second_loads=second,
+        psi=psi,
+        exclusive=exclusive,
+        asce=asce,
     )
 
 
@@ -272,20 +308,21 @@ def _settings(data: Any, names: tuple) -> CombinationSettings:
 
 
 def actions_from_data(
-    raw_actions: Any, raw_settings: Any, length: float
+    raw_actions: Any, raw_settings: Any, length: float, two_planes: bool = False
 ) -> tuple[tuple, CombinationSettings]:
-    """Validate the ``actions`` list and the ``combinations`` settings of a case of this length."""
+    """Validate the ``actions`` list and the ``combinations`` settings of a case of this length
+    (``two_planes``: the case has a ``second_plane``, so an action may load it)."""
     if isinstance(raw_actions, (str, bytes)) or not isinstance(raw_actions, (list, tuple)):
         raise CaseError(f"actions: {show(raw_actions)} is not a list of actions")
     if not 1 <= len(raw_actions) <= MAX_ACTIONS:
         raise CaseError(f"actions: {len(raw_actions)} actions given; 1 to {MAX_ACTIONS} are allowed")
     actions = tuple(item.to_data() if isinstance(item, Action) else item for item in raw_actions)
-    actions = tuple(_action(f"actions[{i}]", item, length) for i, item in enumerate(actions))
+    actions = tuple(_action(f"actions[{i}]", item, length, two_planes) for i, item in enumerate(actions))
     names = tuple(action.name for action in actions)
     for i, name in enumerate(names):
         if name in names[:i]:
             raise CaseError(f"actions[{i}].name: {name!r} is given twice; action names must differ")
-    everything = tuple(load for action in actions for load in action.loads)
+    everything = tuple(load for action in actions for load in action.loads + (action.second_loads or ()))
     limits.check_work(length, everything)
     settings = _settings({} if raw_settings is None else raw_settings, names)
     if settings.rule == "asce7-2.3":
@@ -302,8 +339,12 @@ def case_actions(case) -> tuple[tuple, CombinationSettings]:
     """The validated actions and settings; with actions the case's own loads and axial force are empty."""
     if case.actions is None:
         raise CaseError("combinations: given without actions; give the case's load cases in 'actions'")
-    if case.second_plane is not None:
-        raise CaseError("actions: not available with second_plane yet; give one bending plane")
+    if case.second_plane is not None and case.second_plane.loads:
+        raise CaseError(
+            f"second_plane.loads: {len(case.second_plane.loads)} loads given beside actions; with actions "
+            "every load belongs to an action (actions[i].second_plane.loads in the second plane), so "
+            "second_plane.loads must be empty"
+        )
     if case.loads:
         raise CaseError(
             f"loads: {len(case.loads)} loads given beside actions; with actions every load belongs to an "
@@ -314,7 +355,9 @@ def case_actions(case) -> tuple[tuple, CombinationSettings]:
             f"axial_force: {case.axial_force!r} N given beside actions; with actions each action has its "
             "own axial force (actions[i].axial_force), so axial_force must be 0"
         )
-    actions, settings = actions_from_data(case.actions, case.combinations, case.length)
+    actions, settings = actions_from_data(
+        case.actions, case.combinations, case.length, case.second_plane is not None
+    )
     combine(actions, settings)  # the count and the ASCE 7 symbols are checked with the case, not at its solve
     return actions, settings
 

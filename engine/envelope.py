@@ -44,28 +44,53 @@ __all__ = [
 ]
 
 
-def combination_case(case, combination: Combination, *, bow_sign: float = 1.0):
-    """The plain case of one combination: factored loads summed, factored axial forces summed.
+def _combination_bow(bow, state: str, service_bow: bool, sign: float):
+    """A plane's bow in a combination: none in a service one (unless ``service_bow``), a preset tried both
+    ways, a bow given by shape and amplitude reversed for ``sign`` -1."""
+    if state == "service" and not service_bow:
+        return Imperfection()
+    if bow.preset is not None and bow.direction != "load":
+        return dataclasses.replace(bow, direction="load")
+    if sign < 0 and bow.preset is None:
+        return dataclasses.replace(bow, amplitude=-bow.amplitude)
+    return bow
+
+
+def _shaped(bow) -> bool:
+    """True for a bow given by shape and amplitude (not a preset, not zero): solved both ways."""
+    return bow is not None and bow.preset is None and bow.shape != "none" and bow.amplitude != 0.0
+
+
+def combination_case(case, combination: Combination, *, bow_sign: float = 1.0, second_bow_sign: float = 1.0):
+    """The plain case of one combination: factored loads summed, factored axial forces summed, in each plane.
 
     A factor of 1 leaves a load object as it is, so a one-action case under a factor of 1 is the plain case it
-    was made from. ``bow_sign`` -1 reverses a bow given by shape and amplitude.
+    was made from. ``bow_sign`` -1 reverses a bow given by shape and amplitude; ``second_bow_sign`` the
+    second plane's. In a two-plane case each action's ``second_loads`` go to the second plane.
     """
-    loads, axial = [], 0.0
+    loads, second, axial = [], [], 0.0
     for action, factor in zip(case.actions, combination.factors, strict=True):
         if factor == 0.0:
             continue
         axial += factor * action.axial_force
         loads.extend(scaled(load, factor) for load in action.loads)
-    bow = case.imperfection
-    if combination.state == "service" and not case.combinations.service_bow:
-        bow = Imperfection()
-    elif bow.preset is not None and bow.direction != "load":
-        bow = dataclasses.replace(bow, direction="load")
-    elif bow_sign < 0 and bow.preset is None:
-        bow = dataclasses.replace(bow, amplitude=-bow.amplitude)
-    return dataclasses.replace(
-        case, actions=None, combinations=None, loads=tuple(loads), axial_force=axial, imperfection=bow
-    )
+        second.extend(scaled(load, factor) for load in action.second_loads or ())
+    state, service_bow = combination.state, case.combinations.service_bow
+    changes = {
+        "actions": None,
+        "combinations": None,
+        "loads": tuple(loads),
+        "axial_force": axial,
+        "imperfection": _combination_bow(case.imperfection, state, service_bow, bow_sign),
+    }
+    plane = case.second_plane
+    if plane is not None:
+        bow = plane.imperfection
+        if bow is not None or (state == "service" and not service_bow):
+            bow = _combination_bow(bow or Imperfection(), state, service_bow, second_bow_sign)
+        # None stays None: the default bow, a preset whose direction is automatic (tried both ways).
+        changes["second_plane"] = dataclasses.replace(plane, loads=tuple(second), imperfection=bow)
+    return dataclasses.replace(case, **changes)
 
 
 @dataclass(frozen=True, kw_only=True, eq=False)
@@ -73,13 +98,14 @@ class CombinationResult:
     """One combination solved: its factors, its derived case and the engine's result of it.
 
     ``bow_reversed`` is True where the case's bow (given by shape and amplitude) was reversed because that
-    way gave the larger utilisation (or |M|).
+    way gave the larger utilisation (or |M|); ``second_bow_reversed`` the same for the second plane's bow.
     """
 
     combination: Combination
     case: object
     result: object
     bow_reversed: bool = False
+    second_bow_reversed: bool = False
 
     @property
     def name(self) -> str:
@@ -94,7 +120,9 @@ class GoverningCombination:
     ``"out-of-plane"``, ``"shear"``, ``"route:<route>"``, ``"moment"`` (max|M|, no section needed),
     ``"deflection"`` (the service check; max|w| of the service combinations without a section).
     ``value`` is the utilisation [-], or for ``"moment"`` |M| [N·m] and for a deflection without a section
-    |w| [m] (``unit`` says which: ``""``, ``"N·m"`` or ``"m"``).
+    |w| [m] (``unit`` says which: ``""``, ``"N·m"`` or ``"m"``). ``plane`` is 2 for the second plane's
+    ``"moment"`` and ``"deflection"`` in a two-plane case, else 1 (the member checks of a two-plane case,
+    strength, in-plane, shear and routes, take both planes together and are listed with plane 1).
     """
 
     check: str
@@ -102,6 +130,7 @@ class GoverningCombination:
     state: str
     value: float
     unit: str = ""
+    plane: int = 1
 
 
 @dataclass(frozen=True, kw_only=True, eq=False)
@@ -112,7 +141,7 @@ class Envelope:
     each combination is read at these points exactly at its own stations and linearly between them, so the
     extremes of the envelope are the combinations' exact extremes. ``peaks`` maps ``"moment_max"``,
     ``"moment_min"``, ``"shear_max"``, ``"shear_min"``, ``"deflection_max"``, ``"deflection_min"`` to
-    ``(value, x, combination name)``.
+    ``(value, x, combination name)``. ``plane`` 2: the second plane's fields (``result.second_plane``).
     """
 
     state: str
@@ -125,6 +154,7 @@ class Envelope:
     deflection_max: np.ndarray
     deflection_min: np.ndarray
     peaks: dict
+    plane: int = 1
 
 
 def read_at(xc, fc, q, right):
@@ -137,11 +167,17 @@ def read_at(xc, fc, q, right):
     return fc[i - 1] + t * (fc[i] - fc[i - 1])
 
 
-def envelope(state: str, solved) -> Envelope | None:
-    """The envelope of the solved combinations (:class:`CombinationResult`) of one limit state."""
+def _plane(result, plane: int):
+    """The first plane's result (the result itself) or the second plane's."""
+    return result if plane == 1 else result.second_plane
+
+
+def envelope(state: str, solved, plane: int = 1) -> Envelope | None:
+    """The envelope of the solved combinations (:class:`CombinationResult`) of one limit state, in the first
+    plane or (``plane`` 2) the second."""
     if not solved:
         return None
-    xs = [item.result.x for item in solved]
+    xs = [_plane(item.result, plane).x for item in solved]
     allx = np.unique(np.concatenate(xs))
     jumps = np.unique(np.concatenate([x[1:][np.diff(x) == 0.0] for x in xs]))
     x = np.sort(np.concatenate((allx, jumps)), kind="stable")
@@ -153,7 +189,8 @@ def envelope(state: str, solved) -> Envelope | None:
     rows = np.empty((3, len(solved), x.size))
     peaks = {}
     for k, item in enumerate(solved):
-        r, xc = item.result, item.result.x
+        r = _plane(item.result, plane)
+        xc = r.x
         stack = np.stack((r.moment, r.shear, r.deflection))
         # Where each point falls among this combination's stations: one search per side for all three fields.
         i = np.searchsorted(xc, x, side="left")
@@ -175,7 +212,8 @@ def envelope(state: str, solved) -> Envelope | None:
     fields = {}
     for f, name in enumerate(names):
         fields[f"{name}_max"], fields[f"{name}_min"] = highs[f], lows[f]
-    return Envelope(state=state, names=tuple(item.name for item in solved), x=x, peaks=peaks, **fields)
+    names = tuple(item.name for item in solved)
+    return Envelope(state=state, names=names, x=x, peaks=peaks, plane=plane, **fields)
 
 
 def _strength(result) -> float:
@@ -185,24 +223,39 @@ def _strength(result) -> float:
     return -1.0 if result.utilization is None else float(result.utilization)
 
 
+def _rank(result) -> tuple:
+    """What makes a result worse, in order: the strength utilisation, max|M|, the second plane's max|M|."""
+    second = result.second_plane
+    return (
+        _strength(result),
+        result.governing.moment.magnitude,
+        0.0 if second is None else second.governing.moment.magnitude,
+    )
+
+
 def _worse(a, b) -> bool:
-    """True when result ``b`` is worse than ``a``: larger utilisation, else larger max|M|."""
-    sa, sb = _strength(a), _strength(b)
-    if sa != sb:
-        return sb > sa
-    return b.governing.moment.magnitude > a.governing.moment.magnitude
+    """True when result ``b`` is worse than ``a``: larger utilisation, else larger max|M| (first plane, then
+    the second)."""
+    return _rank(b) > _rank(a)
 
 
 def _solve_ultimate(plan, combination, stations) -> CombinationResult:
-    derived, prep, other_case, other_prep = plan
+    derived, prep, others = plan
     result = analysis._solve(derived, prep, stations)
-    if other_case is not None and derived.axial_force != 0.0:
+    kept = CombinationResult(combination=combination, case=derived, result=result)
+    if derived.axial_force == 0.0:
+        return kept
+    for other_case, other_prep, (first, second) in others:
         other = analysis._solve(other_case, other_prep, stations)
-        if _worse(result, other):
-            return CombinationResult(
-                combination=combination, case=other_case, result=other, bow_reversed=True
+        if _worse(kept.result, other):
+            kept = CombinationResult(
+                combination=combination,
+                case=other_case,
+                result=other,
+                bow_reversed=first,
+                second_bow_reversed=second,
             )
-    return CombinationResult(combination=combination, case=derived, result=result)
+    return kept
 
 
 # The combinations of a case and their derived cases with their prepared members, kept per case (the page
@@ -212,6 +265,14 @@ _PLAN_CACHE_SIZE = 8
 _LAST: list = [None, None]
 
 
+def _reversals(case) -> tuple:
+    """The (first, second) plane bow reversals to try beside none: each plane whose bow is shaped."""
+    first = _shaped(case.imperfection)
+    second = case.second_plane is not None and _shaped(case.second_plane.imperfection)
+    signs = [(a, b) for a in (False, True) for b in (False, True) if (a <= first and b <= second)]
+    return tuple(signs[1:])
+
+
 def _plan(case) -> tuple:
     if _LAST[0] is case:
         return _LAST[1]
@@ -219,14 +280,20 @@ def _plan(case) -> tuple:
     if plan is None:
         combos = combine(case.actions, case.combinations)
         rows = []
-        bow = case.imperfection
-        shaped = bow.preset is None and bow.shape != "none" and bow.amplitude != 0.0
+        reversals = _reversals(case)
         for combination in combos:
             derived = combination_case(case, combination)
-            other = None
-            if shaped and combination.state == "ultimate":
-                other = combination_case(case, combination, bow_sign=-1.0)
-            rows.append((derived, prepare(derived), other, None if other is None else prepare(other)))
+            others = []
+            if combination.state == "ultimate":
+                for first, second in reversals:
+                    other = combination_case(
+                        case,
+                        combination,
+                        bow_sign=-1.0 if first else 1.0,
+                        second_bow_sign=-1.0 if second else 1.0,
+                    )
+                    others.append((other, prepare(other), (first, second)))
+            rows.append((derived, prepare(derived), tuple(others)))
         plan = (combos, tuple(rows))
         if len(_PLANS) >= _PLAN_CACHE_SIZE:
             _PLANS.pop(next(iter(_PLANS)))
@@ -256,10 +323,29 @@ def _service_with_bow(result):
     return dataclasses.replace(result, service=service)
 
 
+_SERVICE_BASIS = "second order at the combination's axial force, on its factored loads, without the bow"
+
+
+def _service_result(result, service_bow: bool):
+    """A service combination's result with its deflection check's basis (each plane's in a two-plane case)."""
+
+    def one(r):
+        if service_bow:
+            return _service_with_bow(r)
+        if r.service is None:
+            return r
+        return dataclasses.replace(r, service=dataclasses.replace(r.service, basis=_SERVICE_BASIS))
+
+    result = one(result)
+    if result.second_plane is not None:
+        result = dataclasses.replace(result, second_plane=one(result.second_plane))
+    return result
+
+
 def _governing(ultimate, service) -> tuple:
     rows = []
 
-    def best(check, state, items, value_of, unit=""):
+    def best(check, state, items, value_of, unit="", plane=1):
         found = None
         for item in items:
             value = value_of(item.result)
@@ -270,7 +356,7 @@ def _governing(ultimate, service) -> tuple:
         if found is not None:
             rows.append(
                 GoverningCombination(
-                    check=check, combination=found[0], state=state, value=found[1], unit=unit
+                    check=check, combination=found[0], state=state, value=found[1], unit=unit, plane=plane
                 )
             )
 
@@ -298,11 +384,21 @@ def _governing(ultimate, service) -> tuple:
             return None
 
         best(f"route:{route}", "ultimate", ultimate, of)
-    best("moment", "ultimate", ultimate, critical_or(lambda r: r.governing.moment.magnitude), "N·m")
-    if any(item.result.service is not None for item in service):
-        best("deflection", "service", service, critical_or(lambda r: r.service and r.service.utilization))
-    else:
-        best("deflection", "service", service, critical_or(lambda r: r.governing.deflection.magnitude), "m")
+    planes = (
+        (1, 2) if ultimate + service and (ultimate + service)[0].result.second_plane is not None else (1,)
+    )
+    for plane in planes:
+
+        def at(value, plane=plane):  # the member's status, the plane's value
+            return critical_or(lambda r: value(_plane(r, plane)))
+
+        best("moment", "ultimate", ultimate, at(lambda r: r.governing.moment.magnitude), "N·m", plane)
+        if any(_plane(item.result, plane).service is not None for item in service):
+            best(
+                "deflection", "service", service, at(lambda r: r.service and r.service.utilization), "", plane
+            )
+        else:
+            best("deflection", "service", service, at(lambda r: r.governing.deflection.magnitude), "m", plane)
     return tuple(rows)
 
 
@@ -319,6 +415,9 @@ class ActionsResult:
     combinations : tuple of CombinationResult
         Ultimate ones first, then service ones, then the user's table, as :func:`engine.combinations.combine`.
     ultimate, service : Envelope or None
+        The first plane's envelopes.
+    second_ultimate, second_service : Envelope or None
+        The second plane's (``plane`` 2) in a two-plane case, else None.
     governing : tuple of GoverningCombination
     headline : str
         The ultimate combination whose result is the headline (the largest strength utilisation, or the
@@ -333,6 +432,8 @@ class ActionsResult:
     governing: tuple
     headline: str | None
     stations: int = 401
+    second_ultimate: Envelope | None = None
+    second_service: Envelope | None = None
 
     def of(self, name: str) -> CombinationResult:
         """The solved combination of this name (a KeyError names the known ones)."""
@@ -343,9 +444,10 @@ class ActionsResult:
             f"{name!r} is not a combination; known: {', '.join(c.name for c in self.combinations)}"
         )
 
-    def governing_for(self, check: str) -> GoverningCombination | None:
+    def governing_for(self, check: str, plane: int = 1) -> GoverningCombination | None:
+        """The row of this check (and plane: 2 for the second plane's moment and deflection)."""
         for row in self.governing:
-            if row.check == check:
+            if row.check == check and row.plane == plane:
                 return row
         return None
 
@@ -367,17 +469,11 @@ def solve(case, stations: int = 401):
             ultimate.append(_solve_ultimate(plan, combination, n))
         else:
             derived, prep = plan[:2]
-            result = analysis._solve(derived, prep, n)
-            if case.combinations.service_bow:
-                result = _service_with_bow(result)
-            elif result.service is not None:
-                basis = (
-                    "second order at the combination's axial force, on its factored loads, without the bow"
-                )
-                result = dataclasses.replace(result, service=dataclasses.replace(result.service, basis=basis))
+            result = _service_result(analysis._solve(derived, prep, n), case.combinations.service_bow)
             service.append(CombinationResult(combination=combination, case=derived, result=result))
     governing = _governing(ultimate, service)
-    rows = {row.check: row for row in governing}
+    rows = {row.check: row for row in governing if row.plane == 1}
+    second_rows = {row.check: row for row in governing if row.plane == 2}
     head_row = rows.get("strength") or rows.get("moment")
     by_name = {item.name: item for item in ultimate + service}
     actions = ActionsResult(
@@ -389,6 +485,8 @@ def solve(case, stations: int = 401):
         governing=governing,
         headline=None if head_row is None else head_row.combination,
         stations=n,
+        second_ultimate=envelope("ultimate", ultimate, 2) if second_rows else None,
+        second_service=envelope("service", service, 2) if second_rows else None,
     )
     deflection = rows.get("deflection")
     if head_row is None:  # service combinations only: the governing one is shown
@@ -399,7 +497,18 @@ def solve(case, stations: int = 401):
     if deflection is not None and deflection.unit == "":
         serving = by_name[deflection.combination].result
         service_check = serving.service
-    cautions = _cautions(chosen, ultimate, serving, deflection and deflection.combination)
+    servings = [(serving, deflection and deflection.combination, 1)]
+    if second_rows:  # the second plane's deflection check from its own governing service combination
+        second = second_rows.get("deflection")
+        serving_two = None
+        if second is not None and second.unit == "":
+            serving_two = by_name[second.combination].result
+        servings.append((serving_two, second and second.combination, 2))
+        second_plane = dataclasses.replace(
+            chosen.second_plane, service=None if serving_two is None else serving_two.second_plane.service
+        )
+        chosen = dataclasses.replace(chosen, second_plane=second_plane)
+    cautions = _cautions(chosen, ultimate, servings)
     return dataclasses.replace(chosen, service=service_check, actions=actions, cautions=cautions)
 
 
@@ -407,9 +516,10 @@ _SERVICE_CODES = ("deflection", "deflection-basis")
 _SEVERITY = {"danger": 0, "warning": 1, "info": 2}
 
 
-def _cautions(chosen, ultimate, serving, name) -> tuple:
-    """The headline's cautions: its own, the deflection ones of the governing service combination instead
-    of its own, and any warning or danger of another ultimate combination whose code it does not hold."""
+def _cautions(chosen, ultimate, servings) -> tuple:
+    """The headline's cautions: its own, the deflection ones of the governing service combination (of each
+    plane, ``servings``: (result, name, plane)) instead of its own, and any warning or danger of another
+    ultimate combination whose code it does not hold."""
     kept = [SCOPE] + [c for c in chosen.cautions if c.code not in _SERVICE_CODES and c.code != "scope"]
     codes = {c.code for c in kept}
     for item in ultimate:
@@ -417,13 +527,19 @@ def _cautions(chosen, ultimate, serving, name) -> tuple:
             if caution.level in ("danger", "warning") and caution.code not in codes:
                 kept.append(dataclasses.replace(caution, values={**caution.values, "combination": item.name}))
                 codes.add(caution.code)
-    if serving is not None:
+    for serving, name, plane in servings:
+        if serving is None:
+            continue
         for caution in serving.cautions:
+            if caution.values.get("plane", 1) != plane:
+                continue
             if caution.code == "deflection":
                 kept.append(caution)
             elif caution.code == "deflection-basis":
+                check = _plane(serving, plane).service
+                where = " in the second plane" if plane == 2 else ""
                 message = (
-                    f"Deflection utilisation {serving.service.utilization:.3f}: the service check of "
+                    f"Deflection utilisation {check.utilization:.3f}{where}: the service check of "
                     f"combination {name}, the governing service combination, apart from the strength one, "
                     "on its factored loads and without the bow."
                 )
@@ -436,9 +552,9 @@ def _cautions(chosen, ultimate, serving, name) -> tuple:
 SCOPE = dataclasses.replace(
     GENERAL,
     message=(
-        "Elastic analysis of one member in one plane, per load combination. Not a full code check: "
-        "torsion, non-symmetric sections, lateral-torsional buckling where a caution says so, web shear "
-        "buckling (EN 1993-1-5), "
+        "Elastic analysis of one member in one or two uncoupled planes, per load combination. Not a full "
+        "code check: torsion, non-symmetric sections, lateral-torsional buckling where a caution says so, "
+        "web shear buckling (EN 1993-1-5), "
         "class 4 sections and connections are not checked; the combination factors are recommended values "
         "recalled from memory (a National Annex may change them). Check the results against your local "
         "codes and have them reviewed by a licensed engineer."

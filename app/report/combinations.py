@@ -102,6 +102,9 @@ def action_rows(actions_result, U) -> list:
     rows = []
     for action in case.actions:
         loads = "; ".join(w.load_text(load, case.length, U) for load in action.loads) or "no transverse load"
+        if action.second_loads:
+            second = "; ".join(w.load_text(load, case.length, U) for load in action.second_loads)
+            loads += f"; second plane: {second}"
         rows.append((action.name, action.category, f"N = {w.axial_text(action.axial_force, U)}", loads))
     return rows
 
@@ -127,16 +130,28 @@ def combination_rows(actions_result, U) -> list:
                 "expression": expression(c, actions_result.names),
                 "axial": w.axial_text(item.case.axial_force, U),
                 "measure": measure,
-                "bow": "bow reversed (the worse way)" if item.bow_reversed else "",
+                "bow": _bow_text(item),
             }
         )
     return rows
 
 
+def _bow_text(item) -> str:
+    planes = [
+        name for name, flag in (("", item.bow_reversed), ("second plane ", item.second_bow_reversed)) if flag
+    ]
+    return " and ".join(f"{name}bow reversed" for name in planes) + (" (the worse way)" if planes else "")
+
+
 def governing_rows(actions_result, result=None, U=None) -> list:
     """``(check in words, combination name, value in words)`` for each check and route."""
     return [
-        (check_name(row.check, result), row.combination, _value(row, U)) for row in actions_result.governing
+        (
+            check_name(row.check, result) + (" (second plane)" if row.plane == 2 else ""),
+            row.combination,
+            _value(row, U),
+        )
+        for row in actions_result.governing
     ]
 
 

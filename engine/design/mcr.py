@@ -157,14 +157,50 @@ def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
     return np.unique(np.concatenate([nodes, extra])) if extra else nodes
 
 
+def _integral(w, f, a, b):  # ∫ f a_i b_j dx per element, (elements, 4, 4)
+    return np.einsum("eg,egi,egj->eij", w * f, a, b)
+
+
+# What depends on the mesh alone (shape functions, Gauss points, the integrals of constant stiffness, the
+# assembly indices), kept per mesh: the load combinations of one member, and the steps of a sweep, solve
+# M_cr on the same meshes again and again. The same arithmetic as computing them afresh: the values are
+# bit for bit the same.
+_MESHES: dict = {}
+_MESH_CACHE_SIZE = 64
+
+
+def _mesh_parts(nodes: np.ndarray) -> tuple:
+    key = nodes.tobytes()
+    parts = _MESHES.get(key)
+    if parts is None:
+        h = np.diff(nodes)
+        n, d1, d2 = _hermite(h, _GP)
+        xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
+        w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
+        one = np.ones_like(xg)
+        ne = h.size
+        dofs = 4 * np.arange(ne)[:, None] + np.arange(8)[None, :]
+        rows = np.broadcast_to(dofs[:, :, None], (ne, 8, 8))
+        cols = np.broadcast_to(dofs[:, None, :], (ne, 8, 8))
+        parts = (n, d1, d2, xg, w, _integral(w, one, d2, d2), _integral(w, one, d1, d1), rows, cols)
+        for array in parts:
+            array.flags.writeable = False  # shared: nobody writes into them
+        if len(_MESHES) >= _MESH_CACHE_SIZE:
+            _MESHES.pop(next(iter(_MESHES)))
+        _MESHES[key] = parts
+    return parts
+
+
+def clear_cache() -> None:
+    """Forget the kept meshes."""
+    _MESHES.clear()
+
+
 def _matrices(nodes, m_at, props, uniform, point, scale_axial):
     """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node) and the fixed axial part of K."""
     EI_z, GI_t, EI_w, N, i0_sq = props
-    h = np.diff(nodes)
-    ne = h.size
-    n, d1, d2 = _hermite(h, _GP)
-    xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
-    w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
+    n, d1, d2, xg, w, d2d2, d1d1, rows, cols = _mesh_parts(nodes)
+    ne = xg.shape[0]
     m = m_at(xg)
     q = np.zeros_like(xg)
     aq = np.zeros_like(xg)
@@ -173,16 +209,12 @@ def _matrices(nodes, m_at, props, uniform, point, scale_axial):
         aq += np.where(inside, value * a, 0.0)
         q += np.where(inside, value, 0.0)
 
-    def integral(f, a, b):  # ∫ f a_i b_j dx per element, (elements, 4, 4)
-        return np.einsum("eg,egi,egj->eij", w * f, a, b)
-
-    one = np.ones_like(xg)
-    kvv = EI_z * integral(one, d2, d2)
-    kpp = GI_t * integral(one, d1, d1) + EI_w * integral(one, d2, d2)
-    gvv = N * integral(one, d1, d1)  # N v'²
-    gpn = N * i0_sq * integral(one, d1, d1)  # N i0² φ'²
-    gpq = integral(aq, n, n)  # q a φ²
-    gpv = -integral(m, n, d2)  # rows φ, columns v: −M φ v''
+    kvv = EI_z * d2d2
+    kpp = GI_t * d1d1 + EI_w * d2d2
+    gvv = N * d1d1  # N v'²
+    gpn = N * i0_sq * d1d1  # N i0² φ'²
+    gpq = _integral(w, aq, n, n)  # q a φ²
+    gpv = -_integral(w, m, n, d2)  # rows φ, columns v: −M φ v''
     ke = np.zeros((ne, 8, 8))
     ge = np.zeros((ne, 8, 8))
     iv = np.array([0, 1, 4, 5])
@@ -199,9 +231,6 @@ def _matrices(nodes, m_at, props, uniform, point, scale_axial):
     ge[:, ip[:, None], iv] = gpv
     ge[:, iv[:, None], ip] = np.swapaxes(gpv, 1, 2)
     size = 4 * (ne + 1)
-    dofs = 4 * np.arange(ne)[:, None] + np.arange(8)[None, :]
-    rows = np.broadcast_to(dofs[:, :, None], (ne, 8, 8))
-    cols = np.broadcast_to(dofs[:, None, :], (ne, 8, 8))
     K = np.zeros((size, size))
     G = np.zeros((size, size))
     np.add.at(K, (rows, cols), ke)

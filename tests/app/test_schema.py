@@ -293,3 +293,18 @@ def test_actions_demo_validates_and_names_match_the_engine(validator):
     broken = json.loads(text)
     broken["actions"][0]["colour"] = "red"
     assert list(validator.iter_errors(broken)) and not engine_accepts(broken)
+
+
+def test_two_plane_actions_validate_and_match_the_engine(validator):
+    """An action's second-plane loads (``actions[i].second_plane.loads``) pass the schema and the engine; an
+    unknown key inside it fails both (invented case)."""
+    from engine import actions
+    from tests.support.action_cases import as_one_action, demo_data
+
+    case = as_one_action(demo_data("demo_two_planes.json"), combinations=None)
+    assert list(validator.iter_errors(case)) == [] and engine_accepts(case)
+    schema_keys = case_schema()["properties"]["actions"]["items"]["properties"]
+    assert tuple(schema_keys) == actions.ACTION_KEYS
+    assert tuple(schema_keys["second_plane"]["properties"]) == actions.ACTION_PLANE_KEYS
+    case["actions"][0]["second_plane"]["colour"] = "red"
+    assert list(validator.iter_errors(case)) and not engine_accepts(case)

@@ -148,6 +148,9 @@ def test_pure_helpers():
     action = {"name": "W", "axial_force": 10.0, "loads": [{"type": "point", "P": 2.0, "x": 1.0}]}
     assert scaled_action(action, 2.0, "axial") == {**action, "axial_force": 20.0}
     assert scaled_action(action, 2.0, "factor")["loads"] == [{"type": "point", "P": 4.0, "x": 1.0}]
+    both = {**action, "second_plane": {"loads": [{"type": "uniform", "q": 3.0}]}}  # a two-plane case's action
+    assert scaled_action(both, 2.0, "axial")["second_plane"] == both["second_plane"]
+    assert scaled_action(both, 2.0, "factor")["second_plane"] == {"loads": [{"type": "uniform", "q": 6.0}]}
     assert actions_mapping(MemberState()) == {}
 
 

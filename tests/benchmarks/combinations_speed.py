@@ -11,16 +11,23 @@ Warm: both cases solved again as the page does on each step (every force-indepen
 are timed in alternating blocks and the figure is the median over rounds of the ratio of the block medians.
 Cold: the first solve after ``engine.clear_caches()`` (critical loads, models, combinations built). Target
 (the issue's): 12 combinations solved and enveloped in ≤ 15 ms.
+
+Run as the page and the command line run: one thread of linear algebra (``app.workers.one_thread_here``,
+before numpy loads; a value in the environment is kept, so ``OPENBLAS_NUM_THREADS=2`` measures threads).
 """
 
 from __future__ import annotations
 
 import json
+import os
 import statistics
 import time
 from importlib import resources
 
-import engine
+from app.workers import one_thread_here
+
+one_thread_here()  # before numpy loads: as `strutscope serve`, `solve` and `batch` run
+import engine  # noqa: E402
 
 ROUNDS, BLOCK = 15, 10
 PAIRS = 150
@@ -61,6 +68,7 @@ def main() -> None:
     count = len(result.actions.combinations)
     states = [c.combination.state for c in result.actions.combinations]
     print(f"combinations: {count} ({states.count('ultimate')} ultimate, {states.count('service')} service)")
+    print(f"OPENBLAS_NUM_THREADS={os.environ.get('OPENBLAS_NUM_THREADS')}, load average {os.getloadavg()}")
     cold_combined, cold_plain = [], []
     for _ in range(5):
         engine.clear_caches()

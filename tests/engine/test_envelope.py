@@ -5,7 +5,6 @@ one-action case under a factor of 1 must be today's case exactly); EN 1990 eq. (
 for the factors (from memory, as tests/engine/test_combinations.py). Cases invented.
 """
 
-import copy
 import json
 import math
 from importlib import resources
@@ -18,6 +17,7 @@ from hypothesis import strategies as st
 import engine
 from engine import analysis
 from engine.envelope import combination_case
+from tests.support.action_cases import as_one_action
 
 
 def demo_data(name="demo_wind_post_actions.json"):
@@ -28,36 +28,30 @@ def demo_data(name="demo_wind_post_actions.json"):
 FIELDS = ("x", "deflection", "rotation", "moment", "shear", "transverse_force", "initial_bow")
 
 
-def test_one_action_under_factor_one_is_todays_case_exactly():
+@pytest.mark.parametrize("demo", ["demo_wind_post.json", "demo_two_planes.json"])
+def test_one_action_under_factor_one_is_todays_case_exactly(demo):
     """The plain demo as one action with a table row of factor 1 gives today's result bit for bit; its service
-    row gives today's deflection check (solved without the bow, to rounding)."""
-    plain = demo_data("demo_wind_post.json")
-    data = copy.deepcopy(plain)
-    data["actions"] = [
-        {
-            "name": "A",
-            "category": "permanent",
-            "axial_force": data.pop("axial_force"),
-            "loads": data.pop("loads"),
-        }
-    ]
-    data["combinations"] = {
-        "rule": "table",
-        "table": [
-            {"name": "Ult", "state": "ultimate", "factors": {"A": 1.0}},
-            {"name": "Srv", "state": "service", "factors": {"A": 1.0}},
-        ],
-    }
+    row gives today's deflection check (solved without the bow, to rounding). The two-plane demo's action
+    carries both planes' loads (``second_plane.loads``) and gives both planes bit for bit."""
+    plain = demo_data(demo)
+    data = as_one_action(plain)
     today = engine.solve(engine.Case.from_dict(plain))
     combined = engine.solve(engine.Case.from_dict(data))
     assert combined.actions.headline == "Ult"
-    for name in FIELDS:
-        assert np.array_equal(getattr(today, name), getattr(combined, name)), name
+    planes = [(today, combined, 1)]
+    if today.second_plane is not None:
+        planes.append((today.second_plane, combined.second_plane, 2))
+    for before, after, plane in planes:
+        for name in FIELDS:
+            assert np.array_equal(getattr(before, name), getattr(after, name)), (plane, name)
+        assert after.service.utilization == pytest.approx(before.service.utilization, rel=1e-12)
+        assert after.service.deflection == pytest.approx(before.service.deflection, rel=1e-12)
+        assert combined.actions.governing_for("deflection", plane).combination == "Srv"
+        assert combined.actions.governing_for("moment", plane).combination == "Ult"
     assert combined.utilization == today.utilization
+    assert combined.check.kind == today.check.kind
     assert combined.axial_force == today.axial_force
     assert [r.utilization for r in combined.routes] == [r.utilization for r in today.routes]
-    assert combined.service.utilization == pytest.approx(today.service.utilization, rel=1e-12)
-    assert combined.service.deflection == pytest.approx(today.service.deflection, rel=1e-12)
 
 
 def test_a_combination_equals_a_direct_solve_of_its_summed_loads():
@@ -277,3 +271,28 @@ def test_a_combination_above_the_critical_load_governs_without_a_section():
     assert statuses["U1"] == "unstable" and statuses["U2"] == "stable"
     assert result.actions.headline == "U1" and result.status == "unstable"
     assert result.actions.governing_for("moment").value == math.inf
+
+
+def test_shared_work_leaves_every_combination_as_its_own_fresh_solve():
+    """The 12 combinations of the speed benchmark's case (what they share kept: critical loads, models, the
+    M_cr meshes) give, bit for bit, what each combination's plain case gives solved alone from empty
+    caches: the diagrams, the utilisation, every route and the LTB check's M_cr."""
+    from tests.benchmarks.combinations_speed import twelve
+
+    engine.clear_caches()
+    result = engine.solve(twelve())
+    engine.solve(twelve())  # warm: everything kept is used
+    again = engine.solve(twelve())
+    assert len(again.actions.combinations) == 12
+    for item in again.actions.combinations:
+        engine.clear_caches()
+        alone = analysis.solve(item.case)
+        for name in FIELDS:
+            assert np.array_equal(getattr(item.result, name), getattr(alone, name)), (item.name, name)
+        assert item.result.utilization == alone.utilization, item.name
+        assert [(r.route, r.utilization) for r in item.result.routes] == [
+            (r.route, r.utilization) for r in alone.routes
+        ], item.name
+        if alone.ltb is not None:
+            assert item.result.ltb.M_cr == alone.ltb.M_cr, item.name
+    assert result.actions.governing == again.actions.governing
