@@ -21,6 +21,7 @@ from engine.case import (
 from engine.case_files import load_case, save_case
 from engine.cautions import Caution
 from engine.checks import CheckSettings, MemberCheck
+from engine.design import mcr
 from engine.envelope import solve
 from engine.errors import CaseError
 from engine.member import critical_loads
@@ -76,3 +77,4 @@ def clear_caches() -> None:
     solver.restrained.clear_cache()
     prepared.clear_cache()
     envelope.clear_cache()
+    mcr.clear_cache()

@@ -39,6 +39,7 @@ extrapolated and the finer value, doubling n until the two agree within ``tolera
 
 from __future__ import annotations
 
+import functools
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
@@ -156,32 +157,60 @@ def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
     return np.unique(np.concatenate([nodes, extra])) if extra else nodes
 
 
-def _matrices(nodes, m_at, props, uniform, point, scale_axial):
-    """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node) and the fixed axial part of K."""
-    EI_z, GI_t, EI_w, N, i0_sq = props
+def _integral(w, f, a, b):
+    """∫ f a_i b_j dx per element by the quadrature weights ``w``, shape (elements, 4, 4)."""
+    return np.einsum("eg,egi,egj->eij", w * f, a, b)
+
+
+#: What :func:`_matrices` needs that depends on the mesh and the loads only (neither on the moment diagram
+#: nor on N): a family of solutions (one member at many axial forces, :func:`critical_moment` with
+#: ``mesh_pair``) meets the same meshes again. Keyed by the nodes' bytes and the uniform loads; the oldest
+#: dropped beyond :data:`_PARTS_SIZE`. Every value is computed exactly as it was before the cache existed.
+_PARTS: dict = {}
+_PARTS_SIZE = 64
+
+
+def _parts(nodes, uniform) -> tuple:
+    """(shape functions n, d1, d2, Gauss points, weights, ∫d1·d1, ∫d2·d2, ∫(q a)·n·n) of the mesh, cached."""
+    key = (nodes.tobytes(), tuple(uniform))
+    hit = _PARTS.get(key)
+    if hit is not None:
+        return hit
     h = np.diff(nodes)
-    ne = h.size
     n, d1, d2 = _hermite(h, _GP)
     xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
     w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
-    m = m_at(xg)
-    q = np.zeros_like(xg)
     aq = np.zeros_like(xg)
     for value, start, end, a in uniform:
         inside = (xg >= start) & (xg <= end)
         aq += np.where(inside, value * a, 0.0)
-        q += np.where(inside, value, 0.0)
-
-    def integral(f, a, b):  # ∫ f a_i b_j dx per element, (elements, 4, 4)
-        return np.einsum("eg,egi,egj->eij", w * f, a, b)
-
     one = np.ones_like(xg)
-    kvv = EI_z * integral(one, d2, d2)
-    kpp = GI_t * integral(one, d1, d1) + EI_w * integral(one, d2, d2)
-    gvv = N * integral(one, d1, d1)  # N v'²
-    gpn = N * i0_sq * integral(one, d1, d1)  # N i0² φ'²
-    gpq = integral(aq, n, n)  # q a φ²
-    gpv = -integral(m, n, d2)  # rows φ, columns v: −M φ v''
+    hit = (n, d1, d2, xg, w, _integral(w, one, d1, d1), _integral(w, one, d2, d2), _integral(w, aq, n, n))
+    for array in hit:
+        array.flags.writeable = False  # shared between calls
+    if len(_PARTS) >= _PARTS_SIZE:
+        _PARTS.pop(next(iter(_PARTS)))
+    _PARTS[key] = hit
+    return hit
+
+
+def clear_cache() -> None:
+    """Forget the cached mesh parts (:func:`_parts`) and free DOFs."""
+    _PARTS.clear()
+    _free_dofs.cache_clear()
+
+
+def _matrices(nodes, m_at, props, uniform, point, scale_axial):
+    """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node) and the fixed axial part of K."""
+    EI_z, GI_t, EI_w, N, i0_sq = props
+    ne = nodes.size - 1
+    n, d1, d2, xg, w, i11, i22, gpq = _parts(nodes, uniform)  # gpq: q a φ²
+    m = m_at(xg)
+    kvv = EI_z * i22
+    kpp = GI_t * i11 + EI_w * i22
+    gvv = N * i11  # N v'²
+    gpn = N * i0_sq * i11  # N i0² φ'²
+    gpv = -_integral(w, m, n, d2)  # rows φ, columns v: −M φ v''
     ke = np.zeros((ne, 8, 8))
     ge = np.zeros((ne, 8, 8))
     iv = np.array([0, 1, 4, 5])
@@ -211,7 +240,9 @@ def _matrices(nodes, m_at, props, uniform, point, scale_axial):
     return K, G
 
 
+@functools.lru_cache(maxsize=64)
 def _free_dofs(nodes_count: int, lateral_ends, warping_ends) -> np.ndarray:
+    """The DOFs not held by the end conditions (cached; the array is read-only)."""
     held = set()
     for end, node in (0, 0), (1, nodes_count - 1):
         held.update({4 * node, 4 * node + 2})  # v = 0, φ = 0: a fork at each support
@@ -219,7 +250,9 @@ def _free_dofs(nodes_count: int, lateral_ends, warping_ends) -> np.ndarray:
             held.add(4 * node + 1)
         if warping_ends[end] == "fixed":
             held.add(4 * node + 3)
-    return np.array([i for i in range(4 * nodes_count) if i not in held])
+    free = np.array([i for i in range(4 * nodes_count) if i not in held])
+    free.flags.writeable = False
+    return free
 
 
 def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tuple[float, np.ndarray]:
