@@ -110,6 +110,7 @@ def _build(
     cautions=True,
     paired=False,
     bow=None,
+    merge=None,
 ) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
@@ -134,8 +135,10 @@ def _build(
     if not first_order:
 
         def source(result, seg=seg, xi=xi):
-            batch = prep.first_order(count)[0]
-            st0 = batch.states(0, Points(prep.model, seg, xi))
+            if merge is not None:  # the base stations' P = 0 state is kept: only the peaks are evaluated
+                st0 = prep.first_order_at(count, merge)
+            else:
+                st0 = prep.first_order(count)[0].states(0, Points(prep.model, seg, xi))
             return _build(case, prep, count, 0.0, st0, result.x, seg, xi, first_order=True)
 
     if status == "critical":
@@ -405,6 +408,7 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
             bow_free=bow_free,
             cautions=False,
             paired=paired,
+            merge=raw[9],
         )
         return result, prep, raw, False
     other_prep = prep.variant("reversed")
@@ -453,6 +457,7 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         cautions=False,
         paired=paired,
         bow=bow,
+        merge=chosen_raw[9],
     )
     return result, chosen_prep, chosen_raw, favourable
 

@@ -22,7 +22,7 @@ from engine.imperfections import bow_for
 from engine.member import resolve
 from engine.out_of_plane import resistance
 from engine.reference import ReferenceData
-from engine.solver.batch import Batch
+from engine.solver.batch import STATE_FIELDS, Batch
 from engine.solver.model import Model, Points
 from engine.solver.peaks import base_stations, refine_peaks
 from engine.solver.restrained import critical_loads
@@ -52,6 +52,7 @@ class Prepared:
         self.model = Model(analysis_case, bow)
         self._stations: dict = {}
         self._first: dict = {}
+        self._first_states: dict = {}
         self._reference: dict = {}
         self._variants: dict = {}
         #: whether the stations of other prepared members are this one's (engine.raw.reversed_raw), kept
@@ -185,6 +186,22 @@ class Prepared:
             ends = (float(st["M"][0]), float(st["M"][-1]))
             self._first[count] = (batch, ps, px, m, d, ends)
         return self._first[count]
+
+    def first_order_at(self, count, merge) -> dict:
+        """The P = 0 state (w, rotation, M, T, V, w0) at the stations of a solution merged by ``merge`` (the
+        last item of :func:`engine.raw.raw`): at the base stations once per set of them (kept), at the extra
+        points each time. Each point's state is computed from its own segment and position only, so this is
+        the state a direct evaluation at the merged stations gives."""
+        pts, order, extra_seg, extra_xi = merge
+        batch = self.first_order(count)[0]
+        hit = self._first_states.get(id(pts))
+        if hit is None or hit[0] is not pts:
+            hit = self._first_states[id(pts)] = (pts, batch.states(0, pts).stacked())
+        both = hit[1]
+        if extra_seg.size:
+            extra = batch.states(0, Points(self.model, extra_seg, extra_xi)).stacked()
+            both = np.concatenate([both, extra], axis=1)
+        return dict(zip(STATE_FIELDS, both[:, order], strict=True))
 
 
 _MODELS: dict = {}

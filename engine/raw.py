@@ -54,8 +54,9 @@ def _merged_order(pts, extra_seg, extra_xi, L):
 def raw(prep, n: int, P: float):
     """One prepared member at one axial force: status, critical index and the state at the stations.
 
-    Returns ``(status, n_crit, values, x, seg, xi, batch, st, pts)``: ``values`` at the shown stations and
-    the peaks merged along ``x``, ``st`` the state at the base stations ``pts`` (None at a critical load)."""
+    Returns ``(status, n_crit, values, x, seg, xi, batch, st, pts, merge)``: ``values`` at the shown stations
+    and the peaks merged along ``x``, ``st`` the state at the base stations ``pts`` (None at a critical load),
+    ``merge`` = (pts, order, extra_seg, extra_xi): ``x`` is [base stations, extra points][order]."""
     model, pcr = prep.model, prep.buckling.critical_loads
     n_crit = critical_index(P, pcr)
     seg, xi, shown, pts = prep.stations(n, math.sqrt(-P / float(model.EI_seg.min())) if P < 0 else 0.0)
@@ -92,7 +93,7 @@ def _peaks_merged(prep, n, status, n_crit, seg, xi, pts, batch, st):
         # One gather for all six fields: rows of one array (each row is contiguous).
         both = np.concatenate([st.stacked(), ext.stacked()], axis=1)[:, order]
         values = dict(zip(STATE_FIELDS, both, strict=True))
-    return status, n_crit, values, x, seg, xi, batch, st, pts
+    return status, n_crit, values, x, seg, xi, batch, st, pts, (pts, order, extra_seg, extra_xi)
 
 
 def reversed_raw(prep, n: int, P: float, forward, free_raw, sources):

@@ -66,7 +66,8 @@ def _part_at(part, n, x):
     """M and w of a plain case at the points ``x``, exactly: its own stations' values where ``x`` holds them
     (a doubled point: left value, then right), its basis functions elsewhere. None at a critical load."""
     prep = prepare(part)
-    status, _, values, xs, *_, batch, _, _ = raw(prep, n, float(part.axial_force))
+    solved = raw(prep, n, float(part.axial_force))
+    status, values, xs, batch = solved[0], solved[2], solved[3], solved[6]
     if status == "critical":
         return None
     right = np.zeros(x.size, dtype=bool)
