@@ -40,7 +40,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from engine.design import ltb
-from engine.design.mcr import critical_moment
+from engine.design.mcr import HeldAxial, critical_moment
 from engine.loads import LinearLoad, PointLoad, UniformLoad
 
 __all__ = ["SOURCES", "TORSION_FACTORS", "LtbCheck", "check", "not_applied"]
@@ -57,6 +57,9 @@ SOURCES = (
 AISC_SOURCE = "AISC 360-16 §F1 eq. (F1-1), §F2 eqs. (F2-1)–(F2-7) (from memory)"
 
 _DIAGRAM_CODES = {"point": "point-mid"}
+#: M_cr with N held from :class:`engine.design.mcr.HeldAxial` kept per member (equal to solving it afresh, bit
+#: for bit); False: solved afresh at every N, the path ``tests/app/test_batch_exact.py`` compares against.
+HELD_FAMILY = True
 _LINEAR_PIECES = 16
 _KC_DEVIATION = 0.01
 
@@ -247,21 +250,44 @@ def check(
     N_held = max(float(N), 0.0)
     # With N the mesh of the N = 0 solution (converged there): M_cr then varies smoothly with N, which the
     # capacity's root finder needs; N only softens the member, so the mesh stays as fine relative to the mode.
-    found = at_zero if N_held == 0.0 else solve(N_held, at_zero.elements if at_zero is not None else None)
+    if N_held == 0.0:
+        found = at_zero
+    elif at_zero is None or cache is None or not HELD_FAMILY:
+        found = solve(N_held, at_zero.elements if at_zero is not None else None)
+    else:  # the matrices of that mesh pair kept for every N (the capacity's trials): the same M_cr
+        held = {name: value for name, value in common.items() if name != "scale_axial"}
+        family = cache(
+            ("ltb-mcr-held", settings), lambda: HeldAxial(xs, ms, V=vs, mesh_pair=at_zero.elements, **held)
+        )
+        try:
+            found = family.at(N_held, xs, ms, vs)
+        except ValueError:  # as in solve()
+            found = None
+        else:
+            if found is None:  # this diagram's jumps would mesh it otherwise
+                found = solve(N_held, at_zero.elements)
     M_cr = 0.0 if found is None else float(found.M_cr)
     M_cr_0 = math.nan if at_zero is None else float(at_zero.M_cr)
-    std = _standard(xs, ms)
-    M_tab = ltb.mcr_c1(
-        length,
-        EI_z,
-        GI_t,
-        EI_w,
-        std.C1,
-        std.C2,
-        z_g,
-        k=_k(settings.lateral_ends),
-        k_w=_k(settings.warping_ends),
-    )
+
+    def fixed():  # what depends neither on N nor on the bow: kept with M_cr at N = 0
+        std = _standard(xs, ms)
+        M_tab = ltb.mcr_c1(
+            length,
+            EI_z,
+            GI_t,
+            EI_w,
+            std.C1,
+            std.C2,
+            z_g,
+            k=_k(settings.lateral_ends),
+            k_w=_k(settings.warping_ends),
+        )
+        aisc, cb_f1 = None, math.nan
+        if sy.shape in ("rolled_i", "welded_i"):
+            aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w)
+        return std, M_tab, aisc, cb_f1
+
+    std, M_tab, aisc, cb_f1 = fixed() if cache is None else cache(("ltb-fixed", settings), fixed)
     plastic = section_class is not None and section_class <= 2
     W_y = sy.W_pl if plastic else sy.W_el
     fy = material.fy
@@ -279,10 +305,6 @@ def check(
     else:
         chi = ltb.chi_lt_general(lam, curve)
     M_b_Rd = chi * W_y * fy / gamma_M1
-    aisc = None
-    cb_f1 = math.nan
-    if sy.shape in ("rolled_i", "welded_i"):
-        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, length, I_t, I_w, M_cr_0, EI_z, GI_t, EI_w)
     mode = () if found is None else (found.x, found.v, found.phi)
     return LtbCheck(
         applies=True,
