@@ -268,7 +268,8 @@ def metadata_rows(result, U: Units) -> list[tuple]:
         if s.EI is None:  # a step by section
             rows.append((f"step {number} section", step_section_name(s)))
         else:
-            rows.append((f"step {number} EI [{U.label('stiffness')}]", csv_number(U.convert("stiffness", s.EI))))
+            label = f"step {number} EI [{U.label('stiffness')}]"
+            rows.append((label, csv_number(U.convert("stiffness", s.EI))))
     label, factor = FOUNDATION_UNITS[U.system]
     for number, f in enumerate(getattr(case, "foundation", ()), start=1):
         rows.append((f"foundation {number} start [{length}]", csv_number(U.convert("length", f.start))))

@@ -54,7 +54,7 @@ import numpy as np
 
 from engine.custom_section import missing_for_ltb
 from engine.design import ltb
-from engine.design.mcr import critical_moment
+from engine.design.mcr import HeldAxial, critical_moment
 from engine.loads import LinearLoad, PointLoad, UniformLoad
 
 __all__ = ["SOURCES", "TORSION_FACTORS", "LtbCheck", "check", "not_applied"]
@@ -71,6 +71,9 @@ SOURCES = (
 AISC_SOURCE = "AISC 360-16 §F1 eq. (F1-1), §F2 eqs. (F2-1)–(F2-7) (from memory)"
 
 _DIAGRAM_CODES = {"point": "point-mid"}
+#: M_cr with N held from :class:`engine.design.mcr.HeldAxial` kept per member (equal to solving it afresh, bit
+#: for bit); False: solved afresh at every N, the path ``tests/app/test_batch_exact.py`` compares against.
+HELD_FAMILY = True
 _LINEAR_PIECES = 16
 _KC_DEVIATION = 0.01
 
@@ -338,19 +341,60 @@ def check(
         except ValueError:  # N held at or above N_cr,z or N_cr,T: no lateral stiffness left
             return None
 
-    key = ("ltb-mcr0", settings)
-    at_zero = solve(0.0) if cache is None else cache(key, lambda: solve(0.0))
+    # What identifies this problem in the member's cache: a member stepped in section is checked once per
+    # segment's section with the same cache (engine.member_routes), so the keys carry the stiffnesses, the
+    # section, the material and the restraints, not the settings alone.
+    ident = (
+        settings,
+        sy.name,
+        float(material.fy),
+        EI_z,
+        GI_t,
+        EI_w,
+        i0_sq,
+        z_g,
+        lateral_ends,
+        warping_ends,
+        tuple(tuple(sorted(r.items())) for r in restraints),
+    )
+    at_zero = solve(0.0) if cache is None else cache(("ltb-mcr0", *ident), lambda: solve(0.0))
     N_held = max(float(N), 0.0)
     # With N the mesh of the N = 0 solution (converged there): M_cr then varies smoothly with N, which the
     # capacity's root finder needs; N only softens the member, so the mesh stays as fine relative to the mode.
-    found = at_zero if N_held == 0.0 else solve(N_held, at_zero.elements if at_zero is not None else None)
+    if N_held == 0.0:
+        found = at_zero
+    elif at_zero is None or cache is None or not HELD_FAMILY:
+        found = solve(N_held, at_zero.elements if at_zero is not None else None)
+    else:  # the matrices of that mesh pair kept for every N (the capacity's trials): the same M_cr
+        held = {name: value for name, value in common.items() if name != "scale_axial"}
+        family = cache(
+            ("ltb-mcr-held", *ident), lambda: HeldAxial(xs, ms, V=vs, mesh_pair=at_zero.elements, **held)
+        )
+        try:
+            found = family.at(N_held, xs, ms, vs)
+        except ValueError:  # as in solve()
+            found = None
+        else:
+            if found is None:  # this diagram's jumps would mesh it otherwise
+                found = solve(N_held, at_zero.elements)
     M_cr = 0.0 if found is None else float(found.M_cr)
     M_cr_0 = math.nan if at_zero is None else float(at_zero.M_cr)
     segments = _segments(length, restraints)
-    if free_end:  # the C1 tables are for spans between forks: no tabulated value for a cantilever
-        M_tab, std, segment = math.nan, _CANTILEVER, ()
-    else:
-        M_tab, std, segment = _tabulated(xs, ms, length, segments, settings, (EI_z, GI_t, EI_w), z_g)
+
+    def fixed():  # what depends neither on N nor on the bow: kept with M_cr at N = 0
+        if free_end:  # the C1 tables are for spans between forks: no tabulated value for a cantilever
+            M_tab, std, segment = math.nan, _CANTILEVER, ()
+        else:
+            M_tab, std, segment = _tabulated(xs, ms, length, segments, settings, (EI_z, GI_t, EI_w), z_g)
+        aisc, cb_f1 = None, math.nan
+        if sy.shape in ("rolled_i", "welded_i"):
+            alpha_0 = M_cr_0 / M_Ed
+            tip = None if not free_end else (0.0 if free_end == "left" else float(length))
+            stiffness = (EI_z, GI_t, EI_w)
+            aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip)
+        return M_tab, std, segment, aisc, cb_f1
+
+    M_tab, std, segment, aisc, cb_f1 = fixed() if cache is None else cache(("ltb-fixed", *ident), fixed)
     plastic = section_class is not None and section_class <= 2
     W_y = sy.W_pl if plastic else sy.W_el
     fy = material.fy
@@ -370,12 +414,6 @@ def check(
     else:
         chi = ltb.chi_lt_general(lam, curve)
     M_b_Rd = chi * W_y * fy / gamma_M1
-    aisc = None
-    cb_f1 = math.nan
-    if sy.shape in ("rolled_i", "welded_i"):
-        alpha_0 = M_cr_0 / M_Ed
-        tip = None if not free_end else (0.0 if free_end == "left" else float(length))
-        aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, (EI_z, GI_t, EI_w), tip)
     mode = () if found is None else (found.x, found.v, found.phi)
     return LtbCheck(
         applies=True,

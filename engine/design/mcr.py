@@ -39,6 +39,8 @@ extrapolated and the finer value, doubling n until the two agree within ``tolera
 
 from __future__ import annotations
 
+import dataclasses
+import functools
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
@@ -47,7 +49,7 @@ import numpy as np
 
 from engine.validate import choice, positive, real
 
-__all__ = ["LATERAL_ENDS", "WARPING_ENDS", "CriticalMoment", "critical_moment", "eigen_solution"]
+__all__ = ["LATERAL_ENDS", "WARPING_ENDS", "CriticalMoment", "HeldAxial", "critical_moment", "eigen_solution"]
 
 #: End conditions for lateral bending: ``fork`` (v = 0, free to rotate about the minor axis), ``fixed``
 #: (v = v' = 0); both hold the twist (φ = 0): a fork support. ``free``: nothing held (a cantilever's tip; the
@@ -157,91 +159,100 @@ def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
     return np.unique(np.concatenate([nodes, extra])) if extra else nodes
 
 
-def _integral(w, f, a, b):  # ∫ f a_i b_j dx per element, (elements, 4, 4)
+_IV = np.array([0, 1, 4, 5])  # the v DOFs of an element: v, v' at both nodes
+_IP = np.array([2, 3, 6, 7])  # the φ DOFs
+
+
+@dataclass(frozen=True)
+class _Elements:
+    """The per-element integrals of one mesh that do not depend on N, and where they assemble."""
+
+    kvv: np.ndarray  # EI_z ∫ v''², (elements, 4, 4)
+    kpp: np.ndarray  # GI_t ∫ φ'² + EI_w ∫ φ''²
+    slope: np.ndarray  # ∫ a' b': times N for v, times N i0² for φ
+    gpq: np.ndarray  # ∫ q a φ²
+    gpv: np.ndarray  # −∫ M φ v''
+    rows: np.ndarray
+    cols: np.ndarray
+    size: int
+    quadrature: tuple  # (points, weights, shape functions, their second derivatives): for −∫ M φ v'' again
+
+
+def _integral(w, f, a, b):
+    """∫ f a_i b_j dx per element, (elements, 4, 4), by the quadrature weights ``w``."""
     return np.einsum("eg,egi,egj->eij", w * f, a, b)
 
 
-# What depends on the mesh alone (shape functions, Gauss points, the integrals of constant stiffness, the
-# assembly indices), kept per mesh: the load combinations of one member, and the steps of a sweep, solve
-# M_cr on the same meshes again and again. The same arithmetic as computing them afresh: the values are
-# bit for bit the same.
-_MESHES: dict = {}
-_MESH_CACHE_SIZE = 64
-
-
-def _mesh_parts(nodes: np.ndarray) -> tuple:
-    key = nodes.tobytes()
-    parts = _MESHES.get(key)
-    if parts is None:
-        h = np.diff(nodes)
-        n, d1, d2 = _hermite(h, _GP)
-        xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
-        w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
-        one = np.ones_like(xg)
-        ne = h.size
-        dofs = 4 * np.arange(ne)[:, None] + np.arange(8)[None, :]
-        rows = np.broadcast_to(dofs[:, :, None], (ne, 8, 8))
-        cols = np.broadcast_to(dofs[:, None, :], (ne, 8, 8))
-        parts = (n, d1, d2, xg, w, _integral(w, one, d2, d2), _integral(w, one, d1, d1), rows, cols)
-        for array in parts:
-            array.flags.writeable = False  # shared: nobody writes into them
-        if len(_MESHES) >= _MESH_CACHE_SIZE:
-            _MESHES.pop(next(iter(_MESHES)))
-        _MESHES[key] = parts
-    return parts
-
-
-def clear_cache() -> None:
-    """Forget the kept meshes."""
-    _MESHES.clear()
-
-
-def _matrices(nodes, m_at, props, uniform, point, scale_axial):
-    """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node) and the fixed axial part of K."""
-    EI_z, GI_t, EI_w, N, i0_sq = props
-    n, d1, d2, xg, w, d2d2, d1d1, rows, cols = _mesh_parts(nodes)
-    ne = xg.shape[0]
+def _elements(nodes, m_at, props, uniform) -> _Elements:
+    EI_z, GI_t, EI_w = props[:3]
+    h = np.diff(nodes)
+    ne = h.size
+    n, d1, d2 = _hermite(h, _GP)
+    xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
+    w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
     m = m_at(xg)
-    q = np.zeros_like(xg)
     aq = np.zeros_like(xg)
     for value, start, end, a in uniform:
-        inside = (xg >= start) & (xg <= end)
-        aq += np.where(inside, value * a, 0.0)
-        q += np.where(inside, value, 0.0)
+        aq += np.where((xg >= start) & (xg <= end), value * a, 0.0)
+    one = np.ones_like(xg)
+    dofs = 4 * np.arange(ne)[:, None] + np.arange(8)[None, :]
+    return _Elements(
+        kvv=EI_z * _integral(w, one, d2, d2),
+        kpp=GI_t * _integral(w, one, d1, d1) + EI_w * _integral(w, one, d2, d2),
+        slope=_integral(w, one, d1, d1),
+        gpq=_integral(w, aq, n, n),
+        gpv=-_integral(w, m, n, d2),
+        rows=np.broadcast_to(dofs[:, :, None], (ne, 8, 8)),
+        cols=np.broadcast_to(dofs[:, None, :], (ne, 8, 8)),
+        size=4 * (ne + 1),
+        quadrature=(xg, w, n, d2),
+    )
 
-    kvv = EI_z * d2d2
-    kpp = GI_t * d1d1 + EI_w * d2d2
-    gvv = N * d1d1  # N v'²
-    gpn = N * i0_sq * d1d1  # N i0² φ'²
-    gpq = _integral(w, aq, n, n)  # q a φ²
-    gpv = -_integral(w, m, n, d2)  # rows φ, columns v: −M φ v''
-    ke = np.zeros((ne, 8, 8))
-    ge = np.zeros((ne, 8, 8))
-    iv = np.array([0, 1, 4, 5])
-    ip = np.array([2, 3, 6, 7])
+
+def _assemble(parts: _Elements, blocks) -> np.ndarray:
+    """The global matrix of the element blocks ``((dofs_rows, dofs_cols, block), ...)``."""
+    e = np.zeros((parts.kvv.shape[0], 8, 8))
+    for rows, cols, block in blocks:
+        e[:, rows[:, None], cols] = block
+    out = np.zeros((parts.size, parts.size))
+    np.add.at(out, (parts.rows, parts.cols), e)
+    return out
+
+
+def _stiffness(parts: _Elements, N: float, i0_sq: float, scale_axial: bool) -> np.ndarray:
+    """K: with N held it softens the stiffness; when N grows with the load factor it is in G instead."""
+    if scale_axial:
+        return _assemble(parts, ((_IV, _IV, parts.kvv), (_IP, _IP, parts.kpp)))
+    gvv = N * parts.slope  # N v'²
+    gpn = N * i0_sq * parts.slope  # N i0² φ'²
+    return _assemble(parts, ((_IV, _IV, parts.kvv - gvv), (_IP, _IP, parts.kpp - gpn)))
+
+
+def _geometric(parts: _Elements, nodes, N: float, i0_sq: float, point, scale_axial: bool) -> np.ndarray:
+    """G: the moment's coupling, the loads' height and (``scale_axial``) the axial force."""
+    coupling = ((_IP, _IV, parts.gpv), (_IV, _IP, np.swapaxes(parts.gpv, 1, 2)))
     if scale_axial:  # N grows with the load factor
-        ke[:, iv[:, None], iv] = kvv
-        ke[:, ip[:, None], ip] = kpp
-        ge[:, iv[:, None], iv] = gvv
-        ge[:, ip[:, None], ip] = gpn + gpq
-    else:  # N held: it softens the stiffness
-        ke[:, iv[:, None], iv] = kvv - gvv
-        ke[:, ip[:, None], ip] = kpp - gpn
-        ge[:, ip[:, None], ip] = gpq
-    ge[:, ip[:, None], iv] = gpv
-    ge[:, iv[:, None], ip] = np.swapaxes(gpv, 1, 2)
-    size = 4 * (ne + 1)
-    K = np.zeros((size, size))
-    G = np.zeros((size, size))
-    np.add.at(K, (rows, cols), ke)
-    np.add.at(G, (rows, cols), ge)
+        gvv = N * parts.slope
+        gpn = N * i0_sq * parts.slope
+        G = _assemble(parts, ((_IV, _IV, gvv), (_IP, _IP, gpn + parts.gpq), *coupling))
+    else:
+        G = _assemble(parts, ((_IP, _IP, parts.gpq), *coupling))
     for force, x, a in point:
         node = int(np.argmin(np.abs(nodes - x)))
         G[4 * node + 2, 4 * node + 2] += force * a
-    return K, G
+    return G
 
 
+def _matrices(nodes, m_at, props, uniform, point, scale_axial):
+    """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node)."""
+    N, i0_sq = props[3], props[4]
+    parts = _elements(nodes, m_at, props, uniform)
+    return _stiffness(parts, N, i0_sq, scale_axial), _geometric(parts, nodes, N, i0_sq, point, scale_axial)
+
+
+@functools.lru_cache(maxsize=64)
 def _free_dofs(nodes_count: int, lateral_ends, warping_ends, held_inside=()) -> np.ndarray:
+    """The DOFs held neither by the end conditions nor by ``held_inside`` (cached; the array is read-only)."""
     held = set(held_inside)
     for end, node in (0, 0), (1, nodes_count - 1):
         if lateral_ends[end] == "free":  # a cantilever's tip: nothing held
@@ -251,7 +262,14 @@ def _free_dofs(nodes_count: int, lateral_ends, warping_ends, held_inside=()) -> 
             held.add(4 * node + 1)
         if warping_ends[end] == "fixed":
             held.add(4 * node + 3)
-    return np.array([i for i in range(4 * nodes_count) if i not in held])
+    free = np.array([i for i in range(4 * nodes_count) if i not in held])
+    free.flags.writeable = False
+    return free
+
+
+def clear_cache() -> None:
+    """Forget the cached free DOFs (:func:`_free_dofs`)."""
+    _free_dofs.cache_clear()
 
 
 def _restraints(restraints: Sequence[Mapping] | None, length: float) -> list:
@@ -283,6 +301,26 @@ def _restraints(restraints: Sequence[Mapping] | None, length: float) -> list:
     return out
 
 
+def _held_inside(nodes, inside) -> tuple[tuple, tuple]:
+    """The DOFs the intermediate restraints ``inside`` hold on this mesh, and their springs as (DOF, k)."""
+    held, springs = [], []
+    for x, dofs in inside:
+        node = int(np.argmin(np.abs(nodes - x)))
+        for offset, value in dofs.items():
+            if value == "fixed":
+                held.append(4 * node + offset)
+            else:  # a spring at the shear centre: ½ k v² (or ½ k_r v'², ½ k_φ φ²) joins the strain energy
+                springs.append((4 * node + offset, value))
+    return tuple(held), tuple(springs)
+
+
+def _with_springs(K: np.ndarray, springs) -> np.ndarray:
+    """K (all DOFs) with the restraints' springs added on its diagonal, in place."""
+    for dof, k in springs:
+        K[dof, dof] += k
+    return K
+
+
 def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tuple[float, np.ndarray]:
     """The smallest positive λ of K x = λ G x (K symmetric positive definite) and, if asked, its vector.
 
@@ -290,6 +328,14 @@ def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tupl
     (``numpy.linalg.eigvalsh``); the vector from a few steps of inverse iteration shifted just below λ.
     Returns (inf, zeros) when G has no positive direction: the member does not buckle under these loads.
     """
+    lam = _eigenvalue(K, G)
+    if not vector or not math.isfinite(lam):
+        return lam, np.zeros(K.shape[0])
+    return lam, _eigenvector(K, G, lam)
+
+
+def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
+    """λ of :func:`eigen_solution` alone (inf when G has no positive direction)."""
     try:
         chol = np.linalg.cholesky(K)
     except np.linalg.LinAlgError as error:
@@ -300,35 +346,36 @@ def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tupl
     a = inv @ G @ inv.T
     mu = np.linalg.eigvalsh(0.5 * (a + a.T))
     if not mu[-1] > 1e-12 * float(np.max(np.abs(mu))):
-        return math.inf, np.zeros(K.shape[0])
+        return math.inf
     lam = 1.0 / float(mu[-1])
-    if not math.isfinite(lam):
-        return math.inf, np.zeros(K.shape[0])
-    if not vector:
-        return lam, np.zeros(K.shape[0])
+    return lam if math.isfinite(lam) else math.inf
+
+
+def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float) -> np.ndarray:
+    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it."""
     shifted = K - lam * (1.0 - 1e-6) * G
     x = np.linalg.solve(K, np.sum(np.abs(G), axis=1) + 1.0)  # a start with every DOF present
     for _ in range(4):
         x = np.linalg.solve(shifted, G @ x)
         x /= np.max(np.abs(x))
-    return lam, x
+    return x
 
 
-def _solve(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warping_ends, inside=()):
-    K, G = _matrices(nodes, m_at, props, uniform, point, scale_axial)
-    held = []
-    for x, dofs in inside:
-        node = int(np.argmin(np.abs(nodes - x)))
-        for offset, value in dofs.items():
-            if value == "fixed":
-                held.append(4 * node + offset)
-            else:  # a spring at the shear centre: ½ k v² (or ½ k_r v'²) joins the strain energy
-                K[4 * node + offset, 4 * node + offset] += value
-    free = _free_dofs(nodes.size, lateral_ends, warping_ends, held)
-    lam, vector = eigen_solution(K[np.ix_(free, free)], G[np.ix_(free, free)])
+def _mode(nodes, K, G, free, lam) -> np.ndarray:
+    """The mode (nodes, 4) of λ on the free DOFs ``free`` of K and G: zeros when λ is not finite."""
     full = np.zeros(4 * nodes.size)
-    full[free] = vector
-    return lam, full.reshape(-1, 4)
+    if math.isfinite(lam):
+        full[free] = _eigenvector(K, G, lam)
+    return full.reshape(-1, 4)
+
+
+def _reduced(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warping_ends, inside=()):
+    """K and G on the free DOFs, and those DOFs."""
+    K, G = _matrices(nodes, m_at, props, uniform, point, scale_axial)
+    held, springs = _held_inside(nodes, inside)
+    _with_springs(K, springs)
+    free = _free_dofs(nodes.size, lateral_ends, warping_ends, held)
+    return K[np.ix_(free, free)], G[np.ix_(free, free)], free
 
 
 def critical_moment(
@@ -398,6 +445,90 @@ def critical_moment(
     >>> round(r.M_cr / (math.pi / 5 * math.sqrt(1e6 * 1e5)), 4)  # Timoshenko & Gere ch. 6
     1.0
     """
+    problem = _problem(
+        x, M, EI_z, GI_t, EI_w, length, N, i0_squared, load_height, loads, lateral_ends, warping_ends, V
+    )._held_by(restraints)
+    M_max = problem.M_max
+
+    def run(count):
+        nodes = problem.mesh(count)
+        K, G, free = problem.reduced(nodes, problem.props, scale_axial)
+        return nodes, _eigenvalue(K, G), (K, G, free)
+
+    if elements is not None:
+        count = int(elements)
+        if count < 1 or count > _MAX_ELEMENTS:
+            raise ValueError(f"elements: {elements!r} must be 1 to {_MAX_ELEMENTS}")
+        nodes, lam, matrices = run(count)
+        return _result(lam, M_max, nodes, _mode(nodes, *matrices, lam), count, (lam,), False)
+    count = _first_count(mesh_pair)
+    nodes, coarse, matrices = run(count)
+    history = [coarse]
+    while True:
+        count *= 2
+        nodes, fine, matrices = run(count)
+        history.append(fine)
+        if not math.isfinite(fine) or mesh_pair is not None:
+            break
+        extrapolated = fine + (fine - coarse) / (2.0**_RATE - 1.0)
+        if abs(fine - extrapolated) <= tolerance * abs(extrapolated) or count >= _MAX_ELEMENTS:
+            break
+        coarse = fine
+    return _closing(history, nodes, matrices, count, M_max)
+
+
+def _first_count(mesh_pair: int | None) -> int:
+    count = 8 if mesh_pair is None else max(1, int(mesh_pair) // 2)
+    if count * 2 > _MAX_ELEMENTS:
+        raise ValueError(f"mesh_pair: {mesh_pair!r} must be 2 to {_MAX_ELEMENTS}")
+    return count
+
+
+def _closing(history, nodes, matrices, count, M_max) -> CriticalMoment:
+    """The result from the load factors of the meshes tried (the last two: coarse, fine) and the finer mesh's
+    reduced K, G and free DOFs: the Richardson value when it is below the finer one (see the module)."""
+    fine = history[-1]
+    mode = _mode(nodes, *matrices, fine)
+    if not math.isfinite(fine):
+        return _result(fine, M_max, nodes, mode, count, tuple(history), False)
+    extrapolated = fine + (fine - history[-2]) / (2.0**_RATE - 1.0)
+    if extrapolated <= fine:
+        return _result(extrapolated, M_max, nodes, mode, count, tuple(history), True)
+    return _result(fine, M_max, nodes, mode, count, tuple(history), False)
+
+
+@dataclass(frozen=True)
+class _Problem:
+    """A validated :func:`critical_moment` problem, before any mesh."""
+
+    length: float
+    props: tuple
+    uniform: list
+    point: list
+    m_at: object
+    breaks: list
+    M_max: float
+    ends: tuple
+    inside: list
+
+    def mesh(self, count: int) -> np.ndarray:
+        return _mesh(self.length, count, self.breaks)
+
+    def reduced(self, nodes, props, scale_axial):
+        args = (self.uniform, self.point, scale_axial, *self.ends, self.inside)
+        return _reduced(nodes, self.m_at, props, *args)
+
+    def _held_by(self, restraints) -> _Problem:
+        """This problem with the intermediate ``restraints`` (as :func:`critical_moment` takes them)."""
+        inside = _restraints(restraints, self.length)
+        breaks = [*self.breaks, *(x for x, _ in inside)]
+        return dataclasses.replace(self, breaks=breaks, inside=inside)
+
+
+def _problem(
+    x, M, EI_z, GI_t, EI_w, length, N, i0_squared, load_height, loads, lateral_ends, warping_ends, V
+):
+    """Check :func:`critical_moment`'s arguments and gather what every mesh needs."""
     L = positive("length", length, "m")
     props = (
         positive("EI_z", EI_z, "N·m²"),
@@ -412,11 +543,7 @@ def critical_moment(
         props = (*props[:4], positive("i0_squared", i0_squared, "m²"))
     for name, ends, allowed in (
         ("lateral_ends", lateral_ends, LATERAL_ENDS),
-        (
-            "warping_ends",
-            warping_ends,
-            WARPING_ENDS,
-        ),
+        ("warping_ends", warping_ends, WARPING_ENDS),
     ):
         if len(ends) != 2:
             raise ValueError(f"{name}: {ends!r} must be a (left, right) pair")
@@ -436,8 +563,19 @@ def critical_moment(
     if xs[0] > 1e-9 * L or xs[-1] < L * (1 - 1e-9):
         raise ValueError(f"x: the samples must cover the member, 0 to {L!r} m; got {xs[0]!r} to {xs[-1]!r} m")
     uniform, point = _loads(loads, L, real("load_height", load_height, "m"))
-    inside = _restraints(restraints, L)
 
+    m_at = _moment_function(xs, ms, V)
+    jumps = xs[1:][np.diff(xs) == 0]  # a couple in the span: a repeated x with two values of M
+    breaks = [p[1] for p in point] + [u[1] for u in uniform] + [u[2] for u in uniform] + list(jumps)
+    M_max = float(np.max(np.abs(ms)))
+    # Without warping stiffness a warping restraint holds nothing: φ' = 0 would be a constraint the member
+    # does not have (it raised M_cr by ~0.7 % in a cantilever with EI_w = 0), so it is dropped.
+    warping = tuple(warping_ends) if props[2] > 0.0 else ("free", "free")
+    return _Problem(L, props, uniform, point, m_at, breaks, M_max, (tuple(lateral_ends), warping), [])
+
+
+def _moment_function(xs: np.ndarray, ms: np.ndarray, V):
+    """M(x) from the samples: linear between them, or cubic Hermite pieces with the shear V = dM/dx."""
     if V is None:
 
         def m_at(points):
@@ -457,46 +595,77 @@ def critical_moment(
             h01, h11 = -2 * t**3 + 3 * t**2, t**3 - t**2
             return h00 * ms[i] + h10 * h * vs[i] + h01 * ms[i + 1] + h11 * h * vs[i + 1]
 
-    jumps = xs[1:][np.diff(xs) == 0]  # a couple in the span: a repeated x with two values of M
-    breaks = [p[1] for p in point] + [u[1] for u in uniform] + [u[2] for u in uniform] + list(jumps)
-    breaks += [x for x, _ in inside]
-    M_max = float(np.max(np.abs(ms)))
-    # Without warping stiffness a warping restraint holds nothing: φ' = 0 would be a constraint the member
-    # does not have (it raised M_cr by ~0.7 % in a cantilever with EI_w = 0), so it is dropped.
-    warping = tuple(warping_ends) if props[2] > 0.0 else ("free", "free")
-    args = (props, uniform, point, scale_axial, tuple(lateral_ends), warping, inside)
+    return m_at
 
-    def run(count):
-        nodes = _mesh(L, count, breaks)
-        lam, mode = _solve(nodes, m_at, *args)
-        return nodes, lam, mode
 
-    if elements is not None:
-        count = int(elements)
-        if count < 1 or count > _MAX_ELEMENTS:
-            raise ValueError(f"elements: {elements!r} must be 1 to {_MAX_ELEMENTS}")
-        nodes, lam, mode = run(count)
-        return _result(lam, M_max, nodes, mode, count, (lam,), False)
-    count = 8 if mesh_pair is None else max(1, int(mesh_pair) // 2)
-    if count * 2 > _MAX_ELEMENTS:
-        raise ValueError(f"mesh_pair: {mesh_pair!r} must be 2 to {_MAX_ELEMENTS}")
-    nodes, coarse, mode = run(count)
-    history = [coarse]
-    while True:
-        count *= 2
-        nodes, fine, mode = run(count)
-        history.append(fine)
-        if not math.isfinite(fine):
-            return _result(fine, M_max, nodes, mode, count, tuple(history), False)
-        extrapolated = fine + (fine - coarse) / (2.0**_RATE - 1.0)
-        if mesh_pair is not None:
-            break
-        if abs(fine - extrapolated) <= tolerance * abs(extrapolated) or count >= _MAX_ELEMENTS:
-            break
-        coarse = fine
-    if extrapolated <= fine:
-        return _result(extrapolated, M_max, nodes, mode, count, tuple(history), True)
-    return _result(fine, M_max, nodes, mode, count, tuple(history), False)
+class HeldAxial:
+    """:func:`critical_moment` with N held (``scale_axial=False``) on the fixed pair of meshes
+    ``mesh_pair``, at any axial force: one member and moment diagram at several N (the capacity's trials).
+
+    The element integrals that depend neither on N nor on M are made once per mesh; each :meth:`at` makes
+    the moment's coupling from the samples it is given, assembles K and G the same way and solves two
+    eigenvalues and one mode. It equals ``critical_moment(x, M, N=N, mesh_pair=mesh_pair,
+    scale_axial=False, ...)`` bit for bit (the same operations on the same numbers; the eigenvalue of a
+    moment diagram far below M_cr is sensitive to the last bit of K, so an equal-to-rounding rearrangement
+    would not do); ``tests/engine/test_mcr.py`` checks it.
+    """
+
+    def __init__(
+        self,
+        x,
+        M,
+        *,
+        EI_z,
+        GI_t,
+        EI_w,
+        length,
+        i0_squared,
+        mesh_pair,
+        loads,
+        lateral_ends,
+        warping_ends,
+        V,
+        restraints=None,
+    ):
+        ends = (lateral_ends, warping_ends)
+        problem = _problem(x, M, EI_z, GI_t, EI_w, length, 0.0, i0_squared, 0.0, loads, *ends, V)
+        problem = problem._held_by(restraints)
+        self._i0_squared = positive("i0_squared", i0_squared, "m²")
+        count = _first_count(mesh_pair)
+        self._count = 2 * count
+        self._point = problem.point
+        self._jumps = _jumps(np.asarray(x, dtype=float))
+        self._meshes = []
+        for elements in (count, 2 * count):
+            nodes = problem.mesh(elements)
+            parts = _elements(nodes, problem.m_at, problem.props, problem.uniform)
+            held, springs = _held_inside(nodes, problem.inside)
+            self._meshes.append((nodes, parts, _free_dofs(nodes.size, *problem.ends, held), springs))
+
+    def at(self, N: float, x, M, V=None) -> CriticalMoment | None:
+        """The solution at the held axial force N [N], compression positive, for the diagram sampled at
+        ``x``, ``M`` (and ``V``) now; ValueError when N leaves no lateral stiffness (as
+        :func:`critical_moment`); None when these samples would give other meshes (a jump elsewhere)."""
+        N = real("N", N, "N")
+        xs, ms = np.asarray(x, dtype=float), np.asarray(M, dtype=float)
+        if _jumps(xs) != self._jumps:
+            return None
+        m_at = _moment_function(xs, ms, V)
+        history, matrices = [], None
+        for nodes, parts, free, springs in self._meshes:
+            xg, w, n, d2 = parts.quadrature
+            now = dataclasses.replace(parts, gpv=-_integral(w, m_at(xg), n, d2))
+            G = _geometric(now, nodes, N, self._i0_squared, self._point, False)[np.ix_(free, free)]
+            K = _with_springs(_stiffness(parts, N, self._i0_squared, False), springs)
+            matrices = (K[np.ix_(free, free)], G, free)
+            history.append(_eigenvalue(*matrices[:2]))
+        M_max = float(np.max(np.abs(ms)))
+        return _closing(history, self._meshes[-1][0], matrices, self._count, M_max)
+
+
+def _jumps(xs: np.ndarray) -> list:
+    """The x of each jump in the sampled diagram (an x given twice)."""
+    return [float(b) for b in xs[1:][np.diff(xs) == 0]]
 
 
 def _result(lam, M_max, nodes, mode, count, history, extrapolated) -> CriticalMoment:

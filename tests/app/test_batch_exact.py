@@ -7,7 +7,8 @@ again (2026-12-02) once the lateral-torsional buckling check, the load combinati
 landed, which change the headline utilisation and capacity of open sections on purpose: from then on they
 guard later speed work. And a hypothesis-drawn table
 solved twice in this process, once as the product does it and once with the capacity finder as it was before
-(``tests/support/capacity_reference.py``, a verbatim copy): every cell must agree.
+(``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved afresh
+at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.
 """
 
 from __future__ import annotations
@@ -23,6 +24,7 @@ from hypothesis import strategies as st
 
 import engine
 from app import batch
+from engine.design import ltb_member
 from tests.support import capacity_reference
 
 DATA = Path(__file__).parent / "data"
@@ -119,5 +121,6 @@ def test_a_drawn_table_equals_the_capacity_finder_before(tmp_path, monkeypatch, 
     batch.run(str(table), str(tmp_path / "now"), workers=1, progress=False)
     with monkeypatch.context() as patch:
         patch.setattr(engine, "capacity", capacity_reference.capacity)
+        patch.setattr(ltb_member, "HELD_FAMILY", False)  # M_cr with N held solved afresh at every force
         batch.run(str(table), str(tmp_path / "before"), workers=1, progress=False)
     assert_same_results(tmp_path / "now" / "results.csv", tmp_path / "before" / "results.csv")

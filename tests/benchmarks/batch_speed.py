@@ -7,9 +7,10 @@ prefix); nothing runs at import time. Every member is invented, drawn from a see
 It writes N members to a temporary CSV file and runs the batch on it, each run in a fresh interpreter so
 that every run starts cold and its peak memory is its own:
 
-1. with one worker (the rows solved in the run's own process) on N members, by today's code and by the code
-   before issue 18's speed work (:data:`BEFORE`, unpacked with ``git archive`` into a temporary folder), one
-   after the other in the same session: members per second of each, their ratio, and whether the two
+1. with one worker (the rows solved in the run's own process, one thread of linear algebra as the console
+   script sets) on N members, by today's code and by the code before the last round of issue 18's speed work
+   (:data:`BEFORE`, unpacked with ``git archive`` into a temporary folder), one after the other in the same
+   session: members per second of each, their ratio, and whether the two
    results files agree to 1e-9 relative (``tests/app/test_batch_exact.py``'s comparison);
 2. with every core on the same N members, so the two speeds are comparable;
 3. the streaming check: one worker, no capacity search, on a table of ``--stream-rows`` rows (100 000 by
@@ -74,8 +75,10 @@ _HEADER = (
 
 TARGET_RATIO = 1.7
 TARGET_PER_CORE = 500.0
-#: The commit before issue 18's speed work: today's batch is compared with it in the same session.
-BEFORE = "7e4e463ee29e0e8c5aa3d451bb169a329a5e79ad"
+#: The code before the last round of issue 18's speed work (the LTB check, load combinations and the new
+#: columns included, so that both write the same results): today's batch is compared with it in the same
+#: session. The first round was measured against 7e4e463 (DEVELOPERS.md, Benchmarks).
+BEFORE = "9bcb784b24f82692bd1ac222738d8beab60a43b5"
 _ROOT = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
 
 
@@ -171,6 +174,10 @@ def _agree(path_a: str, path_b: str) -> bool:
 
 
 def _child(table: str, out: str, workers: int, capacity: bool) -> None:
+    # One thread of linear algebra, as `strutscope batch` sets before numpy loads (app.cli_batch): with
+    # OpenBLAS's threads the process's CPU time counts their spinning too (measured: about 1.8x the CPU time).
+    for name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+        os.environ.setdefault(name, "1")
     from app import batch
 
     start, cpu = time.perf_counter(), time.process_time()

@@ -274,3 +274,63 @@ def test_a_jump_in_the_diagram_becomes_a_node():
     fine = critical_moment([0, 3 - 1e-9, 3 + 1e-9, L], [0, 1, -1, 0], elements=256, **kw)
     assert jump.M_cr == pytest.approx(fine.M_cr, rel=1e-3)
     assert jump.elements <= 32
+
+
+@pytest.mark.parametrize(
+    ("x", "m", "loads", "v"),
+    [
+        ([0, L], [1e4, -5e3], None, None),
+        (
+            [0, 2.0, 2.0, L],
+            [0.0, 3e4, 1e4, 0.0],
+            [{"kind": "point", "F": 2e4, "x": 2.0, "height": 0.15}],
+            None,
+        ),
+        (
+            np.linspace(0, L, 9),
+            4e3 * np.linspace(0, L, 9) * (L - np.linspace(0, L, 9)),
+            [{"kind": "uniform", "q": 8e3, "start": 0.0, "end": L, "height": -0.15}],
+            4e3 * (L - 2 * np.linspace(0, L, 9)),
+        ),
+    ],
+    ids=["linear", "point load and jump", "udl below the shear centre"],
+)
+def test_the_held_axial_family_equals_a_fresh_solution_bit_for_bit(x, m, loads, v):
+    """HeldAxial (the element integrals of one mesh pair kept for every held N; the capacity's trials)
+    against critical_moment solved afresh at each N on the same pair: the same operations, so equal bit for
+    bit ([derived]; the eigenvalue of a small diagram is sensitive to the last bit of K, hence exact
+    equality), the same refusal at and above N_cr,z, and None for samples with a jump elsewhere."""
+    ei_w, i0 = _ei_w(1.0), 0.02
+    kw = {"EI_z": EI_Z, "GI_t": GI_T, "EI_w": ei_w, "length": L, "loads": loads, "V": v}
+    pair = critical_moment(x, m, **kw).elements
+    ends = {"lateral_ends": ("fork", "fork"), "warping_ends": ("free", "free")}
+    family = mcr.HeldAxial(x, m, i0_squared=i0, mesh_pair=pair, **kw, **ends)
+    n_z = math.pi**2 * EI_Z / L**2
+    for n in (1.0, 0.1 * n_z, 0.5 * n_z, 0.97 * n_z):
+        fresh = critical_moment(x, m, N=n, i0_squared=i0, mesh_pair=pair, scale_axial=False, **kw)
+        held = family.at(n, x, m, v)
+        assert held.M_cr == fresh.M_cr
+        assert held.alpha_meshes == fresh.alpha_meshes
+        assert held.extrapolated == fresh.extrapolated
+        assert np.array_equal(held.phi, fresh.phi)
+        assert np.array_equal(held.v, fresh.v)
+    with pytest.raises(ValueError, match="not positive definite"):
+        family.at(1.01 * n_z, x, m, v)
+    with pytest.raises(ValueError, match="not positive definite"):
+        critical_moment(x, m, N=1.01 * n_z, i0_squared=i0, mesh_pair=pair, scale_axial=False, **kw)
+    # The diagram sampled more finely (a first-order diagram at other stations) gives the fresh solution of
+    # those samples; a jump where there was none, no solution.
+    finer = np.linspace(0.0, L, 17)
+    if v is not None:
+        fresh = critical_moment(
+            finer,
+            np.interp(finer, x, m),
+            N=1.0,
+            i0_squared=i0,
+            mesh_pair=pair,
+            scale_axial=False,
+            **dict(kw, V=np.interp(finer, x, v)),
+        )
+        assert family.at(1.0, finer, np.interp(finer, x, m), np.interp(finer, x, v)).M_cr == fresh.M_cr
+    jumped = np.array([0.0, 1.0, 1.0, L])
+    assert family.at(1.0, jumped, np.array([0.0, 1.0, 2.0, 0.0]), None if v is None else np.zeros(4)) is None
