@@ -88,14 +88,15 @@ class InnerInputs(param.Parameterized):
     def add_item(self, field: str) -> None:
         """Append a row with default values to list `field` (restraints, steps or foundation).
 
-        The first row of any list also takes the settings the engine refuses beside them (its conservative
-        refusals, DEVELOPERS.md): only the second-order route counts, and an eq. (5.9) bow becomes the Table
-        5.1 bow (in the shape of the first buckling mode there), in the same update, so the case solves once.
+        The first row of a list also takes the settings the engine refuses beside it (its conservative
+        refusals, DEVELOPERS.md), in the same update, so the case solves once: the first foundation range
+        leaves only the second-order route, and the first step turns an eq. (5.9) bow into the Table 5.1 bow.
+        A restraint needs neither (the engine checks each segment between braced points by every route).
         """
         row = default_item(field, getattr(self, "length", 1.0), getattr(self, "EI", None))
         values: dict[str, Any] = {field: [*getattr(self, field), row]}
-        if not any(getattr(self, name) for name in INNER_INPUTS):
-            values.update(inner_settings(self))
+        if not getattr(self, field):
+            values.update(inner_settings(self, field))
         self.param.update(**values)
 
     def remove_item(self, field: str, index: int) -> None:
@@ -125,18 +126,18 @@ class InnerInputs(param.Parameterized):
         setattr(self, field, rows)
 
 
-def inner_settings(inputs) -> dict:
-    """The route and bow settings a case with restraints, steps or a foundation needs (empty if it has them).
+def inner_settings(inputs, field: str) -> dict:
+    """The route and bow settings a case needs when its first row of ``field`` is added (empty if none).
 
-    The engine refuses the equivalent-member routes and the eq. (5.9) bow there (they read one moment diagram
-    and one buckling length between the ends); the page takes the settings it allows rather than answer the
-    user's first restraint with an error.
+    The engine refuses the equivalent-member routes on a foundation (no table covers a member bedded along
+    its length) and the eq. (5.9) bow with steps (its amplitude is scaled at the critical section of a
+    uniform member); the page takes the settings it allows rather than answer the row with an error.
     """
     values: dict[str, Any] = {}
     routes = getattr(inputs, "routes", None)
-    if routes is not None and list(routes) != ["second-order"]:
+    if field == "foundation" and routes is not None and list(routes) != ["second-order"]:
         values["routes"] = ["second-order"]
-    if getattr(inputs, "bow_preset", None) == "en1993-eq-5.9":
+    if field == "steps" and getattr(inputs, "bow_preset", None) == "en1993-eq-5.9":
         values["bow_preset"] = "en1993-table-5.1"
     return values
 

@@ -375,10 +375,11 @@ def member_case(row: Mapping[str, str]):
     inner = inner_data(cell)
     if inner:
         data.update(inner)
-        if "section" in data and "material" in data:
-            # The engine offers the member check with restraints, steps or a foundation by the second-order
-            # route alone (the equivalent-member routes need one buckling length between the ends); the
-            # table has no routes column, so a row with them is checked by that route.
+        if "foundation" in inner and "section" in data and "material" in data:
+            # On a foundation the engine offers the member check by the second-order route alone (no table
+            # of the equivalent-member routes covers a member bedded along its length); the table has no
+            # routes column, so such a row is checked by that route. Restraints and steps keep the default
+            # routes: the engine checks each segment between braced points as an equivalent member.
             data["check"] = {**data.get("check", {}), "routes": ["second-order"]}
     try:
         return engine.Case.from_dict(data)

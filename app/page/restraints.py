@@ -187,7 +187,9 @@ class InsideView(pn.viewable.Viewer):
                 "fixed, free or a spring, or a hinge (M = 0, the slope may jump). A step sets EI from its x "
                 "to the next step (a case with EI given and no section). A foundation adds a spring bed of "
                 "modulus k (force per length of member per unit deflection) from <i>from</i> to <i>to</i>. "
-                "With any of them the member check counts the second-order route only.</div>"
+                "Restraints with a fixed translation divide the member into segments, each checked as an "
+                "equivalent member; on a foundation the member check counts the second-order route "
+                "only.</div>"
             ),
             margin=0,
             sizing_mode="stretch_width",

@@ -98,6 +98,10 @@ REASONS = {
     "section-not-classified": "the section has no class (EN 1993-1-1 Table 5.2): the route needs one",
     "section-class-4": "a class 4 section: the route does not cover effective sections",
     "custom-section": "a custom section: its buckling curve and classes are not known",
+    "stepped-section": (
+        "a member stepped in section: the route's tables take one section along the member (the second-order "
+        "route checks each segment with its own section)"
+    ),
     "slender-element-compression": "a slender element in compression (AISC 360-16 §E7, not covered)",
     "slender-element-flexure": "a slender element in flexure (AISC 360-16 §F, not covered)",
 }

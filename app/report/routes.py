@@ -154,10 +154,30 @@ def fact_text(key: str, value, U: Units) -> str | None:
     return f"{_symbol_of(key)} = {shown}"
 
 
+#: The facts of a member divided by restraints into segments (engine.segment_routes), worded together.
+_SEGMENT_FACTS = ("segment_start", "segment_end", "L_segment", "segments")
+
+
+def segment_text(facts: dict, U: Units) -> str | None:
+    """Which segment between braced points governs an equivalent-member route, e.g. ``"governing segment
+    x = 0 to 3.00 m (1 of 2)"``; None for a route of the whole member."""
+    if "segment_start" not in facts or "segment_end" not in facts:
+        return None
+    a, b = float(facts["segment_start"]), float(facts["segment_end"])
+    text = f"governing segment x = {U.show('length', a)} to {U.show('length', b)}"
+    pieces = facts.get("segments") or ()
+    for number, piece in enumerate(pieces, start=1):
+        if (float(piece[0]), float(piece[1])) == (a, b):  # the same numbers: the engine copied them
+            return f"{text} ({number} of {len(pieces)})"
+    return text
+
+
 def facts_text(facts: dict, U: Units) -> str:
-    """The facts of a route that have a known kind, in the order of :data:`FACTS`, then the others."""
+    """The facts of a route that have a known kind, in the order of :data:`FACTS`, then the others; the
+    governing segment first when the route checked the member segment by segment."""
     keys = [k for k in FACTS if k in facts] + sorted(k for k in facts if k not in FACTS)
-    parts = [fact_text(key, facts[key], U) for key in keys]
+    parts = [segment_text(facts, U)]
+    parts += [fact_text(key, facts[key], U) for key in keys if key not in _SEGMENT_FACTS]
     return ", ".join(part for part in parts if part)
 
 

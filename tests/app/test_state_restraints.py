@@ -88,14 +88,21 @@ def test_a_bad_value_is_named_with_its_range_and_the_last_result_is_kept():
 
 
 def test_the_first_row_takes_the_route_the_engine_allows():
-    """The engine refuses the equivalent-member routes and the eq. (5.9) bow with restraints (DEVELOPERS.md,
-    its conservative refusals): the page's first restraint switches to the second-order route at once."""
+    """The engine refuses the equivalent-member routes on a foundation and the eq. (5.9) bow with steps
+    (DEVELOPERS.md, its conservative refusals): the page's first foundation range switches to the
+    second-order route at once, its first step an eq. (5.9) bow to Table 5.1; a restraint keeps the routes
+    (each segment between braced points is checked as an equivalent member)."""
     state = MemberState()  # the demo: the default routes count the equivalent member too
-    assert list(state.routes) != ["second-order"]
+    routes = list(state.routes)
+    assert routes != ["second-order"]
     state.add_item("restraints")
     assert state.errors == {}
-    assert list(state.routes) == ["second-order"]
+    assert list(state.routes) == routes
     assert len(state.result.reactions.intermediate) == 1
+    assert {r.route for r in state.result.routes if r.utilization is not None} >= {"en-member"}
+    state.add_item("foundation")
+    assert state.errors == {}
+    assert list(state.routes) == ["second-order"]
 
 
 def test_the_link_and_a_case_file_carry_every_row():

@@ -163,3 +163,24 @@ def test_stepped_member_routes_and_out_of_plane_are_conservative():
     weak = section_from_spec({"name": "HEB 200"}, "minor")
     assert oop.N_cr == pytest.approx(math.pi**2 * E * weak.I / L**2, rel=1e-12)
     assert oop.N_b_Rd == pytest.approx(oop.chi * weak.A * FY / 1.0, rel=1e-12)
+
+
+@pytest.mark.parametrize("P", [0.0, 200e3])
+def test_lateral_torsional_buckling_of_a_stepped_member_is_the_weaker_sections(P):
+    """A simply supported member stepped HEB 300 -> HEB 200 under a uniform load (statically determinate: the
+    first-order diagram is that of any EI) is checked for lateral-torsional buckling with each segment's
+    section along the whole member, and the weakest governs (DEVELOPERS.md, decisions log). So its M_cr and
+    M_b,Rd equal those of a uniform HEB 200 member ([derived]: the same problem). This also guards the
+    member's cache: every segment is checked with the same cache, and a key of the settings alone returned
+    the first segment's (the stiffer section's) M_cr for the second, an unsafe value."""
+    loads = [{"type": "uniform", "q": 8e3}]
+    common = {"left": "pinned", "right": "pinned", "P": P, "loads": loads}
+    steps = [{"x": 5.0, "section": {"name": "HEB 200"}}]
+    stepped = engine.solve(engine.Case.from_dict(_data(steps, **common)))
+    uniform = _data([], **common)
+    uniform["section"] = {"name": "HEB 200"}
+    weak = engine.solve(engine.Case.from_dict(uniform))
+    assert stepped.ltb.applies and weak.ltb.applies
+    assert stepped.ltb.M_cr == pytest.approx(weak.ltb.M_cr, rel=1e-12)
+    assert stepped.ltb.M_cr_0 == pytest.approx(weak.ltb.M_cr_0, rel=1e-12)
+    assert stepped.ltb.M_b_Rd == pytest.approx(weak.ltb.M_b_Rd, rel=1e-12)
