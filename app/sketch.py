@@ -36,7 +36,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from app.report import has_bow, support_text
-from app.report.restraints import foundation_show, step_section_name
+from app.report.restraints import step_section_name
 from app.units import Units
 
 __all__ = [
@@ -256,7 +256,7 @@ def _inner(out, result, U: Units, L_si: float) -> None:
         count = max(2, int(round(24 * (end - start) / L_si)))
         for x in np.linspace(a, b, count + 1)[:-1]:
             out.append(_line("hatch", [x, x], 0.0, [0.0, 0.06], [-0.13, -0.21], width=0.7))
-        said = f"foundation k = {foundation_show(U, k)}" + (" (2nd plane)" if dashed else "")
+        said = f"foundation k = {U.show('stress', k)}" + (" (2nd plane)" if dashed else "")
         out.append(Text("note", said, _pt(a, 0.0, 0.06, -0.23), va="top", size=6.0))
     for index, r in enumerate(getattr(case, "restraints", ())):
         x = r.x * f

@@ -37,11 +37,13 @@ def test_printed_summary_lists_the_restraints_steps_foundation_and_every_reactio
     ]
 
 
-def test_json_summary_gives_the_inputs_in_the_case_files_form_and_the_version_stays():
+def test_json_summary_gives_the_inputs_in_the_case_files_form():
     case = engine.Case.from_dict(EVERYTHING)
     result = engine.solve(case)
     data = json.loads(json.dumps(summary_data("invented", case, result), allow_nan=False))
-    assert data["summary_version"] == SUMMARY_VERSION == 3  # new keys only: no existing field changed
+    assert (
+        data["summary_version"] == SUMMARY_VERSION == 4
+    )  # the restraint keys are new keys: no version of their own
     for key in ("restraints", "steps", "foundation"):
         assert data[key] == EVERYTHING[key]
         # The keys read back as the case's own lists.
