@@ -73,12 +73,16 @@ def test_steps_and_foundation_cells_are_the_case_files_lists():
     ]
 
 
-def test_a_row_with_a_section_and_restraints_takes_the_second_order_route():
-    # The only route the engine offers with restraints (engine.restraints.check_against); the table has no
-    # routes column.
+def test_only_a_row_on_a_foundation_takes_the_second_order_route_alone():
+    # On a foundation the engine offers the member check by the second-order route only
+    # (engine.restraints.check_against); the table has no routes column. Restraints keep the default routes:
+    # the engine checks each segment between braced points as an equivalent member.
+    default = case_of(EI_kNm2="", section="HEB 200", material="S355").check.routes
+    assert default != ("second-order",)
     got = case_of(EI_kNm2="", section="HEB 200", material="S355", restraints="3:pinned")
-    assert got.check.routes == ("second-order",)
-    assert case_of(EI_kNm2="", section="HEB 200", material="S355").check.routes != ("second-order",)
+    assert got.check.routes == default
+    bedded = case_of(EI_kNm2="", section="HEB 200", material="S355", foundation="0-6:k=2000")
+    assert bedded.check.routes == ("second-order",)
 
 
 # ------------------------------------------------------------------------------------------------------
