@@ -239,12 +239,20 @@ def _member(out, result, L_si: float, f: float) -> None:
         )
 
 
+def _twist_label(twist) -> str:
+    """What a restraint's name adds for its twist (read by the lateral-torsional buckling check only)."""
+    if twist == "free":
+        return ""
+    return " φ held" if twist == "fixed" else " k_φ"
+
+
 def _inner(out, result, U: Units, L_si: float) -> None:
     """Restraints, steps and foundation ranges inside the member (engine issue 16), with symbols of their own:
     a brace (a post on a foot) where translation is fixed, a zigzag spring on the ground where it is elastic,
     a collar of two bars where rotation is fixed, a spiral where it is elastic, a white circle for a hinge, a
     hatched band under the member for a foundation and a tick with the new EI at a step. A restraint of the
-    second plane only is drawn dashed and named so."""
+    second plane only is drawn dashed and named so; one holding the twist says "φ held" (or "k_φ", a
+    torsional spring) after its name."""
     case, f = result.case, U.length.factor
     for start, end, k, plane in ((r.start, r.end, r.k, r.plane) for r in getattr(case, "foundation", ())):
         a, b = start * f, end * f
@@ -277,7 +285,7 @@ def _inner(out, result, U: Units, L_si: float) -> None:
             _spiral(out, x, 1.0, **style)
         if r.hinge:
             out.append(_circle("hinge", x, 0.0, 0.0, 0.045))
-        label = f"R{index + 1}" + (" 2nd plane" if r.plane == "second" else "")
+        label = f"R{index + 1}" + (" 2nd plane" if r.plane == "second" else "") + _twist_label(r.twist)
         out.append(Text("label", label, _pt(x, 0.0, 0.05, 0.06), size=6.0))
     own = float(getattr(case, "EI", None) or result.EI)
     for step in getattr(case, "steps", ()):

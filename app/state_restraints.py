@@ -2,7 +2,8 @@
 
 :class:`InnerInputs` is the part of :class:`app.state_inputs.MemberInputs` that holds them, in the case
 file's own form and SI like every input (lists of mappings, as ``loads``): ``restraints`` (``x``,
-``translation`` and ``rotation`` "fixed", "free" or a spring [N/m, N·m/rad], ``hinge``, ``plane``), ``steps``
+``translation`` and ``rotation`` "fixed", "free" or a spring [N/m, N·m/rad], ``hinge``, ``plane``, ``twist``
+"fixed", "free" or a torsional spring k_φ [N·m/rad]), ``steps``
 (``x``, ``EI`` [N·m²]) and ``foundation`` (``start``, ``end``, ``k`` [N/m²], ``plane``). Rows are added,
 edited and removed as the loads are (:meth:`InnerInputs.add_item`, :meth:`InnerInputs.set_item`,
 :meth:`InnerInputs.remove_item`); the engine validates them when the state solves and its message names the
@@ -34,14 +35,14 @@ INNER_INPUTS = ("restraints", "steps", "foundation")
 
 #: The case-file keys of each list's rows.
 INNER_FIELDS = {
-    "restraints": ("x", "translation", "rotation", "hinge", "plane"),
+    "restraints": ("x", "translation", "rotation", "hinge", "plane", "twist"),
     "steps": ("x", "EI"),
     "foundation": ("start", "end", "k", "plane"),
 }
 
-#: The spring a restraint gets when its translation or rotation is switched to "spring" (SI: N/m, N·m/rad):
-#: a round, moderate value to be edited (common practice, no source).
-SPRING_DEFAULTS = {"translation": 1.0e6, "rotation": 1.0e6}
+#: The spring a restraint gets when its translation, rotation or twist is switched to "spring" (SI: N/m,
+#: N·m/rad, N·m/rad): a round, moderate value to be edited (common practice, no source).
+SPRING_DEFAULTS = {"translation": 1.0e6, "rotation": 1.0e6, "twist": 1.0e6}
 #: A new foundation's modulus k [N/m²] (a 0.2 m wide flange on a bedding of 50 MN/m³; invented).
 _FOUNDATION_K = 1.0e7
 
@@ -72,7 +73,8 @@ class InnerInputs(param.Parameterized):
         default=[],
         item_type=dict,
         doc="Intermediate restraints: x [m]; translation and rotation 'fixed', 'free' or a spring k_t [N/m], "
-        "k_r [N·m/rad]; hinge (a moment release); plane 'first', 'second' or 'both'.",
+        "k_r [N·m/rad]; hinge (a moment release); plane 'first', 'second' or 'both'; twist 'fixed', 'free' "
+        "or a torsional spring k_φ [N·m/rad] (lateral-torsional buckling only).",
     )
     steps = param.List(
         default=[],
@@ -106,10 +108,10 @@ class InnerInputs(param.Parameterized):
     def set_item(self, field: str, index: int, **fields: Any) -> None:
         """Change fields of row `index` of list `field`. An emptied number (None) is kept as None, so the
         engine names the field, its value and what it allows (the row stays as typed); a restraint's hinge
-        set false and its plane "both" are left out (the case file's defaults).
+        set false, its plane "both" and its twist "free" are left out (the case file's defaults).
 
-        A restraint's translation or rotation set to "spring" becomes :data:`SPRING_DEFAULTS`' stiffness; a
-        hinge set frees the rotation (a hinge takes no rotation restraint).
+        A restraint's translation, rotation or twist set to "spring" becomes :data:`SPRING_DEFAULTS`'
+        stiffness; a hinge set frees the rotation (a hinge takes no rotation restraint).
         """
         rows = [dict(row) for row in getattr(self, field)]
         row = rows[index]
@@ -118,7 +120,11 @@ class InnerInputs(param.Parameterized):
                 value = row[key] if _is_spring(row.get(key)) else SPRING_DEFAULTS[key]
             if key == "hinge" and value:
                 row.pop("rotation", None)
-            if (key == "hinge" and not value) or (key == "plane" and value in (None, "both")):
+            if (
+                (key == "hinge" and not value)
+                or (key == "plane" and value in (None, "both"))
+                or (key == "twist" and value == "free")
+            ):
                 row.pop(key, None)
             else:
                 row[key] = value

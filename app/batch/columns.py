@@ -174,8 +174,9 @@ COLUMNS: tuple[Column, ...] = (
         name="restraints",
         required=False,
         description="Supports, springs and hinges inside the member: "
-        "x:pinned|guided|fixed|kt=<kN/m>|kr=<kN·m/rad>|hinge[,...][@first|@second|@both] separated by ';' "
-        "(x in m), e.g. '2.0:pinned;4.0:kt=5000'. Empty: none.",
+        "x:pinned|guided|fixed|kt=<kN/m>|kr=<kN·m/rad>|hinge|twist|kphi=<kN·m/rad>[,...]"
+        "[@first|@second|@both] separated by ';' (x in m; twist: the twist φ held, kphi: a torsional "
+        "spring, for lateral-torsional buckling only), e.g. '2.0:pinned,twist;4.0:kt=5000'. Empty: none.",
     ),
     Column(
         name="steps",

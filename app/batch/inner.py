@@ -5,9 +5,11 @@ column):
 
 - ``restraints``: ``x:what[,what...][@plane]``, ``x`` [m] strictly inside the member. ``what`` is ``pinned``
   (translation fixed), ``guided`` (rotation fixed), ``fixed`` (both), ``kt=<kN/m>`` (a translational spring),
-  ``kr=<kN·m/rad>`` (a rotational spring) or ``hinge`` (a moment release); at most one translation and one
-  rotation per item. ``@plane`` is ``@first``, ``@second`` or ``@both`` (default both). Example:
-  ``2.0:pinned;4.0:kt=5000;3.0:hinge,pinned@first``.
+  ``kr=<kN·m/rad>`` (a rotational spring), ``hinge`` (a moment release), ``twist`` (the twist φ held) or
+  ``kphi=<kN·m/rad>`` (a torsional spring k_φ; the twist is read by the lateral-torsional buckling check
+  only); at most one translation, one rotation and one twist per item. ``@plane`` is ``@first``,
+  ``@second`` or ``@both`` (default both). Example:
+  ``2.0:pinned,twist;4.0:kt=5000;3.0:hinge,pinned@first;5.0:kphi=200``.
 - ``steps``: ``x:EI=<kN·m²>``, the bending stiffness from x to the next step. Example: ``3.0:EI=2100``.
 - ``foundation``: ``start-end:k=<kN/m²>[@plane]``, a Winkler modulus k (force per length per deflection) from
   start to end [m]. Example: ``0-6:k=5000``.
@@ -32,8 +34,9 @@ INNER_COLUMNS = ("restraints", "steps", "foundation")
 SYNTAX = {
     "restraints": "items x:what[,what][@plane] separated by ';', x in m strictly inside the member; what is "
     "pinned (translation fixed), guided (rotation fixed), fixed (both), kt=<kN/m> (translational spring), "
-    "kr=<kN·m/rad> (rotational spring) or hinge, at most one translation and one rotation each; plane "
-    "@first, @second or @both (default both); e.g. '2.0:pinned;4.0:kt=5000;3.0:hinge,pinned'",
+    "kr=<kN·m/rad> (rotational spring), hinge, twist (twist held) or kphi=<kN·m/rad> (torsional spring), at "
+    "most one translation, one rotation and one twist each; plane @first, @second or @both (default both); "
+    "e.g. '2.0:pinned,twist;4.0:kt=5000;3.0:hinge,pinned;5.0:kphi=200'",
     "steps": "items x:EI=<kN·m²> separated by ';', x in m strictly inside the member, increasing; e.g. "
     "'3.0:EI=2100'",
     "foundation": "items start-end:k=<kN/m²>[@plane] separated by ';', start and end in m on the member, k "
@@ -44,10 +47,17 @@ SYNTAX = {
 _UNSIGNED = r"(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?"
 _ITEM = re.compile(rf"\s*({_NUMBER})\s*:\s*(.*?)\s*(?:@\s*([A-Za-z]+)\s*)?")
 _RANGE_ITEM = re.compile(rf"\s*({_UNSIGNED})\s*-\s*({_UNSIGNED})\s*:\s*(.*?)\s*(?:@\s*([A-Za-z]+)\s*)?")
-_VALUE = re.compile(rf"\s*(kt|kr|EI|k)\s*=\s*({_NUMBER})\s*", re.IGNORECASE)
+_VALUE = re.compile(rf"\s*(kt|kr|kphi|EI|k)\s*=\s*({_NUMBER})\s*", re.IGNORECASE)
 _PLANES = ("first", "second", "both")
-#: The rigid restraints by name: (translation, rotation) they fix.
-_NAMED = {"pinned": ("fixed", None), "guided": (None, "fixed"), "fixed": ("fixed", "fixed")}
+#: The rigid restraints by name: what each fixes (translation, rotation, twist).
+_NAMED = {
+    "pinned": {"translation": "fixed"},
+    "guided": {"rotation": "fixed"},
+    "fixed": {"translation": "fixed", "rotation": "fixed"},
+    "twist": {"twist": "fixed"},
+}
+#: The springs by name: the part each is.
+_SPRINGS = {"kt": "translation", "kr": "rotation", "kphi": "twist"}
 
 
 def _refuse(column: str, item: str, why: str) -> RowError:
@@ -79,7 +89,7 @@ def _value(column: str, item: str, part: str, keys: tuple[str, ...]) -> float:
     name = match.group(1).lower()
     # In the table's units, before the engine's own bounds (which it words in SI): a spring of 0 is free.
     if value < 0.0 or (value == 0.0 and name in ("ei", "k")):
-        least = ">= 0" if name in ("kt", "kr") else "> 0"
+        least = ">= 0" if name in _SPRINGS else "> 0"
         raise _refuse(column, item, f"gives {match.group(1)} = {match.group(2)}, which must be {least}")
     return value
 
@@ -101,17 +111,17 @@ def _restraint(item: str) -> dict:
             data["hinge"] = True
             continue
         if key in _NAMED:
-            given = dict(zip(("translation", "rotation"), _NAMED[key], strict=True))
+            given = _NAMED[key]
         else:
-            value = _value(column, item, part, ("pinned", "guided", "fixed", "kt", "kr", "hinge"))
+            value = _value(column, item, part, (*_NAMED, "hinge", *_SPRINGS))
             name = part.split("=")[0].strip().lower()
-            # Springs in the table's units: kN/m and kN·m/rad.
-            given = {"translation": value * _KILO} if name == "kt" else {"rotation": value * _KILO}
+            # Springs in the table's units: kN/m, kN·m/rad and kN·m/rad.
+            given = {_SPRINGS[name]: value * _KILO}
         for what, restraint in given.items():
-            if restraint is None:
-                continue
             if what in data:
-                raise _refuse(column, item, f"gives the {what} twice (one translation, one rotation)")
+                raise _refuse(
+                    column, item, f"gives the {what} twice (one translation, one rotation, one twist)"
+                )
             data[what] = restraint
     plane = _plane(column, item, match.group(3))
     if plane is not None:

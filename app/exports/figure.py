@@ -12,6 +12,7 @@ from matplotlib.patches import Rectangle
 from matplotlib.ticker import MaxNLocator
 
 from app.exports.layout import _fit, _Flow, _Measure
+from app.exports.ltb_mode import draw_ltb_mode, has_ltb_mode
 from app.exports.sketch_draw import _draw_sketch
 from app.exports.style import (
     _ACCENT,
@@ -51,6 +52,7 @@ from app.report import (
     system_name,
     utilisation_text,
 )
+from app.report.ltb import ltb_words
 from app.report.routes import plane_axes, plane_name
 from app.sketch import MOMENT_POSITIVE_DOWN, PAD_INCHES
 from app.units import Units
@@ -376,16 +378,20 @@ def result_figure(result, *, units="si", date=None) -> Figure:
     FigureCanvasAgg(fig)
     fig_w, fig_h = A4_LANDSCAPE
     second = getattr(result, "second_plane", None)
+    mode = has_ltb_mode(result)
+    bottom = 0.33 if mode else 0.075  # the lateral-torsional buckling mode's panel goes below the diagrams
     if second is None:
-        _plots(fig, result, U, left=0.075, right=0.655, top=0.92, bottom=0.075, legend_columns=3)
+        _plots(fig, result, U, left=0.075, right=0.655, top=0.92, bottom=bottom, legend_columns=3)
     else:  # both planes side by side, each with its own sketch (its supports and loads) and diagrams
         for plane, axis, left, right in zip(
             (result, second), plane_axes(result), (0.075, 0.40), (0.315, 0.64), strict=True
         ):
-            _plots(fig, plane, U, left=left, right=right, top=0.84, bottom=0.075, legend_columns=1)
+            _plots(fig, plane, U, left=left, right=right, top=0.84, bottom=bottom, legend_columns=1)
             fig.text(
                 left, 0.965, f"bending about the {plane_name(axis)}", fontsize=8, weight="bold", color=_INK
             )
+    if mode:
+        _mode_panel(fig, result, U, left=0.075, right=0.655 if second is None else 0.64)
     _title_block(
         fig,
         result,
@@ -397,6 +403,30 @@ def result_figure(result, *, units="si", date=None) -> Figure:
         bottom=0.03 * fig_h,
     )
     return fig
+
+
+#: The title of the PNG's panel with the first lateral-torsional buckling mode (before "at M_cr = ...").
+MODE_TITLE = "Lateral-torsional buckling, first mode"
+
+
+def _mode_panel(fig, result, U: Units, *, left: float, right: float) -> None:
+    """The first lateral-torsional buckling mode below the diagrams, across their width; in a one-plane case
+    its x axis lines up with theirs (the same padding each side)."""
+    fig_w, _ = fig.get_size_inches()
+    ax = fig.add_axes((left, 0.075, right - left, 0.17))
+    L = U.length.from_si(float(result.case.length))
+    pad = _pad(L, (right - left) * fig_w)
+    draw_ltb_mode(ax, result, U, size=7.5, xlim=(-pad, L + pad))
+    ax.set_xlabel(f"x [{U.label('length')}] from the left end", fontsize=7.5, color=_INK)
+    ax.set_ylabel("v, φ\n(each largest |value| 1)", fontsize=7.5, color=_INK)
+    M_cr = ltb_words(result, U).text("M_cr")
+    ax.set_title(f"{MODE_TITLE} at M_cr = {M_cr}", fontsize=8, color=_INK, loc="left")
+
+
+def _pad(L: float, width_in: float) -> float:
+    """The room [display length] each side of a member of length `L` drawn `width_in` inches wide: PAD_INCHES
+    for the supports and the axial-force arrows."""
+    return PAD_INCHES * L / max(width_in - 2 * PAD_INCHES, 1.0)
 
 
 def sheet_figure(result, *, units="si", plane: str = "first") -> Figure:
@@ -458,9 +488,7 @@ def _plots(fig, result, U: Units, *, left, right, top, bottom, legend_columns) -
     axes = [fig.add_subplot(grid[i], sharex=sketch) for i in (1, 2, 3)]
 
     L = U.length.from_si(float(result.case.length))
-    width_in = (plot_right - plot_left) * fig_w
-    # PAD_INCHES each side for the supports and the axial-force arrows.
-    pad = PAD_INCHES * L / max(width_in - 2 * PAD_INCHES, 1.0)
+    pad = _pad(L, (plot_right - plot_left) * fig_w)
     sketch.set_xlim(-pad, L + pad)
     _draw_sketch(sketch, result, U)
 

@@ -5,22 +5,12 @@ from __future__ import annotations
 
 import textwrap
 
-import numpy as np
 from matplotlib.backends.backend_agg import FigureCanvasAgg
 from matplotlib.figure import Figure
 
 from app.exports.figure import page_heading
-from app.exports.style import (
-    _ACCENT,
-    _DANGER,
-    _FONT,
-    _GREY,
-    _GRID,
-    _INK,
-    _LIGHT,
-    A4_PORTRAIT,
-    _title,
-)
+from app.exports.ltb_mode import draw_ltb_mode, has_ltb_mode
+from app.exports.style import _DANGER, _FONT, _GREY, _INK, A4_PORTRAIT, _title
 from app.report.ltb import ltb_words
 from app.units import Units
 
@@ -57,26 +47,13 @@ def ltb_mode_figure(result, U: Units) -> Figure | None:
     """A calc-sheet page (A4 portrait) with the first lateral-torsional buckling mode at M_cr: the lateral
     displacement v of the shear centre and the twist φ, each scaled to a largest |value| of 1, along the
     member in the display unit, the intermediate restraints marked. None when the check was not made."""
-    ltb = getattr(result, "ltb", None)
-    if ltb is None or not ltb.applies or not len(getattr(ltb, "mode_x", ())):
+    if not has_ltb_mode(result):
         return None
+    ltb = result.ltb
     words = ltb_words(result, U)
     fig = Figure(figsize=A4_PORTRAIT)
     FigureCanvasAgg(fig)
-    ax = fig.add_axes((0.14, 0.58, 0.80, 0.30))
-    x = np.asarray(ltb.mode_x, dtype=float) * U.length.factor
-    ax.plot(x, np.asarray(ltb.mode_v, dtype=float), color=_INK, lw=1.4, label="lateral displacement v")
-    ax.plot(x, np.asarray(ltb.mode_phi, dtype=float), color=_ACCENT, lw=1.4, ls="--", label="twist φ")
-    ax.axhline(0.0, color=_LIGHT, lw=0.8)
-    for restraint in getattr(ltb, "restraints", ()) or ():
-        ax.axvline(float(restraint["x"]) * U.length.factor, color=_GREY, lw=0.8, ls=":")
-    ax.set_xlim(float(x[0]), float(x[-1]))
-    ax.set_ylim(-1.1, 1.1)
-    ax.set_xlabel(f"x [{U.label('length')}]", family=_FONT, fontsize=8)
-    ax.set_ylabel("first LTB mode (each largest |value| 1)", family=_FONT, fontsize=8)
-    ax.tick_params(labelsize=7)
-    ax.grid(True, color=_GRID, lw=0.5)
-    ax.legend(loc="upper right", fontsize=7, frameon=False, prop={"family": _FONT, "size": 7})
+    draw_ltb_mode(fig.add_axes((0.14, 0.58, 0.80, 0.30)), result, U)
     page_heading(fig, f"Lateral-torsional buckling mode at M_cr = {words.text('M_cr')}: {_title(result)}")
     note = (
         "v: the shear centre's lateral displacement; φ: the twist. "

@@ -39,12 +39,18 @@ _NUMBERS = {
 }
 #: The opener's label wraps (its counts do not fit the strip on one line) and reads from the left.
 _WRAP = ".bk-btn { white-space: normal; text-align: left; }"
-_SPRINGS = {"translation": ("k_t", "translational_spring"), "rotation": ("k_r", "rotational_spring")}
+#: A restraint's parts chosen fixed, free or spring, with the spring's symbol and quantity; the twist (φ, for
+#: lateral-torsional buckling only) takes a torsional spring shown as the rotation's is.
+_SPRINGS = {
+    "translation": ("k_t", "translational_spring"),
+    "rotation": ("k_r", "rotational_spring"),
+    "twist": ("k_φ", "rotational_spring"),
+}
 
 
 def _kind(value) -> str:
-    """A restraint's translation or rotation as its select shows it: fixed, free or spring (a number or an
-    emptied spring)."""
+    """A restraint's translation, rotation or twist as its select shows it: fixed, free or spring (a number
+    or an emptied spring)."""
     return value if value in ("fixed", "free") else "spring"
 
 
@@ -52,7 +58,7 @@ def _shape(field: str, row: dict) -> tuple:
     """What a row's widgets depend on (rebuilt when it changes)."""
     if field != "restraints":
         return (field,)
-    return (field, _kind(row.get("translation", "free")), _kind(row.get("rotation", "free")))
+    return (field, *(_kind(row.get(part, "free")) for part in _SPRINGS))
 
 
 class InsideRow:
@@ -184,8 +190,10 @@ class InsideView(pn.viewable.Viewer):
             *self.columns.values(),
             html_pane(
                 "<div class='ss-note'>A restraint acts at x inside the member: translation and rotation "
-                "fixed, free or a spring, or a hinge (M = 0, the slope may jump). A step sets EI from its x "
-                "to the next step (a case with EI given and no section). A foundation adds a spring bed of "
+                "fixed, free or a spring, or a hinge (M = 0, the slope may jump); its twist (φ held or a "
+                "torsional spring k_φ) is read by the lateral-torsional buckling check only. A step sets EI "
+                "from its x to the next step (a case with EI given and no section). A foundation adds a "
+                "spring bed of "
                 "modulus k (force per length of member per unit deflection) from <i>from</i> to <i>to</i>. "
                 "Restraints with a fixed translation divide the member into segments, each checked as an "
                 "equivalent member; on a foundation the member check counts the second-order route "

@@ -169,19 +169,28 @@ def _restraint_part(value, kind: str, symbol: str, U: Units) -> str | None:
     return f"spring {symbol} = {U.show(kind, value)}"
 
 
+#: A restraint's parts that are fixed, free or a spring: (key, quantity of the spring, its symbol). The twist
+#: (φ, about the member's axis) is read by the lateral-torsional buckling check only.
+_PARTS = (
+    ("translation", "translational_spring", "k_t"),
+    ("rotation", "rotational_spring", "k_r"),
+    ("twist", "rotational_spring", "k_φ"),
+)
+
+
 def restraint_text(r, U: Units, two_planes: bool = False) -> str:
-    """One restraint inside the member, e.g. ``"x = 3.000 m: translation fixed, hinge"``."""
+    """One restraint inside the member, e.g. ``"x = 3.000 m: translation fixed, hinge"`` or
+    ``"x = 3.000 m: twist fixed (lateral-torsional buckling)"``; a twist alone acts in no bending plane, so
+    no plane is named for it."""
     parts = []
-    for name, kind, symbol in (
-        ("translation", "translational_spring", "k_t"),
-        ("rotation", "rotational_spring", "k_r"),
-    ):
-        said = _restraint_part(getattr(r, name), kind, symbol, U)
+    for name, kind, symbol in _PARTS:
+        said = _restraint_part(getattr(r, name, "free"), kind, symbol, U)
         if said is not None:
-            parts.append(f"{name} {said}")
+            parts.append(f"{name} {said}" + (" (lateral-torsional buckling)" if name == "twist" else ""))
     if r.hinge:
         parts.append("hinge (moment released)")
-    plane = f" ({_PLANE_WORDS[r.plane]})" if two_planes else ""
+    bends = getattr(r, "bends", True)
+    plane = f" ({_PLANE_WORDS[r.plane]})" if two_planes and bends else ""
     return f"x = {position(U, r.x)}: {', '.join(parts)}{plane}"
 
 
@@ -254,11 +263,8 @@ def metadata_rows(result, U: Units) -> list[tuple]:
     for number, r in enumerate(getattr(case, "restraints", ()), start=1):
         what = restraint_text(r, U, two).split(": ", 1)[1]
         rows.append((f"restraint {number} x [{length}]", csv_number(U.convert("length", r.x)), what))
-        for name, kind, symbol in (
-            ("translation", "translational_spring", "k_t"),
-            ("rotation", "rotational_spring", "k_r"),
-        ):
-            value = getattr(r, name)
+        for name, kind, symbol in _PARTS:
+            value = getattr(r, name, "free")
             if not isinstance(value, str):
                 rows.append(
                     (f"restraint {number} {symbol} [{U.label(kind)}]", csv_number(U.convert(kind, value)))

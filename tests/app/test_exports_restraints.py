@@ -231,3 +231,30 @@ def test_reactions_come_in_x_order_whatever_the_case_files_order():
     by_index = {inner.index: inner for inner in result.reactions.intermediate}
     for r in found:
         assert r.force == -by_index[r.index].force
+
+
+@pytest.mark.parametrize(
+    ("system", "per_unit", "label"), [("si", 1e3, "kN·m/rad"), ("us", KIP * FOOT, "kip·ft/rad")]
+)
+def test_a_twist_restraint_is_worded_and_in_the_csv(system, per_unit, label):
+    """A twist held or a torsional spring (read by the lateral-torsional buckling check only) is named in the
+    words and the CSV's note, a spring's k_φ in the display unit; a twist alone names no bending plane."""
+    from app.report.restraints import inner_rows
+    from app.units import units
+
+    case = {
+        **TWO_SPANS,
+        "restraints": [{"x": 2.0, "twist": "fixed"}, {"x": 4.0, "translation": "fixed", "twist": 3.0e5}],
+        "second_plane": {"supports": {"left": "pinned", "right": "pinned"}, "loads": [], "EI": 1.4e6},
+    }
+    result = solved(case)
+    rows = dict(inner_rows(result.case, units(system)))
+    assert rows["restraint 1"].endswith(": twist fixed (lateral-torsional buckling)")  # no plane
+    assert "translation fixed, twist spring k_φ = " in rows["restraint 2"]
+    assert rows["restraint 2"].endswith(f" {label} (lateral-torsional buckling) (both planes)")
+    meta = metadata(exports.csv_text(result, units=system))
+    assert meta[f"restraint 1 x [{'m' if system == 'si' else 'ft'}]"][1] == (
+        "twist fixed (lateral-torsional buckling)"
+    )
+    (value,) = meta[f"restraint 2 k_φ [{label}]"][:1]
+    assert float(value) == pytest.approx(3.0e5 / per_unit, rel=SIX_FIGURES)

@@ -27,6 +27,21 @@ def _result(restraints):
     )
 
 
+def _plain():
+    """A member with no section: no check, so no lateral-torsional buckling (invented)."""
+    return engine.solve(
+        engine.Case.from_dict(
+            {
+                "schema": 1,
+                "length": 4.0,
+                "EI": 4e6,
+                "supports": {"left": "pinned", "right": "pinned"},
+                "loads": [{"type": "uniform", "q": 1e3}],
+            }
+        )
+    )
+
+
 def test_words_name_the_restraints_and_the_governing_segment():
     result = _result([{"x": 2.0, "translation": "fixed", "plane": "second", "twist": "fixed"}])
     si, us = ltb_words(result, units("si")), ltb_words(result, units("us"))
@@ -72,16 +87,42 @@ def test_calc_sheet_has_a_page_with_the_buckling_mode():
         )
         assert any(np.allclose(line.get_xdata(), 2.0 * per_metre) for line in ax.get_lines()[2:])
         assert pages.index(mode[0]) == len(pages) - 3  # before the two planes' figure pages
-    plain = engine.solve(
-        engine.Case.from_dict(
-            {
-                "schema": 1,
-                "length": 4.0,
-                "EI": 4e6,
-                "supports": {"left": "pinned", "right": "pinned"},
-                "loads": [{"type": "uniform", "q": 1e3}],
-            }
-        )
-    )
+    plain = _plain()
     pages = exports.calc_sheet_figures(plain)
     assert not any("Lateral-torsional buckling mode" in t.get_text() for p in pages for t in p.texts)
+
+
+def test_png_has_a_panel_with_the_buckling_mode():
+    """With the check made, the PNG's figure gains one axes below the diagrams drawing ltb.mode_v and
+    ltb.mode_phi along x in the display unit, titled with M_cr and the brace dotted; a member whose check was
+    not made (a cantilever, or no section) keeps the four axes of before. The PNG stays A4 landscape."""
+    import io
+
+    import numpy as np
+    from PIL import Image
+
+    from app import exports
+    from app.exports.figure import MODE_TITLE
+
+    result = _result([{"x": 2.0, "translation": "fixed", "plane": "second", "twist": "fixed"}])
+    for system, per_metre in (("si", 1.0), ("us", 1 / 0.3048)):
+        fig = exports.result_figure(result, units=system)
+        assert len(fig.axes) == 9  # a sketch and three diagrams per plane, and the mode
+        (ax,) = [a for a in fig.axes if a.get_title(loc="left").startswith(MODE_TITLE)]
+        assert ltb_words(result, units(system)).text("M_cr") in ax.get_title(loc="left")
+        v, phi = ax.get_lines()[:2]
+        assert np.allclose(v.get_xdata(), np.asarray(result.ltb.mode_x) * per_metre)
+        assert np.allclose(v.get_ydata(), result.ltb.mode_v)
+        assert np.allclose(phi.get_ydata(), result.ltb.mode_phi)
+        assert any(np.allclose(line.get_xdata(), 2.0 * per_metre) for line in ax.get_lines()[2:])
+    # A4 landscape at 40 dpi: 297 × 210 mm (ISO 216, from memory)
+    assert Image.open(io.BytesIO(exports.png_bytes(result, dpi=40))).size == (468, 331)
+    cantilever = dict(_result([]).case.to_dict(), supports={"left": "fixed", "right": "free"})
+    cantilever.pop("second_plane")
+    refused = engine.solve(engine.Case.from_dict(cantilever))
+    assert refused.ltb is not None and not refused.ltb.applies
+    plain = _plain()
+    for other in (refused, plain):
+        fig = exports.result_figure(other)
+        assert len(fig.axes) == 4
+        assert not any(a.get_title(loc="left").startswith(MODE_TITLE) for a in fig.axes)

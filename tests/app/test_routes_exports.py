@@ -81,13 +81,16 @@ def test_calc_sheet_has_each_route_and_the_second_plane(two_planes, system):
 def test_png_figure_draws_both_planes():
     """With a second plane the figure has two sets of diagrams, each headed by the axis it bends about."""
     from app.exports.figure import result_figure
+    from app.exports.ltb_mode import has_ltb_mode
 
     fig = result_figure(two_planes_result(), units="us")
     texts = [text.get_text() for text in fig.texts]
     assert "bending about the major axis (y–y)" in texts and "bending about the minor axis (z–z)" in texts
-    assert len(fig.axes) == 8  # a sketch and three diagrams per plane
+    # a sketch and three diagrams per plane, and the lateral-torsional buckling mode's panel when checked
+    mode = int(has_ltb_mode(two_planes_result()))
+    assert len(fig.axes) == 8 + mode
     single = result_figure(dataclasses.replace(two_planes_result(), second_plane=None), units="us")
-    assert len(single.axes) == 4
+    assert len(single.axes) == 4 + mode
 
 
 def two_planes_result():

@@ -164,3 +164,13 @@ def test_the_diagrams_draw_each_jump_at_one_x_and_the_hinge_at_zero_moment():
         assert force[at[0]] - force[at[1]] == pytest.approx(inner.force / 1e3, rel=1e-9)
     hinge = np.flatnonzero(np.isclose(x, 4.0, rtol=0, atol=1e-12))
     assert np.allclose(moment[hinge], 0.0, atol=1e-9)
+
+
+def test_a_twist_restraint_is_named_beside_its_label():
+    """A twist held says "φ held" after the restraint's name, a torsional spring "k_φ"; no other symbol."""
+    _, drawn = _sketch(
+        restraints=[{"x": 2.0, "twist": "fixed"}, {"x": 4.0, "translation": "fixed", "twist": 3.0e5}]
+    )
+    labels = [s.text for s in drawn.shapes if isinstance(s, Text) and s.text.startswith("R")]
+    assert labels == ["R1 φ held", "R2 k_φ"]
+    assert not _near(drawn.shapes, 2.0, "support") and not _near(drawn.shapes, 2.0, "spring")

@@ -165,3 +165,62 @@ def test_a_message_in_us_units_gives_the_value_and_both_ends_of_the_range_in_fee
         ">= 0.003 ft and <= 3281 ft"
     )
     assert shown_message(message, "si") == page_message(message)  # SI: the engine's own words
+
+
+def test_a_twist_held_inside_raises_m_cr_and_the_link_carries_it():
+    """The demo (HEB 200 in S355, pinned, 6 m: the lateral-torsional buckling check applies) with a restraint
+    holding the twist at mid-length and nothing else: the exact M_cr rises; a torsional spring lies between
+    none and held (a spring adds strain energy ½ k_φ φ² ≥ 0 and holding it is the limit k_φ → ∞, so M_cr
+    cannot fall: the Rayleigh quotient; common practice, no source). The link and the case file carry it."""
+    state = MemberState()  # the demo
+    free = state.result.ltb.M_cr
+    assert state.result.ltb.applies
+    state.add_item("restraints")
+    state.set_item("restraints", 0, translation="free", twist="fixed")
+    assert state.errors == {}
+    assert state.restraints == [{"x": 3.0, "translation": "free", "twist": "fixed"}]
+    held = state.result.ltb.M_cr
+    assert held > 1.5 * free
+    state.set_item("restraints", 0, twist="spring")  # the default spring, to be edited
+    assert state.restraints[0]["twist"] == 1.0e6
+    spring = state.result.ltb.M_cr
+    assert free < spring < held
+    state.set_item("restraints", 0, twist=2.0e5)
+    assert state.to_case().restraints[0].twist == 2.0e5
+    link = json.loads(state.link)
+    assert link["restraints"] == [{"x": 3.0, "translation": "free", "twist": 2.0e5}]
+    other = MemberState()
+    other.link = state.link
+    assert other.restraints == state.restraints
+    assert other.result.ltb.M_cr == pytest.approx(state.result.ltb.M_cr, rel=1e-12)
+    again = MemberState()
+    again.load_case(engine.Case.from_dict(state.case_mapping()))
+    assert again.to_case().restraints == state.to_case().restraints
+    state.set_item("restraints", 0, translation="fixed", twist="free")  # "free" is the default: left out
+    assert state.restraints == [{"x": 3.0, "translation": "fixed"}]
+
+
+def test_the_editor_offers_the_twist_with_its_spring_in_the_display_unit():
+    """The row's twist select (free, fixed, spring) writes the state; a spring shows k_φ in kN·m/rad or
+    kip·ft/rad (1 kip·ft = 1355.8179483314 N·m: 1 kip = 4448.2216152605 N, 1 ft = 0.3048 m, NIST SP 811
+    (2008) Appendix B; from memory)."""
+    from app.page.restraints import InsideView
+
+    state = MemberState()
+    view = InsideView(state)
+    state.add_item("restraints")
+    (row,) = view.rows["restraints"]
+    row.choices["twist"].value = "fixed"
+    assert state.restraints[0]["twist"] == "fixed"
+    (row,) = view.rows["restraints"]  # rebuilt: the twist changed kind
+    row.choices["twist"].value = "spring"
+    (row,) = view.rows["restraints"]
+    (k_phi,) = [f for f in row.fields if f.widget.name.startswith("k_φ")]
+    assert "kN·m/rad" in k_phi.widget.name and k_phi.widget.value == pytest.approx(1.0e3)
+    state.units = "us"
+    (row,) = view.rows["restraints"]
+    (k_phi,) = [f for f in row.fields if f.widget.name.startswith("k_φ")]
+    assert "kip·ft/rad" in k_phi.widget.name
+    assert k_phi.widget.value == pytest.approx(1.0e6 / 1355.8179483314, rel=1e-3)
+    row.choices["twist"].value = "free"
+    assert "twist" not in state.restraints[0]
