@@ -116,3 +116,17 @@ def test_the_editor_picks_a_steps_section_from_the_catalogue_list():
     (row,) = view.rows["steps"]
     assert row.choices["section"].value == "HEB 160"
     assert any("Step 1, section" in text for text in view.errors.shown())
+
+
+def test_the_sketch_and_the_words_name_the_steps_section():
+    from app.report.restraints import inner_rows
+    from app.sketch import sketch
+    from app.units import units
+
+    state = MemberState()
+    state.add_item("steps")
+    state.set_item("steps", 0, section={"name": "HEB 160"})
+    assert "HEB 160" in repr(sketch(state.result, units("si")).shapes)
+    assert any(
+        "section HEB 160 from x = 3" in value for _, value in inner_rows(state.result.case, units("si"))
+    )
