@@ -28,6 +28,7 @@ __all__ = [
     "inner_settings",
     "inner_mapping",
     "inner_values",
+    "step_section",
 ]
 
 #: The inputs held here (the state watches them as it watches every other input).
@@ -47,15 +48,31 @@ SPRING_DEFAULTS = {"translation": 1.0e6, "rotation": 1.0e6, "twist": 1.0e6}
 _FOUNDATION_K = 1.0e7
 
 
-def default_item(field: str, length: float, EI: float | None = None) -> dict:
-    """A new row of list `field` on a member of `length` [m] (EI [N·m²]: the member's own, for a step).
+def step_section(inputs) -> str | None:
+    """The catalogue name a new step takes when the case's steps go by section, else None (steps in EI).
 
-    A restraint is a rigid brace against translation at mid-length, a step halves EI from mid-length on and a
-    foundation runs along the whole member.
+    The engine takes a step by section in a case with a section and a material and no EI of its own; the page
+    offers it when that section is a catalogue one (its rows pick a catalogue name), steps in EI otherwise.
+    """
+    if getattr(inputs, "stiffness_from", None) == "section" and getattr(inputs, "section_shape", None) == (
+        "catalogue"
+    ):
+        return getattr(inputs, "section_name", None)
+    return None
+
+
+def default_item(field: str, length: float, EI: float | None = None, section: str | None = None) -> dict:
+    """A new row of list `field` on a member of `length` [m] (EI [N·m²]: the member's own, for a step;
+    `section`: the case's catalogue name, for a step by section).
+
+    A restraint is a rigid brace against translation at mid-length, a step halves EI (or takes the case's
+    section, to be picked) from mid-length on and a foundation runs along the whole member.
     """
     middle = 0.5 * length if isinstance(length, (int, float)) and length > 0 else 1.0
     if field == "restraints":
         return {"x": middle, "translation": "fixed"}
+    if field == "steps" and section:
+        return {"x": middle, "section": {"name": section}}
     if field == "steps":
         own = EI if isinstance(EI, (int, float)) and EI > 0 else 1.0e6
         return {"x": middle, "EI": 0.5 * own}
@@ -79,7 +96,7 @@ class InnerInputs(param.Parameterized):
     steps = param.List(
         default=[],
         item_type=dict,
-        doc="Steps in the bending stiffness: EI [N·m²] from x [m] to the next step.",
+        doc="Steps along the member: EI [N·m²] or a section ({'name': ...}) from x [m] to the next step.",
     )
     foundation = param.List(
         default=[],
@@ -95,7 +112,7 @@ class InnerInputs(param.Parameterized):
         leaves only the second-order route, and the first step turns an eq. (5.9) bow into the Table 5.1 bow.
         A restraint needs neither (the engine checks each segment between braced points by every route).
         """
-        row = default_item(field, getattr(self, "length", 1.0), getattr(self, "EI", None))
+        row = default_item(field, getattr(self, "length", 1.0), getattr(self, "EI", None), step_section(self))
         values: dict[str, Any] = {field: [*getattr(self, field), row]}
         if not getattr(self, field):
             values.update(inner_settings(self, field))

@@ -10,7 +10,9 @@ column):
   only); at most one translation, one rotation and one twist per item. ``@plane`` is ``@first``,
   ``@second`` or ``@both`` (default both). Example:
   ``2.0:pinned,twist;4.0:kt=5000;3.0:hinge,pinned@first;5.0:kphi=200``.
-- ``steps``: ``x:EI=<kN·m²>``, the bending stiffness from x to the next step. Example: ``3.0:EI=2100``.
+- ``steps``: ``x:EI=<kN·m²>``, the bending stiffness from x to the next step, in a row with ``EI_kNm2`` and no
+  section; or ``x:section=<catalogue name>``, the section from x to the next step, in a row with a section and
+  a material and no EI. Examples: ``3.0:EI=2100``, ``5.0:section=HEB 200``.
 - ``foundation``: ``start-end:k=<kN/m²>[@plane]``, a Winkler modulus k (force per length per deflection) from
   start to end [m]. Example: ``0-6:k=5000``.
 
@@ -37,8 +39,9 @@ SYNTAX = {
     "kr=<kN·m/rad> (rotational spring), hinge, twist (twist held) or kphi=<kN·m/rad> (torsional spring), at "
     "most one translation, one rotation and one twist each; plane @first, @second or @both (default both); "
     "e.g. '2.0:pinned,twist;4.0:kt=5000;3.0:hinge,pinned;5.0:kphi=200'",
-    "steps": "items x:EI=<kN·m²> separated by ';', x in m strictly inside the member, increasing; e.g. "
-    "'3.0:EI=2100'",
+    "steps": "items x:EI=<kN·m²> (a row with EI_kNm2 and no section) or x:section=<catalogue name> (a row "
+    "with a section and a material and no EI), all of one form, separated by ';', x in m strictly inside the "
+    "member, increasing; e.g. '3.0:EI=2100' or '5.0:section=HEB 200'",
     "foundation": "items start-end:k=<kN/m²>[@plane] separated by ';', start and end in m on the member, k "
     "the modulus (force per length per deflection) > 0; plane @first, @second or @both (default both); "
     "e.g. '0-6:k=5000'",
@@ -47,6 +50,7 @@ SYNTAX = {
 _UNSIGNED = r"(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?"
 _ITEM = re.compile(rf"\s*({_NUMBER})\s*:\s*(.*?)\s*(?:@\s*([A-Za-z]+)\s*)?")
 _RANGE_ITEM = re.compile(rf"\s*({_UNSIGNED})\s*-\s*({_UNSIGNED})\s*:\s*(.*?)\s*(?:@\s*([A-Za-z]+)\s*)?")
+_SECTION = re.compile(r"\s*section\s*=\s*(\S.*?)\s*", re.IGNORECASE)
 _VALUE = re.compile(rf"\s*(kt|kr|kphi|EI|k)\s*=\s*({_NUMBER})\s*", re.IGNORECASE)
 _PLANES = ("first", "second", "both")
 #: The rigid restraints by name: what each fixes (translation, rotation, twist).
@@ -133,7 +137,13 @@ def _step(item: str) -> dict:
     match = _ITEM.fullmatch(item)
     if match is None or match.group(3) is not None:
         raise _refuse("steps", item, "is not a step")
-    return {"x": float(match.group(1)), "EI": _value("steps", item, match.group(2), ("EI",)) * _KILO}
+    named = _SECTION.fullmatch(match.group(2))
+    if named is not None:  # the engine checks the name against the catalogue (naming steps[i].section.name)
+        return {"x": float(match.group(1)), "section": {"name": named.group(1)}}
+    return {
+        "x": float(match.group(1)),
+        "EI": _value("steps", item, match.group(2), ("EI", "section")) * _KILO,
+    }
 
 
 def _foundation(item: str) -> dict:

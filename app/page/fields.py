@@ -153,9 +153,9 @@ _LOAD_FIELD_WORDS = {
 }
 _LOAD_PATH = re.compile(r"^(?:second_plane\.)?loads\[(\d+)\](?:\.(\w+))?$")
 #: A row of the member's inside (engine issue 16): ``restraints[0].x``, ``steps[1].EI``, ``foundation[0].k``.
-_INNER_PATH = re.compile(r"^(restraints|steps|foundation)\[(\d+)\](?:\.(\w+))?$")
+_INNER_PATH = re.compile(r"^(restraints|steps|foundation)\[(\d+)\](?:\.(\w+)(?:\.[\w.\[\]]+)?)?$")
 #: The page's name of a row of each list (its heading, and its messages).
-INNER_ROWS = {"restraints": "Restraint", "steps": "Step in EI", "foundation": "Foundation"}
+INNER_ROWS = {"restraints": "Restraint", "steps": "Step", "foundation": "Foundation"}
 _INNER_FIELD_WORDS = {
     "x": "at x",
     "translation": "translation",
@@ -163,6 +163,7 @@ _INNER_FIELD_WORDS = {
     "hinge": "hinge",
     "plane": "plane",
     "EI": "EI",
+    "section": "section",
     "start": "from",
     "end": "to",
     "k": "modulus k",

@@ -1,5 +1,5 @@
-"""What acts inside the member (engine issue 16): restraints, steps in EI and foundation ranges, edited as the
-loads are.
+"""What acts inside the member (engine issue 16): restraints, steps (in EI, or in section on a catalogue
+section) and foundation ranges, edited as the loads are.
 
 :class:`InsideOpener` is all the first page carries: one button in the Member tab, which names how many rows
 the case has. The editor, :class:`InsideView`, is built when the button is first pressed (start-up, issue 10:
@@ -22,14 +22,15 @@ from app.page.fields import ErrorPanes, UnitNumber
 from app.page.loads import remove_button
 from app.page.style import WIDGET_CSS, html_pane
 from app.state import MemberState
-from app.state_restraints import INNER_INPUTS
+from app.state_restraints import INNER_INPUTS, step_section
 
 __all__ = ["InsideOpener", "InsideView"]
 
 _KINDS = {"fixed": "fixed", "free": "free", "spring": "spring"}
 _PLANES = {"both planes": "both", "plane analysed": "first", "second plane": "second"}
 _ADD = {"restraints": "+ Restraint", "steps": "+ Step in EI", "foundation": "+ Foundation"}
-_ADD_WIDTHS = {"restraints": 92, "steps": 96, "foundation": 100}
+_ADD_SECTION = "+ Step in section"  # the steps' button on a case with a catalogue section
+_ADD_WIDTHS = {"restraints": 92, "steps": 124, "foundation": 100}
 #: (key, label, kind of quantity) of the number fields of each list's rows; a restraint's springs are below.
 _NUMBERS = {
     "restraints": [("x", "at x", "length")],
@@ -56,6 +57,8 @@ def _kind(value) -> str:
 
 def _shape(field: str, row: dict) -> tuple:
     """What a row's widgets depend on (rebuilt when it changes)."""
+    if field == "steps":
+        return (field, "section" in row)
     if field != "restraints":
         return (field,)
     return (field, *(_kind(row.get(part, "free")) for part in _SPRINGS))
@@ -68,11 +71,12 @@ class InsideRow:
         self.state, self.field, self.index = state, field, index
         row = getattr(state, field)[index]
         put = partial(state.set_item, field, index)
-        self.fields: list[UnitNumber] = [
-            self._number(key, text, kind, 92) for key, text, kind in _NUMBERS[field]
-        ]
+        numbers = _NUMBERS[field][:1] if field == "steps" and "section" in row else _NUMBERS[field]
+        self.fields: list[UnitNumber] = [self._number(key, text, kind, 92) for key, text, kind in numbers]
         self.choices: dict[str, pn.widgets.Widget] = {}
         widgets: list = [field.widget for field in self.fields]
+        if field == "steps" and "section" in row:
+            widgets.append(self._section_choice(row["section"]))
         lines: list = []
         if field == "restraints":
             for part, (symbol, kind) in _SPRINGS.items():
@@ -107,6 +111,37 @@ class InsideRow:
             styles={"border-bottom": "1px solid #e4e7e1"},
             css_classes=["ss-inside-row"],
         )
+
+    def _section_choice(self, section) -> pn.widgets.Widget:
+        """A step's section: the catalogue names of the page's section picker (a section given otherwise in
+        a case file is named, not edited)."""
+        from engine.sections import catalogue_names
+
+        name = section.get("name") if isinstance(section, dict) else None
+        if not isinstance(name, str):
+            said = section.get("shape", "custom") if isinstance(section, dict) else "custom"
+            return html_pane(f"<div class='ss-note'>section: {said} (from the case file)</div>", width=160)
+        options = list(catalogue_names())
+        select = pn.widgets.Select(
+            label="section",
+            options=options if name in options else [*options, name],
+            value=name,
+            width=130,
+            margin=(0, 3),
+            stylesheets=[WIDGET_CSS],
+        )
+        select.param.watch(self._section_chosen, "value")
+        self.choices["section"] = select
+        return select
+
+    def _section_chosen(self, event) -> None:
+        rows = getattr(self.state, self.field)
+        if (
+            self.index < len(rows)
+            and event.new is not None
+            and event.new != self._value("section").get("name")
+        ):
+            self.state.set_item(self.field, self.index, section={"name": event.new})
 
     def _number(self, key: str, text: str, kind: str, width: int) -> UnitNumber:
         state = self.state
@@ -154,6 +189,9 @@ class InsideRow:
         row = getattr(self.state, self.field)[self.index]
         if "hinge" in self.choices and self.choices["hinge"].value != bool(row.get("hinge")):
             self.choices["hinge"].value = bool(row.get("hinge"))
+        section = self.choices.get("section")
+        if section is not None and section.value != row["section"].get("name"):
+            section.value = row["section"].get("name")
         if "plane" in self.choices:
             plane = self.choices["plane"]
             if plane.value != row.get("plane", "both") and row.get("plane", "both") in _PLANES.values():
@@ -173,7 +211,7 @@ class InsideView(pn.viewable.Viewer):
         self.rows: dict[str, list[InsideRow]] = {field: [] for field in INNER_INPUTS}
         self._shapes: dict[str, list | None] = {field: None for field in INNER_INPUTS}
         self.columns = {field: pn.Column(margin=0, sizing_mode="stretch_width") for field in INNER_INPUTS}
-        buttons = []
+        buttons = self.buttons = {}
         for field in INNER_INPUTS:
             button = pn.widgets.Button(
                 label=_ADD[field],
@@ -183,17 +221,18 @@ class InsideView(pn.viewable.Viewer):
                 stylesheets=[WIDGET_CSS],
             )
             button.on_click(lambda *_, field=field: state.add_item(field))
-            buttons.append(button)
+            buttons[field] = button
         self.panel = pn.Column(
-            pn.Row(*buttons, margin=0),
+            pn.Row(*buttons.values(), margin=0),
             *(self.own_errors.pane(field, exact=True) for field in INNER_INPUTS),
             *self.columns.values(),
             html_pane(
                 "<div class='ss-note'>A restraint acts at x inside the member: translation and rotation "
                 "fixed, free or a spring, or a hinge (M = 0, the slope may jump); its twist (φ held or a "
                 "torsional spring k_φ) is read by the lateral-torsional buckling check only. A step sets EI "
-                "from its x to the next step (a case with EI given and no section). A foundation adds a "
-                "spring bed of "
+                "from its x to the next step (a case with EI given and no section), or on a catalogue section "
+                "(no EI given) the section from its x on; rows of the other form are kept and named until "
+                "changed. A foundation adds a spring bed of "
                 "modulus k (force per length of member per unit deflection) from <i>from</i> to <i>to</i>. "
                 "Restraints with a fixed translation divide the member into segments, each checked as an "
                 "equivalent member; on a foundation the member check counts the second-order route "
@@ -203,7 +242,10 @@ class InsideView(pn.viewable.Viewer):
             sizing_mode="stretch_width",
             css_classes=["ss-inside"],
         )
-        state.param.watch(lambda *_: self.sync(), [*INNER_INPUTS, "units", "plane2", "length"])
+        state.param.watch(
+            lambda *_: self.sync(),
+            [*INNER_INPUTS, "units", "plane2", "length", "stiffness_from", "section_shape"],
+        )
         state.param.watch(lambda *_: self.show_errors(), ["errors"])
         self.sync()
 
@@ -218,6 +260,7 @@ class InsideView(pn.viewable.Viewer):
         """Rebuild a list's rows when its shape changed; show every row's values."""
         state = self.state
         with pn.io.hold():
+            self.buttons["steps"].label = _ADD_SECTION if step_section(state) else _ADD["steps"]
             for field in INNER_INPUTS:
                 rows = getattr(state, field)
                 shapes = [_shape(field, row) for row in rows]
