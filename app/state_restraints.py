@@ -37,7 +37,7 @@ INNER_INPUTS = ("restraints", "steps", "foundation")
 #: The case-file keys of each list's rows.
 INNER_FIELDS = {
     "restraints": ("x", "translation", "rotation", "hinge", "plane", "twist"),
-    "steps": ("x", "EI"),
+    "steps": ("x", "EI", "section"),
     "foundation": ("start", "end", "k", "plane"),
 }
 
