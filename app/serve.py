@@ -29,7 +29,10 @@ _WARM_DELAY_S = 8.0
 #: How many ports above the default are tried when it is taken.
 _PORT_TRIES = 20
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
-_DEMO_CASE = "demo_wind_post.json"
+#: The page's start case: the invented wind post with a permanent (G) and a wind (W) load case, its ultimate
+#: and service combinations made by EN 1990 (issue 17). ``strutscope serve assets/demo_wind_post.json`` opens
+#: the plain demo.
+_DEMO_CASE = "demo_wind_post_actions.json"
 #: Shown on the page when the connection to the server is lost.
 DISCONNECTED = (
     "strutscope lost its connection to the server. Start strutscope again and reload this page: "
