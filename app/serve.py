@@ -105,7 +105,7 @@ BUILD_DELAY_MS = 120
 
 
 def make_page(case=None):
-    """Build one session's page on `case` (an :class:`engine.Case`; the invented demo case when None).
+    """Build one session's page on `case` (an :class:`engine.Case`; None: the invented demo with load cases).
 
     The settled inputs and the units are mirrored into the URL, so a copied link reopens the same case.
 
@@ -389,7 +389,7 @@ def serve(
     Parameters
     ----------
     case_path : str or path-like, optional
-        A case file (JSON, schema 1) to open; the invented demo case when None.
+        A case file (JSON, schema 1) to open; the invented demo with load cases when None.
     port : int, optional
         The port; 0 picks a free one; None is :data:`DEFAULT_PORT`, or the next free port above it when it is
         taken. A port asked for that is taken is an error that names the next free one. The URL is printed
@@ -505,7 +505,10 @@ def serve(
 def add_arguments(parser) -> None:
     """Add the ``serve`` options to `parser` (an argparse parser for the subcommand)."""
     parser.add_argument(
-        "case", nargs="?", metavar="CASE.json", help="a case file to open (default: the invented demo case)"
+        "case",
+        nargs="?",
+        metavar="CASE.json",
+        help="a case file to open (default: the invented demo with load cases G and W)",
     )
     parser.add_argument(
         "--port",
