@@ -29,7 +29,10 @@ _WARM_DELAY_S = 8.0
 #: How many ports above the default are tried when it is taken.
 _PORT_TRIES = 20
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
-_DEMO_CASE = "demo_wind_post.json"
+#: The page's start case: the invented wind post with a permanent (G) and a wind (W) load case, its ultimate
+#: and service combinations made by EN 1990 (issue 17). ``strutscope serve assets/demo_wind_post.json`` opens
+#: the plain demo.
+_DEMO_CASE = "demo_wind_post_actions.json"
 #: Shown on the page when the connection to the server is lost.
 DISCONNECTED = (
     "strutscope lost its connection to the server. Start strutscope again and reload this page: "
@@ -102,7 +105,7 @@ BUILD_DELAY_MS = 120
 
 
 def make_page(case=None):
-    """Build one session's page on `case` (an :class:`engine.Case`; the invented demo case when None).
+    """Build one session's page on `case` (an :class:`engine.Case`; None: the invented demo with load cases).
 
     The settled inputs and the units are mirrored into the URL, so a copied link reopens the same case.
 
@@ -386,7 +389,7 @@ def serve(
     Parameters
     ----------
     case_path : str or path-like, optional
-        A case file (JSON, schema 1) to open; the invented demo case when None.
+        A case file (JSON, schema 1) to open; the invented demo with load cases when None.
     port : int, optional
         The port; 0 picks a free one; None is :data:`DEFAULT_PORT`, or the next free port above it when it is
         taken. A port asked for that is taken is an error that names the next free one. The URL is printed
@@ -502,7 +505,10 @@ def serve(
 def add_arguments(parser) -> None:
     """Add the ``serve`` options to `parser` (an argparse parser for the subcommand)."""
     parser.add_argument(
-        "case", nargs="?", metavar="CASE.json", help="a case file to open (default: the invented demo case)"
+        "case",
+        nargs="?",
+        metavar="CASE.json",
+        help="a case file to open (default: the invented demo with load cases G and W)",
     )
     parser.add_argument(
         "--port",

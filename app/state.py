@@ -104,8 +104,9 @@ def _field_of(message: str) -> str:
 class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
-    Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
-    parameters (one at a time, or several in one ``param.update``); every change solves once.
+    Build it with no arguments for the plain invented demo case's inputs (assets/demo_wind_post.json;
+    the served page starts on the demo with load cases, :mod:`app.serve`), or with :meth:`from_case`. Set
+    inputs as parameters (one at a time, or several in one ``param.update``); every change solves once.
     """
 
     # ------------------------------------------------------------------ outputs (set only by this class)

@@ -179,8 +179,9 @@ def load_magnitude(load: Mapping) -> float | None:
 class MemberInputs(ActionInputs, LtbInputs, PlaneInputs, InnerInputs):
     """The inputs of one member (SI) and the engine's answers; one instance per browser session.
 
-    Build it with no arguments for the invented demo case's inputs, or with :meth:`from_case`. Set inputs as
-    parameters (one at a time, or several in one ``param.update``); every change solves once.
+    Build it with no arguments for the plain invented demo case's inputs (assets/demo_wind_post.json;
+    the served page starts on the demo with load cases, :mod:`app.serve`), or with :meth:`from_case`. Set
+    inputs as parameters (one at a time, or several in one ``param.update``); every change solves once.
     """
 
     # ------------------------------------------------------------------ member and supports

@@ -12,6 +12,15 @@ from bokeh.document import Document
 from app.serve import make_page
 
 
+def _plain_demo():
+    """The plain invented demo (no load cases), which the page opened at start before issue 17's switch."""
+    from importlib import resources
+
+    import engine
+
+    return engine.Case.from_json(resources.files("assets").joinpath("demo_wind_post.json").read_text("utf-8"))
+
+
 def _models(page):
     document = Document()
     root = pn.panel(page).get_root(document)
@@ -42,19 +51,28 @@ def test_the_first_page_carries_no_unused_models():
     """Start-up (issue 10): the browser builds every model of the first page, so the page sends none it
     does not show: no selection or mute copies of a glyph (nothing is selected or muted), no kept variants'
     lines before a variant is kept, and the tabs not shown are built when opened. 429 models before this was
-    trimmed, 311 after (2026-12-02); the bound leaves room for a few widgets, not another figure's worth."""
+    trimmed, 311 after (2026-12-02); the bound leaves room for a few widgets, not another figure's worth.
+    The start page (the demo with load cases, issue 17) adds the combination picker and the governing block:
+    325 models (2026-12-03), the plain demo's page 317; both stay under the same bound."""
     from bokeh.models import GlyphRenderer
 
-    page = make_page()
-    models = _models(page)
-    renderers = [m for m in models if isinstance(m, GlyphRenderer)]
-    assert renderers, "the page drew no glyphs"
-    assert [r for r in renderers if r.nonselection_glyph is not None or r.muted_glyph is not None] == []
-    assert not [m for m in models if getattr(m, "name", None) and str(m.name).startswith("variant_")]
-    # a case without load cases sends neither the combination picker nor the governing-combination block
-    assert not [m for m in models if getattr(m, "title", None) == "Combination shown"]
-    assert not [m for m in models if "ss-governing" in (getattr(m, "css_classes", None) or [])]
-    assert len(models) <= 330, len(models)
+    def picker(models):
+        return [m for m in models if getattr(m, "title", None) == "Combination shown"]
+
+    def governing(models):
+        return [m for m in models if "ss-governing" in (getattr(m, "css_classes", None) or [])]
+
+    for page, with_actions in ((make_page(), True), (make_page(_plain_demo()), False)):
+        models = _models(page)
+        renderers = [m for m in models if isinstance(m, GlyphRenderer)]
+        assert renderers, "the page drew no glyphs"
+        assert [r for r in renderers if r.nonselection_glyph is not None or r.muted_glyph is not None] == []
+        assert not [m for m in models if getattr(m, "name", None) and str(m.name).startswith("variant_")]
+        # the envelope band's models are made when "envelope" is first chosen
+        assert not [m for m in models if str(getattr(m, "name", None) or "").startswith("envelope_")]
+        # a case without load cases sends neither the combination picker nor the governing-combination block
+        assert bool(picker(models)) is with_actions and bool(governing(models)) is with_actions
+        assert len(models) <= 330, (with_actions, len(models))
 
 
 def test_a_kept_variant_gets_its_lines_when_kept():

@@ -28,7 +28,7 @@ REPO_ROOT = Path(__file__).resolve().parents[2]
 if str(REPO_ROOT) not in sys.path:
     sys.path.insert(0, str(REPO_ROOT))
 
-from tests.browser.conftest import CHROMIUM, CHROMIUM_ARGS, VIEWPORT, Server  # noqa: E402
+from tests.browser.conftest import CHROMIUM, CHROMIUM_ARGS, PLAIN_DEMO, VIEWPORT, Server  # noqa: E402
 
 _WARM_UP = 3
 
@@ -144,7 +144,7 @@ def main(argv=None) -> int:
         verbose=False,
     )
     with tempfile.TemporaryDirectory() as folder:
-        page_server = Server(cwd=folder)
+        page_server = Server(str(PLAIN_DEMO), cwd=folder)  # the plain demo: figures comparable with before
         try:
             deadline = time.time() + 60
             while time.time() < deadline:  # the threaded minimal server binds asynchronously

@@ -1,16 +1,16 @@
-"""Make ``assets/screenshot.png``: the member explorer on the invented demo case at 1280×720.
+"""Make ``assets/screenshot.png``: the member explorer on its start demo at 1280×720.
 
 Run: ``python3 -m tests.benchmarks.screenshot [--out assets/screenshot.png]``
 
-Serves the page with the real ``strutscope serve`` command, keeps the demo case as a variant, raises the
-axial force to 1500 kN (about 0.46·Pcr1) so the variant's muted curves show the amplification, and saves the
-viewport as PNG. It waits on visible text, never on fixed sleeps.
+Serves the page with the real ``strutscope serve`` command on its start demo (the invented wind post with a
+permanent and a wind load case, issue 17), waits for the governing combinations, picks "envelope" so the band
+of every combination shows on the diagrams, and saves the viewport as PNG. It waits on visible text and data,
+never on fixed sleeps.
 """
 
 from __future__ import annotations
 
 import argparse
-import re
 import sys
 import tempfile
 from pathlib import Path
@@ -39,13 +39,13 @@ def main(argv=None) -> int:
                 page.set_default_timeout(60_000)
                 page.goto(server.url, wait_until="domcontentloaded")
                 page.locator("table.ss-values").wait_for(state="visible")
-                page.get_by_role("button", name=re.compile("^Keep as variant")).click()
-                expect(page.get_by_role("button", name="Keep as variant (1/4)")).to_be_visible()
-                field = page.get_by_label("N [kN]", exact=True)
-                field.fill("1500")
-                field.press("Enter")
-                expect(page.locator(".ss-readout b").first).to_have_text(re.compile(r"^1500(\.0+)? kN$"))
-                expect(page.locator(".ss-key")).to_contain_text("A: N 350.0 kN")
+                expect(page.locator(".ss-governing")).to_contain_text("strength and stability (headline)")
+                page.get_by_label("Combination shown").select_option(label="envelope (every combination)")
+                page.wait_for_function(
+                    "() => { const m = Bokeh.documents[0].get_model_by_name('envelope_M');"
+                    " return m && m.data.x.length > 0; }"
+                )
+                expect(page.locator(".ss-scale-mode")).to_contain_text("Envelope: the shaded band")
                 # The capacity is solved apart (a worker process); the shot waits until the table shows it.
                 capacity = page.locator("table.ss-values tr").filter(has_text="capacity N")
                 expect(capacity).to_contain_text("kN")

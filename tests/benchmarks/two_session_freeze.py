@@ -33,7 +33,7 @@ if str(REPO_ROOT) not in sys.path:
     sys.path.insert(0, str(REPO_ROOT))
 
 from tests.benchmarks.page_latency import _PROBE, summary  # noqa: E402
-from tests.browser.conftest import CHROMIUM, CHROMIUM_ARGS, VIEWPORT, Server  # noqa: E402
+from tests.browser.conftest import CHROMIUM, CHROMIUM_ARGS, PLAIN_DEMO, VIEWPORT, Server  # noqa: E402
 
 _WAIT_MS = 120_000
 
@@ -91,7 +91,7 @@ def main(argv=None) -> int:
     with tempfile.TemporaryDirectory() as folder:
         path = Path(folder) / "heavy.json"
         path.write_text(json.dumps(mapping), encoding="utf-8")
-        server = Server(cwd=folder)
+        server = Server(str(PLAIN_DEMO), cwd=folder)  # the plain demo: figures comparable with before
         get_seconds: list[float] = []
         try:
             with sync_playwright() as playwright:

@@ -18,7 +18,7 @@ import numpy as np
 import pytest
 
 import engine
-from tests.browser.conftest import TIMEOUT_MS, VIEWPORT, Server, open_page
+from tests.browser.conftest import PLAIN_DEMO, TIMEOUT_MS, VIEWPORT, Server, open_page
 
 # Installed once per page: stamps the time of every key press and of every new stations data set.
 _PROBE = """() => {
@@ -126,7 +126,7 @@ def test_concurrent_sessions_each_see_their_own_case_at_every_step(browser, tmp_
     """N sessions on one server, each its own span, stepping N together: every step shows its own solution."""
     count = int(os.environ.get("STRUTSCOPE_LOAD_SESSIONS", "5"))
     steps = int(os.environ.get("STRUTSCOPE_LOAD_STEPS", "10"))
-    server = Server(cwd=tmp_path)
+    server = Server(str(PLAIN_DEMO), cwd=tmp_path)  # each session checked against the plain demo's case
     sessions = []
     try:
         sessions = open_sessions(browser, server.url, count)
