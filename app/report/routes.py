@@ -250,12 +250,31 @@ def headline_text(result) -> str:
     return text + (f", {term}" if term else "")
 
 
+def _largest_of_combinations(result, route) -> tuple[float, str] | None:
+    """(utilisation, combination) when an ultimate combination other than the shown one (the headline's)
+    gives this route a larger utilisation, else None. The routes shown are the headline combination's; a
+    route's own largest value may come from another combination (the engine's ``route:<code>`` governing row),
+    and a route shown below its largest would read on the unsafe side."""
+    actions = getattr(result, "actions", None)
+    if actions is None:
+        return None
+    row = actions.governing_for(f"route:{route.route}")
+    if row is None or row.combination == actions.headline:
+        return None
+    value = float(row.value)
+    if not (math.isnan(value) or value > _utilisation_of(route)):
+        return None
+    return value, row.combination
+
+
 def route_rows(result, U: Units) -> list[dict]:
     """Each route of `result` as words: name, status, utilisation, governing term, facts, notes, source.
 
     Every row is a dict with ``route`` (the code), ``name``, ``enabled`` (bool), ``status`` (``"headline"``,
     ``"counts"`` or ``"for comparison"``), ``utilisation`` (text), ``value`` (the number or None),
-    ``governing``, ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and ``source``.
+    ``governing``, ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and ``source``. With load
+    combinations the routes are the headline combination's; a route that another ultimate combination loads
+    more gives that combination's value in ``value`` and names both in ``utilisation``.
     """
     head = None if headline_exceeds_routes(result) else headline_route(result)
     rows = []
@@ -266,14 +285,22 @@ def route_rows(result, U: Units) -> list[dict]:
             status = "counts"
         else:
             status = "for comparison"
+        words, value = _utilisation_words(route.utilization), route.utilization
+        largest = _largest_of_combinations(result, route)
+        if largest is not None:  # another combination loads this route more: its value is shown and kept
+            words = (
+                f"{words} in {result.actions.headline}; {_utilisation_words(largest[0])} in {largest[1]}, "
+            )
+            words += "the largest of the combinations"
+            value = largest[0]
         rows.append(
             {
                 "route": route.route,
                 "name": route_name(route, result),
                 "enabled": bool(route.enabled),
                 "status": status,
-                "utilisation": _utilisation_words(route.utilization),
-                "value": route.utilization,
+                "utilisation": words,
+                "value": value,
                 "governing": governing_text(route.governing),
                 "facts": facts_text(route.facts or {}, U),
                 "reason": reason_text(route.reason or "", U),
