@@ -47,6 +47,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from engine.design import mcr_fe
+from engine.design.mcr_fe import _eigenvalue, _eigenvector, _elements, eigen_solution
 from engine.validate import choice, positive, real
 
 __all__ = ["LATERAL_ENDS", "WARPING_ENDS", "CriticalMoment", "HeldAxial", "critical_moment", "eigen_solution"]
@@ -57,11 +59,6 @@ __all__ = ["LATERAL_ENDS", "WARPING_ENDS", "CriticalMoment", "HeldAxial", "criti
 LATERAL_ENDS: tuple[str, ...] = ("fork", "fixed", "free")
 #: End conditions for warping: ``free`` (φ' free) or ``fixed`` (φ' = 0).
 WARPING_ENDS: tuple[str, ...] = ("free", "fixed")
-
-# Gauss–Legendre points and weights on [0, 1], 4 points: exact to degree 7.
-_GP, _GW = np.polynomial.legendre.leggauss(4)
-_GP = 0.5 * (_GP + 1.0)
-_GW = 0.5 * _GW
 
 _RATE = 4.0  # the eigenvalue error of Hermite cubics in a fourth-order problem goes as h^4 [derived]
 _MAX_ELEMENTS = 512
@@ -104,33 +101,6 @@ class CriticalMoment:
     phi_slope: np.ndarray
 
 
-def _hermite(h: np.ndarray, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """Hermite shape functions and their first and second x-derivatives, shape (elements, points, 4)."""
-    h = h[:, None]
-    xi = xi[None, :]
-    one = np.ones_like(h * xi)
-    n = np.stack(
-        [
-            1 - 3 * xi**2 + 2 * xi**3 + 0 * h,
-            h * (xi - 2 * xi**2 + xi**3),
-            3 * xi**2 - 2 * xi**3 + 0 * h,
-            h * (xi**3 - xi**2),
-        ],
-        -1,
-    )
-    d1 = np.stack(
-        [
-            (-6 * xi + 6 * xi**2) / h,
-            (1 - 4 * xi + 3 * xi**2) * one,
-            (6 * xi - 6 * xi**2) / h,
-            (3 * xi**2 - 2 * xi) * one,
-        ],
-        -1,
-    )
-    d2 = np.stack([(-6 + 12 * xi) / h**2, (-4 + 6 * xi) / h, (6 - 12 * xi) / h**2, (6 * xi - 2) / h], -1)
-    return n, d1, d2
-
-
 def _loads(loads: Sequence[Mapping] | None, length: float, height: float) -> tuple[list, list]:
     """Uniform loads as (q, start, end, a) and point loads as (F, x, a), magnitudes only (see the module)."""
     uniform, point = [], []
@@ -159,95 +129,23 @@ def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
     return np.unique(np.concatenate([nodes, extra])) if extra else nodes
 
 
-_IV = np.array([0, 1, 4, 5])  # the v DOFs of an element: v, v' at both nodes
-_IP = np.array([2, 3, 6, 7])  # the φ DOFs
-
-
-@dataclass(frozen=True)
-class _Elements:
-    """The per-element integrals of one mesh that do not depend on N, and where they assemble."""
-
-    kvv: np.ndarray  # EI_z ∫ v''², (elements, 4, 4)
-    kpp: np.ndarray  # GI_t ∫ φ'² + EI_w ∫ φ''²
-    slope: np.ndarray  # ∫ a' b': times N for v, times N i0² for φ
-    gpq: np.ndarray  # ∫ q a φ²
-    gpv: np.ndarray  # −∫ M φ v''
-    rows: np.ndarray
-    cols: np.ndarray
-    size: int
-    quadrature: tuple  # (points, weights, shape functions, their second derivatives): for −∫ M φ v'' again
-
-
-def _integral(w, f, a, b):
-    """∫ f a_i b_j dx per element, (elements, 4, 4), by the quadrature weights ``w``."""
-    return np.einsum("eg,egi,egj->eij", w * f, a, b)
-
-
-def _elements(nodes, m_at, props, uniform) -> _Elements:
-    EI_z, GI_t, EI_w = props[:3]
-    h = np.diff(nodes)
-    ne = h.size
-    n, d1, d2 = _hermite(h, _GP)
-    xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
-    w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
-    m = m_at(xg)
-    aq = np.zeros_like(xg)
-    for value, start, end, a in uniform:
-        aq += np.where((xg >= start) & (xg <= end), value * a, 0.0)
-    one = np.ones_like(xg)
-    dofs = 4 * np.arange(ne)[:, None] + np.arange(8)[None, :]
-    return _Elements(
-        kvv=EI_z * _integral(w, one, d2, d2),
-        kpp=GI_t * _integral(w, one, d1, d1) + EI_w * _integral(w, one, d2, d2),
-        slope=_integral(w, one, d1, d1),
-        gpq=_integral(w, aq, n, n),
-        gpv=-_integral(w, m, n, d2),
-        rows=np.broadcast_to(dofs[:, :, None], (ne, 8, 8)),
-        cols=np.broadcast_to(dofs[:, None, :], (ne, 8, 8)),
-        size=4 * (ne + 1),
-        quadrature=(xg, w, n, d2),
-    )
-
-
-def _assemble(parts: _Elements, blocks) -> np.ndarray:
-    """The global matrix of the element blocks ``((dofs_rows, dofs_cols, block), ...)``."""
-    e = np.zeros((parts.kvv.shape[0], 8, 8))
-    for rows, cols, block in blocks:
-        e[:, rows[:, None], cols] = block
-    out = np.zeros((parts.size, parts.size))
-    np.add.at(out, (parts.rows, parts.cols), e)
-    return out
-
-
-def _stiffness(parts: _Elements, N: float, i0_sq: float, scale_axial: bool) -> np.ndarray:
-    """K: with N held it softens the stiffness; when N grows with the load factor it is in G instead."""
-    if scale_axial:
-        return _assemble(parts, ((_IV, _IV, parts.kvv), (_IP, _IP, parts.kpp)))
-    gvv = N * parts.slope  # N v'²
-    gpn = N * i0_sq * parts.slope  # N i0² φ'²
-    return _assemble(parts, ((_IV, _IV, parts.kvv - gvv), (_IP, _IP, parts.kpp - gpn)))
-
-
-def _geometric(parts: _Elements, nodes, N: float, i0_sq: float, point, scale_axial: bool) -> np.ndarray:
-    """G: the moment's coupling, the loads' height and (``scale_axial``) the axial force."""
-    coupling = ((_IP, _IV, parts.gpv), (_IV, _IP, np.swapaxes(parts.gpv, 1, 2)))
-    if scale_axial:  # N grows with the load factor
-        gvv = N * parts.slope
-        gpn = N * i0_sq * parts.slope
-        G = _assemble(parts, ((_IV, _IV, gvv), (_IP, _IP, gpn + parts.gpq), *coupling))
-    else:
-        G = _assemble(parts, ((_IP, _IP, parts.gpq), *coupling))
-    for force, x, a in point:
-        node = int(np.argmin(np.abs(nodes - x)))
-        G[4 * node + 2, 4 * node + 2] += force * a
-    return G
-
-
 def _matrices(nodes, m_at, props, uniform, point, scale_axial):
     """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node)."""
-    N, i0_sq = props[3], props[4]
     parts = _elements(nodes, m_at, props, uniform)
-    return _stiffness(parts, N, i0_sq, scale_axial), _geometric(parts, nodes, N, i0_sq, point, scale_axial)
+    every = np.arange(parts.size, dtype=np.int64)
+    return _assembled(parts, nodes, _layout(parts, every), props, point, scale_axial)
+
+
+def _layout(parts, free) -> dict:
+    """Where the element blocks of ``parts`` land on the free DOFs ``free`` (cached per mesh and DOFs)."""
+    return mcr_fe._layout(parts.kvv.shape[0], np.asarray(free, dtype=np.int64).tobytes())
+
+
+def _assembled(parts, nodes, layout, props, point, scale_axial, springs=()):
+    """K (with the restraints' ``springs``) and G on the DOFs of ``layout``."""
+    N, i0_sq = props[3], props[4]
+    K = mcr_fe._stiffness(parts, layout, N, i0_sq, scale_axial, springs)
+    return K, mcr_fe._geometric(parts, layout, nodes, N, i0_sq, point, scale_axial)
 
 
 @functools.lru_cache(maxsize=64)
@@ -268,8 +166,11 @@ def _free_dofs(nodes_count: int, lateral_ends, warping_ends, held_inside=()) -> 
 
 
 def clear_cache() -> None:
-    """Forget the cached free DOFs (:func:`_free_dofs`)."""
+    """Forget the cached free DOFs (:func:`_free_dofs`) and the cached meshes and layouts
+    (:mod:`engine.design.mcr_fe`)."""
     _free_dofs.cache_clear()
+    mcr_fe._shape.cache_clear()
+    mcr_fe._layout.cache_clear()
 
 
 def _restraints(restraints: Sequence[Mapping] | None, length: float) -> list:
@@ -314,51 +215,13 @@ def _held_inside(nodes, inside) -> tuple[tuple, tuple]:
     return tuple(held), tuple(springs)
 
 
-def _with_springs(K: np.ndarray, springs) -> np.ndarray:
-    """K (all DOFs) with the restraints' springs added on its diagonal, in place."""
-    for dof, k in springs:
-        K[dof, dof] += k
-    return K
-
-
-def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tuple[float, np.ndarray]:
-    """The smallest positive λ of K x = λ G x (K symmetric positive definite) and, if asked, its vector.
-
-    The values come from the symmetric problem reduced by the Cholesky factor of K
-    (``numpy.linalg.eigvalsh``); the vector from a few steps of inverse iteration shifted just below λ.
-    Returns (inf, zeros) when G has no positive direction: the member does not buckle under these loads.
-    """
-    lam = _eigenvalue(K, G)
-    if not vector or not math.isfinite(lam):
-        return lam, np.zeros(K.shape[0])
-    return lam, _eigenvector(K, G, lam)
-
-
-def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
-    """λ of :func:`eigen_solution` alone (inf when G has no positive direction)."""
-    try:
-        chol = np.linalg.cholesky(K)
-    except np.linalg.LinAlgError as error:
-        raise ValueError(
-            "the elastic stiffness is not positive definite (N held fixed above N_cr?)"
-        ) from error
-    inv = np.linalg.inv(chol)
-    a = inv @ G @ inv.T
-    mu = np.linalg.eigvalsh(0.5 * (a + a.T))
-    if not mu[-1] > 1e-12 * float(np.max(np.abs(mu))):
-        return math.inf
-    lam = 1.0 / float(mu[-1])
-    return lam if math.isfinite(lam) else math.inf
-
-
-def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float) -> np.ndarray:
-    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it."""
-    shifted = K - lam * (1.0 - 1e-6) * G
-    x = np.linalg.solve(K, np.sum(np.abs(G), axis=1) + 1.0)  # a start with every DOF present
-    for _ in range(4):
-        x = np.linalg.solve(shifted, G @ x)
-        x /= np.max(np.abs(x))
-    return x
+def _reduced(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warping_ends, inside=()):
+    """K and G on the free DOFs, and those DOFs."""
+    parts = _elements(nodes, m_at, props, uniform)
+    held, springs = _held_inside(nodes, inside)
+    free = _free_dofs(nodes.size, lateral_ends, warping_ends, held)
+    K, G = _assembled(parts, nodes, _layout(parts, free), props, point, scale_axial, springs)
+    return K, G, free
 
 
 def _mode(nodes, K, G, free, lam) -> np.ndarray:
@@ -367,15 +230,6 @@ def _mode(nodes, K, G, free, lam) -> np.ndarray:
     if math.isfinite(lam):
         full[free] = _eigenvector(K, G, lam)
     return full.reshape(-1, 4)
-
-
-def _reduced(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warping_ends, inside=()):
-    """K and G on the free DOFs, and those DOFs."""
-    K, G = _matrices(nodes, m_at, props, uniform, point, scale_axial)
-    held, springs = _held_inside(nodes, inside)
-    _with_springs(K, springs)
-    free = _free_dofs(nodes.size, lateral_ends, warping_ends, held)
-    return K[np.ix_(free, free)], G[np.ix_(free, free)], free
 
 
 def critical_moment(
@@ -586,14 +440,20 @@ def _moment_function(xs: np.ndarray, ms: np.ndarray, V):
         if vs.shape != xs.shape or not np.all(np.isfinite(vs)):
             raise ValueError("V: give finite samples, one per x")
 
+        last = xs.size - 2
+
         def m_at(points):
-            i = np.clip(np.searchsorted(xs, points, side="right") - 1, 0, xs.size - 2)
-            h = xs[i + 1] - xs[i]
-            safe = np.where(h > 0.0, h, 1.0)
-            t = np.where(h > 0.0, (points - xs[i]) / safe, 0.0)
-            h00, h10 = 2 * t**3 - 3 * t**2 + 1, t**3 - 2 * t**2 + t
-            h01, h11 = -2 * t**3 + 3 * t**2, t**3 - t**2
-            return h00 * ms[i] + h10 * h * vs[i] + h01 * ms[i + 1] + h11 * h * vs[i + 1]
+            i = np.searchsorted(xs, points, side="right") - 1
+            np.minimum(np.maximum(i, 0, out=i), last, out=i)
+            i1 = i + 1
+            x0 = xs[i]
+            h = xs[i1] - x0
+            inside = h > 0.0
+            t = np.where(inside, (points - x0) / np.where(inside, h, 1.0), 0.0)
+            t2, t3 = t**2, t**3
+            h00, h10 = 2 * t3 - 3 * t2 + 1, t3 - 2 * t2 + t
+            h01, h11 = -2 * t3 + 3 * t2, t3 - t2
+            return h00 * ms[i] + h10 * h * vs[i] + h01 * ms[i1] + h11 * h * vs[i1]
 
     return m_at
 
@@ -634,13 +494,15 @@ class HeldAxial:
         count = _first_count(mesh_pair)
         self._count = 2 * count
         self._point = problem.point
+        self._props = problem.props
         self._jumps = _jumps(np.asarray(x, dtype=float))
         self._meshes = []
         for elements in (count, 2 * count):
             nodes = problem.mesh(elements)
             parts = _elements(nodes, problem.m_at, problem.props, problem.uniform)
             held, springs = _held_inside(nodes, problem.inside)
-            self._meshes.append((nodes, parts, _free_dofs(nodes.size, *problem.ends, held), springs))
+            layout = _layout(parts, _free_dofs(nodes.size, *problem.ends, held))
+            self._meshes.append((nodes, parts, layout, springs))
 
     def at(self, N: float, x, M, V=None) -> CriticalMoment | None:
         """The solution at the held axial force N [N], compression positive, for the diagram sampled at
@@ -652,13 +514,13 @@ class HeldAxial:
             return None
         m_at = _moment_function(xs, ms, V)
         history, matrices = [], None
-        for nodes, parts, free, springs in self._meshes:
+        for nodes, parts, layout, springs in self._meshes:
             xg, w, n, d2 = parts.quadrature
-            now = dataclasses.replace(parts, gpv=-_integral(w, m_at(xg), n, d2))
-            G = _geometric(now, nodes, N, self._i0_squared, self._point, False)[np.ix_(free, free)]
-            K = _with_springs(_stiffness(parts, N, self._i0_squared, False), springs)
-            matrices = (K[np.ix_(free, free)], G, free)
-            history.append(_eigenvalue(*matrices[:2]))
+            now = dataclasses.replace(parts, gpv=-mcr_fe._integral(w, m_at(xg), n, d2))
+            props = (*self._props[:3], N, self._i0_squared)
+            K, G = _assembled(now, nodes, layout, props, self._point, False, springs)
+            matrices = (K, G, layout["free"])
+            history.append(_eigenvalue(K, G))
         M_max = float(np.max(np.abs(ms)))
         return _closing(history, self._meshes[-1][0], matrices, self._count, M_max)
 
