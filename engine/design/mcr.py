@@ -495,6 +495,7 @@ class HeldAxial:
         self._count = 2 * count
         self._point = problem.point
         self._props = problem.props
+        self._last = None  # (samples, each mesh's parts with their coupling): see _coupled
         self._jumps = _jumps(np.asarray(x, dtype=float))
         self._meshes = []
         for elements in (count, 2 * count):
@@ -512,17 +513,28 @@ class HeldAxial:
         xs, ms = np.asarray(x, dtype=float), np.asarray(M, dtype=float)
         if _jumps(xs) != self._jumps:
             return None
-        m_at = _moment_function(xs, ms, V)
         history, matrices = [], None
-        for nodes, parts, layout, springs in self._meshes:
-            xg, w, n, d2 = parts.quadrature
-            now = dataclasses.replace(parts, gpv=-mcr_fe._integral(w, m_at(xg), n, d2))
+        for (nodes, _, layout, springs), now in zip(self._meshes, self._coupled(xs, ms, V), strict=True):
             props = (*self._props[:3], N, self._i0_squared)
             K, G = _assembled(now, nodes, layout, props, self._point, False, springs)
             matrices = (K, G, layout["free"])
             history.append(_eigenvalue(K, G))
         M_max = float(np.max(np.abs(ms)))
         return _closing(history, self._meshes[-1][0], matrices, self._count, M_max)
+
+    def _coupled(self, xs, ms, V) -> list:
+        """Each mesh's element integrals with the moment's coupling of these samples (those of the last
+        samples again when the samples are the same numbers: a member's trial forces share its diagram)."""
+        key = (xs.tobytes(), ms.tobytes(), None if V is None else np.asarray(V, dtype=float).tobytes())
+        last = self._last  # one read: another thread may replace it
+        if last is None or last[0] != key:
+            m_at = _moment_function(xs, ms, V)
+            parts = []
+            for _, mesh, _, _ in self._meshes:
+                xg, w, n, d2 = mesh.quadrature
+                parts.append(dataclasses.replace(mesh, gpv=-mcr_fe._integral(w, m_at(xg), n, d2)))
+            last = self._last = (key, parts)
+        return last[1]
 
 
 def _jumps(xs: np.ndarray) -> list:
