@@ -31,10 +31,11 @@ every other term, so reversing :math:`M` gives the same :math:`|M_{cr}|` [derive
 by 4-point Gauss quadrature (exact for :math:`M` linear and :math:`q` uniform within an element; :math:`M` is
 interpolated linearly between the caller's samples). The eigenproblem :math:`K x = \lambda G x` is reduced
 with the Cholesky factor of :math:`K` to a symmetric one and :math:`\lambda = 1/\mu_{max}` for the largest
-positive eigenvalue :math:`\mu` (numpy only). With exact quadrature this is a Rayleigh–Ritz solution, so
-every mesh gives an upper bound (the unsafe side) that converges as :math:`h^4`; :func:`critical_moment`
-therefore meshes twice (n and 2n elements), extrapolates (Richardson, rate 4) and returns the smaller of the
-extrapolated and the finer value, doubling n until the two agree within ``tolerance`` (0.1 %).
+positive eigenvalue :math:`\mu` (LAPACK through scipy, :mod:`engine.design.mcr_fe`). With exact quadrature
+this is a Rayleigh–Ritz solution, so every mesh gives an upper bound (the unsafe side) that converges as
+:math:`h^4`; :func:`critical_moment` therefore meshes twice (n and 2n elements), extrapolates (Richardson,
+rate 4) and returns the smaller of the extrapolated and the finer value, doubling n until the two agree within
+``tolerance`` (0.1 %).
 """
 
 from __future__ import annotations
@@ -123,7 +124,19 @@ def _loads(loads: Sequence[Mapping] | None, length: float, height: float) -> tup
 
 
 def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
-    """Nodes of ``elements`` equal elements, with the break points (point loads, load ends) added."""
+    """Nodes of ``elements`` equal elements, with the break points (point loads, load ends) added (cached
+    per length, count and break points; the array is read-only)."""
+    return _cached_mesh(float(length), int(elements), tuple(float(b) for b in breaks))
+
+
+@functools.lru_cache(maxsize=256)
+def _cached_mesh(length: float, elements: int, breaks: tuple) -> np.ndarray:
+    nodes = _nodes(length, elements, breaks)
+    nodes.flags.writeable = False
+    return nodes
+
+
+def _nodes(length, elements, breaks) -> np.ndarray:
     nodes = np.linspace(0.0, length, elements + 1)
     extra = [b for b in breaks if 0.0 < b < length and np.min(np.abs(nodes - b)) > 1e-9 * length]
     return np.unique(np.concatenate([nodes, extra])) if extra else nodes
@@ -166,9 +179,10 @@ def _free_dofs(nodes_count: int, lateral_ends, warping_ends, held_inside=()) -> 
 
 
 def clear_cache() -> None:
-    """Forget the cached free DOFs (:func:`_free_dofs`) and the cached meshes and layouts
+    """Forget the cached free DOFs (:func:`_free_dofs`), the meshes, and the mesh integrals and layouts
     (:mod:`engine.design.mcr_fe`)."""
     _free_dofs.cache_clear()
+    _cached_mesh.cache_clear()
     mcr_fe._shape.cache_clear()
     mcr_fe._layout.cache_clear()
 
@@ -554,7 +568,7 @@ def _result(lam, M_max, nodes, mode, count, history, extrapolated) -> CriticalMo
         elements=count,
         alpha_meshes=history,
         extrapolated=extrapolated,
-        x=nodes,
+        x=np.array(nodes),  # its own copy: the mesh is cached and read-only
         v=mode[:, 0],
         v_slope=mode[:, 1],
         phi=mode[:, 2],

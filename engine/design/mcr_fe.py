@@ -10,14 +10,14 @@ exactly in IEEE arithmetic]. K and G are therefore the same numbers as before th
 matters: the smallest eigenvalue of an ill-conditioned K (N held near N_cr,z) moves by up to ~1e-8 relative
 when K's entries are rounded differently.
 
-Eigenvalues (:func:`_eigenvalue`): K = L Lᵀ (Cholesky), C = L⁻¹ G L⁻ᵀ with L⁻¹ made explicitly as before,
-C reduced to tridiagonal form and only its largest eigenvalue found, by bisection (LAPACK ``dpotrf``,
-``dtrtri``, ``dsytrd``, ``dstebz``; the smallest too only when a bound says it might decide the "no positive
-direction" rule), instead of every eigenvalue of C by ``numpy.linalg.eigvalsh``. The same Cholesky factor
-matters more than the eigen solver: solving K x = λ G x by inverse iteration on K − σG, without L, gave values
-up to 1e-4 away on members with N near N_cr,z (K's condition number ~1e12), where the factor-based solvers
-agree to 1e-13. The mode (:func:`_eigenvector`) is the same inverse iteration as before, with each LU factor
-made once.
+Eigenvalues (:func:`_eigenvalue`): K = L Lᵀ (Cholesky), C = L⁻¹ G L⁻ᵀ by two triangular solves (before:
+L⁻¹ made explicitly and multiplied), C reduced to tridiagonal form and only its largest eigenvalue found, by
+bisection (LAPACK ``dpotrf``, BLAS ``dtrsm``, LAPACK ``dsytrd``, ``dstebz``; the smallest too only when a
+bound says it might decide the "no positive direction" rule), instead of every eigenvalue of C by
+``numpy.linalg.eigvalsh``. The same Cholesky factor matters more than the eigen solver: solving K x = λ G x
+by inverse iteration on K − σG, without L, gave values up to 1e-4 away on members with N near N_cr,z (K's
+condition number ~1e12), where the factor-based solvers agree to 1e-12. The mode (:func:`_eigenvector`) is
+the same inverse iteration as before, with each LU factor made once.
 """
 
 from __future__ import annotations
@@ -27,7 +27,7 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.linalg import lapack
+from scipy.linalg import blas, lapack
 
 # Gauss–Legendre points and weights on [0, 1], 4 points: exact to degree 7.
 _GP, _GW = np.polynomial.legendre.leggauss(4)
@@ -213,8 +213,7 @@ def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
     chol = _cholesky(K)
     if chol is None:
         raise ValueError("the elastic stiffness is not positive definite (N held fixed above N_cr?)")
-    inv, _ = lapack.dtrtri(chol, lower=1)
-    a = inv @ G @ inv.T
+    a = blas.dtrsm(1.0, chol, blas.dtrsm(1.0, chol, G, lower=1), side=1, lower=1, trans_a=1)  # L⁻¹ G L⁻ᵀ
     _, d, e, _, _ = lapack.dsytrd((0.5 * (a + a.T)).T, lower=1)  # exactly symmetric: .T is its Fortran order
     top = _extreme(d, e, d.size)
     ends = np.abs(np.concatenate(([0.0], e))) + np.abs(np.concatenate((e, [0.0])))
