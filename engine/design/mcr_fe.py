@@ -210,20 +210,24 @@ def _cholesky(matrix: np.ndarray):
 def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
     """λ of :func:`eigen_solution` alone (inf when G has no positive direction: the largest μ = 1/λ not
     above 1e-12 of the largest |μ|)."""
+    return _eigen(K, G)[0]
+
+
+def _eigen(K: np.ndarray, G: np.ndarray) -> tuple[float, np.ndarray]:
+    """λ of :func:`_eigenvalue` and the Cholesky factor of K (for :func:`_eigenvector`)."""
     chol = _cholesky(K)
     if chol is None:
         raise ValueError("the elastic stiffness is not positive definite (N held fixed above N_cr?)")
     a = blas.dtrsm(1.0, chol, blas.dtrsm(1.0, chol, G, lower=1), side=1, lower=1, trans_a=1)  # L⁻¹ G L⁻ᵀ
     _, d, e, _, _ = lapack.dsytrd((0.5 * (a + a.T)).T, lower=1)  # exactly symmetric: .T is its Fortran order
     top = _extreme(d, e, d.size)
-    ends = np.abs(np.concatenate(([0.0], e))) + np.abs(np.concatenate((e, [0.0])))
-    bound = float(np.max(np.abs(d) + ends))  # Gershgorin: no |μ| above it
+    bound = float(np.max(np.abs(d))) + 2.0 * float(np.max(np.abs(e), initial=0.0))  # Gershgorin: |μ| ≤ it
     if not top > 1e-12 * bound:
         largest = max(abs(top), abs(_extreme(d, e, 1)))
         if not top > 1e-12 * largest:
-            return math.inf
+            return math.inf, chol
     lam = 1.0 / top
-    return lam if math.isfinite(lam) else math.inf
+    return (lam if math.isfinite(lam) else math.inf), chol
 
 
 def _extreme(d: np.ndarray, e: np.ndarray, index: int) -> float:
@@ -232,11 +236,13 @@ def _extreme(d: np.ndarray, e: np.ndarray, index: int) -> float:
     return float(w[0]) if m == 1 else math.nan
 
 
-def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float) -> np.ndarray:
-    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it (LU
-    factors made once, LAPACK ``dgetrf``/``dgetrs``: the numbers of ``numpy.linalg.solve`` at each step)."""
+def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float, chol=None) -> np.ndarray:
+    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it (its LU
+    factors made once, LAPACK ``dgetrf``/``dgetrs``: the numbers of ``numpy.linalg.solve`` at each step),
+    from K⁻¹(Σ|G| + 1) by ``chol``, K's Cholesky factor (made here when not given)."""
     shifted = _lu(K - lam * (1.0 - 1e-6) * G)
-    x = lapack.dgetrs(*_lu(K), np.sum(np.abs(G), axis=1) + 1.0)[0]  # a start with every DOF present
+    start = np.sum(np.abs(G), axis=1) + 1.0  # every DOF present
+    x = lapack.dpotrs(_cholesky(K) if chol is None else chol, start, lower=1)[0]
     for _ in range(4):
         x = lapack.dgetrs(*shifted, G @ x)[0]
         x /= np.max(np.abs(x))
