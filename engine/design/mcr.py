@@ -185,6 +185,7 @@ def clear_cache() -> None:
     _cached_mesh.cache_clear()
     mcr_fe._shape.cache_clear()
     mcr_fe._layout.cache_clear()
+    mcr_fe._height.cache_clear()
 
 
 def _restraints(restraints: Sequence[Mapping] | None, length: float) -> list:
@@ -468,8 +469,9 @@ def _moment_function(xs: np.ndarray, ms: np.ndarray, V):
             inside = h > 0.0
             t = np.where(inside, (points - x0) / np.where(inside, h, 1.0), 0.0)
             t2, t3 = t**2, t**3
-            h00, h10 = 2 * t3 - 3 * t2 + 1, t3 - 2 * t2 + t
-            h01, h11 = -2 * t3 + 3 * t2, t3 - t2
+            cubic = 2 * t3 - 3 * t2  # h00 = 2t³ − 3t² + 1 and h01 = −2t³ + 3t², the same sums as written out
+            h00, h10 = cubic + 1, t3 - 2 * t2 + t
+            h01, h11 = -cubic, t3 - t2
             return h00 * ms[i] + h10 * h * vs[i] + h01 * ms[i1] + h11 * h * vs[i1]
 
     return m_at

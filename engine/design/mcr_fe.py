@@ -2,13 +2,13 @@ r"""The finite-element pieces of :mod:`engine.design.mcr`: the element integrals
 onto the free DOFs, and the eigen solutions of :math:`K x = \lambda G x`.
 
 Element integrals by 4-point Gauss quadrature of Hermite cubics (see :mod:`engine.design.mcr`); what depends
-on the mesh alone is kept per mesh (:func:`_shape`). Assembly adds each element's blocks straight into the
-matrix on the free DOFs: every entry receives at most two element contributions (the two elements of a
-node), and ``numpy.bincount`` adds them to 0 in order, so each entry is the same floating-point sum as a
-full assembly with ``numpy.add.at`` followed by picking the free rows and columns [derived: a + b = b + a
-exactly in IEEE arithmetic]. K and G are therefore the same numbers as before this module existed, which
-matters: the smallest eigenvalue of an ill-conditioned K (N held near N_cr,z) moves by up to ~1e-8 relative
-when K's entries are rounded differently.
+on the mesh alone is kept per mesh (:func:`_shape`), the loads' height term per mesh and loads
+(:func:`_height`). Assembly adds each element's blocks straight into the matrix on the free DOFs: every entry
+receives at most two element contributions (the two elements of a node), and ``numpy.bincount`` adds them to
+0 in order, so each entry is the same floating-point sum as a full assembly with ``numpy.add.at`` followed by
+picking the free rows and columns [derived: a + b = b + a exactly in IEEE arithmetic]. K and G are therefore
+the same numbers as before this module existed, which matters: the smallest eigenvalue of an ill-conditioned
+K (N held near N_cr,z) moves by up to ~1e-8 relative when K's entries are rounded differently.
 
 Eigenvalues (:func:`_eigenvalue`): K = L Lᵀ (Cholesky), C = L⁻¹ G L⁻ᵀ by two triangular solves (before:
 L⁻¹ made explicitly and multiplied), C reduced to tridiagonal form and only its largest eigenvalue found, by
@@ -86,6 +86,19 @@ def _shape(nodes_bytes: bytes) -> tuple:
     return out
 
 
+@functools.lru_cache(maxsize=64)
+def _height(nodes_bytes: bytes, uniform: tuple) -> np.ndarray:
+    """∫ q a φ² per element of the uniform loads ``((q, start, end, a), ...)`` (cached per mesh and loads;
+    read-only)."""
+    xg, w, n = _shape(nodes_bytes)[:3]
+    aq = np.zeros_like(xg)
+    for value, start, end, a in uniform:
+        aq += np.where((xg >= start) & (xg <= end), value * a, 0.0)
+    out = _integral(w, aq, n, n)
+    out.flags.writeable = False
+    return out
+
+
 @dataclass(frozen=True)
 class _Elements:
     """The per-element integrals of one mesh that do not depend on N, and how many DOFs it has."""
@@ -101,15 +114,13 @@ class _Elements:
 
 def _elements(nodes, m_at, props, uniform) -> _Elements:
     EI_z, GI_t, EI_w = props[:3]
-    xg, w, n, d2, d2d2, d1d1 = _shape(np.ascontiguousarray(nodes, dtype=float).tobytes())
-    aq = np.zeros_like(xg)
-    for value, start, end, a in uniform:
-        aq += np.where((xg >= start) & (xg <= end), value * a, 0.0)
+    key = np.ascontiguousarray(nodes, dtype=float).tobytes()
+    xg, w, n, d2, d2d2, d1d1 = _shape(key)
     return _Elements(
         kvv=EI_z * d2d2,
         kpp=GI_t * d1d1 + EI_w * d2d2,
         slope=d1d1,
-        gpq=_integral(w, aq, n, n),
+        gpq=_height(key, tuple(uniform)),
         gpv=-_integral(w, m_at(xg), n, d2),
         size=4 * nodes.size,
         quadrature=(xg, w, n, d2),
