@@ -158,10 +158,14 @@ def _layout(elements: int, free_bytes: bytes) -> dict:
 def _scatter(layout: dict, blocks) -> np.ndarray:
     """The matrix on the free DOFs of the element blocks ``((kind, (elements, 4, 4) array), ...)``."""
     size = layout["free"].size
-    sources = [block.ravel()[layout[kind][0]] for kind, block in blocks]
-    targets = [layout[kind][1] for kind, _ in blocks]
-    values = np.bincount(np.concatenate(targets), np.concatenate(sources), minlength=size * size)
-    return values.reshape(size, size)
+    kinds = tuple(kind for kind, _ in blocks)
+    plan = layout.get(kinds)
+    if plan is None:  # the indices of these kinds together, into the blocks laid end to end (made once)
+        step = blocks[0][1].size
+        sources = np.concatenate([layout[kind][0] + i * step for i, kind in enumerate(kinds)])
+        plan = layout[kinds] = (sources, np.concatenate([layout[kind][1] for kind in kinds]))
+    values = np.concatenate([block.ravel() for _, block in blocks])[plan[0]]
+    return np.bincount(plan[1], values, minlength=size * size).reshape(size, size)
 
 
 def _stiffness(parts, layout, N: float, i0_sq: float, scale_axial: bool, springs=()) -> np.ndarray:
