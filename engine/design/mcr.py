@@ -239,12 +239,12 @@ def _reduced(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warp
     return K, G, free
 
 
-def _mode(nodes, K, G, free, chol, lam) -> np.ndarray:
-    """The mode (nodes, 4) of λ on the free DOFs ``free`` of K (Cholesky factor ``chol``) and G: zeros when λ
-    is not finite."""
+def _mode(nodes, K, G, free, inv, lam) -> np.ndarray:
+    """The mode (nodes, 4) of λ on the free DOFs ``free`` of K (``inv``: the inverse of its Cholesky factor)
+    and G: zeros when λ is not finite."""
     full = np.zeros(4 * nodes.size)
     if math.isfinite(lam):
-        full[free] = _eigenvector(K, G, lam, chol)
+        full[free] = _eigenvector(K, G, lam, inv)
     return full.reshape(-1, 4)
 
 
@@ -323,8 +323,8 @@ def critical_moment(
     def run(count):
         nodes = problem.mesh(count)
         K, G, free = problem.reduced(nodes, problem.props, scale_axial)
-        lam, chol = _eigen(K, G)
-        return nodes, lam, (K, G, free, chol)
+        lam, inv = _eigen(K, G)
+        return nodes, lam, (K, G, free, inv)
 
     if elements is not None:
         count = int(elements)
@@ -357,8 +357,8 @@ def _first_count(mesh_pair: int | None) -> int:
 
 def _closing(history, nodes, matrices, count, M_max) -> CriticalMoment:
     """The result from the load factors of the meshes tried (the last two: coarse, fine) and the finer mesh's
-    reduced K, G, free DOFs and K's Cholesky factor: the Richardson value when it is below the finer one (see
-    the module)."""
+    reduced K, G, free DOFs and the inverse of K's Cholesky factor: the Richardson value when it is below the
+    finer one (see the module)."""
     fine = history[-1]
     mode = _mode(nodes, *matrices, fine)
     if not math.isfinite(fine):
@@ -536,8 +536,8 @@ class HeldAxial:
         for (nodes, _, layout, springs), now in zip(self._meshes, self._coupled(xs, ms, V), strict=True):
             props = (*self._props[:3], N, self._i0_squared)
             K, G = _assembled(now, nodes, layout, props, self._point, False, springs)
-            lam, chol = _eigen(K, G)
-            matrices = (K, G, layout["free"], chol)
+            lam, inv = _eigen(K, G)
+            matrices = (K, G, layout["free"], inv)
             history.append(lam)
         M_max = float(np.max(np.abs(ms)))
         return _closing(history, self._meshes[-1][0], matrices, self._count, M_max)

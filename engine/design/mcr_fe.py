@@ -10,14 +10,11 @@ picking the free rows and columns [derived: a + b = b + a exactly in IEEE arithm
 the same numbers as before this module existed, which matters: the smallest eigenvalue of an ill-conditioned
 K (N held near N_cr,z) moves by up to ~1e-8 relative when K's entries are rounded differently.
 
-Eigenvalues (:func:`_eigenvalue`): K = L Lᵀ (Cholesky), C = L⁻¹ G L⁻ᵀ by two triangular solves (before:
-L⁻¹ made explicitly and multiplied), C reduced to tridiagonal form and only its largest eigenvalue found, by
-bisection (LAPACK ``dpotrf``, BLAS ``dtrsm``, LAPACK ``dsytrd``, ``dstebz``; the smallest too only when a
-bound says it might decide the "no positive direction" rule), instead of every eigenvalue of C by
-``numpy.linalg.eigvalsh``. The same Cholesky factor matters more than the eigen solver: solving K x = λ G x
-by inverse iteration on K − σG, without L, gave values up to 1e-4 away on members with N near N_cr,z (K's
-condition number ~1e12), where the factor-based solvers agree to 1e-12. The mode (:func:`_eigenvector`) is
-the same inverse iteration as before, with each LU factor made once.
+Eigenvalues (:func:`_eigenvalue`): the operations of the code before, numpy only (the product never imports
+scipy: 0.5 s of start-up, ``tests/engine/test_isolation.py``): K = L Lᵀ, C = L⁻¹ G L⁻ᵀ with L⁻¹ explicit,
+every eigenvalue of C by ``numpy.linalg.eigvalsh``; λ is the same number as before. The mode
+(:func:`_eigenvector`) is the same inverse iteration as before (shift λ(1 − 1e-6), four steps) with the
+shifted matrix inverted once instead of solved four times, and its start K⁻¹(Σ|G| + 1) from L⁻¹.
 """
 
 from __future__ import annotations
@@ -27,7 +24,6 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.linalg import blas, lapack
 
 # Gauss–Legendre points and weights on [0, 1], 4 points: exact to degree 7.
 _GP, _GW = np.polynomial.legendre.leggauss(4)
@@ -216,12 +212,6 @@ def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tupl
     return lam, _eigenvector(K, G, lam)
 
 
-def _cholesky(matrix: np.ndarray):
-    """The lower Cholesky factor, or None when ``matrix`` is not positive definite."""
-    factor, info = lapack.dpotrf(matrix, lower=1, clean=1)
-    return factor if info == 0 else None
-
-
 def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
     """λ of :func:`eigen_solution` alone (inf when G has no positive direction: the largest μ = 1/λ not
     above 1e-12 of the largest |μ|)."""
@@ -229,44 +219,33 @@ def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
 
 
 def _eigen(K: np.ndarray, G: np.ndarray) -> tuple[float, np.ndarray]:
-    """λ of :func:`_eigenvalue` and the Cholesky factor of K (for :func:`_eigenvector`)."""
-    chol = _cholesky(K)
-    if chol is None:
-        raise ValueError("the elastic stiffness is not positive definite (N held fixed above N_cr?)")
-    a = blas.dtrsm(1.0, chol, blas.dtrsm(1.0, chol, G, lower=1), side=1, lower=1, trans_a=1)  # L⁻¹ G L⁻ᵀ
-    _, d, e, _, _ = lapack.dsytrd((0.5 * (a + a.T)).T, lower=1)  # exactly symmetric: .T is its Fortran order
-    top = _extreme(d, e, d.size)
-    bound = float(np.max(np.abs(d))) + 2.0 * float(np.max(np.abs(e), initial=0.0))  # Gershgorin: |μ| ≤ it
-    if not top > 1e-12 * bound:
-        largest = max(abs(top), abs(_extreme(d, e, 1)))
-        if not top > 1e-12 * largest:
-            return math.inf, chol
-    lam = 1.0 / top
-    return (lam if math.isfinite(lam) else math.inf), chol
+    """λ of :func:`_eigenvalue` and L⁻¹, the inverse of K's Cholesky factor (for :func:`_eigenvector`): the
+    operations of the code before (every eigenvalue μ of C = L⁻¹GL⁻ᵀ by ``numpy.linalg.eigvalsh``), so λ is
+    the same number."""
+    try:
+        chol = np.linalg.cholesky(K)
+    except np.linalg.LinAlgError as error:
+        raise ValueError(
+            "the elastic stiffness is not positive definite (N held fixed above N_cr?)"
+        ) from error
+    inv = np.linalg.inv(chol)
+    a = inv @ G @ inv.T
+    mu = np.linalg.eigvalsh(0.5 * (a + a.T))
+    if not mu[-1] > 1e-12 * float(np.max(np.abs(mu))):
+        return math.inf, inv
+    lam = 1.0 / float(mu[-1])
+    return (lam if math.isfinite(lam) else math.inf), inv
 
 
-def _extreme(d: np.ndarray, e: np.ndarray, index: int) -> float:
-    """The ``index``-th smallest eigenvalue (1-based) of the symmetric tridiagonal (d, e), by bisection."""
-    m, w, *_ = lapack.dstebz(d, e, 3, 0.0, 0.0, index, index, 0.0, "E")
-    return float(w[0]) if m == 1 else math.nan
-
-
-def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float, chol=None) -> np.ndarray:
-    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it (its LU
-    factors made once, LAPACK ``dgetrf``/``dgetrs``: the numbers of ``numpy.linalg.solve`` at each step),
-    from K⁻¹(Σ|G| + 1) by ``chol``, K's Cholesky factor (made here when not given)."""
-    shifted = _lu(K - lam * (1.0 - 1e-6) * G)
-    start = np.sum(np.abs(G), axis=1) + 1.0  # every DOF present
-    x = lapack.dpotrs(_cholesky(K) if chol is None else chol, start, lower=1)[0]
+def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float, inv=None) -> np.ndarray:
+    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it: from
+    K⁻¹(Σ|G| + 1) = L⁻ᵀL⁻¹(Σ|G| + 1) (``inv`` = L⁻¹ from :func:`_eigen`, made here when not given), four
+    steps with the inverse of the shifted matrix made once."""
+    if inv is None:
+        inv = np.linalg.inv(np.linalg.cholesky(K))
+    shifted = np.linalg.inv(K - lam * (1.0 - 1e-6) * G)
+    x = inv.T @ (inv @ (np.sum(np.abs(G), axis=1) + 1.0))  # a start with every DOF present
     for _ in range(4):
-        x = lapack.dgetrs(*shifted, G @ x)[0]
+        x = shifted @ (G @ x)
         x /= np.max(np.abs(x))
     return x
-
-
-def _lu(matrix: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """LU factors and pivots of a square matrix (LinAlgError when singular, as numpy.linalg.solve)."""
-    lu, pivots, info = lapack.dgetrf(matrix)
-    if info != 0:
-        raise np.linalg.LinAlgError("Singular matrix")
-    return lu, pivots
