@@ -31,47 +31,28 @@ every other term, so reversing :math:`M` gives the same :math:`|M_{cr}|` [derive
 by 4-point Gauss quadrature (exact for :math:`M` linear and :math:`q` uniform within an element; :math:`M` is
 interpolated linearly between the caller's samples). The eigenproblem :math:`K x = \lambda G x` is reduced
 with the Cholesky factor of :math:`K` to a symmetric one and :math:`\lambda = 1/\mu_{max}` for the largest
-positive eigenvalue :math:`\mu` (numpy only). With exact quadrature this is a Rayleigh–Ritz solution, so
-every mesh gives an upper bound (the unsafe side) that converges as :math:`h^4`; :func:`critical_moment`
-therefore meshes twice (n and 2n elements), extrapolates (Richardson, rate 4) and returns the smaller of the
-extrapolated and the finer value, doubling n until the two agree within ``tolerance`` (0.1 %).
+positive eigenvalue :math:`\mu` (numpy.linalg.eigvalsh, :mod:`engine.design.mcr_fe`). With exact quadrature
+this is a Rayleigh–Ritz solution, so every mesh gives an upper bound (the unsafe side) that converges as
+:math:`h^4`; :func:`critical_moment` therefore meshes twice (n and 2n elements), extrapolates (Richardson,
+rate 4) and returns the smaller of the extrapolated and the finer value, doubling n until the two agree within
+``tolerance`` (0.1 %).
 """
 
 from __future__ import annotations
 
 import dataclasses
+import functools
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 
-from engine.design.mcr_fe import (
-    _eigenvalue,
-    _elements,
-    _free_dofs,
-    _geometric,
-    _held_inside,
-    _integral,
-    _mesh,
-    _mode,
-    _reduced,
-    _stiffness,
-    _with_springs,
-    clear_cache,
-    eigen_solution,
-)
+from engine.design import mcr_fe
+from engine.design.mcr_fe import _eigen, _eigenvector, _elements, eigen_solution
 from engine.validate import choice, positive, real
 
-__all__ = [
-    "LATERAL_ENDS",
-    "WARPING_ENDS",
-    "CriticalMoment",
-    "HeldAxial",
-    "clear_cache",
-    "critical_moment",
-    "eigen_solution",
-]
+__all__ = ["LATERAL_ENDS", "WARPING_ENDS", "CriticalMoment", "HeldAxial", "critical_moment", "eigen_solution"]
 
 #: End conditions for lateral bending: ``fork`` (v = 0, free to rotate about the minor axis), ``fixed``
 #: (v = v' = 0); both hold the twist (φ = 0): a fork support. ``free``: nothing held (a cantilever's tip; the
@@ -142,6 +123,71 @@ def _loads(loads: Sequence[Mapping] | None, length: float, height: float) -> tup
     return uniform, point
 
 
+def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
+    """Nodes of ``elements`` equal elements, with the break points (point loads, load ends) added (cached
+    per length, count and break points; the array is read-only)."""
+    return _cached_mesh(float(length), int(elements), tuple(float(b) for b in breaks))
+
+
+@functools.lru_cache(maxsize=256)
+def _cached_mesh(length: float, elements: int, breaks: tuple) -> np.ndarray:
+    nodes = _nodes(length, elements, breaks)
+    nodes.flags.writeable = False
+    return nodes
+
+
+def _nodes(length, elements, breaks) -> np.ndarray:
+    nodes = np.linspace(0.0, length, elements + 1)
+    extra = [b for b in breaks if 0.0 < b < length and np.min(np.abs(nodes - b)) > 1e-9 * length]
+    return np.unique(np.concatenate([nodes, extra])) if extra else nodes
+
+
+def _matrices(nodes, m_at, props, uniform, point, scale_axial):
+    """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node)."""
+    parts = _elements(nodes, m_at, props, uniform)
+    every = np.arange(parts.size, dtype=np.int64)
+    return _assembled(parts, nodes, _layout(parts, every), props, point, scale_axial)
+
+
+def _layout(parts, free) -> dict:
+    """Where the element blocks of ``parts`` land on the free DOFs ``free`` (cached per mesh and DOFs)."""
+    return mcr_fe._layout(parts.kvv.shape[0], np.asarray(free, dtype=np.int64).tobytes())
+
+
+def _assembled(parts, nodes, layout, props, point, scale_axial, springs=()):
+    """K (with the restraints' ``springs``) and G on the DOFs of ``layout``."""
+    N, i0_sq = props[3], props[4]
+    K = mcr_fe._stiffness(parts, layout, N, i0_sq, scale_axial, springs)
+    return K, mcr_fe._geometric(parts, layout, nodes, N, i0_sq, point, scale_axial)
+
+
+@functools.lru_cache(maxsize=64)
+def _free_dofs(nodes_count: int, lateral_ends, warping_ends, held_inside=()) -> np.ndarray:
+    """The DOFs held neither by the end conditions nor by ``held_inside`` (cached; the array is read-only)."""
+    held = set(held_inside)
+    for end, node in (0, 0), (1, nodes_count - 1):
+        if lateral_ends[end] == "free":  # a cantilever's tip: nothing held
+            continue
+        held.update({4 * node, 4 * node + 2})  # v = 0, φ = 0: a fork at each support
+        if lateral_ends[end] == "fixed":
+            held.add(4 * node + 1)
+        if warping_ends[end] == "fixed":
+            held.add(4 * node + 3)
+    free = np.array([i for i in range(4 * nodes_count) if i not in held])
+    free.flags.writeable = False
+    return free
+
+
+def clear_cache() -> None:
+    """Forget the cached free DOFs (:func:`_free_dofs`), the meshes, and the mesh integrals and layouts
+    (:mod:`engine.design.mcr_fe`)."""
+    _free_dofs.cache_clear()
+    _cached_mesh.cache_clear()
+    mcr_fe._shape.cache_clear()
+    mcr_fe._layout.cache_clear()
+    mcr_fe._height.cache_clear()
+
+
 def _restraints(restraints: Sequence[Mapping] | None, length: float) -> list:
     """Intermediate restraints as (x, {DOF offset: "fixed" or a stiffness}) (see :func:`critical_moment`)."""
     out = []
@@ -169,6 +215,37 @@ def _restraints(restraints: Sequence[Mapping] | None, length: float) -> list:
                     held[offset] = stiffness
         out.append((x, held))
     return out
+
+
+def _held_inside(nodes, inside) -> tuple[tuple, tuple]:
+    """The DOFs the intermediate restraints ``inside`` hold on this mesh, and their springs as (DOF, k)."""
+    held, springs = [], []
+    for x, dofs in inside:
+        node = int(np.argmin(np.abs(nodes - x)))
+        for offset, value in dofs.items():
+            if value == "fixed":
+                held.append(4 * node + offset)
+            else:  # a spring at the shear centre: ½ k v² (or ½ k_r v'², ½ k_φ φ²) joins the strain energy
+                springs.append((4 * node + offset, value))
+    return tuple(held), tuple(springs)
+
+
+def _reduced(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warping_ends, inside=()):
+    """K and G on the free DOFs, and those DOFs."""
+    parts = _elements(nodes, m_at, props, uniform)
+    held, springs = _held_inside(nodes, inside)
+    free = _free_dofs(nodes.size, lateral_ends, warping_ends, held)
+    K, G = _assembled(parts, nodes, _layout(parts, free), props, point, scale_axial, springs)
+    return K, G, free
+
+
+def _mode(nodes, K, G, free, inv, lam) -> np.ndarray:
+    """The mode (nodes, 4) of λ on the free DOFs ``free`` of K (``inv``: the inverse of its Cholesky factor)
+    and G: zeros when λ is not finite."""
+    full = np.zeros(4 * nodes.size)
+    if math.isfinite(lam):
+        full[free] = _eigenvector(K, G, lam, inv)
+    return full.reshape(-1, 4)
 
 
 def critical_moment(
@@ -246,7 +323,8 @@ def critical_moment(
     def run(count):
         nodes = problem.mesh(count)
         K, G, free = problem.reduced(nodes, problem.props, scale_axial)
-        return nodes, _eigenvalue(K, G), (K, G, free)
+        lam, inv = _eigen(K, G)
+        return nodes, lam, (K, G, free, inv)
 
     if elements is not None:
         count = int(elements)
@@ -279,7 +357,8 @@ def _first_count(mesh_pair: int | None) -> int:
 
 def _closing(history, nodes, matrices, count, M_max) -> CriticalMoment:
     """The result from the load factors of the meshes tried (the last two: coarse, fine) and the finer mesh's
-    reduced K, G and free DOFs: the Richardson value when it is below the finer one (see the module)."""
+    reduced K, G, free DOFs and the inverse of K's Cholesky factor: the Richardson value when it is below the
+    finer one (see the module)."""
     fine = history[-1]
     mode = _mode(nodes, *matrices, fine)
     if not math.isfinite(fine):
@@ -379,14 +458,21 @@ def _moment_function(xs: np.ndarray, ms: np.ndarray, V):
         if vs.shape != xs.shape or not np.all(np.isfinite(vs)):
             raise ValueError("V: give finite samples, one per x")
 
+        last = xs.size - 2
+
         def m_at(points):
-            i = np.clip(np.searchsorted(xs, points, side="right") - 1, 0, xs.size - 2)
-            h = xs[i + 1] - xs[i]
-            safe = np.where(h > 0.0, h, 1.0)
-            t = np.where(h > 0.0, (points - xs[i]) / safe, 0.0)
-            h00, h10 = 2 * t**3 - 3 * t**2 + 1, t**3 - 2 * t**2 + t
-            h01, h11 = -2 * t**3 + 3 * t**2, t**3 - t**2
-            return h00 * ms[i] + h10 * h * vs[i] + h01 * ms[i + 1] + h11 * h * vs[i + 1]
+            i = np.searchsorted(xs, points, side="right") - 1
+            np.minimum(np.maximum(i, 0, out=i), last, out=i)
+            i1 = i + 1
+            x0 = xs[i]
+            h = xs[i1] - x0
+            inside = h > 0.0
+            t = np.where(inside, (points - x0) / np.where(inside, h, 1.0), 0.0)
+            t2, t3 = t**2, t**3
+            cubic = 2 * t3 - 3 * t2  # h00 = 2t³ − 3t² + 1 and h01 = −2t³ + 3t², the same sums as written out
+            h00, h10 = cubic + 1, t3 - 2 * t2 + t
+            h01, h11 = -cubic, t3 - t2
+            return h00 * ms[i] + h10 * h * vs[i] + h01 * ms[i1] + h11 * h * vs[i1]
 
     return m_at
 
@@ -427,13 +513,16 @@ class HeldAxial:
         count = _first_count(mesh_pair)
         self._count = 2 * count
         self._point = problem.point
+        self._props = problem.props
+        self._last = None  # (samples, each mesh's parts with their coupling): see _coupled
         self._jumps = _jumps(np.asarray(x, dtype=float))
         self._meshes = []
         for elements in (count, 2 * count):
             nodes = problem.mesh(elements)
             parts = _elements(nodes, problem.m_at, problem.props, problem.uniform)
             held, springs = _held_inside(nodes, problem.inside)
-            self._meshes.append((nodes, parts, _free_dofs(nodes.size, *problem.ends, held), springs))
+            layout = _layout(parts, _free_dofs(nodes.size, *problem.ends, held))
+            self._meshes.append((nodes, parts, layout, springs))
 
     def at(self, N: float, x, M, V=None) -> CriticalMoment | None:
         """The solution at the held axial force N [N], compression positive, for the diagram sampled at
@@ -443,17 +532,29 @@ class HeldAxial:
         xs, ms = np.asarray(x, dtype=float), np.asarray(M, dtype=float)
         if _jumps(xs) != self._jumps:
             return None
-        m_at = _moment_function(xs, ms, V)
         history, matrices = [], None
-        for nodes, parts, free, springs in self._meshes:
-            xg, w, n, d2 = parts.quadrature
-            now = dataclasses.replace(parts, gpv=-_integral(w, m_at(xg), n, d2))
-            G = _geometric(now, nodes, N, self._i0_squared, self._point, False)[np.ix_(free, free)]
-            K = _with_springs(_stiffness(parts, N, self._i0_squared, False), springs)
-            matrices = (K[np.ix_(free, free)], G, free)
-            history.append(_eigenvalue(*matrices[:2]))
+        for (nodes, _, layout, springs), now in zip(self._meshes, self._coupled(xs, ms, V), strict=True):
+            props = (*self._props[:3], N, self._i0_squared)
+            K, G = _assembled(now, nodes, layout, props, self._point, False, springs)
+            lam, inv = _eigen(K, G)
+            matrices = (K, G, layout["free"], inv)
+            history.append(lam)
         M_max = float(np.max(np.abs(ms)))
         return _closing(history, self._meshes[-1][0], matrices, self._count, M_max)
+
+    def _coupled(self, xs, ms, V) -> list:
+        """Each mesh's element integrals with the moment's coupling of these samples (those of the last
+        samples again when the samples are the same numbers: a member's trial forces share its diagram)."""
+        key = (xs.tobytes(), ms.tobytes(), None if V is None else np.asarray(V, dtype=float).tobytes())
+        last = self._last  # one read: another thread may replace it
+        if last is None or last[0] != key:
+            m_at = _moment_function(xs, ms, V)
+            parts = []
+            for _, mesh, _, _ in self._meshes:
+                xg, w, n, d2 = mesh.quadrature
+                parts.append(dataclasses.replace(mesh, gpv=-mcr_fe._integral(w, m_at(xg), n, d2)))
+            last = self._last = (key, parts)
+        return last[1]
 
 
 def _jumps(xs: np.ndarray) -> list:
@@ -473,7 +574,7 @@ def _result(lam, M_max, nodes, mode, count, history, extrapolated) -> CriticalMo
         elements=count,
         alpha_meshes=history,
         extrapolated=extrapolated,
-        x=nodes,
+        x=np.array(nodes),  # its own copy: the mesh is cached and read-only
         v=mode[:, 0],
         v_slope=mode[:, 1],
         phi=mode[:, 2],

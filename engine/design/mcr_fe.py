@@ -1,24 +1,37 @@
-"""The finite elements of :mod:`engine.design.mcr`: Hermite cubic shape functions, the element integrals of
-the energy of lateral-torsional buckling, their assembly into K and G, the held DOFs (end conditions and
-intermediate restraints) and the generalised eigenproblem K x = λ G x. See :mod:`engine.design.mcr` for the
-energy and the method; everything here works on one mesh.
+r"""The finite-element pieces of :mod:`engine.design.mcr`: the element integrals of a mesh, their assembly
+onto the free DOFs, and the eigen solutions of :math:`K x = \lambda G x`.
+
+Element integrals by 4-point Gauss quadrature of Hermite cubics (see :mod:`engine.design.mcr`); what depends
+on the mesh alone is kept per mesh (:func:`_shape`), the loads' height term per mesh and loads
+(:func:`_height`). Assembly adds each element's blocks straight into the matrix on the free DOFs: every entry
+receives at most two element contributions (the two elements of a node), and ``numpy.bincount`` adds them to
+0 in order, so each entry is the same floating-point sum as a full assembly with ``numpy.add.at`` followed by
+picking the free rows and columns [derived: a + b = b + a exactly in IEEE arithmetic]. K and G are therefore
+the same numbers as before this module existed, which matters: the smallest eigenvalue of an ill-conditioned
+K (N held near N_cr,z) moves by up to ~1e-8 relative when K's entries are rounded differently.
+
+Eigenvalues (:func:`_eigenvalue`): the operations of the code before, numpy only (the product never imports
+scipy: 0.5 s of start-up, ``tests/engine/test_isolation.py``): K = L Lᵀ, C = L⁻¹ G L⁻ᵀ with L⁻¹ explicit,
+every eigenvalue of C by ``numpy.linalg.eigvalsh``; λ is the same number as before. The mode
+(:func:`_eigenvector`) is the same inverse iteration as before (shift λ(1 − 1e-6), four steps) with the
+shifted matrix inverted once instead of solved four times, and its start K⁻¹(Σ|G| + 1) from L⁻¹.
 """
 
 from __future__ import annotations
 
 import functools
 import math
-from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
-
-__all__ = ["clear_cache", "eigen_solution"]
 
 # Gauss–Legendre points and weights on [0, 1], 4 points: exact to degree 7.
 _GP, _GW = np.polynomial.legendre.leggauss(4)
 _GP = 0.5 * (_GP + 1.0)
 _GW = 0.5 * _GW
+
+_IV = np.array([0, 1, 4, 5])  # the v DOFs of an element: v, v' at both nodes
+_IP = np.array([2, 3, 6, 7])  # the φ DOFs
 
 
 def _hermite(h: np.ndarray, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -48,151 +61,149 @@ def _hermite(h: np.ndarray, xi: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.
     return n, d1, d2
 
 
-def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
-    """Nodes of ``elements`` equal elements, with the break points (point loads, load ends) added."""
-    nodes = np.linspace(0.0, length, elements + 1)
-    extra = [b for b in breaks if 0.0 < b < length and np.min(np.abs(nodes - b)) > 1e-9 * length]
-    return np.unique(np.concatenate([nodes, extra])) if extra else nodes
+def _integral(w, f, a, b):
+    """∫ f a_i b_j dx per element, (elements, 4, 4), by the quadrature weights ``w``."""
+    return np.einsum("eg,egi,egj->eij", w * f, a, b)
 
 
-_IV = np.array([0, 1, 4, 5])  # the v DOFs of an element: v, v' at both nodes
-_IP = np.array([2, 3, 6, 7])  # the φ DOFs
+@functools.lru_cache(maxsize=64)
+def _shape(nodes_bytes: bytes) -> tuple:
+    """What a mesh alone gives (cached per mesh, arrays read-only): Gauss points xg and weights w
+    (elements, points), the shape functions n and d2, ∫ v''v'' and ∫ v'v' per element."""
+    nodes = np.frombuffer(nodes_bytes)
+    h = np.diff(nodes)
+    n, d1, d2 = _hermite(h, _GP)
+    xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
+    w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
+    one = np.ones_like(xg)
+    out = (xg, w, n, d2, _integral(w, one, d2, d2), _integral(w, one, d1, d1))
+    for array in out:
+        array.flags.writeable = False
+    return out
+
+
+@functools.lru_cache(maxsize=64)
+def _height(nodes_bytes: bytes, uniform: tuple) -> np.ndarray:
+    """∫ q a φ² per element of the uniform loads ``((q, start, end, a), ...)`` (cached per mesh and loads;
+    read-only)."""
+    xg, w, n = _shape(nodes_bytes)[:3]
+    aq = np.zeros_like(xg)
+    for value, start, end, a in uniform:
+        aq += np.where((xg >= start) & (xg <= end), value * a, 0.0)
+    out = _integral(w, aq, n, n)
+    out.flags.writeable = False
+    return out
 
 
 @dataclass(frozen=True)
 class _Elements:
-    """The per-element integrals of one mesh that do not depend on N, and where they assemble."""
+    """The per-element integrals of one mesh that do not depend on N, and how many DOFs it has."""
 
     kvv: np.ndarray  # EI_z ∫ v''², (elements, 4, 4)
     kpp: np.ndarray  # GI_t ∫ φ'² + EI_w ∫ φ''²
     slope: np.ndarray  # ∫ a' b': times N for v, times N i0² for φ
     gpq: np.ndarray  # ∫ q a φ²
     gpv: np.ndarray  # −∫ M φ v''
-    rows: np.ndarray
-    cols: np.ndarray
     size: int
     quadrature: tuple  # (points, weights, shape functions, their second derivatives): for −∫ M φ v'' again
 
 
-def _integral(w, f, a, b):
-    """∫ f a_i b_j dx per element, (elements, 4, 4), by the quadrature weights ``w``."""
-    return np.einsum("eg,egi,egj->eij", w * f, a, b)
-
-
 def _elements(nodes, m_at, props, uniform) -> _Elements:
     EI_z, GI_t, EI_w = props[:3]
-    h = np.diff(nodes)
-    ne = h.size
-    n, d1, d2 = _hermite(h, _GP)
-    xg = nodes[:-1, None] + h[:, None] * _GP[None, :]
-    w = h[:, None] * _GW[None, :]  # quadrature weights in x, (elements, points)
-    m = m_at(xg)
-    aq = np.zeros_like(xg)
-    for value, start, end, a in uniform:
-        aq += np.where((xg >= start) & (xg <= end), value * a, 0.0)
-    one = np.ones_like(xg)
-    dofs = 4 * np.arange(ne)[:, None] + np.arange(8)[None, :]
+    key = np.ascontiguousarray(nodes, dtype=float).tobytes()
+    xg, w, n, d2, d2d2, d1d1 = _shape(key)
     return _Elements(
-        kvv=EI_z * _integral(w, one, d2, d2),
-        kpp=GI_t * _integral(w, one, d1, d1) + EI_w * _integral(w, one, d2, d2),
-        slope=_integral(w, one, d1, d1),
-        gpq=_integral(w, aq, n, n),
-        gpv=-_integral(w, m, n, d2),
-        rows=np.broadcast_to(dofs[:, :, None], (ne, 8, 8)),
-        cols=np.broadcast_to(dofs[:, None, :], (ne, 8, 8)),
-        size=4 * (ne + 1),
+        kvv=EI_z * d2d2,
+        kpp=GI_t * d1d1 + EI_w * d2d2,
+        slope=d1d1,
+        gpq=_height(key, tuple(uniform)),
+        gpv=-_integral(w, m_at(xg), n, d2),
+        size=4 * nodes.size,
         quadrature=(xg, w, n, d2),
     )
 
 
-def _assemble(parts: _Elements, blocks) -> np.ndarray:
-    """The global matrix of the element blocks ``((dofs_rows, dofs_cols, block), ...)``."""
-    e = np.zeros((parts.kvv.shape[0], 8, 8))
-    for rows, cols, block in blocks:
-        e[:, rows[:, None], cols] = block
-    out = np.zeros((parts.size, parts.size))
-    np.add.at(out, (parts.rows, parts.cols), e)
+@functools.lru_cache(maxsize=64)
+def _layout(elements: int, free_bytes: bytes) -> dict:
+    """Where each element block lands in the matrix on the free DOFs ``free``: per block kind (``vv``,
+    ``pp``, ``pv``: φ rows and v columns, ``vp``: its transpose, read from the ``pv`` blocks), the indices
+    into the flattened (elements, 4, 4) blocks and into the flattened matrix; the entries of held DOFs are
+    left out. Also ``reduced``: each DOF's row in that matrix (−1 when held) and ``free``."""
+    free = np.frombuffer(free_bytes, dtype=np.int64)
+    reduced = np.full(4 * (elements + 1), -1)
+    reduced[free] = np.arange(free.size)
+    e = np.arange(elements)[:, None, None]
+    i = np.arange(4)[None, :, None]
+    j = np.arange(4)[None, None, :]
+    out = {"reduced": reduced, "free": free}
+    for kind, rows, cols, transposed in (
+        ("vv", _IV, _IV, False),
+        ("pp", _IP, _IP, False),
+        ("pv", _IP, _IV, False),
+        ("vp", _IV, _IP, True),
+    ):
+        r = reduced[4 * e + rows[i]]
+        c = reduced[4 * e + cols[j]]
+        keep = ((r >= 0) & (c >= 0)).ravel()
+        source = (16 * e + (4 * j + i if transposed else 4 * i + j)).ravel()[keep]
+        target = (r * free.size + c).ravel()[keep]
+        out[kind] = (source, target)
     return out
 
 
-def _stiffness(parts: _Elements, N: float, i0_sq: float, scale_axial: bool) -> np.ndarray:
-    """K: with N held it softens the stiffness; when N grows with the load factor it is in G instead."""
+def _scatter(layout: dict, blocks) -> np.ndarray:
+    """The matrix on the free DOFs of the element blocks ``((kind, (elements, 4, 4) array), ...)``."""
+    size = layout["free"].size
+    kinds = tuple(kind for kind, _ in blocks)
+    plan = layout.get(kinds)
+    if plan is None:  # the indices of these kinds together, into the blocks laid end to end (made once)
+        step = blocks[0][1].size
+        sources = np.concatenate([layout[kind][0] + i * step for i, kind in enumerate(kinds)])
+        plan = layout[kinds] = (sources, np.concatenate([layout[kind][1] for kind in kinds]))
+    values = np.concatenate([block.ravel() for _, block in blocks])[plan[0]]
+    return np.bincount(plan[1], values, minlength=size * size).reshape(size, size)
+
+
+def _stiffness(parts, layout, N: float, i0_sq: float, scale_axial: bool, springs=()) -> np.ndarray:
+    """K on the free DOFs: with N held it softens the stiffness; when N grows with the load factor it is in
+    G instead. The restraints' springs ``(DOF, k)`` join its diagonal."""
     if scale_axial:
-        return _assemble(parts, ((_IV, _IV, parts.kvv), (_IP, _IP, parts.kpp)))
-    gvv = N * parts.slope  # N v'²
-    gpn = N * i0_sq * parts.slope  # N i0² φ'²
-    return _assemble(parts, ((_IV, _IV, parts.kvv - gvv), (_IP, _IP, parts.kpp - gpn)))
+        K = _scatter(layout, (("vv", parts.kvv), ("pp", parts.kpp)))
+    else:
+        gvv = N * parts.slope  # N v'²
+        gpn = N * i0_sq * parts.slope  # N i0² φ'²
+        K = _scatter(layout, (("vv", parts.kvv - gvv), ("pp", parts.kpp - gpn)))
+    _on_diagonal(K, layout, springs)
+    return K
 
 
-def _geometric(parts: _Elements, nodes, N: float, i0_sq: float, point, scale_axial: bool) -> np.ndarray:
-    """G: the moment's coupling, the loads' height and (``scale_axial``) the axial force."""
-    coupling = ((_IP, _IV, parts.gpv), (_IV, _IP, np.swapaxes(parts.gpv, 1, 2)))
+def _geometric(parts, layout, nodes, N: float, i0_sq: float, point, scale_axial: bool) -> np.ndarray:
+    """G on the free DOFs: the moment's coupling, the loads' height and (``scale_axial``) the axial force."""
+    coupling = (("pv", parts.gpv), ("vp", parts.gpv))
     if scale_axial:  # N grows with the load factor
         gvv = N * parts.slope
         gpn = N * i0_sq * parts.slope
-        G = _assemble(parts, ((_IV, _IV, gvv), (_IP, _IP, gpn + parts.gpq), *coupling))
+        G = _scatter(layout, (("vv", gvv), ("pp", gpn + parts.gpq), *coupling))
     else:
-        G = _assemble(parts, ((_IP, _IP, parts.gpq), *coupling))
-    for force, x, a in point:
-        node = int(np.argmin(np.abs(nodes - x)))
-        G[4 * node + 2, 4 * node + 2] += force * a
+        G = _scatter(layout, (("pp", parts.gpq), *coupling))
+    loads = [(4 * int(np.argmin(np.abs(nodes - x))) + 2, force * a) for force, x, a in point]
+    _on_diagonal(G, layout, loads)
     return G
 
 
-def _matrices(nodes, m_at, props, uniform, point, scale_axial):
-    """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node)."""
-    N, i0_sq = props[3], props[4]
-    parts = _elements(nodes, m_at, props, uniform)
-    return _stiffness(parts, N, i0_sq, scale_axial), _geometric(parts, nodes, N, i0_sq, point, scale_axial)
-
-
-@functools.lru_cache(maxsize=64)
-def _free_dofs(nodes_count: int, lateral_ends, warping_ends, held_inside=()) -> np.ndarray:
-    """The DOFs held neither by the end conditions nor by ``held_inside`` (cached; the array is read-only)."""
-    held = set(held_inside)
-    for end, node in (0, 0), (1, nodes_count - 1):
-        if lateral_ends[end] == "free":  # a cantilever's tip: nothing held
-            continue
-        held.update({4 * node, 4 * node + 2})  # v = 0, φ = 0: a fork at each support
-        if lateral_ends[end] == "fixed":
-            held.add(4 * node + 1)
-        if warping_ends[end] == "fixed":
-            held.add(4 * node + 3)
-    free = np.array([i for i in range(4 * nodes_count) if i not in held])
-    free.flags.writeable = False
-    return free
-
-
-def clear_cache() -> None:
-    """Forget the cached free DOFs (:func:`_free_dofs`)."""
-    _free_dofs.cache_clear()
-
-
-def _held_inside(nodes, inside) -> tuple[tuple, tuple]:
-    """The DOFs the intermediate restraints ``inside`` hold on this mesh, and their springs as (DOF, k)."""
-    held, springs = [], []
-    for x, dofs in inside:
-        node = int(np.argmin(np.abs(nodes - x)))
-        for offset, value in dofs.items():
-            if value == "fixed":
-                held.append(4 * node + offset)
-            else:  # a spring at the shear centre: ½ k v² (or ½ k_r v'², ½ k_φ φ²) joins the strain energy
-                springs.append((4 * node + offset, value))
-    return tuple(held), tuple(springs)
-
-
-def _with_springs(K: np.ndarray, springs) -> np.ndarray:
-    """K (all DOFs) with the restraints' springs added on its diagonal, in place."""
-    for dof, k in springs:
-        K[dof, dof] += k
-    return K
+def _on_diagonal(matrix: np.ndarray, layout: dict, terms) -> None:
+    """Add ``(DOF, value)`` terms to the diagonal, in order, in place; a held DOF's term is left out."""
+    for dof, value in terms:
+        row = layout["reduced"][dof]
+        if row >= 0:
+            matrix[row, row] += value
 
 
 def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tuple[float, np.ndarray]:
     """The smallest positive λ of K x = λ G x (K symmetric positive definite) and, if asked, its vector.
 
-    The values come from the symmetric problem reduced by the Cholesky factor of K
-    (``numpy.linalg.eigvalsh``); the vector from a few steps of inverse iteration shifted just below λ.
+    The value comes from the symmetric problem reduced by the Cholesky factor of K (:func:`_eigenvalue`);
+    the vector from a few steps of inverse iteration shifted just below λ.
     Returns (inf, zeros) when G has no positive direction: the member does not buckle under these loads.
     """
     lam = _eigenvalue(K, G)
@@ -202,7 +213,15 @@ def eigen_solution(K: np.ndarray, G: np.ndarray, *, vector: bool = True) -> tupl
 
 
 def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
-    """λ of :func:`eigen_solution` alone (inf when G has no positive direction)."""
+    """λ of :func:`eigen_solution` alone (inf when G has no positive direction: the largest μ = 1/λ not
+    above 1e-12 of the largest |μ|)."""
+    return _eigen(K, G)[0]
+
+
+def _eigen(K: np.ndarray, G: np.ndarray) -> tuple[float, np.ndarray]:
+    """λ of :func:`_eigenvalue` and L⁻¹, the inverse of K's Cholesky factor (for :func:`_eigenvector`): the
+    operations of the code before (every eigenvalue μ of C = L⁻¹GL⁻ᵀ by ``numpy.linalg.eigvalsh``), so λ is
+    the same number."""
     try:
         chol = np.linalg.cholesky(K)
     except np.linalg.LinAlgError as error:
@@ -213,33 +232,20 @@ def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
     a = inv @ G @ inv.T
     mu = np.linalg.eigvalsh(0.5 * (a + a.T))
     if not mu[-1] > 1e-12 * float(np.max(np.abs(mu))):
-        return math.inf
+        return math.inf, inv
     lam = 1.0 / float(mu[-1])
-    return lam if math.isfinite(lam) else math.inf
+    return (lam if math.isfinite(lam) else math.inf), inv
 
 
-def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float) -> np.ndarray:
-    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it."""
-    shifted = K - lam * (1.0 - 1e-6) * G
-    x = np.linalg.solve(K, np.sum(np.abs(G), axis=1) + 1.0)  # a start with every DOF present
+def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float, inv=None) -> np.ndarray:
+    """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it: from
+    K⁻¹(Σ|G| + 1) = L⁻ᵀL⁻¹(Σ|G| + 1) (``inv`` = L⁻¹ from :func:`_eigen`, made here when not given), four
+    steps with the inverse of the shifted matrix made once."""
+    if inv is None:
+        inv = np.linalg.inv(np.linalg.cholesky(K))
+    shifted = np.linalg.inv(K - lam * (1.0 - 1e-6) * G)
+    x = inv.T @ (inv @ (np.sum(np.abs(G), axis=1) + 1.0))  # a start with every DOF present
     for _ in range(4):
-        x = np.linalg.solve(shifted, G @ x)
+        x = shifted @ (G @ x)
         x /= np.max(np.abs(x))
     return x
-
-
-def _mode(nodes, K, G, free, lam) -> np.ndarray:
-    """The mode (nodes, 4) of λ on the free DOFs ``free`` of K and G: zeros when λ is not finite."""
-    full = np.zeros(4 * nodes.size)
-    if math.isfinite(lam):
-        full[free] = _eigenvector(K, G, lam)
-    return full.reshape(-1, 4)
-
-
-def _reduced(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warping_ends, inside=()):
-    """K and G on the free DOFs, and those DOFs."""
-    K, G = _matrices(nodes, m_at, props, uniform, point, scale_axial)
-    held, springs = _held_inside(nodes, inside)
-    _with_springs(K, springs)
-    free = _free_dofs(nodes.size, lateral_ends, warping_ends, held)
-    return K[np.ix_(free, free)], G[np.ix_(free, free)], free

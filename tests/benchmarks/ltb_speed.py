@@ -27,7 +27,7 @@ import numpy as np
 import scipy.linalg
 
 import engine
-from engine.design import ltb_member, mcr, mcr_fe
+from engine.design import ltb_member, mcr
 from engine.sections import section_from_spec
 
 ROUNDS, BLOCK = 11, 10
@@ -97,8 +97,8 @@ def main() -> None:
 
     def reference():
         uniform, point = mcr._loads(props["loads"], case.length, 0.0)
-        nodes = mcr_fe._mesh(case.length, 64, [])
-        K, G_ = mcr_fe._matrices(
+        nodes = mcr._mesh(case.length, 64, [])
+        K, G_ = mcr._matrices(
             nodes,
             lambda p: np.interp(p, x, m),
             (props["EI_z"], props["GI_t"], props["EI_w"], 0.0, 0.0),
@@ -106,7 +106,7 @@ def main() -> None:
             point,
             True,
         )
-        free = mcr_fe._free_dofs(nodes.size, ("fork", "fork"), ("free", "free"))
+        free = mcr._free_dofs(nodes.size, ("fork", "fork"), ("free", "free"))
         mu = scipy.linalg.eigh(G_[np.ix_(free, free)], K[np.ix_(free, free)], eigvals_only=True)
         return float(np.max(np.abs(m))) / mu[-1]
 

@@ -20,7 +20,7 @@ import time
 import numpy as np
 import scipy.linalg
 
-from engine.design import mcr, mcr_fe
+from engine.design import mcr
 
 ROUNDS, BLOCK = 15, 20
 EI_Z, GI_T, L = 2.0e6, 4.0e4, 6.0
@@ -39,11 +39,11 @@ def _engine(x, m, loads) -> float:
 
 def _reference(x, m, loads) -> float:
     uniform, point = mcr._loads(loads, L, 0.0)
-    nodes = mcr_fe._mesh(L, 64, [p[1] for p in point])
-    K, G = mcr_fe._matrices(
+    nodes = mcr._mesh(L, 64, [p[1] for p in point])
+    K, G = mcr._matrices(
         nodes, lambda p: np.interp(p, x, m), (EI_Z, GI_T, EI_W, 0.0, 0.0), uniform, point, True
     )
-    free = mcr_fe._free_dofs(nodes.size, ("fork", "fork"), ("free", "free"))
+    free = mcr._free_dofs(nodes.size, ("fork", "fork"), ("free", "free"))
     mu = scipy.linalg.eigh(G[np.ix_(free, free)], K[np.ix_(free, free)], eigvals_only=True)
     return float(np.max(np.abs(m))) / mu[-1]
 

@@ -18,7 +18,7 @@ import scipy.linalg
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from engine.design import mcr, mcr_fe
+from engine.design import mcr
 from engine.design.ltb import mcr_c1
 from engine.design.mcr import critical_moment
 
@@ -223,12 +223,12 @@ def test_axial_force_alone_gives_the_lower_of_flexural_and_torsional_buckling(i0
 def test_the_eigen_solution_agrees_with_scipy():
     """The smallest positive λ of one assembled model (UDL, load height, N, warping fixed at one end) equals
     scipy.linalg.eigh's generalized solution (reference library) to 1e-10."""
-    nodes = mcr_fe._mesh(L, 24, [])
+    nodes = mcr._mesh(L, 24, [])
     props = (EI_Z, GI_T, _ei_w(1.0), 2e4, 0.02)
-    K, G = mcr_fe._matrices(nodes, lambda p: np.interp(p, X, UDL), props, [(1.0, 0.0, L, 0.1)], [], True)
-    free = mcr_fe._free_dofs(nodes.size, ("fork", "fixed"), ("free", "fixed"))
+    K, G = mcr._matrices(nodes, lambda p: np.interp(p, X, UDL), props, [(1.0, 0.0, L, 0.1)], [], True)
+    free = mcr._free_dofs(nodes.size, ("fork", "fixed"), ("free", "fixed"))
     K, G = K[np.ix_(free, free)], G[np.ix_(free, free)]
-    lam, vector = mcr_fe.eigen_solution(K, G)
+    lam, vector = mcr.eigen_solution(K, G)
     mu = scipy.linalg.eigh(G, K, eigvals_only=True)
     assert lam == pytest.approx(1.0 / mu[-1], rel=1e-10)
     residual = K @ vector - lam * G @ vector
