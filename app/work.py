@@ -253,6 +253,10 @@ class _Lane:
                 self._deliver(done)
 
 
+#: Milliseconds after a page goes live before its chart and route-sweep jobs start (see :meth:`Runner.start`).
+BACKGROUND_DELAY_MS = 1500
+
+
 class Runner:
     """One session's off-loop solving; results come back as callbacks on the session's document."""
 
@@ -266,12 +270,25 @@ class Runner:
         self._routes = _Lane(_WAITS, self._deliver)
 
     def start(self) -> None:
-        """Begin working (the page calls this once it is live in the browser)."""
+        """Begin working (the page calls this once it is live in the browser).
+
+        Solves start at once; the chart and route-sweep lanes :data:`BACKGROUND_DELAY_MS` later: their first
+        job starts a worker process, whose imports would otherwise compete for the CPU with the browser while
+        it draws the first page (start-up, issue 10). Neither feeds the governing values.
+        """
         self.started = True
         waiting, self._waiting = self._waiting, []
         for callback in waiting:
             self._deliver(callback)
         self._solves.resume()
+        try:
+            self.document.add_timeout_callback(self._resume_background, BACKGROUND_DELAY_MS)
+        except Exception:  # noqa: BLE001 - no event loop (a script, a test): at once
+            self._resume_background()
+
+    def _resume_background(self) -> None:
+        if self.closed:
+            return
         self._charts.resume()
         self._routes.resume()
 
