@@ -264,7 +264,7 @@ def _inner(out, result, U: Units, L_si: float) -> None:
         count = max(2, int(round(24 * (end - start) / L_si)))
         for x in np.linspace(a, b, count + 1)[:-1]:
             out.append(_line("hatch", [x, x], 0.0, [0.0, 0.06], [-0.13, -0.21], width=0.7))
-        said = f"foundation k = {U.show('stress', k)}" + (" (2nd plane)" if dashed else "")
+        said = f"foundation k = {U.show('foundation_modulus', k)}" + (" (2nd plane)" if dashed else "")
         out.append(Text("note", said, _pt(a, 0.0, 0.06, -0.23), va="top", size=6.0))
     for index, r in enumerate(getattr(case, "restraints", ())):
         x = r.x * f

@@ -94,6 +94,9 @@ class Units:
         kN/m | kip/in (support springs k_t).
     rotational_spring : Unit
         kN·m/rad | kip·ft/rad (support springs k_r).
+    foundation_modulus : Unit
+        kN/m² | kip/in² (an elastic foundation's modulus k: force per length of member per deflection; the
+        same unit on the page, in the sketch, the words, the CSV, the calc sheet and the batch column).
     """
 
     system: str
@@ -110,6 +113,7 @@ class Units:
     rotation: Unit
     translational_spring: Unit
     rotational_spring: Unit
+    foundation_modulus: Unit
 
     def unit(self, kind: str) -> Unit:
         """Return the :class:`Unit` of `kind` (one of :data:`KINDS`); ValueError naming ``kind`` otherwise."""
@@ -236,6 +240,7 @@ def units(system: str = "si") -> Units:
             rotation=("mrad", 1e3),
             translational_spring=("kN/m", 1e-3),
             rotational_spring=("kN·m/rad", 1e-3),
+            foundation_modulus=("kN/m²", 1e-3),
         )
     if system == "us":
         return _system(
@@ -253,6 +258,7 @@ def units(system: str = "si") -> Units:
             rotation=("mrad", 1e3),
             translational_spring=("kip/in", _INCH / _KIP),
             rotational_spring=("kip·ft/rad", 1 / (_KIP * _FOOT)),
+            foundation_modulus=("kip/in²", _INCH**2 / _KIP),
         )
     allowed = ", ".join(map(repr, UNIT_SYSTEMS))
     raise ValueError(f"units: {system!r} is not a units system; allowed: {allowed}")

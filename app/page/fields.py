@@ -214,9 +214,17 @@ _RANGE = re.compile(
 )
 
 
+#: The engine's foundation modulus in a message, N/m² (a range's unit written once, after its upper end).
+_NUMBER = r"-?\d+(?:\.\d+)?(?:e[+-]?\d+)?"
+_MODULUS_RANGE = re.compile(rf"(?<![\w.])({_NUMBER})( and [<>]=? | to )({_NUMBER}) N/m²")
+_MODULUS = re.compile(rf"(?<![\w.])({_NUMBER}) N/m²")
+
+
 def shown_message(message: str, system: str) -> str:
     """The engine's message as the page shows it: the page's name for the field, and in US units the
     engine's SI lengths, forces and moments in the page's units (the value and range as the user typed).
+    A foundation modulus (the engine's N/m²) is shown in the page's unit of it in both systems, kN/m² or
+    kip/in², as its field takes it.
 
     A range's unit is written after both ends first, so that its lower end is converted too (">= 0.001 and
     <= 1000 m" is never shown as ">= 0.001 and <= 3281 ft").
@@ -225,7 +233,18 @@ def shown_message(message: str, system: str) -> str:
     text = page_message(message)
     if U.system != "si":
         text = _RANGE.sub(r"\1 \4\2\3 \4", text)
+    text = _MODULUS_RANGE.sub(r"\1 N/m²\2\3 N/m²", text)
+    text = _MODULUS.sub(lambda match: _modulus_text(U, float(match.group(1))), text)
     return quoted_text(text, U)
+
+
+def _modulus_text(U, value_si: float) -> str:
+    """A foundation modulus [N/m²] of a message in the page's unit; a small one to four figures, never 0."""
+    unit = U.unit("foundation_modulus")
+    shown = value_si * unit.factor
+    if shown != 0.0 and abs(shown) < 1e-3:
+        return f"{shown:.4g} {unit.label}"
+    return U.show("foundation_modulus", value_si)
 
 
 class ErrorPanes:

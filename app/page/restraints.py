@@ -35,8 +35,12 @@ _ADD_WIDTHS = {"restraints": 92, "steps": 124, "foundation": 100}
 _NUMBERS = {
     "restraints": [("x", "at x", "length")],
     "steps": [("x", "from x", "length"), ("EI", "EI", "stiffness")],
-    # k is a force per length of member per deflection, N/m²: shown as a stress unit (MPa, ksi)
-    "foundation": [("start", "from", "length"), ("end", "to", "length"), ("k", "modulus k", "stress")],
+    # k is a force per length of member per deflection, N/m²: kN/m² or kip/in², as the exports and the batch
+    "foundation": [
+        ("start", "from", "length"),
+        ("end", "to", "length"),
+        ("k", "modulus k", "foundation_modulus"),
+    ],
 }
 #: The opener's label wraps (its counts do not fit the strip on one line) and reads from the left.
 _WRAP = ".bk-btn { white-space: normal; text-align: left; }"

@@ -14,7 +14,7 @@ import math
 from dataclasses import dataclass
 
 from app.report.numbers import position
-from app.units import Units
+from app.units import UNIT_SYSTEMS, Units, units
 
 __all__ = [
     "REACTIONS_NOTE",
@@ -36,10 +36,13 @@ __all__ = [
     "support_reactions",
 ]
 
-#: The foundation modulus k [N/m², force per length per deflection] in each system: (label, factor from SI).
-#: Not a kind of :class:`app.units.Units` (only the foundation uses it): kN/m² in SI, kip/in² (kip per inch of
-#: member per inch of deflection) in US customary.
-FOUNDATION_UNITS = {"si": ("kN/m²", 1e-3), "us": ("kip/in²", 0.0254**2 / 4448.2216152605)}
+#: The foundation modulus k [N/m², force per length per deflection] in each system: (label, factor from SI),
+#: the kind ``foundation_modulus`` of :class:`app.units.Units` (kN/m² in SI, kip/in², kip per inch of member
+#: per inch of deflection, in US customary), as the page, the sketch and the batch column show and take it.
+FOUNDATION_UNITS = {
+    system: (units(system).foundation_modulus.label, units(system).foundation_modulus.factor)
+    for system in UNIT_SYSTEMS
+}
 
 #: How the reactions are written: the force and the couple each support exerts on the member, as drawn.
 REACTIONS_NOTE = (

@@ -67,7 +67,7 @@ def test_each_restraint_has_its_symbol_at_its_x():
     assert len(collar) == 2
     labels = [s.text for s in shapes if isinstance(s, Text)]
     assert [f"R{i}" for i in range(1, 5)] == [t for t in labels if t.startswith("R")]
-    assert any(t.startswith("foundation k = 2.000 MPa") for t in labels)
+    assert any(t.startswith("foundation k = 2000 kN/m²") for t in labels)  # the unit the CSV and batch use
 
 
 def test_a_step_changes_the_line_weight_and_a_plain_member_keeps_one_line():
@@ -87,7 +87,7 @@ def test_the_foundation_band_spans_its_range_in_us_units():
     start, end = 1.5 / 0.3048, 6.0 / 0.3048
     assert hatch and all(start - 1e-9 <= s.x[0] < end for s in hatch)
     labels = [s.text for s in drawn.shapes if isinstance(s, Text)]
-    assert any(t.startswith("foundation k = ") and t.endswith("ksi") for t in labels)
+    assert any(t.startswith("foundation k = ") and t.endswith("kip/in²") for t in labels)
 
 
 def test_the_exports_draw_it_and_the_saved_case_keeps_every_key():
