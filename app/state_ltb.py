@@ -38,7 +38,7 @@ WARPING_ENDS = ("free", "fixed")
 #: How χ_LT is found: EN 1993-1-1 §6.3.2.2 (general case) or §6.3.2.3 (rolled or equivalent welded sections).
 CHI_METHODS = ("general", "rolled")
 
-#: The engine's defaults (LTB_CONTRACT.md): the conservative ones.
+#: The engine's defaults (engine/design/ltb_member.py): the conservative ones.
 LTB_DEFAULTS: dict[str, Any] = {
     "load_position": "destabilising",
     "lateral_ends": ["fork", "fork"],

@@ -80,8 +80,8 @@ _KC_DEVIATION = 0.01
 
 @dataclass(frozen=True, kw_only=True)
 class LtbCheck:
-    """The lateral-torsional buckling check of the member (LTB_CONTRACT.md). SI units; NaN where a value
-    could not be found (``applies`` False)."""
+    """The lateral-torsional buckling check of the member (DEVELOPERS.md, issue 15). SI units; NaN where a
+    value could not be found (``applies`` False)."""
 
     applies: bool
     reason: str | None
@@ -107,7 +107,7 @@ class LtbCheck:
     mode_phi: tuple = ()
     aisc: ltb.AiscLtb | None = None
     sources: tuple = SOURCES
-    # Beyond the contract's first list (appended to LTB_CONTRACT.md):
+    # Beyond the first list of fields:
     M_cr_0: float = math.nan  # exact M_cr with N = 0 [N·m]
     N_Ed: float = 0.0  # the compression held in M_cr [N]
     I_t: float = math.nan  # [m⁴] as used (after TORSION_FACTORS)

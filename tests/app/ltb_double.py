@@ -1,6 +1,6 @@
-"""A test double of the engine's ``LtbCheck`` (LTB_CONTRACT.md), for the wording tests before the engine's
-lateral-torsional buckling check is merged. Its numbers are invented (they check the wording and the unit
-conversions only, never mechanics); no product code uses it."""
+"""A test double of the engine's ``LtbCheck`` (engine.design.ltb_member), for the wording tests before
+the engine's lateral-torsional buckling check is merged. Its numbers are invented (they check the wording and
+the unit conversions only, never mechanics); no product code uses it."""
 
 from __future__ import annotations
 

@@ -339,7 +339,7 @@ def test_destabilising_load_lowers_mcr():
 
 
 def test_mode_is_normalised():
-    """The first mode (v, φ) at the nodes, each scaled to max |.| = 1 (LTB_CONTRACT.md)."""
+    """The first mode (v, φ) at the nodes, each scaled to max |.| = 1 (engine.design.ltb_member)."""
     found = engine.solve(_case()).ltb
     assert len(found.mode_x) == len(found.mode_v) == len(found.mode_phi) > 8
     assert max(map(abs, found.mode_v)) == pytest.approx(1.0) and max(map(abs, found.mode_phi)) == 1.0
@@ -450,7 +450,7 @@ def test_aisc_f2_at_lp_and_lr_of_the_member():
 
 
 def test_two_plane_member_has_one_ltb_check():
-    """A two-plane case: result.ltb belongs to the member, from the major-axis plane (LTB_CONTRACT.md)."""
+    """A two-plane case: result.ltb belongs to the member, from the major-axis plane."""
     one = engine.solve(_case())
     data = one.case.to_dict()
     data.pop("out_of_plane")
