@@ -48,8 +48,22 @@ def check_stations(stations) -> int:
     return int(stations)
 
 
+#: Values within this fraction of the largest |value| are a tie: the first along the member is the peak.
+_TIE = 1e-12
+
+
 def _peak(x, values) -> Peak:
-    i = int(np.argmax(np.abs(values)))
+    """The largest |value| and where it is; of values equal to rounding (:data:`_TIE`), the first along x.
+
+    A symmetric member has the same |V| at both ends: which of the two is larger by a last bit depends on the
+    linear algebra library's rounding (numpy 1.26 and 2.x picked opposite ends of one member, 2026-12-03),
+    so a plain argmax reported the same member's shear with another sign and place on another machine.
+    """
+    magnitude = np.abs(values)
+    i = int(np.argmax(magnitude))
+    top = magnitude[i]
+    if np.isfinite(top) and top > 0.0:
+        i = int(np.argmax(magnitude >= top * (1.0 - _TIE)))
     return Peak(value=float(values[i]), x=float(x[i]))
 
 
@@ -120,9 +134,11 @@ def _build(
     else:
         w, rot, M, T, V = st["w"], st["rotation"], st["M"], st["T"], st["V"]
     total = w + w0
-    # The five governing values with one pass over a stacked array (no NaN here: critical values are +inf).
+    # The five governing values with one pass over a stacked array (no NaN here: critical values are +inf);
+    # of values equal to rounding the first along the member, as :func:`_peak`.
     stacked = np.stack((w, total, M, V, T))
-    at = np.abs(stacked).argmax(axis=1)
+    magnitude = np.abs(stacked)
+    at = (magnitude >= magnitude.max(axis=1, keepdims=True) * (1.0 - _TIE)).argmax(axis=1)
     values, where = stacked[_FIVE, at].tolist(), x[at].tolist()
     governing = Governing(
         deflection=Peak(value=values[0], x=where[0]),
@@ -467,10 +483,9 @@ def _free_peaks(raw) -> dict:
     status, _, values, x = raw[:4]
     if status == "critical":
         return {"moment": math.inf, "deflection": Peak(value=math.inf, x=0.0)}
-    i, j = int(np.argmax(np.abs(values["M"]))), int(np.argmax(np.abs(values["w"])))
     return {
-        "moment": abs(float(values["M"][i])),
-        "deflection": Peak(value=float(values["w"][j]), x=float(x[j])),
+        "moment": float(np.max(np.abs(values["M"]))),
+        "deflection": _peak(x, values["w"]),
     }
 
 
