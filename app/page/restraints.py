@@ -227,7 +227,9 @@ class InsideView(pn.viewable.Viewer):
             button.on_click(lambda *_, field=field: state.add_item(field))
             buttons[field] = button
         self.panel = pn.Column(
-            pn.Row(*buttons.values(), margin=0),
+            # The three buttons wrap: on a catalogue section "+ Step in section" makes them wider than the
+            # inputs column, which then scrolled sideways and cut every label's first letters.
+            pn.FlexBox(*buttons.values(), flex_wrap="wrap", margin=0, sizing_mode="stretch_width"),
             *(self.own_errors.pane(field, exact=True) for field in INNER_INPUTS),
             *self.columns.values(),
             html_pane(
