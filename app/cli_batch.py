@@ -176,7 +176,7 @@ def _batch(args) -> int:
             f"removed {stale} calc sheet{'s' if stale != 1 else ''} of the previous run that this "
             "run did not write"
         )
-    lines.append(f"Caution: {CAUTION}")
+    lines += _cautions(summary)
     if args.summary_json is not None:
         from app.batch.summary import summary_json
 
@@ -223,3 +223,17 @@ def _write_text_atomically(path: str, text: str) -> None:
 
 # --------------------------------------------------------------------------------------------------------
 # strutscope schema
+
+
+def _cautions(summary) -> list[str]:
+    """The scope caution of the rows solved: a plain member's, and a member's with load cases (whose
+    combination factors are recalled values) where the table had any."""
+    if not summary.with_combinations:
+        return [f"Caution: {CAUTION}"]
+    from engine.envelope import SCOPE
+
+    lines = []
+    if summary.with_combinations < summary.solved:
+        lines.append(f"Caution (rows without load cases): {CAUTION}")
+    lines.append(f"Caution (rows with load cases): {SCOPE.message}")
+    return lines

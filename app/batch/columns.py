@@ -354,6 +354,9 @@ class BatchSummary:
         What the executor had to do again (a lost worker's chunk sent again), one line each.
     executor : str
         ``local``, or where the Dask cluster's scheduler is (``workers`` is then 0).
+    with_combinations : int
+        Solved rows with load cases (their ``combination_rule`` cell filled): their scope caution is the one
+        of a case with load cases, which names the combination factors as recalled values.
     """
 
     results: str
@@ -370,3 +373,4 @@ class BatchSummary:
     highest: list = field(default_factory=list)
     retried: list = field(default_factory=list)
     executor: str = "local"
+    with_combinations: int = 0

@@ -18,6 +18,7 @@ HIGHEST = 10
 _NAMES = [name for name, _ in _RESULT_LAYOUT]
 _UTILISATION = _NAMES.index("utilization")
 _STABILITY = _NAMES.index("stability")
+_RULE = _NAMES.index("combination_rule")
 
 #: The version of the ``--summary-json`` document (raised when a field changes meaning or goes away).
 SUMMARY_SCHEMA = 1
@@ -27,6 +28,8 @@ def count_solved(summary: BatchSummary, record: list[str], heap: list) -> None:
     """Count one solved row's stability, and keep it among the highest utilisations when it is one."""
     stability = record[_STABILITY]
     summary.by_stability[stability] = summary.by_stability.get(stability, 0) + 1
+    if record[_RULE]:
+        summary.with_combinations += 1
     cell = record[_UTILISATION]
     if cell == "":
         return
@@ -73,6 +76,7 @@ def summary_dict(summary: BatchSummary, table: str) -> dict:
         ],
         "invalid_rows_listed": len(summary.errors),
         "retried": list(summary.retried),
+        "with_combinations": summary.with_combinations,
     }
 
 

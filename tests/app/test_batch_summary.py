@@ -68,3 +68,32 @@ def test_summary_json_to_standard_output_moves_the_printed_summary_to_standard_e
     done = run_cli("batch", str(TABLE), "--out", "out", "--summary-json", "-", cwd=tmp_path)
     assert json.loads(done.stdout)["members"] == 150
     assert "highest utilisations" in done.stderr
+
+
+# Two invented posts with load cases (G and W columns), as tests/app/test_batch_actions.py writes them.
+_ACTIONS = (
+    "id,length_m,left,right,section,material,bow,axial_G_kN,axial_W_kN,udl_W_kN_per_m,point_loads_G,"
+    "combination_rule\n"
+    "P1,6,pinned,pinned,HEB 200,S355,en1993-table-5.1,240,-20,1.7,1.5@2.2,\n"
+    "P2,5,pinned,pinned,HEB 160,S355,en1993-table-5.1,150,-10,1.2,,\n"
+)
+
+
+def test_the_printed_caution_is_the_scope_of_the_rows_solved(tmp_path):
+    """A table of plain members is told that load combinations are not checked; a table of members with
+    load cases is told that the combination factors are recalled values (the engine's scope of such a case),
+    never that combinations are not checked (they were)."""
+    from engine.cautions import GENERAL
+    from engine.envelope import SCOPE
+
+    plain = run_cli("batch", str(TABLE), "--out", "plain", "--workers", "1", cwd=tmp_path)
+    assert f"Caution: {GENERAL.message}" in plain.stdout
+    assert "recalled from memory" not in plain.stdout
+    (tmp_path / "actions.csv").write_text(_ACTIONS, encoding="utf-8")
+    done = run_cli(
+        "batch", "actions.csv", "--out", "loads", "--workers", "1", "--summary-json", "s.json", cwd=tmp_path
+    )
+    assert done.returncode == 0, done.stderr
+    assert f"Caution (rows with load cases): {SCOPE.message}" in done.stdout
+    assert "load combinations are not checked" not in done.stdout
+    assert json.loads((tmp_path / "s.json").read_text(encoding="utf-8"))["with_combinations"] == 2
