@@ -308,10 +308,10 @@ class InputsView(pn.viewable.Viewer):
         self.gamma1_input = self._number("gamma_M1", "γ_M1", None, width=90)
         self.limit_input = self._number("deflection_limit", "deflection limit span/n: n", None, width=170)
         self.out_of_plane_select = self._select(
-            "out_of_plane", "out of plane", {"buckles (checked)": "buckles", "restrained": "restrained"}, 140
+            "out_of_plane", "out of plane", {"buckles (checked)": "buckles", "restrained": "restrained"}, 165
         )
         self.out_of_plane_input = self._number(
-            "out_of_plane_length", "out-of-plane L_cr (empty: L)", "length", width=150
+            "out_of_plane_length", "out-of-plane L_cr (empty: L)", "length", width=230
         )
         self.prepared_input = pn.widgets.TextInput(
             label="prepared by (calc sheet)", width=140, max_length=60, stylesheets=[WIDGET_CSS]
@@ -325,7 +325,8 @@ class InputsView(pn.viewable.Viewer):
             self.method_select,
             pn.Row(self.gamma0_input, self.gamma1_input, margin=0),
             self.limit_input,
-            pn.Row(self.out_of_plane_select, self.out_of_plane_input, margin=0),
+            self.out_of_plane_select,  # each on its own line: side by side, both were cut
+            self.out_of_plane_input,
             self.errors.pane("check"),
             self.errors.pane("out_of_plane"),
             self.check_facts,

@@ -160,14 +160,14 @@ class RouteSettingsView(pn.viewable.Viewer):
             label="EN 1993-1-1 factors",
             options={"Annex B (method 2)": "B", "Annex A (method 1)": "A"},
             value=state.annex,
-            width=150,
+            width=172,
             stylesheets=[WIDGET_CSS],
         )
         self.method = pn.widgets.Select(
             label="AISC 360-16",
             options={"LRFD (φ)": "LRFD", "ASD (Ω)": "ASD"},
             value=state.aisc_method,
-            width=110,
+            width=100,
             stylesheets=[WIDGET_CSS],
         )
         self.annex.param.watch(lambda event: self._set("annex", event.new), "value")

@@ -66,7 +66,7 @@ DIMENSION_LABELS = {
     "Iw": "I_w",
 }
 PRESET_LABELS = {
-    "en1993-table-5.1": "EN 1993-1-1 Table 5.1 (e0 = L/n by curve)",
+    "en1993-table-5.1": "EN 1993-1-1 Table 5.1, L/n by curve",
     "en1993-eq-5.9": "EN 1993-1-1 eq. (5.9), first-mode bow",
     "aisc-l/1000": "AISC 303-16: L/1000",
     "span": "span/n, n given",
