@@ -8,6 +8,7 @@ import math
 
 import numpy as np
 
+from engine.errors import CaseError
 from engine.solver.batch import STATE_FIELDS, Batch, State
 from engine.solver.peaks import refine_peaks
 
@@ -18,11 +19,15 @@ CRITICAL_TOLERANCE = 1e-10
 
 
 def critical_index(P: float, pcr) -> int:
-    """1-based index of the critical load P is at, or 0 (one axial force: plain floats are quicker)."""
+    """1-based index of the critical load P is at, or 0 (one axial force: plain floats are quicker).
+
+    A critical load of 0 (a spring so soft, 1e-194 N/m, that the first one underflows) is never "at" a
+    compression P > 0: P is beyond it.
+    """
     if P <= 0:
         return 0
     for n, value in enumerate(pcr.tolist(), start=1):
-        if abs(P / value - 1.0) < CRITICAL_TOLERANCE:
+        if value > 0.0 and abs(P / value - 1.0) < CRITICAL_TOLERANCE:
             return n
     return 0
 
@@ -58,6 +63,12 @@ def raw(prep, n: int, P: float):
     and the peaks merged along ``x``, ``st`` the state at the base stations ``pts`` (None at a critical load),
     ``merge`` = (pts, order, extra_seg, extra_xi): ``x`` is [base stations, extra points][order]."""
     model, pcr = prep.model, prep.buckling.critical_loads
+    if P > 0.0 and not pcr[0] > 0.0:
+        raise CaseError(
+            "supports: the ends leave the member a first critical load of 0 N (a spring so soft that the "
+            "member is free to sway, e.g. 1e-194 N/m), so it cannot carry the compression of "
+            f"{P:g} N; give a stiffer spring or hold the translation (pinned, fixed)"
+        )
     n_crit = critical_index(P, pcr)
     seg, xi, shown, pts = prep.stations(n, math.sqrt(-P / float(model.EI_seg.min())) if P < 0 else 0.0)
     batch = Batch(model, [P], at=pts)
