@@ -44,6 +44,28 @@ _CUT = """() => {
 }"""
 
 
+# How many labels and selects the inputs column shows (through the shadow roots).
+_COUNT = """() => { let count = 0;
+  const walk = (root) => { for (const el of root.querySelectorAll('label, select')) {
+      const box = el.getBoundingClientRect();
+      if (box.width > 0 && box.height > 0 && box.left <= 330) count += 1; }
+    for (const el of root.querySelectorAll('*')) { if (el.shadowRoot) walk(el.shadowRoot); } };
+  walk(document); return count; }"""
+
+
+def _drawn(page) -> None:
+    """Wait until the shown tab's labels are drawn: some, and the same count twice 300 ms apart (so the check
+    never passes on a tab not yet drawn)."""
+    last = -1
+    for _ in range(100):
+        count = page.evaluate(_COUNT)
+        if count > 0 and count == last:
+            return
+        last = count
+        page.wait_for_timeout(300)
+    raise AssertionError("the inputs tab drew no labels")
+
+
 @pytest.mark.parametrize("units", ["SI", "US"])
 def test_no_label_or_choice_of_the_inputs_is_cut(app, units):
     page = app.page
@@ -55,7 +77,7 @@ def test_no_label_or_choice_of_the_inputs_is_cut(app, units):
         tab = page.locator(".bk-tab").filter(has_text=name).first
         tab.click()
         expect(tab).to_have_class(re.compile("bk-active"))
-        page.wait_for_timeout(300)
+        _drawn(page)
         cut = page.evaluate(_CUT)
         if cut:
             found[name] = cut
