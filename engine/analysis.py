@@ -59,12 +59,16 @@ def _peak(x, values) -> Peak:
     linear algebra library's rounding (numpy 1.26 and 2.x picked opposite ends of one member, 2026-12-03),
     so a plain argmax reported the same member's shear with another sign and place on another machine.
     """
-    magnitude = np.abs(values)
-    i = int(np.argmax(magnitude))
-    top = magnitude[i]
-    if np.isfinite(top) and top > 0.0:
-        i = int(np.argmax(magnitude >= top * (1.0 - _TIE)))
+    i = int(_first_largest(np.abs(values)))
     return Peak(value=float(values[i]), x=float(x[i]))
+
+
+def _first_largest(magnitude):
+    """Index along the last axis of the first value within :data:`_TIE` of the largest (a NaN, which the
+    engine never returns, is found as by argmax)."""
+    top = magnitude.max(axis=-1, keepdims=True)
+    first = (magnitude >= top * (1.0 - _TIE)).argmax(axis=-1)
+    return np.where(np.isnan(top[..., 0]), magnitude.argmax(axis=-1), first)
 
 
 def _ratio(num: float, den: float) -> float | None:
@@ -137,8 +141,7 @@ def _build(
     # The five governing values with one pass over a stacked array (no NaN here: critical values are +inf);
     # of values equal to rounding the first along the member, as :func:`_peak`.
     stacked = np.stack((w, total, M, V, T))
-    magnitude = np.abs(stacked)
-    at = (magnitude >= magnitude.max(axis=1, keepdims=True) * (1.0 - _TIE)).argmax(axis=1)
+    at = _first_largest(np.abs(stacked))
     values, where = stacked[_FIVE, at].tolist(), x[at].tolist()
     governing = Governing(
         deflection=Peak(value=values[0], x=where[0]),

@@ -19,15 +19,12 @@ CRITICAL_TOLERANCE = 1e-10
 
 
 def critical_index(P: float, pcr) -> int:
-    """1-based index of the critical load P is at, or 0 (one axial force: plain floats are quicker).
-
-    A critical load of 0 (a spring so soft, 1e-194 N/m, that the first one underflows) is never "at" a
-    compression P > 0: P is beyond it.
-    """
+    """1-based index of the critical load P is at, or 0 (one axial force: plain floats are quicker). Every
+    critical load is positive here: :func:`raw` refuses compression on a member whose first one is 0."""
     if P <= 0:
         return 0
     for n, value in enumerate(pcr.tolist(), start=1):
-        if value > 0.0 and abs(P / value - 1.0) < CRITICAL_TOLERANCE:
+        if abs(P / value - 1.0) < CRITICAL_TOLERANCE:
             return n
     return 0
 

@@ -160,8 +160,8 @@ def foundation_show(U: Units, k: float) -> str:
     """A foundation modulus [N/m²] in the display units, e.g. ``"5000 kN/m²"``."""
     from app.report.numbers import format_number
 
-    label, factor = FOUNDATION_UNITS[U.system]
-    return f"{format_number(k * factor)} {label}" if math.isfinite(k) else format_number(k)
+    unit = U.unit("foundation_modulus")
+    return f"{format_number(unit.from_si(k))} {unit.label}" if math.isfinite(k) else format_number(k)
 
 
 def _restraint_part(value, kind: str, symbol: str, U: Units) -> str | None:
@@ -279,12 +279,14 @@ def metadata_rows(result, U: Units) -> list[tuple]:
         else:
             label = f"step {number} EI [{U.label('stiffness')}]"
             rows.append((label, csv_number(U.convert("stiffness", s.EI))))
-    label, factor = FOUNDATION_UNITS[U.system]
+    label = U.label("foundation_modulus")
     for number, f in enumerate(getattr(case, "foundation", ()), start=1):
         rows.append((f"foundation {number} start [{length}]", csv_number(U.convert("length", f.start))))
         rows.append((f"foundation {number} end [{length}]", csv_number(U.convert("length", f.end))))
         note = _PLANE_WORDS[f.plane] if two else "Winkler modulus, force per length per deflection"
-        rows.append((f"foundation {number} k [{label}]", csv_number(f.k * factor), note))
+        rows.append(
+            (f"foundation {number} k [{label}]", csv_number(U.convert("foundation_modulus", f.k)), note)
+        )
     for r in all_reactions(result):
         where = support_label(r, U, two)
         rows.append((f"reaction {where} F [{force}]", csv_number(U.convert("force", r.force)), FORCE_SENSE))

@@ -4,6 +4,7 @@ One server per test module; one browser per module; a fresh browser context (its
 Every wait is on visible text or data, never a fixed sleep; every Playwright call has a generous timeout.
 """
 
+import json
 import os
 import queue
 import re
@@ -116,6 +117,17 @@ class Server:
                 self.process.kill()
                 self.process.wait(timeout=10)
         return self.process.returncode
+
+
+def serving(tmp_path_factory, case: dict, name: str):
+    """`strutscope serve CASE` on `case` (an invented case mapping) written to a new folder `name`; for a test
+    module's own ``server`` fixture (``yield from serving(...)``), stopped after the module."""
+    folder = tmp_path_factory.mktemp(name)
+    path = folder / "case.json"
+    path.write_text(json.dumps(case), encoding="utf-8")
+    running = Server(str(path), cwd=folder)
+    yield running
+    running.stop()
 
 
 @pytest.fixture(scope="module")

@@ -9,12 +9,10 @@ batch).
 Invented case: a 6 m post of HEB 200, S355, pinned at both ends, N = 300 kN, q = 2 kN/m.
 """
 
-import json
-
 import pytest
 from playwright.sync_api import expect
 
-from tests.browser.conftest import Server
+from tests.browser.conftest import serving
 from tests.browser.test_page_in_browser import _uncovered
 
 pytestmark = pytest.mark.browser
@@ -36,12 +34,7 @@ CASE = {
 @pytest.fixture(scope="module")
 def server(tmp_path_factory):
     """`strutscope serve CASE` on the invented post."""
-    folder = tmp_path_factory.mktemp("serve_inside_fits")
-    path = folder / "case.json"
-    path.write_text(json.dumps(CASE), encoding="utf-8")
-    running = Server(str(path), cwd=folder)
-    yield running
-    running.stop()
+    yield from serving(tmp_path_factory, CASE, "serve_inside_fits")
 
 
 def _scrolled_sideways(page) -> list:

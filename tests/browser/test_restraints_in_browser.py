@@ -15,7 +15,7 @@ import urllib.parse
 import pytest
 from playwright.sync_api import expect
 
-from tests.browser.conftest import TIMEOUT_MS, VIEWPORT, Server, open_page
+from tests.browser.conftest import TIMEOUT_MS, VIEWPORT, open_page, serving
 from tests.browser.test_page_in_browser import _uncovered, set_number, value_cell
 
 pytestmark = pytest.mark.browser
@@ -37,12 +37,7 @@ BRACE = "restraint at x = 3.000 m"
 @pytest.fixture(scope="module")
 def server(tmp_path_factory):
     """`strutscope serve CASE` on the invented beam."""
-    folder = tmp_path_factory.mktemp("serve_restraints")
-    path = folder / "case.json"
-    path.write_text(json.dumps(CASE), encoding="utf-8")
-    running = Server(str(path), cwd=folder)
-    yield running
-    running.stop()
+    yield from serving(tmp_path_factory, CASE, "serve_restraints")
 
 
 def _shear_at(page, x: float) -> list:
