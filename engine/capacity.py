@@ -34,6 +34,7 @@ from engine.classification import classify
 from engine.errors import CaseError
 from engine.member_routes import headline
 from engine.out_of_plane import KIND as OUT_OF_PLANE
+from engine.out_of_plane_interaction import TERM as INTERACTION
 from engine.prepared import prepare
 from engine.roots import brentq
 
@@ -85,6 +86,10 @@ class Capacity:
 #: The largest axial force a case accepts (engine.case); beyond it a trial is built the validating way, which
 #: refuses it as before.
 _MAX_AXIAL_FORCE = 1e12
+
+
+#: The second-order route's terms that the member check (``result.check``) does not hold.
+_ROUTE_ONLY_TERMS = ("lateral-torsional", INTERACTION)
 
 
 def _at_force(case, force: float):
@@ -237,6 +242,16 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
                     None,
                     f"The {route} route governs: utilisation 1 by {governing.governing}.",
                     route,
+                )
+            second = next((item for item in r.routes or () if item.route == "second-order"), None)
+            if second is not None and second.governing in _ROUTE_ONLY_TERMS:
+                # A term of the route beyond the member check (lateral-torsional buckling, the out-of-plane
+                # interaction): the root itself, never N_b,Rd, which lies above it.
+                return found(
+                    root,
+                    second.governing,
+                    None,
+                    f"The second-order route governs: utilisation 1 by {second.governing}.",
                 )
             if r.check.strength_kind == OUT_OF_PLANE:
                 n_b = r.check.out_of_plane.N_b_Rd  # exactly: N/N_b,Rd is linear in N

@@ -30,6 +30,8 @@ from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
 from engine.member import segments_of
 from engine.out_of_plane import KIND as OUT_OF_PLANE
+from engine.out_of_plane_interaction import TERM as INTERACTION
+from engine.out_of_plane_interaction import conservative, larger
 from engine.sections import section_from_spec
 
 __all__ = ["FALLBACK", "STEPPED", "attach", "evaluate", "headline", "ltb_restraints"]
@@ -286,9 +288,15 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         reason = "custom-section"
     segments = _made(cache, "routes-segments", lambda: segments_of(case))
     if segments and not reason:
-        found = _stepped_ltb(result, segments, cache)
+        found, each = _stepped_ltb(result, segments, cache)
         if found is not None and _major(result) is not None:
             second = _with_ltb_term(second, found, _major(result))
+        if result.second_plane is None:  # steps are refused in a two-plane case
+            terms = [
+                _segment_interaction(result, segment, one, out_of_plane, cache)
+                for segment, one in zip(segments, each, strict=True)
+            ]
+            second = _with_interaction(second, larger(terms), "stepped-section")
         en_source = en_member.SOURCE.format(annex=case.check.annex)
         return (
             second,
@@ -337,6 +345,18 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     )
     if en is None:
         en = en_member.route(y=y, z=z, **common)
+    if case.foundation and result.second_plane is None:  # the en-member route cannot count it there
+        first, other = (y, z) if case.axis == "major" else (z, y)
+        term = conservative(
+            first=first,
+            other=other,
+            N=N,
+            material=material,
+            section_class=klass,
+            settings=case.check,
+            ltb=found,
+        )
+        second = _with_interaction(second, term, "foundation")
     aisc = aisc_member.route(
         y=y,
         z=z,
@@ -357,16 +377,91 @@ def _stepped_ltb(result, segments, cache):
     N = float(result.axial_force)
     found = []
     for segment in segments:
-
-        def classes(segment=segment):
-            z = section_from_spec(dict(segment.spec), "minor")
-            both = [classify(p, segment.material, compression=N > 0) for p in (segment.section, z)]
-            return None if None in both else max(both, key=lambda c: c.klass)
-
-        klass = _made(cache, ("routes-class", segment.spec, N > 0), classes)
+        klass = _segment_class(segment, N, cache)
         found.append(lateral_torsional(result, None, klass, cache, segment=segment))
     applied = [f for f in found if f is not None and f.applies]
-    return min(applied, key=lambda f: f.M_b_Rd) if applied else found[0]
+    return (min(applied, key=lambda f: f.M_b_Rd) if applied else found[0]), found
+
+
+def _segment_class(segment, N, cache):
+    """The worse class of a segment's section about both axes (cached per section and sign of N)."""
+
+    def classes():
+        z = section_from_spec(dict(segment.spec), "minor")
+        both = [classify(p, segment.material, compression=N > 0) for p in (segment.section, z)]
+        return None if None in both else max(both, key=lambda c: c.klass)
+
+    return _made(cache, ("routes-class", segment.spec, N > 0), classes)
+
+
+def _segment_interaction(result, segment, ltb, out_of_plane, cache):
+    """The conservative out-of-plane interaction (:mod:`engine.out_of_plane_interaction`) with one segment's
+    section, material and lateral-torsional buckling check, and the whole member's first-order diagram."""
+    if out_of_plane is None or not out_of_plane.checked or segment.material.kind != "steel":
+        return None
+    case, N = result.case, float(result.axial_force)
+    first_axis = "y" if case.axis == "major" else "z"
+    other_name = "minor" if case.axis == "major" else "major"
+
+    def turned():
+        section = section_from_spec(dict(segment.spec), other_name)
+        return section, _curve(section, segment.material)
+
+    other_section, other_curve = _made(cache, ("routes-segment-other", segment.spec), turned)
+    klass = _segment_class(segment, N, cache)
+    if klass is None or klass.klass == 4:
+        return None
+    diagram = _made(cache, ("routes-diagram", "first"), lambda: _diagram(result, case))
+    first = Plane(
+        axis=first_axis,
+        section=segment.section,
+        N_cr=float(result.critical_loads[0]),
+        EI=segment.material.E * segment.section.I,
+        diagram=diagram,
+        M_second=None,
+        curve=_curve(segment.section, segment.material),
+    )
+    other = Plane(
+        axis="z" if first_axis == "y" else "y",
+        section=other_section,
+        N_cr=float(out_of_plane.N_cr),
+        EI=segment.material.E * other_section.I,
+        diagram=zero(),
+        M_second=0.0,
+        N_cr_source="out-of-plane length",
+        curve=other_curve,
+    )
+    return conservative(
+        first=first,
+        other=other,
+        N=N,
+        material=segment.material,
+        section_class=klass,
+        settings=case.check,
+        ltb=ltb,
+        unit_cm=False,
+    )
+
+
+def _with_interaction(second: RouteCheck, term, why: str) -> RouteCheck:
+    """The second-order route with the conservative out-of-plane interaction ``term`` (a dict of
+    :func:`engine.out_of_plane_interaction.conservative`, or None: unchanged); ``why`` the kind of member."""
+    if term is None or second.utilization is None or math.isinf(second.utilization):
+        return second
+    value = term["value"]
+    terms = dict(second.terms, **{INTERACTION: value})
+    governing, top = second.governing, second.utilization
+    if value > top:
+        governing, top = INTERACTION, value
+    k_name = "k_zy" if term["equation"] == "eq-6.62" else "k_yz"
+    facts = dict(
+        second.facts,
+        **{f"{k_name}_cm1" if term["unit_cm"] else k_name: term["k"]},
+        interaction_equation=term["equation"],
+        interaction_value=value,
+        interaction_reason=why,
+    )
+    return dataclasses.replace(second, terms=terms, governing=governing, utilization=top, facts=facts)
 
 
 def _plane_results(result) -> dict:

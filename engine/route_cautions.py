@@ -9,6 +9,7 @@ from __future__ import annotations
 import math
 
 from engine.cautions import Caution
+from engine.out_of_plane_interaction import TERM as INTERACTION
 
 __all__ = ["ROUTES_DISAGREE", "with_route_cautions"]
 
@@ -125,6 +126,9 @@ def _interaction_not_counted(routes) -> list:
     eq. (6.62) of the en-member route (and H1-1 of the aisc route). When neither is enabled, say so: a
     warning, or a danger when its eq. (6.62) exceeds 1 (the headline then misses a failing check).
     """
+    second = next((r for r in routes if r.route == "second-order"), None)
+    if second is not None and INTERACTION in second.terms:
+        return [_counted_conservatively(second)]
     member = next((r for r in routes if r.route == "en-member"), None)
     if member is None or member.enabled or member.utilization is None:
         return []
@@ -157,3 +161,38 @@ def _interaction_not_counted(routes) -> list:
             values={"route": "en-member", "equation": "eq-6.62" if other == "z" else "eq-6.61", "value": eq},
         )
     ]
+
+
+_WHY = {
+    "foundation": "a member on a foundation is not one of the diagrams of Annexes A and B, and the en-member "
+    "route cannot be enabled on it",
+    "stepped-section": "the en-member route takes one section along the member; each segment's section is "
+    "taken in turn with the largest moment of the whole member",
+}
+
+_READ = {
+    "foundation": "with C_m = 1, the largest value of the Annex's tables,",
+    "stepped-section": "with C_m read from the member's own diagram,",
+}
+
+
+def _counted_conservatively(second) -> Caution:
+    """The info caution of the second-order route's conservative out-of-plane interaction term
+    (:mod:`engine.out_of_plane_interaction`)."""
+    facts = second.facts
+    equation = facts.get("interaction_equation", "eq-6.62")
+    value = facts.get("interaction_value", second.terms[INTERACTION])
+    why = facts.get("interaction_reason", "")
+    shown = "(6.62)" if equation == "eq-6.62" else "(6.61)"
+    return Caution(
+        level="info",
+        code="out-of-plane-interaction-conservative",
+        message=(
+            "Out-of-plane buckling with the moment in the plane analysed is counted in the second-order "
+            f"route by EN 1993-1-1 eq. {shown} {_READ.get(why, '')} on the "
+            f"member's own first-order moment: {value:.3f}. A conservative reading, because "
+            f"{_WHY.get(why, 'no equivalent-member route counts it')}."
+        ),
+        source=_INTERACTION_SOURCE + "; Annex B Table B.3 and Annex A Table A.2 (from memory)",
+        values={"route": "second-order", "equation": equation, "value": value, "reason": why},
+    )

@@ -22,6 +22,8 @@ TERMS = {
     "shear": "shear",
     "out-of-plane": "out-of-plane buckling",
     "out-of-plane-buckling": "out-of-plane buckling",
+    "out-of-plane-interaction": "out-of-plane buckling with the moment",
+    "lateral-torsional": "lateral-torsional buckling",
     "flexural-buckling-y": "flexural buckling, major axis",
     "flexural-buckling-z": "flexural buckling, minor axis",
     "flexural-buckling": "flexural buckling",

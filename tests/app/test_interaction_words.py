@@ -1,0 +1,58 @@
+"""The second-order route's out-of-plane interaction term, as the printed summary and the cautions word it.
+
+The member is the invented demo wind post on an invented foundation (200 kN/m² over its length) at 350 kN; the
+number itself is checked by hand in ``tests/engine/test_out_of_plane_interaction.py``.
+"""
+
+from __future__ import annotations
+
+import pathlib
+
+import pytest
+
+import engine
+from app.report.summary import format_summary
+from app.report.words import caution_text
+
+REPO = pathlib.Path(__file__).resolve().parents[2]
+
+
+def _bedded() -> tuple:
+    data = engine.load_case(REPO / "assets" / "demo_wind_post.json").to_dict()
+    data["foundation"] = [{"start": 0.0, "end": 6.0, "k": 2e5}]
+    data["check"] = dict(data.get("check") or {}, routes=["second-order"])
+    case = engine.Case.from_dict(data)
+    return case, engine.solve(case)
+
+
+@pytest.mark.parametrize("system", ["si", "us"])
+def test_summary_names_the_interaction_as_the_headline(system):
+    """The summary's routes block names the term and its C_m, the headline is its value, and the caution
+    says how it was counted; the old warning that it was not counted is gone."""
+    case, result = _bedded()
+    text = format_summary("bedded.json", case, result, units=system)
+    value = f"{result.utilization:.3f}"
+    assert (
+        f"headline utilisation: {value} by second order + cross-section, out-of-plane buckling with the "
+        "moment" in text
+    )
+    assert "k_zy (C_m = 1)" in text
+    words = [caution_text(c, system) for c in result.cautions]
+    assert any("eq. (6.62) with C_m = 1" in w and value in w for w in words)
+    assert not any("does not count toward the headline" in w for w in words)
+
+
+def test_capacity_names_the_route_term_that_governs():
+    """A capacity governed by a term of the second-order route (here the out-of-plane interaction) is worded
+    with the term's name and the force, not the engine's code."""
+    from app.report.words import capacity_text
+    from app.units import units
+    from engine.capacity import capacity
+
+    case, result = _bedded()
+    found = capacity(case)
+    text = capacity_text(found, units("si"), result)
+    assert text.startswith(
+        "The second-order route governs: utilisation 1 by out-of-plane buckling with the moment"
+    )
+    assert f"{found.axial_force * 1e-3:.2f} kN" in text
