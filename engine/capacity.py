@@ -30,11 +30,11 @@ from dataclasses import dataclass
 import numpy as np
 
 from engine.analysis import _solve, check_stations, solve
+from engine.buckling_interaction import TERM as INTERACTION
 from engine.classification import classify
 from engine.errors import CaseError
 from engine.member_routes import headline
 from engine.out_of_plane import KIND as OUT_OF_PLANE
-from engine.out_of_plane_interaction import TERM as INTERACTION
 from engine.prepared import prepare
 from engine.roots import brentq
 

@@ -22,6 +22,8 @@ import dataclasses
 import math
 
 from engine import segment_routes
+from engine.buckling_interaction import TERM as INTERACTION
+from engine.buckling_interaction import conservative, larger
 from engine.checks import EQ_5_9_KIND
 from engine.classification import classify
 from engine.design import aisc_member, en_member, ltb_member
@@ -30,8 +32,6 @@ from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
 from engine.member import segments_of
 from engine.out_of_plane import KIND as OUT_OF_PLANE
-from engine.out_of_plane_interaction import TERM as INTERACTION
-from engine.out_of_plane_interaction import conservative, larger
 from engine.sections import section_from_spec
 
 __all__ = ["FALLBACK", "STEPPED", "attach", "evaluate", "headline", "ltb_restraints"]
@@ -345,11 +345,10 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     )
     if en is None:
         en = en_member.route(y=y, z=z, **common)
-    if case.foundation and result.second_plane is None:  # the en-member route cannot count it there
-        first, other = (y, z) if case.axis == "major" else (z, y)
+    if case.foundation:  # the en-member route cannot count it there
         term = conservative(
-            first=first,
-            other=other,
+            y=y,
+            z=z,
             N=N,
             material=material,
             section_class=klass,
@@ -395,7 +394,7 @@ def _segment_class(segment, N, cache):
 
 
 def _segment_interaction(result, segment, ltb, out_of_plane, cache):
-    """The conservative out-of-plane interaction (:mod:`engine.out_of_plane_interaction`) with one segment's
+    """The conservative out-of-plane interaction (:mod:`engine.buckling_interaction`) with one segment's
     section, material and lateral-torsional buckling check, and the whole member's first-order diagram."""
     if out_of_plane is None or not out_of_plane.checked or segment.material.kind != "steel":
         return None
@@ -431,9 +430,10 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
         N_cr_source="out-of-plane length",
         curve=other_curve,
     )
+    y, z = (first, other) if first_axis == "y" else (other, first)
     return conservative(
-        first=first,
-        other=other,
+        y=y,
+        z=z,
         N=N,
         material=segment.material,
         section_class=klass,
@@ -445,7 +445,7 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
 
 def _with_interaction(second: RouteCheck, term, why: str) -> RouteCheck:
     """The second-order route with the conservative out-of-plane interaction ``term`` (a dict of
-    :func:`engine.out_of_plane_interaction.conservative`, or None: unchanged); ``why`` the kind of member."""
+    :func:`engine.buckling_interaction.conservative`, or None: unchanged); ``why`` the kind of member."""
     if term is None or second.utilization is None or math.isinf(second.utilization):
         return second
     value = term["value"]
@@ -453,10 +453,12 @@ def _with_interaction(second: RouteCheck, term, why: str) -> RouteCheck:
     governing, top = second.governing, second.utilization
     if value > top:
         governing, top = INTERACTION, value
-    k_name = "k_zy" if term["equation"] == "eq-6.62" else "k_yz"
+    k_name = term["k_name"]
+    k_facts = {} if term["k"] is None else {f"{k_name}_cm1" if term["unit_cm"] else k_name: term["k"]}
     facts = dict(
         second.facts,
-        **{f"{k_name}_cm1" if term["unit_cm"] else k_name: term["k"]},
+        **k_facts,
+        interaction_one_plane=term["one_plane"],
         interaction_equation=term["equation"],
         interaction_value=value,
         interaction_reason=why,

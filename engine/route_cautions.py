@@ -8,8 +8,8 @@ from __future__ import annotations
 
 import math
 
+from engine.buckling_interaction import TERM as INTERACTION
 from engine.cautions import Caution
-from engine.out_of_plane_interaction import TERM as INTERACTION
 
 __all__ = ["ROUTES_DISAGREE", "with_route_cautions"]
 
@@ -138,11 +138,9 @@ def _interaction_not_counted(routes) -> list:
     if not facts.get("N_Ed", 0.0) > 0.0:
         return []
     other = next((a for a in ("y", "z") if facts.get(f"N_cr_{a}_source") == "out-of-plane length"), None)
-    if other is None:
-        return []
     analysed = "z" if other == "y" else "y"
-    if not facts.get(f"M_{analysed}_Ed", 0.0) > 0.0:
-        return []
+    if other is None or not facts.get(f"M_{analysed}_Ed", 0.0) > 0.0:
+        return _ltb_interaction_not_counted(member, second)
     eq = member.terms.get("eq-6.62" if other == "z" else "eq-6.61")
     if eq is None and math.isinf(member.utilization):  # at or above a critical load: no equation to give
         eq = member.utilization
@@ -163,6 +161,40 @@ def _interaction_not_counted(routes) -> list:
     ]
 
 
+def _ltb_interaction_not_counted(member, second) -> list:
+    """Lateral-torsional buckling (χ_LT < 1) checked for M_y alone by the second-order route, where the
+    en-member route's eqs. (6.61)/(6.62), which add N (and M_z), do not count and would raise the headline:
+    a warning, or a danger above 1."""
+    if second is None or second.utilization is None or not member.facts.get("chi_LT", 1.0) < 1.0:
+        return []
+    found = [(member.terms[e], e) for e in ("eq-6.61", "eq-6.62") if e in member.terms]
+    if not found:
+        return []
+    value, equation = max(found)
+    if not value > second.utilization * (1.0 + 1e-9):
+        return []
+    level = "danger" if value > 1.0 else "warning"
+    shown = "(6.61)" if equation == "eq-6.61" else "(6.62)"
+    return [
+        Caution(
+            level=level,
+            code="lateral-torsional-interaction-not-counted",
+            message=(
+                "Lateral-torsional buckling is checked for the major-axis moment alone (M_y,II/M_b,Rd): its "
+                f"interaction with the axial force (EN 1993-1-1 eq. {shown}, {value:.3f}) is in the "
+                f"en-member route, which does not count toward the headline ({second.utilization:.3f})."
+            ),
+            source=_INTERACTION_SOURCE,
+            values={
+                "route": "en-member",
+                "equation": equation,
+                "value": value,
+                "headline": second.utilization,
+            },
+        )
+    ]
+
+
 _WHY = {
     "foundation": "a member on a foundation is not one of the diagrams of Annexes A and B, and the en-member "
     "route cannot be enabled on it",
@@ -177,8 +209,8 @@ _READ = {
 
 
 def _counted_conservatively(second) -> Caution:
-    """The info caution of the second-order route's conservative out-of-plane interaction term
-    (:mod:`engine.out_of_plane_interaction`)."""
+    """The info caution of the second-order route's buckling interaction term
+    (:mod:`engine.buckling_interaction`)."""
     facts = second.facts
     equation = facts.get("interaction_equation", "eq-6.62")
     value = facts.get("interaction_value", second.terms[INTERACTION])
@@ -186,12 +218,12 @@ def _counted_conservatively(second) -> Caution:
     shown = "(6.62)" if equation == "eq-6.62" else "(6.61)"
     return Caution(
         level="info",
-        code="out-of-plane-interaction-conservative",
+        code="buckling-interaction-counted",
         message=(
-            "Out-of-plane buckling with the moment in the plane analysed is counted in the second-order "
-            f"route by EN 1993-1-1 eq. {shown} {_READ.get(why, '')} on the "
-            f"member's own first-order moment: {value:.3f}. A conservative reading, because "
-            f"{_WHY.get(why, 'no equivalent-member route counts it')}."
+            "Member buckling with the moments (out of plane, and lateral-torsional with the axial force) is "
+            f"counted in the second-order route by EN 1993-1-1 eqs. (6.61)/(6.62) {_READ.get(why, '')} on "
+            f"the member's own first-order moments: eq. {shown} governs with {value:.3f}. A conservative "
+            f"reading, because {_WHY.get(why, 'no equivalent-member route counts it')}."
         ),
         source=_INTERACTION_SOURCE + "; Annex B Table B.3 and Annex A Table A.2 (from memory)",
         values={"route": "second-order", "equation": equation, "value": value, "reason": why},

@@ -171,8 +171,10 @@ class ForceControl(pn.viewable.Viewer):
         alpha = "∞" if math.isinf(result.alpha_cr) else ratio_text(result.alpha_cr)
         # The status badge speaks of equilibrium; a member that is in equilibrium but fails its check must not
         # read as safe beside it, so a second flag says so (the values table gives the governing check).
-        check = result.check
-        fails = check is not None and check.utilization is not None and check.utilization > 1
+        # The headline (the worst enabled route), not the member check alone: eq. (6.62) of the en-member
+        # route or a term of the second-order route may fail where the member check passes.
+        headline = result.utilization
+        fails = headline is not None and headline > 1
         flag = "<span class='ss-flag ss-fails'>fails check</span>" if fails else ""
         self.readout.object = (
             f"<div class='ss-readout'><b>{esc(U.show('force', P, digits=5))}</b> "

@@ -22,7 +22,7 @@ TERMS = {
     "shear": "shear",
     "out-of-plane": "out-of-plane buckling",
     "out-of-plane-buckling": "out-of-plane buckling",
-    "out-of-plane-interaction": "out-of-plane buckling with the moment",
+    "buckling-interaction": "buckling with the moments, eq. (6.61)/(6.62)",
     "lateral-torsional": "lateral-torsional buckling",
     "flexural-buckling-y": "flexural buckling, major axis",
     "flexural-buckling-z": "flexural buckling, minor axis",

@@ -76,6 +76,8 @@ FACTS = {
     "k_zz": ("k_zz", ""),
     "k_zy_cm1": ("k_zy (C_m = 1)", ""),
     "k_yz_cm1": ("k_yz (C_m = 1)", ""),
+    "k_yy_cm1": ("k_yy (C_m = 1)", ""),
+    "k_zz_cm1": ("k_zz (C_m = 1)", ""),
     "C_my": ("C_my", ""),
     "C_mz": ("C_mz", ""),
     "C_mLT": ("C_mLT", ""),

@@ -350,7 +350,10 @@ def utilisation_text(result, U: Units) -> str | None:
     check = result.check
     applied = [r for r in getattr(result, "routes", ()) if r.enabled and r.utilization is not None]
     top = max(applied, key=lambda r: r.utilization) if applied else None
-    if top is not None and top.route != "second-order" and top.utilization == result.utilization:
+    # A route other than the second-order check, or a term of the second-order route beyond its member check
+    # (lateral-torsional buckling, the buckling interaction), sets the headline: named with its term.
+    beyond = check is None or top is None or top.utilization != check.utilization
+    if top is not None and top.utilization == result.utilization and (top.route != "second-order" or beyond):
         fails = " fails" if math.isinf(top.utilization) else ""
         return f"{ratio(top.utilization)}{fails} ({route_name(top, result)}, {governing_text(top.governing)})"
     if check is not None:
@@ -407,7 +410,7 @@ def capacity_text(capacity, U: Units, result=None) -> str:
             f"The route {route_name(route, result)} governs: utilisation 1 by {governing_text(check)} at "
             f"N = {force}."
         )
-    if check in ("lateral-torsional", "out-of-plane-interaction"):  # terms of the route, not of the section
+    if check in ("lateral-torsional", "buckling-interaction"):  # terms of the route, not of the section
         return f"The second-order route governs: utilisation 1 by {governing_text(check)} at N = {force}."
     where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
     return f"Strength governs: utilisation 1 by {check}{where}."

@@ -407,3 +407,15 @@ def test_a_member_that_fails_its_check_is_flagged_beside_the_stable_badge(page):
     assert result.status == "stable" and result.check.utilization > 1
     assert "ss-stable" in page.force.readout.object
     assert "fails check" in page.force.readout.object
+
+
+def test_the_flag_reads_the_headline_not_the_member_check_alone(page):
+    """At 800 kN the demo's member check passes (out-of-plane buckling 0.966) but the headline fails: eq.
+    (6.62) of the en-member route, above 1. The flag said nothing there before (it read the member check)."""
+    page.force_input.value = 800.0
+    result = page.model.result
+    assert result.status == "stable" and result.check.utilization < 1 < result.utilization
+    assert "fails check" in page.force.readout.object
+    page.force_input.value = 600.0
+    assert page.model.result.utilization < 1
+    assert "fails check" not in page.force.readout.object

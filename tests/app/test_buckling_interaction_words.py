@@ -1,7 +1,7 @@
 """The second-order route's out-of-plane interaction term, as the printed summary and the cautions word it.
 
 The member is the invented demo wind post on an invented foundation (200 kN/m² over its length) at 350 kN; the
-number itself is checked by hand in ``tests/engine/test_out_of_plane_interaction.py``.
+number itself is checked by hand in ``tests/engine/test_buckling_interaction.py``.
 """
 
 from __future__ import annotations
@@ -33,12 +33,12 @@ def test_summary_names_the_interaction_as_the_headline(system):
     text = format_summary("bedded.json", case, result, units=system)
     value = f"{result.utilization:.3f}"
     assert (
-        f"headline utilisation: {value} by second order + cross-section, out-of-plane buckling with the "
-        "moment" in text
+        f"headline utilisation: {value} by second order + cross-section, buckling with the "
+        "moments, eq. (6.61)/(6.62)" in text
     )
     assert "k_zy (C_m = 1)" in text
     words = [caution_text(c, system) for c in result.cautions]
-    assert any("eq. (6.62) with C_m = 1" in w and value in w for w in words)
+    assert any("eqs. (6.61)/(6.62) with C_m = 1" in w and value in w for w in words)
     assert not any("does not count toward the headline" in w for w in words)
 
 
@@ -52,7 +52,30 @@ def test_capacity_names_the_route_term_that_governs():
     case, result = _bedded()
     found = capacity(case)
     text = capacity_text(found, units("si"), result)
-    assert text.startswith(
-        "The second-order route governs: utilisation 1 by out-of-plane buckling with the moment"
-    )
+    assert text.startswith("The second-order route governs: utilisation 1 by buckling with the moments")
     assert f"{found.axial_force * 1e-3:.2f} kN" in text
+
+
+def _ltb_heavy():
+    data = engine.load_case(REPO / "assets" / "demo_wind_post.json").to_dict()
+    data["loads"] = [{"type": "uniform", "q": 15e3}]
+    data["axial_force"] = 800e3
+    data["check"] = dict(data.get("check") or {}, routes=["second-order"])
+    case = engine.Case.from_dict(data)
+    return case, engine.solve(case)
+
+
+@pytest.mark.parametrize("make", [_bedded, _ltb_heavy], ids=["foundation", "ltb-term"])
+def test_exports_show_the_headline_when_a_route_term_sets_it(make):
+    """The calc sheet's and the PNG's "Utilisation" line (utilisation_text) gives the headline when a term of
+    the second-order route beyond its member check sets it (the buckling interaction; lateral-torsional
+    buckling under 15 kN/m at 800 kN, 1.100 where the member check gives 0.966). Before, it gave the member
+    check's value: a failing member read as passing on the sheet."""
+    from app.report.words import utilisation_text
+
+    _, result = make()
+    assert result.utilization > result.check.utilization
+    text = utilisation_text(result, "si")
+    assert text.startswith(f"{result.utilization:.3f}")
+    second = next(r for r in result.routes if r.route == "second-order")
+    assert second.governing in ("buckling-interaction", "lateral-torsional")

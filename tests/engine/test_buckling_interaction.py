@@ -1,8 +1,9 @@
-"""Out-of-plane buckling with the moment, counted by the second-order route where the en-member route cannot.
+"""Member buckling with the moments, counted by the second-order route where the en-member route cannot.
 
 A one-plane member on a foundation (the en-member route is refused there) or stepped in section (the route
-is not applied) used to be checked out of plane for N alone (N/N_b,Rd): the headline could miss eq. (6.62).
-The second-order route now adds eq. (6.62) (eq. (6.61) for minor-axis bending) with C_m = 1.
+is not applied) used to be checked out of plane for N alone (N/N_b,Rd) and for lateral-torsional buckling
+for M_y alone: the headline could miss eq. (6.62). The second-order route now adds the larger of eqs.
+(6.61)/(6.62) that it does not count (engine.buckling_interaction), on a foundation with C_m = 1.
 
 Reference formulas (EN 1993-1-1:2005, from memory): eq. (6.49) with the imperfection factors of Table 6.1,
 curve c about z–z for a rolled H section with h/b <= 1.2 and t_f <= 100 mm (Table 6.2), eq. (6.62)
@@ -23,8 +24,8 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 import engine
+from engine.buckling_interaction import TERM
 from engine.capacity import capacity
-from engine.out_of_plane_interaction import TERM
 from engine.sections import section_from_spec
 
 REPO = pathlib.Path(__file__).resolve().parents[2]
@@ -80,7 +81,7 @@ def test_bedded_member_counts_eq_6_62_with_cm_1():
     assert result.utilization == pytest.approx(second.terms[TERM], rel=1e-12)
     codes = {c.code: c for c in result.cautions}
     assert "out-of-plane-interaction-not-counted" not in codes
-    assert codes["out-of-plane-interaction-conservative"].values["value"] == second.terms[TERM]
+    assert codes["buckling-interaction-counted"].values["value"] == second.terms[TERM]
 
 
 def test_stepped_member_counts_the_worst_segment():
@@ -118,10 +119,23 @@ def test_plain_member_is_unchanged():
     assert result.utilization >= _route(result, "en-member").terms["eq-6.62"]
 
 
-def test_restrained_out_of_plane_gets_no_term():
-    """Out-of-plane buckling prevented (``out_of_plane.restrained``): no interaction to count."""
-    result = engine.solve(_bedded(out_of_plane={"restrained": True}))
+def test_nothing_left_to_count_gets_no_term():
+    """Out-of-plane buckling prevented (``out_of_plane.restrained``) and the compression flange restrained
+    (``check.ltb.restrained``): no interaction is left out of the second-order route, so none is added."""
+    data = _bedded(out_of_plane={"restrained": True}).to_dict()
+    data["check"] = dict(data["check"], ltb={"restrained": True})
+    result = engine.solve(engine.Case.from_dict(data))
     assert TERM not in _route(result, "second-order").terms
+
+
+def test_restrained_out_of_plane_still_counts_ltb_with_n():
+    """Out-of-plane buckling prevented but lateral-torsional buckling not: eqs. (6.61)/(6.62) still add N to
+    the LTB check (with χ_z = 1), and the term is never below the route's own equations."""
+    result = engine.solve(_bedded(out_of_plane={"restrained": True}))
+    second, member = _route(result, "second-order"), _route(result, "en-member")
+    assert result.ltb.chi_LT < 1.0
+    assert second.terms[TERM] >= max(member.terms["eq-6.61"], member.terms["eq-6.62"]) * (1 - 1e-12)
+    assert second.terms[TERM] > second.terms["lateral-torsional"]
 
 
 def test_minor_axis_bending_takes_eq_6_61():
@@ -189,3 +203,41 @@ def test_capacity_is_where_the_headline_reaches_one(make):
     below = engine.solve(dataclasses.replace(case, axial_force=0.999 * found.axial_force))
     assert below.utilization < 1.0
     assert found.check == _route(at, "second-order").governing
+
+
+def _two_planes(N, **changes) -> dict:
+    data = engine.load_case(REPO / "assets" / "demo_two_planes.json").to_dict()
+    data.update(axial_force=N, **changes)
+    data["check"] = dict(data.get("check") or {}, routes=["second-order"])
+    return data
+
+
+@pytest.mark.parametrize("N", [120e3, 180e3, 300e3, 400e3])
+def test_two_planes_on_a_foundation_count_ltb_with_n(N):
+    """A two-plane member on a foundation (the invented mullion post): its second-order route adds the larger
+    of eqs. (6.61)/(6.62), never below the en-member route's own equations (computed for comparison). At
+    180 kN that equation governs: 0.367 where the biaxial cross-section check gives 0.343 (before, 0.343 was
+    the headline and no caution said what was left out)."""
+    data = _two_planes(N, foundation=[{"start": 0.0, "end": 4.2, "k": 2e5, "plane": "both"}])
+    result = engine.solve(engine.Case.from_dict(data))
+    second, member = _route(result, "second-order"), _route(result, "en-member")
+    own = max(member.terms["eq-6.61"], member.terms["eq-6.62"])
+    assert second.terms[TERM] >= own * (1 - 1e-12)
+    assert result.utilization >= second.terms[TERM]
+    assert second.facts["interaction_one_plane"] is False
+    if N == 180e3:
+        assert second.governing == TERM
+        assert second.terms[TERM] == pytest.approx(0.367, abs=5e-4)
+
+
+def test_two_planes_second_order_alone_warn_when_ltb_with_n_exceeds_the_headline():
+    """A two-plane member (no foundation) checked by the second-order route alone: where the en-member route's
+    eq. (6.62) with χ_LT exceeds the headline, a warning says what the headline leaves out (0.473 against
+    0.445 at 180 kN); where it does not, none (400 kN: the cross-section check 1.204 is larger)."""
+    low = engine.solve(engine.Case.from_dict(_two_planes(180e3)))
+    found = [c for c in low.cautions if c.code == "lateral-torsional-interaction-not-counted"]
+    eq = _route(low, "en-member").terms["eq-6.62"]
+    assert eq > low.utilization
+    assert [c.level for c in found] == ["warning"] and found[0].values["value"] == eq
+    high = engine.solve(engine.Case.from_dict(_two_planes(400e3)))
+    assert not [c for c in high.cautions if c.code == "lateral-torsional-interaction-not-counted"]

@@ -1,0 +1,130 @@
+r"""Member buckling with the moments, counted by the second-order route where no equivalent-member route can.
+
+The second-order route (EN 1993-1-1 §5.2.2(7)a) checks the cross-section on the exact second-order forces
+with the code's bow in each plane analysed, and beside it out-of-plane buckling for N alone
+(:math:`N/N_{b,Rd}`, :mod:`engine.out_of_plane`, one-plane cases) and lateral-torsional buckling for the
+major-axis moment alone (:math:`M_{y,II}/M_{b,Rd}`). Two interactions are in none of those terms:
+
+- out-of-plane buckling with the moment in the plane analysed (a one-plane case whose other plane can
+  buckle): EN 1993-1-1 §6.3.3 eq. (6.62), or eq. (6.61) for bending about the minor axis;
+- lateral-torsional buckling (χ_LT < 1) with the axial force and the other moment: eqs. (6.61) and (6.62).
+
+The ``en-member`` route counts both. On two kinds of member it is refused or not applied, and nothing else
+counted them (the headline could then miss a failing check):
+
+- a member on an elastic **foundation** (the route cannot be enabled: Annex A/B's diagrams do not cover a
+  member bedded along its length), one plane or two;
+- a one-plane member **stepped in section** (the route takes one section along the member).
+
+For these the second-order route gets the term ``buckling-interaction``: the largest of those equations
+(:func:`equations`) made by the ``en-member`` route (:func:`engine.design.en_member.route`, the Annex the
+case chose) with
+
+- on a foundation, each plane's own first-order moment diagram read as "not one of the tables' shapes", so
+  that :math:`C_{my} = C_{mz} = C_{mLT} = 1` in Annex B (Table B.3's largest value) and
+  :math:`C_{mi,0} \ge 1` in Annex A, and without the sway note's 0.9; the larger of that and the route's
+  own reading of the diagrams is kept (Annex A's row for a uniform load, :math:`1 + 0.03 N/N_{cr}`, can
+  exceed the general formula) [derived: never below the route's own reading]; on a stepped member the
+  diagram as the route reads it (a step changes the sections, not the shape the tables read: a step to the
+  member's own section then changes nothing);
+- the exact critical load of each plane analysed (the foundation, restraints and steps count) and the
+  out-of-plane check's critical load for the other plane of a one-plane case;
+- on a stepped member, each segment's section, material and lateral-torsional buckling check in turn, with
+  the largest first-order moment of the whole member; the largest value over the segments is kept
+  (conservative: the peak moment is taken with the weakest section) [derived].
+
+The first-order moment, as the equations take it (the in-plane bow is inside χ): with the second-order
+moment a strut's bow would be counted twice. A decision of the project (DEVELOPERS.md, decisions log,
+2026-12-03), not a code rule.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+
+from engine.design import en_member
+
+__all__ = ["TERM", "conservative", "equations", "larger"]
+
+#: The second-order route's term code.
+TERM = "buckling-interaction"
+
+
+def _other(diagram):
+    """The diagram read as not one of the tables' shapes (C_m = 1 in Annex B), without the sway note."""
+    return dataclasses.replace(diagram, form="other", sway=False)
+
+
+def equations(y, z, ltb) -> tuple:
+    """The equations the second-order route does not count on its own (see the module notes): the
+    out-of-plane one of a one-plane case whose other plane can buckle (eq. (6.62) when it is z, (6.61) when
+    y), and both where lateral-torsional buckling reduces the major-axis resistance (χ_LT < 1), whose
+    interaction with N (and M_z) the route's M_y,II/M_b,Rd term leaves out."""
+    found = []
+    for plane in (y, z):
+        if plane.N_cr_source == "out-of-plane length" and math.isfinite(plane.N_cr):
+            analysed = z if plane is y else y
+            if analysed.diagram.M_max > 0.0:
+                found.append("eq-6.62" if plane.axis == "z" else "eq-6.61")
+    if ltb is not None and ltb.applies and ltb.chi_LT < 1.0 and y.diagram.M_max > 0.0:
+        found += ["eq-6.61", "eq-6.62"]
+    return tuple(dict.fromkeys(found))
+
+
+def conservative(*, y, z, N, material, section_class, settings, ltb, unit_cm=True) -> dict | None:
+    """The largest of :func:`equations` by the route with the diagrams read at C_m = 1 (``unit_cm``, a
+    member on a foundation) or as the route reads them (see the module notes): ``{"value", "equation",
+    "k", "unit_cm"}``, or None where nothing is left to count (no compression, no equation) or the route
+    is not applied."""
+    wanted = equations(y, z, ltb)
+    if not N > 0.0 or not wanted:
+        return None
+    readings = [(y, z)]
+    if unit_cm:
+        readings.append(tuple(dataclasses.replace(p, diagram=_other(p.diagram)) for p in (y, z)))
+    best = None
+    for ry, rz in readings:  # Annex A's table rows may exceed its "other" reading: the larger is kept
+        check = en_member.route(
+            y=ry,
+            z=rz,
+            N=N,
+            material=material,
+            section_class=section_class,
+            settings=settings,
+            enabled=False,
+            ltb=ltb,
+        )
+        if check.utilization is None:
+            return None
+        for equation in wanted:
+            value = check.terms.get(equation)
+            if value is None:  # at or above a critical load: the route's own verdict (+inf)
+                if not math.isinf(check.utilization):
+                    return None
+                value = check.utilization
+            if best is None or value > best[0]:
+                best = (float(value), equation, check.facts, ry is not y)
+    value, equation, facts, unit = best
+    one_plane = "out-of-plane length" in (y.N_cr_source, z.N_cr_source)
+    k_name = None
+    if one_plane:  # the factor on the one moment of the equation that governs
+        moment_y = y.diagram.M_max > 0.0
+        k_name = (
+            ("k_yy" if moment_y else "k_yz") if equation == "eq-6.61" else ("k_zy" if moment_y else "k_zz")
+        )
+    k = None if k_name is None else facts.get(k_name)
+    return {
+        "value": value,
+        "equation": equation,
+        "k_name": k_name,
+        "k": k,
+        "unit_cm": unit,
+        "one_plane": one_plane,
+    }
+
+
+def larger(found: list) -> dict | None:
+    """The largest of the terms found (each from :func:`conservative`, None ignored)."""
+    found = [f for f in found if f is not None]
+    return max(found, key=lambda f: f["value"]) if found else None
