@@ -10,7 +10,7 @@ import math
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 4
+SUMMARY_VERSION = 5
 
 
 def _finite(value) -> float | None:
@@ -127,6 +127,8 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             ],
         },
         "utilization": _finite(result.utilization),
+        # The headline fails (every enabled route and term counted); check.fails is the member check's alone.
+        "fails": None if result.utilization is None else bool(result.utilization > 1.0),
         "check": None
         if check is None
         else {

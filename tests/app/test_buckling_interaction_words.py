@@ -79,3 +79,14 @@ def test_exports_show_the_headline_when_a_route_term_sets_it(make):
     assert text.startswith(f"{result.utilization:.3f}")
     second = next(r for r in result.routes if r.route == "second-order")
     assert second.governing in ("buckling-interaction", "lateral-torsional")
+
+
+def test_json_fails_reads_the_headline():
+    """`solve --json`'s top-level `fails` is the headline's (1.100 by the LTB term), while `check.fails` is
+    the member check's alone (0.966): a machine reading the first sees the failing member."""
+    from app.summary_json import summary_data
+
+    case, result = _ltb_heavy()
+    data = summary_data("ltb.json", case, result)
+    assert data["fails"] is True and data["check"]["fails"] is False
+    assert data["utilization"] == result.utilization

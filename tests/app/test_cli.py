@@ -182,6 +182,7 @@ def test_installed_entry_point_runs_demo(tmp_path):
 # The keys `solve --json` documents (README, "Command line").
 SUMMARY_KEYS = {
     "summary_version",
+    "fails",
     "source",
     "title",
     "units",
@@ -242,6 +243,7 @@ def test_json_summary_matches_engine_solve(tmp_path):
     result = engine.solve(demo_case(), stations=401)
     assert data["status"] == result.status == "stable"
     assert data["stable"] is True
+    assert data["utilization"] == result.utilization and data["fails"] is (result.utilization > 1.0)
     assert data["axial_force"] == result.axial_force
     assert data["critical_loads"] == [float(p) for p in result.critical_loads]
     assert data["alpha_cr"] == result.alpha_cr
