@@ -394,9 +394,15 @@ def _segment_class(segment, N, cache):
 
 
 def _segment_interaction(result, segment, ltb, out_of_plane, cache):
-    """The conservative out-of-plane interaction (:mod:`engine.buckling_interaction`) with one segment's
-    section, material and lateral-torsional buckling check, and the whole member's first-order diagram."""
-    if out_of_plane is None or not out_of_plane.checked or segment.material.kind != "steel":
+    """The buckling interaction (:mod:`engine.buckling_interaction`) with one segment's section, material and
+    lateral-torsional buckling check, and the whole member's first-order diagram."""
+    if out_of_plane is None or segment.material.kind != "steel":
+        return None
+    if out_of_plane.checked:
+        N_cr_other, source = float(out_of_plane.N_cr), "out-of-plane length"
+    elif out_of_plane.reason.startswith("restrained"):  # no out-of-plane buckling; LTB with N still counts
+        N_cr_other, source = math.inf, "restrained"
+    else:
         return None
     case, N = result.case, float(result.axial_force)
     first_axis = "y" if case.axis == "major" else "z"
@@ -423,11 +429,11 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
     other = Plane(
         axis="z" if first_axis == "y" else "y",
         section=other_section,
-        N_cr=float(out_of_plane.N_cr),
+        N_cr=N_cr_other,
         EI=segment.material.E * other_section.I,
         diagram=zero(),
         M_second=0.0,
-        N_cr_source="out-of-plane length",
+        N_cr_source=source,
         curve=other_curve,
     )
     y, z = (first, other) if first_axis == "y" else (other, first)

@@ -241,3 +241,17 @@ def test_two_planes_second_order_alone_warn_when_ltb_with_n_exceeds_the_headline
     assert [c.level for c in found] == ["warning"] and found[0].values["value"] == eq
     high = engine.solve(engine.Case.from_dict(_two_planes(400e3)))
     assert not [c for c in high.cautions if c.code == "lateral-torsional-interaction-not-counted"]
+
+
+def test_stepped_member_braced_out_of_plane_still_counts_ltb_with_n():
+    """A stepped member braced out of plane (``out_of_plane.restrained``) still buckles laterally-torsionally:
+    the term counts eqs. (6.61)/(6.62) with χ_LT (0.431 here, where the cross-section check gives 0.335 and
+    M_y,II/M_b,Rd 0.299); with the compression flange restrained as well, nothing is left to count."""
+    data = _demo(steps=[{"x": 3.0, "section": {"name": "HEB 180"}}], out_of_plane={"restrained": True})
+    result = engine.solve(engine.Case.from_dict(data))
+    second = _route(result, "second-order")
+    assert second.terms[TERM] > max(second.terms["lateral-torsional"], second.terms["cross-section"])
+    assert result.utilization == second.terms[TERM]
+    data["check"] = dict(data.get("check") or {}, ltb={"restrained": True})
+    braced = engine.solve(engine.Case.from_dict(data))
+    assert TERM not in _route(braced, "second-order").terms
