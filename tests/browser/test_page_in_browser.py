@@ -334,7 +334,10 @@ def _uncovered(page, locator, attempts: int = 5) -> bool:
 
 
 def _uncovered_once(locator) -> bool:
+    # Scrolled to the middle of its box, as a reader scrolls to read it: scrolled only just into view, an
+    # item of the cautions box sits under the box's pinned general caution, which covers the bottom edge.
     locator.scroll_into_view_if_needed()
+    locator.evaluate("(el) => el.scrollIntoView({block: 'center', inline: 'nearest'})")
     return locator.evaluate(
         """(el) => { const r = el.getBoundingClientRect();
                      const root = el.getRootNode();
