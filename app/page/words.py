@@ -13,7 +13,7 @@ import re
 from app.page.style import esc
 from app.report import SYMBOLS, bow_direction_text, bow_text, percent, quoted_text, ratio, reaction_rows
 from app.report.ltb import ltb_words
-from app.report.routes import governing_text, plane_axes, plane_name
+from app.report.routes import governing_text, headline_route, plane_axes, plane_name, route_name
 from engine.codes import alpha_cr_limit
 
 __all__ = [
@@ -39,7 +39,12 @@ def ratio_text(value) -> str:
 
 
 # Short forms of long check kinds, so that the values column does not wrap.
-_SHORT_KINDS = {"out-of-plane buckling": "out of plane", "linear N–M, eq. (5.9) route": "eq. (5.9) N–M"}
+_SHORT_KINDS = {
+    "out-of-plane buckling": "out of plane",
+    "linear N–M, eq. (5.9) route": "eq. (5.9) N–M",
+    "buckling with the moments, eq. (6.61)/(6.62)": "eq. (6.61)/(6.62)",
+    "lateral-torsional buckling": "LTB",
+}
 
 
 def kind_text(kind: str) -> str:
@@ -70,6 +75,17 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
 
     check = result.check
     head("Member check (second-order forces)")
+    route = headline_route(result) if result.utilization is not None else None
+    if check is not None and route is not None:
+        # The headline first: the worst route that counts, which may exceed the member check below it (eq.
+        # (6.62) of the en-member route, a term of the second-order route beyond its member check).
+        term = governing_text(route.governing)
+        row(
+            "headline",
+            f"{utilisation_text(result.utilization)} {kind_text(term)}".strip(),
+            route_name(route).replace("second order + cross-section", "second order"),
+            result.utilization > 1,
+        )
     if check is not None:
         row(
             "utilisation",

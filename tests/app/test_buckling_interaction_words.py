@@ -90,3 +90,28 @@ def test_json_fails_reads_the_headline():
     data = summary_data("ltb.json", case, result)
     assert data["fails"] is True and data["check"]["fails"] is False
     assert data["utilization"] == result.utilization
+
+
+def test_values_table_opens_with_the_headline():
+    """The page's governing-values table opens its member-check block with the headline (the worst route that
+    counts), marked as failing when above 1, before the member check's own utilisation: at 800 kN the demo's
+    member check passes (0.966) while eq. (6.62) fails; on a foundation the buckling interaction (0.514)
+    stands above the member check (0.423)."""
+    import re
+
+    from app.page.words import values_table
+    from app.units import units
+
+    data = engine.load_case(REPO / "assets" / "demo_wind_post.json").to_dict()
+    data["axial_force"] = 800e3
+    demo = engine.solve(engine.Case.from_dict(data))
+    html = values_table(demo, None, "", units("si"))
+    row = re.search(r"<tr( class='(\w+)')?><td class='q'>headline</td><td class='v'>([^<]*)</td>", html)
+    assert row is not None and row.group(2) == "danger"
+    assert row.group(3).startswith(f"{demo.utilization:.3f}") and "eq. (6.62)" in row.group(3)
+    assert demo.check.utilization < 1 < demo.utilization
+    assert html.index(">headline<") < html.index(">utilisation<")
+    _, bedded = _bedded()
+    html = values_table(bedded, None, "", units("si"))
+    row = re.search(r"<tr( class='(\w+)')?><td class='q'>headline</td><td class='v'>([^<]*)</td>", html)
+    assert row.group(2) is None and row.group(3) == f"{bedded.utilization:.3f} eq. (6.61)/(6.62)"
