@@ -75,8 +75,9 @@ def equations(y, z, ltb) -> tuple:
 def conservative(*, y, z, N, material, section_class, settings, ltb, unit_cm=True) -> dict | None:
     """The largest of :func:`equations` by the route with the diagrams read at C_m = 1 (``unit_cm``, a
     member on a foundation) or as the route reads them (see the module notes): ``{"value", "equation",
-    "k", "unit_cm"}``, or None where nothing is left to count (no compression, no equation) or the route
-    is not applied."""
+    "k_name", "k", "unit_cm", "one_plane"}`` (``k`` the interaction factor on the one moment of a one-plane
+    case, ``unit_cm`` whether the C_m = 1 reading gave the value), or None where nothing is left to count
+    (no compression, no equation) or the route is not applied."""
     wanted = equations(y, z, ltb)
     if not N > 0.0 or not wanted:
         return None
