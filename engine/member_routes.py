@@ -119,28 +119,36 @@ def _planes(result, M_second, out_of_plane, cache):
         M_other = _bow_free_moment(second)
         other = _plane(second, other_axis, second.case, M_second=M_other, cache=cache, which="second")
     else:
-        other_name = "minor" if case.axis == "major" else "major"
-
-        def turned():
-            section = section_from_spec(dict(case.section), other_name)
-            return section, _curve(section, result.material)
-
-        section, curve = _made(cache, "routes-other-section", turned)
         if out_of_plane is not None and out_of_plane.checked:
             N_cr, source = out_of_plane.N_cr, "out-of-plane length"
         else:
             N_cr, source = math.inf, "restrained"
-        other = Plane(
-            axis=other_axis,
-            section=section,
-            N_cr=N_cr,
-            EI=result.material.E * section.I,
-            diagram=zero(),
-            M_second=0.0,
-            N_cr_source=source,
-            curve=curve,
+        other = _unloaded_plane(
+            case, case.section, result.material, N_cr, source, cache, "routes-other-section"
         )
     return (first, other) if first_axis == "y" else (other, first)
+
+
+def _unloaded_plane(case, spec, material, N_cr, source, cache, key):
+    """The other plane of a one-plane case: the section ``spec`` about the other axis, no loads, buckling at
+    ``N_cr`` (found by ``source``); its section and curve cached under ``key``."""
+    other_name = "minor" if case.axis == "major" else "major"
+
+    def turned():
+        section = section_from_spec(dict(spec), other_name)
+        return section, _curve(section, material)
+
+    section, curve = _made(cache, key, turned)
+    return Plane(
+        axis="z" if case.axis == "major" else "y",
+        section=section,
+        N_cr=N_cr,
+        EI=material.E * section.I,
+        diagram=zero(),
+        M_second=0.0,
+        N_cr_source=source,
+        curve=curve,
+    )
 
 
 def _second_order(result, enabled: bool) -> RouteCheck:
@@ -406,13 +414,6 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
         return None
     case, N = result.case, float(result.axial_force)
     first_axis = "y" if case.axis == "major" else "z"
-    other_name = "minor" if case.axis == "major" else "major"
-
-    def turned():
-        section = section_from_spec(dict(segment.spec), other_name)
-        return section, _curve(section, segment.material)
-
-    other_section, other_curve = _made(cache, ("routes-segment-other", segment.spec), turned)
     klass = _segment_class(segment, N, cache)
     if klass is None or klass.klass == 4:
         return None
@@ -426,16 +427,8 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
         M_second=None,
         curve=_curve(segment.section, segment.material),
     )
-    other = Plane(
-        axis="z" if first_axis == "y" else "y",
-        section=other_section,
-        N_cr=N_cr_other,
-        EI=segment.material.E * other_section.I,
-        diagram=zero(),
-        M_second=0.0,
-        N_cr_source=source,
-        curve=other_curve,
-    )
+    key = ("routes-segment-other", segment.spec)
+    other = _unloaded_plane(case, segment.spec, segment.material, N_cr_other, source, cache, key)
     y, z = (first, other) if first_axis == "y" else (other, first)
     return conservative(
         y=y,
@@ -450,7 +443,7 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
 
 
 def _with_interaction(second: RouteCheck, term, why: str) -> RouteCheck:
-    """The second-order route with the conservative out-of-plane interaction ``term`` (a dict of
+    """The second-order route with the buckling interaction ``term`` (a dict of
     :func:`engine.buckling_interaction.conservative`, or None: unchanged); ``why`` the kind of member."""
     if term is None or second.utilization is None or math.isinf(second.utilization):
         return second
