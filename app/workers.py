@@ -84,6 +84,7 @@ def worker_pool(workers: int, pdf: bool) -> Iterator[concurrent.futures.ProcessP
 def stop_workers(pool: concurrent.futures.ProcessPoolExecutor, grace: float = 2.0) -> None:
     """End the pool's workers now: SIGTERM (each removes its temporary file), then SIGKILL after `grace`."""
     processes = list((getattr(pool, "_processes", None) or {}).values())
+    manager = getattr(pool, "_executor_manager_thread", None)  # shutdown() forgets it
     pool.shutdown(wait=False, cancel_futures=True)
     # The first SIGTERM interrupts a worker's chunk (its temporary file is removed); a worker that then waits
     # for more work gets a second one, which ends it (app.interrupt.worker_start); SIGKILL is the last resort.
@@ -95,3 +96,10 @@ def stop_workers(pool: concurrent.futures.ProcessPoolExecutor, grace: float = 2.
         for process in alive:
             with contextlib.suppress(Exception):
                 process.join(wait)
+    # The pool's manager thread closes its wake-up pipe as it ends. Python's exit hook for process pools
+    # (concurrent.futures.process._python_exit, CPython 3.11) writes to that pipe without the pool's lock: if
+    # the thread closed it in between, the exit printed "OSError: [Errno 9] Bad file descriptor" with a
+    # traceback after the clean message (seen once in CI). Once the thread has ended, the hook skips the pipe.
+    if manager is not None:
+        with contextlib.suppress(Exception):
+            manager.join(grace)
