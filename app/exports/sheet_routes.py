@@ -50,7 +50,7 @@ def routes_items(item, flow, result, U: Units) -> None:
         status = {"headline": "headline", "counts": "enabled", "for comparison": "for comparison"}[
             row["status"]
         ]
-        term = f", {row['governing']}" if row["governing"] else ""
+        term = f", {row['governing']}" if row["governing"] and not row["term_in_words"] else ""
         danger = row["value"] is not None and not float(row["value"]) <= 1.0
         item(
             row["name"],

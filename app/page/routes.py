@@ -73,7 +73,7 @@ def routes_html(result, U) -> str:
             danger = row["value"] is not None and not float(row["value"]) <= 1.0
             css = " class='danger'" if danger else ""
             muted = " style='opacity:0.75'" if row["status"] == "for comparison" else ""
-            term = row["governing"] or row["reason"] or ""
+            term = "" if row["term_in_words"] else (row["governing"] or row["reason"] or "")
             parts.append(
                 f"<tr{css}{muted} data-route='{esc(row['route'])}'><td class='q'>{symbols(row['name'])}</td>"
                 f"<td class='v'>{symbols(row['utilisation'])} {symbols(term)}</td>"

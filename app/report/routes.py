@@ -276,9 +276,11 @@ def route_rows(result, U: Units) -> list[dict]:
 
     Every row is a dict with ``route`` (the code), ``name``, ``enabled`` (bool), ``status`` (``"headline"``,
     ``"counts"`` or ``"for comparison"``), ``utilisation`` (text), ``value`` (the number or None),
-    ``governing``, ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and ``source``. With load
-    combinations the routes are the headline combination's; a route that another ultimate combination loads
-    more gives that combination's value in ``value`` and names both in ``utilisation``.
+    ``governing``, ``term_in_words`` (bool), ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and
+    ``source``. With load combinations the routes are the headline combination's; a route that another
+    ultimate combination loads more gives that combination's value in ``value`` and names both in
+    ``utilisation``, the shown combination's governing term beside its own value (``term_in_words`` True: a
+    view then does not add ``governing`` after the words, where it would read as the larger one's).
     """
     head = None if headline_exceeds_routes(result) else headline_route(result)
     rows = []
@@ -290,13 +292,15 @@ def route_rows(result, U: Units) -> list[dict]:
         else:
             status = "for comparison"
         words, value = _utilisation_words(route.utilization), route.utilization
+        governing = governing_text(route.governing)
+        term_in_words = False
         largest = _largest_of_combinations(result, route)
         if largest is not None:  # another combination loads this route more: its value is shown and kept
-            words = (
-                f"{words} in {result.actions.headline}; {_utilisation_words(largest[0])} in {largest[1]}, "
-            )
-            words += "the largest of the combinations"
-            value = largest[0]
+            # The governing term is the shown combination's: it goes with that value, before the largest.
+            shown = f"{words} in {result.actions.headline}" + (f" by {governing}" if governing else "")
+            other = f"{_utilisation_words(largest[0])} in {largest[1]}"
+            words = f"{shown}; {other}, the largest of the combinations"
+            value, term_in_words = largest[0], True
         rows.append(
             {
                 "route": route.route,
@@ -305,7 +309,8 @@ def route_rows(result, U: Units) -> list[dict]:
                 "status": status,
                 "utilisation": words,
                 "value": value,
-                "governing": governing_text(route.governing),
+                "governing": governing,
+                "term_in_words": term_in_words,
                 "facts": facts_text(route.facts or {}, U),
                 "reason": reason_text(route.reason or "", U),
                 "notes": tuple(note_text(code, U) for code in route.notes or ()),

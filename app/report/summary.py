@@ -188,7 +188,7 @@ def _routes_lines(add, result, U) -> None:
     add("")
     add("Routes (each a published way of checking the member; the headline is the worst enabled one)")
     for row in rows:
-        term = f", {row['governing']}" if row["governing"] else ""
+        term = f", {row['governing']}" if row["governing"] and not row["term_in_words"] else ""
         status = {"headline": "headline", "counts": "enabled", "for comparison": "for comparison"}[
             row["status"]
         ]

@@ -117,4 +117,8 @@ def test_each_route_shows_its_largest_value_over_the_ultimate_combinations(start
         if name != actions.headline:
             moved += 1
             assert f"in {name}, the largest of the combinations" in row["utilisation"]
+            # The shown combination's governing term goes with its own value, before the larger one (read
+            # after it, it would seem the larger one's), and no view adds it again after the words.
+            shown = f"in {actions.headline} by {row['governing']}; "
+            assert row["term_in_words"] and shown in row["utilisation"]
     assert moved >= 1  # the demo has one: the second-order route in U1
