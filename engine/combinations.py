@@ -27,6 +27,7 @@ from __future__ import annotations
 import itertools
 from dataclasses import dataclass
 
+from engine import limits
 from engine.errors import CaseError
 
 __all__ = [
@@ -90,8 +91,8 @@ ASCE_SERVICE = (
     ("7", ({"D": 0.6, "W": 0.6},)),
 )
 ASCE_SOURCE = "ASCE/SEI 7-16 §2.3.1 (LRFD) and §2.4.1 (ASD, for service) (from memory)"
-#: At most this many combinations per case (bounds the work of one case).
-MAX_COMBINATIONS = 256
+#: At most this many combinations per case (bounds the work of one case; engine.limits holds it).
+MAX_COMBINATIONS = limits.MAX_COMBINATIONS
 
 
 @dataclass(frozen=True, kw_only=True)

@@ -7,9 +7,9 @@ refused with a :class:`~engine.errors.CaseError` naming the limit and the count 
 
 - :data:`MAX_LOADS` transverse loads per case, and :data:`MAX_SEGMENTS` segments (the loads' positions and
   ends cut the member into segments; the solve's work grows with their number);
-- :data:`MAX_RESTRAINTS` and :data:`MAX_COMBINATIONS` are reserved here for intermediate restraints and load
-  combinations, which schema 1 does not have: when they are added, their limits go into :data:`LIMITS` and
-  are checked beside the loads in ``Case.__post_init__``;
+- :data:`MAX_RESTRAINTS` intermediate restraints, steps in section and foundation stretches (each list;
+  checked by :mod:`engine.restraints`), :data:`MAX_ACTIONS` load cases (:mod:`engine.actions`) and
+  :data:`MAX_COMBINATIONS` load combinations (:mod:`engine.combinations`);
 - :data:`MAX_CASE_BYTES`, :data:`MAX_JSON_DEPTH` and :data:`MAX_NUMBER_DIGITS` bound a case file's text.
 
 :func:`parse_json` reads case-file JSON so that no input gives anything but a CaseError: too large, nested
@@ -30,6 +30,7 @@ from engine.errors import CaseError
 
 __all__ = [
     "LIMITS",
+    "MAX_ACTIONS",
     "MAX_CASE_BYTES",
     "MAX_COMBINATIONS",
     "MAX_JSON_DEPTH",
@@ -53,11 +54,16 @@ MAX_LOADS = 50
 #: forces, so its cost grows with the cube of this number (60 segments: about 1.5 s on one core).
 MAX_SEGMENTS = 60
 
-#: Reserved: intermediate restraints per case (schema 1 has none; the limit is checked when they come).
-MAX_RESTRAINTS = 20
+#: Items in each of a case's lists ``restraints``, ``steps`` and ``foundation``: far more than any member
+#: needs; each adds unknowns to the member's global system (engine.restraints checks it).
+MAX_RESTRAINTS = 50
 
-#: Reserved: load combinations per case (schema 1 has none; the limit is checked when they come).
-MAX_COMBINATIONS = 50
+#: Load cases (``actions``) per case (engine.actions checks it).
+MAX_ACTIONS = 12
+
+#: Load combinations per case, made by the rule or given in a table: each is solved (engine.combinations
+#: checks it).
+MAX_COMBINATIONS = 256
 
 #: A case file's size in bytes (the page's upload limit is the same).
 MAX_CASE_BYTES = 1_000_000
@@ -72,6 +78,9 @@ MAX_NUMBER_DIGITS = 100
 LIMITS: Mapping[str, tuple[int, str]] = {
     "loads": (MAX_LOADS, "transverse loads per case"),
     "segments": (MAX_SEGMENTS, "segments per case (cut at every point load, couple and partial load's end)"),
+    "restraints": (MAX_RESTRAINTS, "intermediate restraints, steps or foundation stretches (each list)"),
+    "actions": (MAX_ACTIONS, "load cases per case"),
+    "combinations": (MAX_COMBINATIONS, "load combinations per case"),
     "case_bytes": (MAX_CASE_BYTES, "bytes per case file"),
     "json_depth": (MAX_JSON_DEPTH, "levels of nesting in a case file"),
     "number_digits": (MAX_NUMBER_DIGITS, "digits of one integer in a case file"),

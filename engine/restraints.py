@@ -43,6 +43,7 @@ import numpy as np
 
 from engine.errors import CaseError
 from engine.inputs import Spec, _restraint
+from engine.limits import MAX_RESTRAINTS
 from engine.sections import section_from_spec
 from engine.validate import check_keys, choice, flag, real, set_field, show, within
 
@@ -69,7 +70,7 @@ _RESTRAINT_KEYS = ("x", "translation", "rotation", "hinge", "plane", "twist")
 _STEP_KEYS = ("x", "EI", "section")
 _FOUNDATION_KEYS = ("start", "end", "k", "plane")
 _MAX_FOUNDATION = 1e12  # [N/m²]: stiffer than any soil or bedding by orders of magnitude
-_MAX_ITEMS = 50  # per list: far more than any member needs; keeps the global system small
+_MAX_ITEMS = MAX_RESTRAINTS  # per list: far more than any member needs; keeps the global system small
 _MIN_EI, _MAX_EI = 1e-3, 1e16  # [N·m²], the case's own bounds of EI
 
 

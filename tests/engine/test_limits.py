@@ -277,3 +277,30 @@ def test_save_case_writes_atomically(tmp_path, monkeypatch):
     monkeypatch.setattr(os, "replace", real_replace)
     save_case(Case.from_dict(base() | {"title": "New"}), path)
     assert load_case(path).title == "New"
+
+
+@pytest.mark.parametrize("key", ["restraints", "steps", "foundation"])
+def test_each_list_along_the_member_takes_at_most_max_restraints_items(key):
+    """restraints, steps and foundation: MAX_RESTRAINTS + 1 items are refused naming the list, the count and
+    the limit (engine.limits holds the value the README's limits table states)."""
+    item = {
+        "restraints": {"x": 3.0, "translation": "fixed"},
+        "steps": {"x": 3.0, "EI": 4.0e6},
+        "foundation": {"start": 0.0, "end": 6.0, "k": 1e5},
+    }[key]
+    message = refused(json.dumps(base() | {key: [item] * (limits.MAX_RESTRAINTS + 1)}))
+    assert message == (
+        f"{key}: {limits.MAX_RESTRAINTS + 1} items are too many; at most {limits.MAX_RESTRAINTS} are allowed"
+    )
+
+
+def test_the_limits_table_names_every_limit_the_engine_enforces():
+    """Load cases and combinations are bounded by the values engine.limits publishes."""
+    from engine import actions, combinations
+
+    assert actions.MAX_ACTIONS == limits.MAX_ACTIONS == limits.LIMITS["actions"][0] == 12
+    assert combinations.MAX_COMBINATIONS == limits.MAX_COMBINATIONS == limits.LIMITS["combinations"][0] == 256
+    assert limits.LIMITS["restraints"][0] == limits.MAX_RESTRAINTS == 50
+    too_many = [{"name": f"A{i}", "category": "permanent", "axial_force": 1e3} for i in range(13)]
+    message = refused(json.dumps(base() | {"axial_force": 0.0, "actions": too_many}))
+    assert message == f"actions: 13 actions given; 1 to {limits.MAX_ACTIONS} are allowed"
