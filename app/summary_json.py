@@ -10,7 +10,7 @@ import math
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 5
+SUMMARY_VERSION = 6
 
 
 def _finite(value) -> float | None:
@@ -234,6 +234,7 @@ def _out_of_plane_data(out) -> dict | None:
         "curve": out.curve,
         "N_b_Rd": _finite(out.N_b_Rd),
         "utilization": _finite(out.utilization),
+        "elastic_utilization": _finite(out.elastic_utilization),
     }
 
 

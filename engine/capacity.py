@@ -34,6 +34,7 @@ from engine.buckling_interaction import TERM as INTERACTION
 from engine.classification import classify
 from engine.errors import CaseError
 from engine.member_routes import headline
+from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.prepared import prepare
 from engine.roots import brentq
@@ -59,7 +60,9 @@ class Capacity:
         route's linear member check), or ``"elastic buckling"`` when the critical load comes first, or
         ``"transverse loads alone"`` when the member fails with no axial force at all, or
         ``"class 4 section"`` when the section is class 4 in compression (EN 1993-1-1 Table 5.2; then
-        ``axial_force`` is 0).
+        ``axial_force`` is 0), or ``"out-of-plane elastic buckling"`` when the elastic critical load about the
+        other axis comes first where the code's check about it is not made (then ``axial_force`` is that N_cr,
+        a bound: the capacity is at most this).
     x : float or None
         Where it governs [m].
     critical_load : float
@@ -252,6 +255,16 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
                     second.governing,
                     None,
                     f"The second-order route governs: utilisation 1 by {second.governing}.",
+                )
+            if r.check.strength_kind == OUT_OF_PLANE_ELASTIC:
+                n_cr = r.check.out_of_plane.N_cr  # exactly: N/N_cr is linear in N
+                return found(
+                    n_cr if mode == "axial" else n_cr / reference,
+                    OUT_OF_PLANE_ELASTIC,
+                    None,
+                    f"Out-of-plane elastic buckling bounds it: N_cr = {n_cr * 1e-3:.6g} kN about the "
+                    f"{r.check.out_of_plane.axis} axis (the code's buckling check about that axis is not "
+                    "made: the capacity is at most this).",
                 )
             if r.check.strength_kind == OUT_OF_PLANE:
                 n_b = r.check.out_of_plane.N_b_Rd  # exactly: N/N_b,Rd is linear in N

@@ -113,12 +113,23 @@ def _out_of_plane_cautions(found, P: float) -> list:
         return []
     if not found.checked:
         restrained = found.reason.startswith("restrained")
+        message = f"Out-of-plane flexural buckling ({found.axis} axis): {found.reason}."
+        values = {}
+        if found.N_cr is not None:  # the elastic bound counts in the member check (engine.out_of_plane)
+            message += (
+                f" Its elastic critical load, N_cr = {found.N_cr * 1e-3:.6g} kN (L_cr = "
+                f"{found.buckling_length:.3f} m), bounds any code's resistance: N/N_cr = "
+                f"{(found.elastic_utilization or 0.0):.3f} counts in the utilisation as a bound, and the "
+                "code's check is still to be made."
+            )
+            values = {**found.facts(), "reason": found.reason}
         out = [
             Caution(
                 level="info" if restrained else "warning",
                 code="out-of-plane-not-checked",
-                message=f"Out-of-plane flexural buckling ({found.axis} axis): {found.reason}.",
+                message=message,
                 source=found.source,
+                values=values,
             )
         ]
         if found.N_cr is not None and P > found.N_cr:
@@ -348,16 +359,28 @@ def assess(
                 )
             )
     if section is not None:
-        if section.open_section and axis == "major":
+        # A solid rectangle deeper than wide buckles laterally too (a flat bar, a timber joist); the member
+        # check replaces this warning wherever it makes the lateral-torsional buckling check (steel).
+        deep_solid = (
+            section.shape == "rectangle"
+            and section.depth is not None
+            and section.width is not None
+            and section.depth > section.width
+        )
+        if (section.open_section or deep_solid) and axis == "major":
+            what = "an open section" if section.open_section else "a solid section deeper than wide"
             out.append(
                 Caution(
                     level="warning",
                     code="lateral-torsional-buckling",
                     message=(
-                        "Major-axis bending of an open section: lateral-torsional buckling is not "
+                        f"Major-axis bending of {what}: lateral-torsional buckling is not checked. Check "
+                        "it, or make sure the compression edge is restrained."
+                        if not section.open_section
+                        else "Major-axis bending of an open section: lateral-torsional buckling is not "
                         "checked. Check it, or make sure the compression flange is restrained."
                     ),
-                    source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F",
+                    source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F; EN 1995-1-1 §6.3.3",
                 )
             )
         out.extend(_class_cautions(check))
@@ -449,7 +472,8 @@ def assess(
         if P > 0:
             out.extend(_out_of_plane_cautions(check.out_of_plane, P))
         for note in check.notes:
-            out.append(Caution(level="info", code="check-note", message=note, source=check.source))
+            source = check.in_plane_source or check.source  # the notes are about the in-plane checks
+            out.append(Caution(level="info", code="check-note", message=note, source=source))
     if (
         P > 0
         and bow.get("code_amplitude") is not None

@@ -34,7 +34,7 @@ from engine.codes import plastic_interaction, shear_reduction
 from engine.design.ltb import LtbSettings
 from engine.design.routes import ROUTES
 from engine.errors import CaseError
-from engine.out_of_plane import KIND
+from engine.out_of_plane import ELASTIC_KIND, ELASTIC_SOURCE, KIND
 
 __all__ = [
     "ANNEXES",
@@ -209,10 +209,15 @@ class MemberCheck:
         EN 1993-1-1 Table 5.2 class (:mod:`engine.classification`), None where not classified.
     out_of_plane : OutOfPlane or None
         Flexural buckling about the other axis (EN 1993-1-1 §6.3.1): N/N_b,Rd in ``utilization``, or why it
-        was not checked; it is part of ``strength_utilization`` (kind ``"out-of-plane buckling"``).
+        was not checked; it is part of ``strength_utilization`` (kind ``"out-of-plane buckling"``). Where it
+        was not checked but N_cr about that axis is known, N/N_cr is (kind ``"out-of-plane elastic
+        buckling"``, a bound: :mod:`engine.out_of_plane`).
     in_plane_utilization : float
         The in-plane strength utilisation alone (cross-section checks along the member) [-].
     in_plane_kind : str
+    in_plane_source : str
+        The source of the in-plane checks, which ``notes`` are about ("" where the check does not say; then
+        ``source``).
     at : ndarray or None
         Where ``stations``, ``axial_bending`` and ``shear`` are [m] when that is not the result's ``x``: the
         two-plane check (:mod:`engine.biaxial`) runs on the stations of both planes merged; None otherwise.
@@ -241,6 +246,7 @@ class MemberCheck:
     out_of_plane: object = None
     in_plane_utilization: float | None = None
     in_plane_kind: str = ""
+    in_plane_source: str = ""
     at: np.ndarray | None = None
 
 
@@ -370,12 +376,17 @@ def check_member(
     source = _SOURCES["shear"] if s_kind == "shear" else _SOURCES[method]
     if s_kind == EQ_5_9_KIND:
         source = _SOURCES["eq-5.9"]
-    in_plane_value, in_plane_kind = s_value, s_kind
+    in_plane_value, in_plane_kind, in_plane_source = s_value, s_kind, source
     u_out = None if out_of_plane is None else out_of_plane.utilization
+    bound = None if out_of_plane is None else out_of_plane.elastic_bound
     if u_out is not None and u_out > s_value:
         # The member check about the other axis governs (x: mid-length, a member-level check).
         s_value, s_kind = u_out, KIND
         kind, value, where, source = KIND, s_value, 0.5 * length, out_of_plane.source
+    elif bound is not None and bound > s_value:
+        # No code check about the other axis here, but its elastic critical load bounds any code's resistance.
+        s_value, s_kind = bound, ELASTIC_KIND
+        kind, value, where, source = ELASTIC_KIND, s_value, 0.5 * length, ELASTIC_SOURCE
     valid = True
     if klass == 4 and N > 0:  # the danger caution section-class-4 says why
         kind = s_kind = "class 4 section"
@@ -408,6 +419,7 @@ def check_member(
         out_of_plane=out_of_plane,
         in_plane_utilization=in_plane_value,
         in_plane_kind=in_plane_kind,
+        in_plane_source=in_plane_source,
     )
 
 

@@ -31,6 +31,7 @@ from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
 from engine.member import segments_of
+from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.sections import section_from_spec
 
@@ -48,6 +49,7 @@ _KINDS = {
     EQ_5_9_KIND: "eq-5.9-linear",
     "shear": "shear",
     OUT_OF_PLANE: "out-of-plane",
+    OUT_OF_PLANE_ELASTIC: "out-of-plane-elastic",
     "class 4 section": "class-4",
     "elastic buckling": "elastic-buckling",
 }
@@ -169,6 +171,8 @@ def _second_order(result, enabled: bool) -> RouteCheck:
     out = check.out_of_plane
     if out is not None and out.utilization is not None:
         terms["out-of-plane"] = out.utilization
+    elif out is not None and out.elastic_bound is not None:
+        terms["out-of-plane-elastic"] = out.elastic_bound
     governing = _KINDS.get(check.kind)
     if governing is None:  # the two-plane check's kinds ("elastic stress N–M_y–M_z", ...)
         governing = "cross-section" if ("stress" in check.kind or "N–M" in check.kind) else check.kind

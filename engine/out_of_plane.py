@@ -17,9 +17,13 @@ out, and the result says so). The stiffness factor of the case is not applied: i
 analysis.
 
 Only steel sections with a buckling curve are checked: a custom section (its properties are given about one
-axis) or another material gets a warning that the check was not made (another material with a catalogue or
-parametric section still gets its elastic N_cr about the other axis). Circular sections are the same about
-every axis. Lateral-torsional buckling and the N–M interaction about both axes (§6.3.3) are not covered.
+axis) or another material gets a warning that the check was not made. Another material with a catalogue or
+parametric section still gets its elastic N_cr about the other axis, and N/N_cr counts in the member check as
+a bound (kind :data:`ELASTIC_KIND`): no code's buckling resistance exceeds the elastic critical load (for
+EN 1993-1-1's curves χ·λ̄² <= 1, so χ·A·f_y <= N_cr; common practice, no source for other materials), so the
+code's utilisation is at least N/N_cr, and a member loaded beyond N_cr fails the check. Circular sections are
+the same about every axis. Lateral-torsional buckling and the N–M interaction about both axes (§6.3.3) are
+not covered here.
 """
 
 from __future__ import annotations
@@ -34,10 +38,28 @@ from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.sections import section_from_spec
 
-__all__ = ["KIND", "OutOfPlane", "OutOfPlaneSettings", "resistance", "utilisation"]
+__all__ = [
+    "ELASTIC_KIND",
+    "ELASTIC_SOURCE",
+    "KIND",
+    "OutOfPlane",
+    "OutOfPlaneSettings",
+    "resistance",
+    "utilisation",
+]
 
 #: The check's kind in the member check.
 KIND = "out-of-plane buckling"
+
+#: The member check's kind where the code's check about the other axis is not made (a material without
+#: buckling curves here) but its elastic critical load is known: N/N_cr, a bound the utilisation is not
+#: below.
+ELASTIC_KIND = "out-of-plane elastic buckling"
+
+ELASTIC_SOURCE = (
+    "Euler: N_cr = π²EI/L_cr² about the other axis; a code's buckling resistance does not exceed it, so "
+    "N/N_cr is a bound of the code's utilisation (common practice, no source)"
+)
 
 SOURCE = "EN 1993-1-1:2005 §6.3.1.1–6.3.1.2, eqs. (6.46)–(6.49); curve by Table 6.2 (cells from memory)"
 
@@ -124,6 +146,9 @@ class OutOfPlane:
     curve, curve_reason : str or None
     utilization : float or None
         N_Ed/N_b,Rd [-] (0 without compression), None when not checked.
+    elastic_utilization : float or None
+        N_Ed/N_cr [-] (0 without compression) wherever N_cr is known, checked or not; where the code's check
+        is not made it is the bound the member check counts (:data:`ELASTIC_KIND`).
     source : str
     note : str
         A doubt about the default buckling length (an end free to translate in the plane analysed), else "".
@@ -140,13 +165,30 @@ class OutOfPlane:
     curve: str | None = None
     curve_reason: str | None = None
     utilization: float | None = None
+    elastic_utilization: float | None = None
     source: str = SOURCE
     note: str = ""
 
     def facts(self) -> dict:
         """The numbers :meth:`describe` words, in SI ([m], [N]) and plain numbers, for an app to word."""
-        names = ("axis", "buckling_length", "N_cr", "lambda_bar", "curve", "chi", "N_b_Rd", "utilization")
+        names = (
+            "axis",
+            "buckling_length",
+            "N_cr",
+            "lambda_bar",
+            "curve",
+            "chi",
+            "N_b_Rd",
+            "utilization",
+            "elastic_utilization",
+        )
         return {name: getattr(self, name) for name in names}
+
+    @property
+    def elastic_bound(self) -> float | None:
+        """N/N_cr where the code's check is not made but N_cr is known (what the member check counts), else
+        None."""
+        return None if self.checked else self.elastic_utilization
 
     def describe(self) -> str:
         """One line with the numbers, e.g. for the cautions and the calc sheet."""
@@ -190,6 +232,11 @@ def _stepped(case, segments) -> OutOfPlane:
         for i in range(len(segments))
     ]
     if not all(f.checked for f in found):
+        # A material without buckling curves: the smallest N_cr (the weakest segment over the whole buckling
+        # length, a lower bound of the stepped member's, as below), so that its bound N/N_cr is the largest.
+        known = [f for f in found if not f.checked and f.N_cr is not None]
+        if known and len(known) == len(found):
+            return min(known, key=lambda f: f.N_cr)
         return next(f for f in found if not f.checked)
     n_cr = found[weakest].N_cr
     out = []
@@ -238,9 +285,8 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
             axis=other,
             buckling_length=length,
             N_cr=n_cr,
-            reason=f"{material.kind} material: the buckling curves "
-            "of EN 1993-1-1 do not apply, out-of-plane buckling is not checked "
-            f"(elastic N_cr = {n_cr * 1e-3:.6g} kN about the {other} axis, L_cr = {length:.3f} m)",
+            reason=f"{material.kind} material: the buckling curves of EN 1993-1-1 do not apply, so the "
+            "code's out-of-plane buckling check is not made",
         )
     curve, why = curve_of(turned, material)  # turned is about the other axis
     if curve is None:  # pragma: no cover - every steel shape but custom has a curve
@@ -271,7 +317,11 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
 
 
 def utilisation(template: OutOfPlane, axial_force: float) -> OutOfPlane:
-    """The check at one axial force (compression positive): N_Ed/N_b,Rd, 0 in tension."""
+    """The check at one axial force (compression positive): N_Ed/N_b,Rd and N_Ed/N_cr, 0 in tension."""
+    force = max(float(axial_force), 0.0)
+    elastic = None if not template.N_cr else force / template.N_cr
     if not template.checked:
-        return template
-    return dataclasses.replace(template, utilization=max(float(axial_force), 0.0) / template.N_b_Rd)
+        if elastic is None:
+            return template
+        return dataclasses.replace(template, elastic_utilization=elastic)
+    return dataclasses.replace(template, utilization=force / template.N_b_Rd, elastic_utilization=elastic)

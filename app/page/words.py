@@ -41,6 +41,7 @@ def ratio_text(value) -> str:
 # Short forms of long check kinds, so that the values column does not wrap.
 _SHORT_KINDS = {
     "out-of-plane buckling": "out of plane",
+    "out-of-plane elastic buckling": "N/N_cr out of plane",
     "linear N–M, eq. (5.9) route": "eq. (5.9) N–M",
     "buckling with the moments, eq. (6.61)/(6.62)": "eq. (6.61)/(6.62)",
     "lateral-torsional buckling": "LTB",
@@ -106,6 +107,13 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
                 ratio_text(out.utilization),
                 f"{out.axis}, χ {out.chi:.3f}",
                 out.utilization > 1,
+            )
+        elif out is not None and out.elastic_bound is not None:  # no code check: N/N_cr counts as a bound
+            row(
+                "N/N<sub>cr</sub> out of plane",
+                ratio_text(out.elastic_bound),
+                f"{out.axis}, a bound: code check not made",
+                out.elastic_bound > 1,
             )
         elif out is not None:
             row(

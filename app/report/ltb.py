@@ -36,9 +36,9 @@ __all__ = [
 
 #: Where the transverse loads act over the depth, in words (the case file's codes as keys).
 LOAD_POSITION_LABELS = {
-    "destabilising": "destabilising: at the flange the loads come from (z_g = +h/2)",
+    "destabilising": "destabilising: at the flange or edge the loads come from (z_g = +h/2)",
     "shear-centre": "at the shear centre (z_g = 0)",
-    "stabilising": "stabilising: at the other flange (z_g = −h/2)",
+    "stabilising": "stabilising: at the other flange or edge (z_g = −h/2)",
 }
 #: The end conditions in words.
 END_LABELS = {

@@ -22,6 +22,8 @@ TERMS = {
     "shear": "shear",
     "out-of-plane": "out-of-plane buckling",
     "out-of-plane-buckling": "out-of-plane buckling",
+    "out-of-plane-elastic": "out-of-plane elastic buckling, N/N_cr (a bound)",
+    "out-of-plane elastic buckling": "out-of-plane elastic buckling, N/N_cr (a bound)",
     "buckling-interaction": "buckling with the moments, eq. (6.61)/(6.62)",
     "lateral-torsional": "lateral-torsional buckling",
     "flexural-buckling-y": "flexural buckling, major axis",

@@ -370,8 +370,20 @@ def out_of_plane_text(out, U: Units) -> str:
     if out is None:
         return ""
     if not out.checked:
-        return f"not checked: {out.reason}"
+        bound = _elastic_bound_words(out.facts(), U)
+        return f"not checked: {out.reason}" + (f"; {bound}" if bound else "")
     return _out_of_plane_facts(out.facts(), U)
+
+
+def _elastic_bound_words(f: dict, U: Units) -> str:
+    """N/N_cr about the other axis where the code's check is not made but N_cr is known (it counts in the
+    utilisation as a bound), else ""."""
+    if f.get("N_cr") is None or f.get("elastic_utilization") is None:
+        return ""
+    return (
+        f"elastic N_cr = {U.show('force', f['N_cr'])} (L_cr = {U.show('length', f['buckling_length'])}), "
+        f"N/N_cr = {f['elastic_utilization']:.3f} counted as a bound (no code's resistance exceeds N_cr)"
+    )
 
 
 def _out_of_plane_facts(f: dict, U: Units) -> str:
@@ -402,6 +414,11 @@ def capacity_text(capacity, U: Units, result=None) -> str:
         )
     if check == "out-of-plane buckling":
         return f"Out-of-plane flexural buckling governs: N_b,Rd = χ·A·f_y/γ_M1 = {force}."
+    if check == "out-of-plane elastic buckling":
+        return (
+            f"Out-of-plane elastic buckling bounds it: N_cr = {force} about the other axis. The code's "
+            "buckling check about that axis is not made (see the cautions): the capacity is at most this."
+        )
     if check in ("transverse loads alone", "class 4 section"):
         return capacity.message  # no quantity with a unit in these
     route = getattr(capacity, "route", "second-order")
@@ -445,6 +462,13 @@ def _out_of_plane_buckling(v: dict, U: Units) -> str:
         f"N/N_b,Rd = {v['utilization']:.3f} > 1: the member buckles out of the plane analysed, "
         f"{_out_of_plane_facts(v, U)}. Brace it (a shorter out-of-plane buckling length) or choose a larger "
         "section."
+    )
+
+
+def _out_of_plane_not_checked(v: dict, U: Units) -> str:
+    return (
+        f"Out-of-plane flexural buckling ({v['axis']} axis): {v['reason']}. Its "
+        f"{_elastic_bound_words(v, U)}; the code's check is still to be made."
     )
 
 
@@ -492,6 +516,7 @@ _WORDED = {
     "bow-below-code": _bow_below_code,
     "out-of-plane-buckling": _out_of_plane_buckling,
     "out-of-plane-checked": _out_of_plane_checked,
+    "out-of-plane-not-checked": _out_of_plane_not_checked,
 }
 
 

@@ -284,7 +284,11 @@ def check(
     vs = None if V is None else np.asarray(V, dtype=float)
     M_Ed = float(np.max(np.abs(ms))) if ms.size else 0.0
     sy, sz = section_y, section_z
-    if sy.shape in ("rhs", "chs", "rectangle", "round") or not sy.open_section:
+    # A solid rectangle bent about its stronger axis buckles laterally like a deep beam (a flat bar, a
+    # timber joist; Timoshenko & Gere 1961 §6.2, narrow rectangular beam): only when it is no stronger in
+    # the plane of bending than across it (a square, or bent about its weaker axis) does it not.
+    narrow = sy.shape == "rectangle" and sz is not None and sy.I > sz.I * (1.0 + 1e-9)
+    if (sy.shape in ("rhs", "chs", "rectangle", "round") or not sy.open_section) and not narrow:
         return not_applied("closed-or-solid", settings, M_Ed)
     if M_Ed == 0.0:
         return not_applied("no-major-moment", settings, M_Ed)

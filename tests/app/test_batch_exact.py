@@ -8,10 +8,14 @@ landed, which change the headline utilisation and capacity of open sections on p
 guard later speed work. Written once more (2026-12-03) when a peak equal to rounding at two stations became
 the first along the member (``engine.analysis._peak``): 19 of the 162 rows changed, each only in which of two
 values equal to 1e-12 is reported (the sign and place of a symmetric member's end shear, a flat peak's x), so
-that numpy 1.26 and 2.x now write the same rows. And a hypothesis-drawn table
-solved twice in this process, once as the product does it and once with the capacity finder as it was before
-(``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved afresh
-at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.
+that numpy 1.26 and 2.x now write the same rows. Written again (2026-12-03, stop 26) when two unsafe
+results were corrected on purpose: a timber member's N/N_cr about its other axis now counts as a bound (the
+example table's TB-01: 0.258 → 0.448, its capacity 96.4 → 17.9 kN; 11 generated timber rows, one of them
+from 0.94, a pass, to 5.18), and a timber rectangle deeper than wide is warned that lateral-torsional
+buckling is not checked (the cautions column of 4 more rows); no steel row changed. And a hypothesis-drawn
+table solved twice in this process, once as the product does it and once with the capacity finder as it was
+before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
+afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.
 """
 
 from __future__ import annotations
