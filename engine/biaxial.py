@@ -112,6 +112,13 @@ def moment_factor(a, b, alpha, beta):
     top = np.maximum(a, b)
     out = top.copy()
     both = (a > 0) & (b > 0) & np.isfinite(top)
+    # Below 1e-300 the start 1/max(a, b) overflows (a member at an axial force of 2e-308 N, found by
+    # hypothesis): there s lies between max(a, b) and max(a·2^(1/α), b·2^(1/β)), where each term is at most
+    # 1/2, and the larger end is kept (on the safe side, and of rounding size).
+    tiny = both & (top < 1e-300)
+    if tiny.any():
+        out[tiny] = np.maximum(a[tiny] * 2.0 ** (1.0 / alpha[tiny]), b[tiny] * 2.0 ** (1.0 / beta[tiny]))
+        both &= ~tiny
     if both.any():
         a, b, alpha, beta = a[both], b[both], alpha[both], beta[both]
         t = 1.0 / top[both]
@@ -273,7 +280,8 @@ def check_biaxial(
     where = float(x[i])
     in_plane_value, in_plane_kind = value, kind
     valid = True
-    if klass == 4 and N > 0:
+    bent = float(My.max(initial=0.0)) > 0.0 or float(Mz.max(initial=0.0)) > 0.0
+    if klass == 4 and (N > 0 or bent):  # as engine.checks.check_member: compression or bending
         kind, value, source, valid = "class 4 section", math.inf, section_class.source, False
     if beyond_critical:
         kind, value, valid = "elastic buckling", math.inf, False

@@ -9,6 +9,9 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+import numpy as np
+
+from engine.classification import web_shear_slenderness
 from engine.codes import ALPHA_CR_SOURCE
 
 __all__ = [
@@ -80,6 +83,32 @@ _UNCLASSIFIED = Caution(
 #: critical load (a cracked or yielding part, a support softer than assumed) reaches instability: the result
 #: no longer deserves trust without a check of those inputs. Common practice, no source.
 NEAR_CRITICAL_RATIO = 0.9
+
+
+def _web_shear_cautions(section, material, axis, check) -> list:
+    """A web too slender to reach its plastic shear resistance (EN 1993-1-5 §5): a warning, the shear check
+    here being V_pl,Rd alone; a danger where that check already takes half of V_pl,Rd or more (the ratio at
+    which shear starts to reduce the moment resistance too, EN 1993-1-1 §6.2.8; common practice, no source
+    for the level)."""
+    found = web_shear_slenderness(section, material, axis)
+    if found is None or check is None or not found[0] > found[1]:
+        return []
+    ratio, limit = found
+    shear = float(np.max(check.shear)) if np.size(check.shear) else 0.0
+    return [
+        Caution(
+            level="danger" if shear >= 0.5 else "warning",
+            code="web-shear-buckling",
+            message=(
+                f"The web's h_w/t_w = {ratio:.1f} exceeds 72ε/η = {limit:.1f} (η = 1): it buckles in shear "
+                "before it yields. Shear buckling (EN 1993-1-5 §5) is not checked: the shear check here, "
+                f"{shear:.3f} of V_pl,Rd, is on the unsafe side for this web. Check it to EN 1993-1-5 or "
+                "stiffen the web."
+            ),
+            source="EN 1993-1-1:2005 §6.2.6(6); EN 1993-1-5:2006 §5.1(2) (from memory)",
+            values={"h_w_over_t_w": ratio, "limit": limit, "shear_utilisation": shear},
+        )
+    ]
 
 
 def _class_cautions(check) -> list:
@@ -384,6 +413,7 @@ def assess(
                 )
             )
         out.extend(_class_cautions(check))
+        out.extend(_web_shear_cautions(section, material, axis, check))
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):

@@ -388,7 +388,9 @@ def check_member(
         s_value, s_kind = bound, ELASTIC_KIND
         kind, value, where, source = ELASTIC_KIND, s_value, 0.5 * length, ELASTIC_SOURCE
     valid = True
-    if klass == 4 and N > 0:  # the danger caution section-class-4 says why
+    # Class 4 under the forces present (compression, or bending: a web or flange that buckles locally in
+    # its compressed part): the gross-section resistance is not valid. The danger caution says why.
+    if klass == 4 and (N > 0 or float(M.max(initial=0.0)) > 0.0):
         kind = s_kind = "class 4 section"
         value = s_value = math.inf
         source = section_class.source

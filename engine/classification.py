@@ -38,7 +38,16 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-__all__ = ["LIMITS", "Part", "SectionClass", "classify", "epsilon", "eq_5_9_modulus"]
+__all__ = [
+    "LIMITS",
+    "WEB_SHEAR_LIMIT",
+    "Part",
+    "SectionClass",
+    "classify",
+    "epsilon",
+    "eq_5_9_modulus",
+    "web_shear_slenderness",
+]
 
 #: Table 5.2 limits for classes 1, 2, 3 (from memory): c/t in units of ε, or d/t in units of ε² for a CHS.
 LIMITS = {
@@ -204,3 +213,36 @@ def eq_5_9_modulus(section, material, method: str) -> float:
         return section.W_el
     found = classify(section, material, compression=True)
     return section.W_pl if found is not None and found.klass <= 2 else section.W_el
+
+
+#: h_w/t_w above which a web without intermediate stiffeners must be checked for shear buckling, in units of
+#: ε/η: EN 1993-1-1:2005 §6.2.6(6) and EN 1993-1-5 §5.1(2) (from memory), with η = 1 (the value some national
+#: annexes set; 1.2 is recommended up to S460): the lower limit, so that no slender web goes unwarned.
+WEB_SHEAR_LIMIT = 72.0
+
+
+def web_shear_slenderness(section, material, axis: str) -> tuple[float, float] | None:
+    """(h_w/t_w, the limit 72ε/η with η = 1) of the web that carries the shear of bending about ``axis``:
+    an I/H's web (h_w = h − 2t_f) or an RHS's two side walls (h_w = h − 2t) in major-axis bending, the RHS's
+    other walls in minor-axis bending. None for other shapes, minor-axis bending of an I/H (its flanges carry
+    the shear) or a material other than steel.
+
+    >>> from engine.materials import material_from_spec
+    >>> from engine.sections import section_from_spec
+    >>> plates = {"shape": "welded_i", "h": 1.0, "b": 0.3, "tw": 0.008, "tf": 0.02}
+    >>> welded = section_from_spec(plates, "major")
+    >>> ratio, limit = web_shear_slenderness(welded, material_from_spec({"name": "S355"}, 0.02), "major")
+    >>> round(ratio, 1), round(limit, 1)
+    (120.0, 59.4)
+    """
+    if section is None or material is None or material.kind != "steel":
+        return None
+    dims = section.dimensions
+    if section.shape in ("rolled_i", "welded_i") and axis == "major":
+        web, thickness = dims["h"] - 2.0 * dims["tf"], dims["tw"]
+    elif section.shape == "rhs":
+        side = dims["h"] if axis == "major" else dims["b"]
+        web, thickness = side - 2.0 * dims["t"], dims["t"]
+    else:
+        return None
+    return web / thickness, WEB_SHEAR_LIMIT * epsilon(material.fy)

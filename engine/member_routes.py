@@ -506,6 +506,9 @@ def headline(routes) -> tuple:
     """
     applied = [r for r in routes if r.enabled and r.utilization is not None]
     if applied:
+        undefined = next((r for r in applied if math.isnan(r.utilization)), None)
+        if undefined is not None:  # a value that could not be formed never passes: unbounded, that route's
+            return math.inf, undefined.route, False
         top = max(r.utilization for r in applied)
         floor = top if math.isinf(top) else top - 1e-12 * abs(top)
         best = next(r for r in applied if r.utilization >= floor)

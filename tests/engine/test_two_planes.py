@@ -655,3 +655,26 @@ def test_generated_two_plane_cases_round_trip_and_solve(mapping):
     alone = engine.solve(case.second_plane_case())
     assert np.array_equal(result.second_plane.moment, alone.moment)
     assert result.alpha_cr == min(result.alpha_cr, result.second_plane.alpha_cr)
+
+
+def test_an_axial_force_of_rounding_size_gives_a_finite_headline():
+    """Found by hypothesis (the swap test above): two planes, no loads, N = 2.2e-308 N: the bows' moments
+    are of order 1e-310, the start 1/max(a, b) of engine.biaxial.moment_factor overflowed, the utilisation
+    was NaN and the headline's search raised StopIteration. Now a finite number of rounding size."""
+    plane = {"supports": {"left": "pinned", "right": "pinned"}, "loads": []}
+    bow = {"preset": "en1993-table-5.1", "shape": "sine"}
+    case = engine.Case.from_dict(
+        {
+            "length": 4.0,
+            "axial_force": 2.2250738585072014e-308,
+            **plane,
+            "imperfection": bow,
+            "section": {"name": "SHS 100x100x5"},
+            "material": {"name": "S355"},
+            "check": {"method": "plastic"},
+            "second_plane": {**plane, "imperfection": bow},
+        }
+    )
+    r = engine.solve(case)
+    assert r.utilization is not None and 0.0 <= r.utilization < 1e-300
+    assert all(not math.isnan(route.utilization) for route in r.routes if route.utilization is not None)

@@ -1,0 +1,83 @@
+"""Slender webs: shear buckling named, and a class 4 section in bending alone not passed on its gross section.
+
+- EN 1993-1-1:2005 §6.2.6(6) with EN 1993-1-5 §5.1(2) (from memory; tests/REFERENCES.md §8): a web without
+  intermediate stiffeners with h_w/t_w > 72ε/η buckles in shear before it yields, which strutscope does not
+  check; η = 1 is taken (the lower value, so no slender web goes unwarned). The shear check is then V_pl,Rd
+  alone, on the unsafe side: a warning, a danger once that check takes half of V_pl,Rd.
+- EN 1993-1-1 Table 5.2 (from memory): a web in bending is class 4 above c/t = 124ε. The member check set
+  the utilisation unbounded for class 4 only under axial compression, so an invented plate girder in bending
+  alone, class 4 by its web, read 0.631 beside a danger caution saying "shown as unbounded".
+ε = √(235/f_y), f_y of S355 by thickness (EN 10025-2: 345 MPa above 16 mm; from memory). Members invented.
+"""
+
+from __future__ import annotations
+
+import math
+
+import engine
+
+
+def girder(tw: float, q: float = 150e3, **changes) -> engine.Case:
+    """An invented welded plate girder 1000 × 400 mm, flanges 30 mm, S355, 12 m, pinned, LTB restrained."""
+    data = {
+        "schema": 1,
+        "title": "Invented plate girder",
+        "length": 12.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 0.0,
+        "loads": [{"type": "uniform", "q": q}],
+        "section": {"shape": "welded_i", "h": 1.0, "b": 0.4, "tw": tw, "tf": 0.03},
+        "material": {"name": "S355"},
+        "axis": "major",
+        "check": {"ltb": {"restrained": True}},
+    }
+    data.update(changes)
+    return engine.Case.from_dict(data)
+
+
+EPS = math.sqrt(235 / 345)  # flanges 30 mm: f_y = 345 MPa
+
+
+def test_a_slender_web_is_named_with_its_ratio_and_limit():
+    """t_w = 12 mm: h_w/t_w = 940/12 = 78.3 > 72ε = 59.4 (class 3 in bending: 78.3 < 124ε = 102.3)."""
+    r = engine.solve(girder(0.012))
+    assert r.check.section_class.klass <= 3 and math.isfinite(r.utilization)
+    (caution,) = [c for c in r.cautions if c.code == "web-shear-buckling"]
+    assert caution.values["h_w_over_t_w"] == 0.94 / 0.012
+    assert abs(caution.values["limit"] - 72 * EPS) < 1e-9
+    shear = float(r.check.shear.max())
+    assert caution.level == ("danger" if shear >= 0.5 else "warning")
+
+
+def test_no_caution_for_a_stocky_web_or_a_rolled_section():
+    """t_w = 20 mm: 47 < 59.4; IPE 600 (h_w/t_w = 562/12 = 46.8, S355 at 19 mm: 72ε = 59.4): none."""
+    assert "web-shear-buckling" not in [c.code for c in engine.solve(girder(0.020)).cautions]
+    rolled = girder(0.02, q=40e3, section={"name": "IPE 600"})
+    assert "web-shear-buckling" not in [c.code for c in engine.solve(rolled).cautions]
+
+
+def test_heavy_shear_on_a_slender_web_is_a_danger():
+    """600 kN/m on t_w = 12 mm: V_Ed = 3600 kN against V_pl,Rd = A_v f_y/√3 ≈ 2300 kN: a danger."""
+    r = engine.solve(girder(0.012, q=600e3))
+    (caution,) = [c for c in r.cautions if c.code == "web-shear-buckling"]
+    assert caution.level == "danger"
+
+
+def test_a_class_4_web_in_bending_alone_fails_the_gross_section_check():
+    """t_w = 8 mm: c/t = 940/8 = 117.5 > 124ε = 102.3, class 4 in bending: unbounded (it read 0.631)."""
+    r = engine.solve(girder(0.008))
+    assert r.check.section_class.klass == 4
+    assert math.isinf(r.utilization) and r.check.kind == "class 4 section"
+    assert any(c.level == "danger" and c.code == "section-class-4" for c in r.cautions)
+
+
+def test_a_class_3_web_in_bending_stays_finite():
+    """t_w = 10 mm: c/t = 94 < 102.3, class 3: the elastic check stands."""
+    r = engine.solve(girder(0.010))
+    assert r.check.section_class.klass == 3 and math.isfinite(r.utilization)
+
+
+def test_a_class_4_section_without_any_load_is_not_failed():
+    """No axial force and no moment: nothing is compressed, nothing fails."""
+    r = engine.solve(girder(0.008, q=0.0, loads=[]))
+    assert r.utilization is not None and math.isfinite(r.utilization)
