@@ -45,7 +45,14 @@ import math
 
 import numpy as np
 
-from engine.checks import BEYOND_CRITICAL_SOURCE, EQ_5_9_KIND, MemberCheck, method_used
+from engine.checks import (
+    BEYOND_CRITICAL_SOURCE,
+    EQ_5_9_KIND,
+    IN_PLANE_ELASTIC_KIND,
+    IN_PLANE_ELASTIC_SOURCE,
+    MemberCheck,
+    method_used,
+)
 from engine.classification import eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
 from engine.solver.model import Points
@@ -176,6 +183,7 @@ def check_biaxial(
     service=None,
     axis: str = "major",
     axial_bending_only: bool = False,
+    in_plane_bound: float | None = None,
 ) -> MemberCheck | np.ndarray:
     """The two-plane cross-section check at every combined station.
 
@@ -208,6 +216,9 @@ def check_biaxial(
     axial_bending_only : bool
         Return only what becomes ``axial_bending`` of the check (the N–M_y–M_z utilisation at each
         station, with the eq. (5.9) linear check where it applies), for the search between stations.
+    in_plane_bound : float or None
+        The largest N/Pcr1 of the planes analysed without a bow (as :func:`engine.checks.check_member`):
+        it counts as a bound.
 
     Returns
     -------
@@ -279,6 +290,13 @@ def check_biaxial(
     value = float(strength[i])
     where = float(x[i])
     in_plane_value, in_plane_kind = value, kind
+    if in_plane_bound is not None and in_plane_bound > value:
+        kind, value, where, source = (
+            IN_PLANE_ELASTIC_KIND,
+            in_plane_bound,
+            0.5 * float(x[-1] + x[0]),
+            (IN_PLANE_ELASTIC_SOURCE),
+        )
     valid = True
     bent = float(My.max(initial=0.0)) > 0.0 or float(Mz.max(initial=0.0)) > 0.0
     if klass == 4 and (N > 0 or bent):  # as engine.checks.check_member: compression or bending
@@ -434,7 +452,9 @@ def pair_check(case, P, planes):
         order = np.argsort(merged[0], kind="stable")
         columns = tuple(c[order] for c in merged)
     x, m_y, m_z, v_z, v_y = columns
+    bounds = [P / float(p.buckling.critical_loads[0]) for p in (prep1, prep2) if P > 0.0 and not p.has_bow]
     return check_biaxial(
+        in_plane_bound=max(bounds) if bounds else None,
         x=x,
         moment_y=m_y,
         moment_z=m_z,

@@ -532,7 +532,9 @@ def assess(
                 code="no-bow",
                 message=(
                     "No initial bow in a compressed member: codes require an equivalent "
-                    "imperfection (EN 1993-1-1 Table 5.1, or AISC L/1000)."
+                    "imperfection (EN 1993-1-1 Table 5.1, or AISC L/1000). Without one the analysis does "
+                    "not see buckling until Pcr1: N/Pcr1 counts in the utilisation as a bound, which is "
+                    "not the code's buckling check."
                 ),
                 source="EN 1993-1-1:2005 §5.3.2; AISC 303-16 §7.13.1.1",
             )

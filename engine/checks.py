@@ -42,10 +42,20 @@ __all__ = [
     "CheckSettings",
     "DEFAULT_ROUTES",
     "EQ_5_9_KIND",
+    "IN_PLANE_ELASTIC_KIND",
+    "IN_PLANE_ELASTIC_SOURCE",
     "MemberCheck",
     "check_member",
     "METHODS",
 ]
+
+#: The member check's kind where N/Pcr1 of a plane analysed without a bow governs (a bound, see check_member).
+IN_PLANE_ELASTIC_KIND = "elastic buckling without a bow"
+IN_PLANE_ELASTIC_SOURCE = (
+    "Euler: the exact first critical load Pcr1 of the plane; a code's buckling resistance does not exceed "
+    "it, so N/Pcr1 is a bound of the code's utilisation where no bow makes the analysis see buckling "
+    "(common practice, no source)"
+)
 
 #: The kind of the linear member check of the eq. (5.9) route.
 EQ_5_9_KIND = "linear N–M, eq. (5.9) route"
@@ -290,6 +300,7 @@ def check_member(
     section_class=None,
     beyond_critical: bool = False,
     out_of_plane=None,
+    in_plane_bound: float | None = None,
 ) -> MemberCheck:
     """Check the cross-section at every station with the second-order forces.
 
@@ -322,6 +333,10 @@ def check_member(
     Returns
     -------
     MemberCheck
+    in_plane_bound : float or None
+        N/Pcr1 of the plane analysed when it has no bow (:data:`IN_PLANE_ELASTIC_KIND`): without a bow the
+        stresses do not see buckling until N reaches Pcr1, and no code's buckling resistance exceeds the
+        elastic critical load, so it counts as a bound. None otherwise.
     """
     g0 = settings.gamma_M0
     N = abs(float(axial_force))
@@ -387,6 +402,9 @@ def check_member(
         # No code check about the other axis here, but its elastic critical load bounds any code's resistance.
         s_value, s_kind = bound, ELASTIC_KIND
         kind, value, where, source = ELASTIC_KIND, s_value, 0.5 * length, ELASTIC_SOURCE
+    if in_plane_bound is not None and in_plane_bound > s_value:
+        s_value, s_kind = in_plane_bound, IN_PLANE_ELASTIC_KIND
+        kind, value, where, source = IN_PLANE_ELASTIC_KIND, s_value, 0.5 * length, IN_PLANE_ELASTIC_SOURCE
     valid = True
     # Class 4 under the forces present (compression, or bending: a web or flange that buckles locally in
     # its compressed part): the gross-section resistance is not valid. The danger caution says why.

@@ -24,7 +24,7 @@ import math
 from engine import segment_routes
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.buckling_interaction import conservative, larger
-from engine.checks import EQ_5_9_KIND
+from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
 from engine.classification import classify
 from engine.design import aisc_member, en_member, ltb_member
 from engine.design.diagram import describe, zero
@@ -50,6 +50,7 @@ _KINDS = {
     "shear": "shear",
     OUT_OF_PLANE: "out-of-plane",
     OUT_OF_PLANE_ELASTIC: "out-of-plane-elastic",
+    IN_PLANE_ELASTIC_KIND: "in-plane-elastic",
     "class 4 section": "class-4",
     "elastic buckling": "elastic-buckling",
 }

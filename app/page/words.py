@@ -42,6 +42,7 @@ def ratio_text(value) -> str:
 _SHORT_KINDS = {
     "out-of-plane buckling": "out of plane",
     "out-of-plane elastic buckling": "N/N_cr out of plane",
+    "elastic buckling without a bow": "N/Pcr1, no bow",
     "linear N–M, eq. (5.9) route": "eq. (5.9) N–M",
     "buckling with the moments, eq. (6.61)/(6.62)": "eq. (6.61)/(6.62)",
     "lateral-torsional buckling": "LTB",

@@ -23,6 +23,8 @@ TERMS = {
     "out-of-plane": "out-of-plane buckling",
     "out-of-plane-buckling": "out-of-plane buckling",
     "out-of-plane-elastic": "out-of-plane elastic buckling, N/N_cr (a bound)",
+    "in-plane-elastic": "elastic buckling without a bow, N/Pcr1 (a bound)",
+    "elastic buckling without a bow": "elastic buckling without a bow, N/Pcr1 (a bound)",
     "out-of-plane elastic buckling": "out-of-plane elastic buckling, N/N_cr (a bound)",
     "buckling-interaction": "buckling with the moments, eq. (6.61)/(6.62)",
     "lateral-torsional": "lateral-torsional buckling",
