@@ -53,7 +53,7 @@ from app.report import (
     utilisation_text,
 )
 from app.report.ltb import ltb_words
-from app.report.routes import plane_axes, plane_name
+from app.report.routes import pcr1_planes_text, plane_axes, plane_name
 from app.sketch import MOMENT_POSITIVE_DOWN, PAD_INCHES
 from app.units import Units
 
@@ -285,7 +285,7 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
                 text += f"  ({U.show(kind, getattr(first.governing, field).value)})"
             flow.para(text, hanging=0.15)
         flow.para(
-            f"Pcr1 = {_pcr_text(result, U)}, K = {ratio(result.buckling.effective_length_factor)}, "
+            f"Pcr1 = {pcr1_planes_text(result, U)}, K = {ratio(result.buckling.effective_length_factor)}, "
             f"α_cr = {alpha_text(result)}"
         )
         amplification = result.amplification

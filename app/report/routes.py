@@ -45,6 +45,7 @@ __all__ = [
     "plane_axes",
     "plane_name",
     "route_name",
+    "pcr1_planes_text",
     "route_rows",
     "route_setting",
     "second_plane_rows",
@@ -318,6 +319,18 @@ def route_rows(result, U: Units) -> list[dict]:
             }
         )
     return rows
+
+
+def pcr1_planes_text(result, U: Units) -> str:
+    """Pcr1 in the display units; in a two-plane case each plane's with its axis (α_cr beside it is the lower
+    plane's, :func:`app.report.words.alpha_text`)."""
+    first = U.show("force", float(result.critical_loads[0]), 5)
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        return first
+    own, other = plane_axes(result)
+    other_pcr1 = U.show("force", float(second.critical_loads[0]), 5)
+    return f"{first} ({plane_name(own)}), {other_pcr1} ({plane_name(other)})"
 
 
 def second_plane_rows(result, U: Units) -> list[tuple[str, str]]:

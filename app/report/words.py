@@ -136,18 +136,35 @@ def axial_text(force: float, U: Units) -> str:
 
 
 def load_ratio_text(result) -> str:
-    """N/Pcr1, the reciprocal of α_cr, or "" without an axial force."""
-    pcr1 = float(result.critical_loads[0])
+    """N/Pcr1, the reciprocal of α_cr, or "" without an axial force (of the plane with the lower Pcr1, named
+    in a two-plane case)."""
+    pcr, plane = _lower_plane(result)
+    pcr1 = float(pcr[0])
     if result.axial_force == 0 or not finite(pcr1) or pcr1 <= 0:
         return ""
-    return f"N/Pcr1 = {result.axial_force / pcr1:.3f}"
+    return f"N/Pcr1 = {result.axial_force / pcr1:.3f}" + (f" ({plane.removeprefix(', ')})" if plane else "")
 
 
 def alpha_text(result) -> str:
-    """α_cr = Pcr1/N, or why there is none."""
+    """α_cr = Pcr1/N, or why there is none (the member's: in a two-plane case the lower plane's, named)."""
     if result.axial_force > 0:
-        return ratio(result.alpha_cr)
+        _, plane = _lower_plane(result)
+        return ratio(result.alpha_cr) + (f" ({plane.removeprefix(', ')})" if plane else "")
     return "∞ (no compression)"
+
+
+def _lower_plane(result) -> tuple:
+    """(critical loads, ", bending about the … axis") of the plane whose first critical load is the lower;
+    the words are "" for a one-plane case."""
+    pcr = np.asarray(result.critical_loads, dtype=float)
+    second = getattr(result, "second_plane", None)
+    if second is None:
+        return pcr, ""
+    own, other = plane_axes(result)
+    lower = np.asarray(second.critical_loads, dtype=float)
+    if lower[0] < pcr[0]:
+        return lower, f", bending about the {plane_name(other)}"
+    return pcr, f", bending about the {plane_name(own)}"
 
 
 def _bow_quantity(U: Units, name: str, value: float) -> str:
@@ -263,18 +280,9 @@ def status_text(result, U: Units) -> str:
 def status_message(result, U: Units) -> str:
     """What the status means, with the numbers in the display units (no status word in front)."""
     status, P = result.status, float(result.axial_force)
-    pcr = np.asarray(result.critical_loads, dtype=float)
-    second = getattr(result, "second_plane", None)
-    plane = ""
-    if second is not None:
-        # The member's status is the worse plane's: word it with the critical loads of the plane whose first
-        # critical load is the lower, and name that plane.
-        own, other = plane_axes(result)
-        lower = np.asarray(second.critical_loads, dtype=float)
-        if lower[0] < pcr[0]:
-            pcr, plane = lower, f", bending about the {plane_name(other)}"
-        else:
-            plane = f", bending about the {plane_name(own)}"
+    # The member's status is the worse plane's: worded with the critical loads of the plane whose first
+    # critical load is the lower, that plane named.
+    pcr, plane = _lower_plane(result)
 
     def force(value):
         return U.show("force", value, 5)

@@ -57,3 +57,22 @@ def test_us_output_quotes_no_si_unit():
     assert lines
     for line in lines:
         assert not re.search(r"\d kN\b|\d m\b|\d MPa\b", line), line
+
+
+def test_a_two_plane_alpha_cr_is_named_with_the_plane_it_belongs_to():
+    """The PNG and the calc sheet printed "Pcr1 = 75.405 kip, α_cr = 1.051" for the two-plane stud: Pcr1 the
+    first plane's, α_cr the member's (the minor axis plane's, 17.86 kN / 17 kN). Each is now named."""
+    from app.report.routes import pcr1_planes_text
+    from app.report.words import alpha_text, load_ratio_text
+
+    case = timber_stud(
+        axial_force=17e3, second_plane={"supports": {"left": "pinned", "right": "pinned"}, "loads": []}
+    )
+    result = engine.solve(case)
+    assert alpha_text(result) == "1.051 (bending about the minor axis (z–z))"
+    assert load_ratio_text(result) == "N/Pcr1 = 0.952 (bending about the minor axis (z–z))"
+    assert pcr1_planes_text(result, units("si")) == (
+        "335.42 kN (major axis (y–y)), 17.862 kN (minor axis (z–z))"
+    )
+    one = engine.solve(timber_stud(axial_force=15e3))
+    assert alpha_text(one) == "22.361" and "bending" not in load_ratio_text(one)
