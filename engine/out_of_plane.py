@@ -269,15 +269,17 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         )
     if section is None or material is None:
         return OutOfPlane(checked=False, axis=other, reason="no section and material: not checked")
-    if section.shape == "custom":
-        return OutOfPlane(
-            checked=False,
-            axis=other,
-            reason="a custom section has properties about one axis "
-            "only: out-of-plane buckling cannot be checked",
-        )
-    turned = section_from_spec(dict(case.section if spec is None else spec), other)
     length = settings.buckling_length if settings.buckling_length is not None else case.length
+    if section.shape == "custom":
+        if section.I_minor is None or case.axis != "major":
+            return OutOfPlane(
+                checked=False,
+                axis=other,
+                reason="a custom section has properties about one axis "
+                "only: out-of-plane buckling cannot be checked (give its Iz to have it checked)",
+            )
+        return _custom(case, section, material, length)
+    turned = section_from_spec(dict(case.section if spec is None else spec), other)
     n_cr = math.pi**2 * material.E * turned.I / length**2
     if material.kind != "steel":  # the elastic critical load is still given, for the cautions and the app
         return OutOfPlane(
@@ -313,6 +315,40 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         curve_reason=why,
         note=note,
         reason=("given" if settings.buckling_length is not None else "the member length (default)"),
+    )
+
+
+def _custom(case, section, material, length) -> OutOfPlane:
+    """A custom section bent about its major axis that gives Iz: N_cr = π²E·Iz/L_cr² about the minor axis;
+    steel is checked with curve d, the most unfavourable of EN 1993-1-1 Table 6.2 (the table has no row for
+    an arbitrary section, and any other curve gives a larger χ), another material gets the bound N/N_cr."""
+    n_cr = math.pi**2 * material.E * section.I_minor / length**2
+    if material.kind != "steel":
+        return OutOfPlane(
+            checked=False,
+            axis="minor",
+            buckling_length=length,
+            N_cr=n_cr,
+            reason=f"{material.kind} material: the buckling curves of EN 1993-1-1 do not apply, so the "
+            "code's out-of-plane buckling check is not made",
+        )
+    lam = codes.slenderness(section.A, material.fy, n_cr)
+    chi = codes.reduction_factor(lam, "d")
+    return OutOfPlane(
+        checked=True,
+        axis="minor",
+        buckling_length=length,
+        N_cr=n_cr,
+        lambda_bar=lam,
+        chi=chi,
+        N_b_Rd=chi * section.A * material.fy / case.check.gamma_M1,
+        curve="d",
+        curve_reason="a custom section: curve d, the most unfavourable of Table 6.2, with its Iz",
+        reason=(
+            "given"
+            if (case.out_of_plane and case.out_of_plane.buckling_length)
+            else "the member length (default)"
+        ),
     )
 
 

@@ -186,3 +186,32 @@ def test_case_key_round_trip_and_errors():
             _demo(out_of_plane=bad)
     replaced = dataclasses.replace(_demo(), out_of_plane={"restrained": True})
     assert replaced.out_of_plane.restrained
+
+
+def test_a_custom_section_with_iz_is_checked_out_of_plane_with_curve_d():
+    """A custom section that gives Iz (0 < Iz <= I) was left unchecked out of plane, with a warning. Now:
+    N_cr = π²E·Iz/L² (Euler) and χ of curve d (EN 1993-1-1 Table 6.2's most unfavourable: any other curve
+    gives a larger χ; eq. 6.49 written out here), N_b,Rd = χ·A·f_y/γ_M1."""
+    data = {
+        "schema": 1,
+        "length": 4.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 1e5,
+        "section": {"shape": "custom", "A": 5e-3, "I": 2e-5, "W_el": 2e-4, "W_pl": 2.3e-4, "Iz": 1e-6},
+        "material": {"name": "S355"},
+    }
+    r = engine.solve(engine.Case.from_dict(data))
+    out = r.check.out_of_plane
+    n_cr = math.pi**2 * 210e9 * 1e-6 / 4.0**2
+    lam = math.sqrt(5e-3 * 355e6 / n_cr)
+    chi = _chi(lam, 0.76)
+    assert out.checked and out.curve == "d"
+    assert out.N_cr == pytest.approx(n_cr, rel=1e-12)
+    assert out.chi == pytest.approx(chi, rel=1e-12)
+    assert out.utilization == pytest.approx(1e5 / (chi * 5e-3 * 355e6), rel=1e-12)
+    assert r.check.strength_kind == "out-of-plane buckling" and r.utilization >= out.utilization
+    assert "out-of-plane-not-checked" not in [c.code for c in r.cautions]
+    aluminium = engine.solve(engine.Case.from_dict(data | {"material": {"name": "EN AW-6082 T6"}}))
+    bound = aluminium.check.out_of_plane
+    assert not bound.checked and bound.elastic_bound == pytest.approx(1e5 / bound.N_cr, rel=1e-12)
+    assert aluminium.utilization >= bound.elastic_bound
