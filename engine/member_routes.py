@@ -55,6 +55,10 @@ _KINDS = {
     "elastic buckling": "elastic-buckling",
 }
 
+#: The second-order route's term M_y,II/M_cr where the lateral-torsional check is not made for the material
+#: (no EN 1993-1-1 curves) but the exact M_cr is known: a bound, as no code's resistance exceeds M_cr.
+LTB_ELASTIC = "lateral-torsional-elastic"
+
 _SOURCE_2ND = (
     "EN 1993-1-1:2005 §5.2.2(7)a: elastic second-order analysis with the equivalent bow, then the "
     "cross-section checks of §6.2; §6.3.1 about the other axis (clauses from memory)"
@@ -245,8 +249,6 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
     major = _major(result)
     if major is None:
         return ltb_member.not_applied("minor-axis-only", settings)
-    if material.kind != "steel":
-        return None
     first = major.first_order
     z_section = _made(cache, ("ltb-minor-section", spec), lambda: section_from_spec(dict(spec), "minor"))
     restraints, hinge = ltb_restraints(case)
@@ -267,6 +269,7 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
         cache=cache,
         restraints=restraints,
         lateral_hinge=hinge,
+        resistance=material.kind == "steel",  # another material: M_cr alone, its bound (_with_ltb_term)
     )
 
 
@@ -318,12 +321,14 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         ), found
     if reason:
         en_source = en_member.SOURCE.format(annex=case.check.annex)
-        found = None
-        if material.kind == "steel":  # a custom section with its torsion constants: the check still runs
-            major = _major(result)
-            found = lateral_torsional(result, None, None, cache) if major is not None else None
-            if found is not None and major is not None:
-                second = _with_ltb_term(second, found, major)
+        # A custom steel section with its torsion constants: the check still runs; another material: M_cr,
+        # whose M_II/M_cr counts as a bound (_with_ltb_term).
+        # A member stepped in section of such a material keeps the warning alone (one section's M_cr would
+        # not bound the weakest segment's).
+        major = None if segments else _major(result)
+        found = lateral_torsional(result, None, None, cache) if major is not None else None
+        if found is not None and major is not None:
+            second = _with_ltb_term(second, found, major)
         return (
             second,
             not_applied("en-member", enabled_en, reason, en_source),
@@ -483,17 +488,23 @@ def _with_ltb_term(second: RouteCheck, found, major) -> RouteCheck:
     """The second-order route with the lateral-torsional buckling check of its largest major-axis moment:
     M_y,II/M_b,Rd (EN 1993-1-1 §6.3.2.1 eq. (6.54) with the second-order moment, which is never smaller than
     the first-order one the en-member route uses)."""
-    if not found.applies or second.utilization is None or math.isinf(second.utilization):
+    bound = not found.applies and found.reason.startswith("material-") and not math.isnan(found.M_cr)
+    if not (found.applies or bound) or second.utilization is None or math.isinf(second.utilization):
         return second
     if major.check is None and major.status == "critical":
         return second
     M_II = float(major.governing.moment.magnitude)
-    term = M_II / found.M_b_Rd if found.M_b_Rd > 0.0 else math.inf
-    terms = dict(second.terms, **{"lateral-torsional": term})
+    if bound:  # no code's lateral-torsional resistance exceeds the elastic critical moment: M_II/M_cr
+        name, resist = LTB_ELASTIC, found.M_cr
+    else:
+        name, resist = "lateral-torsional", found.M_b_Rd
+    term = M_II / resist if resist > 0.0 else math.inf
+    terms = dict(second.terms, **{name: term})
     governing, value = second.governing, second.utilization
     if term > value:
-        governing, value = "lateral-torsional", term
-    facts = dict(second.facts, M_y_II=M_II, M_b_Rd=found.M_b_Rd, chi_LT=found.chi_LT)
+        governing, value = name, term
+    facts = dict(second.facts, M_y_II=M_II)
+    facts.update({"M_cr": found.M_cr} if bound else {"M_b_Rd": found.M_b_Rd, "chi_LT": found.chi_LT})
     return dataclasses.replace(second, terms=terms, governing=governing, utilization=value, facts=facts)
 
 

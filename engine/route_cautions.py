@@ -44,10 +44,18 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
         given = [c for c in given if c.code != "lateral-torsional-buckling"]
     ltb = next((i for i, c in enumerate(given) if c.code == "lateral-torsional-buckling"), None)
     if ltb is not None and ltb_check is not None and ltb_check.reason:
+        message = given[ltb].message
+        second = next((r for r in routes if r.route == "second-order"), None)
+        bound = None if second is None else (second.terms or {}).get("lateral-torsional-elastic")
+        if bound is not None:  # a material without the check: its M_cr still bounds (engine.member_routes)
+            message += (
+                " Its elastic critical moment bounds any code's resistance: M_y,II/M_cr = "
+                f"{bound:.3f} counts in the utilisation as a bound, and the code's check is still to be made."
+            )
         given[ltb] = Caution(
             level=given[ltb].level,
             code=given[ltb].code,
-            message=given[ltb].message,
+            message=message,
             source=given[ltb].source,
             values=dict(given[ltb].values, ltb_reason=ltb_check.reason)
             | ({"ltb_missing": list(ltb_check.missing)} if getattr(ltb_check, "missing", ()) else {}),

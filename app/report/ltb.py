@@ -149,6 +149,11 @@ def reason_text(code: str | None) -> str:
     """Why the check could not be made, in words; an unknown code with its hyphens as spaces."""
     if not code:
         return ""
+    if code.startswith("material-"):  # the exact M_cr is still found: M_II/M_cr counts as a bound
+        return (
+            f"a {code.removeprefix('material-')} member: the check is for steel; its elastic critical moment "
+            "bounds any code's resistance, and M_y,II/M_cr counts in the utilisation as a bound"
+        )
     return REASONS.get(code, code.replace("-", " "))
 
 
@@ -288,10 +293,17 @@ def ltb_words(result, U: Units) -> LtbWords | None:
         missing = tuple(getattr(ltb, "missing", ()) or ())
         if missing:
             reason += f" (not given: {', '.join(missing)})"
+        rows = []
+        if str(ltb.reason).startswith("material-") and finite(ltb.M_cr):
+            rows = [
+                ("M_Ed", "M_Ed", U.show("moment", ltb.M_Ed), "largest major-axis moment"),
+                ("M_cr", "M_cr exact", _moment(U, ltb.M_cr), _held_text(ltb, U)),
+            ]
         return LtbWords(
             applies=False,
             reason=reason,
             settings=settings,
+            rows=rows,
             sources=sources,
             headline=f"LTB not checked: {reason}",
             caution=caution,

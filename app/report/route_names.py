@@ -28,6 +28,7 @@ TERMS = {
     "out-of-plane elastic buckling": "out-of-plane elastic buckling, N/N_cr (a bound)",
     "buckling-interaction": "buckling with the moments, eq. (6.61)/(6.62)",
     "lateral-torsional": "lateral-torsional buckling",
+    "lateral-torsional-elastic": "lateral-torsional buckling, M/M_cr (a bound)",
     "flexural-buckling-y": "flexural buckling, major axis",
     "flexural-buckling-z": "flexural buckling, minor axis",
     "flexural-buckling": "flexural buckling",

@@ -47,6 +47,7 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
@@ -269,6 +270,7 @@ def check(
     cache=None,
     restraints: tuple = (),
     lateral_hinge: bool = False,
+    resistance: bool = True,
 ) -> LtbCheck:
     """The lateral-torsional buckling check of a member (see the module).
 
@@ -277,7 +279,9 @@ def check(
     ``N``: the axial force [N], compression positive; ``settings``: the case's ``check.ltb``; ``cache``:
     ``cache(key, make)`` for what does not depend on N (the M_cr at N = 0); ``restraints``: intermediate
     restraints in :func:`engine.design.mcr.critical_moment`'s form; ``lateral_hinge``: a hinge in the plane of
-    minor-axis bending (the check is then not made: the elements cannot release v'').
+    minor-axis bending (the check is then not made: the elements cannot release v''); ``resistance`` False
+    (a material without EN 1993-1-1's curves): the check is not made (reason ``material-<kind>``), but the
+    exact M_cr with N held is kept, a bound of any code's resistance.
     """
     xs = np.asarray(x, dtype=float)
     ms = np.asarray(M, dtype=float)
@@ -383,6 +387,17 @@ def check(
                 found = solve(N_held, at_zero.elements)
     M_cr = 0.0 if found is None else float(found.M_cr)
     M_cr_0 = math.nan if at_zero is None else float(at_zero.M_cr)
+    if not resistance:
+        return dataclasses.replace(
+            not_applied(f"material-{material.kind}", settings, M_Ed),
+            M_cr=M_cr,
+            M_cr_0=M_cr_0,
+            N_Ed=N_held,
+            I_t=I_t,
+            I_w=I_w,
+            length=float(length),
+            restraints=tuple(restraints),
+        )
     segments = _segments(length, restraints)
 
     def fixed():  # what depends neither on N nor on the bow: kept with M_cr at N = 0

@@ -12,7 +12,11 @@ that numpy 1.26 and 2.x now write the same rows. Written again (2026-12-03, stop
 results were corrected on purpose: a timber member's N/N_cr about its other axis now counts as a bound (the
 example table's TB-01: 0.258 → 0.448, its capacity 96.4 → 17.9 kN; 11 generated timber rows, one of them
 from 0.94, a pass, to 5.18), and a timber rectangle deeper than wide is warned that lateral-torsional
-buckling is not checked (the cautions column of 4 more rows); no steel row changed. And a hypothesis-drawn
+buckling is not checked (the cautions column of 4 more rows); no steel row changed. And again the same day,
+when such a timber member's M_y,II/M_cr (the exact M_cr, which bounds any code's resistance) began to count
+as a bound: the `ltb` column of every timber row bent about its major axis, and the utilisation of 14
+generated rows (unbounded where N exceeds N_cr,z, as no lateral stiffness is left; one from 0.93 to 2.62, its
+capacity 0: the transverse load alone exceeds M_cr). And a hypothesis-drawn
 table solved twice in this process, once as the product does it and once with the capacity finder as it was
 before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
 afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.

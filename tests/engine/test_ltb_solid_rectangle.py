@@ -117,3 +117,34 @@ def test_a_timber_joist_is_warned_that_lateral_torsional_buckling_is_not_checked
     )
     warning = [c for c in engine.solve(case).cautions if c.code == "lateral-torsional-buckling"]
     assert warning and warning[0].level == "warning" and "deeper than wide" in warning[0].message
+
+
+def test_a_timber_joist_counts_m_over_m_cr_as_a_bound():
+    """The check is for steel, but the exact M_cr (Vlasov, G of C24 690 MPa, EN 338 from memory) bounds any
+    code's resistance (EN 1995-1-1 §6.3.3: k_crit·f_m·W <= M_cr, since k_crit <= 1/λ_rel,m²; from memory).
+    An invented joist 45 × 220 mm, 6 m, 0.8 kN/m on top, no axial force: M_cr ≈ 4.4 kN·m by the
+    three-factor formula (C1 = 1.127, C2 = 0.454; SN003, from memory), M_Ed = 3.6 kN·m, so M/M_cr ≈ 0.82
+    governs over the stress (about 0.41)."""
+    b, h, length = 0.045, 0.22, 6.0
+    case = flat_bar(
+        length=length,
+        section={"name": "TIMBER 45x220"},
+        material={"name": "C24"},
+        loads=[{"type": "uniform", "q": 0.8e3}],
+    )
+    r = engine.solve(case)
+    assert not r.ltb.applies and r.ltb.reason == "material-timber"
+    E, G = 11_000e6, 690e6
+    EIz, GIt = E * h * b**3 / 12, G * saint_venant(b, h)
+    c1, c2, zg = 1.127, 0.454, h / 2
+    euler = math.pi**2 * EIz / length**2
+    three_factor = c1 * euler * (math.sqrt((c2 * zg) ** 2 + GIt * length**2 / (math.pi**2 * EIz)) - c2 * zg)
+    assert r.ltb.M_cr == pytest.approx(three_factor, rel=1e-2)
+    M_Ed = 0.8e3 * length**2 / 8
+    second = next(route for route in r.routes if route.route == "second-order")
+    assert second.terms["lateral-torsional-elastic"] == pytest.approx(M_Ed / r.ltb.M_cr, rel=1e-9)
+    assert second.governing == "lateral-torsional-elastic"
+    assert r.utilization == pytest.approx(M_Ed / r.ltb.M_cr, rel=1e-9)
+    assert r.check.in_plane_utilization < 0.5 < r.utilization
+    warning = next(c for c in r.cautions if c.code == "lateral-torsional-buckling")
+    assert "M_y,II/M_cr" in warning.message and warning.level == "warning"
