@@ -33,7 +33,7 @@ from engine.analysis import _solve, check_stations, solve
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.classification import classify
 from engine.errors import CaseError
-from engine.member_routes import headline
+from engine.member_routes import LTB_ELASTIC, headline
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.prepared import prepare
@@ -92,7 +92,7 @@ _MAX_AXIAL_FORCE = 1e12
 
 
 #: The second-order route's terms that the member check (``result.check``) does not hold.
-_ROUTE_ONLY_TERMS = ("lateral-torsional", INTERACTION)
+_ROUTE_ONLY_TERMS = ("lateral-torsional", INTERACTION, LTB_ELASTIC)
 
 
 def _at_force(case, force: float):

@@ -435,7 +435,7 @@ def capacity_text(capacity, U: Units, result=None) -> str:
             f"The route {route_name(route, result)} governs: utilisation 1 by {governing_text(check)} at "
             f"N = {force}."
         )
-    if check in ("lateral-torsional", "buckling-interaction"):  # terms of the route, not of the section
+    if check in ("lateral-torsional", "buckling-interaction", "lateral-torsional-elastic"):  # route terms
         return f"The second-order route governs: utilisation 1 by {governing_text(check)} at N = {force}."
     where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
     return f"Strength governs: utilisation 1 by {check}{where}."
