@@ -238,7 +238,7 @@ def _build(
                 route="eq-5.9" if case.imperfection.preset == "en1993-eq-5.9" else None,
                 beyond_critical=status == "unstable",
                 out_of_plane=out_of_plane_utilisation(prep.out_of_plane(), P),
-                in_plane_bound=in_plane_bound(prep, P),
+                in_plane_bound=prep.elastic_bound(P),
             )
             if w_service is not None:
                 service = ServiceCheck(
@@ -288,14 +288,6 @@ def _build(
     if not first_order and cautions:
         result = _with_cautions(result, prep, favourable=False)
     return result
-
-
-def in_plane_bound(prep, P: float) -> float | None:
-    """N/Pcr1 of a plane analysed without a bow under compression (engine.checks.check_member's
-    ``in_plane_bound``), else None."""
-    if P <= 0.0 or prep.has_bow:
-        return None
-    return P / float(prep.buckling.critical_loads[0])
 
 
 def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:

@@ -291,12 +291,8 @@ def check_biaxial(
     where = float(x[i])
     in_plane_value, in_plane_kind = value, kind
     if in_plane_bound is not None and in_plane_bound > value:
-        kind, value, where, source = (
-            IN_PLANE_ELASTIC_KIND,
-            in_plane_bound,
-            0.5 * float(x[-1] + x[0]),
-            (IN_PLANE_ELASTIC_SOURCE),
-        )
+        kind, value, source = IN_PLANE_ELASTIC_KIND, in_plane_bound, IN_PLANE_ELASTIC_SOURCE
+        where = 0.5 * float(x[-1] + x[0])
     valid = True
     bent = float(My.max(initial=0.0)) > 0.0 or float(Mz.max(initial=0.0)) > 0.0
     if klass == 4 and (N > 0 or bent):  # as engine.checks.check_member: compression or bending
@@ -452,7 +448,7 @@ def pair_check(case, P, planes):
         order = np.argsort(merged[0], kind="stable")
         columns = tuple(c[order] for c in merged)
     x, m_y, m_z, v_z, v_y = columns
-    bounds = [P / float(p.buckling.critical_loads[0]) for p in (prep1, prep2) if P > 0.0 and not p.has_bow]
+    bounds = [b for b in (prep1.elastic_bound(P), prep2.elastic_bound(P)) if b is not None]
     return check_biaxial(
         in_plane_bound=max(bounds) if bounds else None,
         x=x,

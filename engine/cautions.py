@@ -13,6 +13,7 @@ import numpy as np
 
 from engine.classification import web_shear_slenderness
 from engine.codes import ALPHA_CR_SOURCE
+from engine.sections import deep_solid
 
 __all__ = [
     "Caution",
@@ -388,26 +389,21 @@ def assess(
                 )
             )
     if section is not None:
-        # A solid rectangle deeper than wide buckles laterally too (a flat bar, a timber joist); the member
-        # check replaces this warning wherever it makes the lateral-torsional buckling check (steel).
-        deep_solid = (
-            section.shape == "rectangle"
-            and section.depth is not None
-            and section.width is not None
-            and section.depth > section.width
-        )
-        if (section.open_section or deep_solid) and axis == "major":
-            what = "an open section" if section.open_section else "a solid section deeper than wide"
+        # A solid rectangle deeper than wide buckles laterally too; the member check replaces this warning
+        # wherever it makes the lateral-torsional buckling check (steel).
+        if (section.open_section or deep_solid(section)) and axis == "major":
+            what, part = (
+                ("an open section", "flange")
+                if section.open_section
+                else ("a solid section deeper than wide", "edge")
+            )
             out.append(
                 Caution(
                     level="warning",
                     code="lateral-torsional-buckling",
                     message=(
-                        f"Major-axis bending of {what}: lateral-torsional buckling is not checked. Check "
-                        "it, or make sure the compression edge is restrained."
-                        if not section.open_section
-                        else "Major-axis bending of an open section: lateral-torsional buckling is not "
-                        "checked. Check it, or make sure the compression flange is restrained."
+                        f"Major-axis bending of {what}: lateral-torsional buckling is not checked. Check it, "
+                        f"or make sure the compression {part} is restrained."
                     ),
                     source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F; EN 1995-1-1 §6.3.3",
                 )

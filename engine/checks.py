@@ -329,14 +329,14 @@ def check_member(
     out_of_plane : OutOfPlane or None
         The out-of-plane flexural buckling check at this axial force (:mod:`engine.out_of_plane`); its
         N/N_b,Rd joins the strength utilisation.
-
-    Returns
-    -------
-    MemberCheck
     in_plane_bound : float or None
         N/Pcr1 of the plane analysed when it has no bow (:data:`IN_PLANE_ELASTIC_KIND`): without a bow the
         stresses do not see buckling until N reaches Pcr1, and no code's buckling resistance exceeds the
         elastic critical load, so it counts as a bound. None otherwise.
+
+    Returns
+    -------
+    MemberCheck
     """
     g0 = settings.gamma_M0
     N = abs(float(axial_force))

@@ -278,18 +278,11 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
                 reason="a custom section has properties about one axis "
                 "only: out-of-plane buckling cannot be checked (give its Iz to have it checked)",
             )
-        return _custom(case, section, material, length)
+        return _custom(case, section, material, length, _length_reason(settings))
     turned = section_from_spec(dict(case.section if spec is None else spec), other)
     n_cr = math.pi**2 * material.E * turned.I / length**2
-    if material.kind != "steel":  # the elastic critical load is still given, for the cautions and the app
-        return OutOfPlane(
-            checked=False,
-            axis=other,
-            buckling_length=length,
-            N_cr=n_cr,
-            reason=f"{material.kind} material: the buckling curves of EN 1993-1-1 do not apply, so the "
-            "code's out-of-plane buckling check is not made",
-        )
+    if material.kind != "steel":
+        return _without_curves(material, other, length, n_cr)
     curve, why = curve_of(turned, material)  # turned is about the other axis
     if curve is None:  # pragma: no cover - every steel shape but custom has a curve
         return OutOfPlane(checked=False, axis=other, reason=f"no buckling curve: {why}")
@@ -314,24 +307,36 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         curve=curve,
         curve_reason=why,
         note=note,
-        reason=("given" if settings.buckling_length is not None else "the member length (default)"),
+        reason=_length_reason(settings),
     )
 
 
-def _custom(case, section, material, length) -> OutOfPlane:
+def _length_reason(settings) -> str:
+    """Where L_cr comes from, as a checked result says it."""
+    return "given" if settings.buckling_length is not None else "the member length (default)"
+
+
+def _without_curves(material, axis, length, n_cr) -> OutOfPlane:
+    """A material without EN 1993-1-1's curves: not checked, but its elastic critical load is kept (the bound
+    N/N_cr that the member check counts, and the cautions)."""
+    return OutOfPlane(
+        checked=False,
+        axis=axis,
+        buckling_length=length,
+        N_cr=n_cr,
+        reason=f"{material.kind} material: the buckling curves of EN 1993-1-1 do not apply, so the code's "
+        "out-of-plane buckling check is not made",
+    )
+
+
+def _custom(case, section, material, length, reason) -> OutOfPlane:
     """A custom section bent about its major axis that gives Iz: N_cr = π²E·Iz/L_cr² about the minor axis;
     steel is checked with curve d, the most unfavourable of EN 1993-1-1 Table 6.2 (the table has no row for
-    an arbitrary section, and any other curve gives a larger χ), another material gets the bound N/N_cr."""
+    an arbitrary section, and any other curve gives a larger χ), another material gets the bound N/N_cr;
+    ``reason`` says where L_cr comes from."""
     n_cr = math.pi**2 * material.E * section.I_minor / length**2
     if material.kind != "steel":
-        return OutOfPlane(
-            checked=False,
-            axis="minor",
-            buckling_length=length,
-            N_cr=n_cr,
-            reason=f"{material.kind} material: the buckling curves of EN 1993-1-1 do not apply, so the "
-            "code's out-of-plane buckling check is not made",
-        )
+        return _without_curves(material, "minor", length, n_cr)
     lam = codes.slenderness(section.A, material.fy, n_cr)
     chi = codes.reduction_factor(lam, "d")
     return OutOfPlane(
@@ -344,11 +349,7 @@ def _custom(case, section, material, length) -> OutOfPlane:
         N_b_Rd=chi * section.A * material.fy / case.check.gamma_M1,
         curve="d",
         curve_reason="a custom section: curve d, the most unfavourable of Table 6.2, with its Iz",
-        reason=(
-            "given"
-            if (case.out_of_plane and case.out_of_plane.buckling_length)
-            else "the member length (default)"
-        ),
+        reason=reason,
     )
 
 

@@ -116,6 +116,13 @@ class Prepared:
             self._design[compression] = found
         return self._design[compression]
 
+    def elastic_bound(self, P: float) -> float | None:
+        """N/Pcr1 of this plane when it has no bow and is compressed (the member check's ``in_plane_bound``:
+        without a bow the stresses do not see buckling until Pcr1), else None."""
+        if P <= 0.0 or self.has_bow:
+            return None
+        return P / float(self.buckling.critical_loads[0])
+
     def out_of_plane(self):
         """The out-of-plane buckling resistance (independent of the axial force), cached."""
         if "out_of_plane" not in self._design:

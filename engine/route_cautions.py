@@ -10,6 +10,7 @@ import math
 
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.cautions import Caution
+from engine.member_routes import LTB_ELASTIC
 
 __all__ = ["ROUTES_DISAGREE", "with_route_cautions"]
 
@@ -46,7 +47,7 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
     if ltb is not None and ltb_check is not None and ltb_check.reason:
         message = given[ltb].message
         second = next((r for r in routes if r.route == "second-order"), None)
-        bound = None if second is None else (second.terms or {}).get("lateral-torsional-elastic")
+        bound = None if second is None else (second.terms or {}).get(LTB_ELASTIC)
         if bound is not None:  # a material without the check: its M_cr still bounds (engine.member_routes)
             message += (
                 " Its elastic critical moment bounds any code's resistance: M_y,II/M_cr = "

@@ -142,20 +142,20 @@ def load_ratio_text(result) -> str:
     pcr1 = float(pcr[0])
     if result.axial_force == 0 or not finite(pcr1) or pcr1 <= 0:
         return ""
-    return f"N/Pcr1 = {result.axial_force / pcr1:.3f}" + (f" ({plane.removeprefix(', ')})" if plane else "")
+    return f"N/Pcr1 = {result.axial_force / pcr1:.3f}" + (f" ({plane})" if plane else "")
 
 
 def alpha_text(result) -> str:
     """α_cr = Pcr1/N, or why there is none (the member's: in a two-plane case the lower plane's, named)."""
     if result.axial_force > 0:
         _, plane = _lower_plane(result)
-        return ratio(result.alpha_cr) + (f" ({plane.removeprefix(', ')})" if plane else "")
+        return ratio(result.alpha_cr) + (f" ({plane})" if plane else "")
     return "∞ (no compression)"
 
 
 def _lower_plane(result) -> tuple:
-    """(critical loads, ", bending about the … axis") of the plane whose first critical load is the lower;
-    the words are "" for a one-plane case."""
+    """(critical loads, "bending about the … axis") of the plane whose first critical load is the lower; the
+    words are "" for a one-plane case."""
     pcr = np.asarray(result.critical_loads, dtype=float)
     second = getattr(result, "second_plane", None)
     if second is None:
@@ -163,8 +163,8 @@ def _lower_plane(result) -> tuple:
     own, other = plane_axes(result)
     lower = np.asarray(second.critical_loads, dtype=float)
     if lower[0] < pcr[0]:
-        return lower, f", bending about the {plane_name(other)}"
-    return pcr, f", bending about the {plane_name(own)}"
+        return lower, f"bending about the {plane_name(other)}"
+    return pcr, f"bending about the {plane_name(own)}"
 
 
 def _bow_quantity(U: Units, name: str, value: float) -> str:
@@ -283,6 +283,7 @@ def status_message(result, U: Units) -> str:
     # The member's status is the worse plane's: worded with the critical loads of the plane whose first
     # critical load is the lower, that plane named.
     pcr, plane = _lower_plane(result)
+    plane = f", {plane}" if plane else ""
 
     def force(value):
         return U.show("force", value, 5)

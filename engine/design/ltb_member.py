@@ -57,6 +57,7 @@ from engine.custom_section import missing_for_ltb
 from engine.design import ltb
 from engine.design.mcr import HeldAxial, critical_moment
 from engine.loads import LinearLoad, PointLoad, UniformLoad
+from engine.sections import deep_solid
 
 __all__ = ["SOURCES", "TORSION_FACTORS", "LtbCheck", "check", "not_applied"]
 
@@ -288,11 +289,7 @@ def check(
     vs = None if V is None else np.asarray(V, dtype=float)
     M_Ed = float(np.max(np.abs(ms))) if ms.size else 0.0
     sy, sz = section_y, section_z
-    # A solid rectangle bent about its stronger axis buckles laterally like a deep beam (a flat bar, a
-    # timber joist; Timoshenko & Gere 1961 §6.2, narrow rectangular beam): only when it is no stronger in
-    # the plane of bending than across it (a square, or bent about its weaker axis) does it not.
-    narrow = sy.shape == "rectangle" and sz is not None and sy.I > sz.I * (1.0 + 1e-9)
-    if (sy.shape in ("rhs", "chs", "rectangle", "round") or not sy.open_section) and not narrow:
+    if (sy.shape in ("rhs", "chs", "rectangle", "round") or not sy.open_section) and not deep_solid(sy):
         return not_applied("closed-or-solid", settings, M_Ed)
     if M_Ed == 0.0:
         return not_applied("no-major-moment", settings, M_Ed)
