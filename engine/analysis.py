@@ -226,7 +226,7 @@ def _build(
         else:
             check = member_check(
                 member,
-                prep.section_class(P > 0),
+                prep.section_class(P),
                 x=x,
                 axial_force=P,
                 moment=M,

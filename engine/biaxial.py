@@ -53,7 +53,7 @@ from engine.checks import (
     MemberCheck,
     method_used,
 )
-from engine.classification import eq_5_9_modulus
+from engine.classification import compression_area, eq_5_9_modulus, worse_class
 from engine.codes import plastic_interaction, shear_reduction
 from engine.solver.model import Points
 
@@ -239,13 +239,14 @@ def check_biaxial(
     V_Rd_z = section_y.A_v * fy / (root3 * g0) if steel_like else None
     V_Rd_y = section_z.A_v * fy / (root3 * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
+        area = compression_area(section_y, section_class, float(axial_force))  # A_eff: class 4 in compression
         if method == "elastic":
-            N_Rd = section_y.A * fc / g0
+            N_Rd = area * fc / g0
             M_Rd_y, M_Rd_z = section_y.W_el * fy / g0, section_z.W_el * fy / g0
             ab = N / N_Rd + My / M_Rd_y + Mz / M_Rd_z
             kind_ab = ELASTIC_KIND
         else:
-            N_Rd = section_y.A * fy / g0
+            N_Rd = area * fy / g0
             M_Rd_y, M_Rd_z = section_y.W_pl * fy / g0, section_z.W_pl * fy / g0
             n = N / N_Rd
             reduced_y = plastic_interaction(shape=shape, axis="major", n=n, a=section_y.interaction_a)
@@ -269,7 +270,7 @@ def check_biaxial(
             g1 = settings.gamma_M1
             W_y = eq_5_9_modulus(section_y, material, settings.method)
             W_z = eq_5_9_modulus(section_z, material, settings.method)
-            linear = N * g1 / (section_y.A * fy) + My * g1 / (W_y * fy) + Mz * g1 / (W_z * fy)
+            linear = N * g1 / (area * fy) + My * g1 / (W_y * fy) + Mz * g1 / (W_z * fy)
             ab_section = ab
             ab = np.maximum(ab, linear)
     if axial_bending_only:
@@ -295,7 +296,8 @@ def check_biaxial(
         where = 0.5 * float(x[-1] + x[0])
     valid = True
     bent = float(My.max(initial=0.0)) > 0.0 or float(Mz.max(initial=0.0)) > 0.0
-    if klass == 4 and (N > 0 or bent):  # as engine.checks.check_member: compression or bending
+    effective = section_class is not None and section_class.effective and float(axial_force) > 0.0
+    if klass == 4 and not effective and (N > 0 or bent):  # as engine.checks.check_member
         kind, value, source, valid = "class 4 section", math.inf, section_class.source, False
     if beyond_critical:
         kind, value, valid = "elastic buckling", math.inf, False
@@ -423,7 +425,8 @@ def pair_check(case, P, planes):
         return arranged(xs, m_a, v_a, m_b, v_b)
 
     s1, s2 = prep1.member.section, prep2.member.section
-    classes = [c for c in (prep1.section_class(P > 0), prep2.section_class(P > 0)) if c is not None]
+    # both planes are analysed: the web is in bending and compression in either view
+    classes = [c for c in (prep1.section_class(P, True), prep2.section_class(P, True)) if c is not None]
     presets = (case.imperfection.preset, case.second_plane_case().imperfection.preset)
     fixed = {
         "axial_force": P,
@@ -431,7 +434,7 @@ def pair_check(case, P, planes):
         "section_z": s2 if major_first else s1,
         "material": prep1.member.material,
         "settings": case.check,
-        "section_class": max(classes, key=lambda c: c.klass) if classes else None,
+        "section_class": worse_class(classes) if classes else None,
         "eq_5_9": "en1993-eq-5.9" in presets,
     }
 

@@ -203,7 +203,7 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             route=route,
         )
 
-    compressed_class = classify(probe.section, probe.material, compression=True)
+    compressed_class = classify(probe.section, probe.material, compression=True, axial_force=1e-9 * top)
     if (
         compressed_class is not None
         and compressed_class.klass == 4

@@ -61,7 +61,7 @@ GENERAL = Caution(
         "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
         "torsion, non-symmetric sections, lateral-torsional buckling where a caution says so, web shear "
         "buckling (EN 1993-1-5), "
-        "class 4 sections, connections and load combinations are not checked. Check the results "
+        "most class 4 sections, connections and load combinations are not checked. Check the results "
         "against your local codes and have them reviewed by a licensed engineer."
     ),
     source="strutscope's scope (common practice, no source)",
@@ -117,6 +117,22 @@ def _class_cautions(check) -> list:
     found = None if check is None else check.section_class
     if found is None:
         return [_UNCLASSIFIED]
+    if found.effective:  # A_eff is only known under compression
+        return [
+            Caution(
+                level="warning",
+                code="section-class-4-effective",
+                message=(
+                    f"The section is {found.describe()}. It is checked with effective properties: the "
+                    "effective area of EN 1993-1-5 §4.4 for the axial force and W_eff = W_el for bending "
+                    "(the section is class 1 to 3 in bending alone), EN 1993-1-1 eq. (6.44) with e_N = 0 "
+                    "(doubly symmetric), and the equivalent member by its class 3 rules. Local buckling of "
+                    "the effective section under the combined stresses (EN 1993-1-5 §4.6) is not checked."
+                ),
+                source="EN 1993-1-1:2005 §6.2.9.3 eq. (6.44) and EN 1993-1-5:2006 §4.4 (clauses from memory)",
+                values={"A_eff": found.A_eff, "A": found.area},
+            )
+        ]
     if found.klass == 4:
         return [
             Caution(
@@ -129,6 +145,21 @@ def _class_cautions(check) -> list:
                     "section or check it by other means."
                 ),
                 source=found.source,
+            )
+        ]
+    if found.A_eff is not None:
+        return [
+            Caution(
+                level="info",
+                code="section-effective-area",
+                message=(
+                    f"The section is {found.describe()}. Its resistance to the axial force, in the "
+                    "cross-section and in the buckling checks, uses the effective area of EN 1993-1-5 §4.4 "
+                    "for uniform compression; its bending resistance uses the class in bending and "
+                    "compression (α from N)."
+                ),
+                source="EN 1993-1-1:2005 §6.2.2.5 and EN 1993-1-5:2006 §4.4 (clauses from memory)",
+                values={"A_eff": found.A_eff, "A": found.area},
             )
         ]
     # Classes 1 to 3 are reported with the member check (check.section_class); class 3 with the plastic method

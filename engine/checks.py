@@ -29,7 +29,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from engine.classification import eq_5_9_modulus
+from engine.classification import compression_area, eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
 from engine.design.ltb import LtbSettings
 from engine.design.routes import ROUTES
@@ -348,13 +348,14 @@ def check_member(
     klass = section_class.klass if section_class is not None else None
     V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
+        area = compression_area(section, section_class, float(axial_force))  # A_eff: class 4 in compression
         if method == "elastic":
-            N_Rd = section.A * fc / g0
+            N_Rd = area * fc / g0
             M_Rd = section.W_el * fy / g0
             ab = N / N_Rd + M / M_Rd
             kind_ab = "elastic stress"
         else:
-            N_Rd = section.A * fy / g0
+            N_Rd = area * fy / g0
             M_Rd = section.W_pl * fy / g0
             n = N / N_Rd
             if section.shape == "rectangle":
@@ -369,7 +370,7 @@ def check_member(
         sh = V / V_Rd if V_Rd is not None else np.zeros_like(V)
         linear = None
         if route == "eq-5.9" and float(axial_force) > 0:  # a stability check: compression only
-            linear = _eq_5_9_linear(N, M, section, material, settings)
+            linear = _eq_5_9_linear(N, M, section, material, settings, area)
             ab_section = ab
             ab = np.maximum(ab, linear)
     if linear is not None:
@@ -408,7 +409,10 @@ def check_member(
     valid = True
     # Class 4 under the forces present (compression, or bending: a web or flange that buckles locally in
     # its compressed part): the gross-section resistance is not valid. The danger caution says why.
-    if klass == 4 and (N > 0 or float(M.max(initial=0.0)) > 0.0):
+    # A class 4 section in compression whose effective area is known and that is class 1 to 3 in bending is
+    # checked by eq. (6.44) with A_eff and W_eff = W_el: the elastic check above (SectionClass.effective).
+    effective = section_class is not None and section_class.effective and float(axial_force) > 0.0
+    if klass == 4 and not effective and (N > 0 or float(M.max(initial=0.0)) > 0.0):
         kind = s_kind = "class 4 section"
         value = s_value = math.inf
         source = section_class.source
@@ -443,11 +447,12 @@ def check_member(
     )
 
 
-def _eq_5_9_linear(N, M, section, material, settings):
-    """N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) at every station, with the M_Rk of eq. (5.10) [-]."""
+def _eq_5_9_linear(N, M, section, material, settings, area):
+    """N/(N_Rk/γ_M1) + M/(M_Rk/γ_M1) at every station, with the M_Rk of eq. (5.10) and N_Rk = area·f_y (A_eff
+    for a section class 4 in uniform compression, as the bow of eq. (5.9) took it) [-]."""
     g1 = settings.gamma_M1
     W = eq_5_9_modulus(section, material, settings.method)
-    return N * g1 / (section.A * material.fy) + M * g1 / (W * material.fy)
+    return N * g1 / (area * material.fy) + M * g1 / (W * material.fy)
 
 
 def _eq_5_9_note(asked: str, used: str, g1: float) -> str:

@@ -14,18 +14,32 @@ circular hollow section, d/t                  50 ε²              70 ε²      
 
 A part beyond its class 3 limit is class 4; the section takes the class of its worst part.
 
-How the stresses are taken (strutscope's choice, conservative; written down in DEVELOPERS.md):
+For a part in bending and compression Table 5.2 gives, with α the compressed fraction of c in the plastic
+stress distribution and ψ the ratio of the end stresses in the elastic one (from memory):
 
-- the web of an I/H (and the walls of a hollow section that lie in the plane of bending) under **any
-  compression** is classified with the pure-compression limits, not the α/ψ forms of Table 5.2 for combined
-  N + M: the bending moment varies along the member and is small near a pinned end, where the web is nearly in
-  uniform compression, and the pure-compression limits are the strictest of the α/ψ family. Without
-  compression these parts are classified in pure bending (the 72ε/83ε/124ε limits), which is conservative
-  under tension;
+- class 1: c/t ≤ 396ε/(13α − 1) when α > 0.5, 36ε/α otherwise; class 2: 456ε/(13α − 1), 41.5ε/α;
+- class 3: c/t ≤ 42ε/(0.67 + 0.33ψ) when ψ > −1.
+
+How the stresses are taken (strutscope's choice; written down in DEVELOPERS.md):
+
+- the web of an I/H bent about its major axis (and the walls of a hollow section that lie in the plane of
+  bending) under an axial compression N is classified **in bending and compression** when N is given: the web
+  carries N and the flanges are at ±f_y, the plastic distribution at which the section reaches the reduced
+  plastic moment M_N,Rd the check compares M_Ed with, so α = ½(1 + N/(n c t f_y)) ≤ 1 with n the number of
+  webs (common practice for rolled and welded I/H and for RHS; from memory). The class 3 limit is taken at
+  ψ = 1 (42ε, the pure-compression limit and the strictest of the ψ family): the moment varies along the
+  member and vanishes near a pinned end, where the web is in uniform compression. Without N given, the
+  pure-compression limits are used (α = 1). Without compression these parts are classified in pure bending
+  (the 72ε/83ε/124ε limits), which is conservative under tension;
+- wherever a section is class 4 **in uniform compression**, its resistance to N uses the effective area
+  :func:`effective_area` (EN 1993-1-5 §4.4), even where the web is class 1 to 3 in bending and compression:
+  the axial force and the buckling resistance are then never taken on more area than the code allows in pure
+  compression (conservative; DEVELOPERS.md, decisions log);
 - the flanges (the outstands of an I/H, the walls of a hollow section perpendicular to the plane of bending)
   are always classified in uniform compression: one of them is compressed by the bending;
 - the web of an I/H bent about its minor axis lies on the neutral axis: it is classified in compression when
-  there is an axial compression, and left out otherwise;
+  there is an axial compression (in bending and compression, as above, when the member also bends about its
+  major axis, ``web_bent``), and left out otherwise;
 - the flat width is c = h − 2t_f − 2r (web) and (b − t_w − 2r)/2 (outstand) for rolled I/H, c = h − 2t_f and
   (b − t_w)/2 for welded ones (the welds left out, conservative), and c = side − 3t for every hollow section
   (common practice for the flat of hot-finished corners, conservative for cold-formed ones; from memory);
@@ -35,6 +49,7 @@ How the stresses are taken (strutscope's choice, conservative; written down in D
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
@@ -44,9 +59,13 @@ __all__ = [
     "Part",
     "SectionClass",
     "classify",
+    "combined_limits",
+    "compression_area",
+    "effective_area",
     "epsilon",
     "eq_5_9_modulus",
     "web_shear_slenderness",
+    "worse_class",
 ]
 
 #: Table 5.2 limits for classes 1, 2, 3 (from memory): c/t in units of ε, or d/t in units of ε² for a CHS.
@@ -76,6 +95,8 @@ class Part:
         The class 1, 2 and 3 limits of the ratio [-] (ε or ε² applied).
     klass : int
         1 to 4.
+    alpha : float or None
+        α of Table 5.2 for a part in bending and compression [-], None for the other rows.
     """
 
     name: str
@@ -83,6 +104,7 @@ class Part:
     ratio: float
     limits: tuple
     klass: int
+    alpha: float | None = None
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -99,6 +121,14 @@ class SectionClass:
     basis : str
         The stress distribution assumed, in words.
     source : str
+    A_eff : float or None
+        The effective area in uniform compression [m²] (:func:`effective_area`) of a section classified under
+        compression that is class 4 in uniform compression; None otherwise (the gross area counts).
+    area : float or None
+        The gross area A [m²] beside ``A_eff``.
+    bending_class : int or None
+        Beside ``A_eff``: the section's class in pure bending about its axis (W_eff = W_el when it is 1 to 3);
+        None otherwise.
     """
 
     klass: int
@@ -106,6 +136,21 @@ class SectionClass:
     epsilon: float
     basis: str
     source: str = SOURCE
+    A_eff: float | None = None
+    area: float | None = None
+    bending_class: int | None = None
+
+    @property
+    def effective(self) -> bool:
+        """Class 4 under compression, with its effective area known and class 1 to 3 in pure bending about
+        its axis: checked by EN 1993-1-1 §6.2.9.3 eq. (6.44) with A_eff and W_eff = W_el (e_N = 0: the
+        sections classified here are doubly symmetric), and by the class 3 rules of the equivalent member."""
+        return (
+            self.klass == 4
+            and self.A_eff is not None
+            and self.bending_class is not None
+            and self.bending_class <= 3
+        )
 
     @property
     def governing(self) -> Part | None:
@@ -120,7 +165,11 @@ class SectionClass:
         bound = part.limits[min(part.klass, 3) - 1]
         sign = "<=" if part.klass < 4 else ">"
         what = "d/t" if part.stress == "chs" else "c/t"
-        return f"class {self.klass} ({part.name} {what} = {part.ratio:.1f} {sign} {bound:.1f})"
+        alpha = "" if part.alpha is None else f", α = {part.alpha:.2f}"
+        text = f"class {self.klass} ({part.name} {what} = {part.ratio:.1f} {sign} {bound:.1f}{alpha})"
+        if self.A_eff is not None and self.area:
+            text += f"; class 4 in uniform compression: N on A_eff = {self.A_eff / self.area:.3f}·A"
+        return text
 
 
 def epsilon(fy: float) -> float:
@@ -134,14 +183,102 @@ def epsilon(fy: float) -> float:
     return math.sqrt(235e6 / fy)
 
 
-def _part(name: str, stress: str, ratio: float, eps: float) -> Part:
-    factor = eps * eps if stress == "chs" else eps
-    limits = tuple(value * factor for value in LIMITS[stress])
+def _part(name: str, stress: str, ratio: float, eps: float, limits=None, alpha=None) -> Part:
+    if limits is None:
+        factor = eps * eps if stress == "chs" else eps
+        limits = tuple(value * factor for value in LIMITS[stress])
     klass = next((k + 1 for k, limit in enumerate(limits) if ratio <= limit * (1 + 1e-12)), 4)
-    return Part(name=name, stress=stress, ratio=ratio, limits=limits, klass=klass)
+    return Part(name=name, stress=stress, ratio=ratio, limits=limits, klass=klass, alpha=alpha)
 
 
-def classify(section, material, *, compression: bool) -> SectionClass | None:
+#: The row of Table 5.2 for an internal part in bending and compression.
+COMBINED = "internal bending and compression"
+
+
+def combined_limits(alpha: float, eps: float) -> tuple:
+    """The class 1, 2 and 3 limits of c/t of an internal part in bending and compression, Table 5.2 (from
+    memory): 396ε/(13α − 1) and 456ε/(13α − 1) for α > 0.5 (36ε/α and 41.5ε/α otherwise), and the class 3
+    limit at ψ = 1, 42ε (the module's notes say why).
+
+    >>> [round(v, 3) for v in combined_limits(0.5, 1.0)]  # pure bending's class 1 and 2 limits
+    [72.0, 83.0, 42.0]
+    >>> [round(v, 3) for v in combined_limits(1.0, 1.0)]  # pure compression's
+    [33.0, 38.0, 42.0]
+    """
+    if alpha > 0.5:
+        first, second = 396.0 / (13.0 * alpha - 1.0), 456.0 / (13.0 * alpha - 1.0)
+    else:
+        first, second = 36.0 / alpha, 41.5 / alpha
+    return (first * eps, second * eps, LIMITS["internal compression"][2] * eps)
+
+
+def _web(name, ratio, flat, t, webs, eps, fy, axial_force):
+    """A web in bending and compression: α = ½(1 + N/(webs·c·t·f_y)) ≤ 1 (the web carries N)."""
+    alpha = min(1.0, 0.5 * (1.0 + axial_force / (webs * flat * t * fy)))
+    return _part(name, COMBINED, ratio, eps, combined_limits(alpha, eps), alpha)
+
+
+def _rho_internal(ratio: float, eps: float) -> float:
+    """ρ of an internal part in uniform compression (ψ = 1, k_σ = 4), EN 1993-1-5 §4.4(2) (from memory)."""
+    lam = ratio / (28.4 * eps * 2.0)
+    return 1.0 if lam <= 0.673 else min(1.0, (lam - 0.22) / (lam * lam))
+
+
+def _rho_outstand(ratio: float, eps: float) -> float:
+    """ρ of an outstand in uniform compression (k_σ = 0.43), EN 1993-1-5 §4.4(2) (from memory)."""
+    lam = ratio / (28.4 * eps * math.sqrt(0.43))
+    return 1.0 if lam <= 0.748 else min(1.0, (lam - 0.188) / (lam * lam))
+
+
+def effective_area(section, material) -> float | None:
+    """The area that resists an axial compression [m²]: the gross area A, or, for a steel I/H or RHS that is
+    class 4 in uniform compression (Table 5.2), the effective area of EN 1993-1-5 §4.4 (from memory):
+
+    .. math:: A_{eff} = A - \\sum (1 - \\rho)\\, c\\, t
+
+    over the plates, with ρ = (λ̄_p − 0.22)/λ̄_p² for internal parts (k_σ = 4) and (λ̄_p − 0.188)/λ̄_p² for
+    outstands (k_σ = 0.43), λ̄_p = (c/t)/(28.4 ε √k_σ), ρ ≤ 1 (b̄ = c, the flat width of this module). The
+    section is doubly symmetric, so the effective area has no shift of its centroid (e_N = 0). None for a
+    class 4 CHS (its effective area is outside EN 1993-1-5) or a section not classified here.
+
+    >>> from engine.materials import material_from_spec
+    >>> from engine.sections import section_from_spec
+    >>> ipe = section_from_spec({"name": "IPE 300"}, "major")
+    >>> round(effective_area(ipe, material_from_spec({"name": "S355"}, 0.0107)) / ipe.A, 4)
+    0.9792
+    """
+    found = _classify(section, material, True, None, None)
+    if found is None:
+        return None
+    if found.klass < 4 or not found.parts:
+        return section.A
+    dims, eps = section.dimensions, found.epsilon
+    shape, area = section.shape, section.A
+    if shape in ("rolled_i", "welded_i"):
+        h, b, tw, tf = dims["h"], dims["b"], dims["tw"], dims["tf"]
+        r = dims.get("r", 0.0) if shape == "rolled_i" else 0.0
+        web, outstand = h - 2 * tf - 2 * r, (b - tw - 2 * r) / 2
+        area -= (1.0 - _rho_internal(web / tw, eps)) * web * tw
+        area -= 4.0 * (1.0 - _rho_outstand(outstand / tf, eps)) * outstand * tf
+    elif shape == "rhs":
+        t = dims["t"]
+        for side in (dims["h"], dims["b"]):
+            flat = side - 3 * t
+            area -= 2.0 * (1.0 - _rho_internal(flat / t, eps)) * flat * t
+    else:
+        return None
+    return area
+
+
+def compression_area(section, section_class, axial_force: float) -> float:
+    """The area of the section's resistance to ``axial_force`` [N] (compression positive): the effective area
+    in uniform compression where ``section_class`` holds one and N is a compression, else the gross area."""
+    if axial_force > 0.0 and section_class is not None and section_class.A_eff is not None:
+        return section_class.A_eff
+    return section.A
+
+
+def classify(section, material, *, compression: bool, axial_force=None, web_bent=None) -> SectionClass | None:
     """The class of ``section`` of ``material`` by EN 1993-1-1 Table 5.2, or None where it does not apply.
 
     Parameters
@@ -152,29 +289,55 @@ def classify(section, material, *, compression: bool) -> SectionClass | None:
         Only steel is classified.
     compression : bool
         Whether the member carries an axial compression (see the module's notes on the stresses assumed).
+    axial_force : float or None
+        The compression N [N]: webs are then classified in bending and compression (α from N); None: in
+        uniform compression.
+    web_bent : bool or None
+        Whether the member bends about the major axis of an I/H, so that its web is in bending and compression
+        and not in uniform compression; None: when ``section`` is about its major axis.
 
     Returns
     -------
     SectionClass or None
         None for a custom section, a section without its dimensions, or a material other than steel.
+        Under compression it holds the effective area where the section is class 4 in uniform compression.
     """
+    found = _classify(section, material, compression, axial_force, web_bent)
+    if found is None or not compression:
+        return found
+    area = effective_area(section, material)
+    if area is None or area >= section.A:
+        return found
+    bending = _classify(section, material, False, None, None)
+    return dataclasses.replace(found, A_eff=area, area=section.A, bending_class=bending.klass)
+
+
+def _classify(section, material, compression, axial_force, web_bent) -> SectionClass | None:
     if material is None or section is None or material.kind != "steel":
         return None
     eps = epsilon(material.fy)
     shape, dims = section.shape, dict(section.dimensions or {})
+    combined = compression and axial_force is not None and axial_force > 0.0
+    if web_bent is None:
+        web_bent = section.axis == "major"
     web_stress = "internal compression" if compression else "internal bending"
     basis = (
         "webs taken in pure compression under axial compression (conservative)"
         if compression
         else "webs taken in pure bending without axial compression"
     )
+    if combined:
+        basis = "webs in bending and compression, α from N; class 3 limit at ψ = 1 (conservative)"
     parts = []
     try:
         if shape in ("rolled_i", "welded_i"):
             h, b, tw, tf = dims["h"], dims["b"], dims["tw"], dims["tf"]
             r = dims.get("r", 0.0) if shape == "rolled_i" else 0.0
-            web = (h - 2 * tf - 2 * r) / tw
-            if section.axis == "major":
+            flat = h - 2 * tf - 2 * r
+            web = flat / tw
+            if combined and web_bent:
+                parts.append(_web("web", web, flat, tw, 1, eps, material.fy, axial_force))
+            elif section.axis == "major":
                 parts.append(_part("web", web_stress, web, eps))
             elif compression:
                 parts.append(_part("web", "internal compression", web, eps))
@@ -182,7 +345,11 @@ def classify(section, material, *, compression: bool) -> SectionClass | None:
         elif shape == "rhs":
             h, b, t = dims["h"], dims["b"], dims["t"]
             in_plane, across = (h, b) if section.axis == "major" else (b, h)
-            parts.append(_part("side wall (web)", web_stress, (in_plane - 3 * t) / t, eps))
+            flat = in_plane - 3 * t
+            if combined:
+                parts.append(_web("side wall (web)", flat / t, flat, t, 2, eps, material.fy, axial_force))
+            else:
+                parts.append(_part("side wall (web)", web_stress, flat / t, eps))
             flange = (across - 3 * t) / t
             parts.append(_part("compression wall (flange)", "internal compression", flange, eps))
         elif shape == "chs":
@@ -246,3 +413,14 @@ def web_shear_slenderness(section, material, axis: str) -> tuple[float, float] |
     else:
         return None
     return web / thickness, WEB_SHEAR_LIMIT * epsilon(material.fy)
+
+
+def worse_class(classes) -> SectionClass:
+    """The worse of the classes of one section about its two axes (non-empty). A class 4 section is checked
+    with effective properties (:attr:`SectionClass.effective`) only when it is class 1 to 3 in bending about
+    every axis given."""
+    worst = max(classes, key=lambda c: c.klass)
+    if worst.klass == 4 and worst.A_eff is not None:
+        bending = [c.bending_class for c in classes]
+        worst = dataclasses.replace(worst, bending_class=None if None in bending else max(bending))
+    return worst

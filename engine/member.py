@@ -40,7 +40,7 @@ import numpy as np
 
 from engine import codes
 from engine.case import Imperfection
-from engine.classification import eq_5_9_modulus
+from engine.classification import effective_area, eq_5_9_modulus
 from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.imperfections import Bow, bow_for
@@ -377,13 +377,16 @@ def resolve(case):
                 )
             first = critical_loads(plain, 1)
             pcr1 = float(first.critical_loads[0])
-            lam = codes.slenderness(section.A, material.fy, pcr1)
+            # A_eff for a section class 4 in uniform compression (λ̄ and N_Rk of eq. (5.9); EN 1993-1-5 §4.4)
+            area = effective_area(section, material)
+            area = section.A if area is None else area
+            lam = codes.slenderness(area, material.fy, pcr1)
             W = eq_5_9_modulus(section, material, method)
             e0 = codes.eq_5_9_amplitude(
                 curve=curve,
                 lambda_bar=lam,
                 M_Rk=W * material.fy,
-                N_Rk=section.A * material.fy,
+                N_Rk=area * material.fy,
                 gamma_M1=case.check.gamma_M1,
             )
             # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1;

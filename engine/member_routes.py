@@ -25,7 +25,7 @@ from engine import segment_routes
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.buckling_interaction import conservative, larger
 from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
-from engine.classification import classify
+from engine.classification import classify, worse_class
 from engine.design import aisc_member, en_member, ltb_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
@@ -339,11 +339,7 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     y, z = _planes(result, bow_free_moment, out_of_plane, cache)
     N = float(result.axial_force)
 
-    def worse_class():
-        classes = [classify(p.section, material, compression=N > 0) for p in (y, z)]
-        return None if None in classes else max(classes, key=lambda c: c.klass)
-
-    klass = _made(cache, ("routes-class", N > 0), worse_class)
+    klass = _worse_class((y.section, z.section), material, N, _bends_major(result))
     beyond = result.status != "stable"
     found = lateral_torsional(result, y, klass, cache)
     major = _major(result)
@@ -394,21 +390,35 @@ def _stepped_ltb(result, segments, cache):
     N = float(result.axial_force)
     found = []
     for segment in segments:
-        klass = _segment_class(segment, N, cache)
+        klass = _segment_class(segment, N, cache, _bends_major(result))
         found.append(lateral_torsional(result, None, klass, cache, segment=segment))
     applied = [f for f in found if f is not None and f.applies]
     return (min(applied, key=lambda f: f.M_b_Rd) if applied else found[0]), found
 
 
-def _segment_class(segment, N, cache):
-    """The worse class of a segment's section about both axes (cached per section and sign of N)."""
+def _bends_major(result) -> bool:
+    """Whether the member bends about the major axis (a major-axis case, or two planes): the web of an I/H
+    is then in bending and compression (:func:`engine.classification.classify`, ``web_bent``)."""
+    return result.case.axis == "major" or getattr(result, "second_plane", None) is not None
 
-    def classes():
-        z = section_from_spec(dict(segment.spec), "minor")
-        both = [classify(p, segment.material, compression=N > 0) for p in (segment.section, z)]
-        return None if None in both else max(both, key=lambda c: c.klass)
 
-    return _made(cache, ("routes-class", segment.spec, N > 0), classes)
+def _worse_class(sections, material, N, web_bent):
+    """The worse class of the section about both axes at axial force N (webs in bending and compression,
+    α from N, under compression); None when either view is not classified. Not cached: it depends on N, and
+    a drag asks each N once."""
+    force = N if N > 0 else None
+    classes = [
+        classify(p, material, compression=N > 0, axial_force=force, web_bent=web_bent) for p in sections
+    ]
+    return None if None in classes else worse_class(classes)
+
+
+def _segment_class(segment, N, cache, web_bent=True):
+    """The worse class of a segment's section about both axes at axial force N (the section about the
+    minor axis cached per section)."""
+    key = ("routes-minor-section", segment.spec)
+    z = _made(cache, key, lambda: section_from_spec(dict(segment.spec), "minor"))
+    return _worse_class((segment.section, z), segment.material, N, web_bent)
 
 
 def _segment_interaction(result, segment, ltb, out_of_plane, cache):
@@ -424,8 +434,8 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
         return None
     case, N = result.case, float(result.axial_force)
     first_axis = "y" if case.axis == "major" else "z"
-    klass = _segment_class(segment, N, cache)
-    if klass is None or klass.klass == 4:
+    klass = _segment_class(segment, N, cache, _bends_major(result))
+    if klass is None or klass.klass == 4 and not klass.effective:
         return None
     diagram = _made(cache, ("routes-diagram", "first"), lambda: _diagram(result, case))
     first = Plane(

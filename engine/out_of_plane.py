@@ -10,7 +10,9 @@ check for it:
     \bar\lambda_o = \sqrt{\frac{A f_y}{N_{cr,o}}}, \quad
     N_{b,o,Rd} = \frac{\chi_o A f_y}{\gamma_{M1}}, \quad \frac{N_{Ed}}{N_{b,o,Rd}} \le 1
 
-with :math:`\chi_o` of eq. (6.49) for the buckling curve of EN 1993-1-1 Table 6.2 about that axis, and
+(:math:`A_{eff}` of EN 1993-1-5 §4.4 in place of :math:`A` for a section that is class 4 in uniform
+compression, :func:`engine.classification.effective_area`), with :math:`\chi_o` of eq. (6.49) for the
+buckling curve of EN 1993-1-1 Table 6.2 about that axis, and
 :math:`L_{cr,o}` the case's ``out_of_plane.buckling_length`` (default: the member length, pin-ended about the
 other axis). ``{"restrained": true}`` says that out-of-plane buckling is prevented (the check is then left
 out, and the result says so). The stiffness factor of the case is not applied: it belongs to the in-plane
@@ -34,6 +36,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from engine import codes
+from engine.classification import effective_area
 from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.sections import section_from_spec
@@ -241,7 +244,8 @@ def _stepped(case, segments) -> OutOfPlane:
     n_cr = found[weakest].N_cr
     out = []
     for seg, one, f in zip(segments, turned, found, strict=True):
-        lam = codes.slenderness(one.A, seg.material.fy, n_cr)
+        area, _ = _area(one, seg.material)
+        lam = codes.slenderness(area, seg.material.fy, n_cr)
         chi = codes.reduction_factor(lam, f.curve)
         out.append(
             dataclasses.replace(
@@ -249,7 +253,7 @@ def _stepped(case, segments) -> OutOfPlane:
                 N_cr=n_cr,
                 lambda_bar=lam,
                 chi=chi,
-                N_b_Rd=chi * one.A * seg.material.fy / case.check.gamma_M1,
+                N_b_Rd=chi * area * seg.material.fy / case.check.gamma_M1,
                 reason=f"{f.reason}; stepped in section: N_cr with the smallest I about the {other} axis "
                 "of the segments, each segment's χ·A·f_y, the smallest governs",
             )
@@ -294,7 +298,8 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
             "if it is free out of plane too, L_cr is up to 2L (a cantilever). Give "
             "out_of_plane.buckling_length."
         )
-    lam = codes.slenderness(turned.A, material.fy, n_cr)
+    area, effective = _area(turned, material)
+    lam = codes.slenderness(area, material.fy, n_cr)
     chi = codes.reduction_factor(lam, curve)
     return OutOfPlane(
         checked=True,
@@ -303,12 +308,22 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         N_cr=n_cr,
         lambda_bar=lam,
         chi=chi,
-        N_b_Rd=chi * turned.A * material.fy / case.check.gamma_M1,
+        N_b_Rd=chi * area * material.fy / case.check.gamma_M1,
         curve=curve,
         curve_reason=why,
         note=note,
-        reason=_length_reason(settings),
+        reason=_length_reason(settings) + effective,
     )
+
+
+def _area(section, material) -> tuple[float, str]:
+    """The area of χ·A·f_y and λ̄ (eqs. 6.47/6.49): the effective area of a section that is class 4 in uniform
+    compression (EN 1993-1-1 §6.3.1.1, A_eff of EN 1993-1-5 §4.4), else the gross area; and a note to add to
+    the reason when the effective area is used."""
+    area = effective_area(section, material)
+    if area is None or area >= section.A:
+        return section.A, ""
+    return area, f"; class 4 in uniform compression: χ·A_eff·f_y with A_eff = {area / section.A:.3f}·A"
 
 
 def _length_reason(settings) -> str:

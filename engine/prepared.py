@@ -100,21 +100,32 @@ class Prepared:
             self._reference[count] = ReferenceData(self.model, seg, xi)
         return self._reference[count]
 
-    def section_class(self, compression: bool):
-        """The EN 1993-1-1 Table 5.2 class of the section (None where not classified), cached; a member
-        stepped in section: a tuple, one class per segment."""
-        if compression not in self._design:
-            member = self.member
-            if member is None:
-                found = None
-            elif member.segments:
-                found = tuple(
-                    classify(s.section, s.material, compression=compression) for s in member.segments
-                )
-            else:
-                found = classify(member.section, member.material, compression=compression)
-            self._design[compression] = found
-        return self._design[compression]
+    def section_class(self, P: float, web_bent=None):
+        """The EN 1993-1-1 Table 5.2 class of the section at axial force ``P`` [N] (compression positive; None
+        where not classified); a member stepped in section: a tuple, one class per segment. Under compression
+        the webs are classified in bending and compression with α from P (:func:`classify`); ``web_bent`` as
+        there. Cached: without compression once, under compression the last force asked (a drag asks each
+        force once, and the classes of a whole session must not pile up)."""
+        key = ("class", P if P > 0.0 else 0.0, web_bent)
+        slot = "class" if P <= 0.0 else "class-compressed"
+        hit = self._design.get(slot)
+        if hit is not None and hit[0] == key:
+            return hit[1]
+        member = self.member
+        force = P if P > 0.0 else None
+        if member is None:
+            found = None
+        elif member.segments:
+            found = tuple(
+                classify(s.section, s.material, compression=P > 0.0, axial_force=force, web_bent=web_bent)
+                for s in member.segments
+            )
+        else:
+            found = classify(
+                member.section, member.material, compression=P > 0.0, axial_force=force, web_bent=web_bent
+            )
+        self._design[slot] = (key, found)
+        return found
 
     def elastic_bound(self, P: float) -> float | None:
         """N/Pcr1 of this plane when it has no bow and is compressed (the member check's ``in_plane_bound``:

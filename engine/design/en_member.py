@@ -11,8 +11,11 @@ What it takes from the engine (everything else is closed form):
   (:mod:`engine.design.diagram`).
 
 Resistances: :math:`N_{Rk} = A f_y`, :math:`M_{Rk} = W_{pl} f_y` (class 1–2) or :math:`W_{el} f_y` (class 3),
-the class the worse of the section's classes about both axes (:mod:`engine.classification`); class 4 and
-unclassified sections, custom sections and materials other than steel: the route is not applied.
+the class the worse of the section's classes about both axes, the webs in bending and compression with α from
+N (:mod:`engine.classification`); a section class 4 in uniform compression but not under N with bending takes
+:math:`N_{Rk} = A_{eff} f_y` and :math:`\bar\lambda = \sqrt{A_{eff} f_y/N_{cr}}` (EN 1993-1-5 §4.4;
+conservative). Class 4 under N with bending, unclassified sections, custom sections and materials other than
+steel: the route is not applied.
 
 Beside eqs. (6.61)/(6.62) the route makes the cross-section checks that an equivalent-member check always
 goes with (EN 1993-1-1 §6.2, from memory): the linear interaction of §6.2.1(7), eq. (6.2),
@@ -39,6 +42,7 @@ import math
 from dataclasses import dataclass
 
 from engine import codes
+from engine.classification import compression_area
 from engine.design import annex_a, annex_b, ltb
 from engine.design.diagram import Diagram, annex_a_factor, annex_b_factor
 from engine.design.routes import RouteCheck
@@ -146,12 +150,13 @@ def route(
     if section_class is None:
         return not_applied("en-member", enabled, "section-not-classified", source)
     klass = section_class.klass
-    if klass == 4:
+    if klass == 4 and not (section_class.effective and N > 0.0):  # effective: the class 3 rules, A_eff
         return not_applied("en-member", enabled, "section-class-4", source)
     g0, g1, fy = settings.gamma_M0, settings.gamma_M1, material.fy
     sy, sz = y.section, z.section
     plastic = klass <= 2
-    N_Rk = sy.A * fy
+    area = compression_area(sy, section_class, N)  # A_eff where class 4 in uniform compression (conservative)
+    N_Rk = area * fy
     My_Rk = (sy.W_pl if plastic else sy.W_el) * fy
     Mz_Rk = (sz.W_pl if plastic else sz.W_el) * fy
     My, Mz = y.diagram.M_max, z.diagram.M_max
@@ -188,7 +193,7 @@ def route(
         terms["lateral-torsional"] = My / M_b if M_b > 0.0 else math.inf
     for p in (y, z):
         curve = p.curve if p.curve is not None else curve_of(p.section, material)[0]
-        lam = 0.0 if math.isinf(p.N_cr) else codes.slenderness(p.section.A, fy, p.N_cr)
+        lam = 0.0 if math.isinf(p.N_cr) else codes.slenderness(area, fy, p.N_cr)
         facts[f"curve_{p.axis}"] = curve
         facts[f"N_cr_{p.axis}"] = p.N_cr
         facts[f"N_cr_{p.axis}_source"] = p.N_cr_source

@@ -16,7 +16,11 @@ buckling is not checked (the cautions column of 4 more rows); no steel row chang
 when such a timber member's M_y,II/M_cr (the exact M_cr, which bounds any code's resistance) began to count
 as a bound: the `ltb` column of every timber row bent about its major axis, and the utilisation of 14
 generated rows (unbounded where N exceeds N_cr,z, as no lateral stiffness is left; one from 0.93 to 2.62, its
-capacity 0: the transverse load alone exceeds M_cr). And a hypothesis-drawn
+capacity 0: the transverse load alone exceeds M_cr). Again at stop 27, when webs under N with bending
+began to be classified with α from N and a section class 4 in uniform compression began to resist N on its
+effective area: 30 generated rows, every one an IPE in S355 (IPE 300 and 400, class 4 in uniform compression;
+IPE 200 class 2 → 1), 25 of them from unbounded to a finite utilisation and capacity; no utilisation
+grew, and no other row changed beyond rounding (only those 30 lines were rewritten). And a hypothesis-drawn
 table solved twice in this process, once as the product does it and once with the capacity finder as it was
 before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
 afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.

@@ -87,37 +87,43 @@ def test_chs_limit_uses_epsilon_squared():
 
 
 def test_class_4_is_not_a_pass():
-    """A class 4 section in compression: utilisation +inf, check not valid, a danger caution, capacity 0 with
-    'class 4 section' (issue 12 item 10)."""
-    case = engine.Case.from_dict(
-        {
-            "schema": 1,
-            "title": "Invented class 4 beam-column",
-            "length": 4.0,
-            "supports": {"left": "pinned", "right": "pinned"},
-            "axial_force": 50e3,
-            "loads": [{"type": "uniform", "q": 2e3}],
-            "section": {"name": "IPE 600"},
-            "material": {"name": "S355"},
-            "imperfection": {"preset": "en1993-table-5.1"},
-        }
-    )
+    """A class 4 section without effective properties here (a welded web with c/t = 130 > 124ε, S235: class 4
+    in bending alone, Table 5.2) in compression: utilisation +inf, check not valid, a danger caution, capacity
+    0 with 'class 4 section' (issue 12 item 10)."""
+    girder = {"shape": "welded_i", "h": 1.324, "b": 0.3, "tw": 0.01, "tf": 0.012}
+    data = {
+        "schema": 1,
+        "title": "Invented class 4 beam-column",
+        "length": 4.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 50e3,
+        "loads": [{"type": "uniform", "q": 2e3}],
+        "section": girder,
+        "material": {"name": "S235"},
+        "imperfection": {"preset": "en1993-table-5.1"},
+    }
+    case = engine.Case.from_dict(data)
     r = engine.solve(case)
-    assert r.check.section_class.klass == 4
+    assert r.check.section_class.klass == 4 and not r.check.section_class.effective
     assert math.isinf(r.utilization) and not r.check.valid
     assert r.check.kind == "class 4 section"
     assert "section-class-4" in [c.code for c in r.cautions if c.level == "danger"]
     cap = engine.capacity(case)
     assert cap.axial_force == 0.0 and cap.check == "class 4 section"
-    # in tension the web is classified in bending: class 1, a finite utilisation
-    pulled = engine.solve(dataclasses.replace(case, axial_force=-50e3))
+    # IPE 600 S355 (web c/t = 42.8): class 4 in uniform compression, class 1 under 50 kN with α from N; in
+    # tension its web is classified in bending: class 1 too; both finite
+    ipe = engine.Case.from_dict({**data, "section": {"name": "IPE 600"}, "material": {"name": "S355"}})
+    assert engine.solve(ipe).check.section_class.klass == 1
+    pulled = engine.solve(dataclasses.replace(ipe, axial_force=-50e3))
     assert pulled.check.section_class.klass == 1 and math.isfinite(pulled.utilization)
 
 
 def test_class_3_with_the_plastic_method_falls_back_to_elastic():
     """A class 3 section with the plastic method is checked elastically, and a note says so (EN 1993-1-1
     §6.2.9, plastic resistance needs class 1 or 2)."""
-    spec = {"shape": "welded_i", "h": 0.424, "b": 0.2, "tw": 0.01, "tf": 0.012}  # web c/t = 40: class 3
+    # flange outstand (0.298 − 0.01)/2/0.012 = 12: class 3 (10ε < 12 <= 14ε, S235); web c/t = 40: class 1
+    # with α from N = 100 kN (α = 0.55, limit 396/(13α − 1) = 64)
+    spec = {"shape": "welded_i", "h": 0.424, "b": 0.298, "tw": 0.01, "tf": 0.012}
     case = engine.Case.from_dict(
         {
             "schema": 1,
@@ -132,6 +138,7 @@ def test_class_3_with_the_plastic_method_falls_back_to_elastic():
     )
     r = engine.solve(case)
     assert r.check.section_class.klass == 3
+    assert [p.klass for p in r.check.section_class.parts] == [1, 3]
     assert r.check.in_plane_kind == "elastic stress"
     assert "section-class" not in [c.code for c in r.cautions]  # the check's note says it
     assert any("class 1 or 2" in c.message for c in r.cautions if c.code == "check-note")

@@ -2,8 +2,8 @@
 
 A verbatim copy of ``engine/capacity.py``'s search at the commit before issue 18's speed work (each trial a
 validated case and a full :func:`engine.analysis.strength_solve`): ``tests/app/test_batch_exact.py`` checks
-that :func:`engine.capacity` still gives its numbers to 1e-9 relative. Not used by the product. Two later
-corrections of what the capacity is (not of how fast it is found) are mirrored where it returns, marked so.
+that :func:`engine.capacity` still gives its numbers to 1e-9 relative. Not used by the product. Three later
+corrections of what the capacity is (not of how fast it is found) are mirrored, marked so.
 """
 
 from __future__ import annotations
@@ -110,7 +110,9 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             route=route,
         )
 
-    compressed_class = classify(probe.section, probe.material, compression=True)
+    # mirrored correction (stop 27): the class at the smallest compression has the web in bending and
+    # compression (alpha from N), as engine.capacity asks it
+    compressed_class = classify(probe.section, probe.material, compression=True, axial_force=1e-9 * top)
     if (
         compressed_class is not None
         and compressed_class.klass == 4
