@@ -61,7 +61,7 @@ GENERAL = Caution(
         "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
         "torsion, non-symmetric sections, lateral-torsional buckling where a caution says so, web shear "
         "buckling (EN 1993-1-5), "
-        "most class 4 sections, connections and load combinations are not checked. Check the results "
+        "class 4 sections, connections and load combinations are not checked. Check the results "
         "against your local codes and have them reviewed by a licensed engineer."
     ),
     source="strutscope's scope (common practice, no source)",

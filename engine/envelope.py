@@ -555,8 +555,7 @@ SCOPE = dataclasses.replace(
         "Elastic analysis of one member in one or two uncoupled planes, per load combination. Not a full "
         "code check: torsion, non-symmetric sections, lateral-torsional buckling where a caution says so, "
         "web shear buckling (EN 1993-1-5), "
-        "most class 4 sections and connections are not checked; the combination factors are recommended "
-        "values "
+        "class 4 sections and connections are not checked; the combination factors are recommended values "
         "recalled from memory (a National Annex may change them). Check the results against your local "
         "codes and have them reviewed by a licensed engineer."
     ),

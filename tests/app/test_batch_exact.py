@@ -20,7 +20,9 @@ capacity 0: the transverse load alone exceeds M_cr). Again at stop 27, when webs
 began to be classified with α from N and a section class 4 in uniform compression began to resist N on its
 effective area: 30 generated rows, every one an IPE in S355 (IPE 300 and 400, class 4 in uniform compression;
 IPE 200 class 2 → 1), 25 of them from unbounded to a finite utilisation and capacity; no utilisation
-grew, and no other row changed beyond rounding (only those 30 lines were rewritten). And a hypothesis-drawn
+grew, and no other row changed beyond rounding (only those 30 lines were rewritten); then 6 of them again
+when the eq. (5.9) bow and its linear check took A_eff too (M000009 0.5181 → 0.5183, M000130 0.5148 →
+0.5150, their capacities 1 kN lower). And a hypothesis-drawn
 table solved twice in this process, once as the product does it and once with the capacity finder as it was
 before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
 afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.
