@@ -41,6 +41,7 @@ buckling, lateral-torsional buckling.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 
 import numpy as np
@@ -53,7 +54,7 @@ from engine.checks import (
     MemberCheck,
     method_used,
 )
-from engine.classification import compression_area, eq_5_9_modulus, worse_class
+from engine.classification import compression_area, elastic_modulus, eq_5_9_modulus, worse_class
 from engine.codes import plastic_interaction, shear_reduction
 from engine.solver.model import Points
 
@@ -242,7 +243,9 @@ def check_biaxial(
         area = compression_area(section_y, section_class, float(axial_force))  # A_eff: class 4 in compression
         if method == "elastic":
             N_Rd = area * fc / g0
-            M_Rd_y, M_Rd_z = section_y.W_el * fy / g0, section_z.W_el * fy / g0
+            # W_eff of a class 4 section: the merged class holds each view's, y first (pair_check)
+            M_Rd_y = elastic_modulus(section_y, section_class, 0) * fy / g0
+            M_Rd_z = elastic_modulus(section_z, section_class, 1) * fy / g0
             ab = N / N_Rd + My / M_Rd_y + Mz / M_Rd_z
             kind_ab = ELASTIC_KIND
         else:
@@ -296,7 +299,7 @@ def check_biaxial(
         where = 0.5 * float(x[-1] + x[0])
     valid = True
     bent = float(My.max(initial=0.0)) > 0.0 or float(Mz.max(initial=0.0)) > 0.0
-    effective = section_class is not None and section_class.effective and float(axial_force) > 0.0
+    effective = section_class is not None and section_class.effective
     if klass == 4 and not effective and (N > 0 or bent):  # as engine.checks.check_member
         kind, value, source, valid = "class 4 section", math.inf, section_class.source, False
     if beyond_critical:
@@ -425,8 +428,11 @@ def pair_check(case, P, planes):
         return arranged(xs, m_a, v_a, m_b, v_b)
 
     s1, s2 = prep1.member.section, prep2.member.section
-    # both planes are analysed: the web is in bending and compression in either view
-    classes = [c for c in (prep1.section_class(P, True), prep2.section_class(P, True)) if c is not None]
+    # both planes are analysed: the web is in bending and compression in either view; y first (the moduli)
+    c1, c2 = prep1.section_class(P, True), prep2.section_class(P, True)
+    classes = [c for c in ((c1, c2) if major_first else (c2, c1)) if c is not None]
+    if len(classes) == 1 and classes[0].klass == 4:  # the other view not classified: its W_eff is not known
+        classes = [dataclasses.replace(classes[0], W_eff=None)]
     presets = (case.imperfection.preset, case.second_plane_case().imperfection.preset)
     fixed = {
         "axial_force": P,

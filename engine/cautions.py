@@ -117,20 +117,25 @@ def _class_cautions(check) -> list:
     found = None if check is None else check.section_class
     if found is None:
         return [_UNCLASSIFIED]
-    if found.effective:  # A_eff is only known under compression
+    if found.effective:
+        area = "" if found.A_eff is None else "the effective area of EN 1993-1-5 §4.4 for the axial force, "
+        bent = found.bending_class is not None and found.bending_class <= 3
+        modulus = "W_eff = W_el (class 1 to 3 in bending alone)" if bent else "W_eff (EN 1993-1-5 §4.3)"
+        message = (
+            f"The section is {found.describe()}. It is checked with effective properties: {area}{modulus} "
+            "for bending, EN 1993-1-1 eq. (6.44) with e_N = 0 (doubly symmetric), and the equivalent member "
+            "by its class 3 rules. Local buckling of the effective section under the combined stresses "
+            "(EN 1993-1-5 §4.6) is not checked."
+        )
+        source = "EN 1993-1-1:2005 §6.2.9.3 eq. (6.44), EN 1993-1-5:2006 §4.3–4.4 (clauses from memory)"
+        values = {"A_eff": found.A_eff, "A": found.area, "W_eff": found.W_eff}
         return [
             Caution(
                 level="warning",
                 code="section-class-4-effective",
-                message=(
-                    f"The section is {found.describe()}. It is checked with effective properties: the "
-                    "effective area of EN 1993-1-5 §4.4 for the axial force and W_eff = W_el for bending "
-                    "(the section is class 1 to 3 in bending alone), EN 1993-1-1 eq. (6.44) with e_N = 0 "
-                    "(doubly symmetric), and the equivalent member by its class 3 rules. Local buckling of "
-                    "the effective section under the combined stresses (EN 1993-1-5 §4.6) is not checked."
-                ),
-                source="EN 1993-1-1:2005 §6.2.9.3 eq. (6.44) and EN 1993-1-5:2006 §4.4 (clauses from memory)",
-                values={"A_eff": found.A_eff, "A": found.area},
+                message=message,
+                source=source,
+                values=values,
             )
         ]
     if found.klass == 4:

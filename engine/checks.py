@@ -29,7 +29,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from engine.classification import compression_area, eq_5_9_modulus
+from engine.classification import compression_area, elastic_modulus, eq_5_9_modulus
 from engine.codes import plastic_interaction, shear_reduction
 from engine.design.ltb import LtbSettings
 from engine.design.routes import ROUTES
@@ -351,7 +351,7 @@ def check_member(
         area = compression_area(section, section_class, float(axial_force))  # A_eff: class 4 in compression
         if method == "elastic":
             N_Rd = area * fc / g0
-            M_Rd = section.W_el * fy / g0
+            M_Rd = elastic_modulus(section, section_class) * fy / g0  # W_eff of a class 4 section
             ab = N / N_Rd + M / M_Rd
             kind_ab = "elastic stress"
         else:
@@ -409,9 +409,9 @@ def check_member(
     valid = True
     # Class 4 under the forces present (compression, or bending: a web or flange that buckles locally in
     # its compressed part): the gross-section resistance is not valid. The danger caution says why.
-    # A class 4 section in compression whose effective area is known and that is class 1 to 3 in bending is
-    # checked by eq. (6.44) with A_eff and W_eff = W_el: the elastic check above (SectionClass.effective).
-    effective = section_class is not None and section_class.effective and float(axial_force) > 0.0
+    # A class 4 section whose effective properties are known is checked by eq. (6.44) with A_eff and W_eff:
+    # the elastic check above (SectionClass.effective).
+    effective = section_class is not None and section_class.effective
     if klass == 4 and not effective and (N > 0 or float(M.max(initial=0.0)) > 0.0):
         kind = s_kind = "class 4 section"
         value = s_value = math.inf

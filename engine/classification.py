@@ -62,6 +62,8 @@ __all__ = [
     "combined_limits",
     "compression_area",
     "effective_area",
+    "effective_modulus",
+    "elastic_modulus",
     "epsilon",
     "eq_5_9_modulus",
     "web_shear_slenderness",
@@ -127,8 +129,12 @@ class SectionClass:
     area : float or None
         The gross area A [m²] beside ``A_eff``.
     bending_class : int or None
-        Beside ``A_eff``: the section's class in pure bending about its axis (W_eff = W_el when it is 1 to 3);
-        None otherwise.
+        Beside ``A_eff`` or class 4: the section's class in pure bending about its axis; None otherwise.
+    W_eff : float or None
+        Of a class 4 section: its effective elastic modulus about its axis [m³] (W_el when it is class 1 to 3
+        in bending alone, else :func:`effective_modulus`), None where it is not computed here.
+    moduli : tuple or None
+        Set by :func:`worse_class`: each view's W_eff (None: W_el), in the order of the views given.
     """
 
     klass: int
@@ -139,18 +145,15 @@ class SectionClass:
     A_eff: float | None = None
     area: float | None = None
     bending_class: int | None = None
+    W_eff: float | None = None
+    moduli: tuple | None = None
 
     @property
     def effective(self) -> bool:
-        """Class 4 under compression, with its effective area known and class 1 to 3 in pure bending about
-        its axis: checked by EN 1993-1-1 §6.2.9.3 eq. (6.44) with A_eff and W_eff = W_el (e_N = 0: the
-        sections classified here are doubly symmetric), and by the class 3 rules of the equivalent member."""
-        return (
-            self.klass == 4
-            and self.A_eff is not None
-            and self.bending_class is not None
-            and self.bending_class <= 3
-        )
+        """Class 4 with its effective properties known (A_eff under compression, W_eff): checked by
+        EN 1993-1-1 §6.2.9.3 eq. (6.44) with A_eff and W_eff (e_N = 0: the sections classified here are doubly
+        symmetric), and by the class 3 rules of the equivalent member with them."""
+        return self.klass == 4 and self.W_eff is not None
 
     @property
     def governing(self) -> Part | None:
@@ -303,13 +306,71 @@ def classify(section, material, *, compression: bool, axial_force=None, web_bent
         Under compression it holds the effective area where the section is class 4 in uniform compression.
     """
     found = _classify(section, material, compression, axial_force, web_bent)
-    if found is None or not compression:
-        return found
-    area = effective_area(section, material)
-    if area is None or area >= section.A:
-        return found
-    bending = _classify(section, material, False, None, None)
-    return dataclasses.replace(found, A_eff=area, area=section.A, bending_class=bending.klass)
+    if found is None:
+        return None
+    updates = {}
+    if compression:
+        area = effective_area(section, material)
+        if area is not None and area < section.A:
+            updates.update(A_eff=area, area=section.A)
+    if updates or found.klass == 4:
+        bending = _classify(section, material, False, None, None)
+        updates["bending_class"] = bending.klass
+        if found.klass == 4 and (not compression or "A_eff" in updates):
+            W = section.W_el if bending.klass <= 3 else effective_modulus(section, material, bending)
+            updates["W_eff"] = W
+    return dataclasses.replace(found, **updates) if updates else found
+
+
+def effective_modulus(section, material, bending=None) -> float | None:
+    """The effective elastic modulus W_eff [m³] about the section's axis of an RHS whose compression wall is
+    class 4 in bending alone, EN 1993-1-5 §4.3–4.4 (from memory): the compression wall keeps ρ·c of its flat
+    width c = side − 3t (ρ of an internal part in uniform compression, as :func:`effective_area`), the lost
+    strip (1 − ρ) c t is taken out at mid-width, the neutral axis moves by e = ΔA z_f/(A − ΔA) towards the
+    tension side (z_f the compression wall's mid-plane), and
+
+    .. math:: W_{eff} = \\frac{I - \\Delta A (z_f^2 + t^2/12) - (A - \\Delta A) e^2}{h/2 + e}
+
+    (h the side in the plane of bending). The side walls must then stay class 3 under the stress of the
+    effective section (Table 5.2, c/t ≤ 42ε/(0.67 + 0.33ψ) with ψ of that stress); else None. None too for
+    other shapes (an I/H with slender flanges, slender webs in bending: not computed here) and for a section
+    whose side walls are class 4 in bending. ``bending``: the section's pure-bending class, if known.
+    """
+    if bending is None:
+        bending = _classify(section, material, False, None, None)
+    if bending is None or section.shape != "rhs":
+        return None
+    if bending.klass <= 3:
+        return section.W_el
+    web, flange = bending.parts
+    if web.klass == 4:
+        return None
+    dims, eps = section.dimensions, bending.epsilon
+    t = dims["t"]
+    in_plane, across = (dims["h"], dims["b"]) if section.axis == "major" else (dims["b"], dims["h"])
+    flat = across - 3.0 * t
+    lost = (1.0 - _rho_internal(flat / t, eps)) * flat * t
+    z_f = 0.5 * (in_plane - t)
+    kept = section.A - lost
+    e = lost * z_f / kept
+    inertia = section.I - lost * (z_f * z_f + t * t / 12.0) - kept * e * e
+    side = in_plane - 3.0 * t  # the side walls' flat, from +side/2 to -side/2 about the gross centroid
+    psi = -(0.5 * side - e) / (0.5 * side + e)
+    if side / t > 42.0 * eps / (0.67 + 0.33 * psi) * (1 + 1e-12):
+        return None
+    return inertia / (0.5 * in_plane + e)
+
+
+def elastic_modulus(section, section_class, view=None) -> float:
+    """The elastic modulus of the check [m³]: the class's W_eff where it has one (``view``: the index of the
+    view in :attr:`SectionClass.moduli`, for a class merged by :func:`worse_class`), else W_el."""
+    W = None
+    if section_class is not None:
+        if view is not None and section_class.moduli is not None:
+            W = section_class.moduli[view]
+        elif view is None or section_class.moduli is None:
+            W = section_class.W_eff if section_class.klass == 4 else None
+    return section.W_el if W is None else W
 
 
 def _classify(section, material, compression, axial_force, web_bent) -> SectionClass | None:
@@ -379,7 +440,7 @@ def eq_5_9_modulus(section, material, method: str) -> float:
     if method != "plastic" or section.shape not in ("rolled_i", "welded_i", "rhs", "chs", "rectangle"):
         return section.W_el
     found = classify(section, material, compression=True)
-    return section.W_pl if found is not None and found.klass <= 2 else section.W_el
+    return section.W_pl if found is not None and found.klass <= 2 else elastic_modulus(section, found)
 
 
 #: h_w/t_w above which a web without intermediate stiffeners must be checked for shear buckling, in units of
@@ -416,11 +477,10 @@ def web_shear_slenderness(section, material, axis: str) -> tuple[float, float] |
 
 
 def worse_class(classes) -> SectionClass:
-    """The worse of the classes of one section about its two axes (non-empty). A class 4 section is checked
-    with effective properties (:attr:`SectionClass.effective`) only when it is class 1 to 3 in bending about
-    every axis given."""
+    """The worse of the classes of one section about its two axes (non-empty), with each view's W_eff in
+    ``moduli`` (read them with :func:`elastic_modulus` and the view's index). A class 4 section is checked
+    with effective properties (:attr:`SectionClass.effective`) only when every class 4 view has its W_eff."""
     worst = max(classes, key=lambda c: c.klass)
-    if worst.klass == 4 and worst.A_eff is not None:
-        bending = [c.bending_class for c in classes]
-        worst = dataclasses.replace(worst, bending_class=None if None in bending else max(bending))
-    return worst
+    moduli = tuple(c.W_eff if c.klass == 4 else None for c in classes)
+    lacking = any(c.klass == 4 and c.W_eff is None for c in classes)
+    return dataclasses.replace(worst, moduli=moduli, W_eff=None if lacking else worst.W_eff)

@@ -42,7 +42,7 @@ import math
 from dataclasses import dataclass
 
 from engine import codes
-from engine.classification import compression_area
+from engine.classification import compression_area, elastic_modulus
 from engine.design import annex_a, annex_b, ltb
 from engine.design.diagram import Diagram, annex_a_factor, annex_b_factor
 from engine.design.routes import RouteCheck
@@ -150,15 +150,15 @@ def route(
     if section_class is None:
         return not_applied("en-member", enabled, "section-not-classified", source)
     klass = section_class.klass
-    if klass == 4 and not (section_class.effective and N > 0.0):  # effective: the class 3 rules, A_eff
+    if klass == 4 and not section_class.effective:  # effective: the class 3 rules with A_eff and W_eff
         return not_applied("en-member", enabled, "section-class-4", source)
     g0, g1, fy = settings.gamma_M0, settings.gamma_M1, material.fy
     sy, sz = y.section, z.section
     plastic = klass <= 2
     area = compression_area(sy, section_class, N)  # A_eff where class 4 in uniform compression (conservative)
     N_Rk = area * fy
-    My_Rk = (sy.W_pl if plastic else sy.W_el) * fy
-    Mz_Rk = (sz.W_pl if plastic else sz.W_el) * fy
+    My_Rk = (sy.W_pl if plastic else elastic_modulus(sy, section_class, 0)) * fy  # W_eff: class 4
+    Mz_Rk = (sz.W_pl if plastic else elastic_modulus(sz, section_class, 1)) * fy
     My, Mz = y.diagram.M_max, z.diagram.M_max
     torsional = ltb is not None and ltb.applies and My > 0.0
     chi_LT = ltb.chi_LT if torsional else 1.0
