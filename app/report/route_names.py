@@ -79,6 +79,7 @@ NOTES = {
     ),
     "aisc-shear-not-checked": ("info", "shear (Chapter G) is not checked on this route"),
     "aisc-noncompact": ("info", "a noncompact element: M_n by the flange local buckling limit (§F3)"),
+    "aisc-slender-e7": ("info", "a slender element in compression: P_n = F_cr·A_e, effective widths of §E7"),
     "aisc-tension-yielding": ("info", "tension: P_c is tension yielding, §D2(a)"),
     "en-member-cross-section-only": (
         "info",
@@ -109,7 +110,7 @@ REASONS = {
         "a member stepped in section: the route's tables take one section along the member (the second-order "
         "route checks each segment with its own section)"
     ),
-    "slender-element-compression": "a slender element in compression (AISC 360-16 §E7, not covered)",
+    "slender-element-compression": "a round HSS beyond D/t = 0.45E/F_y (AISC 360-16 §E7 does not cover it)",
     "slender-element-flexure": "a slender element in flexure (AISC 360-16 §F, not covered)",
 }
 

@@ -21,8 +21,11 @@ __all__ = [
     "METHODS",
     "RESISTANCE",
     "Interaction",
+    "E7_FACTORS",
     "critical_stress",
+    "effective_width",
     "interaction",
+    "round_hss_area",
 ]
 
 #: :math:`F_y/F_e` above which the elastic branch (E3-3) applies: 2.25, that is
@@ -119,3 +122,43 @@ def interaction(Pr: float, Pc: float, Mrx: float, Mcx: float, Mry: float = 0.0, 
     if axial >= 0.2:
         return Interaction(axial + 8.0 / 9.0 * bending, "H1-1a", axial, bending)
     return Interaction(axial / 2.0 + bending, "H1-1b", axial, bending)
+
+
+#: AISC 360-16 Table E7.1 (from memory): (c1, c2) of the effective width, eq. (E7-3), for stiffened elements
+#: except the walls of rectangular HSS, the walls of rectangular HSS, and all other (unstiffened) elements.
+#: c2 = (1 − √(1 − 4c1))/(2c1), so that b_e = b exactly at the limit of eq. (E7-2).
+E7_FACTORS = {"stiffened": (0.18, 1.31), "hss wall": (0.20, 1.38), "unstiffened": (0.22, 1.49)}
+
+
+def effective_width(b: float, ratio: float, limit: float, kind: str, Fy: float, Fcr: float) -> float:
+    r"""The effective width :math:`b_e` [m] of an element of width ``b`` and slenderness ``ratio`` = λ, with
+    the limit λ_r of Table B4.1a, under the member's critical stress ``Fcr`` [Pa], AISC 360-16 §E7.1
+    (from memory):
+
+    .. math::
+
+        b_e = b \ (\lambda \le \lambda_r\sqrt{F_y/F_{cr}}), \qquad
+        b_e = b\left(1 - c_1\sqrt{F_{el}/F_{cr}}\right)\sqrt{F_{el}/F_{cr}}, \quad
+        F_{el} = \left(c_2\frac{\lambda_r}{\lambda}\right)^2 F_y \ \text{otherwise}
+
+    with :math:`c_1, c_2` of :data:`E7_FACTORS` for ``kind``.
+
+    >>> round(effective_width(0.3, 60.0, 36.0, "stiffened", 345e6, 345e6) / 0.3, 4)
+    0.6748
+    """
+    if ratio <= limit * math.sqrt(Fy / Fcr):
+        return b
+    c1, c2 = E7_FACTORS[kind]
+    root = math.sqrt((c2 * limit / ratio) ** 2 * Fy / Fcr)
+    return min(b, b * (1.0 - c1 * root) * root)
+
+
+def round_hss_area(A_g: float, D_over_t: float, E: float, Fy: float) -> float:
+    r"""The effective area of a round HSS, AISC 360-16 eq. (E7-6)/(E7-7) (from memory): :math:`A_g` for
+    :math:`D/t \le 0.11E/F_y`, :math:`\left(\frac{0.038E}{F_y(D/t)} + \frac{2}{3}\right)A_g` up to
+    :math:`D/t = 0.45E/F_y` (beyond, the Specification does not apply: NaN)."""
+    if D_over_t <= 0.11 * E / Fy:
+        return A_g
+    if D_over_t >= 0.45 * E / Fy:
+        return math.nan
+    return (0.038 * E / (Fy * D_over_t) + 2.0 / 3.0) * A_g

@@ -10,8 +10,9 @@ against a copy of the Specification.
 - Compression elements (Table B4.1a): I flanges :math:`b/t = b_f/(2t_f) \le 0.56\sqrt{E/F_y}` (rolled;
   built-up: :math:`0.64\sqrt{k_cE/F_y}`, :math:`k_c = 4/\sqrt{h/t_w}` within 0.35–0.76), I webs
   :math:`h/t_w \le 1.49\sqrt{E/F_y}`, rectangular HSS walls :math:`b/t \le 1.40\sqrt{E/F_y}` (b = side − 3t),
-  round HSS :math:`D/t \le 0.11E/F_y`. A slender element: the route is not applied (§E7, effective areas, is
-  not covered).
+  round HSS :math:`D/t \le 0.11E/F_y`. With a slender element :math:`P_n = F_{cr}A_e` (§E7, from memory:
+  :func:`effective_area`, the effective widths of eq. (E7-3) under each axis's :math:`F_{cr}`, note
+  ``aisc-slender-e7``; a round HSS by eq. (E7-7), beyond :math:`D/t = 0.45E/F_y` not applied).
 - Flexure (Table B4.1b): compact when every element is within :math:`\lambda_p` (I flanges
   :math:`0.38\sqrt{E/F_y}`, I webs :math:`3.76\sqrt{E/F_y}`, HSS flanges :math:`1.12\sqrt{E/F_y}`, HSS webs
   :math:`2.42\sqrt{E/F_y}`, round HSS :math:`0.07E/F_y`); then :math:`M_n = M_p = F_yZ \le 1.6F_yS`. A
@@ -43,10 +44,10 @@ from engine.design import aisc360
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import RouteCheck
 
-__all__ = ["SOURCE", "compression_elements", "flexure_class", "route"]
+__all__ = ["SOURCE", "compression_elements", "effective_area", "flexure_class", "route"]
 
 SOURCE = (
-    "AISC 360-16 Tables B4.1a/b, §E3 eqs. (E3-1)–(E3-4), §F2.1/F6.1/F7.1/F8.1/F11.1, §D2(a), §H1.1 eqs. "
+    "AISC 360-16 Tables B4.1a/b, §E3 eqs. (E3-1)–(E3-4), §E7, §F2.1/F6.1/F7.1/F8.1/F11.1, §D2(a), §H1.1 eqs. "
     "(H1-1a)/(H1-1b) and §H1.2 (from memory)"
 )
 
@@ -76,6 +77,28 @@ def compression_elements(section, E: float, Fy: float) -> list:
     if shape == "chs":
         return [("tube", dims["D"] / dims["t"], 0.11 * E / Fy)]
     return []
+
+
+def effective_area(section, E: float, Fy: float, Fcr: float) -> float | None:
+    """The effective area A_e [m²] of AISC 360-16 §E7 under the critical stress ``Fcr`` [Pa] (from memory):
+    the gross area less (b − b_e)t of every slender element (:func:`engine.design.aisc360.effective_width`:
+    I flanges as unstiffened halves b_f/2, I webs h and RHS walls b = side − 3t as stiffened), or eq. (E7-7)
+    for a round HSS; None beyond the Specification's range (a round HSS with D/t >= 0.45E/F_y)."""
+    dims, shape, area = section.dimensions, section.shape, section.A
+    if shape == "chs":
+        found = aisc360.round_hss_area(area, dims["D"] / dims["t"], E, Fy)
+        return None if math.isnan(found) else found
+    for name, ratio, limit in compression_elements(section, E, Fy):
+        if shape in ("rolled_i", "welded_i"):
+            if name == "flange":
+                t, count, kind = dims["tf"], 4, "unstiffened"
+            else:
+                t, count, kind = dims["tw"], 1, "stiffened"
+        else:
+            t, count, kind = dims["t"], 2, "hss wall"
+        width = ratio * t
+        area -= count * (width - aisc360.effective_width(width, ratio, limit, kind, Fy, Fcr)) * t
+    return area
 
 
 def flexure_class(section, E: float, Fy: float) -> tuple[str, list]:
@@ -125,10 +148,13 @@ def route(
     else:
         facts.update(Omega_c=phi["compression"], Omega_b=phi["flexure"], Omega_t=tension_factor)
     facts["factors"] = "phi/Omega of AISC 360-16 in place of gamma_M0/gamma_M1"
+    slender = []
     if N > 0.0:
-        for name, ratio, limit in compression_elements(sy, E, Fy):
-            if ratio > limit * (1 + 1e-12):
-                facts.update(element=name, ratio=ratio, limit=limit)
+        slender = [item for item in compression_elements(sy, E, Fy) if item[1] > item[2]]
+        if slender:
+            name, ratio, limit = slender[0]
+            facts.update(element=name, ratio=ratio, limit=limit)
+            if effective_area(sy, E, Fy, Fy) is None:  # beyond §E7's range (a round HSS past 0.45E/F_y)
                 return RouteCheck(
                     route="aisc",
                     enabled=enabled,
@@ -190,8 +216,13 @@ def route(
             F_e = p.N_cr / sy.A
             F_cr = aisc360.critical_stress(Fy, F_e)
             facts[f"F_e_{p.axis}"], facts[f"F_cr_{p.axis}"] = F_e, F_cr
-            if F_cr * sy.A < P_n:
-                P_n, facts["P_n_axis"] = F_cr * sy.A, p.axis
+            A_e = effective_area(sy, E, Fy, F_cr) if slender else sy.A  # §E7: slender elements
+            if F_cr * A_e < P_n:
+                P_n, facts["P_n_axis"] = F_cr * A_e, p.axis
+                if slender:
+                    facts["A_e"] = A_e
+        if slender:
+            notes.append("aisc-slender-e7")
         P_c = available(P_n, phi["compression"])
     else:
         P_n = Fy * sy.A

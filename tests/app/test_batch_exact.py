@@ -22,7 +22,10 @@ effective area: 30 generated rows, every one an IPE in S355 (IPE 300 and 400, cl
 IPE 200 class 2 → 1), 25 of them from unbounded to a finite utilisation and capacity; no utilisation
 grew, and no other row changed beyond rounding (only those 30 lines were rewritten); then 6 of them again
 when the eq. (5.9) bow and its linear check took A_eff too (M000009 0.5181 → 0.5183, M000130 0.5148 →
-0.5150, their capacities 1 kN lower). And a hypothesis-drawn
+0.5150, their capacities 1 kN lower); and 10 rows again (every IPE 400 in S355) when the AISC route began
+to take slender webs by §E7: their AISC utilisation and governing columns went from empty to a value and
+their cautions lost the route-not-applied note (the headline and capacity, which do not count AISC there,
+did not change). And a hypothesis-drawn
 table solved twice in this process, once as the product does it and once with the capacity finder as it was
 before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
 afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.

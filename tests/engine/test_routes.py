@@ -440,30 +440,33 @@ def test_aisc_required_moment_is_the_bow_free_second_order_moment():
 def test_slender_sections_are_not_applied_with_a_reason():
     """A welded girder web with c/t = 130 > 124ε (S235) is class 4 even in bending alone (EN 1993-1-1 Table
     5.2): no effective section is computed for it, so the en-member route is not applied and the second-order
-    route refuses it (unbounded), which sets the headline; AISC finds the web slender (Table B4.1a,
-    h/t_w = 130 > 1.49√(E/F_y) = 43.6 for F_y = 235 MPa, from memory)."""
+    route refuses it (unbounded, with the class 4 danger caution). AISC finds the web slender in compression
+    (Table B4.1a, h/t_w = 130 > 1.49√(E/F_y) = 43.6 for F_y = 235 MPa, from memory) and takes P_n = F_cr A_e
+    of §E7 (note ``aisc-slender-e7``); it is the only enabled route that applies, so it is the headline."""
     girder = {"shape": "welded_i", "h": 1.324, "b": 0.3, "tw": 0.01, "tf": 0.012}
     routes = {"routes": ["en-member", "aisc"]}
     r = engine.solve(_case(section=girder, material={"name": "S235"}, check=routes))
     en, aisc = _route(r, "en-member"), _route(r, "aisc")
     assert en.utilization is None and en.reason == "section-class-4"
-    assert aisc.utilization is None and aisc.reason == "slender-element-compression"
-    assert math.isinf(r.utilization)
+    assert aisc.utilization is not None and "aisc-slender-e7" in aisc.notes
+    assert aisc.facts["A_e"] < aisc.facts["A_g"]
+    assert math.isinf(_route(r, "second-order").utilization) and r.utilization == aisc.utilization
     codes = [c.code for c in r.cautions]
-    assert "headline-fallback" in codes and codes.count("route-not-applied") == 2
+    assert "headline-fallback" not in codes and codes.count("route-not-applied") == 1
+    assert "section-class-4" in [c.code for c in r.cautions if c.level == "danger"]
 
 
 def test_a_web_class_4_in_compression_only_takes_the_effective_area():
     """IPE 500 in S355: web c/t = 41.8, class 4 in uniform compression (> 42ε = 34.2) but class 1 with α from
     N = 200 kN (Table 5.2, from memory): the en-member route applies with N_Rk = A_eff f_y (EN 1993-1-5 §4.4,
-    conservative) and the second-order route is finite; AISC still finds the web slender (h/t_w = 41.8 >
-    1.49√(E/F_y) = 36.2, Table B4.1a, from memory) and is not applied."""
+    conservative) and the second-order route is finite; AISC finds the web slender (h/t_w = 41.8 >
+    1.49√(E/F_y) = 36.2, Table B4.1a, from memory) and takes §E7's effective area."""
     r = engine.solve(_case(section={"name": "IPE 500"}, check={"routes": ["en-member", "aisc"]}))
     en, aisc = _route(r, "en-member"), _route(r, "aisc")
     assert r.check.section_class.klass == 1 and r.check.section_class.A_eff is not None
     assert en.utilization is not None
     assert en.facts["N_Rk"] == pytest.approx(r.check.section_class.A_eff * 355e6, rel=1e-12)
-    assert aisc.utilization is None and aisc.reason == "slender-element-compression"
+    assert aisc.utilization is not None and "aisc-slender-e7" in aisc.notes
     assert math.isfinite(r.utilization)
 
 
