@@ -268,11 +268,12 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
                 )
             if r.check.strength_kind == OUT_OF_PLANE:
                 n_b = r.check.out_of_plane.N_b_Rd  # exactly: N/N_b,Rd is linear in N
+                area = "A_eff" if r.check.out_of_plane.effective else "A"
                 return found(
                     n_b if mode == "axial" else n_b / reference,
                     OUT_OF_PLANE,
                     None,
-                    f"Out-of-plane flexural buckling governs: N_b,Rd = chi·A·f_y/γ_M1 = "
+                    f"Out-of-plane flexural buckling governs: N_b,Rd = chi·{area}·f_y/γ_M1 = "
                     f"{n_b * 1e-3:.6g} kN ({r.check.out_of_plane.describe()}).",
                 )
             return found(

@@ -145,7 +145,9 @@ class OutOfPlane:
     axis : str
         The axis buckled about (``"minor"`` for major-axis bending, and the other way round).
     buckling_length, N_cr, lambda_bar, chi, N_b_Rd : float or None
-        L_cr [m], N_cr [N], λ̄ [-], χ [-], N_b,Rd = χ A f_y/γ_M1 [N].
+        L_cr [m], N_cr [N], λ̄ [-], χ [-], N_b,Rd = χ A f_y/γ_M1 [N] (A_eff in place of A where ``effective``).
+    effective : bool
+        The section is class 4 in uniform compression: λ̄ and N_b,Rd are on its effective area.
     curve, curve_reason : str or None
     utilization : float or None
         N_Ed/N_b,Rd [-] (0 without compression), None when not checked.
@@ -171,6 +173,7 @@ class OutOfPlane:
     elastic_utilization: float | None = None
     source: str = SOURCE
     note: str = ""
+    effective: bool = False
 
     def facts(self) -> dict:
         """The numbers :meth:`describe` words, in SI ([m], [N]) and plain numbers, for an app to word."""
@@ -184,6 +187,7 @@ class OutOfPlane:
             "N_b_Rd",
             "utilization",
             "elastic_utilization",
+            "effective",
         )
         return {name: getattr(self, name) for name in names}
 
@@ -254,6 +258,7 @@ def _stepped(case, segments) -> OutOfPlane:
                 lambda_bar=lam,
                 chi=chi,
                 N_b_Rd=chi * area * seg.material.fy / case.check.gamma_M1,
+                effective=area < one.A,
                 reason=f"{f.reason}; stepped in section: N_cr with the smallest I about the {other} axis "
                 "of the segments, each segment's χ·A·f_y, the smallest governs",
             )
@@ -309,6 +314,7 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         lambda_bar=lam,
         chi=chi,
         N_b_Rd=chi * area * material.fy / case.check.gamma_M1,
+        effective=area < turned.A,
         curve=curve,
         curve_reason=why,
         note=note,

@@ -399,7 +399,8 @@ def _out_of_plane_facts(f: dict, U: Units) -> str:
     return (
         f"about the {f['axis']} axis: L_cr = {U.show('length', f['buckling_length'])}, "
         f"N_cr = {U.show('force', f['N_cr'])}, λ̄ = {f['lambda_bar']:.3f}, curve {f['curve']}, "
-        f"χ = {f['chi']:.3f}, N_b,Rd = χ·A·f_y/γ_M1 = {U.show('force', f['N_b_Rd'])}"
+        f"χ = {f['chi']:.3f}, N_b,Rd = χ·{'A_eff' if f.get('effective') else 'A'}·f_y/γ_M1 = "
+        f"{U.show('force', f['N_b_Rd'])}"
     )
 
 
@@ -422,7 +423,7 @@ def capacity_text(capacity, U: Units, result=None) -> str:
             f"({U.show('force', capacity.critical_load, 5)}): elastic buckling governs."
         )
     if check == "out-of-plane buckling":
-        return f"Out-of-plane flexural buckling governs: N_b,Rd = χ·A·f_y/γ_M1 = {force}."
+        return f"Out-of-plane flexural buckling governs: N_b,Rd = {force} (eq. (6.47))."
     if check == "out-of-plane elastic buckling":
         return (
             f"Out-of-plane elastic buckling bounds it: N_cr = {force} about the other axis. The code's "
