@@ -41,7 +41,6 @@ buckling, lateral-torsional buckling.
 
 from __future__ import annotations
 
-import dataclasses
 import math
 
 import numpy as np
@@ -430,9 +429,7 @@ def pair_check(case, P, planes):
     s1, s2 = prep1.member.section, prep2.member.section
     # both planes are analysed: the web is in bending and compression in either view; y first (the moduli)
     c1, c2 = prep1.section_class(P, True), prep2.section_class(P, True)
-    classes = [c for c in ((c1, c2) if major_first else (c2, c1)) if c is not None]
-    if len(classes) == 1 and classes[0].klass == 4:  # the other view not classified: its W_eff is not known
-        classes = [dataclasses.replace(classes[0], W_eff=None)]
+    classes = [c1, c2] if major_first else [c2, c1]  # one section: both views are classified, or neither
     presets = (case.imperfection.preset, case.second_plane_case().imperfection.preset)
     fixed = {
         "axial_force": P,
@@ -440,7 +437,7 @@ def pair_check(case, P, planes):
         "section_z": s2 if major_first else s1,
         "material": prep1.member.material,
         "settings": case.check,
-        "section_class": worse_class(classes) if classes else None,
+        "section_class": None if None in classes else worse_class(classes),
         "eq_5_9": "en1993-eq-5.9" in presets,
     }
 

@@ -31,7 +31,7 @@ import numpy as np
 
 from engine.analysis import _solve, check_stations, solve
 from engine.buckling_interaction import TERM as INTERACTION
-from engine.classification import classify
+from engine.classification import classify_at
 from engine.errors import CaseError
 from engine.member_routes import LTB_ELASTIC, headline
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
@@ -203,7 +203,7 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
             route=route,
         )
 
-    compressed_class = classify(probe.section, probe.material, compression=True, axial_force=1e-9 * top)
+    compressed_class = classify_at(probe.section, probe.material, 1e-9 * top)
     if (
         compressed_class is not None
         and compressed_class.klass == 4

@@ -58,7 +58,9 @@ __all__ = [
     "WEB_SHEAR_LIMIT",
     "Part",
     "SectionClass",
+    "area_in_compression",
     "classify",
+    "classify_at",
     "combined_limits",
     "compression_area",
     "effective_area",
@@ -221,6 +223,20 @@ def _web(name, ratio, flat, t, webs, eps, fy, axial_force):
     return _part(name, COMBINED, ratio, eps, combined_limits(alpha, eps), alpha)
 
 
+def _i_flats(dims: dict, shape: str) -> tuple[float, float]:
+    """(web c, outstand c) [m] of an I/H: h − 2t_f − 2r and (b − t_w − 2r)/2, the root radius left out of a
+    welded one (the module's notes)."""
+    r = dims.get("r", 0.0) if shape == "rolled_i" else 0.0
+    return dims["h"] - 2 * dims["tf"] - 2 * r, (dims["b"] - dims["tw"] - 2 * r) / 2
+
+
+def _rhs_flats(dims: dict, axis: str) -> tuple[float, float, float]:
+    """(c of the walls in the plane of bending, c of the walls across it, t) [m] of an RHS: c = side − 3t."""
+    t = dims["t"]
+    in_plane, across = (dims["h"], dims["b"]) if axis == "major" else (dims["b"], dims["h"])
+    return in_plane - 3 * t, across - 3 * t, t
+
+
 def _rho_internal(ratio: float, eps: float) -> float:
     """ρ of an internal part in uniform compression (ψ = 1, k_σ = 4), EN 1993-1-5 §4.4(2) (from memory)."""
     lam = ratio / (28.4 * eps * 2.0)
@@ -255,22 +271,26 @@ def effective_area(section, material) -> float | None:
         return None
     if found.klass < 4 or not found.parts:
         return section.A
-    dims, eps = section.dimensions, found.epsilon
-    shape, area = section.shape, section.A
-    if shape in ("rolled_i", "welded_i"):
-        h, b, tw, tf = dims["h"], dims["b"], dims["tw"], dims["tf"]
-        r = dims.get("r", 0.0) if shape == "rolled_i" else 0.0
-        web, outstand = h - 2 * tf - 2 * r, (b - tw - 2 * r) / 2
+    eps, area = found.epsilon, section.A
+    if section.shape in ("rolled_i", "welded_i"):
+        tw, tf = section.dimensions["tw"], section.dimensions["tf"]
+        web, outstand = _i_flats(section.dimensions, section.shape)
         area -= (1.0 - _rho_internal(web / tw, eps)) * web * tw
         area -= 4.0 * (1.0 - _rho_outstand(outstand / tf, eps)) * outstand * tf
-    elif shape == "rhs":
-        t = dims["t"]
-        for side in (dims["h"], dims["b"]):
-            flat = side - 3 * t
+    elif section.shape == "rhs":
+        *flats, t = _rhs_flats(section.dimensions, section.axis)
+        for flat in flats:
             area -= 2.0 * (1.0 - _rho_internal(flat / t, eps)) * flat * t
     else:
         return None
     return area
+
+
+def area_in_compression(section, material) -> float:
+    """The area that resists a compression [m²]: :func:`effective_area`, or the gross area where that is not
+    computed (a section not classified here, a class 4 CHS)."""
+    area = effective_area(section, material)
+    return section.A if area is None else area
 
 
 def compression_area(section, section_class, axial_force: float) -> float:
@@ -322,6 +342,15 @@ def classify(section, material, *, compression: bool, axial_force=None, web_bent
     return dataclasses.replace(found, **updates) if updates else found
 
 
+def classify_at(section, material, N: float, web_bent=None) -> SectionClass | None:
+    """:func:`classify` at the axial force N [N] (compression positive): under compression the webs in bending
+    and compression with α from N, otherwise in pure bending."""
+    compressed = N > 0.0
+    return classify(
+        section, material, compression=compressed, axial_force=N if compressed else None, web_bent=web_bent
+    )
+
+
 def effective_modulus(section, material, bending=None) -> float | None:
     """The effective elastic modulus W_eff [m³] about the section's axis of an RHS whose compression wall is
     class 4 in bending alone, EN 1993-1-5 §4.3–4.4 (from memory): the compression wall keeps ρ·c of its flat
@@ -345,16 +374,15 @@ def effective_modulus(section, material, bending=None) -> float | None:
     web, flange = bending.parts
     if web.klass == 4:
         return None
-    dims, eps = section.dimensions, bending.epsilon
-    t = dims["t"]
-    in_plane, across = (dims["h"], dims["b"]) if section.axis == "major" else (dims["b"], dims["h"])
-    flat = across - 3.0 * t
+    eps = bending.epsilon
+    # side: the side walls' flat, from +side/2 to −side/2 about the gross centroid
+    side, flat, t = _rhs_flats(section.dimensions, section.axis)
+    in_plane = side + 3.0 * t
     lost = (1.0 - _rho_internal(flat / t, eps)) * flat * t
     z_f = 0.5 * (in_plane - t)
     kept = section.A - lost
     e = lost * z_f / kept
     inertia = section.I - lost * (z_f * z_f + t * t / 12.0) - kept * e * e
-    side = in_plane - 3.0 * t  # the side walls' flat, from +side/2 to -side/2 about the gross centroid
     psi = -(0.5 * side - e) / (0.5 * side + e)
     if side / t > 42.0 * eps / (0.67 + 0.33 * psi) * (1 + 1e-12):
         return None
@@ -364,12 +392,10 @@ def effective_modulus(section, material, bending=None) -> float | None:
 def elastic_modulus(section, section_class, view=None) -> float:
     """The elastic modulus of the check [m³]: the class's W_eff where it has one (``view``: the index of the
     view in :attr:`SectionClass.moduli`, for a class merged by :func:`worse_class`), else W_el."""
-    W = None
-    if section_class is not None:
-        if view is not None and section_class.moduli is not None:
-            W = section_class.moduli[view]
-        elif view is None or section_class.moduli is None:
-            W = section_class.W_eff if section_class.klass == 4 else None
+    if section_class is None:
+        return section.W_el
+    merged = view is not None and section_class.moduli is not None
+    W = section_class.moduli[view] if merged else section_class.W_eff
     return section.W_el if W is None else W
 
 
@@ -392,9 +418,8 @@ def _classify(section, material, compression, axial_force, web_bent) -> SectionC
     parts = []
     try:
         if shape in ("rolled_i", "welded_i"):
-            h, b, tw, tf = dims["h"], dims["b"], dims["tw"], dims["tf"]
-            r = dims.get("r", 0.0) if shape == "rolled_i" else 0.0
-            flat = h - 2 * tf - 2 * r
+            tw, tf = dims["tw"], dims["tf"]
+            flat, outstand = _i_flats(dims, shape)
             web = flat / tw
             if combined and web_bent:
                 parts.append(_web("web", web, flat, tw, 1, eps, material.fy, axial_force))
@@ -402,17 +427,14 @@ def _classify(section, material, compression, axial_force, web_bent) -> SectionC
                 parts.append(_part("web", web_stress, web, eps))
             elif compression:
                 parts.append(_part("web", "internal compression", web, eps))
-            parts.append(_part("flange outstand", "outstand compression", (b - tw - 2 * r) / 2 / tf, eps))
+            parts.append(_part("flange outstand", "outstand compression", outstand / tf, eps))
         elif shape == "rhs":
-            h, b, t = dims["h"], dims["b"], dims["t"]
-            in_plane, across = (h, b) if section.axis == "major" else (b, h)
-            flat = in_plane - 3 * t
+            flat, across, t = _rhs_flats(dims, section.axis)
             if combined:
                 parts.append(_web("side wall (web)", flat / t, flat, t, 2, eps, material.fy, axial_force))
             else:
                 parts.append(_part("side wall (web)", web_stress, flat / t, eps))
-            flange = (across - 3 * t) / t
-            parts.append(_part("compression wall (flange)", "internal compression", flange, eps))
+            parts.append(_part("compression wall (flange)", "internal compression", across / t, eps))
         elif shape == "chs":
             parts.append(_part("tube", "chs", dims["D"] / dims["t"], eps))
             basis = "d/t limit, the same for compression and bending"

@@ -40,7 +40,7 @@ import numpy as np
 
 from engine import codes
 from engine.case import Imperfection
-from engine.classification import effective_area, eq_5_9_modulus
+from engine.classification import area_in_compression, eq_5_9_modulus
 from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.imperfections import Bow, bow_for
@@ -378,8 +378,7 @@ def resolve(case):
             first = critical_loads(plain, 1)
             pcr1 = float(first.critical_loads[0])
             # A_eff for a section class 4 in uniform compression (λ̄ and N_Rk of eq. (5.9); EN 1993-1-5 §4.4)
-            area = effective_area(section, material)
-            area = section.A if area is None else area
+            area = area_in_compression(section, material)
             lam = codes.slenderness(area, material.fy, pcr1)
             W = eq_5_9_modulus(section, material, method)
             e0 = codes.eq_5_9_amplitude(

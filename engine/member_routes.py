@@ -25,7 +25,7 @@ from engine import segment_routes
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.buckling_interaction import conservative, larger
 from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
-from engine.classification import classify, worse_class
+from engine.classification import classify_at, worse_class
 from engine.design import aisc_member, en_member, ltb_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
@@ -406,10 +406,7 @@ def _worse_class(sections, material, N, web_bent):
     """The worse class of the section about both axes at axial force N (webs in bending and compression,
     α from N, under compression); None when either view is not classified. Not cached: it depends on N, and
     a drag asks each N once."""
-    force = N if N > 0 else None
-    classes = [
-        classify(p, material, compression=N > 0, axial_force=force, web_bent=web_bent) for p in sections
-    ]
+    classes = [classify_at(p, material, N, web_bent) for p in sections]
     return None if None in classes else worse_class(classes)
 
 

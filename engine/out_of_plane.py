@@ -36,7 +36,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from engine import codes
-from engine.classification import effective_area
+from engine.classification import area_in_compression
 from engine.design.en_member import curve_of
 from engine.errors import CaseError
 from engine.sections import section_from_spec
@@ -248,7 +248,7 @@ def _stepped(case, segments) -> OutOfPlane:
     n_cr = found[weakest].N_cr
     out = []
     for seg, one, f in zip(segments, turned, found, strict=True):
-        area, _ = _area(one, seg.material)
+        area, effective = _area(one, seg.material)
         lam = codes.slenderness(area, seg.material.fy, n_cr)
         chi = codes.reduction_factor(lam, f.curve)
         out.append(
@@ -258,7 +258,7 @@ def _stepped(case, segments) -> OutOfPlane:
                 lambda_bar=lam,
                 chi=chi,
                 N_b_Rd=chi * area * seg.material.fy / case.check.gamma_M1,
-                effective=area < one.A,
+                effective=effective,
                 reason=f"{f.reason}; stepped in section: N_cr with the smallest I about the {other} axis "
                 "of the segments, each segment's χ·A·f_y, the smallest governs",
             )
@@ -314,22 +314,25 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         lambda_bar=lam,
         chi=chi,
         N_b_Rd=chi * area * material.fy / case.check.gamma_M1,
-        effective=area < turned.A,
+        effective=effective,
         curve=curve,
         curve_reason=why,
         note=note,
-        reason=_length_reason(settings) + effective,
+        reason=_length_reason(settings) + (_area_note(area, turned.A) if effective else ""),
     )
 
 
-def _area(section, material) -> tuple[float, str]:
+def _area(section, material) -> tuple[float, bool]:
     """The area of χ·A·f_y and λ̄ (eqs. 6.47/6.49): the effective area of a section that is class 4 in uniform
-    compression (EN 1993-1-1 §6.3.1.1, A_eff of EN 1993-1-5 §4.4), else the gross area; and a note to add to
-    the reason when the effective area is used."""
-    area = effective_area(section, material)
-    if area is None or area >= section.A:
-        return section.A, ""
-    return area, f"; class 4 in uniform compression: χ·A_eff·f_y with A_eff = {area / section.A:.3f}·A"
+    compression (EN 1993-1-1 §6.3.1.1, A_eff of EN 1993-1-5 §4.4), else the gross area; and whether it is the
+    effective one."""
+    area = area_in_compression(section, material)
+    return area, area < section.A
+
+
+def _area_note(area: float, gross: float) -> str:
+    """What the reason adds where the effective area is used."""
+    return f"; class 4 in uniform compression: χ·A_eff·f_y with A_eff = {area / gross:.3f}·A"
 
 
 def _length_reason(settings) -> str:

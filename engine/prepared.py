@@ -16,7 +16,7 @@ import dataclasses
 import numpy as np
 
 from engine.case import Imperfection
-from engine.classification import classify
+from engine.classification import classify_at
 from engine.errors import CaseError
 from engine.imperfections import bow_for
 from engine.member import resolve
@@ -103,8 +103,8 @@ class Prepared:
     def section_class(self, P: float, web_bent=None):
         """The EN 1993-1-1 Table 5.2 class of the section at axial force ``P`` [N] (compression positive; None
         where not classified); a member stepped in section: a tuple, one class per segment. Under compression
-        the webs are classified in bending and compression with α from P (:func:`classify`); ``web_bent`` as
-        there. Cached: without compression once, under compression the last force asked (a drag asks each
+        the webs are classified in bending and compression with α from P (:func:`classify_at`; ``web_bent``
+        as there). Cached: without compression once, under compression the last force asked (a drag asks each
         force once, and the classes of a whole session must not pile up)."""
         key = ("class", P if P > 0.0 else 0.0, web_bent)
         slot = "class" if P <= 0.0 else "class-compressed"
@@ -112,18 +112,12 @@ class Prepared:
         if hit is not None and hit[0] == key:
             return hit[1]
         member = self.member
-        force = P if P > 0.0 else None
         if member is None:
             found = None
         elif member.segments:
-            found = tuple(
-                classify(s.section, s.material, compression=P > 0.0, axial_force=force, web_bent=web_bent)
-                for s in member.segments
-            )
+            found = tuple(classify_at(s.section, s.material, P, web_bent) for s in member.segments)
         else:
-            found = classify(
-                member.section, member.material, compression=P > 0.0, axial_force=force, web_bent=web_bent
-            )
+            found = classify_at(member.section, member.material, P, web_bent)
         self._design[slot] = (key, found)
         return found
 

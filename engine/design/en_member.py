@@ -12,10 +12,11 @@ What it takes from the engine (everything else is closed form):
 
 Resistances: :math:`N_{Rk} = A f_y`, :math:`M_{Rk} = W_{pl} f_y` (class 1–2) or :math:`W_{el} f_y` (class 3),
 the class the worse of the section's classes about both axes, the webs in bending and compression with α from
-N (:mod:`engine.classification`); a section class 4 in uniform compression but not under N with bending takes
+N (:mod:`engine.classification`); a section class 4 in uniform compression takes
 :math:`N_{Rk} = A_{eff} f_y` and :math:`\bar\lambda = \sqrt{A_{eff} f_y/N_{cr}}` (EN 1993-1-5 §4.4;
-conservative). Class 4 under N with bending, unclassified sections, custom sections and materials other than
-steel: the route is not applied.
+conservative), and a class 4 section with its effective properties (``SectionClass.effective``) the class 3
+rules with :math:`W_{eff}` in :math:`M_{Rk}`. Other class 4 sections, unclassified sections, custom sections
+and materials other than steel: the route is not applied.
 
 Beside eqs. (6.61)/(6.62) the route makes the cross-section checks that an equivalent-member check always
 goes with (EN 1993-1-1 §6.2, from memory): the linear interaction of §6.2.1(7), eq. (6.2),
