@@ -124,8 +124,8 @@ def _class_cautions(check) -> list:
         message = (
             f"The section is {found.describe()}. It is checked with effective properties: {area}{modulus} "
             "for bending, EN 1993-1-1 eq. (6.44) with e_N = 0 (doubly symmetric), and the equivalent member "
-            "by its class 3 rules. Local buckling of the effective section under the combined stresses "
-            "(EN 1993-1-5 §4.6) is not checked."
+            "by its class 3 rules, lateral-torsional buckling with W_eff too. Local buckling of the "
+            "effective section under the combined stresses (EN 1993-1-5 §4.6) is not checked."
         )
         source = "EN 1993-1-1:2005 §6.2.9.3 eq. (6.44), EN 1993-1-5:2006 §4.3–4.4 (clauses from memory)"
         values = {"A_eff": found.A_eff, "A": found.area, "W_eff": found.W_eff}

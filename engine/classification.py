@@ -243,9 +243,9 @@ def _rho_internal(ratio: float, eps: float) -> float:
     return 1.0 if lam <= 0.673 else min(1.0, (lam - 0.22) / (lam * lam))
 
 
-def _rho_outstand(ratio: float, eps: float) -> float:
-    """ρ of an outstand in uniform compression (k_σ = 0.43), EN 1993-1-5 §4.4(2) (from memory)."""
-    lam = ratio / (28.4 * eps * math.sqrt(0.43))
+def _rho_outstand(ratio: float, eps: float, k_sigma: float = 0.43) -> float:
+    """ρ of an outstand, EN 1993-1-5 §4.4(2) (from memory): k_σ = 0.43 in uniform compression."""
+    lam = ratio / (28.4 * eps * math.sqrt(k_sigma))
     return 1.0 if lam <= 0.748 else min(1.0, (lam - 0.188) / (lam * lam))
 
 
@@ -352,41 +352,92 @@ def classify_at(section, material, N: float, web_bent=None) -> SectionClass | No
 
 
 def effective_modulus(section, material, bending=None) -> float | None:
-    """The effective elastic modulus W_eff [m³] about the section's axis of an RHS whose compression wall is
-    class 4 in bending alone, EN 1993-1-5 §4.3–4.4 (from memory): the compression wall keeps ρ·c of its flat
-    width c = side − 3t (ρ of an internal part in uniform compression, as :func:`effective_area`), the lost
-    strip (1 − ρ) c t is taken out at mid-width, the neutral axis moves by e = ΔA z_f/(A − ΔA) towards the
-    tension side (z_f the compression wall's mid-plane), and
+    """The effective elastic modulus W_eff [m³] about the section's axis of a section that is class 4 in
+    bending alone, EN 1993-1-5 §4.3–4.4 (from memory), with the plates' ρ on the gross section's stresses
+    (§4.4(3)): the strips a plate loses are taken out, the neutral axis moves towards the tension side by
+    e = ΔA z_s/(A − ΔA) (z_s the lost strips' centroid), and W_eff = W_eff,min = I_eff over the distance from
+    that axis to the farther extreme fibre of the effective section:
 
-    .. math:: W_{eff} = \\frac{I - \\Delta A (z_f^2 + t^2/12) - (A - \\Delta A) e^2}{h/2 + e}
+    - an **RHS** whose compression wall is class 4: ρ of an internal part in uniform compression
+      (:func:`effective_area`), the strip (1 − ρ)c of its flat c = side − 3t taken out at mid-width;
+    - an **I/H about its major axis** whose compression flange is class 4: ρ of an outstand in uniform
+      compression (k_σ = 0.43), the strip (1 − ρ)c of each of its two outstands taken out at the tip;
+    - an **I/H about its minor axis** whose flange outstands are class 4 in uniform compression: the
+      compressed outstands (one each side of the web, top and bottom flange) carry the stress of bending
+      about the minor axis, largest at the free edge and ψ = (t_w/2 + r)/(b/2) at the flat's root (r = 0 for a
+      welded one), so k_σ = 0.57 − 0.21ψ + 0.07ψ² (EN 1993-1-5 Table 4.2, the outstand with the largest
+      compression at its free edge, 1 ≥ ψ ≥ 0: b_eff = ρc next to the web; from memory); the strip
+      (1 − ρ)c is taken out at the tip.
 
-    (h the side in the plane of bending). The side walls must then stay class 3 under the stress of the
-    effective section (Table 5.2, c/t ≤ 42ε/(0.67 + 0.33ψ) with ψ of that stress); else None. None too for
-    other shapes (an I/H with slender flanges, slender webs in bending: not computed here) and for a section
-    whose side walls are class 4 in bending. ``bending``: the section's pure-bending class, if known.
+    The webs (the side walls of an RHS, the web of an I/H bent about its major axis) must then stay class 3
+    under the stress of the effective section (Table 5.2, c/t ≤ 42ε/(0.67 + 0.33ψ) with ψ of that stress);
+    else None: their own effective width is not computed. None too for a web class 4 in bending alone, a class
+    4 CHS and any other shape. ``bending``: the section's pure-bending class, if known.
     """
     if bending is None:
         bending = _classify(section, material, False, None, None)
-    if bending is None or section.shape != "rhs":
+    if bending is None:
         return None
     if bending.klass <= 3:
         return section.W_el
-    web, flange = bending.parts
-    if web.klass == 4:
+    shape, dims, eps = section.shape, section.dimensions, bending.epsilon
+    if shape == "rhs":
+        side, flat, t = _rhs_flats(dims, section.axis)  # side: the side walls' (webs') flat
+        lost = (1.0 - _rho_internal(flat / t, eps)) * flat * t
+        in_plane = side + 3.0 * t
+        return _shifted(
+            section,
+            bending,
+            lost,
+            (0.5 * (in_plane - t), t * t / 12.0, 0.5 * in_plane, 0.5 * in_plane),
+            side,
+            t,
+        )
+    if shape not in ("rolled_i", "welded_i"):
         return None
+    web, outstand = _i_flats(dims, shape)
+    tw, tf = dims["tw"], dims["tf"]
+    if section.axis == "major":
+        strip = (1.0 - _rho_outstand(outstand / tf, eps)) * outstand
+        lost = 2.0 * strip * tf  # both outstands of the compression flange
+        return _shifted(
+            section,
+            bending,
+            lost,
+            (0.5 * (dims["h"] - tf), tf * tf / 12.0, 0.5 * dims["h"], 0.5 * dims["h"]),
+            web,
+            tw,
+        )
+    tip = 0.5 * dims["b"]
+    psi = (tip - outstand) / tip  # the flat's root over its free edge, stresses of the gross section
+    k_sigma = 0.57 - 0.21 * psi + 0.07 * psi * psi
+    strip = (1.0 - _rho_outstand(outstand / tf, eps, k_sigma)) * outstand
+    lost = 2.0 * strip * tf  # the compressed outstands of both flanges
+    return _shifted(
+        section, bending, lost, (tip - 0.5 * strip, strip * strip / 12.0, tip - strip, tip), None, tw
+    )
+
+
+def _shifted(section, bending, lost, where, web, t_web) -> float | None:
+    """W_eff,min [m³] once the strips of area ``lost`` [m²] are taken out; ``where`` = (z_s, own, top,
+    half): their centroid's distance from the gross centroid towards the compression side [m], their second
+    moment per unit area about their own centroid [m²], the effective section's extreme fibre on the
+    compression side and the gross section's on the tension side, from the gross centroid [m]: the modulus is
+    I_eff over the farther of the two from the moved neutral axis. None where the
+    ``web`` (its flat [m], symmetric about the gross centroid; None: none checked) of thickness ``t_web`` or
+    the web of ``bending`` is class 4 under the shifted stress."""
+    if any(p.klass == 4 for p in bending.parts if p.name.startswith(("web", "side wall"))):
+        return None
+    z_s, own, top, half = where
     eps = bending.epsilon
-    # side: the side walls' flat, from +side/2 to −side/2 about the gross centroid
-    side, flat, t = _rhs_flats(section.dimensions, section.axis)
-    in_plane = side + 3.0 * t
-    lost = (1.0 - _rho_internal(flat / t, eps)) * flat * t
-    z_f = 0.5 * (in_plane - t)
     kept = section.A - lost
-    e = lost * z_f / kept
-    inertia = section.I - lost * (z_f * z_f + t * t / 12.0) - kept * e * e
-    psi = -(0.5 * side - e) / (0.5 * side + e)
-    if side / t > 42.0 * eps / (0.67 + 0.33 * psi) * (1 + 1e-12):
-        return None
-    return inertia / (0.5 * in_plane + e)
+    e = lost * z_s / kept
+    inertia = section.I - lost * (z_s * z_s + own) - kept * e * e
+    if web is not None:
+        psi = -(0.5 * web - e) / (0.5 * web + e)
+        if web / t_web > 42.0 * eps / (0.67 + 0.33 * psi) * (1 + 1e-12):
+            return None
+    return inertia / max(top + e, half - e)
 
 
 def elastic_modulus(section, section_class, view=None) -> float:

@@ -25,7 +25,7 @@ from engine import segment_routes
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.buckling_interaction import conservative, larger
 from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
-from engine.classification import classify_at, worse_class
+from engine.classification import classify_at, elastic_modulus, worse_class
 from engine.design import aisc_member, en_member, ltb_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
@@ -252,13 +252,14 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
     first = major.first_order
     z_section = _made(cache, ("ltb-minor-section", spec), lambda: section_from_spec(dict(spec), "minor"))
     restraints, hinge = ltb_restraints(case)
+    section_y = y_section if y_section is not None else major.section
     return ltb_member.check(
         x=first.x,
         M=first.moment,
         V=first.shear,
         loads=major.case.loads,
         length=major.case.length,
-        section_y=y_section if y_section is not None else major.section,
+        section_y=section_y,
         section_z=z_section,
         material=material,
         N=float(result.axial_force),
@@ -270,6 +271,7 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
         restraints=restraints,
         lateral_hinge=hinge,
         resistance=material.kind == "steel",  # another material: M_cr alone, its bound (_with_ltb_term)
+        modulus=None if klass is None else elastic_modulus(section_y, klass, 0),  # W_eff,y of class 4
     )
 
 

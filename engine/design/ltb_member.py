@@ -272,6 +272,7 @@ def check(
     restraints: tuple = (),
     lateral_hinge: bool = False,
     resistance: bool = True,
+    modulus: float | None = None,
 ) -> LtbCheck:
     """The lateral-torsional buckling check of a member (see the module).
 
@@ -282,7 +283,9 @@ def check(
     restraints in :func:`engine.design.mcr.critical_moment`'s form; ``lateral_hinge``: a hinge in the plane of
     minor-axis bending (the check is then not made: the elements cannot release v''); ``resistance`` False
     (a material without EN 1993-1-1's curves): the check is not made (reason ``material-<kind>``), but the
-    exact M_cr with N held is kept, a bound of any code's resistance.
+    exact M_cr with N held is kept, a bound of any code's resistance. ``modulus``: W_eff,y of a class 4
+    section with its effective properties (EN 1993-1-1 §6.3.2.1(3), W_y = W_eff,y for class 4; from memory),
+    in place of W_el,y.
     """
     xs = np.asarray(x, dtype=float)
     ms = np.asarray(M, dtype=float)
@@ -413,6 +416,8 @@ def check(
     M_tab, std, segment, aisc, cb_f1 = fixed() if cache is None else cache(("ltb-fixed", *ident), fixed)
     plastic = section_class is not None and section_class <= 2
     W_y = sy.W_pl if plastic else sy.W_el
+    if section_class == 4 and modulus is not None:
+        W_y = modulus
     fy = material.fy
     lam = math.sqrt(W_y * fy / M_cr) if M_cr > 0.0 else math.inf
     rolled = settings.chi_method == "rolled" and sy.shape in ("rolled_i", "welded_i")
