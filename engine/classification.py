@@ -369,10 +369,11 @@ def effective_modulus(section, material, bending=None) -> float | None:
       compression at its free edge, 1 ≥ ψ ≥ 0: b_eff = ρc next to the web; from memory); the strip
       (1 − ρ)c is taken out at the tip.
 
-    The webs (the side walls of an RHS, the web of an I/H bent about its major axis) must then stay class 3
-    under the stress of the effective section (Table 5.2, c/t ≤ 42ε/(0.67 + 0.33ψ) with ψ of that stress);
-    else None: their own effective width is not computed. None too for a web class 4 in bending alone, a class
-    4 CHS and any other shape. ``bending``: the section's pure-bending class, if known.
+    The webs (the side walls of an RHS, the web of an I/H bent about its major axis) then take their own
+    effective width (Table 4.1) at the ψ of the section with the flange strips out and the webs whole
+    (§4.4(3)), once, without iterating: a web class 4 in bending alone, or one made slender by the moved axis,
+    loses the hole between b_e1 and b_e2 (:func:`_web_hole`). None for a class 4 CHS and any other shape.
+    ``bending``: the section's pure-bending class, if known.
     """
     if bending is None:
         bending = _classify(section, material, False, None, None)
@@ -385,14 +386,8 @@ def effective_modulus(section, material, bending=None) -> float | None:
         side, flat, t = _rhs_flats(dims, section.axis)  # side: the side walls' (webs') flat
         lost = (1.0 - _rho_internal(flat / t, eps)) * flat * t
         in_plane = side + 3.0 * t
-        return _shifted(
-            section,
-            bending,
-            lost,
-            (0.5 * (in_plane - t), t * t / 12.0, 0.5 * in_plane, 0.5 * in_plane),
-            side,
-            t,
-        )
+        where = (0.5 * (in_plane - t), t * t / 12.0, 0.5 * in_plane, 0.5 * in_plane)
+        return _shifted(section, bending, lost, where, (side, t, 2))
     if shape not in ("rolled_i", "welded_i"):
         return None
     web, outstand = _i_flats(dims, shape)
@@ -400,44 +395,67 @@ def effective_modulus(section, material, bending=None) -> float | None:
     if section.axis == "major":
         strip = (1.0 - _rho_outstand(outstand / tf, eps)) * outstand
         lost = 2.0 * strip * tf  # both outstands of the compression flange
-        return _shifted(
-            section,
-            bending,
-            lost,
-            (0.5 * (dims["h"] - tf), tf * tf / 12.0, 0.5 * dims["h"], 0.5 * dims["h"]),
-            web,
-            tw,
-        )
+        where = (0.5 * (dims["h"] - tf), tf * tf / 12.0, 0.5 * dims["h"], 0.5 * dims["h"])
+        return _shifted(section, bending, lost, where, (web, tw, 1))
     tip = 0.5 * dims["b"]
     psi = (tip - outstand) / tip  # the flat's root over its free edge, stresses of the gross section
     k_sigma = 0.57 - 0.21 * psi + 0.07 * psi * psi
     strip = (1.0 - _rho_outstand(outstand / tf, eps, k_sigma)) * outstand
     lost = 2.0 * strip * tf  # the compressed outstands of both flanges
-    return _shifted(
-        section, bending, lost, (tip - 0.5 * strip, strip * strip / 12.0, tip - strip, tip), None, tw
-    )
+    return _shifted(section, bending, lost, (tip - 0.5 * strip, strip * strip / 12.0, tip - strip, tip))
 
 
-def _shifted(section, bending, lost, where, web, t_web) -> float | None:
+def _shifted(section, bending, lost, where, web=None) -> float:
     """W_eff,min [m³] once the strips of area ``lost`` [m²] are taken out; ``where`` = (z_s, own, top,
     half): their centroid's distance from the gross centroid towards the compression side [m], their second
     moment per unit area about their own centroid [m²], the effective section's extreme fibre on the
     compression side and the gross section's on the tension side, from the gross centroid [m]: the modulus is
-    I_eff over the farther of the two from the moved neutral axis. None where the
-    ``web`` (its flat [m], symmetric about the gross centroid; None: none checked) of thickness ``t_web`` or
-    the web of ``bending`` is class 4 under the shifted stress."""
-    if any(p.klass == 4 for p in bending.parts if p.name.startswith(("web", "side wall"))):
-        return None
+    I_eff over the farther of the two from the moved neutral axis. ``web`` = (flat, t, count): the webs in the
+    plane of bending (flat symmetric about the gross centroid), whose effective width (:func:`_web_hole`)
+    takes ψ from the section with those strips out and the webs whole (EN 1993-1-5 §4.4(3), from memory)."""
     z_s, own, top, half = where
-    eps = bending.epsilon
     kept = section.A - lost
     e = lost * z_s / kept
     inertia = section.I - lost * (z_s * z_s + own) - kept * e * e
     if web is not None:
-        psi = -(0.5 * web - e) / (0.5 * web + e)
-        if web / t_web > 42.0 * eps / (0.67 + 0.33 * psi) * (1 + 1e-12):
-            return None
+        flat, t, count = web
+        psi = -(0.5 * flat - e) / (0.5 * flat + e)
+        hole, z_h, own_h = _web_hole(flat, t, bending.epsilon, psi)
+        if hole > 0.0:
+            holes = count * hole
+            kept = section.A - lost - holes
+            e = (lost * z_s + holes * z_h) / kept
+            inertia = section.I - lost * (z_s * z_s + own) - holes * (z_h * z_h + own_h) - kept * e * e
     return inertia / max(top + e, half - e)
+
+
+def _k_internal(psi: float) -> float:
+    """k_σ of an internal part at the stress ratio ψ, EN 1993-1-5 Table 4.1 (from memory)."""
+    if psi >= 1.0:
+        return 4.0
+    if psi >= 0.0:
+        return 8.2 / (1.05 + psi)
+    if psi > -1.0:
+        return 7.81 - 6.29 * psi + 9.78 * psi * psi
+    return 5.98 * (1.0 - psi) ** 2
+
+
+def _web_hole(flat: float, t: float, eps: float, psi: float) -> tuple[float, float, float]:
+    """(area [m²], centroid [m] from the flat's middle towards its compressed end, second moment per unit area
+    about its own centroid [m²]) of the part an internal plate loses at the stress ratio ψ (its compressed
+    end at +flat/2), EN 1993-1-5 §4.4(2) eq. (4.2) and Table 4.1 (from memory): λ̄_p = (c/t)/(28.4ε√k_σ),
+    ρ = (λ̄_p − 0.055(3 + ψ))/λ̄_p² ≤ 1 above λ̄_p = 0.5 + √(0.085 − 0.055ψ); b_eff = ρ b_c with b_c = c/(1 − ψ)
+    for ψ < 0 (b_e1 = 0.4 b_eff at the compressed end, b_e2 = 0.6 b_eff next to the neutral axis), else
+    b_eff = ρc with b_e1 = 2b_eff/(5 − ψ); the hole b_c − b_eff lies between b_e1 and b_e2."""
+    lam = flat / t / (28.4 * eps * math.sqrt(_k_internal(psi)))
+    if lam <= 0.5 + math.sqrt(0.085 - 0.055 * psi):
+        return 0.0, 0.0, 0.0
+    rho = min(1.0, (lam - 0.055 * (3.0 + psi)) / (lam * lam))
+    compressed = flat / (1.0 - psi) if psi < 0.0 else flat
+    kept = rho * compressed
+    first = 0.4 * kept if psi < 0.0 else 2.0 * kept / (5.0 - psi)
+    hole = compressed - kept
+    return hole * t, 0.5 * flat - first - 0.5 * hole, hole * hole / 12.0
 
 
 def elastic_modulus(section, section_class, view=None) -> float:

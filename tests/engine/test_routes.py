@@ -22,6 +22,7 @@ import engine
 from engine.capacity import capacity
 from engine.checks import CheckSettings
 from engine.member_routes import headline
+from engine.sections import section_from_spec
 
 REPO = pathlib.Path(__file__).resolve().parents[2]
 
@@ -438,22 +439,40 @@ def test_aisc_required_moment_is_the_bow_free_second_order_moment():
 
 
 def test_slender_sections_are_not_applied_with_a_reason():
-    """A welded girder web with c/t = 130 > 124ε (S235) is class 4 even in bending alone (EN 1993-1-1 Table
-    5.2): no effective section is computed for it, so the en-member route is not applied and the second-order
-    route refuses it (unbounded, with the class 4 danger caution). AISC finds the web slender in compression
-    (Table B4.1a, h/t_w = 130 > 1.49√(E/F_y) = 43.6 for F_y = 235 MPa, from memory) and takes P_n = F_cr A_e
-    of §E7 (note ``aisc-slender-e7``); it is the only enabled route that applies, so it is the headline."""
-    girder = {"shape": "welded_i", "h": 1.324, "b": 0.3, "tw": 0.01, "tf": 0.012}
+    """A CHS with d/t = 60 > 90ε² = 59.6 (S355) is class 4 (EN 1993-1-1 Table 5.2); its effective section
+    belongs to EN 1993-1-6 and is not computed, so the en-member route is not applied and the second-order
+    route refuses it (unbounded, with the class 4 danger caution). AISC's round HSS limit in compression is
+    0.11E/F_y = 65 (Table B4.1a, from memory): not slender there, so its route applies and, the only enabled
+    route that does, is the headline."""
+    tube = {"shape": "chs", "D": 0.3, "t": 0.005}
     routes = {"routes": ["en-member", "aisc"]}
-    r = engine.solve(_case(section=girder, material={"name": "S235"}, check=routes))
+    r = engine.solve(_case(section=tube, material={"name": "S355"}, check=routes))
     en, aisc = _route(r, "en-member"), _route(r, "aisc")
     assert en.utilization is None and en.reason == "section-class-4"
-    assert aisc.utilization is not None and "aisc-slender-e7" in aisc.notes
-    assert aisc.facts["A_e"] < aisc.facts["A_g"]
+    assert aisc.utilization is not None and "aisc-slender-e7" not in aisc.notes
     assert math.isinf(_route(r, "second-order").utilization) and r.utilization == aisc.utilization
     codes = [c.code for c in r.cautions]
     assert "headline-fallback" not in codes and codes.count("route-not-applied") == 1
     assert "section-class-4" in [c.code for c in r.cautions if c.level == "danger"]
+
+
+def test_a_girder_web_class_4_in_bending_takes_its_effective_section_on_every_route():
+    """A welded girder web with c/t = 130 > 124ε (S235) is class 4 even in bending alone (EN 1993-1-1 Table
+    5.2): the en-member route takes its class 3 rules with W_eff (EN 1993-1-5 Table 4.1, checked against
+    sectionproperties in tests/engine/test_effective_modulus.py) and the second-order route eq. (6.44). AISC
+    finds the web slender in compression (Table B4.1a, h/t_w = 130 > 1.49√(E/F_y) = 43.6 for F_y = 235 MPa,
+    from memory) and takes P_n = F_cr A_e of §E7 (note ``aisc-slender-e7``)."""
+    girder = {"shape": "welded_i", "h": 1.324, "b": 0.3, "tw": 0.01, "tf": 0.012}
+    routes = {"routes": ["second-order", "en-member", "aisc"]}
+    r = engine.solve(_case(section=girder, material={"name": "S235"}, check=routes))
+    en, aisc = _route(r, "en-member"), _route(r, "aisc")
+    found = r.check.section_class
+    assert found.klass == 4 and found.effective and found.W_eff < section_from_spec(girder, "major").W_el
+    assert en.facts["M_y_Rk"] == pytest.approx(found.W_eff * 235e6, rel=1e-12)
+    assert aisc.utilization is not None and "aisc-slender-e7" in aisc.notes
+    assert aisc.facts["A_e"] < aisc.facts["A_g"]
+    assert math.isfinite(_route(r, "second-order").utilization) and math.isfinite(r.utilization)
+    assert "section-class-4-effective" in [c.code for c in r.cautions]
 
 
 def test_a_web_class_4_in_compression_only_takes_the_effective_area():
