@@ -144,8 +144,7 @@ def test_the_values_table_fits_its_panel_with_symbols(context, server, width, he
     assert box["x"] + box["width"] <= width + 0.5
     for cell in (table.locator("td").nth(i) for i in range(table.locator("td").count())):
         assert not_clipped(cell), cell.inner_text()
-    panel = page.locator(".ss-values").evaluate("(el) => el.getRootNode().host.getBoundingClientRect().width")
-    assert box["width"] <= panel + 0.5
+    assert box["width"] <= _panel_width(page, page.locator(".ss-values")) + 0.5
 
 
 def test_a_refused_input_dims_the_values_and_blocks_the_exports(app):
@@ -254,6 +253,23 @@ def test_at_1920_by_1080_the_diagrams_use_the_height(browser, server):
         boxes = [canvases.nth(i).bounding_box() for i in range(canvases.count())]
         shown = [box for box in boxes if box and box["height"] > 0]
         assert max(box["y"] + box["height"] for box in shown) > 0.85 * viewport["height"]
+
+
+def _panel_width(page, locator) -> float:
+    """The width of the pane that holds the locator's element, once the pane has finished redrawing (an
+    element met while a redraw replaces it is detached: its root has no host; CI met this once)."""
+    script = (
+        "(el) => { const root = el.getRootNode();"
+        " return root.host ? root.host.getBoundingClientRect().width : null; }"
+    )
+    for _ in range(100):
+        locator.first.wait_for(state="visible")
+        with contextlib.suppress(Exception):  # detached between the wait and the call
+            width = locator.first.evaluate(script)
+            if width is not None:
+                return width
+        page.wait_for_timeout(100)
+    raise AssertionError("the pane never settled")
 
 
 def _settled_box(page, locator):
