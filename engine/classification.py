@@ -414,18 +414,15 @@ def _shifted(section, bending, lost, where, web=None) -> float:
     plane of bending (flat symmetric about the gross centroid), whose effective width (:func:`_web_hole`)
     takes ψ from the section with those strips out and the webs whole (EN 1993-1-5 §4.4(3), from memory)."""
     z_s, own, top, half = where
-    kept = section.A - lost
-    e = lost * z_s / kept
-    inertia = section.I - lost * (z_s * z_s + own) - kept * e * e
+    holes = z_h = own_h = 0.0
     if web is not None:
         flat, t, count = web
-        psi = -(0.5 * flat - e) / (0.5 * flat + e)
-        hole, z_h, own_h = _web_hole(flat, t, bending.epsilon, psi)
-        if hole > 0.0:
-            holes = count * hole
-            kept = section.A - lost - holes
-            e = (lost * z_s + holes * z_h) / kept
-            inertia = section.I - lost * (z_s * z_s + own) - holes * (z_h * z_h + own_h) - kept * e * e
+        e = lost * z_s / (section.A - lost)  # the axis with the strips out and the webs whole
+        hole, z_h, own_h = _web_hole(flat, t, bending.epsilon, -(0.5 * flat - e) / (0.5 * flat + e))
+        holes = count * hole
+    kept = section.A - lost - holes
+    e = (lost * z_s + holes * z_h) / kept
+    inertia = section.I - lost * (z_s * z_s + own) - holes * (z_h * z_h + own_h) - kept * e * e
     return inertia / max(top + e, half - e)
 
 
