@@ -45,7 +45,7 @@ import math
 
 from engine.design import en_member
 
-__all__ = ["TERM", "conservative", "equations", "larger"]
+__all__ = ["TERM", "conservative", "equations", "larger", "of_route"]
 
 #: The second-order route's term code.
 TERM = "buckling-interaction"
@@ -96,16 +96,46 @@ def conservative(*, y, z, N, material, section_class, settings, ltb, unit_cm=Tru
             enabled=False,
             ltb=ltb,
         )
-        if check.utilization is None:
+        found = _largest(check, wanted)
+        if found is None:
             return None
-        for equation in wanted:
-            value = check.terms.get(equation)
-            if value is None:  # at or above a critical load: the route's own verdict (+inf)
-                if not math.isinf(check.utilization):
-                    return None
-                value = check.utilization
-            if best is None or value > best[0]:
-                best = (float(value), equation, check.facts, ry is not y)
+        if best is None or found[0] > best[0]:
+            best = (*found, ry is not y)
+    return _term(best, y, z)
+
+
+def of_route(check, *, y, z, ltb) -> dict | None:
+    """The term of :func:`conservative` read from an ``en-member`` route already made (``check``, of the
+    planes ``y``, ``z`` and the LTB check ``ltb`` as the route read them): the route's own equations, for
+    a case that did not enable that route. None where nothing is left to count or the route is not
+    applied."""
+    wanted = equations(y, z, ltb)
+    if not wanted or not check.facts.get("N_Ed", 0.0) > 0.0:
+        return None
+    found = _largest(check, wanted)
+    return None if found is None else _term((*found, False), y, z)
+
+
+def _largest(check, wanted) -> tuple | None:
+    """(value, equation, facts) of the largest of the ``wanted`` equations of an ``en-member`` route check;
+    None when the route is not applied. An equation the route did not form (at or above a critical load)
+    takes the route's own verdict (+inf)."""
+    if check.utilization is None:
+        return None
+    best = None
+    for equation in wanted:
+        value = check.terms.get(equation)
+        if value is None:
+            if not math.isinf(check.utilization):
+                return None
+            value = check.utilization
+        if best is None or value > best[0]:
+            best = (float(value), equation, check.facts)
+    return best
+
+
+def _term(best, y, z) -> dict:
+    """The term's dict (see :func:`conservative`) from (value, equation, facts, unit_cm)."""
     value, equation, facts, unit = best
     one_plane = "out-of-plane length" in (y.N_cr_source, z.N_cr_source)
     k_name = None

@@ -23,7 +23,7 @@ import math
 
 from engine import segment_routes
 from engine.buckling_interaction import TERM as INTERACTION
-from engine.buckling_interaction import conservative, larger
+from engine.buckling_interaction import conservative, equations, larger, of_route
 from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
 from engine.classification import classify_at, elastic_modulus, worse_class
 from engine.design import aisc_member, en_member, ltb_member
@@ -42,6 +42,9 @@ FALLBACK = "headline-fallback-second-order"
 #: Why the equivalent-member routes are not applied to a member stepped in section: EN 1993-1-1 §6.3.1 and
 #: §6.3.3 are written for uniform members (§6.3.4 covers others; from memory), AISC H1 likewise.
 STEPPED = "stepped-section"
+#: Why the second-order route counts the en-member route's eqs. (6.61)/(6.62) itself: that route is not
+#: enabled (a decision of the project, DEVELOPERS.md decisions log 2026-12-03).
+NOT_ENABLED = "en-member-not-enabled"
 
 _KINDS = {
     "elastic stress": "cross-section",
@@ -361,6 +364,9 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
     )
     if en is None:
         en = en_member.route(y=y, z=z, **common)
+    if second.enabled and not enabled_en and not case.foundation:  # the user left eqs. (6.61)/(6.62) out
+        term = _route_own_term(en, y, z, found, result, cache, common)
+        second = _with_interaction(second, term, NOT_ENABLED)
     if case.foundation:  # the en-member route cannot count it there
         term = conservative(
             y=y,
@@ -459,6 +465,31 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
         ltb=ltb,
         unit_cm=False,
     )
+
+
+def _route_own_term(en, y, z, ltb, result, cache, common):
+    """The buckling interaction the second-order route leaves out (:func:`engine.buckling_interaction.
+    equations`), read from the ``en-member`` route the case did not enable: its own equations, or on a
+    member with braced points the piece where they are largest (not always the piece that governs that
+    route)."""
+    wanted = equations(y, z, ltb)
+    if not wanted or en.utilization is None:
+        return None
+    if "segments" in en.facts:
+
+        def largest(check):
+            values = [check.terms.get(e) for e in wanted]
+            return max(check.utilization if v is None else v for v in values)
+
+        en = segment_routes.route(
+            y=y,
+            z=z,
+            plane_results=_plane_results(result),
+            cache=lambda k, m: _made(cache, k, m),
+            key=largest,
+            **common,
+        )
+    return of_route(en, y=y, z=z, ltb=ltb)
 
 
 def _with_interaction(second: RouteCheck, term, why: str) -> RouteCheck:

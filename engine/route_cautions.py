@@ -209,11 +209,13 @@ _WHY = {
     "route cannot be enabled on it",
     "stepped-section": "the en-member route takes one section along the member; each segment's section is "
     "taken in turn with the largest moment of the whole member",
+    "en-member-not-enabled": "the en-member route, which counts them, is not enabled",
 }
 
 _READ = {
     "foundation": "with C_m = 1, the largest value of the Annex's tables,",
     "stepped-section": "with C_m read from the member's own diagram,",
+    "en-member-not-enabled": "as the en-member route reads them,",
 }
 
 
@@ -225,14 +227,19 @@ def _counted_conservatively(second) -> Caution:
     value = facts.get("interaction_value", second.terms[INTERACTION])
     why = facts.get("interaction_reason", "")
     shown = "(6.62)" if equation == "eq-6.62" else "(6.61)"
+    because = _WHY.get(why, "no equivalent-member route counts it")
     return Caution(
         level="info",
         code="buckling-interaction-counted",
         message=(
             "Member buckling with the moments (out of plane, and lateral-torsional with the axial force) is "
             f"counted in the second-order route by EN 1993-1-1 eqs. (6.61)/(6.62) {_READ.get(why, '')} on "
-            f"the member's own first-order moments: eq. {shown} governs with {value:.3f}. A conservative "
-            f"reading, because {_WHY.get(why, 'no equivalent-member route counts it')}."
+            f"the member's own first-order moments: eq. {shown} governs with {value:.3f}. "
+            + (
+                f"It is counted here because {because}."
+                if why == "en-member-not-enabled"
+                else f"A conservative reading, because {because}."
+            )
         ),
         source=_INTERACTION_SOURCE + "; Annex B Table B.3 and Annex A Table A.2 (from memory)",
         values={"route": "second-order", "equation": equation, "value": value, "reason": why},

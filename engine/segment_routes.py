@@ -97,12 +97,13 @@ def _containing(cuts: tuple, length: float, x: float) -> tuple:
     return ends[k], ends[k + 1]
 
 
-def route(*, y, z, plane_results, cache, **common):
+def route(*, y, z, plane_results, cache, key=None, **common):
     """The ``en-member`` route of a member with braced points: every piece between the braced points of both
     planes checked as an equivalent member (see the module); ``plane_results`` maps an axis (``"y"``,
     ``"z"``) to its solved plane ``(result, case)`` or None (a plane without loads: no cuts, its diagram as
     given). ``common``: the other arguments of :func:`engine.design.en_member.route`. Returns the governing
-    piece's RouteCheck, or None when no plane has a braced point (the member is one equivalent member)."""
+    piece's RouteCheck, or None when no plane has a braced point (the member is one equivalent member);
+    ``key`` (a function of a piece's RouteCheck) picks the piece instead of its utilisation."""
     planes = {"y": y, "z": z}
     cuts = {axis: (braced_points(found[1]) if found else ()) for axis, found in plane_results.items()}
     if not any(cuts.values()):
@@ -128,7 +129,8 @@ def route(*, y, z, plane_results, cache, **common):
         if found.utilization is None:
             return found  # not applied: a property of the section, the same for every piece
         pieces.append((a, b, found))
-    a, b, best = max(pieces, key=lambda p: p[2].utilization)
+    pick = (lambda p: p[2].utilization) if key is None else (lambda p: key(p[2]))
+    a, b, best = max(pieces, key=pick)
     facts = dict(
         best.facts,
         segment_start=a,

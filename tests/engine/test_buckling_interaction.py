@@ -230,17 +230,24 @@ def test_two_planes_on_a_foundation_count_ltb_with_n(N):
         assert second.terms[TERM] == pytest.approx(0.367, abs=5e-4)
 
 
-def test_two_planes_second_order_alone_warn_when_ltb_with_n_exceeds_the_headline():
-    """A two-plane member (no foundation) checked by the second-order route alone: where the en-member route's
-    eq. (6.62) with χ_LT exceeds the headline, a warning says what the headline leaves out (0.473 against
-    0.445 at 180 kN); where it does not, none (400 kN: the cross-section check 1.204 is larger)."""
+def test_two_planes_second_order_alone_count_ltb_with_n():
+    """A two-plane member (no foundation) checked by the second-order route alone: the en-member route is not
+    enabled, so the second-order route counts that route's own eqs. (6.61)/(6.62) with χ_LT (at 180 kN eq.
+    (6.62) 0.473 governs, where the biaxial cross-section check gives 0.445; before, 0.445 was the headline
+    and only a warning named the 0.473). At 400 kN the cross-section check (1.204) stays the larger."""
     low = engine.solve(engine.Case.from_dict(_two_planes(180e3)))
-    found = [c for c in low.cautions if c.code == "lateral-torsional-interaction-not-counted"]
-    eq = _route(low, "en-member").terms["eq-6.62"]
-    assert eq > low.utilization
-    assert [c.level for c in found] == ["warning"] and found[0].values["value"] == eq
+    member, second = _route(low, "en-member"), _route(low, "second-order")
+    eq = max(member.terms["eq-6.61"], member.terms["eq-6.62"])
+    assert eq == pytest.approx(0.473, abs=5e-4)
+    assert second.terms[TERM] == eq and second.governing == TERM
+    assert low.utilization == eq > second.terms["cross-section"]
+    codes = {c.code: c for c in low.cautions}
+    assert "lateral-torsional-interaction-not-counted" not in codes
+    assert codes["buckling-interaction-counted"].values["reason"] == "en-member-not-enabled"
     high = engine.solve(engine.Case.from_dict(_two_planes(400e3)))
-    assert not [c for c in high.cautions if c.code == "lateral-torsional-interaction-not-counted"]
+    second = _route(high, "second-order")
+    assert second.terms["cross-section"] > second.terms[TERM]
+    assert high.utilization == second.terms["cross-section"]
 
 
 def test_stepped_member_braced_out_of_plane_still_counts_ltb_with_n():
@@ -255,3 +262,22 @@ def test_stepped_member_braced_out_of_plane_still_counts_ltb_with_n():
     data["check"] = dict(data.get("check") or {}, ltb={"restrained": True})
     braced = engine.solve(engine.Case.from_dict(data))
     assert TERM not in _route(braced, "second-order").terms
+
+
+@pytest.mark.parametrize("at", [2.0, 3.0, 4.5])
+def test_braced_member_without_the_en_member_route_takes_its_worst_piece(at):
+    """A member braced in its plane (a rigid restraint at ``at``) is checked by the en-member route piece by
+    piece (Annex B Table B.3 between braced points). With that route not enabled, the second-order route
+    counts the largest eq. (6.61)/(6.62) over the pieces: never below the governing piece's equations, never
+    above that route's utilisation (the largest term of all pieces). The invented demo wind post, 350 kN."""
+    data = _demo(axial_force=350e3, restraints=[{"x": at, "translation": "fixed"}])
+    both = engine.solve(engine.Case.from_dict(data))
+    member = _route(both, "en-member")
+    assert len(member.facts["segments"]) == 2
+    data["check"] = dict(data.get("check") or {}, routes=["second-order"])
+    alone = engine.solve(engine.Case.from_dict(data))
+    term = _route(alone, "second-order").terms[TERM]
+    own = max(member.terms["eq-6.61"], member.terms["eq-6.62"])
+    assert own <= term <= member.utilization
+    assert alone.utilization >= term
+    assert _route(both, "second-order").terms.get(TERM) is None  # counted by the enabled route instead
