@@ -477,7 +477,8 @@ def _build() -> dict[str, Any]:
                 "buckling_length": _number(
                     "Out-of-plane buckling length L_cr [m], 0.001 to 10000: "
                     "flexural buckling about the axis the member does not bend about "
-                    "(EN 1993-1-1 §6.3.1). Default: the member length.",
+                    "(EN 1993-1-1 §6.3.1). Default: the member length, or twice it where an "
+                    "end is free to translate in the plane analysed (a cantilever's).",
                     minimum=0.001,
                     maximum=10000,
                 ),

@@ -177,7 +177,8 @@ class Case:
         The member check's method, γ factors and deflection limit (:class:`engine.checks.CheckSettings`).
     out_of_plane : OutOfPlaneSettings or mapping, optional
         ``{"buckling_length": L_cr}`` or ``{"restrained": true}`` for flexural buckling about the other axis
-        (:mod:`engine.out_of_plane`); default: the member length, not restrained. Not with ``second_plane``.
+        (:mod:`engine.out_of_plane`); default: the member length (twice it where an end sways), not
+        restrained. Not with ``second_plane``.
     second_plane : SecondPlane or mapping, optional
         Bending about the other axis as well (:mod:`engine.plane`): its ``supports`` (required), ``loads``,
         ``imperfection`` (default: the EN 1993-1-1 Table 5.1 bow with a steel section, else none) and ``EI``

@@ -14,9 +14,10 @@ check for it:
 compression, :func:`engine.classification.effective_area`), with :math:`\chi_o` of eq. (6.49) for the
 buckling curve of EN 1993-1-1 Table 6.2 about that axis, and
 :math:`L_{cr,o}` the case's ``out_of_plane.buckling_length`` (default: the member length, pin-ended about the
-other axis). ``{"restrained": true}`` says that out-of-plane buckling is prevented (the check is then left
-out, and the result says so). The stiffness factor of the case is not applied: it belongs to the in-plane
-analysis.
+other axis; twice the member length where an end is free to translate in the plane analysed,
+:data:`SWAY_NOTE`). ``{"restrained": true}`` says that out-of-plane buckling is prevented (the check is
+then left out, and the result says so). The stiffness factor of the case is not applied: it belongs to the
+in-plane analysis.
 
 Only steel sections with a buckling curve are checked: a custom section (its properties are given about one
 axis) or another material gets a warning that the check was not made. Another material with a catalogue or
@@ -47,6 +48,7 @@ __all__ = [
     "KIND",
     "OutOfPlane",
     "OutOfPlaneSettings",
+    "SWAY_NOTE",
     "resistance",
     "utilisation",
 ]
@@ -209,6 +211,17 @@ class OutOfPlane:
         )
 
 
+#: The warning of the default L_cr = 2L (a decision of the project, DEVELOPERS.md decisions log, stop 29): a
+#: member with an end free to translate in the plane analysed, and no ``out_of_plane`` given, is taken as a
+#: cantilever out of plane too (K = 2, Euler; Timoshenko & Gere 1961 ch. 2), the longest buckling length of
+#: a member fixed at one end; held out of plane, it buckles on a shorter length, which the user gives.
+SWAY_NOTE = (
+    "L_cr is taken as 2L (a cantilever's), because an end is free to translate in the plane analysed and no "
+    "out-of-plane buckling length is given. Give out_of_plane.buckling_length (or restrained) where the "
+    "member is held out of plane."
+)
+
+
 def resistance(case, section, material, segments=()) -> OutOfPlane:
     """N_b,Rd about the axis the member does not bend about (independent of the axial force).
 
@@ -278,7 +291,13 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         )
     if section is None or material is None:
         return OutOfPlane(checked=False, axis=other, reason="no section and material: not checked")
-    length = settings.buckling_length if settings.buckling_length is not None else case.length
+    sways = settings.buckling_length is None and _sways(case)
+    length = (
+        settings.buckling_length
+        if settings.buckling_length is not None
+        else case.length * (2 if sways else 1)
+    )
+    note = SWAY_NOTE if sways else ""
     if section.shape == "custom":
         if section.I_minor is None or case.axis != "major":
             return OutOfPlane(
@@ -287,7 +306,7 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
                 reason="a custom section has properties about one axis "
                 "only: out-of-plane buckling cannot be checked (give its Iz to have it checked)",
             )
-        return _custom(case, section, material, length, _length_reason(settings))
+        return _custom(case, section, material, length, _length_reason(settings, sways), note)
     turned = section_from_spec(dict(case.section if spec is None else spec), other)
     n_cr = math.pi**2 * material.E * turned.I / length**2
     if material.kind != "steel":
@@ -295,14 +314,6 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
     curve, why = curve_of(turned, material)  # turned is about the other axis
     if curve is None:  # pragma: no cover - every steel shape but custom has a curve
         return OutOfPlane(checked=False, axis=other, reason=f"no buckling curve: {why}")
-    note = ""
-    sways = any(end.translation != "fixed" for end in (case.left, case.right))
-    if settings.buckling_length is None and sways:
-        note = (
-            "L_cr is taken as the member length, but an end is free to translate in the plane analysed: "
-            "if it is free out of plane too, L_cr is up to 2L (a cantilever). Give "
-            "out_of_plane.buckling_length."
-        )
     area, effective = _area(turned, material)
     lam = codes.slenderness(area, material.fy, n_cr)
     chi = codes.reduction_factor(lam, curve)
@@ -318,7 +329,7 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         curve=curve,
         curve_reason=why,
         note=note,
-        reason=_length_reason(settings) + (_area_note(area, turned.A) if effective else ""),
+        reason=_length_reason(settings, sways) + (_area_note(area, turned.A) if effective else ""),
     )
 
 
@@ -335,9 +346,17 @@ def _area_note(area: float, gross: float) -> str:
     return f"; class 4 in uniform compression: χ·A_eff·f_y with A_eff = {area / gross:.3f}·A"
 
 
-def _length_reason(settings) -> str:
+def _sways(case) -> bool:
+    """Whether an end of the member is free to translate in the plane analysed (free, guided or a
+    translational spring)."""
+    return any(end.translation != "fixed" for end in (case.left, case.right))
+
+
+def _length_reason(settings, sways: bool = False) -> str:
     """Where L_cr comes from, as a checked result says it."""
-    return "given" if settings.buckling_length is not None else "the member length (default)"
+    if settings.buckling_length is not None:
+        return "given"
+    return "twice the member length (default where an end sways)" if sways else "the member length (default)"
 
 
 def _without_curves(material, axis, length, n_cr) -> OutOfPlane:
@@ -353,7 +372,7 @@ def _without_curves(material, axis, length, n_cr) -> OutOfPlane:
     )
 
 
-def _custom(case, section, material, length, reason) -> OutOfPlane:
+def _custom(case, section, material, length, reason, note="") -> OutOfPlane:
     """A custom section bent about its major axis that gives Iz: N_cr = π²E·Iz/L_cr² about the minor axis;
     steel is checked with curve d, the most unfavourable of EN 1993-1-1 Table 6.2 (the table has no row for
     an arbitrary section, and any other curve gives a larger χ), another material gets the bound N/N_cr;
@@ -373,6 +392,7 @@ def _custom(case, section, material, length, reason) -> OutOfPlane:
         N_b_Rd=chi * section.A * material.fy / case.check.gamma_M1,
         curve="d",
         curve_reason="a custom section: curve d, the most unfavourable of Table 6.2, with its Iz",
+        note=note,
         reason=reason,
     )
 

@@ -118,7 +118,7 @@ COLUMNS: tuple[Column, ...] = (
         name="Lcr_out_m",
         required=False,
         description="Out-of-plane buckling length L_cr [m] (flexural buckling about the other axis, EN "
-        "1993-1-1 §6.3.1). Empty: the member length.",
+        "1993-1-1 §6.3.1). Empty: the member length, or twice it where an end is free to translate.",
     ),
     Column(
         name="out_of_plane",

@@ -311,7 +311,7 @@ class InputsView(pn.viewable.Viewer):
             "out_of_plane", "out of plane", {"buckles (checked)": "buckles", "restrained": "restrained"}, 165
         )
         self.out_of_plane_input = self._number(
-            "out_of_plane_length", "out-of-plane L_cr (empty: L)", "length", width=230
+            "out_of_plane_length", "out-of-plane L_cr (empty: L, sway 2L)", "length", width=270
         )
         self.prepared_input = pn.widgets.TextInput(
             label="prepared by (calc sheet)", width=140, max_length=60, stylesheets=[WIDGET_CSS]

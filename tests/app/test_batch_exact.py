@@ -25,7 +25,12 @@ when the eq. (5.9) bow and its linear check took A_eff too (M000009 0.5181 → 0
 0.5150, their capacities 1 kN lower); and 10 rows again (every IPE 400 in S355) when the AISC route began
 to take slender webs by §E7: their AISC utilisation and governing columns went from empty to a value and
 their cautions lost the route-not-applied note (the headline and capacity, which do not count AISC there,
-did not change). And a hypothesis-drawn
+did not change). Again at stop 29, when a member with an end free to translate in its plane and no
+out-of-plane buckling length began to take L_cr = 2L out of plane (a cantilever's) instead of L: the
+example table's CT-01 (capacity 3782 → 2818 kN, utilisation unchanged) and 21 generated rows, each a
+member with a free end (only those lines were rewritten); no utilisation fell and no capacity rose; the
+utilisation of 10 generated rows rose, two of them from a pass to a fail (M000005 0.366 → 1.225, M000059
+0.702 → 1.053). And a hypothesis-drawn
 table solved twice in this process, once as the product does it and once with the capacity finder as it was
 before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
 afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.

@@ -220,3 +220,47 @@ def test_a_custom_section_with_iz_is_checked_out_of_plane_with_curve_d():
     bound = aluminium.check.out_of_plane
     assert not bound.checked and bound.elastic_bound == pytest.approx(1e5 / bound.N_cr, rel=1e-12)
     assert aluminium.utilization >= bound.elastic_bound
+
+
+@pytest.mark.parametrize(
+    ("left", "right", "factor"),
+    [
+        ("pinned", "pinned", 1.0),
+        ("fixed", "pinned", 1.0),
+        ("fixed", "fixed", 1.0),
+        ("fixed", "free", 2.0),
+        ("free", "fixed", 2.0),
+        ("fixed", "guided", 2.0),
+        ("pinned", "guided", 2.0),
+        ("fixed", {"translation": 2e5, "rotation": "free"}, 2.0),
+    ],
+)
+def test_default_length_is_a_cantilevers_where_an_end_sways(left, right, factor):
+    """Without ``out_of_plane``, L_cr about the other axis is the member length where both ends are held in
+    the plane analysed, and 2L where an end is free to translate there (free, guided or a translational
+    spring): the member is then taken as a cantilever out of plane too, K = 2 (Euler; Timoshenko & Gere 1961
+    ch. 2), the longest buckling length of a member fixed at one end, with the warning `out-of-plane-length`.
+    With L (the default before), N_b,Rd of a 4 m cantilever HEB 200 was 2.8 times too high. A given length is
+    used as given, without the warning. (The project's decision: DEVELOPERS.md decisions log, stop 29.)"""
+    L = 4.0
+    case = _demo(length=L, axial_force=200e3, supports={"left": left, "right": right})
+    result = engine.solve(case)
+    oop = result.check.out_of_plane
+    minor = engine.sections.section_from_spec({"name": "HEB 200"}, "minor")
+    assert oop.buckling_length == factor * L
+    assert oop.N_cr == pytest.approx(math.pi**2 * result.material.E * minor.I / (factor * L) ** 2, rel=1e-12)
+    lam = math.sqrt(minor.A * result.material.fy / oop.N_cr)
+    assert oop.N_b_Rd == pytest.approx(_chi(lam, 0.49) * minor.A * result.material.fy, rel=1e-12)
+    warned = [c for c in result.cautions if c.code == "out-of-plane-length"]
+    assert [c.level for c in warned] == (["warning"] if factor == 2.0 else [])
+    given = engine.solve(
+        _demo(
+            length=L,
+            axial_force=200e3,
+            supports={"left": left, "right": right},
+            out_of_plane={"buckling_length": L},
+        )
+    )
+    assert given.check.out_of_plane.buckling_length == L
+    assert not [c for c in given.cautions if c.code == "out-of-plane-length"]
+    assert given.check.out_of_plane.N_b_Rd >= oop.N_b_Rd

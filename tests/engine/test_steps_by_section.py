@@ -168,10 +168,13 @@ def test_stepped_member_routes_and_out_of_plane_are_conservative():
     assert second.utilization == max(result.check.utilization, *second.terms.values())
     reasons = {r.route: r.reason for r in result.routes}
     assert reasons["en-member"] == reasons["aisc"] == "stepped-section"
-    # Out of plane: N_cr with the weaker I_z over the whole length (π²EI/L², Euler), HEB 200's χ A f_y.
+    # Out of plane: N_cr with the weaker I_z over the whole buckling length, HEB 200's χ A f_y. The member
+    # is a cantilever in its plane and no out-of-plane length is given: L_cr = 2L (Euler's cantilever,
+    # Timoshenko & Gere 1961 ch. 2; the project's default, DEVELOPERS.md decisions log, stop 29).
     oop = result.check.out_of_plane
     weak = section_from_spec({"name": "HEB 200"}, "minor")
-    assert oop.N_cr == pytest.approx(math.pi**2 * E * weak.I / L**2, rel=1e-12)
+    assert oop.buckling_length == 2 * L
+    assert oop.N_cr == pytest.approx(math.pi**2 * E * weak.I / (2 * L) ** 2, rel=1e-12)
     assert oop.N_b_Rd == pytest.approx(oop.chi * weak.A * FY / 1.0, rel=1e-12)
 
 

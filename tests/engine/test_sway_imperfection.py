@@ -9,13 +9,16 @@ import pytest
 
 import engine
 from engine import codes
+from engine.out_of_plane import OutOfPlaneSettings
 from engine.sway import sway_phi
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo_wind_post.json"
 
 
 def _cantilever(**changes):
+    """The demo as a cantilever held out of plane at its length (so that its in-plane check governs)."""
     case = engine.Case.from_json(DEMO.read_text(encoding="utf-8"))
+    changes.setdefault("out_of_plane", OutOfPlaneSettings(buckling_length=case.length))
     return dataclasses.replace(
         case, left=engine.EndSupport.named("fixed"), right=engine.EndSupport.named("free"), **changes
     )
