@@ -216,6 +216,15 @@ def _free_end(case) -> str | bool:
     return False
 
 
+def _built_in_root(case) -> bool:
+    """Whether the member is a cantilever whose other end is built in (translation and rotation fixed)."""
+    side = _free_end(case)
+    if not side:
+        return False
+    root = case.right if side == "left" else case.left
+    return root.translation == "fixed" and root.rotation == "fixed"
+
+
 def ltb_restraints(case) -> tuple[tuple, bool]:
     """The case's intermediate restraints as the lateral-torsional buckling problem sees them, and whether a
     hinge acts in the plane of minor-axis bending.
@@ -269,6 +278,7 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
         settings=settings,
         section_class=None if klass is None else klass.klass,
         free_end=_free_end(major.case),
+        built_in_root=_built_in_root(major.case),
         gamma_M1=case.check.gamma_M1,
         cache=cache,
         restraints=restraints,

@@ -96,6 +96,7 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
                     )
                 )
     out.extend(_interaction_not_counted(routes))
+    out.extend(_cantilever_support(ltb_check))
     applied = [r for r in routes if r.enabled and r.utilization is not None]
     if routes and not applied:
         out.append(
@@ -125,6 +126,31 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
             )
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(given + out, key=lambda c: order[c.level]))
+
+
+def _cantilever_support(ltb_check) -> list:
+    """A warning where the lateral-torsional buckling check took a cantilever's built-in support as held
+    laterally, the case leaving a fork there (:mod:`engine.design.ltb_member`, ``root_assumed``)."""
+    if ltb_check is None or not getattr(ltb_check, "root_assumed", False):
+        return []
+    root = 0 if ltb_check.lateral_ends[1] == "free" else 1
+    warping = ltb_check.warping_ends[root]
+    return [
+        Caution(
+            level="warning",
+            code="ltb-cantilever-support",
+            message=(
+                "Lateral-torsional buckling of the cantilever is checked with its built-in support held "
+                "laterally as well (no lateral displacement or rotation about the minor axis there, twist "
+                f"held, warping {warping}): check.ltb.lateral_ends leaves a fork there, which would let it "
+                "swing. Where the support does not hold it so (an overhang past a support, a connection to a "
+                "member that can twist), M_cr is lower and the check is not covered."
+            ),
+            source="Timoshenko & Gere (1961) ch. 6, the built-in cantilever (from memory); a decision of "
+            "this project",
+            values={"support": ("left", "right")[root], "warping": warping},
+        )
+    ]
 
 
 def _interaction_not_counted(routes) -> list:

@@ -55,8 +55,8 @@ REASONS = {
     "no-major-moment": "no moment about the major axis",
     "minor-axis-only": "the member bends about its minor axis only",
     "closed-or-solid": "a closed or solid section",
-    "free-end": "a member with a free end (a cantilever) whose support is not stated laterally "
-    "fixed (set the LTB lateral end there to fixed)",
+    "free-end": "a member with a free end (a cantilever) whose support is neither built in nor stated "
+    "laterally fixed (set the LTB lateral end there to fixed)",
     "not-doubly-symmetric": "the section is not doubly symmetric",
     "depth-unknown": "the section's depth is not known, so the loads cannot be placed over it",
     "lateral-hinge": "a hinge in the plane of minor-axis bending (not modelled in the critical moment)",

@@ -25,10 +25,14 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   :math:`k_c` of Table 6.6 only when the diagram is within 1 % of the table's shape (else :math:`k_c = 1`).
 - :math:`W_y = W_{pl,y}` for class 1–2, else :math:`W_{el,y}`; :math:`M_{Ed}` = max|M_y| of the first-order
   diagram (the value eqs. (6.61)/(6.62) use).
-- A cantilever (a free end) is checked when ``check.ltb.lateral_ends`` states its support ``fixed`` (v = v' =
-  0 there; its warping as stated): the tip is free (nothing held), the tip's settings are ignored, no
-  tabulated M_cr (the C1 tables are for spans between forks), AISC with C_b = 1 for the tip segment, capped by
-  the exact M_cr. With a fork at the support it could swing laterally: not made (``free-end``).
+- A cantilever (a free end) is checked with its support ``fixed`` laterally (v = v' = 0 there; its warping
+  as stated, free by default): where ``check.ltb.lateral_ends`` says so, or where the support is built in
+  within the plane analysed (``built_in_root``: translation and rotation fixed) and the case leaves the
+  fork there (``root_assumed``, a warning says so: a fork would leave the cantilever free to swing, so a
+  built-in support is taken as holding it laterally as well; a decision of the project, DEVELOPERS.md
+  decisions log, stop 29). The tip is free (nothing held), the tip's settings are ignored, no tabulated M_cr
+  (the C1 tables are for spans between forks), AISC with C_b = 1 for the tip segment, capped by the exact
+  M_cr. A support that is not built in (a rotational spring) with a fork: not made (``free-end``).
 - The check is not made (``applies`` False, the caution stays) for a member with a free end whose support is
   not stated laterally fixed, for an open section without known :math:`I_t, I_w` (``torsion-unknown``), for
   a custom section that is not doubly symmetric, for a custom section without its minor-axis ``Iz``
@@ -121,6 +125,7 @@ class LtbCheck:
     restraints: tuple = ()  # intermediate restraints in M_cr, critical_moment's form ({"x", "lateral", ...})
     segments: tuple = ()  # ((a, b), ...) [m] between brace points (lateral and twist fixed); () for one
     segment: tuple = ()  # (a, b) [m] of the segment that governs the tabulated M_cr and AISC §F2
+    root_assumed: bool = False  # a cantilever's built-in support taken as laterally fixed (not stated)
 
 
 def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:
@@ -267,6 +272,7 @@ def check(
     settings,
     section_class: int | None,
     free_end: bool | str = False,
+    built_in_root: bool = False,
     gamma_M1: float = 1.0,
     cache=None,
     restraints: tuple = (),
@@ -299,8 +305,13 @@ def check(
     if settings.restrained:
         return not_applied("restrained", settings, M_Ed)
     lateral_ends, warping_ends = tuple(settings.lateral_ends), tuple(settings.warping_ends)
-    if free_end:  # a cantilever: checked when its support is stated fixed laterally (else it could swing)
+    root_assumed = False
+    if free_end:  # a cantilever: checked when its support is fixed laterally (else it could swing)
         tip = {"left": 0, "right": 1}.get(free_end) if isinstance(free_end, str) else None
+        if tip is not None and lateral_ends[1 - tip] != "fixed" and built_in_root:
+            # built in within its plane: held laterally too unless the case says otherwise (module notes)
+            lateral_ends = tuple("fixed" if i == 1 - tip else end for i, end in enumerate(lateral_ends))
+            root_assumed = True
         if tip is None or lateral_ends[1 - tip] != "fixed":
             return not_applied("free-end", settings, M_Ed)
         lateral_ends = tuple("free" if i == tip else end for i, end in enumerate(lateral_ends))
@@ -397,6 +408,7 @@ def check(
             I_w=I_w,
             length=float(length),
             restraints=tuple(restraints),
+            root_assumed=root_assumed,
         )
     segments = _segments(length, restraints)
 
@@ -471,6 +483,7 @@ def check(
         restraints=tuple(restraints),
         segments=segments if len(segments) > 1 else (),
         segment=segment if len(segments) > 1 else (),
+        root_assumed=root_assumed,
     )
 
 

@@ -66,15 +66,17 @@ def checked():
 
 #: Why the check cannot be made for the demo member turned into a cantilever, in words.
 FREE_END = (
-    "a member with a free end (a cantilever) whose support is not stated laterally fixed "
+    "a member with a free end (a cantilever) whose support is neither built in nor stated laterally fixed "
     "(set the LTB lateral end there to fixed)"
 )
 
 
 @pytest.fixture(scope="module")
 def refused():
-    """A member whose check cannot be made: the demo as a cantilever (the engine's, or the double)."""
-    result = _solve(dict(_demo_mapping(), supports={"left": "fixed", "right": "free"}))
+    """A member whose check cannot be made: the demo as a cantilever on a rotational spring (not built in,
+    so the fork the case leaves there stands; the engine's, or the double)."""
+    spring = {"translation": "fixed", "rotation": 5e6}
+    result = _solve(dict(_demo_mapping(), supports={"left": spring, "right": "free"}))
     if getattr(result, "ltb", None) is None:
         result = with_ltb(result, LtbDouble(applies=False, reason="free-end"))
     assert not result.ltb.applies and result.ltb.reason == "free-end"

@@ -118,8 +118,32 @@ def test_a_cantilever_is_checked_when_its_support_is_laterally_fixed():
     assert top.M_cr < ltb.M_cr
 
 
-def test_a_cantilever_with_a_fork_at_its_support_is_not_checked():
-    result = engine.solve(_case({}))
+def test_a_built_in_cantilever_left_with_a_fork_is_checked_held_laterally():
+    """A cantilever built in within its plane whose ``check.ltb`` leaves the default fork at its support (a
+    fork would let it swing laterally) is checked as held laterally there: the same M_cr, χ_LT and M_b,Rd
+    as the support stated ``fixed`` (Timoshenko & Gere ch. 6's built-in cantilever, as above), and a
+    warning says what was assumed (DEVELOPERS.md decisions log, stop 29); the not-checked warning is gone.
+    Before, the check was not made and the headline left lateral-torsional buckling out."""
+    assumed = engine.solve(_case({}))
+    stated = engine.solve(_case({"lateral_ends": ["fixed", "fork"]}))
+    assert assumed.ltb.applies and assumed.ltb.root_assumed and not stated.ltb.root_assumed
+    assert assumed.ltb.lateral_ends == stated.ltb.lateral_ends == ("fixed", "free")
+    for name in ("M_cr", "chi_LT", "M_b_Rd", "utilisation"):
+        assert getattr(assumed.ltb, name) == getattr(stated.ltb, name)
+    assert assumed.utilization == stated.utilization
+    codes = {c.code: c for c in assumed.cautions}
+    assert "lateral-torsional-buckling" not in codes
+    assert codes["ltb-cantilever-support"].level == "warning"
+    assert codes["ltb-cantilever-support"].values == {"support": "left", "warping": "free"}
+    assert "ltb-cantilever-support" not in [c.code for c in stated.cautions]
+    turned = engine.solve(_case({}, left="free", right="fixed"))
+    assert turned.ltb.root_assumed and turned.ltb.M_cr == pytest.approx(assumed.ltb.M_cr, rel=1e-9)
+
+
+def test_a_cantilever_on_a_rotational_spring_with_a_fork_is_not_checked():
+    """A support that is not built in (a rotational spring in the plane analysed) is not taken as holding
+    the member laterally: with the fork the case gives, the check is not made and the warning stays."""
+    result = engine.solve(_case({}, left={"translation": "fixed", "rotation": 5e6}))
     assert not result.ltb.applies and result.ltb.reason == "free-end"
     assert "lateral-torsional-buckling" in [c.code for c in result.cautions]
 

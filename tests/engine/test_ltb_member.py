@@ -463,10 +463,14 @@ def test_two_plane_member_has_one_ltb_check():
     assert two.ltb.M_cr == pytest.approx(one.ltb.M_cr, rel=1e-9)
 
 
-def test_cantilever_is_not_covered():
-    """A free end: the fork support of the exact M_cr is missing there (not covered; the warning stays)."""
-    r = engine.solve(_case(supports={"left": "fixed", "right": "free"}, length=2.5, axial_force=1e4))
+def test_cantilever_is_not_covered_unless_its_support_holds_it():
+    """A free end whose support is a rotational spring with a fork: the member could swing laterally about
+    it (not covered; the warning stays). Built in, the support is taken as held laterally (checked)."""
+    spring = {"translation": "fixed", "rotation": 5e6}
+    r = engine.solve(_case(supports={"left": spring, "right": "free"}, length=2.5, axial_force=1e4))
     assert not r.ltb.applies and r.ltb.reason == "free-end" and r.ltb.chi_LT == 1.0
+    built = engine.solve(_case(supports={"left": "fixed", "right": "free"}, length=2.5, axial_force=1e4))
+    assert built.ltb.applies and built.ltb.root_assumed and built.ltb.chi_LT < 1.0
 
 
 def test_torsion_constants_are_taken_down_for_mcr():

@@ -548,12 +548,12 @@ def test_routes_disagreeing_is_an_info_caution(length, q, force, disagree):
 
 
 def test_chi_lt_notes_join_the_warning_where_the_check_cannot_be_made():
-    """A cantilever (a free end: the fork support the exact M_cr assumes is missing) keeps the
+    """A cantilever on a rotational spring (a free end: the support's fork lets it swing) keeps the
     lateral-torsional buckling warning, with the reason code; the routes' chi-LT-1 and LTB-not-checked
     notes join it instead of repeating it (common practice, no source)."""
     r = engine.solve(
         _case(
-            supports={"left": "fixed", "right": "free"},
+            supports={"left": {"translation": "fixed", "rotation": 5e6}, "right": "free"},
             length=3.0,
             loads=[{"type": "uniform", "q": 2e3}],
             axial_force=1e5,
