@@ -456,7 +456,7 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs, InnerInputs):
     out_of_plane_length = param.Number(
         allow_None=True,
         default=None,
-        doc="Out-of-plane buckling length L_cr [m]; empty: the member length.",
+        doc="Out-of-plane buckling length L_cr [m]; empty: the member length, twice it where an end sways.",
     )
 
     # ------------------------------------------------------------------ display and solver settings

@@ -302,8 +302,9 @@ def status_message(result, U: Units) -> str:
             "unstable; the member buckles before it is reached"
         )
     elif P > 0:
+        alpha = float(pcr[0]) / float(P)  # plain floats: inf for a subnormal N, without numpy's warning
         said = (
-            f"compression {force(P)}, N/Pcr1 = {P / pcr[0]:.4g} (α_cr = {pcr[0] / P:.4g}{plane}); stable "
+            f"compression {force(P)}, N/Pcr1 = {P / pcr[0]:.4g} (α_cr = {alpha:.4g}{plane}); stable "
             "equilibrium"
         )
     elif P < 0:
