@@ -216,13 +216,13 @@ def _free_end(case) -> str | bool:
     return False
 
 
-def _built_in_root(case) -> bool:
-    """Whether the member is a cantilever whose other end is built in (translation and rotation fixed)."""
+def _built_in_root(result, case) -> bool:
+    """Whether the member is a cantilever whose other end is built in (translation and rotation fixed) in
+    its major plane ``case`` and, in a two-plane ``result``, in both planes."""
     side = _free_end(case)
-    if not side:
-        return False
-    root = case.right if side == "left" else case.left
-    return root.translation == "fixed" and root.rotation == "fixed"
+    planes = [result.case] + ([result.second_plane.case] if result.second_plane is not None else [])
+    roots = [plane.right if side == "left" else plane.left for plane in planes]
+    return bool(side) and all(r.translation == "fixed" and r.rotation == "fixed" for r in roots)
 
 
 def ltb_restraints(case) -> tuple[tuple, bool]:
@@ -278,7 +278,7 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
         settings=settings,
         section_class=None if klass is None else klass.klass,
         free_end=_free_end(major.case),
-        built_in_root=_built_in_root(major.case),
+        built_in_root=_built_in_root(result, major.case),
         gamma_M1=case.check.gamma_M1,
         cache=cache,
         restraints=restraints,

@@ -27,7 +27,8 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   diagram (the value eqs. (6.61)/(6.62) use).
 - A cantilever (a free end) is checked with its support ``fixed`` laterally (v = v' = 0 there; its warping
   as stated, free by default): where ``check.ltb.lateral_ends`` says so, or where the support is built in
-  within the plane analysed (``built_in_root``: translation and rotation fixed) and the case leaves the
+  within the plane analysed (``built_in_root``: translation and rotation fixed, in both planes of a
+  two-plane case) and the case leaves the
   fork there (``root_assumed``, a warning says so: a fork would leave the cantilever free to swing, so a
   built-in support is taken as holding it laterally as well; a decision of the project, DEVELOPERS.md
   decisions log, stop 29). The tip is free (nothing held), the tip's settings are ignored, no tabulated M_cr

@@ -175,3 +175,23 @@ def test_a_warping_restraint_without_warping_stiffness_holds_nothing():
         warping_ends=("fixed", "free"),
     ).M_cr
     assert held == pytest.approx(free, rel=1e-12)
+
+
+@pytest.mark.parametrize(
+    ("minor_root", "assumed"), [("fixed", True), ({"translation": "fixed", "rotation": 5e6}, False)]
+)
+def test_a_two_plane_cantilever_is_held_laterally_only_where_both_planes_build_it_in(minor_root, assumed):
+    """A cantilever analysed in both planes: its support is taken as held laterally (v' = 0 there) only
+    where the plane of minor-axis bending builds it in too; on a rotational spring in that plane the
+    support can turn laterally, so the check is not made (``free-end``), as for one plane."""
+    data = _case({}).to_dict()
+    data["second_plane"] = {"supports": {"left": minor_root, "right": "free"}, "loads": []}
+    result = engine.solve(engine.Case.from_dict(data))
+    assert result.ltb.applies is assumed
+    if assumed:
+        assert result.ltb.root_assumed
+        stated = dict(data, check=dict(data["check"], ltb={"lateral_ends": ["fixed", "fork"]}))
+        own = engine.solve(engine.Case.from_dict(stated)).ltb
+        assert not own.root_assumed and own.M_cr == result.ltb.M_cr
+    else:
+        assert result.ltb.reason == "free-end"
