@@ -5,7 +5,9 @@ KeyboardInterrupt that Ctrl-C already raises, so the ``finally`` and ``except Ba
 writers run (their temporary ``.part`` files are removed, the batch's worker processes are stopped), and the
 command then prints one line and exits with 130 (SIGINT) or 143 (SIGTERM), the shell's 128 + signal number,
 without a traceback. Once the first signal has arrived, further SIGINT and SIGTERM are ignored so that the
-clean-up itself is not cut short; it is bounded (workers get two seconds before they are killed).
+clean-up itself is not cut short; it is bounded (workers get two seconds before they are killed). They stay
+ignored once the command has been stopped (it is ending): a second Ctrl-C after the message would otherwise
+meet Python's own handler again and end the process by SIGINT, with a traceback, instead of 130.
 
 :func:`worker_start` is the batch's worker initializer: a worker ignores SIGINT (Ctrl-C reaches the whole
 process group; the parent decides) and turns SIGTERM into SystemExit, so that a calc sheet being written
@@ -61,12 +63,19 @@ def clean_exit(command: str) -> Callable:
             except Terminated:
                 return _stopped(command, "SIGTERM", EXIT_SIGTERM)
             finally:
-                for number, previous in installed.items():
-                    signal.signal(number, previous)
+                # Put back only where no signal arrived: after one, both stay ignored (module notes).
+                if all(signal.getsignal(number) is _on_signal for number in installed):
+                    _restore(installed)
 
         return run
 
     return decorate
+
+
+def _restore(installed: dict) -> None:
+    """Put back the handlers ``run`` replaced."""
+    for number, previous in installed.items():
+        signal.signal(number, previous)
 
 
 def _stopped(command: str, what: str, code: int) -> int:

@@ -157,3 +157,33 @@ def test_solve_ends_cleanly_on_a_signal(tmp_path, signum, expected):
         pytest.skip("the solve finished before the signal arrived")
     assert_clean(process, code, err, expected, tmp_path)
     assert not (tmp_path / "sheet.pdf").exists()
+
+
+def test_signals_stay_ignored_once_a_command_is_stopped():
+    """After the first signal the command is ending: SIGINT and SIGTERM stay ignored, so a second Ctrl-C
+    after the message cannot end it by SIGINT with a traceback instead of 130 (CI saw exit -2 once, after the
+    clean message). A command that ends without a signal puts the handlers back. In this process (the main
+    thread), with the handlers restored afterwards."""
+    from app.interrupt import EXIT_SIGINT, clean_exit
+
+    before = {number: signal.getsignal(number) for number in (signal.SIGINT, signal.SIGTERM)}
+    try:
+
+        @clean_exit("test")
+        def stopped() -> int:
+            os.kill(os.getpid(), signal.SIGINT)
+            time.sleep(5)  # the handler raises KeyboardInterrupt before this ends
+            return 0
+
+        @clean_exit("test")
+        def finished() -> int:
+            return 0
+
+        assert finished() == 0
+        assert {n: signal.getsignal(n) for n in before} == before
+        assert stopped() == EXIT_SIGINT
+        assert signal.getsignal(signal.SIGINT) is signal.SIG_IGN
+        assert signal.getsignal(signal.SIGTERM) is signal.SIG_IGN
+    finally:
+        for number, handler in before.items():
+            signal.signal(number, handler)
