@@ -65,17 +65,12 @@ def clean_exit(command: str) -> Callable:
             finally:
                 # Put back only where no signal arrived: after one, both stay ignored (module notes).
                 if all(signal.getsignal(number) is _on_signal for number in installed):
-                    _restore(installed)
+                    for number, previous in installed.items():
+                        signal.signal(number, previous)
 
         return run
 
     return decorate
-
-
-def _restore(installed: dict) -> None:
-    """Put back the handlers ``run`` replaced."""
-    for number, previous in installed.items():
-        signal.signal(number, previous)
 
 
 def _stopped(command: str, what: str, code: int) -> int:

@@ -33,6 +33,7 @@ from engine.design.routes import ROUTES, RouteCheck
 from engine.member import segments_of
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
+from engine.out_of_plane import sways
 from engine.sections import section_from_spec
 
 __all__ = ["FALLBACK", "STEPPED", "attach", "evaluate", "headline", "ltb_restraints"]
@@ -68,10 +69,6 @@ _SOURCE_2ND = (
 )
 
 
-def _sways(case) -> bool:
-    return any(end.translation != "fixed" for end in (case.left, case.right))
-
-
 def _bow_free_moment(res) -> float | None:
     """max|M| of the plane's second-order solution without its bow, where the result knows it."""
     amp = res.amplification
@@ -96,7 +93,7 @@ def _diagram(res, case):
         shear=first.shear,
         loads=case.loads,
         length=case.length,
-        sway=_sways(case),
+        sway=sways(case),
     )
 
 

@@ -50,6 +50,7 @@ __all__ = [
     "OutOfPlaneSettings",
     "SWAY_NOTE",
     "resistance",
+    "sways",
     "utilisation",
 ]
 
@@ -291,13 +292,10 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         )
     if section is None or material is None:
         return OutOfPlane(checked=False, axis=other, reason="no section and material: not checked")
-    sways = settings.buckling_length is None and _sways(case)
-    length = (
-        settings.buckling_length
-        if settings.buckling_length is not None
-        else case.length * (2 if sways else 1)
-    )
-    note = SWAY_NOTE if sways else ""
+    given = settings.buckling_length
+    sway = given is None and sways(case)
+    length = given if given is not None else case.length * (2 if sway else 1)
+    note = SWAY_NOTE if sway else ""
     if section.shape == "custom":
         if section.I_minor is None or case.axis != "major":
             return OutOfPlane(
@@ -306,7 +304,7 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
                 reason="a custom section has properties about one axis "
                 "only: out-of-plane buckling cannot be checked (give its Iz to have it checked)",
             )
-        return _custom(case, section, material, length, _length_reason(settings, sways), note)
+        return _custom(case, section, material, length, _length_reason(settings, sway), note)
     turned = section_from_spec(dict(case.section if spec is None else spec), other)
     n_cr = math.pi**2 * material.E * turned.I / length**2
     if material.kind != "steel":
@@ -329,7 +327,7 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
         curve=curve,
         curve_reason=why,
         note=note,
-        reason=_length_reason(settings, sways) + (_area_note(area, turned.A) if effective else ""),
+        reason=_length_reason(settings, sway) + (_area_note(area, turned.A) if effective else ""),
     )
 
 
@@ -346,7 +344,7 @@ def _area_note(area: float, gross: float) -> str:
     return f"; class 4 in uniform compression: χ·A_eff·f_y with A_eff = {area / gross:.3f}·A"
 
 
-def _sways(case) -> bool:
+def sways(case) -> bool:
     """Whether an end of the member is free to translate in the plane analysed (free, guided or a
     translational spring)."""
     return any(end.translation != "fixed" for end in (case.left, case.right))
