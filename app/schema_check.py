@@ -10,7 +10,7 @@ __all__ = ["CHECK_METHODS", "CHI_METHODS", "LATERAL_ENDS", "LOAD_POSITIONS", "WA
 
 CHECK_METHODS = ("elastic", "plastic")
 LOAD_POSITIONS = ("destabilising", "shear-centre", "stabilising")
-LATERAL_ENDS = ("fork", "fixed")
+LATERAL_ENDS = ("supports", "fork", "fixed")
 WARPING_ENDS = ("free", "fixed")
 CHI_METHODS = ("general", "rolled")
 
@@ -37,7 +37,10 @@ def ltb_schema(closed) -> dict[str, Any]:
                 "'stabilising' (the other flange, −h/2).",
             },
             "lateral_ends": _pair(
-                LATERAL_ENDS, "Lateral condition ('fork': free to turn about the minor axis)", "fork"
+                LATERAL_ENDS,
+                "Lateral condition ('supports': a fork where the end's support holds it across the plane of "
+                "bending, free where it moves; 'fork': held, free to turn about the minor axis; 'fixed')",
+                "supports",
             ),
             "warping_ends": _pair(WARPING_ENDS, "Warping condition", "free"),
             "chi_method": {
@@ -52,7 +55,7 @@ def ltb_schema(closed) -> dict[str, Any]:
             },
         },
         description="Lateral-torsional buckling of the member about its major axis (EN 1993-1-1 §6.3.2). "
-        "Default: destabilising loads, fork ends, warping free, §6.3.2.2, not restrained.",
+        "Default: destabilising loads, lateral ends by support, warping free, §6.3.2.2, not restrained.",
     )
 
 

@@ -5,9 +5,9 @@ loads act over the depth, the lateral and warping end conditions of each end, th
 and whether the compression flange is restrained along the member (LTB prevented, the engineer's statement).
 :func:`ltb_check_keys` and :func:`ltb_values` turn them into the case file's ``check.ltb`` and back. Only
 settings that differ from the defaults are written (a case with the default LTB settings is the same file as
-before issue 15); the defaults are the engine's, the conservative ones (destabilising load, fork ends,
-warping free, §6.3.2.2, not restrained). The engine validates the values when it solves (a value no widget
-offers, from a file or a link, comes back as its message).
+before issue 15); the defaults are the engine's, the conservative ones (destabilising load, lateral ends as
+the supports say, warping free, §6.3.2.2, not restrained). The engine validates the values when it solves (a
+value no widget offers, from a file or a link, comes back as its message).
 """
 
 from __future__ import annotations
@@ -31,8 +31,10 @@ __all__ = [
 
 #: Where the transverse loads act over the depth (the case file's ``check.ltb.load_position``).
 LOAD_POSITIONS = ("destabilising", "shear-centre", "stabilising")
-#: Lateral end condition of each end: free to rotate about the minor axis (fork) or held (fixed).
-LATERAL_ENDS = ("fork", "fixed")
+#: Lateral end condition of each end: as its support says (supports: a fork where it holds the end, free
+#: where it moves; the engine's engine/ltb_route.py), free to rotate about the minor axis (fork) or held
+#: (fixed).
+LATERAL_ENDS = ("supports", "fork", "fixed")
 #: Warping end condition of each end.
 WARPING_ENDS = ("free", "fixed")
 #: How χ_LT is found: EN 1993-1-1 §6.3.2.2 (general case) or §6.3.2.3 (rolled or equivalent welded sections).
@@ -41,7 +43,7 @@ CHI_METHODS = ("general", "rolled")
 #: The engine's defaults (engine/design/ltb_member.py): the conservative ones.
 LTB_DEFAULTS: dict[str, Any] = {
     "load_position": "destabilising",
-    "lateral_ends": ["fork", "fork"],
+    "lateral_ends": ["supports", "supports"],
     "warping_ends": ["free", "free"],
     "chi_method": "general",
     "restrained": False,
@@ -73,10 +75,14 @@ class LtbInputs(param.Parameterized):
         "they come from, z_g = +h/2), 'shear-centre' or 'stabilising' (the other flange, z_g = −h/2).",
     )
     ltb_lateral_left = param.Parameter(
-        default="fork", doc="Lateral end condition at x = 0: 'fork' (free about the minor axis) or 'fixed'."
+        default="supports",
+        doc="Lateral end condition at x = 0: 'supports' (as its support says), 'fork' (free about the minor "
+        "axis) or 'fixed'.",
     )
     ltb_lateral_right = param.Parameter(
-        default="fork", doc="Lateral end condition at x = L: 'fork' (free about the minor axis) or 'fixed'."
+        default="supports",
+        doc="Lateral end condition at x = L: 'supports' (as its support says), 'fork' (free about the minor "
+        "axis) or 'fixed'.",
     )
     ltb_warping_left = param.Parameter(default="free", doc="Warping at x = 0: 'free' or 'fixed'.")
     ltb_warping_right = param.Parameter(default="free", doc="Warping at x = L: 'free' or 'fixed'.")

@@ -25,11 +25,14 @@ from engine import segment_routes
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.buckling_interaction import conservative, equations, larger, of_route
 from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
-from engine.classification import classify_at, elastic_modulus, worse_class
-from engine.design import aisc_member, en_member, ltb_member
+from engine.classification import classify_at, worse_class
+from engine.design import aisc_member, en_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
+from engine.ltb_route import lateral_torsional, ltb_restraints
+from engine.ltb_route import made as _made
+from engine.ltb_route import major as _major
 from engine.member import segments_of
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
@@ -77,10 +80,6 @@ def _bow_free_moment(res) -> float | None:
     if amp.moment_first_order is None:  # no first-order moment: nothing for the loads to amplify
         return 0.0
     return amp.moment_bow_free * res.governing.moment.magnitude / amp.moment_first_order
-
-
-def _made(cache, key, make):
-    return make() if cache is None else cache(key, make)
 
 
 def _diagram(res, case):
@@ -194,94 +193,6 @@ def _second_order(result, enabled: bool) -> RouteCheck:
         facts=facts,
         notes=("second-order-check-notes",) if check.notes else (),
         source=check.source,
-    )
-
-
-def _major(result):
-    """The result of the major-axis plane (the result itself, its second plane, or None)."""
-    if result.case.axis == "major":
-        return result
-    second = result.second_plane
-    return second if second is not None and second.case.axis == "major" else None
-
-
-def _free_end(case) -> str | bool:
-    """``"left"`` or ``"right"`` for the end that is free (translation and rotation), else False."""
-    for side, end in (("left", case.left), ("right", case.right)):
-        if end.translation == "free" and end.rotation == "free":
-            return side
-    return False
-
-
-def _built_in_root(result, case) -> bool:
-    """Whether the member is a cantilever whose other end is built in (translation and rotation fixed) in
-    its major plane ``case`` and, in a two-plane ``result``, in both planes."""
-    side = _free_end(case)
-    planes = [result.case] + ([result.second_plane.case] if result.second_plane is not None else [])
-    roots = [plane.right if side == "left" else plane.left for plane in planes]
-    return bool(side) and all(r.translation == "fixed" and r.rotation == "fixed" for r in roots)
-
-
-def ltb_restraints(case) -> tuple[tuple, bool]:
-    """The case's intermediate restraints as the lateral-torsional buckling problem sees them, and whether a
-    hinge acts in the plane of minor-axis bending.
-
-    A restraint acting in that plane (a two-plane case's plane about the minor axis) holds the shear centre
-    laterally: its translation is ``lateral`` (v), its rotation ``lateral_rotation`` (v'); its ``twist``
-    holds φ in any case. A one-plane case's restraints act in its one plane only, so only their twist enters.
-    """
-    minor = None
-    if case.second_plane is not None:
-        minor = "second" if case.axis == "major" else "first"
-    out, hinge = [], False
-    for r in case.restraints:
-        item = {"x": r.x}
-        if minor is not None and r.plane in (minor, "both") and r.bends:
-            hinge = hinge or r.hinge
-            item.update(lateral=r.translation, lateral_rotation=r.rotation)
-        if r.twist != "free":
-            item["twist"] = r.twist
-        if any(value != "free" for key, value in item.items() if key != "x"):
-            out.append(item)
-    return tuple(out), hinge
-
-
-def lateral_torsional(result, y, klass, cache=None, segment=None):
-    """The member's lateral-torsional buckling check (:mod:`engine.design.ltb_member`), or None without a
-    steel material (the routes are then not applied either); ``segment``: with that segment's section and
-    material along the whole member (:func:`_stepped_ltb`)."""
-    case, material = result.case, result.material
-    spec, y_section = case.section, (y.section if y is not None else None)
-    if segment is not None:
-        spec, y_section, material = segment.spec, segment.section, segment.material
-    settings = case.check.ltb
-    major = _major(result)
-    if major is None:
-        return ltb_member.not_applied("minor-axis-only", settings)
-    first = major.first_order
-    z_section = _made(cache, ("ltb-minor-section", spec), lambda: section_from_spec(dict(spec), "minor"))
-    restraints, hinge = ltb_restraints(case)
-    section_y = y_section if y_section is not None else major.section
-    return ltb_member.check(
-        x=first.x,
-        M=first.moment,
-        V=first.shear,
-        loads=major.case.loads,
-        length=major.case.length,
-        section_y=section_y,
-        section_z=z_section,
-        material=material,
-        N=float(result.axial_force),
-        settings=settings,
-        section_class=None if klass is None else klass.klass,
-        free_end=_free_end(major.case),
-        built_in_root=_built_in_root(result, major.case),
-        gamma_M1=case.check.gamma_M1,
-        cache=cache,
-        restraints=restraints,
-        lateral_hinge=hinge,
-        resistance=material.kind == "steel",  # another material: M_cr alone, its bound (_with_ltb_term)
-        modulus=None if klass is None else elastic_modulus(section_y, klass, 0),  # W_eff,y of class 4
     )
 
 

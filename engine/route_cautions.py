@@ -129,26 +129,74 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
 
 
 def _cantilever_support(ltb_check) -> list:
-    """A warning where the lateral-torsional buckling check took a cantilever's built-in support as held
-    laterally, the case leaving a fork there (:mod:`engine.design.ltb_member`, ``root_assumed``)."""
-    if ltb_check is None or not getattr(ltb_check, "root_assumed", False):
+    """Warnings where the lateral-torsional buckling check took an end as free laterally because its support
+    moves (``tip_moves``), or a cantilever's built-in support as held laterally, the case leaving a fork
+    there (``root_assumed``; :mod:`engine.ltb_route`)."""
+    if ltb_check is None:
         return []
-    root = 0 if ltb_check.lateral_ends[1] == "free" else 1
-    warping = ltb_check.warping_ends[root]
+    out = _held_assumed(ltb_check)
+    tip = 1 if ltb_check.lateral_ends[1] == "free" else 0
+    where = ("x = 0", "x = L")[tip]
+    if getattr(ltb_check, "tip_moves", False) and "free" in ltb_check.lateral_ends:
+        out.append(
+            Caution(
+                level="warning",
+                code="ltb-end-moves",
+                message=(
+                    f"Lateral-torsional buckling takes the end at {where} as free laterally and in twist (a "
+                    "cantilever's tip): its support moves and the case does not hold it out of plane. Where "
+                    "it is held (bracing, a roof plate), set its lateral end to fork."
+                ),
+                source="a decision of this project (an end whose support moves is not taken as held "
+                "laterally unless the case says so)",
+                values={"end": ("left", "right")[tip]},
+            )
+        )
+    if getattr(ltb_check, "root_assumed", False):
+        root = 1 - tip
+        warping = ltb_check.warping_ends[root]
+        out.append(
+            Caution(
+                level="warning",
+                code="ltb-cantilever-support",
+                message=(
+                    "Lateral-torsional buckling is checked as a cantilever with its built-in support held "
+                    "laterally as well (no lateral displacement or rotation about the minor axis there, "
+                    f"twist held, warping {warping}): check.ltb.lateral_ends does not say fixed there, and "
+                    "a fork would let it swing. Where the support does not hold it so (an overhang past a "
+                    "support, a connection to a member that can twist), M_cr is lower and the check is not "
+                    "covered."
+                ),
+                source="Timoshenko & Gere (1961) ch. 6, the built-in cantilever (from memory); a decision of "
+                "this project",
+                values={"support": ("left", "right")[root], "warping": warping},
+            )
+        )
+    return out
+
+
+def _held_assumed(ltb_check) -> list:
+    """A warning where an end whose support moves in the plane analysed was taken as a fork by the
+    lateral-torsional buckling check of a one-plane case (its other end not built in:
+    :mod:`engine.ltb_route`)."""
+    side = getattr(ltb_check, "held_assumed", "")
+    if not side:
+        return []
+    where = "x = 0" if side == "left" else "x = L"
     return [
         Caution(
             level="warning",
-            code="ltb-cantilever-support",
+            code="ltb-end-held-assumed",
             message=(
-                "Lateral-torsional buckling of the cantilever is checked with its built-in support held "
-                "laterally as well (no lateral displacement or rotation about the minor axis there, twist "
-                f"held, warping {warping}): check.ltb.lateral_ends leaves a fork there, which would let it "
-                "swing. Where the support does not hold it so (an overhang past a support, a connection to a "
-                "member that can twist), M_cr is lower and the check is not covered."
+                f"Lateral-torsional buckling takes the end at {where} as held laterally and against twist (a "
+                "fork), though its support moves in the plane analysed (free, guided or a spring) and the "
+                "case does not say how it is held out of that plane; with its other end not built in, "
+                "nothing else would hold the member laterally. Where that end is not held so, the check is "
+                "not covered: give the plane of minor-axis bending (its supports then decide), or set the "
+                "lateral end."
             ),
-            source="Timoshenko & Gere (1961) ch. 6, the built-in cantilever (from memory); a decision of "
-            "this project",
-            values={"support": ("left", "right")[root], "warping": warping},
+            source="a decision of this project (common practice, no source)",
+            values={"end": side},
         )
     ]
 

@@ -37,7 +37,7 @@ _POSITION_OPTIONS = {
     "stabilising (far flange)": "stabilising",
 }
 _CHI_OPTIONS = {"§6.3.2.2, general case": "general", "§6.3.2.3, rolled or welded I": "rolled"}
-_LATERAL_OPTIONS = {"fork": "fork", "fixed": "fixed"}
+_LATERAL_OPTIONS = {"by support": "supports", "fork": "fork", "fixed": "fixed"}
 _WARPING_OPTIONS = {"free": "free", "fixed": "fixed"}
 
 
@@ -130,7 +130,9 @@ class LtbSettingsView(pn.viewable.Viewer):
         self.note = html_pane(
             "<div class='ss-note'>Destabilising (the default, the conservative choice): the loads act at the "
             "flange they come from, z<sub>g</sub> = +h/2; stabilising: at the other flange. Fork: the end is "
-            "held laterally and against twist but free to turn about the minor axis. §6.3.2.2 (the default) "
+            "held laterally and against twist but free to turn about the minor axis. By support (the "
+            "default): a fork where the support holds the end (in the minor-axis plane when it is given), "
+            "free where it moves. §6.3.2.2 (the default) "
             "usually gives the lower χ<sub>LT</sub>.</div>"
         )
         self.panel = pn.Column(

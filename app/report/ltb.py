@@ -45,6 +45,7 @@ END_LABELS = {
     "fork": "fork (free about the minor axis)",
     "fixed": "fixed",
     "free": "free",
+    "supports": "as its support",
 }
 
 #: Why the check could not be made (``LtbCheck.reason``), in words.
@@ -55,8 +56,9 @@ REASONS = {
     "no-major-moment": "no moment about the major axis",
     "minor-axis-only": "the member bends about its minor axis only",
     "closed-or-solid": "a closed or solid section",
-    "free-end": "a member with a free end (a cantilever) whose support is neither built in nor stated "
-    "laterally fixed (set the LTB lateral end there to fixed)",
+    "free-end": "an end free laterally (a cantilever's tip, or an end the plane of minor-axis bending lets "
+    "move) while the other end is neither built in nor stated laterally fixed (set the LTB lateral end "
+    "there to fixed, or the free end's to fork where it is held)",
     "not-doubly-symmetric": "the section is not doubly symmetric",
     "depth-unknown": "the section's depth is not known, so the loads cannot be placed over it",
     "lateral-hinge": "a hinge in the plane of minor-axis bending (not modelled in the critical moment)",

@@ -13,6 +13,7 @@ Sources, each with how sure the project is of it ("from memory": recalled, to be
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from collections.abc import Mapping
 from dataclasses import dataclass
@@ -26,6 +27,7 @@ from engine.validate import choice, positive, real
 __all__ = [
     "CHI_METHODS",
     "IMPERFECTION_FACTORS_LT",
+    "LATERAL_FROM_SUPPORTS",
     "LOAD_POSITIONS",
     "LtbSettings",
     "STANDARD_DIAGRAMS",
@@ -62,7 +64,11 @@ LOAD_POSITIONS: tuple[str, ...] = ("destabilising", "shear-centre", "stabilising
 #: default) or ``rolled`` (§6.3.2.3 with f for rolled and equivalent welded I sections, §6.3.2.2 for the
 #: rest).
 CHI_METHODS: tuple[str, ...] = ("general", "rolled")
-_LATERAL = ("fork", "fixed")
+#: The lateral condition of an end (check.ltb.lateral_ends): ``supports`` (the default) takes it from the
+#: end's support (:func:`engine.ltb_route.lateral_sides`), ``fork`` holds v and φ (free about the minor
+#: axis), ``fixed`` holds v and v' as well.
+LATERAL_FROM_SUPPORTS = "supports"
+_LATERAL = (LATERAL_FROM_SUPPORTS, "fork", "fixed")
 _WARPING = ("free", "fixed")
 _LTB_KEYS = ("load_position", "lateral_ends", "warping_ends", "chi_method", "restrained")
 
@@ -71,17 +77,20 @@ _LTB_KEYS = ("load_position", "lateral_ends", "warping_ends", "chi_method", "res
 class LtbSettings:
     """The case key ``check.ltb``: the restraint and load data of the lateral-torsional buckling check.
 
-    Defaults are the conservative ones: loads on the flange they come from (destabilising), fork supports
-    (free to rotate about the minor axis), warping free, χ_LT by §6.3.2.2, not restrained. ``restrained``
-    True is the engineer's statement that the compression flange is restrained along the member (by a slab
-    or sheeting): lateral-torsional buckling is prevented, χ_LT = 1 (EN 1993-1-1 §6.3.2.1(2), from memory).
+    Defaults are the conservative ones: loads on the flange they come from (destabilising), each end's
+    lateral condition taken from its support (``supports``: a fork, free to rotate about the minor axis,
+    where the support holds the end across the plane of bending, free where it moves; see
+    :func:`engine.ltb_route.lateral_sides`), warping free, χ_LT by §6.3.2.2, not restrained.
+    ``restrained`` True is the engineer's statement that the compression flange is restrained along the
+    member (by a slab or sheeting): lateral-torsional buckling is prevented, χ_LT = 1 (EN 1993-1-1
+    §6.3.2.1(2), from memory).
 
     >>> LtbSettings.from_data({"lateral_ends": ["fixed", "fork"]}).lateral_ends
     ('fixed', 'fork')
     """
 
     load_position: str = "destabilising"
-    lateral_ends: tuple = ("fork", "fork")
+    lateral_ends: tuple = (LATERAL_FROM_SUPPORTS, LATERAL_FROM_SUPPORTS)
     warping_ends: tuple = ("free", "free")
     chi_method: str = "general"
     restrained: bool = False
@@ -117,6 +126,12 @@ class LtbSettings:
                 f"check.ltb.{unknown[0]}: not a key of check.ltb; allowed: " + ", ".join(_LTB_KEYS)
             )
         return cls(**data)
+
+    def supports_as_forks(self) -> LtbSettings:
+        """These settings with each ``supports`` end read as a fork: the ends a support leaves free are
+        passed to the check apart (:func:`engine.ltb_route.lateral_sides`)."""
+        ends = tuple("fork" if end == LATERAL_FROM_SUPPORTS else end for end in self.lateral_ends)
+        return self if ends == self.lateral_ends else dataclasses.replace(self, lateral_ends=ends)
 
     def to_dict(self) -> dict:
         """The case-file form (every key)."""

@@ -127,11 +127,14 @@ class LtbCheck:
     segments: tuple = ()  # ((a, b), ...) [m] between brace points (lateral and twist fixed); () for one
     segment: tuple = ()  # (a, b) [m] of the segment that governs the tabulated M_cr and AISC §F2
     root_assumed: bool = False  # a cantilever's built-in support taken as laterally fixed (not stated)
+    tip_moves: bool = False  # the free end is free as its support moves (lateral end "supports")
+    held_assumed: str = ""  # "left"/"right": an end whose support moves, taken as a fork (one plane)
 
 
 def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:
     """The check not made: χ_LT = 1 is what the routes then use (and the caution stays)."""
     known = reason in ("no-major-moment", "minor-axis-only", "closed-or-solid", "restrained")
+    settings = settings.supports_as_forks()
     return LtbCheck(
         applies=False,
         reason=reason,
@@ -294,6 +297,7 @@ def check(
     section with its effective properties (EN 1993-1-1 §6.3.2.1(3), W_y = W_eff,y for class 4; from memory),
     in place of W_el,y.
     """
+    settings = settings.supports_as_forks()  # the ends a support leaves free come as free_end
     xs = np.asarray(x, dtype=float)
     ms = np.asarray(M, dtype=float)
     vs = None if V is None else np.asarray(V, dtype=float)
@@ -402,6 +406,8 @@ def check(
     if not resistance:
         return dataclasses.replace(
             not_applied(f"material-{material.kind}", settings, M_Ed),
+            lateral_ends=lateral_ends,
+            warping_ends=warping_ends,
             M_cr=M_cr,
             M_cr_0=M_cr_0,
             N_Ed=N_held,

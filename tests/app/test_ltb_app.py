@@ -66,8 +66,9 @@ def checked():
 
 #: Why the check cannot be made for the demo member turned into a cantilever, in words.
 FREE_END = (
-    "a member with a free end (a cantilever) whose support is neither built in nor stated laterally fixed "
-    "(set the LTB lateral end there to fixed)"
+    "an end free laterally (a cantilever's tip, or an end the plane of minor-axis bending lets move) while "
+    "the other end is neither built in nor stated laterally fixed (set the LTB lateral end there to fixed, "
+    "or the free end's to fork where it is held)"
 )
 
 
@@ -103,7 +104,7 @@ def test_default_ltb_settings_are_not_written_and_others_round_trip():
     ltb = state.case_mapping()["check"]["ltb"]
     assert ltb == {
         "load_position": "stabilising",
-        "lateral_ends": ["fork", "fixed"],
+        "lateral_ends": ["supports", "fixed"],
         "warping_ends": ["fixed", "free"],
     }
     again = MemberState(**values_from_mapping(json.loads(state.link)))
@@ -118,7 +119,7 @@ def test_a_malformed_ltb_key_is_kept_for_the_engine_to_name():
     mapping["check"] = {"ltb": {"lateral_ends": ["fork"], "shape": "x"}}
     state = MemberState(**values_from_mapping(mapping))
     assert state.case_mapping()["check"]["ltb"] == {"lateral_ends": ["fork"], "shape": "x"}
-    assert state.ltb_lateral_left == "fork" and state.ltb_lateral_right == "fork"
+    assert state.ltb_lateral_left == "supports" and state.ltb_lateral_right == "supports"
 
 
 def test_the_check_tab_widgets_follow_the_state_and_write_it():

@@ -159,3 +159,55 @@ def test_a_link_with_ltb_settings_reopens_them(browser, server):
     finally:
         first.close()
         other.close()
+
+
+def test_a_sway_top_is_free_laterally_until_the_user_says_fork(browser, server):
+    """A sway column (the demo with a fixed foot and a guided top; invented): the Check tab shows each
+    lateral end "by support", the warning that the top is free laterally is readable, and the engine's M_cr
+    of that cantilever is shown; choosing "fork" at x = L gives the engine's M_cr for the stated fork and
+    the warning goes."""
+    mapping = demo_mapping()
+    mapping.update(supports={"left": "fixed", "right": "guided"}, axial_force=150e3)
+    free, free_words = ltb_words_of(mapping)
+    assert free.lateral_ends == ("fixed", "free")
+    held = json.loads(json.dumps(mapping))
+    held["check"] = dict(held.get("check") or {}, ltb={"lateral_ends": ["supports", "fork"]})
+    fork, fork_words = ltb_words_of(held)
+    assert fork.M_cr > free.M_cr and fork_words.text("M_cr") != free_words.text("M_cr")
+    context = browser.new_context(viewport=VIEWPORT)
+    try:
+        context.set_default_timeout(TIMEOUT_MS)
+        page = open_page(context, link_to(server, mapping)).page
+        cell = page.locator("table.ss-values tr[data-ltb='M_cr'] td.v")
+        expect(cell).to_have_text(free_words.text("M_cr"))
+        warning = page.locator("li[data-code='ltb-end-moves']")
+        expect(warning).to_contain_text("x = L as free laterally")
+        assert _top_uncovered(warning)
+        tab(page, "Check")
+        for where in ("x = 0", "x = L"):
+            expect(page.get_by_label(f"lateral end, {where}", exact=True)).to_have_value("by support")
+        page.get_by_label("lateral end, x = L", exact=True).select_option(label="fork")
+        expect(cell).to_have_text(fork_words.text("M_cr"))
+        expect(page.locator("li[data-code='ltb-end-moves']")).to_have_count(0)
+    finally:
+        context.close()
+
+
+def ltb_words_of(mapping: dict):
+    """The engine's LTB check of `mapping` (made) and its words on the page (SI)."""
+    result = engine.solve(engine.Case.from_dict(mapping))
+    assert result.ltb is not None and result.ltb.applies
+    return result.ltb, ltb_words(result, units("si"))
+
+
+def _top_uncovered(locator) -> bool:
+    """Whether the first line of `locator`, scrolled to the top of its box as a reader starts reading, lies in
+    the window with nothing over it."""
+    locator.evaluate("(el) => el.scrollIntoView({block: 'start', inline: 'nearest'})")
+    return locator.evaluate(
+        """(el) => { const r = el.getBoundingClientRect();
+                     const root = el.getRootNode();
+                     const hit = (root.elementFromPoint ? root : document).elementFromPoint(
+                         r.left + r.width / 2, r.top + 8);
+                     return r.top >= 0 && hit !== null && (el === hit || el.contains(hit)); }"""
+    )

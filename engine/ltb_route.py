@@ -1,0 +1,166 @@
+"""What the member's lateral-torsional buckling check reads from the case: its ends, restraints and planes.
+
+:func:`lateral_torsional` makes the check of :mod:`engine.design.ltb_member` for a solved result (the routes
+of :mod:`engine.member_routes` call it). The case says how each end is held laterally in one of three ways
+(``check.ltb.lateral_ends``): ``fork`` or ``fixed`` as stated, or ``supports`` (the default), which reads the
+end's support across the plane of major-axis bending (:func:`lateral_sides`):
+
+- a two-plane case states it: the support of the plane of minor-axis bending. Where its translation is
+  fixed the end is a fork; where it is free, guided or a spring the end moves laterally (free);
+- a one-plane case says nothing about the other plane. An end held against translation in the plane analysed
+  is taken as a fork (the usual support of a beam or a braced column); an end that moves in it (free, guided,
+  a translational spring) is taken as free laterally too, as the out-of-plane buckling length of
+  :mod:`engine.out_of_plane` takes 2L for such a member. Where the end is in fact held laterally and against
+  twist, the case says ``fork`` there.
+
+An end free in the plane analysed (translation and rotation: a cantilever's tip) is free laterally whatever
+the setting says, as before the setting ``supports`` existed (an explicit ``fork`` in a file written then
+stays what it meant). The member is then checked as a cantilever from its other end, held there laterally
+where it is stated ``fixed`` or built in (:func:`built_in_root`); else the check is not made (``free-end``).
+Both ends free laterally: not made either. A decision of the project (DEVELOPERS.md decisions log, stop 30):
+a fork at an end whose support moves is an assumption on the unsafe side unless the case states it.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+
+from engine.classification import elastic_modulus
+from engine.design import ltb_member
+from engine.design.ltb import LATERAL_FROM_SUPPORTS
+from engine.sections import section_from_spec
+
+__all__ = ["built_in_root", "lateral_sides", "lateral_torsional", "ltb_restraints", "made", "major"]
+
+_SIDES = ("left", "right")
+FIXED, FREE = "fixed", "free"
+
+
+def made(cache, key, make):
+    """``make()``, through ``cache(key, make)`` when there is a cache."""
+    return make() if cache is None else cache(key, make)
+
+
+def major(result):
+    """The result of the major-axis plane (the result itself, its second plane, or None)."""
+    if result.case.axis == "major":
+        return result
+    second = result.second_plane
+    return second if second is not None and second.case.axis == "major" else None
+
+
+def _lateral_plane(result):
+    """The case of the plane of minor-axis bending where the result has it (a two-plane case), else None."""
+    for plane in (result, result.second_plane):
+        if plane is not None and plane.case.axis == "minor":
+            return plane.case
+    return None
+
+
+def lateral_sides(result, settings) -> tuple[tuple, tuple, tuple]:
+    """The ends free laterally (``"left"``/``"right"``, in order), those of them free because their support
+    moves and the setting is ``supports`` (the others are free in the plane analysed), and the ends whose
+    support moves but which are taken as forks (a one-plane case whose other end is not built in)."""
+    plane = major(result).case
+    stated = _lateral_plane(result)
+    free, moving, held = [], [], []
+    for i, side in enumerate(_SIDES):
+        end = getattr(plane, side)
+        if end.translation == FREE and end.rotation == FREE:
+            free.append(side)
+        elif settings.lateral_ends[i] == LATERAL_FROM_SUPPORTS:
+            if getattr(stated or plane, side).translation == FIXED:
+                continue
+            if stated is None and not built_in_root(result, side):
+                held.append(side)
+                continue
+            free.append(side)
+            moving.append(side)
+    return tuple(free), tuple(moving), tuple(held)
+
+
+def built_in_root(result, side: str) -> bool:
+    """Whether the end opposite ``side`` is built in (translation and rotation fixed) in every plane of
+    ``result``."""
+    planes = [result.case] + ([result.second_plane.case] if result.second_plane is not None else [])
+    root = "right" if side == "left" else "left"
+    return all(getattr(p, root).translation == FIXED and getattr(p, root).rotation == FIXED for p in planes)
+
+
+def _root_holds(result, side: str, moving: bool) -> bool:
+    """Whether the end opposite the free ``side`` holds the member laterally (v = v' = 0): built in within
+    every plane (:func:`built_in_root`), or, where ``side`` is free because the plane of minor-axis bending
+    lets it move, built in within that plane (the major plane's rotation there does not turn it laterally)."""
+    stated = _lateral_plane(result) if moving else None
+    if stated is None:
+        return built_in_root(result, side)
+    root = getattr(stated, "right" if side == "left" else "left")
+    return root.translation == FIXED and root.rotation == FIXED
+
+
+def ltb_restraints(case) -> tuple[tuple, bool]:
+    """The case's intermediate restraints as the lateral-torsional buckling problem sees them, and whether a
+    hinge acts in the plane of minor-axis bending.
+
+    A restraint acting in that plane (a two-plane case's plane about the minor axis) holds the shear centre
+    laterally: its translation is ``lateral`` (v), its rotation ``lateral_rotation`` (v'); its ``twist``
+    holds φ in any case. A one-plane case's restraints act in its one plane only, so only their twist enters.
+    """
+    minor = None
+    if case.second_plane is not None:
+        minor = "second" if case.axis == "major" else "first"
+    out, hinge = [], False
+    for r in case.restraints:
+        item = {"x": r.x}
+        if minor is not None and r.plane in (minor, "both") and r.bends:
+            hinge = hinge or r.hinge
+            item.update(lateral=r.translation, lateral_rotation=r.rotation)
+        if r.twist != "free":
+            item["twist"] = r.twist
+        if any(value != "free" for key, value in item.items() if key != "x"):
+            out.append(item)
+    return tuple(out), hinge
+
+
+def lateral_torsional(result, y, klass, cache=None, segment=None):
+    """The member's lateral-torsional buckling check (:mod:`engine.design.ltb_member`), or None without a
+    steel material (the routes are then not applied either); ``segment``: with that segment's section and
+    material along the whole member (:func:`engine.member_routes` splits a stepped member)."""
+    case, material = result.case, result.material
+    spec, y_section = case.section, (y.section if y is not None else None)
+    if segment is not None:
+        spec, y_section, material = segment.spec, segment.section, segment.material
+    settings = case.check.ltb
+    plane = major(result)
+    if plane is None:
+        return ltb_member.not_applied("minor-axis-only", settings)
+    first = plane.first_order
+    z_section = made(cache, ("ltb-minor-section", spec), lambda: section_from_spec(dict(spec), "minor"))
+    restraints, hinge = ltb_restraints(case)
+    section_y = y_section if y_section is not None else plane.section
+    free, moving, held = lateral_sides(result, settings)
+    free_end = free[0] if len(free) == 1 else bool(free)
+    found = ltb_member.check(
+        x=first.x,
+        M=first.moment,
+        V=first.shear,
+        loads=plane.case.loads,
+        length=plane.case.length,
+        section_y=section_y,
+        section_z=z_section,
+        material=material,
+        N=float(result.axial_force),
+        settings=settings,
+        section_class=None if klass is None else klass.klass,
+        free_end=free_end,
+        built_in_root=isinstance(free_end, str) and _root_holds(result, free_end, bool(moving)),
+        gamma_M1=case.check.gamma_M1,
+        cache=cache,
+        restraints=restraints,
+        lateral_hinge=hinge,
+        resistance=material.kind == "steel",  # another material: M_cr alone, its bound (_with_ltb_term)
+        modulus=None if klass is None else elastic_modulus(section_y, klass, 0),  # W_eff,y of class 4
+    )
+    if not (moving or held):
+        return found
+    return dataclasses.replace(found, tip_moves=bool(moving), held_assumed=held[0] if held else "")
