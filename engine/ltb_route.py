@@ -163,4 +163,5 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
     )
     if not (moving or held):
         return found
-    return dataclasses.replace(found, tip_moves=bool(moving), held_assumed=held[0] if held else "")
+    held_assumed = "both" if len(held) == 2 else (held[0] if held else "")
+    return dataclasses.replace(found, tip_moves=bool(moving), held_assumed=held_assumed)

@@ -182,16 +182,16 @@ def _held_assumed(ltb_check) -> list:
     side = getattr(ltb_check, "held_assumed", "")
     if not side:
         return []
-    where = "x = 0" if side == "left" else "x = L"
+    where = {"left": "the end at x = 0", "right": "the end at x = L", "both": "both ends"}[side]
     return [
         Caution(
             level="warning",
             code="ltb-end-held-assumed",
             message=(
-                f"Lateral-torsional buckling takes the end at {where} as held laterally and against twist (a "
-                "fork), though its support moves in the plane analysed (free, guided or a spring) and the "
-                "case does not say how it is held out of that plane; with its other end not built in, "
-                "nothing else would hold the member laterally. Where that end is not held so, the check is "
+                f"Lateral-torsional buckling takes {where} as held laterally and against twist (a fork), "
+                "though the support moves in the plane analysed (free, guided or a spring) and the case "
+                "does not say how it is held out of that plane; without a built-in end, nothing else "
+                "would hold the member laterally. Where that end is not held so, the check is "
                 "not covered: give the plane of minor-axis bending (its supports then decide), or set the "
                 "lateral end."
             ),

@@ -128,7 +128,7 @@ class LtbCheck:
     segment: tuple = ()  # (a, b) [m] of the segment that governs the tabulated M_cr and AISC §F2
     root_assumed: bool = False  # a cantilever's built-in support taken as laterally fixed (not stated)
     tip_moves: bool = False  # the free end is free as its support moves (lateral end "supports")
-    held_assumed: str = ""  # "left"/"right": an end whose support moves, taken as a fork (one plane)
+    held_assumed: str = ""  # "left"/"right"/"both": ends whose support moves, taken as forks (one plane)
 
 
 def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:

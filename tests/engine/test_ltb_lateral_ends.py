@@ -150,3 +150,14 @@ def test_the_setting_reads_and_writes():
     assert stated.to_dict()["check"]["ltb"]["lateral_ends"] == ["fork", "fork"]
     assert engine.Case.from_dict(stated.to_dict()) == stated
     assert math.isfinite(engine.solve(stated).ltb.M_cr)
+
+
+def test_a_member_on_springs_at_both_ends_keeps_both_forks_with_the_warning():
+    """Translational springs at both ends (one plane): neither end is built in, so both stay forks and the
+    warning names both."""
+    spring = {"translation": 5e6, "rotation": "free"}
+    result = engine.solve(_case(spring, spring))
+    assert result.ltb.applies and result.ltb.lateral_ends == ("fork", "fork")
+    assert result.ltb.held_assumed == "both"
+    warning = next(c for c in result.cautions if c.code == "ltb-end-held-assumed")
+    assert warning.values == {"end": "both"} and "both ends" in warning.message
