@@ -58,7 +58,8 @@ REASONS = {
     "closed-or-solid": "a closed or solid section",
     "free-end": "an end free laterally (a cantilever's tip, or an end the plane of minor-axis bending lets "
     "move) while the other end is neither built in nor stated laterally fixed (set the LTB lateral end "
-    "there to fixed, or the free end's to fork where it is held)",
+    "there to fixed, or the free end's to fork where it is held; an overhang past a support needs the "
+    "plane of minor-axis bending with a restraint that holds that support laterally)",
     "not-doubly-symmetric": "the section is not doubly symmetric",
     "depth-unknown": "the section's depth is not known, so the loads cannot be placed over it",
     "lateral-hinge": "a hinge in the plane of minor-axis bending (not modelled in the critical moment)",

@@ -33,7 +33,9 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   built-in support is taken as holding it laterally as well; a decision of the project, DEVELOPERS.md
   decisions log, stop 29). The tip is free (nothing held), the tip's settings are ignored, no tabulated M_cr
   (the C1 tables are for spans between forks), AISC with C_b = 1 for the tip segment, capped by the exact
-  M_cr. A support that is not built in (a rotational spring) with a fork: not made (``free-end``).
+  M_cr. A support that is not built in (a rotational spring) with a fork: not made (``free-end``), unless
+  an intermediate restraint holds the member laterally (``lateral`` fixed or a spring): an overhang past a
+  support, checked with the fork and the tip free (:func:`engine.design.mcr.critical_moment` accepts it).
 - The check is not made (``applies`` False, the caution stays) for a member with a free end whose support is
   not stated laterally fixed, for an open section without known :math:`I_t, I_w` (``torsion-unknown``), for
   a custom section that is not doubly symmetric, for a custom section without its minor-axis ``Iz``
@@ -157,6 +159,12 @@ def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -
         warping_ends=tuple(settings.warping_ends),
         missing=tuple(missing),
     )
+
+
+def _held_laterally(restraints) -> bool:
+    """Whether an intermediate restraint holds the shear centre laterally (fixed, or a spring): with a fork
+    at the other end, a member with a free end is then an overhang past a support, not a mechanism."""
+    return any(r.get("lateral", "free") not in ("free", 0, 0.0) for r in restraints)
 
 
 def _custom_reason(missing: tuple) -> str:
@@ -317,7 +325,8 @@ def check(
             # built in within its plane: held laterally too unless the case says otherwise (module notes)
             lateral_ends = tuple("fixed" if i == 1 - tip else end for i, end in enumerate(lateral_ends))
             root_assumed = True
-        if tip is None or lateral_ends[1 - tip] != "fixed":
+        overhang = tip is not None and lateral_ends[1 - tip] == "fork" and _held_laterally(restraints)
+        if tip is None or (lateral_ends[1 - tip] != "fixed" and not overhang):
             return not_applied("free-end", settings, M_Ed)
         lateral_ends = tuple("free" if i == tip else end for i, end in enumerate(lateral_ends))
         warping_ends = tuple("free" if i == tip else end for i, end in enumerate(warping_ends))

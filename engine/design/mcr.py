@@ -393,6 +393,15 @@ class _Problem:
     def _held_by(self, restraints) -> _Problem:
         """This problem with the intermediate ``restraints`` (as :func:`critical_moment` takes them)."""
         inside = _restraints(restraints, self.length)
+        lateral = self.ends[0]
+        if "free" in lateral and tuple(lateral) not in (("free", "fixed"), ("fixed", "free")):
+            held = any(0 in dofs for _, dofs in inside)  # a lateral restraint inside: an overhang
+            if tuple(lateral) not in (("free", "fork"), ("fork", "free")) or not held:
+                raise ValueError(
+                    f"lateral_ends: {tuple(lateral)!r} leaves the member free to swing laterally; a free end "
+                    "needs the other end 'fixed' (a cantilever), or a fork there and a lateral restraint "
+                    "inside the member (an overhang past a support)"
+                )
         breaks = [*self.breaks, *(x for x, _ in inside)]
         return dataclasses.replace(self, breaks=breaks, inside=inside)
 
@@ -421,11 +430,6 @@ def _problem(
             raise ValueError(f"{name}: {ends!r} must be a (left, right) pair")
         for side, end in zip(("left", "right"), ends, strict=True):
             choice(f"{name}.{side}", end, allowed)
-    if "free" in lateral_ends and tuple(lateral_ends) not in (("free", "fixed"), ("fixed", "free")):
-        raise ValueError(
-            f"lateral_ends: {tuple(lateral_ends)!r} leaves the member free to swing laterally; a free end "
-            "needs the other end 'fixed' (a cantilever)"
-        )
     xs = np.asarray(x, dtype=float)
     ms = np.asarray(M, dtype=float)
     if xs.ndim != 1 or xs.shape != ms.shape or xs.size < 2 or np.any(np.diff(xs) < 0):

@@ -68,7 +68,8 @@ def checked():
 FREE_END = (
     "an end free laterally (a cantilever's tip, or an end the plane of minor-axis bending lets move) while "
     "the other end is neither built in nor stated laterally fixed (set the LTB lateral end there to fixed, "
-    "or the free end's to fork where it is held)"
+    "or the free end's to fork where it is held; an overhang past a support needs the plane of minor-axis "
+    "bending with a restraint that holds that support laterally)"
 )
 
 

@@ -1,0 +1,102 @@
+"""An overhang past a support in the lateral-torsional buckling check: a free end, a fork at the other end
+and a restraint inside the member that holds it laterally (``critical_moment`` and the member check).
+
+References: the built-in cantilever under uniform moment with EI_w = 0, M_cr = (π/2L)·√(EI_z·GI_t)
+(Timoshenko & Gere 1961 ch. 6, from memory; the fork span of 2L), which the overhang approaches as its
+support moves onto the fork end (two points held laterally and against twist a short way apart hold the
+section like a clamp) [derived]; and that a restraint added never lowers an elastic critical load (Rayleigh's
+principle) [derived]. Every member is invented.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+import engine
+from engine.design.mcr import critical_moment
+
+EIZ, GIT, L = 1.0e6, 2.0e5, 4.0
+ROOT = math.sqrt(EIZ * GIT)
+
+
+def _overhang(a: float, tip: str = "free", **held) -> float:
+    """M_cr under uniform moment: fork at x = 0, the support at x = a held laterally and against twist."""
+    restraint = {"x": a, "lateral": "fixed", "twist": "fixed", **held}
+    return critical_moment(
+        [0.0, L],
+        [1.0, 1.0],
+        EI_z=EIZ,
+        GI_t=GIT,
+        EI_w=0.0,
+        length=L,
+        lateral_ends=("fork", tip),
+        restraints=[restraint],
+    ).M_cr
+
+
+@pytest.mark.parametrize(("a", "tolerance"), [(0.05, 2e-3), (0.01, 5e-4), (0.002, 1e-4)])
+def test_an_overhang_whose_support_nears_the_fork_is_a_built_in_cantilever(a, tolerance):
+    """The support a short way from the fork: the overhang L − a takes the built-in cantilever's M_cr."""
+    cantilever = math.pi / (2.0 * (L - a)) * ROOT
+    assert _overhang(a) == pytest.approx(cantilever, rel=tolerance)
+    assert _overhang(a) >= cantilever * (1 - 1e-9)  # the short span holds less than a clamp, never more
+
+
+@pytest.mark.parametrize("a", [0.5, 1.5, 2.5, 3.5])
+def test_holding_the_tip_never_lowers_the_critical_moment(a):
+    """Rayleigh: a fork at the tip adds a restraint, so M_cr does not fall; nor does a stiffer restraint at
+    the support (a lateral spring in place of the fixed one gives the lower M_cr)."""
+    free, held = _overhang(a), _overhang(a, "fork")
+    assert held >= free * (1 - 1e-9)
+    assert _overhang(a, lateral=1e5) <= free * (1 + 1e-9)
+
+
+def test_a_free_end_without_a_lateral_hold_inside_is_refused():
+    """A fork and a free end with only a twist restraint inside would swing laterally about the fork."""
+    with pytest.raises(ValueError, match="lateral_ends"):
+        critical_moment(
+            [0.0, L],
+            [1.0, 1.0],
+            EI_z=EIZ,
+            GI_t=GIT,
+            EI_w=0.0,
+            length=L,
+            lateral_ends=("fork", "free"),
+            restraints=[{"x": 2.0, "twist": "fixed"}],
+        )
+
+
+def _member(second_plane: bool):
+    """HEB 200, S355, 6 m, pinned at x = 0, supported at 4.5 m, free at 6 m, 3 kN/m (invented)."""
+    data = {
+        "schema": 1,
+        "title": "Invented overhang",
+        "length": 6.0,
+        "supports": {"left": "pinned", "right": "free"},
+        "axial_force": 20e3,
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S355"},
+        "imperfection": {"preset": "en1993-table-5.1"},
+        "loads": [{"type": "uniform", "q": 3e3}],
+        "restraints": [{"x": 4.5, "translation": "fixed", "twist": "fixed"}],
+    }
+    if second_plane:
+        data["second_plane"] = {"supports": {"left": "pinned", "right": "free"}, "loads": []}
+    return engine.Case.from_dict(data)
+
+
+def test_a_two_plane_overhang_is_checked_and_a_one_plane_one_is_not():
+    """With the plane of minor-axis bending the support holds the member laterally: the check is made with
+    the fork at x = 0 and the tip free, and its M_cr is the exact one of that problem. In one plane nothing
+    holds the member laterally at the support, so the check is not made (``free-end``) and the warning
+    stays."""
+    two = engine.solve(_member(True))
+    assert two.ltb.applies and two.ltb.lateral_ends == ("fork", "free")
+    assert two.ltb.segments == ((0.0, 4.5), (4.5, 6.0))
+    assert "lateral-torsional-buckling" not in [c.code for c in two.cautions]
+    assert math.isfinite(two.ltb.M_cr) and 0.0 < two.ltb.chi_LT <= 1.0
+    one = engine.solve(_member(False))
+    assert not one.ltb.applies and one.ltb.reason == "free-end"
+    assert "lateral-torsional-buckling" in [c.code for c in one.cautions]
