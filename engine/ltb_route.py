@@ -6,19 +6,22 @@ of :mod:`engine.member_routes` call it). The case says how each end is held late
 end's support across the plane of major-axis bending (:func:`lateral_sides`):
 
 - a two-plane case states it: the support of the plane of minor-axis bending. Where its translation is
-  fixed the end is a fork; where it is free, guided or a spring the end moves laterally (free);
-- a one-plane case says nothing about the other plane. An end held against translation in the plane analysed
-  is taken as a fork (the usual support of a beam or a braced column); an end that moves in it (free, guided,
-  a translational spring) is taken as free laterally too, as the out-of-plane buckling length of
-  :mod:`engine.out_of_plane` takes 2L for such a member. Where the end is in fact held laterally and against
-  twist, the case says ``fork`` there.
+  fixed the end is a fork; where it is free, guided or a spring the end is free laterally, and the other end
+  holds the member where that plane builds it in;
+- a one-plane case says nothing about the other plane. An end held against translation in the plane
+  analysed is a fork (the usual support of a beam or a braced column). An end that moves in it (guided, a
+  translational spring) is free laterally where the other end is built in (a sway column: the out-of-plane
+  buckling length of :mod:`engine.out_of_plane` is 2L for the same reason); else it stays a fork, since
+  nothing else would hold the member, and a warning says it is assumed.
 
 An end free in the plane analysed (translation and rotation: a cantilever's tip) is free laterally whatever
-the setting says, as before the setting ``supports`` existed (an explicit ``fork`` in a file written then
-stays what it meant). The member is then checked as a cantilever from its other end, held there laterally
-where it is stated ``fixed`` or built in (:func:`built_in_root`); else the check is not made (``free-end``).
-Both ends free laterally: not made either. A decision of the project (DEVELOPERS.md decisions log, stop 30):
-a fork at an end whose support moves is an assumption on the unsafe side unless the case states it.
+the setting says, as before the setting existed (an explicit ``fork`` in a file written then stays what it
+meant). The member is then checked as a cantilever from its other end, held there laterally where it is
+stated ``fixed`` or built in (:func:`built_in_root`), or as an overhang where a restraint inside holds it
+laterally (a two-plane restraint; in one plane the supports inside the member are taken as forks, as the
+supported ends are: :func:`_supports_as_forks`); else the check is not made (``free-end``). A decision of
+the project (DEVELOPERS.md decisions log, stop 30): a fork at an end whose support moves is an assumption on
+the unsafe side unless the case states it, and a check not made leaves the headline without it.
 """
 
 from __future__ import annotations
@@ -140,6 +143,10 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
     section_y = y_section if y_section is not None else plane.section
     free, moving, held = lateral_sides(result, settings)
     free_end = free[0] if len(free) == 1 else bool(free)
+    root_holds = isinstance(free_end, str) and _root_holds(result, free_end, bool(moving))
+    inner = ()
+    if isinstance(free_end, str) and not root_holds and _lateral_plane(result) is None:
+        restraints, inner = _supports_as_forks(case, restraints)
     found = ltb_member.check(
         x=first.x,
         M=first.moment,
@@ -153,7 +160,7 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
         settings=settings,
         section_class=None if klass is None else klass.klass,
         free_end=free_end,
-        built_in_root=isinstance(free_end, str) and _root_holds(result, free_end, bool(moving)),
+        built_in_root=root_holds,
         gamma_M1=case.check.gamma_M1,
         cache=cache,
         restraints=restraints,
@@ -161,7 +168,28 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
         resistance=material.kind == "steel",  # another material: M_cr alone, its bound (_with_ltb_term)
         modulus=None if klass is None else elastic_modulus(section_y, klass, 0),  # W_eff,y of class 4
     )
-    if not (moving or held):
+    if not (moving or held or inner):
         return found
     held_assumed = "both" if len(held) == 2 else (held[0] if held else "")
-    return dataclasses.replace(found, tip_moves=bool(moving), held_assumed=held_assumed)
+    return dataclasses.replace(
+        found, tip_moves=bool(moving), held_assumed=held_assumed, supports_assumed=inner
+    )
+
+
+def _supports_as_forks(case, restraints) -> tuple[tuple, tuple]:
+    """A one-plane member with a free end whose other end does not hold it laterally: its supports inside
+    the member (translation fixed in the plane analysed) taken as forks, held laterally and against twist
+    (a twist the case gives is kept), as its ends are (:func:`lateral_sides`); with none, nothing changes
+    (the check is then not made). Returns the restraints and the x of the supports so taken."""
+    by_x = {item["x"]: dict(item) for item in restraints}
+    taken = []
+    for r in case.restraints:
+        if r.translation != FIXED or not r.bends:
+            continue
+        item = by_x.setdefault(r.x, {"x": r.x})
+        item["lateral"] = FIXED
+        item.setdefault("twist", FIXED)
+        taken.append(float(r.x))
+    if not taken:
+        return restraints, ()
+    return tuple(sorted(by_x.values(), key=lambda item: item["x"])), tuple(sorted(taken))

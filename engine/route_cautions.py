@@ -134,7 +134,7 @@ def _cantilever_support(ltb_check) -> list:
     there (``root_assumed``; :mod:`engine.ltb_route`)."""
     if ltb_check is None:
         return []
-    out = _held_assumed(ltb_check)
+    out = _held_assumed(ltb_check) + _supports_assumed(ltb_check)
     tip = 1 if ltb_check.lateral_ends[1] == "free" else 0
     where = ("x = 0", "x = L")[tip]
     if getattr(ltb_check, "tip_moves", False) and "free" in ltb_check.lateral_ends:
@@ -197,6 +197,30 @@ def _held_assumed(ltb_check) -> list:
             ),
             source="a decision of this project (common practice, no source)",
             values={"end": side},
+        )
+    ]
+
+
+def _supports_assumed(ltb_check) -> list:
+    """A warning where the lateral-torsional buckling check of a one-plane overhang took its supports inside
+    the member as forks (:mod:`engine.ltb_route`)."""
+    xs = getattr(ltb_check, "supports_assumed", ())
+    if not xs:
+        return []
+    where = ", ".join(f"{x:.3f}" for x in xs)
+    return [
+        Caution(
+            level="warning",
+            code="ltb-support-held-assumed",
+            message=(
+                f"Lateral-torsional buckling takes the support inside the member (x = {where} m) as held "
+                "laterally and against twist (a fork), as it takes a supported end: with a free end and the "
+                "other end not built in, nothing else would hold the member laterally. One plane does not "
+                "say how the support holds the member out of its plane; where it does not hold it so, the "
+                "check is not covered: give the plane of minor-axis bending with its restraints."
+            ),
+            source="a decision of this project (common practice, no source)",
+            values={"x": list(xs)},
         )
     ]
 

@@ -131,6 +131,7 @@ class LtbCheck:
     root_assumed: bool = False  # a cantilever's built-in support taken as laterally fixed (not stated)
     tip_moves: bool = False  # the free end is free as its support moves (lateral end "supports")
     held_assumed: str = ""  # "left"/"right"/"both": ends whose support moves, taken as forks (one plane)
+    supports_assumed: tuple = ()  # x [m] of supports inside taken as forks (a one-plane overhang)
 
 
 def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:

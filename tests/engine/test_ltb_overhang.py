@@ -82,16 +82,34 @@ def _member(second_plane: bool):
     return engine.Case.from_dict(data)
 
 
-def test_a_two_plane_overhang_is_checked_and_a_one_plane_one_is_not():
+def test_an_overhang_is_checked_in_two_planes_and_in_one_with_its_support_taken_as_a_fork():
     """With the plane of minor-axis bending the support holds the member laterally: the check is made with
-    the fork at x = 0 and the tip free, and its M_cr is the exact one of that problem. In one plane nothing
-    holds the member laterally at the support, so the check is not made (``free-end``) and the warning
-    stays."""
+    the fork at x = 0 and the tip free, and its M_cr is the exact one of that problem. In one plane the
+    support inside is taken as a fork, as a supported end is (the same M_cr), and a warning says so; on a
+    translational spring it is not, and the check is not made (``free-end``)."""
     two = engine.solve(_member(True))
     assert two.ltb.applies and two.ltb.lateral_ends == ("fork", "free")
-    assert two.ltb.segments == ((0.0, 4.5), (4.5, 6.0))
-    assert "lateral-torsional-buckling" not in [c.code for c in two.cautions]
+    assert two.ltb.segments == ((0.0, 4.5), (4.5, 6.0)) and not two.ltb.supports_assumed
+    codes = [c.code for c in two.cautions]
+    assert "lateral-torsional-buckling" not in codes and "ltb-support-held-assumed" not in codes
     assert math.isfinite(two.ltb.M_cr) and 0.0 < two.ltb.chi_LT <= 1.0
     one = engine.solve(_member(False))
-    assert not one.ltb.applies and one.ltb.reason == "free-end"
-    assert "lateral-torsional-buckling" in [c.code for c in one.cautions]
+    assert one.ltb.applies and one.ltb.supports_assumed == (4.5,)
+    assert one.ltb.M_cr == pytest.approx(two.ltb.M_cr, rel=1e-9)
+    warning = next(c for c in one.cautions if c.code == "ltb-support-held-assumed")
+    assert warning.level == "warning" and warning.values == {"x": [4.5]} and "x = 4.500 m" in warning.message
+    data = _member(False).to_dict()
+    data["restraints"] = [{"x": 4.5, "translation": 1e7, "twist": "fixed"}]
+    spring = engine.solve(engine.Case.from_dict(data))
+    assert not spring.ltb.applies and spring.ltb.reason == "free-end"
+    assert "lateral-torsional-buckling" in [c.code for c in spring.cautions]
+
+
+def test_a_built_in_root_keeps_the_cantilever_and_ignores_the_support_inside():
+    """Fixed at x = 0 with a support inside and a free end (one plane): checked as the cantilever from its
+    built-in support, as before; the support inside is not taken as a fork (the lower M_cr)."""
+    data = _member(False).to_dict()
+    data["supports"] = {"left": "fixed", "right": "free"}
+    result = engine.solve(engine.Case.from_dict(data))
+    assert result.ltb.applies and result.ltb.lateral_ends == ("fixed", "free")
+    assert not result.ltb.supports_assumed and result.ltb.root_assumed
