@@ -16,9 +16,8 @@ under ``"section"`` (SI metres), either a catalogue name or a shape with its dim
 Every bad input is a :class:`engine.errors.CaseError` naming the field, the value received and what is
 allowed, e.g. ``section.tf: 0.3 m must be less than h/2 = 0.1 m``.
 
-The properties are exact for the shape, root radii and corner radii included; the formulas, with their
-derivation, are in :mod:`engine.section_properties`, the catalogue's names and dimensions in
-:mod:`engine.catalogue`.
+The properties are exact for the shape, root and corner radii included (the formulas: :mod:`engine.
+section_properties`; the catalogue: :mod:`engine.catalogue`, its sections built once each and shared).
 
 Axes: ``"major"`` bends about the axis parallel to the flanges of an I/H section (y–y, depth h); ``"minor"``
 about the axis along the web (z–z, depth b). For a rectangle or RHS, ``"major"`` bends in the plane of h,
@@ -27,6 +26,7 @@ whichever of h and b is larger, as the case file gives them.
 
 from __future__ import annotations
 
+import functools
 import math
 import numbers
 from collections.abc import Mapping
@@ -323,6 +323,12 @@ def _from_catalogue(path: str, spec: Mapping, axis: str) -> Section:
             f"100 to 600, US W shapes W6 to W24, some hot-finished SHS, RHS and CHS, sawn-timber sizes "
             f"(engine.sections.catalogue_names() lists them), or give 'shape' with dimensions"
         )
+    return _catalogued(canonical, axis)
+
+
+@functools.cache
+def _catalogued(canonical: str, axis: str, path: str = "section") -> Section:
+    """A catalogue section about ``axis``, built once (a Section is frozen and the catalogue fixed)."""
     checked = "; checked against references.md §5" if canonical in REFERENCES_S5 else ""
     computed = "; properties computed exactly from the dimensions"
     if canonical in ROLLED_I or canonical in W_SHAPES:
@@ -505,10 +511,7 @@ def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section")
     path : str
         The spec's path in the case, for error messages.
 
-    Returns
-    -------
-    Section
-        The properties about ``axis``.
+    Returns the :class:`Section` about ``axis``.
 
     Raises
     ------
