@@ -145,7 +145,8 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
     free_end = free[0] if len(free) == 1 else bool(free)
     root_holds = isinstance(free_end, str) and _root_holds(result, free_end, bool(moving))
     inner = ()
-    if isinstance(free_end, str) and not root_holds and _lateral_plane(result) is None:
+    root_stated = isinstance(free_end, str) and settings.lateral_ends[1 - _SIDES.index(free_end)] == FIXED
+    if isinstance(free_end, str) and not (root_holds or root_stated) and _lateral_plane(result) is None:
         restraints, inner = _supports_as_forks(case, restraints)
     found = ltb_member.check(
         x=first.x,

@@ -113,3 +113,14 @@ def test_a_built_in_root_keeps_the_cantilever_and_ignores_the_support_inside():
     result = engine.solve(engine.Case.from_dict(data))
     assert result.ltb.applies and result.ltb.lateral_ends == ("fixed", "free")
     assert not result.ltb.supports_assumed and result.ltb.root_assumed
+
+
+def test_an_overhang_whose_other_end_is_stated_fixed_is_a_cantilever_from_it():
+    """One plane, the end at x = 0 stated laterally fixed: the cantilever from that end, with the support
+    inside not taken as a fork (the case says how the member is held; the lower M_cr)."""
+    data = _member(False).to_dict()
+    data["check"] = dict(data.get("check") or {}, ltb={"lateral_ends": ["fixed", "supports"]})
+    stated = engine.solve(engine.Case.from_dict(data))
+    assert stated.ltb.applies and stated.ltb.lateral_ends == ("fixed", "free")
+    assert not stated.ltb.supports_assumed and all("lateral" not in r for r in stated.ltb.restraints)
+    assert stated.ltb.M_cr < engine.solve(_member(False)).ltb.M_cr
