@@ -8,11 +8,13 @@ end's support across the plane of major-axis bending (:func:`lateral_sides`):
 - a two-plane case states it: the support of the plane of minor-axis bending. Where its translation is
   fixed the end is a fork; where it is free, guided or a spring the end is free laterally, and the other end
   holds the member where that plane builds it in;
-- a one-plane case says nothing about the other plane. An end held against translation in the plane
-  analysed is a fork (the usual support of a beam or a braced column). An end that moves in it (guided, a
-  translational spring) is free laterally where the other end is built in (a sway column: the out-of-plane
-  buckling length of :mod:`engine.out_of_plane` is 2L for the same reason); else it stays a fork, since
-  nothing else would hold the member, and a warning says it is assumed.
+- a one-plane case says little about the other plane. An end held against translation in the plane
+  analysed is a fork (the usual support of a beam or a braced column), and so is every end where the case
+  states the member held out of its plane (``out_of_plane.restrained``, or an out-of-plane buckling length
+  not above L). Otherwise an end that moves in the plane analysed (guided, a translational spring) is free
+  laterally where the other end is built in (a sway column: the out-of-plane buckling length of
+  :mod:`engine.out_of_plane` is 2L for the same reason); else it stays a fork, since nothing else would hold
+  the member, and a warning says it is assumed.
 
 An end free in the plane analysed (translation and rotation: a cantilever's tip) is free laterally whatever
 the setting says, as before the setting existed (an explicit ``fork`` in a file written then stays what it
@@ -74,12 +76,27 @@ def lateral_sides(result, settings) -> tuple[tuple, tuple, tuple]:
         elif settings.lateral_ends[i] == LATERAL_FROM_SUPPORTS:
             if getattr(stated or plane, side).translation == FIXED:
                 continue
+            if stated is None and _held_out_of_plane(plane):
+                continue  # the case states the member held out of its plane at its ends
             if stated is None and not built_in_root(result, side):
                 held.append(side)
                 continue
             free.append(side)
             moving.append(side)
     return tuple(free), tuple(moving), tuple(held)
+
+
+def _held_out_of_plane(case) -> bool:
+    """Whether a one-plane case states the member held out of its plane at both ends: out-of-plane buckling
+    prevented, or an out-of-plane buckling length not above the member's (an end that moved out of plane
+    would make it longer)."""
+    settings = case.out_of_plane
+    if settings is None:
+        return False
+    if settings.restrained:
+        return True
+    given = settings.buckling_length
+    return given is not None and given <= case.length * (1.0 + 1e-9)
 
 
 def built_in_root(result, side: str) -> bool:

@@ -145,7 +145,8 @@ def _cantilever_support(ltb_check) -> list:
                 message=(
                     f"Lateral-torsional buckling takes the end at {where} as free laterally and in twist (a "
                     "cantilever's tip): its support moves and the case does not hold it out of plane. Where "
-                    "it is held (bracing, a roof plate), set its lateral end to fork."
+                    "it is held (bracing, a roof plate), set its lateral end to fork, or give the "
+                    "out-of-plane buckling length (L where both ends are held)."
                 ),
                 source="a decision of this project (an end whose support moves is not taken as held "
                 "laterally unless the case says so)",
@@ -193,7 +194,7 @@ def _held_assumed(ltb_check) -> list:
                 "does not say how it is held out of that plane; without a built-in end, nothing else "
                 "would hold the member laterally. Where that end is not held so, the check is "
                 "not covered: give the plane of minor-axis bending (its supports then decide), or set the "
-                "lateral end."
+                "lateral end. An out-of-plane buckling length not above L states the ends held."
             ),
             source="a decision of this project (common practice, no source)",
             values={"end": side},

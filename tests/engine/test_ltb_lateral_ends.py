@@ -161,3 +161,27 @@ def test_a_member_on_springs_at_both_ends_keeps_both_forks_with_the_warning():
     assert result.ltb.held_assumed == "both"
     warning = next(c for c in result.cautions if c.code == "ltb-end-held-assumed")
     assert warning.values == {"end": "both"} and "both ends" in warning.message
+
+
+@pytest.mark.parametrize(
+    ("out_of_plane", "ends"),
+    [
+        ({"buckling_length": 4.0}, ("fork", "fork")),  # L_cr = L: held at both ends out of plane
+        ({"buckling_length": 2.8}, ("fork", "fork")),
+        ({"restrained": True}, ("fork", "fork")),
+        ({"buckling_length": 8.0}, ("fixed", "free")),  # 2L: the top moves out of plane
+    ],
+)
+def test_a_stated_out_of_plane_length_says_how_the_ends_are_held(out_of_plane, ends):
+    """One plane: an out-of-plane buckling length not above L (or out-of-plane buckling prevented) states
+    the member held out of plane at its ends, so a guided top is a fork with no warning; a longer one leaves
+    the top free laterally."""
+    data = _case("fixed", "guided").to_dict()
+    data["out_of_plane"] = out_of_plane
+    result = engine.solve(engine.Case.from_dict(data))
+    assert result.ltb.applies and result.ltb.lateral_ends == ends
+    moves = "ltb-end-moves" in _codes(result)
+    assert moves is (ends[1] == "free")
+    data["supports"] = {"left": "pinned", "right": "guided"}
+    pinned = engine.solve(engine.Case.from_dict(data))
+    assert ("ltb-end-held-assumed" in _codes(pinned)) is (ends[1] == "free")
