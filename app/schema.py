@@ -485,7 +485,9 @@ def _build() -> dict[str, Any]:
                 "restrained": {
                     "type": "boolean",
                     "description": "true when out-of-plane buckling is prevented (the check is "
-                    "not made); not together with buckling_length. Default false.",
+                    "not made; for a member bent about its major axis, held along its length, so "
+                    "torsional buckling is not checked either); not together with buckling_length. "
+                    "Default false.",
                 },
             },
             description="Flexural buckling out of the plane analysed (needs a steel section and material).",

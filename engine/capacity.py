@@ -38,6 +38,7 @@ from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.prepared import prepare
 from engine.roots import brentq
+from engine.torsional_buckling import TERM as TORSIONAL
 
 __all__ = ["Capacity", "capacity"]
 
@@ -92,7 +93,7 @@ _MAX_AXIAL_FORCE = 1e12
 
 
 #: The second-order route's terms that the member check (``result.check``) does not hold.
-_ROUTE_ONLY_TERMS = ("lateral-torsional", INTERACTION, LTB_ELASTIC)
+_ROUTE_ONLY_TERMS = ("lateral-torsional", INTERACTION, LTB_ELASTIC, TORSIONAL)
 
 
 def _at_force(case, force: float):

@@ -390,16 +390,18 @@ def resolve(case):
             )
             # Eq. (5.9): η_init = e0 · N_cr / (EI |η''_cr|max) · η_cr, with η_cr normalised to max|η| = 1;
             # with restraints or a foundation, EI|η''_cr| is the mode's own moment, found along every segment.
-            if hasattr(first, "moment_peak"):
-                factor = pcr1 / first.moment_peak()
-            else:
-                factor = pcr1 / (EI * mode_curvature_peak(first))
-            amplitude = e0 * factor
+            peak = first.moment_peak() if hasattr(first, "moment_peak") else EI * mode_curvature_peak(first)
+            factor = pcr1 / peak if peak > 0.0 else math.inf  # a rigid-body mode has no curvature
+            amplitude = e0 * factor if e0 > 0.0 else 0.0
             if amplitude > L / 10:
                 # Capping it would make the route unconservative (capacity above χ A f_y / γ_M1): refuse.
+                size = (
+                    f"= {amplitude * 1e3:.0f} mm exceeds L/10 = {L / 10 * 1e3:.0f} mm"
+                    if math.isfinite(amplitude)
+                    else "is unbounded: the mode has no curvature"
+                )
                 raise CaseError(
-                    f"imperfection.preset: the eq. (5.9) bow e0·N_cr/(EI·|η''|max) = "
-                    f"{amplitude * 1e3:.0f} mm exceeds L/10 = {L / 10 * 1e3:.0f} mm: the first "
+                    f"imperfection.preset: the eq. (5.9) bow e0·N_cr/(EI·|η''|max) {size}: the first "
                     "buckling mode of these supports is nearly a rigid-body sway with little "
                     "curvature (soft translational springs); use the Table 5.1 preset with a "
                     "sway imperfection, or stiffer supports"

@@ -21,7 +21,7 @@ from __future__ import annotations
 import dataclasses
 import math
 
-from engine import segment_routes
+from engine import segment_routes, torsional_buckling
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.buckling_interaction import conservative, equations, larger, of_route
 from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
@@ -30,7 +30,7 @@ from engine.design import aisc_member, en_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
-from engine.ltb_route import lateral_torsional, ltb_restraints
+from engine.ltb_route import lateral_sides, lateral_torsional, ltb_restraints
 from engine.ltb_route import made as _made
 from engine.ltb_route import major as _major
 from engine.member import segments_of
@@ -38,6 +38,7 @@ from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.out_of_plane import sways
 from engine.sections import section_from_spec
+from engine.torsional_buckling import TERM as TORSIONAL
 
 __all__ = ["FALLBACK", "STEPPED", "attach", "evaluate", "headline", "ltb_restraints"]
 
@@ -296,6 +297,11 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
             ltb=found,
         )
         second = _with_interaction(second, term, "foundation")
+    twist = _made(cache, "routes-torsional", lambda: _torsional(result, y, z, material))
+    if twist is not None and N > 0.0:  # EN 1993-1-1 §6.3.1.4, a term of both EN routes
+        term = N / twist.N_b_Rd if twist.N_b_Rd > 0.0 else math.inf
+        facts = {"N_cr_T": twist.N_cr, "L_T": twist.length, "chi_T": twist.chi, "N_b_T_Rd": twist.N_b_Rd}
+        second, en = _with_term(second, TORSIONAL, term, facts), _with_term(en, TORSIONAL, term, facts)
     aisc = aisc_member.route(
         y=y,
         z=z,
@@ -305,8 +311,36 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         enabled=enabled_aisc,
         beyond=beyond,
         ltb=found,
+        N_cr_T=None if twist is None else twist.N_cr,
     )
     return (second, en, aisc), found
+
+
+def _torsional(result, y, z, material):
+    """The member's torsional buckling load and resistance (:mod:`engine.torsional_buckling`), or None."""
+    case = result.case
+    if _major(result) is not None:
+        free = lateral_sides(result, case.check.ltb)[0]
+    else:
+        ends = (("left", case.left), ("right", case.right))
+        free = tuple(side for side, end in ends if end.translation == "free" and end.rotation == "free")
+    found = torsional_buckling.critical_load(case, y.section, z.section, material, free)
+    if found is None:
+        return None
+    return torsional_buckling.resistance(found, z.section, material, case.check.gamma_M1)
+
+
+def _with_term(route: RouteCheck, name: str, term: float, facts: dict) -> RouteCheck:
+    """``route`` with one more term (its utilisation the larger); a route not applied, or already unbounded,
+    is kept as it is."""
+    if route.utilization is None or math.isinf(route.utilization):
+        return route
+    terms = dict(route.terms, **{name: term})
+    governing, value = route.governing, route.utilization
+    if term > value:
+        governing, value = name, term
+    merged = dict(route.facts, **facts)
+    return dataclasses.replace(route, terms=terms, governing=governing, utilization=value, facts=merged)
 
 
 def _stepped_ltb(result, segments, cache):

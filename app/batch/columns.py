@@ -123,8 +123,8 @@ COLUMNS: tuple[Column, ...] = (
     Column(
         name="out_of_plane",
         required=False,
-        description="restrained when out-of-plane buckling is prevented (no check about the other axis). "
-        "Empty: checked.",
+        description="restrained when out-of-plane buckling is prevented (no check about the other axis; bent "
+        "about the major axis, held along its length: no torsional buckling check either). Empty: checked.",
     ),
     # Issue 14: bending about the other axis as well (the case file's ``second_plane``). A row with any of
     # these cells filled is a two-plane member; its supports must then be given (they are rarely the first

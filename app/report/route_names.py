@@ -3,7 +3,7 @@ the capacity and the routes' own module both use them)."""
 
 from __future__ import annotations
 
-__all__ = ["NOTES", "REASONS", "TERMS", "governing_text", "route_name", "route_setting"]
+__all__ = ["NOTES", "REASONS", "ROUTE_TERMS", "TERMS", "governing_text", "route_name", "route_setting"]
 
 #: The routes' names; the ``{annex}`` and ``{method}`` come from the case's check settings.
 _NAMES = {
@@ -11,6 +11,9 @@ _NAMES = {
     "en-member": "EN 1993-1-1 equivalent member (Annex {annex})",
     "aisc": "AISC 360-16 ({method})",
 }
+
+#: The second-order route's own terms beside its check along the member (a capacity can stop at one).
+ROUTE_TERMS = ("lateral-torsional", "buckling-interaction", "lateral-torsional-elastic", "torsional-buckling")
 
 #: The governing terms' names, by the engine's code.
 TERMS = {
@@ -29,6 +32,7 @@ TERMS = {
     "buckling-interaction": "buckling with the moments, eq. (6.61)/(6.62)",
     "lateral-torsional": "lateral-torsional buckling",
     "lateral-torsional-elastic": "lateral-torsional buckling, M/M_cr (a bound)",
+    "torsional-buckling": "torsional buckling, N/N_b,T,Rd",
     "flexural-buckling-y": "flexural buckling, major axis",
     "flexural-buckling-z": "flexural buckling, minor axis",
     "flexural-buckling": "flexural buckling",

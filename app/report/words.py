@@ -16,6 +16,7 @@ import re
 
 import numpy as np
 
+from app.report import route_names as names
 from app.report.numbers import finite, format_number, position, ratio
 from app.report.restraints import REACTIONS_NOTE, all_reactions, support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
@@ -438,7 +439,7 @@ def capacity_text(capacity, U: Units, result=None) -> str:
             f"The route {route_name(route, result)} governs: utilisation 1 by {governing_text(check)} at "
             f"N = {force}."
         )
-    if check in ("lateral-torsional", "buckling-interaction", "lateral-torsional-elastic"):  # route terms
+    if check in names.ROUTE_TERMS:  # the second-order route's terms beside its check along the member
         return f"The second-order route governs: utilisation 1 by {governing_text(check)} at N = {force}."
     where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
     return f"Strength governs: utilisation 1 by {check}{where}."

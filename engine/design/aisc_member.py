@@ -129,11 +129,12 @@ def flexure_class(section, E: float, Fy: float) -> tuple[str, list]:
 
 
 def route(
-    *, y: Plane, z: Plane, N: float, material, settings, enabled: bool, beyond: bool, ltb=None
+    *, y: Plane, z: Plane, N: float, material, settings, enabled: bool, beyond: bool, ltb=None, N_cr_T=None
 ) -> RouteCheck:
     """The ``aisc`` route at axial force ``N`` (compression positive) [N]; ``beyond``: N is at or above the
     first critical load of the plane analysed (no stable equilibrium); ``ltb``: the member's
-    lateral-torsional buckling check (its ``aisc`` part is used where it applies)."""
+    lateral-torsional buckling check (its ``aisc`` part is used where it applies); ``N_cr_T``: the torsional
+    buckling load [N] (§E4 with F_e = N_cr,T/A_g, :mod:`engine.torsional_buckling`), or None."""
     sy = y.section
     if sy.shape not in _SHAPES:
         return not_applied("aisc", enabled, "custom-section", SOURCE)
@@ -212,13 +213,14 @@ def route(
         facts[f"M_r_{p.axis}"] = M_r[p.axis]
     if N > 0.0:
         P_n = math.inf
-        for p in (y, z):
-            F_e = p.N_cr / sy.A
+        modes = [(p.axis, p.N_cr) for p in (y, z)] + ([] if N_cr_T is None else [("T", N_cr_T)])  # §E3, §E4
+        for axis, N_cr in modes:
+            F_e = N_cr / sy.A
             F_cr = aisc360.critical_stress(Fy, F_e)
-            facts[f"F_e_{p.axis}"], facts[f"F_cr_{p.axis}"] = F_e, F_cr
+            facts[f"F_e_{axis}"], facts[f"F_cr_{axis}"] = F_e, F_cr
             A_e = effective_area(sy, E, Fy, F_cr) if slender else sy.A  # §E7: slender elements
             if F_cr * A_e < P_n:
-                P_n, facts["P_n_axis"] = F_cr * A_e, p.axis
+                P_n, facts["P_n_axis"] = F_cr * A_e, axis
                 if slender:
                     facts["A_e"] = A_e
         if slender:

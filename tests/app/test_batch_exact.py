@@ -33,7 +33,11 @@ utilisation of 10 generated rows rose, two of them from a pass to a fail (M00000
 0.702 → 1.053). Then (stop 29 too) when a cantilever built in within its plane began to be checked for
 lateral-torsional buckling with its support held laterally (it was not checked, `free-end`): CT-01 (0.118
 → 0.154) and 12 generated rows (10 of them more utilised, e.g. M000055 0.379 → 0.908; two timber rows
-only in their cautions and `ltb` cell); no utilisation fell and no capacity rose. And a hypothesis-drawn
+only in their cautions and `ltb` cell); no utilisation fell and no capacity rose. Again at stop 30, when
+torsional buckling under N began to count (EN 1993-1-1 §6.3.1.4 in both EN routes, AISC §E4 in P_n): 7
+generated rows, only those lines rewritten: six AISC utilisations rose (M000139 0.242 → 0.349, the rest by
+under 2 %), M000109's capacity fell 2838 → 2555 kN (torsional buckling over its 6.47 m, warping free) and
+M000139 lost its routes-disagree note; no utilisation fell and no capacity rose. And a hypothesis-drawn
 table solved twice in this process, once as the product does it and once with the capacity finder as it was
 before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
 afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.

@@ -6,8 +6,9 @@ Source: *Design Examples*, version 15.0, the companion to the AISC Steel Constru
 
 - E.1A, W14x132, L_c = 30 ft about both axes: y–y governs, φ_c P_n = 893 kips (LRFD), P_n/Ω_c = 594 kips
   (ASD);
-- E.1B, W14x90 braced about y–y at mid-height (L_c,y = 15 ft, L_c,x = 30 ft): x–x governs,
-  φ_c P_n = 928 kips (LRFD).
+- E.1B, W14x90 braced about y–y and torsionally at mid-height (L_c,y = L_cz = 15 ft, L_c,x = 30 ft): x–x
+  governs, φ_c P_n = 928 kips (LRFD). Braced about y–y alone, §E4 torsional buckling over 30 ft would govern
+  (F_e = (π²EC_w/L_cz² + GJ)/(I_x + I_y), eq. (E4-2) for doubly symmetric members; from memory).
 
 The examples use the Manual's section properties; the catalogue computes them from the printed (rounded)
 dimensions, which differ from the Manual's own by up to about 1 % (engine.catalogue), so the published
@@ -18,6 +19,8 @@ strengths are matched to 1 %, and never exceeded beyond their rounding (the cata
 
 from __future__ import annotations
 
+import math
+
 import pytest
 
 import engine
@@ -26,7 +29,7 @@ KIP = 4448.2216152605  # [N], exact from the pound-force of 0.45359237 kg × 9.8
 FT = 0.3048  # [m], exact
 
 
-def _column(name: str, method: str, braced_y_at: float | None = None) -> engine.Case:
+def _column(name: str, method: str, braced_y_at: float | None = None, twist: bool = True) -> engine.Case:
     data = {
         "length": 30 * FT,
         "section": {"name": name},
@@ -38,6 +41,8 @@ def _column(name: str, method: str, braced_y_at: float | None = None) -> engine.
     }
     if braced_y_at is not None:
         data["out_of_plane"] = {"buckling_length": braced_y_at}
+        if twist:  # the brace holds the twist too (the example's "braced torsionally")
+            data["restraints"] = [{"x": braced_y_at, "twist": "fixed"}]
     return engine.Case.from_dict(data)
 
 
@@ -61,6 +66,28 @@ def test_example_e1b_w14x90_braced_about_y_at_mid_height():
     assert axis == "y"  # x–x of the Manual: the major axis governs once y–y is braced
     assert strength == pytest.approx(928.0, rel=1e-2)
     assert strength <= 928.5
+
+
+def test_example_e1b_without_the_torsional_brace_is_governed_by_e4():
+    """The same column braced about y–y only: §E4 over 30 ft governs, F_e,T by eq. (E4-2) with the
+    catalogue's own torsion constants (divided by the LTB check's factor, as the engine uses them)."""
+    case = _column("W14x90", "LRFD", braced_y_at=15 * FT, twist=False)
+    strength, axis = _strength(case)
+    assert axis == "T" and strength < 928.0
+    result = engine.solve(case)
+    section = result.section
+    minor = engine.sections.section_from_spec({"name": "W14x90"}, "minor")
+    factor = engine.design.ltb_member.TORSION_FACTORS["rolled_i"]
+    E, G = result.material.E, result.material.G
+    L = 30 * FT
+    F_e = (math.pi**2 * E * section.torsion.I_w / factor / L**2 + G * section.torsion.I_t / factor) / (
+        section.I + minor.I
+    )
+    route = next(r for r in result.routes if r.route == "aisc")
+    assert route.facts["F_e_T"] == pytest.approx(F_e, rel=1e-12)
+    assert (
+        55.0 < F_e / 6.894757e6 < 62.0
+    )  # about 59 ksi with the Manual's C_w, J, I_x, I_y (hand, from memory)
 
 
 @pytest.mark.parametrize(("name", "braced"), [("W14x132", None), ("W14x90", 15 * FT)])

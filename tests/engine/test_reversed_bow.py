@@ -66,8 +66,10 @@ def _both(case, n=401):
 )
 def test_reversed_bow_by_linearity_equals_its_direct_solve(supports, case_loads, shape, direction, fraction):
     """w, rotation, M, T and V of the reversed bow as 2 × (bow-free) − (forward) equal a direct solve of the
-    reversed bow to 1e-12 of each field's largest value, at the stations and at the peaks, which fall at the
-    same points (linearity of the second-order problem at a given N: Timoshenko & Gere (1961) ch. 1, the
+    reversed bow to 1e-11 of each field's largest value (the combination carries the rounding of two solves,
+    one doubled, and the direct solve its own: 2.1e-11 of T's largest value was seen with couples beside a
+    guided end), at the stations and at the peaks, which fall at the same points (linearity of the
+    second-order problem at a given N: Timoshenko & Gere (1961) ch. 1, the
     governing equation EI w'''' + N w'' = q + N w0'' is linear in q and w0)."""
     case = _case(supports, case_loads, shape, direction, fraction)
     combined, direct, _ = _both(case)
@@ -76,11 +78,11 @@ def test_reversed_bow_by_linearity_equals_its_direct_solve(supports, case_loads,
     assert combined[0] == direct[0]
     for name in FIELDS:
         a, b = combined[7][name], direct[7][name]  # the base stations
-        assert np.abs(a - b).max() <= 1e-12 * _scale((direct[7],), name), name
+        assert np.abs(a - b).max() <= 1e-11 * _scale((direct[7],), name), name
     # The largest values (the peaks found between stations on each solution) agree too.
     for name in FIELDS:
         a, b = combined[2][name], direct[2][name]
-        assert abs(np.abs(a).max() - np.abs(b).max()) <= 1e-12 * _scale((direct[2],), name), name
+        assert abs(np.abs(a).max() - np.abs(b).max()) <= 1e-11 * _scale((direct[2],), name), name
 
 
 @settings(max_examples=15, deadline=None)
