@@ -21,9 +21,10 @@ from engine.member_routes import LTB_ELASTIC, headline
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.roots import brentq
+from engine.torsional_buckling import TERM as TORSIONAL
 
 #: The second-order route's terms beyond the member check (engine.capacity's own list, copied).
-_ROUTE_ONLY_TERMS = ("lateral-torsional", "buckling-interaction", LTB_ELASTIC)
+_ROUTE_ONLY_TERMS = ("lateral-torsional", "buckling-interaction", LTB_ELASTIC, TORSIONAL)
 
 __all__ = ["capacity"]
 
