@@ -529,6 +529,7 @@ _WORDED = {
     "out-of-plane-buckling": _out_of_plane_buckling,
     "out-of-plane-checked": _out_of_plane_checked,
     "out-of-plane-not-checked": _out_of_plane_not_checked,
+    "ltb-support-held-assumed": names.support_held_words,
 }
 
 

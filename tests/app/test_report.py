@@ -111,12 +111,16 @@ def test_every_caution_that_quotes_a_unit_is_reworded():
         {"imperfection": {"shape": "sine", "amplitude": 0.005}, "out_of_plane": {"restrained": True}},
         {"supports": {"left": "fixed", "right": "free"}, "axial_force": 100e3},
         {"axial_force": 4000e3},
+        # an overhang in one plane: its support inside is taken as a fork (its x quoted)
+        {"supports": {"left": "pinned", "right": "free"}, "restraints": [{"x": 4.5, "translation": "fixed"}]},
     ]
     for changes in cases:
         for caution in engine.solve(_case(**changes)).cautions:
             if any(f" {unit}" in caution.message for unit in ("mm", "kN", "m ", "m,", "m)")):
                 quoting.append(caution)
-    assert {c.code for c in quoting} >= {"deflection", "bow-below-code", "out-of-plane-buckling"}
+    expected = {"deflection", "bow-below-code", "out-of-plane-buckling", "ltb-support-held-assumed"}
+    assert {c.code for c in quoting} >= expected
     for caution in quoting:
         text = caution_text(caution, US)
         assert " mm" not in text and " kN" not in text, caution.code
+        assert not any(f" m{end}" in text for end in (" ", ",", ")")), caution.code
