@@ -99,12 +99,17 @@ def _held_out_of_plane(case) -> bool:
     return given is not None and given <= case.length * (1.0 + 1e-9)
 
 
+def _built_in(case, side: str) -> bool:
+    """Whether the end opposite ``side`` is built in (translation and rotation fixed) in ``case``'s plane."""
+    root = getattr(case, "right" if side == "left" else "left")
+    return root.translation == FIXED and root.rotation == FIXED
+
+
 def built_in_root(result, side: str) -> bool:
     """Whether the end opposite ``side`` is built in (translation and rotation fixed) in every plane of
     ``result``."""
     planes = [result.case] + ([result.second_plane.case] if result.second_plane is not None else [])
-    root = "right" if side == "left" else "left"
-    return all(getattr(p, root).translation == FIXED and getattr(p, root).rotation == FIXED for p in planes)
+    return all(_built_in(p, side) for p in planes)
 
 
 def _root_holds(result, side: str, moving: bool) -> bool:
@@ -112,10 +117,7 @@ def _root_holds(result, side: str, moving: bool) -> bool:
     every plane (:func:`built_in_root`), or, where ``side`` is free because the plane of minor-axis bending
     lets it move, built in within that plane (the major plane's rotation there does not turn it laterally)."""
     stated = _lateral_plane(result) if moving else None
-    if stated is None:
-        return built_in_root(result, side)
-    root = getattr(stated, "right" if side == "left" else "left")
-    return root.translation == FIXED and root.rotation == FIXED
+    return built_in_root(result, side) if stated is None else _built_in(stated, side)
 
 
 def ltb_restraints(case) -> tuple[tuple, bool]:

@@ -86,6 +86,8 @@ def _lengths(case, free_ends) -> list:
     free at both of its ends, fixed at one, fixed at both; at a free end 2s (its root's warping fixed) or
     inf (free: no warping stiffness)."""
     held = _held_points(case, free_ends)
+    if not held:  # nothing holds the twist
+        return []
     warping = dict(zip((0.0, case.length), case.check.ltb.warping_ends, strict=True))
     fixed = [warping.get(x) == "fixed" for x in held]
     out = [(1.0, 0.7, 0.5)[fixed[i] + fixed[i + 1]] * (held[i + 1] - held[i]) for i in range(len(held) - 1)]
@@ -112,8 +114,7 @@ def critical_load(case, section_y, section_z, material, free_ends=()) -> Torsion
         or torsion.I_w is None
     ):
         return None
-    held = case.out_of_plane is not None and case.out_of_plane.restrained and case.axis == "major"
-    if held or not _held_points(case, tuple(free_ends)):
+    if case.out_of_plane is not None and case.out_of_plane.restrained and case.axis == "major":
         return None
     stretches = _lengths(case, tuple(free_ends))
     if not stretches:

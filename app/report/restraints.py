@@ -25,6 +25,7 @@ __all__ = [
     "has_inner",
     "reactions_note",
     "metadata_rows",
+    "support_held_words",
     "support_label",
     "SupportReaction",
     "foundation_show",
@@ -331,3 +332,15 @@ def reactions_note(case) -> str:
     """How the reactions read: :data:`app.report.REACTIONS_NOTE`, or :data:`FOUNDATION_NOTE` with a
     foundation (whose own reaction then balances part of the loads)."""
     return FOUNDATION_NOTE if getattr(case, "foundation", ()) else REACTIONS_NOTE
+
+
+def support_held_words(v: dict, U: Units) -> str:
+    """The caution ``ltb-support-held-assumed`` in the display units (its x are lengths)."""
+    where = ", ".join(U.show("length", x) for x in v.get("x", ()))
+    return (
+        f"Lateral-torsional buckling takes the support inside the member (x = {where}) as held laterally "
+        "and against twist (a fork), as it takes a supported end: with a free end and the other end not "
+        "built in, nothing else would hold the member laterally. One plane does not say how the support "
+        "holds the member out of its plane; where it does not hold it so, the check is not covered: give "
+        "the plane of minor-axis bending with its restraints."
+    )

@@ -133,15 +133,3 @@ def plane_axes(result) -> tuple[str, str]:
     """(axis of the case's own plane, axis of the second plane), e.g. ``("major", "minor")``."""
     axis = getattr(getattr(result, "case", None), "axis", None) or "major"
     return axis, other_axis(axis)
-
-
-def support_held_words(v: dict, U) -> str:
-    """The caution ``ltb-support-held-assumed`` in the display units (its x are lengths)."""
-    where = ", ".join(U.show("length", x) for x in v.get("x", ()))
-    return (
-        f"Lateral-torsional buckling takes the support inside the member (x = {where}) as held laterally "
-        "and against twist (a fork), as it takes a supported end: with a free end and the other end not "
-        "built in, nothing else would hold the member laterally. One plane does not say how the support "
-        "holds the member out of its plane; where it does not hold it so, the check is not covered: give "
-        "the plane of minor-axis bending with its restraints."
-    )

@@ -16,6 +16,7 @@ import re
 
 import numpy as np
 
+from app.report import restraints as inner
 from app.report import route_names as names
 from app.report.numbers import finite, format_number, position, ratio
 from app.report.restraints import REACTIONS_NOTE, all_reactions, support_label, support_reactions
@@ -529,7 +530,7 @@ _WORDED = {
     "out-of-plane-buckling": _out_of_plane_buckling,
     "out-of-plane-checked": _out_of_plane_checked,
     "out-of-plane-not-checked": _out_of_plane_not_checked,
-    "ltb-support-held-assumed": names.support_held_words,
+    "ltb-support-held-assumed": inner.support_held_words,
 }
 
 
