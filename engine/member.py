@@ -352,6 +352,7 @@ def resolve(case):
         code_label = f"EN 1993-1-1 Table 5.1, curve {curve}, {method} analysis: L/{ratio}"
         code_source = "EN 1993-1-1:2005 Table 5.1 [text: Simões da Silva et al., ECCS 2010, table 2.20]"
     plain = _plain(case, EI)
+    notes = []
     if imp.preset is None:
         shape, amplitude = imp.shape, imp.amplitude
         label = f"{shape}, amplitude {{amplitude}} (given)" if shape != "none" else "no initial bow"
@@ -364,10 +365,18 @@ def resolve(case):
                     "imperfection.curve: the EN 1993-1-1 Table 5.1 preset needs a buckling curve: "
                     "give 'curve' (a0, a, b, c or d) or a steel section and material"
                 )
-            ratio = codes.bow_ratio(curve, imp.analysis)
+            # Table 5.1's column follows the cross-section check: a plastic check needs the plastic
+            # column's larger bow whatever the preset states (the elastic one would err on the unsafe side).
+            column = "plastic" if method == "plastic" else imp.analysis
+            ratio = codes.bow_ratio(curve, column)
             amplitude = L / ratio
-            label = f"EN 1993-1-1 Table 5.1, curve {curve}, {imp.analysis} analysis: e0 = L/{ratio}"
+            label = f"EN 1993-1-1 Table 5.1, curve {curve}, {column} analysis: e0 = L/{ratio}"
             source = code_source or "EN 1993-1-1:2005 Table 5.1 [text: ECCS 2010, table 2.20]"
+            if column != imp.analysis:
+                notes.append(
+                    "The check is plastic, so the bow is Table 5.1's plastic value (the preset stated "
+                    "elastic analysis, whose smaller bow belongs with an elastic cross-section check)."
+                )
             code_amp = None  # the user chose the code value itself
         elif imp.preset == "en1993-eq-5.9":
             if section is None or material is None or curve is None:
@@ -426,16 +435,16 @@ def resolve(case):
             label = f"L/{imp.ratio:g}"
             source = "given in the case as a span ratio"
         amplitude = min(amplitude, L / 10)
-    notes = []
     sway = anchor = 0.0
     sway_label = sway_source = ""
+    reshaped = False  # a sine or parabola preset bow taken as the first mode (the notes below say why)
     if imp.preset is not None and shape in ("sine", "parabola") and (plain.restraints or plain.foundation):
         notes.append(
             f"The {shape} bow between the ends does not fit a member with intermediate restraints or a "
             "foundation: the bow takes the shape of the member's first buckling mode, with the amplitude "
             "of the whole member (EN 1993-1-1 §5.3.2(11), from memory)."
         )
-        shape = "mode"
+        shape, reshaped = "mode", True
     if imp.preset is not None and can_sway(plain):
         if shape in ("sine", "parabola"):
             notes.append(
@@ -443,7 +452,7 @@ def resolve(case):
                 "translate: the bow takes the shape of the member's first buckling mode instead "
                 "(EN 1993-1-1 §5.3.2(11), from memory)."
             )
-            shape = "mode"
+            shape, reshaped = "mode", True
         if imp.preset != "en1993-eq-5.9" and shape != "sway":  # a sway shape is a sway already
             anchor = sway_anchor(plain)
             if imp.preset == "aisc-l/1000":
@@ -491,7 +500,7 @@ def resolve(case):
             direction = "+w" if (amplitude if amplitude != 0.0 else sway) >= 0 else "-w"
     if imp.preset is not None and shape != "none":
         label += " = {amplitude}" if "{amplitude}" not in label else ""
-        if notes:
+        if reshaped:
             label += ", first-mode shape"
     if sway_label:
         label += f"; {sway_label}"

@@ -16,7 +16,8 @@ against a copy of the Specification.
 - Flexure (Table B4.1b): compact when every element is within :math:`\lambda_p` (I flanges
   :math:`0.38\sqrt{E/F_y}`, I webs :math:`3.76\sqrt{E/F_y}`, HSS flanges :math:`1.12\sqrt{E/F_y}`, HSS webs
   :math:`2.42\sqrt{E/F_y}`, round HSS :math:`0.07E/F_y`); then :math:`M_n = M_p = F_yZ \le 1.6F_yS`. A
-  non-compact element (within :math:`\lambda_r`: I flanges :math:`1.0\sqrt{E/F_y}`, I webs
+  non-compact element (within :math:`\lambda_r`: I flanges :math:`1.0\sqrt{E/F_y}` (built-up, major axis:
+  :math:`0.95\sqrt{k_cE/F_L}`, :math:`F_L = 0.7F_y`), I webs
   :math:`5.70\sqrt{E/F_y}`, HSS flanges :math:`1.40\sqrt{E/F_y}`, HSS webs :math:`5.70\sqrt{E/F_y}`, round
   HSS :math:`0.31E/F_y`): :math:`M_n = 0.7F_yS`, the lowest value the interpolations of §F3.2, §F6.2, §F7
   and §F8.2 reach (a decision on the safe side; note ``aisc-noncompact``). A slender element in flexure: the
@@ -108,8 +109,12 @@ def flexure_class(section, E: float, Fy: float) -> tuple[str, list]:
     dims, shape = section.dimensions, section.shape
     parts: list = []
     if shape in ("rolled_i", "welded_i"):
-        flange, web, _ = _i_parts(dims, shape)
-        parts.append(("flange", flange, 0.38 * root, 1.0 * root))
+        flange, web, k_c = _i_parts(dims, shape)
+        # Table B4.1b: a built-up flange in major-axis bending has λ_r = 0.95√(k_c·E/F_L), F_L = 0.7F_y
+        # (doubly symmetric); rolled flanges and any flange in minor-axis bending 1.0√(E/F_y).
+        built_up = shape == "welded_i" and section.axis == "major"
+        limit = 0.95 * math.sqrt(k_c * E / (0.7 * Fy)) if built_up else 1.0 * root
+        parts.append(("flange", flange, 0.38 * root, limit))
         if section.axis == "major":
             parts.append(("web", web, 3.76 * root, 5.70 * root))
     elif shape == "rhs":

@@ -219,7 +219,12 @@ def route(
     C_mLT = None
     if settings.annex == "B":
         C_my, C_mz = annex_b_factor(y.diagram), annex_b_factor(z.diagram)
-        C_mLT = C_my if torsional else None
+        # Table B.2 for every I/H member that can twist out of plane, checked for LTB or not: χ_LT = 1
+        # where the check could not be made does not make the member torsionally stiff (k_zy of Table B.1
+        # would be smaller, on the unsafe side).
+        held = ltb is not None and ltb.reason == "restrained"
+        twisting = sy.shape in ("rolled_i", "welded_i") and My > 0.0 and not held
+        C_mLT = C_my if torsional or twisting else None
         common = dict(
             N_Ed=N,
             N_Rk=N_Rk,
@@ -289,7 +294,7 @@ def route(
     terms["eq-6.61"], terms["eq-6.62"] = found.eq_6_61, found.eq_6_62
     C_my = k.C_my if k.C_my is not None else C_my
     facts.update(C_my=C_my, C_mz=C_mz, k_yy=k.k_yy, k_yz=k.k_yz, k_zy=k.k_zy, k_zz=k.k_zz)
-    if torsional:
+    if torsional or C_mLT is not None:
         facts["C_mLT"] = k.C_mLT
         facts["table_B"] = "B.2" if settings.annex == "B" and C_mLT is not None else None
     return _verdict(enabled, terms, facts, notes, source)

@@ -1,0 +1,141 @@
+"""Three corrections on the unsafe side found by an audit against the codes' own formulas (stop 31).
+
+- EN 1993-1-1:2005 Table 5.1 (from memory; text: ECCS 2010, table 2.20): the bow of a member checked
+  plastically is the plastic column's, whatever the preset's ``analysis`` says.
+- EN 1993-1-1:2005 Annex B, Table B.2 (from memory): an I/H member bent about its major axis and free to
+  twist takes Table B.2's k_zy with C_mLT, whether or not its LTB check could be made.
+- ANSI/AISC 360-16 Table B4.1b case 11 (from memory): a built-up I flange in major-axis bending has
+  λ_r = 0.95·√(k_c·E/F_L), F_L = 0.7·F_y, k_c = 4/√(h/t_w) within 0.35–0.76.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+import engine
+from engine.design.aisc_member import flexure_class
+from engine.sections import section_from_spec
+
+#: EN 1993-1-1 Table 5.1: e0/L per curve, (elastic, plastic) (from memory; ECCS 2010 table 2.20).
+TABLE_5_1 = {"a0": (350, 300), "a": (300, 250), "b": (250, 200), "c": (200, 150), "d": (150, 100)}
+
+
+def _column(method: str, curve: str, analysis: str | None, supports=("pinned", "pinned")) -> dict:
+    preset = {"preset": "en1993-table-5.1", "curve": curve}
+    if analysis is not None:
+        preset["analysis"] = analysis
+    return {
+        "schema": 1,
+        "length": 8.0,
+        "supports": {"left": supports[0], "right": supports[1]},
+        "axial_force": 400e3,
+        "loads": [{"type": "uniform", "q": 2e3}],
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S355"},
+        "imperfection": preset,
+        "check": {"method": method},
+    }
+
+
+@pytest.mark.parametrize("curve", sorted(TABLE_5_1))
+@pytest.mark.parametrize("analysis", [None, "elastic", "plastic"])
+@pytest.mark.parametrize("method", ["elastic", "plastic"])
+def test_table_5_1_column_follows_a_plastic_check(curve, analysis, method):
+    """e0 = L/ratio of the plastic column when the check is plastic; the stated (default elastic) column
+    otherwise (Table 5.1, from memory)."""
+    result = engine.solve(engine.Case.from_dict(_column(method, curve, analysis)))
+    column = "plastic" if method == "plastic" or analysis == "plastic" else "elastic"
+    ratio = TABLE_5_1[curve][column == "plastic"]
+    assert abs(result.bow.amplitude) == pytest.approx(8.0 / ratio, rel=1e-12)
+    assert f"{column} analysis" in result.bow.label
+    said = any("plastic value" in note for note in result.bow.notes)
+    assert said == (method == "plastic" and analysis != "plastic")
+
+
+def test_plastic_check_takes_the_larger_bow_on_a_sway_member():
+    """A cantilever (first-mode bow and sway) under a plastic check: the same plastic column."""
+    result = engine.solve(engine.Case.from_dict(_column("plastic", "b", None, ("fixed", "free"))))
+    assert abs(result.bow.amplitude) == pytest.approx(8.0 / 200, rel=1e-12)
+
+
+def _k_zy_table_b2(lam_z: float, n_z: float, C_mLT: float) -> float:
+    """EN 1993-1-1 Annex B Table B.2, class 1/2, k_zy (from memory)."""
+    if lam_z < 0.4:
+        return min(0.6 + lam_z, 1.0 - 0.1 * lam_z * n_z / (C_mLT - 0.25))
+    return max(1.0 - 0.1 * lam_z * n_z / (C_mLT - 0.25), 1.0 - 0.1 * n_z / (C_mLT - 0.25))
+
+
+def _en_member(supports: dict, check: dict):
+    """The en-member route of an HEB 200 S235 beam-column, 5 m, 200 kN and 3 kN/m (the audit's case)."""
+    data = {
+        "schema": 1,
+        "length": 5.0,
+        "supports": supports,
+        "axial_force": 200e3,
+        "loads": [{"type": "uniform", "q": 3e3}],
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S235"},
+        "imperfection": {"preset": "en1993-table-5.1"},
+        "check": check,
+    }
+    return next(r for r in engine.solve(engine.Case.from_dict(data)).routes if r.route == "en-member")
+
+
+@pytest.mark.parametrize(
+    "supports",
+    [
+        {"left": {"translation": "fixed", "rotation": 5e7}, "right": "free"},  # LTB check not made
+        {"left": "pinned", "right": "pinned"},  # LTB check made
+        {"left": "fixed", "right": "pinned"},
+    ],
+)
+def test_k_zy_of_table_b2_for_a_member_free_to_twist(supports):
+    """Table B.2's k_zy whenever the I section can twist (the audit's case: a cantilever on a rotational
+    spring, whose LTB check is not made, took Table B.1's 0.6·k_yy: 0.651 against 0.907)."""
+    f = _en_member(supports, {"method": "plastic"}).facts
+    assert f["table_B"] == "B.2"
+    n_z = f["N_Ed"] / (f["chi_z"] * f["N_Rk"] / f["gamma_M1"])
+    assert f["k_zy"] == pytest.approx(_k_zy_table_b2(f["lambda_z"], n_z, f["C_mLT"]), rel=1e-12)
+
+
+def test_k_zy_of_table_b1_where_the_flange_is_restrained():
+    """A member whose LTB is stated restrained keeps Table B.1 (k_zy = 0.6·k_yy for class 1/2)."""
+    pinned = {"left": "pinned", "right": "pinned"}
+    route = _en_member(pinned, {"method": "plastic", "ltb": {"restrained": True}})
+    assert route.facts.get("table_B") is None
+    assert route.facts["k_zy"] == pytest.approx(0.6 * route.facts["k_yy"], rel=1e-12)
+
+
+@pytest.mark.parametrize("web_ratio", [20.0, 60.0, 120.0, 200.0])
+@pytest.mark.parametrize("Fy", [250e6, 345e6])
+def test_built_up_flange_limit_in_major_axis_bending(web_ratio, Fy):
+    """Table B4.1b case 11 for a welded I about its major axis; case 13 (1.0√(E/F_y)) about its minor."""
+    E, tw, tf = 200e9, 0.008, 0.012
+    h = web_ratio * tw + 2 * tf
+    spec = {"shape": "welded_i", "h": h, "b": 0.4, "tw": tw, "tf": tf}
+    k_c = min(0.76, max(0.35, 4.0 / math.sqrt(web_ratio)))
+    _, parts = flexure_class(section_from_spec(dict(spec), "major"), E, Fy)
+    assert dict((p[0], p[3]) for p in parts)["flange"] == pytest.approx(
+        0.95 * math.sqrt(k_c * E / (0.7 * Fy)), rel=1e-12
+    )
+    _, parts = flexure_class(section_from_spec(dict(spec), "minor"), E, Fy)
+    assert dict((p[0], p[3]) for p in parts)["flange"] == pytest.approx(math.sqrt(E / Fy), rel=1e-12)
+
+
+def test_a_slender_built_up_flange_is_not_rated_noncompact():
+    """The audit's welded I 1016 × 406 × 7.4 × 10.2 mm (b/t = 20, above λ_r = 16.2 at F_y = 345 MPa):
+    slender, so the aisc route is not applied (its 0.7·F_y·S was 1.5× §F3.2's M_n)."""
+    data = {
+        "schema": 1,
+        "length": 6.096,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 0.0,
+        "loads": [{"type": "uniform", "q": 1e3}],
+        "section": {"shape": "welded_i", "h": 1.016, "b": 0.4064, "tw": 0.007366, "tf": 0.01016},
+        "material": {"name": "S355"},
+        "check": {"ltb": {"restrained": True}},
+    }
+    route = next(r for r in engine.solve(engine.Case.from_dict(data)).routes if r.route == "aisc")
+    assert route.utilization is None and route.reason == "slender-element-flexure"
