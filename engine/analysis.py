@@ -12,6 +12,7 @@ from engine.amplification import approximations, braced
 from engine.biaxial import pair_check
 from engine.cautions import assess, merge_plane_cautions
 from engine.codes import alpha_cr_limit
+from engine.design.aisc_member import ASD_ALPHA
 from engine.errors import CaseError
 from engine.out_of_plane import utilisation as out_of_plane_utilisation
 from engine.prepared import prepare
@@ -313,7 +314,20 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
         moment_bow_free=m_free,
         reference_moment=ref,
         reference_moment_x=ref_x,
+        moment_asd=_asd_moment(case, prep, count, P),
     )
+
+
+def _asd_moment(case, prep, count, P) -> float | None:
+    """max|M| [N·m] of the member without its bow at 1.6·P (:attr:`Amplification.moment_asd`), or None."""
+    check = case.check
+    if check.aisc_method != "ASD" or "aisc" not in check.routes or P <= 0.0 or prep.member is None:
+        return None
+    if ASD_ALPHA * P >= prep.buckling.critical_loads[0]:
+        return math.inf
+    return _free_peaks(_raw(prep.variant("bow_free") if prep.has_bow else prep, count, ASD_ALPHA * P))[
+        "moment"
+    ]
 
 
 def _with_cautions(result, prep, favourable: bool) -> Result:

@@ -112,6 +112,7 @@ def _plane(res, axis, case, *, M_second, cache, which):
         diagram=diagram,
         M_second=M_second,
         curve=curve,
+        M_asd=res.amplification.moment_asd if res.amplification is not None else None,
     )
 
 

@@ -146,6 +146,10 @@ class Amplification:
         max|M_I + N·w0| [N·m].
     reference_moment_x : float or None
         Where [m] (None when it is the first-order peak, without a bow).
+    moment_asd : float or None
+        max|M| [N·m] of the member without its bow solved at 1.6·N (AISC 360-16 §C2.1: ASD's analysis at 1.6
+        × its loads, the forces divided by 1.6; the transverse loads enter linearly): the aisc route's M_r
+        with ``check.aisc_method`` ASD; +inf at or above the first critical load; None otherwise.
     """
 
     moment: float | None
@@ -155,6 +159,7 @@ class Amplification:
     moment_bow_free: float | None = None
     reference_moment: float | None = None
     reference_moment_x: float | None = None
+    moment_asd: float | None = None
 
 
 @dataclass(frozen=True, kw_only=True)

@@ -30,7 +30,28 @@ KNOTS = ((0.0, -1.0), (0.2, 0.5), (0.35, 0.9), (0.85, 1.02), (1.0, 1.25))
 #: Slider positions per unit of the track: finer than a pixel of any screen.
 _STEPS = 4000
 
-_BADGES = {"stable": "stable", "unstable": "unstable", "critical": "critical", "near": "near Pcr1"}
+_BADGES = {
+    "stable": "stable",
+    "unstable": "unstable",
+    "critical": "critical",
+    "near": "near Pcr1",
+    "other-axis": "buckles about the other axis",
+}
+
+
+_STYLE = {"other-axis": "unstable"}  # drawn as a member without equilibrium
+
+
+def _other_critical(result) -> float:
+    """The first critical load [N] of the axis not drawn: the second plane's, or the out-of-plane check's
+    N_cr (inf where neither is known)."""
+    second = getattr(result, "second_plane", None)
+    if second is not None:
+        return float(second.critical_loads[0])
+    check = getattr(result, "check", None)
+    out = getattr(check, "out_of_plane", None)
+    n_cr = getattr(out, "N_cr", None)
+    return float(n_cr) if n_cr is not None else math.inf
 
 
 class ForceControl(pn.viewable.Viewer):
@@ -168,6 +189,10 @@ class ForceControl(pn.viewable.Viewer):
         status = result.status
         if status == "stable" and ratio >= NEAR_CRITICAL_RATIO:
             status = "near"
+        if status == "stable" and P > 0.0 and P >= _other_critical(result):
+            status = (
+                "other-axis"  # in equilibrium in the plane drawn, but past the other axis's buckling load
+            )
         alpha = "∞" if math.isinf(result.alpha_cr) else ratio_text(result.alpha_cr)
         # The status badge speaks of equilibrium; a member that is in equilibrium but fails its check must not
         # read as safe beside it, so a second flag says so (the values table gives the governing check).
@@ -176,8 +201,9 @@ class ForceControl(pn.viewable.Viewer):
         headline = result.utilization
         fails = headline is not None and headline > 1
         flag = "<span class='ss-flag ss-fails'>fails check</span>" if fails else ""
+        style = _STYLE.get(status, status)
         self.readout.object = (
             f"<div class='ss-readout'><b>{esc(U.show('force', P, digits=5))}</b> "
-            f"<span class='ss-badge ss-{status}'>{_BADGES.get(status, status)}</span>{flag}<br>"
+            f"<span class='ss-badge ss-{style}'>{_BADGES.get(status, status)}</span>{flag}<br>"
             f"{kind} · N/Pcr1 <b>{ratio:.3f}</b> · α<sub>cr</sub> <b>{esc(alpha)}</b></div>"
         )

@@ -82,6 +82,11 @@ NOTES = {
         "lateral-torsional buckling (AISC 360-16 §F2.2, unbraced length L_b) is not checked",
     ),
     "aisc-shear-not-checked": ("info", "shear (Chapter G) is not checked on this route"),
+    "aisc-out-of-plumb-not-in-Mr": (
+        "warning",
+        "an end can translate, and M_r leaves out the member's out-of-plumbness (AISC 360-16 §C2.2, notional "
+        "load 0.002·P_r at the moving end, from memory): add it as a transverse point load there",
+    ),
     "aisc-noncompact": ("info", "a noncompact element: M_n by the flange local buckling limit (§F3)"),
     "aisc-slender-e7": ("info", "a slender element in compression: P_n = F_cr·A_e, effective widths of §E7"),
     "aisc-tension-yielding": ("info", "tension: P_c is tension yielding, §D2(a)"),

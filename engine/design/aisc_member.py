@@ -30,7 +30,8 @@ against a copy of the Specification.
   is in the facts beside it. Elsewhere (an open section whose check could not be made) note
   ``LTB-not-checked``. Shear is not checked (Chapter G, note ``aisc-shear-not-checked``).
 - :math:`P_r = N`; :math:`M_r` the largest second-order moment of each plane WITHOUT the bow (the
-  Specification's strength :math:`P_n` already holds the member's out-of-straightness).
+  Specification's strength :math:`P_n` already holds the member's out-of-straightness). ASD analyses at 1.6 ×
+  its loads (§C2.1, from memory): :math:`M_r` grows as :func:`_asd_moment` says.
 - :math:`P_c = \phi_cP_n` or :math:`P_n/\Omega_c`, :math:`M_c = \phi_bM_n` or :math:`M_n/\Omega_b`
   (``check.aisc_method``); these replace :math:`\gamma_{M0}, \gamma_{M1}` on this route. In tension,
   :math:`P_c = \phi_tF_yA_g` (§D2(a), yielding; rupture of a net section is not checked) in eq. (H1-1) as
@@ -133,6 +134,26 @@ def flexure_class(section, E: float, Fy: float) -> tuple[str, list]:
     return worst, parts
 
 
+#: AISC 360-16 §C2.1(4) and Appendix 8 eq. (A-8-3): ASD's second-order analysis at 1.6 × the ASD loads, its
+#: forces then divided by 1.6 (from memory).
+ASD_ALPHA = 1.6
+
+
+def _asd_moment(p, N: float, M_second: float) -> float:
+    """A bound on ASD's M_r [N·m] (α = 1.6) where the plane has no exact solve at 1.6·N (``Plane.M_asd``):
+    the largest of the exact moment at 1.0·N (``M_second``), its second-order part grown as a single mode
+    grows, M_I + (M_II − M_I)·α(1 − a)/(1 − αa), and Appendix 8's amplification with C_m = 1, M_I/(1 − αa);
+    a = N/N_cr of the plane, M_I the first-order moment; unbounded at αN ≥ N_cr."""
+    M_I = p.diagram.M_max
+    if M_I == 0.0 and M_second == 0.0:
+        return 0.0
+    a = N / p.N_cr
+    if ASD_ALPHA * a >= 1.0:
+        return math.inf
+    grown = M_I + (M_second - M_I) * ASD_ALPHA * (1.0 - a) / (1.0 - ASD_ALPHA * a)
+    return max(M_second, grown, M_I / (1.0 - ASD_ALPHA * a))
+
+
 def route(
     *, y: Plane, z: Plane, N: float, material, settings, enabled: bool, beyond: bool, ltb=None, N_cr_T=None
 ) -> RouteCheck:
@@ -170,6 +191,8 @@ def route(
                     source=SOURCE,
                 )
     notes = ["aisc-shear-not-checked"]
+    if N > 0.0 and any(p.diagram.sway for p in (y, z)):
+        notes.insert(0, "aisc-out-of-plumb-not-in-Mr")  # §C2.2's notional load is not in M_r (not applied)
     torsional = ltb is not None and ltb.applies and ltb.aisc is not None and y.diagram.M_max > 0.0
     M_c = {}
     for p in (y, z):
@@ -215,6 +238,8 @@ def route(
             M_r[p.axis] = p.diagram.M_max
         else:
             M_r[p.axis] = p.M_second
+        if method == "ASD" and N > 0.0:  # the exact solve at 1.6·N, else a bound on it (see _asd_moment)
+            M_r[p.axis] = p.M_asd if p.M_asd is not None else _asd_moment(p, N, M_r[p.axis])
         facts[f"M_r_{p.axis}"] = M_r[p.axis]
     if N > 0.0:
         P_n = math.inf
@@ -236,7 +261,8 @@ def route(
         P_c = available(P_n, tension_factor)
         notes.append("aisc-tension-yielding")
     facts.update(P_r=N, P_n=P_n, P_c=P_c)
-    if beyond or any(N >= p.N_cr and p.diagram.M_max > 0.0 for p in (y, z)):
+    alpha = ASD_ALPHA if method == "ASD" else 1.0  # §C2.1 / App. 8: ASD's analysis at 1.6 × its loads
+    if beyond or any(alpha * N >= p.N_cr and p.diagram.M_max > 0.0 for p in (y, z)):
         return RouteCheck(
             route="aisc",
             enabled=enabled,

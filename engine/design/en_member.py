@@ -88,6 +88,9 @@ class Plane:
     M_second: float | None
     N_cr_source: str = "exact"
     curve: str | None = None
+    M_asd: float | None = (
+        None  # max|M| without bow at 1.6·N (ASD's analysis, AISC §C2.1) [N·m]; None: not made
+    )
 
     @property
     def L_cr(self) -> float | None:

@@ -398,11 +398,11 @@ def test_variant_names_say_what_differs_and_can_be_edited(page):
 
 
 def test_a_member_that_fails_its_check_is_flagged_beside_the_stable_badge(page):
-    """At 350 kN the demo passes its check (utilisation 0.42) and shows no flag; at 1500 kN it is in
-    equilibrium ("stable") but fails out of plane (1.81): the readout says "fails check" beside the badge."""
+    """At 350 kN the demo passes its check (utilisation 0.42) and shows no flag; at 1000 kN (below N_cr,z =
+    1153 kN) it is in equilibrium ("stable") but fails out of plane (1.2): "fails check" beside the badge."""
     assert page.model.result.check.utilization < 1
     assert "fails check" not in page.force.readout.object
-    page.force_input.value = 1500.0
+    page.force_input.value = 1000.0
     result = page.model.result
     assert result.status == "stable" and result.check.utilization > 1
     assert "ss-stable" in page.force.readout.object
@@ -419,3 +419,17 @@ def test_the_flag_reads_the_headline_not_the_member_check_alone(page):
     page.force_input.value = 600.0
     assert page.model.result.utilization < 1
     assert "fails check" not in page.force.readout.object
+
+
+def test_past_the_other_axis_buckling_load_the_badge_does_not_read_stable(page):
+    """The demo HEB 200 buckles about its minor axis at N_cr,z = π²EI_z/L² = 1153 kN (Euler; the engine's
+    out-of-plane check): above it the badge names that buckling in the danger style, below it stays stable."""
+    n_cr = page.model.result.check.out_of_plane.N_cr
+    assert n_cr == pytest.approx(
+        math.pi**2 * 210e9 * 20.03e-6 / 6.0**2, rel=1e-3
+    )  # I_z of HEB 200 (from memory)
+    page.force_input.value = 0.99 * n_cr * 1e-3
+    assert ">stable<" in page.force.readout.object
+    page.force_input.value = 1.01 * n_cr * 1e-3
+    assert "buckles about the other axis" in page.force.readout.object
+    assert "ss-unstable" in page.force.readout.object and ">stable<" not in page.force.readout.object

@@ -139,3 +139,122 @@ def test_a_slender_built_up_flange_is_not_rated_noncompact():
     }
     route = next(r for r in engine.solve(engine.Case.from_dict(data)).routes if r.route == "aisc")
     assert route.utilization is None and route.reason == "slender-element-flexure"
+
+
+# AISC 360-16 §C2.1 / Appendix 8 eq. (A-8-3), from memory: ASD's second-order analysis is made at 1.6 × the
+# ASD loads and its forces divided by 1.6; the transverse loads enter linearly, so M_r = M_II(1.6·N, loads).
+# Closed forms of Timoshenko & Gere, *Theory of Elastic Stability*, §1.10–1.12 (from memory), k² = αN/EI.
+PINNED, CANTILEVER = {"left": "pinned", "right": "pinned"}, {"left": "fixed", "right": "free"}
+CLOSED_FORMS = {
+    "uniform load": (
+        PINNED,
+        [{"type": "uniform", "q": 2e3}],
+        lambda k, L: 2e3 / k**2 * (1 / math.cos(k * L / 2) - 1),
+    ),
+    "central point load": (
+        PINNED,
+        [{"type": "point", "P": 5e3, "x": 3.0}],
+        lambda k, L: 5e3 / (2 * k) * math.tan(k * L / 2),
+    ),
+    "equal end moments": (
+        PINNED,
+        [{"type": "couple", "C": 1e4, "x": 0.0}, {"type": "couple", "C": -1e4, "x": 6.0}],
+        lambda k, L: 1e4 / math.cos(k * L / 2),
+    ),
+    "cantilever, tip load": (
+        CANTILEVER,
+        [{"type": "point", "P": 1e3, "x": 6.0}],
+        lambda k, L: 1e3 * math.tan(k * L) / k,
+    ),
+}
+
+
+def _aisc(supports, loads, N, method):
+    data = {
+        "schema": 1,
+        "length": 6.0,
+        "supports": supports,
+        "axial_force": N,
+        "loads": loads,
+        "section": {"name": "W10x49"},
+        "material": {"name": "ASTM A992"},
+        "out_of_plane": {"restrained": True},
+        "check": {"routes": ["aisc"], "aisc_method": method, "ltb": {"restrained": True}},
+    }
+    result = engine.solve(engine.Case.from_dict(data))
+    return result, next(r for r in result.routes if r.route == "aisc")
+
+
+@pytest.mark.parametrize("fraction", [0.1, 0.35, 0.6])
+@pytest.mark.parametrize("kind", sorted(CLOSED_FORMS))
+@pytest.mark.parametrize("method", ["ASD", "LRFD"])
+def test_aisc_M_r_is_the_moment_at_alpha_times_N(method, kind, fraction):
+    """M_r of ASD is the exact moment at 1.6·N (LRFD's at N), on four support and load sets."""
+    supports, loads, closed = CLOSED_FORMS[kind]
+    first, _ = _aisc(supports, loads, 1e3, method)
+    N = fraction * float(first.critical_loads[0])
+    result, route = _aisc(supports, loads, N, method)
+    alpha = 1.6 if method == "ASD" else 1.0
+    k = math.sqrt(alpha * N / result.EI)
+    assert route.facts["M_r_y"] == pytest.approx(closed(k, 6.0), rel=1e-9)
+
+
+def test_asd_buckles_at_n_cr_over_1_6():
+    """At 1.6·N ≥ N_cr the ASD analysis has no equilibrium: unbounded, where LRFD still gives a number."""
+    first, _ = _aisc(PINNED, [{"type": "uniform", "q": 2e3}], 1e3, "ASD")
+    N = 0.7 * float(first.critical_loads[0])
+    assert math.isinf(_aisc(PINNED, [{"type": "uniform", "q": 2e3}], N, "ASD")[1].utilization)
+    assert math.isfinite(_aisc(PINNED, [{"type": "uniform", "q": 2e3}], N, "LRFD")[1].utilization)
+
+
+def test_asd_audit_case():
+    """The audit's W10x49, 40 ft, 120 kip and 0.15 kip/ft in ASD: H1-1a 1.094 (it read 0.955 at 1.0·N)."""
+    data = {
+        "schema": 1,
+        "length": 12.192,
+        "supports": PINNED,
+        "axial_force": 533786.59383126,
+        "loads": [{"type": "uniform", "q": 2189.0854405809546}],
+        "section": {"name": "W10x49"},
+        "material": {"name": "ASTM A992"},
+        "out_of_plane": {"restrained": True},
+        "check": {"routes": ["aisc"], "aisc_method": "ASD", "ltb": {"restrained": True}},
+    }
+    route = next(r for r in engine.solve(engine.Case.from_dict(data)).routes if r.route == "aisc")
+    assert route.utilization == pytest.approx(1.094, abs=5e-4)
+
+
+def test_asd_moment_of_both_planes():
+    """A two-plane case in ASD: each plane's M_r is its own exact moment at 1.6·N (T&G's secant form)."""
+    data = {
+        "schema": 1,
+        "length": 6.0,
+        "supports": PINNED,
+        "axial_force": 600e3,
+        "loads": [{"type": "uniform", "q": 3e3}],
+        "second_plane": {"supports": PINNED, "loads": [{"type": "uniform", "q": 1e3}]},
+        "section": {"name": "W10x49"},
+        "material": {"name": "ASTM A992"},
+        "check": {"routes": ["aisc"], "aisc_method": "ASD"},
+    }
+    result = engine.solve(engine.Case.from_dict(data))
+    route = next(r for r in result.routes if r.route == "aisc")
+    for key, q, EI in (("M_r_y", 3e3, result.EI), ("M_r_z", 1e3, result.second_plane.EI)):
+        k = math.sqrt(1.6 * 600e3 / EI)
+        assert route.facts[key] == pytest.approx(q / k**2 * (1 / math.cos(3.0 * k) - 1), rel=1e-9)
+
+
+@pytest.mark.parametrize(
+    ("supports", "said"),
+    [
+        (CANTILEVER, True),
+        ({"left": "fixed", "right": "guided"}, True),
+        (PINNED, False),
+        ({"left": "fixed", "right": "pinned"}, False),
+    ],
+)
+def test_aisc_route_says_the_out_of_plumbness_is_not_in_M_r(supports, said):
+    """A member with an end that can translate gets the warning that §C2.2's notional load is not in M_r
+    (common practice, no source: the route's M_r has no sway imperfection); a member held at both ends not."""
+    route = _aisc(supports, [{"type": "uniform", "q": 1e3}], 100e3, "LRFD")[1]
+    assert ("aisc-out-of-plumb-not-in-Mr" in route.notes) == said
