@@ -321,7 +321,7 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
 def _asd_moment(case, prep, count, P) -> float | None:
     """max|M| [N·m] of the member without its bow at 1.6·P (:attr:`Amplification.moment_asd`), or None."""
     check = case.check
-    if check.aisc_method != "ASD" or "aisc" not in check.routes or P <= 0.0 or prep.member is None:
+    if check.aisc_method != "ASD" or P <= 0.0 or prep.member is None:  # a route not counted is shown too
         return None
     if ASD_ALPHA * P >= prep.buckling.critical_loads[0]:
         return math.inf

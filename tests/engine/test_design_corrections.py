@@ -258,3 +258,25 @@ def test_aisc_route_says_the_out_of_plumbness_is_not_in_M_r(supports, said):
     (common practice, no source: the route's M_r has no sway imperfection); a member held at both ends not."""
     route = _aisc(supports, [{"type": "uniform", "q": 1e3}], 100e3, "LRFD")[1]
     assert ("aisc-out-of-plumb-not-in-Mr" in route.notes) == said
+
+
+def test_asd_moment_of_a_route_shown_but_not_counted():
+    """With the aisc route shown but not counted (routes: second-order only), its ASD M_r is still the exact
+    moment at 1.6·N: equal end moments, M0·sec(kL/2) (Timoshenko & Gere, from memory)."""
+    loads = [{"type": "couple", "C": 1e4, "x": 0.0}, {"type": "couple", "C": -1e4, "x": 6.0}]
+    data = {
+        "schema": 1,
+        "length": 6.0,
+        "supports": PINNED,
+        "axial_force": 800e3,
+        "loads": loads,
+        "section": {"name": "W10x49"},
+        "material": {"name": "ASTM A992"},
+        "out_of_plane": {"restrained": True},
+        "check": {"routes": ["second-order"], "aisc_method": "ASD", "ltb": {"restrained": True}},
+    }
+    result = engine.solve(engine.Case.from_dict(data))
+    route = next(r for r in result.routes if r.route == "aisc")
+    k = math.sqrt(1.6 * 800e3 / result.EI)
+    assert not route.enabled
+    assert route.facts["M_r_y"] == pytest.approx(1e4 / math.cos(3.0 * k), rel=1e-9)
