@@ -270,6 +270,11 @@ def _open_link(state, args) -> None:
     case = _link_text(args, "case")
     if case:
         state.link = case
+    shown = _link_text(args, "shown")  # the combination shown (a name the case does not make: the governing)
+    if shown and getattr(state.result, "actions", None) is not None:
+        state.show_combination(shown)
+    elif shown:  # the result is still being solved: it follows the choice when it arrives
+        state.combination_choice = shown
 
 
 def _mirror_link(state, location) -> None:
@@ -280,14 +285,19 @@ def _mirror_link(state, location) -> None:
     """
     import urllib.parse
 
+    from app.state_actions import link_choice
+
     def write(*events) -> None:
         link = state.link if isinstance(state.link, str) else ""
         query = {"case": link, "units": state.units} if link else {"units": state.units}
+        choice = link_choice(state)
+        if link and choice:  # the combination shown reopens with the link
+            query["shown"] = choice
         search = "?" + urllib.parse.urlencode(query)
         if location.search != search:
             location.search = search
 
-    state.param.watch(write, ["link", "units"])
+    state.param.watch(write, ["link", "units", "combination_choice"])
     write()
 
 

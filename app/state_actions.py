@@ -19,7 +19,7 @@ Nothing here does mechanics: the engine combines, solves and envelopes.
 
 from __future__ import annotations
 
-import math
+import dataclasses
 from collections.abc import Mapping
 from typing import Any
 
@@ -39,11 +39,14 @@ __all__ = [
     "actions_mapping",
     "actions_values",
     "chosen_item",
+    "link_choice",
     "default_action",
+    "force_refusal",
     "scale_for",
     "scale_sentence",
     "scaled_action",
     "shown_result",
+    "view_result",
 ]
 
 #: What the axial-force slider scales with load cases: the actions' N only, or the whole combination.
@@ -189,7 +192,11 @@ class ActionsBehaviour:
             return False
         shown = shown_result(self)
         if shown is not None and self.axial_force == float(shown.axial_force):
-            return False
+            if not self.errors:
+                return False
+            # The force on screen typed again after a refused one: the refusal goes, at the λ on screen.
+            self.action_scale = self.result_scale
+            return True
         scale, message = scale_for(self, self.axial_force)
         if scale is None:
             if message:
@@ -268,6 +275,28 @@ def shown_result(state):
     return result if item is None else item.result
 
 
+def link_choice(state) -> str:
+    """The combination shown, for the page's address ('' for the governing one or a name the result does
+    not hold)."""
+    choice = getattr(state, "combination_choice", "")
+    if choice == ENVELOPE or chosen_item(state.result, choice) is not None:
+        return choice
+    return ""
+
+
+def view_result(state):
+    """The result the page's values, cautions, sketch and exports show: the state's (the governing
+    combination's, with the case's load cases), or the chosen combination's carrying the same load cases and
+    the governing service check (the deflection check belongs to the service combinations), so that an
+    export holds what is on screen. The envelope and the governing combination by name give the state's."""
+    result = state.result
+    item = chosen_item(result, getattr(state, "combination_choice", ""))
+    if item is None or item.name == result.actions.headline:
+        return result
+    service = result.service if item.combination.state == "ultimate" else item.result.service
+    return dataclasses.replace(item.result, actions=result.actions, service=service)
+
+
 def scale_sentence(state) -> str:
     """What the axial-force slider does now, in words (empty for a case without load cases)."""
     if not state.actions:
@@ -296,8 +325,11 @@ def scale_sentence(state) -> str:
 def scale_for(state, force) -> tuple[float | None, str]:
     """The load factor λ that makes the shown combination's axial force `force` [N], or (None, message)."""
     result = shown_result(state)
-    if result is None or force is None or not math.isfinite(force):
+    if result is None:
         return None, ""
+    refused = force_refusal(force)
+    if refused:
+        return None, refused
     current = float(result.axial_force)
     if current == 0.0:
         return None, (
@@ -314,3 +346,17 @@ def scale_for(state, force) -> tuple[float | None, str]:
             f"the shown combination's {current:g} N"
         )
     return scale, ""
+
+
+def force_refusal(force) -> str:
+    """The engine's message on an axial force [N] typed with load cases, as it names a case's own (empty, not
+    a number, beyond its bounds), or an empty string when the engine takes it. The engine checks it on a
+    plain case of its own (about 0.1 ms), so its bounds and words are never copied here."""
+    import engine
+
+    probe = {"schema": 1, "length": 1.0, "EI": 1.0, "supports": {"left": "pinned", "right": "pinned"}}
+    try:
+        engine.Case.from_dict({**probe, "axial_force": force})
+    except engine.CaseError as error:
+        return str(error)
+    return ""

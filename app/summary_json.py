@@ -348,4 +348,6 @@ def _ltb_data(result) -> dict | None:
     if aisc is not None:
         data["aisc"] = {key: _finite(getattr(aisc, key)) for key in _AISC_LTB if hasattr(aisc, key)}
         data["aisc"]["zone"] = aisc.zone
+        if getattr(aisc, "clause", "F2") != "F2":  # §F11.2, a rectangular bar (L_p, L_r: L_b at its limits)
+            data["aisc"]["clause"] = aisc.clause
     return data

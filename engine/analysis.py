@@ -33,6 +33,7 @@ from engine.results import (
 from engine.route_cautions import with_route_cautions
 from engine.solver.model import Points
 from engine.stepped import member_check
+from engine.sway import AISC_OUT_OF_PLUMB, can_sway
 from engine.validate import within
 
 __all__ = ["CRITICAL_TOLERANCE", "check_stations", "solve", "strength_solve"]
@@ -315,6 +316,7 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
         reference_moment=ref,
         reference_moment_x=ref_x,
         moment_asd=_asd_moment(case, prep, count, P),
+        moment_out_of_plumb=_plumb_moment(case, prep, count, P),
     )
 
 
@@ -325,9 +327,26 @@ def _asd_moment(case, prep, count, P) -> float | None:
         return None
     if ASD_ALPHA * P >= prep.buckling.critical_loads[0]:
         return math.inf
+    plumb = _plumb_moment(case, prep, count, ASD_ALPHA * P, ASD_ALPHA)
+    if plumb is not None:
+        return plumb
     return _free_peaks(_raw(prep.variant("bow_free") if prep.has_bow else prep, count, ASD_ALPHA * P))[
         "moment"
     ]
+
+
+def _plumb_moment(case, prep, count, P, alpha: float = 1.0) -> float | None:
+    """max|M| [N·m] of the member without its bow, out of plumb by 1/500 the worse way, at ``P``
+    (:attr:`Amplification.moment_out_of_plumb`); None where no end translates, in tension or without a
+    member. ``alpha``: ASD's 1.6 (``P`` already holds it): the notional load 0.002·α·Y_i of the analysis at
+    α × the loads, divided by α as the transverse loads are, is an out-of-plumbness of 1/(500·α) at α·P."""
+    if P <= 0.0 or prep.member is None or not can_sway(case):
+        return None
+    if P >= prep.buckling.critical_loads[0]:
+        return math.inf
+    phi = AISC_OUT_OF_PLUMB / alpha
+    kinds = (f"plumb{phi:+.17g}", f"plumb{-phi:+.17g}")
+    return max(_free_peaks(_raw(prep.variant(kind), count, P))["moment"] for kind in kinds)
 
 
 def _with_cautions(result, prep, favourable: bool) -> Result:

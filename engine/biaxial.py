@@ -8,7 +8,9 @@ of a node where a point load or couple acts), and the cross-section is checked w
 - **elastic** (any section):
   :math:`|N|/(A f_c) + |M_y|/(W_{el,y} f_y) + |M_z|/(W_{el,z} f_y) \le 1/\gamma_{M0}`, the linear form of
   EN 1993-1-1 §6.2.1(7), eq. (6.2) (clause from memory), for steel
-  :math:`\sigma = N/A + M_y/W_{el,y} + M_z/W_{el,z} \le f_y/\gamma_{M0}`;
+  :math:`\sigma = N/A + M_y/W_{el,y} + M_z/W_{el,z} \le f_y/\gamma_{M0}`, the two bending terms divided by
+  :math:`1 - \rho` where the shear in either plane exceeds half its plastic resistance (§6.2.8, the larger
+  :math:`\rho`, on the whole section as for the plastic check);
 - **plastic**: EN 1993-1-1 §6.2.9.1(6) (from memory),
   :math:`(M_y/M_{N,y,Rd})^\alpha + (M_z/M_{N,z,Rd})^\beta \le 1`, with :math:`M_{N,y,Rd}` and
   :math:`M_{N,z,Rd}` of §6.2.9.1(5) (:func:`engine.codes.plastic_interaction`, the one-axis rules of the
@@ -74,7 +76,7 @@ PLASTIC_KIND = "plastic N–M_y–M_z"
 
 _PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle", "round")
 _SOURCES = {
-    "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form, both axes (clause from memory)",
+    "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form, both axes; §6.2.8 (clauses from memory)",
     "plastic": "EN 1993-1-1:2005 §6.2.9.1(5)–(6) and §6.2.8 (clause numbers from memory)",
     "shear": "EN 1993-1-1:2005 §6.2.6, eq. (6.18), each plane with its shear area (from memory)",
     "eq-5.9": "EN 1993-1-1:2005 §5.3.2(11), eqs. (5.9)–(5.10), linear N–M_y–M_z with γ_M1 (from memory)",
@@ -240,12 +242,17 @@ def check_biaxial(
     V_Rd_y = section_z.A_v * fy / (root3 * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
         area = compression_area(section_y, section_class, float(axial_force))  # A_eff: class 4 in compression
+        if V_Rd_z is not None:  # §6.2.8, in both checks (see engine.checks)
+            rho = np.maximum(shear_reduction(Vz, V_Rd_z), shear_reduction(Vy, V_Rd_y))
+        else:
+            rho = np.zeros_like(My)
         if method == "elastic":
             N_Rd = area * fc / g0
             # W_eff of a class 4 section: the merged class holds each view's, y first (pair_check)
             M_Rd_y = elastic_modulus(section_y, section_class, 0) * fy / g0
             M_Rd_z = elastic_modulus(section_z, section_class, 1) * fy / g0
-            ab = N / N_Rd + My / M_Rd_y + Mz / M_Rd_z
+            bending = My / M_Rd_y + Mz / M_Rd_z
+            ab = N / N_Rd + np.where(bending > 0, bending / (1.0 - rho), 0.0)  # ρ = 1: no moment resistance
             kind_ab = ELASTIC_KIND
         else:
             N_Rd = area * fy / g0
@@ -253,10 +260,6 @@ def check_biaxial(
             n = N / N_Rd
             reduced_y = plastic_interaction(shape=shape, axis="major", n=n, a=section_y.interaction_a)
             reduced_z = plastic_interaction(shape=shape, axis="minor", n=n, a=section_z.interaction_a)
-            if V_Rd_z is not None:
-                rho = np.maximum(shear_reduction(Vz, V_Rd_z), shear_reduction(Vy, V_Rd_y))
-            else:
-                rho = np.zeros_like(My)
             cap_y = M_Rd_y * reduced_y * (1.0 - rho)
             cap_z = M_Rd_z * reduced_z * (1.0 - rho)
             a = np.where(My > 0, My / cap_y, 0.0)

@@ -6,7 +6,9 @@ cross-section checks along the member (clause from memory; the route is describe
 
 - **elastic** (any section): :math:`|N|/(A f_c) + |M|/(W_{el} f_y) \le 1/\gamma_{M0}`, the linear form of the
   elastic criterion of EN 1993-1-1 §6.2.1(7), eq. (6.2) (clause from memory). For steel :math:`f_c = f_y`, so
-  it is :math:`\sigma = N/A + M/W_{el}` against :math:`f_y/\gamma_{M0}`;
+  it is :math:`\sigma = N/A + M/W_{el}` against :math:`f_y/\gamma_{M0}`; where the shear exceeds half the
+  plastic shear resistance, :math:`M/W_{el}` is taken against :math:`(1-\rho)f_y` (§6.2.8(3), from memory, on
+  the whole section as for the plastic check below: on the safe side);
 - **plastic** N–M interaction for doubly symmetric I/H and hollow sections, EN 1993-1-1 §6.2.9.1 (from
   memory),
   and :math:`M_{N} = M_{pl}(1 - n^2)` for a solid rectangle [derived]; where the shear exceeds half the
@@ -70,7 +72,7 @@ DEFAULT_ROUTES = ("second-order", "en-member")
 _PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle")
 
 _SOURCES = {
-    "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form (clause from memory)",
+    "elastic": "EN 1993-1-1:2005 §6.2.1(7), eq. (6.2), linear form, and §6.2.8 (clauses from memory)",
     "plastic": "EN 1993-1-1:2005 §6.2.9.1 and §6.2.8 (clause numbers from memory)",
     "shear": "EN 1993-1-1:2005 §6.2.6, eq. (6.18) (from memory)",
     "eq-5.9": (
@@ -349,10 +351,13 @@ def check_member(
     V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
         area = compression_area(section, section_class, float(axial_force))  # A_eff: class 4 in compression
+        # §6.2.8: beyond half of V_pl,Rd the shear takes (1 − ρ) of f_y from the moment resistance, in the
+        # elastic check as in the plastic one (applied to the whole section: on the safe side)
+        rho = shear_reduction(V, V_Rd) if V_Rd is not None else np.zeros_like(V)
         if method == "elastic":
             N_Rd = area * fc / g0
             M_Rd = elastic_modulus(section, section_class) * fy / g0  # W_eff of a class 4 section
-            ab = N / N_Rd + M / M_Rd
+            ab = N / N_Rd + np.where(M > 0, M / (M_Rd * (1.0 - rho)), 0.0)  # ρ = 1: no moment resistance
             kind_ab = "elastic stress"
         else:
             N_Rd = area * fy / g0
@@ -362,7 +367,6 @@ def check_member(
                 reduced = max(0.0, 1.0 - n * n)
             else:
                 reduced = plastic_interaction(shape=section.shape, axis=axis, n=n, a=section.interaction_a)
-            rho = shear_reduction(V, V_Rd) if V_Rd is not None else np.zeros_like(V)
             capacity = M_Rd * reduced * (1.0 - rho)
             ab = np.where(M > 0, np.maximum(n, M / capacity), n)
             ab = np.where(np.isnan(ab), np.inf, ab)

@@ -198,8 +198,8 @@ def _astm_steel(grade: str, fy_ksi: float, fu_ksi: float, standard: str) -> Mate
         thickness_band="",
         source=f"F_y = {fy / _MPA:.2f} MPa, F_u = {fu / _MPA:.2f} MPa (F_u not used): {standard}; f_c = F_y; "
         f"E = {_thousands(29_000 * _KSI / _MPA)} MPa and G = {_thousands(11_200 * _KSI / _MPA)} MPa: "
-        f"AISC 360-16 (from memory); each converted exactly from US customary units; density 7850 kg/m³ "
-        f"(490 lb/ft³): common practice, no source",
+        f"AISC 360-16 (from memory); each converted exactly from US customary units; density 7850 kg/m³: "
+        f"common practice, no source",
     )
 
 

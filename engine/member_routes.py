@@ -102,6 +102,9 @@ def _curve(section, material):
 
 
 def _plane(res, axis, case, *, M_second, cache, which):
+    amp = res.amplification
+    if amp is not None and amp.moment_out_of_plumb is not None:  # AISC §C2.2a: out of plumb, in M_r
+        M_second = amp.moment_out_of_plumb
     diagram = _made(cache, ("routes-diagram", which), lambda: _diagram(res, case))
     curve = _made(cache, ("routes-curve", which), lambda: _curve(res.section, res.material))
     return Plane(
@@ -112,7 +115,7 @@ def _plane(res, axis, case, *, M_second, cache, which):
         diagram=diagram,
         M_second=M_second,
         curve=curve,
-        M_asd=res.amplification.moment_asd if res.amplification is not None else None,
+        M_asd=amp.moment_asd if amp is not None else None,
     )
 
 

@@ -26,8 +26,22 @@ from engine.solver.batch import STATE_FIELDS, Batch
 from engine.solver.model import Model, Points
 from engine.solver.peaks import base_stations, refine_peaks
 from engine.solver.restrained import critical_loads
+from engine.sway import sway_anchor
 
 __all__ = ["Prepared", "clear_cache", "prepare"]
+
+
+@dataclasses.dataclass(frozen=True)
+class OutOfPlumb:
+    """A sway alone, as :class:`engine.member.BowChoice` gives one: φ [rad], zero at ``sway_anchor`` [m]."""
+
+    sway: float
+    sway_anchor: float
+
+    @property
+    def sway_slope(self) -> float:
+        """dw0/dx [-] (the sway grows away from its anchor)."""
+        return self.sway if self.sway_anchor == 0.0 else -self.sway
 
 
 class Prepared:
@@ -77,17 +91,20 @@ class Prepared:
         return self.model.bow.shape != "none"
 
     def variant(self, kind: str) -> Prepared:
-        """The member with its bow reversed (``"reversed"``) or without it (``"bow_free"``), cached."""
+        """The member with its bow reversed (``"reversed"``), without it (``"bow_free"``), or without it
+        but out of plumb by φ (``"plumb<φ>"``, φ signed [rad], e.g. ``"plumb+0.002"``: the aisc route's M_r
+        of a member with an end that can translate, AISC 360-16 §C2.2a), cached."""
         hit = self._variants.get(kind)
         if hit is None:
             choice = None
+            member = self.member
+            imperfection = Imperfection()
             if kind == "reversed":
                 choice = self.member.bow.reversed()
                 member = dataclasses.replace(self.member, bow=choice)
                 imperfection = Imperfection(shape=choice.shape, amplitude=choice.amplitude)
-            else:
-                member = self.member
-                imperfection = Imperfection()
+            elif kind.startswith("plumb"):
+                choice = OutOfPlumb(sway=float(kind[5:]), sway_anchor=sway_anchor(self.case))
             analysis_case = dataclasses.replace(self.analysis_case, imperfection=imperfection)
             hit = Prepared(self.case, member, analysis_case, self.buckling, self._design, choice)
             self._variants[kind] = hit

@@ -149,7 +149,12 @@ class Amplification:
     moment_asd : float or None
         max|M| [N·m] of the member without its bow solved at 1.6·N (AISC 360-16 §C2.1: ASD's analysis at 1.6
         × its loads, the forces divided by 1.6; the transverse loads enter linearly): the aisc route's M_r
-        with ``check.aisc_method`` ASD; +inf at or above the first critical load; None otherwise.
+        with ``check.aisc_method`` ASD; +inf at or above the first critical load; None otherwise. A member
+        with an end that can translate is solved out of plumb as ``moment_out_of_plumb`` is.
+    moment_out_of_plumb : float or None
+        max|M| [N·m] of the member without its bow, out of plumb by 1/500 (AISC 360-16 §C2.2a's notional load
+        0.002·Y_i, from memory) whichever way is worse: the aisc route's M_r of a member in compression with
+        an end that can translate; +inf at or above the first critical load; None otherwise.
     """
 
     moment: float | None
@@ -160,6 +165,7 @@ class Amplification:
     reference_moment: float | None = None
     reference_moment_x: float | None = None
     moment_asd: float | None = None
+    moment_out_of_plumb: float | None = None
 
 
 @dataclass(frozen=True, kw_only=True)

@@ -36,12 +36,14 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
     ``lateral-torsional-buckling`` warning, the routes' ``chi-LT-1`` and ``LTB-not-checked`` notes join its
     values (``routes``) instead of repeating it. Where the member's lateral-torsional buckling check was made
     (``ltb_check``, an :class:`engine.design.ltb_member.LtbCheck` that applies) that warning is dropped: the
-    check replaces it (and so does the case's statement ``check.ltb.restrained``); where it was not made,
-    the warning stays with the check's reason code (``values["ltb_reason"]``: ``torsion-unknown``,
-    ``free-end``, ...) and, for a custom section, the keys it lacks (``values["ltb_missing"]``).
+    check replaces it (and so does the case's statement ``check.ltb.restrained``, or a member without
+    major-axis moment, reason ``no-major-moment``: nothing to buckle laterally); where it was not made, the
+    warning stays with the check's reason code (``values["ltb_reason"]``: ``torsion-unknown``, ``free-end``,
+    ...) and, for a custom section, the keys it lacks (``values["ltb_missing"]``).
     """
     given = list(cautions)
-    if ltb_check is not None and (ltb_check.applies or ltb_check.reason == "restrained"):
+    # Nothing to check where the major-axis diagram has no moment (a strut): the warning goes too.
+    if ltb_check is not None and (ltb_check.applies or ltb_check.reason in ("restrained", "no-major-moment")):
         given = [c for c in given if c.code != "lateral-torsional-buckling"]
     ltb = next((i for i, c in enumerate(given) if c.code == "lateral-torsional-buckling"), None)
     if ltb is not None and ltb_check is not None and ltb_check.reason:

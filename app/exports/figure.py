@@ -52,6 +52,7 @@ from app.report import (
     system_name,
     utilisation_text,
 )
+from app.report.combinations import shown_line
 from app.report.ltb import ltb_words
 from app.report.routes import pcr1_planes_text, plane_axes, plane_name
 from app.sketch import MOMENT_POSITIVE_DOWN, PAD_INCHES
@@ -255,6 +256,9 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
             draw=draw,
         )
         flow.para(_title(result), scale=1.35, weight="bold", max_lines=3)
+        combination, other = shown_line(result)
+        if other:  # a combination other than the governing one, as on the page when it was chosen
+            flow.para(combination, weight="bold", color=_DANGER, hanging=0.15)
         flow.para("strutscope · exact second-order analysis of one member", scale=0.9, color=_GREY)
         flow.para(f"Date: {date} · units: {system_name(U)}", scale=0.9, color=_GREY)
         flow.heading("Inputs")

@@ -58,6 +58,7 @@ from app.report import (
     system_name,
     utilisation_text,
 )
+from app.report.combinations import shown_line
 from app.units import Units
 
 # --------------------------------------------------------------------------------------------------------
@@ -164,6 +165,10 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         flow.para(f"[{n}]  {reference}", scale=0.9, hanging=0.3)
 
     flow.heading("3  Results")
+    combination, other = shown_line(result)
+    if combination:
+        weight, color = ("bold", _DANGER) if other else ("normal", _INK)
+        item("Combination", combination, weight=weight, color=color)
     status = status_text(result, U)
     danger = result.status != "stable"
     item("Status", status, weight="bold" if danger else "normal", color=_DANGER if danger else _INK)
@@ -171,10 +176,13 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     pcr = ", ".join(f"Pcr{n} = {_pcr_text(result, U, n)}" for n in shown)
     item("Elastic critical loads", pcr)
     load_ratio = load_ratio_text(result)
+    two = getattr(result, "second_plane", None) is not None  # α_cr is then the lower plane's, named
     item(
         "",
         f"effective length factor K = {ratio(result.buckling.effective_length_factor)}; "
-        f"α_cr = Pcr1/N = {alpha_text(result)}" + (f"; {load_ratio}" if load_ratio else ""),
+        + ("α_cr = Pcr1/N of the plane that buckles first = " if two else "α_cr = Pcr1/N = ")
+        + alpha_text(result)
+        + (f"; {load_ratio}" if load_ratio else ""),
     )
     flow.space(3)
     widths = [1.75, 1.4, 0.95, 1.4, None]

@@ -329,7 +329,11 @@ class CombinationBar(pn.viewable.Viewer):
     def __panel__(self):
         return self.panel
 
+    _updating = False
+
     def _picked(self, event) -> None:
+        if self._updating:  # new options reset the picker to their first: not the user's choice
+            return
         if event.new is not None and event.new != self.state.combination_choice:
             self.state.show_combination(event.new)
 
@@ -341,11 +345,15 @@ class CombinationBar(pn.viewable.Viewer):
             return
         if not self.panel.objects:
             self.panel.objects = list(self._content)
-        if self.picker.options != options:
-            self.picker.options = options
         choice = state.combination_choice if state.combination_choice in options.values() else ""
-        if self.picker.value != choice:
-            self.picker.value = choice
+        self._updating = True
+        try:
+            if self.picker.options != options:
+                self.picker.options = options
+            if self.picker.value != choice:
+                self.picker.value = choice
+        finally:
+            self._updating = False
         if self.mode.value != state.scale_mode:
             self.mode.value = state.scale_mode
         extra = ""

@@ -256,8 +256,9 @@ class DiagramsView(pn.viewable.Viewer):
             self._plane_switch(result)
             shown = self.shown()
             second = shown is not result
-            if full or self._drawn_case is None:
-                self._drawn_case = result.case.without_axial_force()
+            drawn = result.case.without_axial_force()
+            if full or self._drawn_case != drawn:  # another combination shown: its loads on the sketch
+                self._drawn_case = drawn
                 self.sketch.fit_range(result.case.length * U.length.factor)
                 self._axis_labels(U)
                 self.sketch.draw()

@@ -2,7 +2,9 @@
 page's link, and the upload of a case file.
 
 Exports never show a case other than the one on screen: while an input is refused, the export buttons are
-disabled and say why (the last valid result would otherwise be exported with nothing to say so).
+disabled and say why (the last valid result would otherwise be exported with nothing to say so); with load
+cases they hold the combination shown (:func:`app.state_actions.view_result`), saying when it is not the
+governing one.
 """
 
 from __future__ import annotations
@@ -19,6 +21,7 @@ from app.intake import clean_text
 from app.page.fields import field_words
 from app.page.style import UPLOAD_LIMIT, WIDGET_CSS, download, esc, html_pane
 from app.state import MemberState
+from app.state_actions import link_choice, view_result
 
 __all__ = ["FilesView"]
 
@@ -80,8 +83,10 @@ class FilesView(pn.viewable.Viewer):
             styles={"border-bottom": "1px solid #e4e7e1"},
             sizing_mode="stretch_width",
         )
-        state.param.watch(lambda *_: self.draw(), ["result", "errors", "units"])
-        state.param.watch(lambda *_: self.write_query(), ["result", "errors", "units", "link"])
+        state.param.watch(lambda *_: self.draw(), ["result", "errors", "units", "combination_choice"])
+        state.param.watch(
+            lambda *_: self.write_query(), ["result", "errors", "units", "link", "combination_choice"]
+        )
         self.write_query()
         self.draw()
 
@@ -94,22 +99,21 @@ class FilesView(pn.viewable.Viewer):
         """The figure of the result on screen, as PNG."""
         from app.exports import png_bytes
 
-        return io.BytesIO(png_bytes(self.state.result, units=self.state.units))
+        return io.BytesIO(png_bytes(view_result(self.state), units=self.state.units))
 
     def csv(self) -> io.StringIO:
         """The stations of the result on screen, as CSV."""
         from app.exports import csv_text
 
-        return io.StringIO(csv_text(self.state.result, units=self.state.units))
+        return io.StringIO(csv_text(view_result(self.state), units=self.state.units))
 
     def pdf(self) -> io.BytesIO:
         """The calc sheet of the result on screen, as PDF."""
         from app.exports import pdf_bytes
 
         prepared, checked = self._signatures()
-        return io.BytesIO(
-            pdf_bytes(self.state.result, units=self.state.units, prepared_by=prepared, checked_by=checked)
-        )
+        result = view_result(self.state)
+        return io.BytesIO(pdf_bytes(result, units=self.state.units, prepared_by=prepared, checked_by=checked))
 
     def json(self) -> io.StringIO:
         """The case on screen, as a case file (with its load cases, when it has them)."""
@@ -129,7 +133,7 @@ class FilesView(pn.viewable.Viewer):
         """Name the files after the title; disable the exports, saying why, while an input is refused."""
         result = self.state.result
         if result is not None:
-            case, system = result.case, self.state.units
+            case, system = view_result(self.state).case, self.state.units
             for widget, extension in zip(self.buttons, ("png", "csv", "pdf", "json"), strict=True):
                 widget.filename = export_filename(case.title, case.axial_force, extension, system)
         refused = self.refused()
@@ -156,6 +160,9 @@ class FilesView(pn.viewable.Viewer):
             query = {"case": self.state.link_now(), "units": self.state.units}
         except (ValueError, TypeError):
             return  # a value JSON cannot hold is refused beside its input; the last link stays
+        choice = link_choice(self.state)
+        if choice:  # the combination shown reopens with the link
+            query["shown"] = choice
         text = urllib.parse.urlencode(query)
         if self.query.value != text:
             self.query.value = text

@@ -10,7 +10,9 @@ import param
 from app.page.style import LEVEL_NAMES, esc, heading, html_pane
 from app.page.words import symbols, values_table
 from app.report import caution_text, general_caution, route_rows
+from app.report.combinations import shown_line
 from app.state import MemberState
+from app.state_actions import view_result
 from app.units import units
 
 __all__ = ["CautionsView", "ValuesView"]
@@ -30,7 +32,8 @@ class ValuesView(pn.viewable.Viewer):
             sizing_mode="stretch_both",
             margin=0,
         )
-        state.param.watch(lambda *_: self.draw(), ["result", "capacity", "capacity_note", "units", "errors"])
+        watched = ["result", "capacity", "capacity_note", "units", "errors", "combination_choice"]
+        state.param.watch(lambda *_: self.draw(), watched)
         self.draw()
 
     def __panel__(self):
@@ -41,7 +44,13 @@ class ValuesView(pn.viewable.Viewer):
         state = self.state
         if state.result is None:
             return
-        table = values_table(state.result, state.capacity, state.capacity_note, units(state.units))
+        result = view_result(state)
+        other = "" if result is state.result else shown_line(result)[0]
+        if other:  # a combination other than the governing one: its values; the capacity is the headline's
+            table = values_table(result, None, "found for the governing combination only", units(state.units))
+            table = f"<div class='ss-stale-mark ss-other-combination'>{esc(other)}</div>{table}"
+        else:
+            table = values_table(result, state.capacity, state.capacity_note, units(state.units))
         if state.errors:
             table = (
                 "<div class='ss-stale-mark'>Last valid case — not the inputs on screen</div>"
@@ -68,15 +77,16 @@ class CautionsView(pn.viewable.Viewer):
             sizing_mode="stretch_both",
             margin=0,
         )
-        state.param.watch(lambda *_: self.draw(), ["result", "units"])
+        state.param.watch(lambda *_: self.draw(), ["result", "units", "combination_choice"])
         self.draw()
 
     def __panel__(self):
         return self.panel
 
     def draw(self) -> None:
-        """List the result's cautions by severity, worded in the page's units (app.report)."""
-        result = self.state.result
+        """List the result's cautions by severity, worded in the page's units (app.report); with load cases,
+        those of the combination shown."""
+        result = view_result(self.state)
         if result is None:
             return
         U = units(self.state.units)

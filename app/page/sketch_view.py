@@ -30,6 +30,7 @@ from bokeh.plotting import figure
 from app.page.style import BOW, LOAD, MEMBER, lean_figure
 from app.sketch import FRAME_LEFT, PAD_INCHES, Y_RANGE, Arrow, Polygon, Polyline, Text, sketch
 from app.state import MemberState
+from app.state_actions import view_result
 from app.units import units
 
 __all__ = ["SKETCH_INCH", "SketchView"]
@@ -336,8 +337,9 @@ class SketchView(param.Parameterized):
     # ------------------------------------------------------------------ drawing
 
     def _data(self, fit: bool):
-        """The result's shapes and the scale to draw them with; `fit` fits the y range to them first."""
-        result = self.state.result
+        """The result's shapes and the scale to draw them with; `fit` fits the y range to them first (with
+        load cases, the combination shown)."""
+        result = view_result(self.state) if self.state.result is not None else None
         if result is None:
             return None
         shapes = sketch(result, units(self.state.units)).shapes

@@ -12,6 +12,7 @@ import param
 
 from app.page.style import MAX_VARIANTS, VARIANT_LETTERS, WIDGET_CSS, esc, html_pane
 from app.page.words import ratio_text, symbols
+from app.report.section_names import section_name
 from app.state import MemberState
 from app.units import units
 
@@ -21,7 +22,8 @@ __all__ = ["VariantsView", "describe"]
 def describe(result, U) -> dict[str, str]:
     """The parts of a result's case that name a variant: section, material, supports, loads, N and bow."""
     case = result.case
-    section = result.section.name if result.section is not None else f"EI {U.show('stiffness', result.EI)}"
+    stiffness = f"EI {U.show('stiffness', result.EI)}"
+    section = section_name(result.section, U) if result.section is not None else stiffness
     bow = result.bow.label if result.bow is not None else case.imperfection.shape
     if result.bow is None and case.imperfection.shape != "none":
         bow = f"{case.imperfection.shape}, a = {U.show('small_length', case.imperfection.amplitude)}"

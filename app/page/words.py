@@ -11,18 +11,30 @@ import math
 import re
 
 from app.page.style import esc
-from app.report import SYMBOLS, bow_direction_text, bow_text, percent, quoted_text, ratio, reaction_rows
+from app.report import (
+    SYMBOLS,
+    alpha_text,
+    bow_direction_text,
+    bow_text,
+    percent,
+    quoted_text,
+    ratio,
+    reaction_rows,
+)
 from app.report.ltb import ltb_words
 from app.report.routes import governing_text, headline_route, plane_axes, plane_name, route_name
+from app.report.section_names import section_name
 from engine.codes import alpha_cr_limit
 
 __all__ = [
     "bow_facts",
     "check_facts",
+    "empty_field_text",
     "plain",
     "ratio_text",
     "section_facts",
     "symbols",
+    "unread_field_text",
     "values_table",
 ]
 
@@ -179,10 +191,11 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
     head("Buckling")
     pcr = result.critical_loads
     row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")
+    two = getattr(result, "second_plane", None) is not None  # then the lower plane's Pcr1, named
     row(
-        "α<sub>cr</sub> = Pcr1/N",
+        "α<sub>cr</sub> = Pcr1/N" + (" (lower plane)" if two else ""),
         ratio_text(result.alpha_cr),
-        "",
+        alpha_text(result).partition(" (")[2].rstrip(")") if two else "",
         result.alpha_cr <= 1,
         result.axial_force > 0 and result.alpha_cr < alpha_cr_limit(),
     )
@@ -256,7 +269,8 @@ def section_facts(result, U) -> str:
     section = result.section
     if section is not None:
         lines.append(
-            f"{esc(section.name)}, {result.case.axis} axis: A = {esc(U.show('area', section.A))}, "
+            f"{esc(section_name(section, U))}, {result.case.axis} axis: "
+            f"A = {esc(U.show('area', section.A))}, "
             f"I = {esc(U.show('second_moment', section.I))}, "
             f"i = {esc(U.show('small_length', section.i))}"
         )
@@ -300,3 +314,34 @@ def check_facts(result, U) -> str:
         )
     else:
         return "<div class='ss-note'>No member check: give a section and a material (Section tab).</div>"
+
+
+# ------------------------------------------------------------------ a number field the page cannot read
+
+
+def empty_field_text(field: str, allowed: str) -> str:
+    """An emptied number field: "Span L is empty; enter a number >= 0.001 and <= 1000 m"."""
+    return f"{field} is empty; {allowed}"
+
+
+def unread_field_text(field: str, text: str | None, allowed: str) -> str:
+    """A number field holding text that is not a number, quoted as typed, with what to type instead.
+
+    >>> unread_field_text("Span L", "6,5", "enter a number >= 0.001 and <= 1000 m")
+    "Span L: '6,5' is not a number; use a point for decimals (6.5); enter a number >= 0.001 and <= 1000 m"
+    """
+    if text is None:
+        return f"{field}: the text typed is not a number; {allowed}"
+    return f"{field}: {text!r} is not a number{_comma_hint(text)}; {allowed}"
+
+
+def _comma_hint(text: str) -> str:
+    """What to type for a number written with a comma; "1,000" could be either, so both are offered."""
+    if "," not in text:
+        return ""
+    head, _, tail = text.partition(",")
+    if re.fullmatch(r"[+-]?\d*,\d+", text) and len(tail) != 3:
+        return f"; use a point for decimals ({head or '0'}.{tail})"
+    if re.fullmatch(r"[+-]?\d+,\d{3}", text):
+        return f"; use a point for decimals and no thousands separator ({head}.{tail} or {head}{tail})"
+    return "; use a point for decimals and no thousands separators"

@@ -165,6 +165,43 @@ def headline_note(actions_result) -> str:
     return text + "."
 
 
+def shown_name(actions_result, result) -> str:
+    """The name of the combination whose values ``result`` holds (the headline's unless another was
+    chosen on the page; see :func:`app.state_actions.view_result`)."""
+    headline = actions_result.headline or ""
+    if result is None:
+        return headline
+    named = [item.name for item in actions_result.combinations if item.result.case == result.case]
+    return headline if headline in named or not named else named[0]
+
+
+def shown_line(result) -> tuple[str, bool]:
+    """The exports' line on the combination a result holds, and whether it is not the governing one
+    (("", False) for a case without load cases)."""
+    actions_result = getattr(result, "actions", None)
+    if actions_result is None:
+        return "", False
+    shown = shown_name(actions_result, result)
+    note = not_governing_note(actions_result, shown)
+    if note:
+        return note, True
+    text = f"Combination {shown}, the governing one: {headline_note(actions_result)}" if shown else ""
+    return text, False
+
+
+def not_governing_note(actions_result, shown: str) -> str:
+    """Said wherever a combination other than the governing one is shown or exported; '' for the
+    governing one."""
+    headline = actions_result.headline
+    if not shown or headline is None or shown == headline:
+        return ""
+    return (
+        f"Combination {shown} is shown: it is not the governing combination. The headline utilisation, the "
+        f"capacity and the design are those of combination {headline}; the deflection check is that of the "
+        "service combinations."
+    )
+
+
 def superposition_lines(comparison, U) -> list:
     """The superposition comparison of one combination in words."""
     parts = " + ".join(
@@ -204,8 +241,10 @@ def combination_lines(actions_result, result, U, comparison=None) -> list:
 def metadata_rows(actions_result, result, U) -> list:
     """The exports' rows of a case with actions: ``(key, value, note)`` for the combination shown, each
     combination and the governing combination of each check (the CSV's metadata, the calc sheet's items)."""
+    shown = shown_name(actions_result, result)
+    note = not_governing_note(actions_result, shown) or headline_note(actions_result)
     rows = [
-        ("combination shown", actions_result.headline or "", headline_note(actions_result)),
+        ("combination shown", shown, note),
         ("combination rule", rule_text(actions_result.case.combinations), ""),
     ]
     for name, category, axial, loads in action_rows(actions_result, U):

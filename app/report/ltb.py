@@ -4,8 +4,8 @@ The engine hands the check over as ``result.ltb`` (an ``engine.design.ltb_member
 case has no member check): the exact elastic critical moment for the member's own moment diagram, the
 tabulated one (the C1 formula for the nearest standard diagram), λ̄_LT, χ_LT, M_b,Rd and the utilisation, the
 settings used (load position, lateral and warping ends), the first buckling mode (lateral v and twist φ) and,
-with the AISC route, AISC 360-16 §F2. This module words it once, for the page, the printed summary, the calc
-sheet, the CSV and the batch table; it does no mechanics.
+with the AISC route, AISC 360-16 §F2 (§F11.2 for a solid rectangular bar). This module words it once, for
+the page, the printed summary, the calc sheet, the CSV and the batch table; it does no mechanics.
 
 :func:`ltb_words` gives everything as text in one :class:`LtbWords`; :func:`ltb_of` the engine's object (or
 None, also for an engine without the field).
@@ -89,6 +89,20 @@ _ZONES = {
     "elastic": "elastic, L_b > L_r (F2-3)",
 }
 
+#: AISC 360-16 §F11 for a rectangular bar: the zones by L_b·d/t²; the engine's L_p and L_r are the L_b at
+#: the two limits.
+_ZONES_F11 = {
+    "plastic": "yielding, L_b·d/t² ≤ 0.08E/F_y (F11-1)",
+    "inelastic": "inelastic, 0.08E/F_y < L_b·d/t² ≤ 1.9E/F_y (F11-2)",
+    "elastic": "elastic, L_b·d/t² > 1.9E/F_y (F11-3, F11-4)",
+    "exact-cap": "the exact elastic M_cr, which is below F11-2/F11-4's value for this stocky bar",
+}
+_LIMITS_F11 = (("L_p", "L_b at 0.08E/F_y"), ("L_r", "L_b at 1.9E/F_y"))
+_CLAUSES = {
+    "F2": ("§F2", "§F2 (doubly symmetric compact I-shapes)"),
+    "F11": ("§F11.2", "§F11.2 (rectangular bars bent about their major axis)"),
+}
+
 
 @dataclass(frozen=True)
 class LtbWords:
@@ -104,8 +118,9 @@ class LtbWords:
         Load position and end conditions used.
     rows : list of (key, label, value, note)
         The figures, in order: M_Ed, M_cr exact, M_cr tabulated, difference, λ̄_LT, χ_LT, M_b,Rd, utilisation
-        (and M_n of AISC 360-16 §F2 for an I section); keys are the engine's field names (``"aisc"`` for the
-        last); ``note`` is "" or a few words for beside the value (:meth:`line` joins them).
+        (and M_n of AISC 360-16 §F2 for an I section, §F11.2 for a rectangular bar); keys are the engine's
+        field names (``"aisc"`` for the last); ``note`` is "" or a few words for beside the value
+        (:meth:`line` joins them).
     method : str
         How χ_LT and M_cr were found, with the clauses.
     sources : tuple of str
@@ -265,15 +280,16 @@ def _utilisation_text(value) -> str:
 
 
 def _aisc_note(ltb, U: Units) -> str:
-    """Beside M_n of AISC 360-16 §F2: its zone, L_p, L_r and C_b."""
+    """Beside M_n of AISC 360-16 §F2 (§F11.2): its zone, L_p and L_r (the L_b at §F11's limits) and C_b."""
     aisc = ltb.aisc
-    parts = [_ZONES.get(aisc.zone, aisc.zone)]
+    bar = getattr(aisc, "clause", "F2") == "F11"
+    parts = [(_ZONES_F11 if bar else _ZONES).get(aisc.zone, aisc.zone)]
     if getattr(ltb, "segment", ()):
         parts.append(f"L_b = {U.show('length', aisc.L_b)} (the governing unbraced segment)")
-    for key in ("L_p", "L_r"):
+    for key, name in _LIMITS_F11 if bar else (("L_p", "L_p"), ("L_r", "L_r")):
         value = getattr(aisc, key, None)
         if value is not None:
-            parts.append(f"{key} = {U.show('length', value)}")
+            parts.append(f"{name} = {U.show('length', value)}")
     c_b = getattr(aisc, "C_b", None)
     by_formula = getattr(ltb, "C_b_F1_1", None)
     if c_b is not None and finite(by_formula) and abs(float(by_formula) - float(c_b)) > 5e-4:
@@ -333,8 +349,9 @@ def ltb_words(result, U: Units) -> LtbWords | None:
     method = method_text(ltb)
     aisc = getattr(ltb, "aisc", None)
     if aisc is not None:
-        rows.append(("aisc", "M_n, AISC 360-16 §F2", U.show("moment", aisc.M_n), _aisc_note(ltb, U)))
-        method += "; AISC 360-16 §F2 (doubly symmetric compact I-shapes) with C_b by eq. (F1-1)"
+        short, long = _CLAUSES.get(getattr(aisc, "clause", "F2"), _CLAUSES["F2"])
+        rows.append(("aisc", f"M_n, AISC 360-16 {short}", U.show("moment", aisc.M_n), _aisc_note(ltb, U)))
+        method += f"; AISC 360-16 {long} with C_b by eq. (F1-1)"
     return LtbWords(
         applies=True,
         reason="",

@@ -79,15 +79,31 @@ NOTES = {
     ),
     "LTB-not-checked": (
         "warning",
-        "lateral-torsional buckling (AISC 360-16 §F2.2, unbraced length L_b) is not checked",
+        "lateral-torsional buckling (AISC 360-16 §F2.2 or §F11.2, unbraced length L_b) is not checked",
     ),
     "aisc-shear-not-checked": ("info", "shear (Chapter G) is not checked on this route"),
-    "aisc-out-of-plumb-not-in-Mr": (
-        "warning",
-        "an end can translate, and M_r leaves out the member's out-of-plumbness (AISC 360-16 §C2.2, notional "
-        "load 0.002·P_r at the moving end, from memory): add it as a transverse point load there",
+    "aisc-erw-design-wall": (
+        "info",
+        "an ERW hollow section (ASTM A500): the design wall is 0.93 × the nominal thickness (AISC 360-16 "
+        "§B4.2, from memory) in A_g, S, Z, b/t and the buckling loads; M_r grows with the lower stiffness",
     ),
-    "aisc-noncompact": ("info", "a noncompact element: M_n by the flange local buckling limit (§F3)"),
+    "aisc-elm-drift-limit": (
+        "warning",
+        "the second-order drift exceeds 1.5 × the first-order drift (1/(1 − αN/N_cr) of a swaying plane): "
+        "AISC 360-16 Appendix 7 then asks for the direct analysis method (reduced stiffness, §C2.3), which "
+        "this route does not make (from memory); its result is not valid beyond that limit",
+    ),
+    "aisc-out-of-plumb-in-Mr": (
+        "info",
+        "an end can translate: M_r holds an out-of-plumbness of 1/500 the worse way (AISC 360-16 §C2.2a, "
+        "notional load 0.002·P_r, from memory), solved with the nominal stiffness, the effective-length "
+        "method (K from the exact critical load); the direct analysis method's reduced stiffness is not used",
+    ),
+    "aisc-noncompact": (
+        "info",
+        "a noncompact element: M_n by its local buckling limit (§F3.2, §F6.2, §F7, §F8.2; a noncompact I web "
+        "0.7·F_y·S, §F4 not made)",
+    ),
     "aisc-slender-e7": ("info", "a slender element in compression: P_n = F_cr·A_e, effective widths of §E7"),
     "aisc-tension-yielding": ("info", "tension: P_c is tension yielding, §D2(a)"),
     "en-member-cross-section-only": (

@@ -71,6 +71,10 @@ FACTS = {
     "C_b": ("C_b", ""),
     "C_b_F1_1": ("C_b by eq. (F1-1)", ""),
     "M_n_F2": ("M_n by §F2", "moment"),
+    "M_n_F11": ("M_n by §F11.2", "moment"),
+    "Lbd_t2": ("L_b·d/t²", ""),
+    "Lbd_t2_p": ("0.08E/F_y", ""),
+    "Lbd_t2_r": ("1.9E/F_y", ""),
     "k_yy": ("k_yy", ""),
     "k_yz": ("k_yz", ""),
     "k_zy": ("k_zy", ""),
@@ -82,6 +86,10 @@ FACTS = {
     "C_my": ("C_my", ""),
     "C_mz": ("C_mz", ""),
     "C_mLT": ("C_mLT", ""),
+    "rho_shear": ("ρ (shear, §6.2.8)", ""),
+    "drift_ratio": ("Δ2/Δ1 ≈ 1/(1 − αN/N_cr)", ""),
+    "t_nominal": ("t, nominal", "small_length"),
+    "t_design": ("t, design (0.93 t, §B4.2)", "small_length"),
     "N_Rk": ("N_Rk", "force"),
     "M_y_Rk": ("M_y,Rk", "moment"),
     "M_z_Rk": ("M_z,Rk", "moment"),
@@ -138,6 +146,10 @@ _PREFIX_KINDS = (
 )
 
 
+#: Slenderness-like ratios (tens to thousands), shown to one decimal.
+_ONE_DECIMAL = ("KL_r", "Lbd_t2", "Lbd_t2_p", "Lbd_t2_r")
+
+
 def _kind_of(key: str) -> str | None:
     if key in FACTS:
         return FACTS[key][1]
@@ -159,7 +171,7 @@ def fact_text(key: str, value, U: Units) -> str | None:
     if kind is None or isinstance(value, bool) or not isinstance(value, (int, float)):
         return None
     if kind == "":
-        shown = ratio(value, 1 if key == "KL_r" else 3)
+        shown = ratio(value, 1 if key in _ONE_DECIMAL else 3)
     else:
         shown = U.show(kind, float(value))
     return f"{_symbol_of(key)} = {shown}"

@@ -11,6 +11,7 @@ from app.report.ltb import ltb_words
 from app.report.numbers import percent, position, ratio, scientific, utilisation
 from app.report.restraints import grouped_inner_rows, has_inner, reactions_note
 from app.report.route_names import governing_text
+from app.report.section_names import section_name
 from app.safe_text import terminal
 from app.units import units as display_units
 
@@ -34,7 +35,7 @@ def _case_lines(add, source, case, result, U) -> None:
     if result.section is not None:
         section = result.section
         add(
-            f"  section:      {section.name}, {case.axis} axis (A = {U.show('area', section.A)}, "
+            f"  section:      {section_name(section, U)}, {case.axis} axis (A = {U.show('area', section.A)}, "
             f"I = {U.show('second_moment', section.I)})"
         )
     if result.material is not None:

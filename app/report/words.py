@@ -21,6 +21,7 @@ from app.report import route_names as names
 from app.report.numbers import finite, format_number, position, ratio
 from app.report.restraints import REACTIONS_NOTE, all_reactions, support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
+from app.report.section_names import section_name
 from app.units import Units, units
 
 __all__ = [
@@ -234,7 +235,7 @@ def section_text(result, U: Units) -> str | None:
     if section is None:
         return None
     return (
-        f"{section.name}, {section.axis} axis: A = {U.show('area', section.A)}, "
+        f"{section_name(section, U)}, {section.axis} axis: A = {U.show('area', section.A)}, "
         f"I = {U.show('second_moment', section.I)}"
     )
 
@@ -539,15 +540,10 @@ _FLAG = re.compile(r"\s*\((?:[^()]*?\b)?(?:from memory|common practice, no sourc
 
 # A quantity quoted from an SI source ("t <= 16 mm", "210 000 MPa"): digits with spaces between thousands.
 _QUOTED = re.compile(
-    r"(?<![\w.])(\d{1,3}(?:[ \u202f]\d{3})+|\d+(?:\.\d+)?)\s?(mm|MPa|kN·m|kN|m)(?![\w²³⁴·/])"
+    r"(?<![\w.])(\d{1,3}(?:[ \u202f]\d{3})+|\d+(?:\.\d+)?)\s?(kg/m³|mm|MPa|kN·m|kN|m)(?![\w²³⁴·/])"
 )
-_QUOTED_KINDS = {
-    "mm": ("small_length", 1e-3),
-    "MPa": ("stress", 1e6),
-    "kN·m": ("moment", 1e3),
-    "kN": ("force", 1e3),
-    "m": ("length", 1.0),
-}
+_QUOTED_KINDS = {"mm": ("small_length", 1e-3), "MPa": ("stress", 1e6), "kN·m": ("moment", 1e3)}
+_QUOTED_KINDS.update({"kN": ("force", 1e3), "m": ("length", 1.0)})
 
 
 def quoted_text(text: str, U: Units) -> str:
@@ -563,9 +559,11 @@ def quoted_text(text: str, U: Units) -> str:
         return text
 
     def convert(match):
+        value = float(match.group(1).replace(" ", "").replace("\u202f", ""))
+        if match.group(2) == "kg/m³":  # 1 lb/ft³ = 0.45359237 kg / 0.3048³ m³ (exact definitions)
+            return f"{value * 0.3048**3 / 0.45359237:.4g} lb/ft³"
         kind, factor = _QUOTED_KINDS[match.group(2)]
-        value = float(match.group(1).replace(" ", "").replace("\u202f", "")) * factor
-        return U.show(kind, value)
+        return U.show(kind, value * factor)
 
     return _QUOTED.sub(convert, text)
 

@@ -1,9 +1,10 @@
-r"""The ``aisc`` route: AISC 360-16 §E3 (flexural buckling), §F2/F6/F7/F8/F11 (yielding), §H1.1/§H1.2.
+r"""The ``aisc`` route: AISC 360-16 §E3 (flexural buckling), §F2/F6/F7/F8/F11 (yielding), §F2.2/§F11.2
+(lateral-torsional buckling), §H1.1/§H1.2.
 
 Sources: ANSI/AISC 360-16, *Specification for Structural Steel Buildings*: Table B4.1a (width-to-thickness
-ratios, members in axial compression), Table B4.1b (members in flexure), eqs. (E3-1)–(E3-4), §F2.1, §F6.1,
-§F7.1, §F8.1, §F11.1, §D2(a), eqs. (H1-1a)/(H1-1b). Every limit and factor from memory, to be checked
-against a copy of the Specification.
+ratios, members in axial compression), Table B4.1b (members in flexure), eqs. (E3-1)–(E3-4), §F1 eq. (F1-1),
+§F2, §F6.1, §F7.1, §F8.1, §F11.1, §F11.2 eqs. (F11-2)–(F11-4), §D2(a), eqs. (H1-1a)/(H1-1b). Every limit and
+factor from memory, to be checked against a copy of the Specification.
 
 - :math:`F_e = N_{cr}/A_g` from the exact critical load of each plane (springs and restraints count); the
   smaller :math:`P_n = F_{cr}A_g` governs (:func:`engine.design.aisc360.critical_stress`).
@@ -19,23 +20,31 @@ against a copy of the Specification.
   non-compact element (within :math:`\lambda_r`: I flanges :math:`1.0\sqrt{E/F_y}` (built-up, major axis:
   :math:`0.95\sqrt{k_cE/F_L}`, :math:`F_L = 0.7F_y`), I webs
   :math:`5.70\sqrt{E/F_y}`, HSS flanges :math:`1.40\sqrt{E/F_y}`, HSS webs :math:`5.70\sqrt{E/F_y}`, round
-  HSS :math:`0.31E/F_y`): :math:`M_n = 0.7F_yS`, the lowest value the interpolations of §F3.2, §F6.2, §F7
-  and §F8.2 reach (a decision on the safe side; note ``aisc-noncompact``). A slender element in flexure: the
-  route is not applied.
+  HSS :math:`0.31E/F_y`): :math:`M_n` by the local-buckling limit of §F3.2, §F6.2, §F7 or §F8.2
+  (:func:`noncompact_moment`; a noncompact I web 0.7F_yS, §F4 not made; note ``aisc-noncompact``). A
+  slender element in flexure: the route is not applied.
 - Lateral-torsional buckling (issue 15): where the member's check applies to an I section, the major-axis
   :math:`M_n` is the smaller of the yielding value above and §F2's (:func:`engine.design.ltb.aisc_f2`:
-  :math:`L_b = L`, the member's length between its end restraints; :math:`C_b` of eq. (F1-1) from the
-  first-order diagram, capped by the exact elastic ratio :math:`M_{cr,0}/M_{cr,uniform}` so that a load on
-  the top flange counts); a non-compact flange takes §F3.1, which is §F2.2 again. The exact :math:`M_{cr}`
-  is in the facts beside it. Elsewhere (an open section whose check could not be made) note
-  ``LTB-not-checked``. Shear is not checked (Chapter G, note ``aisc-shear-not-checked``).
+  :math:`L_b` the length between brace points, the member's length without any; :math:`C_b` of eq. (F1-1)
+  from the first-order diagram, capped by the exact elastic ratio :math:`M_{cr,0}/M_{cr,uniform}` so that a
+  load on the top flange counts); a non-compact flange takes §F3.1, which is §F2.2 again. The exact
+  :math:`M_{cr}` is in the facts beside it. A solid rectangle deeper than wide
+  (:func:`engine.sections.deep_solid`) bent about its major axis takes §F11.2 the same way, with the same
+  :math:`L_b` and :math:`C_b`
+  (:func:`engine.design.ltb.aisc_f11`, d the depth, t the width): :math:`M_n = M_p` up to
+  :math:`L_bd/t^2 = 0.08E/F_y` (F11-1), :math:`C_b[1.52 - 0.274(L_bd/t^2)F_y/E]F_yS \le M_p` up to
+  :math:`1.9E/F_y` (F11-2), beyond :math:`F_{cr}S \le M_p`, :math:`F_{cr} = 1.9EC_b/(L_bd/t^2)` (F11-3,
+  F11-4); facts ``M_n_F11``, ``zone_F11``, ``Lbd_t2`` and its limits ``Lbd_t2_p``, ``Lbd_t2_r``. Minor-axis
+  bending of a rectangle, and a square bar, stay with §F11.1 (no LTB, no note). Elsewhere (an open section
+  or a deep rectangle whose check could not be made, e.g. a free end) note ``LTB-not-checked``. Shear is not
+  checked (Chapter G, note ``aisc-shear-not-checked``).
 - :math:`P_r = N`; :math:`M_r` the largest second-order moment of each plane WITHOUT the bow (the
   Specification's strength :math:`P_n` already holds the member's out-of-straightness). ASD analyses at 1.6 ×
   its loads (§C2.1, from memory): :math:`M_r` grows as :func:`_asd_moment` says.
 - :math:`P_c = \phi_cP_n` or :math:`P_n/\Omega_c`, :math:`M_c = \phi_bM_n` or :math:`M_n/\Omega_b`
   (``check.aisc_method``); these replace :math:`\gamma_{M0}, \gamma_{M1}` on this route. In tension,
   :math:`P_c = \phi_tF_yA_g` (§D2(a), yielding; rupture of a net section is not checked) in eq. (H1-1) as
-  §H1.2 allows.
+  §H1.2 allows (note ``aisc-tension-yielding``, only where N < 0).
 """
 
 from __future__ import annotations
@@ -43,14 +52,16 @@ from __future__ import annotations
 import math
 
 from engine.design import aisc360
+from engine.design.aisc_hss import ERW_FACTOR, design_planes, is_erw
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import RouteCheck
+from engine.sections import deep_solid
 
 __all__ = ["SOURCE", "compression_elements", "effective_area", "flexure_class", "route"]
 
 SOURCE = (
-    "AISC 360-16 Tables B4.1a/b, §E3 eqs. (E3-1)–(E3-4), §E7, §F2.1/F6.1/F7.1/F8.1/F11.1, §D2(a), §H1.1 eqs. "
-    "(H1-1a)/(H1-1b) and §H1.2 (from memory)"
+    "AISC 360-16 Tables B4.1a/b, §E3 eqs. (E3-1)–(E3-4), §E7, §F2.1/F6.1/F7.1/F8.1/F11.1, §F1 eq. (F1-1), "
+    "§F2.2, §F11.2 eqs. (F11-2)–(F11-4), §D2(a), §H1.1 eqs. (H1-1a)/(H1-1b) and §H1.2 (from memory)"
 )
 
 _SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle", "round")
@@ -139,6 +150,37 @@ def flexure_class(section, E: float, Fy: float) -> tuple[str, list]:
 ASD_ALPHA = 1.6
 
 
+def noncompact_moment(section, parts, E: float, Fy: float) -> float:
+    """M_n [N·m] of a section with a noncompact element (none slender), by the local-buckling limit of its
+    chapter F clause (from memory): the smallest over its noncompact elements of
+
+    - I flange, major axis (§F3.2, eq. F3-1) or minor axis (§F6.2, eq. F6-2):
+      M_p − (M_p − 0.7F_yS)(λ − λ_p)/(λ_r − λ_p);
+    - rectangular HSS flange (§F7.2, eq. F7-2): M_p − (M_p − F_yS)(3.57(b/t)√(F_y/E) − 4.0) ≤ M_p;
+    - rectangular HSS web (§F7.3, eq. F7-6): M_p − (M_p − F_yS)(0.305(h/t)√(F_y/E) − 0.738) ≤ M_p;
+    - round HSS (§F8.2, eq. F8-2): (0.021E/(D/t) + F_y)S;
+    - an I web (§F4, its R_pc and its own lateral-torsional buckling, not made here): 0.7F_yS, the lowest
+      value those reach (on the safe side).
+    """
+    S = section.W_el
+    M_p = min(Fy * section.W_pl, 1.6 * Fy * S)
+    root = math.sqrt(Fy / E)
+    found = M_p
+    for name, ratio, lp, lr in parts:
+        if ratio <= lp * (1 + 1e-12):
+            continue
+        if section.shape in ("rolled_i", "welded_i"):
+            value = 0.7 * Fy * S if name == "web" else M_p - (M_p - 0.7 * Fy * S) * (ratio - lp) / (lr - lp)
+        elif name == "flange":
+            value = M_p - (M_p - Fy * S) * (3.57 * ratio * root - 4.0)
+        elif name == "web":
+            value = M_p - (M_p - Fy * S) * (0.305 * ratio * root - 0.738)
+        else:  # a round HSS
+            value = (0.021 * E / ratio + Fy) * S
+        found = min(found, value)
+    return min(found, M_p)
+
+
 def _asd_moment(p, N: float, M_second: float) -> float:
     """A bound on ASD's M_r [N·m] (α = 1.6) where the plane has no exact solve at 1.6·N (``Plane.M_asd``):
     the largest of the exact moment at 1.0·N (``M_second``), its second-order part grown as a single mode
@@ -154,6 +196,23 @@ def _asd_moment(p, N: float, M_second: float) -> float:
     return max(M_second, grown, M_I / (1.0 - ASD_ALPHA * a))
 
 
+def _ltb_facts(ltb, section) -> dict:
+    """The facts of the lateral-torsional buckling limit: §F2's (an I section) or §F11.2's (a solid
+    rectangular bar: its L_b·d/t² and the limits 0.08E/F_y and 1.9E/F_y, as L_p·d/t² and L_r·d/t²)."""
+    found = ltb.aisc
+    facts = {"L_b": found.L_b, "C_b": found.C_b, "C_b_F1_1": ltb.C_b_F1_1, "M_cr": ltb.M_cr_0}
+    if found.clause == "F11":
+        scale = section.depth / section.width**2  # d/t²
+        return facts | {
+            "M_n_F11": found.M_n,
+            "zone_F11": found.zone,
+            "Lbd_t2": found.L_b * scale,
+            "Lbd_t2_p": found.L_p * scale,
+            "Lbd_t2_r": found.L_r * scale,
+        }
+    return facts | {"M_n_F2": found.M_n, "L_p": found.L_p, "L_r": found.L_r, "zone_F2": found.zone}
+
+
 def route(
     *, y: Plane, z: Plane, N: float, material, settings, enabled: bool, beyond: bool, ltb=None, N_cr_T=None
 ) -> RouteCheck:
@@ -161,15 +220,21 @@ def route(
     first critical load of the plane analysed (no stable equilibrium); ``ltb``: the member's
     lateral-torsional buckling check (its ``aisc`` part is used where it applies); ``N_cr_T``: the torsional
     buckling load [N] (§E4 with F_e = N_cr,T/A_g, :mod:`engine.torsional_buckling`), or None."""
-    sy = y.section
-    if sy.shape not in _SHAPES:
+    if y.section.shape not in _SHAPES:
         return not_applied("aisc", enabled, "custom-section", SOURCE)
+    erw = is_erw(y.section, material)
+    if erw:  # §B4.2: an ERW HSS's design wall is 0.93·t (engine.design.aisc_hss)
+        t_nominal = y.section.dimensions["t"]
+        y, z = design_planes(y, z, N, ASD_ALPHA)
+    sy = y.section
     E, Fy = material.E, material.fy
     method = settings.aisc_method
     phi = {name: aisc360.RESISTANCE[name, method] for name in ("compression", "flexure")}
     tension_factor = 0.90 if method == "LRFD" else 1.67  # §D2(a), from memory
     available = (lambda n, f: f * n) if method == "LRFD" else (lambda n, f: n / f)
     facts: dict = {"method": method, "F_y": Fy, "E": E, "A_g": sy.A}
+    if erw:
+        facts.update(t_nominal=t_nominal, t_design=ERW_FACTOR * t_nominal)
     if method == "LRFD":
         facts.update(phi_c=phi["compression"], phi_b=phi["flexure"], phi_t=tension_factor)
     else:
@@ -190,13 +255,21 @@ def route(
                     reason="slender-element-compression",
                     source=SOURCE,
                 )
-    notes = ["aisc-shear-not-checked"]
-    if N > 0.0 and any(p.diagram.sway for p in (y, z)):
-        notes.insert(0, "aisc-out-of-plumb-not-in-Mr")  # §C2.2's notional load is not in M_r (not applied)
+    notes = ["aisc-shear-not-checked"] + (["aisc-erw-design-wall"] if erw else [])
+    swaying = [p for p in (y, z) if p.diagram.sway]
+    if N > 0.0 and swaying:
+        notes.insert(0, "aisc-out-of-plumb-in-Mr")  # §C2.2a's notional load is in M_r (Plane.M_second)
+        # Appendix 7 §7.2.1 (from memory): the effective length method only while the second-order drift is
+        # at most 1.5 × the first-order drift; a single mode's 1/(1 − αN/N_cr) estimates that ratio
+        alpha = ASD_ALPHA if method == "ASD" else 1.0
+        drift = max(1.0 / (1.0 - alpha * N / p.N_cr) if alpha * N < p.N_cr else math.inf for p in swaying)
+        facts["drift_ratio"] = drift
+        if drift > 1.5:
+            notes.insert(0, "aisc-elm-drift-limit")
     torsional = ltb is not None and ltb.applies and ltb.aisc is not None and y.diagram.M_max > 0.0
     M_c = {}
     for p in (y, z):
-        kind, _ = flexure_class(p.section, E, Fy)
+        kind, parts = flexure_class(p.section, E, Fy)
         facts[f"flexure_{p.axis}"] = kind
         if kind == "slender":
             if p.diagram.M_max == 0.0:
@@ -210,26 +283,17 @@ def route(
                 source=SOURCE,
             )
         S, Z = p.section.W_el, p.section.W_pl
-        M_n = min(Fy * Z, 1.6 * Fy * S) if kind == "compact" else 0.7 * Fy * S
+        M_n = min(Fy * Z, 1.6 * Fy * S) if kind == "compact" else noncompact_moment(p.section, parts, E, Fy)
         if p.axis == "y" and torsional:
-            f2 = ltb.aisc
-            facts.update(
-                M_n_F2=f2.M_n,
-                L_b=f2.L_b,
-                L_p=f2.L_p,
-                L_r=f2.L_r,
-                C_b=f2.C_b,
-                C_b_F1_1=ltb.C_b_F1_1,
-                zone_F2=f2.zone,
-                M_cr=ltb.M_cr_0,
-            )
-            M_n = min(M_n, f2.M_n)
+            facts.update(_ltb_facts(ltb, sy))
+            M_n = min(M_n, ltb.aisc.M_n)
         if kind == "noncompact" and "aisc-noncompact" not in notes:
             notes.append("aisc-noncompact")
         facts[f"M_n_{p.axis}"] = M_n
         M_c[p.axis] = available(M_n, phi["flexure"])
         facts[f"M_c_{p.axis}"] = M_c[p.axis]
-    if y.diagram.M_max > 0.0 and sy.shape not in ("chs", "round") and not torsional:
+    no_ltb = sy.shape in ("chs", "round") or (sy.shape == "rectangle" and not deep_solid(sy))  # §F8, §F11.1
+    if y.diagram.M_max > 0.0 and not no_ltb and not torsional:
         restrained = ltb is not None and ltb.reason == "restrained"
         notes.insert(0, "LTB-restrained" if restrained else "LTB-not-checked")
     M_r = {}
@@ -259,7 +323,8 @@ def route(
     else:
         P_n = Fy * sy.A
         P_c = available(P_n, tension_factor)
-        notes.append("aisc-tension-yielding")
+        if N < 0.0:  # no axial force (N = 0): P_c does not enter, no note
+            notes.append("aisc-tension-yielding")
     facts.update(P_r=N, P_n=P_n, P_c=P_c)
     alpha = ASD_ALPHA if method == "ASD" else 1.0  # §C2.1 / App. 8: ASD's analysis at 1.6 × its loads
     if beyond or any(alpha * N >= p.N_cr and p.diagram.M_max > 0.0 for p in (y, z)):

@@ -119,6 +119,11 @@ def not_applied(route: str, enabled: bool, reason: str, source: str = "") -> Rou
     return RouteCheck(route=route, enabled=enabled, utilization=None, reason=reason, source=source)
 
 
+def _reduced(bending: float, rho: float) -> float:
+    """The bending terms with (1 − ρ)f_y (§6.2.8); unbounded at ρ = 1 (no moment resistance left)."""
+    return bending / (1.0 - rho) if rho < 1.0 else math.inf
+
+
 def _verdict(enabled: bool, terms: dict, facts: dict, notes: list, source: str) -> RouteCheck:
     """The route's result: its largest term governs (the first of equal ones)."""
     governing = max(terms, key=lambda k: terms[k])
@@ -181,12 +186,18 @@ def route(
         "form_y": y.diagram.form,
         "form_z": z.diagram.form,
     }
+    root3 = math.sqrt(3.0)
+    shear = max(p.diagram.V_max * g0 * root3 / (p.section.A_v * fy) for p in (y, z) if p.section.A_v > 0)
+    # §6.2.8: past half of V_pl,Rd, (1 − ρ)f_y for the moments (the largest shear with the largest moments,
+    # on the whole section: on the safe side)
+    rho = float(codes.shear_reduction(shear, 1.0))
+    bending = My * g0 / My_Rk + Mz * g0 / Mz_Rk
     terms = {
-        "cross-section": abs(N) * g0 / N_Rk + My * g0 / My_Rk + Mz * g0 / Mz_Rk,
-        "shear": max(
-            p.diagram.V_max * g0 * math.sqrt(3.0) / (p.section.A_v * fy) for p in (y, z) if p.section.A_v > 0
-        ),
+        "cross-section": abs(N) * g0 / N_Rk + (0.0 if bending == 0.0 else _reduced(bending, rho)),
+        "shear": shear,
     }
+    if rho > 0.0:
+        facts["rho_shear"] = rho
     notes = ["chi-LT-1"] if My > 0.0 and sy.shape not in ("chs", "round") and not torsional else []
     if notes and ltb is not None and ltb.reason == "restrained":
         notes = ["LTB-restrained"]  # the case states the compression flange is restrained

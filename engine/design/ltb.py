@@ -7,8 +7,8 @@ Sources, each with how sure the project is of it ("from memory": recalled, to be
   standard diagrams (ENV Annex F Tables F.1.1/F.1.2, SN003 tables): from memory.
 - EN 1993-1-1:2005 §6.3.2.2 (general case: Tables 6.3 and 6.4, eq. (6.56)) and §6.3.2.3 (rolled or
   equivalent welded sections: Table 6.5, eqs. (6.57) and (6.58), Table 6.6): from memory.
-- ANSI/AISC 360-16 §F1 eq. (F1-1) (C_b) and §F2 eqs. (F2-1) to (F2-7) (doubly symmetric compact I-shapes):
-  from memory.
+- ANSI/AISC 360-16 §F1 eq. (F1-1) (C_b) and §F2 eqs. (F2-1) to (F2-7) (doubly symmetric compact I-shapes),
+  §F11.2 eqs. (F11-2) to (F11-4) (rectangular bars bent about their major axis): from memory.
 """
 
 from __future__ import annotations
@@ -33,6 +33,7 @@ __all__ = [
     "STANDARD_DIAGRAMS",
     "AiscLtb",
     "StandardDiagram",
+    "aisc_f11",
     "aisc_f2",
     "c1_for_diagram",
     "c1_linear",
@@ -388,6 +389,7 @@ class AiscLtb:
     zone: str  # "plastic" (L_b ≤ L_p), "inelastic" or "elastic" (L_b > L_r)
     C_b: float = 1.0
     L_b: float = 0.0
+    clause: str = "F2"  # "F11": a rectangular bar (L_p, L_r the L_b at L_b·d/t² = 0.08E/F_y and 1.9E/F_y)
 
 
 def aisc_f2(
@@ -440,3 +442,39 @@ def aisc_f2(
     return AiscLtb(
         M_n=min(F_cr * S_x, M_p), M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, zone="elastic", C_b=C_b, L_b=L_b
     )
+
+
+def aisc_f11(
+    *, L_b: float, d: float, t: float, E: float, F_y: float, Z_x: float, S_x: float, C_b: float = 1.0
+) -> AiscLtb:
+    r"""Nominal flexural strength of a solid rectangular bar bent about its major axis, AISC 360-16 §F11
+    (from memory); ``d`` the depth in the plane of bending, ``t`` the width (``t < d``):
+
+    - :math:`L_bd/t^2 \le 0.08E/F_y`: :math:`M_n = M_p = F_yZ_x \le 1.6F_yS_x` (F11-1), zone ``plastic``;
+    - up to :math:`1.9E/F_y`: :math:`M_n = C_b[1.52 - 0.274(L_bd/t^2)(F_y/E)]M_y \le M_p`,
+      :math:`M_y = F_yS_x` (F11-2), zone ``inelastic``;
+    - beyond: :math:`M_n = F_{cr}S_x \le M_p`, :math:`F_{cr} = 1.9EC_b/(L_bd/t^2)` (F11-3, F11-4), zone
+      ``elastic``.
+
+    ``L_p`` and ``L_r`` of the result are the unbraced lengths at the two limits.
+
+    >>> found = aisc_f11(L_b=6.0, d=0.2, t=0.02, E=200e9, F_y=250e6, Z_x=2e-4, S_x=4e-4 / 3, C_b=1.0)
+    >>> found.zone, round(found.F_cr / 1e6, 3), round(found.M_n)
+    ('elastic', 126.667, 16889)
+    """
+    L_b = positive("L_b", L_b, "m", allow_zero=True)
+    d, t, E, F_y, Z_x, S_x, C_b = (
+        positive(n, v)
+        for n, v in (("d", d), ("t", t), ("E", E), ("F_y", F_y), ("Z_x", Z_x), ("S_x", S_x), ("C_b", C_b))
+    )
+    M_p = min(F_y * Z_x, 1.6 * F_y * S_x)
+    slenderness = L_b * d / t**2
+    L_p, L_r = 0.08 * E / F_y * t**2 / d, 1.9 * E / F_y * t**2 / d
+    F_cr = math.inf if L_b == 0 else 1.9 * E * C_b / slenderness
+    common = dict(M_p=M_p, L_p=L_p, L_r=L_r, F_cr=F_cr, C_b=C_b, L_b=L_b, clause="F11")
+    if slenderness <= 0.08 * E / F_y:
+        return AiscLtb(M_n=M_p, zone="plastic", **common)
+    if slenderness <= 1.9 * E / F_y:
+        m_n = C_b * (1.52 - 0.274 * slenderness * F_y / E) * F_y * S_x
+        return AiscLtb(M_n=min(m_n, M_p), zone="inelastic", **common)
+    return AiscLtb(M_n=min(F_cr * S_x, M_p), zone="elastic", **common)

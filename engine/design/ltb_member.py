@@ -1,5 +1,6 @@
 r"""The member's lateral-torsional buckling check (issue 15): exact :math:`M_{cr}`, :math:`\chi_{LT}`,
-:math:`M_{b,Rd}` and AISC 360-16 §F2, from the member's own first-order major-axis moment diagram.
+:math:`M_{b,Rd}` and AISC 360-16 §F2 (§F11.2 for a deep solid rectangle), from the member's own first-order
+major-axis moment diagram.
 
 What it reads (all from the solved result, SI):
 
@@ -43,9 +44,9 @@ Decisions, each on the safe side (DEVELOPERS.md, decisions log, issue 15):
   unknown; for a custom section ``missing`` names the case keys it lacks (``section.Iz``, ...).
 - Intermediate restraints (``restraints``, from :func:`engine.member_routes.ltb_restraints`) enter the exact
   :math:`M_{cr}` at the shear centre (lateral v, v') and as twist φ; a brace point (lateral and twist fixed)
-  splits the member into segments for the tabulated :math:`M_{cr}` and AISC §F2 (L_b, C_b per segment, the
-  worst governs); :math:`\chi_{LT}` uses the exact :math:`M_{cr}` of the whole member. A hinge in the plane
-  of minor-axis bending: not made (``lateral-hinge``).
+  splits the member into segments for the tabulated :math:`M_{cr}` and AISC §F2/§F11.2 (L_b, C_b per
+  segment, the worst governs); :math:`\chi_{LT}` uses the exact :math:`M_{cr}` of the whole member. A hinge
+  in the plane of minor-axis bending: not made (``lateral-hinge``).
 - A custom section (keys ``Iz``, ``It``, ``Iw``, ``doubly_symmetric: true``, :mod:`engine.custom_section`)
   is checked like a catalogue one with its values as given: no torsion factor, :math:`W_{el,y}` (it is not
   classified, and its cross-section check is the elastic one), §6.3.2.2 with the curve it names
@@ -78,6 +79,7 @@ SOURCES = (
     ltb.C1_SOURCE,
 )
 AISC_SOURCE = "AISC 360-16 §F1 eq. (F1-1), §F2 eqs. (F2-1)–(F2-7) (from memory)"
+AISC_SOURCE_F11 = "AISC 360-16 §F1 eq. (F1-1), §F11.2 eqs. (F11-1)–(F11-4) (from memory)"
 
 _DIAGRAM_CODES = {"point": "point-mid"}
 #: M_cr with N held from :class:`engine.design.mcr.HeldAxial` kept per member (equal to solving it afresh, bit
@@ -435,7 +437,7 @@ def check(
         else:
             M_tab, std, segment = _tabulated(xs, ms, length, segments, settings, (EI_z, GI_t, EI_w), z_g)
         aisc, cb_f1 = None, math.nan
-        if sy.shape in ("rolled_i", "welded_i"):
+        if sy.shape in ("rolled_i", "welded_i", "rectangle"):  # a rectangle here is a deep one (§F11.2)
             alpha_0 = M_cr_0 / M_Ed
             tip = None if not free_end else (0.0 if free_end == "left" else float(length))
             stiffness = (EI_z, GI_t, EI_w)
@@ -489,7 +491,7 @@ def check(
         mode_v=_unit(mode[1]) if mode else (),
         mode_phi=_unit(mode[2]) if mode else (),
         aisc=aisc,
-        sources=SOURCES + ((AISC_SOURCE,) if aisc is not None else ()),
+        sources=SOURCES + _aisc_source(aisc),
         M_cr_0=M_cr_0,
         N_Ed=N_held,
         I_t=I_t,
@@ -504,14 +506,21 @@ def check(
     )
 
 
+def _aisc_source(aisc) -> tuple:
+    """The source of the AISC part of the check: () where there is none, §F11.2 for a rectangular bar."""
+    if aisc is None:
+        return ()
+    return (AISC_SOURCE_F11 if aisc.clause == "F11" else AISC_SOURCE,)
+
+
 def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip=None):
-    """AISC 360-16 §F2 per unbraced segment (L_b its length, C_b of eq. (F1-1) from its own diagram), capped
-    by the exact elastic ratio α_cr,0·M_max,seg / M_cr,uniform(L_b, fork): a load on the top flange lowers
-    M_cr, which eq. (F1-1) does not see (AISC 360-16 Commentary to §F1 says to account for it; from memory).
-    The segment of the largest M_max,seg / M_n governs, and its M_n is the member's (the route divides the
-    member's largest moment by it: never less than that segment's own ratio)."""
-    dims = sy.dimensions
-    h_o = dims["h"] - dims["tf"]
+    """AISC 360-16 §F2 (an I section) or §F11.2 (a deep solid rectangle: d its depth, t its width) per
+    unbraced segment (L_b its length, C_b of eq. (F1-1) from its own diagram), capped by the exact elastic
+    ratio α_cr,0·M_max,seg / M_cr,uniform(L_b, fork): a load on the top flange lowers M_cr, which eq. (F1-1)
+    does not see (AISC 360-16 Commentary to §F1 says to account for it; from memory). The segment of the
+    largest M_max,seg / M_n governs, and its M_n is the member's (the route divides the member's largest
+    moment by it: never less than that segment's own ratio)."""
+    dims, bar = sy.dimensions, sy.shape == "rectangle"
     best = None
     for a, b in segments:
         sx, sm = (xs, ms) if len(segments) == 1 else _piece(xs, ms, a, b)
@@ -526,19 +535,16 @@ def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip=
             cb_f1 = 1.0
         uniform = ltb.mcr_c1(L_b, *stiffness, 1.0)
         cb = cb_f1 if not math.isfinite(alpha_0) else min(cb_f1, max(alpha_0 * M_max / uniform, 1e-6))
-        found = ltb.aisc_f2(
-            L_b=L_b,
-            E=material.E,
-            F_y=material.fy,
-            Z_x=sy.W_pl,
-            S_x=sy.W_el,
-            r_y=sz.i,
-            I_y=sz.I,
-            C_w=I_w,
-            J=I_t,
-            h_o=h_o,
-            C_b=cb,
-        )
+        common = dict(L_b=L_b, E=material.E, F_y=material.fy, Z_x=sy.W_pl, S_x=sy.W_el, C_b=cb)
+        if bar:
+            found = ltb.aisc_f11(d=sy.depth, t=sy.width, **common)
+            # Never above the exact elastic M_cr at the segment's peak: F11-4's 1.9 holds J ≈ dt³/3, too
+            # stiff for a stocky bar (a 2:1 bar's F11-4 lies 17 % above it)
+            exact = alpha_0 * M_max
+            if math.isfinite(exact) and found.M_n > exact:
+                found = dataclasses.replace(found, M_n=exact, zone="exact-cap")
+        else:
+            found = ltb.aisc_f2(r_y=sz.i, I_y=sz.I, C_w=I_w, J=I_t, h_o=dims["h"] - dims["tf"], **common)
         if best is None or M_max / found.M_n > best[0]:
             best = (M_max / found.M_n, found, cb_f1)
     return best[1], best[2]

@@ -37,7 +37,17 @@ only in their cautions and `ltb` cell); no utilisation fell and no capacity rose
 torsional buckling under N began to count (EN 1993-1-1 §6.3.1.4 in both EN routes, AISC §E4 in P_n): 7
 generated rows, only those lines rewritten: six AISC utilisations rose (M000139 0.242 → 0.349, the rest by
 under 2 %), M000109's capacity fell 2838 → 2555 kN (torsional buckling over its 6.47 m, warping free) and
-M000139 lost its routes-disagree note; no utilisation fell and no capacity rose. And a hypothesis-drawn
+M000139 lost its routes-disagree note; no utilisation fell and no capacity rose. Again at stop 32, when
+the aisc route's M_r of a member with an end that can translate began to hold AISC's 1/500 out-of-plumbness
+(§C2.2a): the example table's CT-01 (AISC 0.0981 → 0.1006) and 13 generated rows, each a cantilever, only in
+their AISC utilisation, every one higher (M000145 3.43 → 3.67); and when the elastic check began to take
+§6.2.8's shear reduction: two generated rows whose shear exceeds V_pl,Rd near a moment, already failing
+(M000128 14.6 → 589, M000112 43.9 → unbounded: no moment resistance is left); no utilisation fell and no
+capacity moved. And once more at stop 32, when a noncompact element's M_n on the aisc route began to follow
+its own chapter F clause instead of 0.7·F_y·S for every one: 23 generated rows, every one an HEA in S355 bent
+about its minor axis (flange b/2t of 10.7, just past λ_p = 9.2), only in their AISC utilisation, which fell as
+eq. (F6-2) gives (M000145 3.67 → 2.22, M000109 0.32 → 0.19), and two of them in their cautions (the routes now
+disagree); the headline, which does not count the aisc route there, and the capacity did not move. And a hypothesis-drawn
 table solved twice in this process, once as the product does it and once with the capacity finder as it was
 before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
 afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.

@@ -29,7 +29,7 @@ def test_the_general_caution_names_what_is_not_checked():
         "lateral-torsional buckling",
         "class 4",
         "connections",
-        "load combinations",
+        "loads are taken as given",  # a plain case's loads are design values: nothing combines them
     ):
         assert unchecked in GENERAL.message
     assert "(6.61)/(6.62)" not in GENERAL.message  # checked since issue 14 (the en-member route)

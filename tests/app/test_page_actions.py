@@ -128,3 +128,65 @@ def test_us_units_show_load_cases_in_kip(page):
     # 1 kip = 4448.2216152605 N (1 lbf = 4.4482216152605 N exactly, NIST SP 811 Appendix B)
     assert block.axial.widget.value == pytest.approx(240e3 / 4448.2216152605, rel=1e-5)
     assert "kN" not in page.governing.pane.object
+
+
+def test_a_combination_chosen_is_shown_and_exported_whole(page):
+    """Choosing U1 (not the governing U2): the values, the cautions, the sketch and every export hold U1's
+    result, each saying that U2 governs; the files never hold a combination other than the one on screen."""
+    from app.exports.table import csv_text
+    from app.sketch import Text, sketch
+    from app.state_actions import view_result
+    from app.units import units
+
+    state = page.model
+    actions = state.result.actions
+    assert actions.headline == "U2"
+    governing_csv = page.files.csv().getvalue()
+    governing_sketch = list(page.diagrams.sketch.text.data["text"])
+    page.combination_bar.picker.value = "U1"
+    item = actions.of("U1")
+    shown = view_result(state)
+    assert float(shown.utilization) == float(item.result.utilization)
+    assert shown.actions is actions
+    # the right column: U1's values under a note that U2 governs
+    table = page.values.table.object
+    assert "Combination U1 is shown: it is not the governing combination" in table
+    assert "combination U2" in table
+    # the sketch draws U1's loads (one load case fewer than U2's two)
+    expected = {s.text for s in sketch(shown, units("si")).shapes if isinstance(s, Text)}
+    drawn = list(page.diagrams.sketch.text.data["text"])
+    assert drawn != governing_sketch
+    assert drawn and set(drawn) <= expected
+    # the CSV: U1's stations and the note; the same text as exporting U1's result directly
+    text = page.files.csv().getvalue()
+    assert text != governing_csv
+    assert text == csv_text(shown, units="si")
+    assert "combination shown,U1," in text.replace('"', "")
+    assert "not the governing combination" in text
+    assert page.files.csv_button.filename != "" and "294" not in page.files.csv_button.filename
+    # back to the governing one: the state's own result, no note
+    page.combination_bar.picker.value = ""
+    assert view_result(state) is state.result
+    assert "not the governing combination" not in page.values.table.object
+    assert page.files.csv().getvalue() == governing_csv
+
+
+def test_choosing_the_governing_combination_by_name_is_the_headline(page):
+    from app.state_actions import view_result
+
+    page.combination_bar.picker.value = "U2"
+    assert view_result(page.model) is page.model.result
+    assert "not the governing combination" not in page.values.table.object
+
+
+def test_the_calc_sheet_of_a_chosen_combination_says_it_does_not_govern(page):
+    import io
+
+    from pypdf import PdfReader
+
+    page.combination_bar.picker.value = "U3"
+    pdf = page.files.pdf().getvalue()
+    text = " ".join((p.extract_text() or "") for p in PdfReader(io.BytesIO(pdf)).pages)
+    flat = " ".join(text.split())
+    assert "Combination U3 is shown: it is not the governing combination" in flat
+    assert "those of combination U2" in flat

@@ -24,9 +24,11 @@ from app.report import format_summary
 # SI unit tokens that must not appear in US output, and the reverse. "m" alone only after a number (a word
 # such as "member" is no unit); "mrad" is the rotation unit of both systems.
 SI_TOKENS = re.compile(
-    r"(?<![\w·/])(kN|kN·m|kN/m|kN·m²|MPa|GPa|mm|cm|cm²|cm⁴|N·m)(?![\w])|\d\s?m(?![\w²³⁴/·])|\[m\]"
+    r"(?<![\w·/])(kN|kN·m|kN/m|kN·m²|MPa|GPa|mm|cm|cm²|cm⁴|N·m|kg/m³)(?![\w])|\d\s?m(?![\w²³⁴/·])|\[m\]"
 )
-US_TOKENS = re.compile(r"(?<![\w·/])(kip|kips|kip·ft|kip/ft|ksi|ft|lbf|in²|in⁴)(?![\w])|\d\s?in\b|\[in\]")
+US_TOKENS = re.compile(
+    r"(?<![\w·/])(kip|kips|kip·ft|kip/ft|ksi|ft|lbf|in²|in⁴|lb/ft³)(?![\w])|\d\s?in\b|\[in\]"
+)
 FORBIDDEN = {"us": SI_TOKENS, "si": US_TOKENS}
 
 
@@ -71,6 +73,11 @@ CASES = {
         "check": {"method": "elastic", "deflection_limit": 1000},
     },
     "beyond the first critical load": {"axial_force": 4000e3},
+    # A parametric section (its name is its size) and an ASTM steel (its source quotes a density).
+    "parametric RHS, ASTM steel": {
+        "section": {"shape": "rhs", "h": 0.2, "b": 0.1, "t": 0.008, "manufacture": "cold-formed"},
+        "material": {"name": "ASTM A36"},
+    },
 }
 
 
@@ -183,3 +190,44 @@ def test_page_text_speaks_one_system(solved, system):
     text = html.unescape(re.sub(r"<[^>]+>", " ", " ".join(str(pane.object) for pane in panes)))
     assert "kN" in text or system == "us"  # the scan reads real values, not an empty page
     assert _offending(text, system) == []
+
+
+@pytest.mark.parametrize(
+    ("spec", "si", "us"),
+    [
+        (
+            {"shape": "rhs", "h": 0.2, "b": 0.1, "t": 0.008, "manufacture": "cold-formed"},
+            "RHS 200×100×8 mm cold-formed",
+            "RHS 7.874×3.937×0.315 in cold-formed",
+        ),
+        ({"shape": "rectangle", "b": 0.02, "h": 0.2}, "rectangle 20×200 mm", "rectangle 0.7874×7.874 in"),
+        (
+            {"shape": "chs", "D": 0.1143, "t": 0.005},
+            "CHS 114.3×5 mm cold-formed",
+            "CHS 4.5×0.1969 in cold-formed",
+        ),
+        ({"name": "SHS 100x100x5"}, "SHS 100x100x5", "SHS 100x100x5"),
+    ],
+)
+def test_a_parametric_section_is_named_in_the_units_shown(spec, si, us):
+    """A section given by its dimensions is named in mm on an SI page and in inches on a US one (it was named
+    in millimetres without a unit, a US sheet then mixing the two); a catalogue name stays as written.
+    1 in = 25.4 mm exactly."""
+    from app.report.section_names import section_name
+    from app.units import units
+    from engine.sections import section_from_spec
+
+    section = section_from_spec(spec)
+    assert section_name(section, units("si")) == si
+    assert section_name(section, units("us")) == us
+
+
+def test_a_density_quoted_by_a_source_is_in_the_units_shown():
+    """7850 kg/m³ is 490.1 lb/ft³ (1 lb = 0.45359237 kg, 1 ft = 0.3048 m, exact definitions)."""
+    from app.report import quoted_text
+    from app.units import units
+
+    assert quoted_text("density 7850 kg/m³: common practice", units("us")) == (
+        "density 490.1 lb/ft³: common practice"
+    )
+    assert quoted_text("density 7850 kg/m³", units("si")) == "density 7850 kg/m³"

@@ -186,3 +186,43 @@ def test_typing_n_scales_the_shown_combination(app):
     assert case["actions"][0]["axial_force"] == pytest.approx(360e3)
     assert case["actions"][1]["axial_force"] == pytest.approx(-30e3)
     assert case["actions"][1]["loads"] == json.loads(DEMO.read_text("utf-8"))["actions"][1]["loads"]
+
+
+def _label(name: str) -> str:
+    """The picker's label of combination `name` (the page's own wording, app.page.actions)."""
+    import engine
+    from app.page.actions import choice_options
+
+    result = engine.solve(engine.Case.from_dict(json.loads(DEMO.read_text("utf-8"))))
+    return next(label for label, value in choice_options(result).items() if value == name)
+
+
+def test_a_combination_picked_is_said_not_to_govern_and_reopens_from_a_copied_link(browser, server, app):
+    """Picking U1 (U2 governs): the right column says, in view and uncovered, that U1 is shown and does not
+    govern; the address and the copied link carry it, and the link opened afresh shows U1 again."""
+    page = app.page
+    page.context.grant_permissions(["clipboard-read", "clipboard-write"], origin=server.url.rstrip("/"))
+    label = _label("U1")
+    page.get_by_label("Combination shown").select_option(label=label)
+    note = page.locator(".ss-other-combination")
+    expect(note).to_contain_text("Combination U1 is shown: it is not the governing combination")
+    expect(note).to_contain_text(f"those of combination {GOVERNING}")
+    expect(note).to_be_visible()
+    assert _uncovered(page, note)
+    page.wait_for_url(re.compile(r"shown=U1"))
+    page.get_by_role("button", name="Copy link").click()
+    expect(page.get_by_role("button", name="Link copied")).to_be_visible()
+    link = page.evaluate("() => navigator.clipboard.readText()")
+    assert urllib.parse.parse_qs(urllib.parse.urlparse(link).query)["shown"] == ["U1"]
+    other = browser.new_context(viewport=VIEWPORT)
+    try:
+        other.set_default_timeout(TIMEOUT_MS)
+        again = open_page(other, link).page
+        expect(again.locator(".ss-other-combination")).to_contain_text("Combination U1 is shown")
+        expect(again.get_by_label("Combination shown")).to_have_value(re.compile(".+"))
+        shown = again.get_by_label("Combination shown").evaluate("s => s.options[s.selectedIndex].text")
+        assert shown == label
+    finally:
+        other.close()
+    page.get_by_label("Combination shown").select_option(label=f"governing ({GOVERNING})")
+    expect(page.locator(".ss-other-combination")).to_have_count(0)

@@ -149,22 +149,23 @@ CLOSED_FORMS = {
     "uniform load": (
         PINNED,
         [{"type": "uniform", "q": 2e3}],
-        lambda k, L: 2e3 / k**2 * (1 / math.cos(k * L / 2) - 1),
+        lambda k, L, N: 2e3 / k**2 * (1 / math.cos(k * L / 2) - 1),
     ),
     "central point load": (
         PINNED,
         [{"type": "point", "P": 5e3, "x": 3.0}],
-        lambda k, L: 5e3 / (2 * k) * math.tan(k * L / 2),
+        lambda k, L, N: 5e3 / (2 * k) * math.tan(k * L / 2),
     ),
     "equal end moments": (
         PINNED,
         [{"type": "couple", "C": 1e4, "x": 0.0}, {"type": "couple", "C": -1e4, "x": 6.0}],
-        lambda k, L: 1e4 / math.cos(k * L / 2),
+        lambda k, L, N: 1e4 / math.cos(k * L / 2),
     ),
     "cantilever, tip load": (
         CANTILEVER,
         [{"type": "point", "P": 1e3, "x": 6.0}],
-        lambda k, L: 1e3 * math.tan(k * L) / k,
+        # out of plumb by 1/500 (AISC §C2.2a): the notional load N/500 at the tip beside the 1 kN
+        lambda k, L, N: (1e3 + N / 500) * math.tan(k * L) / k,
     ),
 }
 
@@ -196,7 +197,7 @@ def test_aisc_M_r_is_the_moment_at_alpha_times_N(method, kind, fraction):
     result, route = _aisc(supports, loads, N, method)
     alpha = 1.6 if method == "ASD" else 1.0
     k = math.sqrt(alpha * N / result.EI)
-    assert route.facts["M_r_y"] == pytest.approx(closed(k, 6.0), rel=1e-9)
+    assert route.facts["M_r_y"] == pytest.approx(closed(k, 6.0, N), rel=1e-9)
 
 
 def test_asd_buckles_at_n_cr_over_1_6():
@@ -244,20 +245,59 @@ def test_asd_moment_of_both_planes():
         assert route.facts[key] == pytest.approx(q / k**2 * (1 / math.cos(3.0 * k) - 1), rel=1e-9)
 
 
-@pytest.mark.parametrize(
-    ("supports", "said"),
-    [
-        (CANTILEVER, True),
-        ({"left": "fixed", "right": "guided"}, True),
-        (PINNED, False),
-        ({"left": "fixed", "right": "pinned"}, False),
-    ],
-)
-def test_aisc_route_says_the_out_of_plumbness_is_not_in_M_r(supports, said):
-    """A member with an end that can translate gets the warning that §C2.2's notional load is not in M_r
-    (common practice, no source: the route's M_r has no sway imperfection); a member held at both ends not."""
-    route = _aisc(supports, [{"type": "uniform", "q": 1e3}], 100e3, "LRFD")[1]
-    assert ("aisc-out-of-plumb-not-in-Mr" in route.notes) == said
+GUIDED = {"left": "fixed", "right": "guided"}
+
+
+@pytest.mark.parametrize("H", [2e3, -2e3])
+@pytest.mark.parametrize("fraction", [0.1, 0.4, 0.55])
+@pytest.mark.parametrize("method", ["ASD", "LRFD"])
+@pytest.mark.parametrize("supports", ["cantilever", "guided"])
+def test_aisc_M_r_holds_the_out_of_plumbness(supports, method, fraction, H):
+    """A member with an end that can translate: M_r is the exact moment with the notional load 0.002·N
+    (AISC 360-16 §C2.2a, from memory) beside the tip load H, the worse way. A straight tilt is a transverse
+    force N·φ at the moving end, so the cantilever has (H + Nφ)·tan(kL)/k and the member fixed at its base and
+    guided at its top (H + Nφ)·tan(kL/2)/k (Timoshenko & Gere 1961 §1.11 and §2.2, from memory). ASD solves at
+    1.6·N with 1.6 × the notional load and divides by 1.6: k = √(1.6N/EI), the same H + Nφ."""
+    ends, half = (CANTILEVER, 1.0) if supports == "cantilever" else (GUIDED, 0.5)
+    loads = [{"type": "point", "P": H, "x": 6.0}]
+    first, _ = _aisc(ends, loads, 1e3, method)
+    N = fraction * float(first.critical_loads[0])
+    result, route = _aisc(ends, loads, N, method)
+    alpha = 1.6 if method == "ASD" else 1.0
+    k = math.sqrt(alpha * N / result.EI)
+    expected = (abs(H) + N / 500.0) * math.tan(k * 6.0 * half) / k
+    assert route.facts["M_r_y"] == pytest.approx(expected, rel=1e-9)
+    assert "aisc-out-of-plumb-in-Mr" in route.notes
+
+
+@pytest.mark.parametrize("supports", [PINNED, {"left": "fixed", "right": "pinned"}])
+def test_aisc_M_r_of_a_member_held_at_both_ends_has_no_out_of_plumbness(supports):
+    """Both ends held against translation: no sway, no notional load (the bow-free moment alone)."""
+    result, route = _aisc(supports, [{"type": "uniform", "q": 1e3}], 100e3, "LRFD")
+    assert result.amplification.moment_out_of_plumb is None
+    assert "aisc-out-of-plumb-in-Mr" not in route.notes
+
+
+def test_aisc_out_of_plumb_audit_case():
+    """The audit's W10x49 cantilever, 14 ft, 170 kip and 1 kip at the tip (LRFD): M_r = (1 + 0.34) kip ×
+    tan(kL)/k; it read 0.910 of the bow-free moment's H1-1a before (without the notional load)."""
+    ft, kip = 0.3048, 4448.2216152605
+    loads = [{"type": "point", "P": 1.0 * kip, "x": 14 * ft}]
+    data = {
+        "schema": 1,
+        "length": 14 * ft,
+        "supports": CANTILEVER,
+        "axial_force": 170 * kip,
+        "loads": loads,
+        "section": {"name": "W10x49"},
+        "material": {"name": "ASTM A992"},
+        "out_of_plane": {"restrained": True},
+        "check": {"routes": ["aisc"], "aisc_method": "LRFD", "ltb": {"restrained": True}},
+    }
+    result = engine.solve(engine.Case.from_dict(data))
+    route = next(r for r in result.routes if r.route == "aisc")
+    k = math.sqrt(170 * kip / result.EI)
+    assert route.facts["M_r_y"] == pytest.approx((1.34 * kip) * math.tan(k * 14 * ft) / k, rel=1e-9)
 
 
 def test_asd_moment_of_a_route_shown_but_not_counted():
@@ -280,3 +320,19 @@ def test_asd_moment_of_a_route_shown_but_not_counted():
     k = math.sqrt(1.6 * 800e3 / result.EI)
     assert not route.enabled
     assert route.facts["M_r_y"] == pytest.approx(1e4 / math.cos(3.0 * k), rel=1e-9)
+
+
+@pytest.mark.parametrize("method", ["LRFD", "ASD"])
+@pytest.mark.parametrize("fraction", [0.2, 0.3, 0.45])
+def test_aisc_route_warns_past_appendix_7s_drift_ratio(method, fraction):
+    """AISC 360-16 Appendix 7 §7.2.1 (from memory): the effective length method only while the second-order
+    drift is at most 1.5 × the first-order one; a cantilever's tip drift grows about as 1/(1 − αN/N_cr), past
+    1.5 at αN > N_cr/3 (α = 1.6 for ASD)."""
+    loads = [{"type": "point", "P": 2e3, "x": 6.0}]
+    first, _ = _aisc(CANTILEVER, loads, 1e3, method)
+    N_cr = float(first.critical_loads[0])
+    _, route = _aisc(CANTILEVER, loads, fraction * N_cr, method)
+    alpha = 1.6 if method == "ASD" else 1.0
+    ratio = 1.0 / (1.0 - alpha * fraction) if alpha * fraction < 1 else math.inf
+    assert route.facts["drift_ratio"] == pytest.approx(ratio, rel=1e-9)
+    assert ("aisc-elm-drift-limit" in route.notes) == (ratio > 1.5)
