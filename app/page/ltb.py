@@ -25,6 +25,7 @@ from bokeh.plotting import figure
 from app.page.style import CSS, SECOND, TRANSVERSE, WIDGET_CSS, esc, finite, html_pane
 from app.report.ltb import LOAD_POSITION_LABELS, ltb_of, ltb_words
 from app.state import MemberState
+from app.state_actions import view_result
 from app.state_ltb import CHI_METHODS, LATERAL_ENDS, LOAD_POSITIONS, WARPING_ENDS
 from app.units import units
 
@@ -223,7 +224,7 @@ class LtbView(pn.viewable.Viewer):
             margin=0,
             scroll=True,
         )
-        state.param.watch(lambda *_: self.draw(), ["result", "units", "errors"])
+        state.param.watch(lambda *_: self.draw(), ["result", "units", "errors", "combination_choice"])
         self.draw()
 
     def __panel__(self):
@@ -264,11 +265,12 @@ class LtbView(pn.viewable.Viewer):
         self.figure = plot
 
     def draw(self) -> None:
-        """Word the check and draw its mode in the page's units; dimmed while the inputs are refused."""
+        """Word the check and draw its mode in the page's units (with load cases, the combination shown's);
+        dimmed while the inputs are refused."""
         state = self.state
-        result = state.result
-        if result is None:
+        if state.result is None:
             return
+        result = view_result(state)
         U = units(state.units)
         text = ltb_html(result, U)
         if state.errors:

@@ -33,6 +33,7 @@ from app.report.routes import (
     route_rows,
 )
 from app.state import MemberState
+from app.state_actions import view_result
 from app.units import units
 
 __all__ = ["RoutesChart", "RoutesView", "planes_text", "routes_html"]
@@ -94,15 +95,16 @@ class RoutesView(pn.viewable.Viewer):
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
         self.block = html_pane(margin=(2, 4, 4, 4), css_classes=["ss-routes-block"])
-        state.param.watch(lambda *_: self.draw(), ["result", "units", "errors"])
+        state.param.watch(lambda *_: self.draw(), ["result", "units", "errors", "combination_choice"])
         self.draw()
 
     def __panel__(self):
         return self.block
 
     def draw(self) -> None:
-        """Word the result's routes in the page's units; dimmed while the inputs are refused."""
-        result = self.state.result
+        """Word the result's routes in the page's units (with load cases, the combination shown's); dimmed
+        while the inputs are refused."""
+        result = view_result(self.state) if self.state.result is not None else None
         if result is None:
             return
         text = routes_html(result, units(self.state.units))

@@ -152,6 +152,11 @@ def test_a_combination_chosen_is_shown_and_exported_whole(page):
     table = page.values.table.object
     assert "Combination U1 is shown: it is not the governing combination" in table
     assert "combination U2" in table
+    # the routes beside the values are U1's
+    from app.page.routes import routes_html
+
+    assert page.routes.block.object == routes_html(shown, units("si"))
+    assert page.routes.block.object != routes_html(state.result, units("si"))
     # the sketch draws U1's loads (one load case fewer than U2's two)
     expected = {s.text for s in sketch(shown, units("si")).shapes if isinstance(s, Text)}
     drawn = list(page.diagrams.sketch.text.data["text"])
