@@ -2,7 +2,8 @@
 equation from memory): §F3.2 eq. (F3-1) for an I flange about the major axis, §F6.2 eq. (F6-2) about the
 minor, §F7.2 eq. (F7-2) and §F7.3 eq. (F7-6) for a rectangular HSS flange and web, §F8.2 eq. (F8-2) for a
 round HSS; a noncompact I web keeps 0.7·F_y·S (§F4 is not made: the lowest value it reaches). The route had
-0.7·F_y·S for every noncompact element, on the safe side but 35 % low for a W14x90 about its minor axis.
+0.7·F_y·S for every noncompact element, on the safe side but 35 % below the Manual for a W14x90 about its
+major axis and half of eq. (F6-2)'s value about its minor.
 
 Check value: AISC Steel Construction Manual (15th ed.) Table 3-2, W14x90 (F_y = 50 ksi): φ_b·M_px = 574
 kip·ft, reduced from φ_b·F_y·Z_x = 589 kip·ft by flange local buckling (from memory). Members are invented.
