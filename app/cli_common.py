@@ -20,9 +20,17 @@ from app.safe_text import terminal
 CAUTION = (
     "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
     "torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution "
-    "says so, web shear buckling and connections are not checked, and the loads are taken as given "
-    "(combined only where the case gives its load cases). Check the results "
+    "says so, web shear buckling, "
+    "connections and load combinations are not checked. Check the results "
     "against your local codes and have them reviewed by a licensed engineer."
+)
+
+#: The general caution is a plain case's (its loads are taken as given); --help says what a case with load
+#: cases gets, whose summaries print its own scope (engine.envelope.SCOPE).
+COMBINED = (
+    'A case with load cases ("actions") is combined, each combination solved whole (EN 1990 or ASCE 7 '
+    "rules with recommended factors recalled from memory, a National Annex may change them; or a table of "
+    "your own)."
 )
 
 #: The invented demo case, package data of :mod:`assets`.
@@ -73,6 +81,7 @@ def _version() -> str:
 def _epilog(*examples: str) -> str:
     lines = ["examples:", *(f"  {example}" for example in examples), ""]
     lines.extend(textwrap.wrap(CAUTION, width=100))
+    lines.extend(textwrap.wrap(COMBINED, width=100))
     return "\n".join(lines)
 
 

@@ -4,25 +4,37 @@
 unit of the page's unit system, rounded to six significant figures (19.685 ft, not 19.685039), and writes
 what the user types back in SI. A value the field itself shows is never written back: an edit is written
 only when it differs from the rounded display of the state's value, so no flag is needed to tell the page's
-own updates from the user's.
+own updates from the user's. Its box is a :class:`app.page.number_text.NumberText`: the text typed is read
+on the server, and a text that is not a number ("6,5") reaches the state as an ``Unread``, for the engine to
+refuse and the page to quote.
 
 :class:`ErrorPanes` holds the panes that show the engine's message for a field, each beside its input, in
-the page's words for the field ("Load 2, position", not ``loads[1].x``).
+the page's words and units (:mod:`app.page.messages`: "Load 2, position", not ``loads[1].x``).
 """
 
 from __future__ import annotations
 
 import math
-import re
 from collections.abc import Callable
 
 import panel as pn
 
+from app.page.messages import INNER_ROWS, field_words, page_message, shown_message, state_message
+from app.page.number_text import NumberText, Unread, same_value
 from app.page.style import CSS, WIDGET_CSS, esc
-from app.report import quoted_text
 from app.units import Unit, units
 
-__all__ = ["ErrorPanes", "UnitNumber", "field_words", "rounded", "shown_message", "unit_for"]
+__all__ = [
+    "INNER_ROWS",
+    "ErrorPanes",
+    "UnitNumber",
+    "field_words",
+    "page_message",
+    "rounded",
+    "shown_message",
+    "si_value",
+    "unit_for",
+]
 
 #: Significant figures of a number shown in a field.
 SHOWN_DIGITS = 6
@@ -33,6 +45,13 @@ def rounded(value: float | None) -> float | None:
     if value is None or not math.isfinite(value) or value == 0:
         return value
     return float(f"{value:.{SHOWN_DIGITS}g}")
+
+
+def si_value(value: float | None, unit: Unit | None) -> float | None:
+    """A number typed in `unit` in SI; None (an emptied field) and an Unread text as they are."""
+    if value is None or unit is None or isinstance(value, Unread):
+        return value
+    return unit.to_si(value)
 
 
 def unit_for(system: str, kind: str | None) -> Unit | None:
@@ -73,8 +92,7 @@ class UnitNumber:
         self.text, self.kind = text, kind
         self._get, self._put, self._system = get, put, system
         widget_params.setdefault("stylesheets", [WIDGET_CSS])
-        widget_params.setdefault("format", "0[.][000000]")
-        self.widget = pn.widgets.FloatInput(label=self.label(), value=None, **widget_params)
+        self.widget = NumberText(label=self.label(), value=None, **widget_params)
         self.widget.param.watch(self._typed, "value")
         self.show()
 
@@ -89,8 +107,10 @@ class UnitNumber:
         return self.text if unit is None else f"{self.text} [{unit.label}]"
 
     def shown(self) -> float | None:
-        """The state's value as this field shows it: display units, rounded."""
+        """The state's value as this field shows it: display units, rounded (a text not read as typed)."""
         value = self._get()
+        if isinstance(value, Unread):
+            return value
         if value is None or isinstance(value, str):
             return None
         unit = self.unit
@@ -102,149 +122,13 @@ class UnitNumber:
         if self.widget.label != label:
             self.widget.label = label
         shown = self.shown()
-        if shown != self.widget.value:
+        if not same_value(shown, self.widget.value):
             self.widget.value = shown
 
     def _typed(self, event) -> None:
-        if event.new == self.shown():
+        if same_value(event.new, self.shown()):
             return  # this field's own display, or an edit that changes nothing
-        unit = self.unit
-        value = event.new
-        if value is not None and unit is not None:
-            value = unit.to_si(value)
-        self._put(value)
-
-
-# The page's names of the case's fields, for the engine's messages (which name the case file's paths).
-_FIELD_WORDS = {
-    "title": "Case title",
-    "length": "Span L",
-    "axial_force": "Axial force N",
-    "EI": "EI",
-    "stiffness_factor": "Factor on EI",
-    "axis": "Bending axis",
-    "supports.left": "Left end",
-    "supports.right": "Right end",
-    "supports": "Supports",
-    "section": "Section",
-    "material": "Material",
-    "imperfection": "Initial bow",
-    "check": "Check",
-    "out_of_plane": "Out of plane",
-    "loads": "Loads",
-    "second_plane": "Second plane",
-    "second_plane.supports.left": "Second plane, left end",
-    "second_plane.supports.right": "Second plane, right end",
-    "second_plane.loads": "Second plane, loads",
-    "restraints": "Restraints",
-    "steps": "Steps in EI",
-    "foundation": "Foundation",
-}
-_LOAD_FIELD_WORDS = {
-    "x": "position",
-    "P": "force F",
-    "C": "couple C",
-    "q": "q",
-    "q_start": "q start",
-    "q_end": "q end",
-    "start": "from",
-    "end": "to",
-    "type": "type",
-}
-_LOAD_PATH = re.compile(r"^(?:second_plane\.)?loads\[(\d+)\](?:\.(\w+))?$")
-#: A row of the member's inside (engine issue 16): ``restraints[0].x``, ``steps[1].EI``, ``foundation[0].k``.
-_INNER_PATH = re.compile(r"^(restraints|steps|foundation)\[(\d+)\](?:\.(\w+)(?:\.[\w.\[\]]+)?)?$")
-#: The page's name of a row of each list (its heading, and its messages).
-INNER_ROWS = {"restraints": "Restraint", "steps": "Step", "foundation": "Foundation"}
-_INNER_FIELD_WORDS = {
-    "x": "at x",
-    "translation": "translation",
-    "rotation": "rotation",
-    "hinge": "hinge",
-    "plane": "plane",
-    "EI": "EI",
-    "section": "section",
-    "start": "from",
-    "end": "to",
-    "k": "modulus k",
-}
-#: A load case's field (issue 17): ``actions[1].axial_force``, ``actions[0].loads[2].x``.
-_ACTION_PATH = re.compile(r"^actions\[(\d+)\](?:\.loads\[(\d+)\])?(?:\.(\w+))?$")
-
-
-def field_words(path: str) -> str:
-    """The page's name for a field path of the engine: ``loads[1].x`` is "Load 2, position"."""
-    match = _ACTION_PATH.match(path)
-    if match:
-        words = f"Load case {int(match.group(1)) + 1}"
-        if match.group(2) is not None:
-            words += f", load {int(match.group(2)) + 1}"
-        key = match.group(3)
-        return words if key is None else f"{words}, {_LOAD_FIELD_WORDS.get(key, key.replace('_', ' '))}"
-    match = _INNER_PATH.match(path)
-    if match:
-        words = f"{INNER_ROWS[match.group(1)]} {int(match.group(2)) + 1}"
-        key = match.group(3)
-        return words if key is None else f"{words}, {_INNER_FIELD_WORDS.get(key, key)}"
-    match = _LOAD_PATH.match(path)
-    if match:
-        plane = "Second plane, load" if path.startswith("second_plane.") else "Load"
-        words = f"{plane} {int(match.group(1)) + 1}"
-        key = match.group(2)
-        return words if key is None else f"{words}, {_LOAD_FIELD_WORDS.get(key, key)}"
-    if path in _FIELD_WORDS:
-        return _FIELD_WORDS[path]
-    head, _, rest = path.partition(".")
-    if head in _FIELD_WORDS and rest:
-        return f"{_FIELD_WORDS[head]}, {rest.replace('_', ' ')}"
-    return path
-
-
-def page_message(message: str) -> str:
-    """The engine's message with its field path replaced by the page's name for the field."""
-    head, sep, rest = message.partition(":")
-    if not sep or " " in head.strip() or head.strip() in ("case", "upload", "link"):
-        return message
-    return f"{field_words(head.strip())}:{rest}"
-
-
-#: A range whose unit the engine writes once, after its upper end: ">= 0.001 and <= 1000 m", "0 to 6 m".
-_RANGE = re.compile(
-    r"(?<![\w.])(-?\d+(?:\.\d+)?)( and [<>]=? | to )(-?\d+(?:\.\d+)?) (mm|MPa|kN·m|kN|m)(?![\w²³⁴·/])"
-)
-
-
-#: The engine's foundation modulus in a message, N/m² (a range's unit written once, after its upper end).
-_NUMBER = r"-?\d+(?:\.\d+)?(?:e[+-]?\d+)?"
-_MODULUS_RANGE = re.compile(rf"(?<![\w.])({_NUMBER})( and [<>]=? | to )({_NUMBER}) N/m²")
-_MODULUS = re.compile(rf"(?<![\w.])({_NUMBER}) N/m²")
-
-
-def shown_message(message: str, system: str) -> str:
-    """The engine's message as the page shows it: the page's name for the field, and in US units the
-    engine's SI lengths, forces and moments in the page's units (the value and range as the user typed).
-    A foundation modulus (the engine's N/m²) is shown in the page's unit of it in both systems, kN/m² or
-    kip/in², as its field takes it.
-
-    A range's unit is written after both ends first, so that its lower end is converted too (">= 0.001 and
-    <= 1000 m" is never shown as ">= 0.001 and <= 3281 ft").
-    """
-    U = units(system)
-    text = page_message(message)
-    if U.system != "si":
-        text = _RANGE.sub(r"\1 \4\2\3 \4", text)
-    text = _MODULUS_RANGE.sub(r"\1 N/m²\2\3 N/m²", text)
-    text = _MODULUS.sub(lambda match: _modulus_text(U, float(match.group(1))), text)
-    return quoted_text(text, U)
-
-
-def _modulus_text(U, value_si: float) -> str:
-    """A foundation modulus [N/m²] of a message in the page's unit; a small one to four figures, never 0."""
-    unit = U.unit("foundation_modulus")
-    shown = value_si * unit.factor
-    if shown != 0.0 and abs(shown) < 1e-3:
-        return f"{shown:.4g} {unit.label}"
-    return U.show("foundation_modulus", value_si)
+        self._put(si_value(event.new, self.unit))
 
 
 class ErrorPanes:
@@ -274,7 +158,7 @@ class ErrorPanes:
                 message = next((errors[p] for p in prefixes if p in errors), "")
             else:
                 message = self.state.error_for(*prefixes)
-            said = shown_message(message, self.state.units) if message else ""
+            said = state_message(self.state, message) if message else ""
             text = f"<div class='ss-error'>{esc(said)}</div>" if message else ""
             if pane.object != text:
                 pane.object = text

@@ -15,7 +15,8 @@ import numpy as np
 import panel as pn
 import param
 
-from app.page.fields import ErrorPanes, rounded
+from app.page.fields import ErrorPanes, rounded, si_value
+from app.page.number_text import NumberText, Unread, same_value
 from app.page.style import SECOND, WIDGET_CSS, esc, html_pane
 from app.page.words import ratio_text
 from app.state import MemberState
@@ -79,8 +80,8 @@ class ForceControl(pn.viewable.Viewer):
         )
         self.slider.param.watch(self._slid, "value")
         self.slider.param.watch(self._released, "value_throttled")
-        self.entry = pn.widgets.FloatInput(
-            label="N", value=None, width=98, format="0[.][000]", stylesheets=[WIDGET_CSS], margin=(2, 4, 0, 4)
+        self.entry = NumberText(
+            label="N", value=None, width=98, stylesheets=[WIDGET_CSS], margin=(2, 4, 0, 4)
         )
         self.entry.param.watch(self._typed, "value")
         self.readout = html_pane(width=250, margin=(2, 2, 0, 4))
@@ -142,14 +143,15 @@ class ForceControl(pn.viewable.Viewer):
         self.state.settle()
 
     def _typed(self, event) -> None:
-        U = units(self.state.units)
-        if event.new == self._shown(self.state.axial_force):
+        if same_value(event.new, self._shown(self.state.axial_force)):
             return
-        self.state.axial_force = None if event.new is None else U.force.to_si(event.new)
+        self.state.axial_force = si_value(event.new, units(self.state.units).force)
         self.state.settle()
 
     def _shown(self, force):
-        return None if force is None else rounded(units(self.state.units).force.from_si(force))
+        if force is None or isinstance(force, Unread):
+            return force
+        return rounded(units(self.state.units).force.from_si(force))
 
     # ------------------------------------------------------------------ state → widgets
 
@@ -166,7 +168,7 @@ class ForceControl(pn.viewable.Viewer):
         if not math.isclose(self.slider.value, position, abs_tol=0.5 / _STEPS):
             self.slider.value = position
         shown = self._shown(force)
-        if self.entry.value != shown:
+        if not same_value(self.entry.value, shown):
             self.entry.value = shown
 
     def show(self) -> None:

@@ -82,7 +82,7 @@ class InputsView(pn.viewable.Viewer):
 
     def _number(
         self, name: str, text: str, kind: str | None, width: int = 130, **params
-    ) -> pn.widgets.FloatInput:
+    ) -> pn.widgets.TextInput:
         field = UnitNumber(
             text,
             kind,

@@ -18,11 +18,12 @@ from app.page.actions import CombinationBar, GoverningView, LoadCasesView
 from app.page.amplification import AmplificationView
 from app.page.combination_views import EnvelopeBand, SuperpositionView
 from app.page.diagrams import DiagramsView
-from app.page.fields import ErrorPanes, shown_message
+from app.page.fields import ErrorPanes
 from app.page.files import FilesView
 from app.page.force import ForceControl
 from app.page.inputs import InputsView
 from app.page.ltb import LtbView
+from app.page.messages import state_message
 from app.page.modes import ModesView
 from app.page.results import CautionsView, ValuesView
 from app.page.routes import RoutesChart, RoutesView
@@ -279,7 +280,7 @@ class MemberPage(pn.viewable.Viewer):
                 self.header_title.object = f"<div class='ss-title'>{esc(title)}</div>"
             self.errors.show()
             if state.errors:
-                message = shown_message(next(iter(state.errors.values())), state.units)
+                message = state_message(state, next(iter(state.errors.values())))
                 self.stale.object = (
                     "<div class='ss-error ss-stale-banner'><b>Input not accepted — the plots and values show "
                     f"the last good result (last valid case).</b> {esc(message)}</div>"

@@ -47,10 +47,11 @@ capacity moved. And once more at stop 32, when a noncompact element's M_n on the
 its own chapter F clause instead of 0.7·F_y·S for every one: 23 generated rows, every one an HEA in S355 bent
 about its minor axis (flange b/2t of 10.7, just past λ_p = 9.2), only in their AISC utilisation, which fell as
 eq. (F6-2) gives (M000145 3.67 → 2.22, M000109 0.32 → 0.19), and two of them in their cautions (the routes now
-disagree); the headline, which does not count the aisc route there, and the capacity did not move. And a hypothesis-drawn
-table solved twice in this process, once as the product does it and once with the capacity finder as it was
-before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr with N held solved
-afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must agree.
+disagree); the headline, which does not count the aisc route there, and the capacity did not move. And a
+hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
+finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
+with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must
+agree.
 """
 
 from __future__ import annotations

@@ -80,7 +80,7 @@ _ACTIONS = (
 
 
 def test_the_printed_caution_is_the_scope_of_the_rows_solved(tmp_path):
-    """A table of plain members is told that its loads are taken as given; a table of members with
+    """A table of plain members is told that load combinations are not checked; a table of members with
     load cases is told that the combination factors are recalled values (the engine's scope of such a case),
     never that combinations are not checked (they were)."""
     from engine.cautions import GENERAL
@@ -95,5 +95,5 @@ def test_the_printed_caution_is_the_scope_of_the_rows_solved(tmp_path):
     )
     assert done.returncode == 0, done.stderr
     assert f"Caution (rows with load cases): {SCOPE.message}" in done.stdout
-    assert "loads are taken as given" not in done.stdout
+    assert "load combinations are not checked" not in done.stdout
     assert json.loads((tmp_path / "s.json").read_text(encoding="utf-8"))["with_combinations"] == 2

@@ -23,9 +23,8 @@ REPO_ROOT = Path(__file__).resolve().parents[2]
 CAUTION = (
     "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
     "torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution "
-    "says so, web shear buckling and connections are not checked, and the loads are taken as given "
-    "(combined only where the case gives its load cases). Check the results against your local codes "
-    "and have them reviewed by a licensed engineer."
+    "says so, web shear buckling, connections and load combinations are not checked. "
+    "Check the results against your local codes and have them reviewed by a licensed engineer."
 )
 
 PCR1_LINE = re.compile(r"^\s*Pcr1 = ([0-9.eE+-]+) kN$", re.MULTILINE)

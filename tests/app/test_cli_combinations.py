@@ -38,7 +38,7 @@ def test_solve_prints_the_governing_combination_per_check(tmp_path):
     assert f"{deflection.combination} ({deflection.value:.3f})" in line
     assert f"those of combination {actions.headline}" in out
     assert "1.35 G + 1.5 W" in out and "Superposition shown wrong" in out
-    assert "loads are taken as given" not in out
+    assert "load combinations are not checked" not in out
 
 
 def test_solve_json_holds_the_combinations(tmp_path):

@@ -29,8 +29,22 @@ def test_the_general_caution_names_what_is_not_checked():
         "lateral-torsional buckling",
         "class 4",
         "connections",
-        "loads are taken as given",  # a plain case's loads are design values: nothing combines them
+        "load combinations",
     ):
         assert unchecked in GENERAL.message
     assert "(6.61)/(6.62)" not in GENERAL.message  # checked since issue 14 (the en-member route)
     assert "licensed engineer" in GENERAL.message
+
+
+def test_help_says_a_case_with_load_cases_is_combined():
+    """--help shows the plain case's caution (load combinations not checked) and, beside it, that a case with
+    load cases is combined (it said only the former, which is wrong for such a case)."""
+    import subprocess
+    import sys
+
+    out = subprocess.run(
+        [sys.executable, "-m", "app.cli", "--help"], capture_output=True, text=True, check=True
+    ).stdout
+    flat = " ".join(out.split())
+    assert "load combinations are not checked" in flat
+    assert 'A case with load cases ("actions") is combined' in flat
