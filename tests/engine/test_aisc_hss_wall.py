@@ -87,7 +87,7 @@ def test_a_round_a500_hss_takes_the_design_wall():
 
 def test_the_design_wall_makes_a_compact_wall_noncompact():
     """b/t = (B − 3t)/t = 26 with the nominal wall, within λ_p = 1.12√(E/F_y) = 26.97 at F_y = 50 ksi
-    (Table B4.1b, from memory); 28.2 with the design wall, beyond it: M_n = 0.7·F_y·S, not F_y·Z."""
+    (Table B4.1b, from memory); 28.2 with the design wall, beyond it: M_n by eq. (F7-2), not F_y·Z."""
     t = 0.2 / 29
     rhs = {"shape": "rhs", "h": 0.2, "b": 0.2, "t": t, "manufacture": "cold-formed"}
     result, route = _route(rhs, A500, N=100e3)
@@ -95,4 +95,8 @@ def test_the_design_wall_makes_a_compact_wall_noncompact():
     assert flexure_class(section_from_spec(rhs), E, Fy)[0] == "compact"
     assert route.facts["flexure_y"] == "noncompact"
     design = section_from_spec(_design(rhs))
-    assert route.facts["M_n_y"] == pytest.approx(0.7 * Fy * design.W_el, rel=1e-12)
+    M_p = min(Fy * design.W_pl, 1.6 * Fy * design.W_el)
+    ratio = (0.2 - 3 * 0.93 * t) / (0.93 * t)
+    expected = M_p - (M_p - Fy * design.W_el) * (3.57 * ratio * math.sqrt(Fy / E) - 4.0)  # eq. (F7-2)
+    assert route.facts["M_n_y"] == pytest.approx(expected, rel=1e-12)
+    assert route.facts["M_n_y"] < 0.99 * Fy * design.W_pl
