@@ -13,9 +13,9 @@ import re
 from app.page.style import esc
 from app.report import (
     SYMBOLS,
-    alpha_text,
     bow_direction_text,
     bow_text,
+    lower_plane,
     percent,
     quoted_text,
     ratio,
@@ -195,7 +195,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
     row(
         "α<sub>cr</sub> = Pcr1/N" + (" (lower plane)" if two else ""),
         ratio_text(result.alpha_cr),
-        alpha_text(result).partition(" (")[2].rstrip(")") if two else "",
+        ("" if not two else lower_plane(result)[1] if result.axial_force > 0 else "no compression"),
         result.alpha_cr <= 1,
         result.axial_force > 0 and result.alpha_cr < alpha_cr_limit(),
     )

@@ -28,6 +28,7 @@ __all__ = [
     "REACTIONS_NOTE",
     "SYMBOLS",
     "alpha_text",
+    "lower_plane",
     "axial_text",
     "bow_direction_text",
     "bow_text",
@@ -141,7 +142,7 @@ def axial_text(force: float, U: Units) -> str:
 def load_ratio_text(result) -> str:
     """N/Pcr1, the reciprocal of α_cr, or "" without an axial force (of the plane with the lower Pcr1, named
     in a two-plane case)."""
-    pcr, plane = _lower_plane(result)
+    pcr, plane = lower_plane(result)
     pcr1 = float(pcr[0])
     if result.axial_force == 0 or not finite(pcr1) or pcr1 <= 0:
         return ""
@@ -151,12 +152,12 @@ def load_ratio_text(result) -> str:
 def alpha_text(result) -> str:
     """α_cr = Pcr1/N, or why there is none (the member's: in a two-plane case the lower plane's, named)."""
     if result.axial_force > 0:
-        _, plane = _lower_plane(result)
+        _, plane = lower_plane(result)
         return ratio(result.alpha_cr) + (f" ({plane})" if plane else "")
     return "∞ (no compression)"
 
 
-def _lower_plane(result) -> tuple:
+def lower_plane(result) -> tuple:
     """(critical loads, "bending about the … axis") of the plane whose first critical load is the lower; the
     words are "" for a one-plane case."""
     pcr = np.asarray(result.critical_loads, dtype=float)
@@ -285,7 +286,7 @@ def status_message(result, U: Units) -> str:
     status, P = result.status, float(result.axial_force)
     # The member's status is the worse plane's: worded with the critical loads of the plane whose first
     # critical load is the lower, that plane named.
-    pcr, plane = _lower_plane(result)
+    pcr, plane = lower_plane(result)
     plane = f", {plane}" if plane else ""
 
     def force(value):
