@@ -131,6 +131,7 @@ def _build(
     paired=False,
     bow=None,
     merge=None,
+    aisc_moments=True,
 ) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
@@ -202,7 +203,7 @@ def _build(
                 moment_first_order=one,
             )
         else:
-            amplification = _amplification(case, prep, count, P, governing, bow_free)
+            amplification = _amplification(case, prep, count, P, governing, bow_free, aisc_moments)
     member = prep.member
     section = member.section if member is not None else None
     material = member.material if member is not None else None
@@ -292,8 +293,9 @@ def _build(
     return result
 
 
-def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
-    """The exact amplifications (both definitions, the bow-free one where known) and the approximations."""
+def _amplification(case, prep, count, P, governing, bow_free, aisc_moments=True) -> Amplification:
+    """The exact amplifications and the approximations; ``aisc_moments`` False (the capacity finder, the aisc
+    route not counted) leaves out that route's solves at 1.6·N (ASD) and out of plumb."""
     _, _, _, m1, d1, ends = prep.first_order(count)
     if prep.has_bow and P != 0.0:
         ref, ref_x = reference_peak(prep.reference(count), P)
@@ -315,8 +317,8 @@ def _amplification(case, prep, count, P, governing, bow_free) -> Amplification:
         moment_bow_free=m_free,
         reference_moment=ref,
         reference_moment_x=ref_x,
-        moment_asd=_asd_moment(case, prep, count, P),
-        moment_out_of_plumb=_plumb_moment(case, prep, count, P),
+        moment_asd=_asd_moment(case, prep, count, P) if aisc_moments else None,
+        moment_out_of_plumb=_plumb_moment(case, prep, count, P) if aisc_moments else None,
     )
 
 
@@ -330,9 +332,8 @@ def _asd_moment(case, prep, count, P) -> float | None:
     plumb = _plumb_moment(case, prep, count, ASD_ALPHA * P, ASD_ALPHA)
     if plumb is not None:
         return plumb
-    return _free_peaks(_raw(prep.variant("bow_free") if prep.has_bow else prep, count, ASD_ALPHA * P))[
-        "moment"
-    ]
+    free = prep.variant("bow_free") if prep.has_bow else prep
+    return _free_peaks(_raw(free, count, ASD_ALPHA * P))["moment"]
 
 
 def _plumb_moment(case, prep, count, P, alpha: float = 1.0) -> float | None:
@@ -443,7 +444,8 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
     )
     bow_free = free_raw = None
     # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
-    if (details or "aisc" in case.check.routes) and prep.has_bow and P != 0.0 and status != "critical":
+    aisc_moments = details or "aisc" in case.check.routes
+    if aisc_moments and prep.has_bow and P != 0.0 and status != "critical":
         member = prep.member
         checked = member is not None and member.section is not None and member.material is not None
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
@@ -462,6 +464,7 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
             cautions=False,
             paired=paired,
             merge=raw[9],
+            aisc_moments=aisc_moments,
         )
         return result, prep, raw, False
     other_prep = prep.variant("reversed")
@@ -511,6 +514,7 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         paired=paired,
         bow=bow,
         merge=chosen_raw[9],
+        aisc_moments=aisc_moments,
     )
     return result, chosen_prep, chosen_raw, favourable
 

@@ -11,6 +11,7 @@
 from __future__ import annotations
 
 import math
+import sys
 
 import pytest
 
@@ -336,3 +337,55 @@ def test_aisc_route_warns_past_appendix_7s_drift_ratio(method, fraction):
     ratio = 1.0 / (1.0 - alpha * fraction) if alpha * fraction < 1 else math.inf
     assert route.facts["drift_ratio"] == pytest.approx(ratio, rel=1e-9)
     assert ("aisc-elm-drift-limit" in route.notes) == (ratio > 1.5)
+
+
+def _tip_loaded_cantilever(routes: list) -> engine.Case:
+    """An invented W10x49 cantilever mast, 4 m, 2 kN at the tip, LRFD, held laterally."""
+    return engine.Case.from_dict(
+        {
+            "schema": 1,
+            "length": 4.0,
+            "supports": CANTILEVER,
+            "axial_force": 100e3,
+            "loads": [{"type": "point", "P": 2e3, "x": 4.0}],
+            "section": {"name": "W10x49"},
+            "material": {"name": "ASTM A992"},
+            "out_of_plane": {"restrained": True},
+            "check": {"routes": routes, "aisc_method": "LRFD", "ltb": {"restrained": True}},
+        }
+    )
+
+
+def test_capacity_counts_the_out_of_plumbness_where_the_aisc_route_counts():
+    """The axial capacity with the aisc route counted is the force where that route's H1-1 (its M_r out of
+    plumb by 1/500, AISC 360-16 §C2.2a, from memory) reaches 1: solved there, it reads 1 with the note."""
+    found = engine.capacity(_tip_loaded_cantilever(["aisc"]))
+    assert found.route == "aisc"
+    at = engine.solve(
+        engine.Case.from_dict(dict(_tip_loaded_cantilever(["aisc"]).to_dict(), axial_force=found.axial_force))
+    )
+    route = next(r for r in at.routes if r.route == "aisc")
+    assert route.utilization == pytest.approx(1.0, abs=1e-6)
+    assert "aisc-out-of-plumb-in-Mr" in route.notes
+
+
+def test_capacity_without_the_aisc_route_solves_no_out_of_plumb_member(monkeypatch):
+    """Where the aisc route does not count, the capacity finder does not pay its two out-of-plumb solves per
+    trial force (a speed choice: the route's number is not in the capacity), and the capacity is the same."""
+    case = _tip_loaded_cantilever(["second-order", "en-member"])
+    expected = engine.capacity(case).axial_force
+    forces, trials = [], []
+    finder = sys.modules["engine.capacity"]  # the module (``engine.capacity`` is its function)
+    plumb, solve = engine.analysis._plumb_moment, finder._solve
+    monkeypatch.setattr(
+        engine.analysis,
+        "_plumb_moment",
+        lambda case, prep, n, P, *a: forces.append(P) or plumb(case, prep, n, P, *a),
+    )
+    monkeypatch.setattr(finder, "_solve", lambda *a, **k: trials.append(1) or solve(*a, **k))
+    engine.clear_caches()
+    assert engine.capacity(case).axial_force == expected
+    assert len(trials) >= 4
+    assert len([P for P in forces if P > 0.0]) == 1  # the full solve at the root alone, not each trial
+    engine.solve(case)  # the page's solve still shows the aisc route, out of plumb
+    assert len([P for P in forces if P > 0.0]) == 2
