@@ -94,6 +94,12 @@ def check_schema(closed, number) -> dict[str, Any]:
                 "description": "The 'aisc' route's factors: 'LRFD' (resistance factors φ; default) or 'ASD' "
                 "(safety factors Ω).",
             },
+            "aisc_analysis": {
+                "enum": ["effective-length", "direct"],
+                "description": "The 'aisc' route's method of analysis: 'effective-length' (Appendix 7: the "
+                "nominal stiffness, K from the exact critical load; default) or 'direct' (§C2.3: every "
+                "stiffness at 0.8·τ_b, the notional load 0.002·P_r, L_c = L).",
+            },
             "ltb": ltb_schema(closed),
         },
         description="How the member is checked (needs a section and a material to apply).",

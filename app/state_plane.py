@@ -47,6 +47,7 @@ PLANE_INPUTS = (
     "routes",
     "annex",
     "aisc_method",
+    "aisc_analysis",
 )
 
 
@@ -91,6 +92,11 @@ class PlaneInputs(param.Parameterized):
     aisc_method = param.Selector(
         objects=["LRFD", "ASD"], default="LRFD", doc="AISC 360-16: LRFD (φ) or ASD (Ω)."
     )
+    aisc_analysis = param.Selector(
+        objects=["effective-length", "direct"],
+        default="effective-length",
+        doc="AISC 360-16's method of analysis: effective length (Appendix 7) or direct analysis (§C2.3).",
+    )
 
 
 def plane_check_keys(inputs) -> dict:
@@ -102,6 +108,8 @@ def plane_check_keys(inputs) -> dict:
         data["annex"] = inputs.annex
     if inputs.aisc_method != "LRFD":
         data["aisc_method"] = inputs.aisc_method
+    if inputs.aisc_analysis != "effective-length":
+        data["aisc_analysis"] = inputs.aisc_analysis
     return data
 
 
@@ -143,4 +151,5 @@ def plane_values(mapping: Mapping) -> dict:
     values["routes"] = list(routes) if isinstance(routes, (list, tuple)) else list(DEFAULT_ROUTES)
     values["annex"] = check.get("annex", "B")
     values["aisc_method"] = check.get("aisc_method", "LRFD")
+    values["aisc_analysis"] = check.get("aisc_analysis", "effective-length")
     return values

@@ -7,12 +7,11 @@ import math
 
 import numpy as np
 
-from engine import member_routes
+from engine import aisc_moments, member_routes
 from engine.amplification import approximations, braced
 from engine.biaxial import pair_check
 from engine.cautions import assess, merge_plane_cautions
 from engine.codes import alpha_cr_limit
-from engine.design.aisc_member import ASD_ALPHA
 from engine.errors import CaseError
 from engine.out_of_plane import utilisation as out_of_plane_utilisation
 from engine.prepared import prepare
@@ -33,7 +32,6 @@ from engine.results import (
 from engine.route_cautions import with_route_cautions
 from engine.solver.model import Points
 from engine.stepped import member_check
-from engine.sway import AISC_OUT_OF_PLUMB, can_sway
 from engine.validate import within
 
 __all__ = ["CRITICAL_TOLERANCE", "check_stations", "solve", "strength_solve"]
@@ -131,7 +129,7 @@ def _build(
     paired=False,
     bow=None,
     merge=None,
-    aisc_moments=True,
+    aisc_solves=True,
 ) -> Result:
     model, buckling = prep.model, prep.buckling
     pcr = buckling.critical_loads
@@ -203,7 +201,7 @@ def _build(
                 moment_first_order=one,
             )
         else:
-            amplification = _amplification(case, prep, count, P, governing, bow_free, aisc_moments)
+            amplification = _amplification(case, prep, count, P, governing, bow_free, aisc_solves)
     member = prep.member
     section = member.section if member is not None else None
     material = member.material if member is not None else None
@@ -293,15 +291,16 @@ def _build(
     return result
 
 
-def _amplification(case, prep, count, P, governing, bow_free, aisc_moments=True) -> Amplification:
-    """The exact amplifications and the approximations; ``aisc_moments`` False (the capacity finder, the aisc
-    route not counted) leaves out that route's solves at 1.6·N (ASD) and out of plumb."""
+def _amplification(case, prep, count, P, governing, bow_free, aisc=True) -> Amplification:
+    """The exact amplifications and the approximations; ``aisc`` False (the capacity finder, the aisc route
+    not counted) leaves out that route's own solves (:mod:`engine.aisc_moments`)."""
     _, _, _, m1, d1, ends = prep.first_order(count)
     if prep.has_bow and P != 0.0:
         ref, ref_x = reference_peak(prep.reference(count), P)
     else:  # no bow's moment: the reference is the first-order moment itself
         ref, ref_x = m1, None
     m2 = governing.moment.magnitude
+    elm = aisc and case.check.aisc_analysis == "effective-length"  # which of the aisc route's own solves
     m_exact, m_first = _ratio(m2, ref), _ratio(m2, m1)
     if bow_free is not None:
         m_free = _ratio(bow_free["moment"], m1)
@@ -317,37 +316,10 @@ def _amplification(case, prep, count, P, governing, bow_free, aisc_moments=True)
         moment_bow_free=m_free,
         reference_moment=ref,
         reference_moment_x=ref_x,
-        moment_asd=_asd_moment(case, prep, count, P) if aisc_moments else None,
-        moment_out_of_plumb=_plumb_moment(case, prep, count, P) if aisc_moments else None,
+        moment_asd=aisc_moments.asd_moment(case, prep, count, P) if elm else None,
+        moment_out_of_plumb=aisc_moments.plumb_moment(case, prep, count, P) if elm else None,
+        moment_direct=aisc_moments.direct_moment(case, prep, count, P) if aisc and not elm else None,
     )
-
-
-def _asd_moment(case, prep, count, P) -> float | None:
-    """max|M| [N·m] of the member without its bow at 1.6·P (:attr:`Amplification.moment_asd`), or None."""
-    check = case.check
-    if check.aisc_method != "ASD" or P <= 0.0 or prep.member is None:  # a route not counted is shown too
-        return None
-    if ASD_ALPHA * P >= prep.buckling.critical_loads[0]:
-        return math.inf
-    plumb = _plumb_moment(case, prep, count, ASD_ALPHA * P, ASD_ALPHA)
-    if plumb is not None:
-        return plumb
-    free = prep.variant("bow_free") if prep.has_bow else prep
-    return _free_peaks(_raw(free, count, ASD_ALPHA * P))["moment"]
-
-
-def _plumb_moment(case, prep, count, P, alpha: float = 1.0) -> float | None:
-    """max|M| [N·m] of the member without its bow, out of plumb by 1/500 the worse way, at ``P``
-    (:attr:`Amplification.moment_out_of_plumb`); None where no end translates, in tension or without a
-    member. ``alpha``: ASD's 1.6 (``P`` already holds it): the notional load 0.002·α·Y_i of the analysis at
-    α × the loads, divided by α as the transverse loads are, is an out-of-plumbness of 1/(500·α) at α·P."""
-    if P <= 0.0 or prep.member is None or not can_sway(case):
-        return None
-    if P >= prep.buckling.critical_loads[0]:
-        return math.inf
-    phi = AISC_OUT_OF_PLUMB / alpha
-    kinds = (f"plumb{phi:+.17g}", f"plumb{-phi:+.17g}")
-    return max(_free_peaks(_raw(prep.variant(kind), count, P))["moment"] for kind in kinds)
 
 
 def _with_cautions(result, prep, favourable: bool) -> Result:
@@ -444,8 +416,8 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
     )
     bow_free = free_raw = None
     # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
-    aisc_moments = details or "aisc" in case.check.routes
-    if aisc_moments and prep.has_bow and P != 0.0 and status != "critical":
+    aisc_solves = details or "aisc" in case.check.routes
+    if aisc_solves and prep.has_bow and P != 0.0 and status != "critical":
         member = prep.member
         checked = member is not None and member.section is not None and member.material is not None
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
@@ -464,7 +436,7 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
             cautions=False,
             paired=paired,
             merge=raw[9],
-            aisc_moments=aisc_moments,
+            aisc_solves=aisc_solves,
         )
         return result, prep, raw, False
     other_prep = prep.variant("reversed")
@@ -514,7 +486,7 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         paired=paired,
         bow=bow,
         merge=chosen_raw[9],
-        aisc_moments=aisc_moments,
+        aisc_solves=aisc_solves,
     )
     return result, chosen_prep, chosen_raw, favourable
 

@@ -125,7 +125,17 @@ _CASE_KEYS = (
 )
 _CASE_REQUIRED = ("length", "supports")
 _IMPERFECTION_KEYS = ("shape", "amplitude", "preset", "curve", "analysis", "ratio", "direction", "columns")
-_CHECK_KEYS = ("method", "gamma_M0", "gamma_M1", "deflection_limit", "routes", "annex", "aisc_method", "ltb")
+_CHECK_KEYS = (
+    "method",
+    "gamma_M0",
+    "gamma_M1",
+    "deflection_limit",
+    "routes",
+    "annex",
+    "aisc_method",
+    "aisc_analysis",
+    "ltb",
+)
 
 
 def _schema_version(value: Any) -> int:

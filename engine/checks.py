@@ -40,6 +40,7 @@ from engine.out_of_plane import ELASTIC_KIND, ELASTIC_SOURCE, KIND
 
 __all__ = [
     "ANNEXES",
+    "AISC_ANALYSES",
     "AISC_METHODS",
     "CheckSettings",
     "DEFAULT_ROUTES",
@@ -67,6 +68,10 @@ METHODS = ("elastic", "plastic")
 ANNEXES = ("B", "A")
 #: AISC 360-16 design methods: resistance factors φ (LRFD) or safety factors Ω (ASD).
 AISC_METHODS = ("LRFD", "ASD")
+#: How the aisc route's M_r and P_c are found: AISC 360-16 Appendix 7's effective length method (the nominal
+#: stiffness, K from the exact critical load) or Chapter C's direct analysis method (§C2.3's reduced
+#: stiffness 0.8·τ_b, §C3's L_c = L unless the exact critical load is higher).
+AISC_ANALYSES = ("effective-length", "direct")
 #: The routes enabled by default (the headline is the larger of them; AISC is shown for comparison).
 DEFAULT_ROUTES = ("second-order", "en-member")
 _PLASTIC_SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle")
@@ -110,6 +115,9 @@ class CheckSettings:
         factors of the ``en-member`` route.
     aisc_method : str
         ``"LRFD"`` (default, resistance factors φ) or ``"ASD"`` (safety factors Ω) for the ``aisc`` route.
+    aisc_analysis : str
+        ``"effective-length"`` (default) or ``"direct"``: the ``aisc`` route's method of analysis
+        (:data:`AISC_ANALYSES`).
     ltb : LtbSettings
         The lateral-torsional buckling check's restraints and load position (case key ``check.ltb``, a
         mapping accepted; :class:`engine.design.ltb.LtbSettings`).
@@ -122,12 +130,17 @@ class CheckSettings:
     routes: tuple = DEFAULT_ROUTES
     annex: str = "B"
     aisc_method: str = "LRFD"
+    aisc_analysis: str = "effective-length"
     ltb: LtbSettings = LtbSettings()
 
     def __post_init__(self) -> None:
         self._check_routes()
         object.__setattr__(self, "ltb", LtbSettings.from_data(self.ltb))
-        for name, allowed in (("annex", ANNEXES), ("aisc_method", AISC_METHODS)):
+        for name, allowed in (
+            ("annex", ANNEXES),
+            ("aisc_method", AISC_METHODS),
+            ("aisc_analysis", AISC_ANALYSES),
+        ):
             value = getattr(self, name)
             if not isinstance(value, str) or value not in allowed:
                 raise CaseError(
@@ -179,6 +192,8 @@ class CheckSettings:
             data["annex"] = self.annex
         if self.aisc_method != "LRFD":
             data["aisc_method"] = self.aisc_method
+        if self.aisc_analysis != "effective-length":
+            data["aisc_analysis"] = self.aisc_analysis
         if self.ltb != LtbSettings():
             data["ltb"] = self.ltb.to_dict()
         return data

@@ -116,6 +116,8 @@ def _plane(res, axis, case, *, M_second, cache, which):
         M_second=M_second,
         curve=curve,
         M_asd=amp.moment_asd if amp is not None else None,
+        M_direct=amp.moment_direct if amp is not None else None,
+        length=float(case.length),
     )
 
 

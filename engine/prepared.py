@@ -30,6 +30,10 @@ from engine.sway import sway_anchor
 
 __all__ = ["Prepared", "clear_cache", "prepare"]
 
+#: Out-of-plumb variants kept per prepared member: ± the 1/500 tilt at 1.0 and 1.6 (ASD) and the direct
+#: analysis method's, whose tilt 0.002·c follows τ_b (a new one per force above α·N/P_ns = 0.5).
+_TILTS_KEPT = 8
+
 
 @dataclasses.dataclass(frozen=True)
 class OutOfPlumb:
@@ -107,6 +111,9 @@ class Prepared:
                 choice = OutOfPlumb(sway=float(kind[5:]), sway_anchor=sway_anchor(self.case))
             analysis_case = dataclasses.replace(self.analysis_case, imperfection=imperfection)
             hit = Prepared(self.case, member, analysis_case, self.buckling, self._design, choice)
+            tilted = [key for key in self._variants if key.startswith("plumb")]
+            if kind.startswith("plumb") and len(tilted) >= _TILTS_KEPT:  # the direct analysis method's
+                del self._variants[tilted[0]]  # tilt changes with the force where τ_b < 1: bounded
             self._variants[kind] = hit
         return hit
 

@@ -155,6 +155,11 @@ class Amplification:
         max|M| [N·m] of the member without its bow, out of plumb by 1/500 (AISC 360-16 §C2.2a's notional load
         0.002·Y_i, from memory) whichever way is worse: the aisc route's M_r of a member in compression with
         an end that can translate; +inf at or above the first critical load; None otherwise.
+    moment_direct : float or None
+        The aisc route's M_r [N·m] by the direct analysis method (``check.aisc_analysis`` ``"direct"``, AISC
+        360-16 §C2.3, from memory): the member without its bow with every stiffness at 0.8·τ_b, out of plumb
+        by 1/500 where it can sway, at the route's method (ASD at 1.6 × its loads, divided by 1.6); +inf where
+        that member has no equilibrium; None otherwise (:mod:`engine.aisc_moments`).
     """
 
     moment: float | None
@@ -166,6 +171,7 @@ class Amplification:
     reference_moment_x: float | None = None
     moment_asd: float | None = None
     moment_out_of_plumb: float | None = None
+    moment_direct: float | None = None
 
 
 @dataclass(frozen=True, kw_only=True)

@@ -142,7 +142,7 @@ class PlaneLoadsView(pn.viewable.Viewer):
 
 
 class RouteSettingsView(pn.viewable.Viewer):
-    """Which routes count toward the headline, the EN 1993-1-1 Annex and the AISC method."""
+    """Which routes count toward the headline, the EN 1993-1-1 Annex, the AISC method and its analysis."""
 
     state = param.ClassSelector(class_=MemberState, doc="The page state: inputs (SI) and results.")
 
@@ -156,22 +156,16 @@ class RouteSettingsView(pn.viewable.Viewer):
             stylesheets=[WIDGET_CSS],
         )
         self.routes.param.watch(self._routes, "value")
-        self.annex = pn.widgets.Select(
-            label="EN 1993-1-1 factors",
-            options={"Annex B (method 2)": "B", "Annex A (method 1)": "A"},
-            value=state.annex,
-            width=172,
-            stylesheets=[WIDGET_CSS],
+        self.annex = self._select(
+            "annex", "EN 1993-1-1 factors", {"Annex B (method 2)": "B", "Annex A (method 1)": "A"}, 172
         )
-        self.method = pn.widgets.Select(
-            label="AISC 360-16",
-            options={"LRFD (φ)": "LRFD", "ASD (Ω)": "ASD"},
-            value=state.aisc_method,
-            width=100,
-            stylesheets=[WIDGET_CSS],
+        self.method = self._select("aisc_method", "AISC 360-16", {"LRFD (φ)": "LRFD", "ASD (Ω)": "ASD"}, 100)
+        self.analysis = self._select(
+            "aisc_analysis",
+            "AISC analysis",
+            {"effective length (App. 7)": "effective-length", "direct analysis (§C2.3)": "direct"},
+            180,
         )
-        self.annex.param.watch(lambda event: self._set("annex", event.new), "value")
-        self.method.param.watch(lambda event: self._set("aisc_method", event.new), "value")
         self.panel = pn.Column(
             html_pane(
                 "<div class='ss-heading'>Routes that count</div><div class='ss-note'>The headline "
@@ -179,9 +173,10 @@ class RouteSettingsView(pn.viewable.Viewer):
             ),
             self.routes,
             pn.Row(self.annex, self.method, margin=0),
+            self.analysis,
             margin=0,
         )
-        state.param.watch(lambda *_: self.show(), ["routes", "annex", "aisc_method"])
+        state.param.watch(lambda *_: self.show(), ["routes", "annex", "aisc_method", "aisc_analysis"])
 
     def __panel__(self):
         return self.panel
@@ -190,6 +185,18 @@ class RouteSettingsView(pn.viewable.Viewer):
         chosen = [code for code in ROUTE_CODES if code in (event.new or [])]
         if chosen != list(self.state.routes):
             self.state.routes = chosen
+
+    def _select(self, name: str, label: str, options: dict, width: int):
+        """A select of the state's setting ``name``, writing it when changed."""
+        widget = pn.widgets.Select(
+            label=label,
+            options=options,
+            value=getattr(self.state, name),
+            width=width,
+            stylesheets=[WIDGET_CSS],
+        )
+        widget.param.watch(lambda event: self._set(name, event.new), "value")
+        return widget
 
     def _set(self, name: str, value) -> None:
         if value is not None and getattr(self.state, name) != value:
@@ -204,3 +211,5 @@ class RouteSettingsView(pn.viewable.Viewer):
             self.annex.value = state.annex
         if self.method.value != state.aisc_method:
             self.method.value = state.aisc_method
+        if self.analysis.value != state.aisc_analysis:
+            self.analysis.value = state.aisc_analysis

@@ -9,7 +9,7 @@ __all__ = ["NOTES", "REASONS", "ROUTE_TERMS", "TERMS", "governing_text", "route_
 _NAMES = {
     "second-order": "second order + cross-section",
     "en-member": "EN 1993-1-1 equivalent member (Annex {annex})",
-    "aisc": "AISC 360-16 ({method})",
+    "aisc": "AISC 360-16 ({method}{analysis})",
 }
 
 #: The second-order route's own terms beside its check along the member (a capacity can stop at one).
@@ -52,14 +52,17 @@ def route_setting(result, name: str, default: str) -> str:
 
 
 def route_name(route, result=None) -> str:
-    """A route's name, e.g. ``"EN 1993-1-1 equivalent member (Annex B)"`` (`result` gives the Annex and the
-    AISC method; without it the name has neither); `route` a code or a RouteCheck."""
+    """A route's name, e.g. ``"EN 1993-1-1 equivalent member (Annex B)"`` (`result` gives the Annex, the
+    AISC method and its analysis; without it the name has none of them); `route` a code or a RouteCheck."""
     code = getattr(route, "route", route)
     template = _NAMES.get(code, code)
     if result is None:  # no settings to name the Annex or the method by: the route alone
         return template.split(" (")[0] if "{" in template else template
+    direct = route_setting(result, "aisc_analysis", "effective-length") == "direct"
     return template.format(
-        annex=route_setting(result, "annex", "B"), method=route_setting(result, "aisc_method", "LRFD")
+        annex=route_setting(result, "annex", "B"),
+        method=route_setting(result, "aisc_method", "LRFD"),
+        analysis=", direct analysis" if direct else "",
     )
 
 
@@ -90,14 +93,21 @@ NOTES = {
     "aisc-elm-drift-limit": (
         "warning",
         "the second-order drift exceeds 1.5 × the first-order drift (1/(1 − αN/N_cr) of a swaying plane): "
-        "AISC 360-16 Appendix 7 then asks for the direct analysis method (reduced stiffness, §C2.3), which "
-        "this route does not make (from memory); its result is not valid beyond that limit",
+        "AISC 360-16 Appendix 7's effective length method is not valid beyond that limit (from memory); "
+        "choose the direct analysis method for this route",
     ),
     "aisc-out-of-plumb-in-Mr": (
         "info",
         "an end can translate: M_r holds an out-of-plumbness of 1/500 the worse way (AISC 360-16 §C2.2a, "
-        "notional load 0.002·P_r, from memory), solved with the nominal stiffness, the effective-length "
-        "method (K from the exact critical load); the direct analysis method's reduced stiffness is not used",
+        "notional load 0.002·P_r, from memory), solved with the nominal stiffness, the effective length "
+        "method (K from the exact critical load)",
+    ),
+    "aisc-direct-analysis": (
+        "info",
+        "the direct analysis method (AISC 360-16 §C2.3, from memory): M_r from the member without its bow, "
+        "every stiffness (EI, springs, a foundation) at 0.8·τ_b, out of plumb by 1/500 the worse way where "
+        "an end can translate; P_n with L_c = L unless the exact critical load is higher (§C3); the other "
+        "plane of a one-plane case carries no notional load",
     ),
     "aisc-noncompact": (
         "info",

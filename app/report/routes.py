@@ -88,6 +88,8 @@ FACTS = {
     "C_mLT": ("C_mLT", ""),
     "rho_shear": ("ρ (shear, §6.2.8)", ""),
     "drift_ratio": ("Δ2/Δ1 ≈ 1/(1 − αN/N_cr)", ""),
+    "tau_b": ("τ_b (§C2.3)", ""),
+    "P_ns": ("P_ns", "force"),
     "t_nominal": ("t, nominal", "small_length"),
     "t_design": ("t, design (0.93 t, §B4.2)", "small_length"),
     "N_Rk": ("N_Rk", "force"),

@@ -26,6 +26,8 @@ __all__ = [
     "effective_width",
     "interaction",
     "round_hss_area",
+    "stiffness_reduction",
+    "tau_b",
 ]
 
 #: :math:`F_y/F_e` above which the elastic branch (E3-3) applies: 2.25, that is
@@ -162,3 +164,23 @@ def round_hss_area(A_g: float, D_over_t: float, E: float, Fy: float) -> float:
     if D_over_t >= 0.45 * E / Fy:
         return math.nan
     return (0.038 * E / (Fy * D_over_t) + 2.0 / 3.0) * A_g
+
+
+#: AISC 360-16 §C2.3(a): every stiffness that contributes to stability is taken at 0.8 × (from memory).
+DIRECT_STIFFNESS = 0.8
+
+
+def tau_b(ratio: float) -> float:
+    r"""AISC 360-16 §C2.3(b) eqs. (C2-2a)/(C2-2b) (from memory): the further reduction :math:`\tau_b` of the
+    flexural stiffness, ``ratio`` = :math:`\alpha P_r/P_{ns}` (α = 1.0 LRFD, 1.6 ASD): 1 up to 0.5, then
+    :math:`4\,r(1 - r)`; 0 at or above 1 (no stiffness left: the member cannot carry the force)."""
+    if ratio <= 0.5:
+        return 1.0
+    if ratio >= 1.0:
+        return 0.0
+    return 4.0 * ratio * (1.0 - ratio)
+
+
+def stiffness_reduction(ratio: float) -> float:
+    """The direct analysis method's factor on EI, 0.8·τ_b (§C2.3), at ``ratio`` = αP_r/P_ns."""
+    return DIRECT_STIFFNESS * tau_b(ratio)

@@ -18,7 +18,7 @@ import math
 
 from engine.sections import section_from_spec
 
-__all__ = ["ERW_FACTOR", "design_planes", "is_erw"]
+__all__ = ["ERW_FACTOR", "design_planes", "design_section", "is_erw"]
 
 #: AISC 360-16 §B4.2: the design wall thickness of an ERW HSS is 0.93 × nominal (from memory).
 ERW_FACTOR = 0.93
@@ -29,7 +29,8 @@ def is_erw(section, material) -> bool:
     return section.shape in ("rhs", "chs") and str(material.name).startswith("ASTM A500")
 
 
-def _design_section(section):
+def design_section(section):
+    """The section rebuilt with the design wall 0.93·t."""
     dims = section.dimensions
     keys = ("h", "b") if section.shape == "rhs" else ("D",)
     spec = {"shape": section.shape, "manufacture": section.manufacture, **{k: dims[k] for k in keys}}
@@ -50,7 +51,7 @@ def design_planes(y, z, N: float, asd_alpha: float) -> tuple:
     critical loads, M_second and M_asd as the module says."""
     planes = []
     for p in (y, z):
-        section = _design_section(p.section)
+        section = design_section(p.section)
         ratio = section.I / p.section.I
         N_cr = p.N_cr * ratio
         planes.append(

@@ -52,12 +52,19 @@ from __future__ import annotations
 import math
 
 from engine.design import aisc360
-from engine.design.aisc_hss import ERW_FACTOR, design_planes, is_erw
+from engine.design.aisc_hss import ERW_FACTOR, design_planes, design_section, is_erw
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import RouteCheck
 from engine.sections import deep_solid
 
-__all__ = ["SOURCE", "compression_elements", "effective_area", "flexure_class", "route"]
+__all__ = [
+    "SOURCE",
+    "compression_elements",
+    "direct_stiffness",
+    "effective_area",
+    "flexure_class",
+    "route",
+]
 
 SOURCE = (
     "AISC 360-16 Tables B4.1a/b, §E3 eqs. (E3-1)–(E3-4), §E7, §F2.1/F6.1/F7.1/F8.1/F11.1, §F1 eq. (F1-1), "
@@ -181,6 +188,24 @@ def noncompact_moment(section, parts, E: float, Fy: float) -> float:
     return min(found, M_p)
 
 
+def direct_stiffness(section, material, N: float, method: str) -> tuple[float, float, float] | None:
+    """The direct analysis method (§C2.3, from memory) for a plane whose section is ``section``: (τ_b, P_ns,
+    the factor on the plane's nominal EI); P_ns = F_y·A_g, or F_y·A_e(F_y) with a slender element (§C2.3(b));
+    an ERW HSS takes its design wall, the factor then also holding I_des/I_nom. None where the route does not
+    apply (not steel, a custom section)."""
+    if material.kind != "steel" or section.shape not in _SHAPES:
+        return None
+    built = design_section(section) if is_erw(section, material) else section
+    E, Fy = material.E, material.fy
+    area = built.A
+    if any(ratio > limit for _, ratio, limit in compression_elements(built, E, Fy)):
+        found = effective_area(built, E, Fy, Fy)
+        area = area if found is None else found
+    P_ns = Fy * area
+    tau = aisc360.tau_b((ASD_ALPHA if method == "ASD" else 1.0) * N / P_ns)
+    return tau, P_ns, aisc360.DIRECT_STIFFNESS * tau * built.I / section.I
+
+
 def _asd_moment(p, N: float, M_second: float) -> float:
     """A bound on ASD's M_r [N·m] (α = 1.6) where the plane has no exact solve at 1.6·N (``Plane.M_asd``):
     the largest of the exact moment at 1.0·N (``M_second``), its second-order part grown as a single mode
@@ -194,6 +219,15 @@ def _asd_moment(p, N: float, M_second: float) -> float:
         return math.inf
     grown = M_I + (M_second - M_I) * ASD_ALPHA * (1.0 - a) / (1.0 - ASD_ALPHA * a)
     return max(M_second, grown, M_I / (1.0 - ASD_ALPHA * a))
+
+
+def _buckling_load(p, direct: bool) -> float:
+    """The plane's load for §E3's F_e: its exact critical load; by the direct analysis method (§C3, from
+    memory: L_c = L unless a rational analysis gives less) never below π²EI/L² with L the member's length,
+    where the exact load is the plane's own (an out-of-plane buckling length the case gives is kept)."""
+    if not direct or p.N_cr_source != "exact" or math.isinf(p.N_cr) or p.length is None:
+        return p.N_cr
+    return max(p.N_cr, math.pi**2 * p.EI / p.length**2)
 
 
 def _ltb_facts(ltb, section) -> dict:
@@ -223,6 +257,8 @@ def route(
     if y.section.shape not in _SHAPES:
         return not_applied("aisc", enabled, "custom-section", SOURCE)
     erw = is_erw(y.section, material)
+    direct = settings.aisc_analysis == "direct"
+    reduced = direct_stiffness(y.section, material, N, settings.aisc_method) if direct and N > 0.0 else None
     if erw:  # §B4.2: an ERW HSS's design wall is 0.93·t (engine.design.aisc_hss)
         t_nominal = y.section.dimensions["t"]
         y, z = design_planes(y, z, N, ASD_ALPHA)
@@ -257,7 +293,12 @@ def route(
                 )
     notes = ["aisc-shear-not-checked"] + (["aisc-erw-design-wall"] if erw else [])
     swaying = [p for p in (y, z) if p.diagram.sway]
-    if N > 0.0 and swaying:
+    if direct:  # Chapter C: no drift limit; the reduced stiffness and the notional load are in M_r
+        notes.insert(0, "aisc-direct-analysis")
+        facts["analysis"] = "direct"
+        if reduced is not None:
+            facts.update(tau_b=reduced[0], P_ns=reduced[1])
+    elif N > 0.0 and swaying:
         notes.insert(0, "aisc-out-of-plumb-in-Mr")  # §C2.2a's notional load is in M_r (Plane.M_second)
         # Appendix 7 §7.2.1 (from memory): the effective length method only while the second-order drift is
         # at most 1.5 × the first-order drift; a single mode's 1/(1 − αN/N_cr) estimates that ratio
@@ -302,12 +343,15 @@ def route(
             M_r[p.axis] = p.diagram.M_max
         else:
             M_r[p.axis] = p.M_second
-        if method == "ASD" and N > 0.0:  # the exact solve at 1.6·N, else a bound on it (see _asd_moment)
+        if direct and N > 0.0 and p.M_direct is not None:  # §C2.3: at the route's method (ASD included)
+            M_r[p.axis] = p.M_direct
+        elif method == "ASD" and N > 0.0:  # the exact solve at 1.6·N, else a bound on it (see _asd_moment)
             M_r[p.axis] = p.M_asd if p.M_asd is not None else _asd_moment(p, N, M_r[p.axis])
         facts[f"M_r_{p.axis}"] = M_r[p.axis]
     if N > 0.0:
         P_n = math.inf
-        modes = [(p.axis, p.N_cr) for p in (y, z)] + ([] if N_cr_T is None else [("T", N_cr_T)])  # §E3, §E4
+        modes = [(p.axis, _buckling_load(p, direct)) for p in (y, z)]  # §E3
+        modes += [] if N_cr_T is None else [("T", N_cr_T)]  # §E4
         for axis, N_cr in modes:
             F_e = N_cr / sy.A
             F_cr = aisc360.critical_stress(Fy, F_e)
@@ -327,7 +371,8 @@ def route(
             notes.append("aisc-tension-yielding")
     facts.update(P_r=N, P_n=P_n, P_c=P_c)
     alpha = ASD_ALPHA if method == "ASD" else 1.0  # §C2.1 / App. 8: ASD's analysis at 1.6 × its loads
-    if beyond or any(alpha * N >= p.N_cr and p.diagram.M_max > 0.0 for p in (y, z)):
+    unbounded = any(math.isinf(value) for value in M_r.values())  # the reduced member has no equilibrium
+    if beyond or unbounded or any(alpha * N >= p.N_cr and p.diagram.M_max > 0.0 for p in (y, z)):
         return RouteCheck(
             route="aisc",
             enabled=enabled,

@@ -91,6 +91,8 @@ class Plane:
     M_asd: float | None = (
         None  # max|M| without bow at 1.6·N (ASD's analysis, AISC §C2.1) [N·m]; None: not made
     )
+    M_direct: float | None = None  # the direct analysis method's M_r [N·m] (Amplification.moment_direct)
+    length: float | None = None  # the member's length [m] (the direct analysis method's L_c = L)
 
     @property
     def L_cr(self) -> float | None:

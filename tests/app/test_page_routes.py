@@ -154,8 +154,13 @@ def test_route_settings_widgets_follow_the_state():
     assert page.model.routes == ["aisc"]
     settings.method.value = "ASD"
     assert page.model.aisc_method == "ASD"
+    settings.analysis.value = "direct"
+    assert page.model.aisc_analysis == "direct"
+    route = next(r for r in page.model.result.routes if r.route == "aisc")
+    assert "aisc-direct-analysis" in route.notes
     page.model.load_mapping(MemberState().case_mapping())
     assert settings.routes.value == ["second-order", "en-member"] and settings.method.value == "LRFD"
+    assert settings.analysis.value == "effective-length"
 
 
 def test_routes_chart_sweeps_once_and_marks_the_force():
@@ -196,16 +201,24 @@ def test_saved_case_carries_the_second_plane_and_route_settings():
     from app.export_names import case_json
 
     state = MemberState()
-    state.param.update(plane2=True, plane2_left="fixed", routes=["second-order", "aisc"], aisc_method="ASD")
+    state.param.update(
+        plane2=True,
+        plane2_left="fixed",
+        routes=["second-order", "aisc"],
+        aisc_method="ASD",
+        aisc_analysis="direct",
+    )
     saved = json.loads(case_json(state.result.case))
     assert saved["second_plane"]["supports"]["left"] == "fixed"
     assert saved["check"]["routes"] == ["second-order", "aisc"] and saved["check"]["aisc_method"] == "ASD"
+    assert saved["check"]["aisc_analysis"] == "direct"
     again = MemberState()
     again.load_mapping(saved)
-    assert (again.plane2, again.plane2_left, again.routes, again.aisc_method) == (
+    assert (again.plane2, again.plane2_left, again.routes, again.aisc_method, again.aisc_analysis) == (
         True,
         "fixed",
         ["second-order", "aisc"],
         "ASD",
+        "direct",
     )
     assert again.errors == {}

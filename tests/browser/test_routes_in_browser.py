@@ -86,23 +86,30 @@ def test_a_copied_link_reopens_second_plane_loads_and_route_settings(browser, se
         tab(page, "Check")
         page.get_by_label("AISC 360-16 (H1.1)").check()
         page.get_by_label("AISC 360-16", exact=True).select_option(label="ASD (Ω)")
-        expect(page.locator("tr[data-route='aisc'] td.q")).to_contain_text("AISC 360-16 (ASD)")
+        page.get_by_label("AISC analysis", exact=True).select_option(label="direct analysis (§C2.3)")
+        expect(page.locator("tr[data-route='aisc'] td.q")).to_contain_text(
+            "AISC 360-16 (ASD, direct analysis)"
+        )
         page.get_by_role("button", name="Copy link").click()
         expect(page.get_by_role("button", name="Link copied")).to_be_visible()
         link = page.evaluate("() => navigator.clipboard.readText()")
         case = json.loads(urllib.parse.parse_qs(urllib.parse.urlparse(link).query)["case"][0])
         assert case["second_plane"]["loads"][0]["P"] == pytest.approx(2500.0)
         assert case["check"]["routes"] == ["second-order", "en-member", "aisc"]
-        assert case["check"]["aisc_method"] == "ASD"
+        assert case["check"]["aisc_method"] == "ASD" and case["check"]["aisc_analysis"] == "direct"
 
         again = open_page(other, link).page
         expect(again.locator("tr[data-route='aisc'] td.f")).not_to_have_text("comparison")
-        expect(again.locator("tr[data-route='aisc'] td.q")).to_contain_text("AISC 360-16 (ASD)")
+        expect(again.locator("tr[data-route='aisc'] td.q")).to_contain_text(
+            "AISC 360-16 (ASD, direct analysis)"
+        )
         tab(again, "Loads")
         again.get_by_role("button", name="2nd plane: minor axis (z–z)").click()
         expect(again.get_by_label("F [kN]", exact=True)).to_have_value(re.compile(r"^2\.5"))
         tab(again, "Check")
         expect(again.get_by_label("AISC 360-16 (H1.1)")).to_be_checked()
+        expect(again.get_by_label("AISC analysis", exact=True)).to_have_value("direct analysis (§C2.3)")
+        expect(again.get_by_label("AISC analysis", exact=True)).to_be_visible()
     finally:
         first.close()
         other.close()

@@ -376,10 +376,10 @@ def test_capacity_without_the_aisc_route_solves_no_out_of_plumb_member(monkeypat
     expected = engine.capacity(case).axial_force
     forces, trials = [], []
     finder = sys.modules["engine.capacity"]  # the module (``engine.capacity`` is its function)
-    plumb, solve = engine.analysis._plumb_moment, finder._solve
+    plumb, solve = engine.aisc_moments.plumb_moment, finder._solve
     monkeypatch.setattr(
-        engine.analysis,
-        "_plumb_moment",
+        engine.aisc_moments,
+        "plumb_moment",
         lambda case, prep, n, P, *a: forces.append(P) or plumb(case, prep, n, P, *a),
     )
     monkeypatch.setattr(finder, "_solve", lambda *a, **k: trials.append(1) or solve(*a, **k))
