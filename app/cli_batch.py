@@ -153,9 +153,23 @@ def _batch(args) -> int:
         )
         lines.append(f"solved members by stability: {counts}")
     if summary.highest:
-        lines.append(f"highest utilisations ({len(summary.highest)}):")
+        lines.append(f"highest utilisations by a code check ({len(summary.highest)}):")
         for value, row, identifier in summary.highest:
             lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {value:.4g}")
+    if summary.not_code_checks:
+        # Never ranked with the code checks: an elastic bound that a code's check of the material can exceed.
+        count = summary.not_code_check_count
+        shown = len(summary.not_code_checks)
+        lines.append(
+            f"NOT code checks, not ranked above ({count} member{'s' if count != 1 else ''}"
+            f"{f', the {shown} highest' if shown < count else ''}): the utilisation is an elastic bound only "
+            "(no code check of the material is made; a code's check can give more):"
+        )
+        for value, row, identifier, basis in summary.not_code_checks:
+            lines.append(
+                f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {value:.4g} "
+                f"[{terminal(basis)}]"
+            )
     for line in summary.retried:
         lines.append(f"retried: {terminal(line)}")
     if summary.errors:

@@ -11,22 +11,14 @@ import textwrap
 from collections.abc import Sequence
 from importlib import metadata
 
+from app.report.scope import GENERAL_CAUTION
 from app.safe_text import terminal
 
-#: The general caution for ``--help``, which must not import the engine: the one copy of
-#: ``engine.cautions.GENERAL.message`` outside the engine (tests/app/test_general_caution.py keeps them
-#: equal).
-#: Every summary prints the engine's own (:func:`app.report.general_caution`).
-CAUTION = (
-    "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-    "torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution "
-    "says so, web shear buckling, "
-    "connections and load combinations are not checked. Check the results "
-    "against your local codes and have them reviewed by a licensed engineer."
-)
+#: The general caution for ``--help``: app.report's one wording (app/report/scope.py imports nothing, so
+#: --help does not load the engine). Every summary prints the same (:func:`app.report.general_caution`).
+CAUTION = GENERAL_CAUTION
 
-#: The general caution is a plain case's (its loads are taken as given); --help says what a case with load
-#: cases gets, whose summaries print its own scope (engine.envelope.SCOPE).
+#: What a case with load cases gets, said under the general caution in --help.
 COMBINED = (
     'A case with load cases ("actions") is combined, each combination solved whole (EN 1990 or ASCE 7 '
     "rules with recommended factors recalled from memory, a National Annex may change them; or a table of "

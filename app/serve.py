@@ -147,6 +147,21 @@ def make_page(case=None):
     return frame
 
 
+def _local_styles_only() -> None:
+    """Never let Panel point a stylesheet at its CDN (the page needs no internet connection).
+
+    Panel 1.9 rewrites a component's stylesheet links to the document's ``dist_url`` when it updates the
+    component, and falls back to its CDN where the component's model has no document at that moment (a new
+    user saw an error message's pane, updated while its model was detached, fetch ``loading.css`` from the
+    CDN). The fallback is the module constant ``panel.reactive.CDN_DIST``; served, it is set to the local
+    path the server already serves (``static/extensions/panel/``), so such a link stays on this server."""
+    import panel.reactive
+    from panel.io.resources import LOCAL_DIST
+
+    if hasattr(panel.reactive, "CDN_DIST"):
+        panel.reactive.CDN_DIST = LOCAL_DIST
+
+
 _BUILD_FAILED = (
     "<div style='padding:16px'><b>strutscope could not build this page.</b> Reload the page; if it fails "
     "again, start strutscope again. The server's window names the error.</div>"
@@ -445,6 +460,7 @@ def serve(
         from bokeh.settings import settings as bokeh_settings
 
         bokeh_settings.perform_document_validation.set_value(False)
+        _local_styles_only()
         # Issue 6 found that a stopped server went unreported: the page stayed as it was and ignored input.
         # Panel shows this message (in its notification area) when the websocket is lost.
         pn.config.disconnect_notification = DISCONNECTED

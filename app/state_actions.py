@@ -284,17 +284,75 @@ def link_choice(state) -> str:
     return ""
 
 
+#: The deflection cautions: the governing service combination's, whichever combination is shown.
+_DEFLECTION_CODES = ("deflection", "deflection-basis")
+#: The cautions a service combination does not show: the bow's (it is solved without one by design) and the
+#: member check's (strength is checked on the ultimate combinations; its check is not shown).
+_NOT_OF_SERVICE = (
+    "bow-below-code",
+    "no-bow",
+    "bow-opposes-load",
+    "bow-shape",
+    "overstressed",
+    "out-of-plane-checked",
+    "out-of-plane-buckling",
+    "out-of-plane-not-checked",
+    "out-of-plane-length",
+    "section-class",
+    "section-class-4",
+    "section-class-4-effective",
+    "section-effective-area",
+    "web-shear-buckling",
+    "check-note",
+    "routes-disagree",
+    "route-not-applied",
+    "headline-fallback",
+    "buckling-interaction-counted",
+    "out-of-plane-interaction-not-counted",
+    "lateral-torsional-interaction-not-counted",
+    "lateral-torsional-buckling",
+    "chi-LT-1",
+    "LTB-not-checked",
+)
+_SEVERITY = {"danger": 0, "warning": 1, "info": 2}
+
+
+def _shown_cautions(result, item) -> tuple:
+    """The cautions of combination `item` shown: the governing result's general caution and deflection
+    cautions (the governing service combination's, named), then the combination's own others."""
+    drop = {"scope", *_DEFLECTION_CODES}
+    if item.combination.state == "service":
+        drop.update(_NOT_OF_SERVICE)
+    kept = [c for c in result.cautions if c.code == "scope"]
+    kept += [c for c in item.result.cautions if c.code not in drop]
+    kept += [c for c in result.cautions if c.code in _DEFLECTION_CODES]
+    return tuple(sorted(kept, key=lambda c: _SEVERITY.get(c.level, 3)))  # stable: the general one leads
+
+
 def view_result(state):
     """The result the page's values, cautions, sketch and exports show: the state's (the governing
-    combination's, with the case's load cases), or the chosen combination's carrying the same load cases and
-    the governing service check (the deflection check belongs to the service combinations), so that an
-    export holds what is on screen. The envelope and the governing combination by name give the state's."""
+    combination's, with the case's load cases), or the chosen combination's, so that an export holds what is
+    on screen. The envelope and the governing combination by name give the state's.
+
+    A chosen combination's result carries the case's load cases, the governing result's general caution and
+    its deflection check and cautions (the deflection check is the governing service combination's, whichever
+    combination is shown: an ultimate combination's own deflection is never shown as one). A service
+    combination's carries no member check, routes or LTB check (strength is checked on the ultimate
+    combinations, :func:`app.report.combinations.not_governing_note`) and none of the bow's cautions (it is
+    solved without a bow by design)."""
     result = state.result
     item = chosen_item(result, getattr(state, "combination_choice", ""))
     if item is None or item.name == result.actions.headline:
         return result
-    service = result.service if item.combination.state == "ultimate" else item.result.service
-    return dataclasses.replace(item.result, actions=result.actions, service=service)
+    shown = item.result
+    if item.combination.state == "service" and result.utilization is not None:
+        shown = dataclasses.replace(shown, check=None, utilization=None, routes=(), ltb=None)
+    if shown.second_plane is not None and result.second_plane is not None:  # each plane's deflection check
+        second = dataclasses.replace(shown.second_plane, service=result.second_plane.service)
+        shown = dataclasses.replace(shown, second_plane=second)
+    return dataclasses.replace(
+        shown, actions=result.actions, service=result.service, cautions=_shown_cautions(result, item)
+    )
 
 
 def scale_sentence(state) -> str:

@@ -7,6 +7,8 @@ from __future__ import annotations
 
 import math
 
+from app.report.scope import GENERAL_CAUTION
+
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
@@ -19,6 +21,11 @@ def _finite(value) -> float | None:
         return None
     value = float(value)
     return value if math.isfinite(value) else None
+
+
+def _message(caution) -> str:
+    """A caution's message as the engine gives it; the general caution in app.report's one wording."""
+    return GENERAL_CAUTION if caution.code == "scope" else caution.message
 
 
 def _peak_data(peak) -> dict:
@@ -174,7 +181,7 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
         "combinations": _combinations_data(getattr(result, "actions", None)),
         "ltb": _ltb_data(result),
         "cautions": [
-            {"level": c.level, "code": c.code, "message": c.message, "source": c.source}
+            {"level": c.level, "code": c.code, "message": _message(c), "source": c.source}
             for c in result.cautions
         ],
     }

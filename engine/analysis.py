@@ -332,6 +332,9 @@ def _cautions(result, prep, favourable: bool, check) -> tuple:
     case, section, buckling = result.case, result.section, prep.buckling
     pcr1 = float(buckling.critical_loads[0])
     slender = buckling.effective_length_factor * prep.model.L / section.i if section is not None else None
+    out = getattr(getattr(check, "out_of_plane", None), "N_cr", None)  # one plane: the other axis counts too
+    if slender is not None and out is not None and result.material is not None and 0.0 < out < math.inf:
+        slender = max(slender, math.pi * math.sqrt(result.material.E * section.A / out))  # its L_cr/i
     facts = dict(prep.bow_facts(), opposes_load=favourable)
     # The analysis is elastic whatever the cross-section check: the limit of an elastic global analysis.
     return with_route_cautions(

@@ -110,7 +110,8 @@ def of_route(check, *, y, z, ltb) -> dict | None:
     a case that did not enable that route. None where nothing is left to count or the route is not
     applied."""
     wanted = equations(y, z, ltb)
-    if not wanted or not check.facts.get("N_Ed", 0.0) > 0.0:
+    formed = "eq-6.62" in check.terms  # at N <= 0 too, where the route takes them at N_Ed = 0
+    if not wanted or not (check.facts.get("N_Ed", 0.0) > 0.0 or formed):
         return None
     found = _largest(check, wanted)
     return None if found is None else _term((*found, False), y, z)

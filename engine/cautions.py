@@ -60,9 +60,9 @@ GENERAL = Caution(
     message=(
         "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
         "torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution "
-        "says so, web shear buckling, "
-        "connections and load combinations are not checked. Check the results "
-        "against your local codes and have them reviewed by a licensed engineer."
+        "says so, web shear buckling and connections are not checked. The loads are taken as given (load "
+        "cases, where given, are combined by the rule the case names; the factors are the engineer's). Check "
+        "the results against your local codes and have them reviewed by a licensed engineer."
     ),
     source="strutscope's scope (common practice, no source)",
 )

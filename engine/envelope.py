@@ -548,7 +548,7 @@ def _cautions(chosen, ultimate, servings) -> tuple:
     return tuple(kept)
 
 
-#: The general caution of a case with load cases (the plain one says load combinations are not checked).
+#: The general caution of a case with load cases (the plain one takes the loads as given).
 SCOPE = dataclasses.replace(
     GENERAL,
     message=(

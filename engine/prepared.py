@@ -35,6 +35,15 @@ __all__ = ["Prepared", "clear_cache", "prepare"]
 _TILTS_KEPT = 8
 
 
+def _free_end(case) -> str | None:
+    """The end free in translation and rotation of a member whose other end is held ("left", "right"), or
+    None: the reference moment's line of action (:class:`engine.reference.ReferenceData`)."""
+    free = [
+        e for e, s in (("left", case.left), ("right", case.right)) if s.translation == s.rotation == "free"
+    ]
+    return free[0] if len(free) == 1 else None
+
+
 @dataclasses.dataclass(frozen=True)
 class OutOfPlumb:
     """A sway alone, as :class:`engine.member.BowChoice` gives one: φ [rad], zero at ``sway_anchor`` [m]."""
@@ -121,7 +130,7 @@ class Prepared:
         """M_I, V_I and the bow at the base stations, for the reference moment M_I + N·w0 (cached)."""
         if count not in self._reference:
             seg, xi, _, _ = self.stations(count, 0.0)
-            self._reference[count] = ReferenceData(self.model, seg, xi)
+            self._reference[count] = ReferenceData(self.model, seg, xi, _free_end(self.case))
         return self._reference[count]
 
     def section_class(self, P: float, web_bent=None):

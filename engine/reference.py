@@ -6,13 +6,16 @@ here is the moment the loads and the bow give before the member deflects further
 
 .. math::
 
-    M_{I,ref}(x) = M_I(x) + N\,w_0(x),
+    M_{I,ref}(x) = M_I(x) + N\,(w_0(x) - e),
 
-the form practitioners amplify, :math:`(M_I + N e_0)/(1 - N/N_{cr})`, and the one the deflection amplification
-already uses (:math:`\max|w + w_0| / \max|w_I + w_0|`). For a sine bow on a pin-ended member the bow's part
-amplifies by exactly :math:`1/(1 - \alpha)` (Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed. 1961,
-ch. 1, derived). Its largest magnitude is found from the stations by Newton's iteration on
-:math:`(M_I + N w_0)' = V_I + N w_0'`, on the exact cubic of :math:`M_I` in each segment and the bow's Taylor
+with :math:`e = 0` for a member held at both ends and :math:`e = w_0` at the free end of a cantilever (the
+axial force keeps its direction and acts through the tip's initial offset: the sway's moment :math:`N(w_0(x) -
+w_0(L))` is largest at the base, where :math:`w_0 = 0`), the form practitioners amplify, :math:`(M_I + N
+e_0)/(1 - N/N_{cr})`, and the one the deflection amplification already uses (:math:`\max|w + w_0| / \max|w_I +
+w_0|`). For a sine bow on a pin-ended member the bow's part amplifies by exactly :math:`1/(1 - \alpha)`
+(Timoshenko & Gere, *Theory of Elastic Stability*, 2nd ed. 1961, ch. 1, derived). Its largest magnitude is
+found from the stations by Newton's iteration on :math:`(M_I + N w_0)' = V_I + N w_0'`, on the exact cubic of
+:math:`M_I` in each segment and the bow's Taylor
 series to its fifth derivative (no solve, no evaluation of the basis).
 """
 
@@ -36,12 +39,15 @@ class ReferenceData:
     exact to rounding over a station spacing (the next term is :math:`(\beta d)^6/720` of the bow).
     """
 
-    def __init__(self, model, seg, xi):
+    def __init__(self, model, seg, xi, free_end: str | None = None):
         pts = Points(model, seg, xi)
         st = Batch(model, [0.0]).states(0, pts)
         self.x, self.xi, self.h = pts.x, pts.xi, pts.h
         self.M, self.V, self.q, self.q1 = st["M"], st["V"], pts.q, pts.q1  # at P = 0, V = T
         self.w0, self.d1, self.d2, self.d3 = pts.bow
+        if free_end is not None and self.x.size:  # N acts along a line through the free end's offset
+            end = int(np.argmin(self.x)) if free_end == "left" else int(np.argmax(self.x))
+            self.w0 = self.w0 - self.w0[end]
         bow = model.bow
         b2 = float(bow.terms[0][1]) ** 2 if bow.terms else 0.0
         self.d4, self.d5 = -b2 * (self.d2 + bow.uniform), -b2 * self.d3

@@ -16,7 +16,9 @@ pieces; each piece is checked with eqs. (6.61)/(6.62) and the cross-section chec
 - for each plane the first-order diagram of the braced segment that holds the piece: :math:`M_{Ed}` its
   largest |M|, :math:`C_m` its Table B.3 (or A.2) factor, the sway note's 0.9 where one of its ends is a
   member end free to translate;
-- the member's lateral-torsional buckling check as it is (:mod:`engine.member_routes`).
+- the member's lateral-torsional buckling check as it is (:mod:`engine.member_routes`), with :math:`C_{mLT}`
+  of Table B.2 read from :math:`M_y` between the points braced laterally (the LTB check's brace segments, the
+  whole member without braces), not from the piece's span between in-plane braces.
 
 The piece with the largest utilisation governs; its x range is in the facts (``segment_start``,
 ``segment_end``; ``L_segment`` its length) and every piece's ``[start, end, utilisation]`` in
@@ -97,6 +99,21 @@ def _containing(cuts: tuple, length: float, x: float) -> tuple:
     return ends[k], ends[k + 1]
 
 
+def _lateral_diagram(found, cuts: tuple, ltb, length: float, mid: float, cache):
+    """The M_y diagram between the points braced laterally that hold the piece at ``mid`` (Table B.3 reads
+    C_mLT there, from memory): the LTB check's brace segment (the whole member without braces), where it
+    is not the piece's own span between in-plane braces; None otherwise. An in-plane support alone does not
+    hold the member laterally, so its C_my is not C_mLT (an independent check found C_mLT 0.55 of a
+    half span taken for a member free laterally over 8 m: eq. (6.62) 8.8 % low)."""
+    if found is None or ltb is None or not getattr(ltb, "applies", False):
+        return None
+    spans = tuple(ltb.segments) or ((0.0, length),)
+    span = next(((a, b) for a, b in spans if a - _TOL <= mid <= b + _TOL), (0.0, length))
+    if span == _containing(cuts, length, mid):
+        return None
+    return cache(("routes-segment-diagram", "y", span), lambda: _segment_diagram(*found, *span))
+
+
 def route(*, y, z, plane_results, cache, key=None, **common):
     """The ``en-member`` route of a member with braced points: every piece between the braced points of both
     planes checked as an equivalent member (see the module); ``plane_results`` maps an axis (``"y"``,
@@ -125,7 +142,8 @@ def route(*, y, z, plane_results, cache, key=None, **common):
                 lambda found=found, span=span: _segment_diagram(*found, *span),
             )
             sides[axis] = dataclasses.replace(plane, diagram=diagram)
-        found = en_member.route(y=sides["y"], z=sides["z"], **common)
+        lateral = _lateral_diagram(plane_results["y"], cuts["y"], common.get("ltb"), length, mid, cache)
+        found = en_member.route(y=sides["y"], z=sides["z"], lateral_diagram=lateral, **common)
         if found.utilization is None:
             return found  # not applied: a property of the section, the same for every piece
         pieces.append((a, b, found))

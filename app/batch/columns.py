@@ -217,8 +217,16 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("x_w", "length"),
     ("amplification_moment", None),
     ("utilization", None),
+    # Stop 33: whether ``utilization`` is a code check (app.batch.headline): "code check", or "elastic bound
+    # only, not a code check (<material kind>)" for a member of a material whose code is not checked (timber,
+    # aluminium, custom), whose utilisation a code's check can exceed; "" without a utilisation.
+    ("utilization_basis", None),
     ("deflection_utilization", None),
+    # What produces ``utilization``: "<headline route>: <its governing term>", e.g. "en-member: eq. (6.62)"
+    # (stop 33; it was the second-order route's check kind, which another route may exceed).
     ("governing_check", None),
+    # The second-order route's flexural buckling check about the other axis alone (EN 1993-1-1 §6.3.1,
+    # N/N_b,Rd); neither the headline nor necessarily its governing term.
     ("out_of_plane_utilization", None),
     ("section_class", None),
     ("capacity", "force"),
@@ -278,7 +286,8 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
     -------
     tuple of str
         ``id, row, status, field, message, stability, Pcr1_kN, alpha_cr, M_max_kNm, x_M_m, V_max_kN, x_V_m,
-        w_max_mm, x_w_m, amplification_moment, utilization, deflection_utilization, governing_check,
+        w_max_mm, x_w_m, amplification_moment, utilization, utilization_basis, deflection_utilization,
+        governing_check,
         out_of_plane_utilization, section_class, capacity_kN, capacity_check, cautions, headline_route,
         utilization_second_order, governing_second_order, utilization_en_member, governing_en_member,
         utilization_aisc, governing_aisc, second_plane_Pcr1_kN, second_plane_M_max_kNm, second_plane_V_max_kN,
@@ -286,8 +295,12 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
         M_cr_tabulated_kNm, lambda_LT, chi_LT, utilization_ltb, R_inner_max_kN, x_R_inner_m,
         inner_reactions`` in SI.
         ``utilization``
-        is strength and stability; ``deflection_utilization`` the separate service check (loads as given, no
-        bow).
+        is strength and stability, the worst route counted; ``utilization_basis`` says whether it is a code
+        check (``"code check"``) or, for a material whose code is not checked, an ``"elastic bound only, not
+        a code check (<kind>)"`` that a code's check can exceed; ``governing_check`` names the route and the
+        term that give it (``"en-member: eq. (6.62)"``); ``out_of_plane_utilization`` is the second-order
+        route's buckling check about the other axis alone; ``deflection_utilization`` the separate service
+        check (loads as given, no bow).
     """
     suffixes = _SUFFIXES[units]
     return tuple(name if kind is None else f"{name}_{suffixes[kind]}" for name, kind in _RESULT_LAYOUT)
@@ -348,8 +361,15 @@ class BatchSummary:
     by_stability : dict
         Solved rows counted by their ``stability`` cell (``stable``, ``unstable``, ``critical``, ...).
     highest : list of tuple
-        ``(utilisation, row, id)`` of the solved rows with the highest utilisation, highest first (at most
-        :data:`app.batch.summary.HIGHEST`; a member at or above its critical load counts as ``inf``).
+        ``(utilisation, row, id)`` of the solved rows with the highest utilisation that is a code check
+        (``utilization_basis`` ``code check``), highest first (at most :data:`app.batch.summary.HIGHEST`; a
+        member at or above its critical load counts as ``inf``).
+    not_code_checks : list of tuple
+        ``(utilisation, row, id, basis)`` of the solved rows whose utilisation is not a code check (an elastic
+        bound: timber, aluminium, a custom material), the highest first (at most
+        :data:`app.batch.summary.HIGHEST`), kept apart from ``highest``; ``not_code_check_count`` counts them
+        all.
+    not_code_check_count : int
     retried : list of str
         What the executor had to do again (a lost worker's chunk sent again), one line each.
     executor : str
@@ -371,6 +391,8 @@ class BatchSummary:
     stale: list = field(default_factory=list)
     by_stability: dict = field(default_factory=dict)
     highest: list = field(default_factory=list)
+    not_code_checks: list = field(default_factory=list)
+    not_code_check_count: int = 0
     retried: list = field(default_factory=list)
     executor: str = "local"
     with_combinations: int = 0

@@ -24,6 +24,7 @@ from app.batch.columns import (
     _file_mode,
     result_columns,
 )
+from app.batch.headline import basis_cell, governing_cell
 from app.batch.rows import _count_rows, _engine_error, _records, member_case
 from app.batch.summary import count_solved, finish
 from app.safe_text import csv_writer
@@ -105,8 +106,9 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         _cell(governing.deflection.x, length),
         _cell(result.amplification.moment),
         _cell(result.utilization),
+        basis_cell(result),
         _cell(None if result.service is None else result.service.utilization),
-        "" if check is None else check.kind,
+        governing_cell(result),
         "" if check is None or check.out_of_plane is None else _cell(check.out_of_plane.utilization),
         "" if check is None or check.section_class is None else str(check.section_class.klass),
         _cell(capacity_force, force),
@@ -487,7 +489,8 @@ def _run_locked(
     summary = BatchSummary(results=target, workers=used)
     if address is not None:
         size, summary.executor, summary.workers = chunk_rows or CHUNK_ROWS, f"Dask cluster at {address}", 0
-    highest: list = []  # a heap of the highest utilisations (app.batch.summary)
+    highest: list = []  # a heap of the highest utilisations that are code checks (app.batch.summary)
+    not_checked: list = []  # and one of those that are not (elastic bounds)
 
     bar = None
     if progress is None:
@@ -521,7 +524,7 @@ def _run_locked(
                         summary.solved += 1
                         summary.failing += failing
                         summary.beyond_critical += record[5] in ("unstable", "critical")
-                        count_solved(summary, record, highest)
+                        count_solved(summary, record, highest, not_checked)
                         summary.pdfs += wrote
                         if wrote:
                             manifest.add(f"{record[0]}.pdf")
@@ -538,7 +541,7 @@ def _run_locked(
         os.chmod(temporary, _file_mode())
         os.replace(temporary, target)
         summary.stale = manifest.complete()
-        finish(summary, highest)
+        finish(summary, highest, not_checked)
     except BaseException:
         with contextlib.suppress(OSError):
             os.unlink(temporary)

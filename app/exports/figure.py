@@ -50,9 +50,8 @@ from app.report import (
     stiffness_text,
     support_text,
     system_name,
-    utilisation_text,
 )
-from app.report.combinations import shown_line
+from app.report.combinations import shown_line, utilisation_line
 from app.report.ltb import ltb_words
 from app.report.routes import pcr1_planes_text, plane_axes, plane_name
 from app.sketch import MOMENT_POSITIVE_DOWN, PAD_INCHES
@@ -298,9 +297,9 @@ def _title_block(fig, result, U: Units, date: str, *, left, right, top, bottom):
             f"deflection {ratio(amplification.deflection)}",
             hanging=0.15,
         )
-        utilisation = utilisation_text(result, U)
+        utilisation = utilisation_line(result, U)
         if utilisation:
-            flow.para(f"Utilisation: {utilisation}", hanging=0.15)
+            flow.para(utilisation, hanging=0.15)
         danger = result.status != "stable"
         flow.para(
             f"Status: {status_text(result, U) if danger else result.status}",

@@ -58,7 +58,7 @@ from app.report import (
     system_name,
     utilisation_text,
 )
-from app.report.combinations import shown_line
+from app.report.combinations import deflection_basis, service_strength, shown_line
 from app.units import Units
 
 # --------------------------------------------------------------------------------------------------------
@@ -247,6 +247,10 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     if check is None:
         if result.utilization is not None:
             item("Utilisation", ratio(result.utilization))
+        elif service_strength(result):  # a service combination shown: strength is the ultimate combinations'
+            item("Strength", service_strength(result))
+            if result.service is not None:
+                item("Deflection (service)", f"{service_text(result.service, U)}; {deflection_basis(result)}")
         else:
             flow.para("No section and material given: no member check.", color=_GREY)
     else:
@@ -265,7 +269,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             item("Section", f"{check.section_class.describe()}, EN 1993-1-1 Table 5.2")
         service = result.service
         if service is not None:
-            item("Deflection (service)", f"{service_text(service, U)}; loads as given, no bow")
+            item("Deflection (service)", f"{service_text(service, U)}; {deflection_basis(result)}")
         resistances = check.resistances or {}
         parts = []
         for key, kind in (("N_Rd", "force"), ("M_Rd", "moment"), ("V_Rd", "force")):

@@ -51,7 +51,7 @@ def routes_items(item, flow, result, U: Units) -> None:
             row["status"]
         ]
         term = f", {row['governing']}" if row["governing"] and not row["term_in_words"] else ""
-        danger = row["value"] is not None and not float(row["value"]) <= 1.0
+        danger = row["danger"]
         item(
             row["name"],
             f"{row['utilisation']}{term} ({status})",

@@ -56,7 +56,8 @@ _DEFINITIONS_TEXT = (
     "as the deflection's holds w0); AISC B1 is compared on the member without its bow. A preset bow with "
     "automatic direction is solved both ways and the worse kept; with a free or guided end it follows the "
     "first mode, plus the sway of EN 1993-1-1 eq. (5.5). Utilisation = strength and stability; deflection = "
-    "a separate service check on the loads as given, without the bow."
+    "a separate service check without the bow, on the loads as given or, with load cases, on the governing "
+    "service combination."
 )
 
 # How the resistance side is defined (issue 12), printed under the method on the calc sheet.

@@ -9,7 +9,7 @@ import numpy as np
 
 from app.exports.style import _title, _units
 from app.report import bow_direction_text, csv_number, general_caution, status_text, system_name
-from app.report.combinations import metadata_rows
+from app.report.combinations import deflection_basis, metadata_rows, service_strength, utilisation_note
 from app.report.numbers import CSV_DIGITS
 from app.report.restraints import metadata_rows as restraint_rows
 from app.safe_text import csv_writer
@@ -146,10 +146,11 @@ def _metadata(result, U: Units) -> list:
         ("status", status_text(result, U)),
     ]
     if result.utilization is not None:
-        note = "strength and stability; the deflection check is apart"
-        rows.append(("utilisation [-]", csv_number(result.utilization), note))
+        rows.append(("utilisation [-]", csv_number(result.utilization), utilisation_note(result)))
+    elif service_strength(result):  # a service combination shown: strength is the ultimate combinations'
+        rows.append(("utilisation [-]", "", f"strength and stability {service_strength(result)}"))
     if result.service is not None:
-        note = f"service check: {result.service.basis}"
+        note = deflection_basis(result, long=True)
         rows.append(("deflection utilisation [-]", csv_number(result.service.utilization), note))
     rows += _amplification_rows(result)
     rows += _plane_and_route_rows(result, U)
@@ -189,7 +190,10 @@ def _plane_and_route_rows(result, U: Units) -> list:
         rows.append((f"max|M_{suffix}| [{moment}]", csv_number(U.convert("moment", abs(peak.value)))))
     for row in routes.route_rows(result, U):
         value = "" if row["value"] is None else csv_number(row["value"])
-        note = "; ".join(part for part in (row["governing"], row["status"], row["reason"]) if part)
+        governing = "" if row["term_in_words"] else row["governing"]
+        # With load cases the value is the shown combination's own: the words name it (and any larger one).
+        words = row["utilisation"] if row["combination"] and row["value"] is not None else ""
+        note = "; ".join(part for part in (words, governing, row["status"], row["reason"]) if part)
         rows.append((f"route {row['name']} [-]", value, note))
     return rows
 

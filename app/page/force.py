@@ -180,6 +180,8 @@ class ForceControl(pn.viewable.Viewer):
         if result is None:
             return
         pcr1 = float(result.critical_loads[0])
+        if getattr(result, "second_plane", None) is not None:  # two planes: the lower one buckles first, and
+            pcr1 = min(pcr1, _other_critical(result))  # α_cr is that plane's: N/Pcr1 and the track follow it
         P = float(result.axial_force)
         self.pcr1 = pcr1
         # Served, a result can arrive after the slider has moved on (solves run off the event loop): the

@@ -23,6 +23,7 @@ from bokeh.models import ColumnDataSource, Legend, LegendItem, Range1d, Span
 from bokeh.plotting import figure
 
 from app.page.style import CSS, SECOND, TRANSVERSE, WIDGET_CSS, esc, finite, html_pane
+from app.report.combinations import service_strength
 from app.report.ltb import LOAD_POSITION_LABELS, ltb_of, ltb_words
 from app.state import MemberState
 from app.state_actions import view_result
@@ -51,6 +52,9 @@ def ltb_html(result, U) -> str:
     """The check's figures (HTML): a heading and a table, or why the check was not made, or that there is
     none."""
     words = ltb_words(result, U)
+    strength = service_strength(result, brief=True)
+    if words is None and strength:  # a service combination shown: strength on the ultimate combinations
+        return f"<div class='ss-note ss-ltb-none'>Lateral-torsional buckling is {esc(strength)}.</div>"
     if words is None:
         return (
             "<div class='ss-note ss-ltb-none'>No lateral-torsional buckling check: it needs a section and a "

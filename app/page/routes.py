@@ -23,6 +23,7 @@ from bokeh.plotting import figure
 
 from app.page.style import esc, html_pane
 from app.page.words import symbols
+from app.report.combinations import service_strength, utilisation_line
 from app.report.routes import (
     headline_exceeds_routes,
     headline_text,
@@ -51,7 +52,8 @@ def planes_text(result, U) -> str:
     out = None if result.check is None else result.check.out_of_plane
     text = f"One plane: {plane_name(own)}. Out of plane ({plane_name(other_axis(own))}): "
     if out is None:
-        return text + "not checked (no member check)."
+        strength = service_strength(result, brief=True)  # a service combination: on the ultimate ones
+        return text + (f"{strength}." if strength else "not checked (no member check).")
     if not out.checked:
         if out.reason.startswith("restrained"):
             return text + "buckling prevented (restrained, as the case says)."
@@ -71,7 +73,7 @@ def routes_html(result, U) -> str:
         parts.append(f"<div class='ss-heading'>{esc(title)}</div><table class='ss-routes'>")
         parts.append("<colgroup><col class='q'><col class='v'><col class='f'></colgroup>")
         for row in rows:
-            danger = row["value"] is not None and not float(row["value"]) <= 1.0
+            danger = row["danger"]
             css = " class='danger'" if danger else ""
             muted = " style='opacity:0.75'" if row["status"] == "for comparison" else ""
             term = "" if row["term_in_words"] else (row["governing"] or row["reason"] or "")
@@ -83,6 +85,9 @@ def routes_html(result, U) -> str:
         parts.append("</table>")
     else:
         parts.append("<div class='ss-heading'>Routes</div>")
+        strength = utilisation_line(result, U) if service_strength(result) else ""
+        if strength:
+            parts.append(f"<div class='ss-note ss-service-strength'>{symbols(strength)}</div>")
     parts.append(f"<div class='ss-note ss-planes'>{symbols(planes_text(result, U))}</div>")
     return "".join(parts)
 

@@ -21,6 +21,7 @@ from app.report import (
     ratio,
     reaction_rows,
 )
+from app.report.combinations import deflection_basis, service_strength
 from app.report.ltb import ltb_words
 from app.report.routes import governing_text, headline_route, plane_axes, plane_name, route_name
 from app.report.section_names import section_name
@@ -70,6 +71,19 @@ def utilisation_text(value) -> str:
     if value is not None and math.isinf(float(value)):
         return "∞ fails"
     return ratio_text(value)
+
+
+def _service_row(row, result, U) -> None:
+    """The deflection check's row (with load cases the governing service combination's, named)."""
+    service = result.service
+    if service is not None:
+        row(
+            "deflection (service)",
+            f"{ratio_text(service.utilization)} {U.show('small_length', abs(service.deflection))}",
+            deflection_basis(result),
+            False,
+            service.utilization > 1,
+        )
 
 
 def values_table(result, capacity, capacity_note: str, U) -> str:
@@ -134,15 +148,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
                 "not checked",
                 "restrained" if out.reason.startswith("restrained") else "see cautions",
             )
-        service = result.service
-        if service is not None:
-            row(
-                "deflection (service)",
-                f"{ratio_text(service.utilization)} {U.show('small_length', abs(service.deflection))}",
-                "loads as given, no bow",
-                False,
-                service.utilization > 1,
-            )
+        _service_row(row, result, U)
         if capacity is not None:
             row(
                 "capacity N",
@@ -153,6 +159,9 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             )
         elif capacity_note:
             row("capacity N", "n/a", capacity_note)
+    elif service_strength(result):  # a service combination shown: strength is the ultimate combinations'
+        row("strength", "see note", service_strength(result))
+        _service_row(row, result, U)
     else:
         row("utilisation", "n/a", "needs a section and material")
     _ltb_rows(head, row, result, U)

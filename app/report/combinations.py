@@ -6,7 +6,7 @@ from __future__ import annotations
 
 from app.report import words as w
 from app.report.numbers import percent, utilisation
-from app.report.route_names import route_name
+from app.report.route_names import governing_text, route_name
 
 __all__ = [
     "CHECK_NAMES",
@@ -15,11 +15,19 @@ __all__ = [
     "check_name",
     "combination_lines",
     "combination_rows",
+    "deflection_basis",
+    "deflection_words",
     "expression",
     "governing_rows",
     "headline_note",
     "metadata_rows",
     "rule_text",
+    "service_strength",
+    "shown_line",
+    "shown_name",
+    "strength_words",
+    "utilisation_line",
+    "utilisation_note",
 ]
 
 #: The rules' names, with their sources' flags.
@@ -191,15 +199,103 @@ def shown_line(result) -> tuple[str, bool]:
 
 def not_governing_note(actions_result, shown: str) -> str:
     """Said wherever a combination other than the governing one is shown or exported; '' for the
-    governing one."""
+    governing one. A service combination's says that strength is checked on the ultimate combinations (it
+    has no member check shown and no bow, by design: :func:`app.state_actions.view_result`)."""
     headline = actions_result.headline
     if not shown or headline is None or shown == headline:
         return ""
+    deflection = deflection_words(actions_result)
+    deflection = f"the deflection check is that of {deflection}" if deflection else "no deflection check"
+    if _state_of(actions_result, shown) == "service":
+        return (
+            f"Combination {shown} is shown: a service combination, solved without the bow by design; "
+            f"{deflection}. Strength and stability are checked on the ultimate combinations: "
+            f"{strength_words(actions_result)}; the capacity and the design are those of combination "
+            f"{headline}."
+        )
     return (
         f"Combination {shown} is shown: it is not the governing combination. The headline utilisation, the "
-        f"capacity and the design are those of combination {headline}; the deflection check is that of the "
-        "service combinations."
+        f"capacity and the design are those of combination {headline}; {deflection}."
     )
+
+
+def _state_of(actions_result, name: str) -> str:
+    return next((c.combination.state for c in actions_result.combinations if c.name == name), "")
+
+
+def strength_words(actions_result) -> str:
+    """The governing ultimate combination and its strength utilisation, e.g. ``"combination U2 governs,
+    utilisation 0.448 by EN 1993-1-1 equivalent member (Annex B), eq. (6.62)"``."""
+    row = actions_result.governing_for("strength")
+    if row is None:
+        return "none is given"
+    head = next((c.result for c in actions_result.combinations if c.name == row.combination), None)
+    routes = [r for r in getattr(head, "routes", ()) or () if r.enabled and r.utilization is not None]
+    top = max(routes, key=lambda r: float(r.utilization)) if routes else None
+    text = f"combination {row.combination} governs, utilisation {utilisation(row.value)}"
+    if top is not None and float(top.utilization) == float(row.value):
+        term = governing_text(top.governing)
+        text += f" by {route_name(top, head)}" + (f", {term}" if term else "")
+    return text
+
+
+def deflection_words(actions_result, plane: int = 1) -> str:
+    """The deflection check's combination and value, e.g. ``"service combination S2 (0.130)"``; '' when
+    the service combinations give no deflection check."""
+    row = actions_result.governing_for("deflection", plane)
+    if row is None or row.unit != "":
+        return ""
+    return f"service combination {row.combination} ({utilisation(row.value)})"
+
+
+def deflection_basis(result, long: bool = False) -> str:
+    """What the deflection check of `result` is of: the loads as given, or with load cases the governing
+    service combination, by name, whichever combination is shown (``long``: the engine's basis after it)."""
+    actions = getattr(result, "actions", None)
+    row = None if actions is None else actions.governing_for("deflection")
+    basis = getattr(getattr(result, "service", None), "basis", "")
+    if row is None or row.unit != "":
+        return f"service check: {basis}" if long else "loads as given, no bow"
+    if long:
+        return f"service check of combination {row.combination}, the governing service combination: {basis}"
+    return f"service combination {row.combination}, no bow"
+
+
+def utilisation_note(result) -> str:
+    """The note of the strength utilisation of `result`: whose it is with load cases."""
+    actions = getattr(result, "actions", None)
+    shown = "" if actions is None else shown_name(actions, result)
+    of = f" of combination {shown}" if shown else ""
+    return f"strength and stability{of}; the deflection check is apart"
+
+
+def utilisation_line(result, U) -> str:
+    """The headline utilisation in one line, e.g. ``"Utilisation: 0.448 (...)"``, with load cases of the
+    combination shown (``"Utilisation of combination U4: ..."``), a service combination's where strength is
+    checked; '' without a check."""
+    strength = service_strength(result)
+    if strength:
+        return f"Strength and stability are {strength}."
+    text = w.utilisation_text(result, U)
+    if not text:
+        return ""
+    actions = getattr(result, "actions", None)
+    shown = "" if actions is None else shown_name(actions, result)
+    return f"Utilisation{f' of combination {shown}' if shown else ''}: {text}"
+
+
+def service_strength(result, brief: bool = False) -> str:
+    """A service combination shown (no member check, :func:`app.state_actions.view_result`): where strength
+    is checked, e.g. ``"checked on the ultimate combinations, not on a service one: combination U2 governs,
+    utilisation 0.448 by ..."`` (``brief``: before the colon);
+    '' for any other result."""
+    actions = getattr(result, "actions", None)
+    if actions is None or result.check is not None or actions.headline is None:
+        return ""
+    if _state_of(actions, shown_name(actions, result)) != "service":
+        return ""
+    where = "checked on the ultimate combinations, not on a service one"
+    return where if brief else f"{where}: {strength_words(actions)}"
 
 
 def superposition_lines(comparison, U) -> list:

@@ -116,6 +116,11 @@ NOTES = {
     ),
     "aisc-slender-e7": ("info", "a slender element in compression: P_n = F_cr·A_e, effective widths of §E7"),
     "aisc-tension-yielding": ("info", "tension: P_c is tension yielding, §D2(a)"),
+    "en-member-no-compression": (
+        "info",
+        "no compression: eqs. (6.61)/(6.62) taken at N_Ed = 0 (a tension not counted as relieving) for "
+        "bending about both axes, beside the cross-section checks",
+    ),
     "en-member-cross-section-only": (
         "info",
         "no compression: eqs. (6.61)/(6.62) do not apply, only the cross-section checks",

@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import math
 
+from app.report.combinations import shown_name
 from app.report.numbers import finite, ratio
 from app.report.route_names import (  # noqa: F401 (the planes' names are used from here too)
     NOTES,
@@ -260,31 +261,41 @@ def headline_exceeds_routes(result) -> bool:
     return _utilisation_of(route) < float(own) * (1.0 - 1e-9) - 1e-12
 
 
+def _shown(result) -> str:
+    """The name of the combination `result` holds ('' for a case without load cases)."""
+    actions = getattr(result, "actions", None)
+    if actions is None:
+        return ""
+    return shown_name(actions, result)
+
+
 def headline_text(result) -> str:
-    """The headline: the worst enabled route by name, e.g. ``"0.874 by AISC 360-16 (LRFD), H1-1a"``."""
+    """The headline: the worst enabled route by name, e.g. ``"0.874 by AISC 360-16 (LRFD), H1-1a"``; with
+    load cases the combination it is of, e.g. ``"0.341 in U4 by ..."``."""
     route = headline_route(result)
     if route is None:
         return ""
+    shown = _shown(result)
+    where = f" in {shown}" if shown else ""
     if headline_exceeds_routes(result):
         check = getattr(result, "check", None)
         kind = f" ({check.kind})" if check is not None else ""
         words = _utilisation_words(result.utilization)
-        return f"{words} by the member check{kind}, above every route that counts"
+        return f"{words}{where} by the member check{kind}, above every route that counts"
     term = governing_text(route.governing)
-    text = f"{_utilisation_words(route.utilization)} by {route_name(route, result)}"
+    text = f"{_utilisation_words(route.utilization)}{where} by {route_name(route, result)}"
     return text + (f", {term}" if term else "")
 
 
-def _largest_of_combinations(result, route) -> tuple[float, str] | None:
-    """(utilisation, combination) when an ultimate combination other than the shown one (the headline's)
-    gives this route a larger utilisation, else None. The routes shown are the headline combination's; a
-    route's own largest value may come from another combination (the engine's ``route:<code>`` governing row),
-    and a route shown below its largest would read on the unsafe side."""
+def _largest_of_combinations(result, route, shown: str) -> tuple[float, str] | None:
+    """(utilisation, combination) when an ultimate combination other than the shown one gives this route a
+    larger utilisation (the engine's ``route:<code>`` governing row), else None: it is named beside the shown
+    combination's own value, never put in its place."""
     actions = getattr(result, "actions", None)
     if actions is None:
         return None
     row = actions.governing_for(f"route:{route.route}")
-    if row is None or row.combination == actions.headline:
+    if row is None or row.combination == shown:
         return None
     value = float(row.value)
     if not (math.isnan(value) or value > _utilisation_of(route)):
@@ -297,13 +308,18 @@ def route_rows(result, U: Units) -> list[dict]:
 
     Every row is a dict with ``route`` (the code), ``name``, ``enabled`` (bool), ``status`` (``"headline"``,
     ``"counts"`` or ``"for comparison"``), ``utilisation`` (text), ``value`` (the number or None),
-    ``governing``, ``term_in_words`` (bool), ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and
-    ``source``. With load combinations the routes are the headline combination's; a route that another
-    ultimate combination loads more gives that combination's value in ``value`` and names both in
-    ``utilisation``, the shown combination's governing term beside its own value (``term_in_words`` True: a
-    view then does not add ``governing`` after the words, where it would read as the larger one's).
+    ``danger`` (bool: above 1 here or in another combination), ``combination`` (the shown one's name, ''
+    without load cases), ``governing``, ``term_in_words`` (bool),
+    ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and ``source``.
+
+    With load cases the rule is one for every output: each value is the shown combination's own and is
+    named with it (``"0.254 in U4"``); a route that another ultimate combination loads more names that one
+    after it (``"; 0.391 in U1, the largest of the combinations"``), the shown combination's governing term
+    beside its own value (``term_in_words`` True: a view then does not add ``governing`` after the words,
+    where it would read as the larger one's). ``value`` is always the shown combination's own.
     """
     head = None if headline_exceeds_routes(result) else headline_route(result)
+    shown = _shown(result)
     rows = []
     for route in getattr(result, "routes", ()) or ():
         if route is head:
@@ -313,15 +329,17 @@ def route_rows(result, U: Units) -> list[dict]:
         else:
             status = "for comparison"
         words, value = _utilisation_words(route.utilization), route.utilization
+        danger = value is not None and not float(value) <= 1.0
         governing = governing_text(route.governing)
         term_in_words = False
-        largest = _largest_of_combinations(result, route)
-        if largest is not None:  # another combination loads this route more: its value is shown and kept
-            # The governing term is the shown combination's: it goes with that value, before the largest.
-            shown = f"{words} in {result.actions.headline}" + (f" by {governing}" if governing else "")
-            other = f"{_utilisation_words(largest[0])} in {largest[1]}"
-            words = f"{shown}; {other}, the largest of the combinations"
-            value, term_in_words = largest[0], True
+        if shown and value is not None:
+            words = f"{words} in {shown}"
+        largest = _largest_of_combinations(result, route, shown)
+        if largest is not None:  # another combination loads this route more: named after the own value
+            words += f" by {governing}" if governing else ""
+            words += f"; {_utilisation_words(largest[0])} in {largest[1]}, the largest of the combinations"
+            term_in_words = True
+            danger = danger or not largest[0] <= 1.0
         rows.append(
             {
                 "route": route.route,
@@ -330,6 +348,8 @@ def route_rows(result, U: Units) -> list[dict]:
                 "status": status,
                 "utilisation": words,
                 "value": value,
+                "danger": danger,
+                "combination": shown,
                 "governing": governing,
                 "term_in_words": term_in_words,
                 "facts": facts_text(route.facts or {}, U),

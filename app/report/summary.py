@@ -158,7 +158,7 @@ def _check_lines(add, result, U) -> None:
         add("")
         add("Service check (deflection; apart from the strength utilisation)")
         add(f"  deflection:   {w.service_text(service, U)}")
-        add(f"  basis:        {service.basis}")
+        add(f"  basis:        {combos.deflection_basis(result, long=True).removeprefix('service check: ')}")
     elif result.utilization is not None:
         add("")
         add(f"Member check: utilisation {utilisation(result.utilization)}")

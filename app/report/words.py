@@ -21,6 +21,7 @@ from app.report import route_names as names
 from app.report.numbers import finite, format_number, position, ratio
 from app.report.restraints import REACTIONS_NOTE, all_reactions, support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
+from app.report.scope import GENERAL_CAUTION
 from app.report.section_names import section_name
 from app.units import Units, units
 
@@ -67,12 +68,6 @@ SYMBOLS = {
 }
 
 
-def _general() -> str:
-    from engine.cautions import GENERAL
-
-    return GENERAL.message
-
-
 _SYSTEM_NAMES = {"si": "SI (kN, m, mm, kN·m)", "us": "US customary (kip, ft, in, kip·ft)"}
 
 
@@ -82,11 +77,9 @@ def system_name(U: Units) -> str:
 
 
 def general_caution(result=None) -> str:
-    """The general caution (the engine's ``scope`` caution), printed with every output whatever the result."""
-    for caution in getattr(result, "cautions", ()) or ():
-        if caution.code == "scope":
-            return caution.message
-    return _general()
+    """The general caution (the engine's ``scope`` caution in :mod:`app.report.scope`'s one wording), printed
+    with every output whatever the result."""
+    return GENERAL_CAUTION
 
 
 # ----------------------------------------------------------------------------------------------------------
@@ -455,7 +448,7 @@ def capacity_text(capacity, U: Units, result=None) -> str:
 def _deflection(v: dict, U: Units) -> str:
     return (
         f"Deflection {U.show('small_length', v['deflection'])} exceeds the limit span/{v['limit']:g} = "
-        f"{U.show('small_length', v['allowed'])} (service check on the loads as given, without the bow)."
+        f"{U.show('small_length', v['allowed'])} (a service check, without the bow)."
     )
 
 
@@ -586,6 +579,8 @@ def source_text(source: str, U: Units | None = None) -> str:
 
 def caution_text(caution, U: Units | str = "si") -> str:
     """A caution's message in the display units (the engine's own words where it quotes no unit)."""
+    if caution.code == "scope":
+        return GENERAL_CAUTION
     U = units(U)
     word = _WORDED.get(caution.code)
     values = getattr(caution, "values", None)

@@ -152,11 +152,13 @@ def route(
     enabled: bool,
     beyond: bool = False,
     ltb=None,
+    lateral_diagram=None,
 ) -> RouteCheck:
     """The ``en-member`` route for a member with planes ``y`` and ``z`` at axial force ``N`` (compression
     positive) [N]. ``section_class`` is the worse class about both axes (a SectionClass or None); ``beyond``:
     N is at or above the first critical load of the plane analysed; ``ltb``: the member's lateral-torsional
-    buckling check (None or not applying: χ_LT = 1)."""
+    buckling check (None or not applying: χ_LT = 1); ``lateral_diagram``: the M_y diagram between the points
+    braced laterally that hold the member (Table B.3 reads C_mLT there), where it differs from ``y``'s."""
     source = SOURCE.format(annex=settings.annex)
     if section_class is None:
         return not_applied("en-member", enabled, "section-not-classified", source)
@@ -218,8 +220,13 @@ def route(
         facts[f"lambda_{p.axis}"] = lam
         facts[f"chi_{p.axis}"] = codes.reduction_factor(lam, curve)
     if N <= 0.0:
-        notes.append("en-member-cross-section-only")
-        return _verdict(enabled, terms, facts, notes, source)
+        if not (My > 0.0 and Mz > 0.0):  # one moment: at N_Ed = 0 the equations add nothing to the terms
+            notes.append("en-member-cross-section-only")
+            return _verdict(enabled, terms, facts, notes, source)
+        # No compression but both moments: eqs. (6.61)/(6.62) at N_Ed = 0 (a tension is not counted as
+        # relieving; the M_z term must not drop out of the lateral-torsional buckling check).
+        notes.append("en-member-no-compression")
+        N = 0.0
     # At or above a critical load of a plane whose solution the route reads (the plane analysed, or a plane
     # with moments), the moments have no stable equilibrium: unbounded, as the second-order route says. Annex
     # A's μ and 1/(1 - N/N_cr) turn negative above any critical load. Above the critical load of a plane
@@ -240,7 +247,8 @@ def route(
         # would be smaller, on the unsafe side).
         held = ltb is not None and ltb.reason == "restrained"
         twisting = sy.shape in ("rolled_i", "welded_i") and My > 0.0 and not held
-        C_mLT = C_my if torsional or twisting else None
+        lateral = C_my if lateral_diagram is None else annex_b_factor(lateral_diagram)
+        C_mLT = lateral if torsional or twisting else None
         common = dict(
             N_Ed=N,
             N_Rk=N_Rk,

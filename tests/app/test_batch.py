@@ -296,6 +296,18 @@ def number(text):
     return None if text == "" else float(text)
 
 
+def expected_governing(result):
+    """What produces the headline: the worst counted route of the engine's result and its governing term."""
+    from app.report.route_names import governing_text
+
+    if result.check is None or result.utilization is None:
+        return ""
+    counted = [route for route in result.routes if route.enabled and route.utilization is not None]
+    top = max(counted, key=lambda route: route.utilization)
+    assert top.utilization == pytest.approx(result.utilization, rel=1e-12)  # the headline is that route's
+    return f"{top.route}: {governing_text(top.governing)}"
+
+
 def assert_matches_engine(got, mapping):
     """The results row `got` holds engine.solve and engine.capacity of the case `mapping` (kN, m, mm)."""
     case = engine.Case.from_dict({"schema": 1, **mapping})
@@ -322,7 +334,11 @@ def assert_matches_engine(got, mapping):
     assert number(got["utilization"]) == (
         None if result.utilization is None else exact(result.utilization, rel=1e-12)
     )
-    assert got["governing_check"] == ("" if result.check is None else result.check.kind)
+    assert got["governing_check"] == expected_governing(result)
+    kind = None if result.utilization is None else result.material.kind
+    assert got["utilization_basis"] == {None: "", "steel": "code check"}.get(
+        kind, f"elastic bound only, not a code check ({kind})"
+    )
     assert number(got["deflection_utilization"]) == (
         None if result.service is None else exact(result.service.utilization, rel=1e-12)
     )

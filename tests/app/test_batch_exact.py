@@ -47,7 +47,17 @@ capacity moved. And once more at stop 32, when a noncompact element's M_n on the
 its own chapter F clause instead of 0.7·F_y·S for every one: 23 generated rows, every one an HEA in S355 bent
 about its minor axis (flange b/2t of 10.7, just past λ_p = 9.2), only in their AISC utilisation, which fell as
 eq. (F6-2) gives (M000145 3.67 → 2.22, M000109 0.32 → 0.19), and two of them in their cautions (the routes now
-disagree); the headline, which does not count the aisc route there, and the capacity did not move. And a
+disagree); the headline, which does not count the aisc route there, and the capacity did not move. Again at
+stop 33, when the batch began to say what its headline is: the new column ``utilization_basis`` (after
+``utilization``; ``code check``, or ``elastic bound only, not a code check (timber)`` for TB-01 and 24
+generated timber rows, empty for the invalid ones) was inserted into every line, and ``governing_check`` now
+names the headline route and its term (``en-member: eq. (6.62)``) instead of the second-order route's check
+kind (8 of the example's 12 lines, 146 of the 150 generated ones); every other cell was kept as recorded and
+no number changed. Again at stop 33, when a cantilever's reference moment began to hold its sway's moment
+N·(w0 − w0 at the tip) (``engine.reference``) and the slenderness caution began to count the other axis of a
+one-plane case: the example table's CT-01 (``amplification_moment`` 1.189 → 1.013) and TB-01 (the ``slender``
+caution) and 50 generated rows, only in those two columns (16 amplifications of cantilevers, lower; 37 rows
+gained ``slender``); no utilisation, capacity or other number moved. And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must

@@ -28,13 +28,23 @@ def test_summary_counts_and_the_ten_highest_utilisations_agree_with_the_results_
     for row in solved:
         stability[row["stability"]] = stability.get(row["stability"], 0) + 1
     assert summary.by_stability == stability
-    # The ten highest, ties to the earlier row, from the file itself.
-    ranked = sorted(
-        (row for row in solved if row["utilization"] != ""),
-        key=lambda row: (-float(row["utilization"]), int(row["row"])),
-    )[:10]
+
+    # The ten highest code checks, ties to the earlier row, from the file itself; the utilisations that are
+    # not code checks (the timber rows' elastic bounds) ranked apart.
+    def ranked(basis):
+        return sorted(
+            (row for row in solved if row["utilization"] != "" and basis(row["utilization_basis"])),
+            key=lambda row: (-float(row["utilization"]), int(row["row"])),
+        )
+
+    code = ranked(lambda cell: cell == "code check")
     assert [(row, identifier) for _, row, identifier in summary.highest] == [
-        (int(row["row"]), row["id"]) for row in ranked
+        (int(row["row"]), row["id"]) for row in code[:10]
+    ]
+    others = ranked(lambda cell: cell != "code check")
+    assert summary.not_code_check_count == len(others) > 10
+    assert [(row, identifier, basis) for _, row, identifier, basis in summary.not_code_checks] == [
+        (int(row["row"]), row["id"], row["utilization_basis"]) for row in others[:10]
     ]
     values = [value for value, _, _ in summary.highest]
     assert values == sorted(values, reverse=True) and math.isinf(values[0])  # some members are beyond Pcr1
@@ -50,17 +60,20 @@ def test_summary_json_for_machines_and_the_printed_summary(tmp_path):
     )
     assert done.returncode == 1  # invalid rows
     document = json.loads((tmp_path / "summary.json").read_text(encoding="utf-8"))
-    assert document["schema"] == 1 and document["members"] == 150
+    assert document["schema"] == 2 and document["members"] == 150
     assert document["by_status"] == {"ok": 146, "error": 4}
     assert sum(document["by_stability"].values()) == 146
     assert len(document["highest_utilizations"]) == 10
     assert document["highest_utilizations"][0]["utilization"] == "inf"
+    assert {item["basis"] for item in document["highest_utilizations"]} == {"code check"}
+    assert len(document["not_code_checks"]) == 10 and document["not_code_check_count"] == 24
     assert [item["row"] for item in document["invalid_rows"]] == sorted(
         item["row"] for item in document["invalid_rows"]
     )
     assert all(item["column"] == "length_m" for item in document["invalid_rows"])
     printed = done.stdout
-    assert "highest utilisations (10):" in printed and "invalid rows (4)" in printed
+    assert "highest utilisations by a code check (10):" in printed and "invalid rows (4)" in printed
+    assert "NOT code checks, not ranked above (24 members, the 10 highest)" in printed
     assert "solved members by stability:" in printed
 
 
@@ -80,14 +93,15 @@ _ACTIONS = (
 
 
 def test_the_printed_caution_is_the_scope_of_the_rows_solved(tmp_path):
-    """A table of plain members is told that load combinations are not checked; a table of members with
-    load cases is told that the combination factors are recalled values (the engine's scope of such a case),
-    never that combinations are not checked (they were)."""
-    from engine.cautions import GENERAL
+    """A table of plain members is told the general caution (app.report's one wording: how load cases are
+    combined); a table of members with load cases is told that the combination factors are recalled values
+    (the engine's scope of such a case), never that combinations are not checked (they were)."""
+    from app.report.scope import GENERAL_CAUTION
     from engine.envelope import SCOPE
 
     plain = run_cli("batch", str(TABLE), "--out", "plain", "--workers", "1", cwd=tmp_path)
-    assert f"Caution: {GENERAL.message}" in plain.stdout
+    assert f"Caution: {GENERAL_CAUTION}" in plain.stdout
+    assert "combinations are not checked" not in plain.stdout
     assert "recalled from memory" not in plain.stdout
     (tmp_path / "actions.csv").write_text(_ACTIONS, encoding="utf-8")
     done = run_cli(

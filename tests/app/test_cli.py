@@ -18,13 +18,14 @@ from app.cli import main
 
 REPO_ROOT = Path(__file__).resolve().parents[2]
 
-# The exact wording every summary must carry (project rule for the command line): the engine's general
-# caution.
+# The exact wording every summary must carry (project rule for the command line): the general caution, worded
+# once in app.report.scope.
 CAUTION = (
-    "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-    "torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution "
-    "says so, web shear buckling, connections and load combinations are not checked. "
-    "Check the results against your local codes and have them reviewed by a licensed engineer."
+    "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: torsion, "
+    "non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution says so, web "
+    "shear buckling and connections are not checked. Load cases are combined by EN 1990 (6.10)/(6.10a,b) or "
+    "ASCE 7 rules; the factors and the choice of actions are yours. Have the results checked against your "
+    "local codes by a licensed engineer."
 )
 
 PCR1_LINE = re.compile(r"^\s*Pcr1 = ([0-9.eE+-]+) kN$", re.MULTILINE)

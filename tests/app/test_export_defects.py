@@ -96,7 +96,7 @@ def test_calc_sheet_keeps_one_orientation_and_does_not_repeat_itself():
     text = _FRAME.sub("", " ".join(text.split()))
     # The inputs, the governing values and the general caution are written once, on the text pages.
     assert "Governing values" not in last and "Inputs" not in last
-    assert text.count("have them reviewed by a licensed engineer") == 1
+    assert text.count("against your local codes by a licensed engineer") == 1
 
 
 def test_reactions_are_the_forces_the_supports_exert():

@@ -433,3 +433,20 @@ def test_past_the_other_axis_buckling_load_the_badge_does_not_read_stable(page):
     page.force_input.value = 1.01 * n_cr * 1e-3
     assert "buckles about the other axis" in page.force.readout.object
     assert "ss-unstable" in page.force.readout.object and ">stable<" not in page.force.readout.object
+
+
+def test_readout_of_two_planes_takes_the_lower_plane():
+    """A two-plane case (the invented demo: Pcr1 1966 kN about the major axis, 723 kN about the minor): the
+    readout's N/Pcr1 is that of the lower plane, so that it is 1/α_cr beside it, and the slider's fine zone
+    sits below that plane's critical load."""
+    text = resources.files("assets").joinpath("demo_two_planes.json").read_text(encoding="utf-8")
+    state = MemberState()
+    state.load_mapping(json.loads(text))
+    page = MemberPage(state)
+    result = state.result
+    lower = min(float(result.critical_loads[0]), float(result.second_plane.critical_loads[0]))
+    readout = page.force.readout.object
+    assert f"<b>{result.axial_force / lower:.3f}</b>" in readout
+    assert f"<b>{result.alpha_cr:.3f}</b>" in readout
+    assert result.axial_force / lower == pytest.approx(1.0 / result.alpha_cr, rel=1e-12)
+    assert page.force.pcr1 == pytest.approx(lower, rel=1e-12)

@@ -92,7 +92,7 @@ def test_batch_marks_a_member_above_critical(tmp_path):
     with open(tmp_path / "out" / "results.csv", encoding="utf-8", newline="") as stream:
         rows = {row["id"]: row for row in csv.DictReader(stream)}
     assert rows["over"]["utilization"] == "inf" and rows["over"]["stability"] == "unstable"
-    assert rows["over"]["governing_check"] == "elastic buckling"
+    assert rows["over"]["governing_check"] == "second-order: elastic buckling"
     # Issue 14: out of plane governs the second-order route; the headline is the worst route counted.
     assert float(rows["post"]["out_of_plane_utilization"]) == float(rows["post"]["utilization_second_order"])
     assert float(rows["post"]["utilization"]) >= float(rows["post"]["utilization_second_order"])

@@ -89,11 +89,12 @@ def test_the_headline_deflection_is_the_service_combination_s2(start):
 
 def test_each_route_shows_its_largest_value_over_the_ultimate_combinations(start):
     """The routes shown are the headline combination's (U2); the second-order route is loaded more by U1
-    (out-of-plane buckling under 1.35 G alone). Each route's value is the largest of the ultimate
-    combinations, each solved as its own case here ([derived]: an envelope is the largest of its members),
-    and the words name both combinations where they differ: a route shown below its largest would read on
-    the unsafe side."""
+    (out-of-plane buckling under 1.35 G alone). Each route's value is the shown combination's own, named
+    with it, and where another ultimate combination loads it more the words name that one and its value,
+    the largest of the combinations, each solved as its own case here ([derived]: an envelope is the largest
+    of its members): never a number beside a combination it does not belong to."""
     import engine
+    from app.report.numbers import utilisation
     from app.report.routes import route_rows
     from app.units import units
 
@@ -113,10 +114,12 @@ def test_each_route_shows_its_largest_value_over_the_ultimate_combinations(start
     moved = 0
     for row in rows:
         value, name = largest[row["route"]]
-        assert row["value"] == pytest.approx(value, rel=1e-9)
+        own = next(r.utilization for r in result.routes if r.route == row["route"])
+        assert row["value"] == own  # the shown combination's own value
+        assert row["utilisation"].startswith(f"{utilisation(own)} in {actions.headline}")
         if name != actions.headline:
             moved += 1
-            assert f"in {name}, the largest of the combinations" in row["utilisation"]
+            assert f"; {utilisation(value)} in {name}, the largest of the combinations" in row["utilisation"]
             # The shown combination's governing term goes with its own value, before the larger one (read
             # after it, it would seem the larger one's), and no view adds it again after the words.
             shown = f"in {actions.headline} by {row['governing']}; "

@@ -157,3 +157,28 @@ def test_typing_1e400_logs_no_traceback(tmp_path, browser):
         running.stop()
     log = "".join(running.output)
     assert "Traceback" not in log and "ERROR" not in log, log[-3000:]
+
+
+def test_a_load_put_outside_the_span_and_back_fetches_nothing_from_outside(app, server):
+    """The point load moved past the span and back (its row rebuilt), then the span shortened so that the
+    load falls outside it and restored: no request leaves the local server and the console stays clean (a
+    new user saw Panel fetch its loading.css from a CDN here: the old row's error pane was updated while
+    detached from the document)."""
+    page = app.page
+    page.locator(".bk-tab").filter(has_text=re.compile(r"^Loads$")).first.click()
+    at = page.get_by_label("at x [m]", exact=True).first
+    before = at.input_value()
+    for value in ("7", before):
+        at.fill(value)
+        at.press("Enter")
+        page.wait_for_timeout(1500)
+    page.locator(".bk-tab").filter(has_text=re.compile(r"^Member$")).first.click()
+    field = page.get_by_label("Span L [m]", exact=True)
+    for value in ("1.5", "6"):
+        field.fill(value)
+        field.press("Enter")
+        page.wait_for_timeout(2000)  # a stylesheet link is fetched when its element is drawn
+    expect(page.locator(".ss-error:visible")).to_have_count(0, timeout=TIMEOUT_MS)
+    origin = server.url.rstrip("/")
+    outside = [url for url in app.requests if not url.startswith((origin, "blob:", "data:"))]
+    assert outside == [] and app.errors == []

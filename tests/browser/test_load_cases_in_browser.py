@@ -226,3 +226,24 @@ def test_a_combination_picked_is_said_not_to_govern_and_reopens_from_a_copied_li
         other.close()
     page.get_by_label("Combination shown").select_option(label=f"governing ({GOVERNING})")
     expect(page.locator(".ss-other-combination")).to_have_count(0)
+
+
+def test_a_service_combination_picked_shows_where_strength_is_checked_and_no_bow_warning(app):
+    """Picking S2 (a service combination, solved without the bow by design): the right column says, in view
+    and uncovered, that strength is checked on the ultimate combinations and names the governing one; no
+    caution says that the bow of 0 mm is below the code value; the general caution says how load cases are
+    combined (not that combinations are not checked)."""
+    page = app.page
+    page.get_by_label("Combination shown").select_option(label=_label("S2"))
+    note = page.locator(".ss-other-combination")
+    expect(note).to_contain_text("Combination S2 is shown: a service combination")
+    expect(note).to_contain_text(f"combination {GOVERNING} governs, utilisation")
+    expect(note).to_be_visible()
+    assert _uncovered(page, note)
+    expect(page.locator("li[data-code='deflection-basis']")).to_contain_text("combination S2")
+    expect(page.locator("li[data-code='bow-below-code']")).to_have_count(0)
+    general = page.locator("li[data-code='scope']")
+    expect(general).to_contain_text("Load cases are combined by EN 1990")
+    expect(general).not_to_contain_text("combinations are not checked")
+    page.get_by_label("Combination shown").select_option(label=f"governing ({GOVERNING})")
+    expect(page.locator(".ss-other-combination")).to_have_count(0)

@@ -174,3 +174,28 @@ def test_the_in_plane_overstress_cites_the_cross_section_clause_when_out_of_plan
     overstressed = [c for c in result.cautions if c.code == "overstressed"]
     assert len(overstressed) == 1
     assert "§6.2" in overstressed[0].source and "6.3.1" not in overstressed[0].source
+
+
+def test_slenderness_caution_counts_the_other_axis_of_a_one_plane_case():
+    """A one-plane HEB 200 strut, 12 m, pinned, free to buckle about its minor axis (the out-of-plane check's
+    L_cr = L): K·L/i_y = 12/0.0854 = 141 is below AISC 360-16 §E2's user-note 200 (from memory), but
+    L/i_z = 12/0.0507 = 237 is above it; the caution gives the larger (π√(EA/N_cr,z) = L_cr/i_z), and none
+    where the other axis is held."""
+    import math as _math
+
+    data = {
+        "schema": 1,
+        "length": 12.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 20e3,
+        "loads": [],
+        "section": {"name": "HEB 200"},
+        "material": {"name": "S355"},
+    }
+    result = engine.solve(engine.Case.from_dict(data))
+    slender = [c for c in result.cautions if c.code == "slender"]
+    section = engine.Case.from_dict(dict(data, axis="minor"))
+    i_z = _math.sqrt(engine.solve(section).section.I / result.section.A)
+    assert len(slender) == 1 and f"= {12.0 / i_z:.0f} " in slender[0].message
+    held = engine.solve(engine.Case.from_dict(dict(data, out_of_plane={"restrained": True})))
+    assert not [c for c in held.cautions if c.code == "slender"]
