@@ -359,7 +359,7 @@ def test_csv_without_first_order_or_check():
         "T [kN]",
     ]
     np.testing.assert_allclose(column(rows, "M [kN·m]"), result.moment * 1e-3, rtol=5e-6, atol=1e-15)
-    assert metadata(comments)["caution"][0].startswith("Elastic analysis of one member")
+    assert metadata(comments)["caution"][0].startswith("Elastic, one member. Not checked")
 
 
 def test_csv_at_critical_load_writes_inf(critical):
@@ -453,7 +453,7 @@ def test_pdf_of_result_without_first_order():
     """A result with no first order (the P = 0 solution itself) gives a sheet with the general caution."""
     result = engine.solve(small_case()).first_order
     _, text = pdf_text(exports.pdf_bytes(result, date=DATE))
-    assert "Elastic analysis of one member in one or two" in text
+    assert "Elastic, one member. Not checked: torsion" in text
     Image.open(io.BytesIO(exports.png_bytes(result, dpi=40))).load()
 
 

@@ -35,7 +35,7 @@ def test_no_other_wording_of_the_general_caution_in_the_outputs():
     """The exports, the report, the page and the batch hold no other copy of the caution: they read
     app.report.scope's (its one place)."""
     root = pathlib.Path(app.report.__file__).parents[1]
-    opening = "Elastic analysis of one member in one or two"
+    opening = "Elastic, one member. Not checked: torsion"
     for folder in ("exports", "report", "batch", "page"):
         for path in (root / folder).glob("*.py"):
             if path != root / "report" / "scope.py":
