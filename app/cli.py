@@ -2,9 +2,10 @@
 
 Commands:
 
-- ``strutscope solve CASE.json`` (or ``--demo``) reads a case file in schema 1, solves it with
-  :func:`engine.solve` and prints a summary in the display units of ``--units`` (``si``: kN, m, mm, kN·m;
-  ``us``: kip, ft, in, kip·ft), or with ``--json`` a machine-readable summary in SI (:func:`summary_data`).
+- ``strutscope solve CASE.json`` (or ``--demo``, the demo case the page opens) reads a case file in schema 1,
+  solves it with :func:`engine.solve` and prints a summary in the display units of ``--units`` (``si``: kN,
+  m, mm, kN·m; ``us``: kip, ft, in, kip·ft), or with ``--json`` a machine-readable summary in SI
+  (:func:`summary_data`).
   ``--csv``, ``--png`` and ``--pdf`` write the exports of :mod:`app.exports`, and ``--capacity`` adds
   :func:`engine.capacity`.
 - ``strutscope batch MEMBERS.csv --out DIR`` solves a table of members (:mod:`app.batch`).
@@ -39,6 +40,7 @@ from app.cli_common import (
     CAUTION,
     DEFAULT_STATIONS,
     DEMO_CASE,
+    PLAIN_DEMO_CASE,
     _add_parser,
     _add_signatures,
     _add_units,
@@ -84,7 +86,13 @@ def _add_solve(commands) -> None:
     )
     which = solve.add_mutually_exclusive_group(required=True)
     which.add_argument("case", nargs="?", metavar="CASE.json", help="the case file to solve")
-    which.add_argument("--demo", action="store_true", help=f"solve the invented demo case ({DEMO_CASE})")
+    which.add_argument(
+        "--demo",
+        action="store_true",
+        help=f"solve the invented demo case the page opens ({DEMO_CASE}): a façade wind post with a "
+        "permanent (G) and a wind (W) load case, combined by EN 1990; the same post without load cases is "
+        f"assets/{PLAIN_DEMO_CASE}, solved by its path from a checkout",
+    )
     solve.add_argument(
         "--stations",
         type=_station_count,

@@ -25,8 +25,12 @@ COMBINED = (
     "your own)."
 )
 
-#: The invented demo case, package data of :mod:`assets`.
-DEMO_CASE = "demo_wind_post.json"
+#: The invented demo case, package data of :mod:`assets`: the one the page opens (:mod:`app.serve`), the wind
+#: post with a permanent (G) and a wind (W) load case, so that ``solve --demo`` prints the page's numbers.
+DEMO_CASE = "demo_wind_post_actions.json"
+#: The same post without load cases (350 kN and its own loads), solved by its path: ``strutscope solve
+#: assets/demo_wind_post.json`` from a checkout.
+PLAIN_DEMO_CASE = "demo_wind_post.json"
 
 
 DEFAULT_STATIONS = 401

@@ -18,6 +18,8 @@ import sys
 import weakref
 from importlib import resources
 
+from app.cli_common import DEMO_CASE
+
 __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", "serve"]
 
 #: The port used when none is given: one of our own (S-T-R-U on a phone keypad), not Panel's 5006, so that
@@ -30,9 +32,9 @@ _WARM_DELAY_S = 8.0
 _PORT_TRIES = 20
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
 #: The page's start case: the invented wind post with a permanent (G) and a wind (W) load case, its ultimate
-#: and service combinations made by EN 1990 (issue 17). ``strutscope serve assets/demo_wind_post.json`` opens
-#: the plain demo.
-_DEMO_CASE = "demo_wind_post_actions.json"
+#: and service combinations made by EN 1990 (issue 17), which ``solve --demo`` solves too (one name, in
+#: app.cli_common). ``strutscope serve assets/demo_wind_post.json`` opens the plain demo.
+_DEMO_CASE = DEMO_CASE
 #: Shown on the page when the connection to the server is lost.
 DISCONNECTED = (
     "strutscope lost its connection to the server. Start strutscope again and reload this page: "

@@ -45,6 +45,7 @@ __all__ = [
     "scale_for",
     "scale_sentence",
     "scaled_action",
+    "shown_combination",
     "shown_result",
     "view_result",
 ]
@@ -353,6 +354,21 @@ def view_result(state):
     return dataclasses.replace(
         shown, actions=result.actions, service=result.service, cautions=_shown_cautions(result, item)
     )
+
+
+def shown_combination(state) -> str:
+    """The combination the exports hold, for their file names (:func:`app.export_names.export_filename`):
+    ``"envelope"`` while the envelope is shown, else the name of the combination :func:`view_result` gives
+    (the chosen one, or the governing one); ``""`` for a case without load cases."""
+    result = state.result
+    actions = getattr(result, "actions", None)
+    if actions is None:
+        return ""
+    choice = getattr(state, "combination_choice", "")
+    if choice == ENVELOPE:
+        return ENVELOPE
+    item = chosen_item(result, choice)
+    return item.name if item is not None else (actions.headline or "")
 
 
 def scale_sentence(state) -> str:

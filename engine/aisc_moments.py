@@ -13,6 +13,12 @@ bow of EN 1993-1-1: :mod:`engine.analysis` passes these to :class:`engine.result
   equilibrium equations by c shows that this member at P under loads q with a tilt φ has the moments of the
   nominal member at P/c under q with a tilt c·φ: one solve of the member as it is, at another force. ASD's
   analysis at 1.6 × the loads is then the nominal member at 1.6·P/c with a tilt c·φ/1.6.
+- ``moment_untilted`` (:func:`untilted_moment`): ASD's or the direct analysis method's M_r without the tilt,
+  for a one-plane case whose other plane sways (:func:`other_plane_sways`): the notional loads are applied
+  independently in each of two orthogonal directions (Appendix 7 §7.2.2, §C2.2b, from memory), so the route
+  also checks the in-plane M_r without its tilt beside the tilt about the other axis
+  (:func:`engine.design.aisc_member.route`). The effective length method in LRFD needs no solve for it: its
+  M_r without the tilt is the bow-free moment at P.
 """
 
 from __future__ import annotations
@@ -25,7 +31,7 @@ from engine.design.aisc_member import ASD_ALPHA, direct_stiffness
 from engine.raw import raw as _raw
 from engine.sway import AISC_OUT_OF_PLUMB, can_sway
 
-__all__ = ["asd_moment", "direct_moment", "plumb_moment"]
+__all__ = ["asd_moment", "direct_moment", "other_plane_sways", "plumb_moment", "untilted_moment"]
 
 
 def _moment(raw) -> float:
@@ -85,3 +91,42 @@ def direct_moment(case, prep, count, P) -> float | None:
     at = alpha * P / c
     plumb = plumb_moment(case, prep, count, at, alpha / c)
     return plumb if plumb is not None else _free(prep, count, at)
+
+
+def other_plane_sways(case, prep) -> bool:
+    """Whether the other plane of a one-plane case sways for the aisc route's notional load: its out-of-plane
+    buckling length exceeds the member's length, which a member held against translation at both ends about
+    that axis cannot have (the default 2·L of a member whose end translates in the plane analysed, or a
+    longer length given). A decision of the project (DEVELOPERS.md decisions log, stop 34)."""
+    if case.second_plane is not None or prep.member is None:
+        return False
+    out = prep.out_of_plane()
+    length = out.buckling_length
+    return bool(out.checked) and length is not None and length > case.length * (1.0 + 1e-12)
+
+
+def untilted_moment(case, prep, count, P) -> float | None:
+    """The aisc route's M_r [N·m] without the out-of-plumb tilt at its own analysis force, where that is not
+    P (ASD: 1.6·P; the direct analysis method: αP/c) and M_r holds a tilt (an end can translate); +inf where
+    that member has no equilibrium; None elsewhere."""
+    if P <= 0.0 or prep.member is None or not can_sway(case):
+        return None
+    method = case.check.aisc_method
+    alpha = ASD_ALPHA if method == "ASD" else 1.0
+    c = 1.0
+    if case.check.aisc_analysis == "direct":
+        member = prep.member
+        if member.section is None or member.material is None:
+            return None
+        found = direct_stiffness(member.section, member.material, P, method)
+        if found is None:
+            return None
+        c = found[2]
+        if c <= 0.0:
+            return math.inf
+    elif method != "ASD":
+        return None
+    at = alpha * P / c
+    if at >= prep.buckling.critical_loads[0]:
+        return math.inf
+    return _free(prep, count, at)

@@ -319,6 +319,11 @@ def _amplification(case, prep, count, P, governing, bow_free, aisc=True) -> Ampl
         moment_asd=aisc_moments.asd_moment(case, prep, count, P) if elm else None,
         moment_out_of_plumb=aisc_moments.plumb_moment(case, prep, count, P) if elm else None,
         moment_direct=aisc_moments.direct_moment(case, prep, count, P) if aisc and not elm else None,
+        moment_untilted=(
+            aisc_moments.untilted_moment(case, prep, count, P)
+            if aisc and aisc_moments.other_plane_sways(case, prep)
+            else None
+        ),
     )
 
 

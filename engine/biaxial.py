@@ -57,6 +57,7 @@ from engine.checks import (
 )
 from engine.classification import compression_area, elastic_modulus, eq_5_9_modulus, worse_class
 from engine.codes import plastic_interaction, shear_reduction
+from engine.shear_area import axial_ratio, shear_area_kept
 from engine.solver.model import Points
 
 __all__ = [
@@ -243,29 +244,35 @@ def check_biaxial(
     with np.errstate(divide="ignore", invalid="ignore"):
         area = compression_area(section_y, section_class, float(axial_force))  # A_eff: class 4 in compression
         if V_Rd_z is not None:  # §6.2.8, in both checks (see engine.checks)
-            rho = np.maximum(shear_reduction(Vz, V_Rd_z), shear_reduction(Vy, V_Rd_y))
+            rho_z, rho_y = shear_reduction(Vz, V_Rd_z), shear_reduction(Vy, V_Rd_y)
+            rho = np.maximum(rho_z, rho_y)
+            # §6.2.10(3): the axial resistance with (1 − ρ)f_y in each plane's shear area
+            kept = shear_area_kept(area, ((rho_z, section_y.A_v), (rho_y, section_z.A_v)))
         else:
             rho = np.zeros_like(My)
+            kept = area + rho
         if method == "elastic":
             N_Rd = area * fc / g0
             # W_eff of a class 4 section: the merged class holds each view's, y first (pair_check)
             M_Rd_y = elastic_modulus(section_y, section_class, 0) * fy / g0
             M_Rd_z = elastic_modulus(section_z, section_class, 1) * fy / g0
             bending = My / M_Rd_y + Mz / M_Rd_z
-            ab = N / N_Rd + np.where(bending > 0, bending / (1.0 - rho), 0.0)  # ρ = 1: no moment resistance
+            n = axial_ratio(N, kept * fc / g0)
+            ab = n + np.where(bending > 0, bending / (1.0 - rho), 0.0)  # ρ = 1: no moment resistance
             kind_ab = ELASTIC_KIND
         else:
             N_Rd = area * fy / g0
             M_Rd_y, M_Rd_z = section_y.W_pl * fy / g0, section_z.W_pl * fy / g0
-            n = N / N_Rd
-            reduced_y = plastic_interaction(shape=shape, axis="major", n=n, a=section_y.interaction_a)
-            reduced_z = plastic_interaction(shape=shape, axis="minor", n=n, a=section_z.interaction_a)
+            n = axial_ratio(N, kept * fy / g0)
+            n_1 = np.minimum(n, 1.0)
+            reduced_y = plastic_interaction(shape=shape, axis="major", n=n_1, a=section_y.interaction_a)
+            reduced_z = plastic_interaction(shape=shape, axis="minor", n=n_1, a=section_z.interaction_a)
             cap_y = M_Rd_y * reduced_y * (1.0 - rho)
             cap_z = M_Rd_z * reduced_z * (1.0 - rho)
             a = np.where(My > 0, My / cap_y, 0.0)
             b = np.where(Mz > 0, Mz / cap_z, 0.0)
             a, b = np.where(np.isnan(a), np.inf, a), np.where(np.isnan(b), np.inf, b)
-            alpha, beta = exponents(shape, n)
+            alpha, beta = exponents(shape, n_1)
             ab = np.maximum(n, moment_factor(a, b, alpha, beta))
             kind_ab = PLASTIC_KIND
         sh_z = Vz / V_Rd_z if V_Rd_z is not None else np.zeros_like(Vz)

@@ -101,7 +101,7 @@ def _web_shear_cautions(section, material, axis, check) -> list:
             level="danger" if shear >= 0.5 else "warning",
             code="web-shear-buckling",
             message=(
-                f"The web's h_w/t_w = {ratio:.1f} exceeds 72ε/η = {limit:.1f} (η = 1): it buckles in shear "
+                f"The web's h_w/t_w = {ratio:.1f} exceeds 72ε/η = {limit:.1f} (η = 1.2): it buckles in shear "
                 "before it yields. Shear buckling (EN 1993-1-5 §5) is not checked: the shear check here, "
                 f"{shear:.3f} of V_pl,Rd, is on the unsafe side for this web. Check it to EN 1993-1-5 or "
                 "stiffen the web."

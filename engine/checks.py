@@ -37,6 +37,7 @@ from engine.design.ltb import LtbSettings
 from engine.design.routes import ROUTES
 from engine.errors import CaseError
 from engine.out_of_plane import ELASTIC_KIND, ELASTIC_SOURCE, KIND
+from engine.shear_area import axial_ratio, shear_area_kept
 
 __all__ = [
     "ANNEXES",
@@ -369,19 +370,24 @@ def check_member(
         # §6.2.8: beyond half of V_pl,Rd the shear takes (1 − ρ) of f_y from the moment resistance, in the
         # elastic check as in the plastic one (applied to the whole section: on the safe side)
         rho = shear_reduction(V, V_Rd) if V_Rd is not None else np.zeros_like(V)
+        # §6.2.10(3): the axial resistance too, with (1 − ρ)f_y in the shear area A_v
+        kept = shear_area_kept(area, ((rho, section.A_v),))
         if method == "elastic":
             N_Rd = area * fc / g0
             M_Rd = elastic_modulus(section, section_class) * fy / g0  # W_eff of a class 4 section
-            ab = N / N_Rd + np.where(M > 0, M / (M_Rd * (1.0 - rho)), 0.0)  # ρ = 1: no moment resistance
+            n = axial_ratio(N, kept * fc / g0)
+            ab = n + np.where(M > 0, M / (M_Rd * (1.0 - rho)), 0.0)  # ρ = 1: no moment resistance
             kind_ab = "elastic stress"
         else:
             N_Rd = area * fy / g0
             M_Rd = section.W_pl * fy / g0
-            n = N / N_Rd
+            n = axial_ratio(N, kept * fy / g0)
             if section.shape == "rectangle":
-                reduced = max(0.0, 1.0 - n * n)
+                reduced = np.maximum(0.0, 1.0 - n * n)
             else:
-                reduced = plastic_interaction(shape=section.shape, axis=axis, n=n, a=section.interaction_a)
+                reduced = plastic_interaction(
+                    shape=section.shape, axis=axis, n=np.minimum(n, 1.0), a=section.interaction_a
+                )
             capacity = M_Rd * reduced * (1.0 - rho)
             ab = np.where(M > 0, np.maximum(n, M / capacity), n)
             ab = np.where(np.isnan(ab), np.inf, ab)

@@ -531,17 +531,19 @@ def eq_5_9_modulus(section, material, method: str) -> float:
     return section.W_pl if found is not None and found.klass <= 2 else elastic_modulus(section, found)
 
 
-#: h_w/t_w above which a web without intermediate stiffeners must be checked for shear buckling, in units of
-#: ε/η: EN 1993-1-1:2005 §6.2.6(6) and EN 1993-1-5 §5.1(2) (from memory), with η = 1 (the value some national
-#: annexes set; 1.2 is recommended up to S460): the lower limit, so that no slender web goes unwarned.
-WEB_SHEAR_LIMIT = 72.0
+#: h_w/t_w above which a web without intermediate stiffeners must be checked for shear buckling, 72ε/η:
+#: EN 1993-1-1:2005 §6.2.6(6) and EN 1993-1-5 §5.1(2) (from memory), with η = 1.2 (recommended up to S460;
+#: some national annexes and higher grades take 1.0, i.e. 72ε): 60ε, the lower limit, so that no web that
+#: needs the check under either value goes unwarned (a decision, DEVELOPERS.md decisions log, stop 34).
+WEB_SHEAR_ETA = 1.2
+WEB_SHEAR_LIMIT = 72.0 / WEB_SHEAR_ETA
 
 
 def web_shear_slenderness(section, material, axis: str) -> tuple[float, float] | None:
-    """(h_w/t_w, the limit 72ε/η with η = 1) of the web that carries the shear of bending about ``axis``:
-    an I/H's web (h_w = h − 2t_f) or an RHS's two side walls (h_w = h − 2t) in major-axis bending, the RHS's
-    other walls in minor-axis bending. None for other shapes, minor-axis bending of an I/H (its flanges carry
-    the shear) or a material other than steel.
+    """(h_w/t_w, the limit 72ε/η with η = 1.2, :data:`WEB_SHEAR_LIMIT`) of the web that carries the shear of
+    bending about ``axis``: an I/H's web (h_w = h − 2t_f) or an RHS's two side walls (h_w = h − 2t) in
+    major-axis bending, the RHS's other walls in minor-axis bending. None for other shapes, minor-axis
+    bending of an I/H (its flanges carry the shear) or a material other than steel.
 
     >>> from engine.materials import material_from_spec
     >>> from engine.sections import section_from_spec
@@ -549,7 +551,7 @@ def web_shear_slenderness(section, material, axis: str) -> tuple[float, float] |
     >>> welded = section_from_spec(plates, "major")
     >>> ratio, limit = web_shear_slenderness(welded, material_from_spec({"name": "S355"}, 0.02), "major")
     >>> round(ratio, 1), round(limit, 1)
-    (120.0, 59.4)
+    (120.0, 49.5)
     """
     if section is None or material is None or material.kind != "steel":
         return None

@@ -473,7 +473,10 @@ def plastic_interaction(*, shape: str, axis: str, n, a: float | None = None):
       :math:`n \le a`, else :math:`1 - [(n - a)/(1 - a)]^2`;
     - RHS, eqs. (6.39)–(6.40): :math:`(1 - n)/(1 - 0.5a) \le 1`, with :math:`a = a_w = (A - 2bt)/A` about
       y–y and :math:`a = a_f = (A - 2ht)/A` about z–z;
-    - CHS: :math:`1 - n^{1.7}` (from memory; the clause that gives it is not confirmed);
+    - CHS: :math:`1 - n^{1.7}` (from memory; the clause that gives it is not confirmed), but never above
+      :math:`\cos(\pi n/2)`, the exact interaction of a thin tube and the lowest of any tube (a plastic
+      integration of the annulus; above :math:`n \approx 0.69` the power law exceeds the exact value of a
+      thin tube by up to about 5 %: a decision of the project, DEVELOPERS.md decisions log, stop 34);
     - ``round`` and ``custom``: :math:`1 - n`, the straight line between pure bending and pure axial force.
       It is safe for any section because the plastic interaction of a cross-section is convex [derived];
       EN 1993-1-1 gives no rule for them.
@@ -522,8 +525,8 @@ def plastic_interaction(*, shape: str, axis: str, n, a: float | None = None):
         result = np.where(n <= a, 1.0, 1.0 - ((n - a) / (1.0 - a)) ** 2)
     elif shape in ("rolled_i", "welded_i", "rhs"):
         result = np.minimum(1.0, (1.0 - n) / (1.0 - 0.5 * a))
-    elif shape == "chs":
-        result = 1.0 - n**1.7
+    elif shape == "chs":  # never above the thin tube's exact cos(πn/2), the lowest of any tube (a decision)
+        result = np.minimum(1.0 - n**1.7, np.cos(0.5 * math.pi * n))
     else:  # round, custom
         result = 1.0 - n
     return float(result) if scalar else result

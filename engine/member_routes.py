@@ -103,7 +103,10 @@ def _curve(section, material):
 
 def _plane(res, axis, case, *, M_second, cache, which):
     amp = res.amplification
+    untilted = amp.moment_untilted if amp is not None else None
     if amp is not None and amp.moment_out_of_plumb is not None:  # AISC §C2.2a: out of plumb, in M_r
+        if untilted is None and case.check.aisc_method == "LRFD":  # without the tilt: the bow-free moment
+            untilted = M_second
         M_second = amp.moment_out_of_plumb
     diagram = _made(cache, ("routes-diagram", which), lambda: _diagram(res, case))
     curve = _made(cache, ("routes-curve", which), lambda: _curve(res.section, res.material))
@@ -118,6 +121,7 @@ def _plane(res, axis, case, *, M_second, cache, which):
         M_asd=amp.moment_asd if amp is not None else None,
         M_direct=amp.moment_direct if amp is not None else None,
         length=float(case.length),
+        M_untilted=untilted,
     )
 
 
@@ -139,6 +143,9 @@ def _planes(result, M_second, out_of_plane, cache):
         other = _unloaded_plane(
             case, case.section, result.material, N_cr, source, cache, "routes-other-section"
         )
+        if source != "restrained" and out_of_plane.buckling_length > case.length * (1.0 + 1e-12):
+            # it sways (aisc_moments.other_plane_sways): the aisc route's notional tilt acts over L
+            other = dataclasses.replace(other, sway_length=float(case.length))
     return (first, other) if first_axis == "y" else (other, first)
 
 

@@ -160,6 +160,11 @@ class Amplification:
         360-16 §C2.3, from memory): the member without its bow with every stiffness at 0.8·τ_b, out of plumb
         by 1/500 where it can sway, at the route's method (ASD at 1.6 × its loads, divided by 1.6); +inf where
         that member has no equilibrium; None otherwise (:mod:`engine.aisc_moments`).
+    moment_untilted : float or None
+        The aisc route's M_r [N·m] at its own analysis (ASD at 1.6·N, the direct analysis method at αN/c)
+        without the out-of-plumb tilt, for the check with the notional load about the other axis of a
+        one-plane case that sways about it (AISC 360-16 Appendix 7 §7.2.2 and §C2.2b: notional loads
+        applied independently in each of two orthogonal directions, from memory); None where not needed.
     """
 
     moment: float | None
@@ -172,6 +177,7 @@ class Amplification:
     moment_asd: float | None = None
     moment_out_of_plumb: float | None = None
     moment_direct: float | None = None
+    moment_untilted: float | None = None
 
 
 @dataclass(frozen=True, kw_only=True)

@@ -12,6 +12,7 @@ from matplotlib.lines import Line2D
 
 from app.exports.figure import _pcr_text, sheet_figure
 from app.exports.layout import _Flow, _Measure
+from app.exports.pdf_text import glyphs_own_characters
 from app.exports.sheet_ltb import ltb_items, ltb_mode_figure
 from app.exports.sheet_restraints import inner_input_items, reaction_items
 from app.exports.sheet_routes import combinations_items, routes_items, second_plane_items
@@ -335,6 +336,7 @@ def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -
         metadata_["Author"] = prepared_by
     # TrueType (Type 42) embedding: Type 3 glyphs are drawings, which many readers cannot search or copy.
     with rc_context({"pdf.fonttype": 42}), PdfPages(buffer, metadata=metadata_) as pdf:
+        glyphs_own_characters(pdf)  # λ̄ is extracted as λ̄, not λ̄λ̄ (app.exports.pdf_text)
         for fig in pages:
             pdf.savefig(fig)
     return buffer.getvalue()

@@ -62,7 +62,7 @@ def routes_items(item, flow, result, U: Units) -> None:
             item("", f"not applied: {row['reason']}", scale=0.92)
         if row["facts"]:
             item("", row["facts"], scale=0.92)
-        for level, words in row["notes"]:
+        for level, words in row["notes"] + row["setting_notes"]:
             item("", f"[{level}] {words}", scale=0.92, color=_DANGER if level == "danger" else _INK)
         if row["source"]:
             item("", f"source: {source_text(row['source'], U)}", scale=0.85, color=_GREY)

@@ -193,7 +193,9 @@ def _plane_and_route_rows(result, U: Units) -> list:
         governing = "" if row["term_in_words"] else row["governing"]
         # With load cases the value is the shown combination's own: the words name it (and any larger one).
         words = row["utilisation"] if row["combination"] and row["value"] is not None else ""
-        note = "; ".join(part for part in (words, governing, row["status"], row["reason"]) if part)
+        # How a setting of the case reaches the route (app.report.route_notes), after its status.
+        said = tuple(f"[{level}] {text}" for level, text in row["setting_notes"])
+        note = "; ".join(part for part in (words, governing, row["status"], row["reason"], *said) if part)
         rows.append((f"route {row['name']} [-]", value, note))
     return rows
 

@@ -21,7 +21,7 @@ from app.intake import clean_text
 from app.page.fields import field_words
 from app.page.style import UPLOAD_LIMIT, WIDGET_CSS, download, esc, html_pane
 from app.state import MemberState
-from app.state_actions import link_choice, view_result
+from app.state_actions import link_choice, shown_combination, view_result
 
 __all__ = ["FilesView"]
 
@@ -135,7 +135,9 @@ class FilesView(pn.viewable.Viewer):
         if result is not None:
             case, system = view_result(self.state).case, self.state.units
             for widget, extension in zip(self.buttons, ("png", "csv", "pdf", "json"), strict=True):
-                widget.filename = export_filename(case.title, case.axial_force, extension, system)
+                widget.filename = export_filename(
+                    case.title, case.axial_force, extension, system, shown_combination(self.state)
+                )
         refused = self.refused()
         for widget in self.buttons:
             widget.disabled = bool(refused) or result is None

@@ -204,10 +204,14 @@ class ForceControl(pn.viewable.Viewer):
         # route or a term of the second-order route may fail where the member check passes.
         headline = result.utilization
         fails = headline is not None and headline > 1
-        flag = "<span class='ss-flag ss-fails'>fails check</span>" if fails else ""
+        flag = " <span class='ss-flag ss-fails'>fails check</span>" if fails else ""
         style = _STYLE.get(status, status)
+        # The badges wrap onto a line of their own where N and both do not fit the readout's width (a long
+        # badge ran under the right-hand column and hid the flag); no figure is split from its name.
         self.readout.object = (
-            f"<div class='ss-readout'><b>{esc(U.show('force', P, digits=5))}</b> "
+            f"<div class='ss-readout ss-force'><b>{esc(U.show('force', P, digits=5))}</b> "
             f"<span class='ss-badge ss-{style}'>{_BADGES.get(status, status)}</span>{flag}<br>"
-            f"{kind} · N/Pcr1 <b>{ratio:.3f}</b> · α<sub>cr</sub> <b>{esc(alpha)}</b></div>"
+            f"<span class='ss-nowrap'>{kind}</span> · "
+            f"<span class='ss-nowrap'>N/Pcr1 <b>{ratio:.3f}</b></span> · "
+            f"<span class='ss-nowrap'>α<sub>cr</sub> <b>{esc(alpha)}</b></span></div>"
         )

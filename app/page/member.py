@@ -241,15 +241,20 @@ class MemberPage(pn.viewable.Viewer):
             margin=(0, 4),
             styles={"background": "#ffffff"},
         )
+        # The values' and the cautions' headings and boxes are the column's own children, so the column
+        # shares its height among them and none overflows onto the next; when even their least heights do not
+        # fit (the governing combinations' every check and route shown at 1280×720) the column scrolls.
         right = pn.Column(
             self.governing,
             self.routes,
-            self.values,
-            self.cautions,
+            *self.values.parts,
+            *self.cautions.parts,
             width=350,
             sizing_mode="stretch_height",
+            scroll=True,
             margin=(0, 6, 4, 0),
             styles={"background": "#ffffff"},
+            css_classes=["ss-right"],
         )
         self.inputs.member_tab.insert(0, self.files.case_file)
         # The load cases sit at the top of the Loads tab (a sixth tab's title does not fit the 318 px strip);

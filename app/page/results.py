@@ -1,5 +1,11 @@
 """The right-hand column: the governing values and the cautions, each in its own scrolling box, with the
-general caution pinned below them, always in view.
+general caution pinned below them, in view unless the column itself has to scroll (when even the boxes'
+least heights do not fit it).
+
+Each view hands the right column its parts (:attr:`ValuesView.parts`, :attr:`CautionsView.parts`): the
+headings, the boxes and the general caution are the column's own children, so that the column shares its
+height out among them and none is drawn over another (a box nested in a column of its own overflowed that
+column when the column above grew, and the values ran under the cautions' heading).
 """
 
 from __future__ import annotations
@@ -7,7 +13,7 @@ from __future__ import annotations
 import panel as pn
 import param
 
-from app.page.style import LEVEL_NAMES, esc, heading, html_pane
+from app.page.style import LEVEL_NAMES, SCROLL_BOX_CSS, esc, heading, html_pane
 from app.page.words import symbols, values_table
 from app.report import caution_text, general_caution, route_rows
 from app.report.combinations import shown_line
@@ -26,18 +32,15 @@ class ValuesView(pn.viewable.Viewer):
     def __init__(self, state: MemberState, **params) -> None:
         super().__init__(state=state, **params)
         self.table = html_pane(margin=(0, 4))
-        self.panel = pn.Column(
-            heading("Governing values"),
-            pn.Column(self.table, scroll=True, sizing_mode="stretch_both", margin=0, min_height=110),
-            sizing_mode="stretch_both",
-            margin=0,
-        )
+        self.box = scroll_box(self.table, min_height=110, css_classes=["ss-values-box"])
+        #: The heading and the box, for the right column to hold as its own children.
+        self.parts = (heading("Governing values"), self.box)
         watched = ["result", "capacity", "capacity_note", "units", "errors", "combination_choice"]
         state.param.watch(lambda *_: self.draw(), watched)
         self.draw()
 
     def __panel__(self):
-        return self.panel
+        return pn.Column(*self.parts, sizing_mode="stretch_both", margin=0)
 
     def draw(self) -> None:
         """Word the result's governing values; dim and mark them while the inputs are refused."""
@@ -69,19 +72,16 @@ class CautionsView(pn.viewable.Viewer):
         self._shown = None
         self.heading = heading("Cautions", margin=(2, 4, 0, 4))
         self.list = html_pane(margin=(0, 4))
-        self.general = html_pane(margin=(2, 4, 2, 4))
-        self.panel = pn.Column(
-            self.heading,
-            pn.Column(self.list, scroll=True, sizing_mode="stretch_both", margin=0, min_height=90),
-            self.general,
-            sizing_mode="stretch_both",
-            margin=0,
-        )
+        self.box = scroll_box(self.list, min_height=90, css_classes=["ss-cautions-box"])
+        # Set apart from the box above by a gap and a rule: a caution cut at the box's edge is not under it.
+        self.general = html_pane(margin=(6, 4, 2, 4), css_classes=["ss-general"])
+        #: The heading, the box and the general caution, for the right column to hold as its own children.
+        self.parts = (self.heading, self.box, self.general)
         state.param.watch(lambda *_: self.draw(), ["result", "units", "combination_choice"])
         self.draw()
 
     def __panel__(self):
-        return self.panel
+        return pn.Column(*self.parts, sizing_mode="stretch_both", margin=0)
 
     def draw(self) -> None:
         """List the result's cautions by severity, worded in the page's units (app.report); with load cases,
@@ -114,6 +114,21 @@ class CautionsView(pn.viewable.Viewer):
         self.general.object = "<ul class='ss-cautions general'>" + item(*general[0]) + "</ul>"
 
 
+def scroll_box(pane, min_height: int, css_classes: list[str]) -> pn.Column:
+    """A box that scrolls `pane` when it is taller than the box's share of the column: at least `min_height`
+    px, at most as tall as its content (the rest goes to the other box), its lower edge faded while more lies
+    below it."""
+    return pn.Column(
+        pane,
+        scroll=True,
+        sizing_mode="stretch_both",
+        margin=0,
+        min_height=min_height,
+        css_classes=css_classes,
+        stylesheets=[SCROLL_BOX_CSS],
+    )
+
+
 def route_notes(result, U) -> tuple:
     """The routes' notes as cautions (level, code, words, source), each once, named by its route."""
     seen, notes = set(), []
@@ -121,7 +136,9 @@ def route_notes(result, U) -> tuple:
     said = {c.code for c in result.cautions} | {"chi-LT-1", "LTB-not-checked"}
     for row in route_rows(result, U):
         route = next(r for r in result.routes if r.route == row["route"])
-        for code, (level, words) in zip(route.notes, row["notes"], strict=True):
+        pairs = list(zip(route.notes, row["notes"], strict=True))
+        pairs += [(None, note) for note in row["setting_notes"]]  # how a setting reaches the route
+        for code, (level, words) in pairs:
             if code in said:
                 continue
             if words in seen:

@@ -70,6 +70,10 @@ NOTE_ROOM = 0.3
 Y_SPAN = (Y_RANGE[0], Y_RANGE[1] + NOTE_ROOM)
 #: Average width of a character, in font sizes, to keep a text inside the frame (Helvetica-like faces).
 CHAR_WIDTH = 0.56
+#: Lines of a text, in font sizes apart (the labels' ``text_line_height``).
+LINE_HEIGHT = 1.1
+#: The room a text moved clear of another keeps from it [px] (texts that do not overlap stay where they are).
+TEXT_GAP = 2.0
 BORDERS = {"left": 62, "right": 14, "top": 2, "bottom": 2}
 
 
@@ -104,7 +108,7 @@ TEXT_FIELDS = dict(
     text_font_size="size",
     text_color="color",
     text_font_style="style",
-    text_line_height=1.1,
+    text_line_height=LINE_HEIGHT,
     background_fill_color="ground",
     background_fill_alpha=0.8,
 )
@@ -117,6 +121,7 @@ class _Scale:
         self.x = (x_range.end - x_range.start) / max(inner_width / SKETCH_INCH, 1e-6)
         self.y = (Y_SPAN[1] - bottom) / max(inner_height / SKETCH_INCH, 1e-6)
         self.width, self.start = inner_width, x_range.start
+        self.height, self.bottom = inner_height, bottom
 
     def xs(self, x, dx) -> list:
         return np.atleast_1d(np.asarray(x, dtype=float) + np.asarray(dx, dtype=float) * self.x).tolist()
@@ -234,6 +239,52 @@ def _render(shapes, s: _Scale) -> dict:
                 role=shape.role,
             )
     return out
+
+
+def _box(row: dict, i: int, s: _Scale, screen_x: bool = False) -> tuple[float, float, float, float]:
+    """The box (left, bottom, right, top) [px from the frame's lower left corner] of text `i` of a text
+    source's `row` columns, as wide as :data:`CHAR_WIDTH` says and its lines :data:`LINE_HEIGHT` apart."""
+    lines = row["text"][i].split("\n")
+    size = float(row["size"][i].removesuffix("px"))
+    width = size * CHAR_WIDTH * (1.08 if row["style"][i] == "bold" else 1.0) * max(map(len, lines))
+    height = size * LINE_HEIGHT * len(lines)
+    x = row["x"][i] if screen_x else (row["x"][i] - s.start) / s.x * SKETCH_INCH
+    y = (row["y"][i] - s.bottom) / s.y * SKETCH_INCH
+    left = x - {"left": 0.0, "center": width / 2, "right": width}[row["align"][i]]
+    bottom = y - {"bottom": 0.0, "middle": height / 2, "top": height}[row["baseline"][i]]
+    return left, bottom, left + width, bottom + height
+
+
+def _overlaps(box, other) -> bool:
+    """Whether two boxes (left, bottom, right, top) share more than a sliver (half a pixel) each way."""
+    return (
+        box[0] < other[2] - 0.5
+        and other[0] < box[2] - 0.5
+        and box[1] < other[3] - 0.5
+        and other[1] < box[3] - 0.5
+    )
+
+
+def _apart(texts: dict, fixed: list, s: _Scale) -> None:
+    """Move the texts of `texts` (a text source's columns, x in data units), in order, the least distance
+    that keeps each clear of the boxes in `fixed` and of the texts placed before it, inside the frame: a
+    load's value at the member's end ran under the axial force's label, which the frame's edge pushes in."""
+    placed = list(fixed)
+    for i in range(len(texts["text"])):
+        box = _box(texts, i, s)
+        moves = [(0.0, 0.0)]
+        for o in placed:
+            moves += [(o[0] - TEXT_GAP - box[2], 0.0), (o[2] + TEXT_GAP - box[0], 0.0)]
+            moves += [(0.0, o[1] - TEXT_GAP - box[3]), (0.0, o[3] + TEXT_GAP - box[1])]
+        for dx, dy in sorted(moves, key=lambda move: math.hypot(*move)):
+            moved = (box[0] + dx, box[1] + dy, box[2] + dx, box[3] + dy)
+            inside = moved[0] >= 0.0 and moved[2] <= s.width and moved[1] >= 0.0 and moved[3] <= s.height
+            if (inside or (dx, dy) == (0.0, 0.0)) and not any(_overlaps(moved, o) for o in placed):
+                texts["x"][i] += dx / SKETCH_INCH * s.x
+                texts["y"][i] += dy / SKETCH_INCH * s.y
+                box = moved
+                break
+        placed.append(box)
 
 
 class SketchView(param.Parameterized):
@@ -355,6 +406,12 @@ class SketchView(param.Parameterized):
             return
         shapes, scale = found
         data = _render([s for s in shapes if s.role not in FORCE_ROLES], scale)
+        # Texts keep clear of the axial force's label and of the note (or the danger note in its place).
+        force = _render([s for s in shapes if s.role in FORCE_ROLES], scale)
+        frame = force["frame_text"] if force["frame_text"]["text"] else data["frame_text"]
+        fixed = [_box(force["text"], i, scale) for i in range(len(force["text"]["text"]))]
+        fixed += [_box(frame, i, scale, screen_x=True) for i in range(len(frame["text"]))]
+        _apart(data["text"], fixed, scale)
         self.lines.data = data["lines"]
         self.patches.data = data["patches"]
         self.arrows.data = data["arrows"]

@@ -93,10 +93,12 @@ CSS = """
 .ss-note { color: var(--ss-muted); font-size: 12px; line-height: 1.3; }
 .ss-readout { font-size: 13.5px; line-height: 1.45; white-space: nowrap; }
 .ss-readout b { font-size: 15px; }
+.ss-readout.ss-force { white-space: normal; }
+.ss-readout .ss-nowrap { white-space: nowrap; }
 .ss-badge { display: inline-block; padding: 1px 7px; border-radius: 3px; font-size: 12px; font-weight: 700;
-            color: #fff; letter-spacing: 0.03em; }
+            color: #fff; letter-spacing: 0.03em; white-space: nowrap; line-height: 1.35; }
 .ss-flag { display: inline-block; padding: 1px 7px; border-radius: 3px; font-size: 12px; font-weight: 700;
-           color: #fff; letter-spacing: 0.03em; margin-left: 4px; }
+           color: #fff; letter-spacing: 0.03em; white-space: nowrap; line-height: 1.35; }
 .ss-stable { background: #2e6b3c; } .ss-unstable, .ss-critical, .ss-fails { background: #a3261b; }
 .ss-stale, .ss-near { background: #8a5a00; }
 .ss-stale-mark { font-size: 12px; font-weight: 700; color: #8a5a00; margin: 2px 3px; }
@@ -131,6 +133,7 @@ ul.ss-cautions .lvl { font-weight: 700; font-size: 12px; text-transform: upperca
 ul.ss-cautions li.danger .lvl { color: #a3261b; } ul.ss-cautions li.warning .lvl { color: #8a5a00; }
 ul.ss-cautions li.info .lvl { color: #35506b; }
 ul.ss-cautions .src { display: block; color: var(--ss-muted); font-size: 12px; font-style: italic; }
+ul.ss-cautions.general { border-top: 1px solid var(--ss-rule); padding-top: 4px; }
 ul.ss-cautions.general li { border-left-color: #14263a; background: #e9edf1; margin: 0; font-size: 11.5px;
                             line-height: 1.25; padding: 2px 4px 3px 7px; }
 .ss-key { font-size: 12.5px; color: var(--ss-ink); line-height: 1.35; }
@@ -142,6 +145,16 @@ table.ss-compare th, table.ss-compare td { padding: 3px 6px; border-bottom: 1px 
 table.ss-compare tr.case td { white-space: normal; max-width: 92px; font-size: 12px; vertical-align: top; }
 table.ss-compare th:first-child, table.ss-compare td:first-child { text-align: left; color: var(--ss-muted); }
 table.ss-compare th { font-size: 12px; }
+"""
+
+#: A scrolling box of the right column (the values, the cautions): it takes a share of the column's height, at
+#: least its minimum and at most its content's height (so the other box gets the rest); its lower edge fades
+#: while more lies below, and the padding under the content keeps the last line clear of the fade.
+SCROLL_BOX_CSS = """
+:host { flex: 1 1 0px; max-height: max-content; padding-bottom: 14px; scroll-padding-bottom: 14px;
+        box-sizing: border-box;
+        -webkit-mask-image: linear-gradient(to bottom, #000 calc(100% - 14px), transparent);
+        mask-image: linear-gradient(to bottom, #000 calc(100% - 14px), transparent); }
 """
 
 WIDGET_CSS = """

@@ -106,8 +106,14 @@ NOTES = {
         "info",
         "the direct analysis method (AISC 360-16 §C2.3, from memory): M_r from the member without its bow, "
         "every stiffness (EI, springs, a foundation) at 0.8·τ_b, out of plumb by 1/500 the worse way where "
-        "an end can translate; P_n with L_c = L unless the exact critical load is higher (§C3); the other "
-        "plane of a one-plane case carries no notional load",
+        "an end can translate; P_n with L_c = L unless the exact critical load is higher (§C3)",
+    ),
+    "aisc-notional-other-axis": (
+        "info",
+        "the other axis sways too (its out-of-plane buckling length exceeds the member's): H1-1 is also "
+        "checked with the notional load about that axis instead, 0.002·P_r·L × B2 = 1/(1 − αP_r/P_e) from "
+        "its buckling load (Appendix 7 §7.2.2, §C2.2b, Appendix 8, from memory; the loads of this plane "
+        "without its tilt); the worse of the two counts",
     ),
     "aisc-noncompact": (
         "info",

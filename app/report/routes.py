@@ -27,6 +27,7 @@ from app.report.route_names import (  # noqa: F401 (the planes' names are used f
     route_name,
     route_setting,
 )
+from app.report.route_notes import setting_notes
 from app.report.words import governing_rows, peak_text, quoted_text
 from app.units import Units
 
@@ -127,6 +128,8 @@ FACTS = {
     "M_c_z": ("M_c,z", "moment"),
     "M_r_y": ("M_r,y", "moment"),
     "M_r_z": ("M_r,z", "moment"),
+    "M_r_y_notional": ("M_r,y of the notional load about y", "moment"),
+    "M_r_z_notional": ("M_r,z of the notional load about z", "moment"),
 }
 
 # A fact the table above does not know is shown when its key says its kind (N_, P_ forces; M_ moments;
@@ -310,7 +313,10 @@ def route_rows(result, U: Units) -> list[dict]:
     ``"counts"`` or ``"for comparison"``), ``utilisation`` (text), ``value`` (the number or None),
     ``danger`` (bool: above 1 here or in another combination), ``combination`` (the shown one's name, ''
     without load cases), ``governing``, ``term_in_words`` (bool),
-    ``facts``, ``reason``, ``notes`` (tuple of (level, words)) and ``source``.
+    ``facts``, ``reason``, ``notes`` (tuple of (level, words), one per engine note code, in their order),
+    ``setting_notes`` (tuple of (level, words): how a setting of the case reaches the route, worded by
+    :mod:`app.report.route_notes` from the settings and the route's facts; shown with ``notes``) and
+    ``source``.
 
     With load cases the rule is one for every output: each value is the shown combination's own and is
     named with it (``"0.254 in U4"``); a route that another ultimate combination loads more names that one
@@ -355,6 +361,9 @@ def route_rows(result, U: Units) -> list[dict]:
                 "facts": facts_text(route.facts or {}, U),
                 "reason": reason_text(route.reason or "", U),
                 "notes": tuple(note_text(code, U) for code in route.notes or ()),
+                "setting_notes": tuple(
+                    (level, quoted_text(words, U)) for level, words in setting_notes(result, route)
+                ),
                 "source": route.source or "",
             }
         )

@@ -198,7 +198,7 @@ def _routes_lines(add, result, U) -> None:
             add(f"      not applied: {row['reason']}")
         if row["facts"]:
             add(f"      {row['facts']}")
-        for level, words in row["notes"]:
+        for level, words in row["notes"] + row["setting_notes"]:
             add(f"      [{level}] {words}")
         if row["source"]:
             add(f"      source: {row['source']}")

@@ -46,9 +46,10 @@ def _grown(M: float | None, N: float, N_cr: float, N_cr_des: float, alpha: float
     return M * (1.0 - alpha * N / N_cr) / (1.0 - alpha * N / N_cr_des)
 
 
-def design_planes(y, z, N: float, asd_alpha: float) -> tuple:
+def design_planes(y, z, N: float, asd_alpha: float, untilted_alpha: float | None = None) -> tuple:
     """The planes ``y``, ``z`` (:class:`engine.design.en_member.Plane`) with the design wall: their sections,
-    critical loads, M_second and M_asd as the module says."""
+    critical loads, M_second and M_asd as the module says; M_untilted grown at ``untilted_alpha`` (its
+    analysis's 1 or 1.6), or kept as it is (None: the direct analysis method's, whose c holds the wall)."""
     planes = []
     for p in (y, z):
         section = design_section(p.section)
@@ -62,6 +63,11 @@ def design_planes(y, z, N: float, asd_alpha: float) -> tuple:
                 EI=p.EI * ratio,
                 M_second=_grown(p.M_second, N, p.N_cr, N_cr, 1.0),
                 M_asd=_grown(p.M_asd, N, p.N_cr, N_cr, asd_alpha),
+                M_untilted=(
+                    p.M_untilted
+                    if untilted_alpha is None
+                    else _grown(p.M_untilted, N, p.N_cr, N_cr, untilted_alpha)
+                ),
             )
         )
     return tuple(planes)

@@ -56,6 +56,7 @@ from engine.design.aisc_hss import ERW_FACTOR, design_planes, design_section, is
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import RouteCheck
 from engine.sections import deep_solid
+from engine.sway import AISC_OUT_OF_PLUMB
 
 __all__ = [
     "SOURCE",
@@ -224,10 +225,29 @@ def _asd_moment(p, N: float, M_second: float) -> float:
 def _buckling_load(p, direct: bool) -> float:
     """The plane's load for §E3's F_e: its exact critical load; by the direct analysis method (§C3, from
     memory: L_c = L unless a rational analysis gives less) never below π²EI/L² with L the member's length,
-    where the exact load is the plane's own (an out-of-plane buckling length the case gives is kept)."""
-    if not direct or p.N_cr_source != "exact" or math.isinf(p.N_cr) or p.length is None:
+    where the exact load is the plane's own, or where the unloaded plane of a one-plane case sways and so
+    carries the notional load (:func:`_notional_moment`); another out-of-plane buckling length the case
+    gives is kept."""
+    if not direct or math.isinf(p.N_cr):
+        return p.N_cr
+    if p.sway_length is not None:
+        return max(p.N_cr, math.pi**2 * p.EI / p.sway_length**2)
+    if p.N_cr_source != "exact" or p.length is None:
         return p.N_cr
     return max(p.N_cr, math.pi**2 * p.EI / p.length**2)
+
+
+def _notional_moment(N: float, p: Plane, alpha: float, c: float) -> float:
+    """M_r [N·m] about the unloaded, swaying plane ``p`` of a one-plane case from the notional load alone:
+    the tilt 1/500 over ``p.sway_length`` with App. 8's B2 = 1/(1 − αN/(c·N_cr)) (from memory; ``alpha``
+    ASD's 1.6, ``c`` the direct analysis method's 0.8·τ_b or 1). N·φ·L bounds the end moment of any member
+    whose ends translate by φ·L relative to each other, and B2 bounds the cantilever's exact tan(kL)/(kL)
+    (every term of its partial fractions is at most the first one's), so this is never below the exact
+    second-order moment of a cantilever (tests/engine/test_aisc_notional_other_axis.py)."""
+    load = alpha * N / c
+    if load >= p.N_cr:
+        return math.inf
+    return AISC_OUT_OF_PLUMB * N * p.sway_length / (1.0 - load / p.N_cr)
 
 
 def _ltb_facts(ltb, section) -> dict:
@@ -261,7 +281,8 @@ def route(
     reduced = direct_stiffness(y.section, material, N, settings.aisc_method) if direct and N > 0.0 else None
     if erw:  # §B4.2: an ERW HSS's design wall is 0.93·t (engine.design.aisc_hss)
         t_nominal = y.section.dimensions["t"]
-        y, z = design_planes(y, z, N, ASD_ALPHA)
+        untilted_alpha = None if direct else (ASD_ALPHA if settings.aisc_method == "ASD" else 1.0)
+        y, z = design_planes(y, z, N, ASD_ALPHA, untilted_alpha)
     sy = y.section
     E, Fy = material.E, material.fy
     method = settings.aisc_method
@@ -292,7 +313,7 @@ def route(
                     source=SOURCE,
                 )
     notes = ["aisc-shear-not-checked"] + (["aisc-erw-design-wall"] if erw else [])
-    swaying = [p for p in (y, z) if p.diagram.sway]
+    swaying = [p for p in (y, z) if p.diagram.sway or p.sway_length is not None]
     if direct:  # Chapter C: no drift limit; the reduced stiffness and the notional load are in M_r
         notes.insert(0, "aisc-direct-analysis")
         facts["analysis"] = "direct"
@@ -313,7 +334,7 @@ def route(
         kind, parts = flexure_class(p.section, E, Fy)
         facts[f"flexure_{p.axis}"] = kind
         if kind == "slender":
-            if p.diagram.M_max == 0.0:
+            if p.diagram.M_max == 0.0 and (p.sway_length is None or N <= 0.0):
                 continue  # no moment about this axis: its flexural strength does not enter
             return RouteCheck(
                 route="aisc",
@@ -384,6 +405,20 @@ def route(
             source=SOURCE,
         )
     found = aisc360.interaction(N, P_c, M_r["y"], M_c.get("y", math.inf), M_r["z"], M_c.get("z", math.inf))
+    other = next((p for p in (y, z) if p.sway_length is not None), None) if N > 0.0 else None
+    if other is not None:  # the notional load about the other axis instead (App. 7 §7.2.2, §C2.2b)
+        c = reduced[2] if direct and reduced is not None else 1.0
+        M_tilt = _notional_moment(N, other, alpha, c)
+        M_b = {p.axis: p.M_untilted if p.M_untilted is not None else M_r[p.axis] for p in (y, z)}
+        M_b[other.axis] = M_tilt
+        facts[f"M_r_{other.axis}_notional"] = M_tilt
+        M_c_y, M_c_z = M_c.get("y", math.inf), M_c.get("z", math.inf)
+        beside = aisc360.interaction(N, P_c, M_b["y"], M_c_y, M_b["z"], M_c_z)
+        facts["tilt_axis"] = y.axis if found.utilization >= beside.utilization else other.axis
+        if beside.utilization > found.utilization:
+            found = beside
+            facts.update({f"M_r_{axis}": value for axis, value in M_b.items()})
+        notes.append("aisc-notional-other-axis")
     facts.update(axial=found.axial, bending=found.bending)
     return RouteCheck(
         route="aisc",

@@ -47,6 +47,7 @@ from engine.classification import compression_area, elastic_modulus
 from engine.design import annex_a, annex_b, ltb
 from engine.design.diagram import Diagram, annex_a_factor, annex_b_factor
 from engine.design.routes import RouteCheck
+from engine.shear_area import axial_ratio, shear_area_kept
 
 __all__ = ["Plane", "SOURCE", "route"]
 
@@ -93,6 +94,12 @@ class Plane:
     )
     M_direct: float | None = None  # the direct analysis method's M_r [N·m] (Amplification.moment_direct)
     length: float | None = None  # the member's length [m] (the direct analysis method's L_c = L)
+    # the aisc route's M_r of this plane without its out-of-plumb tilt [N·m], where M_r holds one (the check
+    # with the notional load about the other axis instead, aisc_member); None: M_r holds no tilt
+    M_untilted: float | None = None
+    # the unloaded plane of a one-plane case that sways (L_cr > L): the length [m] over which the aisc
+    # route's notional tilt acts about this axis; None: no tilt about it (aisc_member)
+    sway_length: float | None = None
 
     @property
     def L_cr(self) -> float | None:
@@ -191,13 +198,17 @@ def route(
         "form_z": z.diagram.form,
     }
     root3 = math.sqrt(3.0)
-    shear = max(p.diagram.V_max * g0 * root3 / (p.section.A_v * fy) for p in (y, z) if p.section.A_v > 0)
+    sheared = [(p.diagram.V_max * g0 * root3 / (p.section.A_v * fy), p.section.A_v) for p in (y, z)]
+    sheared = [item for item in sheared if item[1] > 0]
+    shear = max(ratio for ratio, _ in sheared)
     # §6.2.8: past half of V_pl,Rd, (1 − ρ)f_y for the moments (the largest shear with the largest moments,
-    # on the whole section: on the safe side)
+    # on the whole section: on the safe side), and in each shear area for N (§6.2.10(3))
     rho = float(codes.shear_reduction(shear, 1.0))
+    kept = shear_area_kept(N_Rk / fy, [(codes.shear_reduction(r, 1.0), A_v) for r, A_v in sheared])
     bending = My * g0 / My_Rk + Mz * g0 / Mz_Rk
+    axial = float(axial_ratio(N, float(kept) * fy / g0))
     terms = {
-        "cross-section": abs(N) * g0 / N_Rk + (0.0 if bending == 0.0 else _reduced(bending, rho)),
+        "cross-section": axial + (0.0 if bending == 0.0 else _reduced(bending, rho)),
         "shear": shear,
     }
     if rho > 0.0:

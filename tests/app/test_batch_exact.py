@@ -57,7 +57,14 @@ no number changed. Again at stop 33, when a cantilever's reference moment began 
 N·(w0 − w0 at the tip) (``engine.reference``) and the slenderness caution began to count the other axis of a
 one-plane case: the example table's CT-01 (``amplification_moment`` 1.189 → 1.013) and TB-01 (the ``slender``
 caution) and 50 generated rows, only in those two columns (16 amplifications of cantilevers, lower; 37 rows
-gained ``slender``); no utilisation, capacity or other number moved. And a
+gained ``slender``); no utilisation, capacity or other number moved. Again at stop 34, when the aisc route
+of a one-plane member whose other axis sways (a cantilever: L_cr = 2L out of plane) began to check H1-1 with
+the notional load about that axis too (Appendix 7 §7.2.2, §C2.2b): CT-01 (AISC 0.1006 → 0.1036) and 10
+generated cantilevers, only in their AISC utilisation, every one higher (M000131 0.601 → 0.625; three that
+already failed, M000005 1.54, now unbounded: 1.6·N or N beyond the minor axis's sway buckling load); the
+headline and capacity, which do not count the aisc route there, did not move. And at stop 34, when high shear
+began to reduce the axial resistance as well (EN 1993-1-1 §6.2.10(3)): M000128, which already failed by
+shear beside a moment, 588.9 → 589.3; no other row moved. And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must

@@ -43,8 +43,15 @@ def run_cli(*args, cwd, command=None):
 
 
 def demo_case():
-    """The demo case as the engine reads it."""
+    """The plain demo case (no load cases, 350 kN) as the engine reads it."""
     text = resources.files("assets").joinpath("demo_wind_post.json").read_text(encoding="utf-8")
+    return engine.Case.from_json(text)
+
+
+def page_demo_case():
+    """The demo case `solve --demo` solves (the one the page opens, with load cases G and W), as the engine
+    reads it."""
+    text = resources.files("assets").joinpath("demo_wind_post_actions.json").read_text(encoding="utf-8")
     return engine.Case.from_json(text)
 
 
@@ -76,13 +83,36 @@ def test_solve_demo_exits_zero_and_prints_critical_load_and_caution(tmp_path):
     assert done.stderr == ""
 
 
+def test_solve_demo_solves_the_case_the_page_opens(tmp_path):
+    """`solve --demo` prints the numbers of the page's start case (with load cases: U2 governs, 0.448), and
+    its --help names that case; the plain demo is solved by its path and prints its own figures."""
+    from app.serve import _demo_case
+
+    done = run_cli("solve", "--demo", "--json", cwd=tmp_path)
+    assert done.returncode == 0, done.stderr
+    data = strict_json(done.stdout)
+    page = engine.solve(_demo_case(), stations=401)  # reference: the engine's result for the page's case
+    assert page.actions is not None and data["combinations"] is not None
+    assert data["title"] == page.case.title and data["utilization"] == page.utilization
+    # The page names U2 = 1.35 G + 1.5 W with 0.448 (DEVELOPERS.md, "The start demo carries load cases").
+    assert f"{data['utilization']:.3f}" == "0.448" and page.actions.headline == "U2"
+    shown = run_cli("solve", "--help", cwd=tmp_path)
+    assert "demo_wind_post_actions.json" in " ".join(shown.stdout.split())
+    assert "with a permanent (G) and a wind (W) load case" in " ".join(shown.stdout.split())
+    plain = run_cli("solve", str(REPO_ROOT / "assets" / "demo_wind_post.json"), "--json", cwd=tmp_path)
+    assert plain.returncode == 0, plain.stderr
+    plain_data = strict_json(plain.stdout)
+    assert plain_data["combinations"] is None and plain_data["axial_force"] == 350e3  # the file's 350 kN
+    assert plain_data["utilization"] != data["utilization"]
+
+
 def test_printed_first_critical_load_matches_engine_and_euler(tmp_path):
     """The Pcr1 printed in kN equals engine.solve's first critical load for the demo case, and π²EI/L²."""
     done = run_cli("solve", "--demo", cwd=tmp_path)
     assert done.returncode == 0, done.stderr
     printed_kN = float(PCR1_LINE.search(done.stdout).group(1))
 
-    case = demo_case()
+    case = page_demo_case()
     expected_kN = engine.solve(case, stations=401).critical_loads[0] / 1e3
     # Printed to 5 significant figures, so within half a unit in the fifth figure.
     assert printed_kN == pytest.approx(expected_kN, rel=1e-4)
@@ -240,7 +270,7 @@ def test_json_summary_matches_engine_solve(tmp_path):
     data = strict_json(done.stdout)
     assert set(data) == SUMMARY_KEYS
     # Reference: the engine's own result for the same case (the command line only reports it).
-    result = engine.solve(demo_case(), stations=401)
+    result = engine.solve(page_demo_case(), stations=401)
     assert data["status"] == result.status == "stable"
     assert data["stable"] is True
     assert data["utilization"] == result.utilization and data["fails"] is (result.utilization > 1.0)
@@ -314,7 +344,7 @@ def test_us_units_print_the_engine_values_in_kip(tmp_path):
     done = run_cli("solve", "--demo", "--units", "us", cwd=tmp_path)
     assert done.returncode == 0, done.stderr
     printed = float(re.search(r"^\s*Pcr1 = ([0-9.eE+-]+) kip$", done.stdout, re.MULTILINE).group(1))
-    expected = engine.solve(demo_case()).critical_loads[0] / KIP
+    expected = engine.solve(page_demo_case()).critical_loads[0] / KIP
     assert printed == pytest.approx(expected, rel=1e-4)  # printed to 5 significant figures
     assert f"length:       {6.0 / FOOT:.3f} ft" in done.stdout
     assert CAUTION in done.stdout
@@ -370,11 +400,13 @@ def test_export_to_a_missing_folder_exits_two_naming_the_file(tmp_path):
 
 
 def test_capacity_option_reports_engine_capacity(tmp_path):
-    """`--capacity --json` reports engine.capacity's axial force and governing check for the demo case."""
+    """`--capacity --json` reports engine.capacity's axial force and governing check for the demo case's
+    governing combination."""
     done = run_cli("solve", "--demo", "--capacity", "--json", cwd=tmp_path)
     assert done.returncode == 0, done.stderr
     data = strict_json(done.stdout)
-    expected = engine.capacity(demo_case())  # reference: the engine's capacity finder
+    # Reference: the engine's capacity finder, on the governing combination's case (the demo has load cases).
+    expected = engine.capacity(engine.solve(page_demo_case()).case)
     assert data["capacity"]["axial_force"] == expected.axial_force
     assert data["capacity"]["check"] == expected.check
     assert data["capacity"]["critical_load"] == expected.critical_load
@@ -389,7 +421,7 @@ def test_capacity_without_section_exits_two_naming_section(tmp_path):
 
 
 def test_strict_exit_codes(tmp_path):
-    """--strict exits 0 for the demo (utilisation 0.35), 1 above utilisation 1 and 1 above Pcr1 (danger)."""
+    """--strict exits 0 for the demo (utilisation 0.448), 1 above utilisation 1 and 1 above Pcr1 (danger)."""
     assert run_cli("solve", "--demo", "--strict", cwd=tmp_path).returncode == 0
     # An invented HEB 200 in S355 under a wind load far beyond its strength: qL²/8 = 200·36/8 = 900 kN·m
     # against W_el·fy ≈ 570e-6 · 355e6 ≈ 202 kN·m (section values from memory), so utilisation > 1.

@@ -16,11 +16,12 @@ import pytest
 from pypdf import PdfReader
 
 from app import exports
+from app.export_names import export_filename
 from app.page.actions import demo_with_actions
 from app.page.member import MemberPage
 from app.report import format_summary, route_rows
 from app.report.numbers import csv_number, utilisation
-from app.state_actions import view_result
+from app.state_actions import shown_combination, view_result
 from app.units import units
 
 
@@ -180,3 +181,29 @@ def test_an_ultimate_combination_keeps_its_own_warnings_and_the_general_caution(
         assert "combinations are not checked" not in " ".join(text.split())
     checked = next(c for c in shown.cautions if c.code == "out-of-plane-checked")
     assert checked.values["utilization"] == pytest.approx(_own(shown, "second-order"))
+
+
+def test_the_exports_are_named_with_the_combination_shown(page):
+    """The file names of U4's exports and of the governing U2's differ by the combination's name, and the
+    envelope's read "envelope"; a case without load cases gives no combination (its names are unchanged)."""
+    names = {}
+    for choice, expected in (("U4", "U4"), ("", "U2"), ("U2", "U2"), ("envelope", "envelope")):
+        shown = _choose(page, choice)
+        assert shown_combination(page.model) == expected
+        names[choice] = export_filename(shown.case.title, shown.case.axial_force, "pdf", "si", expected)
+        assert f"_{expected}_N" in names[choice]
+    assert names["U4"] != names[""] == names["U2"]
+    _choose(page, "")
+    plain = MemberPage()
+    assert plain.model.result.actions is None and shown_combination(plain.model) == ""
+
+
+def test_the_page_names_its_downloads_with_the_combination_shown(page):
+    """The page's download names carry the combination shown (U4), as app.export_names words them."""
+    shown = _choose(page, "U4")
+    try:
+        page.files.draw()
+        expected = export_filename(shown.case.title, shown.case.axial_force, "pdf", "si", "U4")
+        assert page.files.pdf_button.filename == expected
+    finally:
+        _choose(page, "")

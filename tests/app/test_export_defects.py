@@ -126,6 +126,27 @@ def test_export_file_names_keep_the_title_and_carry_n():
     assert export_filename("", 0.0, "json") == "strutscope-case_N0kN.json"
 
 
+def test_export_file_names_carry_the_combination_shown():
+    """With load cases the name holds the combination (or "envelope") before N; without, it is unchanged."""
+    title = "Invented post"
+    assert export_filename(title, 210e3, "pdf", combination="U4") == "strutscope-invented-post_U4_N210kN.pdf"
+    assert export_filename(title, 294e3, "pdf", combination="U2") == "strutscope-invented-post_U2_N294kN.pdf"
+    assert export_filename(title, 294e3, "png", combination="envelope").endswith("_envelope_N294kN.png")
+    assert export_filename(title, 210e3, "csv", combination="") == export_filename(title, 210e3, "csv")
+    # The engine's names use letters, digits and _ . + -; "_" separates the name's fields, so it becomes "-",
+    # and anything a file system may refuse (/ \ : * ? " < > |, spaces) becomes one "-".
+    assert export_filename(title, 1e3, "csv", combination="ULS_1+wind.2") == (
+        "strutscope-invented-post_ULS-1+wind.2_N1.00kN.csv"
+    )
+    assert export_filename(title, 1e3, "csv", combination='a/b\\c:*?"<>| d') == (
+        "strutscope-invented-post_a-b-c-d_N1.00kN.csv"
+    )
+    assert (
+        export_filename(title, 1e3, "csv", combination="..//")
+        == "strutscope-invented-post_combination_N1.00kN.csv"
+    )
+
+
 def test_saved_case_holds_no_amplitude_beside_a_preset():
     """A preset sets the bow's size: the saved JSON has no amplitude beside it, and reads back the same."""
     case = engine.Case.from_dict(_demo_mapping())

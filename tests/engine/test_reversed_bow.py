@@ -62,7 +62,9 @@ def _both(case, n=401):
     case_loads=loads(4.2, max_size=3, scale=2e3),
     shape=st.sampled_from(["sine", "parabola", "mode"]),
     direction=st.sampled_from(["load", "positive", "negative"]),
-    fraction=st.one_of(st.floats(-5.0, 0.95), st.floats(1.05, 2.5)),
+    fraction=st.one_of(
+        st.floats(-5.0, 0.95, allow_subnormal=False), st.floats(1.05, 2.5, allow_subnormal=False)
+    ),
 )
 def test_reversed_bow_by_linearity_equals_its_direct_solve(supports, case_loads, shape, direction, fraction):
     """w, rotation, M, T and V of the reversed bow as 2 × (bow-free) − (forward) equal a direct solve of the
@@ -89,7 +91,7 @@ def test_reversed_bow_by_linearity_equals_its_direct_solve(supports, case_loads,
 @given(
     supports=named_supports(),
     case_loads=loads(4.2, max_size=3, scale=2e3),
-    fraction=st.floats(-3.0, 0.95),
+    fraction=st.floats(-3.0, 0.95, allow_subnormal=False),  # a subnormal force loses its relative precision
 )
 def test_combined_peaks_are_exact_points_of_the_combination(supports, case_loads, fraction):
     """The values listed for the combined solution, peaks included, are the combined solution evaluated there

@@ -93,11 +93,12 @@ def test_elastic_check_of_two_planes(Pz):
 @pytest.mark.parametrize("N", [0.0, 100e3])
 @pytest.mark.parametrize("P", [100e3, 250e3])
 def test_en_member_cross_section_term(N, P):
-    """N/N_Rk + (M_y/M_y,Rk)/(1 − ρ) with the first-order M_y = P·L and V = P (class 1: W_pl)."""
+    """N/((A − ρA_v)·f_y) + (M_y/M_y,Rk)/(1 − ρ) with the first-order M_y = P·L and V = P (class 1: W_pl;
+    §6.2.10(3): (1 − ρ)f_y in the shear area for N as well)."""
     result = _cantilever(P, "plastic", N=N)
     route = next(r for r in result.routes if r.route == "en-member")
     s = result.section
     rho = _rho(P, s.A_v * FY / math.sqrt(3.0))
-    expected = N / (s.A * FY) + P * L / (s.W_pl * FY) / (1.0 - rho)
+    expected = N / ((s.A - rho * s.A_v) * FY) + P * L / (s.W_pl * FY) / (1.0 - rho)
     assert route.terms["cross-section"] == pytest.approx(expected, rel=1e-6)
     assert (route.facts.get("rho_shear", 0.0) > 0.0) == (rho > 0.0)

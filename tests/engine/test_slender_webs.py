@@ -2,7 +2,8 @@
 
 - EN 1993-1-1:2005 §6.2.6(6) with EN 1993-1-5 §5.1(2) (from memory; tests/REFERENCES.md §8): a web without
   intermediate stiffeners with h_w/t_w > 72ε/η buckles in shear before it yields, which strutscope does not
-  check; η = 1 is taken (the lower value, so no slender web goes unwarned). The shear check is then V_pl,Rd
+  check; η = 1.2 is taken (EN 1993-1-5's recommended value up to S460: the limit 60ε is the lower one, so no
+  web that needs the check under η = 1.2 or 1.0 goes unwarned). The shear check is then V_pl,Rd
   alone, on the unsafe side: a warning, a danger once that check takes half of V_pl,Rd.
 - EN 1993-1-1 Table 5.2 (from memory): a web in bending is class 4 above c/t = 124ε. The member check set
   the utilisation unbounded for class 4 only under axial compression, so an invented plate girder in bending
@@ -42,21 +43,29 @@ EPS = math.sqrt(235 / 345)  # flanges 30 mm: f_y = 345 MPa
 
 
 def test_a_slender_web_is_named_with_its_ratio_and_limit():
-    """t_w = 12 mm: h_w/t_w = 940/12 = 78.3 > 72ε = 59.4 (class 3 in bending: 78.3 < 124ε = 102.3)."""
+    """t_w = 12 mm: h_w/t_w = 940/12 = 78.3 > 72ε/1.2 = 49.5 (class 3 in bending: 78.3 < 124ε = 102.3)."""
     r = engine.solve(girder(0.012))
     assert r.check.section_class.klass <= 3 and math.isfinite(r.utilization)
     (caution,) = [c for c in r.cautions if c.code == "web-shear-buckling"]
     assert caution.values["h_w_over_t_w"] == 0.94 / 0.012
-    assert abs(caution.values["limit"] - 72 * EPS) < 1e-9
+    assert abs(caution.values["limit"] - 72 * EPS / 1.2) < 1e-9
     shear = float(r.check.shear.max())
     assert caution.level == ("danger" if shear >= 0.5 else "warning")
 
 
 def test_no_caution_for_a_stocky_web_or_a_rolled_section():
-    """t_w = 20 mm: 47 < 59.4; IPE 600 (h_w/t_w = 562/12 = 46.8, S355 at 19 mm: 72ε = 59.4): none."""
+    """t_w = 20 mm: 47 < 49.5; IPE 600 (h_w/t_w = 562/12 = 46.8, S355 at 19 mm: 72ε/1.2 = 49.5): none."""
     assert "web-shear-buckling" not in [c.code for c in engine.solve(girder(0.020)).cautions]
     rolled = girder(0.02, q=40e3, section={"name": "IPE 600"})
     assert "web-shear-buckling" not in [c.code for c in engine.solve(rolled).cautions]
+
+
+def test_a_web_between_60_and_72_epsilon_is_warned():
+    """t_w = 17 mm: h_w/t_w = 940/17 = 55.3, above 72ε/1.2 = 49.5 though below 72ε = 59.4 (η = 1.0): the check
+    is needed with EN 1993-1-5's recommended η = 1.2, so the caution fires (it did not with η = 1)."""
+    r = engine.solve(girder(0.017))
+    (caution,) = [c for c in r.cautions if c.code == "web-shear-buckling"]
+    assert 72 * EPS / 1.2 < caution.values["h_w_over_t_w"] < 72 * EPS
 
 
 def test_heavy_shear_on_a_slender_web_is_a_danger():
