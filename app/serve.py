@@ -31,10 +31,6 @@ _WARM_DELAY_S = 8.0
 #: How many ports above the default are tried when it is taken.
 _PORT_TRIES = 20
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
-#: The page's start case: the invented wind post with a permanent (G) and a wind (W) load case, its ultimate
-#: and service combinations made by EN 1990 (issue 17), which ``solve --demo`` solves too (one name, in
-#: app.cli_common). ``strutscope serve assets/demo_wind_post.json`` opens the plain demo.
-_DEMO_CASE = DEMO_CASE
 #: Shown on the page when the connection to the server is lost.
 DISCONNECTED = (
     "strutscope lost its connection to the server. Start strutscope again and reload this page: "
@@ -43,9 +39,12 @@ DISCONNECTED = (
 
 
 def _demo_case():
+    """The page's start case, the one ``solve --demo`` solves (app.cli_common.DEMO_CASE): the invented wind
+    post with a permanent (G) and a wind (W) load case; ``strutscope serve assets/demo_wind_post.json`` opens
+    the plain demo."""
     import engine
 
-    return engine.Case.from_json(resources.files("assets").joinpath(_DEMO_CASE).read_text(encoding="utf-8"))
+    return engine.Case.from_json(resources.files("assets").joinpath(DEMO_CASE).read_text(encoding="utf-8"))
 
 
 #: Set (to anything) in a test or the reliability report to have the server log its live pages per session.
@@ -500,7 +499,7 @@ def serve(
             "the page and run analyses on this machine; there is no login.",
             file=sys.stderr,
         )
-    source = case_path if case_path is not None else f"{_DEMO_CASE} (invented demo)"
+    source = case_path if case_path is not None else f"{DEMO_CASE} (invented demo)"
     print(f"strutscope: serving the member explorer on {source} at http://{shown_host}:{port}/", flush=True)
     if host in ("0.0.0.0", "::"):
         print(f"strutscope: on this computer, open it at http://127.0.0.1:{port}/", flush=True)

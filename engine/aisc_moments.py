@@ -28,6 +28,7 @@ import math
 import numpy as np
 
 from engine.design.aisc_member import ASD_ALPHA, direct_stiffness
+from engine.out_of_plane import other_axis_sways
 from engine.raw import raw as _raw
 from engine.sway import AISC_OUT_OF_PLUMB, can_sway
 
@@ -71,10 +72,10 @@ def asd_moment(case, prep, count, P) -> float | None:
     return plumb if plumb is not None else _free(prep, count, ASD_ALPHA * P)
 
 
-def direct_moment(case, prep, count, P) -> float | None:
-    """M_r [N·m] of the direct analysis method at ``P`` for the route's method (LRFD or ASD), or None: not
-    asked (``check.aisc_analysis``), no compression, or where the route does not apply; +inf where the
-    reduced member has no equilibrium (αP ≥ c·N_cr, τ_b = 0 included)."""
+def _direct_force(case, prep, P) -> tuple[float, float] | None:
+    """(αP/c, α/c): the force at which the nominal member has the moments of the direct analysis method's
+    reduced member at ``P`` (see the module), and the factor on its tilt; αP/c = +inf where c = 0 (τ_b = 0).
+    None: not asked (``check.aisc_analysis``), no compression, or where the route does not apply."""
     member = prep.member
     if case.check.aisc_analysis != "direct" or P <= 0.0 or member is None:
         return None
@@ -86,23 +87,29 @@ def direct_moment(case, prep, count, P) -> float | None:
         return None
     c = found[2]
     alpha = ASD_ALPHA if method == "ASD" else 1.0
-    if c <= 0.0 or alpha * P >= c * prep.buckling.critical_loads[0]:
+    return (alpha * P / c, alpha / c) if c > 0.0 else (math.inf, math.inf)
+
+
+def direct_moment(case, prep, count, P) -> float | None:
+    """M_r [N·m] of the direct analysis method at ``P`` for the route's method (LRFD or ASD), or None: not
+    asked (``check.aisc_analysis``), no compression, or where the route does not apply; +inf where the
+    reduced member has no equilibrium (αP ≥ c·N_cr, τ_b = 0 included)."""
+    found = _direct_force(case, prep, P)
+    if found is None:
+        return None
+    at, scale = found
+    if at >= prep.buckling.critical_loads[0]:
         return math.inf
-    at = alpha * P / c
-    plumb = plumb_moment(case, prep, count, at, alpha / c)
+    plumb = plumb_moment(case, prep, count, at, scale)
     return plumb if plumb is not None else _free(prep, count, at)
 
 
 def other_plane_sways(case, prep) -> bool:
-    """Whether the other plane of a one-plane case sways for the aisc route's notional load: its out-of-plane
-    buckling length exceeds the member's length, which a member held against translation at both ends about
-    that axis cannot have (the default 2·L of a member whose end translates in the plane analysed, or a
-    longer length given). A decision of the project (DEVELOPERS.md decisions log, stop 34)."""
+    """Whether the other plane of a one-plane case sways for the aisc route's notional load
+    (:func:`engine.out_of_plane.other_axis_sways`)."""
     if case.second_plane is not None or prep.member is None:
         return False
-    out = prep.out_of_plane()
-    length = out.buckling_length
-    return bool(out.checked) and length is not None and length > case.length * (1.0 + 1e-12)
+    return other_axis_sways(prep.out_of_plane(), case.length)
 
 
 def untilted_moment(case, prep, count, P) -> float | None:
@@ -111,22 +118,15 @@ def untilted_moment(case, prep, count, P) -> float | None:
     that member has no equilibrium; None elsewhere."""
     if P <= 0.0 or prep.member is None or not can_sway(case):
         return None
-    method = case.check.aisc_method
-    alpha = ASD_ALPHA if method == "ASD" else 1.0
-    c = 1.0
     if case.check.aisc_analysis == "direct":
-        member = prep.member
-        if member.section is None or member.material is None:
-            return None
-        found = direct_stiffness(member.section, member.material, P, method)
+        found = _direct_force(case, prep, P)
         if found is None:
             return None
-        c = found[2]
-        if c <= 0.0:
-            return math.inf
-    elif method != "ASD":
+        at = found[0]
+    elif case.check.aisc_method == "ASD":
+        at = ASD_ALPHA * P
+    else:
         return None
-    at = alpha * P / c
     if at >= prep.buckling.critical_loads[0]:
         return math.inf
     return _free(prep, count, at)

@@ -250,7 +250,7 @@ def check_biaxial(
             kept = shear_area_kept(area, ((rho_z, section_y.A_v), (rho_y, section_z.A_v)))
         else:
             rho = np.zeros_like(My)
-            kept = area + rho
+            kept = area
         if method == "elastic":
             N_Rd = area * fc / g0
             # W_eff of a class 4 section: the merged class holds each view's, y first (pair_check)

@@ -36,7 +36,7 @@ from engine.ltb_route import major as _major
 from engine.member import segments_of
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
-from engine.out_of_plane import sways
+from engine.out_of_plane import other_axis_sways, sways
 from engine.sections import section_from_spec
 from engine.torsional_buckling import TERM as TORSIONAL
 
@@ -143,8 +143,7 @@ def _planes(result, M_second, out_of_plane, cache):
         other = _unloaded_plane(
             case, case.section, result.material, N_cr, source, cache, "routes-other-section"
         )
-        if source != "restrained" and out_of_plane.buckling_length > case.length * (1.0 + 1e-12):
-            # it sways (aisc_moments.other_plane_sways): the aisc route's notional tilt acts over L
+        if other_axis_sways(out_of_plane, case.length):  # the aisc route's notional tilt acts over L
             other = dataclasses.replace(other, sway_length=float(case.length))
     return (first, other) if first_axis == "y" else (other, first)
 

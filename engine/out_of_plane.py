@@ -49,6 +49,7 @@ __all__ = [
     "OutOfPlane",
     "OutOfPlaneSettings",
     "SWAY_NOTE",
+    "other_axis_sways",
     "resistance",
     "sways",
     "utilisation",
@@ -348,6 +349,17 @@ def sways(case) -> bool:
     """Whether an end of the member is free to translate in the plane analysed (free, guided or a
     translational spring)."""
     return any(end.translation != "fixed" for end in (case.left, case.right))
+
+
+def other_axis_sways(out, length: float) -> bool:
+    """Whether the other axis of a one-plane case sways, from its check ``out`` (an :class:`OutOfPlane` or
+    None) and the member's ``length`` [m]: a buckling length above the member's, which a member held against
+    translation at both ends about that axis cannot have (the default 2·L of a member whose end translates
+    in the plane analysed, or a longer length given). The aisc route then takes the notional load about it
+    (engine.aisc_moments, engine.design.aisc_member; DEVELOPERS.md decisions log, stop 34)."""
+    if out is None or not out.checked or out.buckling_length is None:
+        return False
+    return out.buckling_length > length * (1.0 + 1e-12)
 
 
 def _length_reason(settings, sways: bool = False) -> str:

@@ -25,6 +25,7 @@ __all__ = [
     "service_strength",
     "shown_line",
     "shown_name",
+    "shown_of",
     "strength_words",
     "utilisation_line",
     "utilisation_note",
@@ -183,6 +184,12 @@ def shown_name(actions_result, result) -> str:
     return headline if headline in named or not named else named[0]
 
 
+def shown_of(result) -> str:
+    """The name of the combination `result` holds (:func:`shown_name`); '' for a case without load cases."""
+    actions = getattr(result, "actions", None)
+    return "" if actions is None else shown_name(actions, result)
+
+
 def shown_line(result) -> tuple[str, bool]:
     """The exports' line on the combination a result holds, and whether it is not the governing one
     (("", False) for a case without load cases)."""
@@ -263,8 +270,7 @@ def deflection_basis(result, long: bool = False) -> str:
 
 def utilisation_note(result) -> str:
     """The note of the strength utilisation of `result`: whose it is with load cases."""
-    actions = getattr(result, "actions", None)
-    shown = "" if actions is None else shown_name(actions, result)
+    shown = shown_of(result)
     of = f" of combination {shown}" if shown else ""
     return f"strength and stability{of}; the deflection check is apart"
 
@@ -279,8 +285,7 @@ def utilisation_line(result, U) -> str:
     text = w.utilisation_text(result, U)
     if not text:
         return ""
-    actions = getattr(result, "actions", None)
-    shown = "" if actions is None else shown_name(actions, result)
+    shown = shown_of(result)
     return f"Utilisation{f' of combination {shown}' if shown else ''}: {text}"
 
 

@@ -14,7 +14,7 @@ from __future__ import annotations
 
 import math
 
-from app.report.combinations import shown_name
+from app.report.combinations import shown_of
 from app.report.numbers import finite, ratio
 from app.report.route_names import (  # noqa: F401 (the planes' names are used from here too)
     NOTES,
@@ -264,21 +264,13 @@ def headline_exceeds_routes(result) -> bool:
     return _utilisation_of(route) < float(own) * (1.0 - 1e-9) - 1e-12
 
 
-def _shown(result) -> str:
-    """The name of the combination `result` holds ('' for a case without load cases)."""
-    actions = getattr(result, "actions", None)
-    if actions is None:
-        return ""
-    return shown_name(actions, result)
-
-
 def headline_text(result) -> str:
     """The headline: the worst enabled route by name, e.g. ``"0.874 by AISC 360-16 (LRFD), H1-1a"``; with
     load cases the combination it is of, e.g. ``"0.341 in U4 by ..."``."""
     route = headline_route(result)
     if route is None:
         return ""
-    shown = _shown(result)
+    shown = shown_of(result)
     where = f" in {shown}" if shown else ""
     if headline_exceeds_routes(result):
         check = getattr(result, "check", None)
@@ -325,7 +317,7 @@ def route_rows(result, U: Units) -> list[dict]:
     where it would read as the larger one's). ``value`` is always the shown combination's own.
     """
     head = None if headline_exceeds_routes(result) else headline_route(result)
-    shown = _shown(result)
+    shown = shown_of(result)
     rows = []
     for route in getattr(result, "routes", ()) or ():
         if route is head:
