@@ -414,7 +414,8 @@ def route(
         facts[f"M_r_{other.axis}_notional"] = M_tilt
         M_c_y, M_c_z = M_c.get("y", math.inf), M_c.get("z", math.inf)
         beside = aisc360.interaction(N, P_c, M_b["y"], M_c_y, M_b["z"], M_c_z)
-        facts["tilt_axis"] = y.axis if found.utilization >= beside.utilization else other.axis
+        analysed = z if other is y else y  # the plane analysed, tilted in the first check
+        facts["tilt_axis"] = analysed.axis if found.utilization >= beside.utilization else other.axis
         if beside.utilization > found.utilization:
             found = beside
             facts.update({f"M_r_{axis}": value for axis, value in M_b.items()})

@@ -143,3 +143,12 @@ def test_the_b2_bound_is_never_below_the_exact_cantilever_moment(fraction):
     u = 0.5 * math.pi * math.sqrt(fraction)
     exact = N * length / 500.0 * math.tan(u) / u
     assert bound >= exact * (1.0 - 1e-12)
+
+
+def test_the_tilt_axis_names_the_plane_analysed_of_a_minor_axis_case():
+    """A one-plane case bent about the minor axis (z analysed, y the swaying other axis): with a large
+    in-plane tip load the check with the tilt in the plane analysed governs, and ``tilt_axis`` names z."""
+    _, route = _solve(CANTILEVER, 40 * kip, "LRFD", "effective-length", H=3.0 * kip, axis="minor")
+    assert "aisc-notional-other-axis" in route.notes
+    assert route.facts["tilt_axis"] == "z"
+    assert route.facts["M_r_y_notional"] > 0.0
