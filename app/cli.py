@@ -54,7 +54,7 @@ from app.cli_common import (
     _version,
     _write_file,
 )
-from app.interrupt import clean_exit
+from app.interrupt import clean_exit, end_process
 from app.summary_json import SUMMARY_VERSION, summary_data
 
 __all__ = ["CAUTION", "DEMO_CASE", "SUMMARY_VERSION", "format_summary", "main", "summary_data"]
@@ -326,7 +326,12 @@ def main(argv: Sequence[str] | None = None) -> int:
     _allow_any_text(sys.stdout)
     _allow_any_text(sys.stderr)
     parser = _build_parser()
-    argv = list(sys.argv[1:] if argv is None else argv)
+    if argv is None:  # the program itself (its entry point or ``python -m app.cli``), not a test's call
+        return end_process(_run(parser, list(sys.argv[1:])))
+    return _run(parser, list(argv))
+
+
+def _run(parser: argparse.ArgumentParser, argv: list[str]) -> int:
     if _means_serve(argv):
         # A bare `strutscope`, `strutscope --port 8123 --no-browser` or `strutscope post.json` serve the page.
         argv = ["serve", *argv]

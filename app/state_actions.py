@@ -304,6 +304,7 @@ _NOT_OF_SERVICE = (
     "section-class-4-effective",
     "section-effective-area",
     "web-shear-buckling",
+    "not-a-code-check",
     "check-note",
     "routes-disagree",
     "route-not-applied",

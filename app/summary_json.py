@@ -7,12 +7,13 @@ from __future__ import annotations
 
 import math
 
+from app.batch.headline import basis_cell
 from app.report.scope import GENERAL_CAUTION
 
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 6
+SUMMARY_VERSION = 7
 
 
 def _finite(value) -> float | None:
@@ -134,6 +135,8 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             ],
         },
         "utilization": _finite(result.utilization),
+        # "code check", or "elastic bound only, not a code check (<material kind>)" (app.batch.headline)
+        "utilization_basis": basis_cell(result) or None,
         # The headline fails (every enabled route and term counted); check.fails is the member check's alone.
         "fails": None if result.utilization is None else bool(result.utilization > 1.0),
         "check": None

@@ -355,6 +355,7 @@ def _cautions(result, prep, favourable: bool, check) -> tuple:
             check=check,
             bow=facts,
             service=result.service,
+            gamma_M1=case.check.gamma_M1,
         ),
         result.routes,
         result.ltb,

@@ -58,6 +58,7 @@ from engine.checks import (
 from engine.classification import compression_area, elastic_modulus, eq_5_9_modulus, worse_class
 from engine.codes import plastic_interaction, shear_reduction
 from engine.shear_area import axial_ratio, shear_area_kept
+from engine.shear_buckling import shear_resistance
 from engine.solver.model import Points
 
 __all__ = [
@@ -238,9 +239,9 @@ def check_biaxial(
     method, notes = method_used(settings.method, shape, material, section_class, _PLASTIC_SHAPES)
     klass = section_class.klass if section_class is not None else None
     steel_like = material.kind in ("steel", "aluminium", "custom")
-    root3 = math.sqrt(3.0)
-    V_Rd_z = section_y.A_v * fy / (root3 * g0) if steel_like else None
-    V_Rd_y = section_z.A_v * fy / (root3 * g0) if steel_like else None
+    g1 = settings.gamma_M1  # V_b,Rd of a web slender in shear (EN 1993-1-5 §5, engine.shear_buckling)
+    V_Rd_z = shear_resistance(section_y, material, "major", g0, g1) if steel_like else None
+    V_Rd_y = shear_resistance(section_z, material, "minor", g0, g1) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
         area = compression_area(section_y, section_class, float(axial_force))  # A_eff: class 4 in compression
         if V_Rd_z is not None:  # §6.2.8, in both checks (see engine.checks)

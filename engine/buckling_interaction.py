@@ -14,7 +14,10 @@ counted them (the headline could then miss a failing check):
 
 - a member on an elastic **foundation** (the route cannot be enabled: Annex A/B's diagrams do not cover a
   member bedded along its length), one plane or two;
-- a one-plane member **stepped in section** (the route takes one section along the member).
+- a one-plane member **stepped in section** (the route takes one section along the member);
+- a **custom section** of steel (one plane: its properties are given about one axis; the route is not
+  applied, its class and curves being unknown): read as class 3 (:data:`CUSTOM_CLASS`) with curve d about
+  both axes and, in Annex B, the largest of Table B.1's and B.2's factors (:func:`custom_planes`).
 
 For these the second-order route gets the term ``buckling-interaction``: the largest of those equations
 (:func:`equations`) made by the ``en-member`` route (:func:`engine.design.en_member.route`, the Annex the
@@ -43,12 +46,63 @@ from __future__ import annotations
 import dataclasses
 import math
 
+from engine.classification import SectionClass
 from engine.design import en_member
+from engine.design.diagram import zero
 
-__all__ = ["TERM", "conservative", "equations", "larger", "of_route"]
+__all__ = ["CUSTOM_CLASS", "TERM", "conservative", "custom_planes", "equations", "larger", "of_route"]
 
 #: The second-order route's term code.
 TERM = "buckling-interaction"
+
+
+#: The class a custom section is read with by :func:`conservative`: 3, its elastic properties (it is not
+#: classified here: its plates are not known), as its cross-section and lateral-torsional buckling checks take
+#: it.
+CUSTOM_CLASS = SectionClass(
+    klass=3, parts=(), epsilon=math.nan, basis="a custom section, not classified: its elastic properties"
+)
+
+
+@dataclasses.dataclass(frozen=True)
+class _OtherAxis:
+    """A custom section about its other axis, as far as the equivalent-member equations read it."""
+
+    A: float
+    A_v: float
+    I: float
+    W_el: float
+    W_pl: float
+    shape: str = "custom"
+
+
+def custom_planes(first, section, out_of_plane, E):
+    """The planes (y, z) of a one-plane custom steel section for :func:`conservative`: ``first`` the plane
+    analysed (its exact N_cr and first-order diagram), every buckling curve d (the most unfavourable of Table
+    6.2, which has no row for an arbitrary section: as :mod:`engine.out_of_plane` takes it), and the other
+    plane the section about its other axis (I = Iz given, no loads) buckling at the out-of-plane check's
+    N_cr, or never where that check is not made (then no equation of that plane is formed; the warning that
+    it was not made stands). None where the section gives no property about its other axis."""
+    if section.I_minor is None:
+        return None
+    other_axis = "z" if first.axis == "y" else "y"
+    # About that axis only what the equations read: no moment acts there, and no modulus is given (the
+    # largest any section of that area and I could have, never used against a moment)
+    bound = math.sqrt(section.A * section.I_minor)
+    turned = _OtherAxis(A=section.A, A_v=section.A, I=section.I_minor, W_el=bound, W_pl=bound)
+    checked = out_of_plane is not None and out_of_plane.checked
+    other = en_member.Plane(
+        axis=other_axis,
+        section=turned,
+        N_cr=out_of_plane.N_cr if checked else math.inf,
+        EI=E * section.I_minor,
+        diagram=zero(),
+        M_second=0.0,
+        N_cr_source="out-of-plane length" if checked else "restrained",
+        curve="d",
+    )
+    first = dataclasses.replace(first, curve="d")
+    return (first, other) if first.axis == "y" else (other, first)
 
 
 def _other(diagram):

@@ -9,11 +9,10 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-import numpy as np
-
-from engine.classification import web_shear_slenderness
 from engine.codes import ALPHA_CR_SOURCE
+from engine.material_cautions import not_a_code_check
 from engine.sections import deep_solid
+from engine.shear_buckling import web_shear_caution
 
 __all__ = [
     "Caution",
@@ -60,7 +59,8 @@ GENERAL = Caution(
     message=(
         "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
         "torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution "
-        "says so, web shear buckling and connections are not checked. The loads are taken as given (load "
+        "says so, patch loading of a slender web and connections are not checked. The loads are taken as "
+        "given (load "
         "cases, where given, are combined by the rule the case names; the factors are the engineer's). Check "
         "the results against your local codes and have them reviewed by a licensed engineer."
     ),
@@ -86,30 +86,10 @@ _UNCLASSIFIED = Caution(
 NEAR_CRITICAL_RATIO = 0.9
 
 
-def _web_shear_cautions(section, material, axis, check) -> list:
-    """A web too slender to reach its plastic shear resistance (EN 1993-1-5 §5): a warning, the shear check
-    here being V_pl,Rd alone; a danger where that check already takes half of V_pl,Rd or more (the ratio at
-    which shear starts to reduce the moment resistance too, EN 1993-1-1 §6.2.8; common practice, no source
-    for the level)."""
-    found = web_shear_slenderness(section, material, axis)
-    if found is None or check is None or not found[0] > found[1]:
-        return []
-    ratio, limit = found
-    shear = float(np.max(check.shear)) if np.size(check.shear) else 0.0
-    return [
-        Caution(
-            level="danger" if shear >= 0.5 else "warning",
-            code="web-shear-buckling",
-            message=(
-                f"The web's h_w/t_w = {ratio:.1f} exceeds 72ε/η = {limit:.1f} (η = 1.2): it buckles in shear "
-                "before it yields. Shear buckling (EN 1993-1-5 §5) is not checked: the shear check here, "
-                f"{shear:.3f} of V_pl,Rd, is on the unsafe side for this web. Check it to EN 1993-1-5 or "
-                "stiffen the web."
-            ),
-            source="EN 1993-1-1:2005 §6.2.6(6); EN 1993-1-5:2006 §5.1(2) (from memory)",
-            values={"h_w_over_t_w": ratio, "limit": limit, "shear_utilisation": shear},
-        )
-    ]
+def _web_shear_cautions(section, material, axis, check, gamma_M1) -> list:
+    """A web slender in shear (EN 1993-1-5 §5): its V_b,Rd is checked (:mod:`engine.shear_buckling`)."""
+    found = None if check is None else web_shear_caution(section, material, axis, check.shear, gamma_M1)
+    return [] if found is None else [Caution(**found)]
 
 
 def _class_cautions(check) -> list:
@@ -316,6 +296,7 @@ def assess(
     check,
     bow,
     service=None,
+    gamma_M1: float = 1.0,
 ) -> list:
     """The cautions for one solved case, most severe first; the general caution is always there.
 
@@ -342,6 +323,8 @@ def assess(
         favourable way, which the solve found by reversing it), ``shape``, ``notes``.
     service : ServiceCheck or None
         The deflection check (loads as given, no bow).
+    gamma_M1 : float
+        γ_M1 of the check (the shear buckling resistance of a slender web, :mod:`engine.shear_buckling`).
     """
     out = [GENERAL]
     alpha_cr = pcr1 / P if P > 0 else float("inf")
@@ -445,7 +428,9 @@ def assess(
                 )
             )
         out.extend(_class_cautions(check))
-        out.extend(_web_shear_cautions(section, material, axis, check))
+        out.extend(_web_shear_cautions(section, material, axis, check, gamma_M1))
+    found = not_a_code_check(material, check is not None)
+    out.extend([] if found is None else [Caution(**found)])
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):

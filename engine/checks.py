@@ -38,6 +38,7 @@ from engine.design.routes import ROUTES
 from engine.errors import CaseError
 from engine.out_of_plane import ELASTIC_KIND, ELASTIC_SOURCE, KIND
 from engine.shear_area import axial_ratio, shear_area_kept
+from engine.shear_buckling import shear_resistance
 
 __all__ = [
     "ANNEXES",
@@ -364,7 +365,8 @@ def check_member(
     steel_like = material.kind in ("steel", "aluminium", "custom")
     method, notes = method_used(settings.method, section.shape, material, section_class)
     klass = section_class.klass if section_class is not None else None
-    V_Rd = section.A_v * fy / (math.sqrt(3.0) * g0) if steel_like else None
+    # V_pl,Rd, or the smaller V_b,Rd of a web slender in shear (EN 1993-1-5 §5, engine.shear_buckling)
+    V_Rd = shear_resistance(section, material, axis, g0, settings.gamma_M1) if steel_like else None
     with np.errstate(divide="ignore", invalid="ignore"):
         area = compression_area(section, section_class, float(axial_force))  # A_eff: class 4 in compression
         # §6.2.8: beyond half of V_pl,Rd the shear takes (1 − ρ) of f_y from the moment resistance, in the

@@ -554,7 +554,7 @@ SCOPE = dataclasses.replace(
     message=(
         "Elastic analysis of one member in one or two uncoupled planes, per load combination. Not a full "
         "code check: torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where "
-        "a caution says so, web shear buckling "
+        "a caution says so, patch loading of a slender web "
         "and connections are not checked; the combination factors are recommended values "
         "recalled from memory (a National Annex may change them). Check the results against your local "
         "codes and have them reviewed by a licensed engineer."

@@ -21,16 +21,16 @@ from __future__ import annotations
 import dataclasses
 import math
 
-from engine import segment_routes, torsional_buckling
+from engine import segment_routes
+from engine.buckling_interaction import CUSTOM_CLASS, conservative, custom_planes, equations, larger, of_route
 from engine.buckling_interaction import TERM as INTERACTION
-from engine.buckling_interaction import conservative, equations, larger, of_route
 from engine.checks import EQ_5_9_KIND, IN_PLANE_ELASTIC_KIND
 from engine.classification import classify_at, worse_class
 from engine.design import aisc_member, en_member
 from engine.design.diagram import describe, zero
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import ROUTES, RouteCheck
-from engine.ltb_route import lateral_sides, lateral_torsional, ltb_restraints
+from engine.ltb_route import lateral_torsional, ltb_restraints
 from engine.ltb_route import made as _made
 from engine.ltb_route import major as _major
 from engine.member import segments_of
@@ -38,7 +38,8 @@ from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.out_of_plane import other_axis_sways, sways
 from engine.sections import section_from_spec
-from engine.torsional_buckling import TERM as TORSIONAL
+from engine.torsional_terms import member_torsional, weakest_segment
+from engine.torsional_terms import term as torsion_term
 
 __all__ = ["FALLBACK", "STEPPED", "attach", "evaluate", "headline", "ltb_restraints"]
 
@@ -249,6 +250,9 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
                 for segment, one in zip(segments, each, strict=True)
             ]
             second = _with_interaction(second, larger(terms), "stepped-section")
+        twist = weakest_segment(result, segments, cache)
+        if twist is not None and float(result.axial_force) > 0.0:  # §6.3.1.4 with each segment's section
+            second = _with_term(second, *torsion_term(float(result.axial_force), twist))
         en_source = en_member.SOURCE.format(annex=case.check.annex)
         return (
             second,
@@ -265,6 +269,8 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         found = lateral_torsional(result, None, None, cache) if major is not None else None
         if found is not None and major is not None:
             second = _with_ltb_term(second, found, major)
+        if reason == "custom-section" and not segments:  # eqs. (6.61)/(6.62), class 3, curve d
+            second = _with_interaction(second, _custom_term(result, out_of_plane, found, cache), reason)
         return (
             second,
             not_applied("en-member", enabled_en, reason, en_source),
@@ -309,11 +315,9 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
             ltb=found,
         )
         second = _with_interaction(second, term, "foundation")
-    twist = _made(cache, "routes-torsional", lambda: _torsional(result, y, z, material))
+    twist = _made(cache, "routes-torsional", lambda: member_torsional(result, y.section, z.section, material))
     if twist is not None and N > 0.0:  # EN 1993-1-1 §6.3.1.4, a term of both EN routes
-        term = N / twist.N_b_Rd if twist.N_b_Rd > 0.0 else math.inf
-        facts = {"N_cr_T": twist.N_cr, "L_T": twist.length, "chi_T": twist.chi, "N_b_T_Rd": twist.N_b_Rd}
-        second, en = _with_term(second, TORSIONAL, term, facts), _with_term(en, TORSIONAL, term, facts)
+        second, en = _with_term(second, *torsion_term(N, twist)), _with_term(en, *torsion_term(N, twist))
     aisc = aisc_member.route(
         y=y,
         z=z,
@@ -326,20 +330,6 @@ def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
         N_cr_T=None if twist is None else twist.N_cr,
     )
     return (second, en, aisc), found
-
-
-def _torsional(result, y, z, material):
-    """The member's torsional buckling load and resistance (:mod:`engine.torsional_buckling`), or None."""
-    case = result.case
-    if _major(result) is not None:
-        free = lateral_sides(result, case.check.ltb)[0]
-    else:
-        ends = (("left", case.left), ("right", case.right))
-        free = tuple(side for side, end in ends if end.translation == "free" and end.rotation == "free")
-    found = torsional_buckling.critical_load(case, y.section, z.section, material, free)
-    if found is None:
-        return None
-    return torsional_buckling.resistance(found, z.section, material, case.check.gamma_M1)
 
 
 def _with_term(route: RouteCheck, name: str, term: float, facts: dict) -> RouteCheck:
@@ -454,6 +444,31 @@ def _route_own_term(en, y, z, ltb, result, cache, common):
             **common,
         )
     return of_route(en, y=y, z=z, ltb=ltb)
+
+
+def _custom_term(result, out_of_plane, found, cache):
+    """The buckling interaction of a one-plane custom steel section (engine.buckling_interaction), None where
+    it cannot be formed (no equilibrium, no compression, no Iz, or bent about its minor axis: nothing is given
+    about the other axis, and the out-of-plane check is not made)."""
+    N = float(result.axial_force)
+    case = result.case
+    if result.check is None or not N > 0.0 or case.axis != "major":
+        return None
+    diagram = _made(cache, ("routes-diagram", "first"), lambda: _diagram(result, case))
+    first = Plane(
+        axis="y" if case.axis == "major" else "z",
+        section=result.section,
+        N_cr=float(result.critical_loads[0]),
+        EI=float(result.EI),
+        diagram=diagram,
+        M_second=None,
+    )
+    planes = custom_planes(first, result.section, out_of_plane, result.material.E)
+    if planes is None:
+        return None
+    y, z = planes
+    common = dict(material=result.material, section_class=CUSTOM_CLASS, settings=case.check, ltb=found)
+    return conservative(y=y, z=z, N=N, **common)
 
 
 def _with_interaction(second: RouteCheck, term, why: str) -> RouteCheck:

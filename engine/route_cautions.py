@@ -311,12 +311,16 @@ _WHY = {
     "stepped-section": "the en-member route takes one section along the member; each segment's section is "
     "taken in turn with the largest moment of the whole member",
     "en-member-not-enabled": "the en-member route, which counts them, is not enabled",
+    "custom-section": "a custom section's class and buckling curves are not known: it is taken as class 3 "
+    "(its elastic properties) with curve d about both axes and the largest factors of Annex B's Tables B.1 "
+    "and B.2",
 }
 
 _READ = {
     "foundation": "with C_m = 1, the largest value of the Annex's tables,",
     "stepped-section": "with C_m read from the member's own diagram,",
     "en-member-not-enabled": "as the en-member route reads them,",
+    "custom-section": "with C_m the larger of the member's own diagram and 1,",
 }
 
 

@@ -33,7 +33,7 @@ from types import SimpleNamespace
 import numpy as np
 
 from engine.design import en_member
-from engine.design.diagram import describe
+from engine.design.diagram import annex_b_factor, describe
 from engine.restraints import for_plane
 
 __all__ = ["braced_points", "route"]
@@ -99,19 +99,29 @@ def _containing(cuts: tuple, length: float, x: float) -> tuple:
     return ends[k], ends[k + 1]
 
 
-def _lateral_diagram(found, cuts: tuple, ltb, length: float, mid: float, cache):
-    """The M_y diagram between the points braced laterally that hold the piece at ``mid`` (Table B.3 reads
-    C_mLT there, from memory): the LTB check's brace segment (the whole member without braces), where it
-    is not the piece's own span between in-plane braces; None otherwise. An in-plane support alone does not
-    hold the member laterally, so its C_my is not C_mLT (an independent check found C_mLT 0.55 of a
-    half span taken for a member free laterally over 8 m: eq. (6.62) 8.8 % low)."""
+def _lateral_diagram(found, cuts: tuple, lateral_cuts: tuple, ltb, length: float, mid: float, cache):
+    """The M_y diagram whose Table B.3 factor is C_mLT for the piece at ``mid``, where it is not the piece's
+    own span between in-plane braces (None then). Table B.3 reads C_mLT between the points braced laterally
+    ("points braced in direction y-y", from memory): the spans between the second plane's braced points
+    (``lateral_cuts``: lateral translation held, twist free or not). The LTB check's brace segments (lateral
+    translation and twist held) are read too, and the larger factor is kept: the two readings differ where a
+    restraint holds the member laterally but not against twist (an independent check found C_mLT 0.4 over the
+    whole member against 0.6 over each half, eq. (6.62) 3 % low), and the larger C_mLT gives the larger
+    k_zy. An in-plane support alone does not hold the member laterally, so its C_my is not C_mLT (an
+    independent check found C_mLT 0.55 of a half span taken for a member free laterally over 8 m: eq. (6.62)
+    8.8 % low)."""
     if found is None or ltb is None or not getattr(ltb, "applies", False):
         return None
     spans = tuple(ltb.segments) or ((0.0, length),)
-    span = next(((a, b) for a, b in spans if a - _TOL <= mid <= b + _TOL), (0.0, length))
-    if span == _containing(cuts, length, mid):
-        return None
-    return cache(("routes-segment-diagram", "y", span), lambda: _segment_diagram(*found, *span))
+    braced = next(((a, b) for a, b in spans if a - _TOL <= mid <= b + _TOL), (0.0, length))
+    held = _containing(lateral_cuts, length, mid)
+    own = _containing(cuts, length, mid)
+    diagrams = {
+        span: cache(("routes-segment-diagram", "y", span), lambda span=span: _segment_diagram(*found, *span))
+        for span in dict.fromkeys((braced, held))
+    }
+    span = max(diagrams, key=lambda s: annex_b_factor(diagrams[s]))
+    return None if span == own else diagrams[span]
 
 
 def route(*, y, z, plane_results, cache, key=None, **common):
@@ -142,7 +152,8 @@ def route(*, y, z, plane_results, cache, key=None, **common):
                 lambda found=found, span=span: _segment_diagram(*found, *span),
             )
             sides[axis] = dataclasses.replace(plane, diagram=diagram)
-        lateral = _lateral_diagram(plane_results["y"], cuts["y"], common.get("ltb"), length, mid, cache)
+        ltb = common.get("ltb")
+        lateral = _lateral_diagram(plane_results["y"], cuts["y"], cuts["z"], ltb, length, mid, cache)
         found = en_member.route(y=sides["y"], z=sides["z"], lateral_diagram=lateral, **common)
         if found.utilization is None:
             return found  # not applied: a property of the section, the same for every piece

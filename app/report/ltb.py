@@ -87,6 +87,7 @@ _ZONES = {
     "plastic": "plastic, L_b ≤ L_p (F2-1)",
     "inelastic": "inelastic, L_p < L_b ≤ L_r (F2-2)",
     "elastic": "elastic, L_b > L_r (F2-3)",
+    "exact-cap": "the member's exact elastic M_cr at this segment's peak, below F2's value for it",
 }
 
 #: AISC 360-16 §F11 for a rectangular bar: the zones by L_b·d/t²; the engine's L_p and L_r are the L_b at

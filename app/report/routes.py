@@ -130,6 +130,16 @@ FACTS = {
     "M_r_z": ("M_r,z", "moment"),
     "M_r_y_notional": ("M_r,y of the notional load about y", "moment"),
     "M_r_z_notional": ("M_r,z of the notional load about z", "moment"),
+    "V_r_y": ("V_r,y", "force"),
+    "V_n_y": ("V_n,y", "force"),
+    "V_c_y": ("V_c,y", "force"),
+    "phi_v_y": ("φ_v,y", ""),
+    "Omega_v_y": ("Ω_v,y", ""),
+    "V_r_z": ("V_r,z", "force"),
+    "V_n_z": ("V_n,z", "force"),
+    "V_c_z": ("V_c,z", "force"),
+    "phi_v_z": ("φ_v,z", ""),
+    "Omega_v_z": ("Ω_v,z", ""),
 }
 
 # A fact the table above does not know is shown when its key says its kind (N_, P_ forces; M_ moments;

@@ -36,8 +36,9 @@ factor from memory, to be checked against a copy of the Specification.
   :math:`1.9E/F_y` (F11-2), beyond :math:`F_{cr}S \le M_p`, :math:`F_{cr} = 1.9EC_b/(L_bd/t^2)` (F11-3,
   F11-4); facts ``M_n_F11``, ``zone_F11``, ``Lbd_t2`` and its limits ``Lbd_t2_p``, ``Lbd_t2_r``. Minor-axis
   bending of a rectangle, and a square bar, stay with §F11.1 (no LTB, no note). Elsewhere (an open section
-  or a deep rectangle whose check could not be made, e.g. a free end) note ``LTB-not-checked``. Shear is not
-  checked (Chapter G, note ``aisc-shear-not-checked``).
+  or a deep rectangle whose check could not be made, e.g. a free end) note ``LTB-not-checked``. Shear by
+  Chapter G (§G2.1, §G4, §G5, §G6: :mod:`engine.design.aisc_shear`), the term ``shear``; solid bars not
+  (note ``aisc-shear-not-checked``).
 - :math:`P_r = N`; :math:`M_r` the largest second-order moment of each plane WITHOUT the bow (the
   Specification's strength :math:`P_n` already holds the member's out-of-straightness). ASD analyses at 1.6 ×
   its loads (§C2.1, from memory): :math:`M_r` grows as :func:`_asd_moment` says.
@@ -53,6 +54,7 @@ import math
 
 from engine.design import aisc360
 from engine.design.aisc_hss import ERW_FACTOR, design_planes, design_section, is_erw
+from engine.design.aisc_shear import shear_check
 from engine.design.en_member import Plane, not_applied
 from engine.design.routes import RouteCheck
 from engine.sections import deep_solid
@@ -69,7 +71,8 @@ __all__ = [
 
 SOURCE = (
     "AISC 360-16 Tables B4.1a/b, §E3 eqs. (E3-1)–(E3-4), §E7, §F2.1/F6.1/F7.1/F8.1/F11.1, §F1 eq. (F1-1), "
-    "§F2.2, §F11.2 eqs. (F11-2)–(F11-4), §D2(a), §H1.1 eqs. (H1-1a)/(H1-1b) and §H1.2 (from memory)"
+    "§F2.2, §F11.2 eqs. (F11-2)–(F11-4), §D2(a), §H1.1 eqs. (H1-1a)/(H1-1b) and §H1.2, §G2.1, §G4–§G6 "
+    "(from memory)"
 )
 
 _SHAPES = ("rolled_i", "welded_i", "rhs", "chs", "rectangle", "round")
@@ -421,12 +424,20 @@ def route(
             facts.update({f"M_r_{axis}": value for axis, value in M_b.items()})
         notes.append("aisc-notional-other-axis")
     facts.update(axial=found.axial, bending=found.bending)
+    terms = {found.equation: found.utilization}
+    length = next((p.length for p in (y, z) if p.length), math.inf)
+    sheared = shear_check((y, z), M_r, E, Fy, method, length)  # Chapter G (engine.design.aisc_shear)
+    if sheared is not None:
+        terms["shear"] = sheared[0]
+        facts.update(sheared[1])
+        notes.remove("aisc-shear-not-checked")
+    governing = max(terms, key=lambda k: terms[k])
     return RouteCheck(
         route="aisc",
         enabled=enabled,
-        utilization=found.utilization,
-        governing=found.equation,
-        terms={found.equation: found.utilization},
+        utilization=terms[governing],
+        governing=governing,
+        terms=terms,
         facts=facts,
         notes=tuple(notes),
         source=SOURCE,

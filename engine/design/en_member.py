@@ -39,6 +39,7 @@ so this is on the safe side).
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass
 
@@ -48,6 +49,7 @@ from engine.design import annex_a, annex_b, ltb
 from engine.design.diagram import Diagram, annex_a_factor, annex_b_factor
 from engine.design.routes import RouteCheck
 from engine.shear_area import axial_ratio, shear_area_kept
+from engine.shear_buckling import shear_resistance
 
 __all__ = ["Plane", "SOURCE", "route"]
 
@@ -121,6 +123,20 @@ def curve_of(section, material) -> tuple[str, str]:
         t_max=section.t_max,
         grade=_grade(material),
     )
+
+
+def _shear_resistance(plane, material, g0: float, g1: float) -> float:
+    """V_Rd [N] of the plane's shear: V_pl,Rd, or V_b,Rd of a web slender in shear (engine.shear_buckling)."""
+    section = plane.section
+    if section.shape == "custom":
+        return section.A_v * material.fy / (math.sqrt(3.0) * g0)
+    return shear_resistance(section, material, "major" if plane.axis == "y" else "minor", g0, g1)
+
+
+def _largest_factors(rows):
+    """Each of k_yy, k_yz, k_zy and k_zz the largest of ``rows`` (InteractionFactors at the same n_y, n_z)."""
+    names = ("k_yy", "k_yz", "k_zy", "k_zz")
+    return dataclasses.replace(rows[0], **{n: max(getattr(r, n) for r in rows) for n in names})
 
 
 def not_applied(route: str, enabled: bool, reason: str, source: str = "") -> RouteCheck:
@@ -197,8 +213,9 @@ def route(
         "form_y": y.diagram.form,
         "form_z": z.diagram.form,
     }
-    root3 = math.sqrt(3.0)
-    sheared = [(p.diagram.V_max * g0 * root3 / (p.section.A_v * fy), p.section.A_v) for p in (y, z)]
+    sheared = [  # V/V_Rd, V_b,Rd for a web slender in shear (EN 1993-1-5 §5, engine.shear_buckling)
+        (p.diagram.V_max / _shear_resistance(p, material, g0, g1), p.section.A_v) for p in (y, z)
+    ]
     sheared = [item for item in sheared if item[1] > 0]
     shear = max(ratio for ratio, _ in sheared)
     # §6.2.8: past half of V_pl,Rd, (1 − ρ)f_y for the moments (the largest shear with the largest moments,
@@ -278,6 +295,12 @@ def route(
             k = annex_b.interaction_factors(hollow=True, **common)
         elif sy.shape in ("rolled_i", "welded_i"):
             k = annex_b.interaction_factors(hollow=False, **common)
+        elif sy.shape == "custom":  # any shape: each factor the largest of Table B.1's rows and Table B.2
+            rows = [annex_b.interaction_factors(hollow=hollow, **common) for hollow in (True, False)]
+            if My > 0.0 and not held:
+                rows.append(annex_b.interaction_factors(hollow=False, C_mLT=lateral, **common))
+            k = _largest_factors(rows)
+            C_mLT = lateral if len(rows) == 3 else None
         else:  # solid sections are in neither row of Table B.1: the larger k_zz of the two rows
             k = max(
                 annex_b.interaction_factors(hollow=True, **common),

@@ -345,16 +345,16 @@ def _chi(lambda_lt: float, curve: str, *, lambda_0: float, beta: float) -> float
 
 def k_c(diagram: str, psi: float | None = None) -> float:
     r"""Correction factor k_c, EN 1993-1-1:2005 Table 6.6 (from memory): uniform moment 1.0; linear with ψ
-    :math:`1/(1.33 - 0.33\psi)`; simply supported under a uniform load 0.94; under a central point load 0.90;
-    anything else 1.0 (no modification: the safe side).
+    :math:`1/(1.33 - 0.33\psi)`; simply supported under a uniform load 0.94; under a central point load 0.86
+    (both ≈ 1/√C1: 1/√1.13, 1/√1.35); anything else 1.0 (no modification: the safe side).
 
     >>> round(k_c("linear", 0.0), 3), k_c("udl"), k_c("point")
-    (0.752, 0.94, 0.9)
+    (0.752, 0.94, 0.86)
     """
     if diagram == "linear":
         psi = real("psi", psi, minimum=-1.0, maximum=1.0)
         return 1.0 / (1.33 - 0.33 * psi)
-    return {"uniform": 1.0, "udl": 0.94, "point": 0.90}.get(diagram, 1.0)
+    return {"uniform": 1.0, "udl": 0.94, "point": 0.86}.get(diagram, 1.0)
 
 
 # ----------------------------------------------------------------------------- AISC 360-16 Chapter F

@@ -63,6 +63,7 @@ import numpy as np
 
 from engine.custom_section import missing_for_ltb
 from engine.design import ltb
+from engine.design.ltb_segments import aisc_segments, aisc_source, end_pair, piece, segment_mcr
 from engine.design.mcr import HeldAxial, critical_moment
 from engine.loads import LinearLoad, PointLoad, UniformLoad
 from engine.sections import deep_solid
@@ -78,8 +79,6 @@ SOURCES = (
     "M_cr: finite-element solution of Vlasov's equations (Timoshenko & Gere 1961 ch. 6; Trahair 1993)",
     ltb.C1_SOURCE,
 )
-AISC_SOURCE = "AISC 360-16 §F1 eq. (F1-1), §F2 eqs. (F2-1)–(F2-7) (from memory)"
-AISC_SOURCE_F11 = "AISC 360-16 §F1 eq. (F1-1), §F11.2 eqs. (F11-1)–(F11-4) (from memory)"
 
 _DIAGRAM_CODES = {"point": "point-mid"}
 #: M_cr with N held from :class:`engine.design.mcr.HeldAxial` kept per member (equal to solving it afresh, bit
@@ -212,23 +211,6 @@ def _segments(length: float, restraints) -> tuple:
     return tuple(zip(edges[:-1], edges[1:], strict=True))
 
 
-def _piece(xs: np.ndarray, ms: np.ndarray, a: float, b: float) -> tuple[np.ndarray, np.ndarray]:
-    """The diagram on [a, b] (its end values interpolated; a station given twice keeps its last value)."""
-    keep = np.concatenate([np.diff(xs) > 0.0, [True]])
-    x, m = xs[keep], ms[keep]
-    inside = (x > a) & (x < b)
-    return (
-        np.concatenate([[a], x[inside], [b]]),
-        np.concatenate([[np.interp(a, x, m)], m[inside], [np.interp(b, x, m)]]),
-    )
-
-
-def _end_pair(pair, a: float, b: float, length: float, inner: str) -> tuple:
-    """A segment's end conditions: the member's at its ends, ``inner`` at a brace point (fork, warping free:
-    the neighbours' restraint left out, on the safe side)."""
-    return (pair[0] if a <= 0.0 else inner, pair[1] if b >= length else inner)
-
-
 def _tabulated(xs, ms, length, segments, settings, stiffness, z_g):
     """(M_cr tabulated for the whole diagram, its standard diagram, the governing segment): per segment the
     C1 formula for its own length, diagram and ends, scaled to the member's max|M| by the segment's peak; the
@@ -236,13 +218,13 @@ def _tabulated(xs, ms, length, segments, settings, stiffness, z_g):
     M_max = float(np.max(np.abs(ms)))
     best = None
     for a, b in segments:
-        sx, sm = (xs, ms) if len(segments) == 1 else _piece(xs, ms, a, b)
+        sx, sm = (xs, ms) if len(segments) == 1 else piece(xs, ms, a, b)
         peak = float(np.max(np.abs(sm)))
         if peak == 0.0:
             continue
         std = _standard(sx, sm)
-        lateral = _end_pair(settings.lateral_ends, a, b, length, "fork")
-        warping = _end_pair(settings.warping_ends, a, b, length, "free")
+        lateral = end_pair(settings.lateral_ends, a, b, length, "fork")
+        warping = end_pair(settings.warping_ends, a, b, length, "free")
         value = ltb.mcr_c1(b - a, *stiffness, std.C1, std.C2, z_g, k=_k(lateral), k_w=_k(warping))
         if best is None or value / peak < best[0]:
             best = (value / peak, std, (a, b))
@@ -441,7 +423,24 @@ def check(
             alpha_0 = M_cr_0 / M_Ed
             tip = None if not free_end else (0.0 if free_end == "left" else float(length))
             stiffness = (EI_z, GI_t, EI_w)
-            aisc, cb_f1 = _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip)
+
+            def own(a, b):  # a segment's own exact M_cr (several segments only)
+                return segment_mcr(
+                    xs,
+                    ms,
+                    a,
+                    b,
+                    length=float(length),
+                    loads=mcr_loads,
+                    stiffness=stiffness,
+                    lateral_ends=lateral_ends,
+                    warping_ends=warping_ends,
+                    restraints=restraints,
+                )
+
+            aisc, cb_f1 = aisc_segments(
+                xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip, own
+            )
         return M_tab, std, segment, aisc, cb_f1
 
     M_tab, std, segment, aisc, cb_f1 = fixed() if cache is None else cache(("ltb-fixed", *ident), fixed)
@@ -491,7 +490,7 @@ def check(
         mode_v=_unit(mode[1]) if mode else (),
         mode_phi=_unit(mode[2]) if mode else (),
         aisc=aisc,
-        sources=SOURCES + _aisc_source(aisc),
+        sources=SOURCES + aisc_source(aisc),
         M_cr_0=M_cr_0,
         N_Ed=N_held,
         I_t=I_t,
@@ -504,47 +503,3 @@ def check(
         segment=segment if len(segments) > 1 else (),
         root_assumed=root_assumed,
     )
-
-
-def _aisc_source(aisc) -> tuple:
-    """The source of the AISC part of the check: () where there is none, §F11.2 for a rectangular bar."""
-    if aisc is None:
-        return ()
-    return (AISC_SOURCE_F11 if aisc.clause == "F11" else AISC_SOURCE,)
-
-
-def _aisc(xs, ms, sy, sz, material, segments, I_t, I_w, alpha_0, stiffness, tip=None):
-    """AISC 360-16 §F2 (an I section) or §F11.2 (a deep solid rectangle: d its depth, t its width) per
-    unbraced segment (L_b its length, C_b of eq. (F1-1) from its own diagram), capped by the exact elastic
-    ratio α_cr,0·M_max,seg / M_cr,uniform(L_b, fork): a load on the top flange lowers M_cr, which eq. (F1-1)
-    does not see (AISC 360-16 Commentary to §F1 says to account for it; from memory). The segment of the
-    largest M_max,seg / M_n governs, and its M_n is the member's (the route divides the member's largest
-    moment by it: never less than that segment's own ratio)."""
-    dims, bar = sy.dimensions, sy.shape == "rectangle"
-    best = None
-    for a, b in segments:
-        sx, sm = (xs, ms) if len(segments) == 1 else _piece(xs, ms, a, b)
-        absolute = np.abs(sm)
-        L_b = b - a
-        quarter = [float(np.interp(a + t * L_b, sx, absolute)) for t in (0.25, 0.5, 0.75)]
-        M_max = float(np.max(absolute))
-        if M_max == 0.0:
-            continue
-        cb_f1 = ltb.cb_aisc(M_max, *(min(q, M_max) for q in quarter))
-        if tip is not None and a <= tip <= b:
-            cb_f1 = 1.0
-        uniform = ltb.mcr_c1(L_b, *stiffness, 1.0)
-        cb = cb_f1 if not math.isfinite(alpha_0) else min(cb_f1, max(alpha_0 * M_max / uniform, 1e-6))
-        common = dict(L_b=L_b, E=material.E, F_y=material.fy, Z_x=sy.W_pl, S_x=sy.W_el, C_b=cb)
-        if bar:
-            found = ltb.aisc_f11(d=sy.depth, t=sy.width, **common)
-            # Never above the exact elastic M_cr at the segment's peak: F11-4's 1.9 holds J ≈ dt³/3, too
-            # stiff for a stocky bar (a 2:1 bar's F11-4 lies 17 % above it)
-            exact = alpha_0 * M_max
-            if math.isfinite(exact) and found.M_n > exact:
-                found = dataclasses.replace(found, M_n=exact, zone="exact-cap")
-        else:
-            found = ltb.aisc_f2(r_y=sz.i, I_y=sz.I, C_w=I_w, J=I_t, h_o=dims["h"] - dims["tf"], **common)
-        if best is None or M_max / found.M_n > best[0]:
-            best = (M_max / found.M_n, found, cb_f1)
-    return best[1], best[2]

@@ -240,8 +240,8 @@ def _reduced(nodes, m_at, props, uniform, point, scale_axial, lateral_ends, warp
 
 
 def _mode(nodes, K, G, free, inv, lam) -> np.ndarray:
-    """The mode (nodes, 4) of λ on the free DOFs ``free`` of K (``inv``: the inverse of its Cholesky factor)
-    and G: zeros when λ is not finite."""
+    """The mode (nodes, 4) of λ on the free DOFs ``free`` of K (``inv``: the inverse of its Cholesky factor,
+    or the mode itself when 1-D; see ``mcr_fe._eigen``) and G: zeros when λ is not finite."""
     full = np.zeros(4 * nodes.size)
     if math.isfinite(lam):
         full[free] = _eigenvector(K, G, lam, inv)
@@ -320,10 +320,10 @@ def critical_moment(
     )._held_by(restraints)
     M_max = problem.M_max
 
-    def run(count):
+    def run(count, estimate=None):
         nodes = problem.mesh(count)
         K, G, free = problem.reduced(nodes, problem.props, scale_axial)
-        lam, inv = _eigen(K, G)
+        lam, inv = _eigen(K, G, estimate)
         return nodes, lam, (K, G, free, inv)
 
     if elements is not None:
@@ -337,7 +337,7 @@ def critical_moment(
     history = [coarse]
     while True:
         count *= 2
-        nodes, fine, matrices = run(count)
+        nodes, fine, matrices = run(count, coarse)
         history.append(fine)
         if not math.isfinite(fine) or mesh_pair is not None:
             break
@@ -357,8 +357,8 @@ def _first_count(mesh_pair: int | None) -> int:
 
 def _closing(history, nodes, matrices, count, M_max) -> CriticalMoment:
     """The result from the load factors of the meshes tried (the last two: coarse, fine) and the finer mesh's
-    reduced K, G, free DOFs and the inverse of K's Cholesky factor: the Richardson value when it is below the
-    finer one (see the module)."""
+    reduced K, G, free DOFs and the inverse of K's Cholesky factor (or the mode): the Richardson value when it
+    is below the finer one (see the module)."""
     fine = history[-1]
     mode = _mode(nodes, *matrices, fine)
     if not math.isfinite(fine):
@@ -540,7 +540,7 @@ class HeldAxial:
         for (nodes, _, layout, springs), now in zip(self._meshes, self._coupled(xs, ms, V), strict=True):
             props = (*self._props[:3], N, self._i0_squared)
             K, G = _assembled(now, nodes, layout, props, self._point, False, springs)
-            lam, inv = _eigen(K, G)
+            lam, inv = _eigen(K, G, history[-1] if history else None)
             matrices = (K, G, layout["free"], inv)
             history.append(lam)
         M_max = float(np.max(np.abs(ms)))

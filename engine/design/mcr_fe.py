@@ -15,6 +15,24 @@ scipy: 0.5 s of start-up, ``tests/engine/test_isolation.py``): K = L Lᵀ, C = L
 every eigenvalue of C by ``numpy.linalg.eigvalsh``; λ is the same number as before. The mode
 (:func:`_eigenvector`) is the same inverse iteration as before (shift λ(1 − 1e-6), four steps) with the
 shifted matrix inverted once instead of solved four times, and its start K⁻¹(Σ|G| + 1) from L⁻¹.
+
+With an estimate of λ (a coarser mesh's), :func:`_eigen` first tries a cheaper route, :func:`_certified`:
+Rayleigh-quotient iteration (ρ = xᵀKx / xᵀGx, x ← (K − ρG)⁻¹Gx) from one inverse-iteration step shifted to
+the estimate, which gives λ and its mode together; then a certificate that ρ is the smallest positive λ.
+With K positive definite, K − σG is positive definite exactly when σ < λ₁ for σ > 0 [derived: xᵀ(K − σG)x > 0
+for every x ⇔ σ·xᵀGx < xᵀKx ⇔ σ < λ₁], so a Cholesky factorisation of K − ρ(1 − ε)G that succeeds proves
+λ₁ > ρ(1 − ε), while ρ ≥ λ₁ because it is a Rayleigh quotient with xᵀGx > 0: λ₁ ≤ ρ < λ₁/(1 − ε), ε = 1e-12.
+(ε grows by the factorisation's own rounding, 2.2e-16 times the sensitivity below). It is used only where the
+route before is as exact: K + (ρ/100)G positive definite too (no μ = 1/λ below −100/ρ, so the largest
+positive μ is not lost in the rounding of the others, nor 1e-12 of them: the inf of the route before), and a
+mode x whose Rayleigh quotient is not sensitive to the last bits of K and G: |x|ᵀ(|K| + ρ|G|)|x| / xᵀKx at
+most :data:`_SENSITIVITY`. Both routes are exact to about 2.2e-16 times that sensitivity (against 40-digit
+arithmetic on the same K and G: each a few 1e-12 at 1e5; at 1e6, N held near N_cr,z as in a member's load
+combinations, the route before is off by up to 8e-11 and this one by up to 4e-11), so the two differ in such
+problems by up to about 1e-10 relative, this route the closer; a more sensitive problem takes the route
+before, and so does anything else (no convergence, a failed factorisation). The same K, G and estimate
+give the same numbers: :class:`~engine.design.mcr.HeldAxial`
+still equals :func:`~engine.design.mcr.critical_moment` bit for bit.
 """
 
 from __future__ import annotations
@@ -218,16 +236,21 @@ def _eigenvalue(K: np.ndarray, G: np.ndarray) -> float:
     return _eigen(K, G)[0]
 
 
-def _eigen(K: np.ndarray, G: np.ndarray) -> tuple[float, np.ndarray]:
-    """λ of :func:`_eigenvalue` and L⁻¹, the inverse of K's Cholesky factor (for :func:`_eigenvector`): the
-    operations of the code before (every eigenvalue μ of C = L⁻¹GL⁻ᵀ by ``numpy.linalg.eigvalsh``), so λ is
-    the same number."""
+def _eigen(K: np.ndarray, G: np.ndarray, estimate: float | None = None) -> tuple[float, np.ndarray]:
+    """λ of :func:`_eigenvalue` and what :func:`_eigenvector` needs for its mode: with a finite ``estimate``
+    of λ, the certified route's λ and mode (1-D) when it succeeds (see the module); else the operations of
+    the code before (every eigenvalue μ of C = L⁻¹GL⁻ᵀ by ``numpy.linalg.eigvalsh``), so λ is the same number,
+    and L⁻¹, the inverse of K's Cholesky factor (2-D)."""
     try:
         chol = np.linalg.cholesky(K)
     except np.linalg.LinAlgError as error:
         raise ValueError(
             "the elastic stiffness is not positive definite (N held fixed above N_cr?)"
         ) from error
+    if estimate is not None and math.isfinite(estimate) and estimate > 0.0:
+        found = _certified(K, G, estimate)
+        if found is not None:
+            return found
     inv = np.linalg.inv(chol)
     a = inv @ G @ inv.T
     mu = np.linalg.eigvalsh(0.5 * (a + a.T))
@@ -237,10 +260,83 @@ def _eigen(K: np.ndarray, G: np.ndarray) -> tuple[float, np.ndarray]:
     return (lam if math.isfinite(lam) else math.inf), inv
 
 
+_MARGIN = 1e-12  # the least ε of the certificate λ₁ > ρ(1 − ε)
+#: The largest sensitivity s = |x|ᵀ(|K| + ρ|G|)|x| / xᵀKx of a certified mode x: ρ moves by up to ~s·2.2e-16
+#: with the rounding of K and G (so does λ of the route before); ~0.1 s·2.2e-16 measured. 16 elements give
+#: s ≈ 2.5e4 at N = 0; N held near N_cr,z gives 1e6 and more (a load combination's M_cr: 0.9–1.2e6 in the
+#: 12-combination benchmark), which this limit still takes: 1e5 left every one of those to the route before.
+_SENSITIVITY = 1e7
+_STEPS = 8
+_EPS = float(np.finfo(float).eps)
+
+
+def _start(size: int) -> np.ndarray:
+    """A fixed start with every DOF present and no symmetry about mid-span (so no mode is missing from it)."""
+    return 1.0 + 0.5 * np.sin(1.0 + 2.399963 * np.arange(size))
+
+
+def _certified(K: np.ndarray, G: np.ndarray, estimate: float):
+    """(λ, mode) by Rayleigh-quotient iteration from ``estimate`` with the certificate of the module, or None
+    when it does not converge, is too sensitive or is not certified (the caller then takes the route before).
+    The sensitivity is checked on the first iterate already (with room for the iterate's error), so that a
+    problem the route before must solve costs one solve more, not the whole iteration."""
+    solve = np.linalg.solve
+    try:
+        x = solve(K - estimate * G, G @ _start(K.shape[0]))
+    except np.linalg.LinAlgError:
+        return None
+    absolute = None
+    previous = math.inf  # at least one step of the iteration proper
+    for _ in range(_STEPS):
+        x = x / np.max(np.abs(x))
+        gx = G @ x
+        g = float(x @ gx)
+        if not g > 0.0:
+            return None
+        rho = float(x @ (K @ x)) / g
+        if not (math.isfinite(rho) and rho > 0.0):
+            return None
+        if absolute is None:
+            absolute = (np.abs(K), np.abs(G))
+            if not _sensitivity(absolute, x, rho, g) <= 2.0 * _SENSITIVITY:
+                return None
+        if abs(rho - previous) <= 1e-6 * rho:
+            return (rho, x) if _certify(K, G, x, rho, _sensitivity(absolute, x, rho, g)) else None
+        try:
+            x = solve(K - rho * G, gx)
+        except np.linalg.LinAlgError:
+            return None
+        previous = rho
+    return None
+
+
+def _sensitivity(absolute, x: np.ndarray, rho: float, g: float) -> float:
+    """|x|ᵀ(|K| + ρ|G|)|x| / xᵀKx, with xᵀKx = ρ·xᵀGx = ρg (``absolute``: |K| and |G|)."""
+    ax = np.abs(x)
+    return float(ax @ (absolute[0] @ ax) + rho * (ax @ (absolute[1] @ ax))) / (rho * g)
+
+
+def _certify(K: np.ndarray, G: np.ndarray, x: np.ndarray, rho: float, sensitivity: float) -> bool:
+    """Whether ρ with its mode x is the smallest positive λ to ε = :data:`_MARGIN` plus the rounding of the
+    factorisation, and as exact as the route before (see the module)."""
+    if not sensitivity <= _SENSITIVITY:  # also False for NaN
+        return False
+    margin = _MARGIN + _EPS * sensitivity  # the certificate's factorisation rounds by as much
+    try:
+        np.linalg.cholesky(K - (rho * (1.0 - margin)) * G)
+        np.linalg.cholesky(K + (0.01 * rho) * G)
+    except np.linalg.LinAlgError:
+        return False
+    return True
+
+
 def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float, inv=None) -> np.ndarray:
     """The mode of the finite λ of :func:`eigen_solution`, by inverse iteration shifted just below it: from
     K⁻¹(Σ|G| + 1) = L⁻ᵀL⁻¹(Σ|G| + 1) (``inv`` = L⁻¹ from :func:`_eigen`, made here when not given), four
-    steps with the inverse of the shifted matrix made once."""
+    steps with the inverse of the shifted matrix made once. When ``inv`` is 1-D it is the mode the certified
+    route of :func:`_eigen` found, returned scaled to the largest |x| = 1."""
+    if inv is not None and inv.ndim == 1:
+        return inv / np.max(np.abs(inv))
     if inv is None:
         inv = np.linalg.inv(np.linalg.cholesky(K))
     shifted = np.linalg.inv(K - lam * (1.0 - 1e-6) * G)

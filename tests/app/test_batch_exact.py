@@ -64,7 +64,10 @@ generated cantilevers, only in their AISC utilisation, every one higher (M000131
 already failed, M000005 1.54, now unbounded: 1.6·N or N beyond the minor axis's sway buckling load); the
 headline and capacity, which do not count the aisc route there, did not move. And at stop 34, when high shear
 began to reduce the axial resistance as well (EN 1993-1-1 §6.2.10(3)): M000128, which already failed by
-shear beside a moment, 588.9 → 589.3; no other row moved. And a
+shear beside a moment, 588.9 → 589.3; no other row moved. Again at stop 35, when a timber, aluminium or
+custom-material member began to get the danger caution ``not-a-code-check``: TB-01 and 24 generated timber
+rows, only in their cautions column (the shear buckling of slender webs, the aisc route's shear, the stepped
+members' torsional term and the certified M_cr route moved no cell of either table). And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must
