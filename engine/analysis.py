@@ -356,6 +356,7 @@ def _cautions(result, prep, favourable: bool, check) -> tuple:
             bow=facts,
             service=result.service,
             gamma_M1=case.check.gamma_M1,
+            segments=tuple((s.section, s.material) for s in getattr(prep.member, "segments", ())),
         ),
         result.routes,
         result.ltb,

@@ -86,10 +86,11 @@ _UNCLASSIFIED = Caution(
 NEAR_CRITICAL_RATIO = 0.9
 
 
-def _web_shear_cautions(section, material, axis, check, gamma_M1) -> list:
-    """A web slender in shear (EN 1993-1-5 §5): its V_b,Rd is checked (:mod:`engine.shear_buckling`)."""
-    found = None if check is None else web_shear_caution(section, material, axis, check.shear, gamma_M1)
-    return [] if found is None else [Caution(**found)]
+def _web_shear_cautions(pairs, axis, check, gamma_M1) -> list:
+    """A web slender in shear (EN 1993-1-5 §5): its V_b,Rd is checked (:mod:`engine.shear_buckling`); the
+    first of the (section, material) ``pairs`` (a stepped member's segments) that has one."""
+    found = [web_shear_caution(s, m, axis, check.shear, gamma_M1) for s, m in pairs] if check else []
+    return [Caution(**f) for f in found if f is not None][:1]
 
 
 def _class_cautions(check) -> list:
@@ -297,6 +298,7 @@ def assess(
     bow,
     service=None,
     gamma_M1: float = 1.0,
+    segments: tuple = (),
 ) -> list:
     """The cautions for one solved case, most severe first; the general caution is always there.
 
@@ -325,6 +327,8 @@ def assess(
         The deflection check (loads as given, no bow).
     gamma_M1 : float
         γ_M1 of the check (the shear buckling resistance of a slender web, :mod:`engine.shear_buckling`).
+    segments : tuple
+        (section, material) of each segment of a member stepped in section (its webs are each looked at).
     """
     out = [GENERAL]
     alpha_cr = pcr1 / P if P > 0 else float("inf")
@@ -428,7 +432,8 @@ def assess(
                 )
             )
         out.extend(_class_cautions(check))
-        out.extend(_web_shear_cautions(section, material, axis, check, gamma_M1))
+        pairs = segments or ((section, material),)
+        out.extend(_web_shear_cautions(pairs, axis, check, gamma_M1))
     found = not_a_code_check(material, check is not None)
     out.extend([] if found is None else [Caution(**found)])
     if material is not None:

@@ -299,10 +299,15 @@ def _uniform(case, section, material, spec=None) -> OutOfPlane:
     note = SWAY_NOTE if sway else ""
     if section.shape == "custom":
         if section.I_minor is None or case.axis != "major":
+            minor = case.axis != "major"  # then I is the minor axis's: nothing is given about the major
             return OutOfPlane(
                 checked=False,
                 axis=other,
-                reason="a custom section has properties about one axis "
+                reason="a custom section bent about its minor axis has no properties about its major axis: "
+                "buckling about it is not checked (nor eqs. (6.61)/(6.62)); give a catalogue or parametric "
+                "section to have it checked"
+                if minor
+                else "a custom section has properties about one axis "
                 "only: out-of-plane buckling cannot be checked (give its Iz to have it checked)",
             )
         return _custom(case, section, material, length, _length_reason(settings, sway), note)

@@ -43,7 +43,7 @@ from engine.classification import area_in_compression
 from engine.design.en_member import curve_of
 from engine.design.ltb_member import TORSION_FACTORS
 
-__all__ = ["SOURCE", "TERM", "Torsional", "critical_load", "resistance"]
+__all__ = ["SOURCE", "TERM", "Torsional", "critical_load", "held_points", "resistance"]
 
 #: The routes' term.
 TERM = "torsional-buckling"
@@ -67,13 +67,15 @@ class Torsional:
     N_cr: float
     length: float
     i0_squared: float
+    GI_t: float = math.nan  # G·I_t and E·I_w [N·m², N·m⁴] the member takes (engine.torsional_terms)
+    EI_w: float = math.nan
     lambda_bar: float = math.nan
     chi: float = math.nan
     curve: str = ""
     N_b_Rd: float = math.nan
 
 
-def _held_points(case, free_ends) -> list:
+def held_points(case, free_ends) -> list:
     """The x [m] where the twist is held: the supported ends not in ``free_ends`` and the restraints with
     ``twist`` fixed, in order."""
     xs = [x for side, x in (("left", 0.0), ("right", case.length)) if side not in free_ends]
@@ -85,7 +87,7 @@ def _lengths(case, free_ends) -> list:
     """L_T [m] of every stretch between held points (see the module): k·s with k = 1, 0.7 or 0.5 for warping
     free at both of its ends, fixed at one, fixed at both; at a free end 2s (its root's warping fixed) or
     inf (free: no warping stiffness)."""
-    held = _held_points(case, free_ends)
+    held = held_points(case, free_ends)
     if not held:  # nothing holds the twist
         return []
     warping = dict(zip((0.0, case.length), case.check.ltb.warping_ends, strict=True))
@@ -125,7 +127,8 @@ def critical_load(case, section_y, section_z, material, free_ends=()) -> Torsion
     i0_sq = (sy.I + section_z.I) / sy.A
     L_T = max(stretches)
     warping = 0.0 if math.isinf(L_T) else math.pi**2 * material.E * I_w / L_T**2
-    return Torsional(N_cr=(G * I_t + warping) / i0_sq, length=L_T, i0_squared=i0_sq)
+    GI_t, EI_w = G * I_t, material.E * I_w
+    return Torsional(N_cr=(GI_t + warping) / i0_sq, length=L_T, i0_squared=i0_sq, GI_t=GI_t, EI_w=EI_w)
 
 
 def resistance(found: Torsional, section_z, material, gamma_M1: float) -> Torsional:

@@ -2,15 +2,16 @@ r"""The ``aisc`` route's shear: AISC 360-16 Chapter G (from memory, to be checke
 Specification), members without transverse stiffeners in the span.
 
 - I-shapes, shear parallel to the web (major-axis bending), §G2.1: :math:`V_n = 0.6F_yA_wC_{v1}`,
-  :math:`A_w = d\,t_w`, h the clear distance between the flanges taken as :math:`d - 2t_f` (the root fillets
-  left out: a larger h/t_w, on the safe side). A rolled I with :math:`h/t_w \le 2.24\sqrt{E/F_y}`:
-  :math:`C_{v1} = 1`, :math:`\phi_v = 1.00` (:math:`\Omega_v = 1.50`) (G2.1(a)); otherwise
-  :math:`\phi_v = 0.90` (:math:`\Omega_v = 1.67`), :math:`k_v = 5.34` and :math:`C_{v1} = 1` up to
+  :math:`A_w = d\,t_w`, h the clear distance between the flanges less the root fillets,
+  :math:`d - 2(t_f + r)` (:math:`d - 2k_{des}` of a W shape; a welded I has none). A rolled I with
+  :math:`h/t_w \le 2.24\sqrt{E/F_y}`: :math:`C_{v1} = 1`, :math:`\phi_v = 1.00`
+  (:math:`\Omega_v = 1.50`) (G2.1(a)); otherwise :math:`\phi_v = 0.90`
+  (:math:`\Omega_v = 1.67`), :math:`k_v = 5.34` and :math:`C_{v1} = 1` up to
   :math:`h/t_w = 1.10\sqrt{k_vE/F_y}`, beyond :math:`1.10\sqrt{k_vE/F_y}/(h/t_w)` (G2-3, G2-4).
 - I-shapes, shear parallel to the flanges (minor-axis bending), §G6: :math:`V_n = 0.6F_yb_ft_fC_{v2}` for
   each of the two flanges, :math:`C_{v2}` of §G2.2 with :math:`h/t_w \to b_f/(2t_f)` and :math:`k_v = 1.2`.
 - Rectangular HSS, §G4: :math:`V_n = 0.6F_yA_wC_{v2}`, :math:`A_w = 2ht`, h = the side parallel to the
-  shear less 3t (corner radii not known), :math:`k_v = 5`.
+  shear less 2t and the two inside corner radii (3t where they are not known), :math:`k_v = 5`.
 - Round HSS, §G5: :math:`V_n = F_{cr}A_g/2`, :math:`F_{cr}` the larger of
   :math:`1.60E/(\sqrt{L_v/D}(D/t)^{5/4})` and :math:`0.78E/(D/t)^{3/2}`, at most :math:`0.6F_y`, with
   :math:`L_v` taken as the member's length (the longest it can be: the smaller :math:`F_{cr}`).
@@ -50,7 +51,7 @@ def nominal(section, axis: str, E: float, Fy: float, length: float) -> tuple[flo
         d, b, tw, tf = dims["h"], dims["b"], dims["tw"], dims["tf"]
         if axis == "z":  # §G6: the two flanges
             return 2 * 0.6 * Fy * b * tf * _cv2(b / (2 * tf), 1.2, E, Fy), False, "G6"
-        ratio = (d - 2 * tf) / tw
+        ratio = (d - 2 * (tf + dims.get("r", 0.0))) / tw  # h = d − 2k: the fillets left out
         if shape == "rolled_i" and ratio <= 2.24 * math.sqrt(E / Fy):
             return 0.6 * Fy * d * tw, True, "G2.1(a)"
         root = math.sqrt(5.34 * E / Fy)
@@ -59,7 +60,7 @@ def nominal(section, axis: str, E: float, Fy: float, length: float) -> tuple[flo
     if shape == "rhs":
         side = dims["h"] if axis == "y" else dims["b"]
         t = dims["t"]
-        h = side - 3.0 * t
+        h = side - 2.0 * t - 2.0 * dims["r_i"] if "r_i" in dims else side - 3.0 * t
         return 0.6 * Fy * 2 * h * t * _cv2(h / t, 5.0, E, Fy), False, "G4"
     if shape == "chs":
         D, t = dims["D"], dims["t"]

@@ -125,3 +125,33 @@ def test_a_class_4_section_without_any_load_is_not_failed():
     """No axial force and no moment: nothing is compressed, nothing fails."""
     r = engine.solve(girder(0.008, q=0.0, loads=[]))
     assert r.utilization is not None and math.isfinite(r.utilization)
+
+
+def test_a_stepped_member_names_the_slender_web_of_any_segment():
+    """An invented HEB 600 column with a welded 600 × 300 × 6/20 mm length from 1 to 4 m (S355, h_w/t_w =
+    560/6 = 93): the caution looked at the first segment's section only (an independent audit, stop 35); it
+    now names the welded segment's web, and the shear check takes that segment's V_b,Rd (f_y = 345 MPa by its
+    20 mm flanges: λ̄_w = 0.56/(86.4·0.006·0.8253) = 1.309, χ_w = 0.83/λ̄_w)."""
+    data = {
+        "schema": 1,
+        "length": 5.0,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 1500e3,
+        "loads": [{"type": "uniform", "q": 10e3}],
+        "section": {"name": "HEB 600"},
+        "material": {"name": "S355"},
+        "axis": "major",
+        "out_of_plane": {"restrained": True},
+        "check": {"routes": ["second-order"]},
+        "steps": [
+            {"x": 1.0, "section": {"shape": "welded_i", "h": 0.6, "b": 0.3, "tw": 0.006, "tf": 0.02}},
+            {"x": 4.0, "section": {"name": "HEB 600"}},
+        ],
+    }
+    r = engine.solve(engine.Case.from_dict(data))
+    (caution,) = [c for c in r.cautions if c.code == "web-shear-buckling"]
+    lam = 0.56 / (86.4 * 0.006 * EPS)
+    V_b = 0.83 / lam * 345e6 * 0.56 * 0.006 / math.sqrt(3.0)
+    assert caution.values["V_b_Rd"] == pytest.approx(V_b, rel=1e-12)
+    on = (r.x >= 1.0) & (r.x <= 4.0)
+    assert float(r.check.shear[on].max()) == pytest.approx(float(abs(r.shear[on]).max()) / V_b, rel=1e-9)
