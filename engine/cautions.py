@@ -89,8 +89,9 @@ NEAR_CRITICAL_RATIO = 0.9
 def _web_shear_cautions(pairs, axis, check, gamma_M1) -> list:
     """A web slender in shear (EN 1993-1-5 §5): its V_b,Rd is checked (:mod:`engine.shear_buckling`); the
     first of the (section, material) ``pairs`` (a stepped member's segments) that has one."""
-    found = [web_shear_caution(s, m, axis, check.shear, gamma_M1) for s, m in pairs] if check else []
-    return [Caution(**f) for f in found if f is not None][:1]
+    found = (web_shear_caution(s, m, axis, check.shear, gamma_M1) for s, m in pairs) if check else ()
+    first = next((f for f in found if f is not None), None)
+    return [] if first is None else [Caution(**first)]
 
 
 def _class_cautions(check) -> list:

@@ -68,6 +68,7 @@ __all__ = [
     "elastic_modulus",
     "epsilon",
     "eq_5_9_modulus",
+    "shear_web",
     "web_shear_slenderness",
     "worse_class",
 ]
@@ -555,15 +556,24 @@ def web_shear_slenderness(section, material, axis: str) -> tuple[float, float] |
     """
     if section is None or material is None or material.kind != "steel":
         return None
-    dims = section.dimensions
-    if section.shape in ("rolled_i", "welded_i") and axis == "major":
-        web, thickness = dims["h"] - 2.0 * dims["tf"], dims["tw"]
-    elif section.shape == "rhs":
-        side = dims["h"] if axis == "major" else dims["b"]
-        web, thickness = side - 2.0 * dims["t"], dims["t"]
-    else:
+    found = shear_web(section, axis)
+    if found is None:
         return None
+    web, thickness, _ = found
     return web / thickness, WEB_SHEAR_LIMIT * epsilon(material.fy)
+
+
+def shear_web(section, axis: str) -> tuple[float, float, int] | None:
+    """(h_w [m], t_w [m], how many) of the web(s) carrying the shear of bending about ``axis``: an I/H's web
+    in major-axis bending, an RHS's two walls parallel to the shear; None for any other shape or axis."""
+    if section.shape in ("rolled_i", "welded_i") and axis == "major":
+        dims = section.dimensions
+        return dims["h"] - 2.0 * dims["tf"], dims["tw"], 1
+    if section.shape == "rhs":
+        dims = section.dimensions
+        side = dims["h"] if axis == "major" else dims["b"]
+        return side - 2.0 * dims["t"], dims["t"], 2
+    return None
 
 
 def worse_class(classes) -> SectionClass:

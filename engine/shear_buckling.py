@@ -23,10 +23,11 @@ where it governs. EN 1993-1-5 §7.1 takes the reduction on the web's share only,
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 
 import numpy as np
 
-from engine.classification import WEB_SHEAR_ETA, epsilon, web_shear_slenderness
+from engine.classification import WEB_SHEAR_ETA, epsilon, shear_web, web_shear_slenderness
 
 __all__ = ["SOURCE", "WebShear", "shear_resistance", "web_shear", "web_shear_caution"]
 
@@ -39,13 +40,15 @@ SOURCE = (
 _ETA_GRADE = 460e6
 
 
+@dataclass(frozen=True)
 class WebShear:
-    """The shear buckling of a slender web: λ̄_w, χ_w and V_b,Rd [N] (SI)."""
+    """The shear buckling of a slender web: V_b,Rd [N], χ_w, λ̄_w, and h_w/t_w with its limit 72ε/η (SI)."""
 
-    __slots__ = ("V_b_Rd", "chi_w", "lambda_w", "ratio", "limit")
-
-    def __init__(self, V_b_Rd: float, chi_w: float, lambda_w: float, ratio: float, limit: float) -> None:
-        self.V_b_Rd, self.chi_w, self.lambda_w, self.ratio, self.limit = V_b_Rd, chi_w, lambda_w, ratio, limit
+    V_b_Rd: float
+    chi_w: float
+    lambda_w: float
+    ratio: float
+    limit: float
 
 
 def web_shear(section, material, axis: str, gamma_M1: float) -> WebShear | None:
@@ -64,12 +67,7 @@ def web_shear(section, material, axis: str, gamma_M1: float) -> WebShear | None:
     if found is None or not found[0] > found[1]:
         return None
     ratio, limit = found
-    dims = section.dimensions
-    if section.shape == "rhs":
-        side = dims["h"] if axis == "major" else dims["b"]
-        h_w, t_w, webs = side - 2.0 * dims["t"], dims["t"], 2
-    else:
-        h_w, t_w, webs = dims["h"] - 2.0 * dims["tf"], dims["tw"], 1
+    h_w, t_w, webs = shear_web(section, axis)
     eta = WEB_SHEAR_ETA if material.fy <= _ETA_GRADE else 1.0
     lam = h_w / (86.4 * t_w * epsilon(material.fy))
     chi = eta if lam < 0.83 / eta else 0.83 / lam

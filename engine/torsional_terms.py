@@ -110,18 +110,17 @@ def weakest_segment(result, segments, cache):
     segment's area, f_y and curve; the weakest governs); None where no segment's section applies."""
     found = []
     for segment in segments:
-        views = [
-            _made(cache, ("routes-view", axis, segment.spec), lambda a=axis, s=segment: _view(s, a))
-            for axis in ("major", "minor")
-        ]
-        twist = member_torsional(result, *views, segment.material)
+        # the minor view under member_routes' own key for it (the same section, made once)
+        minor = _made(cache, ("routes-minor-section", segment.spec), lambda s=segment: _view(s, "minor"))
+        major = _made(cache, ("routes-view", "major", segment.spec), lambda s=segment: _view(s, "major"))
+        twist = member_torsional(result, major, minor, segment.material)
         if twist is not None:
-            found.append((segment, views[1], twist))
+            found.append((segment, minor, twist))
     if not found:
         return None
-    pieces = [(s.start, s.end, t.GI_t, t.EI_w, t.i0_squared) for s, _, t in found]
     if len(found) < len(segments):  # a piece without torsional buckling (a closed section): not counted
         return min((t for _, _, t in found), key=lambda t: t.N_b_Rd)
+    pieces = [(s.start, s.end, t.GI_t, t.EI_w, t.i0_squared) for s, _, t in found]
     free = _free_ends(result)
     N_cr = stepped_critical_load(result.case, pieces, free)
     if N_cr is None:

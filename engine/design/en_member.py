@@ -125,12 +125,8 @@ def curve_of(section, material) -> tuple[str, str]:
     )
 
 
-def _shear_resistance(plane, material, g0: float, g1: float) -> float:
-    """V_Rd [N] of the plane's shear: V_pl,Rd, or V_b,Rd of a web slender in shear (engine.shear_buckling)."""
-    section = plane.section
-    if section.shape == "custom":
-        return section.A_v * material.fy / (math.sqrt(3.0) * g0)
-    return shear_resistance(section, material, "major" if plane.axis == "y" else "minor", g0, g1)
+#: The axis a plane bends about, by its name.
+_AXES = {"y": "major", "z": "minor"}
 
 
 def _largest_factors(rows):
@@ -214,7 +210,8 @@ def route(
         "form_z": z.diagram.form,
     }
     sheared = [  # V/V_Rd, V_b,Rd for a web slender in shear (EN 1993-1-5 §5, engine.shear_buckling)
-        (p.diagram.V_max / _shear_resistance(p, material, g0, g1), p.section.A_v) for p in (y, z)
+        (p.diagram.V_max / shear_resistance(p.section, material, _AXES[p.axis], g0, g1), p.section.A_v)
+        for p in (y, z)
     ]
     sheared = [item for item in sheared if item[1] > 0]
     shear = max(ratio for ratio, _ in sheared)
