@@ -89,8 +89,8 @@ def action_properties(max_loads: int) -> dict[str, Any]:
             },
             "exclusive": {
                 **_NAME,
-                "description": "Actions with the same name here never act together (wind from the left "
-                "and from the right).",
+                "description": "Variable actions with the same name here never act together (wind from "
+                "the left and from the right); not for a permanent action, which acts in every combination.",
             },
             "asce": {
                 "enum": list(ASCE_SYMBOLS),

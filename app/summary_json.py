@@ -13,7 +13,7 @@ from app.report.scope import GENERAL_CAUTION
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 7
+SUMMARY_VERSION = 8
 
 
 def _finite(value) -> float | None:
@@ -207,7 +207,10 @@ def _combinations_data(actions) -> dict | None:
                 "axial_force": _finite(item.case.axial_force),
                 "utilization": _finite(r.utilization),
                 "max_moment": _finite(r.governing.moment.magnitude),
-                "deflection_utilization": None if r.service is None else _finite(r.service.utilization),
+                # the deflection check is made at the service combinations only (an ultimate one's is none)
+                "deflection_utilization": None
+                if r.service is None or c.state != "service"
+                else _finite(r.service.utilization),
                 "bow_reversed": item.bow_reversed,
                 "second_bow_reversed": item.second_bow_reversed,
             }

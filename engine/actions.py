@@ -18,7 +18,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from engine import limits
-from engine.combinations import combine
+from engine.combinations import combine, permanent_exclusive
 from engine.errors import CaseError
 from engine.loads import (
     CoupleLoad,
@@ -193,6 +193,8 @@ def _action(path: str, data: Any, length: float, two_planes: bool = False) -> Ac
     exclusive = data.get("exclusive")
     if exclusive is not None:
         exclusive = _name(f"{path}.exclusive", exclusive)
+        if category == "permanent":
+            raise CaseError(permanent_exclusive(path, exclusive))
     asce = data.get("asce")
     if asce is not None:
         choice(f"{path}.asce", asce, ASCE_SYMBOLS, "an ASCE 7 load symbol")

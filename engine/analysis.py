@@ -9,7 +9,8 @@ import numpy as np
 
 from engine import aisc_moments, member_routes
 from engine.amplification import approximations, braced
-from engine.biaxial import pair_check
+from engine.biaxial import pair_check, worst_pair
+from engine.bow_variants import said, said_as, variants, worst_of
 from engine.cautions import assess, merge_plane_cautions
 from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
@@ -17,7 +18,6 @@ from engine.out_of_plane import utilisation as out_of_plane_utilisation
 from engine.prepared import prepare
 from engine.raw import CRITICAL_TOLERANCE
 from engine.raw import raw as _raw
-from engine.raw import reversed_raw as _reversed_raw
 from engine.reference import reference_peak
 from engine.restraints import RestraintReaction
 from engine.results import (
@@ -410,20 +410,23 @@ def _solve(case, prep, n: int, details: bool = True) -> Result:
     return _with_cautions(result, chosen, favourable=favourable)
 
 
-def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
+def _solve_plane(case, prep, n: int, details: bool, paired: bool = False, pick=None, unkept=None):
     """One plane solved, without its cautions: ``(result, prepared member used, its raw solution,
-    favourable)``, the member used being the reversed-bow variant where that direction was kept."""
+    favourable)``, the member used being the variant of the bow that was kept.
+
+    The bow is solved in each direction where its direction is automatic (and, with ``details``, the other
+    direction where the case fixes it, to say whether it is favourable), and as a half sine between the ends
+    where a preset takes the first mode's shape (:attr:`engine.member.BowChoice.alternative`); the worse is
+    kept (:func:`_severity`). ``unkept`` (a list) receives the variants that could have been kept and were
+    not, as ``(key, prepared member, raw solution)``, and ``pick`` (such a key) keeps that one instead: a
+    two-plane case keeps the pair worst for the check of both planes together (:func:`_solve_pair`)."""
     P = float(case.axial_force)
     raw = _raw(prep, n, P)
     status = raw[0]
     choice = prep.member.bow if prep.member is not None else None
-    reverse = (
-        choice is not None
-        and prep.has_bow
-        and P != 0.0
-        and status != "critical"
-        and (choice.automatic or details)
-    )
+    live = choice is not None and prep.has_bow and P != 0.0 and status != "critical"
+    reverse = live and (choice.automatic or details)
+    shapes = live and choice.alternative is not None
     bow_free = free_raw = None
     # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
     aisc_solves = details or "aisc" in case.check.routes
@@ -433,7 +436,7 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
         if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
             free_raw = _raw(prep.variant("bow_free"), n, P)
             bow_free = _free_peaks(free_raw)
-    if not reverse:
+    if not (reverse or shapes):
         result = _build(
             case,
             prep,
@@ -449,37 +452,33 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False):
             aisc_solves=aisc_solves,
         )
         return result, prep, raw, False
-    other_prep = prep.variant("reversed")
-    other = None
-    if free_raw is not None:  # the reversed bow by linearity: 2 × (bow-free) − (forward), no third solve
-        other = _reversed_raw(other_prep, n, P, raw, free_raw, (prep, prep.variant("bow_free")))
-    if other is None:
-        other = _raw(other_prep, n, P)
-    a, b = _severity(case, prep, P, raw), _severity(case, other_prep, P, other)
-    sa, sb = (-1.0 if a[0] is None else a[0]), (-1.0 if b[0] is None else b[0])
-    tol = 1e-9 * max(1.0, abs(sa))
-    worse_b = sb > sa + tol or (abs(sb - sa) <= tol and b[1] > a[1] * (1.0 + 1e-9))
-    facts = ((choice.direction, *a), (other_prep.member.bow.direction, *b))
-
-    def said(direction, strength, moment):
-        text = f"max|M| {moment * 1e-3:.4g} kN·m"
-        return (
-            f"{direction}: strength utilisation {strength:.3f}, {text}"
-            if strength is not None
-            else f"{direction}: {text}"
-        )
-
+    found = variants(prep, n, P, raw, free_raw, reverse, shapes)
+    severity = {key: _severity(case, p, P, r) for key, (p, r) in found.items()}
+    facts = tuple((said_as(found[key][0].member.bow, shapes), *severity[key]) for key in found)
     if choice.automatic:
-        (chosen_prep, chosen_raw, kept, rest) = (
-            (other_prep, other, facts[1], facts[0]) if worse_b else (prep, raw, facts[0], facts[1])
-        )
-        text = f"{kept[0]}: the worse of the two directions solved ({said(*kept)}; {said(*rest)})"
+        worst = worst_of(severity, tuple(found))
+        key = pick if pick is not None else worst
+        kept_fact = facts[tuple(found).index(key)]
+        rest = "; ".join(said(*f) for f in facts if f is not kept_fact)
+        how = "the worse of the two directions solved"
+        if shapes:
+            how = "the worse of the directions and shapes solved"
+        if key != worst:
+            how = "the worse for the check of both planes together"
+        text = f"{kept_fact[0]}: {how} ({said(*kept_fact)}; {rest})"
         favourable = False
-    else:
-        chosen_prep, chosen_raw, favourable = prep, raw, worse_b
-        text = f"{choice.direction}, as the case fixes it" + (
-            f" (the favourable way: reversed, {said(*facts[1])})" if favourable else ""
-        )
+        if unkept is not None:
+            unkept.extend((k, *found[k]) for k in found if k != key)
+    else:  # the direction the case fixes: the worse shape in it; favourable where the reversed one is worse
+        same = tuple(k for k in found if not k.endswith("reversed"))
+        key = worst_of(severity, same)
+        favourable = worst_of(severity, tuple(found)) not in same
+        kept_fact = facts[tuple(found).index(key)]
+        text = f"{choice.direction}, as the case fixes it" + (f" ({said(*kept_fact)})" if shapes else "")
+        if favourable:
+            reversed_fact = facts[tuple(found).index(worst_of(severity, tuple(found)))]
+            text += f" (the favourable way: reversed, {said(*reversed_fact)})"
+    chosen_prep, chosen_raw = found[key]
     bow = dataclasses.replace(
         chosen_prep.member.bow, direction_governing=text, directions=facts, favourable=favourable
     )
@@ -543,17 +542,25 @@ def _solve_pair(case, prep, n: int, details: bool) -> Result:
     the cross-section checked with N, M_y and M_z together, the status and α_cr the worse of the two planes,
     and the second plane's cautions merged into the first's."""
     P = float(case.axial_force)
-    r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True)
+    others = ([], [])
+    r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True, unkept=others[0])
     derived = case.second_plane_case()
     with within("second_plane"):  # kept with the case's own (the second plane depends on nothing else)
         prep_two = prep.design("second_plane", lambda: prepare(derived))
-    r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True)
+    r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True, unkept=others[1])
     statuses = (r1.status, r2.status)
     check, utilization = None, None
     if "critical" in statuses:
         utilization = math.inf if r1.section is not None else None
     elif r1.section is not None and r1.material is not None:
         check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
+        picks = worst_pair(case, P, check, (r1, prep1, raw1), (r2, prep2, raw2), others)
+        if picks[0] is not None:
+            r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True, pick=picks[0])
+        if picks[1] is not None:
+            r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True, pick=picks[1])
+        if picks != (None, None):
+            check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
         utilization = check.utilization
     # Each plane's cautions with the pair's check; the second plane is kept without either (r2 as solved).
     cautions = merge_plane_cautions(

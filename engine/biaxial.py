@@ -70,6 +70,7 @@ __all__ = [
     "pair_check",
     "pair_stations",
     "plane_at",
+    "worst_pair",
 ]
 
 #: The kinds of the two-plane check.
@@ -478,3 +479,24 @@ def pair_check(case, P, planes):
         axis=case.axis,
         **fixed,
     )
+
+
+def worst_pair(case, P, check, first, second, others) -> tuple:
+    """Which variant of each plane's bow to keep instead, ``(key or None, key or None)``. Each plane keeps the
+    variant worse for its own check (``engine.analysis._solve_plane``), but the check of both planes together
+    (N, M_y and M_z at once) may be worse with another pair, e.g. a minor-axis bow against the major axis's
+    peak. EN 1993-1-1 §5.3.2 asks for the imperfections in the unfavourable direction: every pair is checked
+    together and the worst kept (a pair within 1e-9 of the kept one does not replace it). ``others`` holds
+    each plane's variants not kept, as ``(key, prepared member, raw solution)`` (empty where the direction is
+    fixed)."""
+    r1, r2 = first[0], second[0]
+    options = ([(None, *first[1:])] + list(others[0]), [(None, *second[1:])] + list(others[1]))
+    worst, picks = check.utilization, (None, None)
+    for a in options[0]:
+        for b in options[1]:
+            if a[0] is None and b[0] is None:
+                continue
+            trial = pair_check(case, P, ((r1, *a[1:]), (r2, *b[1:])))
+            if trial.utilization > worst + 1e-9 * max(1.0, abs(worst)):
+                worst, picks = trial.utilization, (a[0], b[0])
+    return picks

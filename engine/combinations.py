@@ -12,8 +12,9 @@ Sources (recommended values; a National Annex may change them). **All from memor
 - EN 1990 Table A1.1 (buildings), ψ0/ψ1/ψ2: imposed A, B 0.7/0.5/0.3; C, D 0.7/0.7/0.6; E 1.0/0.9/0.8;
   F 0.7/0.7/0.6; G 0.7/0.5/0.3; H (roofs) 0/0/0; snow (Finland, Iceland, Norway, Sweden, or a site above
   1000 m) 0.7/0.5/0.2, snow at most 1000 m 0.5/0.2/0; wind 0.6/0.2/0; temperature (non-fire) 0.6/0.5/0.
-- ASCE/SEI 7-16 §2.3.1 (LRFD basic combinations 1–4 and 6; the seismic ones, 5 and 7, are not made) and
-  §2.4.1 (ASD combinations 1–7, used here for the deflection check).
+- ASCE/SEI 7-16 §2.3.1 (LRFD basic combinations 1–5, numbered as 7-16 numbers them; the combinations with
+  seismic load effects, §2.3.6, are not made) and §2.4.1 (ASD combinations 1–7, used here for the deflection
+  check; §2.4.5's seismic ones are not made).
 
 Decisions (the safe side, DEVELOPERS.md "Load cases and combinations"): ``imposed`` without a letter takes
 the largest ψ of every category (E's 1.0/0.9/0.8); ``snow`` the larger of the two snow rows; each permanent
@@ -39,6 +40,7 @@ __all__ = [
     "MAX_COMBINATIONS",
     "asce_symbol",
     "combine",
+    "permanent_exclusive",
     "psi_of",
 ]
 
@@ -72,22 +74,24 @@ _ASCE_SYMBOLS = {
     "wind": "W",
 }
 _X = ("Lr", "S", "R")  # "(Lr or S or R)"
-#: ASCE 7-16 §2.3.1 LRFD basic combinations without seismic ones, each "or" written out (from memory).
+#: ASCE 7-16 §2.3.1 LRFD basic combinations 1–5 (7-16's numbering; the seismic ones are §2.3.6's, not made),
+#: each "or" written out (from memory).
 ASCE_LRFD = (
     ("1", ({"D": 1.4},)),
     ("2", tuple({"D": 1.2, "L": 1.6, x: 0.5} for x in _X)),
     ("3", tuple({"D": 1.2, x: 1.6, **other} for x in _X for other in ({"L": 1.0}, {"W": 0.5}))),
     ("4", tuple({"D": 1.2, "W": 1.0, "L": 1.0, x: 0.5} for x in _X)),
-    ("6", ({"D": 0.9, "W": 1.0},)),
+    ("5", ({"D": 0.9, "W": 1.0},)),
 )
-#: ASCE 7-16 §2.4.1 ASD combinations 1–7 without seismic terms (from memory), for the deflection check.
+#: ASCE 7-16 §2.4.1 ASD combinations 1–7 (7-16's numbering; the seismic ones are §2.4.5's, not made), from
+#: memory, for the deflection check.
 ASCE_SERVICE = (
     ("1", ({"D": 1.0},)),
     ("2", ({"D": 1.0, "L": 1.0},)),
     ("3", tuple({"D": 1.0, x: 1.0} for x in _X)),
     ("4", tuple({"D": 1.0, "L": 0.75, x: 0.75} for x in _X)),
     ("5", ({"D": 1.0, "W": 0.6},)),
-    ("6a", tuple({"D": 1.0, "L": 0.75, "W": 0.45, x: 0.75} for x in _X)),
+    ("6", tuple({"D": 1.0, "L": 0.75, "W": 0.45, x: 0.75} for x in _X)),
     ("7", ({"D": 0.6, "W": 0.6},)),
 )
 ASCE_SOURCE = "ASCE/SEI 7-16 §2.3.1 (LRFD) and §2.4.1 (ASD, for service) (from memory)"
@@ -145,6 +149,16 @@ def asce_symbol(index: int, action) -> str:
             "combinations; give 'asce' (D, L, Lr, S, R or W) or use rule 'table'"
         )
     return _ASCE_SYMBOLS[action.category]
+
+
+def permanent_exclusive(path: str, exclusive: str) -> str:
+    """The refusal of ``exclusive`` on a permanent action (it acts in every combination, so it cannot be
+    one of alternatives that never act together)."""
+    return (
+        f"{path}.exclusive: {exclusive!r} is not allowed for a permanent action: a permanent action acts "
+        "in every combination; give alternative permanent states as separate cases, or list the "
+        "combinations yourself with rule 'table'"
+    )
 
 
 def _subsets(actions, variable) -> list:
@@ -240,6 +254,9 @@ def combine(actions, settings) -> tuple:
     """
     permanent = [i for i, action in enumerate(actions) if action.category == "permanent"]
     variable = [i for i, action in enumerate(actions) if action.category != "permanent"]
+    for i in permanent:
+        if actions[i].exclusive is not None:
+            raise CaseError(permanent_exclusive(f"actions[{i}]", actions[i].exclusive))
     if len(permanent) > 6:
         raise CaseError(
             f"actions: {len(permanent)} permanent actions; at most 6 "

@@ -25,10 +25,9 @@ from dataclasses import dataclass
 import numpy as np
 
 from engine import analysis
-from engine.actions import scaled
 from engine.cautions import GENERAL
+from engine.combination_cases import combination_case, reversals, service_plan, solve_service
 from engine.combinations import Combination, combine
-from engine.inputs import Imperfection
 from engine.prepared import prepare
 
 __all__ = [
@@ -42,55 +41,6 @@ __all__ = [
     "read_at",
     "solve",
 ]
-
-
-def _combination_bow(bow, state: str, service_bow: bool, sign: float):
-    """A plane's bow in a combination: none in a service one (unless ``service_bow``), a preset tried both
-    ways, a bow given by shape and amplitude reversed for ``sign`` -1."""
-    if state == "service" and not service_bow:
-        return Imperfection()
-    if bow.preset is not None and bow.direction != "load":
-        return dataclasses.replace(bow, direction="load")
-    if sign < 0 and bow.preset is None:
-        return dataclasses.replace(bow, amplitude=-bow.amplitude)
-    return bow
-
-
-def _shaped(bow) -> bool:
-    """True for a bow given by shape and amplitude (not a preset, not zero): solved both ways."""
-    return bow is not None and bow.preset is None and bow.shape != "none" and bow.amplitude != 0.0
-
-
-def combination_case(case, combination: Combination, *, bow_sign: float = 1.0, second_bow_sign: float = 1.0):
-    """The plain case of one combination: factored loads summed, factored axial forces summed, in each plane.
-
-    A factor of 1 leaves a load object as it is, so a one-action case under a factor of 1 is the plain case it
-    was made from. ``bow_sign`` -1 reverses a bow given by shape and amplitude; ``second_bow_sign`` the
-    second plane's. In a two-plane case each action's ``second_loads`` go to the second plane.
-    """
-    loads, second, axial = [], [], 0.0
-    for action, factor in zip(case.actions, combination.factors, strict=True):
-        if factor == 0.0:
-            continue
-        axial += factor * action.axial_force
-        loads.extend(scaled(load, factor) for load in action.loads)
-        second.extend(scaled(load, factor) for load in action.second_loads or ())
-    state, service_bow = combination.state, case.combinations.service_bow
-    changes = {
-        "actions": None,
-        "combinations": None,
-        "loads": tuple(loads),
-        "axial_force": axial,
-        "imperfection": _combination_bow(case.imperfection, state, service_bow, bow_sign),
-    }
-    plane = case.second_plane
-    if plane is not None:
-        bow = plane.imperfection
-        if bow is not None or (state == "service" and not service_bow):
-            bow = _combination_bow(bow or Imperfection(), state, service_bow, second_bow_sign)
-        # None stays None: the default bow, a preset whose direction is automatic (tried both ways).
-        changes["second_plane"] = dataclasses.replace(plane, loads=tuple(second), imperfection=bow)
-    return dataclasses.replace(case, **changes)
 
 
 @dataclass(frozen=True, kw_only=True, eq=False)
@@ -235,8 +185,15 @@ def _rank(result) -> tuple:
 
 def _worse(a, b) -> bool:
     """True when result ``b`` is worse than ``a``: larger utilisation, else larger max|M| (first plane, then
-    the second)."""
-    return _rank(b) > _rank(a)
+    the second). Values within 1e-9 (relative) of each other tie and the next one decides, as
+    :func:`engine.analysis._solve_plane` decides a preset's direction: two bow directions whose utilisations
+    differ by rounding alone (a route that does not see the bow governs both) are told apart by the moment."""
+    for x, y in zip(_rank(a), _rank(b), strict=True):
+        close = math.isfinite(x) and math.isfinite(y) and abs(y - x) <= 1e-9 * max(1.0, abs(x), abs(y))
+        if x == y or close:
+            continue
+        return y > x
+    return False
 
 
 def _solve_ultimate(plan, combination, stations) -> CombinationResult:
@@ -265,14 +222,6 @@ _PLAN_CACHE_SIZE = 8
 _LAST: list = [None, None]
 
 
-def _reversals(case) -> tuple:
-    """The (first, second) plane bow reversals to try beside none: each plane whose bow is shaped."""
-    first = _shaped(case.imperfection)
-    second = case.second_plane is not None and _shaped(case.second_plane.imperfection)
-    signs = [(a, b) for a in (False, True) for b in (False, True) if (a <= first and b <= second)]
-    return tuple(signs[1:])
-
-
 def _plan(case) -> tuple:
     if _LAST[0] is case:
         return _LAST[1]
@@ -280,19 +229,21 @@ def _plan(case) -> tuple:
     if plan is None:
         combos = combine(case.actions, case.combinations)
         rows = []
-        reversals = _reversals(case)
+        kinds = reversals(case)
         for combination in combos:
+            if combination.state == "service":  # its bow both ways only with service_bow
+                rows.append(service_plan(case, combination))
+                continue
             derived = combination_case(case, combination)
             others = []
-            if combination.state == "ultimate":
-                for first, second in reversals:
-                    other = combination_case(
-                        case,
-                        combination,
-                        bow_sign=-1.0 if first else 1.0,
-                        second_bow_sign=-1.0 if second else 1.0,
-                    )
-                    others.append((other, prepare(other), (first, second)))
+            for first, second in kinds:
+                other = combination_case(
+                    case,
+                    combination,
+                    bow_sign=-1.0 if first else 1.0,
+                    second_bow_sign=-1.0 if second else 1.0,
+                )
+                others.append((other, prepare(other), (first, second)))
             rows.append((derived, prepare(derived), tuple(others)))
         plan = (combos, tuple(rows))
         if len(_PLANS) >= _PLAN_CACHE_SIZE:
@@ -306,40 +257,6 @@ def clear_cache() -> None:
     """Forget the kept combinations and derived cases."""
     _PLANS.clear()
     _LAST[0] = _LAST[1] = None
-
-
-def _service_with_bow(result):
-    """The deflection check on w with the bow (``combinations.service_bow``)."""
-    if result.service is None or result.status == "critical":
-        return result
-    peak = result.governing.deflection
-    service = dataclasses.replace(
-        result.service,
-        utilization=abs(peak.value) / result.service.allowed,
-        deflection=peak.value,
-        x=peak.x,
-        basis="second order at the combination's axial force, with the initial bow (as the case asks)",
-    )
-    return dataclasses.replace(result, service=service)
-
-
-_SERVICE_BASIS = "second order at the combination's axial force, on its factored loads, without the bow"
-
-
-def _service_result(result, service_bow: bool):
-    """A service combination's result with its deflection check's basis (each plane's in a two-plane case)."""
-
-    def one(r):
-        if service_bow:
-            return _service_with_bow(r)
-        if r.service is None:
-            return r
-        return dataclasses.replace(r, service=dataclasses.replace(r.service, basis=_SERVICE_BASIS))
-
-    result = one(result)
-    if result.second_plane is not None:
-        result = dataclasses.replace(result, second_plane=one(result.second_plane))
-    return result
 
 
 def _governing(ultimate, service) -> tuple:
@@ -468,9 +385,16 @@ def solve(case, stations: int = 401):
         if combination.state == "ultimate":
             ultimate.append(_solve_ultimate(plan, combination, n))
         else:
-            derived, prep = plan[:2]
-            result = _service_result(analysis._solve(derived, prep, n), case.combinations.service_bow)
-            service.append(CombinationResult(combination=combination, case=derived, result=result))
+            derived, result, (first, second) = solve_service(plan, n, case.combinations.service_bow)
+            service.append(
+                CombinationResult(
+                    combination=combination,
+                    case=derived,
+                    result=result,
+                    bow_reversed=first,
+                    second_bow_reversed=second,
+                )
+            )
     governing = _governing(ultimate, service)
     rows = {row.check: row for row in governing if row.plane == 1}
     second_rows = {row.check: row for row in governing if row.plane == 2}
@@ -522,9 +446,9 @@ def _cautions(chosen, ultimate, servings) -> tuple:
     ultimate combination whose code it does not hold."""
     kept = [SCOPE] + [c for c in chosen.cautions if c.code not in _SERVICE_CODES and c.code != "scope"]
     codes = {c.code for c in kept}
-    for item in ultimate:
+    for item in ultimate:  # an ultimate combination's own deflection is no service check: never copied
         for caution in item.result.cautions:
-            if caution.level in ("danger", "warning") and caution.code not in codes:
+            if caution.level in ("danger", "warning") and caution.code not in codes | set(_SERVICE_CODES):
                 kept.append(dataclasses.replace(caution, values={**caution.values, "combination": item.name}))
                 codes.add(caution.code)
     for serving, name, plane in servings:

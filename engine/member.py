@@ -108,6 +108,9 @@ class BowChoice:
         or moment); only possible where the case fixes the direction.
     notes : tuple of str
         How the bow was adapted to the member (a shape replaced by the first mode).
+    alternative : BowChoice or None
+        Where a preset's bow takes the first mode's shape (not eq. (5.9)'s): the same e0 as a half sine
+        between the ends with the same sway, solved as well, the worse kept (:func:`resolve`).
     """
 
     shape: str
@@ -132,6 +135,7 @@ class BowChoice:
     notes: tuple = ()
     label_template: str = ""
     label_values: dict = dataclasses.field(default_factory=dict, compare=False, hash=False)
+    alternative: BowChoice | None = None
 
     @property
     def sway_slope(self) -> float:
@@ -273,6 +277,53 @@ def _plain(case, EI):
         stiffness_factor=1.0,
         second_plane=None,
     )
+
+
+#: The note's end where a preset's first-mode bow has the half-sine reading beside it (not eq. (5.9)'s).
+_ALSO_SINE = {
+    preset: "; the same e0 as a half sine between the ends, with the sway (EN 1993-1-1 §5.3.2(3): a local "
+    "bow relative to the chord), is solved as well and the worse kept."
+    for preset in ("en1993-table-5.1", "aisc-l/1000", "span")
+}
+
+
+def _orient(case, plain, EI, shape: str, amplitude: float, sway: float, anchor: float) -> tuple:
+    """``(amplitude, sway, direction in words, opposes the loads)`` of a bow and its sway, signed as the case
+    asks: a preset with direction ``"load"`` pointing with the loads' first-order deflection (the projection
+    of that deflection on bow + sway), ``"negative"`` reversed; a bow given by shape keeps its sign."""
+    imp, L = case.imperfection, float(plain.length)
+    direction = "+w"
+    opposes = False
+    if (shape != "none" and amplitude != 0.0) or sway != 0.0:
+        factor = 1.0 if imp.preset is None or imp.direction != "negative" else -1.0
+        if imp.preset is not None:
+            amplitude = abs(amplitude)
+        if case.loads:
+            # The sign of the projection of the loads' first-order deflection on bow + sway says which way
+            # is "with the loads" (the real sizes of both parts, the bow's sign as the case gives it).
+            trial = dataclasses.replace(
+                plain,
+                imperfection=Imperfection(shape=shape, amplitude=amplitude)
+                if shape != "none" and amplitude != 0.0
+                else Imperfection(),
+            )
+            buckling = critical_loads(trial, 1) if trial.imperfection.shape == "mode" else None
+            x = np.linspace(0.0, L, 201)
+            values = bow_for(trial, buckling, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
+            projection, w_scale = _first_order_projection(case, EI, values, x)
+            if w_scale > 0 and abs(projection) > 1e-12 * w_scale * float(np.abs(values).max()) * L:
+                if imp.preset is not None and imp.direction == "load":
+                    factor = math.copysign(1.0, projection)
+                opposes = projection * factor < 0
+                direction = "against the loads' deflection" if opposes else "with the loads' deflection"
+            else:
+                direction = ""
+        else:
+            direction = ""
+        amplitude, sway = amplitude * factor, sway * factor
+        if not direction:
+            direction = "+w" if (amplitude if amplitude != 0.0 else sway) >= 0 else "-w"
+    return amplitude, sway, direction, opposes
 
 
 def _first_order_projection(case, EI, shape_values, x):
@@ -442,7 +493,7 @@ def resolve(case):
         notes.append(
             f"The {shape} bow between the ends does not fit a member with intermediate restraints or a "
             "foundation: the bow takes the shape of the member's first buckling mode, with the amplitude "
-            "of the whole member (EN 1993-1-1 §5.3.2(11), from memory)."
+            "of the whole member (EN 1993-1-1 §5.3.2(11), from memory)" + _ALSO_SINE.get(imp.preset, ".")
         )
         shape, reshaped = "mode", True
     if imp.preset is not None and can_sway(plain):
@@ -450,7 +501,7 @@ def resolve(case):
             notes.append(
                 f"The {shape} bow between the ends does not fit a member with an end that can "
                 "translate: the bow takes the shape of the member's first buckling mode instead "
-                "(EN 1993-1-1 §5.3.2(11), from memory)."
+                "(EN 1993-1-1 §5.3.2(11), from memory)" + _ALSO_SINE.get(imp.preset, ".")
             )
             shape, reshaped = "mode", True
         if imp.preset != "en1993-eq-5.9" and shape != "sway":  # a sway shape is a sway already
@@ -467,45 +518,46 @@ def resolve(case):
                 sway_source = SOURCE_EN
                 label_values["h"] = float(L)
             sway = phi
-    direction = "+w"
-    opposes = False
-    if (shape != "none" and amplitude != 0.0) or sway != 0.0:
-        factor = 1.0 if imp.preset is None or imp.direction != "negative" else -1.0
-        if imp.preset is not None:
-            amplitude = abs(amplitude)
-        if case.loads:
-            # The sign of the projection of the loads' first-order deflection on bow + sway says which way
-            # is "with the loads" (the real sizes of both parts, the bow's sign as the case gives it).
-            trial = dataclasses.replace(
-                plain,
-                imperfection=Imperfection(shape=shape, amplitude=amplitude)
-                if shape != "none" and amplitude != 0.0
-                else Imperfection(),
-            )
-            buckling = critical_loads(trial, 1) if trial.imperfection.shape == "mode" else None
-            x = np.linspace(0.0, L, 201)
-            values = bow_for(trial, buckling, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
-            projection, w_scale = _first_order_projection(case, EI, values, x)
-            if w_scale > 0 and abs(projection) > 1e-12 * w_scale * float(np.abs(values).max()) * L:
-                if imp.preset is not None and imp.direction == "load":
-                    factor = math.copysign(1.0, projection)
-                opposes = projection * factor < 0
-                direction = "against the loads' deflection" if opposes else "with the loads' deflection"
-            else:
-                direction = ""
-        else:
-            direction = ""
-        amplitude, sway = amplitude * factor, sway * factor
-        if not direction:
-            direction = "+w" if (amplitude if amplitude != 0.0 else sway) >= 0 else "-w"
+    amplitude, sway, direction, opposes = _orient(case, plain, EI, shape, amplitude, sway, anchor)
     if imp.preset is not None and shape != "none":
         label += " = {amplitude}" if "{amplitude}" not in label else ""
-        if reshaped:
-            label += ", first-mode shape"
+    base_label = label
+    if reshaped:
+        label += ", first-mode shape"
     if sway_label:
         label += f"; {sway_label}"
     label_values["amplitude"] = abs(float(amplitude))
+    alternative = None
+    if reshaped and imp.preset != "en1993-eq-5.9":
+        # EN 1993-1-1 §5.3.2(3)'s own reading: the sway and a local bow e0 relative to the chord, a half sine
+        # between the member's ends. The first mode alone can carry little or no curvature (a rigid tilt on a
+        # spring: no moment at all, found unsafe by an independent check), so both are solved (module notes).
+        e0 = abs(float(amplitude))
+        sine_amp, sine_sway, sine_dir, sine_opp = _orient(case, plain, EI, "sine", e0, abs(sway), anchor)
+        sine_label = base_label + ", half sine between the ends" + (f"; {sway_label}" if sway_label else "")
+        alternative = BowChoice(
+            shape="sine",
+            amplitude=float(sine_amp),
+            label=si_label(sine_label, label_values),
+            label_template=sine_label,
+            label_values=label_values,
+            source=source,
+            curve=curve,
+            curve_reason=reason,
+            code_amplitude=code_amp,
+            code_label=code_label,
+            code_source=code_source,
+            opposes_load=sine_opp,
+            sway=float(sine_sway),
+            sway_anchor=float(anchor),
+            sway_label=si_label(sway_label, label_values),
+            sway_source=sway_source,
+            automatic=imp.preset is not None and imp.direction == "load",
+            direction=sine_dir,
+            notes=tuple(notes),
+        )
     bow = BowChoice(
+        alternative=alternative,
         shape=shape,
         amplitude=float(amplitude),
         label=si_label(label, label_values),

@@ -104,7 +104,9 @@ class Prepared:
         return self.model.bow.shape != "none"
 
     def variant(self, kind: str) -> Prepared:
-        """The member with its bow reversed (``"reversed"``), without it (``"bow_free"``), or without it
+        """The member with its bow reversed (``"reversed"``), as its half-sine reading (``"half_sine"``,
+        ``"half_sine_reversed"``: :attr:`engine.member.BowChoice.alternative`), without it (``"bow_free"``),
+        or without it
         but out of plumb by φ (``"plumb<φ>"``, φ signed [rad], e.g. ``"plumb+0.002"``: the aisc route's M_r
         of a member with an end that can translate, AISC 360-16 §C2.2a), cached."""
         hit = self._variants.get(kind)
@@ -112,8 +114,11 @@ class Prepared:
             choice = None
             member = self.member
             imperfection = Imperfection()
-            if kind == "reversed":
-                choice = self.member.bow.reversed()
+            if kind in ("reversed", "half_sine", "half_sine_reversed"):
+                bow = self.member.bow
+                choice = bow.alternative if kind.startswith("half_sine") else bow
+                choice = choice.reversed() if kind.endswith("reversed") else choice
+                choice = dataclasses.replace(choice, alternative=None)
                 member = dataclasses.replace(self.member, bow=choice)
                 imperfection = Imperfection(shape=choice.shape, amplitude=choice.amplitude)
             elif kind.startswith("plumb"):

@@ -10,10 +10,16 @@ strutscope's decisions, each on the safe side:
 
 - no transverse load inside the span (end couples, loads at the ends): the linear diagram, whatever the
   supports;
-- every transverse load a uniform load over the whole member: the table's "uniform" row; every one a point
-  load: "concentrated"; any other mix (partial or linear loads, point and uniform together): the "uniform"
-  row, which is never smaller than the "concentrated" one (Table B.3's formulas differ by 0.1(1 + ψ) ≥ 0,
-  0.1 or 0.05(1 − α_h) ≥ 0);
+- every transverse load a uniform load over the whole member: the table's "uniform" row; one point load
+  inside the span: "concentrated"; any other mix (partial or linear loads, one point load and uniform
+  together): the "uniform" row, which is never smaller than the "concentrated" one (Table B.3's formulas
+  differ by 0.1(1 + ψ) ≥ 0, 0.1 or 0.05(1 − α_h) ≥ 0);
+- two or more point loads inside the span (form ``"points"``; with other loads as well, ``"other"``): not the
+  table's one concentrated load, and no row fits. Their diagram can be anything from one peak to a nearly
+  uniform moment between loads near the ends (ψ = 1's C_m = 1): third-point loads are amplified more than a
+  uniform load (Annex A's general term π²EIδ/(ML²) − 1 is +0.051 against +0.028 for a uniform load, and
+  −0.178 for one central load), so the concentrated row's 0.9 was unsafe (found by an independent check:
+  eq. (6.61) 3 % low on two loads at the third points). :math:`C_m = 1`, the table's largest value;
 - a couple inside the span, or a diagram with no interior extremum or more than one, is not one of the
   table's shapes: :math:`C_m = 1`, the table's largest value;
 - a member with an end that can translate (free, guided, or a translational spring) may have a sway buckling
@@ -31,7 +37,8 @@ pin-ended member; :math:`L = L_{cr}`): it is the first term of the exact amplifi
 a fixed-ended member under a uniform load would get :math:`C = 1 - 0.69\,N/N_{cr}` where the exact
 second-order end moment needs :math:`C \approx 0.80` at :math:`N/N_{cr} = 0.5` (unsafe); with
 :math:`N_{cr}` it gets :math:`1 + 0.23\,N/N_{cr}` (safe). A couple inside the span: the larger of 1 and the
-general formula. A uniform load on a member whose ends cannot translate: the larger of the general formula
+general formula. Several point loads: the general formula (it reads any diagram of a member whose ends
+cannot translate). A uniform load on a member whose ends cannot translate: the larger of the general formula
 and the table's row for it, :math:`1 + 0.03\,N_{Ed}/N_{cr,i}` (the row rounds the pin-ended member's
 :math:`5\pi^2/48 - 1 = 0.028` up; the concentrated load's row, :math:`1 - 0.18\,N_{Ed}/N_{cr,i}`, rounds
 :math:`\pi^2/12 - 1 = -0.178` down, so the general formula is the larger there).
@@ -58,8 +65,9 @@ class Diagram:
     Attributes
     ----------
     form : str
-        ``"linear"`` (no transverse load inside the span), ``"uniform"``, ``"concentrated"``, ``"mixed"``
-        (other transverse loads; read with the uniform row), or ``"other"`` (not one of Table B.3's shapes).
+        ``"linear"`` (no transverse load inside the span), ``"uniform"``, ``"concentrated"`` (one point
+        load), ``"mixed"`` (other transverse loads; read with the uniform row), ``"points"`` (two or more
+        point loads alone) or ``"other"`` (not one of Table B.3's shapes).
     M_h, psi, M_s : float
         Table B.3's end moment of larger magnitude, the end ratio ψ and the interior extremum (0 when linear).
     M_max : float
@@ -118,20 +126,24 @@ def describe(*, x, moment, deflection, shear, loads, length: float, sway: bool) 
     psi = 1.0 if M_h == 0.0 else max(-1.0, min(1.0, other / M_h))
     kinds = set()
     inner_couple = False
+    points = 0
     for load in loads:
         if load.type == "couple":
             inner_couple = inner_couple or _interior(0.0, length, load.x)
         elif load.type == "point":
             if _interior(0.0, length, load.x) and load.P != 0.0:
                 kinds.add("concentrated")
+                points += 1
         elif load.type == "uniform":
             if load.q != 0.0:
                 whole = (load.start in (None, 0.0)) and (load.end is None or load.end >= length * (1 - _REL))
                 kinds.add("uniform" if whole else "mixed")
         elif load.q_start != 0.0 or load.q_end != 0.0:
             kinds.add("mixed")
-    if inner_couple:
+    if inner_couple or (points > 1 and len(kinds) > 1):
         return Diagram("other", M_h, psi, 0.0, M_max, delta, V_max, sway)
+    if points > 1:  # several point loads: not the table's one concentrated load (module notes)
+        return Diagram("points", M_h, psi, 0.0, M_max, delta, V_max, sway)
     if not kinds or M_max == 0.0:
         return Diagram("linear", M_h, psi, 0.0, M_max, delta, V_max, sway)
     form = kinds.pop() if len(kinds) == 1 else "mixed"
@@ -145,7 +157,7 @@ def annex_b_factor(d: Diagram) -> float:
     """C_m of EN 1993-1-1 Annex B, Table B.3, with strutscope's reading of the diagram (module notes)."""
     if d.M_max == 0.0:
         table = 1.0
-    elif d.form == "other":
+    elif d.form in ("other", "points"):
         table = None
     elif d.form == "linear":
         table = annex_b.equivalent_moment_factor(d.M_h, d.psi)

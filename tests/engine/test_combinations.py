@@ -97,7 +97,7 @@ def test_exclusive_actions_never_act_together():
 
 
 def test_asce_lrfd_and_service():
-    """ASCE 7-16 §2.3.1 combinations 1–4 and 6 and §2.4.1 (from memory), L factor 1.0 in 3 and 4."""
+    """ASCE 7-16 §2.3.1 combinations 1–5 and §2.4.1 1–7 (from memory), L factor 1.0 in 3 and 4."""
     combos = combine((G, act("L", "imposed"), act("Sn", "snow"), W), CombinationSettings(rule="asce7-2.3"))
     lrfd = factor_sets(combos)
     for vector in [
@@ -114,6 +114,17 @@ def test_asce_lrfd_and_service():
     for vector in [(1, 1, 0, 0), (1, 0, 1, 0), (1, 0.75, 0.75, 0), (1, 0, 0, 0.6), (1, 0.75, 0.75, 0.45)]:
         assert vector in service, vector
     assert (0.6, 0, 0, 0.6) in service
+
+
+def test_asce_combinations_are_numbered_as_in_7_16():
+    """ASCE 7-16 numbers 0.9D + 1.0W as §2.3.1 combination 5 and D + 0.75L + 0.75(0.6W) + 0.75(Lr or S or R)
+    as §2.4.1 combination 6 (the seismic ones moved to §2.3.6 and §2.4.5; from memory); 7-10's 6 and 6a were
+    shown before."""
+    combos = combine((G, act("L", "imposed"), W), CombinationSettings(rule="asce7-2.3"))
+    equations = {c.equation: c.factors for c in combos}
+    assert (0.9, 0.0, 1.0) in {f for e, f in equations.items() if e == "2.3.1-5"}
+    assert "2.3.1-6" not in equations and "2.4.1-6a" not in equations
+    assert any(c.equation == "2.4.1-6" and c.factors == (1.0, 0.75, 0.45) for c in combos)
 
 
 def test_asce_refuses_a_category_without_a_symbol():
