@@ -22,14 +22,12 @@ from app.cli_common import DEMO_CASE
 
 __all__ = ["DEFAULT_PORT", "DISCONNECTED", "add_arguments", "make_page", "run", "serve"]
 
-#: The port used when none is given: one of our own (S-T-R-U on a phone keypad), not Panel's 5006, so that
-#: strutscope does not collide with another Panel app the user already runs. When it is taken, the next free
-#: port above it is used and the one line printed at start-up says so.
+#: The port used when none is given: our own (S-T-R-U on a phone keypad), not Panel's 5006; when it is taken,
+#: the next free port above it is used and the line printed at start-up says so.
 DEFAULT_PORT = 7878
 #: Seconds after start-up before the worker processes are warmed (see :func:`serve`).
 _WARM_DELAY_S = 8.0
-#: How many ports above the default are tried when it is taken.
-_PORT_TRIES = 20
+_PORT_TRIES = 20  # how many ports above the default are tried when it is taken
 _LOOPBACK = ("127.0.0.1", "localhost", "::1")
 #: Shown on the page when the connection to the server is lost.
 DISCONNECTED = (
@@ -596,3 +594,7 @@ def run(args) -> int:
         host=getattr(args, "host", "127.0.0.1"),
         **extra,
     )
+
+
+if __name__ == "__main__":  # not an entry point (it printed nothing): say which one is
+    sys.exit("the page is served by `strutscope serve` or `python -m app.cli serve`; add --help for options")

@@ -199,6 +199,14 @@ class ActionsBehaviour:
             self.action_scale = self.result_scale
             return True
         scale, message = scale_for(self, self.axial_force)
+        actions = getattr(self.result, "actions", None)
+        if scale is not None and self.combination_choice == "" and actions is not None and actions.headline:
+            # The force typed (or dragged to) is the governing combination's now; another combination may
+            # govern at the new force, and the box would then show that one's N, not the number typed
+            # (found by a new user: 3279.4 kN typed read 3614.03, and 294 typed back never restored the
+            # design case). The combination is named instead, so the box keeps what was typed and typing
+            # back restores it.
+            self.combination_choice = actions.headline
         if scale is None:
             if message:
                 self._failed_at = self._refresh_id = self._refresh_id + 1
@@ -359,16 +367,15 @@ def view_result(state):
 
 def shown_combination(state) -> str:
     """The combination the exports hold, for their file names (:func:`app.export_names.export_filename`):
-    ``"envelope"`` while the envelope is shown, else the name of the combination :func:`view_result` gives
-    (the chosen one, or the governing one); ``""`` for a case without load cases."""
+    the name of the combination :func:`view_result` gives (the chosen one, or the governing one, also while
+    the envelope is shown: its band is drawn on screen only, and an export named "envelope" held the
+    governing combination); ``""`` for a case without load cases."""
     result = state.result
     actions = getattr(result, "actions", None)
     if actions is None:
         return ""
     choice = getattr(state, "combination_choice", "")
-    if choice == ENVELOPE:
-        return ENVELOPE
-    item = chosen_item(result, choice)
+    item = chosen_item(result, choice)  # the envelope's band is on screen only: the exports hold the headline
     return item.name if item is not None else (actions.headline or "")
 
 
@@ -384,16 +391,16 @@ def scale_sentence(state) -> str:
     factor = f"λ = {state.action_scale:.3g}"
     if state.scale_mode == "factor":
         what = (
-            f"The slider scales the whole combination {name} by one load factor ({factor} on every load "
-            "case's loads and axial force)"
+            f"The slider sets N of combination {name} by one load factor {factor} on every load case's loads "
+            "and axial force"
         )
     else:
         what = (
-            f"The slider scales the axial force of combination {name} only ({factor} on every load case's "
-            "axial force; the transverse loads stay as combined)"
+            f"The slider sets N of combination {name} by one factor {factor} on every load case's axial "
+            "force alone (the transverse loads stay as given)"
         )
     return (
-        what + "; every combination is scaled alike, so the envelope and the governing combinations follow."
+        what + "; every combination gets the same λ, so the envelope and the governing combinations follow."
     )
 
 

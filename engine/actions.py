@@ -360,8 +360,43 @@ def case_actions(case) -> tuple[tuple, CombinationSettings]:
     actions, settings = actions_from_data(
         case.actions, case.combinations, case.length, case.second_plane is not None
     )
-    combine(actions, settings)  # the count and the ASCE 7 symbols are checked with the case, not at its solve
+    combos = combine(actions, settings)  # the count and the ASCE 7 symbols are checked with the case
+    _check_factored(actions, combos)
     return actions, settings
+
+
+#: (field, unit, largest magnitude) of each load form's values, as :mod:`engine.loads` bounds them.
+_LOAD_FIELDS = {
+    "uniform": (("q", "N/m", 1e12),),
+    "linear": (("q_start", "N/m", 1e12), ("q_end", "N/m", 1e12)),
+    "point": (("P", "N", 1e12),),
+    "couple": (("C", "N·m", 1e13),),
+}
+
+
+def _check_factored(actions, combos) -> None:
+    """Every action's values times its largest factor stay within the bounds of a load (and of the case's
+    axial force): refused here, naming the value as typed, rather than at the solve naming the factored one
+    (a new user typed −1e9 kN, inside the range, and was told of −1.35e9 kN under the engine's name)."""
+    for i, action in enumerate(actions):
+        factor, name = 0.0, ""
+        for combination in combos:
+            if abs(combination.factors[i]) > factor:
+                factor, name = abs(combination.factors[i]), combination.name
+        if factor <= 1.0:
+            continue
+        items = [("axial_force", action.axial_force, "N", _MAX_AXIAL_FORCE)]
+        for where, loads in (("loads", action.loads), ("second_plane.loads", action.second_loads or ())):
+            for j, load in enumerate(loads):
+                for field, unit, limit in _LOAD_FIELDS[load.type]:
+                    items.append((f"{where}[{j}].{field}", getattr(load, field), unit, limit))
+        for path, value, unit, limit in items:
+            if abs(value) * factor > limit:
+                raise CaseError(
+                    f"actions[{i}].{path}: {value!r} {unit} must be between {-limit / factor:.4g} {unit} and "
+                    f"{limit / factor:.4g} {unit}: combination {name} multiplies it by {factor:g}, and a "
+                    f"factored value may not exceed {limit:g} {unit} in magnitude"
+                )
 
 
 def scaled(load, factor: float):

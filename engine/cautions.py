@@ -58,8 +58,9 @@ GENERAL = Caution(
     code="scope",
     message=(
         "Elastic analysis of one member in one or two uncoupled planes. Not a full code check: "
-        "torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where a caution "
-        "says so, patch loading of a slender web and connections are not checked. The loads are taken as "
+        "torsion, non-symmetric sections, patch loading of a slender web and connections are not checked; "
+        "lateral-torsional buckling and class 4 sections are checked unless a caution says otherwise. The "
+        "loads are taken as "
         "given (load "
         "cases, where given, are combined by the rule the case names; the factors are the engineer's). Check "
         "the results against your local codes and have them reviewed by a licensed engineer."

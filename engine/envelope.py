@@ -149,8 +149,9 @@ def envelope(state: str, solved, plane: int = 1) -> Envelope | None:
         x0 = xc[i - 1]
         span = xc[i] - x0
         t = np.divide(x - x0, span, out=np.zeros_like(x), where=span > 0)
-        low = stack[:, i - 1]
-        rows[:, k, :] = low + t * (stack[:, i] - low)
+        low, high = stack[:, i - 1], stack[:, i]
+        with np.errstate(invalid="ignore"):  # a combination at its critical load is +inf throughout: kept inf
+            rows[:, k, :] = np.where(low == high, low, low + t * (high - low))
         top, bottom = stack.argmax(axis=1), stack.argmin(axis=1)
         for f, name in enumerate(names):
             for end, at in (("max", top[f]), ("min", bottom[f])):
@@ -449,7 +450,13 @@ def _cautions(chosen, ultimate, servings) -> tuple:
     for item in ultimate:  # an ultimate combination's own deflection is no service check: never copied
         for caution in item.result.cautions:
             if caution.level in ("danger", "warning") and caution.code not in codes | set(_SERVICE_CODES):
-                kept.append(dataclasses.replace(caution, values={**caution.values, "combination": item.name}))
+                kept.append(
+                    dataclasses.replace(
+                        caution,
+                        message=f"{caution.message} (combination {item.name})",
+                        values={**caution.values, "combination": item.name},
+                    )
+                )
                 codes.add(caution.code)
     for serving, name, plane in servings:
         if serving is None:
@@ -477,9 +484,9 @@ SCOPE = dataclasses.replace(
     GENERAL,
     message=(
         "Elastic analysis of one member in one or two uncoupled planes, per load combination. Not a full "
-        "code check: torsion, non-symmetric sections, lateral-torsional buckling and class 4 sections where "
-        "a caution says so, patch loading of a slender web "
-        "and connections are not checked; the combination factors are recommended values "
+        "code check: torsion, non-symmetric sections, patch loading of a slender web and connections are "
+        "not checked; lateral-torsional buckling and class 4 sections are checked unless a caution says "
+        "otherwise; the combination factors are recommended values "
         "recalled from memory (a National Annex may change them). Check the results against your local "
         "codes and have them reviewed by a licensed engineer."
     ),

@@ -256,7 +256,14 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
             flow.para("No section and material given: no member check.", color=_GREY)
     else:
         item("Utilisation", utilisation_text(result, U), weight="bold")
-        item("", f"source: {source_text(check.source, U)}", scale=0.85, color=_GREY)
+        # the source of what sets the headline: another route's where it governs (eq. (6.62) was followed by
+        # the second-order check's source, found by a new user)
+        applied = [r for r in getattr(result, "routes", ()) if r.enabled and r.utilization is not None]
+        top = max(applied, key=lambda r: r.utilization) if applied else None
+        source = (
+            top.source if top is not None and top.route != "second-order" and top.source else check.source
+        )
+        item("", f"source: {source_text(source, U)}", scale=0.85, color=_GREY)
         item("Strength alone", f"{ratio(check.strength_utilization)} ({check.strength_kind})")
         out = check.out_of_plane
         if out is not None and out.checked:

@@ -272,5 +272,9 @@ def csv_text(result, *, units="si") -> str:
 def _column_cells(values: np.ndarray) -> list[str]:
     """:func:`app.report.csv_number` of every value of one column, formatted in one pass."""
     digits = f".{CSV_DIGITS}g"
+    finite_values = values[np.isfinite(values)]
+    if finite_values.size:  # rounding of a zero (M at a pin: 4.6e-15 kN·m) written 0, as the page shows it
+        tiny = 1e-12 * float(np.abs(finite_values).max())
+        values = np.where(np.abs(values) <= tiny, 0.0, values)
     cells = [format(v, digits) for v in values.tolist()]
     return ["0" if cell == "-0" else cell for cell in cells]

@@ -115,7 +115,7 @@ class _ActionBlock:
                     system=lambda: state.units,
                     width=62,
                     margin=(0, 2),
-                    placeholder="end" if key in ("start", "end") else "",
+                    placeholder={"start": "0 (start)", "end": "L (end)"}.get(key, ""),
                 )
                 for key, text, unit_kind in row_fields(kind)
             ]

@@ -13,8 +13,6 @@ Every number comes from the engine; the wording of the comparison from :mod:`app
 
 from __future__ import annotations
 
-import math
-
 import numpy as np
 import panel as pn
 import param
@@ -172,13 +170,13 @@ class SuperpositionView(pn.viewable.Viewer):
         self.figure.yaxis.axis_label = f"M [{U.label('moment')}] ↓+"
         self.figure.xaxis.axis_label = f"x [{U.label('length')}]"
         from app.report import words
+        from app.report.combinations import superposition_error
 
         parts = " + ".join(
             f"{factor:g} {name} at N = {words.axial_text(axial, U)}"
             for name, factor, axial in comparison.parts
         )
-        error = comparison.error
-        shown = "∞ (a critical load)" if not math.isfinite(error) else f"{100 * error:.1f} %"
+        shown = superposition_error(comparison)
         exact = esc(U.show("moment", comparison.moment_peak_exact))
         summed = esc(U.show("moment", comparison.moment_peak_superposed))
         name = esc(comparison.combination)
@@ -187,8 +185,7 @@ class SuperpositionView(pn.viewable.Viewer):
             "<table class='ss-table' style='width:100%;font-size:12px'>"
             f"<tr><td>exact, solved together</td><td><b>max|M| = {exact}</b></td></tr>"
             f"<tr><td>sum of the load cases solved alone</td><td><b>max|M| = {summed}</b></td></tr>"
-            f"<tr><td>error of the sum</td><td><b>{esc(shown)}</b> of the exact value</td></tr></table>"
-            f"<div class='ss-note'>The parts: {esc(parts)}; both sides without the bow. Error positive: "
-            "the sum falls short of the exact value, the unsafe side. Small near N = 0, large near "
-            "Pcr1.</div>"
+            f"<tr><td>error of the sum</td><td><b>{esc(shown)}</b></td></tr></table>"
+            f"<div class='ss-note'>The parts: {esc(parts)}; both sides without the bow. The error is small "
+            "near N = 0 and large near Pcr1.</div>"
         )

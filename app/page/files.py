@@ -21,7 +21,7 @@ from app.intake import clean_text
 from app.page.fields import field_words
 from app.page.style import UPLOAD_LIMIT, WIDGET_CSS, download, esc, html_pane
 from app.state import MemberState
-from app.state_actions import link_choice, shown_combination, view_result
+from app.state_actions import ENVELOPE, link_choice, shown_combination, view_result
 
 __all__ = ["FilesView"]
 
@@ -146,13 +146,22 @@ class FilesView(pn.viewable.Viewer):
                 if refused
                 else None
             )
-        self.blocked.object = (
-            f"<div class='ss-error ss-blocked'>Exports are disabled until {esc(refused)} is accepted: they "
-            "would hold the last valid case, not the inputs on screen.</div>"
-            if refused
-            else ""
-        )
-        self.blocked.visible = bool(refused)
+        held = shown_combination(self.state)
+        envelope = getattr(self.state, "combination_choice", "") == ENVELOPE and bool(held)
+        if refused:
+            self.blocked.object = (
+                f"<div class='ss-error ss-blocked'>Exports are disabled until {esc(refused)} is accepted: "
+                "they would hold the last valid case, not the inputs on screen.</div>"
+            )
+        elif envelope:  # the values beside the band are the governing combination's: the exports hold those
+            self.blocked.object = (
+                "<div class='ss-note'>The envelope band is drawn on screen only: the exports hold "
+                f"combination {esc(held)}, the governing one whose values are shown, and list every "
+                "combination's result.</div>"
+            )
+        else:
+            self.blocked.object = ""
+        self.blocked.visible = bool(refused) or envelope
         if not self.state.errors and "ss-error" in self.upload_message.object:
             self.upload_message.object = ""  # a later edit succeeded: the upload's refusal is history
 

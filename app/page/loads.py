@@ -73,7 +73,7 @@ class LoadRow:
                 system=lambda: state.units,
                 width=68,
                 margin=(0, 3),
-                placeholder="end" if key in ("start", "end") else "",
+                placeholder={"start": "0 (start)", "end": "L (end)"}.get(key, ""),
             )
             for key, text, unit_kind in row_fields(kind)
         }

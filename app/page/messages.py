@@ -86,7 +86,7 @@ _INNER_FIELD_WORDS = {
     "k": "modulus k",
 }
 #: A load case's field (issue 17): ``actions[1].axial_force``, ``actions[0].loads[2].x``.
-_ACTION_PATH = re.compile(r"^actions\[(\d+)\](?:\.loads\[(\d+)\])?(?:\.(\w+))?$")
+_ACTION_PATH = re.compile(r"^actions\[(\d+)\](?:\.(second_plane\.)?loads\[(\d+)\])?(?:\.(\w+))?$")
 
 
 def field_words(path: str) -> str:
@@ -94,9 +94,10 @@ def field_words(path: str) -> str:
     match = _ACTION_PATH.match(path)
     if match:
         words = f"Load case {int(match.group(1)) + 1}"
-        if match.group(2) is not None:
-            words += f", load {int(match.group(2)) + 1}"
-        key = match.group(3)
+        if match.group(3) is not None:
+            plane = "second-plane load" if match.group(2) else "load"
+            words += f", {plane} {int(match.group(3)) + 1}"
+        key = match.group(4)
         return words if key is None else f"{words}, {_LOAD_FIELD_WORDS.get(key, key.replace('_', ' '))}"
     match = _INNER_PATH.match(path)
     if match:

@@ -107,8 +107,12 @@ class CautionsView(pn.viewable.Viewer):
             ("info", "scope", general_caution(result), "strutscope's scope")
         ]
         others = [c for c in cautions if c[1] != "scope"]
-        counts = {level: sum(1 for c in others if c[0] == level) for level in ("danger", "warning", "info")}
-        summary = " · ".join(f"{n} {LEVEL_NAMES[level].lower()}" for level, n in counts.items() if n)
+        # Every item listed is counted, the general note below the box too (a new user counted five notes
+        # under "4 note"), in the plural past one.
+        counts = {level: sum(1 for c in others + general[:1] if c[0] == level) for level in LEVEL_NAMES}
+        summary = " · ".join(
+            f"{n} {LEVEL_NAMES[level].lower()}{'' if n == 1 else 's'}" for level, n in counts.items() if n
+        )
         self.heading.object = f"<div class='ss-heading'>Cautions{' — ' + summary if summary else ''}</div>"
         self.list.object = "<ul class='ss-cautions'>" + "".join(item(*c) for c in others) + "</ul>"
         self.general.object = "<ul class='ss-cautions general'>" + item(*general[0]) + "</ul>"

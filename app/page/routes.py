@@ -213,7 +213,8 @@ class RoutesChart(pn.viewable.Viewer):
             top = float(forces[-1]) if forces.size else 0.0
             self.note.object = (
                 "<div class='ss-note'>Utilisation of each route from N = 0 to "
-                f"{esc(U.show('force', top / U.force.factor))} (0.95·Pcr1), each point solved exactly; "
+                f"{esc(U.show('force', top / U.force.factor))} (0.95 times the lowest critical load of the "
+                "member, either plane or out of plane), each point solved exactly; "
                 f"{esc(sweep['note'] + '; ' if sweep['note'] else '')}the vertical line is the N on screen."
                 "</div>"
             )

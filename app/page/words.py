@@ -115,14 +115,17 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             result.utilization > 1,
         )
     if check is not None:
+        # A member's buckling check (about the other axis, or elastic buckling) has no location: an "@ x"
+        # beside it read as a section's (found by a new user).
+        whole = check.kind.startswith("out-of-plane") or "buckling" in check.kind
         row(
             "utilisation",
             f"{utilisation_text(check.utilization)} {kind_text(check.kind)}",
-            f"@ {U.show('length', check.x)}",
+            "the whole member" if whole else f"@ {U.show('length', check.x)}",
             check.utilization > 1,
         )
         row(
-            "strength only",
+            "strength and stability",
             f"{utilisation_text(check.strength_utilization)} {kind_text(check.strength_kind)}",
             "" if check.section_class is None else f"class {check.section_class.klass}",
             check.strength_utilization > 1,
@@ -185,7 +188,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
     if second is not None:
         own, other = plane_axes(result)
         head(f"Second plane · {plane_name(other)}")
-        row("Pcr1", U.show("force", second.critical_loads[0]), "second plane")
+        row("Pcr1, this plane", U.show("force", second.critical_loads[0]), plane_name(other))
         for label, field, kind in (
             ("max |w + w0|", "total_offset", "small_length"),
             ("max |M|", "moment", "moment"),
@@ -199,10 +202,17 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
                 row(f"{where}, 2nd plane", force, couple)
     head("Buckling")
     pcr = result.critical_loads
-    row("Pcr1", U.show("force", pcr[0]), f"K = {result.buckling.effective_length_factor:.3f}")
     two = getattr(result, "second_plane", None) is not None  # then the lower plane's Pcr1, named
+    # Two planes: each plane's own Pcr1 is named with its plane, and α_cr is the lower plane's (one "Pcr1"
+    # for two different loads side by side was found confusing by a new user).
+    own_axis = plane_axes(result)[0]
     row(
-        "α<sub>cr</sub> = Pcr1/N" + (" (lower plane)" if two else ""),
+        "Pcr1, first plane" if two else "Pcr1",
+        U.show("force", pcr[0]),
+        f"K = {result.buckling.effective_length_factor:.3f}" + (f"; {plane_name(own_axis)}" if two else ""),
+    )
+    row(
+        "α<sub>cr</sub> = Pcr,lower/N" if two else "α<sub>cr</sub> = Pcr1/N",
         ratio_text(result.alpha_cr),
         ("" if not two else lower_plane(result)[1] if result.axial_force > 0 else "no compression"),
         result.alpha_cr <= 1,

@@ -4,8 +4,10 @@ line, the exports and the batch."""
 
 from __future__ import annotations
 
+import math
+
 from app.report import words as w
-from app.report.numbers import percent, utilisation
+from app.report.numbers import utilisation
 from app.report.route_names import governing_text, route_name
 
 __all__ = [
@@ -303,6 +305,19 @@ def service_strength(result, brief: bool = False) -> str:
     return where if brief else f"{where}: {strength_words(actions)}"
 
 
+def superposition_error(comparison) -> str:
+    """The error of the summed load cases in words, one wording for the page, the summary and the exports:
+    e.g. ``"8.1 % below the exact value (the unsafe side)"``; ``"∞ (a critical load)"``."""
+    error = comparison.error  # (exact − sum) / exact of max|M|: positive where the sum falls short
+    if not math.isfinite(error):
+        return "∞ (a critical load)"
+    if abs(error) < 5e-4:
+        return "0.0 % (the sum equals the exact value)"
+    if error > 0:
+        return f"{100 * error:.1f} % below the exact value (the unsafe side)"
+    return f"{-100 * error:.1f} % above the exact value"
+
+
 def superposition_lines(comparison, U) -> list:
     """The superposition comparison of one combination in words."""
     parts = " + ".join(
@@ -313,8 +328,7 @@ def superposition_lines(comparison, U) -> list:
         "cases solved one by one, each at its own axial force, is not the combined result",
         f"  exact, solved together:    max|M| = {U.show('moment', comparison.moment_peak_exact)}",
         f"  sum of the parts ({parts}): max|M| = {U.show('moment', comparison.moment_peak_superposed)}",
-        f"  error of the sum:          {percent(-comparison.error)} of the exact value "
-        "(small near N = 0, large near Pcr1)",
+        f"  error of the sum:          {superposition_error(comparison)} (small near N = 0, large near Pcr1)",
     ]
 
 

@@ -104,15 +104,19 @@ def _planes(result):
 
 
 def _plane_reactions(solved, own, plane: int) -> list[SupportReaction]:
-    """One plane's reactions (:func:`support_reactions`), the couple of a restraint that leaves rotation
-    free set to its exact 0 (the engine's value there is rounding)."""
+    """One plane's reactions (:func:`support_reactions`), the couple of a restraint or an end that leaves
+    rotation free set to its exact 0 (the engine's value there is rounding)."""
     name = "first" if plane == 1 else "second"
     given = [r for r in getattr(solved.case, "restraints", ()) if r.plane in (name, "both")]
     out = []
+    ends = getattr(own, "case", None) or solved.case
     for r in support_reactions(own.reactions, solved.case.length, plane):
         inside = r.where == "inner" and r.index is not None and r.index < len(given)
         if inside and given[r.index].rotation == "free":
             r = dataclasses.replace(r, couple=0.0, rotation_restrained=False)
+        end = getattr(ends, r.where, None) if r.where in ("left", "right") else None
+        if end is not None and end.rotation == "free":  # a pin takes no couple: 0, not rounding (4.6e-15)
+            r = dataclasses.replace(r, couple=0.0)
         out.append(r)
     return out
 

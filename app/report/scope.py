@@ -13,8 +13,8 @@ from __future__ import annotations
 __all__ = ["GENERAL_CAUTION"]
 
 GENERAL_CAUTION = (
-    "Elastic, one member. Not checked: torsion, non-symmetric sections, patch "
-    "loading, connections, lateral-torsional buckling and class 4 where a caution says so. Load cases are "
-    "combined by EN 1990 (6.10)/(6.10a,b) or ASCE 7 rules; the factors and the choice of actions are yours. "
-    "Have them checked against your local codes by a licensed engineer."
+    "Elastic, one member. Not checked: torsion, non-symmetric sections, patch loading, connections; "
+    "lateral-torsional buckling and class 4 as the cautions say. Load cases are combined by EN 1990 "
+    "(6.10)/(6.10a,b) or ASCE 7 rules; the factors and the choice of actions are yours. Have them checked "
+    "against your local codes by a licensed engineer."
 )

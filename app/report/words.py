@@ -590,4 +590,6 @@ def caution_text(caution, U: Units | str = "si") -> str:
     if values.get("plane") == 2:
         # A two-plane case's caution about its second plane: the engine's message opens with the plane.
         text = f"Second plane (bending about the {values.get('axis', 'other')} axis): {text}"
+    if values.get("combination"):  # another combination's caution beside the one shown (engine.envelope)
+        text = f"{text} (combination {values['combination']})"
     return text

@@ -67,7 +67,12 @@ began to reduce the axial resistance as well (EN 1993-1-1 §6.2.10(3)): M000128,
 shear beside a moment, 588.9 → 589.3; no other row moved. Again at stop 35, when a timber, aluminium or
 custom-material member began to get the danger caution ``not-a-code-check``: TB-01 and 24 generated timber
 rows, only in their cautions column (the shear buckling of slender webs, the aisc route's shear, the stepped
-members' torsional term and the certified M_cr route moved no cell of either table). And a
+members' torsional term and the certified M_cr route moved no cell of either table). Again at stop 36,
+when two or more point loads began to take Table B.3's C_m = 1 instead of the one-load row's 0.9, and a
+preset's first-mode bow began to be solved as a half sine between the ends as well (the worse kept): 42
+generated rows, none of the example table's; every utilisation that moved rose and every capacity that moved
+fell (M000009 0.518 → 0.557, now eq. (6.62); M000030 1.164 → 1.301), three rows without a section in their
+peak values only (a half sine governing the moment). And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must

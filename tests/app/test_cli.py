@@ -21,10 +21,10 @@ REPO_ROOT = Path(__file__).resolve().parents[2]
 # The exact wording every summary must carry (project rule for the command line): the general caution, worded
 # once in app.report.scope.
 CAUTION = (
-    "Elastic, one member. Not checked: torsion, non-symmetric sections, patch "
-    "loading, connections, lateral-torsional buckling and class 4 where a caution says so. Load cases are "
-    "combined by EN 1990 (6.10)/(6.10a,b) or ASCE 7 rules; the factors and the choice of actions are yours. "
-    "Have them checked against your local codes by a licensed engineer."
+    "Elastic, one member. Not checked: torsion, non-symmetric sections, patch loading, connections; "
+    "lateral-torsional buckling and class 4 as the cautions say. Load cases are combined by EN 1990 "
+    "(6.10)/(6.10a,b) or ASCE 7 rules; the factors and the choice of actions are yours. Have them checked "
+    "against your local codes by a licensed engineer."
 )
 
 PCR1_LINE = re.compile(r"^\s*Pcr1 = ([0-9.eE+-]+) kN$", re.MULTILINE)

@@ -185,15 +185,20 @@ def test_an_ultimate_combination_keeps_its_own_warnings_and_the_general_caution(
 
 def test_the_exports_are_named_with_the_combination_shown(page):
     """The file names of U4's exports and of the governing U2's differ by the combination's name, and the
-    envelope's read "envelope"; a case without load cases gives no combination (its names are unchanged)."""
+    envelope's the governing one's, which they hold (named "envelope" they held U2, found by a new user); a
+    case without load cases gives no combination (its names are unchanged)."""
     names = {}
-    for choice, expected in (("U4", "U4"), ("", "U2"), ("U2", "U2"), ("envelope", "envelope")):
+    for choice, expected in (("U4", "U4"), ("", "U2"), ("U2", "U2"), ("envelope", "U2")):
         shown = _choose(page, choice)
         assert shown_combination(page.model) == expected
         names[choice] = export_filename(shown.case.title, shown.case.axial_force, "pdf", "si", expected)
         assert f"_{expected}_N" in names[choice]
-    assert names["U4"] != names[""] == names["U2"]
+    assert names["U4"] != names[""] == names["U2"] == names["envelope"]
+    _choose(page, "envelope")
+    assert page.files.blocked.visible
+    assert "the exports hold combination U2" in _flat(page.files.blocked.object)
     _choose(page, "")
+    assert not page.files.blocked.visible
     plain = MemberPage()
     assert plain.model.result.actions is None and shown_combination(plain.model) == ""
 
@@ -207,3 +212,13 @@ def test_the_page_names_its_downloads_with_the_combination_shown(page):
         assert page.files.pdf_button.filename == expected
     finally:
         _choose(page, "")
+
+
+def test_the_calc_sheet_gives_the_source_of_the_route_that_sets_the_utilisation(page):
+    """The demo's headline is eq. (6.62) of the EN equivalent member: the source under it is that route's
+    (§6.3.3, Annex B), not the second-order check's out-of-plane clauses (found by a new user)."""
+    shown = _choose(page, "")
+    text = _pdf(shown)
+    after = text.split("Utilisation", 1)[1]
+    source = after.split("source:", 1)[1][:160]
+    assert "§6.3.3" in source and "Annex B" in source, source

@@ -486,3 +486,24 @@ def test_case_json_round_trips(demo_case, springs):
     """The exported case file reads back as the same case (engine.Case.from_json)."""
     for case in (demo_case, springs.case):
         assert engine.Case.from_json(exports.case_json(case)) == case
+
+
+def test_the_csv_writes_a_rounded_zero_as_zero():
+    """M at the demo's pinned end is 0; the solution's rounding there (4.6e-15 kN·m) is written 0, as the
+    page shows it, while every value above 1e-12 of its column's largest is kept."""
+    import csv as _csv
+    import json as _json
+
+    from app import exports as _exports
+
+    data = _json.loads(resources.files("assets").joinpath("demo_wind_post_actions.json").read_text("utf-8"))
+    result = engine.solve(engine.Case.from_dict(data))
+    rows = [
+        r
+        for r in _csv.reader(_exports.csv_text(result).lstrip("\ufeff").splitlines())
+        if not r[0].startswith("#")
+    ]
+    header, body = rows[0], rows[1:]
+    m = header.index(next(h for h in header if h.startswith("M [")))
+    assert body[-1][m] == "0" and body[0][m] == "0"
+    assert all("e-1" not in cell for row in body for cell in row)

@@ -450,3 +450,15 @@ def test_readout_of_two_planes_takes_the_lower_plane():
     assert f"<b>{result.alpha_cr:.3f}</b>" in readout
     assert result.axial_force / lower == pytest.approx(1.0 / result.alpha_cr, rel=1e-12)
     assert page.force.pcr1 == pytest.approx(lower, rel=1e-12)
+
+
+def test_the_cautions_heading_counts_every_item_listed_in_the_plural(page):
+    """The heading's counts are those of the items listed (the general note included), "notes" past one."""
+    cautions = page.cautions
+    listed = re.findall(r"<li class='(\w+)'", cautions.list.object + cautions.general.object)
+    heading = re.sub(r"<[^>]+>", "", cautions.heading.object)
+    for level, word in (("danger", "danger"), ("warning", "warning"), ("info", "note")):
+        n = listed.count(level)
+        if n:
+            assert f"{n} {word}{'' if n == 1 else 's'}" in heading, (heading, listed)
+    assert listed.count("info") >= 2 and "notes" in heading

@@ -124,3 +124,18 @@ def test_every_caution_that_quotes_a_unit_is_reworded():
         text = caution_text(caution, US)
         assert " mm" not in text and " kN" not in text, caution.code
         assert not any(f" m{end}" in text for end in (" ", ",", ")")), caution.code
+
+
+def test_the_superposition_error_has_one_wording_with_its_side():
+    """The page printed "8.1 %" and the summary "−8.1%" for the same sum: one wording now says which side."""
+    from types import SimpleNamespace
+
+    from app.report.combinations import superposition_error
+
+    def of(error):
+        return superposition_error(SimpleNamespace(error=error))
+
+    assert of(0.081) == "8.1 % below the exact value (the unsafe side)"
+    assert of(-0.02) == "2.0 % above the exact value"
+    assert of(0.0) == "0.0 % (the sum equals the exact value)"
+    assert of(float("inf")) == "∞ (a critical load)"

@@ -75,11 +75,51 @@ def test_the_slider_scales_the_shown_combinations_axial_force_only(state):
     assert float(item.result.axial_force) == pytest.approx(1.5 * n0, rel=1e-12)
     assert item.case.loads == loads_before
     assert state.action_scale == pytest.approx(1.5)
-    assert "axial force of combination U3 only" in scale_sentence(state)
+    assert (
+        "N of combination U3 by one factor λ = 1.5 on every load case's axial force alone"
+        in scale_sentence(state)
+    )
     # The link changes only when the force settles, and then carries the scaled actions.
     assert json.loads(state.link)["actions"][0]["axial_force"] == 240e3
     state.settle()
     assert json.loads(state.link)["actions"][0]["axial_force"] == pytest.approx(360e3)
+
+
+def test_a_typed_force_stays_in_the_box_and_typing_back_restores_the_design_case(state):
+    """With the governing combination shown, a typed N near the critical load used to switch the governing
+    combination under it, so the box showed another combination's N (3279.4 kN typed read 3614.03, found by a
+    new user) and typing the design force back gave another case. The combination governing when N is typed
+    is named, so the box keeps the number and typing back restores the design values."""
+    headline = state.result.actions.headline
+    design_n, design_u = state.axial_force, float(state.result.utilization)
+    pcr = float(state.result.critical_loads[0])
+    for typed in (pcr, 0.9 * pcr, 3000e3):
+        state.axial_force = typed
+        state.settle()
+        assert state.combination_choice == headline
+        assert float(shown_result(state).axial_force) == pytest.approx(typed, rel=1e-12)
+        assert state.axial_force == pytest.approx(typed, rel=1e-12)
+    state.axial_force = design_n
+    state.settle()
+    assert float(shown_result(state).axial_force) == pytest.approx(design_n, rel=1e-12)
+    assert state.action_scale == pytest.approx(1.0, rel=1e-12)
+    assert float(shown_result(state).utilization) == pytest.approx(design_u, rel=1e-12)
+    assert state.result.actions.headline == headline
+
+
+def test_a_load_case_value_too_large_once_factored_is_named_as_typed(state):
+    """−1e12 N on G's point load lies inside a load's range (|P| <= 1e12 N) but not once U1 takes it at 1.35:
+    the error names the load case's field and the value typed, and the largest it may be (a new user was told
+    of "P: −1.350e+09 kN", the factored value under the engine's name)."""
+    from app.page.messages import page_message
+
+    actions = [dict(a) for a in state.actions]
+    actions[0]["loads"] = [dict(actions[0]["loads"][0], P=-1e12)]
+    state.actions = actions
+    message = state.errors["actions[0].loads[0].P"]
+    assert message.startswith("actions[0].loads[0].P: -1000000000000.0 N must be between -7.407e+11 N")
+    assert "combination U1 multiplies it by 1.35" in message
+    assert page_message(message).startswith("Load case 1, load 1, force F: -1000000000000.0 N")
 
 
 def test_the_slider_scales_the_whole_combination_by_one_load_factor(state):
@@ -93,7 +133,7 @@ def test_the_slider_scales_the_whole_combination_by_one_load_factor(state):
     assert float(item.result.axial_force) == pytest.approx(0.5 * n0, rel=1e-12)
     # First-order moments are linear in the loads: halved with them (statics, no source needed beyond it).
     assert float(item.result.first_order.governing.moment.magnitude) == pytest.approx(0.5 * m0, rel=1e-9)
-    assert "whole combination U1 by one load factor" in scale_sentence(state)
+    assert "N of combination U1 by one load factor" in scale_sentence(state)
 
 
 def test_a_combination_without_axial_force_refuses_the_slider_naming_why(state):
@@ -200,3 +240,22 @@ def test_a_slider_past_zero_is_refused_rather_than_reverse_the_load_cases(state)
     state.axial_force = 200e3  # back on the right side: accepted
     assert state.errors == {}
     assert float(chosen_item(state.result, "U1").result.axial_force) == pytest.approx(200e3)
+
+
+def test_another_combinations_cautions_name_it(mapping):
+    """Near the critical load several combinations raise the same kinds of danger with different numbers
+    (1.1 and 1 times the critical load, found by a new user side by side): each one copied from another
+    combination than the one shown names it, in the engine's message and in the page's wording."""
+    import engine
+    from app.report.words import caution_text
+
+    data = json.loads(json.dumps(mapping))
+    data["actions"][0]["axial_force"] = 2450e3  # U1 past its critical load, U2 near it
+    result = engine.solve(engine.Case.from_dict(data))
+    copied = [c for c in result.cautions if c.values.get("combination")]
+    assert copied
+    for caution in copied:
+        name = caution.values["combination"]
+        assert name != result.actions.headline
+        assert caution.message.endswith(f"(combination {name})")
+        assert caution_text(caution).endswith(f"(combination {name})")

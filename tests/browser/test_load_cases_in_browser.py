@@ -68,7 +68,8 @@ def test_load_cases_and_the_governing_combination_are_shown_and_not_covered(app)
     expect(picker).to_be_visible()
     assert _inside(picker.bounding_box())
     expect(page.locator(".ss-scale-mode")).to_contain_text(
-        f"The slider scales the axial force of combination {GOVERNING}"
+        f"The slider sets N of combination {GOVERNING} by one factor λ = 1 on every load case's axial "
+        "force alone"
     )
     tab(page, "Loads")
     first = page.locator(".ss-load-case input[placeholder='name']").first
@@ -107,7 +108,8 @@ def test_the_mode_switch_says_what_the_slider_scales(app):
     page = app.page
     page.get_by_role("button", name="whole combination (λ)").click()
     expect(page.locator(".ss-scale-mode")).to_contain_text(
-        f"scales the whole combination {GOVERNING} by one load factor"
+        f"sets N of combination {GOVERNING} by one load factor λ = 1 on every load case's loads and "
+        "axial force"
     )
 
 

@@ -321,3 +321,8 @@ def test_us_demo_column_solves():
     assert result.material.name == "ASTM A992"
     assert 0.0 < result.utilization < 1.0
     assert result.critical_loads[0] > case.axial_force
+    # A US member is checked by AISC 360-16: the aisc route alone counts (the EN routes are for comparison;
+    # a new user found the EN equivalent member as the US demo's headline).
+    counted = [route.route for route in result.routes if route.enabled]
+    assert counted == ["aisc"]
+    assert result.utilization == next(r.utilization for r in result.routes if r.route == "aisc")
