@@ -10,7 +10,7 @@ import numpy as np
 from engine import aisc_moments, member_routes
 from engine.amplification import approximations, braced
 from engine.biaxial import pair_check, worst_pair
-from engine.bow_variants import said, said_as, variants, worst_of
+from engine.bow_variants import choose, variants
 from engine.cautions import assess, merge_plane_cautions
 from engine.codes import alpha_cr_limit
 from engine.errors import CaseError
@@ -401,32 +401,37 @@ def strength_solve(case, stations: int = 401) -> Result:
     return _solve(case, prepare(case), check_stations(stations), details=False)
 
 
-def _solve(case, prep, n: int, details: bool = True) -> Result:
+def _solve(case, prep, n: int, details: bool = True, rank: str = "strength") -> Result:
     """:func:`solve` on a prepared case; ``details=False`` (the capacity finder) leaves out what does not
-    bear on the strength utilisation: the bow-free solve (service check, B1) and the favourable-bow check."""
+    bear on the strength utilisation: the bow-free solve (service check, B1) and the favourable-bow check.
+    ``rank="deflection"``: each plane's bow variant with the largest deflection (:func:`_solve_plane`)."""
     if case.second_plane is not None:
-        return _solve_pair(case, prep, n, details)
-    result, chosen, _, favourable = _solve_plane(case, prep, n, details)
+        return _solve_pair(case, prep, n, details, rank)
+    result, chosen, _, favourable = _solve_plane(case, prep, n, details, rank=rank)
     return _with_cautions(result, chosen, favourable=favourable)
 
 
-def _solve_plane(case, prep, n: int, details: bool, paired: bool = False, pick=None, unkept=None):
+def _solve_plane(
+    case, prep, n: int, details: bool, paired: bool = False, pick=None, unkept=None, rank="strength"
+):
     """One plane solved, without its cautions: ``(result, prepared member used, its raw solution,
     favourable)``, the member used being the variant of the bow that was kept.
 
     The bow is solved in each direction where its direction is automatic (and, with ``details``, the other
     direction where the case fixes it, to say whether it is favourable), and as a half sine between the ends
-    where a preset takes the first mode's shape (:attr:`engine.member.BowChoice.alternative`); the worse is
+    where a preset takes the first mode's shape (:attr:`engine.member.BowChoice.alternatives`); the worse is
     kept (:func:`_severity`). ``unkept`` (a list) receives the variants that could have been kept and were
     not, as ``(key, prepared member, raw solution)``, and ``pick`` (such a key) keeps that one instead: a
-    two-plane case keeps the pair worst for the check of both planes together (:func:`_solve_pair`)."""
+    two-plane case keeps the pair worst for the check of both planes together (:func:`_solve_pair`).
+    ``rank="deflection"`` (a service combination solved with its bow) keeps the variant with the largest
+    deflection among all those solved, whichever direction the case gives."""
     P = float(case.axial_force)
     raw = _raw(prep, n, P)
     status = raw[0]
     choice = prep.member.bow if prep.member is not None else None
     live = choice is not None and prep.has_bow and P != 0.0 and status != "critical"
     reverse = live and (choice.automatic or details)
-    shapes = live and choice.alternative is not None
+    shapes = len(choice.alternatives) if live else 0
     bow_free = free_raw = None
     # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
     aisc_solves = details or "aisc" in case.check.routes
@@ -453,31 +458,11 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False, pick=N
         )
         return result, prep, raw, False
     found = variants(prep, n, P, raw, free_raw, reverse, shapes)
-    severity = {key: _severity(case, p, P, r) for key, (p, r) in found.items()}
-    facts = tuple((said_as(found[key][0].member.bow, shapes), *severity[key]) for key in found)
-    if choice.automatic:
-        worst = worst_of(severity, tuple(found))
-        key = pick if pick is not None else worst
-        kept_fact = facts[tuple(found).index(key)]
-        rest = "; ".join(said(*f) for f in facts if f is not kept_fact)
-        how = "the worse of the two directions solved"
-        if shapes:
-            how = "the worse of the directions and shapes solved"
-        if key != worst:
-            how = "the worse for the check of both planes together"
-        text = f"{kept_fact[0]}: {how} ({said(*kept_fact)}; {rest})"
-        favourable = False
-        if unkept is not None:
-            unkept.extend((k, *found[k]) for k in found if k != key)
-    else:  # the direction the case fixes: the worse shape in it; favourable where the reversed one is worse
-        same = tuple(k for k in found if not k.endswith("reversed"))
-        key = worst_of(severity, same)
-        favourable = worst_of(severity, tuple(found)) not in same
-        kept_fact = facts[tuple(found).index(key)]
-        text = f"{choice.direction}, as the case fixes it" + (f" ({said(*kept_fact)})" if shapes else "")
-        if favourable:
-            reversed_fact = facts[tuple(found).index(worst_of(severity, tuple(found)))]
-            text += f" (the favourable way: reversed, {said(*reversed_fact)})"
+    if rank == "deflection":
+        severity = {key: _deflection_rank(r) for key, (p, r) in found.items()}
+    else:
+        severity = {key: _severity(case, p, P, r) for key, (p, r) in found.items()}
+    key, text, facts, favourable = choose(found, severity, choice, shapes, pick, unkept, rank)
     chosen_prep, chosen_raw = found[key]
     bow = dataclasses.replace(
         chosen_prep.member.bow, direction_governing=text, directions=facts, favourable=favourable
@@ -498,6 +483,14 @@ def _solve_plane(case, prep, n: int, details: bool, paired: bool = False, pick=N
         aisc_solves=aisc_solves,
     )
     return result, chosen_prep, chosen_raw, favourable
+
+
+def _deflection_rank(raw) -> tuple:
+    """What decides a service bow's variant: (max|w|, max|M|), +inf at a critical load."""
+    status, _, values, _ = raw[:4]
+    if status == "critical":
+        return math.inf, math.inf
+    return float(np.abs(values["w"]).max()), float(np.abs(values["M"]).max())
 
 
 def _free_peaks(raw) -> dict:
@@ -537,24 +530,28 @@ def _severity(case, prep, P, raw) -> tuple:
 _RANK = {"stable": 0, "unstable": 1, "critical": 2}
 
 
-def _solve_pair(case, prep, n: int, details: bool) -> Result:
+def _solve_pair(case, prep, n: int, details: bool, rank: str = "strength") -> Result:
     """A two-plane case: each plane solved as its own beam-column (uncoupled: doubly symmetric sections),
     the cross-section checked with N, M_y and M_z together, the status and α_cr the worse of the two planes,
     and the second plane's cautions merged into the first's."""
     P = float(case.axial_force)
     others = ([], [])
-    r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True, unkept=others[0])
+    r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True, unkept=others[0], rank=rank)
     derived = case.second_plane_case()
     with within("second_plane"):  # kept with the case's own (the second plane depends on nothing else)
         prep_two = prep.design("second_plane", lambda: prepare(derived))
-    r2, prep2, raw2, fav2 = _solve_plane(derived, prep_two, n, details, paired=True, unkept=others[1])
+    r2, prep2, raw2, fav2 = _solve_plane(
+        derived, prep_two, n, details, paired=True, unkept=others[1], rank=rank
+    )
     statuses = (r1.status, r2.status)
     check, utilization = None, None
     if "critical" in statuses:
         utilization = math.inf if r1.section is not None else None
     elif r1.section is not None and r1.material is not None:
         check = pair_check(case, P, ((r1, prep1, raw1), (r2, prep2, raw2)))
-        picks = worst_pair(case, P, check, (r1, prep1, raw1), (r2, prep2, raw2), others)
+        picks = (None, None)  # a service solve keeps each plane's largest deflection (planes uncoupled)
+        if rank == "strength":
+            picks = worst_pair(case, P, check, (r1, prep1, raw1), (r2, prep2, raw2), others)
         if picks[0] is not None:
             r1, prep1, raw1, fav1 = _solve_plane(case, prep, n, details, paired=True, pick=picks[0])
         if picks[1] is not None:

@@ -108,9 +108,10 @@ class BowChoice:
         or moment); only possible where the case fixes the direction.
     notes : tuple of str
         How the bow was adapted to the member (a shape replaced by the first mode).
-    alternative : BowChoice or None
+    alternatives : tuple of BowChoice
         Where a preset's bow takes the first mode's shape (not eq. (5.9)'s): the same e0 as a half sine
-        between the ends with the same sway, solved as well, the worse kept (:func:`resolve`).
+        between the ends with the same sway, pointing with the sway and (where there is a sway) against it,
+        solved as well, the worst kept (:func:`resolve`); empty otherwise.
     """
 
     shape: str
@@ -135,7 +136,7 @@ class BowChoice:
     notes: tuple = ()
     label_template: str = ""
     label_values: dict = dataclasses.field(default_factory=dict, compare=False, hash=False)
-    alternative: BowChoice | None = None
+    alternatives: tuple = ()
 
     @property
     def sway_slope(self) -> float:
@@ -324,6 +325,20 @@ def _orient(case, plain, EI, shape: str, amplitude: float, sway: float, anchor: 
         if not direction:
             direction = "+w" if (amplitude if amplitude != 0.0 else sway) >= 0 else "-w"
     return amplitude, sway, direction, opposes
+
+
+def _words(case, plain, EI, amplitude: float, sway: float, anchor: float) -> tuple:
+    """``(direction in words, opposes the loads)`` of a half-sine bow and its sway, signed as given."""
+    L = float(plain.length)
+    if case.loads:
+        trial = dataclasses.replace(plain, imperfection=Imperfection(shape="sine", amplitude=amplitude))
+        x = np.linspace(0.0, L, 201)
+        values = bow_for(trial, None, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
+        projection, w_scale = _first_order_projection(case, EI, values, x)
+        if w_scale > 0 and abs(projection) > 1e-12 * w_scale * float(np.abs(values).max()) * L:
+            against = projection < 0
+            return ("against" if against else "with") + " the loads' deflection", against
+    return ("+w" if amplitude >= 0 else "-w"), False
 
 
 def _first_order_projection(case, EI, shape_values, x):
@@ -527,37 +542,7 @@ def resolve(case):
     if sway_label:
         label += f"; {sway_label}"
     label_values["amplitude"] = abs(float(amplitude))
-    alternative = None
-    if reshaped and imp.preset != "en1993-eq-5.9":
-        # EN 1993-1-1 §5.3.2(3)'s own reading: the sway and a local bow e0 relative to the chord, a half sine
-        # between the member's ends. The first mode alone can carry little or no curvature (a rigid tilt on a
-        # spring: no moment at all, found unsafe by an independent check), so both are solved (module notes).
-        e0 = abs(float(amplitude))
-        sine_amp, sine_sway, sine_dir, sine_opp = _orient(case, plain, EI, "sine", e0, abs(sway), anchor)
-        sine_label = base_label + ", half sine between the ends" + (f"; {sway_label}" if sway_label else "")
-        alternative = BowChoice(
-            shape="sine",
-            amplitude=float(sine_amp),
-            label=si_label(sine_label, label_values),
-            label_template=sine_label,
-            label_values=label_values,
-            source=source,
-            curve=curve,
-            curve_reason=reason,
-            code_amplitude=code_amp,
-            code_label=code_label,
-            code_source=code_source,
-            opposes_load=sine_opp,
-            sway=float(sine_sway),
-            sway_anchor=float(anchor),
-            sway_label=si_label(sway_label, label_values),
-            sway_source=sway_source,
-            automatic=imp.preset is not None and imp.direction == "load",
-            direction=sine_dir,
-            notes=tuple(notes),
-        )
     bow = BowChoice(
-        alternative=alternative,
         shape=shape,
         amplitude=float(amplitude),
         label=si_label(label, label_values),
@@ -578,6 +563,31 @@ def resolve(case):
         direction=direction,
         notes=tuple(notes),
     )
+    if reshaped and imp.preset != "en1993-eq-5.9":
+        # EN 1993-1-1 §5.3.2(3): the sway and a local bow e0 relative to the chord (a half sine between the
+        # ends), each its unfavourable way. The first mode alone can carry no curvature (a rigid tilt on a
+        # spring: no moment, found unsafe by an independent check): the half sine is solved too, both ways.
+        sine_sway = _orient(case, plain, EI, "sine", abs(amplitude), abs(sway), anchor)
+        signs = (1.0, -1.0) if sine_sway[1] != 0.0 else (1.0,)
+        made = []
+        for sign in signs:
+            amp = sign * sine_sway[0]
+            words = _words(case, plain, EI, amp, sine_sway[1], anchor)
+            text = base_label + ", half sine between the ends" + ("" if sign > 0 else ", against the sway")
+            text += f"; {sway_label}" if sway_label else ""
+            made.append(
+                dataclasses.replace(
+                    bow,
+                    shape="sine",
+                    amplitude=float(amp),
+                    sway=float(sine_sway[1]),
+                    direction=words[0],
+                    opposes_load=words[1],
+                    label=si_label(text, label_values),
+                    label_template=text,
+                )
+            )
+        bow = dataclasses.replace(bow, alternatives=tuple(made))
     analysis_case = dataclasses.replace(
         plain, imperfection=Imperfection(shape=shape, amplitude=float(amplitude))
     )

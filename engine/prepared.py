@@ -104,8 +104,9 @@ class Prepared:
         return self.model.bow.shape != "none"
 
     def variant(self, kind: str) -> Prepared:
-        """The member with its bow reversed (``"reversed"``), as its half-sine reading (``"half_sine"``,
-        ``"half_sine_reversed"``: :attr:`engine.member.BowChoice.alternative`), without it (``"bow_free"``),
+        """The member with its bow reversed (``"reversed"``), as its half-sine readings (``"half_sine"``,
+        ``"half_sine_opposed"`` against the sway, each also ``..._reversed``:
+        :attr:`engine.member.BowChoice.alternatives`), without it (``"bow_free"``),
         or without it
         but out of plumb by φ (``"plumb<φ>"``, φ signed [rad], e.g. ``"plumb+0.002"``: the aisc route's M_r
         of a member with an end that can translate, AISC 360-16 §C2.2a), cached."""
@@ -114,11 +115,11 @@ class Prepared:
             choice = None
             member = self.member
             imperfection = Imperfection()
-            if kind in ("reversed", "half_sine", "half_sine_reversed"):
+            if kind == "reversed" or kind.startswith("half_sine"):
                 bow = self.member.bow
-                choice = bow.alternative if kind.startswith("half_sine") else bow
+                choice = bow if kind == "reversed" else bow.alternatives["opposed" in kind]
                 choice = choice.reversed() if kind.endswith("reversed") else choice
-                choice = dataclasses.replace(choice, alternative=None)
+                choice = dataclasses.replace(choice, alternatives=())
                 member = dataclasses.replace(self.member, bow=choice)
                 imperfection = Imperfection(shape=choice.shape, amplitude=choice.amplitude)
             elif kind.startswith("plumb"):

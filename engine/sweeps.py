@@ -33,7 +33,8 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
     """Governing values of ``case`` for many axial forces at once (the other loads as given).
 
     Where a code preset leaves the bow's direction automatic, both directions are swept and each value is the
-    worse of the two at each force.
+    worse of the two at each force; where a preset's bow takes the first mode's shape, the half sine between
+    the ends is swept too (:attr:`engine.member.BowChoice.alternatives`).
 
     Parameters
     ----------
@@ -56,8 +57,14 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
     prep = prepare(case)
     out, first, critical = _sweep_arrays(prep, P, n)
     choice = prep.member.bow if prep.member is not None else None
-    if choice is not None and choice.automatic and prep.has_bow:
-        other, _, _ = _sweep_arrays(prep.variant("reversed"), P, n)
+    kinds = []
+    if choice is not None and prep.has_bow:
+        kinds = ["reversed"] if choice.automatic else []
+        for k, _ in enumerate(choice.alternatives):  # the half sine between the ends beside the first mode
+            kind = "half_sine_opposed" if k else "half_sine"
+            kinds += [kind, kind + "_reversed"] if choice.automatic else [kind]
+    for kind in kinds:
+        other, _, _ = _sweep_arrays(prep.variant(kind), P, n)
         for key in ("deflection", "total_offset", "shear"):
             better = other[key][0] > out[key][0]
             out[key] = tuple(np.where(better, o, v) for o, v in zip(other[key], out[key], strict=True))
