@@ -12,7 +12,7 @@ from __future__ import annotations
 from engine.raw import raw as solve_raw
 from engine.raw import reversed_raw
 
-__all__ = ["ORDER", "choose", "said", "said_as", "variants", "worst_of"]
+__all__ = ["ORDER", "choose", "keys", "said", "said_as", "variants", "worst_of"]
 
 
 #: The variants' keys in the order they are solved and reported.
@@ -26,35 +26,43 @@ ORDER = (
 )
 
 
+def _base(kind: str) -> str:
+    """The variant a reversed one reverses (the kind itself for one that is not reversed)."""
+    return "forward" if kind == "reversed" else kind.removesuffix("_reversed")
+
+
+def keys(reverse: bool, shapes: int) -> tuple:
+    """The variants besides the bow as given, in the order of :data:`ORDER`: ``shapes`` half sines (with the
+    sway, and against it), and with ``reverse`` each one reversed too."""
+    made = ("forward", "half_sine", "half_sine_opposed")[: 1 + shapes]
+    return tuple(k for k in ORDER[1:] if _base(k) in made and (reverse or k == _base(k)))
+
+
 def variants(prep, n, P, raw, free_raw, reverse: bool, shapes: int) -> dict:
     """The bow's variants solved, ``{key: (prepared member, raw solution)}`` in the order of :data:`ORDER`
     (those asked: ``shapes`` half sines, with the sway and against it). A reversed one comes by linearity
     where the bow-free solution is at hand: 2 × (bow-free) − (forward), no further solve."""
     found = {"forward": (prep, raw)}
-    pairs = [("forward", "reversed")] if reverse else []
-    for k in range(shapes):
-        kind = "half_sine_opposed" if k else "half_sine"
-        half = prep.variant(kind)
-        found[kind] = (half, solve_raw(half, n, P))
-        if reverse:
-            pairs.append((kind, kind + "_reversed"))
-    for base, kind in pairs:
-        base_prep, base_raw = found[base]
+    for kind in keys(reverse, shapes):  # a reversed one after the one it reverses
         other_prep = prep.variant(kind)
+        if kind == _base(kind):
+            found[kind] = (other_prep, solve_raw(other_prep, n, P))
+            continue
+        base_prep, base_raw = found[_base(kind)]
         other = None
         if free_raw is not None:
             other = reversed_raw(other_prep, n, P, base_raw, free_raw, (base_prep, prep.variant("bow_free")))
         if other is None:
             other = solve_raw(other_prep, n, P)
         found[kind] = (other_prep, other)
-    return {key: found[key] for key in ORDER if key in found}
+    return found
 
 
-def worst_of(severity: dict, keys: tuple) -> str:
-    """The key of the worst variant among ``keys``: the larger first value (the strength utilisation, or a
-    deflection; within 1e-9 a tie), then the larger second (max|M|); the first on a full tie."""
-    best = keys[0]
-    for key in keys[1:]:
+def worst_of(severity: dict, among: tuple) -> str:
+    """The key of the worst variant ``among`` those given: the larger first value (the strength utilisation,
+    or a deflection; within 1e-9 a tie), then the larger second (max|M|); the first on a full tie."""
+    best = among[0]
+    for key in among[1:]:
         a, b = severity[best], severity[key]
         sa, sb = (-1.0 if a[0] is None else a[0]), (-1.0 if b[0] is None else b[0])
         tol = 1e-9 * max(1.0, abs(sa))

@@ -20,13 +20,11 @@ from engine import analysis
 from engine.actions import scaled
 from engine.combinations import Combination
 from engine.inputs import Imperfection
-from engine.prepared import prepare
 
 __all__ = [
     "SERVICE_BASIS",
     "combination_case",
     "reversals",
-    "service_plan",
     "service_result",
     "solve_service",
 ]
@@ -95,14 +93,6 @@ def reversals(case) -> tuple:
     return tuple(signs[1:])
 
 
-def service_plan(case, combination) -> tuple:
-    """``(derived case, prepared, ())`` of a service combination (the same form as an ultimate one's plan,
-    with no reversed cases: with ``service_bow`` every variant of each plane's bow is solved inside one solve,
-    :func:`solve_service`)."""
-    derived = combination_case(case, combination)
-    return derived, prepare(derived), ()
-
-
 def _service_with_bow(result):
     """The deflection check on w with the bow (``combinations.service_bow``)."""
     if result.service is None or result.status == "critical":
@@ -151,9 +141,10 @@ def solve_service(plan, n: int, service_bow: bool) -> tuple:
     with the larger deflection: the deflection check's unfavourable bow, chosen on the deflection itself
     (the strength check's choice can be the other; the planes are uncoupled)."""
     derived, prep, _ = plan
-    if not service_bow or derived.axial_force == 0.0:
-        return derived, service_result(analysis._solve(derived, prep, n), service_bow), (False, False)
-    result = service_result(analysis._solve(derived, prep, n, rank="deflection"), service_bow)
+    rank = "deflection" if service_bow else "strength"  # without the bow there is nothing to choose
+    result = service_result(analysis._solve(derived, prep, n, rank=rank), service_bow)
+    if not service_bow:
+        return derived, result, (False, False)
     first = _reversed(derived.imperfection, result.bow)
     plane = derived.second_plane
     second = plane is not None and _reversed(plane.imperfection, result.second_plane.bow)

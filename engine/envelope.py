@@ -26,7 +26,7 @@ import numpy as np
 
 from engine import analysis
 from engine.cautions import GENERAL
-from engine.combination_cases import combination_case, reversals, service_plan, solve_service
+from engine.combination_cases import combination_case, reversals, solve_service
 from engine.combinations import Combination, combine
 from engine.prepared import prepare
 
@@ -232,12 +232,10 @@ def _plan(case) -> tuple:
         rows = []
         kinds = reversals(case)
         for combination in combos:
-            if combination.state == "service":  # its bow both ways only with service_bow
-                rows.append(service_plan(case, combination))
-                continue
             derived = combination_case(case, combination)
             others = []
-            for first, second in kinds:
+            # a service one's bow variants are solved inside its one solve (combination_cases.solve_service)
+            for first, second in kinds if combination.state == "ultimate" else ():
                 other = combination_case(
                     case,
                     combination,

@@ -280,47 +280,37 @@ def _plain(case, EI):
     )
 
 
-#: The note's end where a preset's first-mode bow has the half-sine reading beside it (not eq. (5.9)'s).
-_ALSO_SINE = {
-    preset: "; the same e0 as a half sine between the ends, with the sway (EN 1993-1-1 §5.3.2(3): a local "
-    "bow relative to the chord), is solved as well and the worse kept."
-    for preset in ("en1993-table-5.1", "aisc-l/1000", "span")
-}
+#: The note's end where a preset's first-mode bow has the half-sine readings beside it (not eq. (5.9)'s).
+_ALSO_SINE = (
+    "; the same e0 as a half sine between the ends, with the same sway, pointing with it and against it "
+    "(EN 1993-1-1 §5.3.2(3): a local bow relative to the chord), is solved as well and the worst kept."
+)
+
+
+def _also_sine(preset: str) -> str:
+    return "." if preset == "en1993-eq-5.9" else _ALSO_SINE
 
 
 def _orient(case, plain, EI, shape: str, amplitude: float, sway: float, anchor: float) -> tuple:
     """``(amplitude, sway, direction in words, opposes the loads)`` of a bow and its sway, signed as the case
     asks: a preset with direction ``"load"`` pointing with the loads' first-order deflection (the projection
     of that deflection on bow + sway), ``"negative"`` reversed; a bow given by shape keeps its sign."""
-    imp, L = case.imperfection, float(plain.length)
+    imp = case.imperfection
     direction = "+w"
     opposes = False
     if (shape != "none" and amplitude != 0.0) or sway != 0.0:
         factor = 1.0 if imp.preset is None or imp.direction != "negative" else -1.0
         if imp.preset is not None:
             amplitude = abs(amplitude)
-        if case.loads:
-            # The sign of the projection of the loads' first-order deflection on bow + sway says which way
-            # is "with the loads" (the real sizes of both parts, the bow's sign as the case gives it).
-            trial = dataclasses.replace(
-                plain,
-                imperfection=Imperfection(shape=shape, amplitude=amplitude)
-                if shape != "none" and amplitude != 0.0
-                else Imperfection(),
-            )
-            buckling = critical_loads(trial, 1) if trial.imperfection.shape == "mode" else None
-            x = np.linspace(0.0, L, 201)
-            values = bow_for(trial, buckling, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
-            projection, w_scale = _first_order_projection(case, EI, values, x)
-            if w_scale > 0 and abs(projection) > 1e-12 * w_scale * float(np.abs(values).max()) * L:
-                if imp.preset is not None and imp.direction == "load":
-                    factor = math.copysign(1.0, projection)
-                opposes = projection * factor < 0
-                direction = "against the loads' deflection" if opposes else "with the loads' deflection"
-            else:
-                direction = ""
-        else:
-            direction = ""
+        # The sign of the projection of the loads' first-order deflection on bow + sway says which way is
+        # "with the loads" (the real sizes of both parts, the bow's sign as the case gives it).
+        projection = _projection(case, plain, EI, shape, amplitude, sway, anchor)
+        direction = ""
+        if projection:
+            if imp.preset is not None and imp.direction == "load":
+                factor = math.copysign(1.0, projection)
+            opposes = projection * factor < 0
+            direction = "against the loads' deflection" if opposes else "with the loads' deflection"
         amplitude, sway = amplitude * factor, sway * factor
         if not direction:
             direction = "+w" if (amplitude if amplitude != 0.0 else sway) >= 0 else "-w"
@@ -329,16 +319,28 @@ def _orient(case, plain, EI, shape: str, amplitude: float, sway: float, anchor: 
 
 def _words(case, plain, EI, amplitude: float, sway: float, anchor: float) -> tuple:
     """``(direction in words, opposes the loads)`` of a half-sine bow and its sway, signed as given."""
-    L = float(plain.length)
-    if case.loads:
-        trial = dataclasses.replace(plain, imperfection=Imperfection(shape="sine", amplitude=amplitude))
-        x = np.linspace(0.0, L, 201)
-        values = bow_for(trial, None, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
-        projection, w_scale = _first_order_projection(case, EI, values, x)
-        if w_scale > 0 and abs(projection) > 1e-12 * w_scale * float(np.abs(values).max()) * L:
-            against = projection < 0
-            return ("against" if against else "with") + " the loads' deflection", against
+    projection = _projection(case, plain, EI, "sine", amplitude, sway, anchor)
+    if projection:
+        against = projection < 0
+        return ("against" if against else "with") + " the loads' deflection", against
     return ("+w" if amplitude >= 0 else "-w"), False
+
+
+def _projection(case, plain, EI, shape: str, amplitude: float, sway: float, anchor: float) -> float:
+    """∫ w1 · (bow + sway) dx of the loads' first-order deflection, or 0.0 where it says nothing (no loads,
+    or a projection at the rounding level)."""
+    if not case.loads:
+        return 0.0
+    L = float(plain.length)
+    bow = Imperfection(shape=shape, amplitude=amplitude) if shape != "none" and amplitude != 0.0 else None
+    trial = dataclasses.replace(plain, imperfection=bow or Imperfection())
+    buckling = critical_loads(trial, 1) if shape == "mode" and bow is not None else None
+    x = np.linspace(0.0, L, 201)
+    values = bow_for(trial, buckling, sway if anchor == 0.0 else -sway, anchor).derivatives(x)[0]
+    projection, w_scale = _first_order_projection(case, EI, values, x)
+    if w_scale > 0 and abs(projection) > 1e-12 * w_scale * float(np.abs(values).max()) * L:
+        return projection
+    return 0.0
 
 
 def _first_order_projection(case, EI, shape_values, x):
@@ -508,7 +510,7 @@ def resolve(case):
         notes.append(
             f"The {shape} bow between the ends does not fit a member with intermediate restraints or a "
             "foundation: the bow takes the shape of the member's first buckling mode, with the amplitude "
-            "of the whole member (EN 1993-1-1 §5.3.2(11), from memory)" + _ALSO_SINE.get(imp.preset, ".")
+            "of the whole member (EN 1993-1-1 §5.3.2(11), from memory)" + _also_sine(imp.preset)
         )
         shape, reshaped = "mode", True
     if imp.preset is not None and can_sway(plain):
@@ -516,7 +518,7 @@ def resolve(case):
             notes.append(
                 f"The {shape} bow between the ends does not fit a member with an end that can "
                 "translate: the bow takes the shape of the member's first buckling mode instead "
-                "(EN 1993-1-1 §5.3.2(11), from memory)" + _ALSO_SINE.get(imp.preset, ".")
+                "(EN 1993-1-1 §5.3.2(11), from memory)" + _also_sine(imp.preset)
             )
             shape, reshaped = "mode", True
         if imp.preset != "en1993-eq-5.9" and shape != "sway":  # a sway shape is a sway already

@@ -106,8 +106,7 @@ class Prepared:
     def variant(self, kind: str) -> Prepared:
         """The member with its bow reversed (``"reversed"``), as its half-sine readings (``"half_sine"``,
         ``"half_sine_opposed"`` against the sway, each also ``..._reversed``:
-        :attr:`engine.member.BowChoice.alternatives`), without it (``"bow_free"``),
-        or without it
+        :attr:`engine.member.BowChoice.alternatives`), without it (``"bow_free"``), or without it
         but out of plumb by φ (``"plumb<φ>"``, φ signed [rad], e.g. ``"plumb+0.002"``: the aisc route's M_r
         of a member with an end that can translate, AISC 360-16 §C2.2a), cached."""
         hit = self._variants.get(kind)

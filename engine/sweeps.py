@@ -7,6 +7,7 @@ import math
 
 import numpy as np
 
+from engine import bow_variants
 from engine.analysis import CRITICAL_TOLERANCE, check_stations, solve
 from engine.errors import CaseError
 from engine.prepared import prepare
@@ -57,12 +58,9 @@ def sweep(case, axial_forces, stations: int = 101) -> SweepResult:
     prep = prepare(case)
     out, first, critical = _sweep_arrays(prep, P, n)
     choice = prep.member.bow if prep.member is not None else None
-    kinds = []
-    if choice is not None and prep.has_bow:
-        kinds = ["reversed"] if choice.automatic else []
-        for k, _ in enumerate(choice.alternatives):  # the half sine between the ends beside the first mode
-            kind = "half_sine_opposed" if k else "half_sine"
-            kinds += [kind, kind + "_reversed"] if choice.automatic else [kind]
+    kinds = ()
+    if choice is not None and prep.has_bow:  # the half sines between the ends beside a first-mode bow too
+        kinds = bow_variants.keys(choice.automatic, len(choice.alternatives))
     for kind in kinds:
         other, _, _ = _sweep_arrays(prep.variant(kind), P, n)
         for key in ("deflection", "total_offset", "shear"):

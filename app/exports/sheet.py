@@ -42,6 +42,7 @@ from app.report import (
     finite,
     general_caution,
     governing_rows,
+    headline_route,
     load_ratio_text,
     load_text,
     material_text,
@@ -258,11 +259,9 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         item("Utilisation", utilisation_text(result, U), weight="bold")
         # the source of what sets the headline: another route's where it governs (eq. (6.62) was followed by
         # the second-order check's source, found by a new user)
-        applied = [r for r in getattr(result, "routes", ()) if r.enabled and r.utilization is not None]
-        top = max(applied, key=lambda r: r.utilization) if applied else None
-        source = (
-            top.source if top is not None and top.route != "second-order" and top.source else check.source
-        )
+        top = headline_route(result)
+        other = top is not None and top.route != "second-order" and top.source
+        source = top.source if other else check.source
         item("", f"source: {source_text(source, U)}", scale=0.85, color=_GREY)
         item("Strength alone", f"{ratio(check.strength_utilization)} ({check.strength_kind})")
         out = check.out_of_plane
