@@ -170,6 +170,15 @@ def _batch(args) -> int:
                 f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {value:.4g} "
                 f"[{terminal(basis)}]"
             )
+    if summary.danger:
+        count, listed = summary.danger_count, len(summary.danger)
+        lines.append(
+            f"failing by a danger caution with a utilisation of at most 1 ({count} member"
+            f"{'s' if count != 1 else ''}{f', the first {listed}' if listed < count else ''}"
+            "; its cautions cell lists it):"
+        )
+        for row, identifier, code in summary.danger:
+            lines.append(f"  row {row}{f' ({terminal(identifier)})' if identifier else ''}: {terminal(code)}")
     for line in summary.retried:
         lines.append(f"retried: {terminal(line)}")
     if summary.errors:

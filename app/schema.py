@@ -399,6 +399,9 @@ def _build() -> dict[str, Any]:
                     "E": _number("Young's modulus [Pa], > 0", exclusiveMinimum=0),
                     "fy": _number("Yield (or bending) strength [Pa], > 0", exclusiveMinimum=0),
                     "f_c": _number("Compressive strength [Pa], > 0; default fy", exclusiveMinimum=0),
+                    "f_t": _number(
+                        "Tension strength [Pa] of the stress check, > 0; default f_c", exclusiveMinimum=0
+                    ),
                     "density": _number("Density [kg/m³], >= 0; default 7850 (steel)", minimum=0),
                     "G": _number("Shear modulus [Pa], > 0", exclusiveMinimum=0),
                     "E_05": _number("5 % fractile of E [Pa] (timber), > 0", exclusiveMinimum=0),

@@ -367,7 +367,8 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
                     outputs.update(self._chart_outputs(case, result))
                 else:
                     outputs.update(sweep=None, approximation=None, chart_note="computing the chart …")
-                    self._runner.chart(partial(_chart_job, self, case, key, result.critical_loads))
+                    both = getattr(result, "actions", None) is not None  # a shaped bow both ways, as solved
+                    self._runner.chart(partial(_chart_job, self, case, key, result.critical_loads, both))
         if self.actions:
             self._mirror_force(result)
         with param.edit_constant(self):
@@ -404,7 +405,8 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
             outputs["chart_note"] = ""
         if case.section is not None and case.material is not None:
             try:
-                outputs.update(capacity=engine.capacity(case), capacity_note="")
+                found = engine.capacity(case, bow_both_ways=getattr(result, "actions", None) is not None)
+                outputs.update(capacity=found, capacity_note="")
             except Exception as error:
                 outputs.update(capacity=None, capacity_note=str(error))
         else:
@@ -461,14 +463,13 @@ def _solve_job(state: MemberState, case, refresh_id: int, full: bool):
     return partial(state._solved, case, full, *solve_outcome(case, state.stations), refresh_id)
 
 
-def _chart_job(state: MemberState, case, key: str, critical_loads):
+def _chart_job(state: MemberState, case, key: str, critical_loads, both_ways: bool = False):
     """Off the event loop: the chart outputs from the worker process, or a note when over the budget."""
     from app import work
 
     try:
-        outputs = work.run_in_worker(
-            "chart", work.chart_job, (case.to_json(), chart_forces(critical_loads)), work.CHART_BUDGET
-        )
+        job = (case.to_json(), chart_forces(critical_loads), both_ways)
+        outputs = work.run_in_worker("chart", work.chart_job, job, work.CHART_BUDGET)
     except work.BudgetExceeded:
         _log.warning("strutscope: a chart was not computed: over its budget of %g s", work.CHART_BUDGET)
         note = f"the amplification chart takes longer than the server's budget of {work.CHART_BUDGET:g} s"

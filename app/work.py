@@ -180,8 +180,9 @@ def probe_solve(case_text: str, stations: int) -> float:
     return time.perf_counter() - start
 
 
-def chart_job(case_text: str, forces) -> dict:
-    """The sweep over `forces` and the capacity of a case (JSON text), as picklable outputs. In the worker."""
+def chart_job(case_text: str, forces, both_ways: bool = False) -> dict:
+    """The sweep over `forces` and the capacity of a case (JSON text), as picklable outputs (``both_ways``:
+    the governing combination of a case with load cases, its shaped bow tried both ways). In the worker."""
     import engine
 
     case = engine.Case.from_json(case_text)
@@ -197,7 +198,7 @@ def chart_job(case_text: str, forces) -> dict:
         )
     if case.section is not None and case.material is not None:
         try:
-            outputs.update(capacity=engine.capacity(case), capacity_note="")
+            outputs.update(capacity=engine.capacity(case, bow_both_ways=both_ways), capacity_note="")
         except Exception as error:  # noqa: BLE001 - shown as the capacity's note
             outputs.update(capacity=None, capacity_note=str(error))
     else:

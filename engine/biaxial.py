@@ -67,6 +67,7 @@ __all__ = [
     "check_biaxial",
     "exponents",
     "moment_factor",
+    "pair_bound",
     "pair_check",
     "pair_stations",
     "plane_at",
@@ -189,6 +190,7 @@ def check_biaxial(
     axis: str = "major",
     axial_bending_only: bool = False,
     in_plane_bound: float | None = None,
+    lowest_exponents: bool = False,
 ) -> MemberCheck | np.ndarray:
     """The two-plane cross-section check at every combined station.
 
@@ -224,6 +226,10 @@ def check_biaxial(
     in_plane_bound : float or None
         The largest N/Pcr1 of the planes analysed without a bow (as :func:`engine.checks.check_member`):
         it counts as a bound.
+    lowest_exponents : bool
+        The plastic check's α and β at the n without any shear reduction, the smallest they can be (they
+        grow with n, and the factor s falls as they grow): with the largest |M| and |V| of each plane at one
+        point this bounds the check from above (:func:`pair_bound`).
 
     Returns
     -------
@@ -235,7 +241,7 @@ def check_biaxial(
     N = abs(float(axial_force))
     My, Mz = np.abs(np.asarray(moment_y, dtype=float)), np.abs(np.asarray(moment_z, dtype=float))
     Vz, Vy = np.abs(np.asarray(shear_z, dtype=float)), np.abs(np.asarray(shear_y, dtype=float))
-    fy, fc = material.fy, material.f_c
+    fy, fc = material.fy, material.axial_strength(axial_force)  # f_t in tension where known (timber)
     shape = section_y.shape
     method, notes = method_used(settings.method, shape, material, section_class, _PLASTIC_SHAPES)
     klass = section_class.klass if section_class is not None else None
@@ -263,9 +269,10 @@ def check_biaxial(
             ab = n + np.where(bending > 0, bending / (1.0 - rho), 0.0)  # ρ = 1: no moment resistance
             kind_ab = ELASTIC_KIND
         else:
-            N_Rd = area * fy / g0
+            fa = min(fy, fc)  # the plastic axial resistance: f_y, or a material's lower f_c or f_t
+            N_Rd = area * fa / g0
             M_Rd_y, M_Rd_z = section_y.W_pl * fy / g0, section_z.W_pl * fy / g0
-            n = axial_ratio(N, kept * fy / g0)
+            n = axial_ratio(N, kept * fa / g0)
             n_1 = np.minimum(n, 1.0)
             reduced_y = plastic_interaction(shape=shape, axis="major", n=n_1, a=section_y.interaction_a)
             reduced_z = plastic_interaction(shape=shape, axis="minor", n=n_1, a=section_z.interaction_a)
@@ -274,6 +281,8 @@ def check_biaxial(
             a = np.where(My > 0, My / cap_y, 0.0)
             b = np.where(Mz > 0, Mz / cap_z, 0.0)
             a, b = np.where(np.isnan(a), np.inf, a), np.where(np.isnan(b), np.inf, b)
+            if lowest_exponents:  # n without the shear reduction: the least n, so the least α and β
+                n_1 = np.minimum(axial_ratio(N, area * fa / g0), 1.0)
             alpha, beta = exponents(shape, n_1)
             ab = np.maximum(n, moment_factor(a, b, alpha, beta))
             kind_ab = PLASTIC_KIND
@@ -438,20 +447,7 @@ def pair_check(case, P, planes):
         m_b, v_b = _evaluate(raw2, prep2, xs)
         return arranged(xs, m_a, v_a, m_b, v_b)
 
-    s1, s2 = prep1.member.section, prep2.member.section
-    # both planes are analysed: the web is in bending and compression in either view; y first (the moduli)
-    c1, c2 = prep1.section_class(P, True), prep2.section_class(P, True)
-    classes = [c1, c2] if major_first else [c2, c1]  # one section: both views are classified, or neither
-    presets = (case.imperfection.preset, case.second_plane_case().imperfection.preset)
-    fixed = {
-        "axial_force": P,
-        "section_y": s1 if major_first else s2,
-        "section_z": s2 if major_first else s1,
-        "material": prep1.member.material,
-        "settings": case.check,
-        "section_class": None if None in classes else worse_class(classes),
-        "eq_5_9": "en1993-eq-5.9" in presets,
-    }
+    fixed = _fixed(case, P, prep1, prep2)
 
     def measure(columns):
         x, m_y, m_z, v_z, v_y = columns
@@ -466,19 +462,78 @@ def pair_check(case, P, planes):
         order = np.argsort(merged[0], kind="stable")
         columns = tuple(c[order] for c in merged)
     x, m_y, m_z, v_z, v_y = columns
-    bounds = [b for b in (prep1.elastic_bound(P), prep2.elastic_bound(P)) if b is not None]
     return check_biaxial(
-        in_plane_bound=max(bounds) if bounds else None,
-        x=x,
-        moment_y=m_y,
-        moment_z=m_z,
-        shear_z=v_z,
-        shear_y=v_y,
-        beyond_critical="unstable" in (r1.status, r2.status),
-        service=r1.service,
-        axis=case.axis,
-        **fixed,
+        x=x, moment_y=m_y, moment_z=m_z, shear_z=v_z, shear_y=v_y, **fixed, **_whole(case, P, planes)
     )
+
+
+def _fixed(case, P, prep1, prep2) -> dict:
+    """The arguments of :func:`check_biaxial` that are the same at every station of a pair of planes."""
+    major_first = case.axis == "major"
+    s1, s2 = prep1.member.section, prep2.member.section
+    # both planes are analysed: the web is in bending and compression in either view; y first (the moduli)
+    c1, c2 = prep1.section_class(P, True), prep2.section_class(P, True)
+    classes = [c1, c2] if major_first else [c2, c1]  # one section: both views are classified, or neither
+    presets = (case.imperfection.preset, case.second_plane_case().imperfection.preset)
+    return {
+        "axial_force": P,
+        "section_y": s1 if major_first else s2,
+        "section_z": s2 if major_first else s1,
+        "material": prep1.member.material,
+        "settings": case.check,
+        "section_class": None if None in classes else worse_class(classes),
+        "eq_5_9": "en1993-eq-5.9" in presets,
+    }
+
+
+def _whole(case, P, planes) -> dict:
+    """The arguments of :func:`check_biaxial` for the whole member's check (not for the search between
+    stations): the in-plane bound, whether a plane is beyond its critical load, the service check and the
+    axis."""
+    (r1, prep1, _), (r2, prep2, _) = planes
+    bounds = [b for b in (prep1.elastic_bound(P), prep2.elastic_bound(P)) if b is not None]
+    return {
+        "in_plane_bound": max(bounds) if bounds else None,
+        "beyond_critical": "unstable" in (r1.status, r2.status),
+        "service": r1.service,
+        "axis": case.axis,
+    }
+
+
+#: The margin on each plane's largest |M| and |V| in :func:`pair_bound`: their peaks are stations, found to
+#: rounding (engine.solver.peaks), and the check grows with each, so a bound a little high stays a bound.
+_BOUND_MARGIN = 1e-7
+
+
+def pair_bound(case, P, planes) -> float:
+    """An upper bound of ``pair_check(case, P, planes).utilization``, for a fraction of its cost.
+
+    The check at one point with each plane's largest |M| and |V| (each plane's exact peaks are among its
+    stations) and the plastic exponents at their smallest (``lowest_exponents``). At every point of the
+    member each term of :func:`check_biaxial` is then at least as large: n and the elastic sum grow with
+    |M| and |V| (§6.2.8's ρ takes area and moment resistance away), the plastic factor s grows with each
+    ratio M/M_N,Rd and falls as α and β grow (:func:`moment_factor`, both terms below 1 at the root), the
+    shear and eq. (5.9) terms are linear; the in-plane bound, the class-4 refusal and the critical status
+    are the pair's own [derived]. ``tests/engine/test_bow_pair.py`` checks it against the full check."""
+    (_, _, raw1), (_, _, raw2) = planes
+    peaks = []
+    for raw in (raw1, raw2):
+        values = raw[2]
+        for name in ("M", "V"):
+            peaks.append(np.array([float(np.max(np.abs(values[name]))) * (1.0 + _BOUND_MARGIN)]))
+    m_a, v_a, m_b, v_b = peaks
+    if case.axis == "major":
+        columns = {"moment_y": m_a, "moment_z": m_b, "shear_z": v_a, "shear_y": v_b}
+    else:
+        columns = {"moment_y": m_b, "moment_z": m_a, "shear_z": v_b, "shear_y": v_a}
+    prep1, prep2 = planes[0][1], planes[1][1]
+    return check_biaxial(
+        x=np.zeros(1),
+        lowest_exponents=True,
+        **columns,
+        **_fixed(case, P, prep1, prep2),
+        **_whole(case, P, planes),
+    ).utilization
 
 
 def worst_pair(case, P, check, first, second, others) -> tuple:
@@ -496,7 +551,12 @@ def worst_pair(case, P, check, first, second, others) -> tuple:
         for b in options[1]:
             if a[0] is None and b[0] is None:
                 continue
-            trial = pair_check(case, P, ((r1, *a[1:]), (r2, *b[1:])))
+            pair = ((r1, *a[1:]), (r2, *b[1:]))
+            # A pair whose bound cannot replace the worst is not checked in full (the same pick either way;
+            # a NaN bound is checked).
+            if pair_bound(case, P, pair) <= worst + 1e-9 * max(1.0, abs(worst)):
+                continue
+            trial = pair_check(case, P, pair)
             if trial.utilization > worst + 1e-9 * max(1.0, abs(worst)):
                 worst, picks = trial.utilization, (a[0], b[0])
     return picks

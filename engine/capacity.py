@@ -32,12 +32,14 @@ import numpy as np
 from engine.analysis import _solve, check_stations, solve
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.classification import classify_at
+from engine.combination_cases import combination_bow_reversed, reversals
 from engine.errors import CaseError
 from engine.member_routes import LTB_ELASTIC, headline
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.prepared import prepare
 from engine.roots import brentq
+from engine.sway_buckling import TERM as SWAY
 from engine.torsional_buckling import TERM as TORSIONAL
 
 __all__ = ["Capacity", "capacity"]
@@ -93,7 +95,7 @@ _MAX_AXIAL_FORCE = 1e12
 
 
 #: The second-order route's terms that the member check (``result.check``) does not hold.
-_ROUTE_ONLY_TERMS = ("lateral-torsional", INTERACTION, LTB_ELASTIC, TORSIONAL)
+_ROUTE_ONLY_TERMS = ("lateral-torsional", INTERACTION, LTB_ELASTIC, TORSIONAL, SWAY)
 
 
 def _at_force(case, force: float):
@@ -136,7 +138,7 @@ def _scaled_loads(loads, factor) -> tuple:
     return tuple(out)
 
 
-def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
+def capacity(case, mode: str = "axial", stations: int = 201, bow_both_ways: bool = False) -> Capacity:
     """The largest axial compression at which the governing strength utilisation reaches 1.
 
     Parameters
@@ -147,11 +149,24 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         Grow the axial force alone, or all loads by one factor.
     stations : int
         Stations of each trial solve (the peaks are exact whatever the number).
+    bow_both_ways : bool
+        Try a bow given by shape and amplitude pointing both ways (in each plane) and keep the lowest
+        capacity: for the governing combination of a case with load cases (``result.case``), whose every
+        ultimate combination is solved with such a bow both ways (:func:`engine.combination_cases.reversals`).
+        The combination keeps the way worse at its own axial force, which can be the better one in
+        compression (a combination in tension keeps the bow reversed). A preset's direction is automatic and
+        tried both ways anyway.
 
     Returns
     -------
     Capacity
     """
+    if bow_both_ways:
+        found = [capacity(case, mode, stations)]
+        for first, second in reversals(case):
+            other = combination_bow_reversed(case, first, second)
+            found.append(capacity(other, mode, stations))
+        return min(found, key=lambda item: item.axial_force)  # the first of equal ones
     if mode not in MODES:
         raise CaseError(f"mode: {mode!r} is not a capacity mode; allowed: 'axial', 'proportional'")
     if case.section is None or case.material is None:
@@ -185,7 +200,13 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
         t = float(t)
         u = seen.get(t)
         if u is None:
-            trial = _scaled(case, t, mode, reference)
+            try:
+                trial = _scaled(case, t, mode, reference)
+            except CaseError:  # loads scaled past what a case accepts (a tiny reference force): failing there
+                if mode == "axial":
+                    raise
+                seen[t] = math.inf
+                return math.inf
             r = _solve(trial, prep if mode == "axial" else prepare(trial), n, details=False)
             u = seen[t] = math.inf if r.utilization is None else r.utilization
         return u

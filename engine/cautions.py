@@ -10,8 +10,8 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
+from engine.deep_sections import deep_hollow, deep_solid, stronger_axis_named_minor
 from engine.material_cautions import not_a_code_check
-from engine.sections import deep_solid
 from engine.shear_buckling import web_shear_caution
 
 __all__ = [
@@ -416,12 +416,12 @@ def assess(
     if section is not None:
         # A solid rectangle deeper than wide buckles laterally too; the member check replaces this warning
         # wherever it makes the lateral-torsional buckling check (steel).
-        if (section.open_section or deep_solid(section)) and axis == "major":
-            what, part = (
-                ("an open section", "flange")
-                if section.open_section
-                else ("a solid section deeper than wide", "edge")
-            )
+        if (section.open_section or deep_solid(section) or deep_hollow(section)) and axis == "major":
+            what, part = ("an open section", "flange")
+            if deep_solid(section):
+                what, part = ("a solid section deeper than wide", "edge")
+            elif deep_hollow(section):
+                what, part = ("a rectangular hollow section deeper than wide", "flange")
             out.append(
                 Caution(
                     level="warning",
@@ -433,6 +433,8 @@ def assess(
                     source="EN 1993-1-1:2005 §6.3.2; AISC 360-16 Chapter F; EN 1995-1-1 §6.3.3",
                 )
             )
+        found = stronger_axis_named_minor(section, axis)  # the LTB check would miss it: a danger caution
+        out.extend([] if found is None else [Caution(**found)])
         out.extend(_class_cautions(check))
         pairs = segments or ((section, material),)
         out.extend(_web_shear_cautions(pairs, axis, check, gamma_M1))

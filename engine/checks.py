@@ -361,7 +361,7 @@ def check_member(
     N = abs(float(axial_force))
     M = np.abs(np.asarray(moment, dtype=float))
     V = np.abs(np.asarray(shear, dtype=float))
-    fy, fc = material.fy, material.f_c
+    fy, fc = material.fy, material.axial_strength(axial_force)  # f_t in tension where known (timber)
     steel_like = material.kind in ("steel", "aluminium", "custom")
     method, notes = method_used(settings.method, section.shape, material, section_class)
     klass = section_class.klass if section_class is not None else None
@@ -381,9 +381,10 @@ def check_member(
             ab = n + np.where(M > 0, M / (M_Rd * (1.0 - rho)), 0.0)  # ρ = 1: no moment resistance
             kind_ab = "elastic stress"
         else:
-            N_Rd = area * fy / g0
+            fa = min(fy, fc)  # the plastic axial resistance: f_y, or a material's lower f_c or f_t
+            N_Rd = area * fa / g0
             M_Rd = section.W_pl * fy / g0
-            n = axial_ratio(N, kept * fy / g0)
+            n = axial_ratio(N, kept * fa / g0)
             if section.shape == "rectangle":
                 reduced = np.maximum(0.0, 1.0 - n * n)
             else:

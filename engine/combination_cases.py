@@ -23,6 +23,7 @@ from engine.inputs import Imperfection
 
 __all__ = [
     "SERVICE_BASIS",
+    "combination_bow_reversed",
     "combination_case",
     "reversals",
     "service_result",
@@ -83,6 +84,22 @@ def combination_case(
         # None stays None: the default bow, a preset whose direction is automatic (tried both ways).
         changes["second_plane"] = dataclasses.replace(plane, loads=tuple(second), imperfection=bow)
     return dataclasses.replace(case, **changes)
+
+
+def combination_bow_reversed(case, first: bool, second: bool):
+    """``case`` with its bow given by shape and amplitude reversed in the first plane (``first``) and in the
+    second (``second``), as :func:`reversals` lists them."""
+    changes = {}
+    if first:
+        changes["imperfection"] = dataclasses.replace(
+            case.imperfection, amplitude=-case.imperfection.amplitude
+        )
+    if second:
+        bow = case.second_plane.imperfection
+        changes["second_plane"] = dataclasses.replace(
+            case.second_plane, imperfection=dataclasses.replace(bow, amplitude=-bow.amplitude)
+        )
+    return dataclasses.replace(case, **changes) if changes else case
 
 
 def reversals(case) -> tuple:

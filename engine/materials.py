@@ -103,6 +103,11 @@ class Material:
         not depend on thickness.
     source : str
         Where each value comes from.
+    f_t : float or None
+        Tension strength of the stress check [Pa] where it is below ``f_c``: the characteristic tension
+        strength parallel to the grain :math:`f_{t,0,k}` of timber; a custom material's ``f_t`` where given.
+        None: ``f_c`` in tension too (steel and aluminium, whose ``f_c`` is ``fy``). An independent audit
+        found a C24 tie checked against f_c,0,k = 21 MPa, 37–41 % low against f_t,0,k = 14.5 MPa.
 
     Raises
     ------
@@ -120,6 +125,15 @@ class Material:
     E_05: float | None
     thickness_band: str
     source: str
+    f_t: float | None = None
+
+    def axial_strength(self, axial_force: float) -> float:
+        """The strength the stress check divides the axial stress by: ``f_t`` in tension where known (never
+        above ``f_c``: a tension strength typed above it, f_u for f_y say, is not taken), else ``f_c`` [Pa]
+        (``axial_force`` compression positive). The plastic check takes the lower of this and ``fy``."""
+        if self.f_t is not None and float(axial_force) < 0.0:
+            return min(self.f_t, self.f_c)
+        return self.f_c
 
     def __post_init__(self) -> None:
         path = "material"
@@ -130,7 +144,7 @@ class Material:
         for attribute in ("E", "fy", "f_c"):
             value = positive(f"{path}.{attribute}", getattr(self, attribute), "Pa")
             object.__setattr__(self, attribute, value)
-        for attribute in ("G", "E_05"):
+        for attribute in ("G", "E_05", "f_t"):
             if getattr(self, attribute) is not None:
                 object.__setattr__(
                     self, attribute, positive(f"{path}.{attribute}", getattr(self, attribute), "Pa")
@@ -211,11 +225,13 @@ def _c24(thickness: float | None, path: str) -> Material:
         G=690 * _MPA,
         fy=24 * _MPA,
         f_c=21 * _MPA,
+        f_t=14.5 * _MPA,
         density=420.0,
         E_05=7_400 * _MPA,
         thickness_band="",
         source="EN 338, strength class C24: f_m,k = 24 MPa, f_c,0,k = 21 MPa, E_0,mean = 11 000 MPa, "
-        "E_0,05 = 7 400 MPa [text]; G_mean = 690 MPa and mean density 420 kg/m³ (from memory)",
+        "E_0,05 = 7 400 MPa [text]; f_t,0,k = 14.5 MPa, G_mean = 690 MPa and mean density 420 kg/m³ "
+        "(from memory)",
     )
 
 
@@ -227,10 +243,12 @@ def _gl24h(thickness: float | None, path: str) -> Material:
         G=650 * _MPA,
         fy=24 * _MPA,
         f_c=24 * _MPA,
+        f_t=19.2 * _MPA,
         density=420.0,
         E_05=9_600 * _MPA,
         thickness_band="",
         source="EN 14080, homogeneous glulam GL24h: f_m,g,k = 24 MPa, f_c,0,g,k = 24 MPa, "
+        "f_t,0,g,k = 19.2 MPa, "
         "E_0,g,mean = 11 500 MPa, E_0,g,05 = 9 600 MPa, G_g,mean = 650 MPa, mean density 420 kg/m³ "
         "(all from memory)",
     )
@@ -294,7 +312,7 @@ _ALIASES = {
     "ENAW6082T6": "EN AW-6082 T6",
 }
 
-_CUSTOM_KEYS = ("name", "kind", "E", "G", "fy", "f_c", "density", "E_05")
+_CUSTOM_KEYS = ("name", "kind", "E", "G", "fy", "f_c", "f_t", "density", "E_05")
 
 
 def _normalise(name: str) -> str:
@@ -433,6 +451,7 @@ def _custom(spec: Mapping, path: str) -> Material:
     f_c = positive(f"{path}.f_c", spec["f_c"], "Pa") if "f_c" in spec else fy
     G = _optional_positive(f"{path}.G", spec.get("G"), "Pa")
     E_05 = _optional_positive(f"{path}.E_05", spec.get("E_05"), "Pa")
+    f_t = _optional_positive(f"{path}.f_t", spec.get("f_t"), "Pa")
     if "density" in spec:
         density = positive(f"{path}.density", spec["density"], "kg/m³", allow_zero=True)
         density_source = "density given"
@@ -447,10 +466,13 @@ def _custom(spec: Mapping, path: str) -> Material:
         G=G,
         fy=fy,
         f_c=f_c,
+        f_t=f_t,
         density=density,
         E_05=E_05,
         thickness_band="",
-        source=f"custom values given in the case; {f_c_source}; {density_source}",
+        source=f"custom values given in the case; {f_c_source}"
+        + ("; f_t given" if f_t is not None else "; f_t not given: f_c in tension too")
+        + f"; {density_source}",
     )
 
 

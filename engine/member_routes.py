@@ -38,6 +38,7 @@ from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.out_of_plane import other_axis_sways, sways
 from engine.sections import section_from_spec
+from engine.sway_buckling import term as sway_term
 from engine.torsional_terms import member_torsional, weakest_segment
 from engine.torsional_terms import term as torsion_term
 
@@ -229,7 +230,19 @@ def evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
 
 
 def _evaluate(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
-    """(routes, ltb check) of :func:`evaluate`."""
+    """(routes, ltb check) of :func:`evaluate`: the second-order route with in-plane buckling on a first mode
+    that sways (:mod:`engine.sway_buckling`)."""
+    (second, *others), found = _routes(
+        result, bow_free_moment=bow_free_moment, out_of_plane=out_of_plane, cache=cache
+    )
+    sway = sway_term(result)
+    if sway is not None:
+        second = _with_term(second, *sway)
+    return (second, *others), found
+
+
+def _routes(result, *, bow_free_moment, out_of_plane, cache=None) -> tuple:
+    """(routes, ltb check) of :func:`_evaluate` before the sway term."""
     case, material = result.case, result.material
     routes = case.check.routes
     second = _second_order(result, "second-order" in routes)

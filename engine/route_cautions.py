@@ -11,6 +11,8 @@ import math
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.cautions import Caution
 from engine.member_routes import LTB_ELASTIC
+from engine.sway_buckling import SOURCE as SWAY_SOURCE
+from engine.sway_buckling import TERM as SWAY
 
 __all__ = ["ROUTES_DISAGREE", "with_route_cautions"]
 
@@ -98,6 +100,7 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
                     )
                 )
     out.extend(_interaction_not_counted(routes))
+    out.extend(_sway_counted(routes))
     out.extend(_cantilever_support(ltb_check))
     applied = [r for r in routes if r.enabled and r.utilization is not None]
     if routes and not applied:
@@ -153,6 +156,31 @@ def _cantilever_support(ltb_check) -> list:
                 source="a decision of this project (an end whose support moves is not taken as held "
                 "laterally unless the case says so)",
                 values={"end": ("left", "right")[tip]},
+            )
+        )
+    factor = getattr(ltb_check, "out_of_plane_cantilever", 0.0)
+    if factor:
+        beyond = factor > 2.0 * (1.0 + 1e-9)
+        covers = (
+            "which is held more than the member (longer than 2L out of plane): the check is a lower bound of "
+            "its utilisation, not a check of it"
+            if beyond
+            else "which covers any length up to 2L and is conservative below it"
+        )
+        out.append(
+            Caution(
+                level="danger" if beyond else "warning",
+                code="ltb-out-of-plane-length",
+                message=(
+                    f"The out-of-plane buckling length given is {factor:.3g} times the member's, so its ends "
+                    "are not both held out of its plane: lateral-torsional buckling takes the member as a "
+                    f"cantilever out of its plane, held at one end and free at the other (free at {where}, "
+                    f"the worse), {covers}. Give the plane of minor-axis bending with its supports for the "
+                    "member's own check."
+                ),
+                source="a decision of this project (EN 1993-1-1 §6.3.2.2; M_cr of the cantilever, Timoshenko "
+                "& Gere (1961) ch. 6, from memory)",
+                values={"factor": factor, "end": ("left", "right")[tip]},
             )
         )
     if getattr(ltb_check, "root_assumed", False):
@@ -322,6 +350,40 @@ _READ = {
     "en-member-not-enabled": "as the en-member route reads them,",
     "custom-section": "with C_m the larger of the member's own diagram and 1,",
 }
+
+
+#: What the sway caution adds where a spring or the ground holds the member (engine.sway_buckling).
+_SUPPORT_FORCE = {
+    "spring": " The force in the translational spring grows as 1/(1 − N/Pcr1) and is not checked: design "
+    "the restraint for the reaction shown.",
+    "foundation": " The ground's reaction grows as 1/(1 − N/Pcr1) and is not checked.",
+}
+
+
+def _sway_counted(routes) -> list:
+    """The caution of the second-order route's in-plane buckling on a swaying first mode
+    (:mod:`engine.sway_buckling`): info, or a warning where a spring or the ground holds the member (their
+    force is not checked)."""
+    second = next((r for r in routes if r.route == "second-order" and r.utilization is not None), None)
+    if second is None or SWAY not in (second.terms or {}):
+        return []
+    facts, value = second.facts, second.terms[SWAY]
+    support = facts.get("sway_support", "free")
+    return [
+        Caution(
+            level="warning" if support in _SUPPORT_FORCE else "info",
+            code="sway-buckling-counted",
+            message=(
+                "The plane analysed can sway, and a first mode that tilts on its support carries little "
+                "bending: the second-order route also counts in-plane flexural buckling on that mode, "
+                f"N/N_b,Rd = {value:.3f} with N_cr = Pcr1, λ̄ = {facts.get('sway_lambda', math.nan):.3f}, "
+                f"χ = {facts.get('sway_chi', math.nan):.3f} (curve {facts.get('sway_curve', '?')})."
+                + _SUPPORT_FORCE.get(support, "")
+            ),
+            source=SWAY_SOURCE,
+            values={"route": "second-order", "value": value, "support": support},
+        )
+    ]
 
 
 def _counted_conservatively(second) -> Caution:

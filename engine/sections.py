@@ -45,6 +45,7 @@ from engine.catalogue import (
     rolled_i_dimensions,
 )
 from engine.custom_section import custom_fields
+from engine.deep_sections import deep_hollow, deep_solid
 from engine.errors import CaseError
 from engine.section_properties import (
     circular_hollow,
@@ -63,6 +64,7 @@ __all__ = [
     "SHAPES",
     "Section",
     "catalogue_names",
+    "deep_hollow",
     "deep_solid",
     "normalise_name",
     "section_from_spec",
@@ -473,14 +475,6 @@ def _describe(shape: str, manufacture: str, dims: dict[str, float]) -> str:
     if shape == "rectangle":
         return f"rectangle {_mm(dims['b'])}×{_mm(dims['h'])}"
     return f"round {_mm(dims['D'])}"
-
-
-def deep_solid(section) -> bool:
-    """A solid rectangle deeper in the plane of bending than across it (a flat bar, a timber joist bent about
-    its stronger axis): it buckles laterally like a deep beam (Timoshenko & Gere 1961 §6.2); a square, or one
-    bent about its weaker axis, does not."""
-    depth, width = section.depth, section.width
-    return section.shape == "rectangle" and depth is not None and width is not None and depth > width
 
 
 def section_from_spec(spec: Mapping, axis: str = "major", path: str = "section") -> Section:

@@ -374,6 +374,11 @@ class BatchSummary:
         What the executor had to do again (a lost worker's chunk sent again), one line each.
     executor : str
         ``local``, or where the Dask cluster's scheduler is (``workers`` is then 0).
+    danger : list of tuple
+        ``(row, id, caution code)`` of the first :data:`app.batch.summary.HIGHEST` solved rows whose
+        utilisation is at most 1 but which fail by a danger caution (its first code); ``danger_count`` counts
+        them all (they are among ``failing``).
+    danger_count : int
     with_combinations : int
         Solved rows with load cases (their ``combination_rule`` cell filled): their scope caution is the one
         of a case with load cases, which names the combination factors as recalled values.
@@ -396,3 +401,5 @@ class BatchSummary:
     retried: list = field(default_factory=list)
     executor: str = "local"
     with_combinations: int = 0
+    danger: list = field(default_factory=list)
+    danger_count: int = 0

@@ -26,7 +26,7 @@ from app.batch.columns import (
 )
 from app.batch.headline import basis_cell, governing_cell
 from app.batch.rows import _count_rows, _engine_error, _records, member_case
-from app.batch.summary import count_solved, finish
+from app.batch.summary import count_danger, count_solved, finish
 from app.safe_text import csv_writer
 from app.workers import worker_pool
 
@@ -71,7 +71,8 @@ def _write_atomically(path: str, data: bytes) -> None:
 
 
 def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[list[str], bool, bool]:
-    """Solve one case: return (results-table cells, failing, pdf written)."""
+    """Solve one case: return (results-table cells, failing, pdf written); failing is "" (it passes),
+    "check" (a utilisation above 1) or the code of the danger caution it fails by."""
     import engine
     from app.report import status_message
     from app.units import units
@@ -84,11 +85,13 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
     check = result.check
     capacity_force = capacity_check = None
     if options.capacity and case.section is not None and case.material is not None:
-        found = engine.capacity(case if result.actions is None else result.case)  # the governing combination
+        # The governing combination; a shaped bow both ways, as each combination was solved.
+        both = result.actions is not None
+        found = engine.capacity(result.case if both else case, bow_both_ways=both)
         capacity_force, capacity_check = found.axial_force, found.check
-    failing = (result.utilization is not None and result.utilization > 1.0) or any(
-        caution.level == "danger" for caution in result.cautions
-    )
+    # "" passes; "check": the utilisation is above 1; else the first danger caution's code (it fails by it).
+    danger = next((caution.code for caution in result.cautions if caution.level == "danger"), "")
+    failing = "check" if result.utilization is not None and result.utilization > 1.0 else danger
     record = [
         identifier,
         str(row),
@@ -522,7 +525,9 @@ def _run_locked(
                     summary.members += 1
                     if record[2] == "ok":
                         summary.solved += 1
-                        summary.failing += failing
+                        summary.failing += bool(failing)
+                        if failing and failing != "check":
+                            count_danger(summary, record, failing)
                         summary.beyond_critical += record[5] in ("unstable", "critical")
                         count_solved(summary, record, highest, not_checked)
                         summary.pdfs += wrote

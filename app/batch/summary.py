@@ -27,7 +27,8 @@ _STABILITY = _NAMES.index("stability")
 _RULE = _NAMES.index("combination_rule")
 
 #: The version of the ``--summary-json`` document (raised when a field changes meaning or goes away). 2 (stop
-#: 33): ``highest_utilizations`` holds code checks only; the others are in ``not_code_checks``.
+#: 33): ``highest_utilizations`` holds code checks only; the others are in ``not_code_checks``. Fields added
+#: since without a change of meaning: ``failing_by_caution`` and its count (stop 37).
 SUMMARY_SCHEMA = 2
 
 
@@ -52,6 +53,14 @@ def count_solved(summary: BatchSummary, record: list[str], heap: list, not_check
         heapq.heappush(heap, item)
     elif item > heap[0]:
         heapq.heapreplace(heap, item)
+
+
+def count_danger(summary: BatchSummary, record: list[str], code: str) -> None:
+    """Count a solved row that passes its checks (utilisation at most 1) but fails by a danger caution
+    (``code``, its first), and name it among the first :data:`HIGHEST` such rows."""
+    summary.danger_count += 1
+    if len(summary.danger) < HIGHEST:
+        summary.danger.append((int(record[1]), record[0], code))
 
 
 def finish(summary: BatchSummary, heap: list, not_checked: list) -> None:
@@ -92,6 +101,10 @@ def summary_dict(summary: BatchSummary, table: str) -> dict:
             for value, row, identifier, basis in summary.not_code_checks
         ],
         "not_code_check_count": summary.not_code_check_count,
+        "failing_by_caution": [
+            {"row": row, "id": identifier, "caution": code} for row, identifier, code in summary.danger
+        ],
+        "failing_by_caution_count": summary.danger_count,
         "invalid_rows": [
             {"row": row, "id": identifier, "column": column, "message": message}
             for row, identifier, column, message in summary.errors

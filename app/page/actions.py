@@ -113,7 +113,7 @@ class _ActionBlock:
                         index, number, **{key: value}
                     ),
                     system=lambda: state.units,
-                    width=62,
+                    width=66,
                     margin=(0, 2),
                     placeholder={"start": "0 (start)", "end": "L (end)"}.get(key, ""),
                 )
@@ -375,7 +375,7 @@ class GoverningView(pn.viewable.Viewer):
         self.pane = html_pane(sizing_mode="stretch_width", margin=(4, 6), css_classes=["ss-governing"])
         # The pane joins the page when a result has load cases (start-up: see CombinationBar).
         self.panel = pn.Column(visible=False, sizing_mode="stretch_width", margin=0)
-        state.param.watch(lambda *_: self.show(), ["result", "units", "combination_choice"])
+        state.param.watch(lambda *_: self.show(), ["result", "units", "combination_choice", "errors"])
         self.show()
 
     def __panel__(self):
@@ -410,3 +410,5 @@ class GoverningView(pn.viewable.Viewer):
             f"<table class='ss-table' style='width:100%;font-size:12px'>{rest}</table>"
             f"<div class='ss-note'>{esc(headline_note(actions))}</div></details>"
         )
+        if self.state.errors:  # the last valid case's combinations, dimmed as every value is while refused
+            self.pane.object = f"<div class='ss-stale-values'>{self.pane.object}</div>"

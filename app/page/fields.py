@@ -21,7 +21,7 @@ import panel as pn
 
 from app.page.messages import INNER_ROWS, field_words, page_message, shown_message, state_message
 from app.page.number_text import NumberText, Unread, same_value
-from app.page.style import CSS, WIDGET_CSS, esc
+from app.page.style import CSS, NUMBER_CSS, esc
 from app.units import Unit, units
 
 __all__ = [
@@ -91,7 +91,7 @@ class UnitNumber:
     ) -> None:
         self.text, self.kind = text, kind
         self._get, self._put, self._system = get, put, system
-        widget_params.setdefault("stylesheets", [WIDGET_CSS])
+        widget_params.setdefault("stylesheets", [NUMBER_CSS])
         self.widget = NumberText(label=self.label(), value=None, **widget_params)
         self.widget.param.watch(self._typed, "value")
         self.show()

@@ -99,6 +99,7 @@ class ForceControl(pn.viewable.Viewer):
             margin=(4, 0, 0, 0),
         )
         state.param.watch(lambda *_: self.show(), ["result", "units", "combination_choice"])
+        state.param.watch(lambda *_: self._dim(), ["errors"])  # never re-places the widgets: no input is lost
         self.show()
 
     def __panel__(self):
@@ -208,10 +209,21 @@ class ForceControl(pn.viewable.Viewer):
         style = _STYLE.get(status, status)
         # The badges wrap onto a line of their own where N and both do not fit the readout's width (a long
         # badge ran under the right-hand column and hid the flag); no figure is split from its name.
-        self.readout.object = (
+        self._shown_html = (
             f"<div class='ss-readout ss-force'><b>{esc(U.show('force', P, digits=5))}</b> "
             f"<span class='ss-badge ss-{style}'>{_BADGES.get(status, status)}</span>{flag}<br>"
             f"<span class='ss-nowrap'>{kind}</span> · "
             f"<span class='ss-nowrap'>N/Pcr1 <b>{ratio:.3f}</b></span> · "
             f"<span class='ss-nowrap'>α<sub>cr</sub> <b>{esc(alpha)}</b></span></div>"
         )
+        self._dim()
+
+    def _dim(self) -> None:
+        """The readout, dimmed while the inputs are refused (the last valid case's N and status)."""
+        text = getattr(self, "_shown_html", None)
+        if text is None:
+            return
+        if self.state.errors:
+            text = f"<div class='ss-stale-values'>{text}</div>"
+        if self.readout.object != text:
+            self.readout.object = text

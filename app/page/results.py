@@ -16,7 +16,7 @@ import param
 from app.page.style import LEVEL_NAMES, SCROLL_BOX_CSS, esc, heading, html_pane
 from app.page.words import symbols, values_table
 from app.report import caution_text, general_caution, route_rows
-from app.report.combinations import shown_line
+from app.report.combinations import not_governing_title, shown_line
 from app.state import MemberState
 from app.state_actions import view_result
 from app.units import units
@@ -51,7 +51,13 @@ class ValuesView(pn.viewable.Viewer):
         other = "" if result is state.result else shown_line(result)[0]
         if other:  # a combination other than the governing one: its values; the capacity is the headline's
             table = values_table(result, None, "found for the governing combination only", units(state.units))
-            table = f"<div class='ss-stale-mark ss-other-combination'>{esc(other)}</div>{table}"
+            # One line over the values (the whole note a click away): at 1280×720 the note in full left one
+            # row of the values in view.
+            table = (
+                "<details class='ss-stale-mark ss-other-combination'>"
+                f"<summary>{esc(not_governing_title(result))}</summary>"
+                f"<div class='ss-note'>{esc(other)}</div></details>{table}"
+            )
         else:
             table = values_table(result, state.capacity, state.capacity_note, units(state.units))
         if state.errors:

@@ -154,8 +154,12 @@ class RoutesChart(pn.viewable.Viewer):
                 line_width=4 if headline else 2.2,
                 line_alpha=0.35 if headline else 1.0,
             )
-        self.legend = Legend(items=[], location="top_left", label_text_font_size="12px")
-        self.figure.add_layout(self.legend)
+        # Below the plot, not over it: inside, the legend hid the N marker at small forces (a new user's
+        # report).
+        self.legend = Legend(
+            items=[], label_text_font_size="12px", spacing=0, padding=4, margin=2, glyph_height=14
+        )
+        self.figure.add_layout(self.legend, "below")
         self.note = html_pane(margin=(2, 6))
         self.panel = pn.Column(
             self.note,

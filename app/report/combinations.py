@@ -23,6 +23,7 @@ __all__ = [
     "governing_rows",
     "headline_note",
     "metadata_rows",
+    "not_governing_title",
     "rule_text",
     "service_strength",
     "shown_line",
@@ -226,6 +227,19 @@ def not_governing_note(actions_result, shown: str) -> str:
         f"Combination {shown} is shown: it is not the governing combination. The headline utilisation, the "
         f"capacity and the design are those of combination {headline}; {deflection}."
     )
+
+
+def not_governing_title(result) -> str:
+    """The page's one-line title over :func:`shown_line`'s note where the combination shown is not the
+    governing one (the note itself opens under it); '' otherwise."""
+    actions_result = getattr(result, "actions", None)
+    if actions_result is None:
+        return ""
+    shown, headline = shown_name(actions_result, result), actions_result.headline
+    if not shown or headline is None or shown == headline:
+        return ""
+    kind = "Service combination" if _state_of(actions_result, shown) == "service" else "Combination"
+    return f"{kind} {shown} shown; {headline} governs"
 
 
 def _state_of(actions_result, name: str) -> str:

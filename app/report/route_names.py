@@ -13,7 +13,13 @@ _NAMES = {
 }
 
 #: The second-order route's own terms beside its check along the member (a capacity can stop at one).
-ROUTE_TERMS = ("lateral-torsional", "buckling-interaction", "lateral-torsional-elastic", "torsional-buckling")
+ROUTE_TERMS = (
+    "lateral-torsional",
+    "buckling-interaction",
+    "lateral-torsional-elastic",
+    "torsional-buckling",
+    "sway-buckling",
+)
 
 #: The governing terms' names, by the engine's code.
 TERMS = {
@@ -33,6 +39,7 @@ TERMS = {
     "lateral-torsional": "lateral-torsional buckling",
     "lateral-torsional-elastic": "lateral-torsional buckling, M/M_cr (a bound)",
     "torsional-buckling": "torsional buckling, N/N_b,T,Rd",
+    "sway-buckling": "in-plane buckling on the swaying first mode, N/N_b,Rd with N_cr = Pcr1",
     "flexural-buckling-y": "flexural buckling, major axis",
     "flexural-buckling-z": "flexural buckling, minor axis",
     "flexural-buckling": "flexural buckling",

@@ -222,7 +222,9 @@ def c1_for_diagram(x, M, *, tolerance: float = 0.05) -> StandardDiagram:
     Shapes compared (normalised by the value of largest magnitude): uniform, linear between the end values,
     the parabola of a full-length uniform load (zero end moments) and the triangle of a central point load.
     The closest wins if its largest deviation is at most ``tolerance`` (5 % of max|M|, common practice, no
-    source); otherwise C1 = 1 (``none``), on the safe side.
+    source); otherwise C1 = 1, C2 = 0 (``none``): the uniform moment's C1, the lowest, but without the
+    load-height term, so above the exact M_cr under a destabilising load (two top-flange loads at the third
+    points: +22 %, an independent audit). It is shown beside the exact M_cr, which the check uses.
 
     >>> c1_for_diagram([0, 1, 2, 3, 4], [0, 1, 2, 1, 0]).diagram
     'point'

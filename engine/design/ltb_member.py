@@ -66,7 +66,7 @@ from engine.design import ltb
 from engine.design.ltb_segments import aisc_segments, aisc_source, end_pair, piece, segment_mcr
 from engine.design.mcr import HeldAxial, critical_moment
 from engine.loads import LinearLoad, PointLoad, UniformLoad
-from engine.sections import deep_solid
+from engine.sections import deep_hollow, deep_solid
 
 __all__ = ["SOURCES", "TORSION_FACTORS", "LtbCheck", "check", "not_applied"]
 
@@ -133,6 +133,9 @@ class LtbCheck:
     tip_moves: bool = False  # the free end is free as its support moves (lateral end "supports")
     held_assumed: str = ""  # "left"/"right"/"both": ends whose support moves, taken as forks (one plane)
     supports_assumed: tuple = ()  # x [m] of supports inside taken as forks (a one-plane overhang)
+    out_of_plane_cantilever: float = (
+        0.0  # L_cr/L out of plane where checked as a cantilever (engine.ltb_route)
+    )
 
 
 def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:
@@ -296,7 +299,8 @@ def check(
     vs = None if V is None else np.asarray(V, dtype=float)
     M_Ed = float(np.max(np.abs(ms))) if ms.size else 0.0
     sy, sz = section_y, section_z
-    if (sy.shape in ("rhs", "chs", "rectangle", "round") or not sy.open_section) and not deep_solid(sy):
+    closed = sy.shape in ("rhs", "chs", "rectangle", "round") or not sy.open_section
+    if closed and not (deep_solid(sy) or deep_hollow(sy)):
         return not_applied("closed-or-solid", settings, M_Ed)
     if M_Ed == 0.0:
         return not_applied("no-major-moment", settings, M_Ed)

@@ -49,7 +49,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from engine.design import mcr_fe
-from engine.design.mcr_fe import _eigen, _eigenvector, _elements, eigen_solution
+from engine.design.mcr_fe import _eigen, _eigenvector, _elements, _mesh, eigen_solution
 from engine.validate import choice, positive, real
 
 __all__ = ["LATERAL_ENDS", "WARPING_ENDS", "CriticalMoment", "HeldAxial", "critical_moment", "eigen_solution"]
@@ -123,25 +123,6 @@ def _loads(loads: Sequence[Mapping] | None, length: float, height: float) -> tup
     return uniform, point
 
 
-def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
-    """Nodes of ``elements`` equal elements, with the break points (point loads, load ends) added (cached
-    per length, count and break points; the array is read-only)."""
-    return _cached_mesh(float(length), int(elements), tuple(float(b) for b in breaks))
-
-
-@functools.lru_cache(maxsize=256)
-def _cached_mesh(length: float, elements: int, breaks: tuple) -> np.ndarray:
-    nodes = _nodes(length, elements, breaks)
-    nodes.flags.writeable = False
-    return nodes
-
-
-def _nodes(length, elements, breaks) -> np.ndarray:
-    nodes = np.linspace(0.0, length, elements + 1)
-    extra = [b for b in breaks if 0.0 < b < length and np.min(np.abs(nodes - b)) > 1e-9 * length]
-    return np.unique(np.concatenate([nodes, extra])) if extra else nodes
-
-
 def _matrices(nodes, m_at, props, uniform, point, scale_axial):
     """Assembled K and G (all 4·(n+1) DOFs: v, v', φ, φ' per node)."""
     parts = _elements(nodes, m_at, props, uniform)
@@ -182,7 +163,7 @@ def clear_cache() -> None:
     """Forget the cached free DOFs (:func:`_free_dofs`), the meshes, and the mesh integrals and layouts
     (:mod:`engine.design.mcr_fe`)."""
     _free_dofs.cache_clear()
-    _cached_mesh.cache_clear()
+    mcr_fe._cached_mesh.cache_clear()
     mcr_fe._shape.cache_clear()
     mcr_fe._layout.cache_clear()
     mcr_fe._height.cache_clear()

@@ -39,6 +39,7 @@ from __future__ import annotations
 
 import functools
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -345,3 +346,57 @@ def _eigenvector(K: np.ndarray, G: np.ndarray, lam: float, inv=None) -> np.ndarr
         x = shifted @ (G @ x)
         x /= np.max(np.abs(x))
     return x
+
+
+def _mesh(length: float, elements: int, breaks: Sequence[float]) -> np.ndarray:
+    """Nodes of ``elements`` equal elements, with the break points (point loads, load ends) added (cached
+    per length, count and break points; the array is read-only)."""
+    return _cached_mesh(float(length), int(elements), tuple(float(b) for b in breaks))
+
+
+@functools.lru_cache(maxsize=256)
+def _cached_mesh(length: float, elements: int, breaks: tuple) -> np.ndarray:
+    nodes = _nodes(length, elements, breaks)
+    nodes.flags.writeable = False
+    return nodes
+
+
+#: A break point nearer than this fraction of an element to an inner node, or to another break, makes no
+#: element of its own: the nearest node of the uniform mesh moves onto it, or it joins the break before it. A
+#: break a few micrometres from a node made an element some 1e-7 of the others: the eigenproblem was refused
+#: (M_cr = 0) or the twist locked there (M_cr 3.8 times too high; an independent audit, against finite
+#: elements of its own). Measured on the code before: an element 1.6e-4 of the others gave M_cr 3 % off,
+#: 4.8e-4 of them 6e-4 off, 1.6e-3 of them 1e-6. A break this near an END stays a node of its own (a
+#: restraint next to a support is a short span, not the support: merged, it made a mechanism).
+_CLOSE = 2e-3
+
+
+def _nodes(length, elements, breaks) -> np.ndarray:
+    nodes = np.linspace(0.0, length, elements + 1)
+    close = _CLOSE * length / elements
+    moved = np.zeros(nodes.size, dtype=bool)
+    extra = []
+    for b in sorted(set(breaks)):
+        if not 0.0 < b < length:
+            continue
+        i = int(np.argmin(np.abs(nodes - b)))
+        gap = abs(float(nodes[i]) - b)
+        if gap <= 1e-9 * length:
+            continue
+        if gap <= close and 0 < i < elements:  # next to an inner node: it moves onto the break (once)
+            if not moved[i]:
+                nodes[i], moved[i] = b, True
+            continue
+        extra.append(b)
+    if not extra:
+        return nodes
+    merged = np.unique(np.concatenate([nodes, extra]))
+    # Two inner nodes this close (two breaks, or a break beside a node moved onto another) share the first.
+    keep = np.ones(merged.size, dtype=bool)
+    last = 0
+    for k in range(1, merged.size - 1):
+        if last > 0 and merged[k] - merged[last] <= close:
+            keep[k] = False
+        else:
+            last = k
+    return merged[keep]

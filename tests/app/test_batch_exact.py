@@ -72,7 +72,10 @@ when two or more point loads began to take Table B.3's C_m = 1 instead of the on
 preset's first-mode bow began to be solved as a half sine between the ends as well (the worse kept): 42
 generated rows, none of the example table's; every utilisation that moved rose and every capacity that moved
 fell (M000009 0.518 → 0.557, now eq. (6.62); M000030 1.164 → 1.301), three rows without a section in their
-peak values only (a half sine governing the moment). And a
+peak values only (a half sine governing the moment). Again at stop 37, when the second-order route began
+to count in-plane buckling on a first mode that sways (engine.sway_buckling): CT-01 and 10 generated
+cantilevers, only in their cautions column (the info caution ``sway-buckling-counted``; no number moved, the
+bow's own check being the larger there). And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must

@@ -12,6 +12,8 @@ from app import batch
 from tests.app.test_cli import run_cli
 
 TABLE = Path(__file__).parent / "data" / "batch_generated_members.csv"  # 150 invented members
+#: The danger cautions' codes that this table's members carry (engine.cautions, level "danger").
+_DANGER = {"not-a-code-check"}
 
 
 def _results(folder):
@@ -52,6 +54,20 @@ def test_summary_counts_and_the_ten_highest_utilisations_agree_with_the_results_
     with open(TABLE, encoding="utf-8", newline="") as stream:
         lines = {row["id"]: number for number, row in enumerate(csv.DictReader(stream), start=2)}
     assert summary.errors and all(lines[identifier] == row for row, identifier, _, _ in summary.errors)
+    # A member that fails by a danger caution while its utilisation is at most 1 is named (the file's cautions
+    # cell holds its code); here one timber member whose utilisation is not a code check.
+    by_caution = [
+        row
+        for row in solved
+        if row["utilization"] != ""
+        and float(row["utilization"]) <= 1.0
+        and any(code in _DANGER for code in row["cautions"].split(";"))
+    ]
+    assert [(row, identifier) for row, identifier, _ in summary.danger] == [
+        (int(row["row"]), row["id"]) for row in by_caution
+    ]
+    assert summary.danger_count == len(by_caution) == 1
+    assert [code for _, _, code in summary.danger] == ["not-a-code-check"]
 
 
 def test_summary_json_for_machines_and_the_printed_summary(tmp_path):
@@ -75,6 +91,13 @@ def test_summary_json_for_machines_and_the_printed_summary(tmp_path):
     assert "highest utilisations by a code check (10):" in printed and "invalid rows (4)" in printed
     assert "NOT code checks, not ranked above (24 members, the 10 highest)" in printed
     assert "solved members by stability:" in printed
+    assert document["failing_by_caution"] == [{"row": 76, "id": "M000074", "caution": "not-a-code-check"}]
+    assert document["failing_by_caution_count"] == 1
+    assert (
+        "failing by a danger caution with a utilisation of at most 1 (1 member; its cautions cell lists it):"
+        in printed
+    )
+    assert "  row 76 (M000074): not-a-code-check" in printed
 
 
 def test_summary_json_to_standard_output_moves_the_printed_summary_to_standard_error(tmp_path):

@@ -361,6 +361,13 @@ def test_amplification_chart_shows_the_useful_range_with_its_legend_outside(page
     assert n[0] == pytest.approx(1.0)  # Pcr1's label sits left of its line, inside the range shown
 
 
+def test_routes_chart_keeps_its_legend_below_the_plot(page):
+    """The routes chart's legend lies below the plot: inside it, it covered the N marker at small forces."""
+    figure = page.routes_chart.figure
+    assert any(item is page.routes_chart.legend for item in figure.below)
+    assert not any(type(item).__name__ == "Legend" for item in figure.center)
+
+
 def test_near_the_critical_load_the_badge_warns_and_the_engine_cautions(page):
     """From N/Pcr1 = 0.9 the readout's badge reads "near Pcr1" and the engine adds a danger caution."""
     pcr1 = page.model.result.critical_loads[0]

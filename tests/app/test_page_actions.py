@@ -83,6 +83,13 @@ def test_a_bad_load_case_value_is_named_beside_it_and_the_result_kept(page):
     assert shown and "Load case 2, load 1" in shown[0]
     assert "actions[1].loads[0].q" in page.model.errors
     assert page.stale.visible
+    # Every figure of the last valid case is dimmed, the governing combinations and the N readout too.
+    assert page.governing.pane.object.startswith("<div class='ss-stale-values'>")
+    assert page.force.readout.object.startswith("<div class='ss-stale-values'>")
+    block.fields[0].widget.value = 1.0
+    assert not page.model.errors and not page.stale.visible
+    assert "ss-stale-values" not in page.governing.pane.object
+    assert "ss-stale-values" not in page.force.readout.object
 
 
 def test_load_cases_from_the_own_loads_and_back(page):

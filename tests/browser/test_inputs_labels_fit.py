@@ -21,7 +21,7 @@ _CUT = """() => {
   const cut = [];
   const canvas = document.createElement('canvas').getContext('2d');
   const walk = (root) => {
-    for (const el of root.querySelectorAll('label, select')) {
+    for (const el of root.querySelectorAll('label, select, input')) {
       const box = el.getBoundingClientRect();
       if (box.width === 0 || box.height === 0 || box.left > 330) continue;
       if (el.tagName === 'LABEL') {
@@ -29,6 +29,13 @@ _CUT = """() => {
         if (el.scrollWidth > el.clientWidth + 1 || box.right > host.right + 1) {
           cut.push('label: ' + el.textContent.trim());
         }
+      } else if (el.tagName === 'INPUT') {
+        // a number box (a free text, such as the title, may scroll)
+        if (el.type !== 'text' || !/^[-+]?[0-9.]+(e[-+]?[0-9]+)?$/i.test(el.value.trim())) continue;
+        const style = getComputedStyle(el);
+        canvas.font = style.font;
+        const room = el.clientWidth - parseFloat(style.paddingLeft) - parseFloat(style.paddingRight);
+        if (canvas.measureText(el.value).width > room + 1) cut.push('value: ' + el.value);
       } else {
         const style = getComputedStyle(el);
         canvas.font = style.font;

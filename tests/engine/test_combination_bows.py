@@ -177,3 +177,62 @@ def test_an_ultimate_combinations_deflection_is_no_service_warning():
     rows = summary_data("invented", case, result)["combinations"]["combinations"]
     for row in rows:
         assert (row["deflection_utilization"] is None) == (row["state"] == "ultimate"), row["name"]
+
+
+# An invented post lifted by wind: the combination in tension governs and keeps the shaped bow reversed.
+_UPLIFT = {
+    "schema": 1,
+    "length": 4.0,
+    "supports": {"left": "pinned", "right": "pinned"},
+    "axial_force": 0.0,
+    "loads": [],
+    "imperfection": {"shape": "sine", "amplitude": 0.016},
+    "section": {"name": "SHS 100x100x5"},
+    "material": {"name": "S355"},
+    "axis": "major",
+    "out_of_plane": {"restrained": True},
+    "check": {"routes": ["second-order"]},
+    "actions": [
+        {
+            "name": "G",
+            "category": "permanent",
+            "axial_force": 30e3,
+            "loads": [{"type": "uniform", "q": 200.0}],
+        },
+        {"name": "W", "category": "wind", "axial_force": -150e3, "loads": [{"type": "uniform", "q": 3e3}]},
+    ],
+}
+
+
+def _uplift_capacity_by_hand(result, sign: float) -> float:
+    """N at which N/A + |M_mid|/W_el = f_y (EN 1993-1-1 eq. (6.2), linear, γ_M0 = 1, from memory), with the
+    exact mid-span moment of a pinned strut under q and a sine bow e0 (Timoshenko & Gere §1.11 and §1.12,
+    from memory): q L²/8 · 2(1 − cos u)/(u² cos u) ± N e0/(1 − N/N_E), u = (L/2)√(N/EI)."""
+    from scipy.optimize import brentq
+
+    section, material = result.section, result.material
+    EI, L, e0 = material.E * section.I, 4.0, 0.016
+    q = 200.0 + 1.5 * 3e3  # the governing combination's transverse load: 1.0 G + 1.5 W
+    n_e = math.pi**2 * EI / L**2
+
+    def excess(N):
+        u = L / 2 * math.sqrt(N / EI)
+        m_q = q * L**2 / 8 * 2 * (1 - math.cos(u)) / (u**2 * math.cos(u))
+        return N / section.A + abs(m_q + sign * N * e0 / (1 - N / n_e)) / section.W_el - material.fy
+
+    return brentq(excess, 1.0, 0.999 * n_e, xtol=1e-6)
+
+
+def test_the_capacity_of_the_governing_combination_tries_a_shaped_bow_both_ways():
+    """The governing combination is in tension (W lifts the post) and keeps the bow reversed; its capacity,
+    which grows the compression, must try the bow both ways as every combination is solved: with the bow
+    kept reversed it read 195.96 kN where the bow along the load gives 113.41 kN (73 % high; an independent
+    audit)."""
+    result = engine.solve(engine.Case.from_dict(_UPLIFT))
+    assert result.axial_force < 0 and result.case.imperfection.amplitude < 0  # tension keeps it reversed
+    along = _uplift_capacity_by_hand(result, +1.0)
+    assert along == pytest.approx(113.41e3, rel=1e-4)  # the audit's figure
+    assert along < _uplift_capacity_by_hand(result, -1.0)
+    found = engine.capacity(result.case, bow_both_ways=True)
+    assert found.axial_force == pytest.approx(along, rel=1e-6)
+    assert engine.capacity(result.case).axial_force > 1.5 * along  # what was returned before

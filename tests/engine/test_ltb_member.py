@@ -447,7 +447,8 @@ def test_aisc_f2_at_lp_and_lr_of_the_member():
     assert f2.L_p == pytest.approx(1.76 * minor.i * math.sqrt(E / fy), rel=1e-12)
     for length, expected in ((f2.L_p, f2.M_p), (f2.L_r, 0.7 * fy * probe.section.W_el)):
         loads = couples + [{"type": "couple", "C": -5e4, "x": length}]
-        r = engine.solve(_case(axial_force=0.0, length=length, loads=loads))
+        held = {"buckling_length": length}  # forks at both ends: held out of plane over the member's length
+        r = engine.solve(_case(axial_force=0.0, length=length, loads=loads, out_of_plane=held))
         assert r.ltb.aisc.C_b == pytest.approx(1.0, abs=1e-9)
         assert r.ltb.aisc.M_n == pytest.approx(expected, rel=2e-3)
 

@@ -3,7 +3,8 @@
 A verbatim copy of ``engine/capacity.py``'s search at the commit before issue 18's speed work (each trial a
 validated case and a full :func:`engine.analysis.strength_solve`): ``tests/app/test_batch_exact.py`` checks
 that :func:`engine.capacity` still gives its numbers to 1e-9 relative. Not used by the product. Three later
-corrections of what the capacity is (not of how fast it is found) are mirrored, marked so.
+corrections of what the capacity is (not of how fast it is found) are mirrored, marked so, and at stop 37 the
+new route term and the shaped bow tried both ways.
 """
 
 from __future__ import annotations
@@ -16,15 +17,23 @@ import numpy as np
 from engine.analysis import solve, strength_solve
 from engine.capacity import Capacity
 from engine.classification import classify
+from engine.combination_cases import combination_bow_reversed, reversals
 from engine.errors import CaseError
 from engine.member_routes import LTB_ELASTIC, headline
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
 from engine.out_of_plane import KIND as OUT_OF_PLANE
 from engine.roots import brentq
+from engine.sway_buckling import TERM as SWAY
 from engine.torsional_buckling import TERM as TORSIONAL
 
 #: The second-order route's terms beyond the member check (engine.capacity's own list, copied).
-_ROUTE_ONLY_TERMS = ("lateral-torsional", "buckling-interaction", LTB_ELASTIC, TORSIONAL)
+_ROUTE_ONLY_TERMS = (
+    "lateral-torsional",
+    "buckling-interaction",
+    LTB_ELASTIC,
+    TORSIONAL,
+    SWAY,
+)  # SWAY: stop 37
 
 __all__ = ["capacity"]
 
@@ -56,7 +65,7 @@ def _scaled_loads(loads, factor) -> tuple:
     return tuple(out)
 
 
-def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
+def capacity(case, mode: str = "axial", stations: int = 201, bow_both_ways: bool = False) -> Capacity:
     """The largest axial compression at which the governing strength utilisation reaches 1.
 
     Parameters
@@ -72,6 +81,11 @@ def capacity(case, mode: str = "axial", stations: int = 201) -> Capacity:
     -------
     Capacity
     """
+    if bow_both_ways:  # mirrored correction (stop 37): a shaped bow tried both ways, the lowest kept
+        found = [capacity(case, mode, stations)]
+        for first, second in reversals(case):
+            found.append(capacity(combination_bow_reversed(case, first, second), mode, stations))
+        return min(found, key=lambda item: item.axial_force)
     if mode not in MODES:
         raise CaseError(f"mode: {mode!r} is not a capacity mode; allowed: 'axial', 'proportional'")
     if case.section is None or case.material is None:
