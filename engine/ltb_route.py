@@ -29,6 +29,7 @@ the unsafe side unless the case states it, and a check not made leaves the headl
 from __future__ import annotations
 
 import dataclasses
+from types import SimpleNamespace
 
 from engine.classification import elastic_modulus
 from engine.design import ltb_member
@@ -184,7 +185,9 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
             root: EndSupport(translation=FIXED, rotation=FIXED),
             _other(root): EndSupport(translation=FREE, rotation=FREE),
         }
-        stated = dataclasses.replace(result.case, axis="minor", **ends)
+        # Only its two ends are read (lateral_sides, _root_holds): not a case, so that nothing is validated
+        # again (the case's hinges would make a mechanism of a cantilever).
+        stated = SimpleNamespace(axis="minor", **ends)
         one = _lateral_torsional(result, y, klass, cache, segment, stated=stated)
         if one is not None and one.applies:
             one = dataclasses.replace(

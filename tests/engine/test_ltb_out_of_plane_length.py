@@ -83,3 +83,14 @@ def test_a_length_not_above_l_keeps_the_forks():
     plain = _solve(_member())
     assert held.ltb.lateral_ends == ("fork", "fork")
     assert held.ltb.M_cr == pytest.approx(plain.ltb.M_cr, rel=1e-12)
+
+
+def test_a_member_with_a_hinge_inside_is_read_without_validating_a_cantilever_case():
+    """The cantilever reading changes two ends only: a hinge on a spring inside (stable between pinned ends)
+    would make a mechanism of a built-in cantilever case, and the first version raised that as an error on a
+    valid case (a review of this stop)."""
+    data = _member(out_of_plane={"buckling_length": 9.0})
+    data["restraints"] = [{"x": 3.0, "translation": 1e6, "hinge": True}]
+    result = _solve(data)
+    assert result.ltb.applies and result.ltb.out_of_plane_cantilever == pytest.approx(1.5)
+    assert "ltb-out-of-plane-length" in {c.code for c in result.cautions}
