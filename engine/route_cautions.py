@@ -369,13 +369,18 @@ def _sway_counted(routes) -> list:
         return []
     facts, value = second.facts, second.terms[SWAY]
     support = facts.get("sway_support", "free")
+    why = (
+        "No equivalent-member route applies to a member stepped in section"
+        if support == "stepped"
+        else "A piece of the member may turn as a rigid body in its first mode (an end that moves, a hinge "
+        "or a foundation), and such a mode carries little bending"
+    )
     return [
         Caution(
             level="warning" if support in _SUPPORT_FORCE else "info",
             code="sway-buckling-counted",
             message=(
-                "The plane analysed can sway, and a first mode that tilts on its support carries little "
-                "bending: the second-order route also counts in-plane flexural buckling on that mode, "
+                f"{why}: the second-order route also counts in-plane flexural buckling on the first mode, "
                 f"N/N_b,Rd = {value:.3f} with N_cr = Pcr1, λ̄ = {facts.get('sway_lambda', math.nan):.3f}, "
                 f"χ = {facts.get('sway_chi', math.nan):.3f} (curve {facts.get('sway_curve', '?')})."
                 + _SUPPORT_FORCE.get(support, "")

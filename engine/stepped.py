@@ -10,6 +10,7 @@ notes are those of the segment that governs; the arrays along the member are mer
 from __future__ import annotations
 
 import dataclasses
+import math
 
 import numpy as np
 
@@ -43,9 +44,19 @@ def check_segments(*, segments, classes, x, moment, shear, length, **common) -> 
         )
         for name, values in merged.items():
             values[on] = np.maximum(values[on], getattr(found, name))
-        if best is None or found.utilization > best.utilization:
+        if best is None or _rank(found) > _rank(best):
             best = found
     return dataclasses.replace(best, **merged)
+
+
+def _rank(check) -> tuple:
+    """Which segment's check the member's is: the larger utilisation; on a tie (a term the same in every
+    segment, out-of-plane buckling say) the larger in-plane utilisation, then the worse class, so that a class
+    4 segment's figures and caution are not hidden behind a stockier one's (an independent audit: 0.196 and
+    class 3 shown where the class 4 segment has 0.409)."""
+    klass = check.section_class.klass if check.section_class is not None else 0
+    in_plane = check.in_plane_utilization if check.in_plane_utilization is not None else -math.inf
+    return check.utilization, in_plane, klass
 
 
 def member_check(member, classes=None, **common) -> MemberCheck:
