@@ -186,9 +186,7 @@ def _solve(args) -> int:
         try:
             result = engine.solve(case, stations=args.stations)
             # A case with actions: the capacity and the superposition of the governing combination.
-            shown = case if result.actions is None else result.case
-            both = result.actions is not None  # a shaped bow was tried both ways in each combination
-            capacity = engine.capacity(shown, bow_both_ways=both) if args.capacity else None
+            capacity = engine.capacity_of(result) if args.capacity else None
             comparison = None
             if result.actions is not None and result.actions.headline is not None:
                 from engine.superposition import compare

@@ -405,8 +405,7 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
             outputs["chart_note"] = ""
         if case.section is not None and case.material is not None:
             try:
-                found = engine.capacity(case, bow_both_ways=getattr(result, "actions", None) is not None)
-                outputs.update(capacity=found, capacity_note="")
+                outputs.update(capacity=engine.capacity_of(result), capacity_note="")
             except Exception as error:
                 outputs.update(capacity=None, capacity_note=str(error))
         else:

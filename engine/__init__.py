@@ -7,7 +7,7 @@ put together").
 """
 
 from engine import envelope, prepared, solver
-from engine.capacity import Capacity, capacity
+from engine.capacity import Capacity, capacity, capacity_of
 from engine.case import (
     Case,
     CoupleLoad,
@@ -62,6 +62,7 @@ __all__ = [
     "SweepResult",
     "UniformLoad",
     "capacity",
+    "capacity_of",
     "clear_caches",
     "critical_loads",
     "load_case",

@@ -42,7 +42,7 @@ from engine.roots import brentq
 from engine.sway_buckling import TERM as SWAY
 from engine.torsional_buckling import TERM as TORSIONAL
 
-__all__ = ["Capacity", "capacity"]
+__all__ = ["Capacity", "capacity", "capacity_of"]
 
 MODES = ("axial", "proportional")
 
@@ -136,6 +136,13 @@ def _scaled_loads(loads, factor) -> tuple:
         else:
             out.append(dataclasses.replace(load, C=load.C * factor))
     return tuple(out)
+
+
+def capacity_of(result, mode: str = "axial", stations: int = 201) -> Capacity:
+    """:func:`capacity` of what a solved ``result`` holds: its case, or with load cases its governing
+    combination (``result.case``) with a bow given by shape and amplitude tried both ways, as every
+    combination is solved (``bow_both_ways``)."""
+    return capacity(result.case, mode, stations, bow_both_ways=getattr(result, "actions", None) is not None)
 
 
 def capacity(case, mode: str = "axial", stations: int = 201, bow_both_ways: bool = False) -> Capacity:

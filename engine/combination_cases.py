@@ -38,9 +38,12 @@ def _combination_bow(bow, state: str, service_bow: bool, sign: float):
         return Imperfection()
     if bow.preset is not None:
         return bow if bow.direction == "load" else dataclasses.replace(bow, direction="load")
-    if sign < 0:
-        return dataclasses.replace(bow, amplitude=-bow.amplitude)
-    return bow
+    return _flipped(bow) if sign < 0 else bow
+
+
+def _flipped(bow):
+    """A bow given by shape and amplitude pointing the other way."""
+    return dataclasses.replace(bow, amplitude=-bow.amplitude)
 
 
 def _shaped(bow) -> bool:
@@ -91,14 +94,10 @@ def combination_bow_reversed(case, first: bool, second: bool):
     second (``second``), as :func:`reversals` lists them."""
     changes = {}
     if first:
-        changes["imperfection"] = dataclasses.replace(
-            case.imperfection, amplitude=-case.imperfection.amplitude
-        )
+        changes["imperfection"] = _flipped(case.imperfection)
     if second:
-        bow = case.second_plane.imperfection
-        changes["second_plane"] = dataclasses.replace(
-            case.second_plane, imperfection=dataclasses.replace(bow, amplitude=-bow.amplitude)
-        )
+        plane = case.second_plane
+        changes["second_plane"] = dataclasses.replace(plane, imperfection=_flipped(plane.imperfection))
     return dataclasses.replace(case, **changes) if changes else case
 
 

@@ -29,6 +29,7 @@ the unsafe side unless the case states it, and a check not made leaves the headl
 from __future__ import annotations
 
 import dataclasses
+import math
 from types import SimpleNamespace
 
 from engine.classification import elastic_modulus
@@ -104,7 +105,7 @@ def _held_out_of_plane(case) -> bool:
 
 def _built_in(case, side: str) -> bool:
     """Whether the end opposite ``side`` is built in (translation and rotation fixed) in ``case``'s plane."""
-    root = getattr(case, "right" if side == "left" else "left")
+    root = getattr(case, _other(side))
     return root.translation == FIXED and root.rotation == FIXED
 
 
@@ -172,9 +173,8 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
     and is conservative below it; beyond 2L the member is held less than a cantilever, so that check is a
     lower bound of the utilisation (M_cr only falls as a restraint is taken away), kept and marked by a
     danger caution rather than dropped (dropping it read 0.49 where 2L reads 1.80). Found by an independent
-    audit:
-    an IPE 300 over 6 m with L_cr = 12 m out of plane passed at 0.822 on forks where the same member given in
-    two planes fails at 1.796."""
+    audit: an IPE 300 over 6 m with L_cr = 12 m out of plane passed at 0.822 on forks where the same member
+    given in two planes fails at 1.796."""
     factor = _out_of_plane_factor(result)
     if factor is None or major(result) is None or lateral_sides(result, result.case.check.ltb)[0]:
         # an end already free laterally (a cantilever's tip, a moving end over a built-in root): its reading
@@ -197,7 +197,8 @@ def lateral_torsional(result, y, klass, cache=None, segment=None):
     applied = [one for one in found if one is not None and one.applies]
     if not applied:
         return found[0]
-    return max(applied, key=lambda one: one.utilisation if one.utilisation == one.utilisation else -one.M_cr)
+    # the larger utilisation; a material without the check has none (NaN): the lower M_cr
+    return max(applied, key=lambda one: -one.M_cr if math.isnan(one.utilisation) else one.utilisation)
 
 
 def _other(side: str) -> str:

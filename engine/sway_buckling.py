@@ -52,11 +52,8 @@ SOURCE = (
 
 def _planes(result) -> list:
     """``(case of the plane, its result)`` of each plane analysed."""
-    planes = [(result.case, result)]
     second = getattr(result, "second_plane", None)
-    if second is not None:
-        planes.append((result.case.second_plane_case(), second))
-    return planes
+    return [(result.case, result)] + ([] if second is None else [(second.case, second)])
 
 
 def may_tilt(case) -> bool:

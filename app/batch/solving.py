@@ -85,9 +85,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
     check = result.check
     capacity_force = capacity_check = None
     if options.capacity and case.section is not None and case.material is not None:
-        # The governing combination; a shaped bow both ways, as each combination was solved.
-        both = result.actions is not None
-        found = engine.capacity(result.case if both else case, bow_both_ways=both)
+        found = engine.capacity_of(result)  # with load cases, the governing combination's
         capacity_force, capacity_check = found.axial_force, found.check
     # "" passes; "check": the utilisation is above 1; else the first danger caution's code (it fails by it).
     danger = next((caution.code for caution in result.cautions if caution.level == "danger"), "")

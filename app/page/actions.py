@@ -403,7 +403,7 @@ class GoverningView(pn.viewable.Viewer):
 
         main = rows(lambda code: code in _MAIN_CHECKS)
         rest = rows(lambda code: code not in _MAIN_CHECKS)
-        self.pane.object = (
+        text = (
             "<div class='ss-heading'>Governing combination per check</div>"
             f"<table class='ss-table' style='width:100%;font-size:12px'>{main}</table>"
             f"<details><summary class='ss-note'>every check and route ({len(worded)})</summary>"
@@ -411,4 +411,5 @@ class GoverningView(pn.viewable.Viewer):
             f"<div class='ss-note'>{esc(headline_note(actions))}</div></details>"
         )
         if self.state.errors:  # the last valid case's combinations, dimmed as every value is while refused
-            self.pane.object = f"<div class='ss-stale-values'>{self.pane.object}</div>"
+            text = f"<div class='ss-stale-values'>{text}</div>"
+        self.pane.object = text

@@ -99,6 +99,7 @@ class ForceControl(pn.viewable.Viewer):
             margin=(4, 0, 0, 0),
         )
         state.param.watch(lambda *_: self.show(), ["result", "units", "combination_choice"])
+        self._shown_html: str | None = None  # the readout undimmed (:meth:`_dim` dims it while refused)
         state.param.watch(lambda *_: self._dim(), ["errors"])  # never re-places the widgets: no input is lost
         self.show()
 
@@ -220,7 +221,7 @@ class ForceControl(pn.viewable.Viewer):
 
     def _dim(self) -> None:
         """The readout, dimmed while the inputs are refused (the last valid case's N and status)."""
-        text = getattr(self, "_shown_html", None)
+        text = self._shown_html
         if text is None:
             return
         if self.state.errors:

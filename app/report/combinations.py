@@ -212,7 +212,7 @@ def not_governing_note(actions_result, shown: str) -> str:
     governing one. A service combination's says that strength is checked on the ultimate combinations (it
     has no member check shown and no bow, by design: :func:`app.state_actions.view_result`)."""
     headline = actions_result.headline
-    if not shown or headline is None or shown == headline:
+    if not _other_than_headline(actions_result, shown):
         return ""
     deflection = deflection_words(actions_result)
     deflection = f"the deflection check is that of {deflection}" if deflection else "no deflection check"
@@ -235,11 +235,17 @@ def not_governing_title(result) -> str:
     actions_result = getattr(result, "actions", None)
     if actions_result is None:
         return ""
-    shown, headline = shown_name(actions_result, result), actions_result.headline
-    if not shown or headline is None or shown == headline:
+    shown = shown_name(actions_result, result)
+    if not _other_than_headline(actions_result, shown):
         return ""
     kind = "Service combination" if _state_of(actions_result, shown) == "service" else "Combination"
-    return f"{kind} {shown} shown; {headline} governs"
+    return f"{kind} {shown} shown; {actions_result.headline} governs"
+
+
+def _other_than_headline(actions_result, shown: str) -> bool:
+    """Whether ``shown`` names a combination other than the governing one."""
+    headline = actions_result.headline
+    return bool(shown) and headline is not None and shown != headline
 
 
 def _state_of(actions_result, name: str) -> str:

@@ -133,9 +133,8 @@ class LtbCheck:
     tip_moves: bool = False  # the free end is free as its support moves (lateral end "supports")
     held_assumed: str = ""  # "left"/"right"/"both": ends whose support moves, taken as forks (one plane)
     supports_assumed: tuple = ()  # x [m] of supports inside taken as forks (a one-plane overhang)
-    out_of_plane_cantilever: float = (
-        0.0  # L_cr/L out of plane where checked as a cantilever (engine.ltb_route)
-    )
+    # L_cr/L out of plane where the member is checked as a cantilever out of its plane (engine.ltb_route)
+    out_of_plane_cantilever: float = 0.0
 
 
 def not_applied(reason: str, settings, M_Ed: float = 0.0, missing: tuple = ()) -> LtbCheck:
