@@ -360,15 +360,17 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
             self.result_scale = self._scale_of(case)
             case = result.case  # the charts and the routes: the governing combination as a plain case
         if full:
-            key = case.without_axial_force()
+            from app.work import chart_key, ultimate_texts  # with load cases: the lowest capacity of them
+
+            key = chart_key(case, result)
             if key != self._base_key:
                 self._base_key = key
                 if self._runner is None:
                     outputs.update(self._chart_outputs(case, result))
                 else:
                     outputs.update(sweep=None, approximation=None, chart_note="computing the chart …")
-                    both = getattr(result, "actions", None) is not None  # a shaped bow both ways, as solved
-                    self._runner.chart(partial(_chart_job, self, case, key, result.critical_loads, both))
+                    job = partial(_chart_job, self, case, key, result.critical_loads, ultimate_texts(result))
+                    self._runner.chart(job)
         if self.actions:
             self._mirror_force(result)
         with param.edit_constant(self):
@@ -462,12 +464,12 @@ def _solve_job(state: MemberState, case, refresh_id: int, full: bool):
     return partial(state._solved, case, full, *solve_outcome(case, state.stations), refresh_id)
 
 
-def _chart_job(state: MemberState, case, key: str, critical_loads, both_ways: bool = False):
+def _chart_job(state: MemberState, case, key: str, critical_loads, ultimate: tuple = ()):
     """Off the event loop: the chart outputs from the worker process, or a note when over the budget."""
     from app import work
 
     try:
-        job = (case.to_json(), chart_forces(critical_loads), both_ways)
+        job = (case.to_json(), chart_forces(critical_loads), ultimate)
         outputs = work.run_in_worker("chart", work.chart_job, job, work.CHART_BUDGET)
     except work.BudgetExceeded:
         _log.warning("strutscope: a chart was not computed: over its budget of %g s", work.CHART_BUDGET)
@@ -592,8 +594,6 @@ def values_from_mapping(mapping: Mapping) -> dict:
     out_of_plane = mapping.get("out_of_plane") or {}
     values["out_of_plane"] = "restrained" if out_of_plane.get("restrained") is True else "buckles"
     values["out_of_plane_length"] = out_of_plane.get("buckling_length")
-    values.update(inner_values(mapping))
-    values.update(plane_values(mapping))
-    values.update(ltb_values(mapping))
-    values.update(actions_values(mapping))
+    for more in (inner_values, plane_values, ltb_values, actions_values):
+        values.update(more(mapping))
     return values

@@ -177,6 +177,7 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "x": _finite(capacity.x),
             "critical_load": _finite(capacity.critical_load),
             "message": capacity.message,
+            "combination": getattr(capacity, "combination", None),
         },
         "second_plane": _second_plane_data(result),
         "routes": [_route_data(route) for route in getattr(result, "routes", ()) or ()],

@@ -180,9 +180,30 @@ def probe_solve(case_text: str, stations: int) -> float:
     return time.perf_counter() - start
 
 
-def chart_job(case_text: str, forces, both_ways: bool = False) -> dict:
-    """The sweep over `forces` and the capacity of a case (JSON text), as picklable outputs (``both_ways``:
-    the governing combination of a case with load cases, its shaped bow tried both ways). In the worker."""
+def chart_key(case, result):
+    """What the chart and the capacity depend on: the case without its axial force, and with load cases
+    every ultimate combination's too (the capacity is the lowest of them: an edit of another load case
+    left the old capacity on screen, 29 % high, found by an independent audit)."""
+    import engine
+
+    actions = getattr(result, "actions", None)
+    if actions is None:
+        return case.without_axial_force()
+    return (case.without_axial_force(), *(c.without_axial_force() for _, c in engine.ultimate_cases(actions)))
+
+
+def ultimate_texts(result) -> tuple:
+    """(name, JSON text) of every ultimate combination's plain case of a result with load cases, else ()."""
+    import engine
+
+    actions = getattr(result, "actions", None)
+    return () if actions is None else tuple((n, c.to_json()) for n, c in engine.ultimate_cases(actions))
+
+
+def chart_job(case_text: str, forces, ultimate: tuple = ()) -> dict:
+    """The sweep over `forces` and the capacity of a case (JSON text), as picklable outputs. ``ultimate``:
+    with load cases, (name, JSON text) of every ultimate combination's plain case, whose lowest capacity is
+    given (:func:`engine.lowest_capacity`). In the worker."""
     import engine
 
     case = engine.Case.from_json(case_text)
@@ -198,7 +219,12 @@ def chart_job(case_text: str, forces, both_ways: bool = False) -> dict:
         )
     if case.section is not None and case.material is not None:
         try:
-            outputs.update(capacity=engine.capacity(case, bow_both_ways=both_ways), capacity_note="")
+            if ultimate:
+                named = tuple((name, engine.Case.from_json(text)) for name, text in ultimate)
+                found = engine.lowest_capacity(named)
+            else:
+                found = engine.capacity(case)
+            outputs.update(capacity=found, capacity_note="")
         except Exception as error:  # noqa: BLE001 - shown as the capacity's note
             outputs.update(capacity=None, capacity_note=str(error))
     else:

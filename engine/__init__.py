@@ -7,7 +7,7 @@ put together").
 """
 
 from engine import envelope, prepared, solver
-from engine.capacity import Capacity, capacity, capacity_of
+from engine.capacity import Capacity, capacity, capacity_of, lowest_capacity, ultimate_cases
 from engine.case import (
     Case,
     CoupleLoad,
@@ -66,9 +66,11 @@ __all__ = [
     "clear_caches",
     "critical_loads",
     "load_case",
+    "lowest_capacity",
     "save_case",
     "solve",
     "sweep",
+    "ultimate_cases",
 ]
 
 

@@ -302,9 +302,20 @@ def _settings(data: Any, names: tuple) -> CombinationSettings:
             pairs.append(
                 (key, real(f"{path}.factors.{key}", value, "", minimum=-_MAX_FACTOR, maximum=_MAX_FACTOR))
             )
+        if not any(value for _, value in pairs):
+            raise CaseError(
+                f"{path}.factors: every factor is 0 (a combination without any load); give a factor other "
+                "than 0 for at least one action"
+            )
         rows.append(UserCombination(name=name, state=state, factors=tuple(pairs)))
     if rule == "table" and not rows:
         raise CaseError("combinations.table: the rule 'table' needs at least one row of factors")
+    if rule == "table" and not any(row.state == "ultimate" for row in rows):
+        raise CaseError(
+            f"combinations.table: every row is a service combination ({len(rows)} given); strength and "
+            "stability are checked on ultimate combinations only, so give at least one row with state "
+            "'ultimate'"
+        )
     bow = flag("combinations.service_bow", data.get("service_bow", False))
     return CombinationSettings(rule=rule, service=service, table=tuple(rows), service_bow=bow)
 

@@ -153,7 +153,7 @@ def conservative(*, y, z, N, material, section_class, settings, ltb, unit_cm=Tru
         found = _largest(check, wanted)
         if found is None:
             return None
-        if best is None or found[0] > best[0]:
+        if best is None or found[0] >= best[0]:  # a tie: the C_m = 1 reading names it (it is that too)
             best = (*found, ry is not y)
     return _term(best, y, z)
 

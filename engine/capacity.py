@@ -32,7 +32,7 @@ import numpy as np
 from engine.analysis import _solve, check_stations, solve
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.classification import classify_at
-from engine.combination_cases import combination_bow_reversed, reversals
+from engine.combination_cases import combination_bow_reversed, combination_case, reversals
 from engine.errors import CaseError
 from engine.member_routes import LTB_ELASTIC, headline
 from engine.out_of_plane import ELASTIC_KIND as OUT_OF_PLANE_ELASTIC
@@ -42,7 +42,7 @@ from engine.roots import brentq
 from engine.sway_buckling import TERM as SWAY
 from engine.torsional_buckling import TERM as TORSIONAL
 
-__all__ = ["Capacity", "capacity", "capacity_of"]
+__all__ = ["Capacity", "capacity", "capacity_of", "lowest_capacity", "ultimate_cases"]
 
 MODES = ("axial", "proportional")
 
@@ -77,6 +77,9 @@ class Capacity:
         is where the headline utilisation, the largest of the enabled routes (``check.routes``), reaches 1.
         For the ``en-member`` and ``aisc`` routes ``check`` is the governing term's code (``"eq-6.62"``,
         ``"H1-1a"``, ...).
+    combination : str or None
+        With load cases (:func:`capacity_of`): the ultimate combination whose capacity is the lowest, the one
+        given; None for a plain case.
     """
 
     axial_force: float
@@ -87,6 +90,7 @@ class Capacity:
     mode: str
     message: str
     route: str = "second-order"
+    combination: str | None = None
 
 
 #: The largest axial force a case accepts (engine.case); beyond it a trial is built the validating way, which
@@ -139,10 +143,78 @@ def _scaled_loads(loads, factor) -> tuple:
 
 
 def capacity_of(result, mode: str = "axial", stations: int = 201) -> Capacity:
-    """:func:`capacity` of what a solved ``result`` holds: its case, or with load cases its governing
-    combination (``result.case``) with a bow given by shape and amplitude tried both ways, as every
-    combination is solved (``bow_both_ways``)."""
-    return capacity(result.case, mode, stations, bow_both_ways=getattr(result, "actions", None) is not None)
+    """:func:`capacity` of what a solved ``result`` holds: its case, or with load cases the lowest over every
+    ultimate combination (:func:`lowest_capacity`).
+
+    With load cases each ultimate combination keeps its own transverse loads while its axial force grows
+    (``"axial"``), or grows as a whole (``"proportional"``, the combinations in compression). The headline's
+    combination alone is not enough: another one with more transverse load (wind with uplift, say, whose
+    axial force is smaller) can fail at a lower compression.
+    """
+    actions = getattr(result, "actions", None)
+    if actions is None:
+        return capacity(result.case, mode, stations)
+    return lowest_capacity(ultimate_cases(actions), mode, stations)
+
+
+def ultimate_cases(actions) -> tuple:
+    """(name, plain case) of every ultimate combination of an :class:`engine.envelope.ActionsResult`, its
+    shaped bow as given (:func:`lowest_capacity` tries it both ways)."""
+    return tuple(
+        (item.name, combination_case(actions.case, item.combination))
+        for item in actions.combinations
+        if item.combination.state == "ultimate"
+    )
+
+
+def lowest_capacity(named_cases, mode: str = "axial", stations: int = 201) -> Capacity:
+    """The lowest :func:`capacity` of the ultimate combinations ``named_cases`` ((name, plain case) pairs),
+    named (``Capacity.combination``); each with a bow given by shape and amplitude tried both ways, as every
+    ultimate combination is solved (``bow_both_ways``).
+
+    ``"axial"``: the lowest axial force; combinations that differ in their axial force alone share one search
+    (their capacity is the same). ``"proportional"``: the lowest load factor over the combinations in
+    compression (a factor on a tension has no compression to find); an error when none is, or when a
+    combination not in compression reaches utilisation 1 at that factor (an independent audit: 6.1 from U1
+    while U2 was at 1.32 there; its utilisation grows with the factor, so the check at the factor suffices).
+    """
+    found, seen, tension = [], {}, []
+    for name, case in named_cases:
+        if mode == "proportional" and not float(case.axial_force) > 0.0:
+            tension.append((name, case))
+            continue
+        key = case.without_axial_force() if mode == "axial" else None
+        item = seen.get(key) if key is not None else None
+        if item is None:
+            item = capacity(case, mode, stations, bow_both_ways=True)
+            if key is not None:
+                seen[key] = item
+        if mode == "axial" and case.axial_force > 0.0:
+            factor = item.axial_force / float(case.axial_force)
+        elif mode == "axial":
+            factor = math.nan
+        else:
+            factor = item.load_factor
+        found.append(dataclasses.replace(item, combination=name, load_factor=factor))
+    if not found:
+        if mode == "proportional":
+            raise CaseError(
+                "axial_force: no ultimate combination is in compression, so no proportional capacity is "
+                "found (it is a factor on a combination's compression); use the axial capacity"
+            )
+        raise CaseError("combinations: no ultimate combination, so no capacity is found")
+    measure = (lambda c: c.axial_force) if mode == "axial" else (lambda c: c.load_factor)
+    lowest = min(found, key=measure)  # the first of equal ones
+    for name, case in tension:  # not in compression: it must not fail below the factor found
+        u = solve(_scaled(case, lowest.load_factor, "proportional", float(case.axial_force))).utilization
+        if u is None or u >= 1.0:
+            shown = "unbounded" if u is None else f"{u:.3f}"
+            raise CaseError(
+                f"combinations: {name}, not in compression, reaches utilisation {shown} at the load factor "
+                f"{lowest.load_factor:.4g} of {lowest.combination}: the proportional capacity of the "
+                "combinations in compression is not the member's; use the axial capacity"
+            )
+    return lowest
 
 
 def capacity(case, mode: str = "axial", stations: int = 201, bow_both_ways: bool = False) -> Capacity:

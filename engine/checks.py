@@ -55,11 +55,12 @@ __all__ = [
 ]
 
 #: The member check's kind where N/Pcr1 of a plane analysed without a bow governs (a bound, see check_member).
-IN_PLANE_ELASTIC_KIND = "elastic buckling without a bow"
+IN_PLANE_ELASTIC_KIND = "in-plane elastic buckling"
 IN_PLANE_ELASTIC_SOURCE = (
     "Euler: the exact first critical load Pcr1 of the plane; a code's buckling resistance does not exceed "
-    "it, so N/Pcr1 is a bound of the code's utilisation where no bow makes the analysis see buckling "
-    "(common practice, no source)"
+    "it, so N/Pcr1 is a bound of the code's utilisation where no bow makes the analysis see buckling, and "
+    "for a material other than steel, whose code's buckling check is not made here (common practice, no "
+    "source)"
 )
 
 #: The kind of the linear member check of the eq. (5.9) route.

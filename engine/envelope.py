@@ -25,7 +25,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from engine import analysis
-from engine.cautions import GENERAL
+from engine.cautions import GENERAL, Caution
 from engine.combination_cases import combination_case, reversals, solve_service
 from engine.combinations import Combination, combine
 from engine.prepared import prepare
@@ -432,7 +432,22 @@ def solve(case, stations: int = 401):
         )
         chosen = dataclasses.replace(chosen, second_plane=second_plane)
     cautions = _cautions(chosen, ultimate, servings)
+    if not service:  # the deflection check is made on service combinations only
+        cautions = tuple(sorted((*cautions, NO_SERVICE), key=lambda c: _SEVERITY.get(c.level, 3)))
     return dataclasses.replace(chosen, service=service_check, actions=actions, cautions=cautions)
+
+
+#: A case with load cases and no service combination: its deflection is not checked (an independent audit
+#: found the check gone without a word).
+NO_SERVICE = Caution(
+    level="warning",
+    code="deflection-not-checked",
+    message=(
+        "No service combination is made (combinations.service is empty, or the table has no service row): "
+        "the deflection is not checked. Name a service combination to check it."
+    ),
+    source="EN 1990 §6.5 and §A1.4 (from memory): deflections are checked on service combinations",
+)
 
 
 _SERVICE_CODES = ("deflection", "deflection-basis")

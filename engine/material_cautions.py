@@ -19,8 +19,16 @@ _MISSING = {
         "the flexural buckling reduction χ, γ_M1 and the softening of heat-affected zones",
         "EN 1999-1-1",
     ),
-    "timber": ("k_c (buckling), k_crit, k_mod, γ_M and the size and service-class factors", "EN 1995-1-1"),
-    "custom": ("that material's buckling reduction and partial factors", "the material's design code"),
+    "timber": (
+        "k_c (buckling), k_crit, k_mod, γ_M, the size and service-class factors, and shear (f_v,k is not "
+        "checked at all)",
+        "EN 1995-1-1",
+    ),
+    "custom": (
+        "that material's buckling reduction and partial factors, and its own shear strength (shear is "
+        "checked as for steel, A_v·f_y/√3)",
+        "the material's design code",
+    ),
 }
 
 
@@ -31,13 +39,21 @@ def not_a_code_check(material, has_check: bool) -> dict | None:
     if not has_check or kind not in _MISSING:
         return None
     missing, code = _MISSING[kind]
+    tension = ""
+    if kind in ("timber", "custom") and getattr(material, "f_t", None) is None:
+        tension = " No tension strength f_t is given: tension is checked against f_c."
+    if kind == "timber" and getattr(material, "E_mean", None) is None:
+        tension += (
+            " No E_0,05 is given: the critical loads use the E given, and bound the code's resistance only "
+            "if that is E_0,05."
+        )
     return {
         "level": "danger",
         "code": "not-a-code-check",
         "message": (
             f"Not a code check for this material ({kind}): the utilisation is the stress over the unfactored "
             f"strength and elastic bounds (N/N_cr, M/M_cr), without {missing}. A utilisation below 1 is not "
-            f"a pass: check the member to {code}."
+            f"a pass: check the member to {code}.{tension}"
         ),
         "source": "strutscope's scope (common practice, no source)",
         "values": {"kind": kind},

@@ -264,6 +264,12 @@ _RESULT_LAYOUT: tuple[tuple[str, str | None], ...] = (
     ("R_inner_max", "force"),
     ("x_R_inner", "length"),
     ("inner_reactions", None),
+    # Stop 38 (an independent audit): with load cases the capacity is the lowest of the ultimate
+    # combinations, named here; each value column is the largest over the ultimate combinations
+    # (app.batch.enveloped), and ``from_combinations`` names the combination of every column that is not
+    # the headline's (``M_max=U2;utilization_second_order=U1``).
+    ("capacity_combination", None),
+    ("from_combinations", None),
 )
 
 #: The routes with result columns, in the order of the layout (engine.design.routes.ROUTES).
@@ -293,7 +299,7 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
         utilization_aisc, governing_aisc, second_plane_Pcr1_kN, second_plane_M_max_kNm, second_plane_V_max_kN,
         second_plane_w_max_mm, combination_rule, strength_combination, deflection_combination, ltb, M_cr_kNm,
         M_cr_tabulated_kNm, lambda_LT, chi_LT, utilization_ltb, R_inner_max_kN, x_R_inner_m,
-        inner_reactions`` in SI.
+        inner_reactions, capacity_combination, from_combinations`` in SI.
         ``utilization``
         is strength and stability, the worst route counted; ``utilization_basis`` says whether it is a code
         check (``"code check"``) or, for a material whose code is not checked, an ``"elastic bound only, not

@@ -27,7 +27,7 @@ BOUND_TERMS = frozenset({"out-of-plane-elastic", "in-plane-elastic", "lateral-to
 
 #: The member check's kinds that are such bounds (engine.out_of_plane.ELASTIC_KIND, engine.checks
 #: IN_PLANE_ELASTIC_KIND), for a result without routes.
-_BOUND_KINDS = frozenset({"out-of-plane elastic buckling", "elastic buckling without a bow"})
+_BOUND_KINDS = frozenset({"out-of-plane elastic buckling", "in-plane elastic buckling"})
 
 
 def governing_cell(result) -> str:

@@ -46,6 +46,7 @@ def _header(reader) -> list[str]:
             f"the file is empty; the first row must name the columns, e.g. {','.join(_REQUIRED)}"
         ) from None
     names: list[str] = []
+    per_action_seen: dict = {}  # (kind, NAME) -> header; NAME -> name: column names ignore case
     for position, cell in enumerate(cells, start=1):
         key = cell.strip().lower()
         if key == "" and all(not c.strip() for c in cells[position - 1 :]):
@@ -56,8 +57,7 @@ def _header(reader) -> list[str]:
         except ValueError as error:
             raise TableError(f"column {position}: {error}") from None
         if per_action:
-            if cell.strip() in names:
-                raise TableError(f"column {position}: {cell.strip()!r} is given twice")
+            _per_action_once(per_action_seen, position, cell.strip())
             names.append(cell.strip())
             continue
         if column is None:
@@ -66,6 +66,13 @@ def _header(reader) -> list[str]:
                 hint = (
                     " (the columns seem to be separated by ';' or tabs; strutscope reads comma-separated "
                     "values: export as CSV with commas)"
+                )
+            elif re.search(r"_(kips?|ft|in|ksi|psi|lbs?|kip_ft|kip_per_ft|klf|plf|k_ft)$", key):
+                # A user told "did you mean 'axial_kN'?" renames the header and keeps the kip values (an
+                # independent audit): the values must be converted, not the header renamed.
+                hint = (
+                    " (the table reads SI columns only: kN, m, mm, kN/m; convert the values to SI, do not "
+                    "just rename the header; --units us changes the results, not the input)"
                 )
             else:
                 near = difflib.get_close_matches(key, list(_BY_KEY), n=1, cutoff=0.6)
@@ -85,6 +92,24 @@ def _header(reader) -> list[str]:
             f"(the header row names the columns)"
         )
     return names
+
+
+def _per_action_once(seen: dict, position: int, header: str) -> None:
+    """Refuse a per-action column given twice, in any case (``axial_G_kN`` and ``AXIAL_G_kN``: one would be
+    lost or both added), and two actions whose names differ only in case (``G`` and ``g``)."""
+    kind, name = action_column(header)
+    key = (kind, name.upper())
+    if key in seen:
+        raise TableError(
+            f"column {position}: {header!r} is given twice (as {seen[key]!r}; column names ignore case)"
+        )
+    seen[key] = header
+    other = seen.setdefault(name.upper(), name)
+    if other != name:
+        raise TableError(
+            f"column {position}: {header!r} names the action {name!r}, and another column names {other!r}: "
+            "action names that differ only in case are ambiguous; write the name the same way in each column"
+        )
 
 
 def _records(path: str) -> Iterator[tuple[int, dict[str, str] | RowError]]:
@@ -132,8 +157,24 @@ def _records(path: str) -> Iterator[tuple[int, dict[str, str] | RowError]]:
                         ),
                     )
                     continue
-                padded = cells + [""] * (len(names) - len(cells))  # spreadsheets drop empty trailing cells
-                yield row, {name: padded[i].strip() for i, name in enumerate(names)}
+                if len(cells) < len(names):
+                    # A row cut short (a line broken off, a hand edit) would be solved with its last
+                    # cells empty: an independent audit saw N = 0 solved as "ok" (0.047 for 0.785).
+                    missing = names[len(cells) :]
+                    identifier = cells[names.index("id")].strip() if names.index("id") < len(cells) else ""
+                    shown = ", ".join(missing[:6]) + (", ..." if len(missing) > 6 else "")
+                    yield (
+                        row,
+                        RowError(
+                            missing[0],
+                            f"the row has {len(cells)} cells but the header names {len(names)} columns: "
+                            f"{shown} {'has' if len(missing) == 1 else 'have'} no cell (a line cut off?); "
+                            "write an empty cell as nothing between two commas",
+                            identifier,
+                        ),
+                    )
+                    continue
+                yield row, {name: cells[i].strip() for i, name in enumerate(names)}
         except csv.Error as error:
             if "unexpected end of data" in str(error):
                 raise TableError(

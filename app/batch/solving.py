@@ -24,6 +24,7 @@ from app.batch.columns import (
     _file_mode,
     result_columns,
 )
+from app.batch.enveloped import spread
 from app.batch.headline import basis_cell, governing_cell
 from app.batch.rows import _count_rows, _engine_error, _records, member_case
 from app.batch.summary import count_danger, count_solved, finish
@@ -79,14 +80,28 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
 
     shown = units(options.units)
     result = engine.solve(case, stations=options.stations)
-    force, moment, length = shown.force.factor, shown.moment.factor, shown.length.factor
+    force, per_moment, length = shown.force.factor, shown.moment.factor, shown.length.factor
     small = shown.small_length.factor
     governing = result.governing
     check = result.check
-    capacity_force = capacity_check = None
+    capacity_force = capacity_check = capacity_combination = None
     if options.capacity and case.section is not None and case.material is not None:
-        found = engine.capacity_of(result)  # with load cases, the governing combination's
-        capacity_force, capacity_check = found.axial_force, found.check
+        found = engine.capacity_of(result)  # with load cases, the lowest of the ultimate combinations
+        capacity_force, capacity_check, capacity_combination = (
+            found.axial_force,
+            found.check,
+            found.combination,
+        )
+    over = spread(result)  # with load cases, each value column's largest over the ultimate combinations
+    moment, shear, deflection = (
+        (governing.moment.value, governing.moment.x),
+        (governing.shear.value, governing.shear.x),
+        (governing.deflection.value, governing.deflection.x),
+    )
+    out_of_plane = None if check is None or check.out_of_plane is None else check.out_of_plane.utilization
+    if over is not None:
+        moment, shear, deflection = over.moment[:2], over.shear[:2], over.deflection[:2]
+        out_of_plane = None if over.out_of_plane is None else over.out_of_plane[0]
     # "" passes; "check": the utilisation is above 1; else the first danger caution's code (it fails by it).
     danger = next((caution.code for caution in result.cautions if caution.level == "danger"), "")
     failing = "check" if result.utilization is not None and result.utilization > 1.0 else danger
@@ -98,28 +113,30 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         status_message(result, shown),
         result.status,
         _cell(result.critical_loads[0], force),
-        _cell(result.alpha_cr),
-        _cell(governing.moment.value, moment),
-        _cell(governing.moment.x, length),
-        _cell(governing.shear.value, force),
-        _cell(governing.shear.x, length),
-        _cell(governing.deflection.value, small),
-        _cell(governing.deflection.x, length),
+        _cell(result.alpha_cr if over is None or over.alpha_cr is None else over.alpha_cr[0]),
+        _cell(moment[0], per_moment),
+        _cell(moment[1], length),
+        _cell(shear[0], force),
+        _cell(shear[1], length),
+        _cell(deflection[0], small),
+        _cell(deflection[1], length),
         _cell(result.amplification.moment),
         _cell(result.utilization),
         basis_cell(result),
         _cell(None if result.service is None else result.service.utilization),
         governing_cell(result),
-        "" if check is None or check.out_of_plane is None else _cell(check.out_of_plane.utilization),
+        "" if out_of_plane is None else _cell(out_of_plane),
         "" if check is None or check.section_class is None else str(check.section_class.klass),
         _cell(capacity_force, force),
         capacity_check or "",
         ";".join(caution.code for caution in result.cautions),
-        *_route_cells(result),
-        *_second_plane_cells(result, force, moment, small),
+        *_route_cells(result, over),
+        *_second_plane_cells(result, force, per_moment, small, over),
         *_combination_cells(result),
-        *_ltb_cells(result, moment),
+        *_ltb_cells(result, per_moment, None if over is None or over.ltb is None else over.ltb[0]),
         *_inner_cells(result, shown),
+        "" if capacity_combination is None else capacity_combination,
+        "" if over is None else over.sources(),
     ]
     wrote = False
     if options.pdf_dir is not None:
@@ -135,30 +152,39 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
     return record, failing, wrote
 
 
-def _route_cells(result) -> list[str]:
-    """The headline route's code, then each route's utilisation and governing term code ("" when absent)."""
+def _route_cells(result, over=None) -> list[str]:
+    """The headline route's code, then each route's utilisation and governing term code ("" when absent);
+    with load cases (``over``) each route's largest over the ultimate combinations."""
     from app.report.routes import headline_route
 
-    found = {route.route: route for route in getattr(result, "routes", ()) or ()}
+    found = {
+        route.route: (route.utilization, route.governing) for route in getattr(result, "routes", ()) or ()
+    }
+    if over is not None:
+        found = {code: value[:2] for code, value in over.routes.items()}
     head = headline_route(result)
     cells = ["" if head is None else head.route]
     for code in ROUTE_COLUMNS:
         route = found.get(code)
-        cells += ["", ""] if route is None else [_cell(route.utilization), route.governing or ""]
+        cells += ["", ""] if route is None or route[0] is None else [_cell(route[0]), route[1] or ""]
     return cells
 
 
-def _second_plane_cells(result, force: float, moment: float, small: float) -> list[str]:
-    """The second plane's Pcr1 and largest |M|, |V| and |w| in the display units, "" for one plane."""
+def _second_plane_cells(result, force: float, moment: float, small: float, over=None) -> list[str]:
+    """The second plane's Pcr1 and largest |M|, |V| and |w| in the display units, "" for one plane; with
+    load cases (``over``) the largest over the ultimate combinations."""
     second = getattr(result, "second_plane", None)
     if second is None:
         return ["", "", "", ""]
     governing = second.governing
+    values = (governing.moment.value, governing.shear.value, governing.deflection.value)
+    if over is not None and over.second_moment is not None:
+        values = (over.second_moment[0], over.second_shear[0], over.second_deflection[0])
     return [
         _cell(second.critical_loads[0], force),
-        _cell(abs(governing.moment.value), moment),
-        _cell(abs(governing.shear.value), force),
-        _cell(abs(governing.deflection.value), small),
+        _cell(abs(values[0]), moment),
+        _cell(abs(values[1]), force),
+        _cell(abs(values[2]), small),
     ]
 
 
@@ -175,10 +201,11 @@ def _combination_cells(result) -> list[str]:
     ]
 
 
-def _ltb_cells(result, moment: float) -> list[str]:
-    """Lateral-torsional buckling: "checked" or "not checked: <reason code>", M_cr exact and tabulated in the
-    display units, λ̄_LT, χ_LT and the utilisation; all "" without a member check."""
-    ltb = getattr(result, "ltb", None)
+def _ltb_cells(result, moment: float, ltb=None) -> list[str]:
+    """Lateral-torsional buckling (``ltb``, else the result's): "checked" or "not checked: <reason>",
+    M_cr exact and tabulated in the display units, λ̄_LT, χ_LT and the utilisation; all "" without a member
+    check."""
+    ltb = getattr(result, "ltb", None) if ltb is None else ltb
     if ltb is None:
         return [""] * 6
     if not ltb.applies:

@@ -170,7 +170,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
     combination, other = shown_line(result)
     if combination:
         weight, color = ("bold", _DANGER) if other else ("normal", _INK)
-        item("Combination", combination, weight=weight, color=color)
+        item("Combination", combination.removeprefix("Combination "), weight=weight, color=color)
     status = status_text(result, U)
     danger = result.status != "stable"
     item("Status", status, weight="bold" if danger else "normal", color=_DANGER if danger else _INK)

@@ -50,7 +50,7 @@ class ValuesView(pn.viewable.Viewer):
         result = view_result(state)
         other = "" if result is state.result else shown_line(result)[0]
         if other:  # a combination other than the governing one: its values; the capacity is the headline's
-            table = values_table(result, None, "found for the governing combination only", units(state.units))
+            table = values_table(result, None, "shown with the governing combination", units(state.units))
             # One line over the values (the whole note a click away): at 1280×720 the note in full left one
             # row of the values in view.
             table = (

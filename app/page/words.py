@@ -25,6 +25,7 @@ from app.report.combinations import deflection_basis, service_strength
 from app.report.ltb import ltb_words
 from app.report.routes import governing_text, headline_route, plane_axes, plane_name, route_name
 from app.report.section_names import section_name
+from app.report.words import modulus_text
 from engine.codes import alpha_cr_limit
 
 __all__ = [
@@ -55,7 +56,7 @@ def ratio_text(value) -> str:
 _SHORT_KINDS = {
     "out-of-plane buckling": "out of plane",
     "out-of-plane elastic buckling": "N/N_cr out of plane",
-    "elastic buckling without a bow": "N/Pcr1, no bow",
+    "in-plane elastic buckling": "N/Pcr1 (a bound)",
     "linear N–M, eq. (5.9) route": "eq. (5.9) N–M",
     "buckling with the moments, eq. (6.61)/(6.62)": "eq. (6.61)/(6.62)",
     "lateral-torsional buckling": "LTB",
@@ -153,10 +154,13 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             )
         _service_row(row, result, U)
         if capacity is not None:
+            which = governing_text(capacity.check)
+            if getattr(capacity, "combination", None):
+                which = f"{which}; {capacity.combination}, the lowest of the ultimate combinations"
             row(
                 "capacity N",
                 U.show("force", capacity.axial_force),
-                governing_text(capacity.check),
+                which,
                 False,
                 result.axial_force > capacity.axial_force,
             )
@@ -295,7 +299,7 @@ def section_facts(result, U) -> str:
         )
     if result.material is not None:
         lines.append(
-            f"{esc(result.material.name)}: E = {esc(U.show('stress', result.material.E))}, "
+            f"{esc(result.material.name)}: {esc(modulus_text(result.material, U, 3))}, "
             f"f_y = {esc(U.show('stress', result.material.fy))}"
         )
     return "<div class='ss-note'>" + "<br>".join(lines) + "</div>"

@@ -20,6 +20,7 @@ The public API (every function takes SI values or engine objects and a :class:`a
 - the printed summary: :func:`format_summary`.
 """
 
+from app.report.capacity_words import capacity_combination_text, capacity_text
 from app.report.numbers import (
     csv_number,
     finite,
@@ -49,7 +50,6 @@ from app.report.words import (
     axial_text,
     bow_direction_text,
     bow_text,
-    capacity_text,
     caution_text,
     general_caution,
     governing_rows,
@@ -90,6 +90,7 @@ __all__ = [
     "axial_text",
     "bow_direction_text",
     "bow_text",
+    "capacity_combination_text",
     "capacity_text",
     "caution_text",
     "csv_number",

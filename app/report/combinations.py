@@ -220,12 +220,13 @@ def not_governing_note(actions_result, shown: str) -> str:
         return (
             f"Combination {shown} is shown: a service combination, solved without the bow by design; "
             f"{deflection}. Strength and stability are checked on the ultimate combinations: "
-            f"{strength_words(actions_result)}; the capacity and the design are those of combination "
-            f"{headline}."
+            f"{strength_words(actions_result)}; the design is that of combination {headline}, the capacity "
+            "the lowest of the ultimate combinations."
         )
     return (
-        f"Combination {shown} is shown: it is not the governing combination. The headline utilisation, the "
-        f"capacity and the design are those of combination {headline}; {deflection}."
+        f"Combination {shown} is shown: it is not the governing combination. The headline utilisation and "
+        f"the design are those of combination {headline}, the capacity the lowest of the ultimate "
+        f"combinations; {deflection}."
     )
 
 
@@ -361,7 +362,7 @@ def combination_lines(actions_result, result, U, comparison=None) -> list:
     for row in combination_rows(actions_result, U):
         bow = f"; {row['bow']}" if row["bow"] else ""
         lines.append(
-            f"  {row['name']:<6}{row['state']:<10}{row['source']:<34}{row['expression']:<24}"
+            f"  {row['name']:<6}{row['state']:<10}{row['source']:<34}{row['expression']:<23} "
             f"N = {row['axial']}; {row['measure']}{bow}"
         )
     lines += ["", "Governing combination per check"]

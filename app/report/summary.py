@@ -7,6 +7,7 @@ import unicodedata
 from app.report import combinations as combos
 from app.report import routes as r
 from app.report import words as w
+from app.report.capacity_words import capacity_combination_text, capacity_text
 from app.report.ltb import ltb_words
 from app.report.numbers import percent, position, ratio, scientific, utilisation
 from app.report.restraints import grouped_inner_rows, has_inner, reactions_note
@@ -40,7 +41,7 @@ def _case_lines(add, source, case, result, U) -> None:
         )
     if result.material is not None:
         add(
-            f"  material:     {result.material.name} (E = {U.show('stress', result.material.E, 5)}, "
+            f"  material:     {result.material.name} ({w.modulus_text(result.material, U)}, "
             f"fy = {U.show('stress', result.material.fy, 3)})"
         )
     add(f"  EI:           {U.show('stiffness', result.EI)}")
@@ -266,11 +267,15 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None, 
         where = "" if capacity.x is None else f" at x = {position(U, capacity.x)}"
         check = governing_text(capacity.check)
         add(f"  axial force:  N = {U.show('force', capacity.axial_force, 5)} ({check}{where})")
+        given = "the given axial force"
+        if capacity.combination:
+            add(f"  combination:  {capacity_combination_text(capacity)}")
+            given = f"the axial force of {capacity.combination}"
         add(
-            f"  load factor:  {ratio(capacity.load_factor)} on the given axial force; "
+            f"  load factor:  {ratio(capacity.load_factor)} on {given}; "
             f"Pcr1 = {U.show('force', capacity.critical_load, 5)}"
         )
-        add(f"  {w.capacity_text(capacity, U, result)}")
+        add(f"  {capacity_text(capacity, U, result)}")
     add("")
     add("Cautions")
     for caution in result.cautions:

@@ -17,7 +17,6 @@ import re
 import numpy as np
 
 from app.report import restraints as inner
-from app.report import route_names as names
 from app.report.numbers import finite, format_number, position, ratio
 from app.report.restraints import REACTIONS_NOTE, all_reactions, support_label, support_reactions
 from app.report.route_names import NOTES, REASONS, governing_text, plane_axes, plane_name, route_name
@@ -33,7 +32,6 @@ __all__ = [
     "axial_text",
     "bow_direction_text",
     "bow_text",
-    "capacity_text",
     "caution_text",
     "general_caution",
     "governing_rows",
@@ -41,6 +39,7 @@ __all__ = [
     "load_ratio_text",
     "load_text",
     "material_text",
+    "modulus_text",
     "out_of_plane_text",
     "peak_text",
     "reaction_rows",
@@ -234,12 +233,21 @@ def section_text(result, U: Units) -> str | None:
     )
 
 
+def modulus_text(material, U: Units, digits: int = 5) -> str:
+    """ "E = ..." of the analysis; for timber taken at E_0,05, which it is and the mean it replaced."""
+    text = f"E = {U.show('stress', material.E, digits)}"
+    mean = getattr(material, "E_mean", None)
+    if mean is not None:
+        text += f" (E_0,05; E_mean = {U.show('stress', mean, digits)})"
+    return text
+
+
 def material_text(result, U: Units) -> str | None:
     """The material, E and f_y; None without a material."""
     material = result.material
     if material is None:
         return None
-    return f"{material.name}: E = {U.show('stress', material.E, 5)}, fy = {U.show('stress', material.fy)}"
+    return f"{material.name}: {modulus_text(material, U)}, fy = {U.show('stress', material.fy)}"
 
 
 # ----------------------------------------------------------------------------------------------------------
@@ -409,36 +417,6 @@ def service_text(service, U: Units) -> str:
         f"max|w| = {U.show('small_length', abs(service.deflection))} at x = {position(U, service.x)} "
         f"against span/{service.limit:g} = {allowed} ({ratio(service.utilization)})"
     )
-
-
-def capacity_text(capacity, U: Units, result=None) -> str:
-    """What governs the axial capacity, in the display units (`result` names the route's Annex or method)."""
-    force = U.show("force", capacity.axial_force, 5)
-    check = capacity.check
-    if check == "elastic buckling":
-        return (
-            "Utilisation stays below 1 up to the first critical load "
-            f"({U.show('force', capacity.critical_load, 5)}): elastic buckling governs."
-        )
-    if check == "out-of-plane buckling":
-        return f"Out-of-plane flexural buckling governs: N_b,Rd = {force} (eq. (6.47))."
-    if check == "out-of-plane elastic buckling":
-        return (
-            f"Out-of-plane elastic buckling bounds it: N_cr = {force} about the other axis. The code's "
-            "buckling check about that axis is not made (see the cautions): the capacity is at most this."
-        )
-    if check in ("transverse loads alone", "class 4 section"):
-        return capacity.message  # no quantity with a unit in these
-    route = getattr(capacity, "route", "second-order")
-    if route != "second-order":
-        return (
-            f"The route {route_name(route, result)} governs: utilisation 1 by {governing_text(check)} at "
-            f"N = {force}."
-        )
-    if check in names.ROUTE_TERMS:  # the second-order route's terms beside its check along the member
-        return f"The second-order route governs: utilisation 1 by {governing_text(check)} at N = {force}."
-    where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
-    return f"Strength governs: utilisation 1 by {check}{where}."
 
 
 # ----------------------------------------------------------------------------------------------------------

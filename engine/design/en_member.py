@@ -288,17 +288,32 @@ def route(
         )
         if sy.shape in ("rolled_i", "welded_i"):
             common["C_mLT"] = C_mLT
-        if sy.shape in ("rhs", "chs"):
+        if torsional and sy.shape not in ("rolled_i", "welded_i", "custom"):
+            # A deep RHS or a solid rectangle checked for lateral-torsional buckling (χ_LT < 1): Table B.1's
+            # k_zy = 0.6 k_yy would treat it as torsionally stiff while eq. (6.62) counts its twist; each
+            # factor the largest of Table B.1's rows and Table B.2 (an independent audit: a 40×250 mm
+            # rectangle read 0.768 by eq. (6.62) with B.1 where B.2 gives 1.031, and Annex A 0.997).
+            rows = [annex_b.interaction_factors(hollow=hollow, **common) for hollow in (True, False)]
+            rows.append(annex_b.interaction_factors(hollow=False, C_mLT=lateral, **common))
+            k = dataclasses.replace(_largest_factors(rows), C_mLT=lateral)
+            C_mLT = lateral
+        elif sy.shape in ("rhs", "chs"):
             k = annex_b.interaction_factors(hollow=True, **common)
+            C_mLT = None  # Table B.1 (hollow sections)
         elif sy.shape in ("rolled_i", "welded_i"):
             k = annex_b.interaction_factors(hollow=False, **common)
         elif sy.shape == "custom":  # any shape: each factor the largest of Table B.1's rows and Table B.2
             rows = [annex_b.interaction_factors(hollow=hollow, **common) for hollow in (True, False)]
             if My > 0.0 and not held:
                 rows.append(annex_b.interaction_factors(hollow=False, C_mLT=lateral, **common))
-            k = _largest_factors(rows)
             C_mLT = lateral if len(rows) == 3 else None
+            k = (
+                _largest_factors(rows)
+                if C_mLT is None
+                else dataclasses.replace(_largest_factors(rows), C_mLT=C_mLT)
+            )
         else:  # solid sections are in neither row of Table B.1: the larger k_zz of the two rows
+            C_mLT = None
             k = max(
                 annex_b.interaction_factors(hollow=True, **common),
                 annex_b.interaction_factors(hollow=False, **common),

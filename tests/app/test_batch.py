@@ -548,8 +548,9 @@ def test_route_and_second_plane_cells():
     assert float(shear) == pytest.approx(abs(result.governing.shear.value) / 1e3, rel=1e-12)
     assert float(deflection) == pytest.approx(abs(result.governing.deflection.value) * 1e3, rel=1e-12)
     columns = batch.result_columns("us")
-    assert columns[-12:-9] == ("combination_rule", "strength_combination", "deflection_combination")
-    assert columns[-23:-12] == (
+    assert columns[-14:-11] == ("combination_rule", "strength_combination", "deflection_combination")
+    assert columns[-2:] == ("capacity_combination", "from_combinations")
+    assert columns[-25:-14] == (
         "headline_route",
         "utilization_second_order",
         "governing_second_order",
@@ -658,3 +659,32 @@ def test_a_bad_second_plane_cell_is_named(change, column, words):
         member_case({**TWO_PLANE_ROW, **change})
     assert raised.value.column == column, str(raised.value)
     assert words in str(raised.value)
+
+
+def test_a_row_cut_short_is_refused_naming_the_columns_without_a_cell(tmp_path):
+    """A row with fewer cells than the header (a line broken off) was solved with its last cells empty: an
+    independent audit saw the axial force lost and the row solved as "ok" at N = 0. It is refused now,
+    naming the columns that have no cell; the full row beside it is solved."""
+    full = ["T1", "6.0", "pinned", "pinned", "HEB 200", "S355", "", "", "800", "2", "", "", "", "", ""]
+    cut = full[:8]
+    cut[0] = "T2"
+    path = write_table(tmp_path / "members.csv", [full, cut])
+    summary = batch.run(str(path), str(tmp_path / "out"), workers=1, progress=False)
+    rows = read_results(tmp_path / "out")
+    assert rows[0]["status"] == "ok"
+    assert rows[1]["status"] == "error" and rows[1]["id"] == "T2"
+    assert rows[1]["field"] == "axial_kN"
+    assert "axial_kN, udl_kN_per_m" in rows[1]["message"] and "no cell" in rows[1]["message"]
+    assert summary.error_count == 1
+
+
+def test_a_us_unit_column_is_refused_with_advice_to_convert(tmp_path):
+    """An ``axial_kip`` header was answered "did you mean 'axial_kN'?": renaming it would read kip as kN
+    (an independent audit). The message now says the values must be converted."""
+    header = [*HEADER[:8], "axial_kip", *HEADER[9:]]
+    path = write_table(
+        tmp_path / "members.csv", [["K1", "6.0", "pinned", "pinned", "", "", "", "", "180"]], header
+    )
+    with pytest.raises(batch.TableError) as caught:
+        batch.run(str(path), str(tmp_path / "out"), workers=1, progress=False)
+    assert "convert the values to SI" in str(caught.value) and "did you mean" not in str(caught.value)

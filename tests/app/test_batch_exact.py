@@ -75,7 +75,12 @@ fell (M000009 0.518 → 0.557, now eq. (6.62); M000030 1.164 → 1.301), three r
 peak values only (a half sine governing the moment). Again at stop 37, when the second-order route began
 to count in-plane buckling on a first mode that sways (engine.sway_buckling): CT-01 and 10 generated
 cantilevers, only in their cautions column (the info caution ``sway-buckling-counted``; no number moved, the
-bow's own check being the larger there). And a
+bow's own check being the larger there). Again at stop 38, from three independent audits: timber began to
+be analysed with E_0,05 (TB-01 and 24 generated timber rows: Pcr1 lower by E_mean/E_0,05 = 1.486, peaks
+and utilisations higher, M000091 unbounded at N above the lateral critical load), Table B.3 began to take
+C_m = 1 for a mix of loads whose span moment governs (WP-C2 0.5305 → 0.5309 and 15 generated rows; every
+en-member utilisation that moved rose and every capacity that moved fell), and two columns were added at the
+end (``capacity_combination``, ``from_combinations``: empty in both tables, which have no load cases). And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must

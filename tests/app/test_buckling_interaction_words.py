@@ -45,7 +45,7 @@ def test_summary_names_the_interaction_as_the_headline(system):
 def test_capacity_names_the_route_term_that_governs():
     """A capacity governed by a term of the second-order route (here the out-of-plane interaction) is worded
     with the term's name and the force, not the engine's code."""
-    from app.report.words import capacity_text
+    from app.report.capacity_words import capacity_text
     from app.units import units
     from engine.capacity import capacity
 

@@ -1,4 +1,5 @@
-"""The capacity of a case with load cases, on the command line and in the batch, tries a shaped bow both ways.
+"""The capacity of a case with load cases, on the command line, in the batch and on the page, tries a shaped
+bow both ways, and is the lowest of the ultimate combinations.
 
 Every ultimate combination solves a bow given by shape and amplitude both ways and keeps the worse; the
 governing combination of an invented post lifted by wind is in tension and keeps it reversed, and the capacity
@@ -21,7 +22,11 @@ from tests.engine.test_combination_bows import _UPLIFT, _uplift_capacity_by_hand
 
 
 def _reference() -> float:
-    return _uplift_capacity_by_hand(engine.solve(engine.Case.from_dict(_UPLIFT)), +1.0)
+    """The lowest capacity of the ultimate combinations: the most transverse load, 1.35 G + 1.5 W (each
+    combination keeps its own transverse loads while the compression grows; the bow along the load)."""
+    return _uplift_capacity_by_hand(
+        engine.solve(engine.Case.from_dict(_UPLIFT)), +1.0, q=1.35 * 200.0 + 1.5 * 3e3
+    )
 
 
 def test_solve_capacity_takes_the_bow_both_ways(tmp_path):
@@ -54,3 +59,38 @@ def test_the_page_capacity_takes_the_bow_both_ways():
     state.load_mapping(json.loads(json.dumps(_UPLIFT)))
     assert state.errors == {}
     assert state.capacity.axial_force == pytest.approx(_reference(), rel=1e-6)
+
+
+def test_the_served_page_worker_gives_the_lowest_capacity():
+    """The served page computes the capacity in a worker process from JSON texts (app.work.chart_job)."""
+    from app import work
+    from app.state import chart_forces
+
+    result = engine.solve(engine.Case.from_dict(_UPLIFT))
+    named = work.ultimate_texts(result)
+    assert [name for name, _ in named] == [
+        c.name for c in result.actions.combinations if c.combination.state == "ultimate"
+    ]
+    outputs = work.chart_job(result.case.to_json(), chart_forces(result.critical_loads), named)
+    assert outputs["capacity"].axial_force == pytest.approx(_reference(), rel=1e-6)
+    assert outputs["capacity"].combination == "U2"  # 1.35 G + 1.5 W: the most transverse load
+
+
+def test_the_page_capacity_follows_an_edit_of_another_load_case():
+    """The capacity is the lowest of the ultimate combinations, so an edit of a load case that is not the
+    headline's must find it again (an independent audit: raising the wind left 660.6 kN on screen where
+    512.5 kN was due). Reference: engine.capacity_of of the edited case."""
+    from app.state import MemberState
+    from tests.engine.test_capacity_combinations import _CASE
+
+    state = MemberState()
+    state.load_mapping(json.loads(json.dumps(_CASE)))
+    assert state.errors == {} and state.result.actions.headline == "U1"
+    before = state.capacity.axial_force
+    state.set_action_load([a["name"] for a in state.actions].index("W"), 0, q=8000.0)
+    assert state.errors == {}
+    edited = json.loads(json.dumps(_CASE))
+    edited["actions"][1]["loads"][0]["q"] = 8000.0
+    expected = engine.capacity_of(engine.solve(engine.Case.from_dict(edited)))
+    assert state.capacity.axial_force == pytest.approx(expected.axial_force, rel=1e-9)
+    assert state.capacity.axial_force < 0.9 * before

@@ -204,15 +204,15 @@ _UPLIFT = {
 }
 
 
-def _uplift_capacity_by_hand(result, sign: float) -> float:
+def _uplift_capacity_by_hand(result, sign: float, q: float = 200.0 + 1.5 * 3e3) -> float:
     """N at which N/A + |M_mid|/W_el = f_y (EN 1993-1-1 eq. (6.2), linear, γ_M0 = 1, from memory), with the
     exact mid-span moment of a pinned strut under q and a sine bow e0 (Timoshenko & Gere §1.11 and §1.12,
-    from memory): q L²/8 · 2(1 − cos u)/(u² cos u) ± N e0/(1 − N/N_E), u = (L/2)√(N/EI)."""
+    from memory): q L²/8 · 2(1 − cos u)/(u² cos u) ± N e0/(1 − N/N_E), u = (L/2)√(N/EI). ``q`` defaults to
+    the governing combination's transverse load, 1.0 G + 1.5 W."""
     from scipy.optimize import brentq
 
     section, material = result.section, result.material
     EI, L, e0 = material.E * section.I, 4.0, 0.016
-    q = 200.0 + 1.5 * 3e3  # the governing combination's transverse load: 1.0 G + 1.5 W
     n_e = math.pi**2 * EI / L**2
 
     def excess(N):

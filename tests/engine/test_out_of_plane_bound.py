@@ -23,7 +23,7 @@ from hypothesis import strategies as st
 import engine
 from engine.capacity import capacity
 
-E_C24 = 11_000e6  # EN 338 C24, E_0,mean [Pa] (from memory)
+E_C24 = 7_400e6  # EN 338 C24, E_0,05 [Pa] (from memory): the stability modulus, EN 1995-1-1 §6.3.2
 
 
 def stud(**changes) -> engine.Case:
@@ -33,7 +33,7 @@ def stud(**changes) -> engine.Case:
         "title": "Invented timber stud",
         "length": 3.0,
         "supports": {"left": "pinned", "right": "pinned"},
-        "axial_force": 15e3,
+        "axial_force": 10e3,
         "loads": [{"type": "uniform", "q": 0.8e3}],
         "section": {"name": "TIMBER 45x195"},
         "material": {"name": "C24"},
@@ -49,12 +49,13 @@ def n_cr_minor(b=0.045, h=0.195, length=3.0, E=E_C24) -> float:
 
 
 def test_the_bound_governs_a_slender_stud_and_equals_n_over_euler_load():
-    """15 kN on the stud: N/N_cr,z = 15/17.86 = 0.840 governs over the in-plane stress (0.219)."""
+    """10 kN on the stud: N/N_cr,z = 10/12.02 = 0.832 governs over the in-plane stress (N_cr,z with
+    E_0,05 since stop 38; it was 15 kN against 17.86 kN with E_mean)."""
     r = engine.solve(stud())
     out = r.check.out_of_plane
     assert not out.checked and out.N_cr == pytest.approx(n_cr_minor(), rel=1e-12)
-    assert out.N_cr == pytest.approx(17.86e3, rel=1e-3)
-    expected = 15e3 / n_cr_minor()
+    assert out.N_cr == pytest.approx(12.02e3, rel=1e-3)
+    expected = 10e3 / n_cr_minor()
     assert out.elastic_utilization == pytest.approx(expected, rel=1e-12)
     assert r.check.strength_kind == "out-of-plane elastic buckling"
     assert r.check.strength_utilization == pytest.approx(expected, rel=1e-12)
@@ -106,7 +107,7 @@ def test_a_given_out_of_plane_length_sets_the_bound():
     r = engine.solve(stud(out_of_plane={"buckling_length": 1.5}))
     out = r.check.out_of_plane
     assert out.N_cr == pytest.approx(n_cr_minor(length=1.5), rel=1e-12)
-    assert out.elastic_utilization == pytest.approx(15e3 / n_cr_minor(length=1.5), rel=1e-12)
+    assert out.elastic_utilization == pytest.approx(10e3 / n_cr_minor(length=1.5), rel=1e-12)
 
 
 def test_in_tension_the_bound_is_zero():
@@ -142,7 +143,7 @@ def test_a_stepped_stud_takes_the_weaker_segment():
     r = engine.solve(stud(steps=[{"x": 2.0, "section": {"name": "TIMBER 63x175"}}]))
     out = r.check.out_of_plane
     assert out.N_cr == pytest.approx(n_cr_minor(), rel=1e-12)  # the 45 mm part, not the 63 mm one
-    assert r.utilization >= 15e3 / n_cr_minor() * (1 - 1e-12)
+    assert r.utilization >= 10e3 / n_cr_minor() * (1 - 1e-12)
 
 
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
