@@ -113,6 +113,7 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
                 values={"routes": [r.route for r in routes if r.enabled]},
             )
         )
+    out.extend(_member_fails(applied, given + out))
     finite = {
         r.route: r.utilization for r in routes if r.utilization is not None and 0 < r.utilization < math.inf
     }
@@ -131,6 +132,30 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
             )
     order = {"danger": 0, "warning": 1, "info": 2}
     return tuple(sorted(given + out, key=lambda c: order[c.level]))
+
+
+def _member_fails(applied, cautions) -> list:
+    """A danger caution where the headline (the largest enabled route) is above 1 and no danger caution says
+    so yet: an audit found a member failing eq. (6.62) at 1.014 with no caution at all (the ``overstressed``
+    caution speaks of the in-plane check only), so a calc sheet read as a pass everywhere but its routes."""
+    if not applied or any(c.level == "danger" for c in cautions):
+        return []
+    top = max(applied, key=lambda r: r.utilization)  # the first of equal ones
+    if not top.utilization > 1.0:
+        return []
+    value = "unbounded" if math.isinf(top.utilization) else f"{top.utilization:.3f} > 1"
+    return [
+        Caution(
+            level="danger",
+            code="member-fails",
+            message=(
+                f"The member fails: utilisation {value} by the {top.route} route ({top.governing}). It does "
+                "not pass as analysed."
+            ),
+            source=top.source,
+            values={"route": top.route, "utilization": top.utilization, "governing": top.governing},
+        )
+    ]
 
 
 def _cantilever_support(ltb_check) -> list:

@@ -8,7 +8,7 @@ import io
 import numpy as np
 
 from app.exports.style import _title, _units
-from app.report import bow_direction_text, csv_number, general_caution, status_text, system_name
+from app.report import bow_direction_text, caution_text, csv_number, general_caution, status_text, system_name
 from app.report.combinations import deflection_basis, metadata_rows, service_strength, utilisation_note
 from app.report.numbers import CSV_DIGITS
 from app.report.restraints import metadata_rows as restraint_rows
@@ -146,7 +146,8 @@ def _metadata(result, U: Units) -> list:
         ("status", status_text(result, U)),
     ]
     if result.utilization is not None:
-        rows.append(("utilisation [-]", csv_number(result.utilization), utilisation_note(result)))
+        fails = "fails (> 1); " if result.utilization > 1.0 else ""
+        rows.append(("utilisation [-]", csv_number(result.utilization), fails + utilisation_note(result)))
     elif service_strength(result):  # a service combination shown: strength is the ultimate combinations'
         rows.append(("utilisation [-]", "", f"strength and stability {service_strength(result)}"))
     if result.service is not None:
@@ -168,6 +169,11 @@ def _metadata(result, U: Units) -> list:
             "couple appears twice; inf marks a value that is unbounded at a critical load",
         )
     )
+    # Every caution, most severe first, as the page and the calc sheet list them (the CSV held the general
+    # one only: an audit found a timber member's "not a code check" danger left out of it).
+    for caution in result.cautions:
+        if caution.code != "scope":
+            rows.append((f"caution ({caution.level})", caution_text(caution, U), caution.source))
     rows.append(("caution", general_caution(result)))
     return rows
 

@@ -369,15 +369,23 @@ def utilisation_text(result, U: Units) -> str | None:
     # (lateral-torsional buckling, the buckling interaction), sets the headline: named with its term.
     beyond = check is None or top is None or top.utilization != check.utilization
     if top is not None and top.utilization == result.utilization and (top.route != "second-order" or beyond):
-        fails = " fails" if math.isinf(top.utilization) else ""
+        fails = _fails(top.utilization)
         return f"{ratio(top.utilization)}{fails} ({route_name(top, result)}, {governing_text(top.governing)})"
     if check is not None:
         where = f" at x = {position(U, check.x)}" if finite(check.x) else ""
-        fails = " fails" if math.isinf(check.utilization) else ""
-        return f"{ratio(check.utilization)}{fails} ({check.kind}{where})"
+        return f"{ratio(check.utilization)}{_fails(check.utilization)} ({check.kind}{where})"
     if result.utilization is not None:
-        return ratio(result.utilization)
+        return f"{ratio(result.utilization)}{_fails(result.utilization)}"
     return None
+
+
+def _fails(value: float) -> str:
+    """ " fails" after an unbounded utilisation, " > 1, fails" after a finite one above 1 (an audit found a
+    PNG and calc sheet showing 1.014 in plain ink, with no caution, where a route other than the second-order
+    check failed), else ""."""
+    if math.isinf(value):
+        return " fails"
+    return " > 1, fails" if value > 1.0 else ""
 
 
 def out_of_plane_text(out, U: Units) -> str:

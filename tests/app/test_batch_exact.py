@@ -80,7 +80,9 @@ be analysed with E_0,05 (TB-01 and 24 generated timber rows: Pcr1 lower by E_mea
 and utilisations higher, M000091 unbounded at N above the lateral critical load), Table B.3 began to take
 C_m = 1 for a mix of loads whose span moment governs (WP-C2 0.5305 → 0.5309 and 15 generated rows; every
 en-member utilisation that moved rose and every capacity that moved fell), and two columns were added at the
-end (``capacity_combination``, ``from_combinations``: empty in both tables, which have no load cases). And a
+end (``capacity_combination``, ``from_combinations``: empty in both tables, which have no load cases); and a
+member above 1 with no danger caution began to get ``member-fails`` (7 generated rows, their cautions column
+only). And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must
