@@ -183,19 +183,16 @@ def lowest_capacity(named_cases, mode: str = "axial", stations: int = 201) -> Ca
         if mode == "proportional" and not float(case.axial_force) > 0.0:
             tension.append((name, case))
             continue
-        key = case.without_axial_force() if mode == "axial" else None
-        item = seen.get(key) if key is not None else None
+        key = case.without_axial_force() if mode == "axial" else name
+        item = seen.get(key)
         if item is None:
-            item = capacity(case, mode, stations, bow_both_ways=True)
-            if key is not None:
-                seen[key] = item
-        if mode == "axial" and case.axial_force > 0.0:
-            factor = item.axial_force / float(case.axial_force)
-        elif mode == "axial":
-            factor = math.nan
-        else:
-            factor = item.load_factor
-        found.append(dataclasses.replace(item, combination=name, load_factor=factor))
+            item = seen[key] = capacity(case, mode, stations, bow_both_ways=True)
+        if mode == "axial":  # a shared search: the factor on this combination's own axial force
+            reference = float(case.axial_force)
+            item = dataclasses.replace(
+                item, load_factor=item.axial_force / reference if reference > 0 else math.nan
+            )
+        found.append(dataclasses.replace(item, combination=name))
     if not found:
         if mode == "proportional":
             raise CaseError(
@@ -206,7 +203,8 @@ def lowest_capacity(named_cases, mode: str = "axial", stations: int = 201) -> Ca
     measure = (lambda c: c.axial_force) if mode == "axial" else (lambda c: c.load_factor)
     lowest = min(found, key=measure)  # the first of equal ones
     for name, case in tension:  # not in compression: it must not fail below the factor found
-        u = solve(_scaled(case, lowest.load_factor, "proportional", float(case.axial_force))).utilization
+        trial = _scaled(case, lowest.load_factor, "proportional", float(case.axial_force))
+        u = solve(trial, stations=stations).utilization
         if u is None or u >= 1.0:
             shown = "unbounded" if u is None else f"{u:.3f}"
             raise CaseError(

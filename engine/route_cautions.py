@@ -10,7 +10,7 @@ import math
 
 from engine.buckling_interaction import TERM as INTERACTION
 from engine.cautions import Caution
-from engine.member_routes import LTB_ELASTIC
+from engine.member_routes import LTB_ELASTIC, headline
 from engine.sway_buckling import SOURCE as SWAY_SOURCE
 from engine.sway_buckling import TERM as SWAY
 
@@ -113,7 +113,7 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
                 values={"routes": [r.route for r in routes if r.enabled]},
             )
         )
-    out.extend(_member_fails(applied, given + out))
+    out.extend(_member_fails(routes, given + out))
     finite = {
         r.route: r.utilization for r in routes if r.utilization is not None and 0 < r.utilization < math.inf
     }
@@ -134,26 +134,26 @@ def with_route_cautions(cautions, routes, ltb_check=None) -> tuple:
     return tuple(sorted(given + out, key=lambda c: order[c.level]))
 
 
-def _member_fails(applied, cautions) -> list:
-    """A danger caution where the headline (the largest enabled route) is above 1 and no danger caution says
-    so yet: an audit found a member failing eq. (6.62) at 1.014 with no caution at all (the ``overstressed``
-    caution speaks of the in-plane check only), so a calc sheet read as a pass everywhere but its routes."""
-    if not applied or any(c.level == "danger" for c in cautions):
+def _member_fails(routes, cautions) -> list:
+    """A danger caution where the headline (the largest enabled route, :func:`headline`) is above 1 and no
+    danger caution says so yet: an audit found a member failing eq. (6.62) at 1.014 with no caution at all
+    (the ``overstressed`` caution speaks of the in-plane check only), so a calc sheet read as a pass
+    everywhere but its routes."""
+    value, code, fell_back = headline(routes)
+    if fell_back or value is None or not value > 1.0 or any(c.level == "danger" for c in cautions):
         return []
-    top = max(applied, key=lambda r: r.utilization)  # the first of equal ones
-    if not top.utilization > 1.0:
-        return []
-    value = "unbounded" if math.isinf(top.utilization) else f"{top.utilization:.3f} > 1"
+    top = next(r for r in routes if r.route == code)
+    shown = "unbounded" if math.isinf(value) else f"{value:.3f} > 1"
     return [
         Caution(
             level="danger",
             code="member-fails",
             message=(
-                f"The member fails: utilisation {value} by the {top.route} route ({top.governing}). It does "
-                "not pass as analysed."
+                f"The member fails: utilisation {shown} by the {code} route ({top.governing}). It does not "
+                "pass as analysed."
             ),
             source=top.source,
-            values={"route": top.route, "utilization": top.utilization, "governing": top.governing},
+            values={"route": code, "utilization": value, "governing": top.governing},
         )
     ]
 

@@ -135,6 +135,16 @@ def _largest_factors(rows):
     return dataclasses.replace(rows[0], **{n: max(getattr(r, n) for r in rows) for n in names})
 
 
+def _largest_of_tables(common: dict, C_mLT: float | None) -> tuple:
+    """(factors, C_mLT): each of Annex B's factors the largest of Table B.1's two rows and, with ``C_mLT``
+    (a member that can twist), Table B.2's with it; for a shape in neither table's rows."""
+    rows = [annex_b.interaction_factors(hollow=hollow, **common) for hollow in (True, False)]
+    if C_mLT is None:
+        return _largest_factors(rows), None
+    rows.append(annex_b.interaction_factors(hollow=False, C_mLT=C_mLT, **common))
+    return dataclasses.replace(_largest_factors(rows), C_mLT=C_mLT), C_mLT
+
+
 def not_applied(route: str, enabled: bool, reason: str, source: str = "") -> RouteCheck:
     """A route that cannot be applied to this member: utilisation None and why."""
     return RouteCheck(route=route, enabled=enabled, utilization=None, reason=reason, source=source)
@@ -293,25 +303,14 @@ def route(
             # k_zy = 0.6 k_yy would treat it as torsionally stiff while eq. (6.62) counts its twist; each
             # factor the largest of Table B.1's rows and Table B.2 (an independent audit: a 40×250 mm
             # rectangle read 0.768 by eq. (6.62) with B.1 where B.2 gives 1.031, and Annex A 0.997).
-            rows = [annex_b.interaction_factors(hollow=hollow, **common) for hollow in (True, False)]
-            rows.append(annex_b.interaction_factors(hollow=False, C_mLT=lateral, **common))
-            k = dataclasses.replace(_largest_factors(rows), C_mLT=lateral)
-            C_mLT = lateral
+            k, C_mLT = _largest_of_tables(common, lateral)
         elif sy.shape in ("rhs", "chs"):
             k = annex_b.interaction_factors(hollow=True, **common)
             C_mLT = None  # Table B.1 (hollow sections)
         elif sy.shape in ("rolled_i", "welded_i"):
             k = annex_b.interaction_factors(hollow=False, **common)
         elif sy.shape == "custom":  # any shape: each factor the largest of Table B.1's rows and Table B.2
-            rows = [annex_b.interaction_factors(hollow=hollow, **common) for hollow in (True, False)]
-            if My > 0.0 and not held:
-                rows.append(annex_b.interaction_factors(hollow=False, C_mLT=lateral, **common))
-            C_mLT = lateral if len(rows) == 3 else None
-            k = (
-                _largest_factors(rows)
-                if C_mLT is None
-                else dataclasses.replace(_largest_factors(rows), C_mLT=C_mLT)
-            )
+            k, C_mLT = _largest_of_tables(common, lateral if My > 0.0 and not held else None)
         else:  # solid sections are in neither row of Table B.1: the larger k_zz of the two rows
             C_mLT = None
             k = max(
