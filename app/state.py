@@ -67,6 +67,7 @@ from app.state_ltb import ltb_values
 from app.state_plane import plane_values
 from app.state_restraints import inner_values
 from app.state_routes import RouteSweepOutputs
+from app.work import chart_forces
 
 __all__ = [
     "BOW_PRESETS",
@@ -87,10 +88,6 @@ __all__ = [
 ]
 
 _log = logging.getLogger(__name__)
-
-# The amplification chart runs from this much tension (in units of Pcr1) to past the third critical load.
-_CHART_TENSION = 2.0
-_CHART_BEYOND_THIRD = 1.12
 
 
 def _field_of(message: str) -> str:
@@ -368,7 +365,14 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
                 if self._runner is None:
                     outputs.update(self._chart_outputs(case, result))
                 else:
-                    outputs.update(sweep=None, approximation=None, chart_note="computing the chart …")
+                    # the old capacity belongs to the old case: never shown beside the new one
+                    outputs.update(
+                        sweep=None,
+                        approximation=None,
+                        chart_note="computing the chart …",
+                        capacity=None,
+                        capacity_note="computing …",
+                    )
                     job = partial(_chart_job, self, case, key, result.critical_loads, ultimate_texts(result))
                     self._runner.chart(job)
         if self.actions:
@@ -474,30 +478,18 @@ def _chart_job(state: MemberState, case, key: str, critical_loads, ultimate: tup
     except work.BudgetExceeded:
         _log.warning("strutscope: a chart was not computed: over its budget of %g s", work.CHART_BUDGET)
         note = f"the amplification chart takes longer than the server's budget of {work.CHART_BUDGET:g} s"
-        outputs = {"sweep": None, "approximation": None, "chart_note": note}
+        outputs = {"sweep": None, "approximation": None, "chart_note": note, "capacity": None}
+        outputs["capacity_note"] = f"not computed: over the server's budget of {work.CHART_BUDGET:g} s"
     except Exception as error:  # noqa: BLE001 - the chart is secondary
         _log.error("strutscope: a chart was not computed (%s)", type(error).__name__)
         outputs = {
             "sweep": None,
             "approximation": None,
             "chart_note": f"the amplification chart could not be computed ({type(error).__name__})",
+            "capacity": None,
+            "capacity_note": f"not computed ({type(error).__name__})",
         }
     return partial(state._charted, key, outputs)
-
-
-def chart_forces(critical_loads) -> np.ndarray:
-    """The amplification chart's axial forces [N]: from tension of 2·Pcr1 to past Pcr3, dense near each Pcr.
-
-    The critical loads themselves are left out: the curves run off the chart on both sides of each.
-    """
-    pcr = np.asarray(critical_loads, dtype=float)
-    top = _CHART_BEYOND_THIRD * pcr[2]
-    parts = [np.linspace(-_CHART_TENSION * pcr[0], top, 260)]
-    offsets = np.geomspace(2e-4, 0.06, 14)
-    for load in pcr[:3]:
-        parts += [load * (1.0 - offsets), load * (1.0 + offsets)]
-    forces = np.unique(np.concatenate(parts))
-    return forces[(forces >= -_CHART_TENSION * pcr[0]) & (forces <= top)]
 
 
 def _number_or(value: Any, default: float) -> Any:

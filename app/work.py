@@ -371,3 +371,27 @@ class _Job:
     @staticmethod
     def merge(old: _Job, new: _Job) -> _Job:
         return _Job(new.work, old.full or new.full)
+
+
+# ------------------------------------------------------------------------------- the chart's forces
+
+# The amplification chart runs from this much tension (in units of Pcr1) to past the third critical load.
+_CHART_TENSION = 2.0
+_CHART_BEYOND_THIRD = 1.12
+
+
+def chart_forces(critical_loads):
+    """The amplification chart's axial forces [N]: from tension of 2·Pcr1 to past Pcr3, dense near each Pcr.
+
+    The critical loads themselves are left out: the curves run off the chart on both sides of each.
+    """
+    import numpy as np
+
+    pcr = np.asarray(critical_loads, dtype=float)
+    top = _CHART_BEYOND_THIRD * pcr[2]
+    parts = [np.linspace(-_CHART_TENSION * pcr[0], top, 260)]
+    offsets = np.geomspace(2e-4, 0.06, 14)
+    for load in pcr[:3]:
+        parts += [load * (1.0 - offsets), load * (1.0 + offsets)]
+    forces = np.unique(np.concatenate(parts))
+    return forces[(forces >= -_CHART_TENSION * pcr[0]) & (forces <= top)]

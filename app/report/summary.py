@@ -140,6 +140,10 @@ def _check_lines(add, result, U) -> None:
         add("")
         settings = check.settings
         add(f"Member check ({settings.method}, γ_M0 = {settings.gamma_M0:g}), second-order forces")
+        headline = r.headline_text(result)
+        if headline and result.routes:
+            # the second-order line below is one route: the headline (worst enabled route) comes first
+            add(f"  headline:     {headline} (the worst enabled route, listed under Routes)")
         add(
             f"  utilisation:  {utilisation(check.utilization)} ({check.kind} at "
             f"x = {position(U, check.x)}; {check.source})"

@@ -114,7 +114,8 @@ def refine_peaks(batch: Batch, iP, pts, f, df, also=None, states=None):
         right_side = np.where(zero, -df, f)  # just left of it
     else:  # no value is zero: both sides are the values themselves
         left_side = right_side = f
-    sign_change = (left_side[:, :-1] * right_side[:, 1:] < 0) & same[None, :]
+    # signs, not the product: the product of two values near 1e±200 overflows (a warning, and the same answer)
+    sign_change = (np.sign(left_side[:, :-1]) * np.sign(right_side[:, 1:]) < 0) & same[None, :]
     fid, k = np.nonzero(sign_change)
     if k.size == 0 and single and batch.P.size == 1:  # no bracket: only the points ``also`` to evaluate
         none = xi[k]

@@ -94,3 +94,54 @@ def test_the_page_capacity_follows_an_edit_of_another_load_case():
     expected = engine.capacity_of(engine.solve(engine.Case.from_dict(edited)))
     assert state.capacity.axial_force == pytest.approx(expected.axial_force, rel=1e-9)
     assert state.capacity.axial_force < 0.9 * before
+
+
+class _HeldCharts:
+    """A runner that solves at once and holds every chart job (the capacity's worker not back yet)."""
+
+    def __init__(self) -> None:
+        self.charts: list = []
+
+    def solve(self, job, full: bool) -> None:
+        job(full)()
+
+    def chart(self, job) -> None:
+        self.charts.append(job)
+
+    def routes(self, job) -> None:
+        pass
+
+    def later(self, callback) -> None:
+        callback()
+
+
+def test_the_page_never_shows_an_old_capacity_beside_a_new_case(monkeypatch):
+    """While the worker computes the capacity of an edited case, the page must not show the old case's
+    capacity as this one's (it did, and kept it for good when the worker went over its budget): the capacity
+    is cleared with a note until the job for this case is back, and a job over its budget leaves it cleared.
+    Reference: engine.capacity of the edited (weaker) case, which is below the old value shown before."""
+    from app import state as state_module
+    from app import work
+
+    runner = _HeldCharts()
+    state = state_module.MemberState(runner=runner)
+    first = state.capacity
+    if first is None:  # the start case's chart went to the runner too: run it
+        runner.charts.pop()()()
+        first = state.capacity
+    assert first is not None
+    state.length = state.length * 1.5  # a longer member: a lower capacity
+    assert state.errors == {}
+    assert state.capacity is None and state.capacity_note == "computing …"
+    expected = engine.capacity_of(state.result)
+    assert expected.axial_force < first.axial_force
+    runner.charts.pop()()()
+    assert state.capacity.axial_force == pytest.approx(expected.axial_force, rel=1e-9)
+
+    def over_budget(*args, **kwargs):
+        raise work.BudgetExceeded()
+
+    monkeypatch.setattr(work, "run_in_worker", over_budget)
+    state.length = state.length * 1.2
+    runner.charts.pop()()()
+    assert state.capacity is None and "budget" in state.capacity_note

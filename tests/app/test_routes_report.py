@@ -261,3 +261,16 @@ def test_summary_gives_the_planes_and_the_members_alpha_cr():
     own = result.critical_loads[0] / 180e3
     assert f"α_cr = Pcr1 / N = {own:.3f} (this plane)" in text
     assert "α_cr of the member = 4.018 (the smaller of both planes" in text
+
+
+def test_member_check_block_opens_with_the_headline(demo):
+    """The printed member check states the headline (the worst enabled route) before the second-order check's
+    own utilisation line, so the first utilisation a reader meets is the one that decides: here eq. (6.62)
+    at 0.903 against the cross-section check's lower value (an audit found a failing member whose first
+    printed utilisation was its passing second-order check)."""
+    text = format_summary("demo", demo.case, demo, "si")
+    block = text[text.index("Member check (") :]
+    headline = block.index("  headline:     0.903 by EN 1993-1-1 equivalent member (Annex B), eq. (6.62)")
+    own = block.index("  utilisation:  ")
+    assert headline < own
+    assert demo.check.utilization < 0.903
