@@ -147,7 +147,7 @@ def _read_case(args):
         raise _InputError(source, str(error)) from None
 
 
-def _exports(args, result) -> None:
+def _exports(args, result, capacity=None) -> None:
     """Write the files asked for; raise _InputError naming the file when one cannot be written."""
     asked = ((args.csv, "csv"), (args.png, "png"), (args.pdf, "pdf"))
     wanted = [(path, kind) for path, kind in asked if path]
@@ -161,12 +161,16 @@ def _exports(args, result) -> None:
 
     for path, kind in wanted:
         if kind == "csv":
-            data = exports.csv_text(result, units=args.units).encode("utf-8")
+            data = exports.csv_text(result, units=args.units, capacity=capacity).encode("utf-8")
         elif kind == "png":
             data = exports.png_bytes(result, units=args.units)
         else:
             data = exports.pdf_bytes(
-                result, units=args.units, prepared_by=args.prepared_by, checked_by=args.checked_by
+                result,
+                units=args.units,
+                prepared_by=args.prepared_by,
+                checked_by=args.checked_by,
+                capacity=capacity,
             )
         try:
             _write_file(path, data)
@@ -197,7 +201,7 @@ def _solve(args) -> int:
             raise _InputError(source, str(error)) from None
         except MemoryError:
             raise _InputError(source, "not enough memory to solve this case") from None
-        _exports(args, result)
+        _exports(args, result, capacity)
     except _InputError as error:
         _error(f"error: {error.source}: {error}")
         return 2

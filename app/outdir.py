@@ -9,6 +9,9 @@
   completes, the sheets the previous run listed and this one did not write are removed, so the folder holds
   exactly the sheets of its ``results.csv``. Only files named in the manifest are ever removed: sheets
   written before manifests existed, and any file of the user's, are left alone.
+- :func:`staging` and :func:`publish`: a run's calc sheets are written into a staging folder and moved
+  beside ``results.csv`` once it is replaced, so an interrupted run leaves none of its own sheets beside the
+  previous run's table.
 - :func:`check_not_input` refuses an ``--out`` whose ``results.csv`` would be the input table itself.
 """
 
@@ -17,6 +20,7 @@ from __future__ import annotations
 import contextlib
 import json
 import os
+import shutil
 from collections.abc import Iterator
 
 __all__ = [
@@ -26,7 +30,9 @@ __all__ = [
     "Manifest",
     "check_not_input",
     "locked",
+    "publish",
     "remove_temporaries",
+    "staging",
     "TEMPORARY_PREFIX",
 ]
 
@@ -144,3 +150,19 @@ class Manifest:
             stream.write(data + "\n")
         os.replace(temporary, os.path.join(self.folder, MANIFEST_FILE))
         return removed
+
+
+def staging(out_dir: str) -> str:
+    """A fresh folder for this run's calc sheets inside ``out_dir`` (a previous run's leftover removed)."""
+    folder = os.path.join(os.path.abspath(out_dir), f"{TEMPORARY_PREFIX}sheets")
+    shutil.rmtree(folder, ignore_errors=True)
+    os.makedirs(folder)
+    return folder
+
+
+def publish(staging: str, out_dir: str) -> None:
+    """Move the staged calc sheets beside results.csv (each replaced atomically) and remove the folder."""
+    for name in sorted(os.listdir(staging)):
+        if name.endswith(".pdf"):
+            os.replace(os.path.join(staging, name), os.path.join(out_dir, name))
+    shutil.rmtree(staging, ignore_errors=True)

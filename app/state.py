@@ -43,6 +43,7 @@ import numpy as np
 import param
 
 from app.state_actions import ActionsBehaviour, actions_values
+from app.state_bow import bow_values
 from app.state_inputs import (
     BOW_PRESETS,
     BOW_SHAPES,
@@ -122,6 +123,9 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
         doc="engine.capacity of the case (axial mode), or None without a section.",
     )
     capacity_note = param.String(default="", constant=True, doc="Why no capacity is given, when none is.")
+    solving = param.Boolean(
+        default=False, constant=True, doc="A solve of the inputs on screen is under way (served pages)."
+    )
     notice = param.String(
         default="", constant=True, doc="A message about the link or the served case, shown above the plots."
     )
@@ -142,6 +146,7 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
     _runner = None
     _refresh_id = 0
     _failed_at = 0
+    _pending = -1
 
     def __init__(self, runner=None, solve_first: bool = False, **params: Any) -> None:
         super().__init__(**params)
@@ -334,6 +339,9 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
             self._solved(case, full, *solve_outcome(case, self.stations))
             return
         self._base_case = case
+        self._pending = self._refresh_id
+        with param.edit_constant(self):
+            self.solving = True  # the result is not yet the inputs on screen: exports wait (app.page.files)
         self._runner.solve(partial(_solve_job, self, case, self._refresh_id), full)
 
     def _solved(self, case, full: bool, result, message: str, refresh_id: int | None = None) -> None:
@@ -342,6 +350,9 @@ class MemberState(ActionsBehaviour, RouteSweepOutputs, MemberInputs):
         Served, a solve can finish after a later input was refused: its result is then only the last good
         result (the refusal's message stays), and its failure is dropped.
         """
+        if refresh_id is not None and refresh_id == self._pending:
+            with param.edit_constant(self):
+                self.solving = False
         if refresh_id is not None and refresh_id < self._failed_at:
             if result is not None:
                 with param.edit_constant(self):
@@ -564,20 +575,7 @@ def values_from_mapping(mapping: Mapping) -> dict:
     values["material_extra"] = material
     values["axial_force"] = mapping.get("axial_force", 0.0)
     values["loads"] = [dict(load) for load in mapping.get("loads", [])]
-    bow = dict(mapping.get("imperfection") or {})
-    if bow.get("preset") is not None:
-        values["bow_from"] = "preset"
-        values["bow_preset"] = bow["preset"]
-        values["bow_shape"] = bow.get("shape", "sine")
-        values["bow_curve"] = bow.get("curve", "auto")
-        values["bow_analysis"] = bow.get("analysis", "elastic")
-        values["bow_direction"] = bow.get("direction", "load")
-        if bow.get("ratio") is not None:
-            values["bow_ratio"] = bow["ratio"]
-    else:
-        values["bow_from"] = "shape"
-        values["bow_shape"] = bow.get("shape", "none")
-        values["bow_amplitude"] = bow.get("amplitude", 0.0)
+    values.update(bow_values(mapping))
     check = mapping.get("check") or {}
     values["check_method"] = check.get("method", "elastic")
     values["gamma_M0"] = _number_or(check.get("gamma_M0"), 1.0)

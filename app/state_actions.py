@@ -232,6 +232,11 @@ class ActionsBehaviour:
         """Show combination `choice` ('' the governing one, 'envelope', or a name); the slider follows it."""
         if self.result is not None and self.actions:
             self._mirror_force(self.result, choice)
+            if set(self.errors) == {"axial_force"}:
+                # the refused force is replaced by the shown combination's, of the result on screen: the
+                # refusal goes (an audit found the page kept "not accepted" and the exports disabled)
+                with param.edit_constant(self):
+                    self.errors = {}
         self.combination_choice = choice
 
 

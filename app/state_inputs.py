@@ -128,6 +128,7 @@ INPUTS = (
     "bow_analysis",
     "bow_direction",
     "bow_ratio",
+    "bow_extra",
     "check_method",
     "gamma_M0",
     "gamma_M1",
@@ -429,6 +430,11 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs, InnerInputs):
         softbounds=(100.0, 2000.0),
         doc="n of a span/n bow (preset 'span'); the engine allows 10 to 100000.",
     )
+    bow_extra = param.Dict(
+        default={},
+        doc="Further imperfection keys of a loaded case file (such as a preset's 'columns'), kept as they "
+        "were, per bow_from: {'preset': {...}, 'shape': {...}}.",
+    )
 
     # ------------------------------------------------------------------ member check
     check_method = param.Selector(
@@ -511,8 +517,9 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs, InnerInputs):
         return data
 
     def _imperfection_data(self) -> dict:
+        extra = dict(self.bow_extra.get(self.bow_from) or {})  # keys the page has no input for (no loss)
         if self.bow_from == "shape":
-            return {"shape": self.bow_shape, "amplitude": self.bow_amplitude}
+            return {**extra, "shape": self.bow_shape, "amplitude": self.bow_amplitude}
         data = {
             "preset": self.bow_preset,
             "shape": self.bow_shape,
@@ -523,7 +530,7 @@ class MemberInputs(ActionInputs, LtbInputs, PlaneInputs, InnerInputs):
         }
         if self.bow_preset == "span":
             data["ratio"] = self.bow_ratio
-        return data
+        return {**extra, **data}
 
     def case_mapping(self, **overrides: Any) -> dict:
         """The inputs as a case-file mapping (schema 1, SI), with `overrides` of top-level keys applied.

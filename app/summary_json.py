@@ -13,7 +13,7 @@ from app.report.scope import GENERAL_CAUTION
 __all__ = ["SUMMARY_VERSION", "summary_data"]
 
 #: Version of the layout of ``solve --json``; it grows when keys are added and changes if one changes meaning.
-SUMMARY_VERSION = 8
+SUMMARY_VERSION = 9
 
 
 def _finite(value) -> float | None:
@@ -167,6 +167,7 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "basis": result.service.basis,
             "source": result.service.source,
         },
+        "second_plane_service": _second_service(result),
         "capacity": None
         if capacity is None
         else {
@@ -365,3 +366,18 @@ def _ltb_data(result) -> dict | None:
         if getattr(aisc, "clause", "F2") != "F2":  # §F11.2, a rectangular bar (L_p, L_r: L_b at its limits)
             data["aisc"]["clause"] = aisc.clause
     return data
+
+
+def _second_service(result) -> dict | None:
+    """The second plane's deflection check (None for one plane), as ``service`` gives the first plane's."""
+    second = getattr(getattr(result, "second_plane", None), "service", None)
+    if second is None:
+        return None
+    return {
+        "deflection_utilization": _finite(second.utilization),
+        "deflection": _finite(second.deflection),
+        "x": _finite(second.x),
+        "allowed": _finite(second.allowed),
+        "basis": second.basis,
+        "source": second.source,
+    }

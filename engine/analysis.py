@@ -206,15 +206,19 @@ def _build(
     section = member.section if member is not None else None
     material = member.material if member is not None else None
     check = service = None
-    if not first_order and section is not None and material is not None and status != "critical":
-        # The deflection check is a service check: on the loads as given, without the code's bow.
-        if bow_free is not None:
-            w_service = bow_free["deflection"]
-        elif not prep.has_bow:
-            w_service = governing.deflection
-        else:
-            w_service = None
-        if paired:  # a plane of a two-plane case: the member check is made on both planes together
+    # The deflection check is a service check: on the loads as given, without the code's bow. At N = 0 the
+    # bow moves nothing (it was skipped there: a beam with a bow preset had no deflection check at all).
+    if bow_free is not None:
+        w_service = bow_free["deflection"]
+    elif not prep.has_bow or P == 0.0:
+        w_service = governing.deflection
+    else:
+        w_service = None
+    if not first_order and status != "critical":
+        # A plane of a two-plane case (the member check is made on both planes together) or a member given
+        # by EI alone (no member check; the deflection limit is geometry alone: an audit found a batch row's
+        # deflection_limit ignored without a word): the deflection check by itself.
+        if paired or section is None or material is None:
             if w_service is not None:
                 allowed = model.L / case.check.deflection_limit
                 service = ServiceCheck(

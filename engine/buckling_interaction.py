@@ -7,9 +7,13 @@ major-axis moment alone (:math:`M_{y,II}/M_{b,Rd}`). Two interactions are in non
 
 - out-of-plane buckling with the moment in the plane analysed (a one-plane case whose other plane can
   buckle): EN 1993-1-1 §6.3.3 eq. (6.62), or eq. (6.61) for bending about the minor axis;
-- lateral-torsional buckling (χ_LT < 1) with the axial force and the other moment: eqs. (6.61) and (6.62).
+- lateral-torsional buckling (χ_LT < 1) with the axial force and the other moment: eqs. (6.61) and (6.62);
+- in-plane buckling of a plane analysed with a bow below the code's, or none
+  (:attr:`engine.design.en_member.Plane.bow_short`): the analysis then does not cover the member's own
+  buckling, which EN 1993-1-1 §5.2.2(7)b leaves to §6.3 (from memory): that plane's equation, eq. (6.61)
+  for the major axis, (6.62) for the minor, counted with or without a moment.
 
-The ``en-member`` route counts both. On two kinds of member it is refused or not applied, and nothing else
+The ``en-member`` route counts them all. On two kinds of member it is refused or not applied, and nothing else
 counted them (the headline could then miss a failing check):
 
 - a member on an elastic **foundation** (the route cannot be enabled: Annex A/B's diagrams do not cover a
@@ -113,10 +117,16 @@ def _other(diagram):
 def equations(y, z, ltb) -> tuple:
     """The equations the second-order route does not count on its own (see the module notes): the
     out-of-plane one of a one-plane case whose other plane can buckle (eq. (6.62) when it is z, (6.61) when
-    y), and both where lateral-torsional buckling reduces the major-axis resistance (χ_LT < 1), whose
-    interaction with N (and M_z) the route's M_y,II/M_b,Rd term leaves out."""
+    y), an analysed plane's own where its bow is below the code's (``Plane.bow_short``), and both where
+    lateral-torsional buckling reduces the major-axis resistance (χ_LT < 1), whose interaction with N (and
+    M_z) the route's M_y,II/M_b,Rd term leaves out."""
     found = []
     for plane in (y, z):
+        # an analysed plane whose bow is below the code's: its own member buckling is not covered by the
+        # second-order analysis (EN 1993-1-1 §5.2.2(7)b, from memory), so its equation counts, with or
+        # without a moment (N/N_b,Rd at least; an audit found N/Pcr1 alone counted, 0.295 for 0.512)
+        if plane.bow_short and math.isfinite(plane.N_cr):
+            found.append("eq-6.61" if plane.axis == "y" else "eq-6.62")
         if plane.N_cr_source == "out-of-plane length" and math.isfinite(plane.N_cr):
             analysed = z if plane is y else y
             if analysed.diagram.M_max > 0.0:

@@ -1,8 +1,7 @@
 """Cautions: where this elastic, single-member analysis stops, as structured objects.
 
 Each caution has a level (``info``, ``warning`` or ``danger``), a short identifier of strutscope's own, a
-message
-in words and the source of the rule it applies. The general caution is always first.
+message in words and the source of the rule it applies. The general caution is always first.
 """
 
 from __future__ import annotations
@@ -11,7 +10,7 @@ from dataclasses import dataclass, field
 
 from engine.codes import ALPHA_CR_SOURCE
 from engine.deep_sections import deep_hollow, deep_solid, stronger_axis_named_minor
-from engine.material_cautions import not_a_code_check
+from engine.material_cautions import material_cautions
 from engine.shear_buckling import web_shear_caution
 
 __all__ = [
@@ -438,8 +437,7 @@ def assess(
         out.extend(_class_cautions(check))
         pairs = segments or ((section, material),)
         out.extend(_web_shear_cautions(pairs, axis, check, gamma_M1))
-    found = not_a_code_check(material, check is not None)
-    out.extend([] if found is None else [Caution(**found)])
+    out.extend(Caution(**found) for found in material_cautions(material, check is not None))
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):
@@ -494,42 +492,14 @@ def assess(
                     else "EN 1993-1-1:2005 §6.2 (clause numbers from memory)",
                 )
             )
-        if service is not None and service.utilization > 1.0:
-            out.append(
-                Caution(
-                    level="warning",
-                    code="deflection",
-                    message=(
-                        f"Deflection {abs(service.deflection) * 1e3:.1f} mm exceeds the "
-                        f"limit span/{service.limit:g} = {service.allowed * 1e3:.1f} mm "
-                        "(service check on the loads as given, without the bow)."
-                    ),
-                    source=service.source,
-                    values={
-                        "deflection": abs(service.deflection),
-                        "limit": service.limit,
-                        "allowed": service.allowed,
-                    },
-                )
-            )
-        if service is not None:
-            out.append(
-                Caution(
-                    level="info",
-                    code="deflection-basis",
-                    message=(
-                        f"Deflection utilisation {service.utilization:.3f}: a service check "
-                        "apart from the strength one, on the loads as given and without the "
-                        "bow. Enter service loads for it."
-                    ),
-                    source="EN 1990 §3.4 and §6.5 serviceability (from memory)",
-                )
-            )
+        out.extend(_service_cautions(service))
         if P > 0:
             out.extend(_out_of_plane_cautions(check.out_of_plane, P))
         for note in check.notes:
             source = check.in_plane_source or check.source  # the notes are about the in-plane checks
             out.append(Caution(level="info", code="check-note", message=note, source=source))
+    else:  # a member given by EI alone: its deflection check all the same
+        out.extend(_service_cautions(service))
     if (
         P > 0
         and bow.get("code_amplitude") is not None
@@ -590,3 +560,41 @@ def assess(
         )
     order = {"danger": 0, "warning": 1, "info": 2}
     return sorted(out, key=lambda c: order[c.level])  # stable: the general caution leads the infos
+
+
+def _service_cautions(service) -> list:
+    """The deflection check's cautions: over the limit (warning), and what it is a check of (info)."""
+    out: list = []
+    if service is None:
+        return out
+    if service.utilization > 1.0:
+        out.append(
+            Caution(
+                level="warning",
+                code="deflection",
+                message=(
+                    f"Deflection {abs(service.deflection) * 1e3:.1f} mm exceeds the "
+                    f"limit span/{service.limit:g} = {service.allowed * 1e3:.1f} mm "
+                    "(service check on the loads as given, without the bow)."
+                ),
+                source=service.source,
+                values={
+                    "deflection": abs(service.deflection),
+                    "limit": service.limit,
+                    "allowed": service.allowed,
+                },
+            )
+        )
+    out.append(
+        Caution(
+            level="info",
+            code="deflection-basis",
+            message=(
+                f"Deflection utilisation {service.utilization:.3f}: a service check "
+                "apart from the strength one, on the loads as given and without the "
+                "bow. Enter service loads for it."
+            ),
+            source="EN 1990 §3.4 and §6.5 serviceability (from memory)",
+        )
+    )
+    return out

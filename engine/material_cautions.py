@@ -11,7 +11,7 @@ is shown, and ``--strict`` fails on it.
 
 from __future__ import annotations
 
-__all__ = ["not_a_code_check"]
+__all__ = ["HIGH_STRENGTH_WORDS", "high_strength", "material_cautions", "not_a_code_check"]
 
 #: What a check of the material's code would add, and the code, by material kind.
 _MISSING = {
@@ -58,3 +58,40 @@ def not_a_code_check(material, has_check: bool) -> dict | None:
         "source": "strutscope's scope (common practice, no source)",
         "values": {"kind": kind},
     }
+
+
+#: EN 1993-1-1 covers steels up to S460 (§1.1(2) and Table 3.1, from memory); EN 1993-1-12 extends its rules
+#: to S700 with added requirements; above that no Eurocode for steel structures applies.
+_EN_1993_1_1_TOP = 460e6
+_EN_1993_1_12_TOP = 700e6
+
+
+#: The words after "f_y = ... MPa" of the caution ``high-strength-steel``, by level (the app words the stress
+#: in the display units: app.report.words).
+HIGH_STRENGTH_WORDS = {
+    "warning": "is above EN 1993-1-1's grades (up to S460): EN 1993-1-12 extends its rules to S700 with "
+    "added requirements (ductility, elastic global analysis, some buckling curves) not checked here.",
+    "danger": "is above every Eurocode steel (EN 1993-1-12 stops at S700): the checks here are EN 1993-1-1's "
+    "and AISC 360-16's as written, not a code check for this steel.",
+}
+
+
+def high_strength(material, has_check: bool) -> dict | None:
+    """The caution of a steel stronger than EN 1993-1-1's grades (``f_y`` above 460 MPa): a warning up to
+    700 MPa (EN 1993-1-12's range), a danger above (no Eurocode); None otherwise. An audit found a custom
+    steel of 1500 MPa checked as a plain code check without a word."""
+    if not has_check or getattr(material, "kind", None) != "steel" or not material.fy > _EN_1993_1_1_TOP:
+        return None
+    level = "warning" if material.fy <= _EN_1993_1_12_TOP else "danger"
+    return {
+        "level": level,
+        "code": "high-strength-steel",
+        "message": f"f_y = {material.fy / 1e6:.0f} MPa {HIGH_STRENGTH_WORDS[level]}",
+        "source": "EN 1993-1-1:2005 §1.1(2); EN 1993-1-12:2007 (from memory)",
+        "values": {"fy": material.fy, "level": level},
+    }
+
+
+def material_cautions(material, has_check: bool) -> list[dict]:
+    """Every caution of the material: :func:`not_a_code_check` and :func:`high_strength` (their fields)."""
+    return [c for c in (not_a_code_check(material, has_check), high_strength(material, has_check)) if c]

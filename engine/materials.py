@@ -532,11 +532,12 @@ def _plausible(path: str, kind: str, **values) -> None:
             continue
         low, high = (e_low, e_high) if key == "E" else (s_low, s_high)
         if not low <= value <= high:
-            unit, scale = ("GPa", 1e9) if key == "E" else ("MPa", 1e6)
+            # each value once, in MPa (the page words it in its own units: an audit found Pa, GPa and ksi
+            # mixed on a page in US units, each value twice)
             raise CaseError(
-                f"{path}.{key}: {value:g} Pa ({value / scale:g} {unit}) is outside what a material of kind "
-                f"{kind!r} has, {low:g} to {high:g} Pa ({low / scale:g} to {high / scale:g} {unit}); check "
-                "the unit (Pa: 210 GPa is 2.1e11, 355 MPa is 3.55e8) and the digits"
+                f"{path}.{key}: {value / 1e6:g} MPa is outside what a material of kind {kind!r} has, "
+                f"{low / 1e6:g} MPa to {high / 1e6:g} MPa; check the unit and the digits (a case file gives "
+                "E and the strengths in Pa)"
             )
 
 

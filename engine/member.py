@@ -83,8 +83,9 @@ class BowChoice:
         The buckling curve, when a section and steel material are known.
     curve_reason : str or None
         Why that curve (EN 1993-1-1 Table 6.2 row), or "given".
-    code_amplitude : float or None
-        The EN 1993-1-1 Table 5.1 amplitude for comparison [m], None when not applicable.
+    code_amplitude, en_reference : float or None
+        The EN 1993-1-1 Table 5.1 amplitude for comparison [m] (None when not applicable), and for the
+        second-order route's check (also beside AISC's L/1000; None for an EN preset).
     code_label, code_source : str
     opposes_load : bool
         The bow points against the first-order deflection of the loads.
@@ -105,13 +106,10 @@ class BowChoice:
         solved, the one used first.
     favourable : bool
         On a result's bow: the direction used is the favourable one (reversed, it gives a larger utilisation
-        or moment); only possible where the case fixes the direction.
-    notes : tuple of str
-        How the bow was adapted to the member (a shape replaced by the first mode).
+        or moment); only where the case fixes the direction. ``notes``: how the bow was adapted to the member.
     alternatives : tuple of BowChoice
-        Where a preset's bow takes the first mode's shape (not eq. (5.9)'s): the same e0 as a half sine
-        between the ends with the same sway, pointing with the sway and (where there is a sway) against it,
-        solved as well, the worst kept (:func:`resolve`); empty otherwise.
+        Where a preset's bow takes the first mode's shape (not eq. (5.9)'s): the same e0 as a half sine,
+        the same sway, with the sway and (with a sway) against it, the worst kept (:func:`resolve`).
     """
 
     shape: str
@@ -121,6 +119,7 @@ class BowChoice:
     curve: str | None = None
     curve_reason: str | None = None
     code_amplitude: float | None = None
+    en_reference: float | None = None
     code_label: str = ""
     code_source: str = ""
     opposes_load: bool = False
@@ -411,7 +410,7 @@ def resolve(case):
         section, material = segments[0].section, segments[0].material
     curve, reason = _curve(case, section, material, segments)
     label_values = {}
-    code_amp = None
+    code_amp = en_reference = None
     code_label = code_source = ""
     method = case.check.method
     if curve is not None:
@@ -497,6 +496,7 @@ def resolve(case):
             amplitude = L / codes.AISC_OUT_OF_STRAIGHTNESS
             label = "AISC out-of-straightness L/1000"
             source = "AISC 303-16 §7.13.1.1 [text]"
+            en_reference = code_amp  # the aisc route needs no bow; the second-order route's EN check does
             code_amp = None
         else:  # "span"
             amplitude = L / imp.ratio
@@ -554,6 +554,7 @@ def resolve(case):
         curve=curve,
         curve_reason=reason,
         code_amplitude=code_amp,
+        en_reference=code_amp if en_reference is None else en_reference,
         code_label=code_label,
         code_source=code_source,
         opposes_load=opposes,

@@ -103,6 +103,22 @@ def _curve(section, material):
     return en_member.curve_of(section, material)[0] if material.kind == "steel" else None
 
 
+def bow_short(res) -> bool:
+    """Whether the plane solved in ``res`` has an initial bow smaller than EN 1993-1-1 Table 5.1's, or none
+    (the test of the caution ``bow-below-code``, and AISC's L/1000 besides): its member buckling is then not
+    covered by the second-order analysis (``BowChoice.en_reference``)."""
+    bow = getattr(res, "bow", None)
+    if bow is None:
+        return False  # no member (no section or material): no route is formed
+    amplitude = abs(bow.amplitude) if bow.shape != "none" else 0.0
+    reference = getattr(bow, "en_reference", None)
+    if reference is None:
+        return amplitude == 0.0
+    # AISC's L/1000 too: it goes with the direct analysis method's reduced stiffness, not with EN 1993-1-1's
+    # cross-section check on second-order forces (found at stop 39: 0.31 where eq. (6.62) gives 0.512)
+    return amplitude < reference * (1 - 1e-9)
+
+
 def _plane(res, axis, case, *, M_second, cache, which):
     amp = res.amplification
     untilted = amp.moment_untilted if amp is not None else None
@@ -124,6 +140,7 @@ def _plane(res, axis, case, *, M_second, cache, which):
         M_direct=amp.moment_direct if amp is not None else None,
         length=float(case.length),
         M_untilted=untilted,
+        bow_short=bow_short(res),
     )
 
 
@@ -418,6 +435,7 @@ def _segment_interaction(result, segment, ltb, out_of_plane, cache):
         diagram=diagram,
         M_second=None,
         curve=_curve(segment.section, segment.material),
+        bow_short=bow_short(result),
     )
     key = ("routes-segment-other", segment.spec)
     other = _unloaded_plane(case, segment.spec, segment.material, N_cr_other, source, cache, key)
@@ -475,6 +493,7 @@ def _custom_term(result, out_of_plane, found, cache):
         EI=float(result.EI),
         diagram=diagram,
         M_second=None,
+        bow_short=bow_short(result),
     )
     planes = custom_planes(first, result.section, out_of_plane, result.material.E)
     if planes is None:

@@ -429,7 +429,8 @@ def _counted_conservatively(second) -> Caution:
         level="info",
         code="buckling-interaction-counted",
         message=(
-            "Member buckling with the moments (out of plane, and lateral-torsional with the axial force) is "
+            "Member buckling with the moments (out of plane; in plane where the bow is below the code's; "
+            "and lateral-torsional with the axial force) is "
             f"counted in the second-order route by EN 1993-1-1 eqs. (6.61)/(6.62) {_READ.get(why, '')} on "
             f"the member's own first-order moments: eq. {shown} governs with {value:.3f}. "
             + (

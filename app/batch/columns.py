@@ -306,7 +306,7 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
         a code check (<kind>)"`` that a code's check can exceed; ``governing_check`` names the route and the
         term that give it (``"en-member: eq. (6.62)"``); ``out_of_plane_utilization`` is the second-order
         route's buckling check about the other axis alone; ``deflection_utilization`` the separate service
-        check (loads as given, no bow).
+        check (loads as given, no bow; in a two-plane case the larger of both planes).
     """
     suffixes = _SUFFIXES[units]
     return tuple(name if kind is None else f"{name}_{suffixes[kind]}" for name, kind in _RESULT_LAYOUT)

@@ -6,6 +6,7 @@ import collections
 import contextlib
 import math
 import os
+import shutil
 import sys
 import tempfile
 from collections.abc import Callable, Iterable, Iterator
@@ -28,6 +29,7 @@ from app.batch.enveloped import spread
 from app.batch.headline import basis_cell, governing_cell
 from app.batch.rows import _count_rows, _engine_error, _records, member_case
 from app.batch.summary import count_danger, count_solved, finish
+from app.report.combinations import worst_deflection
 from app.safe_text import csv_writer
 from app.workers import worker_pool
 
@@ -123,7 +125,7 @@ def _solved_record(row: int, identifier: str, case, options: _Options) -> tuple[
         _cell(result.amplification.moment),
         _cell(result.utilization),
         basis_cell(result),
-        _cell(None if result.service is None else result.service.utilization),
+        _cell(worst_deflection(result)),  # the larger of both planes
         governing_cell(result),
         "" if out_of_plane is None else _cell(out_of_plane),
         "" if check is None or check.section_class is None else str(check.section_class.klass),
@@ -509,7 +511,10 @@ def _run_locked(
         units=units,
         stations=stations,
         capacity=capacity,
-        pdf_dir=os.path.abspath(out_dir) if pdf else None,
+        # the calc sheets are written into a staging folder and moved beside results.csv only when it is
+        # replaced: an interrupted run leaves no sheet of its own beside the previous run's table (an audit
+        # found M00–M15 of the new run beside results.csv and M16–M19 of the old one)
+        pdf_dir=outdir.staging(out_dir) if pdf else None,
         prepared_by=prepared_by,
         checked_by=checked_by,
     )
@@ -570,11 +575,15 @@ def _run_locked(
             os.fsync(stream.fileno())
         os.chmod(temporary, _file_mode())
         os.replace(temporary, target)
+        if options.pdf_dir is not None:
+            outdir.publish(options.pdf_dir, out_dir)
         summary.stale = manifest.complete()
         finish(summary, highest, not_checked)
     except BaseException:
         with contextlib.suppress(OSError):
             os.unlink(temporary)
+        if options.pdf_dir is not None:  # this run's sheets never join the previous run's table
+            shutil.rmtree(options.pdf_dir, ignore_errors=True)
         raise
     finally:
         if bar is not None:

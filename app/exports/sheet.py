@@ -60,7 +60,8 @@ from app.report import (
     system_name,
     utilisation_text,
 )
-from app.report.combinations import deflection_basis, service_strength, shown_line
+from app.report.capacity_words import capacity_line
+from app.report.combinations import deflection_basis, second_plane_service, service_strength, shown_line
 from app.units import Units
 
 # --------------------------------------------------------------------------------------------------------
@@ -74,7 +75,9 @@ def _version() -> str:
         return "(not installed)"
 
 
-def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checked_by: str) -> None:
+def _sheet(
+    flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checked_by: str, capacity=None
+) -> None:
     """Write the calc sheet's text into `flow`."""
     case = result.case
     first = result.first_order
@@ -255,6 +258,8 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
                 item("Deflection (service)", f"{service_text(result.service, U)}; {deflection_basis(result)}")
         else:
             flow.para("No section and material given: no member check.", color=_GREY)
+            if result.service is not None:  # the deflection check needs neither
+                item("Deflection (service)", f"{service_text(result.service, U)}; {deflection_basis(result)}")
     else:
         item("Utilisation", utilisation_text(result, U), weight="bold")
         # the source of what sets the headline: another route's where it governs (eq. (6.62) was followed by
@@ -263,6 +268,8 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         other = top is not None and top.route != "second-order" and top.source
         source = top.source if other else check.source
         item("", f"source: {source_text(source, U)}", scale=0.85, color=_GREY)
+        if capacity is not None:  # asked for (`--capacity`, or the page's): the same case, a case-wide value
+            item("Axial capacity", capacity_line(capacity, U, result))
         item("Strength alone", f"{ratio(check.strength_utilization)} ({check.strength_kind})")
         out = check.out_of_plane
         if out is not None and out.checked:
@@ -277,6 +284,10 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         service = result.service
         if service is not None:
             item("Deflection (service)", f"{service_text(service, U)}; {deflection_basis(result)}")
+        second = second_plane_service(result)
+        if second is not None:
+            plane = second[0].removeprefix("second plane, ")  # the label column is narrow
+            item("Deflection, plane 2", f"{plane}: {service_text(second[1], U)}; {second[2]}")
         resistances = check.resistances or {}
         parts = []
         for key, kind in (("N_Rd", "force"), ("M_Rd", "moment"), ("V_Rd", "force")):
@@ -306,7 +317,7 @@ def _sheet(flow: _Flow, result, U: Units, *, date: str, prepared_by: str, checke
         )
 
 
-def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -> bytes:
+def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None, capacity=None) -> bytes:
     """Return a calc sheet of `result` as PDF bytes: A4 portrait throughout: text, then the figures.
 
     Page 1 has the header (title, date, prepared-by and checked-by block), the inputs, the method and its
@@ -323,13 +334,17 @@ def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -
         Names or initials for the header; a blank line to sign on when empty.
     date : None, datetime.date or str
         Printed in the header and the figure; today when None.
+    capacity : engine.Capacity or None
+        The axial capacity of the same case (:func:`engine.capacity_of`), stated in the member check.
 
     Returns
     -------
     bytes
         The PDF file (no creation date in its metadata, so the same inputs give the same bytes).
     """
-    pages = calc_sheet_figures(result, units=units, prepared_by=prepared_by, checked_by=checked_by, date=date)
+    pages = calc_sheet_figures(
+        result, units=units, prepared_by=prepared_by, checked_by=checked_by, date=date, capacity=capacity
+    )
     buffer = io.BytesIO()
     metadata_ = {
         "Title": _title(result),
@@ -348,7 +363,9 @@ def pdf_bytes(result, *, units="si", prepared_by="", checked_by="", date=None) -
     return buffer.getvalue()
 
 
-def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", date=None) -> list[Figure]:
+def calc_sheet_figures(
+    result, *, units="si", prepared_by="", checked_by="", date=None, capacity=None
+) -> list[Figure]:
     """The pages of :func:`pdf_bytes` as matplotlib figures (text pages, then the figure page)."""
     U = _units(units)
     date_text = _date_text(date)
@@ -377,7 +394,9 @@ def calc_sheet_figures(result, *, units="si", prepared_by="", checked_by="", dat
             draw=draw,
             new_page=new_page,
         )
-        _sheet(flow, result, U, date=date_text, prepared_by=prepared_by, checked_by=checked_by)
+        _sheet(
+            flow, result, U, date=date_text, prepared_by=prepared_by, checked_by=checked_by, capacity=capacity
+        )
         return flow.pages, pages
 
     size = 8.2

@@ -9,7 +9,14 @@ import numpy as np
 
 from app.exports.style import _title, _units
 from app.report import bow_direction_text, caution_text, csv_number, general_caution, status_text, system_name
-from app.report.combinations import deflection_basis, metadata_rows, service_strength, utilisation_note
+from app.report.capacity_words import capacity_line
+from app.report.combinations import (
+    deflection_basis,
+    metadata_rows,
+    second_plane_service,
+    service_strength,
+    utilisation_note,
+)
 from app.report.numbers import CSV_DIGITS
 from app.report.restraints import metadata_rows as restraint_rows
 from app.safe_text import csv_writer
@@ -130,7 +137,7 @@ def _amplification_rows(result) -> list:
     return rows
 
 
-def _metadata(result, U: Units) -> list:
+def _metadata(result, U: Units, capacity=None) -> list:
     """The metadata rows: a key (starting "# "), a value and perhaps a note, each one cell."""
     force = U.label("force")
     rows = [
@@ -150,9 +157,19 @@ def _metadata(result, U: Units) -> list:
         rows.append(("utilisation [-]", csv_number(result.utilization), fails + utilisation_note(result)))
     elif service_strength(result):  # a service combination shown: strength is the ultimate combinations'
         rows.append(("utilisation [-]", "", f"strength and stability {service_strength(result)}"))
+    if capacity is not None:  # the same case's (`--capacity`, or the page's)
+        force = U.convert("force", capacity.axial_force)
+        note = capacity_line(capacity, U, result)
+        rows.append((f"axial capacity [{U.label('force')}]", csv_number(force), note))
     if result.service is not None:
         note = deflection_basis(result, long=True)
         rows.append(("deflection utilisation [-]", csv_number(result.service.utilization), note))
+    second = second_plane_service(result)
+    if second is not None:
+        label, service, basis = second  # no comma in a key: a line that starts with "# " is a comment
+        rows.append(
+            ("deflection utilisation second plane [-]", csv_number(service.utilization), f"{label}; {basis}")
+        )
     rows += _amplification_rows(result)
     rows += _plane_and_route_rows(result, U)
     actions = getattr(result, "actions", None)
@@ -234,7 +251,7 @@ def _ltb_rows(result, U: Units) -> list:
     return rows
 
 
-def csv_text(result, *, units="si") -> str:
+def csv_text(result, *, units="si", capacity=None) -> str:
     """Return the stations of `result` as CSV text, one row per station, with units in the header.
 
     The text starts with a byte order mark (U+FEFF), so that a spreadsheet reads it as UTF-8 (kN·m, ç). The
@@ -251,6 +268,8 @@ def csv_text(result, *, units="si") -> str:
     ----------
     result : engine.Result
     units : str or Units
+    capacity : engine.Capacity or None
+        The axial capacity of the same case, as a metadata row.
 
     Returns
     -------
@@ -262,7 +281,7 @@ def csv_text(result, *, units="si") -> str:
     out = io.StringIO()
     out.write(BOM)
     writer = csv_writer(out, lineterminator="\n")
-    for key, *values in _metadata(result, U):
+    for key, *values in _metadata(result, U, capacity):
         writer.writerow([f"# {key}", *(" ".join(str(v).split()) for v in values)])
     writer.writerow([header for header, _, _ in columns])
     data = []

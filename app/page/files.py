@@ -2,7 +2,8 @@
 page's link, and the upload of a case file.
 
 Exports never show a case other than the one on screen: while an input is refused, the export buttons are
-disabled and say why (the last valid result would otherwise be exported with nothing to say so); with load
+disabled and say why (the last valid result would otherwise be exported with nothing to say so), and so are
+they while a solve of the inputs on screen is under way (served pages, ``MemberState.solving``); with load
 cases they hold the combination shown (:func:`app.state_actions.view_result`), saying when it is not the
 governing one.
 """
@@ -83,7 +84,9 @@ class FilesView(pn.viewable.Viewer):
             styles={"border-bottom": "1px solid #e4e7e1"},
             sizing_mode="stretch_width",
         )
-        state.param.watch(lambda *_: self.draw(), ["result", "errors", "units", "combination_choice"])
+        state.param.watch(
+            lambda *_: self.draw(), ["result", "errors", "units", "combination_choice", "solving"]
+        )
         state.param.watch(
             lambda *_: self.write_query(), ["result", "errors", "units", "link", "combination_choice"]
         )
@@ -105,7 +108,8 @@ class FilesView(pn.viewable.Viewer):
         """The stations of the result on screen, as CSV."""
         from app.exports import csv_text
 
-        return io.StringIO(csv_text(view_result(self.state), units=self.state.units))
+        state = self.state
+        return io.StringIO(csv_text(view_result(state), units=state.units, capacity=state.capacity))
 
     def pdf(self) -> io.BytesIO:
         """The calc sheet of the result on screen, as PDF."""
@@ -113,7 +117,15 @@ class FilesView(pn.viewable.Viewer):
 
         prepared, checked = self._signatures()
         result = view_result(self.state)
-        return io.BytesIO(pdf_bytes(result, units=self.state.units, prepared_by=prepared, checked_by=checked))
+        return io.BytesIO(
+            pdf_bytes(
+                result,
+                units=self.state.units,
+                prepared_by=prepared,
+                checked_by=checked,
+                capacity=self.state.capacity,
+            )
+        )
 
     def json(self) -> io.StringIO:
         """The case on screen, as a case file (with its load cases, when it has them)."""
@@ -139,11 +151,16 @@ class FilesView(pn.viewable.Viewer):
                     case.title, case.axial_force, extension, system, shown_combination(self.state)
                 )
         refused = self.refused()
+        # while a solve of the inputs on screen is under way the result is the previous inputs' (an audit
+        # exported a 6 m member after the length read 4 m): the files wait for it
+        solving = bool(getattr(self.state, "solving", False)) and not refused
         for widget in self.buttons:
-            widget.disabled = bool(refused) or result is None
+            widget.disabled = bool(refused) or result is None or solving
             widget.description = (
                 f"not available: {refused} is not accepted, so the result on screen is the last valid case"
                 if refused
+                else "not available while the case on screen is being solved"
+                if solving
                 else None
             )
         held = shown_combination(self.state)

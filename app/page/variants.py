@@ -14,6 +14,7 @@ from app.page.style import MAX_VARIANTS, VARIANT_LETTERS, WIDGET_CSS, esc, html_
 from app.page.words import ratio_text, symbols
 from app.report.section_names import section_name
 from app.state import MemberState
+from app.state_actions import view_result
 from app.units import units
 
 __all__ = ["VariantsView", "describe"]
@@ -102,7 +103,7 @@ class VariantsView(pn.viewable.Viewer):
             margin=0,
             scroll=True,
         )
-        state.param.watch(lambda *_: self.draw(), ["result", "units"])
+        state.param.watch(lambda *_: self.draw(), ["result", "units", "combination_choice"])
         self.param.watch(lambda *_: self.draw(), ["kept"])
         self.draw()
 
@@ -113,8 +114,9 @@ class VariantsView(pn.viewable.Viewer):
         return f"Keep as variant ({len(self.kept)}/{MAX_VARIANTS})"
 
     def keep(self) -> None:
-        """Keep the current result as a variant (at most four; the oldest goes first)."""
-        result = self.state.result
+        """Keep the result on screen as a variant (at most four; the oldest goes first): with load cases the
+        combination shown, not the governing one (an audit kept U2 while U3 was on screen)."""
+        result = view_result(self.state) if self.state.result is not None else None
         if result is None:
             return
         kept = list(self.kept)
@@ -149,7 +151,8 @@ class VariantsView(pn.viewable.Viewer):
                 widget.visible = True
             else:
                 widget.visible = False
-        self.table.object = comparison_table(self.state.result, self.kept, units(self.state.units))
+        shown = view_result(self.state) if self.state.result is not None else None
+        self.table.object = comparison_table(shown, self.kept, units(self.state.units))
 
 
 def comparison_table(current, variants, U) -> str:

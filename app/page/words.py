@@ -21,7 +21,7 @@ from app.report import (
     ratio,
     reaction_rows,
 )
-from app.report.combinations import deflection_basis, service_strength
+from app.report.combinations import deflection_basis, second_plane_service, service_strength
 from app.report.ltb import ltb_words
 from app.report.routes import governing_text, headline_route, plane_axes, plane_name, route_name
 from app.report.section_names import section_name
@@ -75,13 +75,20 @@ def utilisation_text(value) -> str:
 
 
 def _service_row(row, result, U) -> None:
-    """The deflection check's row (with load cases the governing service combination's, named)."""
-    service = result.service
-    if service is not None:
+    """The deflection check's rows (with load cases the governing service combination's, named), the second
+    plane's beside the first's."""
+    rows = (
+        [] if result.service is None else [("deflection (service)", result.service, deflection_basis(result))]
+    )
+    second = second_plane_service(result)
+    if second is not None:
+        label, service, basis = second
+        rows.append((f"deflection (service), {label}", service, basis))
+    for label, service, basis in rows:
         row(
-            "deflection (service)",
+            label,
             f"{ratio_text(service.utilization)} {U.show('small_length', abs(service.deflection))}",
-            deflection_basis(result),
+            basis,
             False,
             service.utilization > 1,
         )
@@ -171,6 +178,7 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
         _service_row(row, result, U)
     else:
         row("utilisation", "n/a", "needs a section and material")
+        _service_row(row, result, U)  # the deflection check needs neither
     _ltb_rows(head, row, result, U)
     first = result.first_order
     unstable = result.status != "stable"

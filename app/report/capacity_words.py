@@ -7,7 +7,7 @@ from app.report.numbers import position
 from app.report.route_names import governing_text, route_name
 from app.units import Units
 
-__all__ = ["capacity_combination_text", "capacity_text"]
+__all__ = ["capacity_combination_text", "capacity_line", "capacity_text"]
 
 
 def capacity_combination_text(capacity) -> str:
@@ -46,3 +46,13 @@ def capacity_text(capacity, U: Units, result=None) -> str:
         return f"The second-order route governs: utilisation 1 by {governing_text(check)} at N = {force}."
     where = f" at x = {position(U, capacity.x)}" if capacity.x is not None else ""
     return f"Strength governs: utilisation 1 by {check}{where}."
+
+
+def capacity_line(capacity, U: Units, result=None) -> str:
+    """The capacity as the exports state it: the force, how it was found, what governs, which combination."""
+    how = "all loads grown by one factor" if capacity.mode == "proportional" else "transverse loads as given"
+    force = U.show("force", capacity.axial_force, 5)
+    governs = capacity_text(capacity, U, result)
+    line = f"N = {force}, the largest compression at utilisation 1 ({how}). {governs}"
+    combination = capacity_combination_text(capacity)
+    return f"{line} Combination: {combination}." if combination else line

@@ -8,7 +8,7 @@ import math
 
 from app.report import words as w
 from app.report.numbers import utilisation
-from app.report.route_names import governing_text, route_name
+from app.report.route_names import governing_text, plane_axes, plane_name, route_name
 
 __all__ = [
     "CHECK_NAMES",
@@ -25,6 +25,7 @@ __all__ = [
     "metadata_rows",
     "not_governing_title",
     "rule_text",
+    "second_plane_service",
     "service_strength",
     "shown_line",
     "shown_name",
@@ -32,6 +33,7 @@ __all__ = [
     "strength_words",
     "utilisation_line",
     "utilisation_note",
+    "worst_deflection",
 ]
 
 #: The rules' names, with their sources' flags.
@@ -278,17 +280,39 @@ def deflection_words(actions_result, plane: int = 1) -> str:
     return f"service combination {row.combination} ({utilisation(row.value)})"
 
 
-def deflection_basis(result, long: bool = False) -> str:
+def deflection_basis(result, long: bool = False, plane: int = 1) -> str:
     """What the deflection check of `result` is of: the loads as given, or with load cases the governing
-    service combination, by name, whichever combination is shown (``long``: the engine's basis after it)."""
+    service combination, by name, whichever combination is shown (``long``: the engine's basis after it).
+    ``plane=2``: the second plane's check."""
     actions = getattr(result, "actions", None)
-    row = None if actions is None else actions.governing_for("deflection")
-    basis = getattr(getattr(result, "service", None), "basis", "")
+    row = None if actions is None else actions.governing_for("deflection", plane)
+    of = result if plane == 1 else getattr(result, "second_plane", None)
+    basis = getattr(getattr(of, "service", None), "basis", "")
     if row is None or row.unit != "":
         return f"service check: {basis}" if long else "loads as given, no bow"
     if long:
         return f"service check of combination {row.combination}, the governing service combination: {basis}"
     return f"service combination {row.combination}, no bow"
+
+
+def second_plane_service(result) -> tuple:
+    """(label, service check, basis) of the second plane's deflection check, or None (one plane, or no
+    check): every output states it beside the first plane's (an audit found 1.204 in a caution only)."""
+    second = getattr(result, "second_plane", None)
+    service = getattr(second, "service", None)
+    if service is None:
+        return None
+    label = f"second plane, {plane_name(plane_axes(result)[1])}"
+    return label, service, deflection_basis(result, plane=2)
+
+
+def worst_deflection(result) -> float | None:
+    """The larger deflection utilisation of both planes (the first plane's alone in a one-plane case)."""
+    values = [s.utilization for s in (getattr(result, "service", None),) if s is not None]
+    second = second_plane_service(result)
+    if second is not None:
+        values.append(second[1].utilization)
+    return max(values) if values else None
 
 
 def utilisation_note(result) -> str:

@@ -164,6 +164,9 @@ def _check_lines(add, result, U) -> None:
         add("Service check (deflection; apart from the strength utilisation)")
         add(f"  deflection:   {w.service_text(service, U)}")
         add(f"  basis:        {combos.deflection_basis(result, long=True).removeprefix('service check: ')}")
+        second = combos.second_plane_service(result)
+        if second is not None:
+            add(f"  {second[0]}: {w.service_text(second[1], U)}; {second[2]}")
     elif result.utilization is not None:
         add("")
         add(f"Member check: utilisation {utilisation(result.utilization)}")

@@ -438,6 +438,12 @@ def _deflection(v: dict, U: Units) -> str:
     )
 
 
+def _high_strength(v: dict, U: Units) -> str:
+    from engine.material_cautions import HIGH_STRENGTH_WORDS
+
+    return f"f_y = {U.show('stress', v['fy'])} {HIGH_STRENGTH_WORDS[v['level']]}"
+
+
 def _bow_below_code(v: dict, U: Units) -> str:
     return (
         f"The initial bow {U.show('small_length', v['amplitude'])} is smaller than the code value "
@@ -508,6 +514,7 @@ _WORDED = {
     "routes-disagree": _routes_disagree,
     "deflection": _deflection,
     "bow-below-code": _bow_below_code,
+    "high-strength-steel": _high_strength,
     "out-of-plane-buckling": _out_of_plane_buckling,
     "out-of-plane-checked": _out_of_plane_checked,
     "out-of-plane-not-checked": _out_of_plane_not_checked,

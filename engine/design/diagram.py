@@ -21,7 +21,11 @@ strutscope's decisions, each on the safe side:
   the end moment is the larger, the table's uniform row (``α_s = M_s/M_h``), which is never smaller than the
   concentrated one (Table B.3's formulas differ by 0.1(1 + ψ) ≥ 0, 0.1 or 0.05(1 − α_h) ≥ 0), and never
   below the equivalent uniform moment of the diagram's first sine term (:func:`sine_share`: end couples
-  with a short self-balancing dip near one end read 0.4 by the row where that term is 0.966);
+  with a short self-balancing dip near one end read 0.4 by the row where that term is 0.966), nor below the
+  uniform row read with the moment at mid-span as M_s (the table's figures draw M_s there): one end couple
+  with a small relieving load near the other end has its extremum in a small dip (α_s ≈ 0⁻, the row's 0.4)
+  where the couple alone reads 0.6 by the linear row, eq. (6.62) 9 % low (an independent audit); at mid-span
+  α_s ≈ 0.5 reads 0.6, and the two readings agree where the extremum is at mid-span [derived];
 - two or more point loads inside the span (form ``"points"``; with other loads as well, ``"other"``): not the
   table's one concentrated load, and no row fits. Their diagram can be anything from one peak to a nearly
   uniform moment between loads near the ends (ψ = 1's C_m = 1): third-point loads are amplified more than a
@@ -90,6 +94,8 @@ class Diagram:
     sine_share : float
         The equivalent uniform moment of the diagram's first sine term over max|M| (:func:`sine_share`;
         read for a ``"mixed"`` diagram only, 1.0 otherwise).
+    M_mid : float
+        The moment at mid-span [N·m] (read for a ``"mixed"`` diagram only, 0 otherwise).
     """
 
     form: str
@@ -101,6 +107,7 @@ class Diagram:
     V_max: float
     sway: bool
     sine_share: float = 1.0
+    M_mid: float = 0.0
 
 
 def sine_share(x, moment, length: float, M_max: float) -> float:
@@ -185,7 +192,8 @@ def describe(*, x, moment, deflection, shear, loads, length: float, sway: bool) 
     if len(found) != 1:
         return Diagram("other", M_h, psi, 0.0, M_max, delta, V_max, sway)
     share = sine_share(x, M, length, M_max) if form == "mixed" else 1.0
-    return Diagram(form, M_h, psi, found[0], M_max, delta, V_max, sway, share)
+    mid = float(np.interp(0.5 * length, np.asarray(x, dtype=float), M)) if form == "mixed" else 0.0
+    return Diagram(form, M_h, psi, found[0], M_max, delta, V_max, sway, share, mid)
 
 
 def annex_b_factor(d: Diagram) -> float:
@@ -199,8 +207,10 @@ def annex_b_factor(d: Diagram) -> float:
     else:
         load = "concentrated" if d.form == "concentrated" else "uniform"
         table = annex_b.equivalent_moment_factor(d.M_h, d.psi, d.M_s, load)
-        if d.form == "mixed":  # none of the table's shapes: never below its first sine term (module notes)
-            table = max(table, d.sine_share)
+        if d.form == "mixed":  # none of the table's shapes: never below its first sine term, nor below the
+            # uniform row read with the mid-span moment as M_s (module notes)
+            mid = annex_b.equivalent_moment_factor(d.M_h, d.psi, d.M_mid, load)
+            table = max(table, d.sine_share, mid)
     if d.sway and d.M_max != 0.0:
         return max(annex_b.SWAY_CM, table if table is not None else 0.0)
     return 1.0 if table is None else table

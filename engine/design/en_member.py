@@ -81,6 +81,10 @@ class Plane:
     N_cr_source : str
         How N_cr was found: ``"exact"`` (the engine's critical load of the plane), ``"out-of-plane length"``
         (π²EI/L_cr² with the case's out-of-plane buckling length) or ``"restrained"``.
+    bow_short : bool
+        The analysed plane's initial bow is smaller than the code's (or there is none): the second-order
+        analysis does not cover this plane's member buckling, whose equation the second-order route then
+        counts (EN 1993-1-1 §5.2.2(7)b; :func:`engine.buckling_interaction.equations`).
     """
 
     axis: str
@@ -91,6 +95,7 @@ class Plane:
     M_second: float | None
     N_cr_source: str = "exact"
     curve: str | None = None
+    bow_short: bool = False
     M_asd: float | None = (
         None  # max|M| without bow at 1.6·N (ASD's analysis, AISC §C2.1) [N·m]; None: not made
     )

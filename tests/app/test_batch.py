@@ -503,6 +503,30 @@ def test_interrupted_run_leaves_the_previous_results_untouched(tmp_path):
     assert listing(out) == ["results.csv"]
 
 
+def test_interrupted_run_with_calc_sheets_leaves_the_previous_sheets(tmp_path):
+    """A run with --pdf stopped part-way leaves results.csv and every calc sheet as the previous run wrote
+    them (an audit found the new run's first sheets beside the old results.csv and the old run's other
+    sheets): the sheets are staged and published with results.csv."""
+    rows = [GOOD["G3"][0], GOOD["G2"][0]]
+    table = write_table(tmp_path / "members.csv", rows)
+    out = tmp_path / "out"
+    batch.run(str(table), str(out), workers=1, capacity=False, pdf=True)
+    before = {path.name: path.read_bytes() for path in out.iterdir() if path.suffix in (".pdf", ".csv")}
+    assert sum(name.endswith(".pdf") for name in before) == 2
+    write_table(tmp_path / "members.csv", [GOOD["G2"][0], GOOD["G3"][0]])  # another run, other sheets
+
+    def stop(count):
+        raise KeyboardInterrupt  # Ctrl-C after the first chunk, every sheet of it staged
+
+    with pytest.raises(KeyboardInterrupt):
+        batch.run(
+            str(table), str(out), workers=1, capacity=False, pdf=True, prepared_by="XY", on_progress=stop
+        )
+    after = {path.name: path.read_bytes() for path in out.iterdir() if path.suffix in (".pdf", ".csv")}
+    assert after == before
+    assert not [name for name in os.listdir(out) if name.startswith(".strutscope-") and "sheets" in name]
+
+
 def test_progress_bar_shows_when_asked(tmp_path, capsys):
     """With progress=True the run draws a tqdm bar counting members on stderr (by default none off a TTY)."""
     table = write_table(tmp_path / "members.csv", [GOOD["G3"][0], GOOD["G2"][0]])

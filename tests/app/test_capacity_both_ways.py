@@ -145,3 +145,35 @@ def test_the_page_never_shows_an_old_capacity_beside_a_new_case(monkeypatch):
     state.length = state.length * 1.2
     runner.charts.pop()()()
     assert state.capacity is None and "budget" in state.capacity_note
+
+
+class _HeldSolves(_HeldCharts):
+    """A runner that holds every solve job too (the worker thread still solving)."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.solves: list = []
+
+    def solve(self, job, full: bool) -> None:
+        self.solves.append((job, full))
+
+
+def test_the_exports_wait_for_the_solve_of_the_inputs_on_screen():
+    """While a served solve is under way the result is the previous inputs': the export buttons are disabled
+    and say why, and come back once the solve lands with the new case (an audit exported a 6 m member from a
+    page whose length read 4 m)."""
+    from app.page.member import MemberPage
+
+    runner = _HeldSolves()
+    page = MemberPage()
+    state = page.model
+    state._runner = runner
+    before = state.result.case.length
+    state.length = before - 2.0
+    assert state.solving and state.result.case.length == before
+    assert all(button.disabled for button in page.files.buttons)
+    assert "being solved" in page.files.buttons[0].description
+    job, full = runner.solves.pop()
+    job(full)()
+    assert not state.solving and state.result.case.length == before - 2.0
+    assert not any(button.disabled for button in page.files.buttons)

@@ -212,6 +212,7 @@ def test_installed_entry_point_runs_demo(tmp_path):
 # The keys `solve --json` documents (README, "Command line").
 SUMMARY_KEYS = {
     "summary_version",
+    "second_plane_service",
     "fails",
     "source",
     "title",
@@ -411,6 +412,32 @@ def test_capacity_option_reports_engine_capacity(tmp_path):
     assert data["capacity"]["axial_force"] == expected.axial_force
     assert data["capacity"]["check"] == expected.check
     assert data["capacity"]["critical_load"] == expected.critical_load
+
+
+def test_capacity_option_reaches_the_calc_sheet_and_csv(tmp_path):
+    """`--capacity` with `--pdf` and `--csv` states the same capacity in both files as in the JSON (an audit
+    found it only in the printed summary and the JSON): the CSV's metadata row holds the force in kN, the
+    calc sheet's member check the force and its combination. Reference: engine.capacity_of of the demo."""
+    import pypdf
+
+    done = run_cli(
+        "solve", "--demo", "--capacity", "--json", "--pdf", "c.pdf", "--csv", "c.csv", cwd=tmp_path
+    )
+    assert done.returncode == 0, done.stderr
+    expected = engine.capacity_of(engine.solve(page_demo_case()))
+    assert strict_json(done.stdout)["capacity"]["axial_force"] == expected.axial_force
+    row = next(
+        line
+        for line in (tmp_path / "c.csv").read_text(encoding="utf-8-sig").splitlines()
+        if "capacity" in line
+    )
+    assert row.startswith("# axial capacity [kN],")
+    assert float(row.split(",")[1]) == pytest.approx(expected.axial_force / 1e3, rel=1e-6)
+    text = " ".join(p.extract_text() for p in pypdf.PdfReader(tmp_path / "c.pdf").pages)
+    text = " ".join(text.split())
+    shown = f"{expected.axial_force / 1e3:.2f} kN"
+    assert f"Axial capacity N = {shown}" in text
+    assert f"Combination: {expected.combination}, the lowest of the ultimate combinations" in text
 
 
 def test_capacity_without_section_exits_two_naming_section(tmp_path):

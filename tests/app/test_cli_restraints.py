@@ -42,7 +42,7 @@ def test_json_summary_gives_the_inputs_in_the_case_files_form():
     result = engine.solve(case)
     data = json.loads(json.dumps(summary_data("invented", case, result), allow_nan=False))
     assert (
-        data["summary_version"] == SUMMARY_VERSION == 8
+        data["summary_version"] == SUMMARY_VERSION == 9
     )  # the restraint keys are new keys: no version of their own
     for key in ("restraints", "steps", "foundation"):
         assert data[key] == EVERYTHING[key]

@@ -101,12 +101,23 @@ def members_table(path: Path, rows: int) -> Path:
     return path
 
 
+def sheet_written(out) -> bool:
+    """A calc sheet is written: into the run's staging folder (app.outdir.staging), or beside results."""
+    staging = out / ".strutscope-sheets"
+    return any(
+        folder.is_dir() and any(name.endswith(".pdf") for name in os.listdir(folder))
+        for folder in (out, staging)
+    )
+
+
 def assert_clean(process, code, err, expected, folder) -> None:
-    """Exit code, one message and no traceback, no .part file in `folder`, no process of the session."""
+    """Exit code, one message and no traceback, no .part file nor staged sheets in `folder`, no process of
+    the session."""
     assert code == expected, err
     assert "Traceback" not in err and "KeyboardInterrupt" not in err, err
     assert "stopped by" in err
     assert [name for name in os.listdir(folder) if name.endswith(".part")] == []
+    assert not (folder / ".strutscope-sheets").exists()  # an interrupted run's sheets never stay
     deadline = time.monotonic() + 10  # the fork server notices its parent's end within moments
     while session_processes(process.pid) and time.monotonic() < deadline:
         time.sleep(0.1)
@@ -123,7 +134,7 @@ def test_batch_with_workers_ends_cleanly_on_a_signal(tmp_path, signum, expected)
     out.mkdir()
     (out / "results.csv").write_text("previous results\n", encoding="utf-8")
     process = start(["batch", str(table), "--out", str(out), "--pdf", "--workers", "2"], tmp_path)
-    wait_for(lambda: any(name.endswith(".pdf") for name in os.listdir(out)))  # workers busy with sheets
+    wait_for(lambda: sheet_written(out))  # workers busy with sheets
     assert len(session_processes(process.pid)) >= 3  # the command, the fork server and its workers
     code, _, err = interrupt(process, signum)
     assert_clean(process, code, err, expected, out)
@@ -138,7 +149,7 @@ def test_batch_in_one_process_ends_cleanly_on_a_signal(tmp_path, signum, expecte
     table = members_table(tmp_path / "members.csv", 40)
     out = tmp_path / "out"
     process = start(["batch", str(table), "--out", str(out), "--pdf"], tmp_path)
-    wait_for(lambda: out.is_dir() and any(name.endswith(".pdf") for name in os.listdir(out)))
+    wait_for(lambda: sheet_written(out))
     code, _, err = interrupt(process, signum)
     assert_clean(process, code, err, expected, out)
     assert not (out / "results.csv").exists()

@@ -128,6 +128,26 @@ def test_the_pages_exports_name_the_governing_combination(page):
     )
 
 
+def test_the_pages_exports_state_the_capacity_shown(page):
+    """The page's CSV and calc sheet state the capacity the page shows (the lowest of the ultimate
+    combinations), in the page's units. Reference: engine.capacity_of of the page's result."""
+    import pypdf
+
+    expected = page.model.capacity
+    assert expected is not None
+    assert expected.axial_force == engine_capacity(page.model.result).axial_force
+    text = page.files.csv().getvalue()
+    assert f"# axial capacity [kN],{expected.axial_force / 1e3:.6g}" in text.replace('"', "")
+    pdf = " ".join(p.extract_text() for p in pypdf.PdfReader(page.files.pdf()).pages)
+    assert "Axial capacity N = " in " ".join(pdf.split())
+
+
+def engine_capacity(result):
+    import engine
+
+    return engine.capacity_of(result)
+
+
 def test_us_units_show_load_cases_in_kip(page):
     page.model.units = "us"
     block = page.load_cases.blocks[0]
@@ -172,7 +192,7 @@ def test_a_combination_chosen_is_shown_and_exported_whole(page):
     # the CSV: U1's stations and the note; the same text as exporting U1's result directly
     text = page.files.csv().getvalue()
     assert text != governing_csv
-    assert text == csv_text(shown, units="si")
+    assert text == csv_text(shown, units="si", capacity=state.capacity)  # the case's capacity, as shown
     assert "combination shown,U1," in text.replace('"', "")
     assert "not the governing combination" in text
     assert page.files.csv_button.filename != "" and "294" not in page.files.csv_button.filename
@@ -202,3 +222,38 @@ def test_the_calc_sheet_of_a_chosen_combination_says_it_does_not_govern(page):
     flat = " ".join(text.split())
     assert "Combination U3 is shown: it is not the governing combination" in flat
     assert "those of combination U2" in flat
+
+
+def test_keep_as_variant_keeps_the_combination_on_screen(page):
+    """With U3 shown (not the governing U2), "Keep as variant" keeps U3's result and the comparison table's
+    current column is U3's (an audit found U2 kept: 294 kN, 0.448, while U3's 240 kN, 0.302 was on screen).
+    Reference: the engine's own U3 result (app.state_actions.view_result)."""
+    from app.page.variants import VariantsView
+    from app.state_actions import view_result
+
+    state = page.model
+    view = VariantsView(state)
+    state.show_combination("U3")
+    shown = view_result(state)
+    assert shown is not state.result and shown.axial_force != state.result.axial_force
+    view.keep()
+    kept = view.kept[0]["result"]
+    assert kept.axial_force == shown.axial_force
+    assert kept.utilization == shown.utilization
+    assert kept.governing.moment.magnitude == shown.governing.moment.magnitude
+
+
+def test_picking_a_combination_after_a_refused_force_clears_the_refusal(page):
+    """A refused axial force (tension on the compression combinations) then another combination picked: the
+    force box holds that combination's force of the result on screen, so the refusal goes and the exports
+    come back (an audit found "not accepted" kept and the exports disabled)."""
+    state = page.model
+    state.axial_force = -50e3
+    assert "axial_force" in state.errors and page.files.buttons[0].disabled
+    state.show_combination("U3")
+    assert state.errors == {}
+    assert not page.files.buttons[0].disabled
+    assert (
+        state.axial_force
+        == next(c for c in state.result.actions.combinations if c.name == "U3").result.axial_force
+    )

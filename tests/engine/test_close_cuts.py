@@ -30,8 +30,19 @@ _EULER = math.pi**2 * 1e6 / 25.0
             "restraints": [{"x": 2.0, "translation": 1e-3}],
             "foundation": [{"start": 2.001, "end": 3.0, "k": 1.0}],
         },
+        # below the old "same point" tolerance of 1e-9·L: the solver kept a piece 1e-11 m long (an audit: a
+        # rotational spring and a step that far apart raised Pcr1 4.7 times, "stable" above the true one)
+        {"restraints": [{"x": 2.42, "rotation": 1e6}], "steps": [{"x": 2.42 + 1e-11, "EI": 1e7}]},
+        {"restraints": [{"x": 2.0, "translation": 1e-3}], "steps": [{"x": 2.0 + 4e-9, "EI": 2e6}]},
     ],
-    ids=["two-springs", "spring-at-end", "two-steps", "foundation-end"],
+    ids=[
+        "two-springs",
+        "spring-at-end",
+        "two-steps",
+        "foundation-end",
+        "spring-step-1e-11",
+        "spring-step-4e-9",
+    ],
 )
 def test_cuts_closer_than_the_limit_are_refused(extra):
     with pytest.raises(engine.CaseError, match="must be the same point or at least"):

@@ -61,8 +61,9 @@ def test_service_caution_says_what_it_is_made_on():
     assert tight.utilization == engine.solve(_demo()).utilization
 
 
-def test_no_service_check_without_a_section():
-    """A case given only EI has no member check and no service check."""
+def test_a_deflection_check_without_a_section():
+    """A case given only EI has no member check, and since stop 39 its deflection check all the same (an
+    audit found a batch row's deflection_limit ignored without a word): no load, no deflection."""
     r = engine.solve(
         engine.Case.from_dict(
             {
@@ -75,4 +76,5 @@ def test_no_service_check_without_a_section():
             }
         )
     )
-    assert r.service is None and r.check is None
+    assert r.check is None and r.service is not None
+    assert r.service.deflection == 0.0 and r.service.allowed == pytest.approx(3.0 / 250)
