@@ -21,6 +21,7 @@ from app.report import (
     ratio,
     reaction_rows,
 )
+from app.report.capacity_words import fails_below_capacity
 from app.report.combinations import deflection_basis, second_plane_service, service_strength
 from app.report.ltb import ltb_words
 from app.report.routes import governing_text, headline_route, plane_axes, plane_name, route_name
@@ -164,11 +165,12 @@ def values_table(result, capacity, capacity_note: str, U) -> str:
             which = governing_text(capacity.check)
             if getattr(capacity, "combination", None):
                 which = f"{which}; {capacity.combination}, the lowest of the ultimate combinations"
+            note = fails_below_capacity(capacity, result)
             row(
                 "capacity N",
                 U.show("force", capacity.axial_force),
-                which,
-                False,
+                f"{which}. {note}" if note else which,
+                bool(note),
                 result.axial_force > capacity.axial_force,
             )
         elif capacity_note:

@@ -7,7 +7,7 @@ from app.report.numbers import position
 from app.report.route_names import governing_text, route_name
 from app.units import Units
 
-__all__ = ["capacity_combination_text", "capacity_line", "capacity_text"]
+__all__ = ["capacity_combination_text", "capacity_line", "capacity_text", "fails_below_capacity"]
 
 
 def capacity_combination_text(capacity) -> str:
@@ -48,6 +48,23 @@ def capacity_text(capacity, U: Units, result=None) -> str:
     return f"Strength governs: utilisation 1 by {check}{where}."
 
 
+def fails_below_capacity(capacity, result) -> str:
+    """A note where the member fails as given although its axial force is below the capacity (a tension
+    combination failing by its bending, say: an audit found "608 kN" printed beside a failing 1.263), else
+    ""."""
+    value = getattr(result, "utilization", None)
+    if value is None or not value > 1.0 or not capacity.axial_force > 0.0:
+        return ""  # a capacity of 0 says it already ("transverse loads alone")
+    if float(result.axial_force) > capacity.axial_force:
+        return ""
+    actions = getattr(result, "actions", None)
+    where = f" in {actions.headline}" if actions is not None and actions.headline else ""
+    return (
+        f"The member fails as given{where} (utilisation {value:.3f} > 1) although its axial force is below "
+        "this capacity: the capacity is a limit on compression and does not make it pass."
+    )
+
+
 def capacity_line(capacity, U: Units, result=None) -> str:
     """The capacity as the exports state it: the force, how it was found, what governs, which combination."""
     how = "all loads grown by one factor" if capacity.mode == "proportional" else "transverse loads as given"
@@ -55,4 +72,6 @@ def capacity_line(capacity, U: Units, result=None) -> str:
     governs = capacity_text(capacity, U, result)
     line = f"N = {force}, the largest compression at utilisation 1 ({how}). {governs}"
     combination = capacity_combination_text(capacity)
-    return f"{line} Combination: {combination}." if combination else line
+    line = f"{line} Combination: {combination}." if combination else line
+    note = fails_below_capacity(capacity, result) if result is not None else ""
+    return f"{line} {note}" if note else line

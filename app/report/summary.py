@@ -7,7 +7,7 @@ import unicodedata
 from app.report import combinations as combos
 from app.report import routes as r
 from app.report import words as w
-from app.report.capacity_words import capacity_combination_text, capacity_text
+from app.report.capacity_words import capacity_combination_text, capacity_text, fails_below_capacity
 from app.report.ltb import ltb_words
 from app.report.numbers import percent, position, ratio, scientific, utilisation
 from app.report.restraints import grouped_inner_rows, has_inner, reactions_note
@@ -283,6 +283,9 @@ def format_summary(source: str, case, result, units: str = "si", capacity=None, 
             f"Pcr1 = {U.show('force', capacity.critical_load, 5)}"
         )
         add(f"  {capacity_text(capacity, U, result)}")
+        note = fails_below_capacity(capacity, result)
+        if note:
+            add(f"  note: {note}")
     add("")
     add("Cautions")
     for caution in result.cautions:

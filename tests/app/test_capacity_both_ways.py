@@ -177,3 +177,25 @@ def test_the_exports_wait_for_the_solve_of_the_inputs_on_screen():
     job(full)()
     assert not state.solving and state.result.case.length == before - 2.0
     assert not any(button.disabled for button in page.files.buttons)
+
+
+def test_a_member_failing_in_tension_is_not_read_as_within_its_capacity(tmp_path):
+    """An invented HEA 200 whose wind combination U4 is in 1950 kN of tension fails by it (1.295 > 1, above
+    N_t,Rd = A·f_y = 53.8 cm² × 355 MPa ≈ 1910 kN, from memory) while the compression combinations give a
+    capacity of about 529 kN: the printed capacity, the page's row and the CSV say that the member fails as
+    given and that the capacity does not make it pass (an audit found "608 kN" printed beside a failing
+    1.263 with no note)."""
+    from app.page.words import values_table
+    from app.units import units
+    from tests.engine.test_capacity_combinations import _uplift_with_bow
+
+    data = _uplift_with_bow(5000.0)
+    data["actions"][1]["axial_force"] = -1500e3
+    (tmp_path / "post.json").write_text(json.dumps(data), encoding="utf-8")
+    done = run_cli("solve", "post.json", "--capacity", "--csv", "c.csv", cwd=tmp_path)
+    assert "note: The member fails as given in U4 (utilisation 1.295 > 1)" in done.stdout
+    assert "does not make it pass" in (tmp_path / "c.csv").read_text(encoding="utf-8-sig")
+    result = engine.solve(engine.Case.from_dict(data))
+    capacity = engine.capacity_of(result)
+    assert 0 < capacity.axial_force and result.utilization > 1
+    assert "does not make it pass" in values_table(result, capacity, "", units("si"))
