@@ -152,8 +152,11 @@ def summary_data(source: str, case, result, capacity=None) -> dict:
             "fails": bool(check.utilization > 1.0),
             "section_class": None if check.section_class is None else check.section_class.klass,
             "out_of_plane": _out_of_plane_data(check.out_of_plane),
-            "deflection_utilization": _finite(check.deflection_utilization),
-            "max_deflection": _finite(check.max_deflection),
+            # no deflection check without a service state (beyond the first critical load)
+            "deflection_utilization": None
+            if result.service is None
+            else _finite(check.deflection_utilization),
+            "max_deflection": None if result.service is None else _finite(check.max_deflection),
             "deflection_allowed": _finite(check.deflection_allowed),
             "source": check.source,
         },

@@ -95,7 +95,7 @@ def _message(status, P, pcr, n_crit) -> str:
             "stable equilibrium."
         )
     if P < 0:
-        return f"Tension {-P * kN:.6g} kN; stable equilibrium, no buckling."
+        return f"Tension {-P * kN:.6g} kN; stable equilibrium, no flexural buckling."
     return "No axial force: first-order solution."
 
 
@@ -253,6 +253,8 @@ def _build(
                     allowed=check.deflection_allowed,
                     limit=check.settings.deflection_limit,
                 )
+    if status != "stable":  # beyond the first critical load no service state exists (read 0.929 "passing")
+        service = None
     result = Result(
         case=case,
         axial_force=float(P),
@@ -434,7 +436,9 @@ def _solve_plane(
     status = raw[0]
     choice = prep.member.bow if prep.member is not None else None
     live = choice is not None and prep.has_bow and P != 0.0 and status != "critical"
-    reverse = live and (choice.automatic or details)
+    # a fixed direction is solved reversed too, also for the capacity finder: whether it is favourable decides
+    # whether the second-order route counts the plane's own buckling (member_routes.bow_short)
+    reverse = live
     shapes = len(choice.alternatives) if live else 0
     bow_free = free_raw = None
     # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.
@@ -442,7 +446,9 @@ def _solve_plane(
     if aisc_solves and prep.has_bow and P != 0.0 and status != "critical":
         member = prep.member
         checked = member is not None and member.section is not None and member.material is not None
-        if checked or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
+        # with details, a member given by EI alone too: its deflection check needs the bow-free solve (an
+        # audit found it dropped in tension and on a cantilever)
+        if checked or details or (0 < P < prep.buckling.critical_loads[0] and braced(case)):
             free_raw = _raw(prep.variant("bow_free"), n, P)
             bow_free = _free_peaks(free_raw)
     if not (reverse or shapes):

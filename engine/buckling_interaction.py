@@ -86,20 +86,22 @@ def custom_planes(first, section, out_of_plane, E):
     6.2, which has no row for an arbitrary section: as :mod:`engine.out_of_plane` takes it), and the other
     plane the section about its other axis (I = Iz given, no loads) buckling at the out-of-plane check's
     N_cr, or never where that check is not made (then no equation of that plane is formed; the warning that
-    it was not made stands). None where the section gives no property about its other axis."""
-    if section.I_minor is None:
-        return None
+    it was not made stands). A section that gives nothing about its other axis (no Iz, or bent about its
+    minor axis) has that plane read as not buckling: only the plane analysed's own equation can then be
+    formed (where its bow leaves its buckling out: ``Plane.bow_short``)."""
     other_axis = "z" if first.axis == "y" else "y"
+    known = section.I_minor is not None and first.axis == "y"
+    I_other = section.I_minor if known else section.I  # unknown: never buckles, its I is not read
     # About that axis only what the equations read: no moment acts there, and no modulus is given (the
     # largest any section of that area and I could have, never used against a moment)
-    bound = math.sqrt(section.A * section.I_minor)
-    turned = _OtherAxis(A=section.A, A_v=section.A, I=section.I_minor, W_el=bound, W_pl=bound)
-    checked = out_of_plane is not None and out_of_plane.checked
+    bound = math.sqrt(section.A * I_other)
+    turned = _OtherAxis(A=section.A, A_v=section.A, I=I_other, W_el=bound, W_pl=bound)
+    checked = known and out_of_plane is not None and out_of_plane.checked
     other = en_member.Plane(
         axis=other_axis,
         section=turned,
         N_cr=out_of_plane.N_cr if checked else math.inf,
-        EI=E * section.I_minor,
+        EI=E * I_other,
         diagram=zero(),
         M_second=0.0,
         N_cr_source="out-of-plane length" if checked else "restrained",

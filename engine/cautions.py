@@ -391,8 +391,8 @@ def assess(
                 level="info",
                 code="tension",
                 message=(
-                    "The member is in tension: buckling does not apply, and the axial force "
-                    "reduces the bending moments."
+                    "The member is in tension: it does not buckle in flexure, and the axial force "
+                    "reduces the bending moments (lateral-torsional buckling still applies)."
                 ),
                 source="Timoshenko & Gere (1961) ch. 1 (tension beam-columns)",
             )
@@ -437,7 +437,7 @@ def assess(
         out.extend(_class_cautions(check))
         pairs = segments or ((section, material),)
         out.extend(_web_shear_cautions(pairs, axis, check, gamma_M1))
-    out.extend(Caution(**found) for found in material_cautions(material, check is not None))
+    out.extend(Caution(**c) for c in material_cautions(material, check is not None, section=section, P=P))
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):

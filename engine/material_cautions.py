@@ -92,6 +92,35 @@ def high_strength(material, has_check: bool) -> dict | None:
     }
 
 
-def material_cautions(material, has_check: bool) -> list[dict]:
-    """Every caution of the material: :func:`not_a_code_check` and :func:`high_strength` (their fields)."""
-    return [c for c in (not_a_code_check(material, has_check), high_strength(material, has_check)) if c]
+def unsymmetric_in_compression(section, material, has_check: bool, P: float) -> dict | None:
+    """The danger caution of a custom section not stated doubly symmetric (the default) in compression: its
+    flexural–torsional buckling is not checked (an audit passed a single angle at 0.927 where it gives about
+    1.15 by hand); None otherwise."""
+    if not has_check or not P > 0.0 or getattr(section, "shape", None) != "custom":
+        return None
+    if section.doubly_symmetric or getattr(material, "kind", None) not in ("steel", "aluminium", "custom"):
+        return None
+    return {
+        "level": "danger",
+        "code": "flexural-torsional-not-checked",
+        "message": (
+            "A custom section not stated doubly symmetric (doubly_symmetric: false, the default) is in "
+            "compression: its torsional and flexural–torsional buckling (a shear centre away from the "
+            "centroid: angles, channels, tees) is not checked, and can govern well below the flexural "
+            "resistance. A utilisation below 1 is not a pass: check it to EN 1993-1-1 §6.3.1.4 or AISC "
+            "360-16 §E4, or state doubly_symmetric: true (with It and Iw) for a doubly symmetric section."
+        ),
+        "source": "EN 1993-1-1:2005 §6.3.1.4; AISC 360-16 §E4 (from memory)",
+        "values": {},
+    }
+
+
+def material_cautions(material, has_check: bool, section=None, P: float = 0.0) -> list[dict]:
+    """Every caution of the material and of a custom section: :func:`not_a_code_check`,
+    :func:`high_strength` and :func:`unsymmetric_in_compression` (their fields)."""
+    found = (
+        not_a_code_check(material, has_check),
+        high_strength(material, has_check),
+        unsymmetric_in_compression(section, material, has_check, P),
+    )
+    return [c for c in found if c]

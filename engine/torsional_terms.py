@@ -9,16 +9,17 @@ from __future__ import annotations
 
 import dataclasses
 import math
+from types import SimpleNamespace
 
 import numpy as np
 
-from engine import torsional_buckling
+from engine import codes, torsional_buckling
 from engine.ltb_route import lateral_sides
 from engine.ltb_route import made as _made
 from engine.ltb_route import major as _major
 from engine.sections import section_from_spec
 
-__all__ = ["member_torsional", "term", "weakest_segment"]
+__all__ = ["custom_torsional", "member_torsional", "term", "weakest_segment"]
 
 
 def _free_ends(result) -> tuple:
@@ -38,6 +39,25 @@ def member_torsional(result, section_y, section_z, material):
     if found is None:
         return None
     return torsional_buckling.resistance(found, section_z, material, case.check.gamma_M1)
+
+
+def custom_torsional(result):
+    """The torsional buckling check of a custom steel section that states ``doubly_symmetric``,
+    ``open_section``, ``It``, ``Iw`` and ``Iz`` (bent about its major axis): N_cr,T as for a catalogue
+    section, χ_T by curve d on the gross area (as :mod:`engine.buckling_interaction` reads a custom section,
+    its curves unknown); None otherwise. An audit found the term left out of every custom section: a custom
+    IPE 300 passed at 0.691 where the catalogue one failed at 1.038 by it."""
+    section, material, case = result.section, result.material, result.case
+    if case.axis != "major" or section.I_minor is None:
+        return None
+    turned = SimpleNamespace(I=section.I_minor)  # critical_load reads I about the minor axis only
+    found = torsional_buckling.critical_load(case, section, turned, material, _free_ends(result))
+    if found is None:
+        return None
+    lam = math.sqrt(section.A * material.fy / found.N_cr) if found.N_cr > 0.0 else math.inf
+    chi = codes.reduction_factor(lam, "d")
+    N_b_Rd = chi * section.A * material.fy / case.check.gamma_M1
+    return dataclasses.replace(found, lambda_bar=lam, chi=chi, curve="d", N_b_Rd=N_b_Rd)
 
 
 def _view(segment, axis: str):

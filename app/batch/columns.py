@@ -303,7 +303,8 @@ def result_columns(units: str = "si") -> tuple[str, ...]:
         ``utilization``
         is strength and stability, the worst route counted; ``utilization_basis`` says whether it is a code
         check (``"code check"``) or, for a material whose code is not checked, an ``"elastic bound only, not
-        a code check (<kind>)"`` that a code's check can exceed; ``governing_check`` names the route and the
+        a code check (<kind>)"`` that a code's check can exceed (``"not a code check (<danger caution>)"``
+        for a steel the code check here does not cover); ``governing_check`` names the route and the
         term that give it (``"en-member: eq. (6.62)"``); ``out_of_plane_utilization`` is the second-order
         route's buckling check about the other axis alone; ``deflection_utilization`` the separate service
         check (loads as given, no bow; in a two-plane case the larger of both planes).

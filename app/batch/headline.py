@@ -30,6 +30,11 @@ BOUND_TERMS = frozenset({"out-of-plane-elastic", "in-plane-elastic", "lateral-to
 _BOUND_KINDS = frozenset({"out-of-plane elastic buckling", "in-plane elastic buckling"})
 
 
+#: Danger cautions of a steel member that the code check here does not cover (engine.material_cautions): the
+#: basis says so (an audit found "code check" beside "not a code check for this steel").
+_NOT_CHECKED_STEEL = frozenset({"high-strength-steel", "flexural-torsional-not-checked"})
+
+
 def governing_cell(result) -> str:
     """``governing_check``: the route giving the headline and its governing term, e.g. ``"en-member: eq.
     (6.62)"``; ``"member check: <kind>"`` where the member check's own value is above every route (or there
@@ -69,9 +74,13 @@ def is_code_check(result) -> bool:
 
 def basis_cell(result) -> str:
     """``utilization_basis``: ``"code check"``, ``"elastic bound only, not a code check (<material kind>)"``,
-    or "" without a utilisation."""
+    ``"not a code check (<danger caution>)"`` (a steel above 700 MPa, a custom section not stated doubly
+    symmetric in compression), or "" without a utilisation."""
     if getattr(result, "utilization", None) is None:
         return ""
+    for caution in getattr(result, "cautions", ()) or ():  # a steel its own caution says is not checked here
+        if caution.level == "danger" and caution.code in _NOT_CHECKED_STEEL:
+            return f"not a code check ({caution.code})"
     if is_code_check(result):
         return CODE_CHECK
     kind = getattr(getattr(result, "material", None), "kind", None) or "no material"

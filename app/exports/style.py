@@ -64,7 +64,8 @@ _DEFINITIONS_TEXT = (
 _RESISTANCE_DEFINITIONS = (
     "Eq. (5.9) bow: first mode of amplitude e0·N_cr/(EI·|η''|max), checked by N/(N_Rk/γ_M1) + "
     "M/(M_Rk/γ_M1) ≤ 1 (reaches χ·A·f_y/γ_M1). Out of plane: N/N_b,Rd, eq. (6.47). Class by Table 5.2; "
-    "class 4 or N ≥ Pcr1: no valid result, utilisation unbounded (fails). "
+    "class 4: effective properties of EN 1993-1-5 §4.3–4.4 where they are computed (I and box sections), "
+    "else no valid result; N ≥ Pcr1: no valid result; either unbounded (fails). "
     f"α_cr limit {alpha_cr_limit():g} (elastic analysis)."
 )
 

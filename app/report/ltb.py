@@ -311,8 +311,9 @@ def ltb_words(result, U: Units) -> LtbWords | None:
     if not ltb.applies:
         reason = reason_text(ltb.reason)
         missing = tuple(getattr(ltb, "missing", ()) or ())
-        if missing:
-            reason += f" (not given: {', '.join(missing)})"
+        if missing:  # doubly_symmetric is "missing" when it is false, given or not
+            named = [m if not m.endswith("doubly_symmetric") else f"{m}: true" for m in missing]
+            reason += f" (needs: {', '.join(named)})"
         rows = []
         if str(ltb.reason).startswith("material-") and finite(ltb.M_cr):
             rows = [

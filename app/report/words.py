@@ -313,7 +313,7 @@ def status_message(result, U: Units) -> str:
             "equilibrium"
         )
     elif P < 0:
-        said = f"tension {force(-P)}; stable equilibrium, no buckling"
+        said = f"tension {force(-P)}; stable equilibrium, no flexural buckling"
     else:
         said = "no axial force: first-order solution"
     return said

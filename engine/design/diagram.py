@@ -25,7 +25,12 @@ strutscope's decisions, each on the safe side:
   uniform row read with the moment at mid-span as M_s (the table's figures draw M_s there): one end couple
   with a small relieving load near the other end has its extremum in a small dip (α_s ≈ 0⁻, the row's 0.4)
   where the couple alone reads 0.6 by the linear row, eq. (6.62) 9 % low (an independent audit); at mid-span
-  α_s ≈ 0.5 reads 0.6, and the two readings agree where the extremum is at mid-span [derived];
+  α_s ≈ 0.5 reads 0.6, and the two readings agree where the extremum is at mid-span [derived]; and never
+  below Annex A Table A.2's general C_mi,0 = 1 + (N_cr δ/M − 1) N/N_cr, written for any diagram (end couples
+  with a point and a uniform load read 0.400 where the exact amplification needs about 0.6, eq. (6.61)
+  9–13 % low: an audit at stop 39). Near N = 0 that formula tends to 1: up to some 40 % conservative on a
+  fixed-ended member with mixed loads (0.718 by the row), a decision for the safe side where the table has no
+  row;
 - two or more point loads inside the span (form ``"points"``; with other loads as well, ``"other"``): not the
   table's one concentrated load, and no row fits. Their diagram can be anything from one peak to a nearly
   uniform moment between loads near the ends (ψ = 1's C_m = 1): third-point loads are amplified more than a
@@ -196,8 +201,9 @@ def describe(*, x, moment, deflection, shear, loads, length: float, sway: bool) 
     return Diagram(form, M_h, psi, found[0], M_max, delta, V_max, sway, share, mid)
 
 
-def annex_b_factor(d: Diagram) -> float:
-    """C_m of EN 1993-1-1 Annex B, Table B.3, with strutscope's reading of the diagram (module notes)."""
+def annex_b_factor(d: Diagram, N_Ed: float = 0.0, N_cr: float = math.inf) -> float:
+    """C_m of EN 1993-1-1 Annex B, Table B.3, with strutscope's reading of the diagram (module notes); a
+    "mixed" diagram never below Annex A Table A.2's general C_mi,0 at ``N_Ed`` and ``N_cr`` either."""
     if d.M_max == 0.0:
         table = 1.0
     elif d.form in ("other", "points") or (d.form == "mixed" and abs(d.M_s) >= abs(d.M_h)):
@@ -208,9 +214,10 @@ def annex_b_factor(d: Diagram) -> float:
         load = "concentrated" if d.form == "concentrated" else "uniform"
         table = annex_b.equivalent_moment_factor(d.M_h, d.psi, d.M_s, load)
         if d.form == "mixed":  # none of the table's shapes: never below its first sine term, nor below the
-            # uniform row read with the mid-span moment as M_s (module notes)
+            # uniform row read with the mid-span moment as M_s, nor Annex A's general formula, which is
+            # written for any diagram (module notes)
             mid = annex_b.equivalent_moment_factor(d.M_h, d.psi, d.M_mid, load)
-            table = max(table, d.sine_share, mid)
+            table = max(table, d.sine_share, mid, annex_a_factor(d, N_Ed, N_cr))
     if d.sway and d.M_max != 0.0:
         return max(annex_b.SWAY_CM, table if table is not None else 0.0)
     return 1.0 if table is None else table

@@ -281,13 +281,13 @@ def route(
         return _verdict(enabled, terms, facts, notes, source)
     C_mLT = None
     if settings.annex == "B":
-        C_my, C_mz = annex_b_factor(y.diagram), annex_b_factor(z.diagram)
+        C_my, C_mz = annex_b_factor(y.diagram, N, y.N_cr), annex_b_factor(z.diagram, N, z.N_cr)
         # Table B.2 for every I/H member that can twist out of plane, checked for LTB or not: χ_LT = 1
         # where the check could not be made does not make the member torsionally stiff (k_zy of Table B.1
         # would be smaller, on the unsafe side).
         held = ltb is not None and ltb.reason == "restrained"
         twisting = sy.shape in ("rolled_i", "welded_i") and My > 0.0 and not held
-        lateral = C_my if lateral_diagram is None else annex_b_factor(lateral_diagram)
+        lateral = C_my if lateral_diagram is None else annex_b_factor(lateral_diagram, N, y.N_cr)
         C_mLT = lateral if torsional or twisting else None
         common = dict(
             N_Ed=N,

@@ -82,7 +82,12 @@ C_m = 1 for a mix of loads whose span moment governs (WP-C2 0.5305 → 0.5309 an
 en-member utilisation that moved rose and every capacity that moved fell), and two columns were added at the
 end (``capacity_combination``, ``from_combinations``: empty in both tables, which have no load cases); and a
 member above 1 with no danger caution began to get ``member-fails`` (7 generated rows, their cautions column
-only). And a
+only). Again at stop 39, from four independent audits: a bow given by shape and amplitude, a span ratio or
+AISC's L/1000 began to leave the member's own buckling to its equation in the second-order route, and a
+"mixed" diagram to be read no lower than Annex A's general C_mi,0 (18 generated rows' en-member or headline
+utilisation rose, 9 capacities fell; none fell, none rose), and a member beyond its first critical load lost
+its deflection check and its two deflection cautions (21 generated rows); only those 39 lines were rewritten,
+the example table did not change. And a
 hypothesis-drawn table solved twice in this process, once as the product does it and once with the capacity
 finder as it was before (``tests/support/capacity_reference.py``, a verbatim copy) and the LTB check's M_cr
 with N held solved afresh at every force (``engine.design.ltb_member.HELD_FAMILY`` off): every cell must

@@ -199,3 +199,22 @@ def test_a_member_failing_in_tension_is_not_read_as_within_its_capacity(tmp_path
     capacity = engine.capacity_of(result)
     assert 0 < capacity.axial_force and result.utilization > 1
     assert "does not make it pass" in values_table(result, capacity, "", units("si"))
+
+
+def test_the_capacity_follows_the_slider_in_the_factor_mode():
+    """With load cases and the slider scaling the whole combination (the "factor" mode), moving N scales
+    every load, and so the capacity (an audit exported 737.94 kN where 656.17 kN was due at λ = 2).
+    Reference: engine.capacity_of of the result on screen."""
+    from importlib import resources
+
+    from app.state import MemberState, values_from_mapping
+
+    text = resources.files("assets").joinpath("demo_wind_post_actions.json").read_text(encoding="utf-8")
+    state = MemberState(**values_from_mapping(json.loads(text)))
+    state.scale_mode = "factor"
+    first = state.capacity.axial_force
+    state.axial_force = state.axial_force * 2.0
+    assert state.errors == {}
+    expected = engine.capacity_of(state.result).axial_force
+    assert state.capacity.axial_force == pytest.approx(expected, rel=1e-9)
+    assert expected < 0.95 * first

@@ -92,7 +92,7 @@ def test_a_missing_key_is_named_in_the_words_and_the_json():
     section = {k: v for k, v in CUSTOM.items() if k != "Iz"}
     result = engine.solve(engine.Case.from_dict(_mapping(section)))
     words = ltb_words(result, units("si"))
-    assert not words.applies and "not given: section.Iz" in words.reason
+    assert not words.applies and "needs: section.Iz" in words.reason
     assert "minor axis" in words.reason
     assert summary_data("x", result.case, result)["ltb"]["missing"] == ["section.Iz"]
 
@@ -108,7 +108,7 @@ def test_command_line_reads_the_keys_from_a_case_file(tmp_path, capsys):
     path = tmp_path / "custom.json"
     path.write_text(json.dumps(_mapping({k: v for k, v in CUSTOM.items() if k != "It"})), "utf-8")
     assert main(["solve", str(path)]) == 0
-    assert "not given: section.It" in capsys.readouterr().out
+    assert "needs: section.It" in capsys.readouterr().out
     path.write_text(json.dumps(_mapping(CUSTOM)), "utf-8")
     assert main(["solve", str(path)]) == 0
     text = capsys.readouterr().out

@@ -95,9 +95,13 @@ def test_capacity_uses_the_worse_direction():
         check=engine.CheckSettings(routes=("second-order",)),
     )
     auto = engine.capacity(case).axial_force
-    both = [engine.capacity(_direction(case, d)).axial_force for d in ("positive", "negative")]
-    assert auto == pytest.approx(min(both), rel=1e-9)
-    assert max(both) > 1.01 * min(both)  # the two directions do differ here
+    both = {d: engine.capacity(_direction(case, d)).axial_force for d in ("positive", "negative")}
+    # the direction fixed the unfavourable way is the automatic one's; fixed the favourable way, the route
+    # counts the member's own buckling as well (stop 39: such a bow is no code imperfection), so it is lower
+    worse = next(d for d in both if not engine.solve(_direction(case, d)).bow.favourable)
+    assert auto == pytest.approx(both[worse], rel=1e-9)
+    assert all(value <= auto * (1 + 1e-9) for value in both.values())
+    assert max(both.values()) > 1.01 * min(both.values())  # the two directions do differ here
 
 
 @settings(max_examples=25, deadline=None)

@@ -235,4 +235,6 @@ def test_the_capacity_of_the_governing_combination_tries_a_shaped_bow_both_ways(
     assert along < _uplift_capacity_by_hand(result, -1.0)
     found = engine.capacity(result.case, bow_both_ways=True)
     assert found.axial_force == pytest.approx(along, rel=1e-6)
-    assert engine.capacity(result.case).axial_force > 1.5 * along  # what was returned before
+    # what was returned before (195.96 kN; since stop 39 a bow given by shape and amplitude also counts the
+    # member's own buckling equation, which lowers it, still above the capacity both ways)
+    assert engine.capacity(result.case).axial_force > 1.1 * along

@@ -67,3 +67,40 @@ def test_a_beam_with_a_bow_preset_gets_its_deflection_check_at_no_axial_force():
     data["axial_force"] = 1.0  # 1 N: the bow-free solve of the service check
     small = engine.solve(engine.Case.from_dict(data))
     assert r.service.utilization == pytest.approx(small.service.utilization, rel=1e-5)
+
+
+def test_no_deflection_check_beyond_the_first_critical_load():
+    """Above Pcr1 there is no service state: the check read 0.929 "as if it had passed" on the unstable
+    solution (an audit, stop 39). Pcr1 of the member given by EI: π²EI/L² (Euler)."""
+    pcr1 = math.pi**2 * EI / L**2
+    data = {
+        "schema": 1,
+        "length": L,
+        "EI": EI,
+        "supports": {"left": "pinned", "right": "pinned"},
+        "axial_force": 1.2 * pcr1,
+        "loads": [{"type": "uniform", "q": Q}],
+    }
+    r = engine.solve(engine.Case.from_dict(data))
+    assert r.status == "unstable" and r.service is None
+    assert not any(c.code in ("deflection", "deflection-basis") for c in r.cautions)
+
+
+@pytest.mark.parametrize(("ends", "N"), [(("fixed", "free"), 100e3), (("pinned", "pinned"), -300e3)])
+def test_a_member_given_by_ei_with_a_bow_gets_its_check_in_tension_and_on_a_cantilever(ends, N):
+    """The bow-free solve the check needs was made only for a braced member in compression (an audit: a
+    cantilever at 1.617 of span/250 and a member in tension had none). The check is the bow-free deflection:
+    the same member without its bow gives it."""
+    data = {
+        "schema": 1,
+        "length": L,
+        "EI": EI,
+        "supports": {"left": ends[0], "right": ends[1]},
+        "axial_force": N,
+        "loads": [{"type": "uniform", "q": Q}],
+        "imperfection": {"shape": "sine", "amplitude": L / 300},
+    }
+    r = engine.solve(engine.Case.from_dict(data))
+    free = engine.solve(engine.Case.from_dict({**data, "imperfection": {"shape": "none"}}))
+    assert r.service is not None
+    assert r.service.deflection == pytest.approx(free.governing.deflection.value, rel=1e-9)
