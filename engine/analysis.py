@@ -436,9 +436,7 @@ def _solve_plane(
     status = raw[0]
     choice = prep.member.bow if prep.member is not None else None
     live = choice is not None and prep.has_bow and P != 0.0 and status != "critical"
-    # a fixed direction is solved reversed too, also for the capacity finder: whether it is favourable decides
-    # whether the second-order route counts the plane's own buckling (member_routes.bow_short)
-    reverse = live
+    reverse = live and (choice.automatic or details)
     shapes = len(choice.alternatives) if live else 0
     bow_free = free_raw = None
     # The aisc route's M_r is the bow-free moment, so the capacity finder needs it too when that route counts.

@@ -437,7 +437,7 @@ def assess(
         out.extend(_class_cautions(check))
         pairs = segments or ((section, material),)
         out.extend(_web_shear_cautions(pairs, axis, check, gamma_M1))
-    out.extend(Caution(**c) for c in material_cautions(material, check is not None, section=section, P=P))
+    out.extend(Caution(**c) for c in material_cautions(material, check is not None, section, P, axis))
     if material is not None:
         name = (material.name or "").lower()
         if material.kind == "custom" and any(word in name for word in _CRACKING):

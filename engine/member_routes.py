@@ -108,11 +108,13 @@ def bow_short(res) -> bool:
     bow is not an EN 1993-1-1 preset on a curve no laxer than Table 6.2's (``BowChoice.code_bow``: a bow
     given by shape and amplitude, a span ratio or AISC's L/1000 may be too small, or of a shape the first
     mode does not take up: a tilt on a pinned member, a half sine between two restraints), or the case fixes
-    its direction the favourable way. Audits found each read at N/Pcr1 only, up to 20 % on the unsafe side."""
+    its direction (the favourable way it reads up to 20 % on the unsafe side; whether it is favourable can
+    flip with N, so any fixed direction counts, which keeps the utilisation continuous in N). Audits found
+    each read at N/Pcr1 only."""
     bow = getattr(res, "bow", None)
     if bow is None:
         return False  # no member (no section or material): no route is formed
-    return not bow.code_bow or bool(bow.favourable)
+    return not bow.code_bow or not bow.automatic
 
 
 def _plane(res, axis, case, *, M_second, cache, which):

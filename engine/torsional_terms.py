@@ -48,9 +48,10 @@ def custom_torsional(result):
     its curves unknown); None otherwise. An audit found the term left out of every custom section: a custom
     IPE 300 passed at 0.691 where the catalogue one failed at 1.038 by it."""
     section, material, case = result.section, result.material, result.case
-    if case.axis != "major" or section.I_minor is None:
-        return None
-    turned = SimpleNamespace(I=section.I_minor)  # critical_load reads I about the minor axis only
+    if case.axis != "major":
+        return None  # nothing is given about the major axis: no bound on i0² (a danger caution says so)
+    # without Iz, Iz = I (Iz ≤ I): the largest i0², the lowest N_cr,T, a safe bound (an audit, stop 39)
+    turned = SimpleNamespace(I=section.I if section.I_minor is None else section.I_minor)
     found = torsional_buckling.critical_load(case, section, turned, material, _free_ends(result))
     if found is None:
         return None

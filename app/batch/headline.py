@@ -32,7 +32,9 @@ _BOUND_KINDS = frozenset({"out-of-plane elastic buckling", "in-plane elastic buc
 
 #: Danger cautions of a steel member that the code check here does not cover (engine.material_cautions): the
 #: basis says so (an audit found "code check" beside "not a code check for this steel").
-_NOT_CHECKED_STEEL = frozenset({"high-strength-steel", "flexural-torsional-not-checked"})
+_NOT_CHECKED_STEEL = frozenset(
+    {"high-strength-steel", "flexural-torsional-not-checked", "torsional-buckling-not-checked"}
+)
 
 
 def governing_cell(result) -> str:

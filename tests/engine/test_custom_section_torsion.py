@@ -89,3 +89,62 @@ def test_a_custom_section_not_stated_doubly_symmetric_in_compression_is_a_danger
     assert [c.level for c in found] == ["danger"]
     tension = engine.solve(_case(_custom_ipe(doubly_symmetric=False), -300e3))
     assert not any(c.code == "flexural-torsional-not-checked" for c in tension.cautions)
+
+
+def _cruciform(**keys) -> dict:
+    """Two 300×6 mm plates crossed (invented): A = 2·0.3·0.006, I = Iz = 0.006·0.3³/12 (the other plate's
+    own I is negligible), I_t = 2·0.3·0.006³/3, I_w ≈ 0 (thin plates meeting at a point); from the textbook
+    formulas of thin plates (from memory)."""
+    section = {
+        "shape": "custom",
+        "A": 2 * 0.3 * 0.006,
+        "I": 0.006 * 0.3**3 / 12,
+        "W_el": 0.006 * 0.3**2 / 6,
+        "W_pl": 0.006 * 0.3**2 / 4,
+        "doubly_symmetric": True,
+        "open_section": True,
+    }
+    section.update(keys)
+    return section
+
+
+def _strut(section: dict, axis: str = "major") -> engine.Case:
+    return engine.Case.from_dict(
+        {
+            "schema": 1,
+            "title": "Invented cruciform strut",
+            "length": 3.0,
+            "supports": {"left": "pinned", "right": "pinned"},
+            "axial_force": 500e3,
+            "section": section,
+            "material": {"name": "S355"},
+            "axis": axis,
+        }
+    )
+
+
+def test_a_cruciform_without_iz_is_checked_with_iz_equal_to_i():
+    """Without Iz the torsional check takes Iz = I (Iz ≤ I: the largest i0², the lowest N_cr,T, a safe
+    bound): N_cr,T = G·I_t/i0² with I_w ≈ 0; an audit found it unchecked, 0.577 where it is 1.657."""
+    keys = {"It": 2 * 0.3 * 0.006**3 / 3, "Iw": 1e-12}
+    section = _cruciform(**keys)
+    r = engine.solve(_strut(section))
+    i0_sq = 2 * section["I"] / section["A"]
+    n_cr = (G * keys["It"] + math.pi**2 * E * keys["Iw"] / 9.0) / i0_sq
+    lam = math.sqrt(section["A"] * FY / n_cr)
+    phi = 0.5 * (1 + 0.76 * (lam - 0.2) + lam * lam)
+    chi = 1 / (phi + math.sqrt(phi * phi - lam * lam))
+    assert r.utilization == pytest.approx(500e3 / (chi * section["A"] * FY), rel=2e-3)
+    assert r.utilization > 1.6
+
+
+@pytest.mark.parametrize(
+    ("keys", "axis"),
+    [({}, "major"), ({"It": 2 * 0.3 * 0.006**3 / 3, "Iw": 1e-12, "Iz": 0.006 * 0.3**3 / 12}, "minor")],
+    ids=["no torsion constants", "bent about its minor axis"],
+)
+def test_an_open_custom_section_whose_torsional_buckling_cannot_be_checked_is_a_danger(keys, axis):
+    r = engine.solve(_strut(_cruciform(**keys), axis))
+    assert [c.level for c in r.cautions if c.code == "torsional-buckling-not-checked"] == ["danger"]
+    closed = engine.solve(_strut(_cruciform(open_section=False, **keys), axis))
+    assert not any(c.code == "torsional-buckling-not-checked" for c in closed.cautions)
