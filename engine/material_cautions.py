@@ -11,7 +11,13 @@ is shown, and ``--strict`` fails on it.
 
 from __future__ import annotations
 
-__all__ = ["HIGH_STRENGTH_WORDS", "high_strength", "material_cautions", "not_a_code_check"]
+__all__ = [
+    "HIGH_STRENGTH_WORDS",
+    "custom_compression",
+    "high_strength",
+    "material_cautions",
+    "not_a_code_check",
+]
 
 #: What a check of the material's code would add, and the code, by material kind.
 _MISSING = {
@@ -118,10 +124,11 @@ def _twist_unchecked(section, axis: str) -> dict | None:
     }
 
 
-def unsymmetric_in_compression(section, material, has_check: bool, P: float, axis: str = "major") -> dict:
-    """The danger caution of a custom section not stated doubly symmetric (the default) in compression: its
-    flexural–torsional buckling is not checked (an audit passed a single angle at 0.927 where it gives about
-    1.15 by hand); None otherwise."""
+def custom_compression(section, material, has_check: bool, P: float, axis: str) -> dict | None:
+    """The danger caution of a custom section in compression whose torsional buckling is not checked: not
+    stated doubly symmetric (the default; an audit passed a single angle at 0.927 where flexural–torsional
+    buckling gives about 1.15 by hand), or doubly symmetric without what the check needs
+    (:func:`_twist_unchecked`); None otherwise."""
     if not has_check or not P > 0.0 or getattr(section, "shape", None) != "custom":
         return None
     if getattr(material, "kind", None) not in ("steel", "aluminium", "custom"):
@@ -145,10 +152,10 @@ def unsymmetric_in_compression(section, material, has_check: bool, P: float, axi
 
 def material_cautions(material, has_check: bool, section=None, P: float = 0.0, axis: str = "major") -> list:
     """Every caution of the material and of a custom section: :func:`not_a_code_check`,
-    :func:`high_strength` and :func:`unsymmetric_in_compression` (their fields)."""
+    :func:`high_strength` and :func:`custom_compression` (their fields)."""
     found = (
         not_a_code_check(material, has_check),
         high_strength(material, has_check),
-        unsymmetric_in_compression(section, material, has_check, P, axis),
+        custom_compression(section, material, has_check, P, axis),
     )
     return [c for c in found if c]

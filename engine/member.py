@@ -35,7 +35,6 @@ from __future__ import annotations
 import dataclasses
 import math
 from dataclasses import dataclass
-from types import SimpleNamespace
 
 import numpy as np
 
@@ -227,6 +226,11 @@ def _curve(case, section, material, segments=()):
     imp = case.imperfection
     if imp.curve != "auto":
         return imp.curve, "given in the case"
+    return _table_curve(section, material, segments)
+
+
+def _table_curve(section, material, segments=()):
+    """Table 6.2's curve of the section (the segments' worst), or (None, None) without a steel section."""
     if section is None or material is None or material.kind not in _STEEL_LIKE:
         return None, None
     if segments:  # stepped in section: the segments' worst curve (the largest bow of Table 5.1)
@@ -244,8 +248,7 @@ def _code_bow(imp, curve, section, material, segments) -> bool:
         return False
     if imp.curve == "auto":
         return True
-    auto = dataclasses.replace(imp, curve="auto")
-    own, _ = _curve(SimpleNamespace(imperfection=auto), section, material, segments)
+    own, _ = _table_curve(section, material, segments)
     order = codes.BUCKLING_CURVES
     return own is None or order.index(curve) >= order.index(own)
 

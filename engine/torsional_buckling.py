@@ -131,10 +131,11 @@ def critical_load(case, section_y, section_z, material, free_ends=()) -> Torsion
     return Torsional(N_cr=(GI_t + warping) / i0_sq, length=L_T, i0_squared=i0_sq, GI_t=GI_t, EI_w=EI_w)
 
 
-def resistance(found: Torsional, section_z, material, gamma_M1: float) -> Torsional:
-    """``found`` with χ_T and N_b,T,Rd (EN 1993-1-1 eqs. (6.47)–(6.49), the curve about z–z)."""
-    area = area_in_compression(section_z, material)
-    curve = curve_of(section_z, material)[0]
+def resistance(found: Torsional, section_z, material, gamma_M1: float, curve=None, area=None) -> Torsional:
+    """``found`` with χ_T and N_b,T,Rd (EN 1993-1-1 eqs. (6.47)–(6.49), the curve about z–z; ``curve`` and
+    ``area`` where the section's own are not known, as for a custom section)."""
+    area = area_in_compression(section_z, material) if area is None else area
+    curve = curve_of(section_z, material)[0] if curve is None else curve
     lam = codes.slenderness(area, material.fy, found.N_cr)
     chi = codes.reduction_factor(lam, curve)
     N_b_Rd = chi * area * material.fy / gamma_M1

@@ -13,7 +13,7 @@ from types import SimpleNamespace
 
 import numpy as np
 
-from engine import codes, torsional_buckling
+from engine import torsional_buckling
 from engine.ltb_route import lateral_sides
 from engine.ltb_route import made as _made
 from engine.ltb_route import major as _major
@@ -55,10 +55,9 @@ def custom_torsional(result):
     found = torsional_buckling.critical_load(case, section, turned, material, _free_ends(result))
     if found is None:
         return None
-    lam = math.sqrt(section.A * material.fy / found.N_cr) if found.N_cr > 0.0 else math.inf
-    chi = codes.reduction_factor(lam, "d")
-    N_b_Rd = chi * section.A * material.fy / case.check.gamma_M1
-    return dataclasses.replace(found, lambda_bar=lam, chi=chi, curve="d", N_b_Rd=N_b_Rd)
+    return torsional_buckling.resistance(
+        found, turned, material, case.check.gamma_M1, curve="d", area=section.A
+    )
 
 
 def _view(segment, axis: str):

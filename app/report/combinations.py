@@ -308,10 +308,11 @@ def second_plane_service(result) -> tuple:
 
 def worst_deflection(result) -> float | None:
     """The larger deflection utilisation of both planes (the first plane's alone in a one-plane case)."""
-    values = [s.utilization for s in (getattr(result, "service", None),) if s is not None]
+    first = getattr(result, "service", None)
     second = second_plane_service(result)
-    if second is not None:
-        values.append(second[1].utilization)
+    values = ([] if first is None else [first.utilization]) + (
+        [] if second is None else [second[1].utilization]
+    )
     return max(values) if values else None
 
 
